@@ -1,0 +1,175 @@
+/**
+ * Public types of quantbid, in one place. Every field says its unit and default.
+ *
+ * Conventions used everywhere:
+ * - power in MW, energy in MWh, price in currency/MWh (the currency is a label in the market spec);
+ * - charge power `chargeMw` >= 0 takes energy from the grid, discharge power `dischargeMw` >= 0 gives
+ *   energy to the grid; both are held constant over a delivery period;
+ * - timestamps are ISO 8601 strings with an offset, e.g. `2027-03-28T02:00:00+02:00`.
+ */
+
+/** Market spec, as read from `market.json` (DESIGN.md section 8). */
+export interface MarketSpec {
+  /** IANA time zone of the delivery day, e.g. `Europe/Berlin`. Required. */
+  readonly timeZone: string;
+  /** Length of a delivery period [min]: 15, 30 or 60. Required. */
+  readonly periodMinutes: 15 | 30 | 60;
+  /** Lowest price the auction can clear at [currency/MWh]. Required. */
+  readonly priceFloor: number;
+  /** Highest price the auction can clear at [currency/MWh]. Required. */
+  readonly priceCap: number;
+  /** Currency label printed beside prices, e.g. `EUR` or an invented one. Required. */
+  readonly currency: string;
+  /** Gate closure, local time of day on the day before delivery, `HH:MM`. Required. */
+  readonly gateClosure: string;
+  /** Rule for the fallback (balancing) price where a history has none. Default: none (required then). */
+  readonly fallback?: FallbackRule;
+}
+
+/**
+ * Fallback price rule for histories without a `fallback_price` column:
+ * an unaccepted buy is closed at clearing + penaltyPerMwh (the operator pays more),
+ * an unaccepted sell at clearing - penaltyPerMwh (the operator receives less).
+ */
+export interface FallbackRule {
+  readonly kind: 'clearing-plus-penalty';
+  /** Penalty added against the operator [currency/MWh], >= 0. */
+  readonly penaltyPerMwh: number;
+}
+
+/** Battery spec, as read from `battery.json` (DESIGN.md section 8). */
+export interface BatterySpec {
+  /** Nameplate energy capacity [MWh], > 0. */
+  readonly energyMwh: number;
+  /** Maximum charge power at the grid connection [MW], > 0. */
+  readonly chargeMw: number;
+  /** Maximum discharge power at the grid connection [MW], > 0. */
+  readonly dischargeMw: number;
+  /** Round-trip efficiency (0, 1]; split as sqrt into charge and discharge. Either this or both of the next two. */
+  readonly roundTripEfficiency?: number;
+  /** Charge efficiency (0, 1]: MWh stored per MWh bought. */
+  readonly chargeEfficiency?: number;
+  /** Discharge efficiency (0, 1]: MWh sold per MWh taken from store. */
+  readonly dischargeEfficiency?: number;
+  /** Lowest allowed state of charge as a fraction of energyMwh [-], default 0. */
+  readonly socMinFraction: number;
+  /** Highest allowed state of charge as a fraction of energyMwh [-], default 1. */
+  readonly socMaxFraction: number;
+  /** State of charge at the start of the first planned day as a fraction of energyMwh [-], default 0.5. */
+  readonly socInitialFraction: number;
+  /** Lowest state of charge at the end of each day as a fraction [-]. Default: the day's starting state. */
+  readonly socFinalMinFraction?: number;
+  /** Cap on discharged energy per day in equivalent full cycles of the usable window [1/day]. Default: none. */
+  readonly maxCyclesPerDay?: number;
+  /** Wear cost per MWh discharged [currency/MWh], >= 0, default 0. */
+  readonly degradationCostPerMwh: number;
+}
+
+/** Battery values the planner uses, derived once from a BatterySpec (all in physical units). */
+export interface BatteryModel {
+  /** Nameplate energy [MWh]. */
+  readonly energyMwh: number;
+  /** Charge power limit [MW]. */
+  readonly chargeMw: number;
+  /** Discharge power limit [MW]. */
+  readonly dischargeMw: number;
+  /** Charge efficiency eta_c (0, 1] [-]. */
+  readonly chargeEfficiency: number;
+  /** Discharge efficiency eta_d (0, 1] [-]. */
+  readonly dischargeEfficiency: number;
+  /** State-of-charge window [MWh]. */
+  readonly socMinMwh: number;
+  readonly socMaxMwh: number;
+  /** State of charge at the start of the first day [MWh]. */
+  readonly socInitialMwh: number;
+  /** End-of-day floor [MWh]; undefined means "the day's starting state". */
+  readonly socFinalMinMwh: number | undefined;
+  /** Cap on discharged energy per day [MWh at the grid]; undefined means no cap. */
+  readonly maxDischargeMwhPerDay: number | undefined;
+  /** Wear cost per MWh discharged (at the grid) [currency/MWh]. */
+  readonly degradationCostPerMwh: number;
+}
+
+/** One delivery period. */
+export interface DeliveryPeriod {
+  /** Start, ISO 8601 with the market zone's offset. */
+  readonly start: string;
+  /** End, ISO 8601 with the market zone's offset. */
+  readonly end: string;
+  /** Start as epoch milliseconds (for joins and sorting). */
+  readonly startMs: number;
+}
+
+/** One delivery day's quantile forecast: prices[t][k] at levels[k], non-decreasing in k. */
+export interface QuantileDay {
+  /** Delivery day, YYYY-MM-DD in the market zone. */
+  readonly day: string;
+  /** Levels tau in (0, 1), strictly increasing. */
+  readonly levels: readonly number[];
+  /** Period starts, one per delivery period of the day, in order. */
+  readonly periods: readonly DeliveryPeriod[];
+  /** prices[t][k]: price at levels[k] for period t [currency/MWh]. */
+  readonly prices: readonly (readonly number[])[];
+}
+
+/**
+ * The day problem the planner solves (DESIGN.md section 4), in physical units.
+ * Prices are the ones the objective uses; limits are set separately.
+ */
+export interface DayProblem {
+  /** Period length dt [h]. */
+  readonly periodHours: number;
+  /** Price paid per MWh bought in each period [currency/MWh]; length T. */
+  readonly buyPricePerMwh: readonly number[];
+  /** Price received per MWh sold in each period [currency/MWh]; length T. */
+  readonly sellPricePerMwh: readonly number[];
+  readonly battery: BatteryModel;
+  /** State of charge at the start of the day [MWh]. */
+  readonly socStartMwh: number;
+  /** Floor on the state of charge at the end of the day [MWh]. */
+  readonly socEndMinMwh: number;
+  /** Value per MWh left in store at the end of the day [currency/MWh], default 0. */
+  readonly terminalValuePerMwh?: number;
+}
+
+/** A schedule: charge, discharge and state of charge per period. */
+export interface Schedule {
+  /** Charge power per period [MW], >= 0. */
+  readonly chargeMw: readonly number[];
+  /** Discharge power per period [MW], >= 0; never both > 0 in one period. */
+  readonly dischargeMw: readonly number[];
+  /** State of charge at the end of each period [MWh]. */
+  readonly socMwh: readonly number[];
+}
+
+/** Outcome of solving a day problem: a status union, never an empty schedule. */
+export type DayOutcome =
+  | {
+      readonly status: 'optimal';
+      readonly schedule: Schedule;
+      /** Objective value at the prices of the problem [currency]. */
+      readonly objective: number;
+      /** Which method produced it, and the branch-and-bound nodes spent on simultaneous flows. */
+      readonly solver: string;
+      readonly nodes: number;
+    }
+  | { readonly status: 'infeasible'; readonly reason: string }
+  | { readonly status: 'unbounded'; readonly reason: string };
+
+export type Side = 'buy' | 'sell';
+
+/** One order: one period, one side, a quantity held over the period, a limit price. */
+export interface Order {
+  readonly periodStart: string;
+  readonly periodEnd: string;
+  readonly side: Side;
+  /** Quantity [MW] held over the period. */
+  readonly quantityMw: number;
+  /** Limit price [currency/MWh], inside [priceFloor, priceCap]. */
+  readonly limitPrice: number;
+  /** Quantile level the limit was taken at, or null for a point limit / floor / cap. */
+  readonly quantileLevel: number | null;
+}
+
+/** Planning policy names (DESIGN.md section 4). */
+export type PlanPolicy = 'quantile' | 'median' | 'point';
