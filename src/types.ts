@@ -173,3 +173,29 @@ export interface Order {
 
 /** Planning policy names (DESIGN.md section 4). */
 export type PlanPolicy = 'quantile' | 'median' | 'point';
+
+/**
+ * One delivery day of price history: realised clearing prices, the fallback (balancing) price where
+ * the history has one, and exogenous columns known before gate closure (e.g. `load_forecast_mw`).
+ * Arrays are indexed like `periods`.
+ */
+export interface HistoryDay {
+  /** Delivery day, YYYY-MM-DD in the market zone. */
+  readonly day: string;
+  readonly periods: readonly DeliveryPeriod[];
+  /** Realised clearing price per period [currency/MWh]. */
+  readonly pricePerMwh: readonly number[];
+  /** Realised fallback price per period [currency/MWh], or null when the history has no such column. */
+  readonly fallbackPricePerMwh: readonly number[] | null;
+  /** Exogenous columns by CSV header name, e.g. `load_forecast_mw` [MW]. */
+  readonly exogenous: Readonly<Record<string, readonly number[]>>;
+}
+
+/** A price history: complete delivery days in ascending order (days with gaps are listed apart). */
+export interface PriceHistory {
+  readonly days: readonly HistoryDay[];
+  /** Names of the exogenous columns present, in CSV order. */
+  readonly exogenousNames: readonly string[];
+  /** Days that had missing or doubled periods and were left out, with the reason. */
+  readonly incompleteDays: readonly { readonly day: string; readonly reason: string }[];
+}

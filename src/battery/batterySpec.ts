@@ -1,0 +1,108 @@
+import { z } from 'zod';
+import type { BatteryModel, BatterySpec } from '../types.js';
+
+/** Defaults of the optional battery fields (DESIGN.md section 8). */
+export const BATTERY_DEFAULTS = Object.freeze({
+  socMinFraction: 0,
+  socMaxFraction: 1,
+  socInitialFraction: 0.5,
+  degradationCostPerMwh: 0,
+});
+
+const num = (field: string) =>
+  z.number({ error: (issue) => (issue.input === undefined ? `missing ${field}` : `${field} must be a number`) }).finite();
+const positive = (field: string) => num(field).gt(0, `${field} must be > 0`);
+const efficiency = (field: string) => num(field).gt(0, `${field} must be in (0, 1]`).lte(1, `${field} must be in (0, 1]`);
+const fraction = (field: string) => num(field).min(0, `${field} must be in [0, 1]`).max(1, `${field} must be in [0, 1]`);
+
+/** Schema of `battery.json`, with the physical sanity checks. */
+export const batterySpecSchema = z
+  .strictObject({
+    energyMwh: positive('energyMwh'),
+    chargeMw: positive('chargeMw'),
+    dischargeMw: positive('dischargeMw'),
+    roundTripEfficiency: efficiency('roundTripEfficiency').optional(),
+    chargeEfficiency: efficiency('chargeEfficiency').optional(),
+    dischargeEfficiency: efficiency('dischargeEfficiency').optional(),
+    socMinFraction: fraction('socMinFraction').default(BATTERY_DEFAULTS.socMinFraction),
+    socMaxFraction: fraction('socMaxFraction').default(BATTERY_DEFAULTS.socMaxFraction),
+    socInitialFraction: fraction('socInitialFraction').default(BATTERY_DEFAULTS.socInitialFraction),
+    socFinalMinFraction: fraction('socFinalMinFraction').optional(),
+    maxCyclesPerDay: positive('maxCyclesPerDay').optional(),
+    degradationCostPerMwh: num('degradationCostPerMwh')
+      .min(0, 'degradationCostPerMwh must be >= 0')
+      .default(BATTERY_DEFAULTS.degradationCostPerMwh),
+  })
+  .superRefine((spec, ctx) => {
+    const split = spec.chargeEfficiency !== undefined || spec.dischargeEfficiency !== undefined;
+    if (spec.roundTripEfficiency !== undefined && split) {
+      ctx.addIssue({ code: 'custom', path: ['roundTripEfficiency'], message: 'give either roundTripEfficiency or chargeEfficiency + dischargeEfficiency, not both' });
+    } else if (spec.roundTripEfficiency === undefined && !split) {
+      ctx.addIssue({ code: 'custom', path: ['roundTripEfficiency'], message: 'missing roundTripEfficiency' });
+    } else if (split && (spec.chargeEfficiency === undefined || spec.dischargeEfficiency === undefined)) {
+      const missing = spec.chargeEfficiency === undefined ? 'chargeEfficiency' : 'dischargeEfficiency';
+      ctx.addIssue({ code: 'custom', path: [missing], message: `missing ${missing} (both split efficiencies are needed)` });
+    }
+    if (spec.socMinFraction >= spec.socMaxFraction) {
+      ctx.addIssue({ code: 'custom', path: ['socMaxFraction'], message: `socMaxFraction (${spec.socMaxFraction}) must be above socMinFraction (${spec.socMinFraction})` });
+    }
+    if (spec.socInitialFraction < spec.socMinFraction || spec.socInitialFraction > spec.socMaxFraction) {
+      ctx.addIssue({ code: 'custom', path: ['socInitialFraction'], message: `socInitialFraction (${spec.socInitialFraction}) is outside the window [${spec.socMinFraction}, ${spec.socMaxFraction}]` });
+    }
+    const final = spec.socFinalMinFraction;
+    if (final !== undefined && (final < spec.socMinFraction || final > spec.socMaxFraction)) {
+      ctx.addIssue({ code: 'custom', path: ['socFinalMinFraction'], message: `socFinalMinFraction (${final}) is outside the window [${spec.socMinFraction}, ${spec.socMaxFraction}]` });
+    }
+  });
+
+export const BATTERY_FIELD_FIXES: Readonly<Record<string, string>> = {
+  energyMwh: 'give the usable nameplate energy in MWh, e.g. 10',
+  chargeMw: 'give the charge power limit at the grid connection in MW, e.g. 5',
+  dischargeMw: 'give the discharge power limit at the grid connection in MW, e.g. 5',
+  roundTripEfficiency: 'give roundTripEfficiency in (0, 1], e.g. 0.88, or both chargeEfficiency and dischargeEfficiency',
+  chargeEfficiency: 'give chargeEfficiency in (0, 1] together with dischargeEfficiency',
+  dischargeEfficiency: 'give dischargeEfficiency in (0, 1] together with chargeEfficiency',
+  socMinFraction: 'give the lowest state of charge as a fraction of energyMwh, e.g. 0.05',
+  socMaxFraction: 'give the highest state of charge as a fraction of energyMwh, above socMinFraction, e.g. 0.95',
+  socInitialFraction: 'give a starting state of charge inside [socMinFraction, socMaxFraction]',
+  socFinalMinFraction: 'give an end-of-day floor inside [socMinFraction, socMaxFraction], or leave it out',
+  maxCyclesPerDay: 'give a positive number of equivalent full cycles per day, or leave it out',
+  degradationCostPerMwh: 'give a wear cost >= 0 per MWh discharged, e.g. 4',
+};
+
+export function parseBatterySpec(value: unknown): z.ZodSafeParseResult<BatterySpec> {
+  return batterySpecSchema.safeParse(value) as z.ZodSafeParseResult<BatterySpec>;
+}
+
+/**
+ * Physical values the planner uses.
+ *
+ * With only a round-trip efficiency, eta_c = eta_d = sqrt(roundTrip) (common practice: losses split
+ * evenly between the two conversions). The cycle cap limits energy discharged at the grid per day to
+ * maxCyclesPerDay x usable energy, usable = (socMax - socMin) x energyMwh (DESIGN.md section 4).
+ */
+export function batteryModel(spec: BatterySpec): BatteryModel {
+  const roundTrip = spec.roundTripEfficiency;
+  const chargeEfficiency = spec.chargeEfficiency ?? Math.sqrt(roundTrip ?? 1);
+  const dischargeEfficiency = spec.dischargeEfficiency ?? Math.sqrt(roundTrip ?? 1);
+  const socMinMwh = spec.socMinFraction * spec.energyMwh;
+  const socMaxMwh = spec.socMaxFraction * spec.energyMwh;
+  return {
+    energyMwh: spec.energyMwh,
+    chargeMw: spec.chargeMw,
+    dischargeMw: spec.dischargeMw,
+    chargeEfficiency,
+    dischargeEfficiency,
+    socMinMwh,
+    socMaxMwh,
+    socInitialMwh: spec.socInitialFraction * spec.energyMwh,
+    socFinalMinMwh: spec.socFinalMinFraction === undefined ? undefined : spec.socFinalMinFraction * spec.energyMwh,
+    maxDischargeMwhPerDay: spec.maxCyclesPerDay === undefined ? undefined : spec.maxCyclesPerDay * (socMaxMwh - socMinMwh),
+    degradationCostPerMwh: spec.degradationCostPerMwh,
+  };
+}
+
+/** Round-trip efficiency of a model [-]: eta_c x eta_d. */
+export function roundTripEfficiency(battery: BatteryModel): number {
+  return battery.chargeEfficiency * battery.dischargeEfficiency;
+}

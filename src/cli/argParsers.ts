@@ -1,0 +1,30 @@
+import { InvalidArgumentError } from 'commander';
+import { isValidDay } from '../market/calendar.js';
+
+/** Value parsers for command-line options; each throws commander's typed error (exit code 2). */
+
+export function parseDayArg(value: string): string {
+  if (!isValidDay(value)) throw new InvalidArgumentError(`"${value}" is not a day; write it as YYYY-MM-DD, e.g. 2027-03-28`);
+  return value;
+}
+
+export function parseAlphaArg(value: string): number {
+  const alpha = Number(value);
+  if (!Number.isFinite(alpha) || !(alpha > 0 && alpha < 0.5)) {
+    throw new InvalidArgumentError(`alpha ${value} must be a number in (0, 0.5): the central interval [q(alpha), q(1 - alpha)], e.g. 0.1`);
+  }
+  return alpha;
+}
+
+export function parseNonNegativeArg(value: string): number {
+  const x = Number(value);
+  if (value.trim() === '' || !Number.isFinite(x) || x < 0) throw new InvalidArgumentError(`"${value}" must be a number >= 0`);
+  return x;
+}
+
+export function oneOf<T extends string>(allowed: readonly T[]): (value: string) => T {
+  return (value: string) => {
+    if (!(allowed as readonly string[]).includes(value)) throw new InvalidArgumentError(`"${value}" must be one of ${allowed.join(', ')}`);
+    return value as T;
+  };
+}

@@ -1,0 +1,46 @@
+import { relative } from 'node:path';
+import type { Command } from 'commander';
+import { InputError } from '../io/inputError.js';
+import { readScenario } from '../io/readScenario.js';
+
+/** The input-file options every command shares. */
+export interface InputFlags {
+  readonly scenario?: string;
+  readonly market?: string;
+  readonly battery?: string;
+  readonly forecast?: string;
+  readonly history?: string;
+}
+
+export type InputName = 'market' | 'battery' | 'forecast' | 'history';
+
+export function addInputOptions(command: Command, names: readonly InputName[]): Command {
+  command.option('--scenario <file>', 'scenario JSON naming the input files (paths relative to it)');
+  const help: Record<InputName, string> = {
+    market: 'market spec JSON (time zone, period length, price floor and cap)',
+    battery: 'battery spec JSON (energy, power, efficiency, state-of-charge window)',
+    forecast: 'quantile forecast CSV, wide or long layout (.csv or .csv.gz)',
+    history: 'price history CSV: period_start,price[,fallback_price,...] (.csv or .csv.gz)',
+  };
+  for (const name of names) command.option(`--${name} <file>`, `${help[name]}; overrides the scenario's`);
+  return command;
+}
+
+/**
+ * Input paths from explicit flags, else from the scenario file. A missing input is a command-line
+ * problem; all missing ones are listed together.
+ */
+export function resolveInputs<N extends InputName>(flags: InputFlags, names: readonly N[]): { paths: Record<N, string>; demoDay?: string } {
+  const scenario = flags.scenario === undefined ? undefined : readScenario(flags.scenario);
+  const paths = {} as Record<N, string>;
+  const missing: N[] = [];
+  for (const name of names) {
+    const path = flags[name] ?? (scenario?.[name] === undefined ? undefined : relative(process.cwd(), scenario[name] as string));
+    if (path === undefined) missing.push(name);
+    else paths[name] = path;
+  }
+  if (missing.length > 0) {
+    throw new InputError(missing.map((name) => ({ file: 'command line', field: `--${name}`, message: `no ${name} file given`, fix: `give --${name} FILE, or --scenario FILE with a "${name}" entry` })));
+  }
+  return scenario?.demoDay === undefined ? { paths } : { paths, demoDay: scenario.demoDay };
+}

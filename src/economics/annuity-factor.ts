@@ -1,0 +1,23 @@
+import { requireIntegerIn } from '../stats/validate.js';
+import { requireDiscountRate } from './discount-rate.js';
+
+/**
+ * Annuity factor: present value at t = 0 of 1 per year paid at the end of years 1..n.
+ *
+ * Notes: a(r, n) = sum_{t=1}^{n} (1 + r)^-t = (1 - (1 + r)^-n) / r, and a(0, n) = n.
+ * Computed as -expm1(-n log1p(r)) / r so that small rates keep their precision.
+ *
+ * @param rate r per year [-], > -1
+ * @param years n, integer >= 0
+ * @example
+ * annuityFactor(0.05, 10); // 7.721734929184818 (annuity tables: 7.7217)
+ *
+ * Reference: R. A. Brealey, S. C. Myers and F. Allen, Principles of Corporate Finance (McGraw-Hill,
+ * any recent edition), the annuity formula; standard present-value-of-annuity tables.
+ */
+export function annuityFactor(rate: number, years: number): number {
+  requireDiscountRate('rate', rate);
+  requireIntegerIn('years', years, 0);
+  if (rate === 0) return years;
+  return -Math.expm1(-years * Math.log1p(rate)) / rate;
+}

@@ -1,0 +1,86 @@
+import type { Matrix } from './matrix.js';
+import { requireResponse } from './matrix.js';
+
+/**
+ * Cross products of a design whose columns are centred and scaled, for models with a free intercept
+ * (least squares via Cholesky, LASSO via coordinate descent).
+ *
+ * Notes: with column means m_j, population standard deviations s_j = sqrt((1/n) sum_i (x_ij - m_j)^2),
+ * z_ij = (x_ij - m_j) / s_j and ybar the mean of y,
+ *   gram_jl = (1/n) sum_i z_ij z_il   (a correlation matrix, unit diagonal),
+ *   zty_j   = (1/n) sum_i z_ij (y_i - ybar),
+ *   yVariance = (1/n) sum_i (y_i - ybar)^2.
+ * Means are taken in a first pass and the centred products in a second, which keeps the rounding
+ * error of the products at the level of the centred data (Chan, Golub and LeVeque 1983). A column
+ * with s_j <= 1e-12 (1 + |m_j|) is constant: its scale is set to 0 and its row and column of `gram`
+ * to 0, and the solvers leave it out (its coefficient is 0). This is the standardisation of
+ * Tibshirani (1996) and Friedman, Hastie and Tibshirani (2010).
+ *
+ * References: T. F. Chan, G. H. Golub and R. J. LeVeque (1983), Algorithms for computing the sample
+ * variance, The American Statistician 37(3), 242-247, doi:10.1080/00031305.1983.10483115;
+ * J. Friedman, T. Hastie and R. Tibshirani (2010), Regularization paths for generalized linear models
+ * via coordinate descent, J. Stat. Softw. 33(1), doi:10.18637/jss.v033.i01.
+ */
+export interface StandardisedGram {
+  /** Rows n [-]. */
+  readonly n: number;
+  /** Columns k (the intercept is not a column) [-]. */
+  readonly k: number;
+  /** Column means m_j. */
+  readonly means: Float64Array;
+  /** Column standard deviations s_j (population, divisor n); 0 marks a constant column. */
+  readonly scales: Float64Array;
+  /** Mean of y. */
+  readonly yMean: number;
+  /** k x k row-major correlation matrix of the columns (zero rows and columns for constant ones). */
+  readonly gram: Float64Array;
+  /** (1/n) Z'(y - ybar). */
+  readonly zty: Float64Array;
+  /** (1/n) sum (y - ybar)^2. */
+  readonly yVariance: number;
+}
+
+/** Builds the {@link StandardisedGram} of `x` (n x k, no column of ones) and `y` (length n >= 1). */
+export function standardisedGram(x: Matrix, y: ArrayLike<number>): StandardisedGram {
+  requireResponse(x, y);
+  const { rows: n, cols: k, data } = x;
+  const means = new Float64Array(k);
+  let yMean = 0;
+  for (let i = 0; i < n; i++) {
+    yMean += y[i] as number;
+    for (let j = 0; j < k; j++) means[j] = (means[j] as number) + (data[i * k + j] as number);
+  }
+  yMean /= n;
+  for (let j = 0; j < k; j++) means[j] = (means[j] as number) / n;
+  const gram = new Float64Array(k * k);
+  const cy = new Float64Array(k);
+  const row = new Float64Array(k);
+  let yVariance = 0;
+  for (let i = 0; i < n; i++) {
+    const dy = (y[i] as number) - yMean;
+    yVariance += dy * dy;
+    for (let j = 0; j < k; j++) row[j] = (data[i * k + j] as number) - (means[j] as number);
+    for (let j = 0; j < k; j++) {
+      const rj = row[j] as number;
+      cy[j] = (cy[j] as number) + rj * dy;
+      for (let l = j; l < k; l++) gram[j * k + l] = (gram[j * k + l] as number) + rj * (row[l] as number);
+    }
+  }
+  const scales = new Float64Array(k);
+  for (let j = 0; j < k; j++) {
+    const sd = Math.sqrt((gram[j * k + j] as number) / n);
+    scales[j] = sd <= 1e-12 * (1 + Math.abs(means[j] as number)) ? 0 : sd;
+  }
+  const zty = new Float64Array(k);
+  for (let j = 0; j < k; j++) {
+    const sj = scales[j] as number;
+    zty[j] = sj === 0 ? 0 : (cy[j] as number) / (n * sj);
+    for (let l = j; l < k; l++) {
+      const sl = scales[l] as number;
+      const v = sj === 0 || sl === 0 ? 0 : (gram[j * k + l] as number) / (n * sj * sl);
+      gram[j * k + l] = v;
+      gram[l * k + j] = v;
+    }
+  }
+  return { n, k, means, scales, yMean, gram, zty, yVariance: yVariance / n };
+}

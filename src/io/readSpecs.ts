@@ -1,0 +1,34 @@
+import { z } from 'zod';
+import type { BatterySpec, MarketSpec } from '../types.js';
+import { BATTERY_FIELD_FIXES, parseBatterySpec } from '../battery/batterySpec.js';
+import { MARKET_FIELD_FIXES, parseMarketSpec } from '../market/marketSpec.js';
+import { InputError } from './inputError.js';
+import { parseJsonText, zodProblems } from './jsonProblems.js';
+import { readInputFile } from './readInputFile.js';
+
+/**
+ * Parses JSON text with a zod-checked parser; every problem (with line and field) goes into one
+ * InputError.
+ */
+export function parseJsonSpec<T>(
+  text: string,
+  file: string,
+  parse: (value: unknown) => z.ZodSafeParseResult<T>,
+  fixes: Readonly<Record<string, string>>,
+): T {
+  const json = parseJsonText(text, file);
+  if ('problem' in json) throw new InputError([json.problem]);
+  const result = parse(json.value);
+  if (!result.success) {
+    throw new InputError(zodProblems(result.error, file, text, (field) => fixes[field] ?? 'see the file formats in the README'));
+  }
+  return result.data;
+}
+
+export function readMarketSpec(path: string): MarketSpec {
+  return parseJsonSpec(readInputFile(path), path, parseMarketSpec, MARKET_FIELD_FIXES);
+}
+
+export function readBatterySpec(path: string): BatterySpec {
+  return parseJsonSpec(readInputFile(path), path, parseBatterySpec, BATTERY_FIELD_FIXES);
+}

@@ -1,0 +1,83 @@
+import { DateTime, IANAZone } from 'luxon';
+import type { DeliveryPeriod } from '../types.js';
+
+/**
+ * The delivery periods of one delivery day in a market's IANA zone.
+ *
+ * A delivery day runs from local midnight to the next local midnight, so it lasts 23 or 25 hours on
+ * clock-change days (92 or 100 quarter-hours in a zone that shifts by one hour). Periods are cut in
+ * absolute time from the day's start; each is named by its start as ISO 8601 with the local offset,
+ * e.g. `2027-03-28T03:00:00+02:00`.
+ *
+ * @param day YYYY-MM-DD
+ * @param timeZone IANA zone, e.g. `Europe/Berlin`, `Australia/Adelaide`
+ * @param periodMinutes 15, 30 or 60 [min]
+ */
+export function deliveryPeriods(day: string, timeZone: string, periodMinutes: number): DeliveryPeriod[] {
+  const { startMs, endMs } = deliveryDayBounds(day, timeZone);
+  const stepMs = periodMinutes * 60_000;
+  if ((endMs - startMs) % stepMs !== 0) {
+    throw new RangeError(`delivery day ${day} in ${timeZone} is not a whole number of ${periodMinutes}-minute periods`);
+  }
+  const periods: DeliveryPeriod[] = [];
+  for (let ms = startMs; ms < endMs; ms += stepMs) {
+    periods.push({ start: formatInstant(ms, timeZone), end: formatInstant(ms + stepMs, timeZone), startMs: ms });
+  }
+  return periods;
+}
+
+/** Absolute start and end [epoch ms] of a delivery day (local midnight to next local midnight). */
+export function deliveryDayBounds(day: string, timeZone: string): { startMs: number; endMs: number } {
+  const start = DateTime.fromISO(day, { zone: timeZone }).startOf('day');
+  if (!start.isValid) throw new RangeError(`not a valid day: ${day} (${start.invalidExplanation ?? 'invalid'})`);
+  const end = start.plus({ days: 1 }).startOf('day');
+  return { startMs: start.toMillis(), endMs: end.toMillis() };
+}
+
+/** ISO 8601 with the zone's offset at that instant, seconds kept, milliseconds dropped. */
+export function formatInstant(ms: number, timeZone: string): string {
+  const text = DateTime.fromMillis(ms, { zone: timeZone }).toISO({ suppressMilliseconds: true });
+  if (text === null) throw new RangeError(`cannot format instant ${ms} in ${timeZone}`);
+  return text;
+}
+
+/** The delivery day (YYYY-MM-DD, local) that contains an instant. */
+export function dayOfInstant(ms: number, timeZone: string): string {
+  const text = DateTime.fromMillis(ms, { zone: timeZone }).toISODate();
+  if (text === null) throw new RangeError(`cannot find the day of instant ${ms} in ${timeZone}`);
+  return text;
+}
+
+/** The day after `day` (YYYY-MM-DD), calendar arithmetic. */
+export function nextDay(day: string): string {
+  return shiftDay(day, 1);
+}
+
+/** `day` shifted by `days` calendar days. */
+export function shiftDay(day: string, days: number): string {
+  const text = DateTime.fromISO(day, { zone: 'UTC' }).plus({ days }).toISODate();
+  if (text === null) throw new RangeError(`not a valid day: ${day}`);
+  return text;
+}
+
+/** All days from `from` to `to`, both included. */
+export function daysBetween(from: string, to: string): string[] {
+  const days: string[] = [];
+  for (let day = from; day <= to; day = nextDay(day)) days.push(day);
+  return days;
+}
+
+/** Day of the week of a calendar day, 1 = Monday ... 7 = Sunday (ISO 8601). */
+export function isoWeekday(day: string): number {
+  return DateTime.fromISO(day, { zone: 'UTC' }).weekday;
+}
+
+export function isValidTimeZone(name: string): boolean {
+  return IANAZone.isValidZone(name);
+}
+
+const DAY_PATTERN = /^\d{4}-\d{2}-\d{2}$/;
+
+export function isValidDay(text: string): boolean {
+  return DAY_PATTERN.test(text) && DateTime.fromISO(text, { zone: 'UTC' }).isValid;
+}

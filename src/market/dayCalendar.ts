@@ -1,0 +1,73 @@
+import type { DeliveryPeriod } from '../types.js';
+import { deliveryPeriods, isValidDay } from './calendar.js';
+
+/** The periods of each delivery day of one market, computed once per day and kept. */
+export class DayCalendar {
+  private readonly cache = new Map<string, readonly DeliveryPeriod[]>();
+
+  constructor(
+    readonly timeZone: string,
+    readonly periodMinutes: number,
+  ) {}
+
+  periods(day: string): readonly DeliveryPeriod[] {
+    let periods = this.cache.get(day);
+    if (periods === undefined) {
+      periods = deliveryPeriods(day, this.timeZone, this.periodMinutes);
+      this.cache.set(day, periods);
+    }
+    return periods;
+  }
+
+  /** Period length [h]. */
+  get periodHours(): number {
+    return this.periodMinutes / 60;
+  }
+}
+
+const STAMP = /^(\d{4}-\d{2}-\d{2})T(\d{2}):(\d{2})(?::(\d{2})(?:\.\d+)?)?(Z|[+-]\d{2}:?\d{2})$/;
+
+export type LocatedPeriod =
+  | { readonly ok: true; readonly day: string; readonly index: number; readonly startMs: number }
+  | { readonly ok: false; readonly message: string; readonly fix: string };
+
+/**
+ * Finds which delivery day and period a `period_start` timestamp names. The timestamp must carry an
+ * offset (or Z), must equal a period start of the day its local date names, and its offset must be
+ * the market zone's offset at that instant (so a doubled autumn hour is told apart by its offset).
+ */
+export function locatePeriod(text: string, calendar: DayCalendar): LocatedPeriod {
+  const match = STAMP.exec(text);
+  if (match === null) {
+    if (/^\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}(:\d{2})?$/.test(text)) {
+      return { ok: false, message: `timestamp "${text}" has no UTC offset`, fix: `write it as ISO 8601 with the offset of ${calendar.timeZone}, e.g. 2027-03-28T03:00:00+02:00` };
+    }
+    return { ok: false, message: `"${text}" is not an ISO 8601 timestamp`, fix: 'write period starts like 2027-03-28T03:00:00+02:00' };
+  }
+  const day = match[1] as string;
+  const startMs = Date.parse(text);
+  if (!isValidDay(day) || Number.isNaN(startMs)) {
+    return { ok: false, message: `"${text}" is not a valid date and time`, fix: 'check the date and the time of day' };
+  }
+  const periods = calendar.periods(day);
+  const first = periods[0];
+  const stepMs = calendar.periodMinutes * 60_000;
+  const offset = (match[5] as string) === 'Z' ? '+00:00' : normaliseOffset(match[5] as string);
+  const position = first === undefined ? -1 : (startMs - first.startMs) / stepMs;
+  const period = Number.isInteger(position) ? periods[position] : undefined;
+  if (period === undefined) {
+    const aligned = Number.isInteger((startMs - (first?.startMs ?? 0)) / stepMs);
+    return aligned
+      ? { ok: false, message: `timestamp "${text}" is not in delivery day ${day} of ${calendar.timeZone} (offset ${offset} does not match the zone on that date)`, fix: `use the local time with the zone's offset on that date, e.g. ${periods[0]?.start ?? ''}` }
+      : { ok: false, message: `timestamp "${text}" is not the start of a ${calendar.periodMinutes}-minute delivery period`, fix: `period starts fall on multiples of ${calendar.periodMinutes} minutes` };
+  }
+  const expectedOffset = period.start.slice(-6);
+  if (offset !== expectedOffset) {
+    return { ok: false, message: `offset ${offset} in "${text}" does not match ${calendar.timeZone} on that date (${expectedOffset})`, fix: `write it as ${period.start}` };
+  }
+  return { ok: true, day, index: position, startMs };
+}
+
+function normaliseOffset(offset: string): string {
+  return offset.includes(':') ? offset : `${offset.slice(0, 3)}:${offset.slice(3)}`;
+}

@@ -1,0 +1,49 @@
+import { z } from 'zod';
+import type { MarketSpec } from '../types.js';
+import { isValidTimeZone } from './calendar.js';
+
+const finite = (what: string) =>
+  z.number({ error: (issue) => (issue.input === undefined ? `missing ${what}` : `${what} must be a number`) }).finite();
+
+/** Schema of `market.json` (DESIGN.md section 8), with sanity checks that say what to fix. */
+export const marketSpecSchema = z
+  .strictObject({
+    timeZone: z
+      .string({ error: 'missing timeZone' })
+      .refine(isValidTimeZone, { message: 'not an IANA time zone' }),
+    periodMinutes: z.union([z.literal(15), z.literal(30), z.literal(60)], {
+      error: 'periodMinutes must be 15, 30 or 60',
+    }),
+    priceFloor: finite('priceFloor'),
+    priceCap: finite('priceCap'),
+    currency: z.string({ error: 'missing currency' }).min(1, 'currency must not be empty'),
+    gateClosure: z
+      .string({ error: 'missing gateClosure' })
+      .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'gateClosure must be a local time HH:MM'),
+    fallback: z
+      .strictObject({
+        kind: z.literal('clearing-plus-penalty', { error: 'fallback.kind must be "clearing-plus-penalty"' }),
+        penaltyPerMwh: finite('penaltyPerMwh').min(0, 'penaltyPerMwh must be >= 0'),
+      })
+      .optional(),
+  })
+  .superRefine((spec, ctx) => {
+    if (spec.priceFloor >= spec.priceCap) {
+      ctx.addIssue({ code: 'custom', path: ['priceCap'], message: `priceCap (${spec.priceCap}) must be above priceFloor (${spec.priceFloor})` });
+    }
+  });
+
+export const MARKET_FIELD_FIXES: Readonly<Record<string, string>> = {
+  timeZone: 'use the market\'s IANA zone name, e.g. "Europe/Berlin" or "Australia/Adelaide"',
+  periodMinutes: 'set the market time unit: 15, 30 or 60',
+  priceFloor: 'give the auction\'s lowest clearing price in currency/MWh, e.g. -500',
+  priceCap: 'give the auction\'s highest clearing price in currency/MWh, above priceFloor, e.g. 4000',
+  currency: 'give a currency label such as "EUR"',
+  gateClosure: 'give the local time on the day before delivery, e.g. "12:00"',
+  'fallback.kind': 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
+  'fallback.penaltyPerMwh': 'give a penalty >= 0 in currency/MWh',
+};
+
+export function parseMarketSpec(value: unknown): z.ZodSafeParseResult<MarketSpec> {
+  return marketSpecSchema.safeParse(value) as z.ZodSafeParseResult<MarketSpec>;
+}

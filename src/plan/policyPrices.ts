@@ -1,0 +1,40 @@
+import type { MarketSpec, PlanPolicy, QuantileDay } from '../types.js';
+import { priceAtLevel } from '../forecast/quantileSet.js';
+
+/** Prices one policy schedules on, and the limit prices (with the levels they came from) it bids. */
+export interface PolicyPrices {
+  /** Price the objective charges per MWh bought, per period [currency/MWh]. */
+  readonly buyPricePerMwh: number[];
+  /** Price the objective credits per MWh sold, per period [currency/MWh]. */
+  readonly sellPricePerMwh: number[];
+  /** Limit price of a buy order, clamped into [floor, cap] [currency/MWh]. */
+  readonly buyLimitPerMwh: number[];
+  /** Limit price of a sell order, clamped into [floor, cap] [currency/MWh]. */
+  readonly sellLimitPerMwh: number[];
+  /** Level the buy limit was read at (1 - alpha, or 0.5 for point). */
+  readonly buyLevel: number;
+  /** Level the sell limit was read at (alpha, or 0.5 for point). */
+  readonly sellLevel: number;
+}
+
+/**
+ * The policies of DESIGN.md section 4, with alpha the width of the central interval [q(alpha), q(1 - alpha)]:
+ * - `quantile`: schedule and limits on the pessimistic side: buy at q(1 - alpha), sell at q(alpha);
+ * - `median`:   schedule on the median, limits at q(1 - alpha) for buys and q(alpha) for sells;
+ * - `point`:    schedule and limits on the median.
+ * Quantiles between given levels are interpolated linearly; limits are clamped into [floor, cap].
+ */
+export function policyPrices(forecast: QuantileDay, policy: PlanPolicy, alpha: number, market: MarketSpec): PolicyPrices {
+  const at = (tau: number): number[] => forecast.prices.map((row) => priceAtLevel(forecast.levels, row, tau));
+  const median = at(0.5);
+  const clampAll = (prices: number[]): number[] => prices.map((p) => Math.min(market.priceCap, Math.max(market.priceFloor, p)));
+  if (policy === 'point') {
+    return { buyPricePerMwh: median, sellPricePerMwh: median, buyLimitPerMwh: clampAll(median), sellLimitPerMwh: clampAll(median), buyLevel: 0.5, sellLevel: 0.5 };
+  }
+  const upper = at(1 - alpha);
+  const lower = at(alpha);
+  const limits = { buyLimitPerMwh: clampAll(upper), sellLimitPerMwh: clampAll(lower), buyLevel: 1 - alpha, sellLevel: alpha };
+  return policy === 'quantile'
+    ? { buyPricePerMwh: upper, sellPricePerMwh: lower, ...limits }
+    : { buyPricePerMwh: median, sellPricePerMwh: median, ...limits };
+}
