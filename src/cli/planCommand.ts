@@ -67,7 +67,7 @@ export function runPlan(flags: PlanFlags, io: CliIo): void {
   if (flags.socStart !== undefined && (socStartMwh < battery.socMinMwh || socStartMwh > battery.socMaxMwh)) {
     throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is outside the battery's window [${battery.socMinMwh}, ${battery.socMaxMwh}] MWh`, fix: 'give a state of charge inside the window' }]);
   }
-  const result = planWithLevelCheck(() => planDay({ forecast, market, battery, policy: flags.policy, alpha: flags.alpha, socStartMwh }), forecastFile);
+  const result = planWithLevelCheck(() => planDay({ forecast, market, battery, policy: flags.policy, alpha: flags.alpha, socStartMwh }), forecastFile, flags.alpha);
   if (result.status !== 'optimal') {
     throw new InputError([{ file: paths.battery, message: `no feasible plan for ${day}: ${result.reason}`, fix: 'check the battery spec and --soc-start' }]);
   }
@@ -99,12 +99,12 @@ function forecastDay(file: QuantileForecastFile, day: string): QuantileDay {
   ]);
 }
 
-function planWithLevelCheck(run: () => PlanResult, file: QuantileForecastFile): PlanResult {
+function planWithLevelCheck(run: () => PlanResult, file: QuantileForecastFile, alpha: number): PlanResult {
   try {
     return run();
   } catch (err) {
     if (err instanceof LevelOutOfRangeError) {
-      throw new InputError([{ file: file.file, field: '--alpha', message: `level ${Number(err.level.toFixed(6))} is outside the forecast's levels [${err.lowest}, ${err.highest}]`, fix: `choose --alpha so that alpha and 1 - alpha lie within [${err.lowest}, ${err.highest}]` }]);
+      throw new InputError([{ file: file.file, field: '--alpha', message: `alpha ${alpha} needs the levels ${alpha} and ${Number((1 - alpha).toFixed(9))}, outside the forecast's levels [${err.lowest}, ${err.highest}]`, fix: `choose --alpha so that alpha and 1 - alpha lie within [${err.lowest}, ${err.highest}]` }]);
     }
     throw err;
   }

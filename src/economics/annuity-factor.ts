@@ -12,8 +12,8 @@ import { requireDiscountRate } from './discount-rate.js';
  * @example
  * annuityFactor(0.05, 10); // 7.721734929184818 (annuity tables: 7.7217)
  *
- * Reference: R. A. Brealey, S. C. Myers and F. Allen, Principles of Corporate Finance (McGraw-Hill,
- * any recent edition), the annuity formula; standard present-value-of-annuity tables.
+ * Reference: R. A. Brealey, S. C. Myers and F. Allen, Principles of Corporate Finance (any
+ * recent edition), the annuity formula; standard present-value-of-annuity tables.
  */
 export function annuityFactor(rate: number, years: number): number {
   requireDiscountRate('rate', rate);

@@ -13,7 +13,7 @@ import { requireIntegerIn } from '../stats/validate.js';
  * capitalRecoveryFactor(0.05, 10); // 0.1295045749654567
  *
  * Reference: W. Short, D. J. Packey and T. Holt (1995), A Manual for the Economic Evaluation of
- * Energy Efficiency and Renewable Energy Technologies, NREL/TP-462-5173, section 4.
+ * Energy Efficiency and Renewable Energy Technologies (technical report), the capital recovery factor.
  */
 export function capitalRecoveryFactor(rate: number, years: number): number {
   requireIntegerIn('years', years, 1);

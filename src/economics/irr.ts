@@ -41,8 +41,8 @@ export type IrrResult =
  * irr([-100, 39, 59, 55, 20]); // { status: 'found', rate: 0.2809484211599611, rates: [0.2809484211599611] }
  * irr([100, 10]);              // { status: 'none', reason: 'the cash flows never change sign ...' }
  *
- * Reference: R. A. Brealey, S. C. Myers and F. Allen, Principles of Corporate Finance (McGraw-Hill,
- * any recent edition), the internal rate of return rule and its pitfalls (multiple rates).
+ * Reference: R. A. Brealey, S. C. Myers and F. Allen, Principles of Corporate Finance (any
+ * recent edition), the internal rate of return rule and its pitfalls (multiple rates).
  */
 export function irr(cashFlows: readonly number[], options: Partial<IrrOptions> = {}): IrrResult {
   requireFiniteArray('cashFlows', cashFlows, 2);

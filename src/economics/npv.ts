@@ -15,8 +15,8 @@ import { requireDiscountRate } from './discount-rate.js';
  * npv(0.1, [-100, 110]); // 0
  * npv(0.281, [-100, 39, 59, 55, 20]); // -0.0084786
  *
- * Reference: R. A. Brealey, S. C. Myers and F. Allen, Principles of Corporate Finance (McGraw-Hill,
- * any recent edition), the chapters on present value and net present value.
+ * Reference: R. A. Brealey, S. C. Myers and F. Allen, Principles of Corporate Finance (any
+ * recent edition), the chapters on present value and net present value.
  */
 export function npv(rate: number, cashFlows: readonly number[]): number {
   requireDiscountRate('rate', rate);

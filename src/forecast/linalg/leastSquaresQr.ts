@@ -58,6 +58,15 @@ export function leastSquaresQr(x: Matrix, y: ArrayLike<number>, options: LeastSq
   return { coefficients: b, residuals, rss, rank: qr.rank };
 }
 
+/**
+ * Indices of a largest set of linearly independent columns of X, ascending: the first `rank` pivots
+ * of the column-pivoted Householder QR above (the same rank rule as {@link leastSquaresQr}).
+ */
+export function independentColumns(x: Matrix, rankTolerance = 1e-12): number[] {
+  const qr = householderQr(x, rankTolerance);
+  return [...qr.perm.subarray(0, qr.rank)].sort((p, q) => p - q);
+}
+
 /** Householder factors of X P: R (upper triangle, k x k), reflectors below the diagonal, pivots. */
 interface QrFactors {
   readonly n: number;

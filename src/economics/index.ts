@@ -1,0 +1,19 @@
+/**
+ * Project economics for sizing a battery: present values, rates of return, payback and the yearly
+ * cash flows of a project. End-of-year cash flows, year 0 = the investment. Pure, synchronous
+ * functions; invalid arguments throw ArgumentError (from src/stats).
+ */
+export { npv } from './npv.js';
+export { irr, DEFAULT_IRR_OPTIONS, type IrrOptions, type IrrResult } from './irr.js';
+export { bisectRoot } from './bisect-root.js';
+export { annuityFactor } from './annuity-factor.js';
+export { capitalRecoveryFactor } from './capital-recovery-factor.js';
+export { simplePayback, discountedPayback, type PaybackResult } from './payback.js';
+export { annualiseProfit, DAYS_PER_YEAR } from './annualise-profit.js';
+export {
+  projectCashFlows,
+  DEFAULT_PROJECT_OPTIONS,
+  type ProjectInput,
+  type ProjectCashFlows,
+} from './project-cash-flows.js';
+export { requireDiscountRate } from './discount-rate.js';

@@ -1,0 +1,77 @@
+import { describe, expect, it } from 'vitest';
+import { batteryModel } from '../../src/battery/batterySpec.js';
+import { InputError } from '../../src/io/inputError.js';
+import { parseJsonSpec } from '../../src/io/readSpecs.js';
+import { BATTERY_FIELD_FIXES, parseBatterySpec } from '../../src/battery/batterySpec.js';
+import { MARKET_FIELD_FIXES, parseMarketSpec } from '../../src/market/marketSpec.js';
+
+const battery = (text: string) => parseJsonSpec(text, 'battery.json', parseBatterySpec, BATTERY_FIELD_FIXES);
+const market = (text: string) => parseJsonSpec(text, 'market.json', parseMarketSpec, MARKET_FIELD_FIXES);
+
+function problemsOf(run: () => unknown): string[] {
+  try {
+    run();
+  } catch (err) {
+    if (err instanceof InputError) return err.message.split('\n');
+    throw err;
+  }
+  throw new Error('expected an InputError');
+}
+
+describe('battery spec', () => {
+  it('splits a round-trip efficiency evenly: sqrt(0.81) = 0.9 each way (common practice)', () => {
+    const spec = battery('{"energyMwh": 10, "chargeMw": 5, "dischargeMw": 4, "roundTripEfficiency": 0.81}');
+    const model = batteryModel(spec);
+    expect(model.chargeEfficiency).toBeCloseTo(0.9, 12);
+    expect(model.dischargeEfficiency).toBeCloseTo(0.9, 12);
+    expect(model.socMaxMwh).toBe(10);
+    expect(model.socInitialMwh).toBe(5);
+  });
+
+  it('derives the cycle cap from the usable window: 2 cycles x (0.95 - 0.05) x 10 MWh = 18 MWh', () => {
+    const spec = battery('{"energyMwh": 10, "chargeMw": 5, "dischargeMw": 5, "roundTripEfficiency": 0.9, "socMinFraction": 0.05, "socMaxFraction": 0.95, "maxCyclesPerDay": 2}');
+    expect(batteryModel(spec).maxDischargeMwhPerDay).toBeCloseTo(18, 12);
+  });
+
+  it('lists every physical problem with its line and field, and says what to do', () => {
+    const text = [
+      '{',
+      '  "energyMwh": -1,',
+      '  "chargeMw": 0,',
+      '  "dischargeMw": 5,',
+      '  "roundTripEfficiency": 1.2,',
+      '  "socMinFraction": 0.9,',
+      '  "socMaxFraction": 0.2,',
+      '  "socInitialFraction": 0.5',
+      '}',
+    ].join('\n');
+    const lines = problemsOf(() => battery(text));
+    expect(lines).toContain('battery.json:2: energyMwh: energyMwh must be > 0; give the usable nameplate energy in MWh, e.g. 10');
+    expect(lines.some((l) => l.startsWith('battery.json:3: chargeMw: chargeMw must be > 0;'))).toBe(true);
+    expect(lines.some((l) => l.startsWith('battery.json:5: roundTripEfficiency: roundTripEfficiency must be in (0, 1];'))).toBe(true);
+  });
+
+  it('checks the window and the initial state once the fields are valid', () => {
+    const lines = problemsOf(() => battery('{"energyMwh": 10, "chargeMw": 5, "dischargeMw": 5, "roundTripEfficiency": 0.9,\n "socMinFraction": 0.6, "socMaxFraction": 0.4,\n "socInitialFraction": 0.9}'));
+    expect(lines.some((l) => /socMaxFraction: socMaxFraction \(0.4\) must be above socMinFraction \(0.6\)/.test(l))).toBe(true);
+    expect(lines.some((l) => /socInitialFraction.*outside the window/.test(l))).toBe(true);
+  });
+
+  it('refuses both kinds of efficiency, unknown fields and broken JSON', () => {
+    expect(problemsOf(() => battery('{"energyMwh": 10, "chargeMw": 5, "dischargeMw": 5, "roundTripEfficiency": 0.9, "chargeEfficiency": 0.9}'))[0]).toMatch(/not both/);
+    expect(problemsOf(() => battery('{"energyMwh": 10, "chargeMw": 5, "dischargeMw": 5, "roundTripEfficiency": 0.9, "capacity": 3}'))[0]).toMatch(/capacity.*remove it or check its spelling/);
+    expect(problemsOf(() => battery('{"energyMwh": 10,\n "chargeMw": 5,,}'))[0]).toMatch(/^battery.json:2: not valid JSON/);
+  });
+});
+
+describe('market spec', () => {
+  it('accepts a valid spec and rejects floor >= cap, bad zones and period lengths', () => {
+    expect(market('{"timeZone": "Europe/Berlin", "periodMinutes": 15, "priceFloor": -500, "priceCap": 4000, "currency": "HLV", "gateClosure": "12:00"}').periodMinutes).toBe(15);
+    const lines = problemsOf(() => market('{"timeZone": "Mars/Olympus", "periodMinutes": 20, "priceFloor": 100, "priceCap": 100, "currency": "HLV", "gateClosure": "25:00"}'));
+    expect(lines.some((l) => /timeZone: not an IANA time zone/.test(l))).toBe(true);
+    expect(lines.some((l) => /periodMinutes: periodMinutes must be 15, 30 or 60/.test(l))).toBe(true);
+    expect(lines.some((l) => /gateClosure must be a local time HH:MM/.test(l))).toBe(true);
+    const cap = problemsOf(() => market('{"timeZone": "Europe/Berlin", "periodMinutes": 15, "priceFloor": 100, "priceCap": 100, "currency": "HLV", "gateClosure": "12:00"}'));
+    expect(cap[0]).toMatch(/priceCap: priceCap \(100\) must be above priceFloor \(100\)/);
+  });
+});

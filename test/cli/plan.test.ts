@@ -1,0 +1,119 @@
+import { existsSync, mkdtempSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { main } from '../../src/cli/main.js';
+import type { CliIo } from '../../src/cli/cliIo.js';
+import { deliveryPeriods } from '../../src/market/calendar.js';
+
+interface Run {
+  code: number;
+  stdout: string;
+  stderr: string;
+}
+
+async function run(args: string[]): Promise<Run> {
+  let stdout = '';
+  let stderr = '';
+  const io: CliIo = { stdout: (s) => void (stdout += s), stderr: (s) => void (stderr += s), stderrIsTerminal: false };
+  const code = await main(['node', 'quantbid', ...args], io);
+  return { code, stdout, stderr };
+}
+
+let dir = '';
+const day = '2027-03-28'; // spring clock change in Europe/Berlin: 92 quarter-hours
+
+beforeAll(() => {
+  dir = mkdtempSync(join(tmpdir(), 'quantbid-plan-'));
+  writeFileSync(join(dir, 'market.json'), JSON.stringify({ timeZone: 'Europe/Berlin', periodMinutes: 15, priceFloor: -500, priceCap: 4000, currency: 'HLV', gateClosure: '12:00' }));
+  writeFileSync(join(dir, 'battery.json'), JSON.stringify({ energyMwh: 10, chargeMw: 5, dischargeMw: 5, roundTripEfficiency: 0.88, socMinFraction: 0.1, socMaxFraction: 0.9, socInitialFraction: 0.5 }));
+  const lines = ['period_start,q0.05,q0.1,q0.5,q0.9,q0.95'];
+  deliveryPeriods(day, 'Europe/Berlin', 15).forEach((p, t) => {
+    const mid = 60 + 40 * Math.sin((2 * Math.PI * t) / 92);
+    lines.push([p.start, mid - 30, mid - 20, mid, mid + 20, mid + 30].map((x) => (typeof x === 'number' ? x.toFixed(2) : x)).join(','));
+  });
+  writeFileSync(join(dir, 'quantiles.csv'), `${lines.join('\n')}\n`);
+});
+
+const inputs = () => ['--market', join(dir, 'market.json'), '--battery', join(dir, 'battery.json'), '--forecast', join(dir, 'quantiles.csv')];
+
+describe('quantbid plan', () => {
+  it('writes orders.csv, schedule.csv and plan.json for a 92-period day', async () => {
+    const out = join(dir, 'plan-ok');
+    const result = await run(['plan', ...inputs(), '--day', day, '--alpha', '0.1', '--out', out]);
+    expect(result.stderr).toBe('');
+    expect(result.code).toBe(0);
+    const orders = readFileSync(join(out, 'orders.csv'), 'utf8').trimEnd().split('\n');
+    expect(orders[0]).toBe('period_start,period_end,side,quantity_mw,limit_price,quantile_level');
+    expect(orders.length).toBeGreaterThan(1);
+    const schedule = readFileSync(join(out, 'schedule.csv'), 'utf8').trimEnd().split('\n');
+    expect(schedule[0]).toBe('period_start,charge_mw,discharge_mw,soc_mwh');
+    expect(schedule).toHaveLength(93);
+    const plan = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8')) as { solver: { status: string }; objective: number };
+    expect(plan.solver.status).toBe('optimal');
+    expect(plan.objective).toBeGreaterThan(0);
+    // A buy's limit is q(0.9) and a sell's q(0.1), as the quantile policy says.
+    for (const line of orders.slice(1)) expect(line).toMatch(/,(buy,[\d.]+,[\d.-]+,0\.9|sell,[\d.]+,[\d.-]+,0\.1)$/);
+  });
+
+  it('writes the same bytes twice (determinism)', async () => {
+    await run(['plan', ...inputs(), '--day', day, '--out', join(dir, 'd1')]);
+    await run(['plan', ...inputs(), '--day', day, '--out', join(dir, 'd2')]);
+    for (const name of ['orders.csv', 'schedule.csv', 'plan.json']) {
+      expect(readFileSync(join(dir, 'd1', name), 'utf8')).toBe(readFileSync(join(dir, 'd2', name), 'utf8'));
+    }
+  });
+
+  it('refuses to overwrite existing outputs without --force (exit 2, files untouched)', async () => {
+    const out = join(dir, 'plan-again');
+    expect((await run(['plan', ...inputs(), '--day', day, '--out', out])).code).toBe(0);
+    const before = statSync(join(out, 'orders.csv')).mtimeMs;
+    const again = await run(['plan', ...inputs(), '--day', day, '--alpha', '0.2', '--out', out]);
+    expect(again.code).toBe(2);
+    expect(again.stderr).toMatch(/already exist.*add --force to overwrite/);
+    expect(statSync(join(out, 'orders.csv')).mtimeMs).toBe(before);
+    expect((await run(['plan', ...inputs(), '--day', day, '--alpha', '0.2', '--out', out, '--force'])).code).toBe(0);
+  });
+
+  it.each([
+    [['--alpha', '0.7'], /alpha 0.7 must be a number in \(0, 0.5\)/],
+    [['--alpha', '0.02'], /--alpha: alpha 0.02 needs the levels 0.02 and 0.98, outside the forecast's levels \[0.05, 0.95\]/],
+    [['--policy', 'greedy'], /"greedy" must be one of quantile, median, point/],
+    [['--day', '2027-13-01'], /is not a day; write it as YYYY-MM-DD/],
+    [['--day', '2027-03-29'], /quantiles.csv: period_start: no forecast for 2027-03-29 \(the file covers 2027-03-28 to 2027-03-28\)/],
+    [['--soc-start', '9.5'], /--soc-start: 9.5 MWh is outside the battery's window \[1, 9\] MWh/],
+  ])('bad usage %j exits 2, names the problem and writes nothing', async (extra, message) => {
+    const out = join(dir, `bad-${extra.join('')}`);
+    const result = await run(['plan', ...inputs(), '--day', day, ...extra, '--out', out]);
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(message);
+    expect(existsSync(out)).toBe(false);
+  });
+
+  it('bad files exit 2 with file, line and field, and nothing written', async () => {
+    const bad = join(dir, 'bad-battery.json');
+    writeFileSync(bad, '{\n  "energyMwh": 10,\n  "chargeMw": -5,\n  "dischargeMw": 5,\n  "roundTripEfficiency": 0.88\n}\n');
+    const out = join(dir, 'bad-files');
+    const result = await run(['plan', '--market', join(dir, 'market.json'), '--battery', bad, '--forecast', join(dir, 'quantiles.csv'), '--day', day, '--out', out]);
+    expect(result.code).toBe(2);
+    expect(result.stderr).toContain(`${bad}:3: chargeMw: chargeMw must be > 0; give the charge power limit at the grid connection in MW, e.g. 5`);
+    expect(existsSync(out)).toBe(false);
+    const missing = await run(['plan', '--market', join(dir, 'nope.json'), '--battery', bad, '--forecast', dir, '--day', day]);
+    expect(missing.code).toBe(2);
+    expect(missing.stderr).toMatch(/nope.json: cannot be read/);
+  });
+
+  it('lists every missing input at once', async () => {
+    const result = await run(['plan', '--day', day]);
+    expect(result.code).toBe(2);
+    expect(result.stderr).toMatch(/--market: no market file given[\s\S]*--battery: no battery file given[\s\S]*--forecast: no forecast file given/);
+  });
+
+  it('prints --help with examples and --version (exit 0)', async () => {
+    const help = await run(['plan', '--help']);
+    expect(help.code).toBe(0);
+    expect(help.stdout).toMatch(/Examples:\n {2}quantbid plan/);
+    const version = await run(['--version']);
+    expect(version.stdout.trim()).toMatch(/^\d+\.\d+\.\d+$/);
+  });
+});
