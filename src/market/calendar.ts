@@ -19,11 +19,40 @@ export function deliveryPeriods(day: string, timeZone: string, periodMinutes: nu
   if ((endMs - startMs) % stepMs !== 0) {
     throw new RangeError(`delivery day ${day} in ${timeZone} is not a whole number of ${periodMinutes}-minute periods`);
   }
+  // Formatting through the zone database is slow; on days whose offset does not change (all but the
+  // clock-change days) local time is UTC plus one fixed offset, so the text is built by arithmetic.
+  const startOffset = offsetMinutes(startMs, timeZone);
+  const fixed = startOffset === offsetMinutes(endMs, timeZone) && startOffset === offsetMinutes(endMs - 1, timeZone);
+  const format = fixed ? (ms: number) => formatWithOffset(ms, startOffset) : (ms: number) => formatInstant(ms, timeZone);
   const periods: DeliveryPeriod[] = [];
+  let start = format(startMs);
   for (let ms = startMs; ms < endMs; ms += stepMs) {
-    periods.push({ start: formatInstant(ms, timeZone), end: formatInstant(ms + stepMs, timeZone), startMs: ms });
+    const end = format(ms + stepMs);
+    periods.push({ start, end, startMs: ms });
+    start = end;
   }
   return periods;
+}
+
+/** UTC offset of a zone at an instant [min]. */
+function offsetMinutes(ms: number, timeZone: string): number {
+  return DateTime.fromMillis(ms, { zone: timeZone }).offset;
+}
+
+/** ISO 8601 local time for a fixed offset, e.g. `2027-06-15T10:00:00+02:00` (same text as formatInstant). */
+function formatWithOffset(ms: number, offsetMin: number): string {
+  const local = new Date(ms + offsetMin * 60_000);
+  const sign = offsetMin < 0 ? '-' : '+';
+  const abs = Math.abs(offsetMin);
+  return (
+    `${String(local.getUTCFullYear()).padStart(4, '0')}-${pad2(local.getUTCMonth() + 1)}-${pad2(local.getUTCDate())}` +
+    `T${pad2(local.getUTCHours())}:${pad2(local.getUTCMinutes())}:${pad2(local.getUTCSeconds())}` +
+    `${sign}${pad2(Math.floor(abs / 60))}:${pad2(abs % 60)}`
+  );
+}
+
+function pad2(n: number): string {
+  return n < 10 ? `0${n}` : String(n);
 }
 
 /** Absolute start and end [epoch ms] of a delivery day (local midnight to next local midnight). */
@@ -38,7 +67,8 @@ export function deliveryDayBounds(day: string, timeZone: string): { startMs: num
 export function formatInstant(ms: number, timeZone: string): string {
   const text = DateTime.fromMillis(ms, { zone: timeZone }).toISO({ suppressMilliseconds: true });
   if (text === null) throw new RangeError(`cannot format instant ${ms} in ${timeZone}`);
-  return text;
+  // One spelling for a zero offset everywhere: +00:00 (luxon writes Z in UTC).
+  return text.endsWith('Z') ? `${text.slice(0, -1)}+00:00` : text;
 }
 
 /** The delivery day (YYYY-MM-DD, local) that contains an instant. */

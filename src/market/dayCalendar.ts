@@ -19,6 +19,13 @@ export class DayCalendar {
     return periods;
   }
 
+  /** The periods of `day`, or null when `day` is not a valid YYYY-MM-DD date (checked once per day). */
+  periodsIfValid(day: string): readonly DeliveryPeriod[] | null {
+    const cached = this.cache.get(day);
+    if (cached !== undefined) return cached;
+    return isValidDay(day) ? this.periods(day) : null;
+  }
+
   /** Period length [h]. */
   get periodHours(): number {
     return this.periodMinutes / 60;
@@ -46,10 +53,10 @@ export function locatePeriod(text: string, calendar: DayCalendar): LocatedPeriod
   }
   const day = match[1] as string;
   const startMs = Date.parse(text);
-  if (!isValidDay(day) || Number.isNaN(startMs)) {
+  const periods = calendar.periodsIfValid(day);
+  if (periods === null || Number.isNaN(startMs)) {
     return { ok: false, message: `"${text}" is not a valid date and time`, fix: 'check the date and the time of day' };
   }
-  const periods = calendar.periods(day);
   const first = periods[0];
   const stepMs = calendar.periodMinutes * 60_000;
   const offset = (match[5] as string) === 'Z' ? '+00:00' : normaliseOffset(match[5] as string);

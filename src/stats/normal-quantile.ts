@@ -19,7 +19,8 @@ const SQRT_TWO_PI = Math.sqrt(2 * Math.PI);
  *   x = (c1 q^5 + ... + c6) / (d1 q^4 + ... + d4 q + 1).
  * One Halley step then brings it to full double precision:
  *   e = Phi(x) - p, u = e sqrt(2 pi) exp(x^2 / 2), x <- x - u / (1 + x u / 2).
- * Phi^-1(0) = -Infinity, Phi^-1(1) = Infinity.
+ * Phi^-1(0) = -Infinity, Phi^-1(1) = Infinity. Below p = 1e-300 or so, where exp(x^2/2) overflows,
+ * the unrefined value is returned (relative error about 1e-9).
  *
  * @param p probability [-], in [0, 1]
  * @example
@@ -35,7 +36,9 @@ export function normalQuantile(p: number): number {
   if (p === 0) return -Infinity;
   const x = p < P_LOW ? lowerTail(p) : central(p);
   const u = (normalCdf(x) - p) * SQRT_TWO_PI * Math.exp((x * x) / 2);
-  return x - u / (1 + (x * u) / 2);
+  const refined = x - u / (1 + (x * u) / 2);
+  return Number.isFinite(refined) ? refined : x; // below about 1e-300 exp(x^2/2) overflows: keep x
+
 }
 
 function central(p: number): number {

@@ -48,6 +48,8 @@ describe('normalQuantile', () => {
     for (const p of [1e-9, 0.001, 0.1, 0.3, 0.5]) {
       expect(normalQuantile(p) + normalQuantile(1 - p)).toBeCloseTo(0, 6);
     }
+    // smallest double, where the refinement step would overflow: SciPy 1.17.1 norm.ppf(5e-324)
+    expect(normalQuantile(Number.MIN_VALUE)).toBeCloseTo(-38.467405617144344, 6);
     expect(normalQuantile(0.5)).toBe(0);
     expect(normalQuantile(0)).toBe(-Infinity);
     expect(normalQuantile(1)).toBe(Infinity);

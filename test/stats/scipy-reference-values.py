@@ -55,7 +55,7 @@ show("betainc(30, 40, 0.45)", special.betainc(30, 40, 0.45))
 # distributions
 for x in (-1, 1.2345, -8):
     show(f"norm.cdf({x})", stats.norm.cdf(x))
-for p in (0.975, 0.3, 1e-10, 0.999999):
+for p in (0.975, 0.3, 1e-10, 0.999999, 5e-324):
     show(f"norm.ppf({p})", stats.norm.ppf(p))
 for t, df in ((1.5, 5), (-2.3, 7.5), (0.3, 30), (-4, 3), (2, 1000)):
     show(f"t.cdf({t}, {df})", stats.t.cdf(t, df))

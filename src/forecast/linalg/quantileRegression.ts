@@ -2,7 +2,7 @@ import { ArgumentError } from '../../stats/argument-error.js';
 import { SolverError } from './errors.js';
 import { leastSquaresQr } from './leastSquaresQr.js';
 import type { Matrix } from './matrix.js';
-import { requireResponse } from './matrix.js';
+import { multiply, requireResponse } from './matrix.js';
 
 /** An exact quantile regression fit: a vertex of the problem's polyhedron. */
 export interface QuantileRegressionFit {
@@ -28,6 +28,12 @@ export interface QuantileRegressionOptions {
    * ignored when they do not give a nonsingular X_h. Default: a start near the least-squares fit.
    */
   readonly initialBasis?: ArrayLike<number>;
+  /**
+   * Coefficients to start near, e.g. the fit at a neighbouring level: the start is then built from the
+   * rows closest to this fit moved to the tau-quantile of its residuals. Used when no initialBasis is
+   * given. Default: the least-squares fit.
+   */
+  readonly initialCoefficients?: ArrayLike<number>;
   /** Most simplex iterations before a SolverError('iteration-limit'). Default 50 + 20 n. */
   readonly maxIterations?: number;
 }
@@ -84,7 +90,7 @@ export function quantileRegression(
   if (n < k || k === 0) throw new ArgumentError('x', `a design with at least one column and n >= k (k = ${k})`, n);
   const state = new SimplexState(x, y, tau);
   const start = options.initialBasis;
-  if (start === undefined || !state.setBasis(start)) state.setBasis(greedyBasis(x, y, tau));
+  if (start === undefined || !state.setBasis(start)) state.setBasis(greedyBasis(x, y, tau, options.initialCoefficients));
   const maxIterations = options.maxIterations ?? 50 + 20 * n;
   let iterations = 0;
   state.refresh();
@@ -297,19 +303,21 @@ class SimplexState {
    * updates b, the residuals, v, X_h^{-1} and s in O(nk).
    */
   step(column: number, sign: 1 | -1, slope: number): void {
-    const { n, k, data, inverse, position, side, r, a, heapT, heapRow, basis, v, b, tau } = this;
+    const { n, k, data, inverse, position, side, r, a, heapT, heapRow, basis, v, b, tau, y, rowNorm } = this;
+    const z = this.scratch.subarray(0, k);
+    for (let c = 0; c < k; c++) z[c] = sign * (inverse[c * k + column] as number);
+    const tolScale = 1e-11 * this.bNorm;
     let count = 0;
     for (let i = 0; i < n; i++) {
       if ((position[i] as number) >= 0) continue;
       const base = i * k;
       let ai = 0;
-      for (let c = 0; c < k; c++) ai += (data[base + c] as number) * (inverse[c * k + column] as number);
-      ai *= sign;
+      for (let c = 0; c < k; c++) ai += (data[base + c] as number) * (z[c] as number);
       a[i] = ai;
       if (ai === 0) continue;
       const ri = r[i] as number;
       let t: number;
-      if (Math.abs(ri) > this.zeroTolerance(i)) {
+      if (Math.abs(ri) > 1e-11 * Math.abs(y[i] as number) + tolScale * (rowNorm[i] as number)) {
         t = ri / ai;
         if (!(t > 0)) continue;
       } else if ((side[i] === 1 && ai > 0) || (side[i] === -1 && ai < 0)) {
@@ -451,24 +459,29 @@ function swapRows(m: Float64Array, k: number, p: number, q: number): void {
 }
 
 /**
- * A starting basis near the least-squares line moved to the tau-quantile of its residuals: rows in
- * order of |r_i - q_tau(r)|, taken while they are linearly independent of those taken before
- * (Gram-Schmidt on the rows).
+ * A starting basis near a given fit b0 (by default the least-squares fit) moved to the tau-quantile of
+ * its residuals: rows in increasing |r_i - q_tau(r)|, taken while linearly independent of those taken
+ * before (Gram-Schmidt on the rows, applied twice).
  */
-function greedyBasis(x: Matrix, y: ArrayLike<number>, tau: number): Int32Array {
+function greedyBasis(x: Matrix, y: ArrayLike<number>, tau: number, start?: ArrayLike<number>): Int32Array {
   const { rows: n, cols: k, data } = x;
-  const residuals = leastSquaresQr(x, y).residuals;
+  const residuals = start === undefined ? leastSquaresQr(x, y).residuals : residualsAt(x, y, start);
   const sorted = Float64Array.from(residuals).sort();
   const shift = sorted[Math.min(n - 1, Math.floor(tau * n))] as number;
-  const order = Array.from({ length: n }, (_, i) => i).sort(
-    (p, q) => Math.abs((residuals[p] as number) - shift) - Math.abs((residuals[q] as number) - shift) || p - q,
-  );
+  const distance = Float64Array.from(residuals, (r) => Math.abs(r - shift));
   const chosen: number[] = [];
   const ortho: Float64Array[] = [];
-  for (const i of order) {
-    const w = Float64Array.from({ length: k }, (_, c) => data[i * k + c] as number);
+  const w = new Float64Array(k);
+  for (let tried = 0; tried < n && chosen.length < k; tried++) {
+    // next nearest row not tried yet (distance set to Infinity once tried)
+    let i = 0;
+    for (let q = 1; q < n; q++) if ((distance[q] as number) < (distance[i] as number)) i = q;
+    distance[i] = Infinity;
     let norm0 = 0;
-    for (let c = 0; c < k; c++) norm0 += (w[c] as number) ** 2;
+    for (let c = 0; c < k; c++) {
+      w[c] = data[i * k + c] as number;
+      norm0 += (w[c] as number) ** 2;
+    }
     for (let pass = 0; pass < 2; pass++) {
       for (const q of ortho) {
         let d = 0;
@@ -478,12 +491,18 @@ function greedyBasis(x: Matrix, y: ArrayLike<number>, tau: number): Int32Array {
     }
     let norm = 0;
     for (let c = 0; c < k; c++) norm += (w[c] as number) ** 2;
-    if (!(norm > 1e-20 * norm0) || norm0 === 0) continue;
-    const inv = 1 / Math.sqrt(norm);
-    for (let c = 0; c < k; c++) w[c] = (w[c] as number) * inv;
-    ortho.push(w);
+    if (norm0 === 0 || !(norm > 1e-20 * norm0)) continue;
+    ortho.push(Float64Array.from(w, (value) => value / Math.sqrt(norm)));
     chosen.push(i);
-    if (chosen.length === k) return Int32Array.from(chosen);
   }
-  throw new SolverError('singular-design', `the design has rank ${chosen.length} < ${k} columns; drop dependent columns first`);
+  if (chosen.length < k) {
+    throw new SolverError('singular-design', `the design has rank ${chosen.length} < ${k} columns; drop dependent columns first`);
+  }
+  return Int32Array.from(chosen);
+}
+
+function residualsAt(x: Matrix, y: ArrayLike<number>, b: ArrayLike<number>): Float64Array {
+  const fitted = multiply(x, b);
+  for (let i = 0; i < fitted.length; i++) fitted[i] = (y[i] as number) - (fitted[i] as number);
+  return fitted;
 }

@@ -1,0 +1,31 @@
+import type { DayProblem } from '../../types.js';
+
+/**
+ * Whether the fast solver covers a day problem: null when it does, else the reason (the caller
+ * then uses the general LP path). Covered: at least one period, equal-length finite price series,
+ * dt > 0, efficiencies > 0, power limits >= 0, finite state-of-charge values, finite wear cost and
+ * terminal value, no cycle cap or a finite cap >= 0. An empty window or an unreachable floor is
+ * covered: the solver answers `infeasible` with the reason.
+ */
+export function fastSolverGap(problem: DayProblem): string | null {
+  const b = problem.battery;
+  const periods = problem.buyPricePerMwh.length;
+  if (periods === 0) return 'the day has no delivery periods';
+  if (problem.sellPricePerMwh.length !== periods) return 'buy and sell price series differ in length';
+  if (!(problem.periodHours > 0 && Number.isFinite(problem.periodHours))) return 'the period length must be a positive number of hours';
+  if (!problem.buyPricePerMwh.every(Number.isFinite) || !problem.sellPricePerMwh.every(Number.isFinite)) return 'a price is not a finite number';
+  if (!(b.chargeEfficiency > 0 && Number.isFinite(b.chargeEfficiency) && b.dischargeEfficiency > 0 && Number.isFinite(b.dischargeEfficiency))) {
+    return 'efficiencies must be positive numbers';
+  }
+  if (!(b.chargeMw >= 0 && Number.isFinite(b.chargeMw) && b.dischargeMw >= 0 && Number.isFinite(b.dischargeMw))) return 'power limits must be finite and >= 0';
+  const finite = [b.socMinMwh, b.socMaxMwh, problem.socStartMwh, problem.socEndMinMwh, b.degradationCostPerMwh, problem.terminalValuePerMwh ?? 0];
+  if (!finite.every(Number.isFinite)) return 'a state of charge, the wear cost or the terminal value is not a finite number';
+  const cap = b.maxDischargeMwhPerDay;
+  if (cap !== undefined && !(cap >= 0 && Number.isFinite(cap))) return 'the cycle cap must be finite and >= 0';
+  return null;
+}
+
+/** True when solveDayFast covers the problem (see fastSolverGap). */
+export function coversDay(problem: DayProblem): boolean {
+  return fastSolverGap(problem) === null;
+}

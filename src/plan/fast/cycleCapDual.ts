@@ -1,0 +1,91 @@
+import type { DayContext } from './dayContext.js';
+import { LineSolution, SWEEP_OK, sweepLine, type SweepStatus } from './lineSweep.js';
+import { netOutsideArbitrage, revalue } from './netFlows.js';
+
+/**
+ * The day's relaxation (arbitrage periods on their chord unless fixed) with the cycle cap
+ * sum_t y_t <= C, solved exactly by a parametric step on the cap's Lagrange multiplier mu.
+ *
+ * Notes. For mu >= 0 let z(mu) = max over the relaxation of value - mu (sum y - C) (lineSweep.ts).
+ * z is convex and piecewise linear in mu; at the minimiser mu* (Everett 1963, "Generalized
+ * Lagrange multiplier method", Oper. Res. 11(3), doi:10.1287/opre.11.3.399) there are two
+ * solutions A (sum y >= C) and B (sum y <= C) both maximising at mu*, and the mix
+ * theta A + (1 - theta) B with theta = (C - y_B) / (y_A - y_B) meets the cap with equality, keeps
+ * complementary slackness and so is optimal for the capped relaxation (its value equals z(mu*),
+ * an upper bound by weak duality). mu* is found by intersecting the lines value_A - mu (y_A - C)
+ * and value_B - mu (y_B - C) and re-solving there (the cutting-plane step of Kelley 1960 in one
+ * dimension): either the new solution lies on those lines (mu* found) or it replaces A or B, and
+ * z has finitely many pieces. The start is A at mu = 0 and B at mu high enough to discharge as
+ * little as the window allows; if even B exceeds C, the cap cannot be met.
+ * The mix is taken per period on (x, y); periods that are not arbitrage periods are then netted
+ * (no loss, lower cycle use); an arbitrage period with x, y > 0 is left for the branch and bound.
+ */
+export const CAP_UNREACHABLE = 3;
+export type RelaxStatus = SweepStatus | typeof CAP_UNREACHABLE;
+
+const MAX_STEPS = 64;
+
+export function relaxDay(ctx: DayContext, modes: Int8Array, out: LineSolution): RelaxStatus {
+  const { day, workspace: ws } = ctx;
+  let above = ctx.above;
+  let below = ctx.below;
+  let trial = ctx.trial;
+  const status = sweepLine(day, ctx.atZero, modes, ws, above);
+  if (status !== SWEEP_OK) return status;
+  const cap = day.dischargeCapMwh;
+  const capTol = 1e-12 * Math.max(1, cap);
+  if (above.discharged <= cap + capTol) {
+    finish(ctx, above, out);
+    return SWEEP_OK;
+  }
+  const high = ctx.atHigh();
+  sweepLine(day, high, modes, ws, below);
+  if (below.discharged > cap + capTol) return CAP_UNREACHABLE;
+  let muLow = 0;
+  let muHigh = high.mu;
+  for (let step = 0; step < MAX_STEPS; step++) {
+    let mu = (above.value - below.value) / (above.discharged - below.discharged);
+    if (!(mu >= muLow)) mu = muLow;
+    if (!(mu <= muHigh)) mu = muHigh;
+    ctx.order.rank(mu, ctx.scratch);
+    sweepLine(day, ctx.scratch, modes, ws, trial);
+    const onLine = above.value - mu * (above.discharged - cap);
+    const atTrial = trial.value - mu * (trial.discharged - cap);
+    if (atTrial <= onLine + 1e-13 * (Math.abs(above.value) + Math.abs(below.value) + mu * cap + 1)) break;
+    if (Math.abs(trial.discharged - cap) <= capTol) {
+      finish(ctx, trial, out);
+      return SWEEP_OK;
+    }
+    const spare = trial;
+    if (trial.discharged > cap) {
+      trial = above;
+      above = spare;
+      muLow = mu;
+    } else {
+      trial = below;
+      below = spare;
+      muHigh = mu;
+    }
+  }
+  mix(above, below, (cap - below.discharged) / (above.discharged - below.discharged), out);
+  finish(ctx, out, out);
+  return SWEEP_OK;
+}
+
+/** out = theta a + (1 - theta) b per period, exact where a and b agree. */
+function mix(a: LineSolution, b: LineSolution, theta: number, out: LineSolution): void {
+  for (let t = 0; t < out.x.length; t++) {
+    const xa = a.x[t]!;
+    const xb = b.x[t]!;
+    const ya = a.y[t]!;
+    const yb = b.y[t]!;
+    out.x[t] = xa === xb ? xa : theta * xa + (1 - theta) * xb;
+    out.y[t] = ya === yb ? ya : theta * ya + (1 - theta) * yb;
+  }
+}
+
+function finish(ctx: DayContext, sol: LineSolution, out: LineSolution): void {
+  if (sol !== out) out.copyFrom(sol);
+  netOutsideArbitrage(ctx.day, out);
+  revalue(ctx.day, out);
+}

@@ -1,0 +1,106 @@
+import type { DayOutcome, DayProblem, Schedule } from '../../types.js';
+import { branchOnArbitrage } from './arbitrageBranching.js';
+import { fastSolverGap } from './coversDay.js';
+import { CAP_UNREACHABLE } from './cycleCapDual.js';
+import { DayContext } from './dayContext.js';
+import { LineSolution, SWEEP_START_UNREACHABLE } from './lineSweep.js';
+import { toStoredDay, type StoredDay } from './storedDay.js';
+
+/** Options of solveDayFast, merged over FAST_SOLVER_DEFAULTS. */
+export interface FastSolverOptions {
+  /** Most branch-and-bound nodes over arbitrage periods before answering `not-covered`. */
+  readonly maxNodes: number;
+}
+
+export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ maxNodes: 20_000 });
+
+/** A DayOutcome, or `not-covered` when the caller must fall back to the general LP path. */
+export type FastDayOutcome = DayOutcome | { readonly status: 'not-covered'; readonly reason: string };
+
+export const FAST_SOLVER_NAME = 'fast-warehouse-sweep';
+
+/**
+ * Exact special-purpose solver of the day problem of DESIGN.md section 4, with no simultaneous
+ * charge and discharge in any period.
+ *
+ * Method: the problem in stored-energy units is the warehouse problem (storedDay.ts); its concave
+ * part is solved by a forward sweep over the slope sequence of the value function of stored
+ * energy (lineSweep.ts), the cycle cap by a parametric step on its Lagrange multiplier
+ * (cycleCapDual.ts), and complementarity in arbitrage periods by branch and bound over those
+ * periods only (arbitrageBranching.ts). Outside arbitrage periods no branching is needed.
+ *
+ * Returns `optimal` with the schedule in grid units (MW; socMwh by the recursion of section 4),
+ * `infeasible` with a reason, or `not-covered` (fastSolverGap, or the node limit reached).
+ */
+export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOptions> = {}): FastDayOutcome {
+  const settings: FastSolverOptions = { ...FAST_SOLVER_DEFAULTS, ...options };
+  const gap = fastSolverGap(problem);
+  if (gap !== null) return { status: 'not-covered', reason: gap };
+  const b = problem.battery;
+  if (b.socMinMwh > b.socMaxMwh) return { status: 'infeasible', reason: `the state-of-charge window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh is empty` };
+  const day = toStoredDay(problem);
+  const ctx = new DayContext(day);
+  const best = new LineSolution(day.periods);
+  const outcome = branchOnArbitrage(ctx, settings.maxNodes, best);
+  if (outcome.status === 'node-limit') return { status: 'not-covered', reason: `no proven optimum within ${outcome.nodes} branch-and-bound nodes` };
+  if (outcome.status === 'infeasible') {
+    if (outcome.cause === SWEEP_START_UNREACHABLE) return { status: 'infeasible', reason: startReason(problem) };
+    if (outcome.cause === CAP_UNREACHABLE) return { status: 'infeasible', reason: capReason(problem, ctx.below.discharged * b.dischargeEfficiency) };
+    return { status: 'infeasible', reason: endReason(problem, day) };
+  }
+  const schedule = toSchedule(problem, day, best);
+  return { status: 'optimal', schedule, objective: objective(problem, schedule), solver: FAST_SOLVER_NAME, nodes: outcome.nodes };
+}
+
+/** Grid units: c_t = x_t / (eta_c dt), d_t = eta_d y_t / dt (exactly the limit at x = X, y = Y). */
+function toSchedule(problem: DayProblem, day: StoredDay, sol: LineSolution): Schedule {
+  const { battery: b, periodHours: dt } = problem;
+  const chargeMw: number[] = new Array<number>(day.periods);
+  const dischargeMw: number[] = new Array<number>(day.periods);
+  const socMwh: number[] = new Array<number>(day.periods);
+  let soc = problem.socStartMwh;
+  for (let t = 0; t < day.periods; t++) {
+    const x = sol.x[t]!;
+    const y = sol.y[t]!;
+    const c = x >= day.chargeStepMwh ? b.chargeMw : x / (b.chargeEfficiency * dt);
+    const d = y >= day.dischargeStepMwh ? b.dischargeMw : (y * b.dischargeEfficiency) / dt;
+    chargeMw[t] = c;
+    dischargeMw[t] = d;
+    soc += b.chargeEfficiency * dt * c - (dt * d) / b.dischargeEfficiency;
+    socMwh[t] = soc;
+  }
+  return { chargeMw, dischargeMw, socMwh };
+}
+
+/** sum_t dt ((sell_t - deg) d_t - buy_t c_t) + terminal s_T [currency]. */
+function objective(problem: DayProblem, schedule: Schedule): number {
+  const dt = problem.periodHours;
+  const deg = problem.battery.degradationCostPerMwh;
+  let value = 0;
+  for (let t = 0; t < schedule.chargeMw.length; t++) {
+    value += dt * ((problem.sellPricePerMwh[t]! - deg) * schedule.dischargeMw[t]! - problem.buyPricePerMwh[t]! * schedule.chargeMw[t]!);
+  }
+  return value + (problem.terminalValuePerMwh ?? 0) * (schedule.socMwh[schedule.socMwh.length - 1] ?? problem.socStartMwh);
+}
+
+function startReason(problem: DayProblem): string {
+  const b = problem.battery;
+  return `the starting state of charge ${fmt(problem.socStartMwh)} MWh is outside the window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh and the first period cannot bring it inside at ${fmt(b.chargeMw)} MW charge / ${fmt(b.dischargeMw)} MW discharge; start inside the window`;
+}
+
+function endReason(problem: DayProblem, day: StoredDay): string {
+  if (day.socEndFloorMwh > day.socMaxMwh) {
+    return `the end-of-day floor ${fmt(day.socEndFloorMwh)} MWh is above the highest allowed state of charge ${fmt(day.socMaxMwh)} MWh; lower the floor`;
+  }
+  let reachable = day.socStartMwh;
+  for (let t = 0; t < day.periods; t++) reachable = Math.min(day.socMaxMwh, reachable + day.chargeStepMwh);
+  return `the end-of-day floor ${fmt(day.socEndFloorMwh)} MWh cannot be reached from ${fmt(day.socStartMwh)} MWh: at most ${fmt(reachable)} MWh can be stored by the end of the day at ${fmt(problem.battery.chargeMw)} MW; lower the floor or start fuller`;
+}
+
+function capReason(problem: DayProblem, neededMwh: number): string {
+  return `the cycle cap of ${fmt(problem.battery.maxDischargeMwhPerDay ?? Infinity)} MWh discharged per day is below the ${fmt(neededMwh)} MWh the day must discharge to stay inside the window; raise the cap`;
+}
+
+function fmt(x: number): string {
+  return Number(x.toFixed(6)).toString();
+}
