@@ -8,7 +8,7 @@ import { sweepFingerprint } from './sweepFingerprint.js';
 import { expandGrid, GRID_DEFAULTS, type GridPoint } from './sweepGrid.js';
 import { JOURNAL_FORMAT, JOURNAL_VERSION, JournalWriter, journalLine, readJournal, type JournalEntry } from './sweepJournal.js';
 import { taskModuleUrl, type SweepRow } from './taskModule.js';
-import { defaultThreads, runPool, type PoolJob } from './workerPool.js';
+import { defaultThreads, runPool, type PoolJob, type PoolStatus } from './workerPool.js';
 import type { SweepAxis } from './sweepAxis.js';
 
 export interface SweepOptions {
@@ -120,7 +120,7 @@ export async function runSweep(options: SweepOptions): Promise<SweepOutcome> {
   o.onProgress?.(done, grid.length);
 
   const jobs: PoolJob[] = grid.filter((point) => rows[point.index] === undefined).map((point) => ({ id: point.index, key: point.key, setting: point.setting }));
-  let status;
+  let status: PoolStatus;
   try {
     status = await runPool(jobs, { taskModule: taskUrl, contextInput: o.contextInput, threads, ...(o.signal === undefined ? {} : { signal: o.signal }) }, (job, row) => {
       checkRow(row, job.key, o.axes, columns);

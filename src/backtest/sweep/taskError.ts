@@ -9,8 +9,13 @@ export interface SerialisedError {
   readonly problems?: readonly InputProblem[];
 }
 
+/** An InputError, also one from another copy of the class (a task module may bundle its own). */
+function isInputError(err: unknown): err is InputError {
+  return err instanceof Error && err.name === 'InputError' && Array.isArray((err as Partial<InputError>).problems);
+}
+
 export function serialiseError(err: unknown): SerialisedError {
-  if (err instanceof InputError) return { name: err.name, message: err.message, problems: err.problems };
+  if (isInputError(err)) return { name: err.name, message: err.message, problems: err.problems };
   if (err instanceof Error) return err.stack === undefined ? { name: err.name, message: err.message } : { name: err.name, message: err.message, stack: err.stack };
   return { name: 'Error', message: String(err) };
 }

@@ -19,6 +19,12 @@ export interface QuantileRegressionFit {
   readonly dual: Float64Array;
   /** Simplex iterations spent. */
   readonly iterations: number;
+  /**
+   * True when the optimum is certainly unique: every basic subgradient strictly inside
+   * (tau - 1, tau) and no residual off the basis at zero (a non-degenerate, strictly complementary
+   * vertex). A warm start that ends elsewhere is replaced by the cold-start answer.
+   */
+  readonly unique: boolean;
 }
 
 /** Options of {@link quantileRegression}. */
@@ -84,39 +90,25 @@ export function quantileRegression(
   tau: number,
   options: QuantileRegressionOptions = {},
 ): QuantileRegressionFit {
-  requireResponse(x, y);
-  if (!(tau > 0 && tau < 1)) throw new ArgumentError('tau', 'a number in (0, 1)', tau);
-  const { rows: n, cols: k } = x;
-  if (n < k || k === 0) throw new ArgumentError('x', `a design with at least one column and n >= k (k = ${k})`, n);
-  const state = new SimplexState(x, y, tau);
-  const start = options.initialBasis;
-  if (start === undefined || !state.setBasis(start)) state.setBasis(greedyBasis(x, y, tau, options.initialCoefficients));
-  const maxIterations = options.maxIterations ?? 50 + 20 * n;
-  let iterations = 0;
-  state.refresh();
-  for (;;) {
-    let edge = state.descentEdge();
-    if (edge === null || iterations % 32 === 31) {
-      // Confirm on exact values (and bound the drift of the updates every 32 pivots).
-      if (!state.fresh) state.refresh();
-      edge = state.descentEdge();
-      if (edge === null) break;
-    }
-    if (iterations >= maxIterations) {
-      throw new SolverError('iteration-limit', `quantile regression did not converge in ${maxIterations} iterations (n = ${n}, k = ${k}, tau = ${tau}); scale the columns or raise maxIterations`);
-    }
-    state.step(edge.column, edge.sign, edge.slope);
-    iterations++;
-  }
-  return state.result(iterations);
+  return new QuantileRegressionProblem(x, y).fit(tau, options);
 }
 
-/** Working arrays of the simplex, allocated once per fit. */
-class SimplexState {
+/**
+ * One design and response, fitted at several levels: checks the inputs and allocates the working
+ * arrays once (the fast path for quantile regression averaging, 19 levels per period and day).
+ * See {@link quantileRegression} for the method.
+ *
+ * @example
+ * const problem = new QuantileRegressionProblem(x, y);
+ * const median = problem.fit(0.5);
+ * const upper = problem.fit(0.9, { initialBasis: median.basis });
+ */
+export class QuantileRegressionProblem {
   private readonly n: number;
   private readonly k: number;
   private readonly data: ArrayLike<number>;
-  readonly basis: Int32Array;
+  private tau = 0.5;
+  private readonly basis: Int32Array;
   /** Position of each row in the basis, or -1. */
   private readonly position: Int32Array;
   /** Last known side of each row's residual: +1 above the fit, -1 below. */
@@ -138,14 +130,15 @@ class SimplexState {
   private pivotsSinceRefresh = 0;
 
   constructor(
-    x: Matrix,
+    private readonly x: Matrix,
     private readonly y: ArrayLike<number>,
-    private readonly tau: number,
   ) {
+    requireResponse(x, y);
     this.n = x.rows;
     this.k = x.cols;
-    this.data = x.data;
     const { n, k } = this;
+    if (n < k || k === 0) throw new ArgumentError('x', `a design with at least one column and n >= k (k = ${k})`, n);
+    this.data = x.data;
     this.basis = new Int32Array(k);
     this.position = new Int32Array(n).fill(-1);
     this.side = new Int8Array(n).fill(1);
@@ -166,15 +159,49 @@ class SimplexState {
     this.scratch = new Float64Array(2 * k * k);
   }
 
+  /** The exact fit at level tau; options as for {@link quantileRegression}. */
+  fit(tau: number, options: QuantileRegressionOptions = {}): QuantileRegressionFit {
+    if (!(tau > 0 && tau < 1)) throw new ArgumentError('tau', 'a number in (0, 1)', tau);
+    const { x, y, n, k } = this;
+    this.tau = tau;
+    this.position.fill(-1);
+    this.side.fill(1);
+    const warm = options.initialBasis !== undefined || options.initialCoefficients !== undefined;
+    const start = options.initialBasis;
+    if (start === undefined || !this.setBasis(start)) this.setBasis(greedyBasis(x, y, tau, options.initialCoefficients));
+    const maxIterations = options.maxIterations ?? 50 + 20 * n;
+    let iterations = 0;
+    this.refresh();
+    for (;;) {
+      let edge = this.descentEdge();
+      if (edge === null || iterations % 32 === 31) {
+        // Confirm on exact values from the basis in row order, so that the same basis always gives
+        // the same bits (and bound the drift of the updates every 32 pivots).
+        if (!this.fresh) this.refresh();
+        edge = this.descentEdge();
+        if (edge === null) break;
+      }
+      if (iterations >= maxIterations) {
+        throw new SolverError('iteration-limit', `quantile regression did not converge in ${maxIterations} iterations (n = ${n}, k = ${k}, tau = ${tau}); scale the columns or raise maxIterations`);
+      }
+      this.step(edge.column, edge.sign, edge.slope);
+      iterations++;
+    }
+    const fit = this.result(iterations);
+    // A warm start may end on another vertex of a flat optimal face: then answer as a cold start
+    // would, so that the result never depends on the start.
+    return warm && !fit.unique ? this.fit(tau, { maxIterations }) : fit;
+  }
+
   /** Installs a basis if its rows are distinct, in range and give a nonsingular X_h. */
-  setBasis(rows: ArrayLike<number>): boolean {
+  private setBasis(rows: ArrayLike<number>): boolean {
     const { n, k } = this;
     if (rows.length !== k) return false;
-    const candidate = Int32Array.from(rows as ArrayLike<number>);
+    const candidate = Int32Array.from(rows as ArrayLike<number>).sort();
     for (let j = 0; j < k; j++) {
       const i = candidate[j] as number;
       if (!Number.isInteger(i) || i < 0 || i >= n) return false;
-      for (let q = 0; q < j; q++) if (candidate[q] === i) return false;
+      if (j > 0 && candidate[j - 1] === i) return false;
     }
     if (!this.invertBasis(candidate)) return false;
     this.position.fill(-1);
@@ -230,10 +257,14 @@ class SimplexState {
   }
 
   /** Full recomputation from the basis: b = X_h^{-1} y_h, residuals, sides, v and s. */
-  refresh(): void {
+  private refresh(): void {
     const { n, k, data, y, b, r, inverse, basis, position, side, v, tau } = this;
-    if (this.pivotsSinceRefresh > 0 && !this.invertBasis(basis)) {
-      throw new SolverError('singular-design', 'quantile regression reached a singular basis: the design is not of full column rank');
+    if (this.pivotsSinceRefresh > 0) {
+      basis.sort();
+      for (let j = 0; j < k; j++) position[basis[j] as number] = j;
+      if (!this.invertBasis(basis)) {
+        throw new SolverError('singular-design', 'quantile regression reached a singular basis: the design is not of full column rank');
+      }
     }
     this.pivotsSinceRefresh = 0;
     let bNorm = 0;
@@ -251,9 +282,7 @@ class SimplexState {
         continue;
       }
       const base = i * k;
-      let fit = 0;
-      for (let c = 0; c < k; c++) fit += (data[base + c] as number) * (b[c] as number);
-      const ri = (y[i] as number) - fit;
+      const ri = (y[i] as number) - dot(data, base, b, k);
       r[i] = ri;
       const tol = this.zeroTolerance(i);
       if (ri > tol) side[i] = 1;
@@ -279,12 +308,12 @@ class SimplexState {
   }
 
   /** True when the last refresh was exact (no pivots since): an optimum found then is final. */
-  get fresh(): boolean {
+  private get fresh(): boolean {
     return this.pivotsSinceRefresh === 0;
   }
 
   /** The basic edge with the most negative directional derivative, or null at an optimum. */
-  descentEdge(): { column: number; sign: 1 | -1; slope: number } | null {
+  private descentEdge(): { column: number; sign: 1 | -1; slope: number } | null {
     const { k, s, tau } = this;
     let best: { column: number; sign: 1 | -1; slope: number } | null = null;
     const eps = 1e-10;
@@ -302,7 +331,7 @@ class SimplexState {
    * Follows edge sign * z_column to the breakpoint where the slope turns >= 0, pivots that row in and
    * updates b, the residuals, v, X_h^{-1} and s in O(nk).
    */
-  step(column: number, sign: 1 | -1, slope: number): void {
+  private step(column: number, sign: 1 | -1, slope: number): void {
     const { n, k, data, inverse, position, side, r, a, heapT, heapRow, basis, v, b, tau, y, rowNorm } = this;
     const z = this.scratch.subarray(0, k);
     for (let c = 0; c < k; c++) z[c] = sign * (inverse[c * k + column] as number);
@@ -311,8 +340,7 @@ class SimplexState {
     for (let i = 0; i < n; i++) {
       if ((position[i] as number) >= 0) continue;
       const base = i * k;
-      let ai = 0;
-      for (let c = 0; c < k; c++) ai += (data[base + c] as number) * (z[c] as number);
+      const ai = dot(data, base, z, k);
       a[i] = ai;
       if (ai === 0) continue;
       const ri = r[i] as number;
@@ -390,25 +418,44 @@ class SimplexState {
     this.updateSubgradients();
   }
 
-  result(iterations: number): QuantileRegressionFit {
-    const { n, k, r, position, side, s, tau, basis } = this;
+  /** The fit at the current (freshly refreshed, optimal) basis. */
+  private result(iterations: number): QuantileRegressionFit {
+    const { n, k, r, position, side, s, tau, y, rowNorm } = this;
     let objective = 0;
+    let unique = true;
+    const eps = 1e-9;
+    for (let j = 0; j < k; j++) {
+      const sj = s[j] as number;
+      if (!(sj > tau - 1 + eps && sj < tau - eps)) unique = false;
+    }
     const dual = new Float64Array(n);
+    const tolScale = 1e-11 * this.bNorm;
     for (let i = 0; i < n; i++) {
       const ri = r[i] as number;
       objective += ri * (ri < 0 ? tau - 1 : tau);
       const p = position[i] as number;
-      dual[i] = p >= 0 ? (s[p] as number) + 1 - tau : side[i] === 1 ? 1 : 0;
+      if (p >= 0) {
+        dual[i] = (s[p] as number) + 1 - tau;
+        continue;
+      }
+      dual[i] = side[i] === 1 ? 1 : 0;
+      if (Math.abs(ri) <= 1e-11 * Math.abs(y[i] as number) + tolScale * (rowNorm[i] as number)) unique = false;
     }
-    const order = Array.from({ length: k }, (_, j) => j).sort((p, q) => (basis[p] as number) - (basis[q] as number));
-    return {
-      coefficients: Float64Array.from(this.b),
-      objective,
-      basis: Int32Array.from(order, (j) => basis[j] as number),
-      dual,
-      iterations,
-    };
+    return { coefficients: Float64Array.from(this.b), objective, basis: Int32Array.from(this.basis), dual, iterations, unique };
   }
+}
+
+/** x_i . z for the row starting at data[base], two running sums. */
+function dot(data: ArrayLike<number>, base: number, z: ArrayLike<number>, k: number): number {
+  let s0 = 0;
+  let s1 = 0;
+  let c = 0;
+  for (; c + 1 < k; c += 2) {
+    s0 += (data[base + c] as number) * (z[c] as number);
+    s1 += (data[base + c + 1] as number) * (z[c + 1] as number);
+  }
+  if (c < k) s0 += (data[base + c] as number) * (z[c] as number);
+  return s0 + s1;
 }
 
 /** Min-heap on (t, row) in two parallel arrays, built in O(m). */
