@@ -1,5 +1,6 @@
 import { Command, CommanderError } from 'commander';
 import { InputError, formatProblem } from '../io/inputError.js';
+import { backtestCommand } from './backtestCommand.js';
 import { demoCommand } from './demoCommand.js';
 import { planCommand } from './planCommand.js';
 import { processIo, type CliIo } from './cliIo.js';
@@ -15,7 +16,7 @@ export function buildProgram(io: CliIo): Command {
     .showHelpAfterError('(add --help for usage)')
     .configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) })
     .exitOverride();
-  for (const command of [planCommand(io), demoCommand(io)]) {
+  for (const command of [planCommand(io), backtestCommand(io), demoCommand(io)]) {
     command.exitOverride().configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) }).showHelpAfterError('(add --help for usage)');
     program.addCommand(command);
   }

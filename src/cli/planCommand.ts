@@ -9,6 +9,7 @@ import { parseQuantileForecast, type QuantileForecastFile } from '../io/readQuan
 import { readBatterySpec, readMarketSpec } from '../io/readSpecs.js';
 import { checkOutputFolder, writeOutputs } from '../io/writeOutputs.js';
 import { planDay, type PlanResult } from '../plan/planDay.js';
+import { planReport } from '../report/planReport.js';
 import { oneOf, parseAlphaArg, parseDayArg, parseNonNegativeArg } from './argParsers.js';
 import { addInputOptions, resolveInputs, type InputFlags } from './inputOptions.js';
 import { planSummaryText } from './planSummary.js';
@@ -22,6 +23,7 @@ export interface PlanFlags extends InputFlags {
   readonly out?: string;
   readonly force?: boolean;
   readonly json?: boolean;
+  readonly report?: boolean;
 }
 
 export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanPolicy });
@@ -35,6 +37,7 @@ export function planCommand(io: CliIo): Command {
     .option('--policy <name>', 'quantile | median | point', oneOf<PlanPolicy>(['quantile', 'median', 'point']), PLAN_DEFAULTS.policy)
     .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh)', parseNonNegativeArg)
     .option('--out <dir>', 'folder for orders.csv, schedule.csv and plan.json')
+    .option('--report', 'also write report.html into --out: forecast fan with the limit prices, schedule charts, orders table')
     .option('--force', 'overwrite existing outputs')
     .option('--json', 'print the summary as JSON on stdout');
   addInputOptions(command, ['market', 'battery', 'forecast']);
@@ -57,7 +60,10 @@ export function runPlan(flags: PlanFlags, io: CliIo): void {
   if (day === undefined) {
     throw new InputError([{ file: 'command line', field: '--day', message: 'no delivery day given', fix: 'give --day YYYY-MM-DD' }]);
   }
-  if (flags.out !== undefined) checkOutputFolder(flags.out, PLAN_OUTPUTS, flags.force === true);
+  if (flags.report === true && flags.out === undefined) {
+    throw new InputError([{ file: 'command line', field: '--report', message: 'report.html needs a folder to go to', fix: 'add --out DIR' }]);
+  }
+  if (flags.out !== undefined) checkOutputFolder(flags.out, flags.report === true ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS, flags.force === true);
   const market = readMarketSpec(paths.market);
   const spec = readBatterySpec(paths.battery);
   const battery = batteryModel(spec);
@@ -79,6 +85,7 @@ export function runPlan(flags: PlanFlags, io: CliIo): void {
         { name: 'orders.csv', text: ordersCsv(result.orders) },
         { name: 'schedule.csv', text: scheduleCsv(forecast.periods, result.outcome.schedule) },
         { name: 'plan.json', text: jsonText(summary) },
+        ...(flags.report === true ? [{ name: 'report.html', text: planReport({ day, policy: flags.policy, alpha: flags.alpha, market, forecast, plan: result, inputs: paths }) }] : []),
       ],
       flags.force === true,
     );

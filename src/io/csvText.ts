@@ -1,4 +1,5 @@
 import type { InputProblem } from './inputError.js';
+import { shownText } from './shownText.js';
 
 /** One CSV data row with its 1-based line number in the file. */
 export interface CsvRow {
@@ -12,14 +13,14 @@ export interface CsvTable {
 }
 
 /**
- * Splits CSV text into a header and rows. Accepts a UTF-8 byte order mark and CRLF line endings; blank
- * lines are skipped. Fields are comma separated; double quotes around a field are removed (no embedded
- * commas are expected in our numeric files). A semicolon-separated file gets a clear problem instead of
- * a cascade of column errors.
+ * Splits CSV text into a header and rows. Accepts a UTF-8 byte order mark and LF, CRLF or (old) CR line
+ * endings; blank lines are skipped. Fields are comma separated and trimmed; a field in double quotes
+ * may hold commas and doubled quotes (RFC 4180), but not line breaks. A semicolon- or tab-separated
+ * file gets one clear problem instead of a cascade of column errors.
  */
 export function splitCsv(text: string, file: string): { table: CsvTable } | { problems: InputProblem[] } {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  const lines = body.split('\n');
+  const lines = body.includes('\n') || !body.includes('\r') ? body.split('\n') : body.split('\r');
   let headerIndex = -1;
   for (let i = 0; i < lines.length; i++) {
     if ((lines[i] as string).trim() !== '') {
@@ -31,37 +32,70 @@ export function splitCsv(text: string, file: string): { table: CsvTable } | { pr
     return { problems: [{ file, message: 'the file is empty', fix: 'give a CSV file with a header line and one row per delivery period' }] };
   }
   const headerLine = stripCr(lines[headerIndex] as string);
-  if (!headerLine.includes(',') && headerLine.includes(';')) {
-    return {
-      problems: [
-        {
-          file,
-          line: headerIndex + 1,
-          message: 'the columns are separated by semicolons',
-          fix: 'save the file as comma-separated CSV with a dot as the decimal mark (e.g. 42.5, not 42,5)',
-        },
-      ],
-    };
-  }
-  const header = splitLine(headerLine);
+  const separator = separatorProblem(headerLine, file, headerIndex + 1);
+  if (separator !== null) return { problems: [separator] };
+  const header = splitCsvLine(headerLine);
   const rows: CsvRow[] = [];
   for (let i = headerIndex + 1; i < lines.length; i++) {
     const line = stripCr(lines[i] as string);
     if (line.trim() === '') continue;
-    rows.push({ line: i + 1, cells: splitLine(line) });
+    rows.push({ line: i + 1, cells: splitCsvLine(line) });
   }
   return { table: { header, rows } };
+}
+
+/** The problem with a header line separated by semicolons or tabs instead of commas, or null. */
+export function separatorProblem(headerLine: string, file: string, line: number): InputProblem | null {
+  if (headerLine.includes(',')) return null;
+  const by = headerLine.includes(';') ? 'semicolons' : headerLine.includes('\t') ? 'tabs' : null;
+  if (by === null) return null;
+  return {
+    file,
+    line,
+    message: `the columns are separated by ${by}`,
+    fix: 'save the file as comma-separated CSV with a dot as the decimal mark (e.g. 42.5, not 42,5)',
+  };
+}
+
+/** A field count that does not match the header, with the usual cause when there are more fields. */
+export function fieldCountProblem(row: CsvRow, expected: number, file: string, fix: string): InputProblem {
+  const more = row.cells.length > expected;
+  return {
+    file,
+    line: row.line,
+    message: `${row.cells.length} fields, the header has ${expected}`,
+    fix: more ? `${fix}; a decimal comma (42,5) splits a number in two: use a dot (42.5)` : fix,
+  };
 }
 
 function stripCr(line: string): string {
   return line.endsWith('\r') ? line.slice(0, -1) : line;
 }
 
-function splitLine(line: string): string[] {
-  return line.split(',').map((cell) => {
-    const trimmed = cell.trim();
-    return trimmed.length >= 2 && trimmed.startsWith('"') && trimmed.endsWith('"') ? trimmed.slice(1, -1) : trimmed;
-  });
+/** The fields of one CSV line, trimmed, quotes removed. */
+export function splitCsvLine(line: string): string[] {
+  if (!line.includes('"')) return line.split(',').map((cell) => cell.trim());
+  const cells: string[] = [];
+  let cell = '';
+  let quoted = false;
+  for (let i = 0; i < line.length; i++) {
+    const c = line[i] as string;
+    if (quoted) {
+      if (c !== '"') cell += c;
+      else if (line[i + 1] === '"') {
+        cell += '"';
+        i++;
+      } else quoted = false;
+    } else if (c === '"' && cell.trim() === '') {
+      quoted = true;
+      cell = '';
+    } else if (c === ',') {
+      cells.push(cell.trim());
+      cell = '';
+    } else cell += c;
+  }
+  cells.push(cell.trim());
+  return cells;
 }
 
 const NUMBER_PATTERN = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
@@ -79,5 +113,5 @@ export function parseDecimal(cell: string): { value: number } | { error: string;
   if (/^[+-]?\d+,\d+$/.test(cell)) {
     return { error: `"${cell}" uses a decimal comma`, fix: 'use a dot as the decimal mark, e.g. 42.5' };
   }
-  return { error: `"${cell}" is not a number`, fix: 'give a decimal number with a dot, e.g. 42.5' };
+  return { error: `"${shownText(cell)}" is not a number`, fix: 'give a decimal number with a dot, e.g. 42.5' };
 }

@@ -1,3 +1,5 @@
+import { shownText } from './shownText.js';
+
 /**
  * Bad input: every problem found in one file (or in the command line), each naming where it is,
  * what is wrong and what to do. The CLI prints them one per line and exits with code 2.
@@ -17,10 +19,15 @@ export interface InputProblem {
   readonly fix: string;
 }
 
+/**
+ * One problem as one line of text. Every part is passed through shownText, so a message that quotes a
+ * file's garbage can neither span lines nor print control characters.
+ */
 export function formatProblem(problem: InputProblem): string {
-  const where = problem.line === undefined ? problem.file : `${problem.file}:${problem.line}`;
-  const field = problem.field === undefined ? '' : ` ${problem.field}:`;
-  return `${where}:${field} ${problem.message}; ${problem.fix}`;
+  const file = shownText(problem.file, 500);
+  const where = problem.line === undefined ? file : `${file}:${problem.line}`;
+  const field = problem.field === undefined ? '' : ` ${shownText(problem.field, 80)}:`;
+  return `${where}:${field} ${shownText(problem.message, 1000)}; ${shownText(problem.fix, 500)}`;
 }
 
 /** Thrown at the edges (readers, argument parsers) when input is bad; carries all problems found. */
@@ -39,14 +46,20 @@ export function throwIfProblems(problems: readonly InputProblem[]): void {
   if (problems.length > 0) throw new InputError(problems);
 }
 
-/** Collects problems, then throws them together. */
+/**
+ * Collects problems, then throws them together. After `limit` problems the rest are only counted, and
+ * a last line says how many were left out, so a file of garbage never prints a million lines.
+ */
 export class ProblemList {
   readonly items: InputProblem[] = [];
-  /** Stop collecting after this many; a file of garbage should not print a million lines. */
+  /** Problems found beyond `limit`, counted but not kept. */
+  private dropped = 0;
+
   constructor(readonly limit = 200) {}
 
   add(problem: InputProblem): void {
     if (this.items.length < this.limit) this.items.push(problem);
+    else this.dropped++;
   }
 
   get full(): boolean {
@@ -54,6 +67,10 @@ export class ProblemList {
   }
 
   throwIfAny(): void {
-    throwIfProblems(this.items);
+    const last = this.items[this.items.length - 1];
+    if (last === undefined) return;
+    if (this.dropped === 0 && !this.full) throw new InputError(this.items);
+    const more = this.dropped > 0 ? `${this.dropped} more problems were found and not shown` : `the list stops at ${this.limit} problems; there may be more`;
+    throw new InputError([...this.items, { file: last.file, message: more, fix: `fix the first ${this.limit} and run again; so many usually means a wrong file, column order or market spec` }]);
   }
 }

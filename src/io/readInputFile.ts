@@ -1,32 +1,117 @@
-import { readFileSync, statSync } from 'node:fs';
+import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
 import { gunzipSync } from 'node:zlib';
-import { InputError } from './inputError.js';
-
-/** Largest input file read whole [bytes]; larger files are refused before reading. */
-export const MAX_INPUT_BYTES = 512 * 1024 * 1024;
+import { InputError, type InputProblem } from './inputError.js';
+import { sniffText, type FirstLineCheck } from './sniffText.js';
 
 /**
- * Reads a text input file (UTF-8, or gzip when the name ends in .gz). Missing files, folders and
- * oversized files are input errors that say what to do.
+ * Largest input file read whole [bytes], compressed or not; larger files are refused before reading.
+ * Kept below the engine's longest string (2^29 - 24 UTF-16 units), so a file under the limit can
+ * always become one string.
  */
-export function readInputFile(path: string): string {
-  let size: number;
+export const MAX_INPUT_BYTES = 500 * 1024 * 1024;
+
+/** How many bytes are looked at before a file is read whole [bytes]. */
+export const SNIFF_BYTES = 64 * 1024;
+
+export interface ReadInputOptions {
+  /** Largest file accepted [bytes], default MAX_INPUT_BYTES (JSON specs pass far less). */
+  readonly maxBytes?: number;
+  /**
+   * Checks the first non-blank line (a CSV header) before the whole file is read, so a wrong file
+   * fails in milliseconds whatever its size. Returns the problems found (none: go on).
+   */
+  readonly firstLine?: FirstLineCheck;
+}
+
+/**
+ * Reads a text input file (UTF-8, or gzip when the name ends in .gz).
+ *
+ * Before reading it whole: a missing path, a folder, a device or pipe, a file over the size limit, binary
+ * content, UTF-16 text, gzip data under a plain name and (with `firstLine`) a wrong header are input
+ * errors that say what to do; only the first SNIFF_BYTES are read to tell.
+ */
+export function readInputFile(path: string, options: ReadInputOptions = {}): string {
+  const maxBytes = options.maxBytes ?? MAX_INPUT_BYTES;
+  const size = checkedSize(path, maxBytes);
+  const gzip = path.endsWith('.gz');
+  const head = readHead(path, Math.min(size, SNIFF_BYTES));
+  if (gzip) {
+    if (size > 0 && !(head[0] === 0x1f && head[1] === 0x8b)) {
+      throw new InputError([{ file: path, message: 'is named .gz but is not gzip-compressed', fix: 'decompress it yourself or rename it without .gz' }]);
+    }
+  } else {
+    sniff(path, head, size > head.length, options);
+  }
+  const bytes = attempt(path, () => readFileSync(path));
+  if (!gzip) return bytes.toString('utf8');
+  const plain = gunzipBytes(path, bytes, maxBytes);
+  sniff(path, plain.subarray(0, SNIFF_BYTES), plain.length > SNIFF_BYTES, options);
+  return plain.toString('utf8');
+}
+
+function sniff(path: string, head: Buffer, more: boolean, options: ReadInputOptions): void {
+  const problems = sniffText(path, head, more, options.firstLine);
+  if (problems.length > 0) throw new InputError(problems);
+}
+
+/** Size of a regular file, or the input error that says why it cannot be read. */
+function checkedSize(path: string, maxBytes: number): number {
+  const stat = attempt(path, () => statSync(path));
+  if (stat.isDirectory()) throw new InputError([{ file: path, message: 'is a folder, not a file', fix: 'give the path of the file inside it' }]);
+  if (!stat.isFile()) throw new InputError([{ file: path, message: 'is not a regular file (a device, pipe or socket)', fix: 'save the input to a file and give its path' }]);
+  if (stat.size > maxBytes) {
+    throw new InputError([{ file: path, message: `is ${mebibytes(stat.size)}, more than the ${mebibytes(maxBytes)} this input may have`, fix: 'check that this is the right file; split a long history by year' }]);
+  }
+  return stat.size;
+}
+
+function readHead(path: string, length: number): Buffer {
+  const head = Buffer.alloc(length);
+  const fd = attempt(path, () => openSync(path, 'r'));
   try {
-    const stat = statSync(path);
-    if (stat.isDirectory()) throw new InputError([{ file: path, message: 'is a folder, not a file', fix: 'give the path of the file inside it' }]);
-    size = stat.size;
+    const read = attempt(path, () => readSync(fd, head, 0, length, 0));
+    return head.subarray(0, read);
+  } finally {
+    closeSync(fd);
+  }
+}
+
+function gunzipBytes(path: string, bytes: Buffer, maxBytes: number): Buffer {
+  try {
+    return gunzipSync(bytes, { maxOutputLength: maxBytes });
   } catch (err) {
-    if (err instanceof InputError) throw err;
-    throw new InputError([{ file: path, message: 'cannot be read (no such file or no permission)', fix: 'check the path and the file\'s read rights' }]);
+    if ((err as NodeJS.ErrnoException).code === 'ERR_BUFFER_TOO_LARGE' || err instanceof RangeError) {
+      throw new InputError([{ file: path, message: `decompresses to more than ${mebibytes(maxBytes)}`, fix: 'check that this is the right file; split a long history by year' }]);
+    }
+    throw new InputError([{ file: path, message: 'is named .gz but is not a readable gzip file (damaged or cut short)', fix: 'decompress it yourself to check it, or rename it without .gz' }]);
   }
-  if (size > MAX_INPUT_BYTES) {
-    throw new InputError([{ file: path, message: `is ${Math.round(size / 1048576)} MiB, more than the ${MAX_INPUT_BYTES / 1048576} MiB an input may have`, fix: 'check that this is the right file; split a long history by year' }]);
-  }
-  const bytes = readFileSync(path);
-  if (!path.endsWith('.gz')) return bytes.toString('utf8');
+}
+
+/** Runs a file-system call; its error becomes an input error that says what to do. */
+function attempt<T>(path: string, run: () => T): T {
   try {
-    return gunzipSync(bytes, { maxOutputLength: MAX_INPUT_BYTES }).toString('utf8');
-  } catch {
-    throw new InputError([{ file: path, message: 'is named .gz but is not a readable gzip file', fix: 'decompress it yourself or rename it without .gz' }]);
+    return run();
+  } catch (err) {
+    throw new InputError([fileSystemProblem(path, (err as NodeJS.ErrnoException).code)]);
   }
+}
+
+function fileSystemProblem(path: string, code: string | undefined): InputProblem {
+  switch (code) {
+    case 'ENOENT':
+      return { file: path, message: 'cannot be read: there is no such file', fix: 'check the path (a relative path starts at the current folder)' };
+    case 'ENOTDIR':
+      return { file: path, message: 'cannot be read: a part of the path before the name is a file, not a folder', fix: 'check the path' };
+    case 'EACCES':
+    case 'EPERM':
+      return { file: path, message: 'cannot be read: no permission', fix: "check the file's read rights" };
+    case 'EISDIR':
+      return { file: path, message: 'is a folder, not a file', fix: 'give the path of the file inside it' };
+    default:
+      return { file: path, message: `cannot be read (${code ?? 'unknown error'})`, fix: 'check the path and the file' };
+  }
+}
+
+function mebibytes(bytes: number): string {
+  return bytes >= 1048576 ? `${Math.round(bytes / 1048576)} MiB` : `${Math.ceil(bytes / 1024)} KiB`;
 }

@@ -1,5 +1,4 @@
 import type { DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory } from '../types.js';
-import { nextDay } from '../market/calendar.js';
 import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
 import { ProblemList } from './inputError.js';
 import { parseDecimal, splitCsv, type CsvRow } from './csvText.js';
@@ -114,7 +113,10 @@ function readRows(
   for (const row of rows) {
     if (problems.full) break;
     if (row.cells.length !== width) {
-      problems.add({ file, line: row.line, message: `${row.cells.length} fields, the header has ${width}`, fix: 'give one value per column on every line' });
+      // Name the first column without a value, or the first cell beyond the header.
+      const field = row.cells.length < width ? (header[row.cells.length] as string) : `column ${width + 1}`;
+      const fix = row.cells.length > width ? 'give one value per column on every line; a decimal comma (42,5) splits a number in two: write 42.5' : 'give one value per column on every line';
+      problems.add({ file, line: row.line, field, message: `${row.cells.length} fields, the header has ${width}`, fix });
       continue;
     }
     const located = locator.locate(row.cells[0] as string);
@@ -180,11 +182,14 @@ class SequentialLocator {
   private next(): { day: string; index: number; period: DeliveryPeriod } | null {
     if (this.last === null) return null;
     const { day, index } = this.last;
-    const same = this.calendar.periods(day)[index + 1];
+    const periods = this.calendar.periods(day);
+    const same = periods[index + 1];
     if (same !== undefined) return { day, index: index + 1, period: same };
-    const following = nextDay(day);
+    // After a day's last period comes the first period of the day its end falls on.
+    const end = (periods[index] as DeliveryPeriod).end;
+    const following = end.slice(0, 10);
     const first = this.calendar.periods(following)[0];
-    return first === undefined ? null : { day: following, index: 0, period: first };
+    return first?.start === end ? { day: following, index: 0, period: first } : null;
   }
 }
 

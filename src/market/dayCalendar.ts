@@ -19,11 +19,21 @@ export class DayCalendar {
     return periods;
   }
 
-  /** The periods of `day`, or null when `day` is not a valid YYYY-MM-DD date (checked once per day). */
-  periodsIfValid(day: string): readonly DeliveryPeriod[] | null {
+  /**
+   * The periods of `day`; null when `day` is not a valid YYYY-MM-DD date; a RangeError's message when
+   * the day cannot be cut into whole periods (a zone that shifts its clocks by less than a period, or a
+   * historical local mean time). Checked once per day.
+   */
+  periodsIfValid(day: string): readonly DeliveryPeriod[] | null | { readonly uncut: string } {
     const cached = this.cache.get(day);
     if (cached !== undefined) return cached;
-    return isValidDay(day) ? this.periods(day) : null;
+    if (!isValidDay(day)) return null;
+    try {
+      return this.periods(day);
+    } catch (err) {
+      if (err instanceof RangeError) return { uncut: err.message };
+      throw err;
+    }
   }
 
   /** Period length [h]. */
@@ -49,13 +59,17 @@ export function locatePeriod(text: string, calendar: DayCalendar): LocatedPeriod
     if (/^\d{4}-\d{2}-\d{2}[T ]\d{2}:\d{2}(:\d{2})?$/.test(text)) {
       return { ok: false, message: `timestamp "${text}" has no UTC offset`, fix: `write it as ISO 8601 with the offset of ${calendar.timeZone}, e.g. 2027-03-28T03:00:00+02:00` };
     }
-    return { ok: false, message: `"${text}" is not an ISO 8601 timestamp`, fix: 'write period starts like 2027-03-28T03:00:00+02:00' };
+    const shown = text.length > 60 ? `${text.slice(0, 60)}...` : text;
+    return { ok: false, message: `"${shown}" is not an ISO 8601 timestamp`, fix: 'write period starts like 2027-03-28T03:00:00+02:00' };
   }
   const day = match[1] as string;
   const startMs = Date.parse(text);
   const periods = calendar.periodsIfValid(day);
   if (periods === null || Number.isNaN(startMs)) {
     return { ok: false, message: `"${text}" is not a valid date and time`, fix: 'check the date and the time of day' };
+  }
+  if ('uncut' in periods) {
+    return { ok: false, message: periods.uncut, fix: `use a shorter periodMinutes in the market spec, or check the date` };
   }
   const first = periods[0];
   const stepMs = calendar.periodMinutes * 60_000;
@@ -70,7 +84,7 @@ export function locatePeriod(text: string, calendar: DayCalendar): LocatedPeriod
   }
   const expectedOffset = period.start.slice(-6);
   if (offset !== expectedOffset) {
-    return { ok: false, message: `offset ${offset} in "${text}" does not match ${calendar.timeZone} on that date (${expectedOffset})`, fix: `write it as ${period.start}` };
+    return { ok: false, message: `offset ${offset} in "${text}" does not match ${calendar.timeZone} on that date (${expectedOffset})`, fix: `write each period start with the zone's offset at that instant: this instant is ${period.start}` };
   }
   return { ok: true, day, index: position, startMs };
 }

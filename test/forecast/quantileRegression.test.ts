@@ -139,9 +139,11 @@ describe('quantileRegression: optimality', () => {
     const { rows, y } = randomProblem(7, 200, 4, false);
     const x = matrixFromRows(rows);
     for (const tau of taus) {
-      const fit = quantileRegression(x, y, tau);
+      const fit = quantileRegression(x, y, tau, { dual: true });
       const k = rows[0]!.length;
-      for (const a of fit.dual) {
+      const dual = fit.dual!;
+      expect(dual).toHaveLength(200);
+      for (const a of dual) {
         expect(a).toBeGreaterThanOrEqual(-1e-9);
         expect(a).toBeLessThanOrEqual(1 + 1e-9);
       }
@@ -149,12 +151,12 @@ describe('quantileRegression: optimality', () => {
         let lhs = 0;
         let rhs = 0;
         rows.forEach((r, i) => {
-          lhs += r[j]! * fit.dual[i]!;
+          lhs += r[j]! * dual[i]!;
           rhs += (1 - tau) * r[j]!;
         });
         expect(lhs).toBeCloseTo(rhs, 8);
       }
-      const dualObjective = y.reduce((s, v, i) => s + v * fit.dual[i]! - (1 - tau) * v, 0);
+      const dualObjective = y.reduce((s, v, i) => s + v * dual[i]! - (1 - tau) * v, 0);
       expect(fit.objective).toBeCloseTo(dualObjective, 8);
     }
   });

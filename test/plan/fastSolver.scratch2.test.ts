@@ -1,12 +1,18 @@
 import { it } from 'vitest';
 import { randomDay } from '../reference/randomDays.js';
-import { solveDayFast, toStoredDay } from '../../src/plan/fast/index.js';
+import { loadHighsSolver, solveDayWithHighs } from '../reference/highsDayModel.js';
+import { solveDayFast } from '../../src/plan/fast/index.js';
 
+const highs = await loadHighsSolver();
 it('inspect', () => {
-  for (const name of ['scratch-17','scratch-39','scratch-48','scratch-57','scratch-102','scratch-112','scratch-153','scratch-167']) {
+  for (let i = 0; i < 60; i++) {
+    const name = `scratch-${i}`;
     const p = randomDay(name);
-    const d = toStoredDay(p);
-    const b = p.battery;
-    console.log(name, JSON.stringify({ T: d.periods, arb: d.arbitrageCount, X: d.chargeStepMwh.toFixed(3), Y: d.dischargeStepMwh.toFixed(3), win: (b.socMaxMwh - b.socMinMwh).toFixed(3), cap: b.maxDischargeMwhPerDay?.toFixed(2), eta: [b.chargeEfficiency.toFixed(3), b.dischargeEfficiency.toFixed(3)], deg: b.degradationCostPerMwh, spreadPoint: p.buyPricePerMwh[0] === p.sellPricePerMwh[0] }));
+    const t0 = performance.now();
+    const got = solveDayFast(p, { maxNodes: 200 });
+    const ms = performance.now() - t0;
+    const ref = solveDayWithHighs(highs, p, true);
+    const o = (r: any) => r.status === 'optimal' ? r.objective.toFixed(6) : r.status;
+    console.log(name, ms.toFixed(2), o(got), o(ref), (got as any).nodes, p.battery.maxDischargeMwhPerDay !== undefined);
   }
 });

@@ -122,7 +122,7 @@ export async function runSweep(options: SweepOptions): Promise<SweepOutcome> {
   const jobs: PoolJob[] = grid.filter((point) => rows[point.index] === undefined).map((point) => ({ id: point.index, key: point.key, setting: point.setting }));
   let status: PoolStatus;
   try {
-    status = await runPool(jobs, { taskModule: taskUrl, contextInput: o.contextInput, threads, ...(o.signal === undefined ? {} : { signal: o.signal }) }, (job, row) => {
+    status = await runPool(jobs, { taskModule: taskUrl, contextInput: o.contextInput, threads, signal: o.signal }, (job, row) => {
       checkRow(row, job.key, o.axes, columns);
       const line = journalLine({ key: job.key, row });
       writer.append(line);

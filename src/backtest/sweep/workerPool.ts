@@ -70,9 +70,10 @@ export function defaultThreads(): number {
 }
 
 /**
- * Runs `jobs` and hands each result to `onResult` as it finishes. Resolves `finished` when all ran,
- * `stopped` when the signal stopped it first; rejects with the first failure (a task error, a worker
- * that died, or an error thrown by onResult) after the running settings have finished.
+ * Runs `jobs` (in the order given) and hands each result to `onResult` as it finishes. Resolves
+ * `finished` when all ran, `stopped` when the signal stopped it first. On a failure (a task error, a
+ * worker that died, or an error thrown by onResult) it starts no more jobs, lets the running ones
+ * finish, and rejects with the failure of the earliest job in `jobs` order.
  */
 export async function runPool(jobs: readonly PoolJob[], options: PoolOptions, onResult: (job: PoolJob, row: SweepRow) => void): Promise<PoolStatus> {
   const url = taskModuleUrl(options.taskModule);
@@ -102,9 +103,9 @@ async function runInThisThread(jobs: readonly PoolJob[], url: string, options: P
 function runOnWorkers(jobs: readonly PoolJob[], url: string, threads: number, options: PoolOptions, onResult: (job: PoolJob, row: SweepRow) => void): Promise<PoolStatus> {
   return new Promise((resolvePool, rejectPool) => {
     const init: WorkerInit = { taskModuleUrl: url, contextInput: options.contextInput };
-    const running = new Map<Worker, PoolJob>();
+    const running = new Map<Worker, number>(); // worker -> position in jobs of the job it runs
     let next = 0;
-    let failure: Error | undefined;
+    let failure: { readonly position: number; readonly error: Error } | undefined;
     let settled = false;
     const workers: Worker[] = [];
 
@@ -113,36 +114,38 @@ function runOnWorkers(jobs: readonly PoolJob[], url: string, threads: number, op
       if (failure === undefined && next < jobs.length && options.signal?.aborted !== true) return;
       settled = true;
       void Promise.all(workers.map((w) => w.terminate())).then(() => {
-        if (failure !== undefined) rejectPool(failure);
+        if (failure !== undefined) rejectPool(failure.error);
         else resolvePool(next < jobs.length ? 'stopped' : 'finished');
       });
     };
-    const fail = (err: Error): void => {
-      failure ??= err;
+    // Jobs start in order, so every job before a failed one has started by then; keeping the earliest
+    // failure reports the one a single thread meets first, for any number of threads.
+    const fail = (position: number, error: Error): void => {
+      if (failure === undefined || position < failure.position) failure = { position, error };
     };
     const dispatch = (worker: Worker): void => {
       const job = jobs[next];
       if (failure !== undefined || options.signal?.aborted === true || job === undefined) return settleIfIdle();
-      next++;
-      running.set(worker, job);
+      running.set(worker, next++);
       worker.postMessage({ id: job.id, setting: job.setting } satisfies RunMessage);
     };
     const finished = (worker: Worker, message: ResultMessage): void => {
-      const job = running.get(worker) as PoolJob;
+      const position = running.get(worker) as number;
+      const job = jobs[position] as PoolJob;
       running.delete(worker);
       try {
         if (message.type === 'done') onResult(job, message.row);
-        else fail(settingError(message.error, job.key));
+        else fail(position, settingError(message.error, job.key));
       } catch (err) {
-        fail(err instanceof Error ? err : new Error(String(err)));
+        fail(position, err instanceof Error ? err : new Error(String(err)));
       }
       dispatch(worker);
     };
     const lost = (worker: Worker, reason: string): void => {
-      const job = running.get(worker);
-      if (job === undefined) return;
+      const position = running.get(worker);
+      if (position === undefined) return;
       running.delete(worker);
-      fail(new Error(`a sweep worker thread ${reason} while running setting ${job.key}`));
+      fail(position, new Error(`a sweep worker thread ${reason} while running setting ${jobs[position]?.key}`));
       settleIfIdle();
     };
 

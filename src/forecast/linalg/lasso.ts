@@ -9,7 +9,11 @@ export interface LassoOptions {
   readonly pathLength: number;
   /** lambda_min / lambda_max [-], in (0, 1). */
   readonly minRatio: number;
-  /** Coordinate descent stops when no coefficient moved more than this in a sweep [standardised units]. */
+  /**
+   * Coordinate descent stops when a sweep moves no coefficient by more than sqrt(tolerance var(y))
+   * (in standardised units: max_j G_jj (delta beta_j)^2 <= tolerance var(y), as in Friedman, Hastie and
+   * Tibshirani 2010) [-].
+   */
   readonly tolerance: number;
   /** Most coordinate-descent sweeps per lambda [-]. */
   readonly maxSweeps: number;
@@ -18,7 +22,7 @@ export interface LassoOptions {
 export const LASSO_DEFAULTS: LassoOptions = Object.freeze({
   pathLength: 30,
   minRatio: 1e-3,
-  tolerance: 1e-9,
+  tolerance: 1e-7,
   maxSweeps: 1000,
 });
 
@@ -54,9 +58,10 @@ export interface LassoFit {
  *   beta_j <- S(c_j - sum_{l != j} G_jl beta_l, lambda),  S(z, g) = sign(z) max(|z| - g, 0),
  * keeping the gradient c - G beta up to date in O(k) per change. The path runs over pathLength values
  * lambda_m = lambda_max minRatio^(m / (pathLength - 1)), lambda_max = max_j |c_j| (the smallest
- * penalty with all beta = 0), each started from the previous solution (warm starts). On each,
+ * penalty with all beta = 0), each started from the previous solution (warm starts), sweeping the
+ * non-zero coefficients between full sweeps (active set). On each,
  *   RSS/n = var(y) - 2 beta'c + beta'G beta,
- *   BIC = n ln(RSS/n) + df ln(n),   df = number of non-zero beta_j,
+ *   BIC = n ln(RSS/n) + df ln(n),   df = number of beta_j with |beta_j| > 1e-9 max_l |beta_l|,
  * (Schwarz 1978; df of the LASSO after Zou, Hastie and Tibshirani 2007), and the smallest BIC wins (the
  * earlier, sparser point on a tie). The penalty is chosen by BIC, not by a validation window.
  *
@@ -105,22 +110,49 @@ function coordinateDescent(
   grad: Float64Array,
   opts: LassoOptions,
 ): void {
-  const { k, gram: g, scales } = gram;
-  for (let sweep = 0; sweep < opts.maxSweeps; sweep++) {
-    let moved = 0;
-    for (let j = 0; j < k; j++) {
-      if ((scales[j] as number) === 0) continue;
-      const old = beta[j] as number;
-      const z = (grad[j] as number) + old;
-      const next = z > lambda ? z - lambda : z < -lambda ? z + lambda : 0;
-      if (next === old) continue;
-      const delta = next - old;
-      beta[j] = next;
-      for (let l = 0; l < k; l++) grad[l] = (grad[l] as number) - delta * (g[l * k + j] as number);
-      moved = Math.max(moved, Math.abs(delta));
+  const { k } = gram;
+  const limit = opts.tolerance * gram.yVariance;
+  const active: number[] = [];
+  for (let sweep = 0; sweep < opts.maxSweeps; ) {
+    // A full sweep over all columns, then sweeps over the non-zero ones until they settle
+    // (the active-set strategy of Friedman, Hastie and Tibshirani 2010, section 2.6).
+    let moved = sweepColumns(gram, lambda, beta, grad, null);
+    sweep++;
+    if (moved <= limit) return;
+    active.length = 0;
+    for (let j = 0; j < k; j++) if ((beta[j] as number) !== 0) active.push(j);
+    while (sweep < opts.maxSweeps) {
+      moved = sweepColumns(gram, lambda, beta, grad, active);
+      sweep++;
+      if (moved <= limit) break;
     }
-    if (moved <= opts.tolerance) return;
   }
+}
+
+/** One coordinate-descent sweep over `columns` (all when null); returns max_j (delta beta_j)^2. */
+function sweepColumns(
+  gram: StandardisedGram,
+  lambda: number,
+  beta: Float64Array,
+  grad: Float64Array,
+  columns: readonly number[] | null,
+): number {
+  const { k, gram: g, scales } = gram;
+  const count = columns === null ? k : columns.length;
+  let moved = 0;
+  for (let q = 0; q < count; q++) {
+    const j = columns === null ? q : (columns[q] as number);
+    if ((scales[j] as number) === 0) continue;
+    const old = beta[j] as number;
+    const z = (grad[j] as number) + old;
+    const next = z > lambda ? z - lambda : z < -lambda ? z + lambda : 0;
+    if (next === old) continue;
+    const delta = next - old;
+    beta[j] = next;
+    for (let l = 0; l < k; l++) grad[l] = (grad[l] as number) - delta * (g[l * k + j] as number);
+    moved = Math.max(moved, delta * delta);
+  }
+  return moved;
 }
 
 function pathPoint(gram: StandardisedGram, lambda: number, beta: Float64Array, grad: Float64Array): LassoPathPoint {
@@ -128,14 +160,17 @@ function pathPoint(gram: StandardisedGram, lambda: number, beta: Float64Array, g
   // RSS/n = var(y) - 2 beta'c + beta'G beta, with G beta = c - grad.
   let bc = 0;
   let bg = 0;
-  let nonZero = 0;
+  let largest = 0;
   for (let j = 0; j < k; j++) {
     const b = beta[j] as number;
-    if (b === 0) continue;
-    nonZero++;
+    largest = Math.max(largest, Math.abs(b));
     bc += b * (zty[j] as number);
     bg += b * (grad[j] as number);
   }
+  // A coefficient left at rounding level (|beta_j| <= 1e-9 max |beta|), as happens to the second of
+  // two identical columns, does not count as a degree of freedom.
+  let nonZero = 0;
+  for (let j = 0; j < k; j++) if (Math.abs(beta[j] as number) > 1e-9 * largest) nonZero++;
   const meanSquaredResidual = Math.max(gram.yVariance - bc - bg, 0);
   const bic = n * Math.log(Math.max(meanSquaredResidual, Number.MIN_VALUE)) + nonZero * Math.log(n);
   return { lambda, beta: Float64Array.from(beta), meanSquaredResidual, nonZero, bic };

@@ -13,10 +13,11 @@ export interface QuantileRegressionFit {
   /** The k rows with zero residual that fix the vertex (X_h b = y_h), ascending by position. */
   readonly basis: Int32Array;
   /**
-   * A dual solution a in [0, 1]^n with X'a = (1 - tau) X'1, and objective = y'a - (1 - tau) sum_i y_i
-   * (the certificate of optimality; a_i = 1 above the fit, 0 below it).
+   * With options.dual: a dual solution a in [0, 1]^n with X'a = (1 - tau) X'1 and
+   * objective = y'a - (1 - tau) sum_i y_i, the certificate of optimality (a_i = 1 above the fit,
+   * 0 below it). Otherwise undefined.
    */
-  readonly dual: Float64Array;
+  readonly dual?: Float64Array;
   /** Simplex iterations spent. */
   readonly iterations: number;
   /**
@@ -42,6 +43,8 @@ export interface QuantileRegressionOptions {
   readonly initialCoefficients?: ArrayLike<number>;
   /** Most simplex iterations before a SolverError('iteration-limit'). Default 50 + 20 n. */
   readonly maxIterations?: number;
+  /** Also return the dual certificate (an array of n per fit). Default false. */
+  readonly dual?: boolean;
 }
 
 /**
@@ -61,8 +64,8 @@ export interface QuantileRegressionOptions {
  * t_i = r_i / (x_i sigma z_j). The step goes to the breakpoint where the slope first becomes >= 0
  * (a weighted median; it may pass several vertices at once, as in Barrodale and Roberts), and that row
  * replaces h_j in the basis. Every non-degenerate step lowers R, so the method ends at an optimal
- * vertex; ties are broken by row order, so the result is deterministic. The dual returned is
- * a_i = psi_i + 1 - tau off the basis and s_j + 1 - tau on it.
+ * vertex; ties are broken by row order, so the result is deterministic. The dual certificate (on
+ * request) is a_i = psi_i + 1 - tau off the basis and s_j + 1 - tau on it.
  *
  * The design must have full column rank (see `independentColumns`); include a column of ones for an
  * intercept. Exactness: the coefficients solve X_h b = y_h for the optimal basis (Koenker and Bassett
@@ -126,6 +129,13 @@ export class QuantileRegressionProblem {
   private readonly heapT: Float64Array;
   private readonly heapRow: Int32Array;
   private readonly scratch: Float64Array;
+  private readonly direction: Float64Array;
+  private readonly projection: Float64Array;
+  private readonly candidate: Int32Array;
+  /** The edge chosen by descentEdge: basis position, direction sign and slope. */
+  private edgeColumn = 0;
+  private edgeSign: 1 | -1 = 1;
+  private edgeSlope = 0;
   private bNorm = 0;
   private pivotsSinceRefresh = 0;
 
@@ -157,6 +167,9 @@ export class QuantileRegressionProblem {
     this.heapT = new Float64Array(n);
     this.heapRow = new Int32Array(n);
     this.scratch = new Float64Array(2 * k * k);
+    this.direction = new Float64Array(k);
+    this.projection = new Float64Array(k);
+    this.candidate = new Int32Array(k);
   }
 
   /** The exact fit at level tau; options as for {@link quantileRegression}. */
@@ -168,41 +181,42 @@ export class QuantileRegressionProblem {
     this.side.fill(1);
     const warm = options.initialBasis !== undefined || options.initialCoefficients !== undefined;
     const start = options.initialBasis;
-    if (start === undefined || !this.setBasis(start)) this.setBasis(greedyBasis(x, y, tau, options.initialCoefficients));
+    if ((start === undefined || !this.setBasis(start)) && !this.setBasis(greedyBasis(x, y, tau, options.initialCoefficients))) {
+      throw new SolverError('singular-design', 'quantile regression found no nonsingular starting basis: drop nearly dependent columns first');
+    }
     const maxIterations = options.maxIterations ?? 50 + 20 * n;
     let iterations = 0;
     this.refresh();
     for (;;) {
-      let edge = this.descentEdge();
-      if (edge === null || iterations % 32 === 31) {
-        // Confirm on exact values from the basis in row order, so that the same basis always gives
-        // the same bits (and bound the drift of the updates every 32 pivots).
-        if (!this.fresh) this.refresh();
-        edge = this.descentEdge();
-        if (edge === null) break;
+      if (iterations % 32 === 31) this.refresh(); // bound the drift of the updates
+      if (!this.descentEdge()) {
+        // Recompute b from the basis in row order, so that the same basis always gives the same bits.
+        if (!this.fresh) this.canonicalise();
+        break;
       }
       if (iterations >= maxIterations) {
         throw new SolverError('iteration-limit', `quantile regression did not converge in ${maxIterations} iterations (n = ${n}, k = ${k}, tau = ${tau}); scale the columns or raise maxIterations`);
       }
-      this.step(edge.column, edge.sign, edge.slope);
+      this.step(this.edgeColumn, this.edgeSign, this.edgeSlope);
       iterations++;
     }
-    const fit = this.result(iterations);
+    const fit = this.result(iterations, options.dual === true);
     // A warm start may end on another vertex of a flat optimal face: then answer as a cold start
     // would, so that the result never depends on the start.
-    return warm && !fit.unique ? this.fit(tau, { maxIterations }) : fit;
+    return warm && !fit.unique ? this.fit(tau, { maxIterations, dual: options.dual === true }) : fit;
   }
 
   /** Installs a basis if its rows are distinct, in range and give a nonsingular X_h. */
   private setBasis(rows: ArrayLike<number>): boolean {
-    const { n, k } = this;
+    const { n, k, candidate } = this;
     if (rows.length !== k) return false;
-    const candidate = Int32Array.from(rows as ArrayLike<number>).sort();
     for (let j = 0; j < k; j++) {
-      const i = candidate[j] as number;
+      const i = rows[j] as number;
       if (!Number.isInteger(i) || i < 0 || i >= n) return false;
-      if (j > 0 && candidate[j - 1] === i) return false;
+      candidate[j] = i;
     }
+    candidate.sort();
+    for (let j = 1; j < k; j++) if (candidate[j - 1] === candidate[j]) return false;
     if (!this.invertBasis(candidate)) return false;
     this.position.fill(-1);
     for (let j = 0; j < k; j++) {
@@ -297,6 +311,26 @@ export class QuantileRegressionProblem {
     return 1e-11 * (Math.abs(this.y[i] as number) + (this.rowNorm[i] as number) * this.bNorm);
   }
 
+  /** Basis in row order, X_h^{-1} afresh, b = X_h^{-1} y_h and s; residuals and v are kept. */
+  private canonicalise(): void {
+    const { k, y, b, inverse, basis, position } = this;
+    basis.sort();
+    for (let j = 0; j < k; j++) position[basis[j] as number] = j;
+    if (!this.invertBasis(basis)) {
+      throw new SolverError('singular-design', 'quantile regression reached a singular basis: the design is not of full column rank');
+    }
+    let bNorm = 0;
+    for (let c = 0; c < k; c++) {
+      let sum = 0;
+      for (let j = 0; j < k; j++) sum += (inverse[c * k + j] as number) * (y[basis[j] as number] as number);
+      b[c] = sum;
+      bNorm = Math.max(bNorm, Math.abs(sum));
+    }
+    this.bNorm = bNorm;
+    this.pivotsSinceRefresh = 0;
+    this.updateSubgradients();
+  }
+
   /** s = -X_h^{-T} v. */
   private updateSubgradients(): void {
     const { k, inverse, v, s } = this;
@@ -312,19 +346,34 @@ export class QuantileRegressionProblem {
     return this.pivotsSinceRefresh === 0;
   }
 
-  /** The basic edge with the most negative directional derivative, or null at an optimum. */
-  private descentEdge(): { column: number; sign: 1 | -1; slope: number } | null {
+  /**
+   * Picks the basic edge with the most negative directional derivative into edgeColumn, edgeSign and
+   * edgeSlope; false at an optimum.
+   */
+  private descentEdge(): boolean {
     const { k, s, tau } = this;
-    let best: { column: number; sign: 1 | -1; slope: number } | null = null;
     const eps = 1e-10;
+    let slope = -eps;
+    let found = false;
     for (let j = 0; j < k; j++) {
       const sj = s[j] as number;
       const up = 1 - tau + sj;
       const down = tau - sj;
-      if (up < -eps && (best === null || up < best.slope)) best = { column: j, sign: 1, slope: up };
-      if (down < -eps && (best === null || down < best.slope)) best = { column: j, sign: -1, slope: down };
+      if (up < slope) {
+        slope = up;
+        this.edgeColumn = j;
+        this.edgeSign = 1;
+        found = true;
+      }
+      if (down < slope) {
+        slope = down;
+        this.edgeColumn = j;
+        this.edgeSign = -1;
+        found = true;
+      }
     }
-    return best;
+    this.edgeSlope = slope;
+    return found;
   }
 
   /**
@@ -333,7 +382,7 @@ export class QuantileRegressionProblem {
    */
   private step(column: number, sign: 1 | -1, slope: number): void {
     const { n, k, data, inverse, position, side, r, a, heapT, heapRow, basis, v, b, tau, y, rowNorm } = this;
-    const z = this.scratch.subarray(0, k);
+    const z = this.direction;
     for (let c = 0; c < k; c++) z[c] = sign * (inverse[c * k + column] as number);
     const tolScale = 1e-11 * this.bNorm;
     let count = 0;
@@ -398,7 +447,7 @@ export class QuantileRegressionProblem {
     // Product-form update of X_h^{-1} for row `column` replaced by x_entering:
     // z_column' = z_column / (x_e z_column), z_j' = z_j - (x_e z_j) z_column'.
     const pivot = sign * (a[entering] as number);
-    const proj = this.scratch.subarray(0, k);
+    const proj = this.projection;
     for (let j = 0; j < k; j++) {
       let sum = 0;
       for (let c = 0; c < k; c++) sum += (data[enterBase + c] as number) * (inverse[c * k + j] as number);
@@ -419,7 +468,7 @@ export class QuantileRegressionProblem {
   }
 
   /** The fit at the current (freshly refreshed, optimal) basis. */
-  private result(iterations: number): QuantileRegressionFit {
+  private result(iterations: number, withDual: boolean): QuantileRegressionFit {
     const { n, k, r, position, side, s, tau, y, rowNorm } = this;
     let objective = 0;
     let unique = true;
@@ -428,20 +477,20 @@ export class QuantileRegressionProblem {
       const sj = s[j] as number;
       if (!(sj > tau - 1 + eps && sj < tau - eps)) unique = false;
     }
-    const dual = new Float64Array(n);
     const tolScale = 1e-11 * this.bNorm;
     for (let i = 0; i < n; i++) {
       const ri = r[i] as number;
       objective += ri * (ri < 0 ? tau - 1 : tau);
-      const p = position[i] as number;
-      if (p >= 0) {
-        dual[i] = (s[p] as number) + 1 - tau;
-        continue;
-      }
-      dual[i] = side[i] === 1 ? 1 : 0;
-      if (Math.abs(ri) <= 1e-11 * Math.abs(y[i] as number) + tolScale * (rowNorm[i] as number)) unique = false;
+      if ((position[i] as number) < 0 && Math.abs(ri) <= 1e-11 * Math.abs(y[i] as number) + tolScale * (rowNorm[i] as number)) unique = false;
     }
-    return { coefficients: Float64Array.from(this.b), objective, basis: Int32Array.from(this.basis), dual, iterations, unique };
+    const fit = { coefficients: Float64Array.from(this.b), objective, basis: Int32Array.from(this.basis), iterations, unique };
+    if (!withDual) return fit;
+    const dual = new Float64Array(n);
+    for (let i = 0; i < n; i++) {
+      const p = position[i] as number;
+      dual[i] = p >= 0 ? (s[p] as number) + 1 - tau : side[i] === 1 ? 1 : 0;
+    }
+    return { ...fit, dual };
   }
 }
 

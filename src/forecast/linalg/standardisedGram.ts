@@ -55,10 +55,10 @@ export function standardisedGram(x: Matrix, y: ArrayLike<number>): StandardisedG
   const gram = new Float64Array(k * k);
   const cy = new Float64Array(k);
   const row = new Float64Array(k);
-  let yVariance = 0;
+  let ySquares = 0;
   for (let i = 0; i < n; i++) {
     const dy = (y[i] as number) - yMean;
-    yVariance += dy * dy;
+    ySquares += dy * dy;
     for (let j = 0; j < k; j++) row[j] = (data[i * k + j] as number) - (means[j] as number);
     for (let j = 0; j < k; j++) {
       const rj = row[j] as number;
@@ -66,9 +66,70 @@ export function standardisedGram(x: Matrix, y: ArrayLike<number>): StandardisedG
       for (let l = j; l < k; l++) gram[j * k + l] = (gram[j * k + l] as number) + rj * (row[l] as number);
     }
   }
+  return standardiseCentredSums(n, means, yMean, gram, cy, ySquares);
+}
+
+/**
+ * The {@link StandardisedGram}s of the leading rows of one design: entry i is the Gram of rows
+ * 0 .. counts[i] - 1. For nested calibration windows with the rows ordered most recent first, one
+ * pass serves every window.
+ *
+ * Notes: one pass of shifted sums (Chan, Golub and LeVeque 1983, the shifted-data algorithm), with
+ * the shift K = the first row: S_j = sum_i (x_ij - K_j), S_jl = sum_i (x_ij - K_j)(x_il - K_l); at each
+ * count n the centred products are S_jl - S_j S_l / n. With K one of the observations, the
+ * cancellation in that difference is that of data a few standard deviations from their mean.
+ *
+ * @param counts strictly increasing row counts, each in [1, rows]
+ */
+export function nestedStandardisedGrams(x: Matrix, y: ArrayLike<number>, counts: readonly number[]): StandardisedGram[] {
+  requireResponse(x, y);
+  const { cols: k, data } = x;
+  const shift = Float64Array.from({ length: k }, (_, j) => data[j] as number);
+  const yShift = y[0] as number;
+  const sums = new Float64Array(k);
+  const products = new Float64Array(k * k);
+  const cross = new Float64Array(k);
+  let ySum = 0;
+  let ySquares = 0;
+  const row = new Float64Array(k);
+  const out: StandardisedGram[] = [];
+  let i = 0;
+  for (const n of counts) {
+    for (; i < n; i++) {
+      const dy = (y[i] as number) - yShift;
+      ySum += dy;
+      ySquares += dy * dy;
+      for (let j = 0; j < k; j++) row[j] = (data[i * k + j] as number) - (shift[j] as number);
+      for (let j = 0; j < k; j++) {
+        const rj = row[j] as number;
+        sums[j] = (sums[j] as number) + rj;
+        cross[j] = (cross[j] as number) + rj * dy;
+        for (let l = j; l < k; l++) products[j * k + l] = (products[j * k + l] as number) + rj * (row[l] as number);
+      }
+    }
+    const means = Float64Array.from(sums, (v, j) => (shift[j] as number) + v / n);
+    const gram = new Float64Array(k * k);
+    const cy = new Float64Array(k);
+    for (let j = 0; j < k; j++) {
+      cy[j] = (cross[j] as number) - ((sums[j] as number) * ySum) / n;
+      for (let l = j; l < k; l++) gram[j * k + l] = (products[j * k + l] as number) - ((sums[j] as number) * (sums[l] as number)) / n;
+    }
+    out.push(standardiseCentredSums(n, means, yShift + ySum / n, gram, cy, ySquares - (ySum * ySum) / n));
+  }
+  return out;
+}
+
+/**
+ * Scales centred sums into the standardised form: `gram` holds sum (x_j - m_j)(x_l - m_l) on and above
+ * the diagonal (it is overwritten with the full correlation matrix), `cy` sum (x_j - m_j)(y - ybar),
+ * `ySquares` sum (y - ybar)^2; all are divided by n and by the standard deviations, and constant
+ * columns are marked. For callers that accumulate the sums their own way.
+ */
+export function standardiseCentredSums(n: number, means: Float64Array, yMean: number, gram: Float64Array, cy: Float64Array, ySquares: number): StandardisedGram {
+  const k = means.length;
   const scales = new Float64Array(k);
   for (let j = 0; j < k; j++) {
-    const sd = Math.sqrt((gram[j * k + j] as number) / n);
+    const sd = Math.sqrt(Math.max(gram[j * k + j] as number, 0) / n);
     scales[j] = sd <= 1e-12 * (1 + Math.abs(means[j] as number)) ? 0 : sd;
   }
   const zty = new Float64Array(k);
@@ -82,5 +143,5 @@ export function standardisedGram(x: Matrix, y: ArrayLike<number>): StandardisedG
       gram[l * k + j] = v;
     }
   }
-  return { n, k, means, scales, yMean, gram, zty, yVariance: yVariance / n };
+  return { n, k, means, scales, yMean, gram, zty, yVariance: Math.max(ySquares, 0) / n };
 }

@@ -1,5 +1,5 @@
 import type { DayContext } from './dayContext.js';
-import { LineSolution, SWEEP_OK, sweepLine, type SweepStatus } from './lineSweep.js';
+import { LineSolution, SWEEP_OK, type SweepStatus } from './lineSweep.js';
 import { netOutsideArbitrage, revalue } from './netFlows.js';
 
 /**
@@ -26,11 +26,11 @@ export type RelaxStatus = SweepStatus | typeof CAP_UNREACHABLE;
 const MAX_STEPS = 64;
 
 export function relaxDay(ctx: DayContext, modes: Int8Array, out: LineSolution): RelaxStatus {
-  const { day, workspace: ws } = ctx;
+  const { day, solver } = ctx;
   let above = ctx.above;
   let below = ctx.below;
   let trial = ctx.trial;
-  const status = sweepLine(day, ctx.atZero, modes, ws, above);
+  const status = solver.solveAt(0, modes, above);
   if (status !== SWEEP_OK) return status;
   const cap = day.dischargeCapMwh;
   const capTol = 1e-12 * Math.max(1, cap);
@@ -38,17 +38,15 @@ export function relaxDay(ctx: DayContext, modes: Int8Array, out: LineSolution): 
     finish(ctx, above, out);
     return SWEEP_OK;
   }
-  const high = ctx.atHigh();
-  sweepLine(day, high, modes, ws, below);
+  solver.solveAt(ctx.muHigh, modes, below);
   if (below.discharged > cap + capTol) return CAP_UNREACHABLE;
   let muLow = 0;
-  let muHigh = high.mu;
+  let muHigh = ctx.muHigh;
   for (let step = 0; step < MAX_STEPS; step++) {
     let mu = (above.value - below.value) / (above.discharged - below.discharged);
     if (!(mu >= muLow)) mu = muLow;
     if (!(mu <= muHigh)) mu = muHigh;
-    ctx.order.rank(mu, ctx.scratch);
-    sweepLine(day, ctx.scratch, modes, ws, trial);
+    solver.solveAt(mu, modes, trial);
     const onLine = above.value - mu * (above.discharged - cap);
     const atTrial = trial.value - mu * (trial.discharged - cap);
     if (atTrial <= onLine + 1e-13 * (Math.abs(above.value) + Math.abs(below.value) + mu * cap + 1)) break;

@@ -1,34 +1,68 @@
-import { LineSolution, SweepWorkspace } from './lineSweep.js';
+import { LineSolution, sweepLine, SweepWorkspace, type SweepStatus } from './lineSweep.js';
 import { SegmentOrder, SegmentRanking } from './segmentOrder.js';
 import type { StoredDay } from './storedDay.js';
+import { ValueDp } from './valueDp.js';
 
-/**
- * Everything the fast solver keeps for one day: the stored-unit problem, the segment order, the
- * rankings at mu = 0 and at a multiplier high enough to minimise discharge, scratch space.
- */
+/** Solves the day at a multiplier mu on discharged energy, with per-period modes. */
+export interface MuSolver {
+  solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus;
+}
+
+/** The concave sweep (lineSweep.ts) with its orders cached at mu = 0 and at the last mu used. */
+export class SweepSolver implements MuSolver {
+  private readonly order: SegmentOrder;
+  private readonly atZero: SegmentRanking;
+  private readonly other: SegmentRanking;
+  private readonly workspace: SweepWorkspace;
+
+  constructor(private readonly day: StoredDay) {
+    this.order = new SegmentOrder(day);
+    this.atZero = new SegmentRanking(day.periods);
+    this.order.rank(0, this.atZero);
+    this.other = new SegmentRanking(day.periods);
+    this.workspace = new SweepWorkspace(day.periods);
+  }
+
+  solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
+    let ranking = this.atZero;
+    if (mu !== 0) {
+      if (this.other.mu !== mu) this.order.rank(mu, this.other);
+      ranking = this.other;
+    }
+    return sweepLine(this.day, ranking, modes, this.workspace, out);
+  }
+}
+
+/** The exact dynamic program (valueDp.ts). */
+export class DpSolver implements MuSolver {
+  private readonly dp: ValueDp;
+
+  constructor(day: StoredDay) {
+    this.dp = new ValueDp(day);
+  }
+
+  solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
+    return this.dp.solveAt(mu, modes, out);
+  }
+}
+
+/** One day's problem, its solver and the scratch solutions of the cycle-cap search. */
 export class DayContext {
-  readonly order: SegmentOrder;
-  readonly atZero: SegmentRanking;
-  readonly scratch: SegmentRanking;
-  readonly workspace: SweepWorkspace;
-  /** Solutions used by the cycle-cap search: the two sides of the cap and a trial. */
+  /** The two sides of the cap and a trial (cycleCapDual.ts). */
   readonly above: LineSolution;
   readonly below: LineSolution;
   readonly trial: LineSolution;
   /**
    * A multiplier at which every discharge segment is steeper than every charge and chord segment
-   * and than -V: the sweep then discharges as little as the window allows.
+   * and than -V: the solution then discharges as little as the window allows.
    */
   readonly muHigh: number;
-  private high: SegmentRanking | null = null;
 
-  constructor(readonly day: StoredDay) {
+  constructor(
+    readonly day: StoredDay,
+    readonly solver: MuSolver,
+  ) {
     const n = day.periods;
-    this.order = new SegmentOrder(day);
-    this.atZero = new SegmentRanking(n);
-    this.order.rank(0, this.atZero);
-    this.scratch = new SegmentRanking(n);
-    this.workspace = new SweepWorkspace(n);
     this.above = new LineSolution(n);
     this.below = new LineSolution(n);
     this.trial = new LineSolution(n);
@@ -39,13 +73,5 @@ export class DayContext {
       minP = Math.min(minP, day.chargePrice[t]!);
     }
     this.muHigh = 2 * Math.max(0, maxQ - minP) + 1;
-  }
-
-  atHigh(): SegmentRanking {
-    if (this.high === null) {
-      this.high = new SegmentRanking(this.day.periods);
-      this.order.rank(this.muHigh, this.high);
-    }
-    return this.high;
   }
 }

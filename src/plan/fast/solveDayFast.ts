@@ -2,7 +2,7 @@ import type { DayOutcome, DayProblem, Schedule } from '../../types.js';
 import { branchOnArbitrage } from './arbitrageBranching.js';
 import { fastSolverGap } from './coversDay.js';
 import { CAP_UNREACHABLE } from './cycleCapDual.js';
-import { DayContext } from './dayContext.js';
+import { DayContext, DpSolver, SweepSolver } from './dayContext.js';
 import { LineSolution, SWEEP_START_UNREACHABLE } from './lineSweep.js';
 import { toStoredDay, type StoredDay } from './storedDay.js';
 
@@ -10,9 +10,11 @@ import { toStoredDay, type StoredDay } from './storedDay.js';
 export interface FastSolverOptions {
   /** Most branch-and-bound nodes over arbitrage periods before answering `not-covered`. */
   readonly maxNodes: number;
+  /** How arbitrage periods get one mode: the exact dynamic program, or branching on the chord sweep. */
+  readonly exactModes: 'program' | 'branch';
 }
 
-export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ maxNodes: 20_000 });
+export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ maxNodes: 20_000, exactModes: 'program' });
 
 /** A DayOutcome, or `not-covered` when the caller must fall back to the general LP path. */
 export type FastDayOutcome = DayOutcome | { readonly status: 'not-covered'; readonly reason: string };
@@ -39,7 +41,7 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
   const b = problem.battery;
   if (b.socMinMwh > b.socMaxMwh) return { status: 'infeasible', reason: `the state-of-charge window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh is empty` };
   const day = toStoredDay(problem);
-  const ctx = new DayContext(day);
+  const ctx = new DayContext(day, day.arbitrageCount === 0 || settings.exactModes === 'branch' ? new SweepSolver(day) : new DpSolver(day));
   const best = new LineSolution(day.periods);
   const outcome = branchOnArbitrage(ctx, settings.maxNodes, best);
   if (outcome.status === 'node-limit') return { status: 'not-covered', reason: `no proven optimum within ${outcome.nodes} branch-and-bound nodes` };
@@ -62,8 +64,8 @@ function toSchedule(problem: DayProblem, day: StoredDay, sol: LineSolution): Sch
   for (let t = 0; t < day.periods; t++) {
     const x = sol.x[t]!;
     const y = sol.y[t]!;
-    const c = x >= day.chargeStepMwh ? b.chargeMw : x / (b.chargeEfficiency * dt);
-    const d = y >= day.dischargeStepMwh ? b.dischargeMw : (y * b.dischargeEfficiency) / dt;
+    const c = x >= day.chargeFullMwh ? b.chargeMw : x / (b.chargeEfficiency * dt);
+    const d = y >= day.dischargeFullMwh ? b.dischargeMw : (y * b.dischargeEfficiency) / dt;
     chargeMw[t] = c;
     dischargeMw[t] = d;
     soc += b.chargeEfficiency * dt * c - (dt * d) / b.dischargeEfficiency;

@@ -24,13 +24,22 @@ import type { DayProblem } from '../../types.js';
  * complementarity is k_t(w) = -p_t w for w >= 0 and -q_t w for w <= 0: concave when p_t >= q_t,
  * convex in an arbitrage period. The convex hull of {(x, 0)} and {(0, y)} is the triangle
  * x / X + y / Y <= 1, over which the best value is the chord of k_t from (-Y, q_t Y) to (X, -p_t X).
+ *
+ * Step bounds. When s_0 lies in the window, both s_{t-1} and s_t lie in it, so a complementary
+ * period moves at most W = socMax - socMin: X and Y are replaced by min(X, W) and min(Y, W).
+ * This changes no feasible schedule (a schedule with a simultaneous pair can be netted first), but
+ * it lowers the chord and so tightens the relaxation of arbitrage periods.
  */
 export interface StoredDay {
   readonly periods: number;
-  /** X [MWh]: the most one period can put into the store. */
+  /** X [MWh]: the most one period can put into the store (after the step bound). */
   readonly chargeStepMwh: number;
-  /** Y [MWh]: the most one period can take out of the store. */
+  /** Y [MWh]: the most one period can take out of the store (after the step bound). */
   readonly dischargeStepMwh: number;
+  /** eta_c dt chargeMw [MWh]: a full-power charge, before the step bound. */
+  readonly chargeFullMwh: number;
+  /** dt dischargeMw / eta_d [MWh]: a full-power discharge, before the step bound. */
+  readonly dischargeFullMwh: number;
   /** p_t [currency/MWh stored]. */
   readonly chargePrice: Float64Array;
   /** q_t [currency/MWh stored]. */
@@ -52,8 +61,12 @@ export interface StoredDay {
 export function toStoredDay(problem: DayProblem): StoredDay {
   const { battery: b, periodHours: dt } = problem;
   const periods = problem.buyPricePerMwh.length;
-  const chargeStepMwh = b.chargeEfficiency * dt * b.chargeMw;
-  const dischargeStepMwh = (dt * b.dischargeMw) / b.dischargeEfficiency;
+  const chargeFullMwh = b.chargeEfficiency * dt * b.chargeMw;
+  const dischargeFullMwh = (dt * b.dischargeMw) / b.dischargeEfficiency;
+  const inside = problem.socStartMwh >= b.socMinMwh && problem.socStartMwh <= b.socMaxMwh;
+  const width = inside ? b.socMaxMwh - b.socMinMwh : Infinity;
+  const chargeStepMwh = Math.min(chargeFullMwh, width);
+  const dischargeStepMwh = Math.min(dischargeFullMwh, width);
   const chargePrice = new Float64Array(periods);
   const dischargePrice = new Float64Array(periods);
   const arbitrage = new Uint8Array(periods);
@@ -72,6 +85,8 @@ export function toStoredDay(problem: DayProblem): StoredDay {
     periods,
     chargeStepMwh,
     dischargeStepMwh,
+    chargeFullMwh,
+    dischargeFullMwh,
     chargePrice,
     dischargePrice,
     arbitrage,

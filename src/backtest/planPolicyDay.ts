@@ -1,0 +1,75 @@
+import type { BatteryModel, DayOutcome, DayProblem, HistoryDay, MarketSpec, Order, QuantileDay } from '../types.js';
+import { planDay } from '../plan/planDay.js';
+import { scheduleOrders } from '../plan/scheduleOrders.js';
+import { solveDay, type SolveDayOptions } from '../plan/solveDay.js';
+import { ordersByPeriod } from '../settle/ordersByPeriod.js';
+import type { BacktestPolicy } from './backtestPolicy.js';
+
+export interface PolicyDayRequest {
+  readonly policy: BacktestPolicy;
+  /** The day's quantile forecast (the only forecast information a policy sees). */
+  readonly forecast: QuantileDay;
+  /** The day's realised prices: seen only by `perfect-foresight`. */
+  readonly realised: HistoryDay;
+  readonly market: MarketSpec;
+  readonly battery: BatteryModel;
+  /** Central interval [q(alpha), q(1 - alpha)], in (0, 0.5). */
+  readonly alpha: number;
+  /** State of charge at the start of the day [MWh], carried from the policy's previous day. */
+  readonly socStartMwh: number;
+  /** Passed to every solveDay call (the place to plug in another solver). */
+  readonly solveOptions: Partial<SolveDayOptions>;
+}
+
+/** A policy's orders for one day, laid out by period, or why it has none. */
+export type PolicyDayPlan =
+  | {
+      readonly status: 'optimal';
+      readonly orders: readonly (Order | null)[];
+      /** Objective of the plan at the prices it was scheduled on [currency]. */
+      readonly plannedValue: number;
+    }
+  | { readonly status: 'infeasible' | 'unbounded'; readonly reason: string; readonly orders: readonly (Order | null)[] };
+
+/**
+ * One policy's orders for one day. `quantile`, `median` and `point` are planDay itself;
+ * `price-taking` is the `point` plan with every limit moved to the price cap (buys) or floor (sells);
+ * `perfect-foresight` solves the day problem on the realised prices (buy = sell = clearing) with the
+ * same end-of-day floor as planDay (the battery's socFinalMinMwh, else the day's starting state) and
+ * bids at the cap and floor. Without a plan the policy places no orders that day.
+ */
+export function planPolicyDay(request: PolicyDayRequest): PolicyDayPlan {
+  const { policy, forecast, market, battery, alpha, socStartMwh, solveOptions } = request;
+  if (policy === 'perfect-foresight') return perfectForesight(request);
+  const plan = planDay({ forecast, market, battery, policy: policy === 'price-taking' ? 'point' : policy, alpha, socStartMwh, solveOptions });
+  if (plan.status !== 'optimal') return noPlan(plan, forecast.periods.length);
+  const orders = policy === 'price-taking' ? atFloorAndCap(plan.orders, market) : plan.orders;
+  return { status: 'optimal', orders: ordersByPeriod(forecast.periods, orders), plannedValue: plan.outcome.objective };
+}
+
+function perfectForesight(request: PolicyDayRequest): PolicyDayPlan {
+  const { realised, market, battery, socStartMwh } = request;
+  const prices = realised.pricePerMwh;
+  const problem: DayProblem = {
+    periodHours: market.periodMinutes / 60,
+    buyPricePerMwh: prices,
+    sellPricePerMwh: prices,
+    battery,
+    socStartMwh,
+    socEndMinMwh: battery.socFinalMinMwh ?? socStartMwh,
+  };
+  const outcome = solveDay(problem, request.solveOptions);
+  if (outcome.status !== 'optimal') return noPlan(outcome, prices.length);
+  const levels = { buyPricePerMwh: [...prices], sellPricePerMwh: [...prices], buyLimitPerMwh: [...prices], sellLimitPerMwh: [...prices], buyLevel: 0.5, sellLevel: 0.5 };
+  const orders = atFloorAndCap(scheduleOrders(realised.periods, outcome.schedule, levels), market);
+  return { status: 'optimal', orders: ordersByPeriod(realised.periods, orders), plannedValue: outcome.objective };
+}
+
+/** Orders that are always accepted: buys limited at the cap, sells at the floor, no quantile level. */
+function atFloorAndCap(orders: readonly Order[], market: MarketSpec): Order[] {
+  return orders.map((o) => ({ ...o, limitPrice: o.side === 'buy' ? market.priceCap : market.priceFloor, quantileLevel: null }));
+}
+
+function noPlan(outcome: Exclude<DayOutcome, { status: 'optimal' }>, periods: number): PolicyDayPlan {
+  return { status: outcome.status, reason: outcome.reason, orders: new Array<Order | null>(periods).fill(null) };
+}

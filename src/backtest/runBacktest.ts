@@ -1,0 +1,191 @@
+import type { BatteryModel, DeliveryPeriod, HistoryDay, MarketSpec, Order, PriceHistory, QuantileDay } from '../types.js';
+import { daysBetween } from '../market/calendar.js';
+import type { SolveDayOptions } from '../plan/solveDay.js';
+import { chooseFallbackSource, dayFallbackPrices, NoFallbackPriceError, type FallbackPrices, type FallbackSource } from '../settle/fallbackPrices.js';
+import { settleDay, type SettledPeriod, type UnacceptedPolicy } from '../settle/settleDay.js';
+import type { SettlementTotals } from '../settle/settlementTotals.js';
+import { BACKTEST_POLICIES, type BacktestPolicy } from './backtestPolicy.js';
+import { planPolicyDay } from './planPolicyDay.js';
+
+/** Quantile forecasts by day, and the days the forecast file left out (a QuantileForecastFile fits). */
+export interface ForecastDays {
+  readonly days: ReadonlyMap<string, QuantileDay>;
+  readonly incompleteDays: readonly { readonly day: string; readonly reason: string }[];
+}
+
+export interface BacktestInput {
+  readonly market: MarketSpec;
+  readonly battery: BatteryModel;
+  readonly history: PriceHistory;
+  readonly forecast: ForecastDays;
+  /** First and last delivery day, YYYY-MM-DD, both included. */
+  readonly from: string;
+  readonly to: string;
+}
+
+/** Options of runBacktest, merged over BACKTEST_DEFAULTS. */
+export interface BacktestOptions {
+  /** Central interval [q(alpha), q(1 - alpha)] of the quantile and median policies, in (0, 0.5). Default 0.1. */
+  readonly alpha: number;
+  /** What the battery does about unaccepted orders. Default `follow-plan`. */
+  readonly unaccepted: UnacceptedPolicy;
+  /** Policies to run side by side, in this order. Default all five. */
+  readonly policies: readonly BacktestPolicy[];
+  /** Keep every period's orders and settlement (for ledger.csv); a sweep turns it off. Default true. */
+  readonly keepLedger: boolean;
+  /**
+   * Passed to every solveDay call, e.g. another LP solver. This is where a faster exact day solver
+   * plugs in once solveDay (or planDay) accepts it; the backtest itself does not care which solves.
+   */
+  readonly solveOptions: Partial<SolveDayOptions>;
+  /** Called after each day of [from, to], covered or skipped (progress display). Default none. */
+  readonly onDay: ((progress: { readonly day: string; readonly done: number; readonly total: number }) => void) | null;
+}
+
+export const BACKTEST_DEFAULTS: BacktestOptions = Object.freeze({
+  alpha: 0.1,
+  unaccepted: 'follow-plan',
+  policies: BACKTEST_POLICIES,
+  keepLedger: true,
+  solveOptions: Object.freeze({}),
+  onDay: null,
+});
+
+/** One policy on one day. */
+export interface PolicyDay {
+  readonly policy: BacktestPolicy;
+  /** `optimal`, or why the policy had no plan and placed no orders that day. */
+  readonly planStatus: 'optimal' | 'infeasible' | 'unbounded';
+  readonly planReason: string | null;
+  /** Objective of the plan at the prices it was scheduled on [currency]; null without a plan. */
+  readonly plannedValue: number | null;
+  readonly socStartMwh: number;
+  readonly socEndMwh: number;
+  readonly totals: SettlementTotals;
+  /** Orders and per-period settlement, when the ledger is kept. */
+  readonly ledger: { readonly orders: readonly (Order | null)[]; readonly periods: readonly SettledPeriod[] } | null;
+}
+
+/** One covered delivery day: realised prices and every policy's result, in the options' policy order. */
+export interface BacktestDay {
+  readonly day: string;
+  readonly periods: readonly DeliveryPeriod[];
+  readonly clearingPricePerMwh: readonly number[];
+  readonly fallback: FallbackPrices;
+  readonly runs: readonly PolicyDay[];
+}
+
+export interface BacktestResult {
+  readonly from: string;
+  readonly to: string;
+  readonly alpha: number;
+  readonly unaccepted: UnacceptedPolicy;
+  readonly policies: readonly BacktestPolicy[];
+  readonly fallbackSource: FallbackSource;
+  /** Days with a complete history and forecast, ascending. */
+  readonly days: readonly BacktestDay[];
+  /** Days of [from, to] left out, with the reason; never filled in. */
+  readonly skippedDays: readonly { readonly day: string; readonly reason: string }[];
+  /** State of charge each policy ends the backtest with [MWh]. */
+  readonly socEndMwh: Readonly<Record<string, number>>;
+}
+
+/**
+ * Replays the policies day by day over [from, to] (DESIGN.md sections 3 and 5).
+ *
+ * For each delivery day in order: a day without a complete history or forecast is skipped and listed
+ * (never filled in); otherwise each policy plans from that day's forecast alone and its own state of
+ * charge carried from its previous covered day (the first day starts at battery.socInitialMwh), its
+ * orders are settled against the realised clearing and fallback prices (settleDay), and the state of
+ * charge at the end is carried on - across skipped days unchanged. All policies see the same days.
+ *
+ * @throws NoFallbackPriceError when neither the history nor the market spec gives a fallback price;
+ *   LevelOutOfRangeError when alpha or 1 - alpha lies outside the forecast's levels; RangeError for
+ *   from > to.
+ */
+export function runBacktest(input: BacktestInput, options: Partial<BacktestOptions> = {}): BacktestResult {
+  const settings: BacktestOptions = { ...BACKTEST_DEFAULTS, ...options };
+  const { market, battery, history, forecast } = input;
+  if (input.from > input.to) throw new RangeError(`runBacktest: from ${input.from} is after to ${input.to}`);
+  const fallbackSource = chooseFallbackSource(history, market);
+  if (fallbackSource === null) throw new NoFallbackPriceError();
+  const historyByDay = new Map(history.days.map((d) => [d.day, d]));
+  const skipReasons = skippedReasons(history, forecast);
+  const soc = new Map<BacktestPolicy, number>(settings.policies.map((p) => [p, battery.socInitialMwh]));
+  const days: BacktestDay[] = [];
+  const skippedDays: { day: string; reason: string }[] = [];
+  const calendarDays = daysBetween(input.from, input.to);
+  calendarDays.forEach((day, i) => {
+    const realised = historyByDay.get(day);
+    const dayForecast = forecast.days.get(day);
+    if (realised === undefined || dayForecast === undefined) {
+      skippedDays.push({ day, reason: skipReasons(day, realised === undefined, dayForecast === undefined) });
+    } else {
+      days.push(runDay(realised, dayForecast, input, settings, fallbackSource, soc));
+    }
+    settings.onDay?.({ day, done: i + 1, total: calendarDays.length });
+  });
+  return {
+    from: input.from,
+    to: input.to,
+    alpha: settings.alpha,
+    unaccepted: settings.unaccepted,
+    policies: settings.policies,
+    fallbackSource,
+    days,
+    skippedDays,
+    socEndMwh: Object.fromEntries(soc),
+  };
+}
+
+function runDay(
+  realised: HistoryDay,
+  forecast: QuantileDay,
+  input: BacktestInput,
+  settings: BacktestOptions,
+  fallbackSource: FallbackSource,
+  soc: Map<BacktestPolicy, number>,
+): BacktestDay {
+  const { market, battery } = input;
+  if (forecast.periods.length !== realised.periods.length) {
+    throw new RangeError(`day ${realised.day}: the forecast has ${forecast.periods.length} periods, the history ${realised.periods.length}`);
+  }
+  const fallback = dayFallbackPrices(realised, fallbackSource);
+  const runs = settings.policies.map((policy): PolicyDay => {
+    const socStartMwh = soc.get(policy) as number;
+    const plan = planPolicyDay({ policy, forecast, realised, market, battery, alpha: settings.alpha, socStartMwh, solveOptions: settings.solveOptions });
+    const settled = settleDay({
+      periodHours: market.periodMinutes / 60,
+      battery,
+      socStartMwh,
+      orders: plan.orders,
+      clearingPricePerMwh: realised.pricePerMwh,
+      fallback,
+      unaccepted: settings.unaccepted,
+    });
+    soc.set(policy, settled.socEndMwh);
+    return {
+      policy,
+      planStatus: plan.status,
+      planReason: plan.status === 'optimal' ? null : plan.reason,
+      plannedValue: plan.status === 'optimal' ? plan.plannedValue : null,
+      socStartMwh,
+      socEndMwh: settled.socEndMwh,
+      totals: settled.totals,
+      ledger: settings.keepLedger ? { orders: plan.orders, periods: settled.periods } : null,
+    };
+  });
+  return { day: realised.day, periods: realised.periods, clearingPricePerMwh: realised.pricePerMwh, fallback, runs };
+}
+
+/** Why a day is skipped: missing or incomplete in the history, the forecast, or both. */
+function skippedReasons(history: PriceHistory, forecast: ForecastDays): (day: string, noHistory: boolean, noForecast: boolean) => string {
+  const historyGaps = new Map(history.incompleteDays.map((d) => [d.day, d.reason]));
+  const forecastGaps = new Map(forecast.incompleteDays.map((d) => [d.day, d.reason]));
+  return (day, noHistory, noForecast) => {
+    const reasons: string[] = [];
+    if (noHistory) reasons.push(historyGaps.has(day) ? `history incomplete: ${historyGaps.get(day) as string}` : 'no history');
+    if (noForecast) reasons.push(forecastGaps.has(day) ? `forecast incomplete: ${forecastGaps.get(day) as string}` : 'no forecast');
+    return reasons.join('; ');
+  };
+}

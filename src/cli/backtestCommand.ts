@@ -1,0 +1,134 @@
+import { Command, InvalidArgumentError } from 'commander';
+import { batteryModel } from '../battery/batterySpec.js';
+import { backtestMetrics } from '../backtest/backtestMetrics.js';
+import { BACKTEST_POLICIES, type BacktestPolicy } from '../backtest/backtestPolicy.js';
+import { BACKTEST_DEFAULTS, runBacktest } from '../backtest/runBacktest.js';
+import { backtestSummary, backtestSummaryText, daysCsv, ledgerCsv } from '../io/backtestOutputs.js';
+import { InputError, type InputProblem } from '../io/inputError.js';
+import { jsonText } from '../io/planOutputs.js';
+import { readInputFile } from '../io/readInputFile.js';
+import { readPriceHistory } from '../io/readPriceHistory.js';
+import { parseQuantileForecast } from '../io/readQuantileForecast.js';
+import { readBatterySpec, readMarketSpec } from '../io/readSpecs.js';
+import { checkOutputFolder, writeOutputs } from '../io/writeOutputs.js';
+import { chooseFallbackSource } from '../settle/fallbackPrices.js';
+import { UNACCEPTED_POLICIES, type UnacceptedPolicy } from '../settle/settleDay.js';
+import { oneOf, parseAlphaArg, parseDayArg } from './argParsers.js';
+import { addInputOptions, resolveInputs, type InputFlags } from './inputOptions.js';
+import type { CliIo } from './cliIo.js';
+
+export interface BacktestFlags extends InputFlags {
+  readonly from?: string;
+  readonly to?: string;
+  readonly alpha: number;
+  readonly unaccepted: UnacceptedPolicy;
+  readonly policies: readonly BacktestPolicy[];
+  readonly out?: string;
+  readonly force?: boolean;
+  readonly json?: boolean;
+}
+
+const BACKTEST_OUTPUTS = ['ledger.csv', 'days.csv', 'summary.json'] as const;
+const INPUTS = ['market', 'battery', 'forecast', 'history'] as const;
+
+/** `--policies quantile,point,...`: known names, each once. */
+export function parsePoliciesArg(value: string): BacktestPolicy[] {
+  const names = value.split(',').map((s) => s.trim());
+  const known = BACKTEST_POLICIES as readonly string[];
+  const unknown = names.filter((name) => !known.includes(name));
+  if (unknown.length > 0) throw new InvalidArgumentError(`"${unknown.join(', ')}" is not a policy; choose from ${BACKTEST_POLICIES.join(', ')}`);
+  if (new Set(names).size !== names.length) throw new InvalidArgumentError('each policy may appear once');
+  return names as BacktestPolicy[];
+}
+
+export function backtestCommand(io: CliIo): Command {
+  const command = new Command('backtest')
+    .description('replay the policies day by day over history: what the quantile policy would have earned, against point and perfect foresight')
+    .option('--from <YYYY-MM-DD>', 'first delivery day (required)', parseDayArg)
+    .option('--to <YYYY-MM-DD>', 'last delivery day, included (required)', parseDayArg)
+    .option('--alpha <a>', 'central interval [q(alpha), q(1-alpha)] of the quantile and median policies', parseAlphaArg, BACKTEST_DEFAULTS.alpha)
+    .option('--unaccepted <rule>', 'unaccepted orders: follow-plan (close them at the fallback price) | follow-accepted (move only with accepted orders)', oneOf<UnacceptedPolicy>(UNACCEPTED_POLICIES), BACKTEST_DEFAULTS.unaccepted)
+    .option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}`, parsePoliciesArg, [...BACKTEST_DEFAULTS.policies])
+    .option('--out <dir>', 'folder for ledger.csv, days.csv and summary.json (required)')
+    .option('--force', 'overwrite existing outputs')
+    .option('--json', 'print the summary as JSON on stdout');
+  addInputOptions(command, INPUTS);
+  command.addHelpText(
+    'after',
+    `
+Examples:
+  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-01-31 --out runs/jan
+  quantbid backtest --market market.json --battery battery.json --forecast quantiles.csv --history history.csv \\
+                    --from 2025-01-01 --to 2025-12-31 --alpha 0.2 --unaccepted follow-accepted --out runs/2025
+  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-06-01 --to 2026-06-30 \\
+                    --policies quantile,point,perfect-foresight --out runs/june --json`,
+  );
+  command.action((flags: BacktestFlags) => runBacktestCommand(flags, io));
+  return command;
+}
+
+export function runBacktestCommand(flags: BacktestFlags, io: CliIo): void {
+  const { from, to, out } = requiredFlags(flags);
+  const { paths } = resolveInputs(flags, INPUTS);
+  checkOutputFolder(out, BACKTEST_OUTPUTS, flags.force === true);
+  const market = readMarketSpec(paths.market);
+  const battery = batteryModel(readBatterySpec(paths.battery));
+  const history = readPriceHistory(paths.history, market);
+  const forecast = parseQuantileForecast(readInputFile(paths.forecast), paths.forecast, market);
+  if (chooseFallbackSource(history, market) === null) {
+    throw new InputError([
+      { file: paths.history, field: 'fallback_price', message: 'the history has no fallback_price column and the market spec has no fallback rule', fix: `add a fallback_price column to the history, or "fallback": {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15} to ${paths.market}` },
+    ]);
+  }
+  checkForecastLevels(flags, forecast.levels, paths.forecast);
+  const progress = io.stderrIsTerminal
+    ? ({ day, done, total }: { day: string; done: number; total: number }) => io.stderr(`\rbacktest: ${day} (${done}/${total})${done === total ? '\n' : ''}`)
+    : null;
+  const result = runBacktest({ market, battery, history, forecast, from, to }, { alpha: flags.alpha, unaccepted: flags.unaccepted, policies: flags.policies, onDay: progress });
+  const metrics = backtestMetrics(result, battery);
+  const summary = backtestSummary(result, metrics, { market, battery, inputs: paths });
+  writeOutputs(
+    out,
+    [
+      { name: 'ledger.csv', text: ledgerCsv(result) },
+      { name: 'days.csv', text: daysCsv(result) },
+      { name: 'summary.json', text: jsonText(summary) },
+    ],
+    flags.force === true,
+  );
+  io.stdout(flags.json === true ? jsonText(summary) : backtestSummaryText(result, metrics, market, out));
+}
+
+function requiredFlags(flags: BacktestFlags): { from: string; to: string; out: string } {
+  const problems: InputProblem[] = [];
+  const need = (value: string | undefined, option: string, fix: string): string => {
+    if (value === undefined) problems.push({ file: 'command line', field: option, message: `no ${option} given`, fix });
+    return value ?? '';
+  };
+  const from = need(flags.from, '--from', 'give --from YYYY-MM-DD, the first delivery day');
+  const to = need(flags.to, '--to', 'give --to YYYY-MM-DD, the last delivery day');
+  const out = need(flags.out, '--out', 'give --out DIR, the folder for ledger.csv, days.csv and summary.json');
+  if (problems.length === 0 && from > to) problems.push({ file: 'command line', field: '--to', message: `--to ${to} is before --from ${from}`, fix: 'give a --to on or after --from' });
+  if (problems.length > 0) throw new InputError(problems);
+  return { from, to, out };
+}
+
+/**
+ * Every level a chosen policy reads must lie within the forecast's levels (no extrapolation): alpha and
+ * 1 - alpha for quantile and median, 0.5 for median, point and price-taking.
+ */
+function checkForecastLevels(flags: BacktestFlags, levels: readonly number[], file: string): void {
+  const lowest = levels[0] ?? Number.NaN;
+  const highest = levels[levels.length - 1] ?? Number.NaN;
+  const needed = new Set<number>();
+  for (const policy of flags.policies) {
+    if (policy === 'quantile' || policy === 'median') [flags.alpha, Number((1 - flags.alpha).toFixed(12))].forEach((level) => needed.add(level));
+    if (policy === 'median' || policy === 'point' || policy === 'price-taking') needed.add(0.5);
+  }
+  const outside = [...needed].filter((level) => level < lowest - 1e-9 || level > highest + 1e-9).sort((a, b) => a - b);
+  if (outside.length > 0) {
+    throw new InputError([
+      { file, field: '--alpha', message: `the policies need the levels ${outside.join(' and ')}, outside the forecast's levels [${lowest}, ${highest}]`, fix: `choose --alpha so that alpha and 1 - alpha lie within [${lowest}, ${highest}], or give a forecast with those levels` },
+    ]);
+  }
+}

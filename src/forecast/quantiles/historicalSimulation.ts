@@ -1,0 +1,30 @@
+import { quantileSorted } from '../../stats/quantile-sorted.js';
+
+/**
+ * Quantiles by historical simulation: the point forecast plus the empirical quantiles of the recent
+ * out-of-sample errors of the same clock slot,
+ *   q_tau(s) = P_hat(s) + Q_tau({e(d', s) : d' in the calibration days}),   e = P - P_hat,
+ * with Q_tau the sample quantile of Hyndman and Fan's definition 7 (linear interpolation between
+ * order statistics, x_(j) + (h - j)(x_(j+1) - x_(j)), h = (n - 1) tau). Non-decreasing in tau by
+ * construction.
+ *
+ * References: R. Weron (2014), Electricity price forecasting: a review of the state-of-the-art with a
+ * look into the future, Int. J. Forecast. 30(4), 1030-1081, doi:10.1016/j.ijforecast.2014.08.008
+ * (historical simulation for interval forecasts); R. J. Hyndman and Y. Fan (1996), Sample quantiles
+ * in statistical packages, Am. Stat. 50(4), 361-365.
+ *
+ * @param point point forecast per slot [currency/MWh]
+ * @param errors errors per calibration day and slot, errors[d][s] [currency/MWh], at least one day
+ * @param levels strictly increasing levels in (0, 1)
+ * @returns prices[s][k] at levels[k]
+ */
+export function historicalSimulation(
+  point: ArrayLike<number>,
+  errors: readonly ArrayLike<number>[],
+  levels: readonly number[],
+): number[][] {
+  return Array.from({ length: point.length }, (_, s) => {
+    const sorted = errors.map((e) => e[s] as number).sort((a, b) => a - b);
+    return levels.map((tau) => (point[s] as number) + quantileSorted(sorted, tau));
+  });
+}

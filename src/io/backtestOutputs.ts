@@ -1,0 +1,151 @@
+import type { BatteryModel, MarketSpec } from '../types.js';
+import type { BacktestMetrics } from '../backtest/backtestMetrics.js';
+import type { BacktestResult } from '../backtest/runBacktest.js';
+import type { FallbackSource } from '../settle/fallbackPrices.js';
+import { csvLine, formatNumber } from './formatNumber.js';
+
+/**
+ * `ledger.csv`: one row per covered day, policy and delivery period, in that order. The order columns
+ * are empty in a period without an order. Energies at the grid [MWh]; cash + received, - paid
+ * [currency]; `soc_mwh` is the state of charge at the end of the period.
+ */
+export const LEDGER_COLUMNS = Object.freeze([
+  'day', 'policy', 'period_start', 'side', 'quantity_mw', 'limit_price', 'accepted',
+  'clearing_price', 'fallback_buy_price', 'fallback_sell_price',
+  'bought_auction_mwh', 'sold_auction_mwh', 'bought_fallback_mwh', 'sold_fallback_mwh',
+  'charged_mwh', 'discharged_mwh', 'auction_cash', 'fallback_cash', 'degradation_cost', 'profit', 'soc_mwh',
+]);
+
+/**
+ * `days.csv`: one row per covered day and policy. The first nine columns are a contract that scripts
+ * rely on (DESIGN.md section 8); later columns may be added.
+ */
+export const DAYS_COLUMNS = Object.freeze([
+  'day', 'policy', 'profit', 'soc_start_mwh', 'soc_end_mwh', 'buys_accepted', 'buys', 'sells_accepted', 'sells',
+  'auction_cash', 'fallback_cash', 'degradation_cost',
+  'bought_auction_mwh', 'sold_auction_mwh', 'bought_fallback_mwh', 'sold_fallback_mwh', 'discharged_mwh', 'plan_status',
+]);
+
+export function ledgerCsv(result: BacktestResult): string {
+  const lines = [LEDGER_COLUMNS.join(',')];
+  for (const day of result.days) {
+    for (const run of day.runs) {
+      if (run.ledger === null) throw new RangeError('ledgerCsv: the backtest was run without keepLedger');
+      const { orders, periods } = run.ledger;
+      day.periods.forEach((period, t) => {
+        const order = orders[t] ?? null;
+        const s = periods[t];
+        if (s === undefined) throw new RangeError(`ledgerCsv: no settlement for ${period.start}`);
+        lines.push(
+          csvLine([
+            day.day, run.policy, period.start,
+            order?.side ?? '', order === null ? '' : order.quantityMw, order === null ? '' : order.limitPrice, s.accepted === null ? '' : String(s.accepted),
+            day.clearingPricePerMwh[t] as number, day.fallback.buyPerMwh[t] as number, day.fallback.sellPerMwh[t] as number,
+            s.boughtAuctionMwh, s.soldAuctionMwh, s.boughtFallbackMwh, s.soldFallbackMwh,
+            s.chargedMwh, s.dischargedMwh, s.auctionCash, s.fallbackCash, s.degradationCost, s.profit, s.socMwh,
+          ]),
+        );
+      });
+    }
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+export function daysCsv(result: BacktestResult): string {
+  const lines = [DAYS_COLUMNS.join(',')];
+  for (const day of result.days) {
+    for (const run of day.runs) {
+      const x = run.totals;
+      lines.push(
+        csvLine([
+          day.day, run.policy, x.profit, run.socStartMwh, run.socEndMwh, x.buysAccepted, x.buys, x.sellsAccepted, x.sells,
+          x.auctionCash, x.fallbackCash, x.degradationCost,
+          x.boughtAuctionMwh, x.soldAuctionMwh, x.boughtFallbackMwh, x.soldFallbackMwh, x.dischargedMwh, run.planStatus,
+        ]),
+      );
+    }
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+/** Words for the summary: which fallback price was used. */
+export function fallbackDescription(source: FallbackSource, currency: string): string {
+  return source.kind === 'history'
+    ? 'the history\'s fallback_price column'
+    : `the market spec's rule: unaccepted buys at clearing + ${formatNumber(source.penaltyPerMwh)} ${currency}/MWh, unaccepted sells at clearing - ${formatNumber(source.penaltyPerMwh)}`;
+}
+
+export interface BacktestSummaryContext {
+  readonly market: MarketSpec;
+  readonly battery: BatteryModel;
+  /** Input paths as the user gave them. */
+  readonly inputs: Readonly<Record<string, string>>;
+}
+
+/**
+ * The content of `summary.json` and of `--json`: `policies.<name>.profit` and `.captureRatio` (and the
+ * other metrics), `edge`, `skippedDays`, `fallbackSource`, `months`. Key order is fixed by construction.
+ */
+export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics, context: BacktestSummaryContext) {
+  const { market, battery } = context;
+  return {
+    from: result.from,
+    to: result.to,
+    daysCovered: result.days.length,
+    daysSkipped: result.skippedDays.length,
+    alpha: result.alpha,
+    unaccepted: result.unaccepted,
+    currency: market.currency,
+    inputs: { ...context.inputs },
+    battery: {
+      energyMwh: battery.energyMwh,
+      chargeMw: battery.chargeMw,
+      dischargeMw: battery.dischargeMw,
+      usableMwh: battery.socMaxMwh - battery.socMinMwh,
+      socInitialMwh: battery.socInitialMwh,
+    },
+    fallbackSource: { ...result.fallbackSource, description: fallbackDescription(result.fallbackSource, market.currency) },
+    conventions: {
+      cash: '+ received, - paid',
+      profitPerMwYear: 'profit / (days / 365.25) / dischargeMw',
+      profitPerMwhYear: 'profit / (days / 365.25) / energyMwh',
+      equivalentFullCycles: 'discharged MWh at the grid / usable MWh (socMax - socMin)',
+      worstDay5Percent: 'empirical 5% quantile of daily profit, linear interpolation (Hyndman-Fan definition 7)',
+      maxDrawdown: 'largest fall of cumulative profit from an earlier peak, starting from 0',
+      acceptanceRates: 'accepted orders / orders, counted per order',
+    },
+    policies: metrics.policies,
+    edge: metrics.edge,
+    socEndMwh: result.socEndMwh,
+    skippedDays: result.skippedDays,
+    months: metrics.months,
+  };
+}
+
+/** The short human summary printed on stdout. */
+export function backtestSummaryText(result: BacktestResult, metrics: BacktestMetrics, market: MarketSpec, outDir: string): string {
+  const money = (x: number | null) => (x === null ? '-' : formatNumber(x, 0));
+  const share = (x: number | null) => (x === null ? '-' : `${formatNumber(100 * x, 1)}%`);
+  const rows = Object.entries(metrics.policies).map(([name, m]) => [
+    name, money(m.profit), money(m.meanDailyProfit), share(m.captureRatio), share(m.buyAcceptanceRate), share(m.sellAcceptanceRate), formatNumber(m.equivalentFullCycles, 1), money(m.fallbackCash),
+  ]);
+  const header = ['policy', `profit ${market.currency}`, 'per day', 'capture', 'buys acc.', 'sells acc.', 'cycles', 'fallback cash'];
+  const widths = header.map((h, k) => Math.max(h.length, ...rows.map((r) => (r[k] as string).length)));
+  const line = (cells: readonly string[]) => `  ${cells.map((c, k) => (k === 0 ? c.padEnd(widths[k] as number) : c.padStart(widths[k] as number))).join('  ')}`;
+  const lines = [
+    `backtest ${result.from} to ${result.to}: ${result.days.length} days covered, ${result.skippedDays.length} skipped; alpha ${result.alpha}, unaccepted orders: ${result.unaccepted}`,
+    `  fallback price: ${fallbackDescription(result.fallbackSource, market.currency)}`,
+    line(header),
+    ...rows.map(line),
+    `  ${edgeLine(metrics)}`,
+    `  wrote ${outDir}/ledger.csv, days.csv, summary.json`,
+  ];
+  return `${lines.join('\n')}\n`;
+}
+
+function edgeLine(metrics: BacktestMetrics): string {
+  const edge = metrics.edge;
+  if (edge === null) return 'edge of quantile over point: not tested (both policies are needed)';
+  if (edge.status !== 'ok') return `edge of quantile over point: not tested (${edge.reason})`;
+  return `edge of quantile over point: ${formatNumber(edge.meanDifference, 2)} per day, Diebold-Mariano/HLN ${formatNumber(edge.hln, 3)}, one-sided p = ${formatNumber(edge.pValueOneSided, 4)}`;
+}

@@ -1,0 +1,243 @@
+/**
+ * Continuous piecewise-linear functions on an interval, not necessarily concave, with the three
+ * operations an exact dynamic program over one stored-energy state needs: the sliding maximum
+ * (sup-convolution with one linear piece), the pointwise maximum of two functions and the
+ * restriction to an interval. All are exact up to rounding: breakpoints come from the inputs,
+ * their shifts by the piece's ends and the crossings of two lines.
+ *
+ * Notes. A function is its breakpoints (x_0 < ... < x_{n-1}, v_i), linear in between; n = 1 is a
+ * point. Sliding maximum (Gil and Werman 1993 treat its discrete form, "Computing 2-D min, median
+ * and max filters", IEEE TPAMI 15(5), doi:10.1109/34.211471):
+ *   G(s) = max_{w in [a, b]} F(s - w) + sigma w = sigma s + max_{u in [s - b, s - a]} H(u),
+ *   H(u) = F(u) - sigma u.
+ * For r = s - a the window is [r - L, r], L = b - a, and its maximum is the largest of H(r), H(r - L)
+ * and H at the breakpoints inside, so between consecutive points of {x_i} u {x_i + L} it is the upper
+ * envelope of at most two lines and a constant (the breakpoint maximum, kept by a monotone deque).
+ * Points closer than a relative 1e-13 merge; collinear neighbours (slopes within a relative 1e-13)
+ * are dropped, which keeps the number of breakpoints small.
+ */
+export class Pwl {
+  xs: Float64Array;
+  vs: Float64Array;
+  n = 0;
+
+  constructor(capacity = 64) {
+    this.xs = new Float64Array(capacity);
+    this.vs = new Float64Array(capacity);
+  }
+
+  clear(): void {
+    this.n = 0;
+  }
+
+  copyFrom(other: Pwl): void {
+    this.clear();
+    for (let i = 0; i < other.n; i++) this.push(other.xs[i]!, other.vs[i]!);
+  }
+
+  /** Appends a breakpoint to the right, merging near-equal points and collinear neighbours. */
+  push(x: number, v: number): void {
+    const n = this.n;
+    if (n > 0) {
+      const lastX = this.xs[n - 1]!;
+      if (x - lastX <= 1e-13 * (1 + Math.abs(x))) {
+        if (v > this.vs[n - 1]!) this.vs[n - 1] = v;
+        return;
+      }
+      if (n > 1) {
+        const x0 = this.xs[n - 2]!;
+        const v0 = this.vs[n - 2]!;
+        const v1 = this.vs[n - 1]!;
+        const s1 = (v1 - v0) / (lastX - x0);
+        const s2 = (v - v1) / (x - lastX);
+        if (Math.abs(s1 - s2) <= 1e-13 * (1 + Math.abs(s1) + Math.abs(s2))) {
+          this.xs[n - 1] = x;
+          this.vs[n - 1] = v;
+          return;
+        }
+      }
+    }
+    if (n === this.xs.length) this.grow();
+    this.xs[n] = x;
+    this.vs[n] = v;
+    this.n = n + 1;
+  }
+
+  private grow(): void {
+    const xs = new Float64Array(2 * this.xs.length);
+    const vs = new Float64Array(2 * this.xs.length);
+    xs.set(this.xs);
+    vs.set(this.vs);
+    this.xs = xs;
+    this.vs = vs;
+  }
+
+  /** F(x) for x in the domain (clamped to it). */
+  at(x: number): number {
+    return valueAt(this.xs, this.vs, 0, this.n, x);
+  }
+}
+
+/** Value at x of the function stored in xs, vs [from, from + n) (x clamped into its domain). */
+export function valueAt(xs: Float64Array, vs: Float64Array, from: number, n: number, x: number): number {
+  const last = from + n - 1;
+  if (x <= xs[from]!) return vs[from]!;
+  if (x >= xs[last]!) return vs[last]!;
+  let lo = from;
+  let hi = last;
+  while (hi - lo > 1) {
+    const mid = (lo + hi) >>> 1;
+    if (xs[mid]! <= x) lo = mid;
+    else hi = mid;
+  }
+  const x0 = xs[lo]!;
+  return vs[lo]! + ((vs[hi]! - vs[lo]!) * (x - x0)) / (xs[hi]! - x0);
+}
+
+/** Lines on one elementary interval [e0, e1], given by their values at both ends. */
+const startValue = new Float64Array(3);
+const endValue = new Float64Array(3);
+
+/** Pushes the upper envelope of lines 0..count-1 over [e0, e1] (the point at e0 included). */
+function pushEnvelope(out: Pwl, e0: number, e1: number, count: number, shift: number, tilt: number): void {
+  const width = e1 - e0;
+  let top = 0;
+  for (let k = 1; k < count; k++) {
+    const a = startValue[k]!;
+    const b = startValue[top]!;
+    if (a > b || (a === b && endValue[k]! > endValue[top]!)) top = k;
+  }
+  let from = 0;
+  out.push(e0 + shift, startValue[top]! + tilt * (e0 + shift));
+  for (let guard = 0; guard < count; guard++) {
+    let next = -1;
+    let at = 1;
+    const topSlope = endValue[top]! - startValue[top]!;
+    for (let k = 0; k < count; k++) {
+      if (k === top) continue;
+      const slope = endValue[k]! - startValue[k]!;
+      if (!(slope > topSlope)) continue;
+      const f = (startValue[top]! - startValue[k]!) / (slope - topSlope);
+      if (f > from && (f < at || (f === at && next >= 0 && slope > endValue[next]! - startValue[next]!))) {
+        at = f;
+        next = k;
+      }
+    }
+    if (next < 0) return;
+    const e = e0 + at * width;
+    out.push(e + shift, startValue[top]! + at * topSlope + tilt * (e + shift));
+    top = next;
+    from = at;
+  }
+}
+
+/** Index deque for the breakpoint maximum (module scratch, grown on demand). */
+let deque = new Int32Array(64);
+
+/**
+ * out = the sliding maximum G(s) = max_{w in [a, b]} F(s - w) + sigma w on [x_0 + a, x_{n-1} + b].
+ * `out` must differ from `f`.
+ */
+export function slideMax(f: Pwl, a: number, b: number, sigma: number, out: Pwl): void {
+  out.clear();
+  const n = f.n;
+  const xs = f.xs;
+  const L = b - a;
+  const h = (i: number): number => f.vs[i]! - sigma * xs[i]!;
+  if (L <= 0 || n === 0) {
+    for (let i = 0; i < n; i++) out.push(xs[i]! + a, f.vs[i]! + sigma * a);
+    return;
+  }
+  if (deque.length < n) deque = new Int32Array(2 * n);
+  let head = 0;
+  let tail = 0;
+  let i = 0; // next breakpoint of H to enter at r = x_i
+  let j = 0; // next breakpoint of H(r - L) at r = x_j + L
+  let e0 = xs[0]!;
+  const last = n - 1;
+  const end = xs[last]! + L;
+  while (e0 < end) {
+    while (i < n && xs[i]! <= e0) {
+      const hi = h(i);
+      while (tail > head && h(deque[tail - 1]!) <= hi) tail--;
+      deque[tail++] = i++;
+    }
+    while (j < n && xs[j]! + L <= e0) j++;
+    const e1 = Math.min(i < n ? xs[i]! : Infinity, j < n ? xs[j]! + L : Infinity);
+    while (tail > head && xs[deque[head]!]! < e1 - L) head++;
+    let count = 0;
+    if (i < n) {
+      // H(r) on the piece [x_{i-1}, x_i]
+      startValue[count] = lerp(xs, f.vs, i - 1, e0) - sigma * e0;
+      endValue[count++] = lerp(xs, f.vs, i - 1, e1) - sigma * e1;
+    }
+    if (j > 0) {
+      // H(r - L) on the piece [x_{j-1}, x_j]
+      startValue[count] = lerp(xs, f.vs, j - 1, e0 - L) - sigma * (e0 - L);
+      endValue[count++] = lerp(xs, f.vs, j - 1, e1 - L) - sigma * (e1 - L);
+    }
+    if (tail > head) {
+      startValue[count] = endValue[count] = h(deque[head]!);
+      count++;
+    }
+    pushEnvelope(out, e0, e1, count, a, sigma);
+    e0 = e1;
+  }
+  out.push(end + a, h(last) + sigma * (end + a));
+}
+
+/** out = max(f, g) on the union of their domains (which must overlap). */
+export function maxOf(f: Pwl, g: Pwl, out: Pwl): void {
+  out.clear();
+  const fx = f.xs;
+  const gx = g.xs;
+  const fLast = f.n - 1;
+  const gLast = g.n - 1;
+  let i = 0;
+  let j = 0;
+  let e0 = Math.min(fx[0]!, gx[0]!);
+  const end = Math.max(fx[fLast]!, gx[gLast]!);
+  while (e0 < end) {
+    while (i < fLast && fx[i + 1]! <= e0) i++;
+    while (j < gLast && gx[j + 1]! <= e0) j++;
+    let e1 = end;
+    if (fx[i]! > e0) e1 = Math.min(e1, fx[i]!);
+    else if (i < fLast) e1 = Math.min(e1, fx[i + 1]!);
+    if (gx[j]! > e0) e1 = Math.min(e1, gx[j]!);
+    else if (j < gLast) e1 = Math.min(e1, gx[j + 1]!);
+    let count = 0;
+    if (fx[0]! <= e0 && e1 <= fx[fLast]!) {
+      startValue[count] = lerp(fx, f.vs, i, e0);
+      endValue[count++] = lerp(fx, f.vs, i, e1);
+    }
+    if (gx[0]! <= e0 && e1 <= gx[gLast]!) {
+      startValue[count] = lerp(gx, g.vs, j, e0);
+      endValue[count++] = lerp(gx, g.vs, j, e1);
+    }
+    if (count > 0) pushEnvelope(out, e0, e1, count, 0, 0);
+    e0 = e1;
+  }
+  out.push(end, Math.max(fx[fLast]! === end ? f.vs[fLast]! : -Infinity, gx[gLast]! === end ? g.vs[gLast]! : -Infinity));
+}
+
+/** out = f restricted to [lo, hi]; false when they do not meet (within `eps`). */
+export function clip(f: Pwl, lo: number, hi: number, eps: number, out: Pwl): boolean {
+  out.clear();
+  const xs = f.xs;
+  const last = f.n - 1;
+  if (xs[0]! > hi + eps || xs[last]! < lo - eps) return false;
+  const from = Math.min(Math.max(lo, xs[0]!), hi);
+  const to = Math.max(Math.min(hi, xs[last]!), from);
+  out.push(from, f.at(from));
+  for (let i = 0; i <= last; i++) if (xs[i]! > from && xs[i]! < to) out.push(xs[i]!, f.vs[i]!);
+  out.push(to, f.at(to));
+  return true;
+}
+
+/** Linear interpolation on the piece [x_k, x_{k+1}] (the caller keeps k + 1 inside the function). */
+function lerp(xs: Float64Array, vs: Float64Array, k: number, x: number): number {
+  const x0 = xs[k]!;
+  const x1 = xs[k + 1]!;
+  if (x <= x0) return vs[k]!;
+  return vs[k]! + ((vs[k + 1]! - vs[k]!) * (x - x0)) / (x1 - x0);
+}

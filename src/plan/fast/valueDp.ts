@@ -1,0 +1,156 @@
+import { CHARGE_ONLY, DISCHARGE_ONLY, edgeTolerance, LineSolution, SWEEP_END_UNREACHABLE, SWEEP_OK, SWEEP_START_UNREACHABLE, type SweepStatus } from './lineSweep.js';
+import { clip, maxOf, Pwl, slideMax, valueAt } from './pwl.js';
+import type { StoredDay } from './storedDay.js';
+
+/**
+ * Exact dynamic program over stored energy with complementarity in every period, arbitrage periods
+ * included, at a multiplier mu on discharged energy (Bellman 1956, the warehouse problem).
+ *
+ * Notes. F_0 is the point (s_0, 0); F_t = (F_{t-1} (+) k_t) restricted to [socMin, socMax], where
+ * (+) is the sup-convolution and k_t(w) = -p_t w (w >= 0, charge) or -(q_t - mu) w (w <= 0,
+ * discharge). Outside arbitrage periods k_t is concave and equals the sup-convolution of its two
+ * pieces, so F_t = (F_{t-1} (+) discharge piece) (+) charge piece. In an arbitrage period k_t is
+ * convex, the maximum of its two pieces, and F_t = max(F_{t-1} (+) charge piece, F_{t-1} (+)
+ * discharge piece): one mode per period, exactly, with no branching. A period fixed to one mode uses
+ * that piece alone. F_t need not be concave, so it is kept as a general piecewise-linear function
+ * (pwl.ts). The end state maximises F_T(s) + V s over [max(socMin, socEndMin), socMax]; the path is
+ * recovered backwards: s_{t-1} maximises F_{t-1}(u) + k_t(s_t - u), whose maximum lies at a
+ * breakpoint of F_{t-1}, at u = s_t (the kink of k_t) or at an end of the allowed range.
+ * Every period's move is then one signed w_t, so x_t y_t = 0 by construction.
+ */
+export class ValueDp {
+  private xsPool: Float64Array;
+  private vsPool: Float64Array;
+  private readonly start: Int32Array;
+  private readonly count: Int32Array;
+  private readonly f = new Pwl();
+  private readonly g = new Pwl();
+  private readonly h = new Pwl();
+  private readonly k = new Pwl();
+
+  constructor(private readonly day: StoredDay) {
+    this.xsPool = new Float64Array(16 * (day.periods + 1));
+    this.vsPool = new Float64Array(16 * (day.periods + 1));
+    this.start = new Int32Array(day.periods + 1);
+    this.count = new Int32Array(day.periods + 1);
+  }
+
+  solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
+    const day = this.day;
+    const X = day.chargeStepMwh;
+    const Y = day.dischargeStepMwh;
+    const eps = edgeTolerance(day);
+    const { f, g, h, k } = this;
+    f.clear();
+    f.push(day.socStartMwh, 0);
+    let used = 0;
+    used = this.store(0, f, used);
+    for (let t = 0; t < day.periods; t++) {
+      const p = day.chargePrice[t]!;
+      const qm = day.dischargePrice[t]! - mu;
+      const mode = modes[t]!;
+      let next: Pwl;
+      if (mode === CHARGE_ONLY) {
+        slideMax(f, 0, X, -p, g);
+        next = g;
+      } else if (mode === DISCHARGE_ONLY) {
+        slideMax(f, -Y, 0, -qm, g);
+        next = g;
+      } else if (day.arbitrage[t] === 1 && qm > p) {
+        slideMax(f, 0, X, -p, g);
+        slideMax(f, -Y, 0, -qm, h);
+        maxOf(g, h, k);
+        next = k;
+      } else {
+        slideMax(f, -Y, 0, -qm, g);
+        slideMax(g, 0, X, -p, h);
+        next = h;
+      }
+      if (!clip(next, day.socMinMwh, day.socMaxMwh, eps, f)) return SWEEP_START_UNREACHABLE;
+      used = this.store(t + 1, f, used);
+    }
+    const floor = day.socEndFloorMwh;
+    const last = f.n - 1;
+    if (f.xs[last]! < floor - eps) return SWEEP_END_UNREACHABLE;
+    const V = day.terminalValuePerMwh;
+    const from = Math.min(Math.max(floor, f.xs[0]!), f.xs[last]!);
+    let bestS = from;
+    let best = f.at(from) + V * from;
+    for (let i = 0; i <= last; i++) {
+      const s = f.xs[i]!;
+      if (s <= from) continue;
+      const value = f.vs[i]! + V * s;
+      if (value > best) {
+        best = value;
+        bestS = s;
+      }
+    }
+    this.recover(bestS, mu, modes, out);
+    return SWEEP_OK;
+  }
+
+  private store(t: number, f: Pwl, used: number): number {
+    if (used + f.n > this.xsPool.length) {
+      const xs = new Float64Array(2 * (used + f.n));
+      const vs = new Float64Array(2 * (used + f.n));
+      xs.set(this.xsPool.subarray(0, used));
+      vs.set(this.vsPool.subarray(0, used));
+      this.xsPool = xs;
+      this.vsPool = vs;
+    }
+    this.xsPool.set(f.xs.subarray(0, f.n), used);
+    this.vsPool.set(f.vs.subarray(0, f.n), used);
+    this.start[t] = used;
+    this.count[t] = f.n;
+    return used + f.n;
+  }
+
+  /** Backward pass: the best predecessor of each state, read off as one signed move per period. */
+  private recover(endState: number, mu: number, modes: Int8Array, out: LineSolution): void {
+    const day = this.day;
+    const X = day.chargeStepMwh;
+    const Y = day.dischargeStepMwh;
+    const xs = this.xsPool;
+    const vs = this.vsPool;
+    let s = endState;
+    let value = day.terminalValuePerMwh * s;
+    let discharged = 0;
+    for (let t = day.periods - 1; t >= 0; t--) {
+      const p = day.chargePrice[t]!;
+      const qm = day.dischargePrice[t]! - mu;
+      const mode = modes[t]!;
+      const from = this.start[t]!;
+      const n = this.count[t]!;
+      const domLo = xs[from]!;
+      const domHi = xs[from + n - 1]!;
+      const lo = Math.max(domLo, s - (mode === DISCHARGE_ONLY ? 0 : X));
+      const hi = Math.min(domHi, s + (mode === CHARGE_ONLY ? 0 : Y));
+      const gain = (u: number): number => valueAt(xs, vs, from, n, u) + (s >= u ? -p * (s - u) : qm * (u - s));
+      let bestU = lo;
+      let best = gain(lo);
+      const consider = (u: number): void => {
+        const v = gain(u);
+        if (v > best) {
+          best = v;
+          bestU = u;
+        }
+      };
+      consider(hi);
+      if (s > lo && s < hi) consider(s);
+      for (let i = from; i < from + n; i++) {
+        const u = xs[i]!;
+        if (u > lo && u < hi) consider(u);
+      }
+      const w = s - bestU;
+      const x = w > 0 ? w : 0;
+      const y = w < 0 ? -w : 0;
+      out.x[t] = x;
+      out.y[t] = y;
+      value += day.dischargePrice[t]! * y - p * x;
+      discharged += y;
+      s = bestU;
+    }
+    out.value = value;
+    out.discharged = discharged;
+  }
+}

@@ -1,0 +1,166 @@
+import type { BatteryModel, Order } from '../types.js';
+import { isAccepted } from './acceptance.js';
+import type { FallbackPrices } from './fallbackPrices.js';
+import { addTotals, ZERO_TOTALS, type SettlementTotals } from './settlementTotals.js';
+
+/**
+ * What the battery does about orders the auction did not accept (DESIGN.md section 5):
+ * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the fallback price;
+ * - `follow-accepted`: it moves only with accepted orders; unaccepted orders have no effect.
+ */
+export type UnacceptedPolicy = 'follow-plan' | 'follow-accepted';
+
+export const UNACCEPTED_POLICIES: readonly UnacceptedPolicy[] = Object.freeze(['follow-plan', 'follow-accepted']);
+
+/** One period's order as settlement reads it (an Order has these fields and more). */
+export type PeriodOrder = Pick<Order, 'side' | 'quantityMw' | 'limitPrice'>;
+
+export interface SettleDayInput {
+  /** Period length dt [h]. */
+  readonly periodHours: number;
+  readonly battery: BatteryModel;
+  /** State of charge at the start of the day [MWh], inside the battery's window. */
+  readonly socStartMwh: number;
+  /** The order of each period, or null; at most one order (one side) per period. */
+  readonly orders: readonly (PeriodOrder | null)[];
+  /** Realised clearing price per period [currency/MWh]. */
+  readonly clearingPricePerMwh: readonly number[];
+  readonly fallback: FallbackPrices;
+  readonly unaccepted: UnacceptedPolicy;
+}
+
+/**
+ * The settlement of one period: the energies and cash of SettlementTotals (energies at the grid [MWh],
+ * cash + received, - paid [currency]) and what happened to the period's order.
+ */
+export interface SettledPeriod extends Omit<SettlementTotals, 'buys' | 'buysAccepted' | 'sells' | 'sellsAccepted'> {
+  /** Whether the period's order was accepted; null when the period has no order. */
+  readonly accepted: boolean | null;
+  /** State of charge at the end of the period [MWh]. */
+  readonly socMwh: number;
+}
+
+export interface SettledDay {
+  readonly periods: readonly SettledPeriod[];
+  readonly totals: SettlementTotals;
+  readonly socStartMwh: number;
+  readonly socEndMwh: number;
+}
+
+/**
+ * Energy below which a shortfall or excess is rounding, not a trade: this fraction of energyMwh (of at
+ * least 1 MWh) [-]. Plans come from an LP solver that reports flows rounded to 1e-8 MW, so a plan may
+ * overrun the window by about 1e-8 MWh per period; 1e-6 covers a day of 100 periods.
+ */
+export const SETTLE_TOLERANCE = 1e-6;
+
+/**
+ * Settles one delivery day's orders against the realised prices (DESIGN.md section 5).
+ *
+ * Periods are settled in time order; each starts from the state of charge the previous one left.
+ * In period t with an order of q MW (energy E = q dt):
+ * 1. acceptance: a buy iff clearing <= limit, a sell iff clearing >= limit (isAccepted);
+ * 2. the auction: an accepted buy pays clearing x E, an accepted sell receives clearing x E;
+ * 3. the intended flow: `follow-plan` moves E whether accepted or not, and an unaccepted order's E is
+ *    closed at the fallback price (a buy bought at the fallback buy price, a sell sold at the fallback
+ *    sell price); `follow-accepted` moves E only when accepted;
+ * 4. the store's limits: at most min(chargeMw dt, (socMax - s) / eta_c) can be charged and at most
+ *    min(dischargeMw dt, (s - socMin) eta_d) discharged. Energy an accepted buy cannot store is sold back
+ *    at the fallback sell price; the part of a sell the store cannot cover is bought back at the fallback
+ *    buy price. A plan made from the same starting state never meets these limits, so under
+ *    `follow-plan` step 4 only absorbs rounding;
+ * 5. s_t = s_{t-1} + eta_c x charged - discharged / eta_d, clamped into [socMin, socMax] (the clamp and
+ *    SETTLE_TOLERANCE only remove floating-point dust);
+ * 6. degradation = degradationCostPerMwh x discharged (energy actually discharged at the grid, as in the
+ *    planning LP).
+ *
+ * Signs of cash: + received, - paid. A negative clearing price makes an accepted buy earn money.
+ *
+ * @throws RangeError when the series differ in length, a quantity is negative, or the starting state is
+ *   outside the window.
+ */
+export function settleDay(input: SettleDayInput): SettledDay {
+  const { battery, periodHours: dt } = input;
+  const count = input.clearingPricePerMwh.length;
+  checkInput(input, count);
+  const tolMwh = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
+  const periods: SettledPeriod[] = new Array<SettledPeriod>(count);
+  let totals = ZERO_TOTALS;
+  let soc = input.socStartMwh;
+  for (let t = 0; t < count; t++) {
+    const order = input.orders[t] ?? null;
+    const clearing = input.clearingPricePerMwh[t] as number;
+    const trade = { boughtAuction: 0, soldAuction: 0, boughtFallback: 0, soldFallback: 0, charge: 0, discharge: 0 };
+    let accepted: boolean | null = null;
+    if (order !== null) {
+      accepted = isAccepted(order.side, order.limitPrice, clearing);
+      const energy = order.quantityMw * dt;
+      const moves = accepted || input.unaccepted === 'follow-plan';
+      if (order.side === 'buy') {
+        if (accepted) trade.boughtAuction = energy;
+        else if (moves) trade.boughtFallback = energy;
+        if (moves) trade.charge = energy;
+      } else {
+        if (accepted) trade.soldAuction = energy;
+        else if (moves) trade.soldFallback = energy;
+        if (moves) trade.discharge = energy;
+      }
+    }
+    const storable = Math.max(0, Math.min(battery.chargeMw * dt, (battery.socMaxMwh - soc) / battery.chargeEfficiency));
+    const deliverable = Math.max(0, Math.min(battery.dischargeMw * dt, (soc - battery.socMinMwh) * battery.dischargeEfficiency));
+    const chargedMwh = trade.charge <= storable + tolMwh ? trade.charge : storable;
+    const dischargedMwh = trade.discharge <= deliverable + tolMwh ? trade.discharge : deliverable;
+    const soldFallbackMwh = trade.soldFallback + (trade.charge - chargedMwh);
+    const boughtFallbackMwh = trade.boughtFallback + (trade.discharge - dischargedMwh);
+    soc += battery.chargeEfficiency * chargedMwh - dischargedMwh / battery.dischargeEfficiency;
+    soc = Math.min(battery.socMaxMwh, Math.max(battery.socMinMwh, soc));
+    const auctionCash = clearing * (trade.soldAuction - trade.boughtAuction);
+    const fallbackCash = (input.fallback.sellPerMwh[t] as number) * soldFallbackMwh - (input.fallback.buyPerMwh[t] as number) * boughtFallbackMwh;
+    const degradationCost = battery.degradationCostPerMwh * dischargedMwh;
+    const period: SettledPeriod = {
+      accepted,
+      boughtAuctionMwh: trade.boughtAuction,
+      soldAuctionMwh: trade.soldAuction,
+      boughtFallbackMwh,
+      soldFallbackMwh,
+      chargedMwh,
+      dischargedMwh,
+      auctionCash,
+      fallbackCash,
+      degradationCost,
+      profit: auctionCash + fallbackCash - degradationCost,
+      socMwh: soc,
+    };
+    periods[t] = period;
+    totals = addTotals(totals, periodTotals(period, order));
+  }
+  return { periods, totals, socStartMwh: input.socStartMwh, socEndMwh: soc };
+}
+
+function periodTotals(period: SettledPeriod, order: PeriodOrder | null): SettlementTotals {
+  const { accepted, socMwh: _socMwh, ...flows } = period;
+  const isBuy = order?.side === 'buy';
+  const isSell = order?.side === 'sell';
+  return {
+    ...flows,
+    buys: isBuy ? 1 : 0,
+    buysAccepted: isBuy && accepted === true ? 1 : 0,
+    sells: isSell ? 1 : 0,
+    sellsAccepted: isSell && accepted === true ? 1 : 0,
+  };
+}
+
+function checkInput(input: SettleDayInput, count: number): void {
+  const { battery } = input;
+  const lengths = [input.orders.length, input.fallback.buyPerMwh.length, input.fallback.sellPerMwh.length];
+  if (lengths.some((n) => n !== count)) {
+    throw new RangeError(`settleDay: orders (${lengths[0]}), fallback prices (${lengths[1]}, ${lengths[2]}) and clearing prices (${count}) differ in length`);
+  }
+  const tol = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
+  if (!(input.socStartMwh >= battery.socMinMwh - tol && input.socStartMwh <= battery.socMaxMwh + tol)) {
+    throw new RangeError(`settleDay: starting state of charge ${input.socStartMwh} MWh is outside [${battery.socMinMwh}, ${battery.socMaxMwh}] MWh`);
+  }
+  input.orders.forEach((order, t) => {
+    if (order !== null && !(order.quantityMw >= 0)) throw new RangeError(`settleDay: the order of period ${t} has quantity ${order.quantityMw} MW; quantities are >= 0`);
+  });
+}

@@ -1,0 +1,56 @@
+/**
+ * Sums of a settlement over periods, days or a whole backtest. Energies at the grid connection [MWh],
+ * cash [currency] with + received, - paid; counts of orders.
+ */
+export interface SettlementTotals {
+  /** auctionCash + fallbackCash - degradationCost [currency]. */
+  readonly profit: number;
+  /** clearing price x (sold - bought in the auction) [currency]. */
+  readonly auctionCash: number;
+  /** fallback sell price x sold at fallback - fallback buy price x bought at fallback [currency]. */
+  readonly fallbackCash: number;
+  /** degradationCostPerMwh x dischargedMwh [currency], >= 0. */
+  readonly degradationCost: number;
+  /** Energy bought and sold in the auction (accepted orders) [MWh]. */
+  readonly boughtAuctionMwh: number;
+  readonly soldAuctionMwh: number;
+  /** Energy bought and sold at the fallback price [MWh]. */
+  readonly boughtFallbackMwh: number;
+  readonly soldFallbackMwh: number;
+  /** Energy taken from the grid into the battery [MWh]. */
+  readonly chargedMwh: number;
+  /** Energy given from the battery to the grid [MWh]; degradation is charged on it. */
+  readonly dischargedMwh: number;
+  /** Buy orders placed, and accepted. */
+  readonly buys: number;
+  readonly buysAccepted: number;
+  /** Sell orders placed, and accepted. */
+  readonly sells: number;
+  readonly sellsAccepted: number;
+}
+
+export const ZERO_TOTALS: SettlementTotals = Object.freeze({
+  profit: 0,
+  auctionCash: 0,
+  fallbackCash: 0,
+  degradationCost: 0,
+  boughtAuctionMwh: 0,
+  soldAuctionMwh: 0,
+  boughtFallbackMwh: 0,
+  soldFallbackMwh: 0,
+  chargedMwh: 0,
+  dischargedMwh: 0,
+  buys: 0,
+  buysAccepted: 0,
+  sells: 0,
+  sellsAccepted: 0,
+});
+
+const KEYS = Object.keys(ZERO_TOTALS) as (keyof SettlementTotals)[];
+
+/** Field-by-field sum. */
+export function addTotals(a: SettlementTotals, b: SettlementTotals): SettlementTotals {
+  const sum = {} as Record<keyof SettlementTotals, number>;
+  for (const key of KEYS) sum[key] = a[key] + b[key];
+  return sum;
+}

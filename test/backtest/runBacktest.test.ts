@@ -1,0 +1,80 @@
+import { describe, expect, it } from 'vitest';
+import type { PriceHistory } from '../../src/types.js';
+import { backtestMetrics } from '../../src/backtest/backtestMetrics.js';
+import { runBacktest, type BacktestResult } from '../../src/backtest/runBacktest.js';
+import { NoFallbackPriceError } from '../../src/settle/fallbackPrices.js';
+import { battery, history, input, market } from './handWorkedWeek.js';
+
+// The inputs and the hand arithmetic are in handWorkedWeek.ts.
+
+function profits(result: BacktestResult, policy: string): number[] {
+  const k = result.policies.indexOf(policy as never);
+  return result.days.map((d) => d.runs[k]?.totals.profit ?? Number.NaN);
+}
+
+describe('runBacktest on a hand-worked week', () => {
+  const plan = runBacktest(input, { policies: ['quantile', 'perfect-foresight'], unaccepted: 'follow-plan' });
+  const accepted = runBacktest(input, { policies: ['quantile', 'perfect-foresight'], unaccepted: 'follow-accepted' });
+
+  it('skips and lists days without a complete history or forecast, never filling them', () => {
+    expect(plan.days.map((d) => d.day)).toEqual(['2026-05-04', '2026-05-05', '2026-05-07']);
+    expect(plan.skippedDays).toEqual([
+      { day: '2026-05-06', reason: 'history incomplete: 1 of 4 periods missing (2026-05-06T02:00:00Z)' },
+      { day: '2026-05-08', reason: 'no forecast' },
+    ]);
+  });
+
+  it('follow-plan: daily profits 300, 260, 296; perfect foresight 300, 280, 300', () => {
+    profits(plan, 'quantile').forEach((p, d) => expect(p).toBeCloseTo([300, 260, 296][d] as number, 6));
+    profits(plan, 'perfect-foresight').forEach((p, d) => expect(p).toBeCloseTo([300, 280, 300][d] as number, 6));
+  });
+
+  it('follow-accepted: 300, -80, 120, with the unsold 4 MWh carried across the skipped day', () => {
+    profits(accepted, 'quantile').forEach((p, d) => expect(p).toBeCloseTo([300, -80, 120][d] as number, 6));
+    const quantile = accepted.days.map((d) => d.runs[0]);
+    expect(quantile.map((r) => r?.socStartMwh)).toEqual([0, 0, expect.closeTo(4, 6)]);
+    expect(quantile[2]?.socEndMwh).toBeCloseTo(4, 6);
+    expect(accepted.socEndMwh.quantile).toBeCloseTo(4, 6);
+  });
+
+  it('metrics: capture ratio, acceptance, cycles and annualised profit', () => {
+    const m = backtestMetrics(plan, battery).policies.quantile;
+    // 856 of 880; buys accepted A h0, C h1, D h2 of 4; sells A h2, D h1, D h3 of 4.
+    expect(m?.profit).toBeCloseTo(856, 6);
+    expect(m?.captureRatio).toBeCloseTo(856 / 880, 9);
+    expect(m?.buyAcceptanceRate).toBe(0.75);
+    expect(m?.sellAcceptanceRate).toBe(0.75);
+    // Discharged 4 + 4 + 8 = 16 MWh over a 4 MWh window: 4 cycles. 3 days = 3 / 365.25 years.
+    expect(m?.equivalentFullCycles).toBeCloseTo(4, 9);
+    expect(m?.profitPerMwYear).toBeCloseTo((856 * 365.25) / 3 / 4, 6);
+    expect(m?.profitPerMwhYear).toBeCloseTo((856 * 365.25) / 3 / 8, 6);
+    // Fallback: C sold 4 MWh at 85 (+340), D bought 4 MWh at 26 (-104).
+    expect(m?.soldFallbackMwh).toBeCloseTo(4, 9);
+    expect(m?.boughtFallbackMwh).toBeCloseTo(4, 9);
+    expect(m?.fallbackCash).toBeCloseTo(236, 6);
+  });
+
+  it('the month table sums to the totals', () => {
+    const metrics = backtestMetrics(plan, battery);
+    expect(metrics.months.map((row) => row.month)).toEqual(['2026-05']);
+    expect(metrics.months[0]?.policies.quantile?.profit).toBeCloseTo(856, 6);
+    expect(metrics.edge).toBeNull();
+  });
+});
+
+describe('runBacktest inputs', () => {
+  it('uses the market rule when the history has no fallback column, and fails without either', () => {
+    const bare: PriceHistory = { ...history, days: history.days.map((d) => ({ ...d, fallbackPricePerMwh: null })) };
+    expect(() => runBacktest({ ...input, history: bare })).toThrow(NoFallbackPriceError);
+    const ruled = runBacktest({ ...input, history: bare, market: { ...market, fallback: { kind: 'clearing-plus-penalty', penaltyPerMwh: 5 } } }, { policies: ['quantile'] });
+    expect(ruled.fallbackSource).toEqual({ kind: 'clearing-plus-penalty', penaltyPerMwh: 5 });
+    // Day C: the sell closes at clearing - 5 = 85: the same 260 as with the history's 85.
+    expect(profits(ruled, 'quantile')[1]).toBeCloseTo(260, 6);
+  });
+
+  it('leaves out the ledger when asked and rejects from after to', () => {
+    const lean = runBacktest(input, { policies: ['point'], keepLedger: false });
+    expect(lean.days.every((d) => d.runs.every((r) => r.ledger === null))).toBe(true);
+    expect(() => runBacktest({ ...input, from: '2026-05-09' })).toThrow(RangeError);
+  });
+});

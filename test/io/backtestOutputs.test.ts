@@ -1,0 +1,51 @@
+import { describe, expect, it } from 'vitest';
+import { backtestMetrics } from '../../src/backtest/backtestMetrics.js';
+import { runBacktest } from '../../src/backtest/runBacktest.js';
+import { backtestSummary, backtestSummaryText, daysCsv, DAYS_COLUMNS, LEDGER_COLUMNS, ledgerCsv } from '../../src/io/backtestOutputs.js';
+import { jsonText } from '../../src/io/planOutputs.js';
+import { battery, input, market } from '../backtest/handWorkedWeek.js';
+
+// Output files of the hand-worked week (test/backtest/handWorkedWeek.ts): 3 covered days of 4 periods.
+
+const result = runBacktest(input, { policies: ['quantile', 'perfect-foresight'] });
+const metrics = backtestMetrics(result, battery);
+
+describe('backtest outputs', () => {
+  it('days.csv starts with the contract columns and has one row per day and policy', () => {
+    const lines = daysCsv(result).trimEnd().split('\n');
+    expect(lines[0]?.split(',').slice(0, 9)).toEqual(['day', 'policy', 'profit', 'soc_start_mwh', 'soc_end_mwh', 'buys_accepted', 'buys', 'sells_accepted', 'sells']);
+    expect(lines[0]).toBe(DAYS_COLUMNS.join(','));
+    expect(lines).toHaveLength(1 + 3 * 2);
+    // Day C (2026-05-05) under follow-plan, worked in handWorkedWeek.ts: profit 260, 1 of 1 buys and 0 of 1 sells accepted.
+    expect(lines[3]?.split(',').slice(0, 9)).toEqual(['2026-05-05', 'quantile', '260', '0', '0', '1', '1', '0', '1']);
+  });
+
+  it('ledger.csv has one row per period and policy, empty order cells where there is no order', () => {
+    const lines = ledgerCsv(result).trimEnd().split('\n');
+    expect(lines[0]).toBe(LEDGER_COLUMNS.join(','));
+    expect(lines).toHaveLength(1 + 3 * 2 * 4);
+    // Day A, quantile, hour 0: buy 4 MW at limit 22, cleared at 20: pays 80; hour 1: no order.
+    expect(lines[1]).toBe('2026-05-04,quantile,2026-05-04T00:00:00Z,buy,4,22,true,20,21,21,4,0,0,0,4,0,-80,0,0,-80,4');
+    expect(lines[2]).toBe('2026-05-04,quantile,2026-05-04T01:00:00Z,,,,,45,44,44,0,0,0,0,0,0,0,0,0,0,4');
+  });
+
+  it('the same result gives the same bytes', () => {
+    const again = runBacktest(input, { policies: ['quantile', 'perfect-foresight'] });
+    expect(ledgerCsv(again)).toBe(ledgerCsv(result));
+    expect(jsonText(backtestSummary(again, backtestMetrics(again, battery), { market, battery, inputs: {} }))).toBe(
+      jsonText(backtestSummary(result, metrics, { market, battery, inputs: {} })),
+    );
+  });
+
+  it('the summary names the fallback source and lists the skipped days', () => {
+    const summary = backtestSummary(result, metrics, { market, battery, inputs: { history: 'h.csv' } });
+    expect(summary.fallbackSource).toEqual({ kind: 'history', description: "the history's fallback_price column" });
+    expect(summary.skippedDays.map((d) => d.day)).toEqual(['2026-05-06', '2026-05-08']);
+    expect(summary.policies.quantile?.profit).toBeCloseTo(856, 6);
+    expect(backtestSummaryText(result, metrics, market, 'out')).toMatch(/3 days covered, 2 skipped[\s\S]*quantile +856 /);
+  });
+
+  it('refuses to write a ledger for a backtest run without one', () => {
+    expect(() => ledgerCsv(runBacktest(input, { policies: ['point'], keepLedger: false }))).toThrow(RangeError);
+  });
+});

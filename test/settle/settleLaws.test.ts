@@ -1,0 +1,196 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import type { BatteryModel } from '../../src/types.js';
+import { isAccepted } from '../../src/settle/acceptance.js';
+import { settleDay, type PeriodOrder, type SettleDayInput } from '../../src/settle/settleDay.js';
+
+// Laws of one day's settlement (DESIGN.md section 5) on seeded random days and random orders (fast-check,
+// fixed seeds). The orders need not come from a plan: the laws hold for any orders.
+
+const SEED = 20260501;
+
+const batteryArb = fc
+  .record({
+    energyMwh: fc.double({ min: 1, max: 20, noNaN: true }),
+    chargeMw: fc.double({ min: 0.5, max: 10, noNaN: true }),
+    dischargeMw: fc.double({ min: 0.5, max: 10, noNaN: true }),
+    etaC: fc.double({ min: 0.7, max: 1, noNaN: true }),
+    etaD: fc.double({ min: 0.7, max: 1, noNaN: true }),
+    minFrac: fc.double({ min: 0, max: 0.3, noNaN: true }),
+    maxFrac: fc.double({ min: 0.6, max: 1, noNaN: true }),
+    startFrac: fc.double({ min: 0, max: 1, noNaN: true }),
+    deg: fc.double({ min: 0, max: 10, noNaN: true }),
+  })
+  .map((b): { battery: BatteryModel; start: number } => {
+    const socMinMwh = b.minFrac * b.energyMwh;
+    const socMaxMwh = b.maxFrac * b.energyMwh;
+    const battery = {
+      energyMwh: b.energyMwh,
+      chargeMw: b.chargeMw,
+      dischargeMw: b.dischargeMw,
+      chargeEfficiency: b.etaC,
+      dischargeEfficiency: b.etaD,
+      socMinMwh,
+      socMaxMwh,
+      socInitialMwh: socMinMwh,
+      socFinalMinMwh: undefined,
+      maxDischargeMwhPerDay: undefined,
+      degradationCostPerMwh: b.deg,
+    };
+    return { battery, start: socMinMwh + b.startFrac * (socMaxMwh - socMinMwh) };
+  });
+
+const price = fc.double({ min: -200, max: 500, noNaN: true });
+const orderArb = fc.option(
+  fc.record({ side: fc.constantFrom('buy' as const, 'sell' as const), quantityMw: fc.double({ min: 0, max: 12, noNaN: true }), limitPrice: price }),
+  { nil: null, freq: 3 },
+);
+const periodArb = fc.record({ order: orderArb, clearing: price, fallbackBuy: price, fallbackSell: price });
+
+const dayArb = fc.record({
+  unit: batteryArb,
+  periods: fc.array(periodArb, { minLength: 1, maxLength: 12 }),
+  periodHours: fc.constantFrom(0.25, 0.5, 1),
+  unaccepted: fc.constantFrom('follow-plan' as const, 'follow-accepted' as const),
+});
+
+type DayDraw = typeof dayArb extends fc.Arbitrary<infer T> ? T : never;
+
+function input(draw: DayDraw, overrides: Partial<SettleDayInput> = {}): SettleDayInput {
+  return Object.freeze({
+    periodHours: draw.periodHours,
+    battery: Object.freeze(draw.unit.battery),
+    socStartMwh: draw.unit.start,
+    orders: Object.freeze(draw.periods.map((p) => (p.order === null ? null : Object.freeze(p.order as PeriodOrder)))),
+    clearingPricePerMwh: Object.freeze(draw.periods.map((p) => p.clearing)),
+    fallback: Object.freeze({ buyPerMwh: Object.freeze(draw.periods.map((p) => p.fallbackBuy)), sellPerMwh: Object.freeze(draw.periods.map((p) => p.fallbackSell)) }),
+    unaccepted: draw.unaccepted,
+    ...overrides,
+  });
+}
+
+const tol = (x: number) => 1e-9 * Math.max(1, Math.abs(x));
+
+describe('settleDay laws', () => {
+  it('energy balance: charged - discharged = bought - sold (auction + fallback) in every period', () => {
+    fc.assert(
+      fc.property(dayArb, (draw) => {
+        for (const p of settleDay(input(draw)).periods) {
+          const net = p.boughtAuctionMwh + p.boughtFallbackMwh - p.soldAuctionMwh - p.soldFallbackMwh;
+          expect(Math.abs(p.chargedMwh - p.dischargedMwh - net)).toBeLessThanOrEqual(1e-9);
+        }
+      }),
+      { seed: SEED, numRuns: 300 },
+    );
+  });
+
+  it('the state of charge follows s + eta_c charged - discharged / eta_d and stays in the window', () => {
+    fc.assert(
+      fc.property(dayArb, (draw) => {
+        const { battery } = draw.unit;
+        let s = draw.unit.start;
+        for (const p of settleDay(input(draw)).periods) {
+          const next = s + battery.chargeEfficiency * p.chargedMwh - p.dischargedMwh / battery.dischargeEfficiency;
+          expect(Math.abs(p.socMwh - next)).toBeLessThanOrEqual(1e-8 * Math.max(1, battery.energyMwh));
+          expect(p.socMwh).toBeGreaterThanOrEqual(battery.socMinMwh);
+          expect(p.socMwh).toBeLessThanOrEqual(battery.socMaxMwh);
+          expect(p.chargedMwh).toBeLessThanOrEqual(battery.chargeMw * draw.periodHours + 1e-9);
+          expect(p.dischargedMwh).toBeLessThanOrEqual(battery.dischargeMw * draw.periodHours + 1e-9);
+          s = p.socMwh;
+        }
+      }),
+      { seed: SEED + 1, numRuns: 300 },
+    );
+  });
+
+  it('cash: auction at the clearing price (never the limit), fallback at the fallback prices, wear on discharged energy', () => {
+    fc.assert(
+      fc.property(dayArb, (draw) => {
+        const settled = settleDay(input(draw));
+        settled.periods.forEach((p, t) => {
+          const d = draw.periods[t] as (typeof draw.periods)[number];
+          const auction = d.clearing * (p.soldAuctionMwh - p.boughtAuctionMwh);
+          const fallback = d.fallbackSell * p.soldFallbackMwh - d.fallbackBuy * p.boughtFallbackMwh;
+          const wear = draw.unit.battery.degradationCostPerMwh * p.dischargedMwh;
+          expect(Math.abs(p.auctionCash - auction)).toBeLessThanOrEqual(tol(auction));
+          expect(Math.abs(p.fallbackCash - fallback)).toBeLessThanOrEqual(tol(fallback));
+          expect(Math.abs(p.profit - (auction + fallback - wear))).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(auction) + Math.abs(fallback) + wear));
+        });
+        const sum = settled.periods.reduce((acc, p) => acc + p.profit, 0);
+        expect(Math.abs(settled.totals.profit - sum)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(sum)));
+      }),
+      { seed: SEED + 2, numRuns: 300 },
+    );
+  });
+
+  it('only accepted orders trade in the auction, and the whole order does', () => {
+    fc.assert(
+      fc.property(dayArb, (draw) => {
+        settleDay(input(draw)).periods.forEach((p, t) => {
+          const { order, clearing } = draw.periods[t] as (typeof draw.periods)[number];
+          const energy = order === null ? 0 : order.quantityMw * draw.periodHours;
+          const accepted = order !== null && isAccepted(order.side, order.limitPrice, clearing);
+          expect(p.accepted).toBe(order === null ? null : accepted);
+          expect(p.boughtAuctionMwh).toBe(accepted && order?.side === 'buy' ? energy : 0);
+          expect(p.soldAuctionMwh).toBe(accepted && order?.side === 'sell' ? energy : 0);
+        });
+      }),
+      { seed: SEED + 3, numRuns: 300 },
+    );
+  });
+
+  it('follow-accepted: an unaccepted order neither moves the battery nor trades at fallback', () => {
+    fc.assert(
+      fc.property(dayArb, (draw) => {
+        settleDay(input(draw, { unaccepted: 'follow-accepted' })).periods.forEach((p) => {
+          // (=== 0 also holds for -0, which a negative clearing price times zero energy gives)
+          if (p.accepted !== true) expect([p.chargedMwh, p.dischargedMwh, p.boughtFallbackMwh, p.soldFallbackMwh, p.profit].every((x) => x === 0)).toBe(true);
+        });
+      }),
+      { seed: SEED + 4, numRuns: 300 },
+    );
+  });
+
+  it('when every order is accepted the two rules settle alike', () => {
+    fc.assert(
+      fc.property(dayArb, (draw) => {
+        const allAccepted = { ...draw, periods: draw.periods.map((p) => ({ ...p, order: p.order === null ? null : { ...p.order, limitPrice: p.order.side === 'buy' ? 1e6 : -1e6 } })) };
+        const plan = settleDay(input(allAccepted, { unaccepted: 'follow-plan' }));
+        const accepted = settleDay(input(allAccepted, { unaccepted: 'follow-accepted' }));
+        expect(accepted).toEqual(plan);
+      }),
+      { seed: SEED + 5, numRuns: 200 },
+    );
+  });
+});
+
+describe('settleDay conventions', () => {
+  const battery: BatteryModel = Object.freeze({
+    energyMwh: 1, chargeMw: 1, dischargeMw: 1, chargeEfficiency: 1, dischargeEfficiency: 1, socMinMwh: 0, socMaxMwh: 1,
+    socInitialMwh: 0, socFinalMinMwh: undefined, maxDischargeMwhPerDay: undefined, degradationCostPerMwh: 0,
+  });
+  const base: SettleDayInput = Object.freeze({
+    periodHours: 1, battery, socStartMwh: 0, orders: [null], clearingPricePerMwh: [50], fallback: { buyPerMwh: [60], sellPerMwh: [40] }, unaccepted: 'follow-plan',
+  });
+
+  it('a day without orders earns nothing and keeps its state of charge', () => {
+    const settled = settleDay({ ...base, socStartMwh: 0.4 });
+    expect(settled.totals.profit).toBe(0);
+    expect(settled.socEndMwh).toBe(0.4);
+  });
+
+  it('a quarter-hour order of 1 MW trades 0.25 MWh: cash = price x MW x dt', () => {
+    // Buy 1 MW for 15 min at a clearing price of 50: pays 50 x 1 x 0.25 = 12.5.
+    const settled = settleDay({ ...base, periodHours: 0.25, orders: [{ side: 'buy', quantityMw: 1, limitPrice: 55 }] });
+    expect(settled.totals.profit).toBeCloseTo(-12.5, 12);
+    expect(settled.socEndMwh).toBeCloseTo(0.25, 12);
+  });
+
+  it.each([
+    ['orders of another length', { orders: [null, null] }],
+    ['a start outside the window', { socStartMwh: 1.5 }],
+    ['a negative quantity', { orders: [{ side: 'buy' as const, quantityMw: -1, limitPrice: 50 }] }],
+  ])('rejects %s with a RangeError', (_name, overrides) => {
+    expect(() => settleDay({ ...base, ...overrides })).toThrow(RangeError);
+  });
+});
