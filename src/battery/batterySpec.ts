@@ -15,45 +15,61 @@ const positive = (field: string) => num(field).gt(0, `${field} must be > 0`);
 const efficiency = (field: string) => num(field).gt(0, `${field} must be in (0, 1]`).lte(1, `${field} must be in (0, 1]`);
 const fraction = (field: string) => num(field).min(0, `${field} must be in [0, 1]`).max(1, `${field} must be in [0, 1]`);
 
+/** The fields of `battery.json`, each checked on its own. */
+const batteryFields = z.strictObject({
+  energyMwh: positive('energyMwh'),
+  chargeMw: positive('chargeMw'),
+  dischargeMw: positive('dischargeMw'),
+  roundTripEfficiency: efficiency('roundTripEfficiency').optional(),
+  chargeEfficiency: efficiency('chargeEfficiency').optional(),
+  dischargeEfficiency: efficiency('dischargeEfficiency').optional(),
+  socMinFraction: fraction('socMinFraction').default(BATTERY_DEFAULTS.socMinFraction),
+  socMaxFraction: fraction('socMaxFraction').default(BATTERY_DEFAULTS.socMaxFraction),
+  socInitialFraction: fraction('socInitialFraction').default(BATTERY_DEFAULTS.socInitialFraction),
+  socFinalMinFraction: fraction('socFinalMinFraction').optional(),
+  maxCyclesPerDay: positive('maxCyclesPerDay').optional(),
+  degradationCostPerMwh: num('degradationCostPerMwh')
+    .min(0, 'degradationCostPerMwh must be >= 0')
+    .default(BATTERY_DEFAULTS.degradationCostPerMwh),
+});
+
 /** Schema of `battery.json`, with the physical sanity checks. */
-export const batterySpecSchema = z
-  .strictObject({
-    energyMwh: positive('energyMwh'),
-    chargeMw: positive('chargeMw'),
-    dischargeMw: positive('dischargeMw'),
-    roundTripEfficiency: efficiency('roundTripEfficiency').optional(),
-    chargeEfficiency: efficiency('chargeEfficiency').optional(),
-    dischargeEfficiency: efficiency('dischargeEfficiency').optional(),
-    socMinFraction: fraction('socMinFraction').default(BATTERY_DEFAULTS.socMinFraction),
-    socMaxFraction: fraction('socMaxFraction').default(BATTERY_DEFAULTS.socMaxFraction),
-    socInitialFraction: fraction('socInitialFraction').default(BATTERY_DEFAULTS.socInitialFraction),
-    socFinalMinFraction: fraction('socFinalMinFraction').optional(),
-    maxCyclesPerDay: positive('maxCyclesPerDay').optional(),
-    degradationCostPerMwh: num('degradationCostPerMwh')
-      .min(0, 'degradationCostPerMwh must be >= 0')
-      .default(BATTERY_DEFAULTS.degradationCostPerMwh),
-  })
-  .superRefine((spec, ctx) => {
-    const split = spec.chargeEfficiency !== undefined || spec.dischargeEfficiency !== undefined;
-    if (spec.roundTripEfficiency !== undefined && split) {
-      ctx.addIssue({ code: 'custom', path: ['roundTripEfficiency'], message: 'give either roundTripEfficiency or chargeEfficiency + dischargeEfficiency, not both' });
-    } else if (spec.roundTripEfficiency === undefined && !split) {
-      ctx.addIssue({ code: 'custom', path: ['roundTripEfficiency'], message: 'missing roundTripEfficiency' });
-    } else if (split && (spec.chargeEfficiency === undefined || spec.dischargeEfficiency === undefined)) {
-      const missing = spec.chargeEfficiency === undefined ? 'chargeEfficiency' : 'dischargeEfficiency';
-      ctx.addIssue({ code: 'custom', path: [missing], message: `missing ${missing} (both split efficiencies are needed)` });
-    }
-    if (spec.socMinFraction >= spec.socMaxFraction) {
-      ctx.addIssue({ code: 'custom', path: ['socMaxFraction'], message: `socMaxFraction (${spec.socMaxFraction}) must be above socMinFraction (${spec.socMinFraction})` });
-    }
-    if (spec.socInitialFraction < spec.socMinFraction || spec.socInitialFraction > spec.socMaxFraction) {
-      ctx.addIssue({ code: 'custom', path: ['socInitialFraction'], message: `socInitialFraction (${spec.socInitialFraction}) is outside the window [${spec.socMinFraction}, ${spec.socMaxFraction}]` });
-    }
-    const final = spec.socFinalMinFraction;
-    if (final !== undefined && (final < spec.socMinFraction || final > spec.socMaxFraction)) {
-      ctx.addIssue({ code: 'custom', path: ['socFinalMinFraction'], message: `socFinalMinFraction (${final}) is outside the window [${spec.socMinFraction}, ${spec.socMaxFraction}]` });
-    }
+export const batterySpecSchema = batteryFields
+  .superRefine(batteryCrossChecks, {
+    // Runs even when some fields are wrong, so that every problem is listed at once.
+    when: (payload) => typeof payload.value === 'object' && payload.value !== null && !Array.isArray(payload.value),
   });
+
+/**
+ * Checks between fields. Each looks only at fields that are themselves valid (a wrong field is already
+ * reported by its own check), with the documented default for a field left out.
+ */
+function batteryCrossChecks(spec: z.infer<typeof batteryFields>, ctx: z.RefinementCtx): void {
+  const raw = spec as Partial<Record<keyof typeof spec, unknown>>;
+  const fractionOr = (value: unknown, fallback: number): number | undefined =>
+    value === undefined ? fallback : typeof value === 'number' && value >= 0 && value <= 1 ? value : undefined;
+  const split = raw.chargeEfficiency !== undefined || raw.dischargeEfficiency !== undefined;
+  if (raw.roundTripEfficiency !== undefined && split) {
+    ctx.addIssue({ code: 'custom', path: ['roundTripEfficiency'], message: 'give either roundTripEfficiency or chargeEfficiency + dischargeEfficiency, not both' });
+  } else if (raw.roundTripEfficiency === undefined && !split) {
+    ctx.addIssue({ code: 'custom', path: ['roundTripEfficiency'], message: 'missing roundTripEfficiency' });
+  } else if (split && (raw.chargeEfficiency === undefined || raw.dischargeEfficiency === undefined)) {
+    const missing = raw.chargeEfficiency === undefined ? 'chargeEfficiency' : 'dischargeEfficiency';
+    ctx.addIssue({ code: 'custom', path: [missing], message: `missing ${missing} (both split efficiencies are needed)` });
+  }
+  const min = fractionOr(raw.socMinFraction, BATTERY_DEFAULTS.socMinFraction);
+  const max = fractionOr(raw.socMaxFraction, BATTERY_DEFAULTS.socMaxFraction);
+  if (min === undefined || max === undefined) return;
+  if (min >= max) {
+    ctx.addIssue({ code: 'custom', path: ['socMaxFraction'], message: `socMaxFraction (${max}) must be above socMinFraction (${min})` });
+  }
+  for (const field of ['socInitialFraction', 'socFinalMinFraction'] as const) {
+    const value = fractionOr(raw[field], field === 'socInitialFraction' ? BATTERY_DEFAULTS.socInitialFraction : min);
+    if (value !== undefined && (value < min || value > max)) {
+      ctx.addIssue({ code: 'custom', path: [field], message: `${field} (${value}) is outside the window [${min}, ${max}]` });
+    }
+  }
+}
 
 export const BATTERY_FIELD_FIXES: Readonly<Record<string, string>> = {
   energyMwh: 'give the usable nameplate energy in MWh, e.g. 10',

@@ -8,17 +8,24 @@ export function parseDayArg(value: string): string {
   return value;
 }
 
+/** A decimal number as written on a command line (no hex, no Infinity, no blanks), or NaN. */
+function decimalArg(value: string): number {
+  return DECIMAL.test(value) ? Number(value) : Number.NaN;
+}
+
+const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
 export function parseAlphaArg(value: string): number {
-  const alpha = Number(value);
-  if (!Number.isFinite(alpha) || !(alpha > 0 && alpha < 0.5)) {
+  const alpha = decimalArg(value);
+  if (!(alpha > 0 && alpha < 0.5)) {
     throw new InvalidArgumentError(`alpha ${value} must be a number in (0, 0.5): the central interval [q(alpha), q(1 - alpha)], e.g. 0.1`);
   }
   return alpha;
 }
 
 export function parseNonNegativeArg(value: string): number {
-  const x = Number(value);
-  if (value.trim() === '' || !Number.isFinite(x) || x < 0) throw new InvalidArgumentError(`"${value}" must be a number >= 0`);
+  const x = decimalArg(value);
+  if (!Number.isFinite(x) || x < 0) throw new InvalidArgumentError(`"${value}" must be a number >= 0, e.g. 5 or 2.5`);
   return x;
 }
 

@@ -34,8 +34,9 @@ export async function main(argv: readonly string[], io: CliIo = processIo): Prom
     return EXIT.ok;
   } catch (err) {
     if (err instanceof CommanderError) {
-      const quiet = err.code === 'commander.helpDisplayed' || err.code === 'commander.version' || err.code === 'commander.help';
-      return quiet || err.exitCode === 0 ? EXIT.ok : EXIT.badInput;
+      // --help and --version end with exit code 0; usage errors, and help shown because no command
+      // was given, with a non-zero code: bad usage.
+      return err.exitCode === 0 ? EXIT.ok : EXIT.badInput;
     }
     if (err instanceof InputError) {
       for (const problem of err.problems) io.stderr(`${formatProblem(problem)}\n`);

@@ -9,6 +9,8 @@ export interface CsvRow {
 
 export interface CsvTable {
   readonly header: readonly string[];
+  /** 1-based line of the header (the first non-blank line). */
+  readonly headerLine: number;
   readonly rows: readonly CsvRow[];
 }
 
@@ -41,7 +43,7 @@ export function splitCsv(text: string, file: string): { table: CsvTable } | { pr
     if (line.trim() === '') continue;
     rows.push({ line: i + 1, cells: splitCsvLine(line) });
   }
-  return { table: { header, rows } };
+  return { table: { header, headerLine: headerIndex + 1, rows } };
 }
 
 /** The problem with a header line separated by semicolons or tabs instead of commas, or null. */

@@ -2,7 +2,10 @@ import type { MarketSpec, QuantileDay } from '../types.js';
 import { DayCalendar, locatePeriod } from '../market/dayCalendar.js';
 import { rearrange } from '../forecast/quantileSet.js';
 import { ProblemList } from './inputError.js';
-import { parseDecimal, splitCsv, type CsvRow } from './csvText.js';
+import { fieldCountProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow } from './csvText.js';
+import { readQuantileHeader } from './quantileHeader.js';
+import { readInputFile } from './readInputFile.js';
+import { shownText } from './shownText.js';
 
 /** A quantile forecast file, validated: complete days by day, and what was repaired or left out. */
 export interface QuantileForecastFile {
@@ -19,12 +22,24 @@ export interface QuantileForecastFile {
   readonly repairedExamples: readonly string[];
 }
 
-const LEVEL_HEADER = /^q(\d*\.?\d+)$/;
+/** Reads a quantile forecast file (.csv or .csv.gz); see parseQuantileForecast. The header is checked from the first bytes, before the file is read whole. */
+export function readQuantileForecast(path: string, market: MarketSpec): QuantileForecastFile {
+  const firstLine = (line: string, lineNumber: number) => {
+    const separator = separatorProblem(line, path, lineNumber);
+    return separator === null ? readQuantileHeader(splitCsvLine(line), path, lineNumber).problems : [separator];
+  };
+  return parseQuantileForecast(readInputFile(path, { firstLine }), path, market);
+}
 
 /**
  * Reads a quantile forecast from CSV text, wide (`period_start,q0.05,...,q0.95`) or long
- * (`period_start,level,price`). All problems are collected and thrown together as an InputError.
- * Crossing quantiles are repaired by sorting and counted.
+ * (`period_start,level,price`). All problems are collected and thrown together as an InputError: first
+ * those of the header; once the header is right, those of every row.
+ *
+ * Rules: every cell a finite decimal with a dot; every price inside the market's [priceFloor, priceCap];
+ * every `period_start` a period start of the market's calendar written with the zone's offset on that
+ * date; each period at most once (rows may come in any order); a day with periods missing is listed as
+ * incomplete and never filled in. Crossing quantiles are repaired by sorting and counted.
  */
 export function parseQuantileForecast(text: string, file: string, market: MarketSpec): QuantileForecastFile {
   const split = splitCsv(text, file);
@@ -34,105 +49,116 @@ export function parseQuantileForecast(text: string, file: string, market: Market
     problems.throwIfAny();
     throw new Error('unreachable');
   }
-  const { header, rows } = split.table;
-  if (header[0] !== 'period_start') {
-    problems.add({ file, line: 1, field: header[0] ?? '', message: `the first column is "${header[0] ?? ''}", expected "period_start"`, fix: 'use the header period_start,q0.05,...,q0.95 (wide) or period_start,level,price (long)' });
+  const { header, headerLine, rows } = split.table;
+  const checked = readQuantileHeader(header, file, headerLine);
+  checked.problems.forEach((p) => problems.add(p));
+  problems.throwIfAny();
+  if (rows.length === 0) {
+    problems.add({ file, line: headerLine, message: 'the file has a header but no data rows', fix: 'give one row per delivery period (wide) or per period and level (long)' });
     problems.throwIfAny();
   }
-  const isLong = header.length === 3 && header[1] === 'level' && header[2] === 'price';
-  const grid = isLong ? longGrid(rows, file, problems) : wideGrid(header, rows, file, problems);
+  const grid = checked.layout === 'long' ? longGrid(rows, file, market, problems) : wideGrid(header, checked.levels, rows, file, market, problems);
   problems.throwIfAny();
   return assembleDays(grid, file, market, problems);
 }
 
-/** Rows of (timestamp text, line, prices at `levels`). */
+/** Rows of (timestamp text, line, prices at `levels`); prices null where a cell of the row is wrong. */
 interface ForecastGrid {
   readonly levels: number[];
-  readonly entries: { stamp: string; line: number; prices: number[] }[];
+  readonly entries: { stamp: string; line: number; prices: number[] | null }[];
 }
 
-function wideGrid(header: readonly string[], rows: readonly CsvRow[], file: string, problems: ProblemList): ForecastGrid {
-  const levels: number[] = [];
-  header.slice(1).forEach((name, k) => {
-    const column = k + 2;
-    const match = LEVEL_HEADER.exec(name);
-    if (match === null) {
-      problems.add({ file, line: 1, field: name, message: `column ${column} is "${name}", not a level header`, fix: 'name quantile columns q<level> with the level in (0, 1), e.g. q0.05' });
-      return;
-    }
-    const level = Number(match[1]);
-    if (level >= 1 && level < 100) {
-      problems.add({ file, line: 1, field: name, message: `level ${level} looks like a percentage`, fix: `write levels as fractions in (0, 1): q${level / 100} for ${level}%` });
-    } else if (!(level > 0 && level < 1)) {
-      problems.add({ file, line: 1, field: name, message: `level ${level} is outside (0, 1)`, fix: 'levels are probabilities strictly between 0 and 1' });
-    } else if (levels.length > 0 && level <= (levels[levels.length - 1] as number)) {
-      problems.add({ file, line: 1, field: name, message: `level ${level} does not increase from the column before (${levels[levels.length - 1]})`, fix: 'order the quantile columns by increasing level, each level once' });
-    }
-    levels.push(level);
-  });
-  if (header.length < 2) {
-    problems.add({ file, line: 1, message: 'no quantile columns', fix: 'add columns q<level>, e.g. q0.05,...,q0.95' });
-  }
+function wideGrid(header: readonly string[], levels: readonly number[], rows: readonly CsvRow[], file: string, market: MarketSpec, problems: ProblemList): ForecastGrid {
   const entries: ForecastGrid['entries'] = [];
-  if (problems.items.length > 0) return { levels, entries };
   for (const row of rows) {
+    if (problems.full) break;
     if (row.cells.length !== header.length) {
-      problems.add({ file, line: row.line, message: `${row.cells.length} fields, the header has ${header.length}`, fix: 'give one value per column on every line' });
+      problems.add(fieldCountProblem(row, header.length, file, 'give one value per column on every line'));
       continue;
     }
-    const prices: number[] = new Array<number>(levels.length);
+    const prices: number[] = [];
+    let valid = true;
     for (let k = 0; k < levels.length; k++) {
-      const parsed = parseDecimal(row.cells[k + 1] as string);
-      if ('error' in parsed) problems.add({ file, line: row.line, field: header[k + 1] as string, message: parsed.error, fix: parsed.fix });
-      else prices[k] = parsed.value;
+      const parsed = priceCell(row.cells[k + 1] as string, market);
+      if ('value' in parsed) prices.push(parsed.value);
+      else {
+        problems.add({ file, line: row.line, field: header[k + 1] as string, message: parsed.error, fix: parsed.fix });
+        valid = false;
+      }
     }
-    entries.push({ stamp: row.cells[0] as string, line: row.line, prices });
+    entries.push({ stamp: row.cells[0] as string, line: row.line, prices: valid ? prices : null });
   }
-  return { levels, entries };
+  return { levels: [...levels], entries };
 }
 
-function longGrid(rows: readonly CsvRow[], file: string, problems: ProblemList): ForecastGrid {
+/** A price cell: a finite decimal inside the market's [priceFloor, priceCap]. */
+function priceCell(cell: string, market: MarketSpec): ReturnType<typeof parseDecimal> {
+  const parsed = parseDecimal(cell);
+  if ('error' in parsed || (parsed.value >= market.priceFloor && parsed.value <= market.priceCap)) return parsed;
+  return { error: `price ${parsed.value} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the forecast's unit and the market spec's priceFloor and priceCap" };
+}
+
+/** A level cell of the long layout: a finite decimal in (0, 1); a percentage is named as such. */
+function levelCell(cell: string): ReturnType<typeof parseDecimal> {
+  const parsed = parseDecimal(cell);
+  if ('error' in parsed) return parsed;
+  const level = parsed.value;
+  if (level >= 1 && level < 100) return { error: `level ${level} looks like a percentage`, fix: `write levels as fractions in (0, 1), e.g. ${level / 100}` };
+  if (!(level > 0 && level < 1)) return { error: `level ${level} is outside (0, 1)`, fix: 'levels are probabilities strictly between 0 and 1' };
+  return parsed;
+}
+
+/** One period of the long layout as read: a price per level, and whether every row of it was valid. */
+interface LongGroup {
+  readonly stamp: string;
+  readonly line: number;
+  readonly prices: Map<number, number>;
+  valid: boolean;
+}
+
+function longGrid(rows: readonly CsvRow[], file: string, market: MarketSpec, problems: ProblemList): ForecastGrid {
   const levelSet = new Set<number>();
-  const parsed: { stamp: string; line: number; level: number; price: number }[] = [];
+  const byStamp = new Map<string, LongGroup>();
   for (const row of rows) {
+    if (problems.full) break;
     if (row.cells.length !== 3) {
-      problems.add({ file, line: row.line, message: `${row.cells.length} fields, the header has 3`, fix: 'give period_start,level,price on every line' });
+      problems.add(fieldCountProblem(row, 3, file, 'give period_start,level,price on every line'));
       continue;
     }
-    const level = parseDecimal(row.cells[1] as string);
-    const price = parseDecimal(row.cells[2] as string);
-    if ('error' in level) problems.add({ file, line: row.line, field: 'level', message: level.error, fix: level.fix });
-    else if (level.value >= 1 && level.value < 100) problems.add({ file, line: row.line, field: 'level', message: `level ${level.value} looks like a percentage`, fix: `write levels as fractions in (0, 1), e.g. ${level.value / 100}` });
-    else if (!(level.value > 0 && level.value < 1)) problems.add({ file, line: row.line, field: 'level', message: `level ${level.value} is outside (0, 1)`, fix: 'levels are probabilities strictly between 0 and 1' });
-    if ('error' in price) problems.add({ file, line: row.line, field: 'price', message: price.error, fix: price.fix });
-    if ('value' in level && 'value' in price) {
-      levelSet.add(level.value);
-      parsed.push({ stamp: row.cells[0] as string, line: row.line, level: level.value, price: price.value });
+    const stamp = row.cells[0] as string;
+    let group = byStamp.get(stamp);
+    if (group === undefined) {
+      group = { stamp, line: row.line, prices: new Map(), valid: true };
+      byStamp.set(stamp, group);
     }
+    const level = levelCell(row.cells[1] as string);
+    const price = priceCell(row.cells[2] as string, market);
+    if ('error' in level) problems.add({ file, line: row.line, field: 'level', message: level.error, fix: level.fix });
+    if ('error' in price) problems.add({ file, line: row.line, field: 'price', message: price.error, fix: price.fix });
+    if ('value' in level && group.prices.has(level.value)) {
+      problems.add({ file, line: row.line, field: 'level', message: `level ${level.value} appears twice for ${shownText(stamp)}`, fix: 'give each period and level once' });
+    } else if ('value' in level && 'value' in price) {
+      levelSet.add(level.value);
+      group.prices.set(level.value, price.value);
+      continue;
+    }
+    group.valid = false;
   }
   const levels = [...levelSet].sort((a, b) => a - b);
-  const position = new Map(levels.map((level, k) => [level, k]));
-  const byStamp = new Map<string, { stamp: string; line: number; prices: number[]; seen: boolean[] }>();
-  for (const entry of parsed) {
-    let group = byStamp.get(entry.stamp);
-    if (group === undefined) {
-      group = { stamp: entry.stamp, line: entry.line, prices: new Array<number>(levels.length).fill(Number.NaN), seen: new Array<boolean>(levels.length).fill(false) };
-      byStamp.set(entry.stamp, group);
+  const entries = [...byStamp.values()].map((group) => {
+    const missing = levels.filter((level) => !group.prices.has(level));
+    if (group.valid && missing.length > 0) {
+      problems.add({ file, line: group.line, field: 'level', message: `period ${shownText(group.stamp)} lacks levels ${missing.join(', ')}`, fix: 'give every period the same set of levels' });
     }
-    const k = position.get(entry.level) as number;
-    if (group.seen[k]) problems.add({ file, line: entry.line, field: 'level', message: `level ${entry.level} appears twice for ${entry.stamp}`, fix: 'give each period and level once' });
-    group.seen[k] = true;
-    group.prices[k] = entry.price;
-  }
-  for (const group of byStamp.values()) {
-    const missing = levels.filter((_, k) => !group.seen[k]);
-    if (missing.length > 0) problems.add({ file, line: group.line, field: 'level', message: `period ${group.stamp} lacks levels ${missing.join(', ')}`, fix: 'give every period the same set of levels' });
-  }
-  return { levels, entries: [...byStamp.values()] };
+    const complete = group.valid && missing.length === 0;
+    return { stamp: group.stamp, line: group.line, prices: complete ? levels.map((level) => group.prices.get(level) as number) : null };
+  });
+  return { levels, entries };
 }
 
 function assembleDays(grid: ForecastGrid, file: string, market: MarketSpec, problems: ProblemList): QuantileForecastFile {
   const calendar = new DayCalendar(market.timeZone, market.periodMinutes);
+  // Per day and period: the prices (undefined until read) and the line they were first read from (0: none).
   const byDay = new Map<string, { prices: (number[] | undefined)[]; lines: number[] }>();
   let repairedPeriods = 0;
   const repairedExamples: string[] = [];
@@ -142,28 +168,24 @@ function assembleDays(grid: ForecastGrid, file: string, market: MarketSpec, prob
       problems.add({ file, line: entry.line, field: 'period_start', message: located.message, fix: located.fix });
       continue;
     }
-    const outside = entry.prices.find((p) => p < market.priceFloor || p > market.priceCap);
-    if (outside !== undefined) {
-      problems.add({ file, line: entry.line, message: `price ${outside} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: 'check the forecast\'s unit and the market spec\'s priceFloor and priceCap' });
-      continue;
-    }
     let day = byDay.get(located.day);
     if (day === undefined) {
       const count = calendar.periods(located.day).length;
       day = { prices: new Array<number[] | undefined>(count).fill(undefined), lines: new Array<number>(count).fill(0) };
       byDay.set(located.day, day);
     }
-    if (day.prices[located.index] !== undefined) {
+    if (day.lines[located.index] !== 0) {
       problems.add({ file, line: entry.line, field: 'period_start', message: `period ${entry.stamp} appears twice (first on line ${day.lines[located.index]})`, fix: 'give each delivery period once' });
       continue;
     }
+    day.lines[located.index] = entry.line;
+    if (entry.prices === null) continue; // its problems are listed already
     const { prices, repaired } = rearrange(entry.prices);
     if (repaired) {
       repairedPeriods++;
       if (repairedExamples.length < 5) repairedExamples.push(entry.stamp);
     }
     day.prices[located.index] = prices;
-    day.lines[located.index] = entry.line;
   }
   problems.throwIfAny();
   const days = new Map<string, QuantileDay>();

@@ -1,3 +1,4 @@
+import { formatNumber } from '../io/formatNumber.js';
 import { bandAxisX, bandAxisY } from './axes.js';
 import { bandScale } from './bandScale.js';
 import { layoutFrame, quantityText, renderChart } from './chartFrame.js';
@@ -72,7 +73,7 @@ export function heatMap(spec: HeatMapSpec): Markup {
       const showText = spec.showValues !== false && !missing && textWidth(text, FONT.value) + 6 <= columns.bandwidth && cellHeight >= FONT.value + 4;
       const ink = contrastRatio(fill, '#000000') >= contrastRatio(fill, '#ffffff') ? '#000000' : '#ffffff';
       return markup`<rect class="mark cell" x="${x}" y="${y}" width="${columns.bandwidth}" height="${cellHeight}" fill="${fill}" stroke="${INK.paper}" stroke-width="1" data-row="${r}" data-column="${c}"${
-        missing ? '' : markup` data-value="${numberText(v, 6)}"`
+        missing ? '' : markup` data-value="${formatNumber(v, 6)}"`
       }>${tooltip(`${where}: ${missing ? 'no result' : `${numberText(v, 3)} ${spec.value.unit}`}`)}</rect>${showText && svgText(x + columns.bandwidth / 2, y + cellHeight / 2, text, { size: FONT.value, anchor: 'middle', middle: true, fill: ink, cls: 'cell-label' })}`;
     }),
   );
@@ -89,7 +90,7 @@ function colourBar(value: Quantity, gradientId: string, lo: number, hi: number, 
   const title = quantityText(value);
   const barLeft = x + textWidth(title, FONT.label) + 12;
   const at = (v: number) => barLeft + (hi > lo ? ((v - lo) / (hi - lo)) * BAR_WIDTH : BAR_WIDTH / 2);
-  const nice = niceTicks(lo, hi, 5);
+  const nice = niceTicks(lo, hi, 6);
   const inside = nice.values.filter((v) => v >= lo - 1e-9 && v <= hi + 1e-9);
   const ticks = inside.length > 0 ? inside : [lo];
   const labels = tickLabels(ticks, nice.step, nice.decimals);

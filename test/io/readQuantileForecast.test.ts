@@ -78,6 +78,6 @@ describe('parseQuantileForecast', () => {
     const offset = base.map((l, i) => (i === 3 ? l.replace('+02:00', '+01:00') : l)).join('\n');
     expect(problems(offset)[0]).toMatch(/q.csv:4: period_start: offset \+01:00 .* does not match Europe\/Berlin/);
     const high = base.map((l, i) => (i === 7 ? l.replace(/,3$/, ',5000') : l)).join('\n');
-    expect(problems(high)[0]).toMatch(/q.csv:8: price 5000 is outside the market's \[-500, 4000\]/);
+    expect(problems(high)[0]).toMatch(/q.csv:8: q0.9: price 5000 is outside the market's \[-500, 4000\]/);
   });
 });

@@ -11,7 +11,7 @@
  * - no console error and no uncaught page error while loading;
  * - no network request other than the report file itself (every request is routed, recorded and,
  *   unless it is the file, aborted);
- * - no `<script>` element;
+ * - no `<script>` element; standards mode (the doctype is right) and UTF-8;
  * - every expected chart id is an `<svg>` with at least one visible data mark (`.mark`, a
  *   rendered box larger than zero), and there is no chart that was not expected;
  * - every chart's own bytes, cut from the file, parse as SVG (XML) in the browser's XML parser and
@@ -44,9 +44,13 @@ export const CHROMIUM_ARGS: readonly string[] = Object.freeze([
 
 export const chromiumAvailable = existsSync(CHROMIUM_PATH);
 
+/** Why browser tests are skipped, printed once per test file that imports this helper. */
+export const SKIP_REASON = `browser tests skipped: ${CHROMIUM_PATH} is absent (CI installs Debian's chromium through .ci/run; locally: apt-get install chromium)`;
+if (!chromiumAvailable) console.warn(SKIP_REASON);
+
 /** Suite name that says why it was skipped when Chromium is missing (vitest prints skipped names). */
 export function browserSuiteName(name: string): string {
-  return chromiumAvailable ? `${name} (headless Chromium)` : `${name}: SKIPPED, ${CHROMIUM_PATH} is absent (CI installs it through .ci/run)`;
+  return chromiumAvailable ? `${name} (headless Chromium)` : `${name}: ${SKIP_REASON}`;
 }
 
 /** Folder of screenshots, at the repository root, gitignored. */
@@ -76,6 +80,10 @@ export interface ReportFindings {
   /** Requests other than the report file. */
   readonly foreignRequests: readonly string[];
   readonly scripts: number;
+  /** `CSS1Compat` when the doctype put the page in standards mode (not quirks mode). */
+  readonly compatMode: string;
+  /** Encoding the browser read the file in. */
+  readonly characterSet: string;
   readonly charts: readonly ChartFinding[];
   /** Ids of `svg.chart` elements that were not in the expected list. */
   readonly unexpectedCharts: readonly string[];
@@ -114,7 +122,12 @@ interface DomElement {
   getElementsByTagName(name: string): { readonly length: number };
 }
 interface PageGlobals {
-  readonly document: DomElement & { readonly documentElement: { readonly scrollWidth: number }; getElementById(id: string): DomElement | null };
+  readonly document: DomElement & {
+    readonly documentElement: { readonly scrollWidth: number };
+    readonly compatMode: string;
+    readonly characterSet: string;
+    getElementById(id: string): DomElement | null;
+  };
   readonly innerWidth: number;
   readonly DOMParser: new () => { parseFromString(text: string, type: 'image/svg+xml'): DomElement };
 }
@@ -205,6 +218,8 @@ export async function inspectReport(htmlPath: string, chartIds: readonly string[
           clippedTexts,
           unexpectedCharts,
           scripts: document.querySelectorAll('script').length,
+          compatMode: document.compatMode,
+          characterSet: document.characterSet,
           horizontalOverflow: Math.max(0, document.documentElement.scrollWidth - innerWidth),
         };
       },
@@ -238,6 +253,8 @@ export async function expectReportRendersCleanly(htmlPath: string, chartIds: rea
   expect(found.pageErrors, 'page errors').toEqual([]);
   expect(found.foreignRequests, 'requests other than the report file').toEqual([]);
   expect(found.scripts, 'script elements').toBe(0);
+  expect(found.compatMode, 'standards mode (doctype)').toBe('CSS1Compat');
+  expect(found.characterSet, 'encoding').toBe('UTF-8');
   expect(found.unexpectedCharts, 'charts not in the expected list').toEqual([]);
   for (const chart of found.charts) {
     expect(chart.isSvg, `${chart.id} is an <svg>`).toBe(true);

@@ -9,8 +9,7 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { REPORT_CSP } from '../../src/report/htmlPage.js';
 import { browserSuiteName, chromiumAvailable, inspectReport, svgSource } from './browser.js';
 
-const BROKEN_PAGE = `<!DOCTYPE html>
-<html lang="en"><head><meta charset="utf-8"><title>broken</title></head>
+const BROKEN_PAGE = `<html lang="en"><head><title>broken</title></head>
 <body>
 <img src="http://192.0.2.1/pixel.png" alt="">
 <script>console.error('a console error'); throw new Error('an uncaught error');</script>
@@ -38,12 +37,14 @@ describe.skipIf(!chromiumAvailable)(browserSuiteName('browser checks catch broke
     writeFileSync(join(dir, 'csp.html'), CSP_PAGE);
   });
 
-  it('reports errors, requests, scripts, empty, crowded, malformed, missing and unexpected charts, sideways scroll', async () => {
+  it('reports errors, requests, scripts, quirks mode, encoding, empty, crowded, malformed, missing and unexpected charts, sideways scroll', async () => {
     const found = await inspectReport(join(dir, 'broken.html'), ['empty', 'crowded', 'malformed', 'absent'], 'browser-check-broken');
     expect(found.consoleErrors.join('\n')).toContain('a console error');
     expect(found.pageErrors.join('\n')).toContain('an uncaught error');
     expect(found.foreignRequests).toEqual(['http://192.0.2.1/pixel.png']);
     expect(found.scripts).toBe(1);
+    expect(found.compatMode).toBe('BackCompat'); // no doctype: quirks mode
+    expect(found.characterSet).not.toBe('UTF-8'); // no charset declared in a file:// page
     const chart = (id: string) => found.charts.find((c) => c.id === id);
     expect(chart('empty')?.visibleMarks).toBe(0);
     expect(chart('crowded')?.visibleMarks).toBe(1);

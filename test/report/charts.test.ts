@@ -17,12 +17,12 @@ import { deepFreeze, elements, texts } from './svgQuery.js';
 
 const days = (n: number) => categoryAxis(Array.from({ length: n }, (_, i) => `day ${i + 1}`), { label: 'delivery day', unit: 'YYYY-MM-DD' });
 const plotRight = 960 - FRAME.right;
+/** Title and caption do not matter to these tests. */
+const base = (id: string) => ({ id, title: 't', caption: 'c' });
 
 describe('barChart', () => {
   const signed = barChart({
-    id: 'b',
-    title: 't',
-    caption: 'c',
+    ...base('b'),
     x: days(4),
     y: { label: 'power', unit: 'MW', min: -5, max: 5 },
     layout: 'overlaid',
@@ -49,7 +49,7 @@ describe('barChart', () => {
     expect(texts(signed, 'tick-label').filter((t) => !t.startsWith('day'))).toEqual(['\u22125', '0', '5']);
   });
   it('grouped bars share a band side by side without overlapping', () => {
-    const grouped = elements(barChart({ id: 'g', title: 't', caption: 'c', x: days(3), y: { label: 'energy', unit: 'MWh' }, series: [{ name: 'a', values: [1, 2, 3] }, { name: 'b', values: [3, 2, 1] }] }).text, 'rect', 'bar');
+    const grouped = elements(barChart({ ...base('g'), x: days(3), y: { label: 'energy', unit: 'MWh' }, series: [{ name: 'a', values: [1, 2, 3] }, { name: 'b', values: [3, 2, 1] }] }).text, 'rect', 'bar');
     expect(grouped).toHaveLength(6);
     const a0 = grouped[0] as (typeof grouped)[0];
     const b0 = grouped[3] as (typeof grouped)[0];
@@ -60,7 +60,7 @@ describe('barChart', () => {
 
 describe('lineChart', () => {
   it("boundary values span the band axis from its start to its end (a state at each period's end)", () => {
-    const svg = lineChart({ id: 'l', title: 't', caption: 'c', x: days(4), y: { label: 'soc', unit: 'MWh' }, series: [{ name: 's', values: [1, 2, 3, 4, 5], position: 'boundary' }] }).text;
+    const svg = lineChart({ ...base('l'), x: days(4), y: { label: 'soc', unit: 'MWh' }, series: [{ name: 's', values: [1, 2, 3, 4, 5], position: 'boundary' }] }).text;
     const d = elements(svg, 'path', 'line')[0]?.attrs.d ?? '';
     expect(d.startsWith(`M${FRAME.left},`)).toBe(true);
     expect(d).toMatch(new RegExp(`L${plotRight},[\\d.]+$`));
@@ -68,9 +68,7 @@ describe('lineChart', () => {
   });
   it('a right axis gets as many ticks as the left one, so both share the grid', () => {
     const svg = lineChart({
-      id: 'r',
-      title: 't',
-      caption: 'c',
+      ...base('r'),
       x: days(3),
       y: { label: 'price', unit: 'HLV/MWh' },
       y2: { label: 'soc', unit: 'MWh' },
@@ -81,25 +79,23 @@ describe('lineChart', () => {
     expect(svg).toContain('s (right axis)');
   });
   it('a point with no neighbour gets a marker, gaps break the line', () => {
-    const svg = lineChart({ id: 'p', title: 't', caption: 'c', x: days(5), y: { label: 'y', unit: '-' }, series: [{ name: 's', values: [1, 2, null, 4, null] }] }).text;
+    const svg = lineChart({ ...base('p'), x: days(5), y: { label: 'y', unit: '-' }, series: [{ name: 's', values: [1, 2, null, 4, null] }] }).text;
     expect(elements(svg, 'path', 'point')).toHaveLength(1);
     expect(elements(svg, 'path', 'line')[0]?.attrs.d?.match(/M/g)).toHaveLength(2);
   });
   it('a numeric x axis places points at their x values', () => {
-    const svg = lineChart({ id: 'n', title: 't', caption: 'c', x: { kind: 'linear', label: 'alpha', unit: '-', values: [0, 0.25, 0.5] }, y: { label: 'profit', unit: 'HLV' }, series: [{ name: 's', values: [1, 2, 3], points: true }] }).text;
+    const svg = lineChart({ ...base('n'), x: { kind: 'linear', label: 'alpha', unit: '-', values: [0, 0.25, 0.5] }, y: { label: 'profit', unit: 'HLV' }, series: [{ name: 's', values: [1, 2, 3], points: true }] }).text;
     const xs = elements(svg, 'path', 'line')[0]?.attrs.d?.match(/[ML]([\d.]+),/g)?.map((s) => Number(s.slice(1, -1)));
     expect(xs).toEqual([FRAME.left, (FRAME.left + plotRight) / 2, plotRight]);
   });
   it('refuses a right-axis series without y2', () => {
-    expect(() => lineChart({ id: 'x', title: 't', caption: 'c', x: days(2), y: { label: 'y', unit: '-' }, series: [{ name: 's', values: [1, 2], axis: 'right' }] })).toThrow(/y2/);
+    expect(() => lineChart({ ...base('x'), x: days(2), y: { label: 'y', unit: '-' }, series: [{ name: 's', values: [1, 2], axis: 'right' }] })).toThrow(/y2/);
   });
 });
 
 describe('fanChart', () => {
   const svg = fanChart({
-    id: 'f',
-    title: 't',
-    caption: 'c',
+    ...base('f'),
     x: days(3),
     y: { label: 'price', unit: 'HLV/MWh' },
     bands: [
@@ -142,7 +138,7 @@ describe('histogram', () => {
     const values = Array.from({ length: 200 }, (_, i) => Math.sin(i * 1.3) * 100);
     const bins = histogramBins(values);
     expect(bins.reduce((s, b) => s + b.count, 0)).toBe(200);
-    const svg = histogram({ id: 'h', title: 't', caption: 'c', values, x: { label: 'profit', unit: 'HLV' }, y: { label: 'days', unit: 'count' } }).text;
+    const svg = histogram({ ...base('h'), values, x: { label: 'profit', unit: 'HLV' }, y: { label: 'days', unit: 'count' } }).text;
     expect(elements(svg, 'rect', 'bar').map((r) => Number(r.attrs['data-count']))).toEqual(bins.filter((b) => b.count > 0).map((b) => b.count));
   });
 });
@@ -158,7 +154,7 @@ describe('heatMap', () => {
     expect(bestCell([[null]], 'max')).toBeNull();
   });
   it('the extremes take the ends of the sequential scale; the best cell is outlined; a missing cell says so', () => {
-    const svg = heatMap({ id: 'hm', title: 't', caption: 'c', x: days(3), y: days(2), values, value: { label: 'profit', unit: 'HLV' }, best: 'max' }).text;
+    const svg = heatMap({ ...base('hm'), x: days(3), y: days(2), values, value: { label: 'profit', unit: 'HLV' }, best: 'max' }).text;
     const cells = elements(svg, 'rect', 'cell');
     expect(cells).toHaveLength(6);
     const at = (r: number, c: number) => cells.find((e) => e.attrs['data-row'] === String(r) && e.attrs['data-column'] === String(c));
@@ -174,7 +170,7 @@ describe('heatMap', () => {
 
 describe('calibrationPlot', () => {
   it('a square plot with the diagonal from (0, 0) to (1, 1)', () => {
-    const svg = calibrationPlot({ id: 'cal', title: 't', caption: 'c', series: [{ name: 'm', nominal: [0.1, 0.5, 0.9], observed: [0.12, 0.5, 0.85] }] }).text;
+    const svg = calibrationPlot({ ...base('cal'), series: [{ name: 'm', nominal: [0.1, 0.5, 0.9], observed: [0.12, 0.5, 0.85] }] }).text;
     const d = elements(svg, 'line', 'diagonal')[0];
     expect(d).toBeDefined();
     const width = (d?.num('x2') as number) - (d?.num('x1') as number);
@@ -206,7 +202,7 @@ describe('every chart', () => {
     expect(numbers.filter((n) => /\.\d{3,}/.test(n))).toEqual([]);
   });
   it('rendering does not mutate frozen input', () => {
-    const spec = deepFreeze({ id: 'z', title: 't', caption: 'c', x: days(3), y: { label: 'y', unit: '-' }, series: [{ name: 's', values: [3, 1, 2] }] });
+    const spec = deepFreeze({ ...base('z'), x: days(3), y: { label: 'y', unit: '-' }, series: [{ name: 's', values: [3, 1, 2] }] });
     expect(() => lineChart(spec)).not.toThrow();
     expect(() => barChart(spec)).not.toThrow();
   });
