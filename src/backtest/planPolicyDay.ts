@@ -1,7 +1,7 @@
 import type { BatteryModel, DayOutcome, DayProblem, HistoryDay, MarketSpec, Order, QuantileDay } from '../types.js';
 import { planDay } from '../plan/planDay.js';
 import { scheduleOrders } from '../plan/scheduleOrders.js';
-import { solveDay, type SolveDayOptions } from '../plan/solveDay.js';
+import { NodeLimitError, solveDay, type SolveDayOptions } from '../plan/solveDay.js';
 import { ordersByPeriod } from '../settle/ordersByPeriod.js';
 import type { BacktestPolicy } from './backtestPolicy.js';
 
@@ -29,7 +29,14 @@ export type PolicyDayPlan =
       /** Objective of the plan at the prices it was scheduled on [currency]. */
       readonly plannedValue: number;
     }
-  | { readonly status: 'infeasible' | 'unbounded'; readonly reason: string; readonly orders: readonly (Order | null)[] };
+  | { readonly status: PlanFailure; readonly reason: string; readonly orders: readonly (Order | null)[] };
+
+/**
+ * Why a policy has no plan for a day: the day problem has no feasible or bounded schedule, or the
+ * exact solver could not prove an optimum within its node budget (never a silent suboptimum: the
+ * policy then places no orders, and the backtest lists the day).
+ */
+export type PlanFailure = 'infeasible' | 'unbounded' | 'node-limit';
 
 /**
  * One policy's orders for one day. `quantile`, `median` and `point` are planDay itself;
@@ -39,8 +46,16 @@ export type PolicyDayPlan =
  * bids at the cap and floor. Without a plan the policy places no orders that day.
  */
 export function planPolicyDay(request: PolicyDayRequest): PolicyDayPlan {
-  const { policy, forecast, market, battery, alpha, socStartMwh, solveOptions } = request;
-  if (policy === 'perfect-foresight') return perfectForesight(request);
+  try {
+    return request.policy === 'perfect-foresight' ? perfectForesight(request) : fromForecast(request, request.policy);
+  } catch (err) {
+    if (!(err instanceof NodeLimitError)) throw err;
+    return { status: 'node-limit', reason: err.message, orders: new Array<Order | null>(request.forecast.periods.length).fill(null) };
+  }
+}
+
+function fromForecast(request: PolicyDayRequest, policy: Exclude<BacktestPolicy, 'perfect-foresight'>): PolicyDayPlan {
+  const { forecast, market, battery, alpha, socStartMwh, solveOptions } = request;
   const plan = planDay({ forecast, market, battery, policy: policy === 'price-taking' ? 'point' : policy, alpha, socStartMwh, solveOptions });
   if (plan.status !== 'optimal') return noPlan(plan, forecast.periods.length);
   const orders = policy === 'price-taking' ? atFloorAndCap(plan.orders, market) : plan.orders;
@@ -60,8 +75,9 @@ function perfectForesight(request: PolicyDayRequest): PolicyDayPlan {
   };
   const outcome = solveDay(problem, request.solveOptions);
   if (outcome.status !== 'optimal') return noPlan(outcome, prices.length);
-  const levels = { buyPricePerMwh: [...prices], sellPricePerMwh: [...prices], buyLimitPerMwh: [...prices], sellLimitPerMwh: [...prices], buyLevel: 0.5, sellLevel: 0.5 };
-  const orders = atFloorAndCap(scheduleOrders(realised.periods, outcome.schedule, levels), market);
+  // Limits and levels are placeholders here: atFloorAndCap replaces them.
+  const realisedPrices = { buyPricePerMwh: [...prices], sellPricePerMwh: [...prices], buyLimitPerMwh: [...prices], sellLimitPerMwh: [...prices], buyLevel: 0.5, sellLevel: 0.5 };
+  const orders = atFloorAndCap(scheduleOrders(realised.periods, outcome.schedule, realisedPrices), market);
   return { status: 'optimal', orders: ordersByPeriod(realised.periods, orders), plannedValue: outcome.objective };
 }
 

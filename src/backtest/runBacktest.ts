@@ -5,7 +5,7 @@ import { chooseFallbackSource, dayFallbackPrices, NoFallbackPriceError, type Fal
 import { settleDay, type SettledPeriod, type UnacceptedPolicy } from '../settle/settleDay.js';
 import type { SettlementTotals } from '../settle/settlementTotals.js';
 import { BACKTEST_POLICIES, type BacktestPolicy } from './backtestPolicy.js';
-import { planPolicyDay } from './planPolicyDay.js';
+import { planPolicyDay, type PlanFailure } from './planPolicyDay.js';
 
 /** Quantile forecasts by day, and the days the forecast file left out (a QuantileForecastFile fits). */
 export interface ForecastDays {
@@ -55,7 +55,7 @@ export const BACKTEST_DEFAULTS: BacktestOptions = Object.freeze({
 export interface PolicyDay {
   readonly policy: BacktestPolicy;
   /** `optimal`, or why the policy had no plan and placed no orders that day. */
-  readonly planStatus: 'optimal' | 'infeasible' | 'unbounded';
+  readonly planStatus: 'optimal' | PlanFailure;
   readonly planReason: string | null;
   /** Objective of the plan at the prices it was scheduled on [currency]; null without a plan. */
   readonly plannedValue: number | null;

@@ -63,8 +63,12 @@ function batteryCrossChecks(spec: z.infer<typeof batteryFields>, ctx: z.Refineme
   if (min >= max) {
     ctx.addIssue({ code: 'custom', path: ['socMaxFraction'], message: `socMaxFraction (${max}) must be above socMinFraction (${min})` });
   }
-  for (const field of ['socInitialFraction', 'socFinalMinFraction'] as const) {
-    const value = fractionOr(raw[field], field === 'socInitialFraction' ? BATTERY_DEFAULTS.socInitialFraction : min);
+  // socFinalMinFraction has no default to check: left out, the floor is the day's starting state.
+  const inWindow = [
+    ['socInitialFraction', fractionOr(raw.socInitialFraction, BATTERY_DEFAULTS.socInitialFraction)],
+    ['socFinalMinFraction', raw.socFinalMinFraction === undefined ? undefined : fractionOr(raw.socFinalMinFraction, min)],
+  ] as const;
+  for (const [field, value] of inWindow) {
     if (value !== undefined && (value < min || value > max)) {
       ctx.addIssue({ code: 'custom', path: [field], message: `${field} (${value}) is outside the window [${min}, ${max}]` });
     }

@@ -1,6 +1,7 @@
+import { existsSync, statSync } from 'node:fs';
 import { relative } from 'node:path';
 import type { Command } from 'commander';
-import { InputError } from '../io/inputError.js';
+import { throwIfProblems, type InputProblem } from '../io/inputError.js';
 import { readScenario } from '../io/readScenario.js';
 
 /** The input-file options every command shares. */
@@ -28,19 +29,32 @@ export function addInputOptions(command: Command, names: readonly InputName[]): 
 
 /**
  * Input paths from explicit flags, else from the scenario file. A missing input is a command-line
- * problem; all missing ones are listed together.
+ * problem, a scenario entry naming a file that does not exist a problem of the scenario file; all are
+ * listed together.
  */
 export function resolveInputs<N extends InputName>(flags: InputFlags, names: readonly N[]): { paths: Record<N, string>; demoDay?: string } {
   const scenario = flags.scenario === undefined ? undefined : readScenario(flags.scenario);
   const paths = {} as Record<N, string>;
-  const missing: N[] = [];
+  const problems: InputProblem[] = [];
   for (const name of names) {
-    const path = flags[name] ?? (scenario?.[name] === undefined ? undefined : relative(process.cwd(), scenario[name] as string));
-    if (path === undefined) missing.push(name);
-    else paths[name] = path;
+    const named = flags[name] === undefined ? scenario?.[name] : undefined;
+    const path = flags[name] ?? (named === undefined ? undefined : relative(process.cwd(), named));
+    if (path === undefined) {
+      problems.push({ file: 'command line', field: `--${name}`, message: `no ${name} file given`, fix: `give --${name} FILE, or --scenario FILE with a "${name}" entry` });
+    } else if (scenario !== undefined && named !== undefined && !isFile(named)) {
+      const line = scenario.lines[name];
+      const what = existsSync(named) ? 'which is not a file' : 'which does not exist';
+      problems.push({ file: scenario.file, ...(line === undefined ? {} : { line }), field: name, message: `names ${path}, ${what}`, fix: `give the ${name} file's path relative to the scenario file, or --${name} FILE` });
+    } else paths[name] = path;
   }
-  if (missing.length > 0) {
-    throw new InputError(missing.map((name) => ({ file: 'command line', field: `--${name}`, message: `no ${name} file given`, fix: `give --${name} FILE, or --scenario FILE with a "${name}" entry` })));
-  }
+  throwIfProblems(problems);
   return scenario?.demoDay === undefined ? { paths } : { paths, demoDay: scenario.demoDay };
+}
+
+function isFile(path: string): boolean {
+  try {
+    return statSync(path).isFile();
+  } catch {
+    return false;
+  }
 }

@@ -1,11 +1,10 @@
 import { Command } from 'commander';
-import type { MarketSpec, PlanPolicy, QuantileDay } from '../types.js';
+import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../types.js';
 import { batteryModel } from '../battery/batterySpec.js';
 import { LevelOutOfRangeError } from '../forecast/quantileSet.js';
-import { InputError } from '../io/inputError.js';
+import { gatherProblems, InputError, type InputProblem } from '../io/inputError.js';
 import { jsonText, ordersCsv, scheduleCsv } from '../io/planOutputs.js';
-import { readInputFile } from '../io/readInputFile.js';
-import { parseQuantileForecast, type QuantileForecastFile } from '../io/readQuantileForecast.js';
+import { readQuantileForecast, type QuantileForecastFile } from '../io/readQuantileForecast.js';
 import { readBatterySpec, readMarketSpec } from '../io/readSpecs.js';
 import { checkOutputFolder, writeOutputs } from '../io/writeOutputs.js';
 import { planDay, type PlanResult } from '../plan/planDay.js';
@@ -64,10 +63,7 @@ export function runPlan(flags: PlanFlags, io: CliIo): void {
     throw new InputError([{ file: 'command line', field: '--report', message: 'report.html needs a folder to go to', fix: 'add --out DIR' }]);
   }
   if (flags.out !== undefined) checkOutputFolder(flags.out, flags.report === true ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS, flags.force === true);
-  const market = readMarketSpec(paths.market);
-  const spec = readBatterySpec(paths.battery);
-  const battery = batteryModel(spec);
-  const forecastFile = parseQuantileForecast(readInputFile(paths.forecast), paths.forecast, market);
+  const { market, battery, forecastFile } = readPlanInputs(paths);
   const forecast = forecastDay(forecastFile, day);
   const socStartMwh = flags.socStart ?? battery.socInitialMwh;
   if (flags.socStart !== undefined && (socStartMwh < battery.socMinMwh || socStartMwh > battery.socMaxMwh)) {
@@ -90,8 +86,25 @@ export function runPlan(flags: PlanFlags, io: CliIo): void {
       flags.force === true,
     );
   }
+  // Repaired, not refused (DESIGN.md section 6); said on stderr so that --json output stays clean.
+  if (forecastFile.repairedPeriods > 0) {
+    io.stderr(`note: ${paths.forecast}: ${forecastFile.repairedPeriods} periods had crossing quantiles, sorted into order (monotone rearrangement), e.g. ${forecastFile.repairedExamples[0] ?? ''}\n`);
+  }
   if (flags.json === true) io.stdout(jsonText(summary));
-  else io.stdout(planSummaryText(result, forecast, market, day, flags, flags.out));
+  else io.stdout(planSummaryText(result, forecast, market, day, flags, flags.out, flags.report === true ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS));
+}
+
+/**
+ * The market spec, the battery and the forecast (which needs the market). Every file is read even when
+ * one before it has problems, and all problems are thrown together.
+ */
+function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>): { market: MarketSpec; battery: BatteryModel; forecastFile: QuantileForecastFile } {
+  const problems: InputProblem[] = [];
+  const market = gatherProblems(problems, () => readMarketSpec(paths.market));
+  const spec = gatherProblems(problems, () => readBatterySpec(paths.battery));
+  const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecast(paths.forecast, market));
+  if (market === undefined || spec === undefined || forecastFile === undefined) throw new InputError(problems);
+  return { market, battery: batteryModel(spec), forecastFile };
 }
 
 function forecastDay(file: QuantileForecastFile, day: string): QuantileDay {

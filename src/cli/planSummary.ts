@@ -13,6 +13,7 @@ export function planSummaryText(
   day: string,
   options: { readonly policy: string; readonly alpha: number },
   outDir: string | undefined,
+  written: readonly string[] = ['orders.csv', 'schedule.csv', 'plan.json'],
 ): string {
   const dt = result.problem.periodHours;
   const money = (x: number) => `${formatNumber(x, 2)} ${market.currency}`;
@@ -28,7 +29,7 @@ export function planSummaryText(
     `  state of charge [MWh] from ${formatNumber(result.problem.socStartMwh, 2)}, at the end of each hour:`,
     `    ${hourlySoc(forecast, result.outcome.schedule.socMwh).join(' ')}`,
   ];
-  if (outDir !== undefined) lines.push(`  wrote ${outDir}/orders.csv, schedule.csv, plan.json`);
+  if (outDir !== undefined) lines.push(`  wrote ${written.map((name, i) => (i === 0 ? `${outDir}/${name}` : name)).join(', ')}`);
   return `${lines.join('\n')}\n`;
 }
 

@@ -65,7 +65,7 @@ export interface ForecastOptions {
  * Defaults: windows of 56, 91, 182 and 364 days (two short, two long: Hubicka, Marcjasz and Weron
  * 2019 found mixing short and long windows best), at least 28 usable training days per window,
  * 182 calibration days (at least 28), the weekly naive lag, QRA over the ARX windows, no paths, and
- * a LASSO path of 30 penalties down to lambda_max / 1000.
+ * the LASSO path of LASSO_DEFAULTS (20 penalties down to lambda_max / 100).
  */
 export const DEFAULTS: ForecastOptions = Object.freeze({
   windowsDays: Object.freeze([56, 91, 182, 364]),

@@ -118,8 +118,16 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
     edge: metrics.edge,
     socEndMwh: result.socEndMwh,
     skippedDays: result.skippedDays,
+    plansMissing: plansMissing(result),
     months: metrics.months,
   };
+}
+
+/** Policy-days without a plan (no orders placed), with the reason. */
+function plansMissing(result: BacktestResult): { day: string; policy: string; status: string; reason: string }[] {
+  return result.days.flatMap((day) =>
+    day.runs.filter((run) => run.planStatus !== 'optimal').map((run) => ({ day: day.day, policy: run.policy, status: run.planStatus, reason: run.planReason ?? '' })),
+  );
 }
 
 /** The short human summary printed on stdout. */
@@ -138,9 +146,17 @@ export function backtestSummaryText(result: BacktestResult, metrics: BacktestMet
     line(header),
     ...rows.map(line),
     `  ${edgeLine(metrics)}`,
+    ...missingLine(result),
     `  wrote ${outDir}/ledger.csv, days.csv, summary.json`,
   ];
   return `${lines.join('\n')}\n`;
+}
+
+function missingLine(result: BacktestResult): string[] {
+  const missing = plansMissing(result);
+  if (missing.length === 0) return [];
+  const shown = missing.slice(0, 3).map((m) => `${m.policy} on ${m.day} (${m.status})`).join(', ');
+  return [`  no plan, so no orders, for ${missing.length} policy-day${missing.length > 1 ? 's' : ''}: ${shown}${missing.length > 3 ? ', ...' : ''} (see plansMissing in summary.json)`];
 }
 
 function edgeLine(metrics: BacktestMetrics): string {

@@ -74,3 +74,17 @@ export class ProblemList {
     throw new InputError([...this.items, { file: last.file, message: more, fix: `fix the first ${this.limit} and run again; so many usually means a wrong file, column order or market spec` }]);
   }
 }
+
+/**
+ * Runs a reader and keeps its problems instead of throwing them, so that several files can be checked
+ * in one run and all their problems listed together. Returns undefined when the reader found problems.
+ */
+export function gatherProblems<T>(problems: InputProblem[], read: () => T): T | undefined {
+  try {
+    return read();
+  } catch (err) {
+    if (!(err instanceof InputError)) throw err;
+    problems.push(...err.problems);
+    return undefined;
+  }
+}

@@ -79,13 +79,14 @@ export function zodProblems(
   file: string,
   text: string,
   fixFor: (field: string) => string,
+  value?: unknown,
 ): InputProblem[] {
   return error.issues.flatMap((issue): InputProblem[] => {
     if (issue.code === 'unrecognized_keys') {
       return issue.keys.map((key) => problemAt(file, text, [...issue.path, key], 'unknown field', 'remove it or check its spelling against the README'));
     }
     if (issue.path.length === 0 && issue.code === 'invalid_type') {
-      return [{ file, field: '(top level)', message: `the file holds ${jsonKind(issue.input)}, not a JSON object`, fix: 'a spec is one JSON object such as {"energyMwh": 10, ...}; see the file formats in the README' }];
+      return [{ file, field: '(top level)', message: `the file holds ${jsonKind(value)}, not a JSON object`, fix: 'a spec is one JSON object such as {"energyMwh": 10, ...}; see the file formats in the README' }];
     }
     const field = issue.path.map(String).join('.') || '(top level)';
     return [problemAt(file, text, issue.path, issue.message, fixFor(field))];
@@ -100,5 +101,5 @@ function problemAt(file: string, text: string, keys: readonly PropertyKey[], mes
 function jsonKind(value: unknown): string {
   if (value === null) return 'null';
   if (Array.isArray(value)) return 'an array';
-  return typeof value === 'string' ? 'a text' : `a ${typeof value}`;
+  return typeof value === 'string' ? 'a text' : typeof value === 'number' ? 'a number' : `a ${typeof value} value`;
 }

@@ -90,7 +90,10 @@ export function jsonSyntaxError(text: string): JsonSyntaxError | null {
         i++;
         continue;
       }
-      if (text[i] !== ',') return fail(`"," or "${close}"`);
+      if (text[i] !== ',') {
+        if (startsValue(text[i])) return { offset: i, message: 'a comma is missing before this entry', fix: 'end the entry before with a comma' };
+        return fail(`"," or "${close}"`);
+      }
       const comma = i;
       i++;
       skipSpace();
@@ -102,6 +105,11 @@ export function jsonSyntaxError(text: string): JsonSyntaxError | null {
       break;
     }
   }
+}
+
+/** Whether a character can start a JSON value (or, in an object, a field name). */
+function startsValue(c: string | undefined): boolean {
+  return c !== undefined && /["{[\d\-tfn]/.test(c);
 }
 
 function matchAt(pattern: RegExp, text: string, at: number): boolean {

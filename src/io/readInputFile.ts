@@ -1,7 +1,7 @@
 import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
-import { gunzipSync } from 'node:zlib';
+import { constants, gunzipSync } from 'node:zlib';
 import { InputError, type InputProblem } from './inputError.js';
-import { sniffText, type FirstLineCheck } from './sniffText.js';
+import { SNIFF_BYTES, sniffText, type FirstLineCheck } from './sniffText.js';
 
 /**
  * Largest input file read whole [bytes], compressed or not; larger files are refused before reading.
@@ -10,8 +10,6 @@ import { sniffText, type FirstLineCheck } from './sniffText.js';
  */
 export const MAX_INPUT_BYTES = 500 * 1024 * 1024;
 
-/** How many bytes are looked at before a file is read whole [bytes]. */
-export const SNIFF_BYTES = 64 * 1024;
 
 export interface ReadInputOptions {
   /** Largest file accepted [bytes], default MAX_INPUT_BYTES (JSON specs pass far less). */
@@ -39,14 +37,29 @@ export function readInputFile(path: string, options: ReadInputOptions = {}): str
     if (size > 0 && !(head[0] === 0x1f && head[1] === 0x8b)) {
       throw new InputError([{ file: path, message: 'is named .gz but is not gzip-compressed', fix: 'decompress it yourself or rename it without .gz' }]);
     }
+    const plainHead = gunzipHead(head);
+    sniff(path, plainHead.subarray(0, SNIFF_BYTES), plainHead.length > SNIFF_BYTES || size > GZIP_SNIFF_BYTES, options);
   } else {
     sniff(path, head, size > head.length, options);
   }
   const bytes = attempt(path, () => readFileSync(path));
-  if (!gzip) return bytes.toString('utf8');
-  const plain = gunzipBytes(path, bytes, maxBytes);
-  sniff(path, plain.subarray(0, SNIFF_BYTES), plain.length > SNIFF_BYTES, options);
-  return plain.toString('utf8');
+  return (gzip ? gunzipBytes(path, bytes, maxBytes) : bytes).toString('utf8');
+}
+
+/** Compressed bytes looked at to sniff a gzip file [bytes]: they decompress to a few MiB at most. */
+const GZIP_SNIFF_BYTES = 4096;
+
+/**
+ * The start of a gzip file's content from its first compressed bytes, without decompressing the rest
+ * (a sync flush accepts input cut anywhere). Empty when those bytes do not decompress: the full read
+ * then names the damage.
+ */
+function gunzipHead(compressed: Buffer): Buffer {
+  try {
+    return gunzipSync(compressed.subarray(0, GZIP_SNIFF_BYTES), { finishFlush: constants.Z_SYNC_FLUSH, maxOutputLength: 16 * 1024 * 1024 });
+  } catch {
+    return Buffer.alloc(0);
+  }
 }
 
 function sniff(path: string, head: Buffer, more: boolean, options: ReadInputOptions): void {

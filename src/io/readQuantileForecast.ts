@@ -121,15 +121,16 @@ function longGrid(rows: readonly CsvRow[], file: string, market: MarketSpec, pro
   const byStamp = new Map<string, LongGroup>();
   for (const row of rows) {
     if (problems.full) break;
-    if (row.cells.length !== 3) {
-      problems.add(fieldCountProblem(row, 3, file, 'give period_start,level,price on every line'));
-      continue;
-    }
     const stamp = row.cells[0] as string;
     let group = byStamp.get(stamp);
     if (group === undefined) {
       group = { stamp, line: row.line, prices: new Map(), valid: true };
       byStamp.set(stamp, group);
+    }
+    if (row.cells.length !== 3) {
+      problems.add(fieldCountProblem(row, 3, file, 'give period_start,level,price on every line'));
+      group.valid = false;
+      continue;
     }
     const level = levelCell(row.cells[1] as string);
     const price = priceCell(row.cells[2] as string, market);

@@ -20,15 +20,18 @@ export function parseJsonSpec<T>(
   if ('problem' in json) throw new InputError([json.problem]);
   const result = parse(json.value);
   if (!result.success) {
-    throw new InputError(zodProblems(result.error, file, text, (field) => fixes[field] ?? 'see the file formats in the README'));
+    throw new InputError(zodProblems(result.error, file, text, (field) => fixes[field] ?? 'see the file formats in the README', json.value));
   }
   return result.data;
 }
 
+/** Largest spec file [bytes]: a spec holds a dozen numbers, so anything bigger is the wrong file. */
+export const MAX_SPEC_BYTES = 1024 * 1024;
+
 export function readMarketSpec(path: string): MarketSpec {
-  return parseJsonSpec(readInputFile(path), path, parseMarketSpec, MARKET_FIELD_FIXES);
+  return parseJsonSpec(readInputFile(path, { maxBytes: MAX_SPEC_BYTES }), path, parseMarketSpec, MARKET_FIELD_FIXES);
 }
 
 export function readBatterySpec(path: string): BatterySpec {
-  return parseJsonSpec(readInputFile(path), path, parseBatterySpec, BATTERY_FIELD_FIXES);
+  return parseJsonSpec(readInputFile(path, { maxBytes: MAX_SPEC_BYTES }), path, parseBatterySpec, BATTERY_FIELD_FIXES);
 }

@@ -1,5 +1,8 @@
 import type { InputProblem } from './inputError.js';
 
+/** How many bytes are looked at before a file is read whole [bytes]. */
+export const SNIFF_BYTES = 64 * 1024;
+
 /** Checks a CSV header line (1-based `line` in the file) and returns the problems found. */
 export type FirstLineCheck = (header: string, line: number) => readonly InputProblem[];
 
@@ -9,7 +12,8 @@ export type FirstLineCheck = (header: string, line: number) => readonly InputPro
  * wrong or longer than the bytes looked at. Returns the problems found (none: read on).
  *
  * @param head the first bytes of the file (all of it when `more` is false)
- * @param more whether the file goes on after `head`
+ * @param more whether the file goes on after `head`; when it does and `head` is shorter than
+ *   SNIFF_BYTES (the start of a compressed file), a first line that runs past `head` is not judged
  */
 export function sniffText(file: string, head: Buffer, more: boolean, firstLine?: FirstLineCheck): InputProblem[] {
   const kind = binaryKind(head);
@@ -22,6 +26,7 @@ export function sniffText(file: string, head: Buffer, more: boolean, firstLine?:
   for (let line = 1; ; line++) {
     const found = lineBreak.exec(body);
     if (found === null && more) {
+      if (head.length < SNIFF_BYTES) return [];
       return [{ file, line, message: `line ${line} is longer than ${head.length} bytes: this is not a CSV file with a header line`, fix: 'check that this is the right file' }];
     }
     const content = body.slice(start, found === null ? body.length : found.index);

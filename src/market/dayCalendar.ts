@@ -1,5 +1,5 @@
 import type { DeliveryPeriod } from '../types.js';
-import { deliveryPeriods, isValidDay } from './calendar.js';
+import { dayOfInstant, deliveryPeriods, isValidDay } from './calendar.js';
 
 /** The periods of each delivery day of one market, computed once per day and kept. */
 export class DayCalendar {
@@ -77,16 +77,31 @@ export function locatePeriod(text: string, calendar: DayCalendar): LocatedPeriod
   const position = first === undefined ? -1 : (startMs - first.startMs) / stepMs;
   const period = Number.isInteger(position) ? periods[position] : undefined;
   if (period === undefined) {
+    const own = periodAt(startMs, calendar);
+    if (own !== undefined) return offsetMismatch(text, offset, own, calendar);
     const aligned = Number.isInteger((startMs - (first?.startMs ?? 0)) / stepMs);
     return aligned
-      ? { ok: false, message: `timestamp "${text}" is not in delivery day ${day} of ${calendar.timeZone} (offset ${offset} does not match the zone on that date)`, fix: `use the local time with the zone's offset on that date, e.g. ${periods[0]?.start ?? ''}` }
+      ? { ok: false, message: `timestamp "${text}" is not in delivery day ${day} of ${calendar.timeZone}`, fix: `use the local time with the zone's offset on that date, e.g. ${periods[0]?.start ?? ''}` }
       : { ok: false, message: `timestamp "${text}" is not the start of a ${calendar.periodMinutes}-minute delivery period`, fix: `period starts fall on multiples of ${calendar.periodMinutes} minutes` };
   }
-  const expectedOffset = period.start.slice(-6);
-  if (offset !== expectedOffset) {
-    return { ok: false, message: `offset ${offset} in "${text}" does not match ${calendar.timeZone} on that date (${expectedOffset})`, fix: `write each period start with the zone's offset at that instant: this instant is ${period.start}` };
-  }
+  if (offset !== period.start.slice(-6)) return offsetMismatch(text, offset, period, calendar);
   return { ok: true, day, index: position, startMs };
+}
+
+/** The period that starts at an instant, in whichever delivery day holds it, or undefined. */
+function periodAt(startMs: number, calendar: DayCalendar): DeliveryPeriod | undefined {
+  const periods = calendar.periodsIfValid(dayOfInstant(startMs, calendar.timeZone));
+  if (periods === null || 'uncut' in periods) return undefined;
+  return periods.find((p) => p.startMs === startMs);
+}
+
+/** A timestamp naming the start of `period` with another offset than the zone's at that instant. */
+function offsetMismatch(text: string, offset: string, period: DeliveryPeriod, calendar: DayCalendar): LocatedPeriod {
+  return {
+    ok: false,
+    message: `offset ${offset} in "${text}" does not match ${calendar.timeZone} on that date (${period.start.slice(-6)})`,
+    fix: `write each period start with the zone's offset at that instant: this instant is ${period.start}`,
+  };
 }
 
 function normaliseOffset(offset: string): string {

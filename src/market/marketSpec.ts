@@ -13,7 +13,7 @@ export const marketSpecSchema = z
   .strictObject({
     timeZone: text('timeZone').refine(isValidTimeZone, { message: 'not an IANA time zone' }),
     periodMinutes: z.union([z.literal(15), z.literal(30), z.literal(60)], {
-      error: 'periodMinutes must be 15, 30 or 60',
+      error: (issue) => (issue.input === undefined ? 'missing periodMinutes' : 'periodMinutes must be 15, 30 or 60'),
     }),
     priceFloor: finite('priceFloor'),
     priceCap: finite('priceCap'),

@@ -14,9 +14,20 @@ const SMALL: Partial<ForecastOptions> = {
 const LEVELS = [0.05, 0.1, 0.25, 0.5, 0.75, 0.9, 0.95];
 const history = syntheticHistory({ days: 130, periodMinutes: 60, seed: 7, shortDay: 100, longDay: 120 });
 
-/** The history with every price from day `from` on replaced by `f(price)`. */
+/**
+ * The history with every price from day `from` on replaced by `f(price)`, and the exogenous columns
+ * of the days after it scaled (those of day `from` itself may be read: known before gate closure).
+ */
 function changedFrom(h: PriceHistory, from: number, f: (p: number, d: number, t: number) => number): PriceHistory {
-  const days: HistoryDay[] = h.days.map((day, d) => (d < from ? day : { ...day, pricePerMwh: day.pricePerMwh.map((p, t) => f(p, d, t)) }));
+  const days: HistoryDay[] = h.days.map((day, d) =>
+    d < from
+      ? day
+      : {
+          ...day,
+          pricePerMwh: day.pricePerMwh.map((p, t) => f(p, d, t)),
+          exogenous: d === from ? day.exogenous : { load_mw: day.exogenous.load_mw!.map((v) => 2 * v) },
+        },
+  );
   return { ...h, days };
 }
 
@@ -75,8 +86,15 @@ describe('Forecaster', () => {
     for (const method of ['qra', 'lasso-hs'] as ForecastMethod[]) {
       const fresh = forecastDay(history, 118, LEVELS, method, SMALL);
       const used = new Forecaster(history, SMALL);
-      for (let d = 100; d <= 118; d++) used.forecast(d, [0.1, 0.3, 0.5, 0.7, 0.9], method);
+      for (let d = 112; d <= 118; d++) used.forecast(d, [0.1, 0.3, 0.5, 0.7, 0.9], method);
       expect(used.forecast(118, LEVELS, method).quantiles.prices).toEqual(fresh.quantiles.prices);
+    }
+  });
+
+  it('naive-hs centres on the same slot naiveLagDays back', () => {
+    for (const lag of [1, 7]) {
+      const day = forecastDay(history, 110, LEVELS, 'naive-hs', { ...SMALL, naiveLagDays: lag });
+      expect(day.point).toEqual(history.days[110 - lag]!.pricePerMwh);
     }
   });
 

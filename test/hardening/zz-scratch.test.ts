@@ -1,11 +1,18 @@
 import { it } from 'vitest';
-import { unevenClockShift } from '../../src/market/clockShifts.js';
-import { IANAZone } from 'luxon';
-it('x', () => {
-  const t0 = performance.now();
-  const zones = Intl.supportedValuesOf('timeZone');
-  const bad: string[] = [];
-  for (const z of zones) { const s = unevenClockShift(z, 60); if (s !== null) bad.push(`${z}:${s}`); }
-  console.log(zones.length, (performance.now() - t0) / zones.length, bad.join(' '));
-  console.log(unevenClockShift('Europe/Berlin', 15), unevenClockShift('Australia/Lord_Howe', 30));
-});
+import { readFileSync, writeFileSync } from 'node:fs';
+import { caseArgv, prepareOut, runCli, scratchFolder, snapshot, type CorpusCase, type Manifest } from './corpusRunner.js';
+it('explore', async () => {
+  const draft = JSON.parse(readFileSync('/tmp/cases_draft.json', 'utf8')) as { cases: CorpusCase[] };
+  const manifest: Manifest = { defaults: { day: '2027-06-15', inputs: { market: 'base/market.json', battery: 'base/battery.json', forecast: 'base/quantilesWide.csv' } }, cases: draft.cases, historyCases: [] };
+  const report: unknown[] = [];
+  for (const c of draft.cases) {
+    const scratch = scratchFolder();
+    const { out } = prepareOut(c.out ?? 'fresh', scratch.path);
+    const before = snapshot(out);
+    const run = await runCli(caseArgv(manifest, c, out));
+    const after = snapshot(out);
+    report.push({ name: c.name, want: c.exit, code: run.code, same: JSON.stringify(before) === JSON.stringify(after), stderr: run.stderr.replaceAll(out, '{OUT}').split('\n') });
+    scratch.done();
+  }
+  writeFileSync('/tmp/explore.json', JSON.stringify(report, null, 1));
+}, 120000);

@@ -19,9 +19,14 @@ export interface LassoOptions {
   readonly maxSweeps: number;
 }
 
+/**
+ * Defaults: 20 penalties from lambda_max down to lambda_max / 100 (a step of 0.785; below 1/100 the
+ * fit is close to least squares, which BIC's penalty on df rarely prefers), glmnet's convergence
+ * threshold 1e-7, at most 1000 sweeps per penalty.
+ */
 export const LASSO_DEFAULTS: LassoOptions = Object.freeze({
-  pathLength: 30,
-  minRatio: 1e-3,
+  pathLength: 20,
+  minRatio: 1e-2,
   tolerance: 1e-7,
   maxSweeps: 1000,
 });
@@ -59,8 +64,8 @@ export interface LassoFit {
  * keeping the gradient c - G beta up to date in O(k) per change. The path runs over pathLength values
  * lambda_m = lambda_max minRatio^(m / (pathLength - 1)), lambda_max = max_j |c_j| (the smallest
  * penalty with all beta = 0), each started from the previous solution (warm starts), sweeping the
- * non-zero coefficients between full sweeps (active set). Once a full sweep leaves the support and
- * signs unchanged, the exact solution for them, beta_A = G_AA^{-1}(c_A - lambda sign(beta_A)), is tried and kept
+ * non-zero coefficients between full sweeps (active set). After each full sweep and every fourth
+ * sweep, the exact solution for the current support and signs, beta_A = G_AA^{-1}(c_A - lambda sign(beta_A)), is tried and kept
  * when it meets the optimality (KKT) conditions (the active-set view of Osborne, Presnell and
  * Turlach 2000), which ends the descent early with the exact answer. On each,
  *   RSS/n = var(y) - 2 beta'c + beta'G beta,
@@ -116,8 +121,6 @@ interface Workspace {
   readonly candidate: Float64Array;
   readonly nextGrad: Float64Array;
   readonly support: Int32Array;
-  /** Signs of beta after the previous full sweep. */
-  readonly signs: Int8Array;
 }
 
 function workspace(k: number): Workspace {
@@ -127,7 +130,6 @@ function workspace(k: number): Workspace {
     candidate: new Float64Array(k),
     nextGrad: new Float64Array(k),
     support: new Int32Array(k),
-    signs: new Int8Array(k),
   };
 }
 
@@ -142,27 +144,20 @@ function coordinateDescent(
   const { k } = gram;
   const limit = opts.tolerance * gram.yVariance;
   const active: number[] = [];
-  work.signs.fill(2);
   for (let sweep = 0; sweep < opts.maxSweeps; ) {
     // A full sweep over all columns, then sweeps over the non-zero ones until they settle
     // (the active-set strategy of Friedman, Hastie and Tibshirani 2010, section 2.6).
     let moved = sweepColumns(gram, lambda, beta, grad, null);
     sweep++;
-    if (moved <= limit) return;
-    // Once a full sweep leaves the support and signs as they were, try the exact solution on them.
-    let settled = true;
-    for (let j = 0; j < k; j++) {
-      const sign = Math.sign(beta[j] as number);
-      if (sign !== work.signs[j]) settled = false;
-      work.signs[j] = sign;
-    }
-    if (settled && exactOnSupport(gram, lambda, beta, grad, work)) return;
+    if (moved <= limit || exactOnSupport(gram, lambda, beta, grad, work)) return;
     active.length = 0;
     for (let j = 0; j < k; j++) if ((beta[j] as number) !== 0) active.push(j);
     while (sweep < opts.maxSweeps) {
       moved = sweepColumns(gram, lambda, beta, grad, active);
       sweep++;
       if (moved <= limit) break;
+      // Every few sweeps, try the exact solution on the support and signs reached.
+      if (sweep % 4 === 0 && exactOnSupport(gram, lambda, beta, grad, work)) return;
     }
   }
 }

@@ -10,7 +10,7 @@ export interface QuantileRegressionFit {
   readonly coefficients: Float64Array;
   /** sum_i rho_tau(y_i - x_i b), the minimised objective. */
   readonly objective: number;
-  /** The k rows with zero residual that fix the vertex (X_h b = y_h), ascending by position. */
+  /** The k rows with zero residual that fix the vertex (X_h b = y_h), in ascending row order. */
   readonly basis: Int32Array;
   /**
    * With options.dual: a dual solution a in [0, 1]^n with X'a = (1 - tau) X'1 and
@@ -57,7 +57,7 @@ export interface QuantileRegressionOptions {
  * z_j the columns of X_h^{-1}, psi_i = tau for a positive residual and tau - 1 for a negative one
  * (a zero residual off the basis keeps the side it was last on), and v = sum_{i not in h} psi_i x_i,
  * the basic subgradients are s = -X_h^{-T} v; the vertex is optimal when tau - 1 <= s_j <= tau for all
- * j (then 0 is in the subdifferential: an exact test, no tolerance on the objective). Otherwise the
+ * j (then 0 is in the subdifferential; 1e-10 is allowed for rounding). Otherwise the
  * edge b + t sigma z_j (t >= 0) with the most negative directional derivative,
  * (1 - tau) + s_j for sigma = +1 or tau - s_j for sigma = -1, is followed: R is convex and piecewise
  * linear along it, its slope growing by |x_i sigma z_j| where the residual of row i changes sign at
@@ -66,6 +66,12 @@ export interface QuantileRegressionOptions {
  * replaces h_j in the basis. Every non-degenerate step lowers R, so the method ends at an optimal
  * vertex; ties are broken by row order, so the result is deterministic. The dual certificate (on
  * request) is a_i = psi_i + 1 - tau off the basis and s_j + 1 - tau on it.
+ *
+ * The pivots update X_h^{-1}, b, the residuals and v in O(nk) each (product-form update, with a full
+ * recomputation every 32 pivots); at the optimum b is recomputed from the basis in row order, so that
+ * one basis always gives the same bits. A warm start (initialBasis or initialCoefficients) that ends
+ * on an optimum that may not be unique is replaced by the cold-start answer, so the result never
+ * depends on the start.
  *
  * The design must have full column rank (see `independentColumns`); include a column of ones for an
  * intercept. Exactness: the coefficients solve X_h b = y_h for the optimal basis (Koenker and Bassett

@@ -71,7 +71,8 @@ const LAGS = [1, 2, 7] as const;
  * 10(1), 321-323, doi:10.1109/TSTE.2018.2869557.
  *
  * @returns the forecast (members = one per window, in the order of windowsDays), or null when a
- *   window has fewer than minTrainingDays usable days or a lag day of the delivery day is missing
+ *   window has fewer than minTrainingDays usable days or no past day lies 7 days before the delivery
+ *   day or earlier
  */
 export function arxForecast(view: HistoryView, settings: ArxSettings): PointForecast | null {
   const targetLags = LAGS.map((lag) => view.indexAtOrBefore(view.target.dayNumber - lag));

@@ -48,6 +48,7 @@ export function weekdayOf(dayNumber: number): number {
  */
 export class GridCache {
   private readonly days = new WeakMap<HistoryDay, GriddedDay>();
+  private readonly dayNumbers = new WeakMap<HistoryDay, number>();
 
   constructor(
     readonly exogenousNames: readonly string[],
@@ -59,7 +60,7 @@ export class GridCache {
     if (cached !== undefined) return cached;
     const layout = this.layoutOf(source.periods, `${field}.periods`);
     requireFinite(source.pricePerMwh, source.periods.length, `${field}.pricePerMwh`);
-    const dayNumber = dayNumberOf(source.day);
+    const dayNumber = this.dayNumber(source);
     const gridded: GriddedDay = {
       day: source.day,
       dayNumber,
@@ -69,6 +70,16 @@ export class GridCache {
     };
     this.days.set(source, gridded);
     return gridded;
+  }
+
+  /** The day number of a history day (kept). */
+  dayNumber(source: HistoryDay): number {
+    let dn = this.dayNumbers.get(source);
+    if (dn === undefined) {
+      dn = dayNumberOf(source.day);
+      this.dayNumbers.set(source, dn);
+    }
+    return dn;
   }
 
   target(source: HistoryDay, field: string): TargetDay {
@@ -126,7 +137,8 @@ export class HistoryView {
     readonly target: TargetDay,
     private readonly grids: GridCache,
   ) {
-    this.dayNumbers = Int32Array.from(pastDays, (d) => dayNumberOf(d.day));
+    this.dayNumbers = new Int32Array(pastDays.length);
+    pastDays.forEach((d, i) => (this.dayNumbers[i] = grids.dayNumber(d)));
     for (let i = 1; i < this.dayNumbers.length; i++) {
       if ((this.dayNumbers[i] as number) <= (this.dayNumbers[i - 1] as number)) {
         throw new ForecastInputError(`history.days[${i}]`, `${pastDays[i]?.day} does not follow ${pastDays[i - 1]?.day}`, 'sort the days in ascending order without repeats');

@@ -1,6 +1,6 @@
 import { relaxDay, type RelaxStatus } from './cycleCapDual.js';
 import type { DayContext } from './dayContext.js';
-import { CHARGE_ONLY, DISCHARGE_ONLY, LineSolution, SWEEP_OK } from './lineSweep.js';
+import { CHARGE_ONLY, DISCHARGE_ONLY, LineSolution, SWEEP_OK, SWEEP_TOO_LARGE } from './lineSweep.js';
 import { netPeriod, revalue } from './netFlows.js';
 
 /**
@@ -21,8 +21,8 @@ import { netPeriod, revalue } from './netFlows.js';
  */
 export type BranchOutcome =
   | { readonly status: 'optimal'; readonly nodes: number }
-  | { readonly status: 'infeasible'; readonly cause: Exclude<RelaxStatus, typeof SWEEP_OK> }
-  | { readonly status: 'node-limit'; readonly nodes: number };
+  | { readonly status: 'infeasible'; readonly cause: Exclude<RelaxStatus, typeof SWEEP_OK | typeof SWEEP_TOO_LARGE> }
+  | { readonly status: 'gave-up'; readonly nodes: number; readonly why: 'nodes' | 'breakpoints' };
 
 const TINY_SHARE = 1e-12;
 
@@ -34,10 +34,11 @@ export function branchOnArbitrage(ctx: DayContext, maxNodes: number, best: LineS
   let bestValue = -Infinity;
   let nodes = 0;
   while (stack.length > 0) {
-    if (nodes >= maxNodes) return { status: 'node-limit', nodes };
+    if (nodes >= maxNodes) return { status: 'gave-up', nodes, why: 'nodes' };
     const modes = stack.pop()!;
     nodes++;
     const status = relaxDay(ctx, modes, node);
+    if (status === SWEEP_TOO_LARGE) return { status: 'gave-up', nodes, why: 'breakpoints' };
     if (status !== SWEEP_OK) {
       if (nodes === 1) return { status: 'infeasible', cause: status };
       continue;

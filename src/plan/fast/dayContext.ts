@@ -37,8 +37,8 @@ export class SweepSolver implements MuSolver {
 export class DpSolver implements MuSolver {
   private readonly dp: ValueDp;
 
-  constructor(day: StoredDay) {
-    this.dp = new ValueDp(day);
+  constructor(day: StoredDay, maxBreakpoints: number) {
+    this.dp = new ValueDp(day, maxBreakpoints);
   }
 
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {

@@ -31,7 +31,9 @@ import type { StoredDay } from './storedDay.js';
 export const SWEEP_OK = 0;
 export const SWEEP_START_UNREACHABLE = 1;
 export const SWEEP_END_UNREACHABLE = 2;
-export type SweepStatus = typeof SWEEP_OK | typeof SWEEP_START_UNREACHABLE | typeof SWEEP_END_UNREACHABLE;
+/** The dynamic program (valueDp.ts) gave up: its value functions outgrew their breakpoint budget. */
+export const SWEEP_TOO_LARGE = 4;
+export type SweepStatus = typeof SWEEP_OK | typeof SWEEP_START_UNREACHABLE | typeof SWEEP_END_UNREACHABLE | typeof SWEEP_TOO_LARGE;
 
 /** Per-period restriction set by the branch and bound. */
 export const FREE = 0;

@@ -164,7 +164,7 @@ export function slideMax(f: Pwl, a: number, b: number, sigma: number, out: Pwl):
     }
     while (j < n && xs[j]! + L <= e0) j++;
     const e1 = Math.min(i < n ? xs[i]! : Infinity, j < n ? xs[j]! + L : Infinity);
-    while (tail > head && xs[deque[head]!]! < e1 - L) head++;
+    while (tail > head && xs[deque[head]!]! + L < e1) head++;
     let count = 0;
     if (i < n) {
       // H(r) on the piece [x_{i-1}, x_i]

@@ -8,13 +8,15 @@ import { toStoredDay, type StoredDay } from './storedDay.js';
 
 /** Options of solveDayFast, merged over FAST_SOLVER_DEFAULTS. */
 export interface FastSolverOptions {
-  /** Most branch-and-bound nodes over arbitrage periods before answering `not-covered`. */
-  readonly maxNodes: number;
-  /** How arbitrage periods get one mode: the exact dynamic program, or branching on the chord sweep. */
-  readonly exactModes: 'program' | 'branch';
+  /** Branch-and-bound nodes on the chord sweep before the dynamic program takes over. */
+  readonly sweepNodes: number;
+  /** Branch-and-bound nodes with the dynamic program (only a binding cycle cap needs more than one). */
+  readonly programNodes: number;
+  /** Most breakpoints of one value function in the dynamic program before answering `not-covered`. */
+  readonly maxBreakpoints: number;
 }
 
-export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ maxNodes: 20_000, exactModes: 'program' });
+export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ sweepNodes: 64, programNodes: 256, maxBreakpoints: 400 });
 
 /** A DayOutcome, or `not-covered` when the caller must fall back to the general LP path. */
 export type FastDayOutcome = DayOutcome | { readonly status: 'not-covered'; readonly reason: string };
@@ -31,8 +33,12 @@ export const FAST_SOLVER_NAME = 'fast-warehouse-sweep';
  * (cycleCapDual.ts), and complementarity in arbitrage periods by branch and bound over those
  * periods only (arbitrageBranching.ts). Outside arbitrage periods no branching is needed.
  *
+ * Arbitrage periods are first branched on with the chord sweep (fast when the chord relaxation is
+ * tight: wide windows); past `sweepNodes` the exact dynamic program (valueDp.ts) takes over (fast
+ * when the window is narrow against the power steps).
+ *
  * Returns `optimal` with the schedule in grid units (MW; socMwh by the recursion of section 4),
- * `infeasible` with a reason, or `not-covered` (fastSolverGap, or the node limit reached).
+ * `infeasible` with a reason, or `not-covered` (fastSolverGap, or both budgets spent).
  */
 export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOptions> = {}): FastDayOutcome {
   const settings: FastSolverOptions = { ...FAST_SOLVER_DEFAULTS, ...options };
@@ -41,17 +47,25 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
   const b = problem.battery;
   if (b.socMinMwh > b.socMaxMwh) return { status: 'infeasible', reason: `the state-of-charge window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh is empty` };
   const day = toStoredDay(problem);
-  const ctx = new DayContext(day, day.arbitrageCount === 0 || settings.exactModes === 'branch' ? new SweepSolver(day) : new DpSolver(day));
   const best = new LineSolution(day.periods);
-  const outcome = branchOnArbitrage(ctx, settings.maxNodes, best);
-  if (outcome.status === 'node-limit') return { status: 'not-covered', reason: `no proven optimum within ${outcome.nodes} branch-and-bound nodes` };
+  let ctx = new DayContext(day, new SweepSolver(day));
+  let outcome = branchOnArbitrage(ctx, day.arbitrageCount === 0 ? Infinity : settings.sweepNodes, best);
+  let nodes = outcome.status === 'gave-up' ? outcome.nodes : 0;
+  if (outcome.status === 'gave-up') {
+    ctx = new DayContext(day, new DpSolver(day, settings.maxBreakpoints));
+    outcome = branchOnArbitrage(ctx, settings.programNodes, best);
+  }
+  if (outcome.status === 'gave-up') {
+    const limit = outcome.why === 'nodes' ? `${settings.programNodes} branch-and-bound nodes` : `${settings.maxBreakpoints} breakpoints per value function`;
+    return { status: 'not-covered', reason: `no proven optimum within ${settings.sweepNodes} chord-sweep nodes and ${limit}` };
+  }
   if (outcome.status === 'infeasible') {
     if (outcome.cause === SWEEP_START_UNREACHABLE) return { status: 'infeasible', reason: startReason(problem) };
     if (outcome.cause === CAP_UNREACHABLE) return { status: 'infeasible', reason: capReason(problem, ctx.below.discharged * b.dischargeEfficiency) };
     return { status: 'infeasible', reason: endReason(problem, day) };
   }
   const schedule = toSchedule(problem, day, best);
-  return { status: 'optimal', schedule, objective: objective(problem, schedule), solver: FAST_SOLVER_NAME, nodes: outcome.nodes };
+  return { status: 'optimal', schedule, objective: objective(problem, schedule), solver: FAST_SOLVER_NAME, nodes: nodes + outcome.nodes };
 }
 
 /** Grid units: c_t = x_t / (eta_c dt), d_t = eta_d y_t / dt (exactly the limit at x = X, y = Y). */

@@ -1,4 +1,4 @@
-import { CHARGE_ONLY, DISCHARGE_ONLY, edgeTolerance, LineSolution, SWEEP_END_UNREACHABLE, SWEEP_OK, SWEEP_START_UNREACHABLE, type SweepStatus } from './lineSweep.js';
+import { CHARGE_ONLY, DISCHARGE_ONLY, edgeTolerance, LineSolution, SWEEP_END_UNREACHABLE, SWEEP_OK, SWEEP_START_UNREACHABLE, SWEEP_TOO_LARGE, type SweepStatus } from './lineSweep.js';
 import { clip, maxOf, Pwl, slideMax, valueAt } from './pwl.js';
 import type { StoredDay } from './storedDay.js';
 
@@ -17,6 +17,9 @@ import type { StoredDay } from './storedDay.js';
  * recovered backwards: s_{t-1} maximises F_{t-1}(u) + k_t(s_t - u), whose maximum lies at a
  * breakpoint of F_{t-1}, at u = s_t (the kink of k_t) or at an end of the allowed range.
  * Every period's move is then one signed w_t, so x_t y_t = 0 by construction.
+ * Cost: linear in the breakpoints of the F_t, which stay few when the window is narrow against the
+ * power steps but can grow with many arbitrage periods in a wide window; past `maxBreakpoints` in
+ * one F_t the program gives up (SWEEP_TOO_LARGE) rather than run long.
  */
 export class ValueDp {
   private xsPool: Float64Array;
@@ -28,7 +31,10 @@ export class ValueDp {
   private readonly h = new Pwl();
   private readonly k = new Pwl();
 
-  constructor(private readonly day: StoredDay) {
+  constructor(
+    private readonly day: StoredDay,
+    private readonly maxBreakpoints: number,
+  ) {
     this.xsPool = new Float64Array(16 * (day.periods + 1));
     this.vsPool = new Float64Array(16 * (day.periods + 1));
     this.start = new Int32Array(day.periods + 1);
@@ -67,6 +73,7 @@ export class ValueDp {
         next = h;
       }
       if (!clip(next, day.socMinMwh, day.socMaxMwh, eps, f)) return SWEEP_START_UNREACHABLE;
+      if (f.n > this.maxBreakpoints) return SWEEP_TOO_LARGE;
       used = this.store(t + 1, f, used);
     }
     const floor = day.socEndFloorMwh;

@@ -1,0 +1,5 @@
+/** Scores of quantile forecasts: pinball loss, CRPS (as mean pinball, factor 2 not included), coverage, calibration. */
+export { crpsFromQuantiles, crpsNormal } from './crps.js';
+export { pinballLoss } from './pinball.js';
+export { scoreForecasts } from './scoreForecasts.js';
+export type { IntervalCoverage, ScoreTable, ScoredDay, Scores } from './scoreForecasts.js';
