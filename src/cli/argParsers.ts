@@ -36,3 +36,9 @@ export function oneOf<T extends string>(allowed: readonly T[]): (value: string) 
     return value as T;
   };
 }
+
+/** A file or folder path: anything but empty (an unset shell variable gives an empty argument). */
+export function parsePathArg(value: string): string {
+  if (value.trim() === '') throw new InvalidArgumentError('the path is empty; give a file or folder name (is a shell variable unset?)');
+  return value;
+}

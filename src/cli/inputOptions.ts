@@ -3,6 +3,7 @@ import { relative } from 'node:path';
 import type { Command } from 'commander';
 import { throwIfProblems, type InputProblem } from '../io/inputError.js';
 import { readScenario } from '../io/readScenario.js';
+import { parsePathArg } from './argParsers.js';
 
 /** The input-file options every command shares. */
 export interface InputFlags {
@@ -16,14 +17,14 @@ export interface InputFlags {
 export type InputName = 'market' | 'battery' | 'forecast' | 'history';
 
 export function addInputOptions(command: Command, names: readonly InputName[]): Command {
-  command.option('--scenario <file>', 'scenario JSON naming the input files (paths relative to it)');
+  command.option('--scenario <file>', 'scenario JSON naming the input files (paths relative to it)', parsePathArg);
   const help: Record<InputName, string> = {
     market: 'market spec JSON (time zone, period length, price floor and cap)',
     battery: 'battery spec JSON (energy, power, efficiency, state-of-charge window)',
     forecast: 'quantile forecast CSV, wide or long layout (.csv or .csv.gz)',
     history: 'price history CSV: period_start,price[,fallback_price,...] (.csv or .csv.gz)',
   };
-  for (const name of names) command.option(`--${name} <file>`, `${help[name]}; overrides the scenario's`);
+  for (const name of names) command.option(`--${name} <file>`, `${help[name]}; overrides the scenario's`, parsePathArg);
   return command;
 }
 

@@ -9,7 +9,7 @@ import { readBatterySpec, readMarketSpec } from '../io/readSpecs.js';
 import { checkOutputFolder, writeOutputs } from '../io/writeOutputs.js';
 import { planDay, type PlanResult } from '../plan/planDay.js';
 import { planReport } from '../report/planReport.js';
-import { oneOf, parseAlphaArg, parseDayArg, parseNonNegativeArg } from './argParsers.js';
+import { oneOf, parseAlphaArg, parseDayArg, parseNonNegativeArg, parsePathArg } from './argParsers.js';
 import { addInputOptions, resolveInputs, type InputFlags } from './inputOptions.js';
 import { planSummaryText } from './planSummary.js';
 import type { CliIo } from './cliIo.js';
@@ -35,7 +35,7 @@ export function planCommand(io: CliIo): Command {
     .option('--alpha <a>', 'central interval [q(alpha), q(1-alpha)]: buys limited at q(1-alpha), sells at q(alpha)', parseAlphaArg, PLAN_DEFAULTS.alpha)
     .option('--policy <name>', 'quantile | median | point', oneOf<PlanPolicy>(['quantile', 'median', 'point']), PLAN_DEFAULTS.policy)
     .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh)', parseNonNegativeArg)
-    .option('--out <dir>', 'folder for orders.csv, schedule.csv and plan.json')
+    .option('--out <dir>', 'folder for orders.csv, schedule.csv and plan.json', parsePathArg)
     .option('--report', 'also write report.html into --out: forecast fan with the limit prices, schedule charts, orders table')
     .option('--force', 'overwrite existing outputs')
     .option('--json', 'print the summary as JSON on stdout');

@@ -59,13 +59,17 @@ export function separatorProblem(headerLine: string, file: string, line: number)
   };
 }
 
-/** A field count that does not match the header, with the usual cause when there are more fields. */
-export function fieldCountProblem(row: CsvRow, expected: number, file: string, fix: string): InputProblem {
-  const more = row.cells.length > expected;
+/**
+ * A row whose field count does not match the header, naming the first missing column (or the first
+ * extra one), with the usual cause when there are more fields.
+ */
+export function fieldCountProblem(row: CsvRow, header: readonly string[], file: string, fix: string): InputProblem {
+  const more = row.cells.length > header.length;
   return {
     file,
     line: row.line,
-    message: `${row.cells.length} fields, the header has ${expected}`,
+    field: more ? `column ${header.length + 1}` : (header[row.cells.length] ?? ''),
+    message: `${row.cells.length} fields, the header has ${header.length}`,
     fix: more ? `${fix}; a decimal comma (42,5) splits a number in two: use a dot (42.5)` : fix,
   };
 }

@@ -10,7 +10,6 @@ import { SNIFF_BYTES, sniffText, type FirstLineCheck } from './sniffText.js';
  */
 export const MAX_INPUT_BYTES = 500 * 1024 * 1024;
 
-
 export interface ReadInputOptions {
   /** Largest file accepted [bytes], default MAX_INPUT_BYTES (JSON specs pass far less). */
   readonly maxBytes?: number;

@@ -73,7 +73,7 @@ function wideGrid(header: readonly string[], levels: readonly number[], rows: re
   for (const row of rows) {
     if (problems.full) break;
     if (row.cells.length !== header.length) {
-      problems.add(fieldCountProblem(row, header.length, file, 'give one value per column on every line'));
+      problems.add(fieldCountProblem(row, header, file, 'give one value per column on every line'));
       continue;
     }
     const prices: number[] = [];
@@ -116,6 +116,8 @@ interface LongGroup {
   valid: boolean;
 }
 
+const LONG_HEADER = ['period_start', 'level', 'price'] as const;
+
 function longGrid(rows: readonly CsvRow[], file: string, market: MarketSpec, problems: ProblemList): ForecastGrid {
   const levelSet = new Set<number>();
   const byStamp = new Map<string, LongGroup>();
@@ -128,7 +130,7 @@ function longGrid(rows: readonly CsvRow[], file: string, market: MarketSpec, pro
       byStamp.set(stamp, group);
     }
     if (row.cells.length !== 3) {
-      problems.add(fieldCountProblem(row, 3, file, 'give period_start,level,price on every line'));
+      problems.add(fieldCountProblem(row, LONG_HEADER, file, 'give period_start,level,price on every line'));
       group.valid = false;
       continue;
     }

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import type { BatteryModel, DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory, QuantileDay } from '../../src/types.js';
-import type { ForecastDays } from '../../src/backtest/runBacktest.js';
+import type { BacktestInput } from '../../src/backtest/runBacktest.js';
 import { shiftDay } from '../../src/market/calendar.js';
 
 /**
@@ -12,14 +12,7 @@ import { shiftDay } from '../../src/market/calendar.js';
 export const LEVELS = Object.freeze([0.1, 0.5, 0.9]);
 export const FIRST_DAY = '2026-03-02';
 
-export interface RandomMarket {
-  readonly market: MarketSpec;
-  readonly battery: BatteryModel;
-  readonly history: PriceHistory;
-  readonly forecast: ForecastDays;
-  readonly from: string;
-  readonly to: string;
-}
+export type RandomMarket = BacktestInput;
 
 const periodArb = fc.record({
   median: fc.double({ min: -60, max: 250, noNaN: true }),
@@ -28,17 +21,28 @@ const periodArb = fc.record({
   surprise: fc.double({ min: -1.5, max: 1.5, noNaN: true }),
 });
 
-const batteryArb = fc.record({
-  energyMwh: fc.double({ min: 1, max: 20, noNaN: true }),
-  chargeMw: fc.double({ min: 0.5, max: 10, noNaN: true }),
-  dischargeMw: fc.double({ min: 0.5, max: 10, noNaN: true }),
-  eta: fc.double({ min: 0.7, max: 1, noNaN: true }),
-  minFrac: fc.double({ min: 0, max: 0.3, noNaN: true }),
-  maxFrac: fc.double({ min: 0.6, max: 1, noNaN: true }),
-  startFrac: fc.double({ min: 0, max: 1, noNaN: true }),
-  cycles: fc.option(fc.double({ min: 0.3, max: 3, noNaN: true }), { nil: undefined }),
-  deg: fc.double({ min: 0, max: 10, noNaN: true }),
-});
+/** A random battery: split efficiencies, a window, a start inside it, maybe a cycle cap, a wear cost. */
+export const batteryModelArb: fc.Arbitrary<BatteryModel> = fc
+  .record({
+    energyMwh: fc.double({ min: 1, max: 20, noNaN: true }),
+    chargeMw: fc.double({ min: 0.5, max: 10, noNaN: true }),
+    dischargeMw: fc.double({ min: 0.5, max: 10, noNaN: true }),
+    etaC: fc.double({ min: 0.7, max: 1, noNaN: true }),
+    etaD: fc.double({ min: 0.7, max: 1, noNaN: true }),
+    window: fc.tuple(fc.double({ min: 0, max: 0.3, noNaN: true }), fc.double({ min: 0.6, max: 1, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true })),
+    cycles: fc.option(fc.double({ min: 0.3, max: 3, noNaN: true }), { nil: undefined }),
+    deg: fc.double({ min: 0, max: 10, noNaN: true }),
+  })
+  .map((b) => {
+    const [minFrac, maxFrac, startFrac] = b.window;
+    const socMinMwh = minFrac * b.energyMwh;
+    const socMaxMwh = maxFrac * b.energyMwh;
+    return Object.freeze({
+      energyMwh: b.energyMwh, chargeMw: b.chargeMw, dischargeMw: b.dischargeMw, chargeEfficiency: b.etaC, dischargeEfficiency: b.etaD,
+      socMinMwh, socMaxMwh, socInitialMwh: socMinMwh + startFrac * (socMaxMwh - socMinMwh), socFinalMinMwh: undefined,
+      maxDischargeMwhPerDay: b.cycles === undefined ? undefined : b.cycles * (socMaxMwh - socMinMwh), degradationCostPerMwh: b.deg,
+    });
+  });
 
 /** A random market of `days` days with 4 to 8 hourly periods each and a fallback penalty in [0, 40]. */
 export function randomMarketArb(days: number): fc.Arbitrary<RandomMarket> {
@@ -46,10 +50,10 @@ export function randomMarketArb(days: number): fc.Arbitrary<RandomMarket> {
     .record({
       periods: fc.integer({ min: 4, max: 8 }),
       draws: fc.array(fc.array(periodArb, { minLength: 8, maxLength: 8 }), { minLength: days, maxLength: days }),
-      battery: batteryArb,
+      battery: batteryModelArb,
       penalty: fc.double({ min: 0, max: 40, noNaN: true }),
     })
-    .map(({ periods, draws, battery: b, penalty }) => {
+    .map(({ periods, draws, battery, penalty }) => {
       const market: MarketSpec = Object.freeze({
         timeZone: 'UTC', periodMinutes: 60, priceFloor: -100, priceCap: 1000, currency: 'TST', gateClosure: '12:00',
         fallback: Object.freeze({ kind: 'clearing-plus-penalty' as const, penaltyPerMwh: penalty }),
@@ -65,13 +69,6 @@ export function randomMarketArb(days: number): fc.Arbitrary<RandomMarket> {
         const realised = cells.map((c) => clamp(c.median + c.surprise * (c.surprise < 0 ? c.below : c.above)));
         forecastDays.set(day, Object.freeze({ day, levels: LEVELS, periods: ps, prices: Object.freeze(prices.map((r) => Object.freeze(r))) }));
         historyDays.push(Object.freeze({ day, periods: ps, pricePerMwh: Object.freeze(realised), fallbackPricePerMwh: null, exogenous: {} }));
-      });
-      const socMinMwh = b.minFrac * b.energyMwh;
-      const socMaxMwh = b.maxFrac * b.energyMwh;
-      const battery: BatteryModel = Object.freeze({
-        energyMwh: b.energyMwh, chargeMw: b.chargeMw, dischargeMw: b.dischargeMw, chargeEfficiency: b.eta, dischargeEfficiency: b.eta,
-        socMinMwh, socMaxMwh, socInitialMwh: socMinMwh + b.startFrac * (socMaxMwh - socMinMwh), socFinalMinMwh: undefined,
-        maxDischargeMwhPerDay: b.cycles === undefined ? undefined : b.cycles * (socMaxMwh - socMinMwh), degradationCostPerMwh: b.deg,
       });
       return {
         market,

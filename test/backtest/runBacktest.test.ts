@@ -1,9 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import type { PriceHistory } from '../../src/types.js';
+import type { BatteryModel, HistoryDay, PriceHistory, QuantileDay } from '../../src/types.js';
 import { backtestMetrics } from '../../src/backtest/backtestMetrics.js';
 import { runBacktest, type BacktestResult } from '../../src/backtest/runBacktest.js';
+import { planPolicyDay } from '../../src/backtest/planPolicyDay.js';
 import { NoFallbackPriceError } from '../../src/settle/fallbackPrices.js';
 import { battery, history, input, market } from './handWorkedWeek.js';
+import { hourlyPeriods } from './randomMarket.js';
 
 // The inputs and the hand arithmetic are in handWorkedWeek.ts.
 
@@ -76,5 +78,33 @@ describe('runBacktest inputs', () => {
     const lean = runBacktest(input, { policies: ['point'], keepLedger: false });
     expect(lean.days.every((d) => d.runs.every((r) => r.ledger === null))).toBe(true);
     expect(() => runBacktest({ ...input, from: '2026-05-09' })).toThrow(RangeError);
+  });
+});
+
+describe('planPolicyDay', () => {
+  // Two hours, median -100 then 50 (spread 2), efficiency 0.9 both ways, window [0, 0.45] MWh: at -100
+  // the relaxation would charge and discharge at once, so the exact solver must branch (one node is not enough).
+  const day = '2026-05-04';
+  const forecast: QuantileDay = { day, levels: [0.1, 0.5, 0.9], periods: hourlyPeriods(day, 2), prices: [[-102, -100, -98], [48, 50, 52]] };
+  const realised: HistoryDay = { day, periods: hourlyPeriods(day, 2), pricePerMwh: [-100, 50], fallbackPricePerMwh: null, exogenous: {} };
+  const small: BatteryModel = { ...battery, energyMwh: 1, chargeMw: 1, dischargeMw: 1, chargeEfficiency: 0.9, dischargeEfficiency: 0.9, socMaxMwh: 0.45 };
+  const request = { forecast, realised, market, battery: small, alpha: 0.1, socStartMwh: 0, solveOptions: {} };
+
+  it('without a proven optimum in the node budget the policy places no orders and says why', () => {
+    const plan = planPolicyDay({ ...request, policy: 'point', solveOptions: { maxNodes: 1 } });
+    expect(plan.status).toBe('node-limit');
+    expect(plan.orders).toEqual([null, null]);
+  });
+
+  it('price-taking bids the point plan at the cap and the floor; perfect foresight too, on the realised prices', () => {
+    // Point plan (= perfect foresight here, the median is realised): buy 0.5 MW at -100 (stores 0.45 MWh),
+    // sell 0.45 x 0.9 = 0.405 MW at 50 (test/plan/handWorked.test.ts works the same day).
+    for (const policy of ['price-taking', 'perfect-foresight'] as const) {
+      const plan = planPolicyDay({ ...request, policy });
+      expect(plan.status).toBe('optimal');
+      expect(plan.orders.map((o) => [o?.side, o?.limitPrice, o?.quantileLevel])).toEqual([['buy', 1000, null], ['sell', -100, null]]);
+      expect(plan.orders[0]?.quantityMw).toBeCloseTo(0.5, 6);
+      expect(plan.orders[1]?.quantityMw).toBeCloseTo(0.405, 6);
+    }
   });
 });

@@ -61,7 +61,7 @@ describe('parseQuantileForecast', () => {
     const lines = problems(text.replace(',1,2,3\n', ',1,2;5,3\n'));
     expect(lines).toContain('q.csv:3: q0.1: NaN is not a finite number; give a finite price; drop the row or the day if the value is unknown');
     expect(lines).toContain('q.csv:4: q0.9: Infinity is not a finite number; give a finite price; drop the row or the day if the value is unknown');
-    expect(lines.some((l) => l.startsWith('q.csv:2: 5 fields, the header has 4'))).toBe(true);
+    expect(lines.some((l) => l.startsWith('q.csv:2: column 5: 5 fields, the header has 4'))).toBe(true);
   });
 
   it('names levels given as percentages, levels out of order, and a semicolon file', () => {

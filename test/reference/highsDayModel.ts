@@ -129,8 +129,6 @@ export function dayModelText(problem: DayProblem, integer: boolean): string {
 /** Solves the day with a fresh HiGHS instance from LP text: the MIP (`integer`) or its LP relaxation. */
 export function solveDayWithHighs(highs: Highs, problem: DayProblem, integer: boolean): HighsDayOutcome {
   const periods = problem.buyPricePerMwh.length;
-  const endFloor = Math.max(problem.battery.socMinMwh, problem.socEndMinMwh);
-  if (endFloor > problem.battery.socMaxMwh) return { status: 'infeasible' };
   const result = highs.solve(dayModelText(problem, integer), HIGHS_EXACT_OPTIONS);
   if (result.Status === 'Infeasible') return { status: 'infeasible' };
   if (result.Status !== 'Optimal') return { status: 'other', detail: result.Status };

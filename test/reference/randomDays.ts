@@ -18,7 +18,7 @@ import type { BatteryModel, DayProblem } from '../../src/types.js';
 export interface RandomDayOptions {
   /** Number of periods: 24 (hours) or 92, 96, 100 (quarter-hours). */
   readonly periods?: 24 | 92 | 96 | 100;
-  /** Force a stretch of negative prices in the day. */
+  /** true: force a stretch of negative prices; false: no negative prices (clamped at 0). */
   readonly negativePrices?: boolean;
   /** Force the cycle cap on (true) or off (false). */
   readonly cycleCap?: boolean;
@@ -74,7 +74,8 @@ export function randomDay(caseName: string, options: RandomDayOptions = {}): Day
   const periods = options.periods ?? rng.pick([24, 92, 96, 100] as const);
   const periodHours = periods === 24 ? 1 : 0.25;
   const battery = randomBattery(rng, options.cycleCap ?? rng.chance(0.5));
-  const median = randomPrices(rng, periods, options.negativePrices ?? rng.chance(0.5));
+  const negative = options.negativePrices ?? rng.chance(0.5);
+  const median = randomPrices(rng, periods, negative).map((m) => (options.negativePrices === false ? Math.max(0, m) : m));
   const pointPolicy = rng.chance(0.4);
   const spreadScale = rng.pick([0.5, 3, 15]);
   const buy: number[] = [];
@@ -82,7 +83,7 @@ export function randomDay(caseName: string, options: RandomDayOptions = {}): Day
   for (const m of median) {
     const half = pointPolicy ? 0 : cents(spreadScale * rng.next());
     buy.push(cents(m + half));
-    sell.push(cents(m - half));
+    sell.push(cents(options.negativePrices === false ? Math.max(0, m - half) : m - half));
   }
   const { socMinMwh: low, socMaxMwh: high } = battery;
   const socStartMwh = rng.pick([low, high, low + (high - low) * rng.next()]);

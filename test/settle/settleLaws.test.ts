@@ -3,42 +3,12 @@ import { describe, expect, it } from 'vitest';
 import type { BatteryModel } from '../../src/types.js';
 import { isAccepted } from '../../src/settle/acceptance.js';
 import { settleDay, type PeriodOrder, type SettleDayInput } from '../../src/settle/settleDay.js';
+import { batteryModelArb } from '../backtest/randomMarket.js';
 
 // Laws of one day's settlement (DESIGN.md section 5) on seeded random days and random orders (fast-check,
 // fixed seeds). The orders need not come from a plan: the laws hold for any orders.
 
 const SEED = 20260501;
-
-const batteryArb = fc
-  .record({
-    energyMwh: fc.double({ min: 1, max: 20, noNaN: true }),
-    chargeMw: fc.double({ min: 0.5, max: 10, noNaN: true }),
-    dischargeMw: fc.double({ min: 0.5, max: 10, noNaN: true }),
-    etaC: fc.double({ min: 0.7, max: 1, noNaN: true }),
-    etaD: fc.double({ min: 0.7, max: 1, noNaN: true }),
-    minFrac: fc.double({ min: 0, max: 0.3, noNaN: true }),
-    maxFrac: fc.double({ min: 0.6, max: 1, noNaN: true }),
-    startFrac: fc.double({ min: 0, max: 1, noNaN: true }),
-    deg: fc.double({ min: 0, max: 10, noNaN: true }),
-  })
-  .map((b): { battery: BatteryModel; start: number } => {
-    const socMinMwh = b.minFrac * b.energyMwh;
-    const socMaxMwh = b.maxFrac * b.energyMwh;
-    const battery = {
-      energyMwh: b.energyMwh,
-      chargeMw: b.chargeMw,
-      dischargeMw: b.dischargeMw,
-      chargeEfficiency: b.etaC,
-      dischargeEfficiency: b.etaD,
-      socMinMwh,
-      socMaxMwh,
-      socInitialMwh: socMinMwh,
-      socFinalMinMwh: undefined,
-      maxDischargeMwhPerDay: undefined,
-      degradationCostPerMwh: b.deg,
-    };
-    return { battery, start: socMinMwh + b.startFrac * (socMaxMwh - socMinMwh) };
-  });
 
 const price = fc.double({ min: -200, max: 500, noNaN: true });
 const orderArb = fc.option(
@@ -48,7 +18,7 @@ const orderArb = fc.option(
 const periodArb = fc.record({ order: orderArb, clearing: price, fallbackBuy: price, fallbackSell: price });
 
 const dayArb = fc.record({
-  unit: batteryArb,
+  battery: batteryModelArb,
   periods: fc.array(periodArb, { minLength: 1, maxLength: 12 }),
   periodHours: fc.constantFrom(0.25, 0.5, 1),
   unaccepted: fc.constantFrom('follow-plan' as const, 'follow-accepted' as const),
@@ -59,8 +29,8 @@ type DayDraw = typeof dayArb extends fc.Arbitrary<infer T> ? T : never;
 function input(draw: DayDraw, overrides: Partial<SettleDayInput> = {}): SettleDayInput {
   return Object.freeze({
     periodHours: draw.periodHours,
-    battery: Object.freeze(draw.unit.battery),
-    socStartMwh: draw.unit.start,
+    battery: draw.battery,
+    socStartMwh: draw.battery.socInitialMwh,
     orders: Object.freeze(draw.periods.map((p) => (p.order === null ? null : Object.freeze(p.order as PeriodOrder)))),
     clearingPricePerMwh: Object.freeze(draw.periods.map((p) => p.clearing)),
     fallback: Object.freeze({ buyPerMwh: Object.freeze(draw.periods.map((p) => p.fallbackBuy)), sellPerMwh: Object.freeze(draw.periods.map((p) => p.fallbackSell)) }),
@@ -87,8 +57,8 @@ describe('settleDay laws', () => {
   it('the state of charge follows s + eta_c charged - discharged / eta_d and stays in the window', () => {
     fc.assert(
       fc.property(dayArb, (draw) => {
-        const { battery } = draw.unit;
-        let s = draw.unit.start;
+        const { battery } = draw;
+        let s = draw.battery.socInitialMwh;
         for (const p of settleDay(input(draw)).periods) {
           const next = s + battery.chargeEfficiency * p.chargedMwh - p.dischargedMwh / battery.dischargeEfficiency;
           expect(Math.abs(p.socMwh - next)).toBeLessThanOrEqual(1e-8 * Math.max(1, battery.energyMwh));
@@ -111,7 +81,7 @@ describe('settleDay laws', () => {
           const d = draw.periods[t] as (typeof draw.periods)[number];
           const auction = d.clearing * (p.soldAuctionMwh - p.boughtAuctionMwh);
           const fallback = d.fallbackSell * p.soldFallbackMwh - d.fallbackBuy * p.boughtFallbackMwh;
-          const wear = draw.unit.battery.degradationCostPerMwh * p.dischargedMwh;
+          const wear = draw.battery.degradationCostPerMwh * p.dischargedMwh;
           expect(Math.abs(p.auctionCash - auction)).toBeLessThanOrEqual(tol(auction));
           expect(Math.abs(p.fallbackCash - fallback)).toBeLessThanOrEqual(tol(fallback));
           expect(Math.abs(p.profit - (auction + fallback - wear))).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(auction) + Math.abs(fallback) + wear));

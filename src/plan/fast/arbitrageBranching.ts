@@ -1,6 +1,6 @@
 import { relaxDay, type RelaxStatus } from './cycleCapDual.js';
 import type { DayContext } from './dayContext.js';
-import { CHARGE_ONLY, DISCHARGE_ONLY, LineSolution, SWEEP_OK, SWEEP_TOO_LARGE } from './lineSweep.js';
+import { CHARGE_ONLY, DISCHARGE_ONLY, type LineSolution, SWEEP_OK, SWEEP_TOO_LARGE } from './lineSweep.js';
 import { netPeriod, revalue } from './netFlows.js';
 
 /**
@@ -28,9 +28,9 @@ const TINY_SHARE = 1e-12;
 
 export function branchOnArbitrage(ctx: DayContext, maxNodes: number, best: LineSolution): BranchOutcome {
   const { day } = ctx;
-  const node = new LineSolution(day.periods);
-  const netted = new LineSolution(day.periods);
-  const stack: Int8Array[] = [new Int8Array(day.periods)];
+  const { node, netted } = ctx;
+  ctx.rootModes.fill(0);
+  const stack: Int8Array[] = [ctx.rootModes];
   let bestValue = -Infinity;
   let nodes = 0;
   while (stack.length > 0) {

@@ -13,7 +13,9 @@ export function fastSolverGap(problem: DayProblem): string | null {
   if (periods === 0) return 'the day has no delivery periods';
   if (problem.sellPricePerMwh.length !== periods) return 'buy and sell price series differ in length';
   if (!(problem.periodHours > 0 && Number.isFinite(problem.periodHours))) return 'the period length must be a positive number of hours';
-  if (!problem.buyPricePerMwh.every(Number.isFinite) || !problem.sellPricePerMwh.every(Number.isFinite)) return 'a price is not a finite number';
+  for (let t = 0; t < periods; t++) {
+    if (!Number.isFinite(problem.buyPricePerMwh[t]) || !Number.isFinite(problem.sellPricePerMwh[t])) return `the price of period ${t} is not a finite number`;
+  }
   if (!(b.chargeEfficiency > 0 && Number.isFinite(b.chargeEfficiency) && b.dischargeEfficiency > 0 && Number.isFinite(b.dischargeEfficiency))) {
     return 'efficiencies must be positive numbers';
   }

@@ -65,14 +65,14 @@ export function relaxDay(ctx: DayContext, modes: Int8Array, out: LineSolution): 
       muHigh = mu;
     }
   }
-  mix(above, below, (cap - below.discharged) / (above.discharged - below.discharged), out);
+  mix(above, below, (cap - below.discharged) / (above.discharged - below.discharged), day.periods, out);
   finish(ctx, out, out);
   return SWEEP_OK;
 }
 
 /** out = theta a + (1 - theta) b per period, exact where a and b agree. */
-function mix(a: LineSolution, b: LineSolution, theta: number, out: LineSolution): void {
-  for (let t = 0; t < out.x.length; t++) {
+function mix(a: LineSolution, b: LineSolution, theta: number, periods: number, out: LineSolution): void {
+  for (let t = 0; t < periods; t++) {
     const xa = a.x[t]!;
     const xb = b.x[t]!;
     const ya = a.y[t]!;

@@ -3,7 +3,7 @@ import { SegmentOrder, SegmentRanking } from './segmentOrder.js';
 import type { StoredDay } from './storedDay.js';
 import { ValueDp } from './valueDp.js';
 
-/** Solves the day at a multiplier mu on discharged energy, with per-period modes. */
+/** Solves the loaded day at a multiplier mu on discharged energy, with per-period modes. */
 export interface MuSolver {
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus;
 }
@@ -14,13 +14,21 @@ export class SweepSolver implements MuSolver {
   private readonly atZero: SegmentRanking;
   private readonly other: SegmentRanking;
   private readonly workspace: SweepWorkspace;
+  private day: StoredDay | null = null;
 
-  constructor(private readonly day: StoredDay) {
-    this.order = new SegmentOrder(day);
-    this.atZero = new SegmentRanking(day.periods);
+  constructor(capacity: number) {
+    this.order = new SegmentOrder(capacity);
+    this.atZero = new SegmentRanking(capacity);
+    this.other = new SegmentRanking(capacity);
+    this.workspace = new SweepWorkspace(capacity);
+  }
+
+  load(day: StoredDay): this {
+    this.day = day;
+    this.order.load(day);
     this.order.rank(0, this.atZero);
-    this.other = new SegmentRanking(day.periods);
-    this.workspace = new SweepWorkspace(day.periods);
+    this.other.mu = NaN;
+    return this;
   }
 
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
@@ -29,7 +37,7 @@ export class SweepSolver implements MuSolver {
       if (this.other.mu !== mu) this.order.rank(mu, this.other);
       ranking = this.other;
     }
-    return sweepLine(this.day, ranking, modes, this.workspace, out);
+    return sweepLine(this.day!, ranking, modes, this.workspace, out);
   }
 }
 
@@ -37,8 +45,13 @@ export class SweepSolver implements MuSolver {
 export class DpSolver implements MuSolver {
   private readonly dp: ValueDp;
 
-  constructor(day: StoredDay, maxBreakpoints: number) {
-    this.dp = new ValueDp(day, maxBreakpoints);
+  constructor(capacity: number, maxBreakpoints: number) {
+    this.dp = new ValueDp(capacity, maxBreakpoints);
+  }
+
+  load(day: StoredDay): this {
+    this.dp.load(day);
+    return this;
   }
 
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
@@ -46,32 +59,44 @@ export class DpSolver implements MuSolver {
   }
 }
 
-/** One day's problem, its solver and the scratch solutions of the cycle-cap search. */
+/** One day's problem, its solver and the scratch solutions of the cycle-cap search and the branching. */
 export class DayContext {
   /** The two sides of the cap and a trial (cycleCapDual.ts). */
   readonly above: LineSolution;
   readonly below: LineSolution;
   readonly trial: LineSolution;
+  /** A node's relaxation and its netted copy (arbitrageBranching.ts). */
+  readonly node: LineSolution;
+  readonly netted: LineSolution;
+  /** The root's modes (all free); the branching reuses it for one child. */
+  readonly rootModes: Int8Array;
   /**
    * A multiplier at which every discharge segment is steeper than every charge and chord segment
    * and than -V: the solution then discharges as little as the window allows.
    */
-  readonly muHigh: number;
+  muHigh = 0;
+  day!: StoredDay;
+  solver!: MuSolver;
 
-  constructor(
-    readonly day: StoredDay,
-    readonly solver: MuSolver,
-  ) {
-    const n = day.periods;
-    this.above = new LineSolution(n);
-    this.below = new LineSolution(n);
-    this.trial = new LineSolution(n);
+  constructor(capacity: number) {
+    this.above = new LineSolution(capacity);
+    this.below = new LineSolution(capacity);
+    this.trial = new LineSolution(capacity);
+    this.node = new LineSolution(capacity);
+    this.netted = new LineSolution(capacity);
+    this.rootModes = new Int8Array(capacity);
+  }
+
+  load(day: StoredDay, solver: MuSolver): this {
+    this.day = day;
+    this.solver = solver;
     let maxQ = -Infinity;
     let minP = day.terminalValuePerMwh;
-    for (let t = 0; t < n; t++) {
+    for (let t = 0; t < day.periods; t++) {
       maxQ = Math.max(maxQ, day.dischargePrice[t]!);
       minP = Math.min(minP, day.chargePrice[t]!);
     }
     this.muHigh = 2 * Math.max(0, maxQ - minP) + 1;
+    return this;
   }
 }

@@ -60,16 +60,18 @@ export class LineSolution {
   }
 }
 
-/** Scratch arrays for one day length, reused from sweep to sweep. */
+/** Scratch arrays for days of up to `capacity` periods, reused from sweep to sweep. */
 export class SweepWorkspace {
   readonly length: Float64Array;
   readonly remaining: Float64Array;
   readonly taken: Float64Array;
   readonly dropped: Float64Array;
+  /** Bitset over ranks; `words` of it are in use for the current day. */
   readonly bits: Int32Array;
+  words = 0;
 
-  constructor(readonly periods: number) {
-    const n = 3 * periods;
+  constructor(capacity: number) {
+    const n = 3 * capacity;
     this.length = new Float64Array(n);
     this.remaining = new Float64Array(n);
     this.taken = new Float64Array(n);
@@ -92,7 +94,8 @@ export function sweepLine(day: StoredDay, ranking: SegmentRanking, modes: Int8Ar
   const q = day.dischargePrice;
   const { socMinMwh: low, socMaxMwh: high } = day;
   const eps = edgeTolerance(day);
-  ws.bits.fill(0);
+  ws.words = (3 * day.periods + 31) >>> 5;
+  ws.bits.fill(0, 0, ws.words);
   let lo = day.socStartMwh;
   let hi = lo;
   for (let t = 0; t < day.periods; t++) {
@@ -149,16 +152,16 @@ function insert(ws: SweepWorkspace, ranking: SegmentRanking, id: number, length:
   ws.bits[r >>> 5] = ws.bits[r >>> 5]! | (1 << (r & 31));
 }
 
-function steepestRank(bits: Int32Array): number {
-  for (let w = bits.length - 1; w >= 0; w--) {
+function steepestRank(bits: Int32Array, words: number): number {
+  for (let w = words - 1; w >= 0; w--) {
     const b = bits[w]!;
     if (b !== 0) return (w << 5) | (31 - Math.clz32(b));
   }
   return -1;
 }
 
-function flattestRank(bits: Int32Array): number {
-  for (let w = 0; w < bits.length; w++) {
+function flattestRank(bits: Int32Array, words: number): number {
+  for (let w = 0; w < words; w++) {
     const b = bits[w]!;
     if (b !== 0) return (w << 5) | (31 - Math.clz32(b & -b));
   }
@@ -173,7 +176,7 @@ function clearRank(bits: Int32Array, r: number): void {
 function takeSteepest(ws: SweepWorkspace, ranking: SegmentRanking, amount: number): void {
   let left = amount;
   while (left > 0) {
-    const r = steepestRank(ws.bits);
+    const r = steepestRank(ws.bits, ws.words);
     if (r < 0) return;
     const id = ranking.segmentAt[r]!;
     const rest = ws.remaining[id]!;
@@ -194,7 +197,7 @@ function takeSteepest(ws: SweepWorkspace, ranking: SegmentRanking, amount: numbe
 function dropFlattest(ws: SweepWorkspace, ranking: SegmentRanking, amount: number): void {
   let left = amount;
   while (left > 0) {
-    const r = flattestRank(ws.bits);
+    const r = flattestRank(ws.bits, ws.words);
     if (r < 0) return;
     const id = ranking.segmentAt[r]!;
     const rest = ws.remaining[id]!;
@@ -214,7 +217,7 @@ function dropFlattest(ws: SweepWorkspace, ranking: SegmentRanking, amount: numbe
 /** Takes every remaining segment steeper than `threshold` (= -V: keeping a MWh is worth V). */
 function takeWhileProfitable(ws: SweepWorkspace, ranking: SegmentRanking, threshold: number): void {
   for (;;) {
-    const r = steepestRank(ws.bits);
+    const r = steepestRank(ws.bits, ws.words);
     if (r < 0) return;
     const id = ranking.segmentAt[r]!;
     if (!(ranking.slope[id]! > threshold)) return;

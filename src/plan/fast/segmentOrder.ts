@@ -27,31 +27,44 @@ export class SegmentOrder {
   private readonly chord: Int32Array;
   /** Chord slope at mu = 0 by period. */
   private readonly chordSlope0: Float64Array;
-  private readonly chordShare: number;
+  private readonly scratch: Int32Array;
+  private chords = 0;
+  private chordShare = 0;
+  private day: StoredDay | null = null;
 
-  constructor(private readonly day: StoredDay) {
+  /** Room for days of up to `capacity` periods; load() a day before rank(). */
+  constructor(capacity: number) {
+    this.discharge = new Int32Array(capacity);
+    this.charge = new Int32Array(capacity);
+    this.chord = new Int32Array(capacity);
+    this.chordSlope0 = new Float64Array(capacity);
+    this.scratch = new Int32Array(capacity);
+  }
+
+  load(day: StoredDay): void {
+    this.day = day;
     const n = day.periods;
     const X = day.chargeStepMwh;
     const Y = day.dischargeStepMwh;
-    const scratch = new Int32Array(n);
-    this.discharge = sortedBy(day.dischargePrice, -1, identity(n), scratch);
-    this.charge = sortedBy(day.chargePrice, -1, identity(n), scratch);
-    this.chordSlope0 = new Float64Array(n);
-    const arbitrage = new Int32Array(day.arbitrageCount);
-    for (let t = 0, k = 0; t < n; t++) {
+    sortBy(day.dischargePrice, -1, fillIdentity(this.discharge, n), n, this.scratch);
+    sortBy(day.chargePrice, -1, fillIdentity(this.charge, n), n, this.scratch);
+    let k = 0;
+    for (let t = 0; t < n; t++) {
       if (day.arbitrage[t] === 0) continue;
       this.chordSlope0[t] = -(day.chargePrice[t]! * X + day.dischargePrice[t]! * Y) / (X + Y);
-      arbitrage[k++] = t;
+      this.chord[k++] = t;
     }
-    this.chord = sortedBy(this.chordSlope0, 1, arbitrage, scratch);
+    this.chords = k;
+    sortBy(this.chordSlope0, 1, this.chord, k, this.scratch);
     this.chordShare = X + Y > 0 ? Y / (X + Y) : 0;
   }
 
   /** Fills `out` with the order of all candidate segments at multiplier mu. */
   rank(mu: number, out: SegmentRanking): void {
-    const { chargePrice: p, dischargePrice: q } = this.day;
-    const n = this.day.periods;
-    const m = this.chord.length;
+    const day = this.day!;
+    const { chargePrice: p, dischargePrice: q } = day;
+    const n = day.periods;
+    const m = this.chords;
     const shift = mu * this.chordShare;
     let i = 0;
     let j = 0;
@@ -94,24 +107,22 @@ export class SegmentRanking {
   readonly slope: Float64Array;
   mu = NaN;
 
-  constructor(periods: number) {
-    this.segmentAt = new Int32Array(3 * periods);
-    this.rankOf = new Int32Array(3 * periods);
-    this.slope = new Float64Array(3 * periods);
+  constructor(capacity: number) {
+    this.segmentAt = new Int32Array(3 * capacity);
+    this.rankOf = new Int32Array(3 * capacity);
+    this.slope = new Float64Array(3 * capacity);
   }
 }
 
-function identity(n: number): Int32Array {
-  const idx = new Int32Array(n);
+function fillIdentity(idx: Int32Array, n: number): Int32Array {
   for (let t = 0; t < n; t++) idx[t] = t;
   return idx;
 }
 
-/** Stable bottom-up merge sort of idx by sign * key[idx] ascending; returns the sorted array. */
-function sortedBy(key: Float64Array, sign: 1 | -1, idx: Int32Array, scratch: Int32Array): Int32Array {
-  const n = idx.length;
+/** Stable bottom-up merge sort of idx[0, n) by sign * key[idx] ascending, in place (scratch >= n). */
+function sortBy(key: Float64Array, sign: 1 | -1, idx: Int32Array, n: number, scratch: Int32Array): void {
   let from = idx;
-  let to = scratch.length >= n ? scratch.subarray(0, n) : new Int32Array(n);
+  let to = scratch;
   for (let width = 1; width < n; width *= 2) {
     for (let lo = 0; lo < n; lo += 2 * width) {
       const mid = Math.min(lo + width, n);
@@ -131,5 +142,5 @@ function sortedBy(key: Float64Array, sign: 1 | -1, idx: Int32Array, scratch: Int
     from = to;
     to = swap;
   }
-  return from === idx ? idx : Int32Array.from(from);
+  if (from !== idx) idx.set(from.subarray(0, n));
 }

@@ -47,12 +47,13 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
   const b = problem.battery;
   if (b.socMinMwh > b.socMaxMwh) return { status: 'infeasible', reason: `the state-of-charge window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh is empty` };
   const day = toStoredDay(problem);
-  const best = new LineSolution(day.periods);
-  let ctx = new DayContext(day, new SweepSolver(day));
+  const engine = engineFor(day.periods, settings.maxBreakpoints);
+  const { ctx, best } = engine;
+  ctx.load(day, engine.sweep.load(day));
   let outcome = branchOnArbitrage(ctx, day.arbitrageCount === 0 ? Infinity : settings.sweepNodes, best);
   let nodes = outcome.status === 'gave-up' ? outcome.nodes : 0;
   if (outcome.status === 'gave-up') {
-    ctx = new DayContext(day, new DpSolver(day, settings.maxBreakpoints));
+    ctx.load(day, engine.program.load(day));
     outcome = branchOnArbitrage(ctx, settings.programNodes, best);
   }
   if (outcome.status === 'gave-up') {
@@ -66,6 +67,33 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
   }
   const schedule = toSchedule(problem, day, best);
   return { status: 'optimal', schedule, objective: objective(problem, schedule), solver: FAST_SOLVER_NAME, nodes: nodes + outcome.nodes };
+}
+
+/** Scratch space of the solver, kept between calls (the solver is synchronous, so never shared). */
+interface Engine {
+  readonly capacity: number;
+  readonly maxBreakpoints: number;
+  readonly sweep: SweepSolver;
+  readonly program: DpSolver;
+  readonly ctx: DayContext;
+  readonly best: LineSolution;
+}
+
+let cached: Engine | null = null;
+
+function engineFor(periods: number, maxBreakpoints: number): Engine {
+  if (cached === null || cached.capacity < periods || cached.maxBreakpoints !== maxBreakpoints) {
+    const capacity = Math.max(periods, 100);
+    cached = {
+      capacity,
+      maxBreakpoints,
+      sweep: new SweepSolver(capacity),
+      program: new DpSolver(capacity, maxBreakpoints),
+      ctx: new DayContext(capacity),
+      best: new LineSolution(capacity),
+    };
+  }
+  return cached;
 }
 
 /** Grid units: c_t = x_t / (eta_c dt), d_t = eta_d y_t / dt (exactly the limit at x = X, y = Y). */

@@ -31,14 +31,20 @@ export class ValueDp {
   private readonly h = new Pwl();
   private readonly k = new Pwl();
 
+  private day!: StoredDay;
+
   constructor(
-    private readonly day: StoredDay,
+    capacity: number,
     private readonly maxBreakpoints: number,
   ) {
-    this.xsPool = new Float64Array(16 * (day.periods + 1));
-    this.vsPool = new Float64Array(16 * (day.periods + 1));
-    this.start = new Int32Array(day.periods + 1);
-    this.count = new Int32Array(day.periods + 1);
+    this.xsPool = new Float64Array(16 * (capacity + 1));
+    this.vsPool = new Float64Array(16 * (capacity + 1));
+    this.start = new Int32Array(capacity + 1);
+    this.count = new Int32Array(capacity + 1);
+  }
+
+  load(day: StoredDay): void {
+    this.day = day;
   }
 
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
