@@ -1,5 +1,6 @@
 import { Command, InvalidArgumentError } from 'commander';
 import { batteryModel } from '../battery/batterySpec.js';
+import { daysBetween } from '../market/calendar.js';
 import { backtestMetrics } from '../backtest/backtestMetrics.js';
 import { BACKTEST_POLICIES, type BacktestPolicy } from '../backtest/backtestPolicy.js';
 import { BACKTEST_DEFAULTS, runBacktest } from '../backtest/runBacktest.js';
@@ -16,6 +17,7 @@ import { UNACCEPTED_POLICIES, type UnacceptedPolicy } from '../settle/settleDay.
 import { oneOf, parseAlphaArg, parseDayArg } from './argParsers.js';
 import { addInputOptions, resolveInputs, type InputFlags } from './inputOptions.js';
 import type { CliIo } from './cliIo.js';
+import { createProgress } from './progress.js';
 
 export interface BacktestFlags extends InputFlags {
   readonly from?: string;
@@ -81,10 +83,11 @@ export function runBacktestCommand(flags: BacktestFlags, io: CliIo): void {
     ]);
   }
   checkForecastLevels(flags, forecast.levels, paths.forecast);
-  const progress = io.stderrIsTerminal
-    ? ({ day, done, total }: { day: string; done: number; total: number }) => io.stderr(`\rbacktest: ${day} (${done}/${total})${done === total ? '\n' : ''}`)
-    : null;
-  const result = runBacktest({ market, battery, history, forecast, from, to }, { alpha: flags.alpha, unaccepted: flags.unaccepted, policies: flags.policies, onDay: progress });
+  // A progress bar on stderr, drawn only when stderr is a terminal (createProgress decides).
+  const progress = createProgress(io, { total: daysBetween(from, to).length, label: 'backtest' });
+  const onDay = ({ done }: { done: number }): void => progress.update(done);
+  const result = runBacktest({ market, battery, history, forecast, from, to }, { alpha: flags.alpha, unaccepted: flags.unaccepted, policies: flags.policies, onDay });
+  progress.finish();
   const metrics = backtestMetrics(result, battery);
   const summary = backtestSummary(result, metrics, { market, battery, inputs: paths });
   writeOutputs(

@@ -26,6 +26,7 @@ import { InsufficientHistoryError } from './models/errors.js';
 import { GridCache, HistoryView } from './models/historyView.js';
 import type { PointForecast } from './models/pointForecast.js';
 import { seasonalNaive } from './models/seasonalNaive.js';
+import { fromAsinhScale, robustScale, toAsinhScale } from './models/robustAsinh.js';
 import { fromSlotGrid, slotLayout } from './models/slotGrid.js';
 import { errorPaths } from './quantiles/errorPaths.js';
 import { historicalSimulation } from './quantiles/historicalSimulation.js';
@@ -37,6 +38,12 @@ import { conformalQuantiles } from './quantiles/splitConformal.js';
 /** Method names, for the CLI's `--method`. */
 export const FORECAST_METHODS = ['naive-hs', 'arx-hs', 'lasso-hs', 'arx-conformal', 'qra'] as const;
 export type ForecastMethod = (typeof FORECAST_METHODS)[number];
+
+/**
+ * The method `quantbid forecast` uses when none is named: the one with the lowest CRPS among those
+ * that met the coverage targets on the demo market (docs/forecast-quality.md).
+ */
+export const DEFAULT_METHOD: ForecastMethod = 'arx-conformal';
 
 /** Point models the methods are built on. */
 export type PointModelName = 'naive' | 'arx' | 'lasso';
@@ -59,6 +66,8 @@ export interface ForecastOptions {
   readonly scenarioPaths: number;
   /** LASSO path settings of `lasso-hs` (and of `qra` with qraModel 'lasso'). */
   readonly lasso: LassoOptions;
+  /** Scale of the calibration errors: 'price' or 'asinh'. */
+  readonly errorScale: 'price' | 'asinh';
 }
 
 /**
@@ -76,6 +85,7 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   qraModel: 'arx',
   scenarioPaths: 0,
   lasso: LASSO_DEFAULTS,
+  errorScale: 'price',
 });
 
 /** A quantile forecast of one delivery day, with what it was made from. */
@@ -139,7 +149,11 @@ export class Forecaster {
     if (calibration.length < this.options.minCalibrationDays) {
       throw new InsufficientHistoryError(view.target.day, `${method} calibration`, this.options.minCalibrationDays, calibration.length);
     }
-    const errors = calibration.map((c) => c.errors);
+    const scale = this.options.errorScale === 'asinh' ? robustScale(concatenate(calibration.map((c) => c.realised))) : null;
+    const toScale = (p: number): number => (scale === null ? p : toAsinhScale(p, scale));
+    const fromScale = (z: number): number => (scale === null ? z : fromAsinhScale(z, scale));
+    const centre = scale === null ? point.mean : point.mean.map(toScale);
+    const errors = scale === null ? calibration.map((c) => c.errors) : calibration.map((c) => Float64Array.from(c.realised, (p, s) => toScale(p) - toScale(c.forecast.mean[s] as number)));
     const notes: string[] = [];
     let grid: number[][];
     if (method === 'qra') {
@@ -154,15 +168,16 @@ export class Forecaster {
         this.warmStarts,
       );
     } else if (method === 'arx-conformal') {
-      const conformal = conformalQuantiles(point.mean, errors, levels);
+      const conformal = conformalQuantiles(centre, errors, levels);
       if (conformal.clamped) notes.push(`too few calibration days (${calibration.length}) for the outermost levels: the largest absolute error was used`);
       grid = conformal.prices;
     } else {
-      grid = historicalSimulation(point.mean, errors, levels);
+      grid = historicalSimulation(centre, errors, levels);
     }
+    if (scale !== null && method !== 'qra') grid = grid.map((row) => row.map(fromScale));
     const { prices, crossedRows } = rearrangeDay(grid);
     const layout = view.target.layout;
-    const paths = errorPaths(point.mean, errors, this.options.scenarioPaths).map((path) => fromSlotGrid(path, layout));
+    const paths = errorPaths(centre, errors, this.options.scenarioPaths).map((path) => fromSlotGrid(path.map(fromScale), layout));
     return {
       quantiles: {
         day: view.target.day,
@@ -266,4 +281,14 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   }
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   return o;
+}
+
+function concatenate(arrays: readonly Float64Array[]): Float64Array {
+  const out = new Float64Array(arrays.reduce((n, a) => n + a.length, 0));
+  let at = 0;
+  for (const a of arrays) {
+    out.set(a, at);
+    at += a.length;
+  }
+  return out;
 }

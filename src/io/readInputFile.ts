@@ -119,6 +119,9 @@ function fileSystemProblem(path: string, code: string | undefined): InputProblem
       return { file: path, message: 'cannot be read: no permission', fix: "check the file's read rights" };
     case 'EISDIR':
       return { file: path, message: 'is a folder, not a file', fix: 'give the path of the file inside it' };
+    case 'ENAMETOOLONG':
+    case 'ERR_INVALID_ARG_VALUE':
+      return { file: path, message: 'is not a valid file name (too long, or a character the file system refuses)', fix: 'check the path' };
     default:
       return { file: path, message: `cannot be read (${code ?? 'unknown error'})`, fix: 'check the path and the file' };
   }

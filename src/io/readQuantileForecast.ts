@@ -22,7 +22,10 @@ export interface QuantileForecastFile {
   readonly repairedExamples: readonly string[];
 }
 
-/** Reads a quantile forecast file (.csv or .csv.gz); see parseQuantileForecast. The header is checked from the first bytes, before the file is read whole. */
+/**
+ * Reads a quantile forecast file (.csv or .csv.gz); see parseQuantileForecast. The header is checked
+ * from the first bytes, before the file is read whole.
+ */
 export function readQuantileForecast(path: string, market: MarketSpec): QuantileForecastFile {
   const firstLine = (line: string, lineNumber: number) => {
     const separator = separatorProblem(line, path, lineNumber);

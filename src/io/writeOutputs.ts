@@ -112,7 +112,12 @@ function writeProblem(outDir: string, code: string | undefined): InputProblem | 
     case 'ENOSPC':
     case 'EDQUOT':
       return problem('the disk is full', 'free some space or choose another folder');
+    case 'ENAMETOOLONG':
+    case 'EINVAL':
+    case 'ERR_INVALID_ARG_VALUE':
+      return problem('is not a valid folder name here (too long, or a character the file system refuses)', 'choose a shorter, plain folder name');
     default:
-      return null;
+      // Any other error of the file system is still about the folder; a fault of our own has no code.
+      return code?.startsWith('E') === true ? problem(`cannot be written (${code})`, 'check the folder and the disk') : null;
   }
 }

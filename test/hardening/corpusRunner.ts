@@ -3,8 +3,6 @@ import { chmodSync, existsSync, lstatSync, mkdirSync, mkdtempSync, readdirSync, 
 import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { main } from '../../src/cli/main.js';
-import type { CliIo } from '../../src/cli/cliIo.js';
 
 /** The corpus folder, as the CLI is given it: relative to the working folder, like a user's path. */
 export const FIXTURES = relative(process.cwd(), fileURLToPath(new URL('../fixtures/malformed', import.meta.url))) || '.';
@@ -66,20 +64,7 @@ export function loadManifest(): Manifest {
   return JSON.parse(readFileSync(join(FIXTURES, 'cases.json'), 'utf8')) as Manifest;
 }
 
-export interface Run {
-  readonly code: number;
-  readonly stdout: string;
-  readonly stderr: string;
-}
-
-/** Runs the CLI in-process with captured output, as `quantbid ARGS`. */
-export async function runCli(args: readonly string[]): Promise<Run> {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = { stdout: (s) => void (stdout += s), stderr: (s) => void (stderr += s), stderrIsTerminal: false };
-  const code = await main(['node', 'quantbid', ...args], io);
-  return { code, stdout, stderr };
-}
+export { runCli, type CliRun as Run } from '../report/planFixtures.js';
 
 /** The argument list of a case, with {F} and {OUT} filled in. */
 export function caseArgv(manifest: Manifest, c: CorpusCase, out: string): string[] {

@@ -278,23 +278,9 @@ export class QuantileRegressionProblem {
 
   /** Full recomputation from the basis: b = X_h^{-1} y_h, residuals, sides, v and s. */
   private refresh(): void {
-    const { n, k, data, y, b, r, inverse, basis, position, side, v, tau } = this;
-    if (this.pivotsSinceRefresh > 0) {
-      basis.sort();
-      for (let j = 0; j < k; j++) position[basis[j] as number] = j;
-      if (!this.invertBasis(basis)) {
-        throw new SolverError('singular-design', 'quantile regression reached a singular basis: the design is not of full column rank');
-      }
-    }
-    this.pivotsSinceRefresh = 0;
-    let bNorm = 0;
-    for (let c = 0; c < k; c++) {
-      let sum = 0;
-      for (let j = 0; j < k; j++) sum += (inverse[c * k + j] as number) * (y[basis[j] as number] as number);
-      b[c] = sum;
-      bNorm = Math.max(bNorm, Math.abs(sum));
-    }
-    this.bNorm = bNorm;
+    const { n, k, data, y, b, r, position, side, v, tau } = this;
+    if (this.pivotsSinceRefresh > 0) this.reinvertInRowOrder();
+    this.solveFromBasis();
     v.fill(0);
     for (let i = 0; i < n; i++) {
       if ((position[i] as number) >= 0) {
@@ -319,12 +305,25 @@ export class QuantileRegressionProblem {
 
   /** Basis in row order, X_h^{-1} afresh, b = X_h^{-1} y_h and s; residuals and v are kept. */
   private canonicalise(): void {
-    const { k, y, b, inverse, basis, position } = this;
+    this.reinvertInRowOrder();
+    this.solveFromBasis();
+    this.updateSubgradients();
+  }
+
+  /** Sorts the basis rows ascending and recomputes X_h^{-1} for that order. */
+  private reinvertInRowOrder(): void {
+    const { k, basis, position } = this;
     basis.sort();
     for (let j = 0; j < k; j++) position[basis[j] as number] = j;
     if (!this.invertBasis(basis)) {
       throw new SolverError('singular-design', 'quantile regression reached a singular basis: the design is not of full column rank');
     }
+    this.pivotsSinceRefresh = 0;
+  }
+
+  /** b = X_h^{-1} y_h and its largest magnitude. */
+  private solveFromBasis(): void {
+    const { k, y, b, inverse, basis } = this;
     let bNorm = 0;
     for (let c = 0; c < k; c++) {
       let sum = 0;
@@ -334,7 +333,6 @@ export class QuantileRegressionProblem {
     }
     this.bNorm = bNorm;
     this.pivotsSinceRefresh = 0;
-    this.updateSubgradients();
   }
 
   /** s = -X_h^{-T} v. */

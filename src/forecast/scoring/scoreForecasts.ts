@@ -1,4 +1,6 @@
 import type { QuantileDay } from '../../types.js';
+import { christoffersenFromHits, type ChristoffersenResult } from '../../stats/christoffersen.js';
+import { kupiecPof, type KupiecResult } from '../../stats/kupiec.js';
 import { ForecastInputError } from '../models/errors.js';
 import { slotLayout } from '../models/slotGrid.js';
 import { pinballLoss } from './pinball.js';
@@ -20,6 +22,15 @@ export interface IntervalCoverage {
   readonly nominal: number;
   /** Share of realised prices with q(tau) <= y <= q(1 - tau). */
   readonly observed: number;
+  /** Failures: realised prices outside the interval, on either side [-]. */
+  readonly failures: number;
+  /** Kupiec (1995) test of the failure rate 1 - nominal; null without observations. */
+  readonly kupiec: KupiecResult | null;
+  /**
+   * Christoffersen (1998) tests of the failure sequence in time order (independence and conditional
+   * coverage); null with fewer than two observations.
+   */
+  readonly christoffersen: ChristoffersenResult | null;
 }
 
 /** Scores of a set of (period, day) forecasts. */
@@ -54,12 +65,20 @@ export interface ScoreTable {
  * - calibration: the share of realised prices y < q(tau), per level; a calibrated forecast has
  *   share tau (the probability integral transform view of Gneiting, Balabdaoui and Raftery 2007);
  * - coverage of each central interval [q(tau), q(1 - tau)] whose levels are both in the forecast:
- *   the share with q(tau) <= y <= q(1 - tau), against nominal 1 - 2 tau.
+ *   the share with q(tau) <= y <= q(1 - tau), against nominal 1 - 2 tau;
+ * - for each such interval, the failure sequence (1 when y lies outside it) in time order - the days
+ *   in the order given, the periods of a day in order - tested for the failure rate 2 tau by Kupiec's
+ *   proportion-of-failures test and for first-order independence and conditional coverage by
+ *   Christoffersen's tests. Per slot the sequence runs over the days; overall it runs over every
+ *   period, so it pools periods of one day, whose failures are dependent: the overall tests then
+ *   reject more often than their level, and the per-slot tests are the ones to judge by.
  *
- * Reference: T. Gneiting, F. Balabdaoui and A. E. Raftery (2007), Probabilistic forecasts, calibration
- * and sharpness, JRSS B 69(2), 243-268, doi:10.1111/j.1467-9868.2007.00587.x.
+ * References: T. Gneiting, F. Balabdaoui and A. E. Raftery (2007), Probabilistic forecasts, calibration
+ * and sharpness, JRSS B 69(2), 243-268, doi:10.1111/j.1467-9868.2007.00587.x; P. H. Kupiec (1995),
+ * J. Derivatives 3(2), 73-84; P. F. Christoffersen (1998), Int. Economic Review 39(4), 841-862 (see
+ * src/stats/kupiec.ts and christoffersen.ts).
  *
- * @param days forecasts with the same levels, each with one realised price per period
+ * @param days forecasts with the same levels, each with one realised price per period, in time order
  * @throws ForecastInputError when the levels differ between days or a realised price is missing
  */
 export function scoreForecasts(days: readonly ScoredDay[]): ScoreTable {
@@ -104,7 +123,7 @@ export function scoreForecasts(days: readonly ScoredDay[]): ScoreTable {
 }
 
 /** Index pairs (k, l) with levels[k] < 1/2 and levels[l] = 1 - levels[k] (to 1e-9), outermost first. */
-function centralPairs(levels: readonly number[]): [number, number][] {
+export function centralPairs(levels: readonly number[]): [number, number][] {
   const pairs: [number, number][] = [];
   levels.forEach((tau, k) => {
     if (tau >= 0.5) return;
@@ -124,6 +143,8 @@ class Accumulator {
   private readonly pinball: Float64Array;
   private readonly below: Float64Array;
   private readonly inside: Float64Array;
+  /** Failure sequence of each central pair, in the order the periods were added. */
+  private readonly outside: number[][];
 
   constructor(
     levelCount: number,
@@ -132,6 +153,7 @@ class Accumulator {
     this.pinball = new Float64Array(levelCount);
     this.below = new Float64Array(levelCount);
     this.inside = new Float64Array(pairs.length);
+    this.outside = pairs.map(() => []);
   }
 
   add(y: number, q: readonly number[], levels: readonly number[]): void {
@@ -142,7 +164,9 @@ class Accumulator {
       if (y < qk) this.below[k] = (this.below[k] as number) + 1;
     });
     this.pairs.forEach(([k, l], p) => {
-      if (y >= (q[k] as number) && y <= (q[l] as number)) this.inside[p] = (this.inside[p] as number) + 1;
+      const inside = y >= (q[k] as number) && y <= (q[l] as number);
+      if (inside) this.inside[p] = (this.inside[p] as number) + 1;
+      (this.outside[p] as number[]).push(inside ? 0 : 1);
     });
   }
 
@@ -154,12 +178,21 @@ class Accumulator {
       pinball,
       crps: pinball.reduce((s, v) => s + v, 0) / pinball.length,
       belowShare: Array.from(this.below, (v) => v / n),
-      coverage: this.pairs.map(([k, l], p) => ({
-        lower: levels[k] as number,
-        upper: levels[l] as number,
-        nominal: (levels[l] as number) - (levels[k] as number),
-        observed: (this.inside[p] as number) / n,
-      })),
+      coverage: this.pairs.map(([k, l], p) => {
+        // Rounded so that 0.95 - 0.05 reads 0.9, not 0.8999999999999999.
+        const nominal = Number(((levels[l] as number) - (levels[k] as number)).toPrecision(12));
+        const failures = n - (this.inside[p] as number);
+        const sequence = this.outside[p] as number[];
+        return {
+          lower: levels[k] as number,
+          upper: levels[l] as number,
+          nominal,
+          observed: (this.inside[p] as number) / n,
+          failures,
+          kupiec: n >= 1 ? kupiecPof(n, failures, 1 - nominal) : null,
+          christoffersen: n >= 2 ? christoffersenFromHits(sequence, 1 - nominal) : null,
+        };
+      }),
     };
   }
 }

@@ -9,9 +9,13 @@ import { netPeriod, revalue } from './netFlows.js';
  * Econometrica 28(3), doi:10.2307/1910129).
  *
  * Notes. A node fixes some arbitrage periods to charge-only (y_t = 0) or discharge-only
- * (x_t = 0); every other arbitrage period is relaxed to the convex hull of its two modes (its
- * chord, storedDay.ts). The node's bound is its exact relaxation value (cycleCapDual.ts). A node
- * whose solution has x_t, y_t > 0 only outside arbitrage periods is feasible as it stands. Else the
+ * (x_t = 0). With the chord sweep every other arbitrage period is relaxed to the convex hull of
+ * its two modes (storedDay.ts); with the dynamic program (valueDp.ts) every single-multiplier
+ * solution already has one mode per period and only the cycle-cap mix can put both flows in an
+ * arbitrage period. Either way the node's value (cycleCapDual.ts) is an upper bound on every
+ * feasible schedule of the node: it is at least the Lagrangian value z(mu*), and netting outside
+ * arbitrage periods only raises it. A node whose solution has x_t, y_t > 0 only outside arbitrage
+ * periods is feasible after that netting, so its value is also attained: it is optimal. Else the
  * arbitrage period with the largest min(x_t / X, y_t / Y) is split into its two modes, explored
  * depth-first, the side with the larger share first. Netting every period of a node's solution
  * gives a feasible schedule (it keeps every s_t and lowers cycle use), used as an incumbent.

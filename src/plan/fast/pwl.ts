@@ -30,11 +30,6 @@ export class Pwl {
     this.n = 0;
   }
 
-  copyFrom(other: Pwl): void {
-    this.clear();
-    for (let i = 0; i < other.n; i++) this.push(other.xs[i]!, other.vs[i]!);
-  }
-
   /** Appends a breakpoint to the right, merging near-equal points and collinear neighbours. */
   push(x: number, v: number): void {
     const n = this.n;

@@ -10,13 +10,13 @@ import { toStoredDay, type StoredDay } from './storedDay.js';
 export interface FastSolverOptions {
   /** Branch-and-bound nodes on the chord sweep before the dynamic program takes over. */
   readonly sweepNodes: number;
-  /** Branch-and-bound nodes with the dynamic program (only a binding cycle cap needs more than one). */
+  /** Runs of the dynamic program in its branch and bound (only a binding cycle cap needs more than one). */
   readonly programNodes: number;
   /** Most breakpoints of one value function in the dynamic program before answering `not-covered`. */
   readonly maxBreakpoints: number;
 }
 
-export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ sweepNodes: 64, programNodes: 256, maxBreakpoints: 400 });
+export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ sweepNodes: 64, programNodes: 64, maxBreakpoints: 400 });
 
 /** A DayOutcome, or `not-covered` when the caller must fall back to the general LP path. */
 export type FastDayOutcome = DayOutcome | { readonly status: 'not-covered'; readonly reason: string };
@@ -49,16 +49,17 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
   const day = toStoredDay(problem);
   const engine = engineFor(day.periods, settings.maxBreakpoints);
   const { ctx, best } = engine;
-  ctx.load(day, engine.sweep.load(day));
-  let outcome = branchOnArbitrage(ctx, day.arbitrageCount === 0 ? Infinity : settings.sweepNodes, best);
-  let nodes = outcome.status === 'gave-up' ? outcome.nodes : 0;
+  const programFirst = day.arbitrageCount > 0 && programSuits(day);
+  const attempts = programFirst ? ([engine.program, engine.sweep] as const) : ([engine.sweep, engine.program] as const);
+  let nodes = 0;
+  let outcome = branchOnArbitrage(ctx.load(day, attempts[0].load(day)), day.arbitrageCount === 0 ? Infinity : programFirst ? settings.programNodes : settings.sweepNodes, best);
   if (outcome.status === 'gave-up') {
-    ctx.load(day, engine.program.load(day));
-    outcome = branchOnArbitrage(ctx, settings.programNodes, best);
+    nodes = outcome.nodes;
+    outcome = branchOnArbitrage(ctx.load(day, attempts[1].load(day)), programFirst ? settings.sweepNodes : settings.programNodes, best);
   }
   if (outcome.status === 'gave-up') {
-    const limit = outcome.why === 'nodes' ? `${settings.programNodes} branch-and-bound nodes` : `${settings.maxBreakpoints} breakpoints per value function`;
-    return { status: 'not-covered', reason: `no proven optimum within ${settings.sweepNodes} chord-sweep nodes and ${limit}` };
+    const budgets = `${settings.sweepNodes} chord-sweep nodes, ${settings.programNodes} program runs of at most ${settings.maxBreakpoints} breakpoints`;
+    return { status: 'not-covered', reason: `no proven optimum within the budgets (${budgets})` };
   }
   if (outcome.status === 'infeasible') {
     if (outcome.cause === SWEEP_START_UNREACHABLE) return { status: 'infeasible', reason: startReason(problem) };
@@ -67,6 +68,16 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
   }
   const schedule = toSchedule(problem, day, best);
   return { status: 'optimal', schedule, objective: objective(problem, schedule), solver: FAST_SOLVER_NAME, nodes: nodes + outcome.nodes };
+}
+
+/**
+ * Measured rule of thumb for the order of the two exact methods: the dynamic program first when
+ * the window is at most 2.5 power steps wide (its value functions then have few breakpoints) and
+ * there is no cycle cap (which would multiply its runs); the chord branching first otherwise.
+ */
+function programSuits(day: StoredDay): boolean {
+  const step = Math.min(day.chargeStepMwh, day.dischargeStepMwh);
+  return day.dischargeCapMwh === Infinity && day.socMaxMwh - day.socMinMwh <= 2.5 * step;
 }
 
 /** Scratch space of the solver, kept between calls (the solver is synchronous, so never shared). */

@@ -138,21 +138,17 @@ export class ValueDp {
       const domHi = xs[from + n - 1]!;
       const lo = Math.max(domLo, s - (mode === DISCHARGE_ONLY ? 0 : X));
       const hi = Math.min(domHi, s + (mode === CHARGE_ONLY ? 0 : Y));
-      const gain = (u: number): number => valueAt(xs, vs, from, n, u) + (s >= u ? -p * (s - u) : qm * (u - s));
       let bestU = lo;
-      let best = gain(lo);
-      const consider = (u: number): void => {
-        const v = gain(u);
+      let best = -Infinity;
+      // Candidates: both ends of the allowed range, the kink u = s, and the breakpoints inside.
+      for (let c = -3; c < n; c++) {
+        const u = c === -3 ? lo : c === -2 ? hi : c === -1 ? s : xs[from + c]!;
+        if (c >= -1 && !(u > lo && u < hi)) continue;
+        const v = valueAt(xs, vs, from, n, u) + (s >= u ? -p * (s - u) : qm * (u - s));
         if (v > best) {
           best = v;
           bestU = u;
         }
-      };
-      consider(hi);
-      if (s > lo && s < hi) consider(s);
-      for (let i = from; i < from + n; i++) {
-        const u = xs[i]!;
-        if (u > lo && u < hi) consider(u);
       }
       const w = s - bestU;
       const x = w > 0 ? w : 0;

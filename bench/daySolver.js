@@ -1,0 +1,102 @@
+// Speed of the exact fast day solver against HiGHS on seeded 96-period days with negative prices,
+// cycle cap on and off. Prints median and p95 per-day time of: the fast solver (src/plan/fast,
+// compiled into dist/), HiGHS with a kept model (one persistent model per battery, only costs and
+// bounds change; warmed first), HiGHS fresh from LP text, for the LP and the MIP (binary mode per
+// period), and the ratios to the fast solver.
+//
+//   npm run build && node bench/daySolver.js [--days 1000] [--batteries 4] [--negative yes|no|mixed]
+//
+// --negative yes (default) forces a stretch of negative prices into every day (arbitrage periods,
+// where complementarity binds); no keeps prices >= 0; mixed draws it per day.
+//
+// The days are invented inputs (test/reference/randomDays.ts); the models are the reference models
+// of test/reference/highsDayModel.ts (HiGHS via the `highs` devDependency).
+import { loadDist, loadReference } from './lib/reference.js';
+
+const arg = (name, fallback) => {
+  const i = process.argv.indexOf(`--${name}`);
+  return i > 0 ? process.argv[i + 1] : fallback;
+};
+const DAYS = Number(arg('days', 1000));
+const BATTERIES = Number(arg('batteries', 4));
+const NEGATIVE = { yes: true, no: false, mixed: undefined }[arg('negative', 'yes')];
+const WARM = 200;
+
+const ref = await loadReference();
+const { solveDayFast } = await loadDist('plan/fast/index.js');
+const highs = await ref.loadHighsSolver();
+
+/** Groups of days sharing one battery (a kept model needs the same matrix), cap on and off. */
+const groups = [];
+for (const cycleCap of [false, true]) {
+  for (let b = 0; b < BATTERIES; b++) {
+    const battery = ref.randomDay(`bench-battery-${cycleCap}-${b}`, { periods: 96, cycleCap }).battery;
+    const days = [];
+    const perGroup = Math.ceil(DAYS / (2 * BATTERIES));
+    for (let i = 0; i < perGroup; i++) {
+      const d = ref.randomDay(`bench-day-${cycleCap}-${b}-${i}`, { periods: 96, negativePrices: NEGATIVE, cycleCap });
+      const rng = ref.SeededRandom.fromName(`bench-start-${cycleCap}-${b}-${i}`);
+      const socStartMwh = battery.socMinMwh + (battery.socMaxMwh - battery.socMinMwh) * rng.pick([0, 1, rng.next()]);
+      days.push(Object.freeze({ ...d, periodHours: 0.25, battery, socStartMwh, socEndMinMwh: rng.chance(0.5) ? socStartMwh : battery.socMinMwh }));
+    }
+    groups.push({ cycleCap, days });
+  }
+}
+
+const times = { fast: [], keptLp: [], keptMip: [], freshLp: [], freshMip: [] };
+let notCovered = 0;
+let worst = 0;
+const timed = (list, fn) => {
+  const t0 = performance.now();
+  const out = fn();
+  list.push((performance.now() - t0) * 1000);
+  return out;
+};
+
+// Warm the fast solver's JIT on days outside the measured set.
+for (let i = 0; i < WARM; i++) solveDayFast(ref.randomDay(`bench-warm-${i}`, { periods: 96, negativePrices: true }));
+
+for (const group of groups) {
+  const keptLp = new ref.KeptDayModel(highs, group.days[0], false);
+  const keptMip = new ref.KeptDayModel(highs, group.days[0], true);
+  // HiGHS's first solves of a kept model are slow: warm it on the group's days before measuring.
+  for (let i = 0; i < WARM; i++) keptLp.solve(group.days[i % group.days.length]);
+  for (let i = 0; i < Math.min(WARM, 20); i++) keptMip.solve(group.days[i % group.days.length]);
+  for (const day of group.days) {
+    const fast = timed(times.fast, () => solveDayFast(day));
+    timed(times.keptLp, () => keptLp.solve(day));
+    const mip = timed(times.keptMip, () => keptMip.solve(day));
+    timed(times.freshLp, () => ref.solveDayWithHighs(highs, day, false));
+    timed(times.freshMip, () => ref.solveDayWithHighs(highs, day, true));
+    if (fast.status === 'not-covered') notCovered++;
+    else if (fast.status === 'optimal' && mip.status === 'optimal') worst = Math.max(worst, Math.abs(fast.objective - mip.objective) / Math.max(1, Math.abs(mip.objective)));
+  }
+  keptLp.dispose();
+  keptMip.dispose();
+}
+
+const quantile = (xs, q) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(q * xs.length))];
+const median = (xs) => quantile(xs, 0.5);
+const p95 = (xs) => quantile(xs, 0.95);
+const fast = { median: median(times.fast), p95: p95(times.fast) };
+const rows = [
+  ['fast solver (src/plan/fast)', times.fast],
+  ['HiGHS kept model, LP', times.keptLp],
+  ['HiGHS kept model, MIP', times.keptMip],
+  ['HiGHS fresh, LP', times.freshLp],
+  ['HiGHS fresh, MIP', times.freshMip],
+];
+const prices = { true: 'a negative-price stretch in every day', false: 'prices >= 0', undefined: 'a negative-price stretch in about half the days' }[String(NEGATIVE)];
+console.log(`${times.fast.length} days of 96 periods, ${prices}, cycle cap on and off, ${2 * BATTERIES} batteries; HiGHS npm ${ref.HIGHS_NPM_VERSION}`);
+console.log('solver                          median [us]    p95 [us]   median ratio   p95 ratio');
+for (const [label, xs] of rows) {
+  const m = median(xs);
+  const p = p95(xs);
+  console.log(`${label.padEnd(30)} ${m.toFixed(1).padStart(12)} ${p.toFixed(1).padStart(11)} ${(m / fast.median).toFixed(1).padStart(14)} ${(p / fast.p95).toFixed(1).padStart(11)}`);
+}
+for (const cycleCap of [false, true]) {
+  const xs = times.fast.filter((_, i) => groups[Math.floor(i / groups[0].days.length)].cycleCap === cycleCap);
+  console.log(`fast solver, cycle cap ${cycleCap ? 'on ' : 'off'}: median ${median(xs).toFixed(1)} us, p95 ${p95(xs).toFixed(1)} us`);
+}
+console.log(`fast solver not covered (answered "not-covered", left to the LP path; time included above): ${notCovered}`);
+console.log(`worst relative objective gap fast vs HiGHS kept MIP on covered days: ${worst.toExponential(2)}`);
