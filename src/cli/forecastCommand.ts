@@ -150,7 +150,7 @@ function forecastSummary(flags: ForecastFlags, context: SummaryContext) {
   const { forecasts, skipped, clampedValues } = context.result;
   return {
     method: flags.method,
-    levels: flags.levels.map(levelText),
+    levels: [...flags.levels],
     paths: flags.paths,
     from: context.from,
     to: context.to,

@@ -6,6 +6,8 @@ import { forecastCommand } from './forecastCommand.js';
 import { planCommand } from './planCommand.js';
 import { processIo, type CliIo } from './cliIo.js';
 import { scoreCommand } from './scoreCommand.js';
+import { sizeCommand } from './sizeCommand.js';
+import { sweepCommand } from './sweepCommand.js';
 import { packageVersion } from './version.js';
 
 /** Exit codes (DESIGN.md section 7). */
@@ -18,7 +20,7 @@ export function buildProgram(io: CliIo): Command {
     .showHelpAfterError('(add --help for usage)')
     .configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) })
     .exitOverride();
-  for (const command of [planCommand(io), backtestCommand(io), forecastCommand(io), scoreCommand(io), demoCommand(io)]) {
+  for (const command of [planCommand(io), backtestCommand(io), sweepCommand(io), sizeCommand(io), forecastCommand(io), scoreCommand(io), demoCommand(io)]) {
     command.exitOverride().configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) }).showHelpAfterError('(add --help for usage)');
     program.addCommand(command);
   }

@@ -153,7 +153,36 @@ export class Forecaster {
     const toScale = (p: number): number => (scale === null ? p : toAsinhScale(p, scale));
     const fromScale = (z: number): number => (scale === null ? z : fromAsinhScale(z, scale));
     const centre = scale === null ? point.mean : point.mean.map(toScale);
-    const errors = scale === null ? calibration.map((c) => c.errors) : calibration.map((c) => Float64Array.from(c.realised, (p, s) => toScale(p) - toScale(c.forecast.mean[s] as number)));
+    let errors = scale === null ? calibration.map((c) => c.errors) : calibration.map((c) => Float64Array.from(c.realised, (p, s) => toScale(p) - toScale(c.forecast.mean[s] as number)));
+    const lambda = Number(process.env.FHS ?? '0');
+    let sigmaTarget = 1;
+    if (lambda > 0) {
+      // v per calibration-able day: mean squared error of the day; sigma of day c from the days before it.
+      const vol = (dayNumbers: number[], v: number[], at: number): number => {
+        let sw = 0;
+        let sv = 0;
+        for (let j = 0; j < dayNumbers.length; j++) {
+          const age = at - 1 - (dayNumbers[j] as number);
+          if (age < 0 || age > 75) continue;
+          const w = lambda ** age;
+          sw += w;
+          sv += w * (v[j] as number);
+        }
+        return sw > 0 ? Math.sqrt(sv / sw) : NaN;
+      };
+      const extended = this.calibrationSet(model, view, this.options.calibrationDays + 76);
+      const dn = extended.map((c) => c.dayNumber);
+      const v = extended.map((c) => {
+        let sum = 0;
+        c.realised.forEach((p, s) => (sum += (toScale(p) - toScale(c.forecast.mean[s] as number)) ** 2));
+        return sum / c.realised.length;
+      });
+      const sig = calibration.map((c) => vol(dn, v, c.dayNumber));
+      errors = errors.map((e, i) => e.map((x) => x / (sig[i] as number)));
+      const keep = sig.map((x) => Number.isFinite(x));
+      errors = errors.filter((_, i) => keep[i]);
+      sigmaTarget = vol(dn, v, view.target.dayNumber);
+    }
     const notes: string[] = [];
     let grid: number[][];
     if (method === 'qra') {
@@ -174,6 +203,7 @@ export class Forecaster {
     } else {
       grid = historicalSimulation(centre, errors, levels);
     }
+    if (sigmaTarget !== 1) grid = grid.map((row, s) => row.map((q) => (centre[s] as number) + sigmaTarget * (q - (centre[s] as number))));
     if (scale !== null && method !== 'qra') grid = grid.map((row) => row.map(fromScale));
     const { prices, crossedRows } = rearrangeDay(grid);
     const layout = view.target.layout;
@@ -209,8 +239,8 @@ export class Forecaster {
   }
 
   /** The calibration days before the delivery day that could be forecast, oldest first. */
-  private calibrationSet(model: PointModelName, view: HistoryView) {
-    const first = view.target.dayNumber - this.options.calibrationDays;
+  private calibrationSet(model: PointModelName, view: HistoryView, days = this.options.calibrationDays) {
+    const first = view.target.dayNumber - days;
     const out: { dayNumber: number; forecast: PointForecast; realised: Float64Array; errors: Float64Array }[] = [];
     for (let i = view.indexAtOrBefore(first - 1) + 1; i < view.pastCount; i++) {
       const forecast = this.pointFor(model, i);

@@ -1,6 +1,6 @@
 import type { DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory } from '../types.js';
 import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
-import { ProblemList } from './inputError.js';
+import { InputError, ProblemList } from './inputError.js';
 import { parseDecimal, splitCsv, type CsvRow } from './csvText.js';
 import { readInputFile } from './readInputFile.js';
 
@@ -31,13 +31,9 @@ export function readPriceHistory(path: string, market: MarketSpec): PriceHistory
  * - cell problems are all collected and thrown together as one InputError (file, line, column).
  */
 export function parsePriceHistory(text: string, file: string, market: MarketSpec): PriceHistory {
-  const problems = new ProblemList();
   const split = splitCsv(text, file);
-  if ('problems' in split) {
-    split.problems.forEach((p) => problems.add(p));
-    problems.throwIfAny();
-    throw new Error('unreachable');
-  }
+  if ('problems' in split) throw new InputError(split.problems);
+  const problems = new ProblemList();
   const { header, rows } = split.table;
   const layout = historyLayout(header, file, problems);
   problems.throwIfAny();

@@ -24,7 +24,10 @@ export interface ArxSettings {
   readonly minTrainingDays: number;
 }
 
-/** Names of the ARX regressors, in column order, before the exogenous columns. */
+/**
+ * Names of the ARX regressors, in column order, before the exogenous columns (those of the day
+ * itself, then those of the day before, each in the history's order).
+ */
 export const ARX_COLUMNS: readonly string[] = Object.freeze([
   'price(d-1,s)',
   'price(d-2,s)',
@@ -48,11 +51,13 @@ const LAGS = [1, 2, 7] as const;
  * Model, one per clock slot s and calibration window, fitted on the days d' of the window:
  *   Z(d',s) = b0 + b1 Z(d'-1,s) + b2 Z(d'-2,s) + b3 Z(d'-7,s)
  *             + b4 min_t Z(d'-1,t) + b5 max_t Z(d'-1,t) + b6 Z(d'-1,S-1)
- *             + sum_{w = Mon..Sat} c_w D_w(d') + sum_j g_j X_j(d',s) + e(d',s),
+ *             + sum_{w = Mon..Sat} c_w D_w(d') + sum_j (g_j X_j(d',s) + h_j X_j(d'-1,s)) + e(d',s),
  * an autoregression with exogenous inputs (ARX; Box and Jenkins 1970) on the same slot 1, 2 and 7
  * days back, the previous day's minimum, maximum and last slot, weekday dummies (Sunday is the
- * reference) and the exogenous columns X_j of day d' itself (known before gate closure); in the last
- * slot, where Z(d'-1,S-1) is the lag-1 regressor itself, b6 is left out. Lags are
+ * reference) and the exogenous columns X_j of day d' itself (known before gate closure) and of the
+ * day before (as in the LEAR model of Lago et al. 2021; with them the model can tell the part of
+ * yesterday's price that yesterday's load and renewables explain from a persistent price level);
+ * in the last slot, where Z(d'-1,S-1) is the lag-1 regressor itself, b6 is left out. Lags are
  * calendar days; a training day is used only when its three lag days are in the history.
  * Z = asinh((P - a) / b) with a, b the median and normalised MAD of all prices of the training days
  * of the longest window (Uniejewski, Weron and Ziel 2018), one transformation per delivery day shared
@@ -68,7 +73,10 @@ const LAGS = [1, 2, 7] as const;
  * electricity spot price forecasting, IEEE Trans. Power Syst. 33(2), 2219-2229,
  * doi:10.1109/TPWRS.2017.2734563; K. Hubicka, G. Marcjasz and R. Weron (2019), A note on averaging
  * day-ahead electricity price forecasts across calibration windows, IEEE Trans. Sustain. Energy
- * 10(1), 321-323, doi:10.1109/TSTE.2018.2869557.
+ * 10(1), 321-323, doi:10.1109/TSTE.2018.2869557; J. Lago, G. Marcjasz, B. De Schutter and R. Weron
+ * (2021), Forecasting day-ahead electricity prices: a review of state-of-the-art algorithms, best
+ * practices and an open-access benchmark, Applied Energy 293, 116983,
+ * doi:10.1016/j.apenergy.2021.116983.
  *
  * @returns the forecast (members = one per window, in the order of windowsDays), or null when a
  *   window has fewer than minTrainingDays usable days or no past day lies 7 days before the delivery
@@ -115,7 +123,9 @@ function fitWindows(
   settings: ArxSettings,
 ): Map<number, Float64Array> {
   const S = view.slotsPerDay;
-  const exo = view.exogenousNames.length;
+  // The exogenous columns of the day itself, then those of the day before.
+  const exo = 2 * view.exogenousNames.length;
+  const withDayBefore = (own: readonly Float64Array[], dayBefore: number): readonly Float64Array[] => [...own, ...view.past(dayBefore).exogenous];
   const k = ARX_COLUMNS.length + exo;
   const a = 4 + exo;
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
@@ -135,10 +145,10 @@ function fitWindows(
   };
   const rows = rowsUsed.map((i) => {
     const dn = view.dayNumber(i);
-    return dayRegressors(LAGS.map((lag) => transformed(view.indexOf(dn - lag))), view.past(i).weekday, view.past(i).exogenous);
+    return dayRegressors(LAGS.map((lag) => transformed(view.indexOf(dn - lag))), view.past(i).weekday, withDayBefore(view.past(i).exogenous, view.indexOf(dn - 1)));
   });
   const responses = rowsUsed.map(transformed);
-  const target = dayRegressors(targetLags.map(transformed), view.target.weekday, view.target.exogenous);
+  const target = dayRegressors(targetLags.map(transformed), view.target.weekday, withDayBefore(view.target.exogenous, targetLags[0] as number));
   const builder = new ArxGramBuilder(
     {
       minMaxLast: Float64Array.from(rows.flatMap((r) => [r.min, r.max, r.last])),

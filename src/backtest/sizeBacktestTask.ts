@@ -1,0 +1,64 @@
+/**
+ * The task module of `quantbid size` (contract: sweep/workerPool.ts), run from its compiled copy
+ * dist/backtest/sizeBacktestTask.js. `loadContext` reads the four input files once per worker thread;
+ * `run` backtests one setting `{ energy_mwh, power_mw, round_trip_efficiency, policy }` and returns
+ * its row with the project economics (size/sizeSettingRow.ts).
+ */
+import { readBacktestInputsOnce, type BacktestInputPaths } from '../io/readBacktestInputs.js';
+import type { UnacceptedPolicy } from '../settle/settleDay.js';
+import { RunMemo, type PolicyRun } from './policyRun.js';
+import { settingNumber, settingWord } from './settingFields.js';
+import type { AlphaMode } from './size/alphaChoice.js';
+import type { SizeCosts } from './size/sizeEconomics.js';
+import { SIZE_POLICIES, sizeSettingRow, type SizeStudy } from './size/sizeSettingRow.js';
+import type { Setting } from './sweep/sweepGrid.js';
+import type { SweepRow } from './sweep/taskModule.js';
+
+/** The sizing's contextInput: plain data, copied into every worker. */
+export interface SizeTaskInput {
+  readonly paths: BacktestInputPaths;
+  readonly from: string;
+  readonly to: string;
+  readonly alpha: AlphaMode;
+  readonly unaccepted: UnacceptedPolicy;
+  readonly costs: SizeCosts;
+  /** Whether the efficiency axis replaces the spec's efficiencies (--efficiency given). */
+  readonly efficiencyGiven: boolean;
+}
+
+export interface SizeTaskContext {
+  readonly study: SizeStudy;
+  readonly efficiencyGiven: boolean;
+  /** Perfect-foresight runs per size, made once per worker where settings of one size meet. */
+  readonly memo: RunMemo<PolicyRun>;
+}
+
+export function loadContext(task: SizeTaskInput): SizeTaskContext {
+  const data = readBacktestInputsOnce(task.paths);
+  const study: SizeStudy = {
+    market: data.market,
+    batterySpec: data.batterySpec,
+    history: data.history,
+    forecast: data.forecast,
+    from: task.from,
+    to: task.to,
+    alpha: task.alpha,
+    unaccepted: task.unaccepted,
+    costs: task.costs,
+  };
+  return { study, efficiencyGiven: task.efficiencyGiven, memo: new RunMemo() };
+}
+
+export function run(setting: Setting, context: SizeTaskContext): SweepRow {
+  const efficiency = settingNumber(setting, 'round_trip_efficiency');
+  return sizeSettingRow(
+    context.study,
+    {
+      energyMwh: settingNumber(setting, 'energy_mwh'),
+      powerMw: settingNumber(setting, 'power_mw'),
+      ...(context.efficiencyGiven ? { roundTripEfficiency: efficiency } : {}),
+      policy: settingWord(setting, 'policy', [...SIZE_POLICIES, 'perfect-foresight'] as const),
+    },
+    context.memo,
+  );
+}

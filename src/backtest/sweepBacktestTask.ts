@@ -1,0 +1,46 @@
+/**
+ * The task module of `quantbid sweep` (contract: sweep/workerPool.ts), run from its compiled copy
+ * dist/backtest/sweepBacktestTask.js. `loadContext` reads the four input files once per worker thread;
+ * `run` backtests one setting `{ alpha, policy, unaccepted }` and returns its row (sweepSettingRow.ts).
+ */
+import { batteryModel } from '../battery/batterySpec.js';
+import { readBacktestInputsOnce, type BacktestInputPaths } from '../io/readBacktestInputs.js';
+import { UNACCEPTED_POLICIES } from '../settle/settleDay.js';
+import { RunMemo, type PolicyRun } from './policyRun.js';
+import type { BacktestInput } from './runBacktest.js';
+import { settingNumber, settingWord } from './settingFields.js';
+import type { Setting } from './sweep/sweepGrid.js';
+import type { SweepRow } from './sweep/taskModule.js';
+import { SWEEP_POLICIES, sweepSettingRow } from './sweepSettingRow.js';
+
+/** The sweep's contextInput: plain data, copied into every worker. */
+export interface SweepTaskInput {
+  readonly paths: BacktestInputPaths;
+  /** First and last delivery day, YYYY-MM-DD, both included. */
+  readonly from: string;
+  readonly to: string;
+}
+
+export interface SweepTaskContext {
+  readonly input: BacktestInput;
+  /** Reference runs (perfect foresight, point) made once per worker. */
+  readonly memo: RunMemo<PolicyRun>;
+}
+
+export function loadContext(task: SweepTaskInput): SweepTaskContext {
+  const data = readBacktestInputsOnce(task.paths);
+  const input: BacktestInput = { market: data.market, battery: batteryModel(data.batterySpec), history: data.history, forecast: data.forecast, from: task.from, to: task.to };
+  return { input, memo: new RunMemo() };
+}
+
+export function run(setting: Setting, context: SweepTaskContext): SweepRow {
+  return sweepSettingRow(
+    context.input,
+    {
+      alpha: settingNumber(setting, 'alpha'),
+      policy: settingWord(setting, 'policy', SWEEP_POLICIES),
+      unaccepted: settingWord(setting, 'unaccepted', UNACCEPTED_POLICIES),
+    },
+    context.memo,
+  );
+}

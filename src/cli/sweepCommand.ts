@@ -1,0 +1,83 @@
+import { Command } from 'commander';
+import { parseAxes, parseNumberAxis, parseWordAxis } from '../backtest/sweep/sweepAxis.js';
+import type { SweepTaskInput } from '../backtest/sweepBacktestTask.js';
+import { SWEEP_POLICIES } from '../backtest/sweepSettingRow.js';
+import { jsonText } from '../io/planOutputs.js';
+import { sweepSummary, sweepSummaryText } from '../io/sweepOutputs.js';
+import { checkOutputFolder, writeOutputs } from '../io/writeOutputs.js';
+import { UNACCEPTED_POLICIES } from '../settle/settleDay.js';
+import type { CliIo } from './cliIo.js';
+import { addGridOptions, requireGridFlags, type GridFlags } from './gridArgs.js';
+import { GRID_INPUTS, readGridInputs } from './gridInputs.js';
+import { runGrid } from './gridRun.js';
+import { addInputOptions, resolveInputs, type InputFlags } from './inputOptions.js';
+import { packageVersion } from './version.js';
+
+export interface SweepFlags extends InputFlags, GridFlags {
+  readonly alphas: string;
+  readonly policies: string;
+  readonly unaccepted: string;
+}
+
+/** Defaults of the axes: alphas the demo forecast's levels (0.05 to 0.95) allow, both alpha policies, follow-plan. */
+export const SWEEP_COMMAND_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: SWEEP_POLICIES.join(','), unaccepted: 'follow-plan' });
+
+const OUTPUTS = ['sweep.csv', 'summary.json'] as const;
+
+export function sweepCommand(io: CliIo): Command {
+  const command = new Command('sweep')
+    .description('backtest every setting of a grid of alpha x policy x unaccepted rule, in parallel, into sweep.csv (one row per setting)')
+    .option('--alphas <list>', 'alphas: values and ranges start:end:step, e.g. 0.02:0.48:0.02 or 0.05,0.1,0.2', SWEEP_COMMAND_DEFAULTS.alphas)
+    .option('--policies <list>', `policies whose orders depend on alpha: ${SWEEP_POLICIES.join(', ')}`, SWEEP_COMMAND_DEFAULTS.policies)
+    .option('--unaccepted <list>', `rules for unaccepted orders: ${UNACCEPTED_POLICIES.join(', ')}`, SWEEP_COMMAND_DEFAULTS.unaccepted);
+  addGridOptions(command, 'sweep.csv');
+  addInputOptions(command, GRID_INPUTS);
+  command.addHelpText(
+    'after',
+    `
+Columns of sweep.csv: alpha,policy,unaccepted, then days,profit,mean_daily_profit,capture_ratio,
+perfect_foresight_profit,point_profit,edge_vs_point,p_value_vs_point (one-sided Diebold-Mariano/HLN
+test that the setting earns more than the point policy), acceptance rates, fallback energy and cash,
+cycles and the daily-profit risk measures. An interrupted sweep (Ctrl-C: exit code 130) resumes from
+its journal in --out when run again with the same arguments.
+
+Examples:
+  quantbid sweep --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-03-31 --out runs/sweep-q1
+  quantbid sweep --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 \\
+                 --alphas 0.05:0.45:0.025 --policies quantile --unaccepted follow-plan,follow-accepted --threads 2 --out runs/sweep-2026
+  quantbid sweep --market market.json --battery battery.json --forecast quantiles.csv --history history.csv \\
+                 --from 2025-01-01 --to 2025-06-30 --alphas 0.1,0.2,0.3 --out runs/sweep-h1 --json --quiet`,
+  );
+  command.action((flags: SweepFlags) => runSweepCommand(flags, io));
+  return command;
+}
+
+export async function runSweepCommand(flags: SweepFlags, io: CliIo): Promise<void> {
+  const { from, to, out } = requireGridFlags(flags, 'sweep.csv');
+  const axes = parseAxes([
+    () => parseNumberAxis('alpha', '--alphas', flags.alphas, { accept: (a) => a > 0 && a < 0.5, expected: 'an alpha in (0, 0.5)' }),
+    () => parseWordAxis('policy', '--policies', flags.policies, SWEEP_POLICIES),
+    () => parseWordAxis('unaccepted', '--unaccepted', flags.unaccepted, UNACCEPTED_POLICIES),
+  ]);
+  const { paths } = resolveInputs(flags, GRID_INPUTS);
+  const force = flags.force === true;
+  checkOutputFolder(out, OUTPUTS, force);
+  const [alphaAxis, policyAxis] = axes as [(typeof axes)[number], (typeof axes)[number]];
+  const data = readGridInputs(paths, from, to, { alphas: alphaAxis.values as number[], option: '--alphas', policies: policyAxis.values as string[] });
+  const contextInput: SweepTaskInput = { paths, from, to };
+  const outcome = await runGrid(io, 'sweep', flags.quiet === true, {
+    outDir: out,
+    axes,
+    taskModule: new URL('../backtest/sweepBacktestTask.js', import.meta.url),
+    contextInput,
+    identity: { command: 'sweep', version: packageVersion(), from, to },
+    inputFiles: [paths.market, paths.battery, paths.history, paths.forecast],
+    ...(flags.threads === undefined ? {} : { threads: flags.threads }),
+    restart: flags.restart === true,
+    force,
+    csvName: 'sweep.csv',
+  });
+  const summary = sweepSummary(outcome.results, { from, to, data, paths, axes });
+  const files = [...outcome.files, ...writeOutputs(out, [{ name: 'summary.json', text: jsonText(summary) }], force)];
+  io.stdout(flags.json === true ? jsonText(summary) : sweepSummaryText(summary, outcome.resumed, files));
+}
