@@ -1,4 +1,4 @@
-import { Command, InvalidArgumentError } from 'commander';
+import { Command, InvalidArgumentError, Option } from 'commander';
 import { DEFAULT_METHOD, DEFAULTS, FORECAST_METHODS, type ForecastMethod } from '../forecast/forecaster.js';
 import { forecastRange, type ForecastRangeResult } from '../forecast/forecastRange.js';
 import { daysBetween } from '../market/calendar.js';
@@ -47,8 +47,12 @@ export function forecastCommand(io: CliIo): Command {
     .description('quantile forecasts of day-ahead prices from price history, day by day, each from the days before it only')
     .option('--from <YYYY-MM-DD>', 'first delivery day (required)', parseDayArg)
     .option('--to <YYYY-MM-DD>', 'last delivery day, included (required)', parseDayArg)
-    .option('--method <name>', `${FORECAST_METHODS.join(' | ')} (default ${FORECAST_COMMAND_DEFAULTS.method}: see docs/forecast-quality.md)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_COMMAND_DEFAULTS.method)
-    .option('--levels <list>', 'quantile levels in (0, 1): a range start:end:step or a list 0.1,0.5,0.9', parseLevelsArg, parseLevelsArg(FORECAST_COMMAND_DEFAULTS.levels))
+    .option('--method <name>', `${FORECAST_METHODS.join(' | ')} (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_COMMAND_DEFAULTS.method)
+    .addOption(
+      new Option('--levels <list>', 'quantile levels in (0, 1): a range start:end:step or a list 0.1,0.5,0.9')
+        .argParser(parseLevelsArg)
+        .default(parseLevelsArg(FORECAST_COMMAND_DEFAULTS.levels), FORECAST_COMMAND_DEFAULTS.levels),
+    )
     .option('--paths <S>', 'also write S whole-day scenario paths per day to paths.csv', parsePathCountArg, FORECAST_COMMAND_DEFAULTS.paths)
     .option('--out <dir>', 'folder for quantiles.csv, forecast.json and (with --paths) paths.csv (required)', parsePathArg)
     .option('--force', 'overwrite existing outputs')
@@ -61,7 +65,8 @@ Outputs, in the folder --out:
   quantiles.csv  wide quantile forecast period_start,q0.05,...,q0.95 (the layout --forecast reads);
                  days that could not be forecast are left out and listed in forecast.json
   paths.csv      with --paths S: period_start,path,price, per day S whole-day price curves
-                 (the day's point forecast plus the errors of one recent day, period by period)
+                 (the day's point forecast plus the errors of one calibration day, period by
+                 period, most recent day first: paths keep the dependence between periods)
   forecast.json  method, levels, options, days forecast and skipped with the reason, time spent
                  (elapsedSeconds, the only value that differs between two runs)
 

@@ -4,9 +4,10 @@
  *
  * Methods (point model + how the quantiles are made):
  * - `naive-hs`: seasonal naive (same slot `naiveLagDays` days back) + historical simulation;
- * - `arx-hs`: ARX by least squares on asinh prices, averaged over windows + historical simulation;
- * - `lasso-hs`: the same ARX fitted by LASSO (BIC) + historical simulation;
- * - `arx-conformal`: the ARX average + split conformal intervals;
+ * - `arx-hs`: ARX by least squares on asinh prices, averaged over windows + historical simulation
+ *   of its errors on the asinh scale;
+ * - `lasso-hs`: the same ARX fitted by LASSO (BIC) + historical simulation on the asinh scale;
+ * - `arx-conformal`: the ARX average + split conformal intervals on the asinh scale;
  * - `qra`: quantile regression averaging of the per-window forecasts of `qraModel`.
  * Every method's quantiles are repaired by monotone rearrangement. Optional whole-day scenario paths
  * add past days' error vectors to the method's point forecast (for `qra`, the `qraModel` average).
@@ -26,9 +27,9 @@ import { InsufficientHistoryError } from './models/errors.js';
 import { GridCache, HistoryView } from './models/historyView.js';
 import type { PointForecast } from './models/pointForecast.js';
 import { seasonalNaive } from './models/seasonalNaive.js';
-import { fromAsinhScale, robustScale, toAsinhScale } from './models/robustAsinh.js';
 import { fromSlotGrid, slotLayout } from './models/slotGrid.js';
 import { errorPaths } from './quantiles/errorPaths.js';
+import { asinhErrorScale, PRICE_SCALE, type ErrorScale } from './quantiles/errorScale.js';
 import { historicalSimulation } from './quantiles/historicalSimulation.js';
 import { requireLevels } from './quantiles/levels.js';
 import { QraWarmStarts, quantileRegressionAveraging } from './quantiles/quantileRegressionAveraging.js';
@@ -40,10 +41,12 @@ export const FORECAST_METHODS = ['naive-hs', 'arx-hs', 'lasso-hs', 'arx-conforma
 export type ForecastMethod = (typeof FORECAST_METHODS)[number];
 
 /**
- * The method `quantbid forecast` uses when none is named: the one with the lowest CRPS among those
- * that met the coverage targets on the demo market (docs/forecast-quality.md).
+ * The method `quantbid forecast` uses when none is named: of the methods that met every quality
+ * target on a year of the demo market (coverage of the 80% and 90% intervals within 3 points, Kupiec
+ * not rejected at 5%, CRPS at least 25% below naive-hs), the one with the lowest CRPS
+ * (docs/forecast-quality.md, bench/forecastQuality.js).
  */
-export const DEFAULT_METHOD: ForecastMethod = 'arx-conformal';
+export const DEFAULT_METHOD: ForecastMethod = 'arx-hs';
 
 /** Point models the methods are built on. */
 export type PointModelName = 'naive' | 'arx' | 'lasso';
@@ -66,26 +69,33 @@ export interface ForecastOptions {
   readonly scenarioPaths: number;
   /** LASSO path settings of `lasso-hs` (and of `qra` with qraModel 'lasso'). */
   readonly lasso: LassoOptions;
-  /** Scale of the calibration errors: 'price' or 'asinh'. */
-  readonly errorScale: 'price' | 'asinh';
+  /**
+   * Scale on which the calibration errors of `*-hs`, `arx-conformal` and the paths are measured:
+   * 'model', the point model's own (the asinh scale for ARX and LASSO, prices for the seasonal
+   * naive), or 'price' (P - P_hat for every model). `qra` works on prices either way.
+   */
+  readonly errorScale: 'model' | 'price';
 }
 
 /**
  * Defaults: windows of 56, 91, 182 and 364 days (two short, two long: Hubicka, Marcjasz and Weron
  * 2019 found mixing short and long windows best), at least 28 usable training days per window,
- * 182 calibration days (at least 28), the weekly naive lag, QRA over the ARX windows, no paths, and
- * the LASSO path of LASSO_DEFAULTS (20 penalties down to lambda_max / 100).
+ * 364 calibration days (at least 28), the weekly naive lag, QRA over the ARX windows, no paths, the
+ * LASSO path of LASSO_DEFAULTS (20 penalties down to lambda_max / 100), and errors on the point
+ * model's scale. A year of calibration days holds every season and puts about 18 errors beyond each
+ * 5% level of a clock slot, against 9 in half a year; with errors on the asinh scale it gave the
+ * best-calibrated forecasts of the demo market (docs/forecast-quality.md).
  */
 export const DEFAULTS: ForecastOptions = Object.freeze({
   windowsDays: Object.freeze([56, 91, 182, 364]),
   minTrainingDays: 28,
-  calibrationDays: 182,
+  calibrationDays: 364,
   minCalibrationDays: 28,
   naiveLagDays: 7,
   qraModel: 'arx',
   scenarioPaths: 0,
   lasso: LASSO_DEFAULTS,
-  errorScale: 'price',
+  errorScale: 'model',
 });
 
 /** A quantile forecast of one delivery day, with what it was made from. */
@@ -149,40 +159,9 @@ export class Forecaster {
     if (calibration.length < this.options.minCalibrationDays) {
       throw new InsufficientHistoryError(view.target.day, `${method} calibration`, this.options.minCalibrationDays, calibration.length);
     }
-    const scale = this.options.errorScale === 'asinh' ? robustScale(concatenate(calibration.map((c) => c.realised))) : null;
-    const toScale = (p: number): number => (scale === null ? p : toAsinhScale(p, scale));
-    const fromScale = (z: number): number => (scale === null ? z : fromAsinhScale(z, scale));
-    const centre = scale === null ? point.mean : point.mean.map(toScale);
-    let errors = scale === null ? calibration.map((c) => c.errors) : calibration.map((c) => Float64Array.from(c.realised, (p, s) => toScale(p) - toScale(c.forecast.mean[s] as number)));
-    const lambda = Number(process.env.FHS ?? '0');
-    let sigmaTarget = 1;
-    if (lambda > 0) {
-      // v per calibration-able day: mean squared error of the day; sigma of day c from the days before it.
-      const vol = (dayNumbers: number[], v: number[], at: number): number => {
-        let sw = 0;
-        let sv = 0;
-        for (let j = 0; j < dayNumbers.length; j++) {
-          const age = at - 1 - (dayNumbers[j] as number);
-          if (age < 0 || age > 75) continue;
-          const w = lambda ** age;
-          sw += w;
-          sv += w * (v[j] as number);
-        }
-        return sw > 0 ? Math.sqrt(sv / sw) : NaN;
-      };
-      const extended = this.calibrationSet(model, view, this.options.calibrationDays + 76);
-      const dn = extended.map((c) => c.dayNumber);
-      const v = extended.map((c) => {
-        let sum = 0;
-        c.realised.forEach((p, s) => (sum += (toScale(p) - toScale(c.forecast.mean[s] as number)) ** 2));
-        return sum / c.realised.length;
-      });
-      const sig = calibration.map((c) => vol(dn, v, c.dayNumber));
-      errors = errors.map((e, i) => e.map((x) => x / (sig[i] as number)));
-      const keep = sig.map((x) => Number.isFinite(x));
-      errors = errors.filter((_, i) => keep[i]);
-      sigmaTarget = vol(dn, v, view.target.dayNumber);
-    }
+    const scale = this.errorScaleOf(model, calibration);
+    const centre = point.mean.map(scale.to);
+    const errors = calibration.map((c) => Float64Array.from(c.realised, (p, s) => scale.to(p) - scale.to(c.forecast.mean[s] as number)));
     const notes: string[] = [];
     let grid: number[][];
     if (method === 'qra') {
@@ -203,11 +182,10 @@ export class Forecaster {
     } else {
       grid = historicalSimulation(centre, errors, levels);
     }
-    if (sigmaTarget !== 1) grid = grid.map((row, s) => row.map((q) => (centre[s] as number) + sigmaTarget * (q - (centre[s] as number))));
-    if (scale !== null && method !== 'qra') grid = grid.map((row) => row.map(fromScale));
+    if (method !== 'qra') grid = grid.map((row) => row.map(scale.from));
     const { prices, crossedRows } = rearrangeDay(grid);
     const layout = view.target.layout;
-    const paths = errorPaths(centre, errors, this.options.scenarioPaths).map((path) => fromSlotGrid(path.map(fromScale), layout));
+    const paths = errorPaths(centre, errors, this.options.scenarioPaths).map((path) => fromSlotGrid(path.map(scale.from), layout));
     return {
       quantiles: {
         day: view.target.day,
@@ -238,16 +216,20 @@ export class Forecaster {
     return forecast;
   }
 
+  /** The scale of the calibration errors: the point model's own for 'model', else prices. */
+  private errorScaleOf(model: PointModelName, calibration: readonly { realised: Float64Array }[]): ErrorScale {
+    if (this.options.errorScale === 'price' || model === 'naive') return PRICE_SCALE;
+    return asinhErrorScale(concatenate(calibration.map((c) => c.realised)));
+  }
+
   /** The calibration days before the delivery day that could be forecast, oldest first. */
-  private calibrationSet(model: PointModelName, view: HistoryView, days = this.options.calibrationDays) {
-    const first = view.target.dayNumber - days;
-    const out: { dayNumber: number; forecast: PointForecast; realised: Float64Array; errors: Float64Array }[] = [];
+  private calibrationSet(model: PointModelName, view: HistoryView) {
+    const first = view.target.dayNumber - this.options.calibrationDays;
+    const out: { dayNumber: number; forecast: PointForecast; realised: Float64Array }[] = [];
     for (let i = view.indexAtOrBefore(first - 1) + 1; i < view.pastCount; i++) {
       const forecast = this.pointFor(model, i);
       if (forecast === null) continue;
-      const realised = view.past(i).prices;
-      const errors = Float64Array.from(realised, (p, s) => p - (forecast.mean[s] as number));
-      out.push({ dayNumber: view.dayNumber(i), forecast, realised, errors });
+      out.push({ dayNumber: view.dayNumber(i), forecast, realised: view.past(i).prices });
     }
     return out;
   }

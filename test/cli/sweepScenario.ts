@@ -3,11 +3,13 @@
  * folder: a UTC market of hourly periods, a 10 MWh / 5 MW battery, `days` days of realised prices and
  * an 11-level quantile forecast from 2026-03-02 on. Prices come from a seeded Lehmer generator (seed
  * from the name), around a daily shape with a morning and an evening peak. Inputs only: never check
- * values.
+ * values. Also the helpers that run the compiled CLI in a child process.
  */
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { spawn, spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { daysBetween, shiftDay } from '../../src/market/calendar.js';
 
 export const SCENARIO_FIRST_DAY = '2026-03-02';
@@ -70,4 +72,66 @@ export function writeScenario(name: string, options: ScenarioOptions): Scenario 
   const scenario = join(dir, 'scenario.json');
   writeFileSync(scenario, `${JSON.stringify({ name, market: 'market.json', battery: 'battery.json', history: 'history.csv', forecast: 'quantiles.csv' }, null, 2)}\n`);
   return { dir, scenario, from: SCENARIO_FIRST_DAY, to };
+}
+
+/** The repository root, where `bin/quantbid.js` runs the compiled CLI. */
+export const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+
+export interface Run {
+  readonly code: number | null;
+  readonly signal: NodeJS.Signals | null;
+  readonly stdout: string;
+  readonly stderr: string;
+}
+
+/** Runs the compiled CLI (`npm run build` first) in a child process and waits for it. */
+export function quantbid(args: readonly string[]): Run {
+  const result = spawnSync(process.execPath, ['bin/quantbid.js', ...args], { cwd: ROOT, encoding: 'utf8', timeout: 300_000 });
+  return { code: result.status, signal: result.signal, stdout: result.stdout, stderr: result.stderr };
+}
+
+/**
+ * Runs the compiled CLI and sends `signal` once the journal `journal` holds at least `after` finished
+ * settings (its header line not counted).
+ */
+export function quantbidStoppedAfter(args: readonly string[], journal: string, after: number, signal: NodeJS.Signals): Promise<Run> {
+  const child = spawn(process.execPath, ['bin/quantbid.js', ...args], { cwd: ROOT, stdio: ['ignore', 'pipe', 'pipe'] });
+  let stdout = '';
+  let stderr = '';
+  child.stdout.on('data', (chunk: Buffer) => (stdout += chunk.toString()));
+  child.stderr.on('data', (chunk: Buffer) => (stderr += chunk.toString()));
+  const poll = setInterval(() => {
+    if (!existsSync(journal) || journalKeys(journal).length < after) return;
+    clearInterval(poll);
+    child.kill(signal);
+  }, 2);
+  return new Promise((resolve) => {
+    child.on('close', (code, got) => {
+      clearInterval(poll);
+      resolve({ code, signal: got, stdout, stderr });
+    });
+  });
+}
+
+/** Keys of the finished settings in a journal (whole lines only, header left out). */
+export function journalKeys(journal: string): string[] {
+  return readFileSync(journal, 'utf8')
+    .split('\n')
+    .slice(1, -1)
+    .map((line) => (JSON.parse(line) as { key: string }).key);
+}
+
+/** Fails with what to do when dist/ is missing or older than the sources these tests run. */
+export function checkBuild(names: readonly string[]): void {
+  for (const name of names) {
+    const built = join(ROOT, 'dist', `${name}.js`);
+    if (!existsSync(built) || statSync(built).mtimeMs < statSync(join(ROOT, 'src', `${name}.ts`)).mtimeMs) {
+      throw new Error(`dist/${name}.js is missing or older than src/${name}.ts: run \`npm run build\` first`);
+    }
+  }
+}
+
+/** CSV text as rows of cells (our CSV never quotes). */
+export function csvRows(text: string): string[][] {
+  return text.trimEnd().split('\n').map((line) => line.split(','));
 }

@@ -19,7 +19,13 @@ describe(`solveDay against HiGHS ${HIGHS_NPM_VERSION}`, () => {
         const name = `solve-day-vs-highs-${i}`;
         const problem = randomDay(name);
         const reference = solveDayWithHighs(highs, problem, true);
-        const outcome = solveDay(problem);
+        let outcome: ReturnType<typeof solveDay>;
+        try {
+          outcome = solveDay(problem);
+        } catch (error) {
+          failures.push(`${name}: solveDay threw ${error instanceof Error ? error.message : String(error)}`);
+          continue;
+        }
         if (reference.status !== 'optimal' || outcome.status !== 'optimal') {
           if (reference.status !== outcome.status) failures.push(`${name}: HiGHS ${reference.status}, solveDay ${outcome.status}`);
           continue;

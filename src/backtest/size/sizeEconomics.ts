@@ -1,5 +1,5 @@
 import { annualiseProfit, DAYS_PER_YEAR } from '../../economics/annualise-profit.js';
-import { irr } from '../../economics/irr.js';
+import { irr, type IrrOptions } from '../../economics/irr.js';
 import { npv } from '../../economics/npv.js';
 import { discountedPayback, simplePayback, type PaybackResult } from '../../economics/payback.js';
 import { projectCashFlows } from '../../economics/project-cash-flows.js';
@@ -19,6 +19,13 @@ export interface SizeCosts {
   /** Discount rate per year [-], > -1 (0.07 is 7%). */
   readonly discountRate: number;
 }
+
+/**
+ * Where the IRR of a size is looked for: -99% to 10,000% a year in steps of 1% (irr.ts). Wider than
+ * irr's default (up to 1,000%) so that a cheap battery on a volatile market still gets a rate, not
+ * `none`; two roots closer than 1% apart are not told apart.
+ */
+export const SIZE_IRR_SCAN: IrrOptions = Object.freeze({ minRate: -0.99, maxRate: 100, step: 0.01 });
 
 /** What a backtest of one size gave, over the days it covered. */
 export interface SizeBacktestTotals {
@@ -55,7 +62,7 @@ export interface SizeEconomics {
   readonly cashFlows: readonly number[];
   /** NPV at the discount rate [currency]. */
   readonly npv: number;
-  /** Internal rate of return [-], the root nearest 0; null when NPV has no root (e.g. no sign change). */
+  /** Internal rate of return [-], the root nearest 0; null when NPV has no root in SIZE_IRR_SCAN (e.g. no sign change). */
   readonly irr: number | null;
   /** Years until the cumulative cash flow reaches 0; null when it never does within the life. */
   readonly simplePaybackYears: number | null;
@@ -72,7 +79,8 @@ export interface SizeEconomics {
  *    capital cost) are bought again each time their life in cycles, at cyclesPerYear, runs out before
  *    the end of the project life; no residual value, no tax, no inflation, profit the same every year;
  * 4. NPV(r) = sum_y CF_y / (1 + r)^y (npv.ts);
- * 5. IRR: the root of NPV nearest 0 (irr.ts), none when the flows never change sign;
+ * 5. IRR: the root of NPV nearest 0 (irr.ts) within SIZE_IRR_SCAN, none when the flows never change
+ *    sign or NPV has no root there;
  * 6. simple and discounted payback: when the (discounted) cumulative flow first reaches 0, linear
  *    within the year (payback.ts).
  *
@@ -99,7 +107,7 @@ export function sizeEconomics(size: { readonly energyMwh: number; readonly power
     lifeCycles: costs.lifeCycles ?? Number.POSITIVE_INFINITY,
     cyclesPerYear,
   });
-  const rate = irr(project.cashFlows);
+  const rate = irr(project.cashFlows, SIZE_IRR_SCAN);
   return {
     profitPerYear,
     revenuePerYear: perYear(totals.tradingCash),

@@ -16,6 +16,7 @@ export interface FastSolverOptions {
   readonly maxBreakpoints: number;
 }
 
+/** Budgets measured on seeded 96-period days (bench/daySolver.js): about 3 % of days with a negative-price stretch exceed both. */
 export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ sweepNodes: 64, programNodes: 64, maxBreakpoints: 400 });
 
 /** A DayOutcome, or `not-covered` when the caller must fall back to the general LP path. */
@@ -33,9 +34,12 @@ export const FAST_SOLVER_NAME = 'fast-warehouse-sweep';
  * (cycleCapDual.ts), and complementarity in arbitrage periods by branch and bound over those
  * periods only (arbitrageBranching.ts). Outside arbitrage periods no branching is needed.
  *
- * Arbitrage periods are first branched on with the chord sweep (fast when the chord relaxation is
- * tight: wide windows); past `sweepNodes` the exact dynamic program (valueDp.ts) takes over (fast
- * when the window is narrow against the power steps).
+ * Arbitrage periods get one mode each by one of two exact methods, the other one taking over
+ * when the first spends its budget: branching on the chord sweep (fast when the chord relaxation
+ * is tight: wide windows, or a cycle cap) or the dynamic program over general piecewise-linear
+ * value functions (valueDp.ts; fast when the window is narrow against the power steps). The order
+ * is chosen by programSuits. Scratch arrays are kept in a module-level cache between calls; the
+ * result depends on the problem only.
  *
  * Returns `optimal` with the schedule in grid units (MW; socMwh by the recursion of section 4),
  * `infeasible` with a reason, or `not-covered` (fastSolverGap, or both budgets spent).

@@ -1,0 +1,135 @@
+import { existsSync, readFileSync, readdirSync } from 'node:fs';
+import { join } from 'node:path';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { checkBuild, csvRows, journalKeys, quantbid, quantbidStoppedAfter, writeScenario, type Scenario } from './sweepScenario.js';
+
+// `quantbid sweep` as users run it: the compiled CLI (dist/) in a child process, on a tiny invented
+// hourly scenario written into a temporary folder (sweepScenario.ts).
+
+const ALPHAS = ['0.05', '0.15', '0.25', '0.35', '0.45'];
+const POLICIES = ['quantile', 'median'];
+const RULES = ['follow-plan', 'follow-accepted'];
+const SETTINGS = ALPHAS.length * POLICIES.length * RULES.length;
+
+let scenario: Scenario;
+let oneThread = '';
+
+function sweepArgs(out: string, extra: readonly string[] = []): string[] {
+  return ['sweep', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--alphas', '0.05:0.45:0.1', '--unaccepted', RULES.join(','), '--out', out, ...extra];
+}
+
+beforeAll(() => {
+  checkBuild(['cli/sweepCommand', 'cli/gridRun', 'cli/main', 'backtest/sweepBacktestTask', 'backtest/sweepSettingRow', 'backtest/policyRun', 'io/sweepOutputs']);
+  scenario = writeScenario('sweep-cli', { days: 8 });
+  oneThread = join(scenario.dir, 'one-thread');
+  const run = quantbid(sweepArgs(oneThread, ['--threads', '1']));
+  expect(run.stderr).toBe('');
+  expect(run.code).toBe(0);
+}, 300_000);
+
+describe('quantbid sweep on a small seeded market', () => {
+  it('writes sweep.csv with one row per setting in grid order (alpha outermost, unaccepted fastest) and summary.json', () => {
+    expect(readdirSync(oneThread).sort()).toEqual(['summary.json', 'sweep.csv']);
+    const rows = csvRows(readFileSync(join(oneThread, 'sweep.csv'), 'utf8'));
+    expect(rows[0]?.slice(0, 5)).toEqual(['alpha', 'policy', 'unaccepted', 'days', 'profit']);
+    expect(rows[0]).toEqual(expect.arrayContaining(['capture_ratio', 'buy_acceptance_rate', 'sell_acceptance_rate', 'fallback_mwh', 'fallback_cash', 'cycles', 'p_value_vs_point']));
+    const expected = ALPHAS.flatMap((a) => POLICIES.flatMap((p) => RULES.map((u) => [a, p, u])));
+    expect(rows.slice(1).map((r) => r.slice(0, 3))).toEqual(expected);
+    expect(rows).toHaveLength(1 + SETTINGS);
+  });
+
+  it('agrees with quantbid backtest for the same setting: profit, capture ratio, acceptance, fallback and the DM/HLN p-value', () => {
+    const out = join(scenario.dir, 'backtest');
+    const run = quantbid(['backtest', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--alpha', '0.25', '--policies', 'quantile,point,perfect-foresight', '--out', out]);
+    expect(run.code).toBe(0);
+    const backtest = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+    const rows = csvRows(readFileSync(join(oneThread, 'sweep.csv'), 'utf8'));
+    const header = rows[0] as string[];
+    const row = rows.find((r) => r[0] === '0.25' && r[1] === 'quantile' && r[2] === 'follow-plan') as string[];
+    const cell = (name: string) => Number(row[header.indexOf(name)]);
+    const q = backtest.policies.quantile;
+    // Both files keep 6 decimals at most (formatNumber).
+    expect(cell('profit')).toBeCloseTo(q.profit, 5);
+    expect(cell('capture_ratio')).toBeCloseTo(q.captureRatio, 5);
+    expect(cell('buy_acceptance_rate')).toBeCloseTo(q.buyAcceptanceRate, 5);
+    expect(cell('fallback_cash')).toBeCloseTo(q.fallbackCash, 5);
+    expect(cell('cycles')).toBeCloseTo(q.equivalentFullCycles, 5);
+    expect(cell('perfect_foresight_profit')).toBeCloseTo(backtest.policies['perfect-foresight'].profit, 5);
+    expect(cell('point_profit')).toBeCloseTo(backtest.policies.point.profit, 5);
+    expect(backtest.edge.status).toBe('ok');
+    expect(cell('p_value_vs_point')).toBeCloseTo(backtest.edge.pValueOneSided, 5);
+  });
+
+  it('summary.json names the setting with the highest profit in sweep.csv', () => {
+    const rows = csvRows(readFileSync(join(oneThread, 'sweep.csv'), 'utf8'));
+    const profit = (rows[0] as string[]).indexOf('profit');
+    const top = rows.slice(1).reduce((best, r) => (Number(r[profit]) > Number(best[profit]) ? r : best));
+    const summary = JSON.parse(readFileSync(join(oneThread, 'summary.json'), 'utf8'));
+    expect([String(summary.best.setting.alpha), summary.best.setting.policy, summary.best.setting.unaccepted]).toEqual(top.slice(0, 3));
+    expect(summary.bestAlphaByPolicy).toHaveLength(POLICIES.length * RULES.length);
+    expect(summary.daysCovered).toBe(8);
+  });
+
+  it('writes the same bytes with 2 threads as with 1', () => {
+    const out = join(scenario.dir, 'two-threads');
+    const run = quantbid(sweepArgs(out, ['--threads', '2', '--json']));
+    expect(run.code).toBe(0);
+    for (const name of ['sweep.csv', 'summary.json']) expect(readFileSync(join(out, name), 'utf8')).toBe(readFileSync(join(oneThread, name), 'utf8'));
+    expect(run.stdout).toBe(readFileSync(join(oneThread, 'summary.json'), 'utf8'));
+  });
+
+  it('killed with SIGKILL part-way, it resumes from the journal to the bytes of an uninterrupted run', async () => {
+    const out = join(scenario.dir, 'killed');
+    const journal = join(out, '.sweep-journal.jsonl');
+    const killed = await quantbidStoppedAfter(sweepArgs(out, ['--threads', '2']), journal, 3, 'SIGKILL');
+    expect(killed.signal).toBe('SIGKILL');
+    expect(existsSync(join(out, 'sweep.csv'))).toBe(false);
+    const kept = journalKeys(journal);
+    expect(kept.length).toBeGreaterThanOrEqual(3);
+    expect(kept.length).toBeLessThan(SETTINGS);
+    const resumed = quantbid(sweepArgs(out, ['--threads', '2']));
+    expect(resumed.code).toBe(0);
+    expect(resumed.stdout).toContain(`${SETTINGS} settings (${kept.length} resumed from the journal)`);
+    for (const name of ['sweep.csv', 'summary.json']) expect(readFileSync(join(out, name), 'utf8')).toBe(readFileSync(join(oneThread, name), 'utf8'));
+    expect(existsSync(journal)).toBe(false);
+  });
+
+  it('stopped with Ctrl-C (SIGINT): exit code 130 and a message on how to resume, the journal kept', async () => {
+    const out = join(scenario.dir, 'interrupted');
+    const journal = join(out, '.sweep-journal.jsonl');
+    const stopped = await quantbidStoppedAfter(sweepArgs(out, ['--threads', '2']), journal, 1, 'SIGINT');
+    expect(stopped.code).toBe(130);
+    const kept = journalKeys(journal);
+    expect(stopped.stderr).toContain(`stopped after ${kept.length} of ${SETTINGS} settings; the finished ones are kept in ${journal}.\nRun the same command again to resume (or add --restart to start over).\n`);
+    expect(existsSync(join(out, 'sweep.csv'))).toBe(false);
+  });
+
+  it('--help shows examples', () => {
+    const help = quantbid(['sweep', '--help']);
+    expect(help.code).toBe(0);
+    expect(help.stdout).toMatch(/Examples:\n {2}quantbid sweep --scenario/);
+  });
+});
+
+describe('quantbid sweep rejects bad input with exit code 2 and writes nothing', () => {
+  it.each([
+    [['--alphas', '0.3:0.1:0.1'], /--alphas: the start of "0.3:0.1:0.1" is above its end/],
+    [['--alphas', '0.1,0.6'], /--alphas: 0.6 is not an alpha in \(0, 0.5\)/],
+    [['--alphas', '0.02,0.1'], /--alphas: alpha 0.02: alpha or 1 - alpha lies outside the forecast's levels \[0.05, 0.95\]/],
+    [['--policies', 'quantile,oracle'], /--policies: "oracle" is not one of quantile, median/],
+    [['--unaccepted', 'ignore'], /--unaccepted: "ignore" is not one of follow-plan, follow-accepted/],
+    [['--threads', '0'], /"0" must be a whole number >= 1/],
+  ])('%j', (extra, message) => {
+    const out = join(scenario.dir, `bad-${extra.join('').replace(/[^a-z0-9]/gi, '')}`);
+    const run = quantbid(['sweep', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--out', out, ...extra]);
+    expect(run.code).toBe(2);
+    expect(run.stderr).toMatch(message);
+    expect(existsSync(out)).toBe(false);
+  });
+
+  it('lists every missing flag together', () => {
+    const run = quantbid(['sweep', '--scenario', scenario.scenario]);
+    expect(run.code).toBe(2);
+    expect(run.stderr).toMatch(/--from: no --from given[\s\S]*--to: no --to given[\s\S]*--out: no --out given/);
+  });
+});
