@@ -9,6 +9,7 @@
 //
 //   npm run build && node bench/forecastQuality.js [--from 2026-01-01] [--to 2026-12-31]
 //        [--methods naive-hs,arx-hs,...] [--scenario scenarios/halvorn/scenario.json]
+//        [--options '{"calibrationDays": 182, "errorScale": "price"}']   (Forecaster options over DEFAULTS)
 //
 // Uses the compiled project (dist/), the same functions as `quantbid forecast` and `quantbid score`.
 import { basename, resolve } from 'node:path';
@@ -34,6 +35,7 @@ const { readQuantileForecast } = await loadDist('io/readQuantileForecast.js');
 const { DayCalendar } = await loadDist('market/dayCalendar.js');
 
 const METHODS = arg('methods', FORECAST_METHODS.join(',')).split(',');
+const OPTIONS = JSON.parse(arg('options', '{}'));
 const scenario = readScenario(SCENARIO);
 const market = readMarketSpec(scenario.market);
 const history = readPriceHistory(scenario.history, market);
@@ -46,7 +48,7 @@ const scored = (days) => days.filter((q) => realised.has(q.day)).map((forecast) 
 const rows = [];
 for (const method of METHODS) {
   const started = performance.now();
-  const run = forecastRange(history, { from: FROM, to: TO, method, levels: LEVELS, priceFloor: market.priceFloor, priceCap: market.priceCap, periodsOf: (d) => calendar.periods(d) });
+  const run = forecastRange(history, { from: FROM, to: TO, method, levels: LEVELS, priceFloor: market.priceFloor, priceCap: market.priceCap, periodsOf: (d) => calendar.periods(d) }, OPTIONS);
   const seconds = (performance.now() - started) / 1000;
   process.stderr.write(`${method}: ${run.forecasts.length} days in ${seconds.toFixed(0)} s, ${run.skipped.length} skipped\n`);
   rows.push({ name: method, days: scored(run.forecasts.map((f) => f.quantiles)), seconds });
@@ -106,6 +108,6 @@ for (const row of rows) {
   );
 }
 best.sort((a, b) => a.crps - b.crps);
-console.log(`Forecast quality on ${scenario.name}, ${FROM} to ${TO}, ${rows[0]?.table.bySlot.length ?? 0} periods of the day, levels 0.05..0.95\n`);
+console.log(`Forecast quality on ${scenario.name}, ${FROM} to ${TO}, ${rows[0]?.table.bySlot.length ?? 0} periods of the day, levels 0.05..0.95, options ${JSON.stringify(OPTIONS)} over DEFAULTS\n`);
 console.log(lines.join('\n'));
 console.log(`\nlowest CRPS among the methods that meet every target: ${best[0]?.name ?? 'none'}; default method: ${DEFAULT_METHOD}`);

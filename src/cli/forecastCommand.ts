@@ -6,7 +6,7 @@ import { DayCalendar } from '../market/dayCalendar.js';
 import { formatNumber } from '../io/formatNumber.js';
 import { gatherProblems, InputError, type InputProblem } from '../io/inputError.js';
 import { jsonText } from '../io/planOutputs.js';
-import { levelText, quantileForecastCsv, scenarioPathsCsv } from '../io/quantileForecastCsv.js';
+import { quantileForecastCsv, scenarioPathsCsv } from '../io/quantileForecastCsv.js';
 import { readPriceHistory } from '../io/readPriceHistory.js';
 import { readMarketSpec } from '../io/readSpecs.js';
 import { shownText } from '../io/shownText.js';

@@ -10,7 +10,8 @@
  * - `arx-conformal`: the ARX average + split conformal intervals on the asinh scale;
  * - `qra`: quantile regression averaging of the per-window forecasts of `qraModel`.
  * Every method's quantiles are repaired by monotone rearrangement. Optional whole-day scenario paths
- * add past days' error vectors to the method's point forecast (for `qra`, the `qraModel` average).
+ * add past days' error vectors to the method's point forecast (for `qra`, the `qraModel` average),
+ * on the scale of `errorScale`.
  *
  * Calibration: the out-of-sample errors (or, for `qra`, the point forecasts) of the last
  * `calibrationDays` calendar days before the delivery day that could be forecast; each of those
@@ -292,9 +293,11 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
     throw new ArgumentError('options.scenarioPaths', `at most calibrationDays = ${o.calibrationDays}`, o.scenarioPaths);
   }
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
+  if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;
 }
 
+/** The arrays one after the other in one array. */
 function concatenate(arrays: readonly Float64Array[]): Float64Array {
   const out = new Float64Array(arrays.reduce((n, a) => n + a.length, 0));
   let at = 0;

@@ -38,7 +38,7 @@ const NOTES = [
 export function scoreSummary(input: ScoreSummaryInput) {
   const { table } = input;
   return {
-    notes: input.comparison === null ? NOTES : [...NOTES, 'dieboldMariano: d = daily crps of --forecast minus daily crps of --against; HLN-corrected DM with h = 1 referred to t(n - 1); pValueAgainstBetter tests E[d] > 0, pValueForecastBetter E[d] < 0'],
+    notes: input.comparison === null ? NOTES : [...NOTES, 'dieboldMariano: d = daily crps of --forecast minus daily crps of --against, on the days both forecast; crpsForecast and crpsAgainst are the means of the daily crps (each day counts once, whatever its number of periods); HLN-corrected DM with h = 1 referred to t(n - 1); pValueAgainstBetter tests E[d] > 0, pValueForecastBetter E[d] < 0'],
     inputs: { ...input.inputs },
     currency: input.currency,
     levels: [...table.levels],
@@ -112,20 +112,21 @@ function comparisonJson(c: ForecastComparison) {
 export function scoreSummaryText(summary: ReturnType<typeof scoreSummary>, out: string): string {
   const pct = (x: number) => `${formatNumber(100 * x, 2)}%`;
   const money = (x: number) => `${formatNumber(x, 4)} ${summary.currency}/MWh`;
+  const p = (x: number) => (x < 1e-4 ? '<0.0001' : formatNumber(x, 4));
   const lines = [
     `scored ${summary.days.scored} days (${summary.days.first} to ${summary.days.last}), ${summary.periods} periods; ${summary.days.unscored} forecast days not scored`,
     `  crps (mean pinball, = CRPS/2): ${money(summary.crps)}`,
     ...Object.entries(summary.coverage).map(([c, observed]) => {
       const kupiec = summary.kupiec[c];
       const rejected = summary.periodsRejectedAt5pct[c]?.kupiec ?? 0;
-      return `  coverage ${pct(Number(c))}: ${pct(observed)}; Kupiec p ${kupiec === null || kupiec === undefined ? '-' : formatNumber(kupiec.pValue, 4)} overall, rejected at 5% in ${rejected} of ${summary.periodsOfTheDay} periods of the day`;
+      return `  coverage ${pct(Number(c))}: ${pct(observed)}; Kupiec p ${kupiec === null || kupiec === undefined ? '-' : p(kupiec.pValue)} overall, rejected at 5% in ${rejected} of ${summary.periodsOfTheDay} periods of the day`;
     }),
   ];
   const dm = summary.dieboldMariano;
   if (dm !== null) {
     lines.push(
-      `  against: crps ${money(dm.crpsAgainst)} vs ${money(dm.crpsForecast)} on ${dm.days} common days; ` +
-        ('hln' in dm ? `Diebold-Mariano (HLN) ${formatNumber(dm.hln, 3)}, p two-sided ${formatNumber(dm.pValueTwoSided, 4)}` : `Diebold-Mariano not defined: ${dm.reason}`),
+      `  --against: daily crps ${money(dm.crpsAgainst)}, this forecast's ${money(dm.crpsForecast)}, on ${dm.days} common days; ` +
+        ('hln' in dm ? `Diebold-Mariano (HLN) ${formatNumber(dm.hln, 3)}, p two-sided ${p(dm.pValueTwoSided)}` : `Diebold-Mariano not defined: ${dm.reason}`),
     );
   }
   lines.push(`  wrote ${out}/score.json`);

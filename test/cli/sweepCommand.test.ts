@@ -23,8 +23,7 @@ beforeAll(() => {
   scenario = writeScenario('sweep-cli', { days: 8 });
   oneThread = join(scenario.dir, 'one-thread');
   const run = quantbid(sweepArgs(oneThread, ['--threads', '1']));
-  expect(run.stderr).toBe('');
-  expect(run.code).toBe(0);
+  expect(run).toMatchObject({ code: 0, stderr: '' });
 }, 300_000);
 
 describe('quantbid sweep on a small seeded market', () => {
@@ -41,7 +40,7 @@ describe('quantbid sweep on a small seeded market', () => {
   it('agrees with quantbid backtest for the same setting: profit, capture ratio, acceptance, fallback and the DM/HLN p-value', () => {
     const out = join(scenario.dir, 'backtest');
     const run = quantbid(['backtest', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--alpha', '0.25', '--policies', 'quantile,point,perfect-foresight', '--out', out]);
-    expect(run.code).toBe(0);
+    expect(run).toMatchObject({ code: 0, stderr: '' });
     const backtest = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
     const rows = csvRows(readFileSync(join(oneThread, 'sweep.csv'), 'utf8'));
     const header = rows[0] as string[];
@@ -73,7 +72,7 @@ describe('quantbid sweep on a small seeded market', () => {
   it('writes the same bytes with 2 threads as with 1', () => {
     const out = join(scenario.dir, 'two-threads');
     const run = quantbid(sweepArgs(out, ['--threads', '2', '--json']));
-    expect(run.code).toBe(0);
+    expect(run).toMatchObject({ code: 0, stderr: '' });
     for (const name of ['sweep.csv', 'summary.json']) expect(readFileSync(join(out, name), 'utf8')).toBe(readFileSync(join(oneThread, name), 'utf8'));
     expect(run.stdout).toBe(readFileSync(join(oneThread, 'summary.json'), 'utf8'));
   });
@@ -88,7 +87,7 @@ describe('quantbid sweep on a small seeded market', () => {
     expect(kept.length).toBeGreaterThanOrEqual(3);
     expect(kept.length).toBeLessThan(SETTINGS);
     const resumed = quantbid(sweepArgs(out, ['--threads', '2']));
-    expect(resumed.code).toBe(0);
+    expect(resumed).toMatchObject({ code: 0, stderr: '' });
     expect(resumed.stdout).toContain(`${SETTINGS} settings (${kept.length} resumed from the journal)`);
     for (const name of ['sweep.csv', 'summary.json']) expect(readFileSync(join(out, name), 'utf8')).toBe(readFileSync(join(oneThread, name), 'utf8'));
     expect(existsSync(journal)).toBe(false);
@@ -122,8 +121,7 @@ describe('quantbid sweep rejects bad input with exit code 2 and writes nothing',
   ])('%j', (extra, message) => {
     const out = join(scenario.dir, `bad-${extra.join('').replace(/[^a-z0-9]/gi, '')}`);
     const run = quantbid(['sweep', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--out', out, ...extra]);
-    expect(run.code).toBe(2);
-    expect(run.stderr).toMatch(message);
+    expect(run).toMatchObject({ code: 2, stderr: expect.stringMatching(message) });
     expect(existsSync(out)).toBe(false);
   });
 

@@ -40,6 +40,10 @@ describe('errorScale option of the Forecaster', () => {
     expect(model.quantiles.prices).not.toEqual(price.quantiles.prices);
   });
 
+  it('refuses an unknown scale with the argument named', () => {
+    expect(() => forecastDay(history, 110, LEVELS, 'arx-hs', { ...SMALL, errorScale: 'log' as 'price' })).toThrow(/options.errorScale/);
+  });
+
   it('keeps the seasonal naive model on prices either way (its own scale)', () => {
     const model = forecastDay(history, 110, LEVELS, 'naive-hs', SMALL);
     const price = forecastDay(history, 110, LEVELS, 'naive-hs', { ...SMALL, errorScale: 'price' });

@@ -82,7 +82,7 @@ export function sizeSettingRow(study: SizeStudy, setting: SizeSetting, memo: Run
   let run = perfect;
   if (setting.policy !== 'perfect-foresight') {
     if (usesAlpha(setting.policy)) {
-      alpha = mode.method === 'fixed' ? mode.alpha : chooseAlpha({ ...base, ...alphaSplit(study.from, study.to).choose }, setting.policy, mode.alphas, study.unaccepted).alpha;
+      alpha = mode.method === 'fixed' ? mode.alpha : chooseAlpha({ ...base, ...alphaSplit(study.from, study.to).score }, setting.policy, mode.alphas, study.unaccepted).alpha;
     }
     run = runPolicy(scored, setting.policy, { alpha: alpha ?? UNUSED_ALPHA, unaccepted: study.unaccepted });
   }
