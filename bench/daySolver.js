@@ -4,7 +4,10 @@
 // bounds change; warmed first), HiGHS fresh from LP text, for the LP and the MIP (binary mode per
 // period), and the ratios to the fast solver.
 //
-//   npm run build && node bench/daySolver.js [--days 1000] [--batteries 4] [--negative yes|no|mixed]
+//   npm run build && node bench/daySolver.js [--days 1000] [--batteries 4] [--negative yes|no|mixed] [--mip]
+//
+// --mip adds the kept and fresh MIP (slow: tens to hundreds of ms per day) and the objective check
+// against the kept MIP.
 //
 // --negative yes (default) forces a stretch of negative prices into every day (arbitrage periods,
 // where complementarity binds); no keeps prices >= 0; mixed draws it per day.
@@ -20,6 +23,7 @@ const arg = (name, fallback) => {
 const DAYS = Number(arg('days', 1000));
 const BATTERIES = Number(arg('batteries', 4));
 const NEGATIVE = { yes: true, no: false, mixed: undefined }[arg('negative', 'yes')];
+const MIP = process.argv.includes('--mip');
 const WARM = 200;
 
 const ref = await loadReference();
@@ -60,22 +64,22 @@ for (let i = 0; i < WARM; i++) solveDayFast(ref.randomDay(`bench-warm-${i}`, { p
 // one solver day after day); interleaving them lets HiGHS's memory traffic slow the others down.
 for (const group of groups) {
   const keptLp = new ref.KeptDayModel(highs, group.days[0], false);
-  const keptMip = new ref.KeptDayModel(highs, group.days[0], true);
+  const keptMip = MIP ? new ref.KeptDayModel(highs, group.days[0], true) : null;
   // HiGHS's first solves of a kept model are slow: warm it on the group's days before measuring.
   for (let i = 0; i < WARM; i++) keptLp.solve(group.days[i % group.days.length]);
-  for (let i = 0; i < Math.min(WARM, 20); i++) keptMip.solve(group.days[i % group.days.length]);
+  for (let i = 0; keptMip && i < 20; i++) keptMip.solve(group.days[i % group.days.length]);
   const fast = group.days.map((day) => timed(times.fast, () => solveDayFast(day)));
   for (const day of group.days) timed(times.keptLp, () => keptLp.solve(day));
-  const mip = group.days.map((day) => timed(times.keptMip, () => keptMip.solve(day)));
+  const mip = keptMip ? group.days.map((day) => timed(times.keptMip, () => keptMip.solve(day))) : [];
   for (const day of group.days) timed(times.freshLp, () => ref.solveDayWithHighs(highs, day, false));
-  for (const day of group.days) timed(times.freshMip, () => ref.solveDayWithHighs(highs, day, true));
+  if (MIP) for (const day of group.days) timed(times.freshMip, () => ref.solveDayWithHighs(highs, day, true));
   fast.forEach((f, i) => {
     const m = mip[i];
     if (f.status === 'not-covered') notCovered++;
-    else if (f.status === 'optimal' && m.status === 'optimal') worst = Math.max(worst, Math.abs(f.objective - m.objective) / Math.max(1, Math.abs(m.objective)));
+    else if (m && f.status === 'optimal' && m.status === 'optimal') worst = Math.max(worst, Math.abs(f.objective - m.objective) / Math.max(1, Math.abs(m.objective)));
   });
   keptLp.dispose();
-  keptMip.dispose();
+  keptMip?.dispose();
 }
 
 const quantile = (xs, q) => [...xs].sort((a, b) => a - b)[Math.min(xs.length - 1, Math.floor(q * xs.length))];
@@ -93,6 +97,7 @@ const prices = { true: 'a negative-price stretch in every day', false: 'prices >
 console.log(`${times.fast.length} days of 96 periods, ${prices}, cycle cap on and off, ${2 * BATTERIES} batteries; HiGHS npm ${ref.HIGHS_NPM_VERSION}`);
 console.log('solver                          median [us]    p95 [us]   median ratio   p95 ratio');
 for (const [label, xs] of rows) {
+  if (xs.length === 0) continue;
   const m = median(xs);
   const p = p95(xs);
   console.log(`${label.padEnd(30)} ${m.toFixed(1).padStart(12)} ${p.toFixed(1).padStart(11)} ${(m / fast.median).toFixed(1).padStart(14)} ${(p / fast.p95).toFixed(1).padStart(11)}`);
@@ -102,4 +107,4 @@ for (const cycleCap of [false, true]) {
   console.log(`fast solver, cycle cap ${cycleCap ? 'on ' : 'off'}: median ${median(xs).toFixed(1)} us, p95 ${p95(xs).toFixed(1)} us`);
 }
 console.log(`fast solver not covered (answered "not-covered", left to the LP path; time included above): ${notCovered}`);
-console.log(`worst relative objective gap fast vs HiGHS kept MIP on covered days: ${worst.toExponential(2)}`);
+if (MIP) console.log(`worst relative objective gap fast vs HiGHS kept MIP on covered days: ${worst.toExponential(2)}`);

@@ -38,7 +38,8 @@ export function scoreCommand(io: CliIo): Command {
     'after',
     `
 Only days present in both the forecast and the history are scored; the other forecast days are
-listed in score.json with the reason. score.json holds crps (the mean pinball loss over the levels:
+listed in score.json with the reason (a forecast with no day in the history is an error, exit
+code 2). score.json holds crps (the mean pinball loss over the levels:
 the factor 2 is not included, so it approximates CRPS/2), pinball.<level>, coverage.<interval>
 (e.g. coverage["0.8"] for [q0.1, q0.9]), calibration.<level> (share of prices below the quantile),
 Kupiec and Christoffersen tests of each central interval, all overall and per period of the day

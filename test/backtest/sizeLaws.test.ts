@@ -66,7 +66,7 @@ describe('perfect-foresight profit over battery sizes', () => {
         expect(profitOf(s, k * spec.energyMwh, spec.chargeMw)).toBeGreaterThanOrEqual(base - slack(base));
         expect(profitOf(s, spec.energyMwh, k * spec.chargeMw)).toBeGreaterThanOrEqual(base - slack(base));
       }),
-      { seed: SEED, numRuns: 40 },
+      { seed: SEED, numRuns: 40, endOnFailure: true },
     );
   });
 
@@ -80,7 +80,7 @@ describe('perfect-foresight profit over battery sizes', () => {
         const doubled = profitOf(s, 2 * spec.energyMwh, 2 * spec.chargeMw);
         expect(Math.abs(doubled - 2 * base)).toBeLessThanOrEqual(1e-6 * Math.max(1, Math.abs(2 * base)));
       }),
-      { seed: SEED + 1, numRuns: 40 },
+      { seed: SEED + 1, numRuns: 40, endOnFailure: true },
     );
   });
 });
@@ -169,7 +169,7 @@ describe('--alpha best: choose on the earlier days, score on the later ones', ()
         expect(chosen.profit).toBe(fixed.profit);
         expect(chosen.days).toBe(2);
       }),
-      { seed: SEED + 2, numRuns: 25 },
+      { seed: SEED + 2, numRuns: 25, endOnFailure: true },
     );
   });
 
@@ -184,7 +184,7 @@ describe('--alpha best: choose on the earlier days, score on the later ones', ()
         const chooseOnly = { ...everyDay, history: { ...everyDay.history, days: everyDay.history.days.map((d, i) => (d.day >= split.score.from ? (market.history.days[i] as HistoryDay) : d)) } };
         expect(row(study(chooseOnly, spec, best), setting)).toEqual(before);
       }),
-      { seed: SEED + 3, numRuns: 20 },
+      { seed: SEED + 3, numRuns: 20, endOnFailure: true },
     );
   });
 });

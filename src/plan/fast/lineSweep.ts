@@ -174,40 +174,31 @@ function clearRank(bits: Int32Array, r: number): void {
 
 /** Takes `amount` MWh from the steepest segments (they are forced into the solution). */
 function takeSteepest(ws: SweepWorkspace, ranking: SegmentRanking, amount: number): void {
-  let left = amount;
-  while (left > 0) {
-    const r = steepestRank(ws.bits, ws.words);
-    if (r < 0) return;
-    const id = ranking.segmentAt[r]!;
-    const rest = ws.remaining[id]!;
-    if (rest <= left) {
-      left -= rest;
-      ws.taken[id] = ws.length[id]! - ws.dropped[id]!;
-      ws.remaining[id] = 0;
-      clearRank(ws.bits, r);
-    } else {
-      ws.taken[id] = ws.taken[id]! + left;
-      ws.remaining[id] = rest - left;
-      return;
-    }
-  }
+  consume(ws, ranking, amount, true);
 }
 
 /** Drops `amount` MWh from the flattest segments (the window cannot hold them). */
 function dropFlattest(ws: SweepWorkspace, ranking: SegmentRanking, amount: number): void {
+  consume(ws, ranking, amount, false);
+}
+
+/** Removes `amount` MWh from one end of the order, booking it as taken (steepest) or dropped. */
+function consume(ws: SweepWorkspace, ranking: SegmentRanking, amount: number, steepest: boolean): void {
+  const booked = steepest ? ws.taken : ws.dropped;
+  const other = steepest ? ws.dropped : ws.taken;
   let left = amount;
   while (left > 0) {
-    const r = flattestRank(ws.bits, ws.words);
+    const r = steepest ? steepestRank(ws.bits, ws.words) : flattestRank(ws.bits, ws.words);
     if (r < 0) return;
     const id = ranking.segmentAt[r]!;
     const rest = ws.remaining[id]!;
     if (rest <= left) {
       left -= rest;
-      ws.dropped[id] = ws.length[id]! - ws.taken[id]!;
+      booked[id] = ws.length[id]! - other[id]!;
       ws.remaining[id] = 0;
       clearRank(ws.bits, r);
     } else {
-      ws.dropped[id] = ws.dropped[id]! + left;
+      booked[id] = booked[id]! + left;
       ws.remaining[id] = rest - left;
       return;
     }
