@@ -41,6 +41,7 @@ export function sizeSummary(results: readonly GridResult[], context: SizeSummary
       ],
     },
     best: bestSizes(results, context.axes),
+    note: 'perfect-foresight rows know the prices in advance: an upper bound on what any policy earns with that size, not a policy one can run',
   };
 }
 

@@ -1,7 +1,6 @@
 import { batteryModel } from '../../battery/batterySpec.js';
 import type { BatterySpec, MarketSpec, PriceHistory } from '../../types.js';
 import type { UnacceptedPolicy } from '../../settle/settleDay.js';
-import type { BacktestPolicy } from '../backtestPolicy.js';
 import { policyMetrics } from '../policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from '../policyRun.js';
 import type { BacktestInput, ForecastDays } from '../runBacktest.js';
@@ -82,7 +81,7 @@ export function sizeSettingRow(study: SizeStudy, setting: SizeSetting, memo: Run
   let run = perfect;
   if (setting.policy !== 'perfect-foresight') {
     if (usesAlpha(setting.policy)) {
-      alpha = mode.method === 'fixed' ? mode.alpha : chooseAlpha({ ...base, ...alphaSplit(study.from, study.to).score }, setting.policy, mode.alphas, study.unaccepted).alpha;
+      alpha = mode.method === 'fixed' ? mode.alpha : chooseAlpha({ ...base, ...alphaSplit(study.from, study.to).choose }, setting.policy, mode.alphas, study.unaccepted).alpha;
     }
     run = runPolicy(scored, setting.policy, { alpha: alpha ?? UNUSED_ALPHA, unaccepted: study.unaccepted });
   }
