@@ -4,6 +4,7 @@ import { infeasibilityReason } from './dayFeasibility.js';
 import { javascriptLpSolver, type LpSolver } from './lpSolver.js';
 import { scheduleValue, socPath } from './scheduleValue.js';
 import { isArbitragePeriod, netPeriod } from './simultaneousFlows.js';
+import { solveDayFast } from './fast/solveDayFast.js';
 
 /** Options of solveDay, merged over SOLVE_DAY_DEFAULTS. */
 export interface SolveDayOptions {
@@ -13,12 +14,15 @@ export interface SolveDayOptions {
   readonly maxNodes: number;
   /** A node is pruned when its bound is within this relative gap of the incumbent [-]. */
   readonly relativeGap: number;
+  /** Try the exact special-purpose solver (src/plan/fast) first; the LP path takes the days it does not cover. */
+  readonly fast: boolean;
 }
 
 export const SOLVE_DAY_DEFAULTS: SolveDayOptions = Object.freeze({
   lpSolver: javascriptLpSolver,
   maxNodes: 5000,
   relativeGap: 1e-10,
+  fast: true,
 });
 
 /** Thrown when the branch and bound cannot prove optimality within its node budget. */
@@ -48,6 +52,10 @@ export function solveDay(problem: DayProblem, options: Partial<SolveDayOptions> 
   const settings: SolveDayOptions = { ...SOLVE_DAY_DEFAULTS, ...options };
   const reason = infeasibilityReason(problem);
   if (reason !== null) return { status: 'infeasible', reason };
+  if (settings.fast) {
+    const fast = solveDayFast(problem);
+    if (fast.status !== 'not-covered') return fast;
+  }
   const periods = problem.buyPricePerMwh.length;
   const flowTolMw = 1e-9 * Math.max(1, problem.battery.chargeMw, problem.battery.dischargeMw);
 
