@@ -1,3 +1,4 @@
+import { requireGridFlags } from './gridArgs.js';
 import { Command, InvalidArgumentError } from 'commander';
 import { batteryModel } from '../battery/batterySpec.js';
 import { daysBetween } from '../market/calendar.js';
@@ -5,7 +6,7 @@ import { backtestMetrics } from '../backtest/backtestMetrics.js';
 import { BACKTEST_POLICIES, type BacktestPolicy } from '../backtest/backtestPolicy.js';
 import { BACKTEST_DEFAULTS, runBacktest } from '../backtest/runBacktest.js';
 import { backtestSummary, backtestSummaryText, daysCsv, ledgerCsv } from '../io/backtestOutputs.js';
-import { InputError, type InputProblem } from '../io/inputError.js';
+import { InputError } from '../io/inputError.js';
 import { jsonText } from '../io/planOutputs.js';
 import { readInputFile } from '../io/readInputFile.js';
 import { readPriceHistory } from '../io/readPriceHistory.js';
@@ -70,7 +71,7 @@ Examples:
 }
 
 export function runBacktestCommand(flags: BacktestFlags, io: CliIo): void {
-  const { from, to, out } = requiredFlags(flags);
+  const { from, to, out } = requireGridFlags(flags, 'ledger.csv, days.csv');
   const { paths } = resolveInputs(flags, INPUTS);
   checkOutputFolder(out, BACKTEST_OUTPUTS, flags.force === true);
   const market = readMarketSpec(paths.market);
@@ -102,19 +103,6 @@ export function runBacktestCommand(flags: BacktestFlags, io: CliIo): void {
   io.stdout(flags.json === true ? jsonText(summary) : backtestSummaryText(result, metrics, market, out));
 }
 
-function requiredFlags(flags: BacktestFlags): { from: string; to: string; out: string } {
-  const problems: InputProblem[] = [];
-  const need = (value: string | undefined, option: string, fix: string): string => {
-    if (value === undefined) problems.push({ file: 'command line', field: option, message: `no ${option} given`, fix });
-    return value ?? '';
-  };
-  const from = need(flags.from, '--from', 'give --from YYYY-MM-DD, the first delivery day');
-  const to = need(flags.to, '--to', 'give --to YYYY-MM-DD, the last delivery day');
-  const out = need(flags.out, '--out', 'give --out DIR, the folder for ledger.csv, days.csv and summary.json');
-  if (problems.length === 0 && from > to) problems.push({ file: 'command line', field: '--to', message: `--to ${to} is before --from ${from}`, fix: 'give a --to on or after --from' });
-  if (problems.length > 0) throw new InputError(problems);
-  return { from, to, out };
-}
 
 /**
  * Every level a chosen policy reads must lie within the forecast's levels (no extrapolation): alpha and
