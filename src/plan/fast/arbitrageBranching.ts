@@ -22,11 +22,12 @@ import { netPeriod, revalue } from './netFlows.js';
  * Nodes whose bound does not beat the incumbent by more than 1e-12 relative are pruned; the two
  * modes cover every feasible schedule, so the search ends at the optimum of the day problem.
  * Shares of at most 1e-12 are netted in place instead of split (a change below 1e-12 x p_t Y).
+ * When the search gives up, `best` holds its best feasible schedule if `incumbent` is true.
  */
 export type BranchOutcome =
   | { readonly status: 'optimal'; readonly nodes: number }
   | { readonly status: 'infeasible'; readonly cause: Exclude<RelaxStatus, typeof SWEEP_OK | typeof SWEEP_TOO_LARGE> }
-  | { readonly status: 'gave-up'; readonly nodes: number; readonly why: 'nodes' | 'breakpoints' };
+  | { readonly status: 'gave-up'; readonly nodes: number; readonly why: 'nodes' | 'breakpoints'; readonly incumbent: boolean };
 
 const TINY_SHARE = 1e-12;
 
@@ -38,11 +39,11 @@ export function branchOnArbitrage(ctx: DayContext, maxNodes: number, best: LineS
   let bestValue = -Infinity;
   let nodes = 0;
   while (stack.length > 0) {
-    if (nodes >= maxNodes) return { status: 'gave-up', nodes, why: 'nodes' };
+    if (nodes >= maxNodes) return { status: 'gave-up', nodes, why: 'nodes', incumbent: bestValue > -Infinity };
     const modes = stack.pop()!;
     nodes++;
     const status = relaxDay(ctx, modes, node);
-    if (status === SWEEP_TOO_LARGE) return { status: 'gave-up', nodes, why: 'breakpoints' };
+    if (status === SWEEP_TOO_LARGE) return { status: 'gave-up', nodes, why: 'breakpoints', incumbent: bestValue > -Infinity };
     if (status !== SWEEP_OK) {
       if (nodes === 1) return { status: 'infeasible', cause: status };
       continue;

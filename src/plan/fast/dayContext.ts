@@ -54,6 +54,16 @@ export class DpSolver implements MuSolver {
     return this;
   }
 
+  /** See ValueDp.setIncumbent. */
+  setIncumbent(value: number, discharged: number): void {
+    this.dp.setIncumbent(value, discharged);
+  }
+
+  /** See ValueDp.maxBreakpoints. */
+  set maxBreakpoints(count: number) {
+    this.dp.maxBreakpoints = count;
+  }
+
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
     return this.dp.solveAt(mu, modes, out);
   }

@@ -1,5 +1,5 @@
 import type { DayOutcome, DayProblem, Schedule } from '../../types.js';
-import { branchOnArbitrage } from './arbitrageBranching.js';
+import { branchOnArbitrage, type BranchOutcome } from './arbitrageBranching.js';
 import { fastSolverGap } from './coversDay.js';
 import { CAP_UNREACHABLE } from './cycleCapDual.js';
 import { DayContext, DpSolver, SweepSolver } from './dayContext.js';
@@ -12,12 +12,19 @@ export interface FastSolverOptions {
   readonly sweepNodes: number;
   /** Runs of the dynamic program in its branch and bound (only a binding cycle cap needs more than one). */
   readonly programNodes: number;
-  /** Most breakpoints of one value function in the dynamic program before answering `not-covered`. */
+  /** Most breakpoints of one value function in the dynamic program's first run. */
   readonly maxBreakpoints: number;
+  /** Runs of the dynamic program in the last resort, after both methods spent their budgets. */
+  readonly lastResortNodes: number;
+  /** Most breakpoints of one value function in the last resort, before answering `not-covered`. */
+  readonly lastResortBreakpoints: number;
 }
 
-/** Budgets measured on seeded 96-period days (bench/daySolver.js): about 3 % of days with a negative-price stretch exceed both. */
-export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ sweepNodes: 64, programNodes: 64, maxBreakpoints: 400 });
+/**
+ * Budgets measured on seeded days (bench/daySolverCheck.js): about 0.5 % of days with a
+ * negative-price stretch exceed the first two; the last resort has solved every one so far.
+ */
+export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ sweepNodes: 64, programNodes: 64, maxBreakpoints: 400, lastResortNodes: 20_000, lastResortBreakpoints: 200_000 });
 
 /** A DayOutcome, or `not-covered` when the caller must fall back to the general LP path. */
 export type FastDayOutcome = DayOutcome | { readonly status: 'not-covered'; readonly reason: string };
@@ -55,14 +62,37 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
   const { ctx, best } = engine;
   const programFirst = day.arbitrageCount > 0 && programSuits(day);
   const attempts = programFirst ? ([engine.program, engine.sweep] as const) : ([engine.sweep, engine.program] as const);
+  const incumbent = { value: -Infinity, discharged: 0 };
+  const keepIncumbent = (result: BranchOutcome): void => {
+    if (result.status === 'gave-up' && result.incumbent && best.value > incumbent.value) {
+      incumbent.value = best.value;
+      incumbent.discharged = best.discharged;
+    }
+  };
   let nodes = 0;
   let outcome = branchOnArbitrage(ctx.load(day, attempts[0].load(day)), day.arbitrageCount === 0 ? Infinity : programFirst ? settings.programNodes : settings.sweepNodes, best);
   if (outcome.status === 'gave-up') {
     nodes = outcome.nodes;
-    outcome = branchOnArbitrage(ctx.load(day, attempts[1].load(day)), programFirst ? settings.sweepNodes : settings.programNodes, best);
+    keepIncumbent(outcome);
+    const second = attempts[1].load(day);
+    if (second === engine.program && incumbent.value > -Infinity) engine.program.setIncumbent(incumbent.value, incumbent.discharged);
+    outcome = branchOnArbitrage(ctx.load(day, second), programFirst ? settings.sweepNodes : settings.programNodes, best);
   }
   if (outcome.status === 'gave-up') {
-    const budgets = `${settings.sweepNodes} chord-sweep nodes, ${settings.programNodes} program runs of at most ${settings.maxBreakpoints} breakpoints`;
+    // The last resort: the exact program with budgets about a thousand times larger (seconds at worst).
+    nodes += outcome.nodes;
+    keepIncumbent(outcome);
+    engine.program.load(day);
+    if (incumbent.value > -Infinity) engine.program.setIncumbent(incumbent.value, incumbent.discharged);
+    engine.program.maxBreakpoints = settings.lastResortBreakpoints;
+    try {
+      outcome = branchOnArbitrage(ctx.load(day, engine.program), settings.lastResortNodes, best);
+    } finally {
+      engine.program.maxBreakpoints = settings.maxBreakpoints;
+    }
+  }
+  if (outcome.status === 'gave-up') {
+    const budgets = `${settings.lastResortNodes} program runs of at most ${settings.lastResortBreakpoints} breakpoints`;
     return { status: 'not-covered', reason: `no proven optimum within the budgets (${budgets})` };
   }
   if (outcome.status === 'infeasible') {

@@ -1,6 +1,7 @@
 import { CHARGE_ONLY, DISCHARGE_ONLY, edgeTolerance, LineSolution, SWEEP_END_UNREACHABLE, SWEEP_OK, SWEEP_START_UNREACHABLE, SWEEP_TOO_LARGE, type SweepStatus } from './lineSweep.js';
 import { clip, maxOf, Pwl, slideMax, valueAt } from './pwl.js';
 import type { StoredDay } from './storedDay.js';
+import { pruneDead, ValueBounds } from './valueBounds.js';
 
 /**
  * Exact dynamic program over stored energy with complementarity in every period, arbitrage periods
@@ -30,21 +31,33 @@ export class ValueDp {
   private readonly g = new Pwl();
   private readonly h = new Pwl();
   private readonly k = new Pwl();
+  private readonly spare = new Pwl();
+  private readonly bounds: ValueBounds;
 
   private day!: StoredDay;
+  /** A feasible schedule's value and discharged energy, or null: a lower bound when no mode is fixed. */
+  private incumbent: { value: number; discharged: number } | null = null;
 
   constructor(
     capacity: number,
-    private readonly maxBreakpoints: number,
+    /** Most breakpoints of one F_t before giving up (SWEEP_TOO_LARGE). */
+    public maxBreakpoints: number,
   ) {
     this.xsPool = new Float64Array(16 * (capacity + 1));
     this.vsPool = new Float64Array(16 * (capacity + 1));
     this.start = new Int32Array(capacity + 1);
     this.count = new Int32Array(capacity + 1);
+    this.bounds = new ValueBounds(capacity);
   }
 
   load(day: StoredDay): void {
     this.day = day;
+    this.incumbent = null;
+  }
+
+  /** A feasible schedule of the loaded day (value without the multiplier term, total y). */
+  setIncumbent(value: number, discharged: number): void {
+    this.incumbent = { value, discharged };
   }
 
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
@@ -52,7 +65,14 @@ export class ValueDp {
     const X = day.chargeStepMwh;
     const Y = day.dischargeStepMwh;
     const eps = edgeTolerance(day);
-    const { f, g, h, k } = this;
+    const { g, h, k, bounds } = this;
+    let f = this.f;
+    let spare = this.spare;
+    // States whose best possible value stays below a feasible path's value are simplified away.
+    let lower = bounds.compute(day, mu, modes, eps) ? bounds.lowerBound : -Infinity;
+    if (this.incumbent !== null && lower > -Infinity && allFree(modes, day.periods)) lower = Math.max(lower, this.incumbent.value - mu * this.incumbent.discharged);
+    const pruning = Number.isFinite(lower);
+    const threshold = lower - 1e-10 * Math.max(1, Math.abs(lower));
     f.clear();
     f.push(day.socStartMwh, 0);
     let used = 0;
@@ -79,6 +99,7 @@ export class ValueDp {
         next = h;
       }
       if (!clip(next, day.socMinMwh, day.socMaxMwh, eps, f)) return SWEEP_START_UNREACHABLE;
+      if (pruning && pruneDead(f, bounds, t + 1, threshold, spare)) [f, spare] = [spare, f];
       if (f.n > this.maxBreakpoints) return SWEEP_TOO_LARGE;
       used = this.store(t + 1, f, used);
     }
@@ -162,4 +183,9 @@ export class ValueDp {
     out.value = value;
     out.discharged = discharged;
   }
+}
+
+function allFree(modes: Int8Array, periods: number): boolean {
+  for (let t = 0; t < periods; t++) if (modes[t] !== 0) return false;
+  return true;
 }

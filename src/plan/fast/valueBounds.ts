@@ -1,0 +1,242 @@
+import { CHARGE_ONLY, DISCHARGE_ONLY } from './lineSweep.js';
+import { clip, Pwl, valueAt } from './pwl.js';
+import type { StoredDay } from './storedDay.js';
+
+/**
+ * Bounds that let the exact dynamic program (valueDp.ts) drop states that cannot lie on an optimal
+ * path: an upper bound W_t(s) on the best value still to come from state s after period t, and a
+ * lower bound on the optimum (the value of one feasible path).
+ *
+ * Notes. W is the backward dynamic program of the relaxation in which every arbitrage period's
+ * per-period value k_t is replaced by its concave hull, the chord of storedDay.ts (Bellman 1956):
+ *   W_T(s) = V s on [floor, socMax],   W_{t-1}(s) = max_{w} khat_t(w) + W_t(s + w),  s in the window,
+ * the same model, multiplier mu and per-period modes as the program's run. khat_t >= k_t, so
+ * W_t(s) is at least the value of every feasible continuation from s. Each W_t is concave (a
+ * sup-convolution of concave functions), with at most two breakpoints more per period.
+ * The lower bound follows W greedily: from s_0, each period moves to the s_t that maximises
+ * k_t(s_t - s_{t-1}) + W_t(s_t) with the true, complementary k_t (charge or discharge, never both),
+ * so the path is feasible and its value is attained. A state s after period t with
+ * F_t(s) + W_t(s) < lower bound is on no optimal path (branch and bound's pruning rule; Land and
+ * Doig 1960).
+ */
+export class ValueBounds {
+  private xsPool: Float64Array;
+  private vsPool: Float64Array;
+  private readonly start: Int32Array;
+  private readonly count: Int32Array;
+  private readonly a = new Pwl();
+  private readonly b = new Pwl();
+  private readonly c = new Pwl();
+  /** Value of the greedy feasible path, or -Infinity when none was found. */
+  lowerBound = -Infinity;
+
+  constructor(capacity: number) {
+    this.xsPool = new Float64Array(8 * (capacity + 1));
+    this.vsPool = new Float64Array(8 * (capacity + 1));
+    this.start = new Int32Array(capacity + 1);
+    this.count = new Int32Array(capacity + 1);
+  }
+
+  /** Computes W_0..W_T and the lower bound; false when the relaxation has no feasible path. */
+  compute(day: StoredDay, mu: number, modes: Int8Array, eps: number): boolean {
+    this.lowerBound = -Infinity;
+    const X = day.chargeStepMwh;
+    const Y = day.dischargeStepMwh;
+    const T = day.periods;
+    const floor = day.socEndFloorMwh;
+    if (floor > day.socMaxMwh + eps) return false;
+    let w = this.a;
+    let spare = this.b;
+    const tmp = this.c;
+    w.clear();
+    const V = day.terminalValuePerMwh;
+    w.push(Math.min(floor, day.socMaxMwh), V * Math.min(floor, day.socMaxMwh));
+    if (floor < day.socMaxMwh) w.push(day.socMaxMwh, V * day.socMaxMwh);
+    let used = this.store(T, w, 0);
+    for (let t = T - 1; t >= 0; t--) {
+      const p = day.chargePrice[t]!;
+      const qm = day.dischargePrice[t]! - mu;
+      const mode = modes[t]!;
+      // Backward step with w' = -w: W_{t}(s) = max_{w'} W_{t+1}(s - w') + khat(-w').
+      if (mode === CHARGE_ONLY) {
+        concaveSlide(w, -X, 0, p, tmp);
+      } else if (mode === DISCHARGE_ONLY) {
+        concaveSlide(w, 0, Y, qm, tmp);
+      } else if (day.arbitrage[t] === 1 && qm > p) {
+        // The chord from (-Y, qm Y) to (X, -p X): khat(w) = c0 + c1 w on [-Y, X].
+        const c1 = (-p * X - qm * Y) / (X + Y);
+        const c0 = qm * Y + c1 * Y;
+        concaveSlide(w, -X, Y, -c1, tmp);
+        for (let i = 0; i < tmp.n; i++) tmp.vs[i] = tmp.vs[i]! + c0;
+      } else {
+        concaveSlide(w, 0, Y, qm, spare);
+        concaveSlide(spare, -X, 0, p, tmp);
+      }
+      if (!clip(tmp, day.socMinMwh, day.socMaxMwh, eps, spare)) return false;
+      [w, spare] = [spare, w];
+      used = this.store(t, w, used);
+    }
+    this.lowerBound = this.greedyPath(day, mu, modes, eps);
+    return true;
+  }
+
+  /** max of W_t over [lo, hi] (clamped into its domain); W_t is concave. */
+  maxOver(t: number, lo: number, hi: number): number {
+    const from = this.start[t]!;
+    const n = this.count[t]!;
+    const xs = this.xsPool;
+    const vs = this.vsPool;
+    let peak = from;
+    // Concave: values rise to the peak, then fall; binary search on the slope sign.
+    let l = from;
+    let h = from + n - 1;
+    while (l < h) {
+      const m = (l + h) >>> 1;
+      if (vs[m + 1]! > vs[m]!) l = m + 1;
+      else h = m;
+    }
+    peak = l;
+    const s = xs[peak]!;
+    const at = s < lo ? lo : s > hi ? hi : s;
+    return valueAt(xs, vs, from, n, at);
+  }
+
+  /** The domain [lo, hi] of W_t. */
+  domainLo(t: number): number {
+    return this.xsPool[this.start[t]!]!;
+  }
+
+  domainHi(t: number): number {
+    return this.xsPool[this.start[t]! + this.count[t]! - 1]!;
+  }
+
+  private greedyPath(day: StoredDay, mu: number, modes: Int8Array, eps: number): number {
+    const X = day.chargeStepMwh;
+    const Y = day.dischargeStepMwh;
+    const xs = this.xsPool;
+    const vs = this.vsPool;
+    let s = day.socStartMwh;
+    let value = 0;
+    for (let t = 0; t < day.periods; t++) {
+      const p = day.chargePrice[t]!;
+      const qm = day.dischargePrice[t]! - mu;
+      const mode = modes[t]!;
+      const from = this.start[t + 1]!;
+      const n = this.count[t + 1]!;
+      const lo = Math.max(xs[from]!, s - (mode === CHARGE_ONLY ? 0 : Y));
+      const hi = Math.min(xs[from + n - 1]!, s + (mode === DISCHARGE_ONLY ? 0 : X));
+      if (lo > hi + eps) return -Infinity;
+      let bestNext = lo;
+      let best = -Infinity;
+      for (let c = -3; c < n; c++) {
+        const u = c === -3 ? lo : c === -2 ? Math.max(lo, hi) : c === -1 ? s : xs[from + c]!;
+        if (c >= -1 && !(u > lo && u < hi)) continue;
+        const move = u - s;
+        const v = valueAt(xs, vs, from, n, u) + (move >= 0 ? -p * move : -qm * move);
+        if (v > best) {
+          best = v;
+          bestNext = u;
+        }
+      }
+      const move = bestNext - s;
+      value += move >= 0 ? -p * move : -qm * move;
+      s = bestNext;
+    }
+    if (s < day.socEndFloorMwh - eps) return -Infinity;
+    return value + day.terminalValuePerMwh * s;
+  }
+
+  private store(t: number, f: Pwl, used: number): number {
+    if (used + f.n > this.xsPool.length) {
+      const xs = new Float64Array(2 * (used + f.n));
+      const vs = new Float64Array(2 * (used + f.n));
+      xs.set(this.xsPool.subarray(0, used));
+      vs.set(this.vsPool.subarray(0, used));
+      this.xsPool = xs;
+      this.vsPool = vs;
+    }
+    this.xsPool.set(f.xs.subarray(0, f.n), used);
+    this.vsPool.set(f.vs.subarray(0, f.n), used);
+    this.start[t] = used;
+    this.count[t] = f.n;
+    return used + f.n;
+  }
+}
+
+/**
+ * out = f with the states after period t that lie on no optimal path simplified away: f must stay
+ * at or below the true value function and equal to it on live states (see ValueBounds). A segment
+ * [x_i, x_{i+1}] is dead when max(f(x_i), f(x_{i+1})) + max W_t over it < threshold. Dead runs at
+ * either end are cut off the domain; an inner dead run x_i..x_j keeps its ends and becomes
+ * (x_i, v_i), (x_{i+1}, c), (x_{j-1}, c), (x_j, v_j) with c the least value at its inner breakpoints:
+ * below f on every piece, because f is linear between breakpoints. False (out untouched) when
+ * every segment is dead, which only rounding can cause; the caller then keeps f.
+ */
+export function pruneDead(f: Pwl, bounds: ValueBounds, t: number, threshold: number, out: Pwl): boolean {
+  const n = f.n;
+  if (n < 3) return false;
+  const xs = f.xs;
+  const vs = f.vs;
+  const lo = bounds.domainLo(t);
+  const hi = bounds.domainHi(t);
+  // dead[i] for the segment [x_i, x_{i+1}]
+  let first = -1;
+  let last = -1;
+  for (let i = 0; i < n - 1; i++) {
+    if (!segmentDead(xs, vs, i, bounds, t, lo, hi, threshold)) {
+      if (first < 0) first = i;
+      last = i;
+    }
+  }
+  if (first < 0) return false;
+  out.clear();
+  out.push(xs[first]!, vs[first]!);
+  let i = first;
+  while (i <= last) {
+    // segment i is live here; find the run of dead segments after it
+    out.push(xs[i + 1]!, vs[i + 1]!);
+    let j = i + 1;
+    while (j <= last && segmentDead(xs, vs, j, bounds, t, lo, hi, threshold)) j++;
+    // segments i+1 .. j-1 are dead, x_{i+1} .. x_j their ends
+    if (j - (i + 1) >= 3) {
+      let c = Infinity;
+      for (let k = i + 2; k <= j - 1; k++) c = Math.min(c, vs[k]!);
+      out.push(xs[i + 2]!, c);
+      out.push(xs[j - 1]!, c);
+    } else {
+      for (let k = i + 2; k <= j - 1; k++) out.push(xs[k]!, vs[k]!);
+    }
+    if (j > i + 1) out.push(xs[j]!, vs[j]!);
+    i = j;
+  }
+  return true;
+}
+
+function segmentDead(xs: Float64Array, vs: Float64Array, i: number, bounds: ValueBounds, t: number, lo: number, hi: number, threshold: number): boolean {
+  const a = xs[i]!;
+  const b = xs[i + 1]!;
+  if (b < lo || a > hi) return true;
+  return Math.max(vs[i]!, vs[i + 1]!) + bounds.maxOver(t, Math.max(a, lo), Math.min(b, hi)) < threshold;
+}
+
+/**
+ * out = max_{w in [a, b]} f(s - w) + sigma w for a concave f: the sup-convolution of two concave
+ * functions merges their slope sequences (Rockafellar 1970, Convex Analysis, section 5), so the
+ * piece of slope sigma and length b - a goes between f's pieces steeper than sigma (shifted by a)
+ * and the rest (shifted by b). Exact and linear in the breakpoints, with no new ones but two.
+ */
+function concaveSlide(f: Pwl, a: number, b: number, sigma: number, out: Pwl): void {
+  out.clear();
+  const xs = f.xs;
+  const vs = f.vs;
+  const n = f.n;
+  let k = n - 1; // the piece of slope sigma starts at breakpoint k
+  for (let i = 0; i < n - 1; i++) {
+    if ((vs[i + 1]! - vs[i]!) / (xs[i + 1]! - xs[i]!) < sigma) {
+      k = i;
+      break;
+    }
+  }
+  for (let i = 0; i <= k; i++) out.push(xs[i]! + a, vs[i]! + sigma * a);
+  for (let i = k; i < n; i++) out.push(xs[i]! + b, vs[i]! + sigma * b);
+}
