@@ -92,6 +92,25 @@ describe('solveDayFast against HiGHS', () => {
     expect(worst).toBeLessThanOrEqual(1e-9);
   }, 900_000);
 
+  it('150 seeded random days with the dynamic program alone (pruned by its bounds): the MIP optimum to 1e-9 relative', () => {
+    // No chord-sweep nodes: every day with arbitrage periods goes through valueDp.ts, whose pruning
+    // (valueBounds.ts) must never drop the optimal path.
+    const failures: string[] = [];
+    for (let i = 0; i < 150; i++) {
+      const name = `fast-dp-only-${i}`;
+      const problem = randomDay(name);
+      const reference = solveDayWithHighs(highs, problem, true);
+      const outcome = solveDayFast(problem, { sweepNodes: 0 });
+      if (reference.status !== 'optimal' || outcome.status !== 'optimal') {
+        if (reference.status !== outcome.status) failures.push(`${name}: HiGHS ${reference.status}, fast ${outcome.status}`);
+        continue;
+      }
+      if (relGap(outcome.objective, reference.objective) > 1e-9) failures.push(`${name}: objective ${outcome.objective}, HiGHS ${reference.objective}`);
+      failures.push(...checkSchedule(problem, outcome.schedule).map((v) => `${name}: ${v}`));
+    }
+    expect(failures).toEqual([]);
+  }, 900_000);
+
   it('infeasible days agree with HiGHS and give a reason', () => {
     for (let i = 0; i < 40; i++) {
       const base = randomDay(`fast-infeasible-${i}`, { periods: 24 });

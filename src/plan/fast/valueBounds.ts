@@ -1,5 +1,5 @@
 import { CHARGE_ONLY, DISCHARGE_ONLY } from './lineSweep.js';
-import { clip, Pwl, valueAt } from './pwl.js';
+import { clip, maxOf, Pwl, slideMax, valueAt } from './pwl.js';
 import type { StoredDay } from './storedDay.js';
 
 /**
@@ -27,18 +27,23 @@ export class ValueBounds {
   private readonly a = new Pwl();
   private readonly b = new Pwl();
   private readonly c = new Pwl();
+  private readonly d = new Pwl();
   /** Value of the greedy feasible path, or -Infinity when none was found. */
   lowerBound = -Infinity;
 
-  constructor(capacity: number) {
+  constructor(
+    capacity: number,
+    /** Most breakpoints of one W_t; larger ones are replaced by upper hulls of pieces (upperHulls). */
+    private readonly maxBreakpoints = 128,
+  ) {
     this.xsPool = new Float64Array(8 * (capacity + 1));
     this.vsPool = new Float64Array(8 * (capacity + 1));
     this.start = new Int32Array(capacity + 1);
     this.count = new Int32Array(capacity + 1);
   }
 
-  /** Computes W_0..W_T and the lower bound; false when the relaxation has no feasible path. */
-  compute(day: StoredDay, mu: number, modes: Int8Array, eps: number): boolean {
+  /** Computes W_0..W_T and the lower bound; false when no path reaches the end-of-day floor. */
+  compute(day: StoredDay, mu: number, modes: Int8Array, eps: number, exact: boolean): boolean {
     this.lowerBound = -Infinity;
     const X = day.chargeStepMwh;
     const Y = day.dischargeStepMwh;
@@ -48,6 +53,7 @@ export class ValueBounds {
     let w = this.a;
     let spare = this.b;
     const tmp = this.c;
+    const other = this.d;
     w.clear();
     const V = day.terminalValuePerMwh;
     w.push(Math.min(floor, day.socMaxMwh), V * Math.min(floor, day.socMaxMwh));
@@ -57,48 +63,58 @@ export class ValueBounds {
       const p = day.chargePrice[t]!;
       const qm = day.dischargePrice[t]! - mu;
       const mode = modes[t]!;
-      // Backward step with w' = -w: W_{t}(s) = max_{w'} W_{t+1}(s - w') + khat(-w').
+      // Backward step with w' = -w: W_{t}(s) = max_{w'} W_{t+1}(s - w') + k(-w').
+      // The chord relaxation is concave: its sup-convolutions merge slopes (concaveSlide, cheap).
+      const slide = exact ? slideMax : concaveSlide;
       if (mode === CHARGE_ONLY) {
-        concaveSlide(w, -X, 0, p, tmp);
+        slide(w, -X, 0, p, tmp);
       } else if (mode === DISCHARGE_ONLY) {
-        concaveSlide(w, 0, Y, qm, tmp);
+        slide(w, 0, Y, qm, tmp);
       } else if (day.arbitrage[t] === 1 && qm > p) {
-        // The chord from (-Y, qm Y) to (X, -p X): khat(w) = c0 + c1 w on [-Y, X].
-        const c1 = (-p * X - qm * Y) / (X + Y);
-        const c0 = qm * Y + c1 * Y;
-        concaveSlide(w, -X, Y, -c1, tmp);
-        for (let i = 0; i < tmp.n; i++) tmp.vs[i] = tmp.vs[i]! + c0;
+        if (exact) {
+          slideMax(w, -X, 0, p, spare);
+          slideMax(w, 0, Y, qm, other);
+          maxOf(spare, other, tmp);
+        } else {
+          // The chord from (-Y, qm Y) to (X, -p X): khat(w) = c0 + c1 w on [-Y, X].
+          const c1 = (-p * X - qm * Y) / (X + Y);
+          const c0 = qm * Y + c1 * Y;
+          concaveSlide(w, -X, Y, -c1, tmp);
+          for (let i = 0; i < tmp.n; i++) tmp.vs[i] = tmp.vs[i]! + c0;
+        }
       } else {
-        concaveSlide(w, 0, Y, qm, spare);
-        concaveSlide(spare, -X, 0, p, tmp);
+        slide(w, 0, Y, qm, spare);
+        slide(spare, -X, 0, p, tmp);
       }
       if (!clip(tmp, day.socMinMwh, day.socMaxMwh, eps, spare)) return false;
-      [w, spare] = [spare, w];
+      if (spare.n > this.maxBreakpoints) {
+        upperHulls(spare, this.maxBreakpoints, w);
+      } else {
+        [w, spare] = [spare, w];
+      }
       used = this.store(t, w, used);
     }
     this.lowerBound = this.greedyPath(day, mu, modes, eps);
     return true;
   }
 
-  /** max of W_t over [lo, hi] (clamped into its domain); W_t is concave. */
+  /** max of W_t over [lo, hi] (inside its domain): the ends and the breakpoints between. */
   maxOver(t: number, lo: number, hi: number): number {
     const from = this.start[t]!;
     const n = this.count[t]!;
     const xs = this.xsPool;
     const vs = this.vsPool;
-    let peak = from;
-    // Concave: values rise to the peak, then fall; binary search on the slope sign.
+    let best = Math.max(valueAt(xs, vs, from, n, lo), valueAt(xs, vs, from, n, hi));
+    // first breakpoint > lo
     let l = from;
-    let h = from + n - 1;
+    let h = from + n;
     while (l < h) {
       const m = (l + h) >>> 1;
-      if (vs[m + 1]! > vs[m]!) l = m + 1;
+      if (xs[m]! <= lo) l = m + 1;
       else h = m;
     }
-    peak = l;
-    const s = xs[peak]!;
-    const at = s < lo ? lo : s > hi ? hi : s;
-    return valueAt(xs, vs, from, n, at);
+    for (let i = l; i < from + n && xs[i]! < hi; i++) if (vs[i]! > best) best = vs[i]!;
+    return best;
   }
 
   /** The domain [lo, hi] of W_t. */
@@ -217,6 +233,47 @@ function segmentDead(xs: Float64Array, vs: Float64Array, i: number, bounds: Valu
   const b = xs[i + 1]!;
   if (b < lo || a > hi) return true;
   return Math.max(vs[i]!, vs[i + 1]!) + bounds.maxOver(t, Math.max(a, lo), Math.min(b, hi)) < threshold;
+}
+
+/**
+ * out >= f with at most `most` breakpoints: f's breakpoints are cut into pieces of equal count that
+ * share their end points, and each piece is replaced by its upper concave hull (Andrew 1979, the
+ * monotone chain), which passes through the piece's end points, so out is continuous and at or
+ * above f everywhere. Fewer, longer pieces until the result fits; one piece gives the concave hull.
+ */
+function upperHulls(f: Pwl, most: number, out: Pwl): void {
+  const n = f.n;
+  const xs = f.xs;
+  const vs = f.vs;
+  for (let pieces = Math.max(1, most >> 2); ; pieces = pieces >> 1) {
+    out.clear();
+    const size = Math.ceil((n - 1) / pieces);
+    for (let from = 0; from < n - 1; from += size) {
+      const to = Math.min(n - 1, from + size);
+      upperHull(xs, vs, from, to, out);
+    }
+    if (out.n <= most || pieces === 1) return;
+  }
+}
+
+let hull = new Int32Array(64);
+
+/** Appends the upper concave hull of points from..to (inclusive) to out. */
+function upperHull(xs: Float64Array, vs: Float64Array, from: number, to: number, out: Pwl): void {
+  if (hull.length < to - from + 1) hull = new Int32Array(2 * (to - from + 1));
+  let top = 0;
+  for (let i = from; i <= to; i++) {
+    // pop while the last point lies on or below the chord from the one before it to point i
+    while (top >= 2) {
+      const a = hull[top - 2]!;
+      const b = hull[top - 1]!;
+      const cross = (xs[b]! - xs[a]!) * (vs[i]! - vs[a]!) - (vs[b]! - vs[a]!) * (xs[i]! - xs[a]!);
+      if (cross >= 0) top--;
+      else break;
+    }
+    hull[top++] = i;
+  }
+  for (let k = 0; k < top; k++) out.push(xs[hull[k]!]!, vs[hull[k]!]!);
 }
 
 /**

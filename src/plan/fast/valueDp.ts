@@ -22,6 +22,14 @@ import { pruneDead, ValueBounds } from './valueBounds.js';
  * power steps but can grow with many arbitrage periods in a wide window; past `maxBreakpoints` in
  * one F_t the program gives up (SWEEP_TOO_LARGE) rather than run long.
  */
+/**
+ * Breakpoints of F_t above which the program starts pruning with the chord relaxation's bounds
+ * (below it pruning costs more than it saves), and above which it switches to the tighter bounds
+ * of the simplified exact backward program (valueBounds.ts). Measured on seeded days.
+ */
+const PRUNE_FROM = 48;
+const EXACT_BOUNDS_FROM = 160;
+
 export class ValueDp {
   private xsPool: Float64Array;
   private vsPool: Float64Array;
@@ -68,11 +76,10 @@ export class ValueDp {
     const { g, h, k, bounds } = this;
     let f = this.f;
     let spare = this.spare;
-    // States whose best possible value stays below a feasible path's value are simplified away.
-    let lower = bounds.compute(day, mu, modes, eps) ? bounds.lowerBound : -Infinity;
-    if (this.incumbent !== null && lower > -Infinity && allFree(modes, day.periods)) lower = Math.max(lower, this.incumbent.value - mu * this.incumbent.discharged);
-    const pruning = Number.isFinite(lower);
-    const threshold = lower - 1e-10 * Math.max(1, Math.abs(lower));
+    // States whose best possible value stays below a feasible path's value are simplified away;
+    // the bounds are computed only once some F_t grows past PRUNE_FROM breakpoints.
+    let threshold = NaN;
+    let exactBounds = false;
     f.clear();
     f.push(day.socStartMwh, 0);
     let used = 0;
@@ -99,7 +106,15 @@ export class ValueDp {
         next = h;
       }
       if (!clip(next, day.socMinMwh, day.socMaxMwh, eps, f)) return SWEEP_START_UNREACHABLE;
-      if (pruning && pruneDead(f, bounds, t + 1, threshold, spare)) [f, spare] = [spare, f];
+      if (f.n > PRUNE_FROM) {
+        if (Number.isNaN(threshold)) threshold = this.pruningThreshold(mu, modes, eps, false);
+        if (threshold > -Infinity && pruneDead(f, bounds, t + 1, threshold, spare)) [f, spare] = [spare, f];
+        if (f.n > EXACT_BOUNDS_FROM && !exactBounds) {
+          exactBounds = true;
+          threshold = this.pruningThreshold(mu, modes, eps, true);
+          if (threshold > -Infinity && pruneDead(f, bounds, t + 1, threshold, spare)) [f, spare] = [spare, f];
+        }
+      }
       if (f.n > this.maxBreakpoints) return SWEEP_TOO_LARGE;
       used = this.store(t + 1, f, used);
     }
@@ -121,6 +136,14 @@ export class ValueDp {
     }
     this.recover(bestS, mu, modes, out);
     return SWEEP_OK;
+  }
+
+  /** The lower bound less a rounding margin, or -Infinity when there is none (no pruning). */
+  private pruningThreshold(mu: number, modes: Int8Array, eps: number, exact: boolean): number {
+    const bounds = this.bounds;
+    let lower = bounds.compute(this.day, mu, modes, eps, exact) ? bounds.lowerBound : -Infinity;
+    if (this.incumbent !== null && lower > -Infinity && allFree(modes, this.day.periods)) lower = Math.max(lower, this.incumbent.value - mu * this.incumbent.discharged);
+    return lower === -Infinity ? -Infinity : lower - 1e-10 * Math.max(1, Math.abs(lower));
   }
 
   private store(t: number, f: Pwl, used: number): number {

@@ -1,0 +1,85 @@
+// One year of the demo market at 15 minutes, five policies, one setting (alpha 0.1, follow-plan):
+// the backtest's days per second and the share of its time spent solving day problems, against the
+// time to read and validate that year's history and forecast CSVs (the floor of any run), measured in
+// the same process. Both CSVs are cut to the year (with the last day of the year before, which the
+// history needs for the first day's state) and written uncompressed to a temporary folder first.
+//
+//   npm run build && node bench/yearBacktest.js [--year 2026] [--reads 5] [--runs 3]
+//
+// Times are medians over --reads reads and --runs backtests; CPU time is process.cpuUsage().
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { gunzipSync } from 'node:zlib';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const demo = join(root, 'scenarios', 'halvorn');
+const arg = (name, fallback) => {
+  const i = process.argv.indexOf(`--${name}`);
+  return i > 0 ? process.argv[i + 1] : fallback;
+};
+const YEAR = arg('year', '2026');
+const READS = Number(arg('reads', 5));
+const RUNS = Number(arg('runs', 3));
+const dist = (path) => import(pathToFileURL(join(root, 'dist', path)).href);
+
+const { readMarketSpec, readBatterySpec } = await dist('io/readSpecs.js');
+const { batteryModel } = await dist('battery/batterySpec.js');
+const { readPriceHistory } = await dist('io/readPriceHistory.js');
+const { readQuantileForecast } = await dist('io/readQuantileForecast.js');
+const { runBacktest } = await dist('backtest/runBacktest.js');
+
+/** The CSV's header and the rows whose local timestamp starts with the year (or is the eve's). */
+function cutToYear(gzPath) {
+  const [header, ...rows] = gunzipSync(readFileSync(gzPath)).toString('utf8').trimEnd().split('\n');
+  const eve = `${Number(YEAR) - 1}-12-31`;
+  return [header, ...rows.filter((row) => row.startsWith(YEAR) || row.startsWith(eve))].join('\n') + '\n';
+}
+
+const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
+const folder = mkdtempSync(join(tmpdir(), 'quantbid-year-'));
+try {
+  const historyPath = join(folder, 'history.csv');
+  const forecastPath = join(folder, 'quantiles.csv');
+  writeFileSync(historyPath, cutToYear(join(demo, 'history.csv.gz')));
+  writeFileSync(forecastPath, cutToYear(join(demo, 'quantiles.csv.gz')));
+  const market = readMarketSpec(join(demo, 'market.json'));
+  const battery = batteryModel(readBatterySpec(join(demo, 'battery.json')));
+
+  const readMs = [];
+  let history;
+  let forecast;
+  for (let i = 0; i < READS; i++) {
+    const started = performance.now();
+    history = readPriceHistory(historyPath, market);
+    forecast = readQuantileForecast(forecastPath, market);
+    readMs.push(performance.now() - started);
+  }
+
+  const from = `${YEAR}-01-01`;
+  const to = `${YEAR}-12-31`;
+  const runMs = [];
+  const solveShare = [];
+  let result;
+  for (let i = 0; i < RUNS; i++) {
+    const stopwatch = { now: () => performance.now(), spentMs: 0, calls: 0 };
+    const started = performance.now();
+    result = runBacktest({ market, battery, history, forecast, from, to }, { keepLedger: true, solveOptions: { stopwatch } });
+    const ms = performance.now() - started;
+    runMs.push(ms);
+    solveShare.push(stopwatch.spentMs / ms);
+  }
+  const days = result.days.length;
+  const policies = result.days[0]?.runs.length ?? 0;
+  const read = median(readMs);
+  const run = median(runMs);
+  console.log(`year ${YEAR} of the demo market at 15 minutes: ${days} days covered, ${policies} policies, alpha 0.1, follow-plan`);
+  console.log(`read and validate history + forecast CSVs   median ${(read / 1000).toFixed(3)} s over ${READS} reads`);
+  console.log(`backtest (plan, settle, ledger kept)       median ${(run / 1000).toFixed(3)} s over ${RUNS} runs`);
+  console.log(`days per second                            ${(days / (run / 1000)).toFixed(1)} (${((days * policies) / (run / 1000)).toFixed(0)} policy-days per second)`);
+  console.log(`share of backtest time solving day problems ${(100 * median(solveShare)).toFixed(1)} %`);
+  console.log(`ratio backtest / read                      ${(run / read).toFixed(2)} (goal: at most 2)`);
+} finally {
+  rmSync(folder, { recursive: true, force: true });
+}
