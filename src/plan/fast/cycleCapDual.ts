@@ -38,7 +38,10 @@ export function relaxDay(ctx: DayContext, modes: Int8Array, out: LineSolution): 
     finish(ctx, above, out);
     return SWEEP_OK;
   }
-  solver.solveAt(ctx.muHigh, modes, below);
+  // Every solve's status counts: the dynamic program may give up (SWEEP_TOO_LARGE) at any mu, and
+  // a stale solution must never enter the mix.
+  const highStatus = solver.solveAt(ctx.muHigh, modes, below);
+  if (highStatus !== SWEEP_OK) return highStatus;
   if (below.discharged > cap + capTol) return CAP_UNREACHABLE;
   let muLow = 0;
   let muHigh = ctx.muHigh;
@@ -46,7 +49,8 @@ export function relaxDay(ctx: DayContext, modes: Int8Array, out: LineSolution): 
     let mu = (above.value - below.value) / (above.discharged - below.discharged);
     if (!(mu >= muLow)) mu = muLow;
     if (!(mu <= muHigh)) mu = muHigh;
-    solver.solveAt(mu, modes, trial);
+    const trialStatus = solver.solveAt(mu, modes, trial);
+    if (trialStatus !== SWEEP_OK) return trialStatus;
     const onLine = above.value - mu * (above.discharged - cap);
     const atTrial = trial.value - mu * (trial.discharged - cap);
     if (atTrial <= onLine + 1e-13 * (Math.abs(above.value) + Math.abs(below.value) + mu * cap + 1)) break;
