@@ -7,12 +7,17 @@ import type { StoredDay } from './storedDay.js';
  * path: an upper bound W_t(s) on the best value still to come from state s after period t, and a
  * lower bound on the optimum (the value of one feasible path).
  *
- * Notes. W is the backward dynamic program of the relaxation in which every arbitrage period's
- * per-period value k_t is replaced by its concave hull, the chord of storedDay.ts (Bellman 1956):
- *   W_T(s) = V s on [floor, socMax],   W_{t-1}(s) = max_{w} khat_t(w) + W_t(s + w),  s in the window,
- * the same model, multiplier mu and per-period modes as the program's run. khat_t >= k_t, so
- * W_t(s) is at least the value of every feasible continuation from s. Each W_t is concave (a
- * sup-convolution of concave functions), with at most two breakpoints more per period.
+ * Notes. W is a backward dynamic program over the same model, multiplier mu and per-period modes
+ * as the program's run (Bellman 1956), in one of two forms:
+ * - chord (cheap): every arbitrage period's per-period value k_t is replaced by its concave hull,
+ *   the chord of storedDay.ts; W_T(s) = V s on [floor, socMax], W_{t-1}(s) = max_w khat_t(w) +
+ *   W_t(s + w) on the window. khat_t >= k_t, every W_t is concave (a sup-convolution of concave
+ *   functions, two breakpoints more per period) and at least the value of every feasible
+ *   continuation from s;
+ * - exact (tighter, used once the forward program grows): the same recursion with the true k_t,
+ *   except that a W_t with more than maxBreakpoints breakpoints is replaced by upper hulls of its
+ *   pieces (upperHulls), which lie at or above it; by induction each W_t is still at least the best
+ *   continuation value, and far closer to it than the chord form on days with many arbitrage periods.
  * The lower bound follows W greedily: from s_0, each period moves to the s_t that maximises
  * k_t(s_t - s_{t-1}) + W_t(s_t) with the true, complementary k_t (charge or discharge, never both),
  * so the path is feasible and its value is attained. A state s after period t with
