@@ -40,6 +40,12 @@ export interface BacktestOptions {
   readonly solveOptions: Partial<SolveDayOptions>;
   /** Called after each day of [from, to], covered or skipped (progress display). Default none. */
   readonly onDay: ((progress: { readonly day: string; readonly done: number; readonly total: number }) => void) | null;
+  /**
+   * Called with each covered day, its ledger included, as soon as it is settled: a long backtest can
+   * write ledger.csv day by day and, with keepLedger false, keep no ledger in memory (ten years of
+   * quarter-hours and five policies are 1.75 million settled periods). Default none.
+   */
+  readonly onLedgerDay: ((day: BacktestDay) => void) | null;
 }
 
 export const BACKTEST_DEFAULTS: BacktestOptions = Object.freeze({
@@ -49,6 +55,7 @@ export const BACKTEST_DEFAULTS: BacktestOptions = Object.freeze({
   keepLedger: true,
   solveOptions: Object.freeze({}),
   onDay: null,
+  onLedgerDay: null,
 });
 
 /** One policy on one day. */
@@ -121,7 +128,9 @@ export function runBacktest(input: BacktestInput, options: Partial<BacktestOptio
     if (realised === undefined || dayForecast === undefined) {
       skippedDays.push({ day, reason: skipReasons(day, realised === undefined, dayForecast === undefined) });
     } else {
-      days.push(runDay(realised, dayForecast, input, settings, fallbackSource, soc));
+      const day = runDay(realised, dayForecast, input, settings, fallbackSource, soc);
+      settings.onLedgerDay?.(day);
+      days.push(settings.keepLedger || settings.onLedgerDay === null ? day : { ...day, runs: day.runs.map((run) => ({ ...run, ledger: null })) });
     }
     settings.onDay?.({ day, done: i + 1, total: calendarDays.length });
   });
@@ -172,7 +181,7 @@ function runDay(
       socStartMwh,
       socEndMwh: settled.socEndMwh,
       totals: settled.totals,
-      ledger: settings.keepLedger ? { orders: plan.orders, periods: settled.periods } : null,
+      ledger: settings.keepLedger || settings.onLedgerDay !== null ? { orders: plan.orders, periods: settled.periods } : null,
     };
   });
   return { day: realised.day, periods: realised.periods, clearingPricePerMwh: realised.pricePerMwh, fallback, runs };

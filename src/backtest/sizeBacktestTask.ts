@@ -4,7 +4,7 @@
  * `run` backtests one setting `{ energy_mwh, power_mw, round_trip_efficiency, policy }` and returns
  * its row with the project economics (size/sizeSettingRow.ts).
  */
-import { readBacktestInputsOnce, type BacktestInputPaths } from '../io/readBacktestInputs.js';
+import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type GivenForecast } from '../io/readBacktestInputs.js';
 import type { UnacceptedPolicy } from '../settle/settleDay.js';
 import { RunMemo, type PolicyRun } from './policyRun.js';
 import { settingNumber, settingWord } from './settingFields.js';
@@ -17,6 +17,10 @@ import type { SweepRow } from './sweep/taskModule.js';
 /** The sizing's contextInput: plain data, copied into every worker. */
 export interface SizeTaskInput {
   readonly paths: BacktestInputPaths;
+  /** The inputs already read and checked by the parent, cut to from..to (inputDataSpan.ts); when given, no file is read. */
+  readonly data?: BacktestInputData;
+  /** The forecasts of --model, made once in the parent (CSV text: cheap to copy, parsed once per worker); else paths.forecast is read. */
+  readonly forecast?: GivenForecast;
   readonly from: string;
   readonly to: string;
   readonly alpha: AlphaMode;
@@ -34,7 +38,7 @@ export interface SizeTaskContext {
 }
 
 export function loadContext(task: SizeTaskInput): SizeTaskContext {
-  const data = readBacktestInputsOnce(task.paths);
+  const data = task.data ?? readBacktestInputsOnce(task.paths, task.forecast);
   const study: SizeStudy = {
     market: data.market,
     batterySpec: data.batterySpec,

@@ -4,7 +4,7 @@
  * `run` backtests one setting `{ alpha, policy, unaccepted }` and returns its row (sweepSettingRow.ts).
  */
 import { batteryModel } from '../battery/batterySpec.js';
-import { readBacktestInputsOnce, type BacktestInputPaths } from '../io/readBacktestInputs.js';
+import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type GivenForecast } from '../io/readBacktestInputs.js';
 import { UNACCEPTED_POLICIES } from '../settle/settleDay.js';
 import { RunMemo, type PolicyRun } from './policyRun.js';
 import type { BacktestInput } from './runBacktest.js';
@@ -16,6 +16,10 @@ import { SWEEP_POLICIES, sweepSettingRow } from './sweepSettingRow.js';
 /** The sweep's contextInput: plain data, copied into every worker. */
 export interface SweepTaskInput {
   readonly paths: BacktestInputPaths;
+  /** The inputs already read and checked by the parent, cut to from..to (inputDataSpan.ts); when given, no file is read. */
+  readonly data?: BacktestInputData;
+  /** The forecasts of --model, made once in the parent (CSV text: cheap to copy, parsed once per worker); else paths.forecast is read. */
+  readonly forecast?: GivenForecast;
   /** First and last delivery day, YYYY-MM-DD, both included. */
   readonly from: string;
   readonly to: string;
@@ -28,7 +32,7 @@ export interface SweepTaskContext {
 }
 
 export function loadContext(task: SweepTaskInput): SweepTaskContext {
-  const data = readBacktestInputsOnce(task.paths);
+  const data = task.data ?? readBacktestInputsOnce(task.paths, task.forecast);
   const input: BacktestInput = { market: data.market, battery: batteryModel(data.batterySpec), history: data.history, forecast: data.forecast, from: task.from, to: task.to };
   return { input, memo: new RunMemo() };
 }

@@ -4,23 +4,25 @@ import { batteryModel } from '../battery/batterySpec.js';
 import { daysBetween } from '../market/calendar.js';
 import { backtestMetrics } from '../backtest/backtestMetrics.js';
 import { BACKTEST_POLICIES, type BacktestPolicy } from '../backtest/backtestPolicy.js';
-import { BACKTEST_DEFAULTS, runBacktest } from '../backtest/runBacktest.js';
-import { backtestSummary, backtestSummaryText, daysCsv, ledgerCsv } from '../io/backtestOutputs.js';
+import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay } from '../backtest/runBacktest.js';
+import { backtestSummary, backtestSummaryText, daysCsv, LEDGER_COLUMNS, ledgerRows } from '../io/backtestOutputs.js';
+import { backtestReport } from '../report/backtestReport.js';
 import { InputError } from '../io/inputError.js';
 import { jsonText } from '../io/planOutputs.js';
 import { readInputFile } from '../io/readInputFile.js';
 import { readPriceHistory } from '../io/readPriceHistory.js';
 import { parseQuantileForecast } from '../io/readQuantileForecast.js';
 import { readBatterySpec, readMarketSpec } from '../io/readSpecs.js';
-import { checkOutputFolder, writeOutputs } from '../io/writeOutputs.js';
+import { checkOutputFolder, OutputStage } from '../io/writeOutputs.js';
 import { chooseFallbackSource } from '../settle/fallbackPrices.js';
 import { UNACCEPTED_POLICIES, type UnacceptedPolicy } from '../settle/settleDay.js';
 import { oneOf, parseAlphaArg, parseDayArg } from './argParsers.js';
-import { addInputOptions, resolveInputs, type InputFlags } from './inputOptions.js';
+import { addInputOptions, type InputFlags } from './inputOptions.js';
 import type { CliIo } from './cliIo.js';
 import { createProgress } from './progress.js';
+import { addModelOptions, inputsShown, makeModelForecast, modelLevels, resolveBacktestInputs, type ModelFlags } from './modelOptions.js';
 
-export interface BacktestFlags extends InputFlags {
+export interface BacktestFlags extends InputFlags, ModelFlags {
   readonly from?: string;
   readonly to?: string;
   readonly alpha: number;
@@ -29,6 +31,8 @@ export interface BacktestFlags extends InputFlags {
   readonly out?: string;
   readonly force?: boolean;
   readonly json?: boolean;
+  readonly report?: boolean;
+  readonly quiet?: boolean;
 }
 
 const BACKTEST_OUTPUTS = ['ledger.csv', 'days.csv', 'summary.json'] as const;
@@ -53,18 +57,23 @@ export function backtestCommand(io: CliIo): Command {
     .option('--unaccepted <rule>', 'unaccepted orders: follow-plan (close them at the fallback price) | follow-accepted (move only with accepted orders)', oneOf<UnacceptedPolicy>(UNACCEPTED_POLICIES), BACKTEST_DEFAULTS.unaccepted)
     .option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}`, parsePoliciesArg, [...BACKTEST_DEFAULTS.policies])
     .option('--out <dir>', 'folder for ledger.csv, days.csv and summary.json (required)')
+    .option('--report', 'also write report.html into --out: cumulative profit, daily profit, acceptance, fallback energy, month table')
+    .option('--quiet', 'no progress bar and no notes on stderr, even on a terminal')
     .option('--force', 'overwrite existing outputs')
     .option('--json', 'print the summary as JSON on stdout');
   addInputOptions(command, INPUTS);
+  addModelOptions(command);
   command.addHelpText(
     'after',
     `
 Examples:
-  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-01-31 --out runs/jan
+  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-01-31 --out runs/jan --report
   quantbid backtest --market market.json --battery battery.json --forecast quantiles.csv --history history.csv \\
                     --from 2025-01-01 --to 2025-12-31 --alpha 0.2 --unaccepted follow-accepted --out runs/2025
   quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-06-01 --to 2026-06-30 \\
-                    --policies quantile,point,perfect-foresight --out runs/june --json`,
+                    --policies quantile,point,perfect-foresight --out runs/june --json
+  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-03-01 --to 2026-03-31 \\
+                    --model arx-hs --levels 0.05:0.95:0.05 --out runs/march-arx`,
   );
   command.action((flags: BacktestFlags) => runBacktestCommand(flags, io));
   return command;
@@ -72,35 +81,44 @@ Examples:
 
 export function runBacktestCommand(flags: BacktestFlags, io: CliIo): void {
   const { from, to, out } = requireGridFlags(flags, 'ledger.csv, days.csv');
-  const { paths } = resolveInputs(flags, INPUTS);
-  checkOutputFolder(out, BACKTEST_OUTPUTS, flags.force === true);
+  const { paths } = resolveBacktestInputs(flags, INPUTS);
+  const outputs = flags.report === true ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
+  checkOutputFolder(out, outputs, flags.force === true);
   const market = readMarketSpec(paths.market);
   const battery = batteryModel(readBatterySpec(paths.battery));
   const history = readPriceHistory(paths.history, market);
-  const forecast = parseQuantileForecast(readInputFile(paths.forecast), paths.forecast, market);
+  const forecastFile = paths.forecast === undefined ? undefined : parseQuantileForecast(readInputFile(paths.forecast), paths.forecast, market);
   if (chooseFallbackSource(history, market) === null) {
     throw new InputError([
       { file: paths.history, field: 'fallback_price', message: 'the history has no fallback_price column and the market spec has no fallback rule', fix: `add a fallback_price column to the history, or "fallback": {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15} to ${paths.market}` },
     ]);
   }
-  checkForecastLevels(flags, forecast.levels, paths.forecast);
-  // A progress bar on stderr, drawn only when stderr is a terminal (createProgress decides).
-  const progress = createProgress(io, { total: daysBetween(from, to).length, label: 'backtest' });
+  checkForecastLevels(flags, forecastFile?.levels ?? modelLevels(flags), forecastFile?.file ?? `--model ${flags.model}`);
+  // With --model the forecasts are made here, day by day from the history (through the forecast cache).
+  const model = flags.model === undefined ? undefined : makeModelForecast({ ...flags, model: flags.model }, market, history, paths.history, from, to, io);
+  const forecast = model?.file ?? (forecastFile as NonNullable<typeof forecastFile>);
+  // A progress bar on stderr, drawn only when stderr is a terminal and not --quiet (createProgress decides).
+  const progress = createProgress(io, { total: daysBetween(from, to).length, label: 'backtest', quiet: flags.quiet === true });
   const onDay = ({ done }: { done: number }): void => progress.update(done);
-  const result = runBacktest({ market, battery, history, forecast, from, to }, { alpha: flags.alpha, unaccepted: flags.unaccepted, policies: flags.policies, onDay });
-  progress.finish();
-  const metrics = backtestMetrics(result, battery);
-  const summary = backtestSummary(result, metrics, { market, battery, inputs: paths });
-  writeOutputs(
-    out,
-    [
-      { name: 'ledger.csv', text: ledgerCsv(result) },
-      { name: 'days.csv', text: daysCsv(result) },
-      { name: 'summary.json', text: jsonText(summary) },
-    ],
-    flags.force === true,
-  );
-  io.stdout(flags.json === true ? jsonText(summary) : backtestSummaryText(result, metrics, market, out));
+  // ledger.csv goes into the output stage day by day (writeOutputs.ts): ten years keep no ledger in memory.
+  const stage = OutputStage.begin(out, outputs, flags.force === true);
+  try {
+    const ledger = stage.open('ledger.csv');
+    ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
+    const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRows(day));
+    const result = runBacktest({ market, battery, history, forecast, from, to }, { alpha: flags.alpha, unaccepted: flags.unaccepted, policies: flags.policies, onDay, keepLedger: false, onLedgerDay });
+    progress.finish();
+    const metrics = backtestMetrics(result, battery);
+    const inputs = inputsShown(paths, flags.model);
+    const summary = { ...backtestSummary(result, metrics, { market, battery, inputs }), ...(model === undefined ? {} : { forecastModel: model.summary }) };
+    stage.write('days.csv', daysCsv(result));
+    stage.write('summary.json', jsonText(summary));
+    if (flags.report === true) stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
+    stage.commit();
+    io.stdout(flags.json === true ? jsonText(summary) : `${backtestSummaryText(result, metrics, market, out, outputs)}${model?.note ?? ''}`);
+  } finally {
+    stage.discard();
+  }
 }
 
 

@@ -26,6 +26,7 @@ export interface ForecastFlags extends InputFlags {
   readonly out?: string;
   readonly force?: boolean;
   readonly json?: boolean;
+  readonly quiet?: boolean;
 }
 
 /** Defaults of `quantbid forecast`: the method of docs/forecast-quality.md, 19 levels, no paths. */
@@ -55,6 +56,7 @@ export function forecastCommand(io: CliIo): Command {
     )
     .option('--paths <S>', 'also write S whole-day scenario paths per day to paths.csv', parsePathCountArg, FORECAST_COMMAND_DEFAULTS.paths)
     .option('--out <dir>', 'folder for quantiles.csv, forecast.json and (with --paths) paths.csv (required)', parsePathArg)
+    .option('--quiet', 'no progress bar and no notes on stderr, even on a terminal')
     .option('--force', 'overwrite existing outputs')
     .option('--json', 'print the summary (forecast.json) on stdout');
   addInputOptions(command, INPUTS);
@@ -67,8 +69,8 @@ Outputs, in the folder --out:
   paths.csv      with --paths S: period_start,path,price, per day S whole-day price curves
                  (the day's point forecast plus the errors of one calibration day, period by
                  period, most recent day first: paths keep the dependence between periods)
-  forecast.json  method, levels, options, days forecast and skipped with the reason, time spent
-                 (elapsedSeconds, the only value that differs between two runs)
+  forecast.json  method, levels, options, days forecast and skipped with the reason; the same
+                 inputs give byte-identical files (the time spent is printed, not written)
 
 Examples:
   quantbid forecast --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 --out runs/fc
@@ -92,7 +94,7 @@ export function runForecast(flags: ForecastFlags, io: CliIo): void {
 
   const started = performance.now();
   const calendar = new DayCalendar(market.timeZone, market.periodMinutes);
-  const progress = createProgress(io, { total: daysBetween(from, to).length, label: 'forecast' });
+  const progress = createProgress(io, { total: daysBetween(from, to).length, label: 'forecast', quiet: flags.quiet === true });
   const result = forecastRange(
     history,
     { from, to, method: flags.method, levels: flags.levels, priceFloor: market.priceFloor, priceCap: market.priceCap, periodsOf: (day) => calendar.periods(day) },
@@ -102,7 +104,7 @@ export function runForecast(flags: ForecastFlags, io: CliIo): void {
   progress.finish();
   if (result.forecasts.length === 0) throw nothingForecast(result, paths.history, from, to);
   const elapsedSeconds = (performance.now() - started) / 1000;
-  const summary = forecastSummary(flags, { from, to, inputs: paths, outputs, result, elapsedSeconds });
+  const summary = forecastSummary(flags, { from, to, inputs: paths, outputs, result });
   writeOutputs(
     out,
     [
@@ -112,7 +114,7 @@ export function runForecast(flags: ForecastFlags, io: CliIo): void {
     ],
     flags.force === true,
   );
-  io.stdout(flags.json === true ? jsonText(summary) : forecastSummaryText(summary, out));
+  io.stdout(flags.json === true ? jsonText(summary) : forecastSummaryText(summary, out, elapsedSeconds));
 }
 
 function requiredFlags(flags: ForecastFlags): { from: string; to: string; out: string } {
@@ -147,7 +149,6 @@ interface SummaryContext {
   readonly inputs: Record<(typeof INPUTS)[number], string>;
   readonly outputs: readonly string[];
   readonly result: ForecastRangeResult;
-  readonly elapsedSeconds: number;
 }
 
 /** The content of forecast.json and of `--json`. */
@@ -172,14 +173,14 @@ function forecastSummary(flags: ForecastFlags, context: SummaryContext) {
     pricesClampedToFloorOrCap: clampedValues,
     notes: [...new Set(forecasts.flatMap((f) => f.notes))],
     outputs: [...context.outputs],
-    elapsedSeconds: Number(context.elapsedSeconds.toFixed(1)),
   };
 }
 
-function forecastSummaryText(summary: ReturnType<typeof forecastSummary>, out: string): string {
+/** The human summary on stdout; the time spent is shown here only, so that forecast.json stays byte-identical between runs. */
+function forecastSummaryText(summary: ReturnType<typeof forecastSummary>, out: string, elapsedSeconds: number): string {
   const { days } = summary;
   const lines = [
-    `forecast ${summary.method} at ${summary.levels.length} levels (${summary.levels[0]}..${summary.levels[summary.levels.length - 1]}), ${summary.from} to ${summary.to}: ${days.forecast} days forecast (${days.first} to ${days.last}), ${days.skipped} skipped, ${formatNumber(summary.elapsedSeconds, 1)} s`,
+    `forecast ${summary.method} at ${summary.levels.length} levels (${summary.levels[0]}..${summary.levels[summary.levels.length - 1]}), ${summary.from} to ${summary.to}: ${days.forecast} days forecast (${days.first} to ${days.last}), ${days.skipped} skipped, ${formatNumber(elapsedSeconds, 1)} s`,
     ...days.skippedDays.slice(0, 5).map((s) => `  skipped ${s.day}: ${s.reason}`),
     ...(days.skipped > 5 ? [`  ... and ${days.skipped - 5} more (see forecast.json)`] : []),
     `  wrote ${summary.outputs.map((name, i) => (i === 0 ? `${out}/${name}` : name)).join(', ')}`,

@@ -1,6 +1,6 @@
 import { coveredDays } from '../backtest/coveredDays.js';
 import { InputError, throwIfProblems, type InputProblem } from '../io/inputError.js';
-import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths } from '../io/readBacktestInputs.js';
+import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type MakeForecast } from '../io/readBacktestInputs.js';
 import type { InputName } from './inputOptions.js';
 
 export const GRID_INPUTS: readonly InputName[] = Object.freeze(['market', 'battery', 'forecast', 'history']);
@@ -16,11 +16,14 @@ export interface LevelUse {
 /**
  * Reads and checks a grid command's inputs before any setting runs (in this thread, remembered for a
  * one-thread run): every file problem, alphas whose levels alpha or 1 - alpha lie outside the
- * forecast's levels (a quantile is never extrapolated), and a span without a covered day.
+ * forecast's levels (a quantile is never extrapolated), and a span without a covered day. With
+ * `model` (--model) the forecast is made from the market and history instead of read.
  */
-export function readGridInputs(paths: BacktestInputPaths, from: string, to: string, use: LevelUse): BacktestInputData {
-  const data = readBacktestInputsOnce(paths);
-  throwIfProblems(levelProblems(data.forecast.levels, paths.forecast, use));
+export function readGridInputs(paths: BacktestInputPaths, from: string, to: string, use: LevelUse, model?: { readonly levels: readonly number[]; readonly label: string; readonly make: MakeForecast }): BacktestInputData {
+  // With --model the levels are known before the forecasts are made: a bad alpha fails before any fitting.
+  if (model !== undefined) throwIfProblems(levelProblems(model.levels, model.label, use));
+  const data = readBacktestInputsOnce(paths, model?.make);
+  throwIfProblems(levelProblems(data.forecast.levels, data.forecast.file, use));
   if (coveredDays(data.history, data.forecast, from, to).length === 0) {
     throw new InputError([
       { file: paths.history, field: '--from', message: `no day from ${from} to ${to} has both a complete history and a complete forecast`, fix: 'choose days that both files cover' },

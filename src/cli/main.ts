@@ -9,19 +9,38 @@ import { scoreCommand } from './scoreCommand.js';
 import { sizeCommand } from './sizeCommand.js';
 import { sweepCommand } from './sweepCommand.js';
 import { packageVersion } from './version.js';
+import { usageErrorText } from './usageError.js';
 
 /** Exit codes (DESIGN.md section 7). */
 export const EXIT = Object.freeze({ ok: 0, internal: 1, badInput: 2 });
+
+/**
+ * Width that help text is wrapped to [columns], whatever the terminal: the same help on every
+ * machine (the tests compare it with stored snapshots), and 80 columns fit any terminal.
+ */
+export const HELP_WIDTH = 80;
+
+/** Where commander writes: through `io`, at HELP_WIDTH, without colour; usage errors in our format. */
+function outputOf(io: CliIo, commandPath: string) {
+  return {
+    outputError: (message: string, write: (s: string) => void) => write(usageErrorText(message, commandPath)),
+    writeOut: (s: string) => io.stdout(s),
+    writeErr: (s: string) => io.stderr(s),
+    getOutHelpWidth: () => HELP_WIDTH,
+    getErrHelpWidth: () => HELP_WIDTH,
+    getOutHasColors: () => false,
+    getErrHasColors: () => false,
+  };
+}
 
 export function buildProgram(io: CliIo): Command {
   const program = new Command('quantbid')
     .description('plan, backtest and size a grid battery\'s day-ahead orders from quantile price forecasts')
     .version(packageVersion(), '--version', 'print the version')
-    .showHelpAfterError('(add --help for usage)')
-    .configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) })
+    .configureOutput(outputOf(io, 'quantbid'))
     .exitOverride();
   for (const command of [planCommand(io), backtestCommand(io), sweepCommand(io), sizeCommand(io), forecastCommand(io), scoreCommand(io), demoCommand(io)]) {
-    command.exitOverride().configureOutput({ writeOut: (s) => io.stdout(s), writeErr: (s) => io.stderr(s) }).showHelpAfterError('(add --help for usage)');
+    command.exitOverride().configureOutput(outputOf(io, `quantbid ${command.name()}`));
     program.addCommand(command);
   }
   return program;

@@ -9,6 +9,7 @@ import { readQuantileForecast, type QuantileForecastFile } from '../io/readQuant
 import { readMarketSpec } from '../io/readSpecs.js';
 import { scoreSummary, scoreSummaryText, type UnscoredDay } from '../io/scoreOutputs.js';
 import { checkOutputFolder, writeOutputs } from '../io/writeOutputs.js';
+import { scoreReport } from '../report/scoreReport.js';
 import { parseDayArg, parsePathArg } from './argParsers.js';
 import { addInputOptions, resolveInputs, type InputFlags } from './inputOptions.js';
 import type { CliIo } from './cliIo.js';
@@ -20,6 +21,7 @@ export interface ScoreFlags extends InputFlags {
   readonly out?: string;
   readonly force?: boolean;
   readonly json?: boolean;
+  readonly report?: boolean;
 }
 
 const INPUTS = ['market', 'history', 'forecast'] as const;
@@ -31,6 +33,7 @@ export function scoreCommand(io: CliIo): Command {
     .option('--from <YYYY-MM-DD>', 'score only days from this one (default: the first forecast day)', parseDayArg)
     .option('--to <YYYY-MM-DD>', 'score only days up to this one, included (default: the last forecast day)', parseDayArg)
     .option('--out <dir>', 'folder for score.json (required)', parsePathArg)
+    .option('--report', 'also write report.html into --out: calibration chart, pinball loss by level and by period of the day')
     .option('--force', 'overwrite an existing score.json')
     .option('--json', 'print score.json on stdout');
   addInputOptions(command, INPUTS);
@@ -46,7 +49,7 @@ Kupiec and Christoffersen tests of each central interval, all overall and per pe
 (byPeriod), and with --against the Diebold-Mariano test (HLN-corrected, h = 1, on the daily crps).
 
 Examples:
-  quantbid score --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 --out runs/vendor-score
+  quantbid score --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 --out runs/vendor-score --report
   quantbid score --scenario scenarios/halvorn/scenario.json --forecast runs/fc/quantiles.csv \\
                  --against scenarios/halvorn/quantiles.csv.gz --out runs/fc-score
   quantbid score --market market.json --history history.csv --forecast quantiles.csv --out runs/score --json`,
@@ -58,7 +61,8 @@ Examples:
 export function runScore(flags: ScoreFlags, io: CliIo): void {
   const out = requiredFlags(flags);
   const { paths } = resolveInputs(flags, INPUTS);
-  checkOutputFolder(out, ['score.json'], flags.force === true);
+  const outputs = flags.report === true ? ['score.json', 'report.html'] : ['score.json'];
+  checkOutputFolder(out, outputs, flags.force === true);
   const problems: InputProblem[] = [];
   const market = gatherProblems(problems, () => readMarketSpec(paths.market));
   const read = <T>(reader: (m: NonNullable<typeof market>) => T): T | undefined => (market === undefined ? undefined : gatherProblems(problems, () => reader(market)));
@@ -71,17 +75,19 @@ export function runScore(flags: ScoreFlags, io: CliIo): void {
   const matched = matchDays(forecast, history, range);
   if (matched.scored.length === 0) throw noCommonDays(forecast, history, paths.history);
   const comparison = against === null ? null : compareOnCommonDays(matched.scored, against, history, range);
-  const summary = scoreSummary({
+  const scored = {
     inputs: { ...paths, ...(against === null ? {} : { against: against.file }) },
     currency: market.currency,
     table: scoreForecasts(matched.scored),
     days: matched.scored.map((s) => s.forecast.day),
     unscored: matched.unscored,
     comparison,
-  });
-  writeOutputs(out, [{ name: 'score.json', text: jsonText(summary) }], flags.force === true);
+  };
+  const summary = scoreSummary(scored);
+  const report = flags.report === true ? [{ name: 'report.html', text: scoreReport({ ...scored, timeZone: market.timeZone, periodMinutes: market.periodMinutes }) }] : [];
+  writeOutputs(out, [{ name: 'score.json', text: jsonText(summary) }, ...report], flags.force === true);
   reportRepairs(io, [forecast, ...(against === null ? [] : [against])]);
-  io.stdout(flags.json === true ? jsonText(summary) : scoreSummaryText(summary, out));
+  io.stdout(flags.json === true ? jsonText(summary) : scoreSummaryText(summary, out, outputs));
 }
 
 function requiredFlags(flags: ScoreFlags): string {

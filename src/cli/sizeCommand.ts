@@ -9,18 +9,21 @@ import { daysBetween } from '../market/calendar.js';
 import { InputError, type InputProblem } from '../io/inputError.js';
 import { jsonText } from '../io/planOutputs.js';
 import { sizeSummary, sizeSummaryText } from '../io/sizeOutputs.js';
+import { sizeReport } from '../report/sizeReport.js';
 import { shownText } from '../io/shownText.js';
-import { checkOutputFolder, writeOutputs } from '../io/writeOutputs.js';
+import { checkOutputFolder } from '../io/writeOutputs.js';
 import { UNACCEPTED_POLICIES, type UnacceptedPolicy } from '../settle/settleDay.js';
 import { oneOf, parseAlphaArg, parseNonNegativeArg } from './argParsers.js';
 import type { CliIo } from './cliIo.js';
 import { addGridOptions, parsePositiveArg, parseRateArg, requireGridFlags, wholeNumberArg, type GridFlags } from './gridArgs.js';
 import { GRID_INPUTS, readGridInputs } from './gridInputs.js';
+import { inputDataSpan } from '../io/inputDataSpan.js';
 import { runGrid } from './gridRun.js';
-import { addInputOptions, resolveInputs, type InputFlags } from './inputOptions.js';
+import { addInputOptions, type InputFlags } from './inputOptions.js';
+import { addModelOptions, gridInputFiles, gridModel, resolveBacktestInputs, type ModelFlags } from './modelOptions.js';
 import { packageVersion } from './version.js';
 
-export interface SizeFlags extends InputFlags, GridFlags {
+export interface SizeFlags extends InputFlags, GridFlags, ModelFlags {
   readonly energyMwh?: string;
   readonly powerMw?: string;
   readonly efficiency?: string;
@@ -34,6 +37,7 @@ export interface SizeFlags extends InputFlags, GridFlags {
   readonly lifeYears?: number;
   readonly lifeCycles?: number;
   readonly discountRate?: number;
+  readonly report?: boolean;
 }
 
 /** Defaults: the quantile policy at alpha 0.1, the grid of `--alpha best`, follow-plan, no fixed O&M. */
@@ -74,7 +78,9 @@ export function sizeCommand(io: CliIo): Command {
     .option('--life-cycles <n>', 'equivalent full cycles one set of cells lasts; the cells are bought again when they run out before the end of life (default: no limit)', parsePositiveArg)
     .option('--discount-rate <r>', 'discount rate per year as a fraction, e.g. 0.07 (required)', parseRateArg);
   addGridOptions(command, 'size.csv');
+  command.option('--report', 'also write report.html into --out: heat maps of NPV and profit per MWh over energy x power, best sizes');
   addInputOptions(command, GRID_INPUTS);
+  addModelOptions(command);
   command.addHelpText(
     'after',
     `
@@ -87,7 +93,7 @@ when there is none. An interrupted run (Ctrl-C: exit code 130) resumes from its 
 Examples:
   quantbid size --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 \\
                 --energy-mwh 5:40:5 --power-mw 2.5:20:2.5 --capex-per-mwh 180000 --capex-per-mw 60000 \\
-                --fixed-om-per-mw-year 8000 --life-years 15 --discount-rate 0.07 --out runs/size-2026
+                --fixed-om-per-mw-year 8000 --life-years 15 --discount-rate 0.07 --out runs/size-2026 --report
   quantbid size --scenario scenarios/halvorn/scenario.json --from 2025-01-01 --to 2026-12-31 \\
                 --energy-mwh 10,20,40 --power-mw 5,10 --efficiency 0.82,0.88 --alpha best --alphas 0.05:0.45:0.05 \\
                 --capex-per-mwh 180000 --capex-per-mw 60000 --life-years 15 --life-cycles 6000 --discount-rate 0.07 --out runs/size-best
@@ -102,31 +108,40 @@ Examples:
 export async function runSizeCommand(flags: SizeFlags, io: CliIo): Promise<void> {
   const { from, to, out } = requireGridFlags(flags, 'size.csv');
   const { costs, alpha, sizeAxes } = checkSizeFlags(flags, from, to);
-  const { paths } = resolveInputs(flags, GRID_INPUTS);
+  const { paths } = resolveBacktestInputs(flags, GRID_INPUTS);
   const force = flags.force === true;
-  checkOutputFolder(out, OUTPUTS, force);
+  checkOutputFolder(out, flags.report === true ? [...OUTPUTS, 'report.html'] : OUTPUTS, force);
   const [energyAxis, powerAxis, givenEfficiency, policyAxis] = sizeAxes;
   const policies = policyAxis.values as string[];
   const alphas = alpha.method === 'fixed' ? [alpha.alpha] : alpha.alphas;
-  const data = readGridInputs(paths, from, to, { alphas, option: alpha.method === 'fixed' ? '--alpha' : '--alphas', policies });
+  // With --model the forecasts are made here, once, before the workers start; they get the CSV text.
+  const grid = gridModel(flags, paths.history, from, to, io);
+  const data = readGridInputs(paths, from, to, { alphas, option: alpha.method === 'fixed' ? '--alpha' : '--alphas', policies }, grid);
+  const model = grid?.made();
+  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
   const efficiencyAxis: SweepAxis = givenEfficiency ?? { name: 'round_trip_efficiency', option: '--efficiency', values: [specRoundTripEfficiency(data.batterySpec)] };
   const axes = [energyAxis, powerAxis, efficiencyAxis, { ...policyAxis, values: [...policies, 'perfect-foresight'] }];
-  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: flags.unaccepted, costs, efficiencyGiven: givenEfficiency !== undefined };
+  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
+  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: flags.unaccepted, costs, efficiencyGiven: givenEfficiency !== undefined, data: inputDataSpan(data, from, to) };
   const outcome = await runGrid(io, 'size', flags.quiet === true, {
     outDir: out,
     axes,
     taskModule: new URL('../backtest/sizeBacktestTask.js', import.meta.url),
     contextInput,
-    identity: { command: 'size', version: packageVersion(), from, to, alpha, unaccepted: flags.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven },
-    inputFiles: [paths.market, paths.battery, paths.history, paths.forecast],
+    identity: { command: 'size', version: packageVersion(), from, to, alpha, unaccepted: flags.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven, ...(model === undefined ? {} : { forecastModel: model.identity }) },
+    inputFiles: gridInputFiles(paths),
     ...(flags.threads === undefined ? {} : { threads: flags.threads }),
     restart: flags.restart === true,
     force,
     csvName: 'size.csv',
+    // In one output set with size.csv: a run killed while writing leaves the old outputs or all the new ones.
+    moreOutputs: (results) => [
+      { name: 'summary.json', text: jsonText(sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs, ...modelContext })) },
+      ...(flags.report === true ? [{ name: 'report.html', text: sizeReport({ results, summary: sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs, ...modelContext }) }) }] : []),
+    ],
   });
-  const summary = sizeSummary(outcome.results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs });
-  const files = [...outcome.files, ...writeOutputs(out, [{ name: 'summary.json', text: jsonText(summary) }], force)];
-  io.stdout(flags.json === true ? jsonText(summary) : sizeSummaryText(summary, outcome.resumed, files));
+  const summary = sizeSummary(outcome.results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs, ...modelContext });
+  io.stdout(flags.json === true ? jsonText(summary) : `${sizeSummaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}`);
 }
 
 /**

@@ -23,6 +23,7 @@ import type { PriceHistory, QuantileDay } from '../types.js';
 import { ArgumentError } from '../stats/argument-error.js';
 import type { LassoOptions } from './linalg/lasso.js';
 import { LASSO_DEFAULTS } from './linalg/lasso.js';
+import type { FitStopwatch } from './fitStopwatch.js';
 import { arxForecast } from './models/arx.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { GridCache, HistoryView } from './models/historyView.js';
@@ -76,6 +77,19 @@ export interface ForecastOptions {
    * naive), or 'price' (P - P_hat for every model). `qra` works on prices either way.
    */
   readonly errorScale: 'model' | 'price';
+  /**
+   * Adds the time spent fitting models (least squares and LASSO per slot and window, QRA's quantile
+   * regressions; see fitStopwatch.ts) to this counter, with the clock the caller hands in
+   * (benchmarks). It never changes a forecast and is no part of a forecast's identity (see
+   * {@link forecastSettings}). Default none.
+   */
+  readonly stopwatch?: FitStopwatch;
+}
+
+/** The options that decide the forecasts: all but the stopwatch (for cache keys and summaries). */
+export function forecastSettings(options: Partial<ForecastOptions>): Partial<Omit<ForecastOptions, 'stopwatch'>> {
+  const { stopwatch: _measuresOnly, ...settings } = options;
+  return settings;
 }
 
 /**
@@ -175,6 +189,7 @@ export class Forecaster {
         },
         levels,
         this.warmStarts,
+        this.options.stopwatch,
       );
     } else if (method === 'arx-conformal') {
       const conformal = conformalQuantiles(centre, errors, levels);
@@ -275,6 +290,7 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
     estimator: model === 'lasso' ? 'lasso' : 'least-squares',
     lasso: options.lasso,
     minTrainingDays: options.minTrainingDays,
+    stopwatch: options.stopwatch,
   });
 }
 

@@ -1,6 +1,6 @@
 import type { BatteryModel, MarketSpec } from '../types.js';
 import type { BacktestMetrics } from '../backtest/backtestMetrics.js';
-import type { BacktestResult } from '../backtest/runBacktest.js';
+import type { BacktestDay, BacktestResult } from '../backtest/runBacktest.js';
 import type { FallbackSource } from '../settle/fallbackPrices.js';
 import { csvLine, formatNumber } from './formatNumber.js';
 
@@ -27,28 +27,34 @@ export const DAYS_COLUMNS = Object.freeze([
 ]);
 
 export function ledgerCsv(result: BacktestResult): string {
-  const lines = [LEDGER_COLUMNS.join(',')];
-  for (const day of result.days) {
-    for (const run of day.runs) {
-      if (run.ledger === null) throw new RangeError('ledgerCsv: the backtest was run without keepLedger');
-      const { orders, periods } = run.ledger;
-      day.periods.forEach((period, t) => {
-        const order = orders[t] ?? null;
-        const s = periods[t];
-        if (s === undefined) throw new RangeError(`ledgerCsv: no settlement for ${period.start}`);
-        lines.push(
-          csvLine([
-            day.day, run.policy, period.start,
-            order?.side ?? '', order === null ? '' : order.quantityMw, order === null ? '' : order.limitPrice, s.accepted === null ? '' : String(s.accepted),
-            day.clearingPricePerMwh[t] as number, day.fallback.buyPerMwh[t] as number, day.fallback.sellPerMwh[t] as number,
-            s.boughtAuctionMwh, s.soldAuctionMwh, s.boughtFallbackMwh, s.soldFallbackMwh,
-            s.chargedMwh, s.dischargedMwh, s.auctionCash, s.fallbackCash, s.degradationCost, s.profit, s.socMwh,
-          ]),
-        );
-      });
-    }
+  return `${LEDGER_COLUMNS.join(',')}\n${result.days.map(ledgerRows).join('')}`;
+}
+
+/**
+ * The ledger.csv rows of one covered day, each ending in a line break; ledger.csv is the header line
+ * (LEDGER_COLUMNS) and then these rows day by day, so a long backtest can write it as it goes.
+ */
+export function ledgerRows(day: BacktestDay): string {
+  const lines: string[] = [];
+  for (const run of day.runs) {
+    if (run.ledger === null) throw new RangeError('ledgerCsv: the backtest was run without keepLedger');
+    const { orders, periods } = run.ledger;
+    day.periods.forEach((period, t) => {
+      const order = orders[t] ?? null;
+      const s = periods[t];
+      if (s === undefined) throw new RangeError(`ledgerCsv: no settlement for ${period.start}`);
+      lines.push(
+        csvLine([
+          day.day, run.policy, period.start,
+          order?.side ?? '', order === null ? '' : order.quantityMw, order === null ? '' : order.limitPrice, s.accepted === null ? '' : String(s.accepted),
+          day.clearingPricePerMwh[t] as number, day.fallback.buyPerMwh[t] as number, day.fallback.sellPerMwh[t] as number,
+          s.boughtAuctionMwh, s.soldAuctionMwh, s.boughtFallbackMwh, s.soldFallbackMwh,
+          s.chargedMwh, s.dischargedMwh, s.auctionCash, s.fallbackCash, s.degradationCost, s.profit, s.socMwh,
+        ]),
+      );
+    });
   }
-  return `${lines.join('\n')}\n`;
+  return lines.length === 0 ? '' : `${lines.join('\n')}\n`;
 }
 
 export function daysCsv(result: BacktestResult): string {
@@ -131,7 +137,7 @@ function plansMissing(result: BacktestResult): { day: string; policy: string; st
 }
 
 /** The short human summary printed on stdout. */
-export function backtestSummaryText(result: BacktestResult, metrics: BacktestMetrics, market: MarketSpec, outDir: string): string {
+export function backtestSummaryText(result: BacktestResult, metrics: BacktestMetrics, market: MarketSpec, outDir: string, written: readonly string[] = ['ledger.csv', 'days.csv', 'summary.json']): string {
   const money = (x: number | null) => (x === null ? '-' : formatNumber(x, 0));
   const share = (x: number | null) => (x === null ? '-' : `${formatNumber(100 * x, 1)}%`);
   const rows = Object.entries(metrics.policies).map(([name, m]) => [
@@ -147,7 +153,7 @@ export function backtestSummaryText(result: BacktestResult, metrics: BacktestMet
     ...rows.map(line),
     `  ${edgeLine(metrics)}`,
     ...missingLine(result),
-    `  wrote ${outDir}/ledger.csv, days.csv, summary.json`,
+    `  wrote ${outDir}/${written.join(', ')}`,
   ];
   return `${lines.join('\n')}\n`;
 }

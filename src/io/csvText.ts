@@ -11,7 +11,13 @@ export interface CsvTable {
   readonly header: readonly string[];
   /** 1-based line of the header (the first non-blank line). */
   readonly headerLine: number;
-  readonly rows: readonly CsvRow[];
+  /**
+   * The data rows, split one at a time while they are iterated (and again on each iteration): a long
+   * file never holds every row's cells at once, only the text.
+   */
+  readonly rows: Iterable<CsvRow>;
+  /** Whether there is at least one non-blank line after the header. */
+  readonly hasRows: boolean;
 }
 
 /**
@@ -22,28 +28,49 @@ export interface CsvTable {
  */
 export function splitCsv(text: string, file: string): { table: CsvTable } | { problems: InputProblem[] } {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  const lines = body.includes('\n') || !body.includes('\r') ? body.split('\n') : body.split('\r');
-  let headerIndex = -1;
-  for (let i = 0; i < lines.length; i++) {
-    if ((lines[i] as string).trim() !== '') {
-      headerIndex = i;
-      break;
-    }
-  }
-  if (headerIndex < 0) {
+  const lines = new TextLines(body, body.includes('\n') || !body.includes('\r') ? '\n' : '\r');
+  const first = lines.nextNonBlank(0);
+  if (first === null) {
     return { problems: [{ file, message: 'the file is empty', fix: 'give a CSV file with a header line and one row per delivery period' }] };
   }
-  const headerLine = stripCr(lines[headerIndex] as string);
-  const separator = separatorProblem(headerLine, file, headerIndex + 1);
+  const headerText = stripCr(first.text);
+  const separator = separatorProblem(headerText, file, first.line);
   if (separator !== null) return { problems: [separator] };
-  const header = splitCsvLine(headerLine);
-  const rows: CsvRow[] = [];
-  for (let i = headerIndex + 1; i < lines.length; i++) {
-    const line = stripCr(lines[i] as string);
-    if (line.trim() === '') continue;
-    rows.push({ line: i + 1, cells: splitCsvLine(line) });
+  const dataStart = first.end;
+  const rows: Iterable<CsvRow> = {
+    *[Symbol.iterator]() {
+      for (let at = lines.nextNonBlank(dataStart, first.line); at !== null; at = lines.nextNonBlank(at.end, at.line)) {
+        yield { line: at.line, cells: splitCsvLine(stripCr(at.text)) };
+      }
+    },
+  };
+  return { table: { header: splitCsvLine(headerText), headerLine: first.line, rows, hasRows: lines.nextNonBlank(dataStart, first.line) !== null } };
+}
+
+/** Walks the lines of a text by offsets, without splitting it into an array of lines. */
+class TextLines {
+  constructor(
+    private readonly text: string,
+    private readonly breakChar: string,
+  ) {}
+
+  /**
+   * The first line that is not blank at or after offset `from`, which starts line `lineBefore + 1`:
+   * its text, 1-based number, and the offset after its line break.
+   */
+  nextNonBlank(from: number, lineBefore = 0): { text: string; line: number; end: number } | null {
+    let line = lineBefore;
+    // As text.split(breakChar): a text ending in a line break has an empty last line.
+    for (let start = from; start <= this.text.length; ) {
+      const found = this.text.indexOf(this.breakChar, start);
+      const stop = found < 0 ? this.text.length : found;
+      line++;
+      const text = this.text.slice(start, stop);
+      if (text.trim() !== '') return { text, line, end: stop + 1 };
+      start = stop + 1;
+    }
+    return null;
   }
-  return { table: { header, headerLine: headerIndex + 1, rows } };
 }
 
 /** The problem with a header line separated by semicolons or tabs instead of commas, or null. */

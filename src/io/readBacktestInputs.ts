@@ -1,8 +1,9 @@
+import { createHash } from 'node:crypto';
 import type { BatterySpec, MarketSpec, PriceHistory } from '../types.js';
 import { chooseFallbackSource } from '../settle/fallbackPrices.js';
 import { gatherProblems, InputError, throwIfProblems, type InputProblem } from './inputError.js';
 import { readPriceHistory } from './readPriceHistory.js';
-import { readQuantileForecast, type QuantileForecastFile } from './readQuantileForecast.js';
+import { parseQuantileForecast, readQuantileForecast, type QuantileForecastFile } from './readQuantileForecast.js';
 import { readBatterySpec, readMarketSpec } from './readSpecs.js';
 
 /** Paths of the four input files of a backtest, as the user named them (relative to the working folder). */
@@ -10,8 +11,22 @@ export interface BacktestInputPaths {
   readonly market: string;
   readonly battery: string;
   readonly history: string;
-  readonly forecast: string;
+  /** The quantile forecast file; absent when the forecasts are made from the history (--model) and handed over as text. */
+  readonly forecast?: string;
 }
+
+/**
+ * A quantile forecast given as CSV text instead of a file (the forecasts of --model), its name in
+ * messages, and, where the giver has parsed it already, the parsed file.
+ */
+export interface GivenForecast {
+  readonly csv: string;
+  readonly label: string;
+  readonly file?: QuantileForecastFile;
+}
+
+/** Makes the forecast from the market and the history once both are read and checked (--model). */
+export type MakeForecast = (market: MarketSpec, history: PriceHistory) => GivenForecast;
 
 /** The four inputs of a backtest, read and checked; the battery as its spec, so that a sizing can scale it. */
 export interface BacktestInputData {
@@ -22,17 +37,21 @@ export interface BacktestInputData {
 }
 
 /**
- * Reads the market and battery specs, the price history and the quantile forecast. Every problem of
- * every file is listed together in one InputError; so is a history without fallback prices when the
- * market spec has no fallback rule either.
+ * Reads the market and battery specs, the price history and the quantile forecast: from the file
+ * `paths.forecast`, or from `given` text, or made by `given` from the market and history once every
+ * file problem is known to be absent. Every problem of every file is listed together in one
+ * InputError; so is a history without fallback prices when the market spec has no fallback rule either.
  */
-export function readBacktestInputs(paths: BacktestInputPaths): BacktestInputData {
+export function readBacktestInputs(paths: BacktestInputPaths, given?: GivenForecast | MakeForecast): BacktestInputData {
   const problems: InputProblem[] = [];
   const market = gatherProblems(problems, () => readMarketSpec(paths.market));
   const batterySpec = gatherProblems(problems, () => readBatterySpec(paths.battery));
   if (market === undefined || batterySpec === undefined) throw new InputError(problems);
   const history = gatherProblems(problems, () => readPriceHistory(paths.history, market));
-  const forecast = gatherProblems(problems, () => readQuantileForecast(paths.forecast, market));
+  const read = (g: GivenForecast): QuantileForecastFile => g.file ?? parseQuantileForecast(g.csv, g.label, market);
+  let forecast: QuantileForecastFile | undefined;
+  if (given === undefined) forecast = gatherProblems(problems, () => readQuantileForecast(requiredForecastPath(paths), market));
+  else if (typeof given !== 'function') forecast = gatherProblems(problems, () => read(given));
   if (history !== undefined && chooseFallbackSource(history, market) === null) {
     problems.push({
       file: paths.history,
@@ -42,21 +61,36 @@ export function readBacktestInputs(paths: BacktestInputPaths): BacktestInputData
     });
   }
   throwIfProblems(problems);
+  if (typeof given === 'function') forecast = read(given(market, history as PriceHistory));
   return { market, batterySpec, history: history as PriceHistory, forecast: forecast as QuantileForecastFile };
 }
 
 const cache = new Map<string, BacktestInputData>();
 
 /**
- * readBacktestInputs, remembered per set of paths for the life of this thread: a command reads and
- * checks the inputs before its sweep starts, and a sweep on one thread then reuses them in its task
- * instead of parsing the files again (each worker thread has a cache of its own).
+ * readBacktestInputs, remembered for the life of this thread per set of paths and forecast (a given
+ * forecast by its text's SHA-256): a command reads and checks the inputs before its sweep starts, and
+ * a sweep on one thread then reuses them in its task instead of parsing the files again (each worker
+ * thread has a cache of its own). A forecast made by a MakeForecast is remembered under the text it made.
  */
-export function readBacktestInputsOnce(paths: BacktestInputPaths): BacktestInputData {
-  const key = JSON.stringify([paths.market, paths.battery, paths.history, paths.forecast]);
+export function readBacktestInputsOnce(paths: BacktestInputPaths, given?: GivenForecast | MakeForecast): BacktestInputData {
+  const keyOf = (g: GivenForecast | undefined): string =>
+    JSON.stringify([paths.market, paths.battery, paths.history, g === undefined ? { file: requiredForecastPath(paths) } : { label: g.label, sha256: createHash('sha256').update(g.csv).digest('hex') }]);
+  if (typeof given === 'function') {
+    let made: GivenForecast | undefined;
+    const data = readBacktestInputs(paths, (market, history) => (made = given(market, history)));
+    cache.set(keyOf(made as GivenForecast | undefined), data);
+    return data;
+  }
+  const key = keyOf(given);
   const known = cache.get(key);
   if (known !== undefined) return known;
-  const data = readBacktestInputs(paths);
+  const data = readBacktestInputs(paths, given);
   cache.set(key, data);
   return data;
+}
+
+function requiredForecastPath(paths: BacktestInputPaths): string {
+  if (paths.forecast === undefined) throw new Error('readBacktestInputs: neither a forecast file nor a given forecast');
+  return paths.forecast;
 }

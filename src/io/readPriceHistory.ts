@@ -37,7 +37,7 @@ export function parsePriceHistory(text: string, file: string, market: MarketSpec
   const { header, rows } = split.table;
   const layout = historyLayout(header, file, problems);
   problems.throwIfAny();
-  const calendar = new DayCalendar(market.timeZone, market.periodMinutes);
+  const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
   const byDay = readRows(rows, header, file, market, calendar, problems);
   problems.throwIfAny();
   return assembleHistory(byDay, layout, calendar);
@@ -95,7 +95,7 @@ interface DayBuffer {
  * straight into per-day columns (no object per row), which keeps a long history quick to read.
  */
 function readRows(
-  rows: readonly CsvRow[],
+  rows: Iterable<CsvRow>,
   header: readonly string[],
   file: string,
   market: MarketSpec,

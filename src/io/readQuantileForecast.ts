@@ -56,7 +56,7 @@ export function parseQuantileForecast(text: string, file: string, market: Market
   const checked = readQuantileHeader(header, file, headerLine);
   checked.problems.forEach((p) => problems.add(p));
   problems.throwIfAny();
-  if (rows.length === 0) {
+  if (!split.table.hasRows) {
     problems.add({ file, line: headerLine, message: 'the file has a header but no data rows', fix: 'give one row per delivery period (wide) or per period and level (long)' });
     problems.throwIfAny();
   }
@@ -65,33 +65,73 @@ export function parseQuantileForecast(text: string, file: string, market: Market
   return assembleDays(grid, file, market, problems);
 }
 
-/** Rows of (timestamp text, line, prices at `levels`); prices null where a cell of the row is wrong. */
-interface ForecastGrid {
-  readonly levels: number[];
-  readonly entries: { stamp: string; line: number; prices: number[] | null }[];
+/**
+ * The rows as read, in file order: timestamp text, line, and the prices at `levels` packed into one
+ * typed array (row r at r x levels.length), so that ten years of quarter-hours take 8 bytes per price
+ * rather than an array object per row.
+ */
+class ForecastGrid {
+  readonly stamps: string[] = [];
+  readonly lines: number[] = [];
+  /** 0 where a cell of the row is wrong (its prices are not kept). */
+  private valid = new Uint8Array(1024);
+  private prices: Float64Array;
+
+  constructor(readonly levels: number[]) {
+    this.prices = new Float64Array(1024 * Math.max(1, levels.length));
+  }
+
+  get size(): number {
+    return this.stamps.length;
+  }
+
+  /** Adds a row; `prices` null when a cell of it is wrong. */
+  add(stamp: string, line: number, prices: ArrayLike<number> | null): void {
+    const r = this.stamps.length;
+    const width = this.levels.length;
+    if (r === this.valid.length) {
+      this.valid = grown(this.valid, new Uint8Array(2 * r));
+      this.prices = grown(this.prices, new Float64Array(2 * r * width));
+    }
+    this.stamps.push(stamp);
+    this.lines.push(line);
+    this.valid[r] = prices === null ? 0 : 1;
+    if (prices !== null) for (let k = 0; k < width; k++) this.prices[r * width + k] = prices[k] as number;
+  }
+
+  /** Row r's prices as a new array, or null when a cell of it was wrong. */
+  pricesOf(r: number): number[] | null {
+    const width = this.levels.length;
+    return this.valid[r] === 1 ? Array.from(this.prices.subarray(r * width, (r + 1) * width)) : null;
+  }
 }
 
-function wideGrid(header: readonly string[], levels: readonly number[], rows: readonly CsvRow[], file: string, market: MarketSpec, problems: ProblemList): ForecastGrid {
-  const entries: ForecastGrid['entries'] = [];
+function grown<T extends Uint8Array | Float64Array>(from: T, to: T): T {
+  to.set(from);
+  return to;
+}
+
+function wideGrid(header: readonly string[], levels: readonly number[], rows: Iterable<CsvRow>, file: string, market: MarketSpec, problems: ProblemList): ForecastGrid {
+  const grid = new ForecastGrid([...levels]);
+  const prices = new Float64Array(levels.length);
   for (const row of rows) {
     if (problems.full) break;
     if (row.cells.length !== header.length) {
       problems.add(fieldCountProblem(row, header, file, 'give one value per column on every line'));
       continue;
     }
-    const prices: number[] = [];
     let valid = true;
     for (let k = 0; k < levels.length; k++) {
       const parsed = priceCell(row.cells[k + 1] as string, market);
-      if ('value' in parsed) prices.push(parsed.value);
+      if ('value' in parsed) prices[k] = parsed.value;
       else {
         problems.add({ file, line: row.line, field: header[k + 1] as string, message: parsed.error, fix: parsed.fix });
         valid = false;
       }
     }
-    entries.push({ stamp: row.cells[0] as string, line: row.line, prices: valid ? prices : null });
+    grid.add(row.cells[0] as string, row.line, valid ? prices : null);
   }
-  return { levels: [...levels], entries };
+  return grid;
 }
 
 /** A price cell: a finite decimal inside the market's [priceFloor, priceCap]. */
@@ -121,7 +161,7 @@ interface LongGroup {
 
 const LONG_HEADER = ['period_start', 'level', 'price'] as const;
 
-function longGrid(rows: readonly CsvRow[], file: string, market: MarketSpec, problems: ProblemList): ForecastGrid {
+function longGrid(rows: Iterable<CsvRow>, file: string, market: MarketSpec, problems: ProblemList): ForecastGrid {
   const levelSet = new Set<number>();
   const byStamp = new Map<string, LongGroup>();
   for (const row of rows) {
@@ -151,24 +191,26 @@ function longGrid(rows: readonly CsvRow[], file: string, market: MarketSpec, pro
     group.valid = false;
   }
   const levels = [...levelSet].sort((a, b) => a - b);
-  const entries = [...byStamp.values()].map((group) => {
+  const grid = new ForecastGrid(levels);
+  for (const group of byStamp.values()) {
     const missing = levels.filter((level) => !group.prices.has(level));
     if (group.valid && missing.length > 0) {
       problems.add({ file, line: group.line, field: 'level', message: `period ${shownText(group.stamp)} lacks levels ${missing.join(', ')}`, fix: 'give every period the same set of levels' });
     }
     const complete = group.valid && missing.length === 0;
-    return { stamp: group.stamp, line: group.line, prices: complete ? levels.map((level) => group.prices.get(level) as number) : null };
-  });
-  return { levels, entries };
+    grid.add(group.stamp, group.line, complete ? levels.map((level) => group.prices.get(level) as number) : null);
+  }
+  return grid;
 }
 
 function assembleDays(grid: ForecastGrid, file: string, market: MarketSpec, problems: ProblemList): QuantileForecastFile {
-  const calendar = new DayCalendar(market.timeZone, market.periodMinutes);
+  const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
   // Per day and period: the prices (undefined until read) and the line they were first read from (0: none).
   const byDay = new Map<string, { prices: (number[] | undefined)[]; lines: number[] }>();
   let repairedPeriods = 0;
   const repairedExamples: string[] = [];
-  for (const entry of grid.entries) {
+  for (let r = 0; r < grid.size; r++) {
+    const entry = { stamp: grid.stamps[r] as string, line: grid.lines[r] as number, prices: grid.pricesOf(r) };
     const located = locatePeriod(entry.stamp, calendar);
     if (!located.ok) {
       problems.add({ file, line: entry.line, field: 'period_start', message: located.message, fix: located.fix });

@@ -109,7 +109,7 @@ function comparisonJson(c: ForecastComparison) {
 }
 
 /** The short human summary of `quantbid score`. */
-export function scoreSummaryText(summary: ReturnType<typeof scoreSummary>, out: string): string {
+export function scoreSummaryText(summary: ReturnType<typeof scoreSummary>, out: string, written: readonly string[] = ['score.json']): string {
   const pct = (x: number) => `${formatNumber(100 * x, 2)}%`;
   const money = (x: number) => `${formatNumber(x, 4)} ${summary.currency}/MWh`;
   const p = (x: number) => (x < 1e-4 ? '<0.0001' : formatNumber(x, 4));
@@ -129,6 +129,6 @@ export function scoreSummaryText(summary: ReturnType<typeof scoreSummary>, out: 
         ('hln' in dm ? `Diebold-Mariano (HLN) ${formatNumber(dm.hln, 3)}, p two-sided ${p(dm.pValueTwoSided)}` : `Diebold-Mariano not defined: ${dm.reason}`),
     );
   }
-  lines.push(`  wrote ${out}/score.json`);
+  lines.push(`  wrote ${out}/${written.join(', ')}`);
   return `${lines.join('\n')}\n`;
 }

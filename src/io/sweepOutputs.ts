@@ -19,6 +19,8 @@ export interface GridSummaryContext {
   readonly data: BacktestInputData;
   readonly paths: BacktestInputPaths;
   readonly axes: readonly SweepAxis[];
+  /** With --model: what made the forecasts (method, levels, options, days forecast and skipped). */
+  readonly forecastModel?: { readonly method: string };
 }
 
 /** The parts every grid summary starts with: span, days covered and skipped, currency, inputs, axes. */
@@ -32,8 +34,9 @@ export function gridSummaryHead(command: string, context: GridSummaryContext) {
     daysCovered: covered.size,
     skippedDays: daysBetween(from, to).filter((day) => !covered.has(day)),
     currency: data.market.currency,
-    inputs: { ...context.paths },
+    inputs: { ...context.paths, ...(context.forecastModel === undefined ? {} : { model: context.forecastModel.method }) },
     axes: Object.fromEntries(context.axes.map((axis) => [axis.name, axis.values])),
+    ...(context.forecastModel === undefined ? {} : { forecastModel: context.forecastModel }),
   };
 }
 

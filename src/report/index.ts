@@ -27,7 +27,7 @@
  * count them) and a `<title>` tooltip. Charts of the same width have the same plot margins, so
  * charts stacked over the same periods line up.
  * - `lineChart({ x: BandAxis | { kind: 'linear', label, unit, values }, y, y2?, series: [{ name, values,
- *   colour?, dash?, axis?: 'left' | 'right', points?, position?: 'centre' | 'boundary' }], guides? })`
+ *   colour?, dash?, axis?: 'left' | 'right', points?, marker?: { shape, size? }, position?: 'centre' | 'boundary' }], guides? })`
  * - `barChart({ x: BandAxis, y, series: [{ name, values, colour? }], layout?: 'grouped' | 'overlaid', guides? })`;
  *   signed values grow down from 0 (charge negative, discharge positive).
  * - `fanChart({ x: BandAxis, y, bands: [{ lowerLevel, upperLevel, lower, upper }] widest first,
@@ -39,7 +39,9 @@
  * Colours: `OKABE_ITO` (Okabe and Ito 2008) for series and meanings (`ROLE_COLOURS`: buy, sell,
  * forecast), `sequentialColour(t)` over our own viridis-like `SEQUENTIAL_STOPS` for heat maps.
  *
- * Pages: `planReport(...)` (report.html of `quantbid plan`).
+ * Pages (report.html of each command): `planReport`, `backtestReport`, `sweepReport`, `sizeReport`,
+ * `scoreReport`. Policies keep one colour on every page (`POLICY_STYLES`); `clockAxis` is the axis of
+ * the periods of a day by clock time (scores pooled over days).
  *
  * Testing a page in a browser: test/report/browser.ts, `expectReportRendersCleanly(htmlPath, chartIds, name)`.
  */
@@ -73,3 +75,9 @@ export { contrastRatio, relativeLuminance } from './colour.js';
 
 // pages
 export { FAN_LEVEL_PAIRS, fanBands, planReport, type OptimalPlan, type PlanReportInput } from './planReport.js';
+export { backtestChartIds, backtestReport, type BacktestReportInput } from './backtestReport.js';
+export { alphaCurves, bestIndex, curveChartId, sweepReport, SWEEP_REPORT_TOP, topSettings, type AlphaCurve, type SweepReportInput, type SweepSummary } from './sweepReport.js';
+export { sizeChartIds, sizeGrid, sizeReport, type SizeGrid, type SizeReportInput, type SizeSummary } from './sizeReport.js';
+export { SCORE_CHART_IDS, scoreReport, type ScoreReportInput } from './scoreReport.js';
+export { POLICY_STYLES, policyStyle, type PolicyStyle } from './policyStyles.js';
+export { clockAxis } from './clockAxis.js';

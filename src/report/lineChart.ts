@@ -1,12 +1,12 @@
 import { bandAxisX, valueAxisX, valueAxisY } from './axes.js';
 import { bandScale } from './bandScale.js';
 import { layoutFrame, renderChart, type PlotArea } from './chartFrame.js';
-import type { BandAxis, ChartBase, Guide, LegendEntry, NumberAxis, ValueAxis } from './chartTypes.js';
+import type { BandAxis, ChartBase, Guide, LegendEntry, MarkerShape, NumberAxis, ValueAxis } from './chartTypes.js';
 import { guideLines } from './guides.js';
 import { linearScale, type LinearScale } from './linearScale.js';
 import { markerPath } from './markerShape.js';
 import { joinMarkup, markup, type Markup } from './markup.js';
-import { seriesColour } from './palette.js';
+import { INK, seriesColour } from './palette.js';
 import { isolatedPoints, linePath, type Point } from './svgPath.js';
 import { tooltip } from './svgText.js';
 import { numberText } from './tickLabel.js';
@@ -23,6 +23,11 @@ export interface LineSeries {
   readonly axis?: 'left' | 'right';
   /** A marker with a tooltip at every point. Default false (isolated points always get one). */
   readonly points?: boolean;
+  /**
+   * Draw every point as this marker (outlined in white, legend shows the marker), e.g. one large
+   * diamond that marks a best setting. Default none: circles of radius 3 where `points` asks.
+   */
+  readonly marker?: { readonly shape: MarkerShape; /** Radius [px], default 6. */ readonly size?: number };
   /**
    * On a band x axis: `centre` (default) puts value i at the centre of band i; `boundary` puts
    * value i at the start of band i and takes one more value for the end of the last band (a state
@@ -47,7 +52,7 @@ export function lineChart(spec: LineChartSpec): Markup {
   if (right.length > 0 && spec.y2 === undefined) throw new RangeError(`line chart ${spec.id}: series on the right axis need y2`);
   const legend: LegendEntry[] = spec.series.map((s, i) => ({
     label: s.axis === 'right' ? `${s.name} (right axis)` : s.name,
-    swatch: { kind: 'line', colour: s.colour ?? seriesColour(i), dash: s.dash === true },
+    swatch: s.marker === undefined ? { kind: 'line', colour: s.colour ?? seriesColour(i), dash: s.dash === true } : { kind: 'marker', colour: s.colour ?? seriesColour(i), shape: s.marker.shape },
   }));
   const frame = layoutFrame({ kind: 'line', base: spec, legend, xTitle: spec.x.kind === 'band' ? spec.x.title : spec.x, yTitle: spec.y, y2Title: right.length > 0 ? spec.y2 : undefined });
   const { plot } = frame;
@@ -108,13 +113,16 @@ function seriesMarks(s: LineSeries, colour: string, x: XPositions, y: LinearScal
     return v === null || !Number.isFinite(v) || p === null ? null : { x: p.x, y: y.at(v), name: p.name, value: v };
   });
   const points: Point[] = located.map((p) => (p === null ? null : [p.x, p.y]));
-  const marked = s.points === true ? located.flatMap((p, i) => (p === null ? [] : [i])) : isolatedPoints(points);
+  const marked = s.points === true || s.marker !== undefined ? located.flatMap((p, i) => (p === null ? [] : [i])) : isolatedPoints(points);
+  const shape = s.marker?.shape ?? 'circle';
+  const radius = s.marker === undefined ? 3 : (s.marker.size ?? 6);
+  const outline = s.marker === undefined ? '' : markup` stroke="${INK.paper}" stroke-width="1.5"`;
   const line = linePath(points);
   const drawn = markup`<g class="series" data-series="${s.name}">${
     line !== '' && markup`<path class="mark line" d="${line}" fill="none" stroke="${colour}" stroke-width="2" stroke-linejoin="round"${s.dash === true ? markup` stroke-dasharray="6 4"` : ''}/>`
   }${marked.map((i) => {
     const p = located[i];
-    return p && markup`<path class="mark point" d="${markerPath('circle', p.x, p.y, 3)}" fill="${colour}">${tooltip(`${s.name}, ${p.name}: ${numberText(p.value, 3)} ${unit}`)}</path>`;
+    return p && markup`<path class="mark point" d="${markerPath(shape, p.x, p.y, radius)}" fill="${colour}"${outline}>${tooltip(`${s.name}, ${p.name}: ${numberText(p.value, 3)} ${unit}`)}</path>`;
   })}</g>`;
   return { markup: drawn, points };
 }

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { backtestMetrics } from '../../src/backtest/backtestMetrics.js';
 import { runBacktest } from '../../src/backtest/runBacktest.js';
-import { backtestSummary, backtestSummaryText, daysCsv, DAYS_COLUMNS, LEDGER_COLUMNS, ledgerCsv } from '../../src/io/backtestOutputs.js';
+import { backtestSummary, backtestSummaryText, daysCsv, DAYS_COLUMNS, LEDGER_COLUMNS, ledgerCsv, ledgerRows } from '../../src/io/backtestOutputs.js';
 import { jsonText } from '../../src/io/planOutputs.js';
 import { battery, input, market } from '../backtest/handWorkedWeek.js';
 
@@ -43,6 +43,14 @@ describe('backtest outputs', () => {
     expect(summary.skippedDays.map((d) => d.day)).toEqual(['2026-05-06', '2026-05-08']);
     expect(summary.policies.quantile?.profit).toBeCloseTo(856, 6);
     expect(backtestSummaryText(result, metrics, market, 'out')).toMatch(/3 days covered, 2 skipped[\s\S]*quantile +856 /);
+  });
+
+  it('written day by day as the backtest runs (onLedgerDay), the ledger has the same bytes and none is kept', () => {
+    let streamed = `${LEDGER_COLUMNS.join(',')}\n`;
+    const lean = runBacktest(input, { policies: ['quantile', 'perfect-foresight'], keepLedger: false, onLedgerDay: (day) => (streamed += ledgerRows(day)) });
+    expect(streamed).toBe(ledgerCsv(result));
+    expect(lean.days.every((day) => day.runs.every((run) => run.ledger === null))).toBe(true);
+    expect(daysCsv(lean)).toBe(daysCsv(result));
   });
 
   it('refuses to write a ledger for a backtest run without one', () => {

@@ -1,6 +1,6 @@
 /**
  * Opens a report in headless Chromium and records what a reader's browser would see, for the
- * browser tests of every report page (plan now; backtest, sweep, size and score later).
+ * browser tests of every report page (plan, backtest, sweep, size and score: *Report.browser.test.ts).
  *
  * Use:
  *   describe.skipIf(!chromiumAvailable)(browserSuiteName('plan report'), () => {

@@ -1,7 +1,7 @@
 import { mkdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { InputError } from '../../io/inputError.js';
-import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
+import { checkOutputFolder, writeOutputs, type OutputFile } from '../../io/writeOutputs.js';
 import { checkRow } from './sweepRow.js';
 import { sweepCsv } from './sweepCsv.js';
 import { sweepFingerprint } from './sweepFingerprint.js';
@@ -36,6 +36,11 @@ export interface SweepOptions {
   readonly force?: boolean;
   /** File name of the table. Default `sweep.csv`; the journal is `.sweep-journal.jsonl` beside it. */
   readonly csvName?: string;
+  /**
+   * Further outputs made from the finished results (e.g. `summary.json`), written in one set with the
+   * table, so that a run killed while writing leaves the old outputs or all the new ones. Default none.
+   */
+  readonly moreOutputs?: (results: readonly SweepResult[]) => readonly OutputFile[];
   /** Most settings a grid may have [-]. Default 100,000. */
   readonly maxSettings?: number;
   /** Abort (e.g. on SIGINT) to stop starting settings; the running ones finish and are kept. */
@@ -68,7 +73,7 @@ export type SweepOutcome =
       /** Settings taken from a journal of an earlier, interrupted run [-]. */
       readonly resumed: number;
       readonly results: readonly SweepResult[];
-      /** Paths written (the table). */
+      /** Paths written (the table, then the further outputs). */
       readonly files: readonly string[];
     }
   | {
@@ -90,10 +95,10 @@ export function journalName(csvName: string): string {
  * Steps: expand the grid (problems before any work); check the output folder; fingerprint the
  * arguments and inputs; take the finished settings from a journal with the same fingerprint (a
  * different one is refused unless `restart`); run the rest on the pool, appending each row to the
- * journal as it finishes; when all are done, write the table in grid order with writeOutputs (atomic)
- * and remove the journal. Rows pass through the journal's JSON either way, so a resumed run writes the
- * same bytes as an uninterrupted one. Interrupted by `signal`, it returns `interrupted` and keeps the
- * journal.
+ * journal as it finishes; when all are done, write the table in grid order and the further outputs as
+ * one set with writeOutputs (the old set or the new one, never a mix) and remove the journal. Rows
+ * pass through the journal's JSON either way, so a resumed run writes the same bytes as an
+ * uninterrupted one. Interrupted by `signal`, it returns `interrupted` and keeps the journal.
  */
 export async function runSweep(options: SweepOptions): Promise<SweepOutcome> {
   const o = { ...SWEEP_DEFAULTS, ...options };
@@ -136,9 +141,11 @@ export async function runSweep(options: SweepOptions): Promise<SweepOutcome> {
   if (status === 'stopped') return { status: 'interrupted', total: grid.length, done, journal };
 
   const complete = rows as SweepRow[];
-  const files = writeOutputs(o.outDir, [{ name: o.csvName, text: sweepCsv(o.axes, grid, complete) }], o.force);
+  const results = grid.map((point) => ({ ...point, row: complete[point.index] as SweepRow }));
+  const files = writeOutputs(o.outDir, [{ name: o.csvName, text: sweepCsv(o.axes, grid, complete) }, ...(o.moreOutputs?.(results) ?? [])], o.force);
+  // Killed before this line, a re-run finds every setting in the journal and writes the same bytes.
   rmSync(journal, { force: true });
-  return { status: 'complete', total: grid.length, resumed, results: grid.map((point) => ({ ...point, row: complete[point.index] as SweepRow })), files };
+  return { status: 'complete', total: grid.length, resumed, results, files };
 }
 
 /** The message for an interrupted sweep: what is kept and how to go on. */

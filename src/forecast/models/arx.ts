@@ -3,6 +3,8 @@ import type { LassoOptions } from '../linalg/lasso.js';
 import { lassoBic } from '../linalg/lasso.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { predictLinear } from '../linalg/linearModel.js';
+import type { FitStopwatch } from '../fitStopwatch.js';
+import { timedFits } from '../fitStopwatch.js';
 import { ArxGramBuilder } from './arxGram.js';
 import type { HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
@@ -22,6 +24,8 @@ export interface ArxSettings {
   readonly lasso: LassoOptions;
   /** Fewest usable training days in every window for a forecast to be made [days]. */
   readonly minTrainingDays: number;
+  /** Adds the time spent fitting (Grams and solves, per slot and window) to this counter. Default none. */
+  readonly stopwatch?: FitStopwatch;
 }
 
 /**
@@ -149,13 +153,12 @@ function fitWindows(
   });
   const responses = rowsUsed.map(transformed);
   const target = dayRegressors(targetLags.map(transformed), view.target.weekday, withDayBefore(view.target.exogenous, targetLags[0] as number));
-  const builder = new ArxGramBuilder(
-    {
-      minMaxLast: Float64Array.from(rows.flatMap((r) => [r.min, r.max, r.last])),
-      weekdays: Int8Array.from(rows, (r) => r.weekday),
-    },
-    counts,
-  );
+  const dayLevel = {
+    minMaxLast: Float64Array.from(rows.flatMap((r) => [r.min, r.max, r.last])),
+    weekdays: Int8Array.from(rows, (r) => r.weekday),
+  };
+  const watch = settings.stopwatch;
+  const builder = timedFits(watch, 0, () => new ArxGramBuilder(dayLevel, counts));
   const slotValues = new Float64Array(n * a);
   const features = new Float64Array(k);
   const forecasts = new Map<number, Float64Array>(counts.map((c) => [c, new Float64Array(S)]));
@@ -170,10 +173,13 @@ function fitWindows(
       slotValues[base + a - 1] = (responses[r] as Float64Array)[s] as number;
     }
     target.fill(features, s);
-    builder.forEachGram(slotValues, a, s === S - 1, (gram, w) => {
-      const model: LinearModel = settings.estimator === 'lasso' ? lassoBic(gram, settings.lasso).model : choleskyLeastSquares(gram);
-      (forecasts.get(counts[w] as number) as Float64Array)[s] = fromAsinhScale(predictLinear(model, features), scale);
-    });
+    // One model per window; the timed stretch also holds its prediction, a k-term dot product.
+    timedFits(watch, counts.length, () =>
+      builder.forEachGram(slotValues, a, s === S - 1, (gram, w) => {
+        const model: LinearModel = settings.estimator === 'lasso' ? lassoBic(gram, settings.lasso).model : choleskyLeastSquares(gram);
+        (forecasts.get(counts[w] as number) as Float64Array)[s] = fromAsinhScale(predictLinear(model, features), scale);
+      }),
+    );
   }
   return forecasts;
 }

@@ -1,3 +1,5 @@
+import type { FitStopwatch } from '../fitStopwatch.js';
+import { timedFits } from '../fitStopwatch.js';
 import { independentColumns } from '../linalg/leastSquaresQr.js';
 import { QuantileRegressionProblem } from '../linalg/quantileRegression.js';
 
@@ -67,6 +69,8 @@ export interface QraCalibration {
  * @param calibration point forecasts and realised prices of the calibration days (at least 1 + m)
  * @param levels strictly increasing levels in (0, 1)
  * @param warmStarts optional warm-start store kept between delivery days
+ * @param stopwatch optional counter of the time spent fitting: per slot, the column selection and the
+ *   quantile regressions of every level (one model per level)
  * @returns prices[s][k] at levels[k], before rearrangement
  */
 export function quantileRegressionAveraging(
@@ -74,6 +78,7 @@ export function quantileRegressionAveraging(
   calibration: QraCalibration,
   levels: readonly number[],
   warmStarts?: QraWarmStarts,
+  stopwatch?: FitStopwatch,
 ): number[][] {
   const slots = target[0]?.length ?? 0;
   const n = calibration.realised.length;
@@ -81,8 +86,8 @@ export function quantileRegressionAveraging(
   for (let d = 0; d < n; d++) rowOfId.set(calibration.dayIds[d] as number, d);
   const full = { rows: n, cols: target.length + 1, data: new Float64Array(n * (target.length + 1)) };
   const y = new Float64Array(n);
-  return Array.from({ length: slots }, (_, s) => {
-    fillDesign(calibration, s, full.data, y);
+  /** The quantiles of slot s at every level, from the design and response just filled in. */
+  const fitSlot = (s: number): number[] => {
     const kept = independentColumns(full);
     const x = kept.length === full.cols ? full : { rows: n, cols: kept.length, data: keepColumns(full.data, n, full.cols, kept) };
     const problem = new QuantileRegressionProblem(x, y);
@@ -99,6 +104,10 @@ export function quantileRegressionAveraging(
       for (let j = 0; j < features.length; j++) q += (features[j] as number) * (fit.coefficients[j] as number);
       return q;
     });
+  };
+  return Array.from({ length: slots }, (_, s) => {
+    fillDesign(calibration, s, full.data, y);
+    return timedFits(stopwatch, levels.length, () => fitSlot(s));
   });
 }
 

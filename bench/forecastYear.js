@@ -1,0 +1,94 @@
+// A year of daily quantile forecasts at 15 minutes on the fictional demo market (scenarios/halvorn),
+// 19 levels 0.05..0.95, default options, by the default method (or --method), through forecastRange as
+// `quantbid forecast` calls it: one fresh Forecaster, so the time includes the point forecasts of the
+// calibration days before the first day. Prints the median wall time per day, the total, the share of
+// it spent fitting models (least squares / LASSO per slot and window, QRA's quantile regressions; the
+// forecaster's fit stopwatch, src/forecast/fitStopwatch.ts), and both against the time to read and
+// validate that year's history CSV (cut to the year, uncompressed), measured in the same process.
+//
+//   npm run build && node bench/forecastYear.js [--year 2026] [--method arx-hs] [--reads 3]
+//
+// The day times are the gaps between forecastRange's per-day callbacks; the first day carries the
+// calibration days' point forecasts, so it is shown apart and the median is over all days.
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { gunzipSync } from 'node:zlib';
+import { loadDist } from './lib/reference.js';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const demo = join(root, 'scenarios', 'halvorn');
+const arg = (name, fallback) => {
+  const i = process.argv.indexOf(`--${name}`);
+  return i > 0 ? process.argv[i + 1] : fallback;
+};
+
+const { DEFAULT_METHOD, FORECAST_METHODS } = await loadDist('forecast/forecaster.js');
+const { forecastRange } = await loadDist('forecast/forecastRange.js');
+const { readMarketSpec } = await loadDist('io/readSpecs.js');
+const { readPriceHistory } = await loadDist('io/readPriceHistory.js');
+const { DayCalendar } = await loadDist('market/dayCalendar.js');
+
+const YEAR = arg('year', '2026');
+const METHOD = arg('method', DEFAULT_METHOD);
+const READS = Number(arg('reads', 3));
+if (!FORECAST_METHODS.includes(METHOD)) {
+  console.error(`--method ${METHOD}: expected one of ${FORECAST_METHODS.join(', ')}`);
+  process.exit(2);
+}
+const LEVELS = Array.from({ length: 19 }, (_, i) => Number(((i + 1) * 0.05).toFixed(2)));
+const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
+
+/** The CSV's header and the rows whose local timestamp starts with the year. */
+function cutToYear(gzPath) {
+  const [header, ...rows] = gunzipSync(readFileSync(gzPath)).toString('utf8').trimEnd().split('\n');
+  return [header, ...rows.filter((row) => row.startsWith(YEAR))].join('\n') + '\n';
+}
+
+const folder = mkdtempSync(join(tmpdir(), 'quantbid-forecast-year-'));
+try {
+  const market = readMarketSpec(join(demo, 'market.json'));
+  const yearPath = join(folder, 'history.csv');
+  writeFileSync(yearPath, cutToYear(join(demo, 'history.csv.gz')));
+  const readMs = [];
+  for (let i = 0; i < READS; i++) {
+    const started = performance.now();
+    readPriceHistory(yearPath, market);
+    readMs.push(performance.now() - started);
+  }
+  const read = median(readMs);
+
+  // The forecaster reads the whole history: the year before gives the calibration days.
+  const history = readPriceHistory(join(demo, 'history.csv.gz'), market);
+  const calendar = new DayCalendar(market.timeZone, market.periodMinutes);
+  const request = {
+    from: `${YEAR}-01-01`, to: `${YEAR}-12-31`, method: METHOD, levels: LEVELS,
+    priceFloor: market.priceFloor, priceCap: market.priceCap, periodsOf: (d) => calendar.periods(d),
+  };
+  const stopwatch = { now: () => performance.now(), spentMs: 0, calls: 0 };
+  const dayMs = [];
+  const cpuStarted = process.cpuUsage();
+  const started = performance.now();
+  let last = started;
+  const run = forecastRange(history, request, { stopwatch }, () => {
+    const now = performance.now();
+    dayMs.push(now - last);
+    last = now;
+  });
+  const totalMs = performance.now() - started;
+  const cpu = process.cpuUsage(cpuStarted);
+  const cpuMs = (cpu.user + cpu.system) / 1000;
+  const perDay = median(dayMs);
+  const days = run.forecasts.length;
+
+  console.log(`year ${YEAR} of the demo market at 15 minutes, method ${METHOD}${METHOD === DEFAULT_METHOD ? ' (default)' : ''}, 19 levels, default options`);
+  console.log(`days forecast                      ${days} (${run.skipped.length} skipped)`);
+  console.log(`read and validate the year's CSV   median ${(read / 1000).toFixed(3)} s over ${READS} reads (the reference)`);
+  console.log(`forecast, median per day           ${(perDay / 1000).toFixed(3)} s = ${(perDay / read).toFixed(2)} x the read`);
+  console.log(`forecast, first day                ${((dayMs[0] ?? 0) / 1000).toFixed(1)} s (the calibration days' point forecasts)`);
+  console.log(`forecast, the whole year           ${(totalMs / 1000).toFixed(1)} s wall, ${(cpuMs / 1000).toFixed(1)} s CPU = ${(totalMs / read).toFixed(1)} x the read`);
+  console.log(`share of the time fitting models   ${(100 * stopwatch.spentMs / totalMs).toFixed(1)} % (${stopwatch.calls} models fitted, ${(1000 * stopwatch.spentMs / stopwatch.calls).toFixed(1)} us each)`);
+} finally {
+  rmSync(folder, { recursive: true, force: true });
+}

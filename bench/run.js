@@ -1,0 +1,33 @@
+// `npm run bench`: the benchmarks one after another, each in its own process, each printing medians
+// and ratios against a reference measured in the same run (never a lone absolute time).
+//
+//   npm run bench            the day solver, a year's backtest, sweep and forecast (a few minutes)
+//   npm run bench -- --all   also the 12 x 12 size grid and the forecast quality run (much longer)
+import { spawnSync } from 'node:child_process';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+
+const here = dirname(fileURLToPath(import.meta.url));
+const all = process.argv.includes('--all');
+const benches = [
+  ['day solver against HiGHS (issue goal: 10x its kept model)', 'daySolver.js', ['--days', '1000']],
+  ['one year backtest against reading its CSVs', 'yearBacktest.js', []],
+  ['one year sweep on 1 and 2 threads', 'sweepYear.js', []],
+  ['one year of daily forecasts by the default method, share fitting, against reading the year', 'forecastYear.js', []],
+  ...(all
+    ? [
+        ['12 x 12 size grid over a year at hourly resolution', 'sizeGrid.js', ['--grid', '12']],
+        ['forecast quality over the last year of the demo', 'forecastQuality.js', []],
+      ]
+    : []),
+];
+let failed = 0;
+for (const [title, script, args] of benches) {
+  console.log(`\n== ${title} (node bench/${script} ${args.join(' ')})`);
+  const result = spawnSync(process.execPath, [join(here, script), ...args], { stdio: 'inherit' });
+  if (result.status !== 0) {
+    failed++;
+    console.log(`bench/${script} ended with exit code ${result.status}`);
+  }
+}
+process.exitCode = failed === 0 ? 0 : 1;

@@ -1,0 +1,112 @@
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import { InputError } from '../../src/io/inputError.js';
+import { COMMIT_PREFIX, OutputStage, PARTIAL_PREFIX, recoverOutputs, writeOutputs } from '../../src/io/writeOutputs.js';
+
+/**
+ * The output-set protocol of writeOutputs.ts on folders laid out as a killed run leaves them. The
+ * states are made by hand here; test/hardening/killedRuns.test.ts kills real runs.
+ */
+const scratch = mkdtempSync(join(tmpdir(), 'quantbid-write-'));
+afterAll(() => rmSync(scratch, { recursive: true, force: true }));
+
+let count = 0;
+function folder(files: Record<string, string>): string {
+  const dir = join(scratch, `case-${++count}`);
+  mkdirSync(dir);
+  for (const [name, text] of Object.entries(files)) writeFileSync(join(dir, name), text);
+  return dir;
+}
+
+/** The id of a process that has ended (a Node process started and waited for). */
+function endedPid(): number {
+  const run = spawnSync(process.execPath, ['-e', 'process.stdout.write(String(process.pid))'], { encoding: 'utf8' });
+  return Number(run.stdout);
+}
+
+/** Every entry of a folder: a file's text, or `<folder>`. */
+function contents(dir: string): Record<string, string> {
+  return Object.fromEntries(readdirSync(dir).sort().map((name) => [name, statSync(join(dir, name)).isDirectory() ? '<folder>' : readFileSync(join(dir, name), 'utf8')]));
+}
+
+describe('writeOutputs', () => {
+  it('replaces the old set with the new one and leaves nothing else; other files stay', () => {
+    const dir = folder({ 'a.csv': 'old a', 'b.json': 'old b', 'notes.txt': 'mine' });
+    expect(writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }, { name: 'b.json', text: 'new b' }], true)).toEqual([join(dir, 'a.csv'), join(dir, 'b.json')]);
+    expect(contents(dir)).toEqual({ 'a.csv': 'new a', 'b.json': 'new b', 'notes.txt': 'mine' });
+  });
+
+  it('finishes a set that a killed run had committed but not yet moved into place (roll forward)', () => {
+    const dir = folder({ 'a.csv': 'new a', 'b.json': 'old b' });
+    const committed = join(dir, `${COMMIT_PREFIX}${endedPid()}-abc123`);
+    mkdirSync(committed);
+    writeFileSync(join(committed, 'b.json'), 'new b');
+    recoverOutputs(dir);
+    expect(contents(dir)).toEqual({ 'a.csv': 'new a', 'b.json': 'new b' });
+  });
+
+  it('discards a set that a killed run was still writing; the old set stays', () => {
+    const dir = folder({ 'a.csv': 'old a', 'b.json': 'old b', [`.sweep-journal.jsonl.tmp-${endedPid()}`]: '{' });
+    const partial = join(dir, `${PARTIAL_PREFIX}${endedPid()}-abc123`);
+    mkdirSync(partial);
+    writeFileSync(join(partial, 'a.csv'), 'new a, cut sh');
+    writeOutputs(dir, [{ name: 'c.txt', text: 'c' }], false);
+    expect(contents(dir)).toEqual({ 'a.csv': 'old a', 'b.json': 'old b', 'c.txt': 'c' });
+  });
+
+  it('leaves alone the stage of a process that still runs (this test runner is one)', () => {
+    const dir = folder({});
+    const live = join(dir, `${PARTIAL_PREFIX}${process.ppid}-abc123`);
+    mkdirSync(live);
+    recoverOutputs(dir);
+    expect(existsSync(live)).toBe(true);
+  });
+
+  it('refuses an output name taken by a folder, even with --force, before writing anything', () => {
+    const dir = folder({ 'b.json': 'old b' });
+    mkdirSync(join(dir, 'a.csv'));
+    expect(() => writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }, { name: 'b.json', text: 'new b' }], true)).toThrow(InputError);
+    expect(() => writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }], true)).toThrow(/a\.csv: --out: is a folder where this output file should go/);
+    expect(readdirSync(dir).sort()).toEqual(['a.csv', 'b.json']);
+    expect(readFileSync(join(dir, 'b.json'), 'utf8')).toBe('old b');
+  });
+});
+
+describe('OutputStage', () => {
+  it('writes a file piece by piece and commits it with the others', () => {
+    const dir = folder({ 'a.csv': 'old a' });
+    const stage = OutputStage.begin(dir, ['a.csv', 'b.json'], true);
+    const a = stage.open('a.csv');
+    a.append('x,y\n');
+    a.append('1,2\n');
+    stage.write('b.json', '{}');
+    const during = Object.entries(contents(dir));
+    expect(during.filter(([name]) => !name.startsWith('.'))).toEqual([['a.csv', 'old a']]);
+    expect(during.filter(([name]) => name.startsWith(PARTIAL_PREFIX))).toHaveLength(1);
+    stage.commit();
+    expect(contents(dir)).toEqual({ 'a.csv': 'x,y\n1,2\n', 'b.json': '{}' });
+  });
+
+  it('discarded (the work failed): the old set as it was, and a folder it made is removed', () => {
+    const dir = folder({ 'a.csv': 'old a' });
+    const stage = OutputStage.begin(dir, ['a.csv'], true);
+    stage.open('a.csv').append('half');
+    stage.discard();
+    expect(contents(dir)).toEqual({ 'a.csv': 'old a' });
+    const fresh = join(scratch, 'fresh', 'out');
+    OutputStage.begin(fresh, ['a.csv'], false).discard();
+    expect(existsSync(join(scratch, 'fresh'))).toBe(false);
+  });
+
+  it('refuses to commit a set with an output never written', () => {
+    const dir = folder({});
+    const stage = OutputStage.begin(dir, ['a.csv', 'b.json'], false);
+    stage.write('a.csv', 'a');
+    expect(() => stage.commit()).toThrow(/b\.json not written/);
+    stage.discard();
+    expect(readdirSync(dir)).toEqual([]);
+  });
+});
