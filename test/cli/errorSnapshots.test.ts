@@ -1,7 +1,6 @@
 import { existsSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
-import type { CliIo } from '../../src/cli/cliIo.js';
+import { runMain } from './runMain.js';
 
 // Representative bad usage and bad input of every command: the exit code (2, DESIGN.md section 7)
 // and the exact text on stderr, compared with the stored snapshots in __snapshots__/. Paths are
@@ -59,13 +58,7 @@ const CASES: Readonly<Record<string, readonly (readonly string[])[]>> = {
   demo: [['demo', '--bogus']],
 };
 
-async function run(argv: readonly string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = { stdout: (s) => void (stdout += s), stderr: (s) => void (stderr += s), stderrIsTerminal: false };
-  const code = await main(['node', 'quantbid', ...argv], io);
-  return { code, stdout, stderr };
-}
+const run = (argv: readonly string[]) => runMain(argv);
 
 describe('error messages', () => {
   for (const [command, cases] of Object.entries(CASES)) {

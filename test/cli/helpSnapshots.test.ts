@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
-import type { CliIo } from '../../src/cli/cliIo.js';
+import { runMain } from './runMain.js';
 import { packageVersion } from '../../src/cli/version.js';
 
 // The help text of every command, compared with the stored snapshots in __snapshots__/: a change of
@@ -10,13 +9,7 @@ import { packageVersion } from '../../src/cli/version.js';
 
 export const COMMANDS = ['plan', 'backtest', 'sweep', 'size', 'forecast', 'score', 'demo'] as const;
 
-async function run(argv: readonly string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = { stdout: (s) => void (stdout += s), stderr: (s) => void (stderr += s), stderrIsTerminal: false };
-  const code = await main(['node', 'quantbid', ...argv], io);
-  return { code, stdout, stderr };
-}
+const run = (argv: readonly string[]) => runMain(argv);
 
 describe('help text', () => {
   it('quantbid --help', async () => {

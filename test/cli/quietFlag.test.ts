@@ -2,21 +2,14 @@ import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { main } from '../../src/cli/main.js';
-import type { CliIo } from '../../src/cli/cliIo.js';
+import { runMain } from './runMain.js';
 
 // --quiet: no progress bar and no notes on stderr even when stderr is a terminal; without it a
 // terminal gets the bar (progress.ts), so the flag is what silences it.
 
 const S = 'scenarios/halvorn/scenario.json';
 
-async function onTerminal(argv: readonly string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  let stdout = '';
-  let stderr = '';
-  const io: CliIo = { stdout: (s) => void (stdout += s), stderr: (s) => void (stderr += s), stderrIsTerminal: true };
-  const code = await main(['node', 'quantbid', ...argv], io);
-  return { code, stdout, stderr };
-}
+const onTerminal = (argv: readonly string[]) => runMain(argv, { stderrIsTerminal: true });
 
 const out = () => join(mkdtempSync(join(tmpdir(), 'quantbid-quiet-')), 'out');
 

@@ -1,5 +1,6 @@
 import { CHARGE_ONLY, DISCHARGE_ONLY } from './lineSweep.js';
 import { clip, maxOf, Pwl, slideMax, valueAt } from './pwl.js';
+import { PwlSeries } from './pwlSeries.js';
 import type { StoredDay } from './storedDay.js';
 
 /**
@@ -25,10 +26,7 @@ import type { StoredDay } from './storedDay.js';
  * Doig 1960).
  */
 export class ValueBounds {
-  private xsPool: Float64Array;
-  private vsPool: Float64Array;
-  private readonly start: Int32Array;
-  private readonly count: Int32Array;
+  private readonly series: PwlSeries;
   private readonly a = new Pwl();
   private readonly b = new Pwl();
   private readonly c = new Pwl();
@@ -41,10 +39,7 @@ export class ValueBounds {
     /** Most breakpoints of one W_t; larger ones are replaced by upper hulls of pieces (upperHulls). */
     private readonly maxBreakpoints = 128,
   ) {
-    this.xsPool = new Float64Array(8 * (capacity + 1));
-    this.vsPool = new Float64Array(8 * (capacity + 1));
-    this.start = new Int32Array(capacity + 1);
-    this.count = new Int32Array(capacity + 1);
+    this.series = new PwlSeries(capacity + 1, 8);
   }
 
   /** Computes W_0..W_T and the lower bound; false when no path reaches the end-of-day floor. */
@@ -63,7 +58,8 @@ export class ValueBounds {
     const V = day.terminalValuePerMwh;
     w.push(Math.min(floor, day.socMaxMwh), V * Math.min(floor, day.socMaxMwh));
     if (floor < day.socMaxMwh) w.push(day.socMaxMwh, V * day.socMaxMwh);
-    let used = this.store(T, w, 0);
+    this.series.clear();
+    this.series.store(T, w);
     for (let t = T - 1; t >= 0; t--) {
       const p = day.chargePrice[t]!;
       const qm = day.dischargePrice[t]! - mu;
@@ -97,7 +93,7 @@ export class ValueBounds {
       } else {
         [w, spare] = [spare, w];
       }
-      used = this.store(t, w, used);
+      this.series.store(t, w);
     }
     this.lowerBound = this.greedyPath(day, mu, modes, eps);
     return true;
@@ -105,10 +101,10 @@ export class ValueBounds {
 
   /** max of W_t over [lo, hi] (inside its domain): the ends and the breakpoints between. */
   maxOver(t: number, lo: number, hi: number): number {
-    const from = this.start[t]!;
-    const n = this.count[t]!;
-    const xs = this.xsPool;
-    const vs = this.vsPool;
+    const from = this.series.start[t]!;
+    const n = this.series.count[t]!;
+    const xs = this.series.xs;
+    const vs = this.series.vs;
     let best = Math.max(valueAt(xs, vs, from, n, lo), valueAt(xs, vs, from, n, hi));
     // first breakpoint > lo
     let l = from;
@@ -124,26 +120,26 @@ export class ValueBounds {
 
   /** The domain [lo, hi] of W_t. */
   domainLo(t: number): number {
-    return this.xsPool[this.start[t]!]!;
+    return this.series.xs[this.series.start[t]!]!;
   }
 
   domainHi(t: number): number {
-    return this.xsPool[this.start[t]! + this.count[t]! - 1]!;
+    return this.series.xs[this.series.start[t]! + this.series.count[t]! - 1]!;
   }
 
   private greedyPath(day: StoredDay, mu: number, modes: Int8Array, eps: number): number {
     const X = day.chargeStepMwh;
     const Y = day.dischargeStepMwh;
-    const xs = this.xsPool;
-    const vs = this.vsPool;
+    const xs = this.series.xs;
+    const vs = this.series.vs;
     let s = day.socStartMwh;
     let value = 0;
     for (let t = 0; t < day.periods; t++) {
       const p = day.chargePrice[t]!;
       const qm = day.dischargePrice[t]! - mu;
       const mode = modes[t]!;
-      const from = this.start[t + 1]!;
-      const n = this.count[t + 1]!;
+      const from = this.series.start[t + 1]!;
+      const n = this.series.count[t + 1]!;
       const lo = Math.max(xs[from]!, s - (mode === CHARGE_ONLY ? 0 : Y));
       const hi = Math.min(xs[from + n - 1]!, s + (mode === DISCHARGE_ONLY ? 0 : X));
       if (lo > hi + eps) return -Infinity;
@@ -167,21 +163,6 @@ export class ValueBounds {
     return value + day.terminalValuePerMwh * s;
   }
 
-  private store(t: number, f: Pwl, used: number): number {
-    if (used + f.n > this.xsPool.length) {
-      const xs = new Float64Array(2 * (used + f.n));
-      const vs = new Float64Array(2 * (used + f.n));
-      xs.set(this.xsPool.subarray(0, used));
-      vs.set(this.vsPool.subarray(0, used));
-      this.xsPool = xs;
-      this.vsPool = vs;
-    }
-    this.xsPool.set(f.xs.subarray(0, f.n), used);
-    this.vsPool.set(f.vs.subarray(0, f.n), used);
-    this.start[t] = used;
-    this.count[t] = f.n;
-    return used + f.n;
-  }
 }
 
 /**

@@ -1,5 +1,6 @@
 import { CHARGE_ONLY, DISCHARGE_ONLY, edgeTolerance, LineSolution, SWEEP_END_UNREACHABLE, SWEEP_OK, SWEEP_START_UNREACHABLE, SWEEP_TOO_LARGE, type SweepStatus } from './lineSweep.js';
 import { clip, maxOf, Pwl, slideMax, valueAt } from './pwl.js';
+import { PwlSeries } from './pwlSeries.js';
 import type { StoredDay } from './storedDay.js';
 import { pruneDead, ValueBounds } from './valueBounds.js';
 
@@ -31,10 +32,7 @@ const PRUNE_FROM = 48;
 const EXACT_BOUNDS_FROM = 160;
 
 export class ValueDp {
-  private xsPool: Float64Array;
-  private vsPool: Float64Array;
-  private readonly start: Int32Array;
-  private readonly count: Int32Array;
+  private readonly series: PwlSeries;
   private readonly f = new Pwl();
   private readonly g = new Pwl();
   private readonly h = new Pwl();
@@ -51,10 +49,7 @@ export class ValueDp {
     /** Most breakpoints of one F_t before giving up (SWEEP_TOO_LARGE). */
     public maxBreakpoints: number,
   ) {
-    this.xsPool = new Float64Array(16 * (capacity + 1));
-    this.vsPool = new Float64Array(16 * (capacity + 1));
-    this.start = new Int32Array(capacity + 1);
-    this.count = new Int32Array(capacity + 1);
+    this.series = new PwlSeries(capacity + 1, 16);
     this.bounds = new ValueBounds(capacity);
   }
 
@@ -82,8 +77,8 @@ export class ValueDp {
     let exactBounds = false;
     f.clear();
     f.push(day.socStartMwh, 0);
-    let used = 0;
-    used = this.store(0, f, used);
+    this.series.clear();
+    this.series.store(0, f);
     for (let t = 0; t < day.periods; t++) {
       const p = day.chargePrice[t]!;
       const qm = day.dischargePrice[t]! - mu;
@@ -116,7 +111,7 @@ export class ValueDp {
         }
       }
       if (f.n > this.maxBreakpoints) return SWEEP_TOO_LARGE;
-      used = this.store(t + 1, f, used);
+      this.series.store(t + 1, f);
     }
     const floor = day.socEndFloorMwh;
     const last = f.n - 1;
@@ -146,29 +141,13 @@ export class ValueDp {
     return lower === -Infinity ? -Infinity : lower - 1e-10 * Math.max(1, Math.abs(lower));
   }
 
-  private store(t: number, f: Pwl, used: number): number {
-    if (used + f.n > this.xsPool.length) {
-      const xs = new Float64Array(2 * (used + f.n));
-      const vs = new Float64Array(2 * (used + f.n));
-      xs.set(this.xsPool.subarray(0, used));
-      vs.set(this.vsPool.subarray(0, used));
-      this.xsPool = xs;
-      this.vsPool = vs;
-    }
-    this.xsPool.set(f.xs.subarray(0, f.n), used);
-    this.vsPool.set(f.vs.subarray(0, f.n), used);
-    this.start[t] = used;
-    this.count[t] = f.n;
-    return used + f.n;
-  }
-
   /** Backward pass: the best predecessor of each state, read off as one signed move per period. */
   private recover(endState: number, mu: number, modes: Int8Array, out: LineSolution): void {
     const day = this.day;
     const X = day.chargeStepMwh;
     const Y = day.dischargeStepMwh;
-    const xs = this.xsPool;
-    const vs = this.vsPool;
+    const xs = this.series.xs;
+    const vs = this.series.vs;
     let s = endState;
     let value = day.terminalValuePerMwh * s;
     let discharged = 0;
@@ -176,8 +155,8 @@ export class ValueDp {
       const p = day.chargePrice[t]!;
       const qm = day.dischargePrice[t]! - mu;
       const mode = modes[t]!;
-      const from = this.start[t]!;
-      const n = this.count[t]!;
+      const from = this.series.start[t]!;
+      const n = this.series.count[t]!;
       const domLo = xs[from]!;
       const domHi = xs[from + n - 1]!;
       const lo = Math.max(domLo, s - (mode === DISCHARGE_ONLY ? 0 : X));
