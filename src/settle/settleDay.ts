@@ -92,37 +92,43 @@ export function settleDay(input: SettleDayInput): SettledDay {
   for (let t = 0; t < count; t++) {
     const order = input.orders[t] ?? null;
     const clearing = input.clearingPricePerMwh[t] as number;
-    const trade = { boughtAuction: 0, soldAuction: 0, boughtFallback: 0, soldFallback: 0, charge: 0, discharge: 0 };
+    // What the order does in the auction and at the fallback price, and the flow it asks for [MWh].
+    let tradeBoughtAuction = 0;
+    let tradeSoldAuction = 0;
+    let tradeBoughtFallback = 0;
+    let tradeSoldFallback = 0;
+    let tradeCharge = 0;
+    let tradeDischarge = 0;
     let accepted: boolean | null = null;
     if (order !== null) {
       accepted = isAccepted(order.side, order.limitPrice, clearing);
       const energy = order.quantityMw * dt;
       const moves = accepted || input.unaccepted === 'follow-plan';
       if (order.side === 'buy') {
-        if (accepted) trade.boughtAuction = energy;
-        else if (moves) trade.boughtFallback = energy;
-        if (moves) trade.charge = energy;
+        if (accepted) tradeBoughtAuction = energy;
+        else if (moves) tradeBoughtFallback = energy;
+        if (moves) tradeCharge = energy;
       } else {
-        if (accepted) trade.soldAuction = energy;
-        else if (moves) trade.soldFallback = energy;
-        if (moves) trade.discharge = energy;
+        if (accepted) tradeSoldAuction = energy;
+        else if (moves) tradeSoldFallback = energy;
+        if (moves) tradeDischarge = energy;
       }
     }
     const storable = Math.max(0, Math.min(battery.chargeMw * dt, (battery.socMaxMwh - soc) / battery.chargeEfficiency));
     const deliverable = Math.max(0, Math.min(battery.dischargeMw * dt, (soc - battery.socMinMwh) * battery.dischargeEfficiency));
-    const chargedMwh = trade.charge <= storable + tolMwh ? trade.charge : storable;
-    const dischargedMwh = trade.discharge <= deliverable + tolMwh ? trade.discharge : deliverable;
-    const soldFallbackMwh = trade.soldFallback + (trade.charge - chargedMwh);
-    const boughtFallbackMwh = trade.boughtFallback + (trade.discharge - dischargedMwh);
+    const chargedMwh = tradeCharge <= storable + tolMwh ? tradeCharge : storable;
+    const dischargedMwh = tradeDischarge <= deliverable + tolMwh ? tradeDischarge : deliverable;
+    const soldFallbackMwh = tradeSoldFallback + (tradeCharge - chargedMwh);
+    const boughtFallbackMwh = tradeBoughtFallback + (tradeDischarge - dischargedMwh);
     soc += battery.chargeEfficiency * chargedMwh - dischargedMwh / battery.dischargeEfficiency;
     soc = Math.min(battery.socMaxMwh, Math.max(battery.socMinMwh, soc));
-    const auctionCash = clearing * (trade.soldAuction - trade.boughtAuction);
+    const auctionCash = clearing * (tradeSoldAuction - tradeBoughtAuction);
     const fallbackCash = (input.fallback.sellPerMwh[t] as number) * soldFallbackMwh - (input.fallback.buyPerMwh[t] as number) * boughtFallbackMwh;
     const degradationCost = battery.degradationCostPerMwh * dischargedMwh;
     const period: SettledPeriod = {
       accepted,
-      boughtAuctionMwh: trade.boughtAuction,
-      soldAuctionMwh: trade.soldAuction,
+      boughtAuctionMwh: tradeBoughtAuction,
+      soldAuctionMwh: tradeSoldAuction,
       boughtFallbackMwh,
       soldFallbackMwh,
       chargedMwh,
@@ -138,8 +144,8 @@ export function settleDay(input: SettleDayInput): SettledDay {
     auction += auctionCash;
     fallbackSum += fallbackCash;
     degradation += degradationCost;
-    boughtAuction += trade.boughtAuction;
-    soldAuction += trade.soldAuction;
+    boughtAuction += tradeBoughtAuction;
+    soldAuction += tradeSoldAuction;
     boughtFallback += boughtFallbackMwh;
     soldFallback += soldFallbackMwh;
     charged += chargedMwh;

@@ -106,11 +106,14 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
 
 /**
  * Measured rule of thumb for the order of the two exact methods: the dynamic program first when
- * the window is at most 2.5 power steps wide (its value functions then have few breakpoints) and
- * there is no cycle cap (which would multiply its runs); the chord branching first otherwise.
+ * more than half the periods are arbitrage periods (the chord branching then has too many periods
+ * to split), or when the window is at most 2.5 power steps wide (its value functions then have few
+ * breakpoints) and there is no cycle cap (which would multiply its runs); the chord branching first
+ * otherwise.
  */
 function programSuits(day: StoredDay): boolean {
   const step = Math.min(day.chargeStepMwh, day.dischargeStepMwh);
+  if (2 * day.arbitrageCount > day.periods) return true;
   return day.dischargeCapMwh === Infinity && day.socMaxMwh - day.socMinMwh <= 2.5 * step;
 }
 
