@@ -101,7 +101,7 @@ export function runBacktestCommand(flags: BacktestFlags, io: CliIo): void {
   const progress = createProgress(io, { total: daysBetween(from, to).length, label: 'backtest', quiet: flags.quiet === true });
   const onDay = ({ done }: { done: number }): void => progress.update(done);
   // ledger.csv goes into the output stage day by day (writeOutputs.ts): ten years keep no ledger in memory.
-  const stage = OutputStage.begin(out, outputs, flags.force === true);
+  const stage = OutputStage.begin(out, outputs, flags.force === true, ['report.html']);
   try {
     const ledger = stage.open('ledger.csv');
     ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);

@@ -84,6 +84,7 @@ export function runPlan(flags: PlanFlags, io: CliIo): void {
         ...(flags.report === true ? [{ name: 'report.html', text: planReport({ day, policy: flags.policy, alpha: flags.alpha, market, forecast, plan: result, inputs: paths }) }] : []),
       ],
       flags.force === true,
+      ['report.html'],
     );
   }
   // Repaired, not refused (DESIGN.md section 6); said on stderr so that --json output stays clean.

@@ -85,7 +85,7 @@ export function runScore(flags: ScoreFlags, io: CliIo): void {
   };
   const summary = scoreSummary(scored);
   const report = flags.report === true ? [{ name: 'report.html', text: scoreReport({ ...scored, timeZone: market.timeZone, periodMinutes: market.periodMinutes }) }] : [];
-  writeOutputs(out, [{ name: 'score.json', text: jsonText(summary) }, ...report], flags.force === true);
+  writeOutputs(out, [{ name: 'score.json', text: jsonText(summary) }, ...report], flags.force === true, ['report.html']);
   reportRepairs(io, [forecast, ...(against === null ? [] : [against])]);
   io.stdout(flags.json === true ? jsonText(summary) : scoreSummaryText(summary, out, outputs));
 }

@@ -135,6 +135,7 @@ export async function runSizeCommand(flags: SizeFlags, io: CliIo): Promise<void>
     force,
     csvName: 'size.csv',
     // In one output set with size.csv: a run killed while writing leaves the old outputs or all the new ones.
+    optionalOutputs: ['report.html'],
     moreOutputs: (results) => [
       { name: 'summary.json', text: jsonText(sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs, ...modelContext })) },
       ...(flags.report === true ? [{ name: 'report.html', text: sizeReport({ results, summary: sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs, ...modelContext }) }) }] : []),

@@ -90,6 +90,7 @@ export async function runSweepCommand(flags: SweepFlags, io: CliIo): Promise<voi
     force,
     csvName: 'sweep.csv',
     // In one output set with sweep.csv: a run killed while writing leaves the old outputs or all the new ones.
+    optionalOutputs: ['report.html'],
     moreOutputs: (results) => [
       { name: 'summary.json', text: jsonText(sweepSummary(results, { from, to, data, paths, axes, ...modelContext })) },
       ...(flags.report === true ? [{ name: 'report.html', text: sweepReport({ results, summary: sweepSummary(results, { from, to, data, paths, axes, ...modelContext }) }) }] : []),

@@ -1,4 +1,4 @@
-import { closeSync, existsSync, fsyncSync, mkdirSync, mkdtempSync, openSync, readdirSync, renameSync, rmdirSync, rmSync, statSync, writeFileSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fsyncSync, mkdirSync, mkdtempSync, openSync, readdirSync, renameSync, rmdirSync, rmSync, statSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { InputError, type InputProblem } from './inputError.js';
 
@@ -12,6 +12,8 @@ export interface OutputFile {
 export const PARTIAL_PREFIX = '.quantbid-partial-';
 /** Prefix of a folder holding a complete new output set that is being moved into place (finished when found). */
 export const COMMIT_PREFIX = '.quantbid-commit-';
+/** Marker, inside a commit folder, of an optional output that the install removes. */
+const RETIRED_PREFIX = '.retired-';
 
 /**
  * Writes a set of output files into `outDir` so that the folder holds either the old set or the new
@@ -37,12 +39,15 @@ export const COMMIT_PREFIX = '.quantbid-commit-';
  * entry exists. Leftovers only ever carry these dot-names, never an output's name. One writer per
  * folder at a time: a folder whose process still runs is left alone.
  *
- * Existing outputs are kept unless `force`. Files of `outDir` that are not in the set are not touched.
+ * Existing outputs are kept unless `force`. Files of `outDir` that are not in the set are not touched,
+ * except, with `force`, the command's `optional` outputs this run does not write (e.g. a report.html
+ * of an earlier run with --report): they go in the install step, through an empty marker file
+ * `.retired-<name>` in the commit folder, so a stale optional output never stands beside a new set.
  * When staging fails, the staged files and any folder this call created are removed, and the failure
  * is an input error naming --out. OutputStage does the same for a set written piece by piece.
  */
-export function writeOutputs(outDir: string, files: readonly OutputFile[], force: boolean): string[] {
-  const stage = OutputStage.begin(outDir, files.map((f) => f.name), force);
+export function writeOutputs(outDir: string, files: readonly OutputFile[], force: boolean, optional: readonly string[] = []): string[] {
+  const stage = OutputStage.begin(outDir, files.map((f) => f.name), force, optional);
   for (const file of files) stage.write(file.name, file.text);
   return stage.commit();
 }
@@ -72,15 +77,18 @@ export class OutputStage {
     private readonly names: readonly string[],
     private readonly staging: string,
     private readonly created: readonly string[],
+    private readonly retired: readonly string[],
   ) {}
 
-  static begin(outDir: string, names: readonly string[], force: boolean): OutputStage {
+  /** `optional`: the command's other outputs, removed with `force` when this set does not hold them. */
+  static begin(outDir: string, names: readonly string[], force: boolean, optional: readonly string[] = []): OutputStage {
     checkOutputFolder(outDir, names, force);
     let created: string[] = [];
     try {
       created = makeFolders(outDir);
       recoverOutputs(outDir);
-      return new OutputStage(outDir, names, mkdtempSync(join(outDir, `${PARTIAL_PREFIX}${process.pid}-`)), created);
+      const retired = force ? optional.filter((name) => !names.includes(name)) : [];
+      return new OutputStage(outDir, names, mkdtempSync(join(outDir, `${PARTIAL_PREFIX}${process.pid}-`)), created, retired);
     } catch (err) {
       removeEmptyFolders(created);
       throw asInputError(outDir, err);
@@ -115,6 +123,7 @@ export class OutputStage {
         this.openFiles.delete(name);
         closeSync(fd);
       }
+      for (const name of this.retired) writeFileSync(join(this.staging, `${RETIRED_PREFIX}${name}`), '');
       syncFolder(this.staging);
       committed = join(this.outDir, `${COMMIT_PREFIX}${this.staging.slice(this.staging.lastIndexOf(PARTIAL_PREFIX) + PARTIAL_PREFIX.length)}`);
       renameSync(this.staging, committed);
@@ -202,7 +211,14 @@ function isRunning(pid: number): boolean {
 
 /** Step 3: moves every file of a commit folder over its old version in `outDir`, then removes the folder. */
 function installCommitted(outDir: string, committed: string): void {
-  for (const name of readdirSync(committed).sort()) renameSync(join(committed, name), join(outDir, name));
+  for (const name of readdirSync(committed).sort()) {
+    if (name.startsWith(RETIRED_PREFIX)) {
+      rmSync(join(outDir, name.slice(RETIRED_PREFIX.length)), { force: true });
+      unlinkSync(join(committed, name));
+    } else {
+      renameSync(join(committed, name), join(outDir, name));
+    }
+  }
   rmdirSync(committed);
   syncFolder(outDir);
 }

@@ -33,6 +33,22 @@ function contents(dir: string): Record<string, string> {
 }
 
 describe('writeOutputs', () => {
+  it('with --force, an optional output of an earlier run that this run does not write goes with the old set', () => {
+    const dir = folder({ 'a.csv': 'old a', 'report.html': 'old report', 'notes.txt': 'mine' });
+    writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }], true, ['report.html']);
+    expect(contents(dir)).toEqual({ 'a.csv': 'new a', 'notes.txt': 'mine' });
+  });
+
+  it('a commit folder left with a retired output is finished by the next write: the stale file goes', () => {
+    const dir = folder({ 'a.csv': 'old a', 'report.html': 'old report' });
+    const committed = join(dir, `${COMMIT_PREFIX}${endedPid()}-x`);
+    mkdirSync(committed);
+    writeFileSync(join(committed, 'a.csv'), 'new a');
+    writeFileSync(join(committed, '.retired-report.html'), '');
+    recoverOutputs(dir);
+    expect(contents(dir)).toEqual({ 'a.csv': 'new a' });
+  });
+
   it('replaces the old set with the new one and leaves nothing else; other files stay', () => {
     const dir = folder({ 'a.csv': 'old a', 'b.json': 'old b', 'notes.txt': 'mine' });
     expect(writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }, { name: 'b.json', text: 'new b' }], true)).toEqual([join(dir, 'a.csv'), join(dir, 'b.json')]);

@@ -41,6 +41,8 @@ export interface SweepOptions {
    * table, so that a run killed while writing leaves the old outputs or all the new ones. Default none.
    */
   readonly moreOutputs?: (results: readonly SweepResult[]) => readonly OutputFile[];
+  /** Outputs the command writes only on request (e.g. report.html): removed with --force when not written. */
+  readonly optionalOutputs?: readonly string[];
   /** Most settings a grid may have [-]. Default 100,000. */
   readonly maxSettings?: number;
   /** Abort (e.g. on SIGINT) to stop starting settings; the running ones finish and are kept. */
@@ -142,7 +144,7 @@ export async function runSweep(options: SweepOptions): Promise<SweepOutcome> {
 
   const complete = rows as SweepRow[];
   const results = grid.map((point) => ({ ...point, row: complete[point.index] as SweepRow }));
-  const files = writeOutputs(o.outDir, [{ name: o.csvName, text: sweepCsv(o.axes, grid, complete) }, ...(o.moreOutputs?.(results) ?? [])], o.force);
+  const files = writeOutputs(o.outDir, [{ name: o.csvName, text: sweepCsv(o.axes, grid, complete) }, ...(o.moreOutputs?.(results) ?? [])], o.force, o.optionalOutputs ?? []);
   // Killed before this line, a re-run finds every setting in the journal and writes the same bytes.
   rmSync(journal, { force: true });
   return { status: 'complete', total: grid.length, resumed, results, files };
