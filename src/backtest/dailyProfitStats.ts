@@ -1,6 +1,6 @@
 import { mean } from '../stats/mean.js';
-import { quantileSorted } from '../stats/quantile-sorted.js';
-import { sampleVariance } from '../stats/sample-variance.js';
+import { quantileSorted } from '../stats/quantileSorted.js';
+import { sampleVariance } from '../stats/sampleVariance.js';
 
 /** Spread and downside of a series of daily profits [currency]. */
 export interface DailyProfitStats {

@@ -1,4 +1,4 @@
-import { dieboldMariano, type DieboldMarianoResult } from '../stats/diebold-mariano.js';
+import { dieboldMariano, type DieboldMarianoResult } from '../stats/dieboldMariano.js';
 
 /**
  * The edge of one policy over another: is its mean daily profit higher? (DESIGN.md section 6)
@@ -6,7 +6,7 @@ import { dieboldMariano, type DieboldMarianoResult } from '../stats/diebold-mari
  * Notes: with daily profits a_t (the tested policy, e.g. quantile) and b_t (the reference, e.g. point)
  * on the same days, d_t = a_t - b_t. Taking the loss of a policy to be its negated profit, d_t is the
  * reference's loss minus the tested policy's loss, so the Diebold-Mariano test with horizon h = 1 and
- * the Harvey-Leybourne-Newbold correction (src/stats/diebold-mariano.ts) tests H0: E[d] = 0 against
+ * the Harvey-Leybourne-Newbold correction (src/stats/dieboldMariano.ts) tests H0: E[d] = 0 against
  * H1: E[d] > 0 ("the tested policy earns more"), and `pValueOneSided` is P(T >= HLN), T ~ t(n - 1).
  * Fewer than 2 days give `too-few-days` instead of a test.
  *

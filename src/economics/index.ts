@@ -5,15 +5,15 @@
  */
 export { npv } from './npv.js';
 export { irr, DEFAULT_IRR_OPTIONS, type IrrOptions, type IrrResult } from './irr.js';
-export { bisectRoot } from './bisect-root.js';
-export { annuityFactor } from './annuity-factor.js';
-export { capitalRecoveryFactor } from './capital-recovery-factor.js';
+export { bisectRoot } from './bisectRoot.js';
+export { annuityFactor } from './annuityFactor.js';
+export { capitalRecoveryFactor } from './capitalRecoveryFactor.js';
 export { simplePayback, discountedPayback, type PaybackResult } from './payback.js';
-export { annualiseProfit, DAYS_PER_YEAR } from './annualise-profit.js';
+export { annualiseProfit, DAYS_PER_YEAR } from './annualiseProfit.js';
 export {
   projectCashFlows,
   DEFAULT_PROJECT_OPTIONS,
   type ProjectInput,
   type ProjectCashFlows,
-} from './project-cash-flows.js';
-export { requireDiscountRate } from './discount-rate.js';
+} from './projectCashFlows.js';
+export { requireDiscountRate } from './discountRate.js';

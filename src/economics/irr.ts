@@ -1,6 +1,6 @@
-import { ArgumentError } from '../stats/argument-error.js';
+import { ArgumentError } from '../stats/argumentError.js';
 import { requireFiniteArray } from '../stats/validate.js';
-import { bisectRoot } from './bisect-root.js';
+import { bisectRoot } from './bisectRoot.js';
 import { npv } from './npv.js';
 
 /** Where IRR looks for a root of NPV(r): the grid minRate, minRate + step, ..., up to maxRate. */

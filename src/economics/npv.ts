@@ -1,5 +1,5 @@
 import { requireFiniteArray } from '../stats/validate.js';
-import { requireDiscountRate } from './discount-rate.js';
+import { requireDiscountRate } from './discountRate.js';
 
 /**
  * Net present value of a series of yearly cash flows.

@@ -1,5 +1,5 @@
 import { requireFiniteArray } from '../stats/validate.js';
-import { requireDiscountRate } from './discount-rate.js';
+import { requireDiscountRate } from './discountRate.js';
 
 /** Payback outcome: a status union. */
 export type PaybackResult =

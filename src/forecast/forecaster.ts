@@ -20,7 +20,7 @@
  * kept in the Forecaster, so a run over consecutive days fits each day's models once.
  */
 import type { PriceHistory, QuantileDay } from '../types.js';
-import { ArgumentError } from '../stats/argument-error.js';
+import { ArgumentError } from '../stats/argumentError.js';
 import type { LassoOptions } from './linalg/lasso.js';
 import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';

@@ -1,8 +1,8 @@
-import { ArgumentError } from './argument-error.js';
-import { bernoulliLogLikelihood } from './bernoulli-log-likelihood.js';
-import { chiSquareSurvival } from './chi-square.js';
+import { ArgumentError } from './argumentError.js';
+import { bernoulliLogLikelihood } from './bernoulliLogLikelihood.js';
+import { chiSquareSurvival } from './chiSquare.js';
 import { unconditionalCoverageLr } from './kupiec.js';
-import { transitionCounts, type TransitionCounts } from './transition-counts.js';
+import { transitionCounts, type TransitionCounts } from './transitionCounts.js';
 import { requireIntegerIn, requireOpenUnit } from './validate.js';
 
 /** Christoffersen interval-forecast test result. */

@@ -4,32 +4,32 @@
  */
 
 // errors
-export { ArgumentError } from './argument-error.js';
-export { NoConvergenceError } from './continued-fraction.js';
+export { ArgumentError } from './argumentError.js';
+export { NoConvergenceError } from './continuedFraction.js';
 
 // special functions
-export { continuedFraction } from './continued-fraction.js';
-export { logGamma } from './log-gamma.js';
-export { regularizedGammaP, regularizedGammaQ } from './regularized-gamma.js';
-export { regularizedBeta } from './regularized-beta.js';
+export { continuedFraction } from './continuedFraction.js';
+export { logGamma } from './logGamma.js';
+export { regularizedGammaP, regularizedGammaQ } from './regularizedGamma.js';
+export { regularizedBeta } from './regularizedBeta.js';
 
 // distributions
-export { normalCdf } from './normal-cdf.js';
-export { normalQuantile } from './normal-quantile.js';
-export { studentTCdf } from './student-t-cdf.js';
-export { chiSquareCdf, chiSquareSurvival } from './chi-square.js';
+export { normalCdf } from './normalCdf.js';
+export { normalQuantile } from './normalQuantile.js';
+export { studentTCdf } from './studentTCdf.js';
+export { chiSquareCdf, chiSquareSurvival } from './chiSquare.js';
 
 // descriptive statistics
 export { mean } from './mean.js';
-export { sampleVariance } from './sample-variance.js';
-export { quantileSorted } from './quantile-sorted.js';
+export { sampleVariance } from './sampleVariance.js';
+export { quantileSorted } from './quantileSorted.js';
 export { autocovariance } from './autocovariance.js';
 
 // tests of forecasts and policies
-export { dieboldMariano, type DieboldMarianoResult } from './diebold-mariano.js';
-export { bernoulliLogLikelihood } from './bernoulli-log-likelihood.js';
+export { dieboldMariano, type DieboldMarianoResult } from './dieboldMariano.js';
+export { bernoulliLogLikelihood } from './bernoulliLogLikelihood.js';
 export { kupiecPof, type KupiecResult } from './kupiec.js';
-export { transitionCounts, type TransitionCounts } from './transition-counts.js';
+export { transitionCounts, type TransitionCounts } from './transitionCounts.js';
 export {
   christoffersenFromCounts,
   christoffersenFromHits,

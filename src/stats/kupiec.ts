@@ -1,5 +1,5 @@
-import { bernoulliLogLikelihood } from './bernoulli-log-likelihood.js';
-import { chiSquareSurvival } from './chi-square.js';
+import { bernoulliLogLikelihood } from './bernoulliLogLikelihood.js';
+import { chiSquareSurvival } from './chiSquare.js';
 import { requireIntegerIn, requireOpenUnit } from './validate.js';
 
 /** Kupiec proportion-of-failures test result. */

@@ -6,7 +6,7 @@
  * requireFiniteArray('values', [1, 2], 1); // passes
  * requireOpenUnit('p', 1);                  // throws: must be a number in (0, 1); got 1
  */
-import { ArgumentError } from './argument-error.js';
+import { ArgumentError } from './argumentError.js';
 
 /** `value` must be a finite number. */
 export function requireFinite(name: string, value: number): void {

@@ -3,8 +3,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { deliveryPeriods } from '../../src/market/calendar.js';
-import { chiSquareSurvival } from '../../src/stats/chi-square.js';
-import { studentTCdf } from '../../src/stats/student-t-cdf.js';
+import { chiSquareSurvival } from '../../src/stats/chiSquare.js';
+import { studentTCdf } from '../../src/stats/studentTCdf.js';
 import { runCli } from '../report/planFixtures.js';
 
 // `quantbid score` on a tiny case worked by hand. Hourly periods on a fixed UTC+1 clock; ten days,

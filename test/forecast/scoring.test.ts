@@ -4,7 +4,7 @@ import { pinballLoss } from '../../src/forecast/scoring/pinball.js';
 import { scoreForecasts } from '../../src/forecast/scoring/scoreForecasts.js';
 import type { ScoredDay } from '../../src/forecast/scoring/scoreForecasts.js';
 import { ForecastInputError } from '../../src/forecast/models/errors.js';
-import { normalQuantile } from '../../src/stats/normal-quantile.js';
+import { normalQuantile } from '../../src/stats/normalQuantile.js';
 import { seededNormal } from './seededRandom.js';
 import { syntheticHistory } from './syntheticHistory.js';
 

@@ -1,8 +1,8 @@
-import { annualiseProfit, DAYS_PER_YEAR } from '../../economics/annualise-profit.js';
+import { annualiseProfit, DAYS_PER_YEAR } from '../../economics/annualiseProfit.js';
 import { irr, type IrrOptions } from '../../economics/irr.js';
 import { npv } from '../../economics/npv.js';
 import { discountedPayback, simplePayback, type PaybackResult } from '../../economics/payback.js';
-import { projectCashFlows } from '../../economics/project-cash-flows.js';
+import { projectCashFlows } from '../../economics/projectCashFlows.js';
 
 /** Costs and finance of a battery project, the same for every size of a sizing grid. */
 export interface SizeCosts {

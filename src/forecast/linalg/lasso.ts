@@ -1,4 +1,4 @@
-import { ArgumentError } from '../../stats/argument-error.js';
+import { ArgumentError } from '../../stats/argumentError.js';
 import type { LinearModel } from './linearModel.js';
 import { fromStandardised } from './linearModel.js';
 import type { StandardisedGram } from './standardisedGram.js';

@@ -1,4 +1,4 @@
-import { ArgumentError } from '../../stats/argument-error.js';
+import { ArgumentError } from '../../stats/argumentError.js';
 
 /**
  * A dense real matrix stored row-major: entry (i, j) is `data[i * cols + j]`.

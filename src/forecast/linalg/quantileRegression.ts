@@ -1,4 +1,4 @@
-import { ArgumentError } from '../../stats/argument-error.js';
+import { ArgumentError } from '../../stats/argumentError.js';
 import { SolverError } from './errors.js';
 import { leastSquaresQr } from './leastSquaresQr.js';
 import type { Matrix } from './matrix.js';

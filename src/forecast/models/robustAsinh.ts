@@ -1,4 +1,4 @@
-import { normalQuantile } from '../../stats/normal-quantile.js';
+import { normalQuantile } from '../../stats/normalQuantile.js';
 
 /** Centre and scale of the robust standardisation [currency/MWh]. */
 export interface RobustScale {

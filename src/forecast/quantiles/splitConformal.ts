@@ -1,4 +1,4 @@
-import { ArgumentError } from '../../stats/argument-error.js';
+import { ArgumentError } from '../../stats/argumentError.js';
 
 /**
  * Rank of the calibration score that bounds a split conformal interval: ceil((n + 1)(1 - alpha)).

@@ -1,4 +1,4 @@
-import { dieboldMariano, type DieboldMarianoResult } from '../../stats/diebold-mariano.js';
+import { dieboldMariano, type DieboldMarianoResult } from '../../stats/dieboldMariano.js';
 import { mean } from '../../stats/mean.js';
 import { ForecastInputError } from '../models/errors.js';
 import { crpsFromQuantiles } from './crps.js';
@@ -39,7 +39,7 @@ export interface ForecastComparison {
  *
  * References: F. X. Diebold and R. S. Mariano (1995), J. Business & Economic Statistics 13(3),
  * 253-263; D. Harvey, S. Leybourne and P. Newbold (1997), Int. J. Forecasting 13(2), 281-291 (see
- * src/stats/diebold-mariano.ts).
+ * src/stats/dieboldMariano.ts).
  *
  * @param first, second the same days in the same order, with the same realised prices and levels
  * @throws ForecastInputError when the days or levels differ, or fewer than two days are given

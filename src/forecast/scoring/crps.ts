@@ -1,4 +1,4 @@
-import { normalCdf } from '../../stats/normal-cdf.js';
+import { normalCdf } from '../../stats/normalCdf.js';
 import { pinballLoss } from './pinball.js';
 
 /**

@@ -1,4 +1,4 @@
-import { annuityFactor } from './annuity-factor.js';
+import { annuityFactor } from './annuityFactor.js';
 import { requireIntegerIn } from '../stats/validate.js';
 
 /**

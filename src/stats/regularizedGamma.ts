@@ -1,5 +1,5 @@
-import { continuedFraction, NoConvergenceError } from './continued-fraction.js';
-import { logGamma } from './log-gamma.js';
+import { continuedFraction, NoConvergenceError } from './continuedFraction.js';
+import { logGamma } from './logGamma.js';
 import { requireNonNegative, requirePositive } from './validate.js';
 
 /**

@@ -1,4 +1,4 @@
-import { ArgumentError } from '../stats/argument-error.js';
+import { ArgumentError } from '../stats/argumentError.js';
 
 /**
  * Root of a continuous function on a bracket [lo, hi] where it changes sign, by bisection.

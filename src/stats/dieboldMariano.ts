@@ -1,6 +1,6 @@
 import { autocovariance } from './autocovariance.js';
 import { mean } from './mean.js';
-import { studentTCdf } from './student-t-cdf.js';
+import { studentTCdf } from './studentTCdf.js';
 import { requireFiniteArray, requireIntegerIn } from './validate.js';
 
 /** Outcome of the Diebold-Mariano test: a status union, never NaN. */

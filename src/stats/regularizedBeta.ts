@@ -1,6 +1,6 @@
-import { continuedFraction } from './continued-fraction.js';
-import { logGamma } from './log-gamma.js';
-import { ArgumentError } from './argument-error.js';
+import { continuedFraction } from './continuedFraction.js';
+import { logGamma } from './logGamma.js';
+import { ArgumentError } from './argumentError.js';
 import { requirePositive } from './validate.js';
 
 /**

@@ -1,4 +1,4 @@
-import { ArgumentError } from '../stats/argument-error.js';
+import { ArgumentError } from '../stats/argumentError.js';
 
 /**
  * Checks a periodic discount rate r: finite and > -1, so that the discount factor (1 + r)^-t exists.

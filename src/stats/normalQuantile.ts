@@ -1,5 +1,5 @@
-import { ArgumentError } from './argument-error.js';
-import { normalCdf } from './normal-cdf.js';
+import { ArgumentError } from './argumentError.js';
+import { normalCdf } from './normalCdf.js';
 
 // Rational approximations for the lower half p <= 1/2 (relative error below 1.15e-9 before refinement).
 const A = [-39.69683028665376, 220.9460984245205, -275.9285104469687, 138.357751867269, -30.66479806614716, 2.506628277459239] as const;

@@ -1,4 +1,4 @@
-import { ArgumentError } from './argument-error.js';
+import { ArgumentError } from './argumentError.js';
 import { requireFiniteArray } from './validate.js';
 
 /**

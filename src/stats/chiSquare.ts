@@ -1,4 +1,4 @@
-import { regularizedGammaP, regularizedGammaQ } from './regularized-gamma.js';
+import { regularizedGammaP, regularizedGammaQ } from './regularizedGamma.js';
 import { requireNonNegative, requirePositive } from './validate.js';
 
 /**

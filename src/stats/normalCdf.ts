@@ -1,5 +1,5 @@
-import { regularizedGammaP, regularizedGammaQ } from './regularized-gamma.js';
-import { ArgumentError } from './argument-error.js';
+import { regularizedGammaP, regularizedGammaQ } from './regularizedGamma.js';
+import { ArgumentError } from './argumentError.js';
 
 /**
  * Standard normal cumulative distribution function Phi(x).

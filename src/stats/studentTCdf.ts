@@ -1,5 +1,5 @@
-import { regularizedBeta } from './regularized-beta.js';
-import { ArgumentError } from './argument-error.js';
+import { regularizedBeta } from './regularizedBeta.js';
+import { ArgumentError } from './argumentError.js';
 import { requirePositive } from './validate.js';
 
 /**

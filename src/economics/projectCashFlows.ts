@@ -1,4 +1,4 @@
-import { ArgumentError } from '../stats/argument-error.js';
+import { ArgumentError } from '../stats/argumentError.js';
 import { requireFinite, requireIntegerIn, requireNonNegative } from '../stats/validate.js';
 
 /** Inputs of a battery project's yearly cash flows. */

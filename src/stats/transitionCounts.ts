@@ -1,4 +1,4 @@
-import { ArgumentError } from './argument-error.js';
+import { ArgumentError } from './argumentError.js';
 
 /** Counts n_ij of transitions from state i at t - 1 to state j at t of a 0/1 hit sequence. */
 export interface TransitionCounts {

@@ -1,5 +1,5 @@
 import { requireIntegerIn } from '../stats/validate.js';
-import { requireDiscountRate } from './discount-rate.js';
+import { requireDiscountRate } from './discountRate.js';
 
 /**
  * Annuity factor: present value at t = 0 of 1 per year paid at the end of years 1..n.
