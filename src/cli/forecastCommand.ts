@@ -1,3 +1,4 @@
+import { basename, dirname } from 'node:path';
 import { Command, InvalidArgumentError, Option } from 'commander';
 import { DEFAULT_METHOD, DEFAULTS, FORECAST_METHODS, type ForecastMethod } from '../forecast/forecaster.js';
 import { forecastRange, type ForecastRangeResult } from '../forecast/forecastRange.js';
@@ -55,7 +56,7 @@ export function forecastCommand(io: CliIo): Command {
         .default(parseLevelsArg(FORECAST_COMMAND_DEFAULTS.levels), FORECAST_COMMAND_DEFAULTS.levels),
     )
     .option('--paths <S>', 'also write S whole-day scenario paths per day to paths.csv', parsePathCountArg, FORECAST_COMMAND_DEFAULTS.paths)
-    .option('--out <dir>', 'folder for quantiles.csv, forecast.json and (with --paths) paths.csv (required)', parsePathArg)
+    .option('--out <dir|file.csv>', 'folder for quantiles.csv, forecast.json and (with --paths) paths.csv, or the quantile file itself, NAME.json and NAME.paths.csv going beside it (required)', parsePathArg)
     .option('--quiet', 'no progress bar and no notes on stderr, even on a terminal')
     .option('--force', 'overwrite existing outputs')
     .option('--json', 'print the summary (forecast.json) on stdout');
@@ -63,7 +64,7 @@ export function forecastCommand(io: CliIo): Command {
   command.addHelpText(
     'after',
     `
-Outputs, in the folder --out:
+Outputs, in the folder --out (or, for --out DIR/NAME.csv, NAME.csv, NAME.json and NAME.paths.csv in DIR):
   quantiles.csv  wide quantile forecast period_start,q0.05,...,q0.95 (the layout --forecast reads);
                  days that could not be forecast are left out and listed in forecast.json
   paths.csv      with --paths S: period_start,path,price, per day S whole-day price curves
@@ -83,9 +84,11 @@ Examples:
 }
 
 export function runForecast(flags: ForecastFlags, io: CliIo): void {
-  const { from, to, out } = requiredFlags(flags);
+  const { from, to, out: outArg } = requiredFlags(flags);
   const { paths } = resolveInputs(flags, INPUTS);
-  const outputs = ['quantiles.csv', ...(flags.paths > 0 ? ['paths.csv'] : []), 'forecast.json'];
+  const target = outputTarget(outArg);
+  const out = target.dir;
+  const outputs = [target.quantiles, ...(flags.paths > 0 ? [target.paths] : []), target.summary];
   checkOutputFolder(out, outputs, flags.force === true);
   const problems: InputProblem[] = [];
   const market = gatherProblems(problems, () => readMarketSpec(paths.market));
@@ -108,9 +111,9 @@ export function runForecast(flags: ForecastFlags, io: CliIo): void {
   writeOutputs(
     out,
     [
-      { name: 'quantiles.csv', text: quantileForecastCsv(result.forecasts.map((f) => f.quantiles)) },
-      ...(flags.paths > 0 ? [{ name: 'paths.csv', text: scenarioPathsCsv(result.forecasts.map((f) => ({ periods: f.quantiles.periods, paths: f.paths }))) }] : []),
-      { name: 'forecast.json', text: jsonText(summary) },
+      { name: target.quantiles, text: quantileForecastCsv(result.forecasts.map((f) => f.quantiles)) },
+      ...(flags.paths > 0 ? [{ name: target.paths, text: scenarioPathsCsv(result.forecasts.map((f) => ({ periods: f.quantiles.periods, paths: f.paths }))) }] : []),
+      { name: target.summary, text: jsonText(summary) },
     ],
     flags.force === true,
   );
@@ -127,7 +130,6 @@ function requiredFlags(flags: ForecastFlags): { from: string; to: string; out: s
   const to = need(flags.to, '--to', 'give --to YYYY-MM-DD, the last delivery day to forecast');
   const out = need(flags.out, '--out', 'give --out DIR, the folder for quantiles.csv and forecast.json');
   if (problems.length === 0 && from > to) problems.push({ file: 'command line', field: '--to', message: `--to ${to} is before --from ${from}`, fix: 'give a --to on or after --from' });
-  if (/\.csv$/i.test(out)) problems.push({ file: 'command line', field: '--out', message: `${out} names a file, but --out is the folder quantiles.csv is written into`, fix: `give the folder, e.g. --out ${out.replace(/[/\\]?[^/\\]*$/, '') || '.'}` });
   if (problems.length > 0) throw new InputError(problems);
   return { from, to, out };
 }
@@ -186,4 +188,15 @@ function forecastSummaryText(summary: ReturnType<typeof forecastSummary>, out: s
     `  wrote ${summary.outputs.map((name, i) => (i === 0 ? `${out}/${name}` : name)).join(', ')}`,
   ];
   return `${lines.join('\n')}\n`;
+}
+
+/**
+ * Where the outputs go: `--out DIR` writes quantiles.csv, forecast.json and paths.csv into DIR;
+ * `--out DIR/NAME.csv` writes the quantiles to that file, with NAME.json and NAME.paths.csv beside it.
+ */
+export function outputTarget(out: string): { readonly dir: string; readonly quantiles: string; readonly summary: string; readonly paths: string } {
+  if (!/\.csv$/i.test(out)) return { dir: out, quantiles: 'quantiles.csv', summary: 'forecast.json', paths: 'paths.csv' };
+  const file = basename(out);
+  const stem = file.replace(/\.csv$/i, '');
+  return { dir: dirname(out), quantiles: file, summary: `${stem}.json`, paths: `${stem}.paths.csv` };
 }

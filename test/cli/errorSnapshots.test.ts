@@ -47,7 +47,7 @@ const CASES: Readonly<Record<string, readonly (readonly string[])[]>> = {
     ['forecast', '--scenario', S],
     ['forecast', '--scenario', S, ...DAYS, '--levels', '0.5,1.2', '--out', OUT],
     ['forecast', '--scenario', S, ...DAYS, '--method', 'crystal-ball', '--out', OUT],
-    ['forecast', '--scenario', S, ...DAYS, '--out', `${OUT}/quantiles.csv`],
+    ['forecast', '--scenario', S, '--from', '2026-03-05', '--to', '2026-03-01', '--out', `${OUT}/quantiles.csv`],
   ],
   score: [
     ['score', '--scenario', S],

@@ -1,4 +1,4 @@
-import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, readdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
@@ -104,13 +104,20 @@ describe('quantbid forecast', () => {
     expect(summary.days.skippedDays).toEqual([{ day: '2031-04-16', reason: "after the end of the history (2031-04-15); the history's exogenous columns (load_mw) are not known for it" }]);
   });
 
+  it('--out DIR/NAME.csv writes the quantiles to that file with NAME.json beside it', async () => {
+    const folder = join(dir, 'named');
+    const run = await runCli(['forecast', ...inputs(), '--from', '2031-03-10', '--to', '2031-03-10', '--out', join(folder, 'march.csv')]);
+    expect(run.code, run.stderr).toBe(0);
+    expect(readdirSync(folder).sort()).toEqual(['march.csv', 'march.json']);
+    expect([...parseQuantileForecast(read(folder, 'march.csv'), 'march.csv', MARKET).days.keys()]).toEqual(['2031-03-10']);
+  });
+
   it.each([
     ['--to before --from', ['--from', '2031-03-10', '--to', '2031-03-09'], /--to: --to 2031-03-09 is before --from 2031-03-10/],
     ['an unknown method, with the list', ['--from', '2031-03-10', '--to', '2031-03-10', '--method', 'magic'], new RegExp(`"magic" must be one of ${FORECAST_METHODS.join(', ')}`)],
     ['levels outside (0, 1)', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0:1:0.25'], /levels 0, 1 outside \(0, 1\)/],
     ['a level of 1.2 in a list', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0.5,1.2'], /level 1.2 outside \(0, 1\)/],
     ['levels not increasing', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0.5,0.1'], /do not increase strictly/],
-    ['a file name as --out', ['--from', '2031-03-10', '--to', '2031-03-10', '--out', join('runs', 'quantiles.csv')], /--out is the folder quantiles.csv is written into/],
     ['no day that can be forecast', ['--from', '2030-01-01', '--to', '2030-01-31'], /no day from 2030-01-01 to 2030-01-31 could be forecast/],
     ['--paths beyond the calibration days', ['--from', '2031-03-10', '--to', '2031-03-10', '--paths', '400'], /whole number of paths from 0 to 364/],
   ])('exits 2 and writes nothing for %s', async (_name, args, message) => {
