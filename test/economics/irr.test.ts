@@ -24,8 +24,9 @@ function rateOf(result: IrrResult): number {
 }
 
 describe('irr', () => {
-  it('gives npf.irr([-100, 39, 59, 55, 20]) = 0.2809484211599611 (numpy-financial, value from memory)', () => {
-    // Cross-check: numpy 2.4.6 np.roots([-100, 39, 59, 55, 20]) has the real root x = 1.28094842 = 1 + r.
+  it('gives irr([-100, 39, 59, 55, 20]) = 0.2809484211599611 (numpy-financial convention; numpy 2.4.6 roots, numpyReferenceValues.py)', () => {
+    // numpy 2.4.6 np.roots([-100, 39, 59, 55, 20]) has the real root x = 1.280948421159962 = 1 + r
+    // (test/economics/numpyReferenceValues.py prints it); from memory, the same value is numpy-financial's docstring example.
     const flows = Object.freeze([-100, 39, 59, 55, 20]);
     const rate = rateOf(irr(flows));
     expect(rate).toBeCloseTo(0.28095, 5);

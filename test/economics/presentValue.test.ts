@@ -3,7 +3,7 @@ import { annuityFactor, capitalRecoveryFactor, npv } from '../../src/economics/i
 import { ArgumentError } from '../../src/stats/index.js';
 
 describe('npv (numpy-financial convention: CF_0 at t = 0, undiscounted)', () => {
-  it('gives npf.npv(0.281, [-100, 39, 59, 55, 20]) = -0.0084785 (numpy-financial, value from memory)', () => {
+  it('gives npv(0.281, [-100, 39, 59, 55, 20]) = -0.0084785 (numpy-financial convention; numpy 2.4.6, numpyReferenceValues.py)', () => {
     // By hand, 1.281^2 = 1.640961, 1.281^3 = 2.102071041, 1.281^4 = 2.692753003521:
     // 39/1.281 = 30.444965, 59/1.640961 = 35.954541, 55/2.102071 = 26.164672, 20/2.692753 = 7.427343;
     // their sum is 99.991521, so NPV = 99.991521 - 100 = -0.008479.
@@ -35,7 +35,7 @@ describe('npv (numpy-financial convention: CF_0 at t = 0, undiscounted)', () => 
 });
 
 describe('annuityFactor and capitalRecoveryFactor', () => {
-  it('give 7.721735 for 1 per year over 10 years at 5% (annuity tables; (1 - 1.05^-10)/0.05)', () => {
+  it('give 7.721735 for 1 per year over 10 years at 5% (annuity tables; numpy 2.4.6 sum of 1.05^-t, numpyReferenceValues.py)', () => {
     expect(annuityFactor(0.05, 10)).toBeCloseTo(7.721735, 6);
     expect(annuityFactor(0.05, 10)).toBeCloseTo((1 - 1.05 ** -10) / 0.05, 13);
     expect(capitalRecoveryFactor(0.05, 10)).toBeCloseTo(0.05 / (1 - 1.05 ** -10), 14);

@@ -1,4 +1,4 @@
-// SciPy 1.17.1 / NumPy 2.4.6 values below are printed by test/stats/scipy-reference-values.py.
+// SciPy 1.17.1 / NumPy 2.4.6 values below are printed by test/stats/scipyReferenceValues.py.
 import { describe, expect, it } from 'vitest';
 import {
   bernoulliLogLikelihood,

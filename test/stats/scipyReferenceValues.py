@@ -1,7 +1,7 @@
 """Regenerates the SciPy/NumPy reference values quoted in test/stats/*.test.ts.
 
 Run with any Python that has SciPy (values in the tests came from SciPy 1.17.1, NumPy 2.4.6):
-    python3 test/stats/scipy-reference-values.py
+    python3 test/stats/scipyReferenceValues.py
 Each line prints the test's name for the value, then the value with full precision.
 """
 import numpy as np

@@ -72,9 +72,9 @@ export interface SizeEconomics {
 /**
  * The economics of one battery size from its backtest, step by step:
  * 1. annualise by the days covered (the Julian year): profitPerYear = profit x 365.25 / n, likewise
- *    the trading cash (revenue), the cycles and the throughput (annualise-profit.ts);
+ *    the trading cash (revenue), the cycles and the throughput (annualiseProfit.ts);
  * 2. capital cost from energy and power: capex = capexPerMwh x E + capexPerMw x P;
- * 3. yearly flows, end-of-year convention (project-cash-flows.ts): CF_0 = -capex,
+ * 3. yearly flows, end-of-year convention (projectCashFlows.ts): CF_0 = -capex,
  *    CF_y = profitPerYear - fixedOmPerMwYear x P - replacements in year y, where the cells (the energy
  *    capital cost) are bought again each time their life in cycles, at cyclesPerYear, runs out before
  *    the end of the project life; no residual value, no tax, no inflation, profit the same every year;
