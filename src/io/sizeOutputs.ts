@@ -20,6 +20,7 @@ export interface SizeSummaryContext extends GridSummaryContext {
 export function sizeSummary(results: readonly GridResult[], context: SizeSummaryContext) {
   const { data, from, to } = context;
   const days = (range: DayRange) => ({ ...range, days: coveredDays(data.history, data.forecast, range.from, range.to) });
+  const best = bestSizes(results, context.axes);
   return {
     ...gridSummaryHead('size', context),
     settings: results.length,
@@ -40,7 +41,8 @@ export function sizeSummary(results: readonly GridResult[], context: SizeSummary
         'payback: when the (discounted) cumulative cash flow first reaches 0, linear within the year, "never" within the life',
       ],
     },
-    best: bestSizes(results, context.axes),
+    best,
+    warnings: sizeWarnings(best, context.axes),
     note: 'perfect-foresight rows know the prices in advance: an upper bound on what any policy earns with that size, not a policy one can run',
   };
 }
@@ -70,6 +72,32 @@ export function sizeSummaryText(summary: ReturnType<typeof sizeSummary>, resumed
     const irrText = irr === null ? 'no size has an IRR' : `highest IRR ${formatNumber(100 * (irr.row.irr as number), 2)}% at ${at(irr)}`;
     lines.push(`  ${policy.policy}: ${npvText}; ${irrText}`);
   }
+  for (const warning of summary.warnings) lines.push(`  note: ${warning}`);
   lines.push(`  wrote ${files.join(', ')}`);
   return `${lines.join('\n')}\n`;
+}
+
+/**
+ * What an owner must know before reading the best size as an answer: a policy whose every size loses
+ * money at these costs, and a best size on the edge of the grid (the optimum may lie beyond it).
+ * Perfect foresight is an upper bound, not a choice, and gets no warning.
+ */
+export function sizeWarnings(best: ReturnType<typeof bestSizes>, axes: readonly { readonly name: string; readonly values: readonly (number | string)[] }[]): string[] {
+  const warnings: string[] = [];
+  const span = (name: string): [number, number] | null => {
+    const values = (axes.find((a) => a.name === name)?.values ?? []).map(Number);
+    return values.length < 2 ? null : [Math.min(...values), Math.max(...values)];
+  };
+  const energy = span('energy_mwh');
+  const power = span('power_mw');
+  for (const policy of best) {
+    const pick = policy.highestNpv;
+    if (policy.policy === 'perfect-foresight' || pick === null) continue;
+    if ((pick.row.npv as number) < 0) warnings.push(`${policy.policy}: every size has a negative NPV at these costs; the "best" size only loses least`);
+    const edges: string[] = [];
+    if (energy !== null && (pick.energyMwh === energy[0] || pick.energyMwh === energy[1])) edges.push(`--energy-mwh (${formatNumber(pick.energyMwh)} MWh)`);
+    if (power !== null && (pick.powerMw === power[0] || pick.powerMw === power[1])) edges.push(`--power-mw (${formatNumber(pick.powerMw)} MW)`);
+    if (edges.length > 0) warnings.push(`${policy.policy}: the highest NPV lies on the edge of the grid in ${edges.join(' and ')}; extend the grid past it to see whether it is the optimum`);
+  }
+  return warnings;
 }
