@@ -144,4 +144,16 @@ describe('the compiled CLI with --model', () => {
     expect(summary.inputs.model).toBe('arx-hs');
     expect(summary.forecastModel.daysForecast).toBe(5);
   }, 300_000);
+
+  it('size --model takes the days from the cache the sweep filled and equals the sizing of the forecast file', () => {
+    const span = ['--from', '2025-03-05', '--to', '2025-03-09', '--energy-mwh', '5,10', '--power-mw', '5', '--alpha', '0.1'];
+    const costs = ['--capex-per-mwh', '180000', '--capex-per-mw', '60000', '--fixed-om-per-mw-year', '8000', '--life-years', '15', '--discount-rate', '0.07'];
+    const sweepCache = join(work, 'sweep-cache');
+    const viaModel = quantbid(['size', '--scenario', SCENARIO, ...span, ...costs, '--model', 'arx-hs', '--forecast-cache', sweepCache, '--threads', '2', '--out', join(work, 'size-model')]);
+    expect(viaModel.code, viaModel.stderr).toBe(0);
+    expect(noteOf(viaModel.stdout)).toBe(`forecasts: arx-hs at 19 levels, 5 days forecast, 0 skipped; 0 days fitted, 5 from the cache ${sweepCache}`);
+    const viaFile = quantbid(['size', '--scenario', SCENARIO, ...span, ...costs, '--forecast', join(work, 'sweep-fc', 'quantiles.csv'), '--threads', '2', '--out', join(work, 'size-file')]);
+    expect(viaFile.code, viaFile.stderr).toBe(0);
+    expect(read(join(work, 'size-model'), 'size.csv')).toBe(read(join(work, 'size-file'), 'size.csv'));
+  }, 300_000);
 });
