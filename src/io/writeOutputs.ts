@@ -123,7 +123,7 @@ export class OutputStage {
         this.openFiles.delete(name);
         closeSync(fd);
       }
-      for (const name of this.retired) writeFileSync(join(this.staging, `${RETIRED_PREFIX}${name}`), '');
+      for (const name of this.retired) if (existsSync(join(this.outDir, name))) writeFileSync(join(this.staging, `${RETIRED_PREFIX}${name}`), '');
       syncFolder(this.staging);
       committed = join(this.outDir, `${COMMIT_PREFIX}${this.staging.slice(this.staging.lastIndexOf(PARTIAL_PREFIX) + PARTIAL_PREFIX.length)}`);
       renameSync(this.staging, committed);

@@ -142,7 +142,11 @@ describe('backtest laws on small random markets', () => {
 
   it('scaling every price and the wear cost by any k > 0 scales the perfect-foresight profit by k', () => {
     fc.assert(
-      fc.property(randomMarketArb(2), fc.double({ min: 0.05, max: 20, noNaN: true }), (m, k) => {
+      fc.property(randomMarketArb(2), fc.double({ min: 0.05, max: 20, noNaN: true }), (arbitrary, k) => {
+        // Realised prices on a cent grid, as markets publish them. Prices like -5e-237 next to 0 make
+        // two schedules equal to within rounding that end the day at different states of charge;
+        // either is optimal, but the next day then starts elsewhere and the law is about one path.
+        const m = onCentGrid(arbitrary);
         const profit = (x: RandomMarket) => runBacktest(x, { policies: ['perfect-foresight'], keepLedger: false }).days.reduce((s, d) => s + (d.runs[0]?.totals.profit ?? 0), 0);
         const base = profit(m);
         expect(Math.abs(profit(scalePrices(m, k)) - k * base)).toBeLessThanOrEqual(1e-6 * Math.max(1, k * Math.abs(base)));
@@ -161,3 +165,8 @@ describe('backtest laws on small random markets', () => {
     );
   });
 });
+
+/** The market with its realised prices rounded to whole cents. */
+function onCentGrid(m: RandomMarket): RandomMarket {
+  return { ...m, history: { ...m.history, days: m.history.days.map((d) => ({ ...d, pricePerMwh: d.pricePerMwh.map((p) => Math.round(100 * p) / 100) })) } };
+}
