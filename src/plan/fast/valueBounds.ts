@@ -1,5 +1,5 @@
 import { CHARGE_ONLY, DISCHARGE_ONLY } from './lineSweep.js';
-import { clip, maxOf, Pwl, slideMax, valueAt } from './pwl.js';
+import { clip, concaveSlide, maxOf, Pwl, slideMax, valueAt } from './pwl.js';
 import { PwlSeries } from './pwlSeries.js';
 import type { StoredDay } from './storedDay.js';
 
@@ -260,26 +260,4 @@ function upperHull(xs: Float64Array, vs: Float64Array, from: number, to: number,
     hull[top++] = i;
   }
   for (let k = 0; k < top; k++) out.push(xs[hull[k]!]!, vs[hull[k]!]!);
-}
-
-/**
- * out = max_{w in [a, b]} f(s - w) + sigma w for a concave f: the sup-convolution of two concave
- * functions merges their slope sequences (Rockafellar 1970, Convex Analysis, section 5), so the
- * piece of slope sigma and length b - a goes between f's pieces steeper than sigma (shifted by a)
- * and the rest (shifted by b). Exact and linear in the breakpoints, with no new ones but two.
- */
-function concaveSlide(f: Pwl, a: number, b: number, sigma: number, out: Pwl): void {
-  out.clear();
-  const xs = f.xs;
-  const vs = f.vs;
-  const n = f.n;
-  let k = n - 1; // the piece of slope sigma starts at breakpoint k
-  for (let i = 0; i < n - 1; i++) {
-    if ((vs[i + 1]! - vs[i]!) / (xs[i + 1]! - xs[i]!) < sigma) {
-      k = i;
-      break;
-    }
-  }
-  for (let i = 0; i <= k; i++) out.push(xs[i]! + a, vs[i]! + sigma * a);
-  for (let i = k; i < n; i++) out.push(xs[i]! + b, vs[i]! + sigma * b);
 }

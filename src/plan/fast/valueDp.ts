@@ -1,5 +1,5 @@
 import { CHARGE_ONLY, DISCHARGE_ONLY, edgeTolerance, LineSolution, SWEEP_END_UNREACHABLE, SWEEP_OK, SWEEP_START_UNREACHABLE, SWEEP_TOO_LARGE, type SweepStatus } from './lineSweep.js';
-import { clip, maxOf, Pwl, slideMax, valueAt } from './pwl.js';
+import { clip, maxOf, Pwl, slide, valueAt } from './pwl.js';
 import { PwlSeries } from './pwlSeries.js';
 import type { StoredDay } from './storedDay.js';
 import { pruneDead, ValueBounds } from './valueBounds.js';
@@ -85,19 +85,19 @@ export class ValueDp {
       const mode = modes[t]!;
       let next: Pwl;
       if (mode === CHARGE_ONLY) {
-        slideMax(f, 0, X, -p, g);
+        slide(f, 0, X, -p, g);
         next = g;
       } else if (mode === DISCHARGE_ONLY) {
-        slideMax(f, -Y, 0, -qm, g);
+        slide(f, -Y, 0, -qm, g);
         next = g;
       } else if (day.arbitrage[t] === 1 && qm > p) {
-        slideMax(f, 0, X, -p, g);
-        slideMax(f, -Y, 0, -qm, h);
+        slide(f, 0, X, -p, g);
+        slide(f, -Y, 0, -qm, h);
         maxOf(g, h, k);
         next = k;
       } else {
-        slideMax(f, -Y, 0, -qm, g);
-        slideMax(g, 0, X, -p, h);
+        slide(f, -Y, 0, -qm, g);
+        slide(g, 0, X, -p, h);
         next = h;
       }
       if (!clip(next, day.socMinMwh, day.socMaxMwh, eps, f)) return SWEEP_START_UNREACHABLE;
