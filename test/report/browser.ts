@@ -46,6 +46,8 @@ export const chromiumAvailable = existsSync(CHROMIUM_PATH);
 
 /** Why browser tests are skipped, printed once per test file that imports this helper. */
 export const SKIP_REASON = `browser tests skipped: ${CHROMIUM_PATH} is absent (CI installs Debian's chromium through .ci/run; locally: apt-get install chromium)`;
+// Under CI (.ci/run installs chromium) a missing browser is a failure, never a silent skip.
+if (!chromiumAvailable && process.env.CI !== undefined && process.env.CI !== '') throw new Error(`${CHROMIUM_PATH} is absent under CI: .ci/run must install Debian's chromium before the tests`);
 if (!chromiumAvailable) console.warn(SKIP_REASON);
 
 /** Suite name that says why it was skipped when Chromium is missing (vitest prints skipped names). */
