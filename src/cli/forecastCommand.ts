@@ -1,3 +1,4 @@
+import { requireSpanAndOut } from './gridArgs.js';
 import { basename, dirname } from 'node:path';
 import { Command, InvalidArgumentError, Option } from 'commander';
 import { DEFAULT_METHOD, DEFAULTS, FORECAST_METHODS, type ForecastMethod } from '../forecast/forecaster.js';
@@ -121,17 +122,7 @@ export function runForecast(flags: ForecastFlags, io: CliIo): void {
 }
 
 function requiredFlags(flags: ForecastFlags): { from: string; to: string; out: string } {
-  const problems: InputProblem[] = [];
-  const need = (value: string | undefined, option: string, fix: string): string => {
-    if (value === undefined) problems.push({ file: 'command line', field: option, message: `no ${option} given`, fix });
-    return value ?? '';
-  };
-  const from = need(flags.from, '--from', 'give --from YYYY-MM-DD, the first delivery day to forecast');
-  const to = need(flags.to, '--to', 'give --to YYYY-MM-DD, the last delivery day to forecast');
-  const out = need(flags.out, '--out', 'give --out DIR, the folder for quantiles.csv and forecast.json');
-  if (problems.length === 0 && from > to) problems.push({ file: 'command line', field: '--to', message: `--to ${to} is before --from ${from}`, fix: 'give a --to on or after --from' });
-  if (problems.length > 0) throw new InputError(problems);
-  return { from, to, out };
+  return requireSpanAndOut(flags, { days: 'delivery day to forecast', outFolder: 'quantiles.csv and forecast.json' });
 }
 
 function nothingForecast(result: ForecastRangeResult, historyFile: string, from: string, to: string): InputError {

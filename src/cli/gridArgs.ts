@@ -60,14 +60,26 @@ export function addGridOptions(command: Command, table: string): Command {
 
 /** --from, --to and --out, which a grid command needs; all missing ones are listed together. */
 export function requireGridFlags(flags: GridFlags, table: string): { from: string; to: string; out: string } {
+  return requireSpanAndOut(flags, { days: 'delivery day', outFolder: `${table} and summary.json` });
+}
+
+/**
+ * --from, --to (not before --from) and --out of any command that runs over a span of days; every
+ * missing one is listed together. `days` names the days ("delivery day to forecast"), `outFolder`
+ * what the --out folder receives.
+ */
+export function requireSpanAndOut(
+  flags: { readonly from?: string; readonly to?: string; readonly out?: string },
+  texts: { readonly days: string; readonly outFolder: string },
+): { from: string; to: string; out: string } {
   const problems: InputProblem[] = [];
   const need = (value: string | undefined, option: string, fix: string): string => {
     if (value === undefined) problems.push({ file: 'command line', field: option, message: `no ${option} given`, fix });
     return value ?? '';
   };
-  const from = need(flags.from, '--from', 'give --from YYYY-MM-DD, the first delivery day');
-  const to = need(flags.to, '--to', 'give --to YYYY-MM-DD, the last delivery day');
-  const out = need(flags.out, '--out', `give --out DIR, the folder for ${table} and summary.json`);
+  const from = need(flags.from, '--from', `give --from YYYY-MM-DD, the first ${texts.days}`);
+  const to = need(flags.to, '--to', `give --to YYYY-MM-DD, the last ${texts.days}`);
+  const out = need(flags.out, '--out', `give --out DIR, the folder for ${texts.outFolder}`);
   if (problems.length === 0 && from > to) problems.push({ file: 'command line', field: '--to', message: `--to ${to} is before --from ${from}`, fix: 'give a --to on or after --from' });
   if (problems.length > 0) throw new InputError(problems);
   return { from, to, out };

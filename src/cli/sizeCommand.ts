@@ -1,3 +1,4 @@
+import type { GridResult } from '../io/sweepOutputs.js';
 import { Command, InvalidArgumentError } from 'commander';
 import type { AlphaMode } from '../backtest/size/alphaChoice.js';
 import { specRoundTripEfficiency } from '../backtest/size/scaledBattery.js';
@@ -123,6 +124,12 @@ export async function runSizeCommand(flags: SizeFlags, io: CliIo): Promise<void>
   const axes = [energyAxis, powerAxis, efficiencyAxis, { ...policyAxis, values: [...policies, 'perfect-foresight'] }];
   // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
   const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: flags.unaccepted, costs, efficiencyGiven: givenEfficiency !== undefined, data: inputDataSpan(data, from, to) };
+  // The summary of the finished grid, made once for summary.json, report.html and stdout.
+  let made: { readonly results: readonly GridResult[]; readonly summary: ReturnType<typeof sizeSummary> } | undefined;
+  const summaryOf = (results: readonly GridResult[]): ReturnType<typeof sizeSummary> => {
+    if (made?.results !== results) made = { results, summary: sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs, ...modelContext }) };
+    return made.summary;
+  };
   const outcome = await runGrid(io, 'size', flags.quiet === true, {
     outDir: out,
     axes,
@@ -137,11 +144,11 @@ export async function runSizeCommand(flags: SizeFlags, io: CliIo): Promise<void>
     // In one output set with size.csv: a run killed while writing leaves the old outputs or all the new ones.
     optionalOutputs: ['report.html'],
     moreOutputs: (results) => [
-      { name: 'summary.json', text: jsonText(sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs, ...modelContext })) },
-      ...(flags.report === true ? [{ name: 'report.html', text: sizeReport({ results, summary: sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs, ...modelContext }) }) }] : []),
+      { name: 'summary.json', text: jsonText(summaryOf(results)) },
+      ...(flags.report === true ? [{ name: 'report.html', text: sizeReport({ results, summary: summaryOf(results) }) }] : []),
     ],
   });
-  const summary = sizeSummary(outcome.results, { from, to, data, paths, axes, alpha, unaccepted: flags.unaccepted, costs, ...modelContext });
+  const summary = summaryOf(outcome.results);
   io.stdout(flags.json === true ? jsonText(summary) : `${sizeSummaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}`);
 }
 

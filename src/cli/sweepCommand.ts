@@ -1,3 +1,4 @@
+import type { GridResult } from '../io/sweepOutputs.js';
 import { Command } from 'commander';
 import { parseAxes, parseNumberAxis, parseWordAxis } from '../backtest/sweep/sweepAxis.js';
 import type { SweepTaskInput } from '../backtest/sweepBacktestTask.js';
@@ -78,6 +79,12 @@ export async function runSweepCommand(flags: SweepFlags, io: CliIo): Promise<voi
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
   // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
   const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
+  // The summary of the finished grid, made once for summary.json, report.html and stdout.
+  let made: { readonly results: readonly GridResult[]; readonly summary: ReturnType<typeof sweepSummary> } | undefined;
+  const summaryOf = (results: readonly GridResult[]): ReturnType<typeof sweepSummary> => {
+    if (made?.results !== results) made = { results, summary: sweepSummary(results, { from, to, data, paths, axes, ...modelContext }) };
+    return made.summary;
+  };
   const outcome = await runGrid(io, 'sweep', flags.quiet === true, {
     outDir: out,
     axes,
@@ -92,10 +99,10 @@ export async function runSweepCommand(flags: SweepFlags, io: CliIo): Promise<voi
     // In one output set with sweep.csv: a run killed while writing leaves the old outputs or all the new ones.
     optionalOutputs: ['report.html'],
     moreOutputs: (results) => [
-      { name: 'summary.json', text: jsonText(sweepSummary(results, { from, to, data, paths, axes, ...modelContext })) },
-      ...(flags.report === true ? [{ name: 'report.html', text: sweepReport({ results, summary: sweepSummary(results, { from, to, data, paths, axes, ...modelContext }) }) }] : []),
+      { name: 'summary.json', text: jsonText(summaryOf(results)) },
+      ...(flags.report === true ? [{ name: 'report.html', text: sweepReport({ results, summary: summaryOf(results) }) }] : []),
     ],
   });
-  const summary = sweepSummary(outcome.results, { from, to, data, paths, axes, ...modelContext });
+  const summary = summaryOf(outcome.results);
   io.stdout(flags.json === true ? jsonText(summary) : `${sweepSummaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}`);
 }

@@ -7,28 +7,15 @@ import type { BatteryModel, DayProblem } from '../../src/types.js';
 import { checkSchedule, recomputedObjective } from '../reference/checkSchedule.js';
 import { HIGHS_NPM_VERSION, loadHighsSolver, solveDayWithHighs } from '../reference/highsDayModel.js';
 import { randomDay } from '../reference/randomDays.js';
+import { testBattery } from './testBattery.js';
 
 // Reference: HiGHS (npm `highs` 1.15.3) solving the MIP of test/reference/highsDayModel.ts with a
 // binary mode per period and mip_rel_gap = mip_abs_gap = 0.
 const highs = await loadHighsSolver();
 const relGap = (a: number, b: number): number => Math.abs(a - b) / Math.max(1, Math.abs(b));
 
-function battery(overrides: Partial<BatteryModel>): BatteryModel {
-  return Object.freeze({
-    energyMwh: 2,
-    chargeMw: 1,
-    dischargeMw: 1,
-    chargeEfficiency: 1,
-    dischargeEfficiency: 1,
-    socMinMwh: 0,
-    socMaxMwh: 2,
-    socInitialMwh: 0,
-    socFinalMinMwh: undefined,
-    maxDischargeMwhPerDay: undefined,
-    degradationCostPerMwh: 0,
-    ...overrides,
-  });
-}
+// The hand-worked days below use a 2 MWh store with a [0, 2] MWh window.
+const battery = (overrides: Partial<BatteryModel>): BatteryModel => testBattery({ energyMwh: 2, socMaxMwh: 2, ...overrides });
 
 function day(buy: number[], sell: number[], b: BatteryModel, socStartMwh: number, socEndMinMwh: number, terminalValuePerMwh?: number): DayProblem {
   return Object.freeze({

@@ -1,23 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import type { BatteryModel, DayProblem } from '../../src/types.js';
 import { solveDay } from '../../src/plan/solveDay.js';
+import { testBattery } from './testBattery.js';
 
-function battery(overrides: Partial<BatteryModel>): BatteryModel {
-  return Object.freeze({
-    energyMwh: 1,
-    chargeMw: 1,
-    dischargeMw: 1,
-    chargeEfficiency: 1,
-    dischargeEfficiency: 1,
-    socMinMwh: 0,
-    socMaxMwh: 1,
-    socInitialMwh: 0,
-    socFinalMinMwh: undefined,
-    maxDischargeMwhPerDay: undefined,
-    degradationCostPerMwh: 0,
-    ...overrides,
-  });
-}
+const battery = testBattery;
 
 function day(prices: number[], b: BatteryModel, socStartMwh = 0, socEndMinMwh = 0): DayProblem {
   return Object.freeze({ periodHours: 1, buyPricePerMwh: Object.freeze([...prices]), sellPricePerMwh: Object.freeze([...prices]), battery: b, socStartMwh, socEndMinMwh });
