@@ -1,5 +1,4 @@
 import { LineSolution, sweepLine, SweepWorkspace, type SweepStatus } from './lineSweep.js';
-import { SegmentOrder, SegmentRanking } from './segmentOrder.js';
 import type { StoredDay } from './storedDay.js';
 import { ValueDp } from './valueDp.js';
 
@@ -8,36 +7,22 @@ export interface MuSolver {
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus;
 }
 
-/** The concave sweep (lineSweep.ts) with its orders cached at mu = 0 and at the last mu used. */
+/** The concave sweep (lineSweep.ts). */
 export class SweepSolver implements MuSolver {
-  private readonly order: SegmentOrder;
-  private readonly atZero: SegmentRanking;
-  private readonly other: SegmentRanking;
   private readonly workspace: SweepWorkspace;
   private day: StoredDay | null = null;
 
   constructor(capacity: number) {
-    this.order = new SegmentOrder(capacity);
-    this.atZero = new SegmentRanking(capacity);
-    this.other = new SegmentRanking(capacity);
     this.workspace = new SweepWorkspace(capacity);
   }
 
   load(day: StoredDay): this {
     this.day = day;
-    this.order.load(day);
-    this.order.rank(0, this.atZero);
-    this.other.mu = NaN;
     return this;
   }
 
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
-    let ranking = this.atZero;
-    if (mu !== 0) {
-      if (this.other.mu !== mu) this.order.rank(mu, this.other);
-      ranking = this.other;
-    }
-    return sweepLine(this.day!, ranking, modes, this.workspace, out);
+    return sweepLine(this.day!, mu, modes, this.workspace, out);
   }
 }
 

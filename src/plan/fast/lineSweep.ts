@@ -1,4 +1,4 @@
-import { CHARGE, CHORD, DISCHARGE, type SegmentRanking } from './segmentOrder.js';
+import { CHARGE, CHORD, DISCHARGE, LiveSegments } from './liveSegments.js';
 import type { StoredDay } from './storedDay.js';
 
 /**
@@ -11,7 +11,7 @@ import type { StoredDay } from './storedDay.js';
  *   F_t = (F_{t-1} (+) k_t) restricted to [socMin, socMax],   (+) the sup-convolution,
  * and the sup-convolution of concave piecewise-linear functions is the merge of their slope
  * sequences (Rockafellar 1970, Convex Analysis, section 5). F_t is kept as its left end lo_t and a
- * multiset of segments ordered by slope; k_t contributes its segments (segmentOrder.ts) and moves
+ * multiset of segments ordered by slope; k_t contributes its segments (liveSegments.ts) and moves
  * the left end by -Y (every period starts from "sell all it can"). Restricting to the window cuts
  * the left end (the steepest segments are forced: taken) and the right end (the flattest segments
  * are dropped). At the end the floor max(socMin, socEndMin) forces more, and then every segment
@@ -26,7 +26,8 @@ import type { StoredDay } from './storedDay.js';
  * work from the ends, so its charge segment is touched only after its discharge segment is fully
  * taken (discharge 0) or the charge segment was dropped first (charge 0).
  *
- * The segments live in a bitset over their ranks: insert O(1), steepest and flattest in O(T / 32).
+ * The open segments live in a short sorted array (liveSegments.ts): they hold at most the window's
+ * width of energy, so an insert moves few of them, and the ends are read in O(1).
  */
 export const SWEEP_OK = 0;
 export const SWEEP_START_UNREACHABLE = 1;
@@ -66,9 +67,7 @@ export class SweepWorkspace {
   readonly remaining: Float64Array;
   readonly taken: Float64Array;
   readonly dropped: Float64Array;
-  /** Bitset over ranks; `words` of it are in use for the current day. */
-  readonly bits: Int32Array;
-  words = 0;
+  readonly live: LiveSegments;
 
   constructor(capacity: number) {
     const n = 3 * capacity;
@@ -76,7 +75,7 @@ export class SweepWorkspace {
     this.remaining = new Float64Array(n);
     this.taken = new Float64Array(n);
     this.dropped = new Float64Array(n);
-    this.bits = new Int32Array((n + 31) >>> 5);
+    this.live = new LiveSegments(capacity);
   }
 }
 
@@ -86,34 +85,33 @@ export function edgeTolerance(day: StoredDay): number {
 }
 
 /** Solves at multiplier mu with per-period modes; writes the solution into `out`. */
-export function sweepLine(day: StoredDay, ranking: SegmentRanking, modes: Int8Array, ws: SweepWorkspace, out: LineSolution): SweepStatus {
+export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: SweepWorkspace, out: LineSolution): SweepStatus {
   const X = day.chargeStepMwh;
   const Y = day.dischargeStepMwh;
-  const mu = ranking.mu;
   const p = day.chargePrice;
   const q = day.dischargePrice;
   const { socMinMwh: low, socMaxMwh: high } = day;
   const eps = edgeTolerance(day);
-  ws.words = (3 * day.periods + 31) >>> 5;
-  ws.bits.fill(0, 0, ws.words);
+  ws.live.clear();
   let lo = day.socStartMwh;
   let hi = lo;
   for (let t = 0; t < day.periods; t++) {
     const mode = modes[t]!;
     const id = 3 * t;
+    const qm = q[t]! - mu;
     if (mode === CHARGE_ONLY) {
-      insert(ws, ranking, id + CHARGE, X);
+      insert(ws, id + CHARGE, X, -p[t]!);
       hi += X;
     } else if (mode === DISCHARGE_ONLY) {
-      insert(ws, ranking, id + DISCHARGE, Y);
+      insert(ws, id + DISCHARGE, Y, -qm);
       lo -= Y;
-    } else if (day.arbitrage[t] === 1 && q[t]! - mu > p[t]!) {
-      insert(ws, ranking, id + CHORD, X + Y);
+    } else if (day.arbitrage[t] === 1 && qm > p[t]!) {
+      insert(ws, id + CHORD, X + Y, -(p[t]! * X + qm * Y) / (X + Y));
       lo -= Y;
       hi += X;
     } else {
-      insert(ws, ranking, id + DISCHARGE, Y);
-      insert(ws, ranking, id + CHARGE, X);
+      insert(ws, id + DISCHARGE, Y, -qm);
+      insert(ws, id + CHARGE, X, -p[t]!);
       lo -= Y;
       hi += X;
     }
@@ -126,95 +124,76 @@ export function sweepLine(day: StoredDay, ranking: SegmentRanking, modes: Int8Ar
       hi = low;
     }
     if (lo < low) {
-      takeSteepest(ws, ranking, low - lo);
+      takeSteepest(ws, low - lo);
       lo = low;
     }
     if (hi > high) {
-      dropFlattest(ws, ranking, hi - high);
+      dropFlattest(ws, hi - high);
       hi = high;
     }
   }
   const floor = day.socEndFloorMwh;
   if (hi < floor - eps) return SWEEP_END_UNREACHABLE;
-  if (lo < floor) takeSteepest(ws, ranking, floor - lo);
-  takeWhileProfitable(ws, ranking, -day.terminalValuePerMwh);
+  if (lo < floor) takeSteepest(ws, floor - lo);
+  takeWhileProfitable(ws, -day.terminalValuePerMwh);
   readSolution(day, modes, mu, ws, out);
   return SWEEP_OK;
 }
 
-function insert(ws: SweepWorkspace, ranking: SegmentRanking, id: number, length: number): void {
+function insert(ws: SweepWorkspace, id: number, length: number, slope: number): void {
   ws.length[id] = length;
   ws.remaining[id] = length;
   ws.taken[id] = 0;
   ws.dropped[id] = 0;
-  if (length <= 0) return;
-  const r = ranking.rankOf[id]!;
-  ws.bits[r >>> 5] = ws.bits[r >>> 5]! | (1 << (r & 31));
-}
-
-function steepestRank(bits: Int32Array, words: number): number {
-  for (let w = words - 1; w >= 0; w--) {
-    const b = bits[w]!;
-    if (b !== 0) return (w << 5) | (31 - Math.clz32(b));
-  }
-  return -1;
-}
-
-function flattestRank(bits: Int32Array, words: number): number {
-  for (let w = 0; w < words; w++) {
-    const b = bits[w]!;
-    if (b !== 0) return (w << 5) | (31 - Math.clz32(b & -b));
-  }
-  return -1;
-}
-
-function clearRank(bits: Int32Array, r: number): void {
-  bits[r >>> 5] = bits[r >>> 5]! & ~(1 << (r & 31));
+  if (length > 0) ws.live.insert(id, slope);
 }
 
 /** Takes `amount` MWh from the steepest segments (they are forced into the solution). */
-function takeSteepest(ws: SweepWorkspace, ranking: SegmentRanking, amount: number): void {
-  consume(ws, ranking, amount, true);
-}
-
-/** Drops `amount` MWh from the flattest segments (the window cannot hold them). */
-function dropFlattest(ws: SweepWorkspace, ranking: SegmentRanking, amount: number): void {
-  consume(ws, ranking, amount, false);
-}
-
-/** Removes `amount` MWh from one end of the order, booking it as taken (steepest) or dropped. */
-function consume(ws: SweepWorkspace, ranking: SegmentRanking, amount: number, steepest: boolean): void {
-  const booked = steepest ? ws.taken : ws.dropped;
-  const other = steepest ? ws.dropped : ws.taken;
+function takeSteepest(ws: SweepWorkspace, amount: number): void {
+  const live = ws.live;
   let left = amount;
-  while (left > 0) {
-    const r = steepest ? steepestRank(ws.bits, ws.words) : flattestRank(ws.bits, ws.words);
-    if (r < 0) return;
-    const id = ranking.segmentAt[r]!;
+  while (left > 0 && live.size > 0) {
+    const id = live.steepest();
     const rest = ws.remaining[id]!;
-    if (rest <= left) {
-      left -= rest;
-      booked[id] = ws.length[id]! - other[id]!;
-      ws.remaining[id] = 0;
-      clearRank(ws.bits, r);
-    } else {
-      booked[id] = booked[id]! + left;
+    if (rest > left) {
+      ws.taken[id] = ws.taken[id]! + left;
       ws.remaining[id] = rest - left;
       return;
     }
+    left -= rest;
+    ws.taken[id] = ws.length[id]! - ws.dropped[id]!;
+    ws.remaining[id] = 0;
+    live.removeSteepest();
   }
 }
 
-/** Takes every remaining segment steeper than `threshold` (= -V: keeping a MWh is worth V). */
-function takeWhileProfitable(ws: SweepWorkspace, ranking: SegmentRanking, threshold: number): void {
-  for (;;) {
-    const r = steepestRank(ws.bits, ws.words);
-    if (r < 0) return;
-    const id = ranking.segmentAt[r]!;
-    if (!(ranking.slope[id]! > threshold)) return;
+/** Drops `amount` MWh from the flattest segments (the window cannot hold them). */
+function dropFlattest(ws: SweepWorkspace, amount: number): void {
+  const live = ws.live;
+  let left = amount;
+  while (left > 0 && live.size > 0) {
+    const id = live.flattest();
+    const rest = ws.remaining[id]!;
+    if (rest > left) {
+      ws.dropped[id] = ws.dropped[id]! + left;
+      ws.remaining[id] = rest - left;
+      return;
+    }
+    left -= rest;
+    ws.dropped[id] = ws.length[id]! - ws.taken[id]!;
+    ws.remaining[id] = 0;
+    live.removeFlattest();
+  }
+}
+
+/** Takes every open segment steeper than `threshold` (= -V: keeping a MWh is worth V). */
+function takeWhileProfitable(ws: SweepWorkspace, threshold: number): void {
+  const live = ws.live;
+  while (live.size > 0 && live.steepestSlope() > threshold) {
+    const id = live.steepest();
     ws.taken[id] = ws.length[id]! - ws.dropped[id]!;
     ws.remaining[id] = 0;
-    clearRank(ws.bits, r);
+    live.removeSteepest();
   }
 }
 
