@@ -4,7 +4,7 @@ import { fastSolverGap } from './coversDay.js';
 import { CAP_UNREACHABLE } from './cycleCapDual.js';
 import { DayContext, DpSolver, SweepSolver } from './dayContext.js';
 import { LineSolution, SWEEP_START_UNREACHABLE } from './lineSweep.js';
-import { toStoredDay, type StoredDay } from './storedDay.js';
+import { toStoredDay, type StoredDay, type StoredDayArrays } from './storedDay.js';
 
 /** Options of solveDayFast, merged over FAST_SOLVER_DEFAULTS. */
 export interface FastSolverOptions {
@@ -57,8 +57,8 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
   if (gap !== null) return { status: 'not-covered', reason: gap };
   const b = problem.battery;
   if (b.socMinMwh > b.socMaxMwh) return { status: 'infeasible', reason: `the state-of-charge window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh is empty` };
-  const day = toStoredDay(problem);
-  const engine = engineFor(day.periods, settings.maxBreakpoints);
+  const engine = engineFor(problem.buyPricePerMwh.length, settings.maxBreakpoints);
+  const day = toStoredDay(problem, engine.arrays);
   const { ctx, best } = engine;
   const programFirst = day.arbitrageCount > 0 && programSuits(day);
   const attempts = programFirst ? ([engine.program, engine.sweep] as const) : ([engine.sweep, engine.program] as const);
@@ -125,6 +125,7 @@ interface Engine {
   readonly program: DpSolver;
   readonly ctx: DayContext;
   readonly best: LineSolution;
+  readonly arrays: StoredDayArrays;
 }
 
 let cached: Engine | null = null;
@@ -139,6 +140,7 @@ function engineFor(periods: number, maxBreakpoints: number): Engine {
       program: new DpSolver(capacity, maxBreakpoints),
       ctx: new DayContext(capacity),
       best: new LineSolution(capacity),
+      arrays: { chargePrice: new Float64Array(capacity), dischargePrice: new Float64Array(capacity), arbitrage: new Uint8Array(capacity) },
     };
   }
   return cached;

@@ -40,7 +40,7 @@ export interface StoredDay {
   readonly chargeFullMwh: number;
   /** dt dischargeMw / eta_d [MWh]: a full-power discharge, before the step bound. */
   readonly dischargeFullMwh: number;
-  /** p_t [currency/MWh stored]. */
+  /** p_t [currency/MWh stored] (see toStoredDay for the array's length). */
   readonly chargePrice: Float64Array;
   /** q_t [currency/MWh stored]. */
   readonly dischargePrice: Float64Array;
@@ -58,7 +58,19 @@ export interface StoredDay {
   readonly dischargeCapMwh: number;
 }
 
-export function toStoredDay(problem: DayProblem): StoredDay {
+/** Arrays a caller lends toStoredDay to fill instead of allocating (each at least `periods` long). */
+export interface StoredDayArrays {
+  readonly chargePrice: Float64Array;
+  readonly dischargePrice: Float64Array;
+  readonly arbitrage: Uint8Array;
+}
+
+/**
+ * The day in stored units. With `arrays` the price and arbitrage arrays are those (longer than the
+ * day when lent by a solver sized for longer days; read them up to `periods`): the solver reuses one
+ * set from day to day, as allocating typed arrays costs more than filling them.
+ */
+export function toStoredDay(problem: DayProblem, arrays?: StoredDayArrays): StoredDay {
   const { battery: b, periodHours: dt } = problem;
   const periods = problem.buyPricePerMwh.length;
   const chargeFullMwh = b.chargeEfficiency * dt * b.chargeMw;
@@ -67,9 +79,9 @@ export function toStoredDay(problem: DayProblem): StoredDay {
   const width = inside ? b.socMaxMwh - b.socMinMwh : Infinity;
   const chargeStepMwh = Math.min(chargeFullMwh, width);
   const dischargeStepMwh = Math.min(dischargeFullMwh, width);
-  const chargePrice = new Float64Array(periods);
-  const dischargePrice = new Float64Array(periods);
-  const arbitrage = new Uint8Array(periods);
+  const chargePrice = arrays?.chargePrice ?? new Float64Array(periods);
+  const dischargePrice = arrays?.dischargePrice ?? new Float64Array(periods);
+  const arbitrage = arrays?.arbitrage ?? new Uint8Array(periods);
   let arbitrageCount = 0;
   const both = chargeStepMwh > 0 && dischargeStepMwh > 0;
   for (let t = 0; t < periods; t++) {
@@ -78,6 +90,8 @@ export function toStoredDay(problem: DayProblem): StoredDay {
     if (both && dischargePrice[t]! > chargePrice[t]!) {
       arbitrage[t] = 1;
       arbitrageCount++;
+    } else {
+      arbitrage[t] = 0;
     }
   }
   const cap = b.maxDischargeMwhPerDay;

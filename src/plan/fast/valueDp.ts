@@ -33,6 +33,8 @@ const EXACT_BOUNDS_FROM = 160;
 
 export class ValueDp {
   private readonly series: PwlSeries;
+  /** J_t of the concave tail (tailValues), stage t at index t. */
+  private readonly tail: PwlSeries;
   private readonly f = new Pwl();
   private readonly g = new Pwl();
   private readonly h = new Pwl();
@@ -50,6 +52,7 @@ export class ValueDp {
     public maxBreakpoints: number,
   ) {
     this.series = new PwlSeries(capacity + 1, 16);
+    this.tail = new PwlSeries(capacity + 1, 16);
     this.bounds = new ValueBounds(capacity);
   }
 
@@ -69,6 +72,10 @@ export class ValueDp {
     const Y = day.dischargeStepMwh;
     const eps = edgeTolerance(day);
     const { g, h, k, bounds } = this;
+    // Periods after the last convex one form a concave problem: solved backwards (tailValues), so
+    // the general forward program runs only up to stage `join`.
+    const join = lastConvexPeriod(day, mu, modes) + 1;
+    if (!this.tailValues(mu, modes, join, eps)) return SWEEP_END_UNREACHABLE;
     let f = this.f;
     let spare = this.spare;
     // States whose best possible value stays below a feasible path's value are simplified away;
@@ -79,7 +86,7 @@ export class ValueDp {
     f.push(day.socStartMwh, 0);
     this.series.clear();
     this.series.store(0, f);
-    for (let t = 0; t < day.periods; t++) {
+    for (let t = 0; t < join; t++) {
       const p = day.chargePrice[t]!;
       const qm = day.dischargePrice[t]! - mu;
       const mode = modes[t]!;
@@ -113,24 +120,56 @@ export class ValueDp {
       if (f.n > this.maxBreakpoints) return SWEEP_TOO_LARGE;
       this.series.store(t + 1, f);
     }
-    const floor = day.socEndFloorMwh;
-    const last = f.n - 1;
-    if (f.xs[last]! < floor - eps) return SWEEP_END_UNREACHABLE;
-    const V = day.terminalValuePerMwh;
-    const from = Math.min(Math.max(floor, f.xs[0]!), f.xs[last]!);
-    let bestS = from;
-    let best = f.at(from) + V * from;
-    for (let i = 0; i <= last; i++) {
-      const s = f.xs[i]!;
-      if (s <= from) continue;
-      const value = f.vs[i]! + V * s;
-      if (value > best) {
-        best = value;
-        bestS = s;
-      }
-    }
-    this.recover(bestS, mu, modes, out);
+    const joinState = bestJoin(f, this.tail, join, eps);
+    if (Number.isNaN(joinState)) return SWEEP_END_UNREACHABLE;
+    this.recover(join, joinState, mu, modes, out);
+    this.recoverTail(join, joinState, mu, modes, out);
     return SWEEP_OK;
+  }
+
+  /**
+   * J_t for t = T down to `join`: the best value of periods t+1..T from s_t = s, the end-of-day
+   * floor and terminal value included. No period there is convex, so every J_t is concave:
+   * J_T(s) = V s on [floor, socMax], J_{t-1}(s) = max_w k_t(w) + J_t(s + w) on the window, by
+   * slope merges. False when no state of the window reaches the floor.
+   */
+  private tailValues(mu: number, modes: Int8Array, join: number, eps: number): boolean {
+    const day = this.day;
+    const X = day.chargeStepMwh;
+    const Y = day.dischargeStepMwh;
+    const T = day.periods;
+    const floor = day.socEndFloorMwh;
+    if (floor > day.socMaxMwh + eps) return false;
+    const { g, h } = this;
+    const j = this.k;
+    j.clear();
+    const V = day.terminalValuePerMwh;
+    const end = Math.min(floor, day.socMaxMwh);
+    j.push(end, V * end);
+    if (end < day.socMaxMwh) j.push(day.socMaxMwh, V * day.socMaxMwh);
+    this.tail.clear();
+    this.tail.store(T, j);
+    for (let t = T - 1; t >= join; t--) {
+      const p = day.chargePrice[t]!;
+      const qm = day.dischargePrice[t]! - mu;
+      const mode = modes[t]!;
+      // With w' = -w: J_{t-1}(s) = max_{w'} J_t(s - w') + k_t(-w').
+      let next: Pwl;
+      if (mode === CHARGE_ONLY) {
+        slide(j, -X, 0, p, g);
+        next = g;
+      } else if (mode === DISCHARGE_ONLY) {
+        slide(j, 0, Y, qm, g);
+        next = g;
+      } else {
+        slide(j, 0, Y, qm, g);
+        slide(g, -X, 0, p, h);
+        next = h;
+      }
+      if (!clip(next, day.socMinMwh, day.socMaxMwh, eps, j)) return false;
+      this.tail.store(t, j);
+    }
+    return true;
   }
 
   /** The lower bound less a rounding margin, or -Infinity when there is none (no pruning). */
@@ -141,17 +180,17 @@ export class ValueDp {
     return lower === -Infinity ? -Infinity : lower - 1e-10 * Math.max(1, Math.abs(lower));
   }
 
-  /** Backward pass: the best predecessor of each state, read off as one signed move per period. */
-  private recover(endState: number, mu: number, modes: Int8Array, out: LineSolution): void {
+  /** Backward pass from stage `join`: the best predecessor of each state, one signed move per period. */
+  private recover(join: number, joinState: number, mu: number, modes: Int8Array, out: LineSolution): void {
     const day = this.day;
     const X = day.chargeStepMwh;
     const Y = day.dischargeStepMwh;
     const xs = this.series.xs;
     const vs = this.series.vs;
-    let s = endState;
-    let value = day.terminalValuePerMwh * s;
+    let s = joinState;
+    let value = 0;
     let discharged = 0;
-    for (let t = day.periods - 1; t >= 0; t--) {
+    for (let t = join - 1; t >= 0; t--) {
       const p = day.chargePrice[t]!;
       const qm = day.dischargePrice[t]! - mu;
       const mode = modes[t]!;
@@ -185,6 +224,89 @@ export class ValueDp {
     out.value = value;
     out.discharged = discharged;
   }
+
+  /**
+   * Forward pass from stage `join` (adds to out.value and out.discharged from recover): s_t
+   * maximises k_t(s_t - s_{t-1}) + J_t(s_t), found among the ends of the reachable range, the kink
+   * s_t = s_{t-1} and the breakpoints of J_t inside; the end state's terminal value closes the sum.
+   */
+  private recoverTail(join: number, joinState: number, mu: number, modes: Int8Array, out: LineSolution): void {
+    const day = this.day;
+    const X = day.chargeStepMwh;
+    const Y = day.dischargeStepMwh;
+    const xs = this.tail.xs;
+    const vs = this.tail.vs;
+    let s = joinState;
+    let value = out.value;
+    let discharged = out.discharged;
+    for (let t = join; t < day.periods; t++) {
+      const p = day.chargePrice[t]!;
+      const qm = day.dischargePrice[t]! - mu;
+      const mode = modes[t]!;
+      const from = this.tail.start[t + 1]!;
+      const n = this.tail.count[t + 1]!;
+      const lo = Math.max(xs[from]!, s - (mode === CHARGE_ONLY ? 0 : Y));
+      const hi = Math.min(xs[from + n - 1]!, s + (mode === DISCHARGE_ONLY ? 0 : X));
+      let bestU = lo;
+      let best = -Infinity;
+      for (let c = -3; c < n; c++) {
+        const u = c === -3 ? lo : c === -2 ? hi : c === -1 ? s : xs[from + c]!;
+        if (c >= -1 && !(u > lo && u < hi)) continue;
+        const v = valueAt(xs, vs, from, n, u) + (u >= s ? -p * (u - s) : qm * (s - u));
+        if (v > best) {
+          best = v;
+          bestU = u;
+        }
+      }
+      const w = bestU - s;
+      const x = w > 0 ? w : 0;
+      const y = w < 0 ? -w : 0;
+      out.x[t] = x;
+      out.y[t] = y;
+      value += day.dischargePrice[t]! * y - p * x;
+      discharged += y;
+      s = bestU;
+    }
+    out.value = value + day.terminalValuePerMwh * s;
+    out.discharged = discharged;
+  }
+}
+
+/** The last period that may take either mode and whose value k_t is convex (q_t - mu > p_t), or -1. */
+function lastConvexPeriod(day: StoredDay, mu: number, modes: Int8Array): number {
+  for (let t = day.periods - 1; t >= 0; t--) {
+    if (modes[t] === 0 && day.arbitrage[t] === 1 && day.dischargePrice[t]! - mu > day.chargePrice[t]!) return t;
+  }
+  return -1;
+}
+
+/**
+ * The state at stage `join` that maximises F(s) + J(s), J the stage's tail value (concave): a
+ * breakpoint of either, on the common domain (their ends closer than `eps` count as meeting), or
+ * NaN when the domains do not meet.
+ */
+function bestJoin(f: Pwl, tail: PwlSeries, join: number, eps: number): number {
+  const from = tail.start[join]!;
+  const n = tail.count[join]!;
+  const { xs, vs } = tail;
+  const lo = Math.max(f.xs[0]!, xs[from]!);
+  const hi = Math.min(f.xs[f.n - 1]!, xs[from + n - 1]!);
+  if (lo > hi + eps) return Number.NaN;
+  const top = Math.max(lo, hi);
+  let bestS = lo;
+  let best = f.at(lo) + valueAt(xs, vs, from, n, lo);
+  const consider = (s: number): void => {
+    if (!(s > lo && s <= top)) return;
+    const v = f.at(s) + valueAt(xs, vs, from, n, s);
+    if (v > best) {
+      best = v;
+      bestS = s;
+    }
+  };
+  consider(top);
+  for (let i = 0; i < f.n; i++) consider(f.xs[i]!);
+  for (let i = 0; i < n; i++) consider(xs[from + i]!);
+  return bestS;
 }
 
 function allFree(modes: Int8Array, periods: number): boolean {
