@@ -3,6 +3,8 @@
  * (lineSweep.ts), kept sorted by slope in a double-ended array: the sweep inserts a period's
  * segments and removes segments only at the two ends (the steepest are taken, the flattest dropped).
  *
+ * The sweep inserts in place (lineSweep.ts keeps the two ends in locals, which measured faster).
+ *
  * Segment id 3t + kind, with the slope it adds (stored units, multiplier mu on discharged energy):
  *   DISCHARGE: length Y, slope -(q_t - mu)   (each MWh not sold forgoes q_t - mu)
  *   CHARGE:    length X, slope -p_t          (each MWh bought costs p_t)
@@ -21,10 +23,11 @@ export const CHARGE = 1;
 export const CHORD = 2;
 
 export class LiveSegments {
-  /** Segment ids and slopes in slots [head, tail), slope ascending. */
-  private readonly ids: Int32Array;
-  private readonly slopes: Float64Array;
+  /** Segment ids and slopes in slots [head, tail), slope ascending: the flattest at head, the steepest at tail - 1. */
+  readonly ids: Int32Array;
+  readonly slopes: Float64Array;
   private readonly middle: number;
+  /** The sweep removes segments by moving these two ends (head++ drops the flattest, tail-- takes the steepest). */
   head = 0;
   tail = 0;
 
@@ -39,63 +42,11 @@ export class LiveSegments {
   clear(): void {
     this.head = this.tail = this.middle;
   }
+}
 
-  get size(): number {
-    return this.tail - this.head;
-  }
-
-  /** Inserts segment `id` of slope `slope` in order, shifting the shorter side. */
-  insert(id: number, slope: number): void {
-    const ids = this.ids;
-    const slopes = this.slopes;
-    let lo = this.head;
-    let hi = this.tail;
-    // First slot whose segment ranks above the new one.
-    while (lo < hi) {
-      const mid = (lo + hi) >>> 1;
-      const s = slopes[mid]!;
-      if (s < slope || (s === slope && tieRank(ids[mid]!) < tieRank(id))) lo = mid + 1;
-      else hi = mid;
-    }
-    if (lo - this.head < this.tail - lo) {
-      for (let k = this.head; k < lo; k++) {
-        ids[k - 1] = ids[k]!;
-        slopes[k - 1] = slopes[k]!;
-      }
-      this.head--;
-      lo--;
-    } else {
-      for (let k = this.tail; k > lo; k--) {
-        ids[k] = ids[k - 1]!;
-        slopes[k] = slopes[k - 1]!;
-      }
-      this.tail++;
-    }
-    ids[lo] = id;
-    slopes[lo] = slope;
-  }
-
-  /** The steepest open segment (the caller checks size > 0). */
-  steepest(): number {
-    return this.ids[this.tail - 1]!;
-  }
-
-  steepestSlope(): number {
-    return this.slopes[this.tail - 1]!;
-  }
-
-  /** The flattest open segment (the caller checks size > 0). */
-  flattest(): number {
-    return this.ids[this.head]!;
-  }
-
-  removeSteepest(): void {
-    this.tail--;
-  }
-
-  removeFlattest(): void {
-    this.head++;
-  }
+/** Among segments of equal slope: whether segment a ranks below segment b. */
+export function ranksBelow(a: number, b: number): boolean {
+  return tieRank(a) < tieRank(b);
 }
 
 /** Order among equal slopes: chord, charge, discharge, then by period. */

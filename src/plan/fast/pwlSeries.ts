@@ -35,8 +35,12 @@ export class PwlSeries {
       this.xs = xs;
       this.vs = vs;
     }
-    this.xs.set(f.xs.subarray(0, f.n), used);
-    this.vs.set(f.vs.subarray(0, f.n), used);
+    // A plain loop: subarray() would allocate two views per stage.
+    const { xs, vs } = this;
+    for (let i = 0; i < f.n; i++) {
+      xs[used + i] = f.xs[i]!;
+      vs[used + i] = f.vs[i]!;
+    }
     this.start[t] = used;
     this.count[t] = f.n;
     this.used = used + f.n;
