@@ -148,9 +148,12 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
       taken[id] = 0;
       dropped[id] = 0;
       if (!(size > 0)) continue;
-      // Binary search for the first open segment ranking above this one, then shift the shorter side.
+      // The first open segment ranking above this one: often an end (a new period's segment is
+      // frequently the steepest or the flattest), else by binary search; then shift the shorter side.
       let a = head;
       let b = tail;
+      if (tail === head || slope > slopes[tail - 1]!) a = b = tail;
+      else if (slope < slopes[head]!) b = head;
       while (a < b) {
         const mid = (a + b) >>> 1;
         const s = slopes[mid]!;
