@@ -277,3 +277,62 @@ export function slide(f: Pwl, a: number, b: number, sigma: number, out: Pwl): vo
   if (isConcave(f)) concaveSlide(f, a, b, sigma, out);
   else slideMax(f, a, b, sigma, out);
 }
+
+/** Breakpoints of a concave step before its restriction (module scratch, grown on demand). */
+let stepXs = new Float64Array(64);
+let stepVs = new Float64Array(64);
+
+/**
+ * out = (f (+) kernel) restricted to [lo, hi], for a concave f and a concave kernel of two pieces:
+ * slope s1 on [a, a + len1], then slope s2 <= s1 on the next len2 (kernel value s1 a at a). This is
+ * concaveSlide for each piece and then clip, in one pass: f's pieces steeper than s1 are shifted by
+ * (a, s1 a), those between s1 and s2 by the end of the first piece, the rest by the end of the
+ * second (the slope merge of concaveSlide). False when the result misses [lo, hi] by more than eps.
+ */
+export function concaveStep(f: Pwl, a: number, len1: number, s1: number, len2: number, s2: number, lo: number, hi: number, eps: number, out: Pwl): boolean {
+  const xs = f.xs;
+  const vs = f.vs;
+  const n = f.n;
+  let k1 = n - 1;
+  let k2 = n - 1;
+  for (let i = 0; i < n - 1; i++) {
+    const slope = (vs[i + 1]! - vs[i]!) / (xs[i + 1]! - xs[i]!);
+    if (k1 === n - 1 && slope < s1) k1 = i;
+    if (slope < s2) {
+      k2 = i;
+      break;
+    }
+  }
+  if (stepXs.length < n + 2) {
+    stepXs = new Float64Array(2 * (n + 2));
+    stepVs = new Float64Array(2 * (n + 2));
+  }
+  const px = stepXs;
+  const pv = stepVs;
+  const shiftX2 = a + len1;
+  const shiftV1 = s1 * a;
+  const shiftV2 = shiftV1 + s1 * len1;
+  const shiftX3 = shiftX2 + len2;
+  const shiftV3 = shiftV2 + s2 * len2;
+  let m = 0;
+  for (let i = 0; i <= k1; i++, m++) {
+    px[m] = xs[i]! + a;
+    pv[m] = vs[i]! + shiftV1;
+  }
+  for (let i = k1; i <= k2; i++, m++) {
+    px[m] = xs[i]! + shiftX2;
+    pv[m] = vs[i]! + shiftV2;
+  }
+  for (let i = k2; i < n; i++, m++) {
+    px[m] = xs[i]! + shiftX3;
+    pv[m] = vs[i]! + shiftV3;
+  }
+  out.clear();
+  if (px[0]! > hi + eps || px[m - 1]! < lo - eps) return false;
+  const from = Math.min(Math.max(lo, px[0]!), hi);
+  const to = Math.max(Math.min(hi, px[m - 1]!), from);
+  out.push(from, valueAt(px, pv, 0, m, from));
+  for (let j = 0; j < m; j++) if (px[j]! > from && px[j]! < to) out.push(px[j]!, pv[j]!);
+  out.push(to, valueAt(px, pv, 0, m, to));
+  return true;
+}

@@ -1,5 +1,5 @@
 import { CHARGE_ONLY, DISCHARGE_ONLY, edgeTolerance, LineSolution, SWEEP_END_UNREACHABLE, SWEEP_OK, SWEEP_START_UNREACHABLE, SWEEP_TOO_LARGE, type SweepStatus } from './lineSweep.js';
-import { clip, maxOf, Pwl, slide, valueAt } from './pwl.js';
+import { clip, concaveStep, isConcave, maxOf, Pwl, slide, slideMax, valueAt } from './pwl.js';
 import { PwlSeries } from './pwlSeries.js';
 import type { StoredDay } from './storedDay.js';
 import { pruneDead, ValueBounds } from './valueBounds.js';
@@ -71,7 +71,8 @@ export class ValueDp {
     const X = day.chargeStepMwh;
     const Y = day.dischargeStepMwh;
     const eps = edgeTolerance(day);
-    const { g, h, k, bounds } = this;
+    const { h, k, bounds } = this;
+    let g = this.g;
     // Periods after the last convex one form a concave problem: solved backwards (tailValues), so
     // the general forward program runs only up to stage `join`.
     const join = lastConvexPeriod(day, mu, modes) + 1;
@@ -90,7 +91,7 @@ export class ValueDp {
       const p = day.chargePrice[t]!;
       const qm = day.dischargePrice[t]! - mu;
       const mode = modes[t]!;
-      let next: Pwl;
+      let next: Pwl | null;
       if (mode === CHARGE_ONLY) {
         slide(f, 0, X, -p, g);
         next = g;
@@ -102,12 +103,17 @@ export class ValueDp {
         slide(f, -Y, 0, -qm, h);
         maxOf(g, h, k);
         next = k;
+      } else if (isConcave(f)) {
+        // Both pieces and the window in one pass (the common case before the first convex period).
+        if (!concaveStep(f, -Y, Y, -qm, X, -p, day.socMinMwh, day.socMaxMwh, eps, g)) return SWEEP_START_UNREACHABLE;
+        [f, g] = [g, f];
+        next = null;
       } else {
-        slide(f, -Y, 0, -qm, g);
-        slide(g, 0, X, -p, h);
+        slideMax(f, -Y, 0, -qm, g);
+        slideMax(g, 0, X, -p, h);
         next = h;
       }
-      if (!clip(next, day.socMinMwh, day.socMaxMwh, eps, f)) return SWEEP_START_UNREACHABLE;
+      if (next !== null && !clip(next, day.socMinMwh, day.socMaxMwh, eps, f)) return SWEEP_START_UNREACHABLE;
       if (f.n > PRUNE_FROM) {
         if (Number.isNaN(threshold)) threshold = this.pruningThreshold(mu, modes, eps, false);
         if (threshold > -Infinity && pruneDead(f, bounds, t + 1, threshold, spare)) [f, spare] = [spare, f];
@@ -140,8 +146,9 @@ export class ValueDp {
     const T = day.periods;
     const floor = day.socEndFloorMwh;
     if (floor > day.socMaxMwh + eps) return false;
-    const { g, h } = this;
-    const j = this.k;
+    const h = this.h;
+    let g = this.g;
+    let j = this.k;
     j.clear();
     const V = day.terminalValuePerMwh;
     const end = Math.min(floor, day.socMaxMwh);
@@ -154,19 +161,23 @@ export class ValueDp {
       const qm = day.dischargePrice[t]! - mu;
       const mode = modes[t]!;
       // With w' = -w: J_{t-1}(s) = max_{w'} J_t(s - w') + k_t(-w').
-      let next: Pwl;
+      let next: Pwl | null;
       if (mode === CHARGE_ONLY) {
         slide(j, -X, 0, p, g);
         next = g;
       } else if (mode === DISCHARGE_ONLY) {
         slide(j, 0, Y, qm, g);
         next = g;
+      } else if (isConcave(j)) {
+        if (!concaveStep(j, -X, X, p, Y, qm, day.socMinMwh, day.socMaxMwh, eps, g)) return false;
+        [j, g] = [g, j];
+        next = null;
       } else {
-        slide(j, 0, Y, qm, g);
-        slide(g, -X, 0, p, h);
+        slideMax(j, 0, Y, qm, g);
+        slideMax(g, -X, 0, p, h);
         next = h;
       }
-      if (!clip(next, day.socMinMwh, day.socMaxMwh, eps, j)) return false;
+      if (next !== null && !clip(next, day.socMinMwh, day.socMaxMwh, eps, j)) return false;
       this.tail.store(t, j);
     }
     return true;
