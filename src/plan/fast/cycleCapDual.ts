@@ -1,7 +1,7 @@
 import type { DayContext } from './dayContext.js';
 import type { StoredDay } from './storedDay.js';
 import { LineSolution, SWEEP_OK, type SweepStatus } from './lineSweep.js';
-import { netOutsideArbitrage, revalue } from './netFlows.js';
+import { netOutsideArbitrageAndRevalue } from './netFlows.js';
 
 /**
  * The day's relaxation (arbitrage periods on their chord unless fixed) with the cycle cap
@@ -114,6 +114,5 @@ function mix(a: LineSolution, b: LineSolution, theta: number, periods: number, o
 
 function finish(ctx: DayContext, sol: LineSolution, out: LineSolution): void {
   if (sol !== out) out.copyFrom(sol);
-  netOutsideArbitrage(ctx.day, out);
-  revalue(ctx.day, out);
+  netOutsideArbitrageAndRevalue(ctx.day, out);
 }

@@ -65,11 +65,8 @@ export class DayContext {
   readonly netted: LineSolution;
   /** The root's modes (all free); the branching reuses it for one child. */
   readonly rootModes: Int8Array;
-  /**
-   * A multiplier at which every discharge segment is steeper than every charge and chord segment
-   * and than -V: the solution then discharges as little as the window allows.
-   */
-  muHigh = 0;
+  /** muHigh, computed on first use for the loaded day (NaN until then). */
+  private highMultiplier = Number.NaN;
   day!: StoredDay;
   solver!: MuSolver;
 
@@ -85,13 +82,25 @@ export class DayContext {
   load(day: StoredDay, solver: MuSolver): this {
     this.day = day;
     this.solver = solver;
-    let maxQ = -Infinity;
-    let minP = day.terminalValuePerMwh;
-    for (let t = 0; t < day.periods; t++) {
-      maxQ = Math.max(maxQ, day.dischargePrice[t]!);
-      minP = Math.min(minP, day.chargePrice[t]!);
-    }
-    this.muHigh = 2 * Math.max(0, maxQ - minP) + 1;
+    this.highMultiplier = Number.NaN;
     return this;
+  }
+
+  /**
+   * A multiplier at which every discharge segment is steeper than every charge and chord segment
+   * and than -V: the solution then discharges as little as the window allows.
+   */
+  get muHigh(): number {
+    if (Number.isNaN(this.highMultiplier)) {
+      const day = this.day;
+      let maxQ = -Infinity;
+      let minP = day.terminalValuePerMwh;
+      for (let t = 0; t < day.periods; t++) {
+        maxQ = Math.max(maxQ, day.dischargePrice[t]!);
+        minP = Math.min(minP, day.chargePrice[t]!);
+      }
+      this.highMultiplier = 2 * Math.max(0, maxQ - minP) + 1;
+    }
+    return this.highMultiplier;
   }
 }

@@ -19,9 +19,21 @@ export function netPeriod(sol: LineSolution, t: number): void {
   }
 }
 
-/** Nets every period that is not an arbitrage period (no loss, see netPeriod). */
-export function netOutsideArbitrage(day: StoredDay, sol: LineSolution): void {
-  for (let t = 0; t < day.periods; t++) if (day.arbitrage[t] === 0) netPeriod(sol, t);
+/** Nets every period that is not an arbitrage period (no loss, see netPeriod), then revalues (one pass). */
+export function netOutsideArbitrageAndRevalue(day: StoredDay, sol: LineSolution): void {
+  let value = 0;
+  let discharged = 0;
+  let soc = day.socStartMwh;
+  for (let t = 0; t < day.periods; t++) {
+    if (day.arbitrage[t] === 0) netPeriod(sol, t);
+    const x = sol.x[t]!;
+    const y = sol.y[t]!;
+    value += day.dischargePrice[t]! * y - day.chargePrice[t]! * x;
+    discharged += y;
+    soc += x - y;
+  }
+  sol.value = value + day.terminalValuePerMwh * soc;
+  sol.discharged = discharged;
 }
 
 /** Recomputes value = sum_t (q_t y_t - p_t x_t) + V s_T and the total y of a solution. */

@@ -1,6 +1,6 @@
 import type { DayOutcome, DayProblem, Schedule } from '../../types.js';
 import { branchOnArbitrage, type BranchOutcome } from './arbitrageBranching.js';
-import { fastSolverGap } from './coversDay.js';
+import { priceGap, scalarGap } from './coversDay.js';
 import { CAP_UNREACHABLE } from './cycleCapDual.js';
 import { DayContext, DpSolver, SweepSolver } from './dayContext.js';
 import { LineSolution, SWEEP_START_UNREACHABLE } from './lineSweep.js';
@@ -53,12 +53,15 @@ export const FAST_SOLVER_NAME = 'fast-warehouse-sweep';
  */
 export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOptions> = {}): FastDayOutcome {
   const settings: FastSolverOptions = { ...FAST_SOLVER_DEFAULTS, ...options };
-  const gap = fastSolverGap(problem);
+  // fastSolverGap in two parts: the prices are checked through their sum as toStoredDay converts them.
+  const gap = scalarGap(problem);
   if (gap !== null) return { status: 'not-covered', reason: gap };
-  const b = problem.battery;
-  if (b.socMinMwh > b.socMaxMwh) return { status: 'infeasible', reason: `the state-of-charge window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh is empty` };
   const engine = engineFor(problem.buyPricePerMwh.length, settings.maxBreakpoints);
   const day = toStoredDay(problem, engine.arrays);
+  const badPrice = Number.isFinite(day.priceSum) ? null : priceGap(problem);
+  if (badPrice !== null) return { status: 'not-covered', reason: badPrice };
+  const b = problem.battery;
+  if (b.socMinMwh > b.socMaxMwh) return { status: 'infeasible', reason: `the state-of-charge window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh is empty` };
   const { ctx, best } = engine;
   const programFirst = day.arbitrageCount > 0 && programSuits(day);
   const attempts = programFirst ? ([engine.program, engine.sweep] as const) : ([engine.sweep, engine.program] as const);
@@ -100,8 +103,8 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
     if (outcome.cause === CAP_UNREACHABLE) return { status: 'infeasible', reason: capReason(problem, ctx.below.discharged * b.dischargeEfficiency) };
     return { status: 'infeasible', reason: endReason(problem, day) };
   }
-  const schedule = toSchedule(problem, day, best);
-  return { status: 'optimal', schedule, objective: objective(problem, schedule), solver: FAST_SOLVER_NAME, nodes: nodes + outcome.nodes };
+  const { schedule, objective } = toSchedule(problem, day, best);
+  return { status: 'optimal', schedule, objective, solver: FAST_SOLVER_NAME, nodes: nodes + outcome.nodes };
 }
 
 /**
@@ -146,13 +149,18 @@ function engineFor(periods: number, maxBreakpoints: number): Engine {
   return cached;
 }
 
-/** Grid units: c_t = x_t / (eta_c dt), d_t = eta_d y_t / dt (exactly the limit at x = X, y = Y). */
-function toSchedule(problem: DayProblem, day: StoredDay, sol: LineSolution): Schedule {
+/**
+ * Grid units: c_t = x_t / (eta_c dt), d_t = eta_d y_t / dt (exactly the limit at x = X, y = Y), and
+ * the objective sum_t dt ((sell_t - deg) d_t - buy_t c_t) + terminal s_T [currency] in the same pass.
+ */
+function toSchedule(problem: DayProblem, day: StoredDay, sol: LineSolution): { schedule: Schedule; objective: number } {
   const { battery: b, periodHours: dt } = problem;
+  const deg = b.degradationCostPerMwh;
   const chargeMw: number[] = new Array<number>(day.periods);
   const dischargeMw: number[] = new Array<number>(day.periods);
   const socMwh: number[] = new Array<number>(day.periods);
   let soc = problem.socStartMwh;
+  let value = 0;
   for (let t = 0; t < day.periods; t++) {
     const x = sol.x[t]!;
     const y = sol.y[t]!;
@@ -162,19 +170,10 @@ function toSchedule(problem: DayProblem, day: StoredDay, sol: LineSolution): Sch
     dischargeMw[t] = d;
     soc += b.chargeEfficiency * dt * c - (dt * d) / b.dischargeEfficiency;
     socMwh[t] = soc;
+    value += dt * ((problem.sellPricePerMwh[t]! - deg) * d - problem.buyPricePerMwh[t]! * c);
   }
-  return { chargeMw, dischargeMw, socMwh };
-}
-
-/** sum_t dt ((sell_t - deg) d_t - buy_t c_t) + terminal s_T [currency]. */
-function objective(problem: DayProblem, schedule: Schedule): number {
-  const dt = problem.periodHours;
-  const deg = problem.battery.degradationCostPerMwh;
-  let value = 0;
-  for (let t = 0; t < schedule.chargeMw.length; t++) {
-    value += dt * ((problem.sellPricePerMwh[t]! - deg) * schedule.dischargeMw[t]! - problem.buyPricePerMwh[t]! * schedule.chargeMw[t]!);
-  }
-  return value + (problem.terminalValuePerMwh ?? 0) * (schedule.socMwh[schedule.socMwh.length - 1] ?? problem.socStartMwh);
+  const objective = value + (problem.terminalValuePerMwh ?? 0) * (day.periods > 0 ? soc : problem.socStartMwh);
+  return { schedule: { chargeMw, dischargeMw, socMwh }, objective };
 }
 
 function startReason(problem: DayProblem): string {

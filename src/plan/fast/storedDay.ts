@@ -56,6 +56,8 @@ export interface StoredDay {
   readonly terminalValuePerMwh: number;
   /** Cap on sum_t y_t [MWh stored]; Infinity without a cycle cap. */
   readonly dischargeCapMwh: number;
+  /** sum_t (p_t + q_t): not finite when some price is not (or the sum overflows; see priceGap). */
+  readonly priceSum: number;
 }
 
 /** Arrays a caller lends toStoredDay to fill instead of allocating (each at least `periods` long). */
@@ -83,10 +85,12 @@ export function toStoredDay(problem: DayProblem, arrays?: StoredDayArrays): Stor
   const dischargePrice = arrays?.dischargePrice ?? new Float64Array(periods);
   const arbitrage = arrays?.arbitrage ?? new Uint8Array(periods);
   let arbitrageCount = 0;
+  let priceSum = 0;
   const both = chargeStepMwh > 0 && dischargeStepMwh > 0;
   for (let t = 0; t < periods; t++) {
     chargePrice[t] = problem.buyPricePerMwh[t]! / b.chargeEfficiency;
     dischargePrice[t] = (problem.sellPricePerMwh[t]! - b.degradationCostPerMwh) * b.dischargeEfficiency;
+    priceSum += chargePrice[t]! + dischargePrice[t]!;
     if (both && dischargePrice[t]! > chargePrice[t]!) {
       arbitrage[t] = 1;
       arbitrageCount++;
@@ -111,5 +115,6 @@ export function toStoredDay(problem: DayProblem, arrays?: StoredDayArrays): Stor
     socEndFloorMwh: Math.max(b.socMinMwh, problem.socEndMinMwh),
     terminalValuePerMwh: problem.terminalValuePerMwh ?? 0,
     dischargeCapMwh: cap === undefined ? Infinity : cap / b.dischargeEfficiency,
+    priceSum,
   };
 }
