@@ -181,7 +181,11 @@ export function slideMax(f: Pwl, a: number, b: number, sigma: number, out: Pwl):
   out.push(end + a, h(last) + sigma * (end + a));
 }
 
-/** out = max(f, g) on the union of their domains (which must overlap). */
+/**
+ * out = max(f, g) on the union of their domains (which must overlap). On each interval between
+ * consecutive breakpoints of either function both are linear, so the maximum is the larger start
+ * and, when the order of the two lines flips inside, their crossing.
+ */
 export function maxOf(f: Pwl, g: Pwl, out: Pwl): void {
   out.clear();
   const fx = f.xs;
@@ -200,16 +204,27 @@ export function maxOf(f: Pwl, g: Pwl, out: Pwl): void {
     else if (i < fLast) e1 = Math.min(e1, fx[i + 1]!);
     if (gx[j]! > e0) e1 = Math.min(e1, gx[j]!);
     else if (j < gLast) e1 = Math.min(e1, gx[j + 1]!);
-    let count = 0;
-    if (fx[0]! <= e0 && e1 <= fx[fLast]!) {
-      startValue[count] = lerp(fx, f.vs, i, e0);
-      endValue[count++] = lerp(fx, f.vs, i, e1);
+    const inF = fx[0]! <= e0 && e1 <= fx[fLast]!;
+    const inG = gx[0]! <= e0 && e1 <= gx[gLast]!;
+    if (inF && inG) {
+      const a0 = lerp(fx, f.vs, i, e0);
+      const a1 = lerp(fx, f.vs, i, e1);
+      const b0 = lerp(gx, g.vs, j, e0);
+      const b1 = lerp(gx, g.vs, j, e1);
+      const d0 = a0 - b0;
+      const d1 = a1 - b1;
+      out.push(e0, d0 > 0 || (d0 === 0 && d1 >= 0) ? a0 : b0);
+      if ((d0 > 0 && d1 < 0) || (d0 < 0 && d1 > 0)) {
+        // The lines cross at the fraction d0 / (d0 - d1) of the interval; the value is taken on
+        // the line that was on top before the crossing.
+        const at = d0 / (d0 - d1);
+        out.push(e0 + at * (e1 - e0), d0 > 0 ? a0 + at * (a1 - a0) : b0 + at * (b1 - b0));
+      }
+    } else if (inF) {
+      out.push(e0, lerp(fx, f.vs, i, e0));
+    } else if (inG) {
+      out.push(e0, lerp(gx, g.vs, j, e0));
     }
-    if (gx[0]! <= e0 && e1 <= gx[gLast]!) {
-      startValue[count] = lerp(gx, g.vs, j, e0);
-      endValue[count++] = lerp(gx, g.vs, j, e1);
-    }
-    if (count > 0) pushEnvelope(out, e0, e1, count, 0, 0);
     e0 = e1;
   }
   out.push(end, Math.max(fx[fLast]! === end ? f.vs[fLast]! : -Infinity, gx[gLast]! === end ? g.vs[gLast]! : -Infinity));
