@@ -63,18 +63,15 @@ export class LineSolution {
 
 /** Scratch arrays for days of up to `capacity` periods, reused from sweep to sweep. */
 export class SweepWorkspace {
-  readonly length: Float64Array;
+  /** Per segment id: the part still open, and the part taken (what is neither was dropped). */
   readonly remaining: Float64Array;
   readonly taken: Float64Array;
-  readonly dropped: Float64Array;
   readonly live: LiveSegments;
 
   constructor(capacity: number) {
     const n = 3 * capacity;
-    this.length = new Float64Array(n);
     this.remaining = new Float64Array(n);
     this.taken = new Float64Array(n);
-    this.dropped = new Float64Array(n);
     this.live = new LiveSegments(capacity);
   }
 }
@@ -98,7 +95,7 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
   const arbitrage = day.arbitrage;
   const { socMinMwh: low, socMaxMwh: high } = day;
   const eps = edgeTolerance(day);
-  const { live, length, remaining, taken, dropped } = ws;
+  const { live, remaining, taken } = ws;
   const { ids, slopes } = live;
   live.clear();
   let head = live.head;
@@ -143,10 +140,8 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
       const id = k === 1 && both ? id1 + CHARGE - DISCHARGE : id1;
       const slope = k === 1 && both ? -pt : slope1;
       const size = k === 1 && both ? X : length1;
-      length[id] = size;
       remaining[id] = size;
       taken[id] = 0;
-      dropped[id] = 0;
       if (!(size > 0)) continue;
       // The first open segment ranking above this one: often an end (a new period's segment is
       // frequently the steepest or the flattest), else by a binary search whose steps do not branch
@@ -205,7 +200,7 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
           break;
         }
         left -= rest;
-        taken[id] = length[id]! - dropped[id]!;
+        taken[id] = taken[id]! + rest;
         remaining[id] = 0;
         tail--;
       }
@@ -218,12 +213,10 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
         const id = ids[head]!;
         const rest = remaining[id]!;
         if (rest > left) {
-          dropped[id] = dropped[id]! + left;
           remaining[id] = rest - left;
           break;
         }
         left -= rest;
-        dropped[id] = length[id]! - taken[id]!;
         remaining[id] = 0;
         head++;
       }
@@ -242,7 +235,7 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
 
 /** Takes `amount` MWh from the steepest segments (they are forced into the solution). */
 function takeSteepest(ws: SweepWorkspace, amount: number): void {
-  const { live, remaining, taken, length, dropped } = ws;
+  const { live, remaining, taken } = ws;
   const ids = live.ids;
   let left = amount;
   while (left > 0 && live.tail > live.head) {
@@ -254,38 +247,18 @@ function takeSteepest(ws: SweepWorkspace, amount: number): void {
       return;
     }
     left -= rest;
-    taken[id] = length[id]! - dropped[id]!;
+    taken[id] = taken[id]! + rest;
     remaining[id] = 0;
     live.tail--;
   }
 }
 
-/** Drops `amount` MWh from the flattest segments (the window cannot hold them). */
-function dropFlattest(ws: SweepWorkspace, amount: number): void {
-  const { live, remaining, taken, length, dropped } = ws;
-  const ids = live.ids;
-  let left = amount;
-  while (left > 0 && live.tail > live.head) {
-    const id = ids[live.head]!;
-    const rest = remaining[id]!;
-    if (rest > left) {
-      dropped[id] = dropped[id]! + left;
-      remaining[id] = rest - left;
-      return;
-    }
-    left -= rest;
-    dropped[id] = length[id]! - taken[id]!;
-    remaining[id] = 0;
-    live.head++;
-  }
-}
-
 /** Takes every open segment steeper than `threshold` (= -V: keeping a MWh is worth V). */
 function takeWhileProfitable(ws: SweepWorkspace, threshold: number): void {
-  const { live, remaining, taken, length, dropped } = ws;
+  const { live, remaining, taken } = ws;
   while (live.tail > live.head && live.slopes[live.tail - 1]! > threshold) {
     const id = live.ids[live.tail - 1]!;
-    taken[id] = length[id]! - dropped[id]!;
+    taken[id] = taken[id]! + remaining[id]!;
     remaining[id] = 0;
     live.tail--;
   }
