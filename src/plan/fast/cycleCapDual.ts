@@ -40,7 +40,7 @@ export function relaxDay(ctx: DayContext, modes: Int8Array, out: LineSolution): 
   const cap = day.dischargeCapMwh;
   const capTol = 1e-12 * Math.max(1, cap);
   if (above.discharged <= cap + capTol) {
-    finish(ctx, above, out);
+    finish(ctx, above, out, !solver.complementary);
     return SWEEP_OK;
   }
   // Every solve's status counts: the dynamic program may give up (SWEEP_TOO_LARGE) at any mu, and
@@ -68,7 +68,7 @@ export function relaxDay(ctx: DayContext, modes: Int8Array, out: LineSolution): 
     const atTrial = trial.value - mu * (trial.discharged - cap);
     if (!beyond && atTrial <= onLine + 1e-13 * (Math.abs(above.value) + Math.abs(below.value) + mu * cap + 1)) break;
     if (Math.abs(trial.discharged - cap) <= capTol) {
-      finish(ctx, trial, out);
+      finish(ctx, trial, out, !solver.complementary);
       return SWEEP_OK;
     }
     const spare = trial;
@@ -83,7 +83,7 @@ export function relaxDay(ctx: DayContext, modes: Int8Array, out: LineSolution): 
     }
   }
   mix(above, below, (cap - below.discharged) / (above.discharged - below.discharged), day.periods, out);
-  finish(ctx, out, out);
+  finish(ctx, out, out, true);
   return SWEEP_OK;
 }
 
@@ -112,7 +112,8 @@ function mix(a: LineSolution, b: LineSolution, theta: number, periods: number, o
   }
 }
 
-function finish(ctx: DayContext, sol: LineSolution, out: LineSolution): void {
+/** out = sol, netted outside arbitrage periods and revalued unless the solver's flows are complementary already. */
+function finish(ctx: DayContext, sol: LineSolution, out: LineSolution, net: boolean): void {
   if (sol !== out) out.copyFrom(sol);
-  netOutsideArbitrageAndRevalue(ctx.day, out);
+  if (net) netOutsideArbitrageAndRevalue(ctx.day, out);
 }

@@ -5,10 +5,13 @@ import { ValueDp } from './valueDp.js';
 /** Solves the loaded day at a multiplier mu on discharged energy, with per-period modes. */
 export interface MuSolver {
   solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus;
+  /** Whether every solution has x_t y_t = 0 in every period already (nothing to net). */
+  readonly complementary: boolean;
 }
 
 /** The concave sweep (lineSweep.ts). */
 export class SweepSolver implements MuSolver {
+  readonly complementary = false;
   private readonly workspace: SweepWorkspace;
   private day: StoredDay | null = null;
 
@@ -28,6 +31,7 @@ export class SweepSolver implements MuSolver {
 
 /** The exact dynamic program (valueDp.ts). */
 export class DpSolver implements MuSolver {
+  readonly complementary = true;
   private readonly dp: ValueDp;
 
   constructor(capacity: number, maxBreakpoints: number) {

@@ -1,5 +1,5 @@
 import { CHARGE_ONLY, DISCHARGE_ONLY, edgeTolerance, LineSolution, SWEEP_END_UNREACHABLE, SWEEP_OK, SWEEP_START_UNREACHABLE, SWEEP_TOO_LARGE, type SweepStatus } from './lineSweep.js';
-import { clip, concaveStep, isConcave, maxOf, Pwl, slide, slideMax, valueAt } from './pwl.js';
+import { clip, concaveSlide, concaveStep, isConcave, maxOf, Pwl, slide, slideMax, valueAt } from './pwl.js';
 import { PwlSeries } from './pwlSeries.js';
 import type { StoredDay } from './storedDay.js';
 import { pruneDead, ValueBounds } from './valueBounds.js';
@@ -99,8 +99,13 @@ export class ValueDp {
         slide(f, -Y, 0, -qm, g);
         next = g;
       } else if (day.arbitrage[t] === 1 && qm > p) {
-        slide(f, 0, X, -p, g);
-        slide(f, -Y, 0, -qm, h);
+        if (isConcave(f)) {
+          concaveSlide(f, 0, X, -p, g);
+          concaveSlide(f, -Y, 0, -qm, h);
+        } else {
+          slideMax(f, 0, X, -p, g);
+          slideMax(f, -Y, 0, -qm, h);
+        }
         maxOf(g, h, k);
         next = k;
       } else if (isConcave(f)) {
@@ -217,7 +222,8 @@ export class ValueDp {
       for (let c = -3; c < n; c++) {
         const u = c === -3 ? lo : c === -2 ? hi : c === -1 ? s : xs[from + c]!;
         if (c >= -1 && !(u > lo && u < hi)) continue;
-        const v = valueAt(xs, vs, from, n, u) + (s >= u ? -p * (s - u) : qm * (u - s));
+        // A breakpoint's value is stored; only the range ends and the kink need interpolating.
+        const v = (c >= 0 ? vs[from + c]! : valueAt(xs, vs, from, n, u)) + (s >= u ? -p * (s - u) : qm * (u - s));
         if (v > best) {
           best = v;
           bestU = u;
@@ -263,7 +269,7 @@ export class ValueDp {
       for (let c = -3; c < n; c++) {
         const u = c === -3 ? lo : c === -2 ? hi : c === -1 ? s : xs[from + c]!;
         if (c >= -1 && !(u > lo && u < hi)) continue;
-        const v = valueAt(xs, vs, from, n, u) + (u >= s ? -p * (u - s) : qm * (s - u));
+        const v = (c >= 0 ? vs[from + c]! : valueAt(xs, vs, from, n, u)) + (u >= s ? -p * (u - s) : qm * (s - u));
         if (v > best) {
           best = v;
           bestU = u;
