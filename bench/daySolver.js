@@ -1,8 +1,9 @@
 // Speed of the exact fast day solver against HiGHS on seeded 96-period days with negative prices,
 // cycle cap on and off. Prints median and p95 per-day time of: the fast solver (src/plan/fast,
 // compiled into dist/), HiGHS with a kept model (one persistent model per battery, only costs and
-// bounds change; warmed first), HiGHS fresh from LP text, for the LP and the MIP (binary mode per
-// period), and the ratios to the fast solver.
+// bounds change), HiGHS fresh from LP text, for the LP and the MIP (binary mode per period), and the
+// ratios to the fast solver. Both the fast solver and the kept model are warmed on each group's days
+// before that group is measured; each day is then solved once per solver.
 //
 //   npm run build && node bench/daySolver.js [--days 1000] [--batteries 4] [--negative yes|no|mixed] [--mip]
 //
