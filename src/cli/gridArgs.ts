@@ -50,7 +50,7 @@ export function addGridOptions(command: Command, table: string): Command {
   return command
     .option('--from <YYYY-MM-DD>', 'first delivery day (required)', parseDayArg)
     .option('--to <YYYY-MM-DD>', 'last delivery day, included (required)', parseDayArg)
-    .addOption(new Option('--threads <n>', 'worker threads; 1 runs without workers (default: the number of CPUs)').argParser(wholeNumberArg(1, '2')))
+    .addOption(new Option('--threads <n>', 'threads running settings, this one included; 1 runs without workers (default: the number of CPUs)').argParser(wholeNumberArg(1, '2')))
     .option('--restart', `discard the journal of an interrupted run in --out and start over (default: resume it)`)
     .option('--quiet', 'no progress bar and no notes on stderr, even on a terminal')
     .option('--out <dir>', `folder for ${table} and summary.json (required)`, parsePathArg)

@@ -91,6 +91,25 @@ export function hourlyPeriods(day: string, count: number): DeliveryPeriod[] {
 }
 
 /** The same market with every price (floor, cap, forecast, realised, penalty, wear) multiplied by k. */
+/**
+ * Whether scalePrices(m, k) scales every number exactly and keeps the solver's arithmetic away from
+ * subnormal numbers: every price, the wear cost and the penalty is 0 or at least 1e-290 in size,
+ * before and after scaling (fast-check's doubles include subnormals such as 5e-324, which lose bits
+ * when scaled; IEEE 754-2019, section 3.4).
+ */
+export function scalesExactly(m: RandomMarket, k: number): boolean {
+  const normal = (x: number): boolean => x === 0 || (Math.abs(x) >= 1e-290 && Math.abs(k * x) >= 1e-290 && Number.isFinite(k * x));
+  const values = [
+    m.market.priceFloor,
+    m.market.priceCap,
+    m.market.fallback?.penaltyPerMwh ?? 0,
+    m.battery.degradationCostPerMwh,
+    ...m.history.days.flatMap((d) => d.pricePerMwh),
+    ...[...m.forecast.days.values()].flatMap((q) => q.prices.flat()),
+  ];
+  return values.every(normal);
+}
+
 export function scalePrices(m: RandomMarket, k: number): RandomMarket {
   const penalty = m.market.fallback?.penaltyPerMwh ?? 0;
   const market: MarketSpec = { ...m.market, priceFloor: k * m.market.priceFloor, priceCap: k * m.market.priceCap, fallback: { kind: 'clearing-plus-penalty', penaltyPerMwh: k * penalty } };

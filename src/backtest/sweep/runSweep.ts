@@ -28,7 +28,7 @@ export interface SweepOptions {
   readonly identity?: unknown;
   /** Input files whose contents the rows depend on (fingerprinted). Default none. */
   readonly inputFiles?: readonly string[];
-  /** Worker threads [-], a whole number >= 1; 1 runs in this thread. Default os.availableParallelism(). */
+  /** Threads [-], a whole number >= 1, this one included: n runs settings here and on n - 1 workers. Default os.availableParallelism(). */
   readonly threads?: number;
   /** Discard a journal found in outDir instead of resuming or refusing it. Default false. */
   readonly restart?: boolean;

@@ -12,8 +12,8 @@
  *   decimals at most).
  * - `run` must be deterministic: it may depend only on the setting and the context (seeded generators
  *   only, no clock). Then the output is the same for any number of threads and after a resume.
- * - `export function loadContext(input): context` (optional, may be async) is called once per worker
- *   thread (once in all with one thread) with the sweep's `contextInput`, before any `run`: read and
+ * - `export function loadContext(input): context` (optional, may be async) is called once per thread
+ *   that runs settings (this one and each worker) with the sweep's `contextInput`, before any `run`: read and
  *   parse the input files there, not in `run`. Without it the context is `contextInput` itself.
  *   `contextInput` is copied into each worker by structured clone: pass paths and flags, not big data.
  * - To reject a setting as bad input (e.g. an alpha outside the forecast's levels), throw an
@@ -42,7 +42,7 @@ export interface PoolOptions {
   readonly taskModule: string | URL;
   /** Handed to the task's loadContext once per worker, by structured clone. Default undefined. */
   readonly contextInput?: unknown;
-  /** Worker threads [-], >= 1; 1 runs in this thread without workers. Default os.availableParallelism(). */
+  /** Threads [-], >= 1, this one included: n runs settings here and on n - 1 worker threads. Default os.availableParallelism(). */
   readonly threads?: number;
   /** Abort to stop handing out settings. */
   readonly signal?: AbortSignal;
@@ -100,18 +100,28 @@ async function runInThisThread(jobs: readonly PoolJob[], url: string, options: P
   return 'finished';
 }
 
+/**
+ * More than one thread: this thread runs settings too, beside threads - 1 workers, so the first rows
+ * come while the workers start (each boots, copies the context input and warms up, about a second on
+ * a year of 15-minute data). A worker is handed its next setting ahead while more settings remain than
+ * threads, so that it never waits for this thread to finish a setting before it gets more work.
+ */
 function runOnWorkers(jobs: readonly PoolJob[], url: string, threads: number, options: PoolOptions, onResult: (job: PoolJob, row: SweepRow) => void): Promise<PoolStatus> {
   return new Promise((resolvePool, rejectPool) => {
     const init: WorkerInit = { taskModuleUrl: url, contextInput: options.contextInput };
-    const running = new Map<Worker, number>(); // worker -> position in jobs of the job it runs
+    const queued = new Map<Worker, number[]>(); // worker -> positions in jobs handed to it, oldest first
     let next = 0;
     let failure: { readonly position: number; readonly error: Error } | undefined;
     let settled = false;
+    let hereBusy = false;
+    let hereDone = false;
     const workers: Worker[] = [];
 
+    const mayStart = (): boolean => failure === undefined && options.signal?.aborted !== true && next < jobs.length;
     const settleIfIdle = (): void => {
-      if (settled || running.size > 0) return;
-      if (failure === undefined && next < jobs.length && options.signal?.aborted !== true) return;
+      if (settled || hereBusy || !hereDone) return;
+      for (const positions of queued.values()) if (positions.length > 0) return;
+      if (mayStart()) return;
       settled = true;
       void Promise.all(workers.map((w) => w.terminate())).then(() => {
         if (failure !== undefined) rejectPool(failure.error);
@@ -123,39 +133,71 @@ function runOnWorkers(jobs: readonly PoolJob[], url: string, threads: number, op
     const fail = (position: number, error: Error): void => {
       if (failure === undefined || position < failure.position) failure = { position, error };
     };
-    const dispatch = (worker: Worker): void => {
-      const job = jobs[next];
-      if (failure !== undefined || options.signal?.aborted === true || job === undefined) return settleIfIdle();
-      running.set(worker, next++);
-      worker.postMessage({ id: job.id, setting: job.setting } satisfies RunMessage);
-    };
-    const finished = (worker: Worker, message: ResultMessage): void => {
-      const position = running.get(worker) as number;
-      const job = jobs[position] as PoolJob;
-      running.delete(worker);
-      try {
-        if (message.type === 'done') onResult(job, message.row);
-        else fail(position, settingError(message.error, job.key));
-      } catch (err) {
-        fail(position, err instanceof Error ? err : new Error(String(err)));
+    const hand = (worker: Worker, result: ResultMessage | null): void => {
+      const positions = queued.get(worker) as number[];
+      if (result !== null) {
+        const position = positions.shift() as number;
+        const job = jobs[position] as PoolJob;
+        try {
+          if (result.type === 'done') onResult(job, result.row);
+          else fail(position, settingError(result.error, job.key));
+        } catch (err) {
+          fail(position, err instanceof Error ? err : new Error(String(err)));
+        }
       }
-      dispatch(worker);
+      const depth = jobs.length - next > threads ? 2 : 1;
+      while (positions.length < depth && mayStart()) {
+        const job = jobs[next] as PoolJob;
+        positions.push(next++);
+        worker.postMessage({ id: job.id, setting: job.setting } satisfies RunMessage);
+      }
+      settleIfIdle();
     };
     const lost = (worker: Worker, reason: string): void => {
-      const position = running.get(worker);
+      const positions = queued.get(worker) as number[];
+      const position = positions[0];
       if (position === undefined) return;
-      running.delete(worker);
+      positions.length = 0;
       fail(position, new Error(`a sweep worker thread ${reason} while running setting ${jobs[position]?.key}`));
       settleIfIdle();
     };
 
-    for (let i = 0; i < threads; i++) {
+    for (let i = 1; i < threads; i++) {
       const worker = new Worker(new URL('./poolWorker.js', import.meta.url), { workerData: init });
       workers.push(worker);
-      worker.on('message', (message: ResultMessage) => finished(worker, message));
+      queued.set(worker, []);
+      worker.on('message', (message: ResultMessage) => hand(worker, message));
       worker.on('error', (err) => lost(worker, `failed (${err.message})`));
       worker.on('exit', (code) => lost(worker, `stopped with exit code ${code}`));
-      dispatch(worker);
+      hand(worker, null);
     }
+
+    // This thread: one setting at a time, letting the workers' messages in between.
+    const task = loadTask(url, options.contextInput);
+    // A failed load is reported with this thread's first setting, as a worker does.
+    task.catch(() => undefined);
+    void (async (): Promise<void> => {
+      for (;;) {
+        await new Promise((resolve) => setImmediate(resolve));
+        if (!mayStart()) break;
+        const position = next++;
+        const job = jobs[position] as PoolJob;
+        hereBusy = true;
+        let row: SweepRow | undefined;
+        try {
+          row = await (await task).run(job.setting);
+        } catch (err) {
+          fail(position, settingError(serialiseError(err), job.key));
+        }
+        try {
+          if (row !== undefined) onResult(job, row);
+        } catch (err) {
+          fail(position, err instanceof Error ? err : new Error(String(err)));
+        }
+        hereBusy = false;
+      }
+      hereDone = true;
+      settleIfIdle();
+    })();
   });
 }
