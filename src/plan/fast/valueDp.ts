@@ -111,7 +111,9 @@ export class ValueDp {
       } else if (isConcave(f)) {
         // Both pieces and the window in one pass (the common case before the first convex period).
         if (!concaveStep(f, -Y, Y, -qm, X, -p, day.socMinMwh, day.socMaxMwh, eps, g)) return SWEEP_START_UNREACHABLE;
-        [f, g] = [g, f];
+        const done = g;
+        g = f;
+        f = done;
         next = null;
       } else {
         slideMax(f, -Y, 0, -qm, g);
@@ -175,7 +177,9 @@ export class ValueDp {
         next = g;
       } else if (isConcave(j)) {
         if (!concaveStep(j, -X, X, p, Y, qm, day.socMinMwh, day.socMaxMwh, eps, g)) return false;
-        [j, g] = [g, j];
+        const done = g;
+        g = j;
+        j = done;
         next = null;
       } else {
         slideMax(j, 0, Y, qm, g);
@@ -312,17 +316,16 @@ function bestJoin(f: Pwl, tail: PwlSeries, join: number, eps: number): number {
   const top = Math.max(lo, hi);
   let bestS = lo;
   let best = f.at(lo) + valueAt(xs, vs, from, n, lo);
-  const consider = (s: number): void => {
-    if (!(s > lo && s <= top)) return;
+  // Candidates: the common domain's right end and every breakpoint of either function inside it.
+  for (let c = -1; c < f.n + n; c++) {
+    const s = c < 0 ? top : c < f.n ? f.xs[c]! : xs[from + c - f.n]!;
+    if (!(s > lo && s <= top)) continue;
     const v = f.at(s) + valueAt(xs, vs, from, n, s);
     if (v > best) {
       best = v;
       bestS = s;
     }
-  };
-  consider(top);
-  for (let i = 0; i < f.n; i++) consider(f.xs[i]!);
-  for (let i = 0; i < n; i++) consider(xs[from + i]!);
+  }
   return bestS;
 }
 
