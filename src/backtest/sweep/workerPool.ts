@@ -79,34 +79,16 @@ export async function runPool(jobs: readonly PoolJob[], options: PoolOptions, on
   const url = taskModuleUrl(options.taskModule);
   const threads = Math.min(options.threads ?? defaultThreads(), jobs.length);
   if (jobs.length === 0) return 'finished';
-  if (threads <= 1) return runInThisThread(jobs, url, options, onResult);
-  return runOnWorkers(jobs, url, threads, options, onResult);
-}
-
-async function runInThisThread(jobs: readonly PoolJob[], url: string, options: PoolOptions, onResult: (job: PoolJob, row: SweepRow) => void): Promise<PoolStatus> {
-  const task = await loadTask(url, options.contextInput);
-  for (const job of jobs) {
-    if (options.signal?.aborted === true) return 'stopped';
-    let row: SweepRow;
-    try {
-      row = await task.run(job.setting);
-    } catch (err) {
-      throw settingError(serialiseError(err), job.key);
-    }
-    onResult(job, row);
-    // Let signals and timers in between settings.
-    await new Promise((resolve) => setImmediate(resolve));
-  }
-  return 'finished';
+  return runOnThreads(jobs, url, Math.max(1, threads), options, onResult);
 }
 
 /**
- * More than one thread: this thread runs settings too, beside threads - 1 workers, so the first rows
+ * This thread runs settings, beside threads - 1 workers (none for one thread), so the first rows
  * come while the workers start (each boots, copies the context input and warms up, about a second on
  * a year of 15-minute data). A worker is handed its next setting ahead while more settings remain than
  * threads, so that it never waits for this thread to finish a setting before it gets more work.
  */
-function runOnWorkers(jobs: readonly PoolJob[], url: string, threads: number, options: PoolOptions, onResult: (job: PoolJob, row: SweepRow) => void): Promise<PoolStatus> {
+function runOnThreads(jobs: readonly PoolJob[], url: string, threads: number, options: PoolOptions, onResult: (job: PoolJob, row: SweepRow) => void): Promise<PoolStatus> {
   return new Promise((resolvePool, rejectPool) => {
     const init: WorkerInit = { taskModuleUrl: url, contextInput: options.contextInput };
     const queued = new Map<Worker, number[]>(); // worker -> positions in jobs handed to it, oldest first

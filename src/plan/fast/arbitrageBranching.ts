@@ -56,8 +56,7 @@ export function branchOnArbitrage(ctx: DayContext, maxNodes: number, best: LineS
       continue;
     }
     netted.copyFrom(node);
-    for (let t = 0; t < day.periods; t++) netPeriod(netted, t);
-    revalue(day, netted);
+    revalue(day, netted, 'every');
     if (netted.value > bestValue) {
       best.copyFrom(netted);
       bestValue = netted.value;

@@ -1,7 +1,7 @@
 import type { DayContext } from './dayContext.js';
 import type { StoredDay } from './storedDay.js';
 import { LineSolution, SWEEP_OK, type SweepStatus } from './lineSweep.js';
-import { netOutsideArbitrageAndRevalue } from './netFlows.js';
+import { revalue } from './netFlows.js';
 
 /**
  * The day's relaxation (arbitrage periods on their chord unless fixed) with the cycle cap
@@ -115,5 +115,5 @@ function mix(a: LineSolution, b: LineSolution, theta: number, periods: number, o
 /** out = sol, netted outside arbitrage periods and revalued unless the solver's flows are complementary already. */
 function finish(ctx: DayContext, sol: LineSolution, out: LineSolution, net: boolean): void {
   if (sol !== out) out.copyFrom(sol);
-  if (net) netOutsideArbitrageAndRevalue(ctx.day, out);
+  if (net) revalue(ctx.day, out, 'outside-arbitrage');
 }

@@ -19,29 +19,19 @@ export function netPeriod(sol: LineSolution, t: number): void {
   }
 }
 
-/** Nets every period that is not an arbitrage period (no loss, see netPeriod), then revalues (one pass). */
-export function netOutsideArbitrageAndRevalue(day: StoredDay, sol: LineSolution): void {
-  let value = 0;
-  let discharged = 0;
-  let soc = day.socStartMwh;
-  for (let t = 0; t < day.periods; t++) {
-    if (day.arbitrage[t] === 0) netPeriod(sol, t);
-    const x = sol.x[t]!;
-    const y = sol.y[t]!;
-    value += day.dischargePrice[t]! * y - day.chargePrice[t]! * x;
-    discharged += y;
-    soc += x - y;
-  }
-  sol.value = value + day.terminalValuePerMwh * soc;
-  sol.discharged = discharged;
-}
+/** Periods netted before a solution is revalued: none, those outside arbitrage periods (no loss), or every one. */
+export type Netting = 'none' | 'outside-arbitrage' | 'every';
 
-/** Recomputes value = sum_t (q_t y_t - p_t x_t) + V s_T and the total y of a solution. */
-export function revalue(day: StoredDay, sol: LineSolution): void {
+/**
+ * Nets the periods `netting` names (netPeriod), then recomputes value = sum_t (q_t y_t - p_t x_t) + V s_T
+ * and the total y of the solution, in one pass.
+ */
+export function revalue(day: StoredDay, sol: LineSolution, netting: Netting = 'none'): void {
   let value = 0;
   let discharged = 0;
   let soc = day.socStartMwh;
   for (let t = 0; t < day.periods; t++) {
+    if (netting === 'every' || (netting === 'outside-arbitrage' && day.arbitrage[t] === 0)) netPeriod(sol, t);
     const x = sol.x[t]!;
     const y = sol.y[t]!;
     value += day.dischargePrice[t]! * y - day.chargePrice[t]! * x;

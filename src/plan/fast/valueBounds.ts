@@ -25,6 +25,21 @@ import type { StoredDay } from './storedDay.js';
  * F_t(s) + W_t(s) < lower bound is on no optimal path (branch and bound's pruning rule; Land and
  * Doig 1960).
  */
+/**
+ * out = the value of ending the day at s: V s on [max(socMin, socEndMin), socMax] (the stage after the
+ * last period of a backward program); false when the floor lies above socMax by more than eps.
+ */
+export function endOfDayValue(day: StoredDay, eps: number, out: Pwl): boolean {
+  const floor = day.socEndFloorMwh;
+  if (floor > day.socMaxMwh + eps) return false;
+  const V = day.terminalValuePerMwh;
+  const end = Math.min(floor, day.socMaxMwh);
+  out.clear();
+  out.push(end, V * end);
+  if (end < day.socMaxMwh) out.push(day.socMaxMwh, V * day.socMaxMwh);
+  return true;
+}
+
 export class ValueBounds {
   private readonly series: PwlSeries;
   private readonly a = new Pwl();
@@ -48,16 +63,11 @@ export class ValueBounds {
     const X = day.chargeStepMwh;
     const Y = day.dischargeStepMwh;
     const T = day.periods;
-    const floor = day.socEndFloorMwh;
-    if (floor > day.socMaxMwh + eps) return false;
     let w = this.a;
     let spare = this.b;
     const tmp = this.c;
     const other = this.d;
-    w.clear();
-    const V = day.terminalValuePerMwh;
-    w.push(Math.min(floor, day.socMaxMwh), V * Math.min(floor, day.socMaxMwh));
-    if (floor < day.socMaxMwh) w.push(day.socMaxMwh, V * day.socMaxMwh);
+    if (!endOfDayValue(day, eps, w)) return false;
     this.series.clear();
     this.series.store(T, w);
     for (let t = T - 1; t >= 0; t--) {

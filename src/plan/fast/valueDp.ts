@@ -2,7 +2,7 @@ import { CHARGE_ONLY, DISCHARGE_ONLY, edgeTolerance, LineSolution, SWEEP_END_UNR
 import { clip, concaveSlide, concaveStep, isConcave, maxOf, Pwl, slide, slideMax, valueAt } from './pwl.js';
 import { PwlSeries } from './pwlSeries.js';
 import type { StoredDay } from './storedDay.js';
-import { pruneDead, ValueBounds } from './valueBounds.js';
+import { endOfDayValue, pruneDead, ValueBounds } from './valueBounds.js';
 
 /**
  * Exact dynamic program over stored energy with complementarity in every period, arbitrage periods
@@ -151,16 +151,10 @@ export class ValueDp {
     const X = day.chargeStepMwh;
     const Y = day.dischargeStepMwh;
     const T = day.periods;
-    const floor = day.socEndFloorMwh;
-    if (floor > day.socMaxMwh + eps) return false;
     const h = this.h;
     let g = this.g;
     let j = this.k;
-    j.clear();
-    const V = day.terminalValuePerMwh;
-    const end = Math.min(floor, day.socMaxMwh);
-    j.push(end, V * end);
-    if (end < day.socMaxMwh) j.push(day.socMaxMwh, V * day.socMaxMwh);
+    if (!endOfDayValue(day, eps, j)) return false;
     this.tail.clear();
     this.tail.store(T, j);
     for (let t = T - 1; t >= join; t--) {
@@ -220,19 +214,8 @@ export class ValueDp {
       const domHi = xs[from + n - 1]!;
       const lo = Math.max(domLo, s - (mode === DISCHARGE_ONLY ? 0 : X));
       const hi = Math.min(domHi, s + (mode === CHARGE_ONLY ? 0 : Y));
-      let bestU = lo;
-      let best = -Infinity;
-      // Candidates: both ends of the allowed range, the kink u = s, and the breakpoints inside.
-      for (let c = -3; c < n; c++) {
-        const u = c === -3 ? lo : c === -2 ? hi : c === -1 ? s : xs[from + c]!;
-        if (c >= -1 && !(u > lo && u < hi)) continue;
-        // A breakpoint's value is stored; only the range ends and the kink need interpolating.
-        const v = (c >= 0 ? vs[from + c]! : valueAt(xs, vs, from, n, u)) + (s >= u ? -p * (s - u) : qm * (u - s));
-        if (v > best) {
-          best = v;
-          bestU = u;
-        }
-      }
+      // The move into s is s - u.
+      const bestU = bestNeighbour(xs, vs, from, n, s, lo, hi, p, qm, -1);
       const w = s - bestU;
       const x = w > 0 ? w : 0;
       const y = w < 0 ? -w : 0;
@@ -268,17 +251,8 @@ export class ValueDp {
       const n = this.tail.count[t + 1]!;
       const lo = Math.max(xs[from]!, s - (mode === CHARGE_ONLY ? 0 : Y));
       const hi = Math.min(xs[from + n - 1]!, s + (mode === DISCHARGE_ONLY ? 0 : X));
-      let bestU = lo;
-      let best = -Infinity;
-      for (let c = -3; c < n; c++) {
-        const u = c === -3 ? lo : c === -2 ? hi : c === -1 ? s : xs[from + c]!;
-        if (c >= -1 && !(u > lo && u < hi)) continue;
-        const v = (c >= 0 ? vs[from + c]! : valueAt(xs, vs, from, n, u)) + (u >= s ? -p * (u - s) : qm * (s - u));
-        if (v > best) {
-          best = v;
-          bestU = u;
-        }
-      }
+      // The move out of s is u - s.
+      const bestU = bestNeighbour(xs, vs, from, n, s, lo, hi, p, qm, 1);
       const w = bestU - s;
       const x = w > 0 ? w : 0;
       const y = w < 0 ? -w : 0;
@@ -291,6 +265,28 @@ export class ValueDp {
     out.value = value + day.terminalValuePerMwh * s;
     out.discharged = discharged;
   }
+}
+
+/**
+ * The state u in [lo, hi] maximising F(u) + k(w), F stored in xs, vs [from, from + n), w = direction
+ * (u - s) the period's move and k(w) = -p w (charge, w >= 0) or -qm w (discharge). F + k is linear
+ * between F's breakpoints and the kink u = s, so the maximum lies at one of those or an end of the range.
+ */
+function bestNeighbour(xs: Float64Array, vs: Float64Array, from: number, n: number, s: number, lo: number, hi: number, p: number, qm: number, direction: 1 | -1): number {
+  let bestU = lo;
+  let best = -Infinity;
+  for (let c = -3; c < n; c++) {
+    const u = c === -3 ? lo : c === -2 ? hi : c === -1 ? s : xs[from + c]!;
+    if (c >= -1 && !(u > lo && u < hi)) continue;
+    const w = direction * (u - s);
+    // A breakpoint's value is stored; only the range ends and the kink need interpolating.
+    const v = (c >= 0 ? vs[from + c]! : valueAt(xs, vs, from, n, u)) + (w >= 0 ? -p * w : -qm * w);
+    if (v > best) {
+      best = v;
+      bestU = u;
+    }
+  }
+  return bestU;
 }
 
 /** The last period that may take either mode and whose value k_t is convex (q_t - mu > p_t), or -1. */
