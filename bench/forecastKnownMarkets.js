@@ -132,9 +132,10 @@ function countChosen(forecasts) {
   const counts = {};
   let any = false;
   for (const f of forecasts) {
-    if (f.chosenMethod === undefined) continue;
+    if (f.chosen === null || f.chosen === undefined) continue;
     any = true;
-    counts[f.chosenMethod] = (counts[f.chosenMethod] ?? 0) + 1;
+    const key = `${f.chosen.method} (${f.chosen.calibrationDays} d)`;
+    counts[key] = (counts[key] ?? 0) + 1;
   }
   return any ? counts : null;
 }

@@ -13,7 +13,7 @@ const benches = [
   ['day solver against HiGHS (issue goal: 10x its kept model)', 'daySolver.js', ['--days', '1000']],
   ['one year backtest against reading its CSVs', 'yearBacktest.js', []],
   ['one year sweep on 1 and 2 threads', 'sweepYear.js', []],
-  ['one year of daily forecasts by the default method, share fitting, against reading the year', 'forecastYear.js', []],
+  ['one year of daily forecasts by arx-hs and the default method, share fitting, against reading the year', 'forecastYear.js', []],
   ...(all
     ? [
         ['12 x 12 size grid over a year at hourly resolution', 'sizeGrid.js', ['--grid', '12']],
