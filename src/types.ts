@@ -8,7 +8,7 @@
  * - timestamps are ISO 8601 strings with an offset, e.g. `2027-03-28T02:00:00+02:00`.
  */
 
-/** Market spec, as read from `market.json` (DESIGN.md section 8). */
+/** Market spec, as read from `market.json` (docs/design.md section 8). */
 export interface MarketSpec {
   /** IANA time zone of the delivery day, e.g. `Europe/Berlin`. Required. */
   readonly timeZone: string;
@@ -37,7 +37,7 @@ export interface FallbackRule {
   readonly penaltyPerMwh: number;
 }
 
-/** Battery spec, as read from `battery.json` (DESIGN.md section 8). */
+/** Battery spec, as read from `battery.json` (docs/design.md section 8). */
 export interface BatterySpec {
   /** Nameplate energy capacity [MWh], > 0. */
   readonly energyMwh: number;
@@ -113,7 +113,7 @@ export interface QuantileDay {
 }
 
 /**
- * The day problem the planner solves (DESIGN.md section 4), in physical units.
+ * The day problem the planner solves (docs/design.md section 4), in physical units.
  * Prices are the ones the objective uses; limits are set separately.
  */
 export interface DayProblem {
@@ -171,7 +171,7 @@ export interface Order {
   readonly quantileLevel: number | null;
 }
 
-/** Planning policy names (DESIGN.md section 4). */
+/** Planning policy names (docs/design.md section 4). */
 export type PlanPolicy = 'quantile' | 'median' | 'point';
 
 /**

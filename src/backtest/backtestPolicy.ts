@@ -1,5 +1,5 @@
 /**
- * The policies a backtest compares on the same days (DESIGN.md sections 4 and 5):
+ * The policies a backtest compares on the same days (docs/design.md sections 4 and 5):
  * - `quantile`: schedule and limits on the pessimistic side of the forecast, buys at q(1 - alpha), sells at q(alpha);
  * - `median`: schedule on the median, limits at q(1 - alpha) for buys and q(alpha) for sells;
  * - `point`: schedule and limits on the median;

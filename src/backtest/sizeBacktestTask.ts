@@ -5,7 +5,7 @@
  * its row with the project economics (size/sizeSettingRow.ts).
  */
 import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type GivenForecast } from '../io/readBacktestInputs.js';
-import type { UnacceptedPolicy } from '../settle/settleDay.js';
+import type { UnacceptedRule } from '../settle/settleDay.js';
 import { RunMemo, type PolicyRun } from './policyRun.js';
 import { settingNumber, settingWord } from './settingFields.js';
 import type { AlphaMode } from './size/alphaChoice.js';
@@ -24,7 +24,7 @@ export interface SizeTaskInput {
   readonly from: string;
   readonly to: string;
   readonly alpha: AlphaMode;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
   readonly costs: SizeCosts;
   /** Whether the efficiency axis replaces the spec's efficiencies (--efficiency given). */
   readonly efficiencyGiven: boolean;

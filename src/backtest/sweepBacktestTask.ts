@@ -5,7 +5,7 @@
  */
 import { batteryModel } from '../battery/batterySpec.js';
 import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type GivenForecast } from '../io/readBacktestInputs.js';
-import { UNACCEPTED_POLICIES } from '../settle/settleDay.js';
+import { UNACCEPTED_RULES } from '../settle/settleDay.js';
 import { RunMemo, type PolicyRun } from './policyRun.js';
 import type { BacktestInput } from './runBacktest.js';
 import { settingNumber, settingWord } from './settingFields.js';
@@ -43,7 +43,7 @@ export function run(setting: Setting, context: SweepTaskContext): SweepRow {
     {
       alpha: settingNumber(setting, 'alpha'),
       policy: settingWord(setting, 'policy', SWEEP_POLICIES),
-      unaccepted: settingWord(setting, 'unaccepted', UNACCEPTED_POLICIES),
+      unaccepted: settingWord(setting, 'unaccepted', UNACCEPTED_RULES),
     },
     context.memo,
   );

@@ -1,4 +1,4 @@
-import type { UnacceptedPolicy } from '../settle/settleDay.js';
+import type { UnacceptedRule } from '../settle/settleDay.js';
 import type { SweepRow } from './sweep/taskModule.js';
 import { edgeTest } from './edgeTest.js';
 import { policyMetrics } from './policyMetrics.js';
@@ -14,7 +14,7 @@ export interface SweepSetting {
   /** Central interval [q(alpha), q(1 - alpha)], in (0, 0.5). */
   readonly alpha: number;
   readonly policy: SweepPolicy;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
 }
 
 /**

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import type { BatteryModel, BatterySpec } from '../types.js';
 
-/** Defaults of the optional battery fields (DESIGN.md section 8). */
+/** Defaults of the optional battery fields (docs/design.md section 8). */
 export const BATTERY_DEFAULTS = Object.freeze({
   socMinFraction: 0,
   socMaxFraction: 1,
@@ -99,7 +99,7 @@ export function parseBatterySpec(value: unknown): z.ZodSafeParseResult<BatterySp
  *
  * With only a round-trip efficiency, eta_c = eta_d = sqrt(roundTrip) (common practice: losses split
  * evenly between the two conversions). The cycle cap limits energy discharged at the grid per day to
- * maxCyclesPerDay x usable energy, usable = (socMax - socMin) x energyMwh (DESIGN.md section 4).
+ * maxCyclesPerDay x usable energy, usable = (socMax - socMin) x energyMwh (docs/design.md section 4).
  */
 export function batteryModel(spec: BatterySpec): BatteryModel {
   const roundTrip = spec.roundTripEfficiency;

@@ -1,6 +1,6 @@
 import { InvalidArgumentError } from 'commander';
 import { parseDecimal } from '../io/csvText.js';
-import { shownText } from '../io/shownText.js';
+import { shownText } from '../errors/shownText.js';
 import { isValidDay } from '../market/calendar.js';
 
 /** Value parsers for command-line options; each throws commander's typed error (exit code 2). */

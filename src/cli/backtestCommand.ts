@@ -7,7 +7,7 @@ import { BACKTEST_POLICIES, type BacktestPolicy } from '../backtest/backtestPoli
 import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay } from '../backtest/runBacktest.js';
 import { backtestSummary, backtestSummaryText, daysCsv, LEDGER_COLUMNS, ledgerRows } from '../io/backtestOutputs.js';
 import { backtestReport } from '../report/backtestReport.js';
-import { InputError } from '../io/inputError.js';
+import { InputError } from '../errors/inputError.js';
 import { jsonText } from '../io/planOutputs.js';
 import { readInputFile } from '../io/readInputFile.js';
 import { readPriceHistory } from '../io/readPriceHistory.js';
@@ -15,7 +15,7 @@ import { parseQuantileForecast } from '../io/readQuantileForecast.js';
 import { readBatterySpec, readMarketSpec } from '../io/readSpecs.js';
 import { checkOutputFolder, OutputStage } from '../io/writeOutputs.js';
 import { chooseFallbackSource } from '../settle/fallbackPrices.js';
-import { UNACCEPTED_POLICIES, type UnacceptedPolicy } from '../settle/settleDay.js';
+import { UNACCEPTED_RULES, type UnacceptedRule } from '../settle/settleDay.js';
 import { oneOf, parseAlphaArg, parseDayArg } from './argParsers.js';
 import { addInputOptions, type InputFlags } from './inputOptions.js';
 import type { CliIo } from './cliIo.js';
@@ -26,7 +26,7 @@ export interface BacktestFlags extends InputFlags, ModelFlags {
   readonly from?: string;
   readonly to?: string;
   readonly alpha: number;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
   readonly policies: readonly BacktestPolicy[];
   readonly out?: string;
   readonly force?: boolean;
@@ -54,7 +54,7 @@ export function backtestCommand(io: CliIo): Command {
     .option('--from <YYYY-MM-DD>', 'first delivery day (required)', parseDayArg)
     .option('--to <YYYY-MM-DD>', 'last delivery day, included (required)', parseDayArg)
     .option('--alpha <a>', 'central interval [q(alpha), q(1-alpha)] of the quantile and median policies', parseAlphaArg, BACKTEST_DEFAULTS.alpha)
-    .option('--unaccepted <rule>', 'unaccepted orders: follow-plan (close them at the fallback price) | follow-accepted (move only with accepted orders)', oneOf<UnacceptedPolicy>(UNACCEPTED_POLICIES), BACKTEST_DEFAULTS.unaccepted)
+    .option('--unaccepted <rule>', 'unaccepted orders: follow-plan (close them at the fallback price) | follow-accepted (move only with accepted orders)', oneOf<UnacceptedRule>(UNACCEPTED_RULES), BACKTEST_DEFAULTS.unaccepted)
     .option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}`, parsePoliciesArg, [...BACKTEST_DEFAULTS.policies])
     .option('--out <dir>', 'folder for ledger.csv, days.csv and summary.json (required)')
     .option('--report', 'also write report.html into --out: cumulative profit, daily profit, acceptance, fallback energy, month table')

@@ -6,12 +6,12 @@ import { forecastRange, type ForecastRangeResult } from '../forecast/forecastRan
 import { daysBetween } from '../market/calendar.js';
 import { DayCalendar } from '../market/dayCalendar.js';
 import { formatNumber } from '../io/formatNumber.js';
-import { gatherProblems, InputError, type InputProblem } from '../io/inputError.js';
+import { gatherProblems, InputError, type InputProblem } from '../errors/inputError.js';
 import { jsonText } from '../io/planOutputs.js';
 import { quantileForecastCsv, scenarioPathsCsv } from '../io/quantileForecastCsv.js';
 import { readPriceHistory } from '../io/readPriceHistory.js';
 import { readMarketSpec } from '../io/readSpecs.js';
-import { shownText } from '../io/shownText.js';
+import { shownText } from '../errors/shownText.js';
 import { checkOutputFolder, writeOutputs } from '../io/writeOutputs.js';
 import { oneOf, parseDayArg, parsePathArg } from './argParsers.js';
 import { addInputOptions, resolveInputs, type InputFlags } from './inputOptions.js';

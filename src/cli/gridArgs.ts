@@ -1,7 +1,7 @@
 import { Option, InvalidArgumentError, type Command } from 'commander';
 import { parseDecimal } from '../io/csvText.js';
-import { InputError, type InputProblem } from '../io/inputError.js';
-import { shownText } from '../io/shownText.js';
+import { InputError, type InputProblem } from '../errors/inputError.js';
+import { shownText } from '../errors/shownText.js';
 import { parseDayArg, parsePathArg } from './argParsers.js';
 
 /** Flags that `quantbid sweep` and `quantbid size` share. */

@@ -1,5 +1,5 @@
 import { coveredDays } from '../backtest/coveredDays.js';
-import { InputError, throwIfProblems, type InputProblem } from '../io/inputError.js';
+import { InputError, throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type MakeForecast } from '../io/readBacktestInputs.js';
 import type { InputName } from './inputOptions.js';
 

@@ -1,7 +1,7 @@
 import { existsSync, statSync } from 'node:fs';
 import { relative } from 'node:path';
 import type { Command } from 'commander';
-import { throwIfProblems, type InputProblem } from '../io/inputError.js';
+import { throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { readScenario } from '../io/readScenario.js';
 import { parsePathArg } from './argParsers.js';
 

@@ -1,7 +1,7 @@
 import { InvalidArgumentError } from 'commander';
 import { parseDecimalRange } from '../backtest/sweep/decimalRange.js';
 import { parseDecimal } from '../io/csvText.js';
-import { shownText } from '../io/shownText.js';
+import { shownText } from '../errors/shownText.js';
 
 /** Most quantile levels one forecast may have [-] (0.01:0.99:0.01 is 99). */
 export const MAX_LEVELS = 99;

@@ -3,7 +3,7 @@ import { DEFAULTS, FORECAST_METHODS, type ForecastMethod } from '../forecast/for
 import { NO_STORE, storedForecastRange } from '../forecast/storedForecastRange.js';
 import { DayCalendar } from '../market/dayCalendar.js';
 import { DEFAULT_FORECAST_CACHE_DIR, ForecastCache } from '../io/forecastCache.js';
-import { InputError, throwIfProblems, type InputProblem } from '../io/inputError.js';
+import { InputError, throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { quantileForecastCsv } from '../io/quantileForecastCsv.js';
 import type { BacktestInputPaths, MakeForecast } from '../io/readBacktestInputs.js';
 import { parseQuantileForecast, type QuantileForecastFile } from '../io/readQuantileForecast.js';

@@ -2,7 +2,7 @@ import { Command } from 'commander';
 import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../types.js';
 import { batteryModel } from '../battery/batterySpec.js';
 import { LevelOutOfRangeError } from '../forecast/quantileSet.js';
-import { gatherProblems, InputError, type InputProblem } from '../io/inputError.js';
+import { gatherProblems, InputError, type InputProblem } from '../errors/inputError.js';
 import { jsonText, ordersCsv, scheduleCsv } from '../io/planOutputs.js';
 import { readQuantileForecast, type QuantileForecastFile } from '../io/readQuantileForecast.js';
 import { readBatterySpec, readMarketSpec } from '../io/readSpecs.js';
@@ -87,7 +87,7 @@ export function runPlan(flags: PlanFlags, io: CliIo): void {
       ['report.html'],
     );
   }
-  // Repaired, not refused (DESIGN.md section 6); said on stderr so that --json output stays clean.
+  // Repaired, not refused (docs/design.md section 6); said on stderr so that --json output stays clean.
   if (forecastFile.repairedPeriods > 0) {
     io.stderr(`note: ${paths.forecast}: ${forecastFile.repairedPeriods} periods had crossing quantiles, sorted into order (monotone rearrangement), e.g. ${forecastFile.repairedExamples[0] ?? ''}\n`);
   }

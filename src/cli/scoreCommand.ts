@@ -2,7 +2,7 @@ import { Command } from 'commander';
 import type { PriceHistory } from '../types.js';
 import { compareForecasts } from '../forecast/scoring/compareForecasts.js';
 import { scoreForecasts, type ScoredDay } from '../forecast/scoring/scoreForecasts.js';
-import { gatherProblems, InputError, type InputProblem } from '../io/inputError.js';
+import { gatherProblems, InputError, type InputProblem } from '../errors/inputError.js';
 import { jsonText } from '../io/planOutputs.js';
 import { readPriceHistory } from '../io/readPriceHistory.js';
 import { readQuantileForecast, type QuantileForecastFile } from '../io/readQuantileForecast.js';
@@ -152,7 +152,7 @@ function compareOnCommonDays(scored: readonly ScoredDay[], against: QuantileFore
   return compareForecasts(first, first.map((s) => other.get(s.forecast.day) as ScoredDay));
 }
 
-/** Crossing quantiles are repaired by the reader, not refused (DESIGN.md section 6); said on stderr. */
+/** Crossing quantiles are repaired by the reader, not refused (docs/design.md section 6); said on stderr. */
 function reportRepairs(io: CliIo, files: readonly QuantileForecastFile[]): void {
   for (const file of files) {
     if (file.repairedPeriods > 0) {

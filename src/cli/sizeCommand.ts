@@ -7,13 +7,13 @@ import { SIZE_POLICIES } from '../backtest/size/sizeSettingRow.js';
 import type { SizeTaskInput } from '../backtest/sizeBacktestTask.js';
 import { parseAxes, parseNumberAxis, parseWordAxis, type SweepAxis } from '../backtest/sweep/sweepAxis.js';
 import { daysBetween } from '../market/calendar.js';
-import { InputError, type InputProblem } from '../io/inputError.js';
+import { InputError, type InputProblem } from '../errors/inputError.js';
 import { jsonText } from '../io/planOutputs.js';
 import { sizeSummary, sizeSummaryText } from '../io/sizeOutputs.js';
 import { sizeReport } from '../report/sizeReport.js';
-import { shownText } from '../io/shownText.js';
+import { shownText } from '../errors/shownText.js';
 import { checkOutputFolder } from '../io/writeOutputs.js';
-import { UNACCEPTED_POLICIES, type UnacceptedPolicy } from '../settle/settleDay.js';
+import { UNACCEPTED_RULES, type UnacceptedRule } from '../settle/settleDay.js';
 import { oneOf, parseAlphaArg, parseNonNegativeArg } from './argParsers.js';
 import type { CliIo } from './cliIo.js';
 import { addGridOptions, parsePositiveArg, parseRateArg, requireGridFlags, wholeNumberArg, type GridFlags } from './gridArgs.js';
@@ -31,7 +31,7 @@ export interface SizeFlags extends InputFlags, GridFlags, ModelFlags {
   readonly policy: string;
   readonly alpha: number | 'best';
   readonly alphas?: string;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
   readonly capexPerMwh?: number;
   readonly capexPerMw?: number;
   readonly fixedOmPerMwYear: number;
@@ -46,7 +46,7 @@ export const SIZE_COMMAND_DEFAULTS = Object.freeze({
   policy: 'quantile',
   alpha: 0.1,
   alphas: '0.05:0.45:0.05',
-  unaccepted: 'follow-plan' as UnacceptedPolicy,
+  unaccepted: 'follow-plan' as UnacceptedRule,
   fixedOmPerMwYear: 0,
 });
 
@@ -71,7 +71,7 @@ export function sizeCommand(io: CliIo): Command {
     .option('--policy <list>', `policies to score, from ${SIZE_POLICIES.join(', ')}; perfect-foresight rows are always added`, SIZE_COMMAND_DEFAULTS.policy)
     .option('--alpha <a|best>', 'alpha of the quantile and median policies, or best: chosen per size on the first half of the days, scored on the second', parseAlphaOrBest, SIZE_COMMAND_DEFAULTS.alpha)
     .option('--alphas <list>', `the alphas --alpha best chooses from (default ${SIZE_COMMAND_DEFAULTS.alphas})`)
-    .option('--unaccepted <rule>', `unaccepted orders: ${UNACCEPTED_POLICIES.join(' | ')}`, oneOf<UnacceptedPolicy>(UNACCEPTED_POLICIES), SIZE_COMMAND_DEFAULTS.unaccepted)
+    .option('--unaccepted <rule>', `unaccepted orders: ${UNACCEPTED_RULES.join(' | ')}`, oneOf<UnacceptedRule>(UNACCEPTED_RULES), SIZE_COMMAND_DEFAULTS.unaccepted)
     .option('--capex-per-mwh <x>', 'capital cost of the energy part [currency/MWh] (required)', parseNonNegativeArg)
     .option('--capex-per-mw <x>', 'capital cost of the power part [currency/MW] (required)', parseNonNegativeArg)
     .option('--fixed-om-per-mw-year <x>', 'fixed operation and maintenance [currency/(MW year)]', parseNonNegativeArg, SIZE_COMMAND_DEFAULTS.fixedOmPerMwYear)

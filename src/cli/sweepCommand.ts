@@ -8,7 +8,7 @@ import { jsonText } from '../io/planOutputs.js';
 import { sweepSummary, sweepSummaryText } from '../io/sweepOutputs.js';
 import { sweepReport } from '../report/sweepReport.js';
 import { checkOutputFolder } from '../io/writeOutputs.js';
-import { UNACCEPTED_POLICIES } from '../settle/settleDay.js';
+import { UNACCEPTED_RULES } from '../settle/settleDay.js';
 import type { CliIo } from './cliIo.js';
 import { addGridOptions, requireGridFlags, type GridFlags } from './gridArgs.js';
 import { GRID_INPUTS, readGridInputs } from './gridInputs.js';
@@ -34,7 +34,7 @@ export function sweepCommand(io: CliIo): Command {
     .description('backtest every setting of a grid of alpha x policy x unaccepted rule, in parallel, into sweep.csv (one row per setting)')
     .option('--alphas <list>', 'alphas: values and ranges start:end:step, e.g. 0.02:0.48:0.02 or 0.05,0.1,0.2', SWEEP_COMMAND_DEFAULTS.alphas)
     .option('--policies <list>', `policies whose orders depend on alpha: ${SWEEP_POLICIES.join(', ')}`, SWEEP_COMMAND_DEFAULTS.policies)
-    .option('--unaccepted <list>', `rules for unaccepted orders: ${UNACCEPTED_POLICIES.join(', ')}`, SWEEP_COMMAND_DEFAULTS.unaccepted);
+    .option('--unaccepted <list>', `rules for unaccepted orders: ${UNACCEPTED_RULES.join(', ')}`, SWEEP_COMMAND_DEFAULTS.unaccepted);
   addGridOptions(command, 'sweep.csv');
   command.option('--report', 'also write report.html into --out: profit and acceptance against alpha, best setting marked, top settings');
   addInputOptions(command, GRID_INPUTS);
@@ -66,7 +66,7 @@ export async function runSweepCommand(flags: SweepFlags, io: CliIo): Promise<voi
   const axes = parseAxes([
     () => parseNumberAxis('alpha', '--alphas', flags.alphas, { accept: (a) => a > 0 && a < 0.5, expected: 'an alpha in (0, 0.5)' }),
     () => parseWordAxis('policy', '--policies', flags.policies, SWEEP_POLICIES),
-    () => parseWordAxis('unaccepted', '--unaccepted', flags.unaccepted, UNACCEPTED_POLICIES),
+    () => parseWordAxis('unaccepted', '--unaccepted', flags.unaccepted, UNACCEPTED_RULES),
   ]);
   const { paths } = resolveBacktestInputs(flags, GRID_INPUTS);
   const force = flags.force === true;

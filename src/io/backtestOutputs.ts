@@ -18,7 +18,7 @@ export const LEDGER_COLUMNS = Object.freeze([
 
 /**
  * `days.csv`: one row per covered day and policy. The first nine columns are a contract that scripts
- * rely on (DESIGN.md section 8); later columns may be added.
+ * rely on (docs/design.md section 8); later columns may be added.
  */
 export const DAYS_COLUMNS = Object.freeze([
   'day', 'policy', 'profit', 'soc_start_mwh', 'soc_end_mwh', 'buys_accepted', 'buys', 'sells_accepted', 'sells',

@@ -1,6 +1,6 @@
 import { closeSync, existsSync, fsyncSync, mkdirSync, mkdtempSync, openSync, readdirSync, renameSync, rmdirSync, rmSync, statSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
-import { InputError, type InputProblem } from './inputError.js';
+import { InputError, type InputProblem } from '../errors/inputError.js';
 
 /** One output file: its name inside the output folder and its full text. */
 export interface OutputFile {

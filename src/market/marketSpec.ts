@@ -8,7 +8,7 @@ const finite = (what: string) =>
 const text = (what: string) =>
   z.string({ error: (issue) => (issue.input === undefined ? `missing ${what}` : `${what} must be text in double quotes`) });
 
-/** Schema of `market.json` (DESIGN.md section 8), with sanity checks that say what to fix. */
+/** Schema of `market.json` (docs/design.md section 8), with sanity checks that say what to fix. */
 export const marketSpecSchema = z
   .strictObject({
     timeZone: text('timeZone').refine(isValidTimeZone, { message: 'not an IANA time zone' }),

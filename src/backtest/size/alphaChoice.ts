@@ -1,5 +1,5 @@
 import { daysBetween, shiftDay } from '../../market/calendar.js';
-import type { UnacceptedPolicy } from '../../settle/settleDay.js';
+import type { UnacceptedRule } from '../../settle/settleDay.js';
 import type { BacktestPolicy } from '../backtestPolicy.js';
 import { runPolicy } from '../policyRun.js';
 import type { BacktestInput } from '../runBacktest.js';
@@ -47,7 +47,7 @@ export interface AlphaChoice {
  * Backtests `policy` at each alpha of the grid over [input.from, input.to] (pass the choosing part
  * only) and takes the one with the highest profit; on a tie the first in grid order.
  */
-export function chooseAlpha(input: BacktestInput, policy: BacktestPolicy, alphas: readonly number[], unaccepted: UnacceptedPolicy): AlphaChoice {
+export function chooseAlpha(input: BacktestInput, policy: BacktestPolicy, alphas: readonly number[], unaccepted: UnacceptedRule): AlphaChoice {
   if (alphas.length === 0) throw new RangeError('chooseAlpha: the alpha grid is empty');
   const profits = alphas.map((alpha) => runPolicy(input, policy, { alpha, unaccepted }).profit);
   let best = 0;

@@ -1,6 +1,6 @@
 import { batteryModel } from '../../battery/batterySpec.js';
 import type { BatterySpec, MarketSpec, PriceHistory } from '../../types.js';
-import type { UnacceptedPolicy } from '../../settle/settleDay.js';
+import type { UnacceptedRule } from '../../settle/settleDay.js';
 import { policyMetrics } from '../policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from '../policyRun.js';
 import type { BacktestInput, ForecastDays } from '../runBacktest.js';
@@ -25,7 +25,7 @@ export interface SizeStudy {
   readonly to: string;
   /** A given alpha, or `best`: chosen per size and policy on the first half, scored on the second. */
   readonly alpha: AlphaMode;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
   readonly costs: SizeCosts;
 }
 

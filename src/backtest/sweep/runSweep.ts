@@ -1,6 +1,6 @@
 import { mkdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { InputError } from '../../io/inputError.js';
+import { InputError } from '../../errors/inputError.js';
 import { checkOutputFolder, writeOutputs, type OutputFile } from '../../io/writeOutputs.js';
 import { checkRow } from './sweepRow.js';
 import { sweepCsv } from './sweepCsv.js';

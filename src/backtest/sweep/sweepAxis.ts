@@ -1,4 +1,4 @@
-import { InputError, type InputProblem } from '../../io/inputError.js';
+import { InputError, type InputProblem } from '../../errors/inputError.js';
 import { parseDecimalRange, parseExactDecimal, exactDecimalText } from './decimalRange.js';
 
 /** A value of one axis of a sweep: a number (alpha, energy) or a word (policy name). */

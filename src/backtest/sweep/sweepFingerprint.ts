@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import { InputError } from '../../io/inputError.js';
+import { InputError } from '../../errors/inputError.js';
 import { axisValueText, type SweepAxis } from './sweepAxis.js';
 
 export interface FingerprintParts {

@@ -1,4 +1,4 @@
-import { InputError } from '../../io/inputError.js';
+import { InputError } from '../../errors/inputError.js';
 import { axisValueText, type AxisValue, type SweepAxis } from './sweepAxis.js';
 
 /** One setting of a sweep: a value per axis name, e.g. `{ alpha: 0.02, policy: 'quantile' }`. */

@@ -6,7 +6,7 @@
  * break: reading ignores it, and resuming cuts it off before appending.
  */
 import { closeSync, existsSync, fsyncSync, openSync, readFileSync, renameSync, truncateSync, writeFileSync, writeSync } from 'node:fs';
-import { InputError } from '../../io/inputError.js';
+import { InputError } from '../../errors/inputError.js';
 import type { SweepRow } from './taskModule.js';
 
 export const JOURNAL_FORMAT = 'quantbid-sweep-journal';

@@ -1,4 +1,4 @@
-import { InputError, type InputProblem } from '../../io/inputError.js';
+import { InputError, type InputProblem } from '../../errors/inputError.js';
 
 /** An error as it crosses from a worker thread: plain data (a class does not survive the crossing). */
 export interface SerialisedError {

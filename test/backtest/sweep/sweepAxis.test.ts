@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { InputError } from '../../../src/io/inputError.js';
+import { InputError } from '../../../src/errors/inputError.js';
 import { parseAxes, parseNumberAxis, parseWordAxis } from '../../../src/backtest/sweep/sweepAxis.js';
 
 const ALPHA = Object.freeze({ accept: (a: number) => a > 0 && a < 0.5, expected: 'a number in (0, 0.5)' });

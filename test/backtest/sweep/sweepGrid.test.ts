@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { InputError } from '../../../src/io/inputError.js';
+import { InputError } from '../../../src/errors/inputError.js';
 import { expandGrid, settingKey } from '../../../src/backtest/sweep/sweepGrid.js';
 import type { SweepAxis } from '../../../src/backtest/sweep/sweepAxis.js';
 

@@ -15,7 +15,7 @@ export const DRIVER = fileURLToPath(new URL('./fixtures/sweepDriver.mjs', import
 
 /** The engine as compiled into dist/; fails with what to do when dist/ is older than src/. */
 export async function importCompiledSweep(): Promise<SweepModule> {
-  const sources = [...readdirSync(join(ROOT, 'src/backtest/sweep')).map((f) => `backtest/sweep/${f}`), 'cli/progress.ts', 'io/writeOutputs.ts', 'io/inputError.ts', 'io/formatNumber.ts'];
+  const sources = [...readdirSync(join(ROOT, 'src/backtest/sweep')).map((f) => `backtest/sweep/${f}`), 'cli/progress.ts', 'io/writeOutputs.ts', 'errors/inputError.ts', 'io/formatNumber.ts'];
   const stale = sources.filter((file) => {
     const compiled = join(ROOT, 'dist', file.replace(/\.ts$/, '.js'));
     try {

@@ -2,7 +2,7 @@ import { appendFileSync, mkdtempSync, readFileSync, writeFileSync } from 'node:f
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { InputError } from '../../../src/io/inputError.js';
+import { InputError } from '../../../src/errors/inputError.js';
 import { JOURNAL_FORMAT, JOURNAL_VERSION, JournalWriter, journalLine, readJournal, type JournalHeader } from '../../../src/backtest/sweep/sweepJournal.js';
 
 const HEADER: JournalHeader = Object.freeze({ format: JOURNAL_FORMAT, version: JOURNAL_VERSION, fingerprint: 'f00d', settings: 3, started: '2027-01-01T00:00:00.000Z' });
