@@ -1,14 +1,13 @@
 import { Command, CommanderError } from 'commander';
 import { InputError, formatProblem } from '../errors/inputError.js';
+import { packageVersion } from '../app/packageInfo.js';
 import { backtestCommand } from './backtestCommand.js';
-import { demoCommand } from './demoCommand.js';
 import { forecastCommand } from './forecastCommand.js';
-import { planCommand } from './planCommand.js';
+import { demoCommand, planCommand } from './planCommand.js';
 import { processIo, type CliIo } from './cliIo.js';
 import { scoreCommand } from './scoreCommand.js';
 import { sizeCommand } from './sizeCommand.js';
 import { sweepCommand } from './sweepCommand.js';
-import { packageVersion } from './version.js';
 import { usageErrorText } from './usageError.js';
 
 /** Exit codes (docs/design.md section 7). */

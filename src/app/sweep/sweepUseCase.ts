@@ -1,0 +1,108 @@
+import { z } from 'zod';
+import { SWEEP_POLICIES, type SweepResult, type SweepRow } from '../../backtest/sweepSettingRow.js';
+import { jsonText } from '../../io/planOutputs.js';
+import { checkOutputFolder } from '../../io/writeOutputs.js';
+import { sweepReport } from '../../report/sweepReport.js';
+import type { Done, Interrupted } from '../commandResult.js';
+import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
+import { runCommandGrid } from '../gridRun.js';
+import { inputDataSpan } from '../inputDataSpan.js';
+import { forecastMaker, gridInputFiles } from '../modelForecast.js';
+import { packageVersion } from '../packageInfo.js';
+import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
+import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
+import { alphaSchema, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { isAlpha } from '../../plan/alpha.js';
+import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
+import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
+import type { SweepTaskInput } from './sweepTask.js';
+
+/** Defaults of the axes as written in the help: alphas the demo forecast's levels (0.05 to 0.95) allow, both alpha policies, follow-plan. */
+export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: SWEEP_POLICIES.join(','), unaccepted: 'follow-plan' });
+
+/** The axes of a sweep from their text (`--alphas 0.05:0.45:0.05`, `--policies quantile,median`, ...), every problem listed together. */
+export function sweepAxesFromText(text: { readonly alphas: string; readonly policies: string; readonly unaccepted: string }) {
+  const [alphas, policies, unaccepted] = parseAxes([
+    () => parseNumberAxis('alpha', '--alphas', text.alphas, { accept: isAlpha, expected: `an alpha in (0, 0.5)` }),
+    () => parseWordAxis('policy', '--policies', text.policies, SWEEP_POLICIES),
+    () => parseWordAxis('unaccepted', '--unaccepted', text.unaccepted, UNACCEPTED_RULES),
+  ]);
+  return { alphas: [...alphas.values], policies: [...policies.values], unaccepted: [...unaccepted.values] };
+}
+
+/** The settings of `quantbid sweep`, checked once when the sweep starts; worker threads get them typed. */
+export const sweepSettingsSchema = z
+  .strictObject({
+    ...gridRunSettings,
+    /** First and last delivery day, YYYY-MM-DD, both included. */
+    from: daySchema,
+    to: daySchema,
+    /** The alpha axis, each alpha in (0, 0.5). */
+    alphas: eachOnce(alphaSchema),
+    /** The policy axis: policies whose orders depend on alpha. */
+    policies: eachOnce(z.enum(SWEEP_POLICIES)),
+    /** The axis of rules for unaccepted orders. */
+    unaccepted: eachOnce(unacceptedRuleSchema),
+  })
+  .superRefine((s, ctx) => {
+    const problem = spanProblem(s.from, s.to);
+    if (problem !== null) ctx.addIssue({ code: 'custom', path: ['to'], message: problem });
+  });
+
+export type SweepSettings = z.input<typeof sweepSettingsSchema>;
+
+export type SweepSummary = ReturnType<typeof sweepSummary>;
+
+const OUTPUTS = ['sweep.csv', 'summary.json'] as const;
+
+/**
+ * `quantbid sweep`: a backtest of every setting of the grid alpha x policy x unaccepted rule on the
+ * grid engine (this thread and worker threads, resumable), into sweep.csv, summary.json and, when
+ * asked, report.html.
+ */
+export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QUIET_HOOKS): Promise<Done<SweepSummary> | Interrupted> {
+  const s = validSettings(sweepSettingsSchema, settings, 'sweep');
+  const { from, to } = s;
+  const axes = [
+    { name: 'alpha', option: '--alphas', values: s.alphas },
+    { name: 'policy', option: '--policies', values: s.policies },
+    { name: 'unaccepted', option: '--unaccepted', values: s.unaccepted },
+  ] as const;
+  const paths = runInputPaths(s.inputs, s.model);
+  checkOutputFolder(s.out, s.report ? [...OUTPUTS, 'report.html'] : OUTPUTS, s.force);
+  // With --model the forecasts are made here, once, before the workers start.
+  const maker = forecastMaker(s.model, paths.history, s, hooks);
+  const data = readRunInputs(paths, { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, maker, true);
+  requireCoveredDay(data, paths, from, to);
+  const model = maker?.made();
+  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
+  const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
+  // The summary of the finished grid, made once for summary.json, report.html and the human summary.
+  let made: { readonly results: readonly SweepResult[]; readonly summary: SweepSummary } | undefined;
+  const summaryOf = (results: readonly SweepResult[]): SweepSummary => {
+    if (made?.results !== results) made = { results, summary: sweepSummary(results, { from, to, data, paths, axes, ...modelContext }) };
+    return made.summary;
+  };
+  const outcome = await runCommandGrid<typeof axes, SweepTaskInput, SweepRow>(hooks, 'sweep', {
+    outDir: s.out,
+    axes,
+    taskModule: new URL('./sweepTask.js', import.meta.url),
+    contextInput,
+    identity: { command: 'sweep', version: packageVersion(), from, to, ...(model === undefined ? {} : { forecastModel: model.identity }) },
+    inputFiles: gridInputFiles(paths),
+    ...(s.threads === undefined ? {} : { threads: s.threads }),
+    restart: s.restart,
+    force: s.force,
+    csvName: 'sweep.csv',
+    // In one output set with sweep.csv: a run killed while writing leaves the old outputs or all the new ones.
+    optionalOutputs: ['report.html'],
+    moreOutputs: (results) => [
+      { name: 'summary.json', text: jsonText(summaryOf(results)) },
+      ...(s.report ? [{ name: 'report.html', text: sweepReport({ results, summary: summaryOf(results) }) }] : []),
+    ],
+  });
+  if (outcome.status === 'interrupted') return outcome;
+  const summary = summaryOf(outcome.results);
+  return { status: 'done', summary, text: `${sweepSummaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}` };
+}
