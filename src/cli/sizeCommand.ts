@@ -2,7 +2,7 @@ import { Command, InvalidArgumentError } from 'commander';
 import { gatherProblems, InputError, type InputProblem } from '../errors/inputError.js';
 import { shownText } from '../errors/shownText.js';
 import { alphaBestSpanProblem, SIZE_DEFAULTS, sizeAxesFromText, sizeUseCase, type SizeSettings } from '../app/size/sizeUseCase.js';
-import { SIZE_POLICIES, UNACCEPTED_RULES, type UnacceptedRule } from '../app/vocabulary.js';
+import { ALPHA_RANGE, SIZE_POLICIES, UNACCEPTED_RULES, type UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addGridOptions, addInputOptions, addModelOptions, alphaArg, nonNegativeArg, oneOf, positiveArg, rateArg, reportOption, requireSpanAndOut, wholeNumberArg, type InputFlags, type ModelFlags } from './options.js';
@@ -31,7 +31,7 @@ function parseAlphaOrBest(value: string): number | 'best' {
   try {
     return alphaArg(value);
   } catch {
-    throw new InvalidArgumentError(`"${shownText(value)}" must be an alpha in (0, 0.5), e.g. 0.1, or best`);
+    throw new InvalidArgumentError(`"${shownText(value)}" must be an alpha in ${ALPHA_RANGE}, e.g. 0.1, or best`);
   }
 }
 

@@ -3,8 +3,11 @@ import type { PlanPolicy } from '../types.js';
 /** The planning policies (docs/design.md section 4), in the order the help lists them. */
 export const PLAN_POLICIES: readonly PlanPolicy[] = Object.freeze(['quantile', 'median', 'point']);
 
-/** What an alpha must be, for messages: the rule of isAlpha. */
-export const ALPHA_RULE = 'a number in (0, 0.5)';
+/** The interval an alpha lies in, for messages: the rule of isAlpha. */
+export const ALPHA_RANGE = '(0, 0.5)';
+
+/** What an alpha must be, for messages. */
+export const ALPHA_RULE = `a number in ${ALPHA_RANGE}`;
 
 /**
  * Whether `alpha` is the width of a central interval [q(alpha), q(1 - alpha)] (docs/design.md

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { jsonText } from '../../io/planOutputs.js';
 import { checkOutputFolder } from '../../io/writeOutputs.js';
 import { daysBetween } from '../../market/calendar.js';
-import { isAlpha } from '../../plan/alpha.js';
+import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
 import { sizeReport } from '../../report/sizeReport.js';
 import type { AlphaMode } from '../../sizing/alphaChoice.js';
 import type { SizeResult } from '../../sizing/bestSizes.js';
@@ -38,7 +38,7 @@ export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly p
     ...numbers('energy_mwh', '--energy-mwh', text.energyMwh, (x) => x > 0, 'a number > 0'),
     ...numbers('power_mw', '--power-mw', text.powerMw, (x) => x > 0, 'a number > 0'),
     ...numbers('round_trip_efficiency', '--efficiency', text.efficiency, (x) => x > 0 && x <= 1, 'an efficiency in (0, 1]'),
-    ...numbers('alpha', '--alphas', text.alphas, isAlpha, 'an alpha in (0, 0.5)'),
+    ...numbers('alpha', '--alphas', text.alphas, isAlpha, `an alpha in ${ALPHA_RANGE}`),
     () => parseWordAxis('policy', '--policy', text.policy, SIZE_POLICIES),
   ]);
   const values = (name: string) => axes.find((axis) => axis.name === name)?.values;

@@ -12,7 +12,7 @@ import { packageVersion } from '../packageInfo.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
-import { isAlpha } from '../../plan/alpha.js';
+import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
 import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
 import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
 import type { SweepTaskInput } from './sweepTask.js';
@@ -23,7 +23,7 @@ export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies
 /** The axes of a sweep from their text (`--alphas 0.05:0.45:0.05`, `--policies quantile,median`, ...), every problem listed together. */
 export function sweepAxesFromText(text: { readonly alphas: string; readonly policies: string; readonly unaccepted: string }) {
   const [alphas, policies, unaccepted] = parseAxes([
-    () => parseNumberAxis('alpha', '--alphas', text.alphas, { accept: isAlpha, expected: `an alpha in (0, 0.5)` }),
+    () => parseNumberAxis('alpha', '--alphas', text.alphas, { accept: isAlpha, expected: `an alpha in ${ALPHA_RANGE}` }),
     () => parseWordAxis('policy', '--policies', text.policies, SWEEP_POLICIES),
     () => parseWordAxis('unaccepted', '--unaccepted', text.unaccepted, UNACCEPTED_RULES),
   ]);
