@@ -67,6 +67,12 @@ export function spanProblem(from: string, to: string): string | null {
   return from > to ? `--to ${to} is before --from ${from}` : null;
 }
 
+/** The span check of a settings schema (`.superRefine(checkSpan)`): a `to` before `from` is a problem of `to`. */
+export function checkSpan(settings: { readonly from?: string | undefined; readonly to?: string | undefined }, ctx: z.RefinementCtx): void {
+  const problem = settings.from === undefined || settings.to === undefined ? null : spanProblem(settings.from, settings.to);
+  if (problem !== null) ctx.addIssue({ code: 'custom', path: ['to'], message: problem });
+}
+
 /**
  * The settings checked against their schema, or an InputError that names every wrong field (as
  * `settings: FIELD: what is wrong`); `command` names the command in the advice.

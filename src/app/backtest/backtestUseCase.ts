@@ -12,7 +12,7 @@ import type { Done } from '../commandResult.js';
 import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { readRunInputs, runInputPaths } from '../runInputs.js';
-import { alphaSchema, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { backtestSummary, backtestSummaryText } from './backtestSummary.js';
 
 /** The settings of `quantbid backtest`, checked once when the backtest starts. */
@@ -42,10 +42,7 @@ export const backtestSettingsSchema = z
     /** Also write report.html. */
     report: z.boolean().default(false),
   })
-  .superRefine((s, ctx) => {
-    const problem = spanProblem(s.from, s.to);
-    if (problem !== null) ctx.addIssue({ code: 'custom', path: ['to'], message: problem });
-  });
+  .superRefine(checkSpan);
 
 export type BacktestSettings = z.input<typeof backtestSettingsSchema>;
 

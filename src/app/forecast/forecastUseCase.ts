@@ -16,7 +16,7 @@ import { inputFiles } from '../inputFiles.js';
 import { defaultLevels } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { outFolderProblem } from '../settingRules.js';
-import { daySchema, inputSourcesSchema, levelsSchema, spanProblem, validSettings } from '../settingSchemas.js';
+import { checkSpan, daySchema, inputSourcesSchema, levelsSchema, validSettings } from '../settingSchemas.js';
 
 /** Defaults of `quantbid forecast`: the method of docs/forecast-quality.md, 19 levels, no paths. */
 export const FORECAST_DEFAULTS = Object.freeze({ method: DEFAULT_METHOD, paths: 0 });
@@ -43,10 +43,7 @@ export const forecastSettingsSchema = z
     /** Overwrite existing outputs. */
     force: z.boolean().default(false),
   })
-  .superRefine((s, ctx) => {
-    const problem = spanProblem(s.from, s.to);
-    if (problem !== null) ctx.addIssue({ code: 'custom', path: ['to'], message: problem });
-  });
+  .superRefine(checkSpan);
 
 export type ForecastSettings = z.input<typeof forecastSettingsSchema>;
 type CheckedSettings = z.output<typeof forecastSettingsSchema> & { readonly levels: readonly number[] };

@@ -12,7 +12,7 @@ import type { PriceHistory } from '../../types.js';
 import type { Done } from '../commandResult.js';
 import { inputFiles } from '../inputFiles.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { daySchema, inputSourcesSchema, outFolderSchema, pathSchema, spanProblem, validSettings } from '../settingSchemas.js';
+import { checkSpan, daySchema, inputSourcesSchema, outFolderSchema, pathSchema, validSettings } from '../settingSchemas.js';
 import { scoreSummary, scoreSummaryText } from './scoreSummary.js';
 
 /** The settings of `quantbid score`, checked once when it starts. */
@@ -32,10 +32,7 @@ export const scoreSettingsSchema = z
     /** Also write report.html. */
     report: z.boolean().default(false),
   })
-  .superRefine((s, ctx) => {
-    const problem = s.from === undefined || s.to === undefined ? null : spanProblem(s.from, s.to);
-    if (problem !== null) ctx.addIssue({ code: 'custom', path: ['to'], message: problem });
-  });
+  .superRefine(checkSpan);
 
 export type ScoreSettings = z.input<typeof scoreSettingsSchema>;
 

@@ -1,5 +1,4 @@
 import { z } from 'zod';
-import { jsonText } from '../../io/planOutputs.js';
 import { checkOutputFolder } from '../../io/writeOutputs.js';
 import { daysBetween } from '../../market/calendar.js';
 import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
@@ -8,16 +7,15 @@ import type { AlphaMode } from '../../sizing/alphaChoice.js';
 import type { SizeResult } from '../../sizing/bestSizes.js';
 import { specRoundTripEfficiency } from '../../sizing/scaledBattery.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
-import { SIZE_POLICIES, type SizePolicy, type SizeRow } from '../../sizing/sizeSettingRow.js';
+import { SIZE_POLICIES, type SizePolicy } from '../../sizing/sizeSettingRow.js';
 import type { Done, Interrupted } from '../commandResult.js';
-import { runCommandGrid } from '../gridRun.js';
+import { runGridCommand } from '../gridRun.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
 import { inputDataSpan } from '../inputDataSpan.js';
-import { forecastMaker, gridInputFiles } from '../modelForecast.js';
-import { packageVersion } from '../packageInfo.js';
+import { forecastMaker } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
-import { alphaSchema, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { alphaSchema, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { sizeSummary, sizeSummaryText } from './sizeSummary.js';
 import type { SizeTaskInput } from './sizeTask.js';
 
@@ -91,8 +89,8 @@ export const sizeSettingsSchema = z
     costs: sizeCostsSchema,
   })
   .superRefine((s, ctx) => {
+    checkSpan(s, ctx);
     const span = spanProblem(s.from, s.to);
-    if (span !== null) ctx.addIssue({ code: 'custom', path: ['to'], message: span });
     if (s.alpha !== 'best' && s.alphas !== undefined) ctx.addIssue({ code: 'custom', path: ['alphas'], message: 'is used only with --alpha best' });
     const best = s.alpha === 'best' && span === null ? alphaBestSpanProblem(s.from, s.to) : null;
     if (best !== null) ctx.addIssue({ code: 'custom', path: ['alpha'], message: best });
@@ -131,31 +129,20 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
   ] as const;
   // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
   const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, data: inputDataSpan(data, from, to) };
-  // The summary of the finished grid, made once for summary.json, report.html and the human summary.
-  let made: { readonly results: readonly SizeResult[]; readonly summary: SizeSummary } | undefined;
-  const summaryOf = (results: readonly SizeResult[]): SizeSummary => {
-    if (made?.results !== results) made = { results, summary: sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }) };
-    return made.summary;
-  };
-  const outcome = await runCommandGrid<typeof axes, SizeTaskInput, SizeRow>(hooks, 'size', {
-    outDir: s.out,
-    axes,
-    taskModule: new URL('./sizeTask.js', import.meta.url),
-    contextInput,
-    identity: { command: 'size', version: packageVersion(), from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven, ...(model === undefined ? {} : { forecastModel: model.identity }) },
-    inputFiles: gridInputFiles(paths),
-    ...(s.threads === undefined ? {} : { threads: s.threads }),
-    restart: s.restart,
-    force: s.force,
-    csvName: 'size.csv',
-    // In one output set with size.csv: a run killed while writing leaves the old outputs or all the new ones.
-    optionalOutputs: ['report.html'],
-    moreOutputs: (results) => [
-      { name: 'summary.json', text: jsonText(summaryOf(results)) },
-      ...(s.report ? [{ name: 'report.html', text: sizeReport({ results, summary: summaryOf(results) }) }] : []),
-    ],
-  });
-  if (outcome.status === 'interrupted') return outcome;
-  const summary = summaryOf(outcome.results);
-  return { status: 'done', summary, text: `${sizeSummaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}` };
+  return runGridCommand(
+    {
+      command: 'size',
+      run: s,
+      axes,
+      taskModule: new URL('./sizeTask.js', import.meta.url),
+      contextInput,
+      identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven },
+      paths,
+      model,
+      summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
+      report: (results, summary) => sizeReport({ results, summary }),
+      summaryText: sizeSummaryText,
+    },
+    hooks,
+  );
 }

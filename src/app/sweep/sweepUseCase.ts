@@ -1,17 +1,15 @@
 import { z } from 'zod';
-import { SWEEP_POLICIES, type SweepResult, type SweepRow } from '../../backtest/sweepSettingRow.js';
-import { jsonText } from '../../io/planOutputs.js';
+import { SWEEP_POLICIES, type SweepResult } from '../../backtest/sweepSettingRow.js';
 import { checkOutputFolder } from '../../io/writeOutputs.js';
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
-import { runCommandGrid } from '../gridRun.js';
+import { runGridCommand } from '../gridRun.js';
 import { inputDataSpan } from '../inputDataSpan.js';
-import { forecastMaker, gridInputFiles } from '../modelForecast.js';
-import { packageVersion } from '../packageInfo.js';
+import { forecastMaker } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
-import { alphaSchema, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
 import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
 import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
@@ -44,10 +42,7 @@ export const sweepSettingsSchema = z
     /** The axis of rules for unaccepted orders. */
     unaccepted: eachOnce(unacceptedRuleSchema),
   })
-  .superRefine((s, ctx) => {
-    const problem = spanProblem(s.from, s.to);
-    if (problem !== null) ctx.addIssue({ code: 'custom', path: ['to'], message: problem });
-  });
+  .superRefine(checkSpan);
 
 export type SweepSettings = z.input<typeof sweepSettingsSchema>;
 
@@ -78,31 +73,20 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
   // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
   const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
-  // The summary of the finished grid, made once for summary.json, report.html and the human summary.
-  let made: { readonly results: readonly SweepResult[]; readonly summary: SweepSummary } | undefined;
-  const summaryOf = (results: readonly SweepResult[]): SweepSummary => {
-    if (made?.results !== results) made = { results, summary: sweepSummary(results, { from, to, data, paths, axes, ...modelContext }) };
-    return made.summary;
-  };
-  const outcome = await runCommandGrid<typeof axes, SweepTaskInput, SweepRow>(hooks, 'sweep', {
-    outDir: s.out,
-    axes,
-    taskModule: new URL('./sweepTask.js', import.meta.url),
-    contextInput,
-    identity: { command: 'sweep', version: packageVersion(), from, to, ...(model === undefined ? {} : { forecastModel: model.identity }) },
-    inputFiles: gridInputFiles(paths),
-    ...(s.threads === undefined ? {} : { threads: s.threads }),
-    restart: s.restart,
-    force: s.force,
-    csvName: 'sweep.csv',
-    // In one output set with sweep.csv: a run killed while writing leaves the old outputs or all the new ones.
-    optionalOutputs: ['report.html'],
-    moreOutputs: (results) => [
-      { name: 'summary.json', text: jsonText(summaryOf(results)) },
-      ...(s.report ? [{ name: 'report.html', text: sweepReport({ results, summary: summaryOf(results) }) }] : []),
-    ],
-  });
-  if (outcome.status === 'interrupted') return outcome;
-  const summary = summaryOf(outcome.results);
-  return { status: 'done', summary, text: `${sweepSummaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}` };
+  return runGridCommand(
+    {
+      command: 'sweep',
+      run: s,
+      axes,
+      taskModule: new URL('./sweepTask.js', import.meta.url),
+      contextInput,
+      identity: { from, to },
+      paths,
+      model,
+      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, ...modelContext }),
+      report: (results, summary) => sweepReport({ results, summary }),
+      summaryText: sweepSummaryText,
+    },
+    hooks,
+  );
 }
