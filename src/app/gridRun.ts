@@ -3,12 +3,16 @@ import type { SettingOf } from '../grid/expandGrid.js';
 import { interruptedMessage, runGrid, type GridOptions, type GridOutcome, type GridResult } from '../grid/runGrid.js';
 import { stopOnSigint } from '../grid/stopOnSigint.js';
 import type { GridRow } from '../grid/taskModule.js';
-import type { BacktestInputPaths } from '../io/readBacktestInputs.js';
+import type { BacktestInputData, BacktestInputPaths } from '../io/readBacktestInputs.js';
 import { jsonText } from '../io/planOutputs.js';
+import { checkOutputFolder } from '../io/writeOutputs.js';
+import type { LevelUse } from './forecastLevels.js';
 import type { Done, Interrupted } from './commandResult.js';
-import { gridInputFiles, type ModelForecast } from './modelForecast.js';
+import { forecastMaker, gridInputFiles, type ModelForecast } from './modelForecast.js';
 import { packageVersion } from './packageInfo.js';
 import type { RunHooks } from './runHooks.js';
+import { readRunInputs, requireCoveredDay, runInputPaths } from './runInputs.js';
+import type { InputSources, ModelSettings } from './settingSchemas.js';
 
 /**
  * Runs a grid (runGrid) with a progress display and Ctrl-C handling: the first Ctrl-C lets the
@@ -89,4 +93,25 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
   if (outcome.status === 'interrupted') return outcome;
   const summary = summaryOf(outcome.results);
   return { status: 'done', summary, text: `${spec.summaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}` };
+}
+
+/**
+ * The inputs of a grid command, read and checked in this thread before any setting runs: the input
+ * paths, the output folder (the table, summary.json and, when asked, report.html), every input file
+ * and the levels the grid reads (readRunInputs, remembered for a one-thread grid's task), a span
+ * with at least one covered day; with --model the forecasts are made here, once, before the workers
+ * start.
+ */
+export function readGridInputs(
+  settings: { readonly inputs: InputSources; readonly model?: ModelSettings | undefined; readonly from: string; readonly to: string; readonly out: string; readonly force: boolean; readonly report: boolean },
+  table: string,
+  use: LevelUse,
+  hooks: RunHooks,
+): { readonly paths: BacktestInputPaths; readonly data: BacktestInputData; readonly model: ModelForecast | undefined } {
+  const paths = runInputPaths(settings.inputs, settings.model);
+  checkOutputFolder(settings.out, [table, 'summary.json', ...(settings.report ? ['report.html'] : [])], settings.force);
+  const maker = forecastMaker(settings.model, paths.history, settings, hooks);
+  const data = readRunInputs(paths, use, maker, true);
+  requireCoveredDay(data, paths, settings.from, settings.to);
+  return { paths, data, model: maker?.made() };
 }

@@ -1,4 +1,5 @@
 import type { DayRange } from '../sizing/alphaChoice.js';
+import type { SizeCosts } from '../sizing/sizeEconomics.js';
 
 /**
  * What the sweep and size reports read: the finished settings with their rows, and the parts of the
@@ -54,14 +55,6 @@ export interface SizeReportSummary extends GridSummaryHead {
   readonly alpha: ({ readonly method: 'fixed'; readonly alpha: number } | { readonly method: 'best'; readonly alphas: readonly number[]; readonly choose: DayRange }) & {
     readonly scored: DayRange & { readonly days: readonly string[] };
   };
-  readonly economics: {
-    readonly capexPerMwh: number;
-    readonly capexPerMw: number;
-    readonly fixedOmPerMwYear: number;
-    readonly lifeYears: number;
-    readonly lifeCycles: number | null;
-    readonly discountRate: number;
-    readonly steps: readonly string[];
-  };
+  readonly economics: SizeCosts & { readonly steps: readonly string[] };
   readonly best: readonly { readonly policy: string; readonly highestNpv: PickedSize | null; readonly highestIrr: PickedSize | null }[];
 }

@@ -1,5 +1,4 @@
 import { z } from 'zod';
-import { checkOutputFolder } from '../../io/writeOutputs.js';
 import { daysBetween } from '../../market/calendar.js';
 import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
 import { sizeReport } from '../../report/sizeReport.js';
@@ -9,12 +8,10 @@ import { specRoundTripEfficiency } from '../../sizing/scaledBattery.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
 import { SIZE_POLICIES, type SizePolicy } from '../../sizing/sizeSettingRow.js';
 import type { Done, Interrupted } from '../commandResult.js';
-import { runGridCommand } from '../gridRun.js';
+import { readGridInputs, runGridCommand } from '../gridRun.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
 import { inputDataSpan } from '../inputDataSpan.js';
-import { forecastMaker } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { sizeSummary, sizeSummaryText } from './sizeSummary.js';
 import type { SizeTaskInput } from './sizeTask.js';
@@ -48,6 +45,11 @@ export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly p
     alphas: numbersOf('alpha'),
     policies: [...(values('policy') as readonly (typeof SIZE_POLICIES)[number][])],
   };
+}
+
+/** The alphas `--alpha best` chooses from when none are given: SIZE_DEFAULTS.alphas. */
+function defaultBestAlphas(): number[] {
+  return sizeAxesFromText({ alphas: SIZE_DEFAULTS.alphas, policy: SIZE_DEFAULTS.policy }).alphas ?? [];
 }
 
 /** `--alpha best` chooses on the first half of the days and scores on the second: it needs two days or more. */
@@ -90,17 +92,14 @@ export const sizeSettingsSchema = z
   })
   .superRefine((s, ctx) => {
     checkSpan(s, ctx);
-    const span = spanProblem(s.from, s.to);
     if (s.alpha !== 'best' && s.alphas !== undefined) ctx.addIssue({ code: 'custom', path: ['alphas'], message: 'is used only with --alpha best' });
-    const best = s.alpha === 'best' && span === null ? alphaBestSpanProblem(s.from, s.to) : null;
+    const best = s.alpha === 'best' && spanProblem(s.from, s.to) === null ? alphaBestSpanProblem(s.from, s.to) : null;
     if (best !== null) ctx.addIssue({ code: 'custom', path: ['alpha'], message: best });
   });
 
 export type SizeSettings = z.input<typeof sizeSettingsSchema>;
 
 export type SizeSummary = ReturnType<typeof sizeSummary>;
-
-const OUTPUTS = ['size.csv', 'summary.json'] as const;
 
 /**
  * `quantbid size`: a backtest of every battery size of the grid energy x power [x efficiency] for
@@ -111,15 +110,9 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
   const s = validSettings(sizeSettingsSchema, settings, 'size');
   const { from, to } = s;
   const costs: SizeCosts = s.costs;
-  const alpha: AlphaMode = s.alpha === 'best' ? { method: 'best', alphas: s.alphas ?? sizeAxesFromText({ alphas: SIZE_DEFAULTS.alphas, policy: SIZE_DEFAULTS.policy }).alphas ?? [] } : { method: 'fixed', alpha: s.alpha };
-  const paths = runInputPaths(s.inputs, s.model);
-  checkOutputFolder(s.out, s.report ? [...OUTPUTS, 'report.html'] : OUTPUTS, s.force);
-  // With --model the forecasts are made here, once, before the workers start.
-  const maker = forecastMaker(s.model, paths.history, s, hooks);
+  const alpha: AlphaMode = s.alpha === 'best' ? { method: 'best', alphas: s.alphas ?? defaultBestAlphas() } : { method: 'fixed', alpha: s.alpha };
   const alphas = alpha.method === 'fixed' ? [alpha.alpha] : alpha.alphas;
-  const data = readRunInputs(paths, { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policy' }, maker, true);
-  requireCoveredDay(data, paths, from, to);
-  const model = maker?.made();
+  const { paths, data, model } = readGridInputs(s, 'size.csv', { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policy' }, hooks);
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
   const axes = [
     { name: 'energy_mwh', option: '--energy-mwh', values: s.energiesMwh },

@@ -1,14 +1,11 @@
 import { z } from 'zod';
 import { SWEEP_POLICIES, type SweepResult } from '../../backtest/sweepSettingRow.js';
-import { checkOutputFolder } from '../../io/writeOutputs.js';
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
-import { runGridCommand } from '../gridRun.js';
+import { readGridInputs, runGridCommand } from '../gridRun.js';
 import { inputDataSpan } from '../inputDataSpan.js';
-import { forecastMaker } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
 import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
@@ -48,8 +45,6 @@ export type SweepSettings = z.input<typeof sweepSettingsSchema>;
 
 export type SweepSummary = ReturnType<typeof sweepSummary>;
 
-const OUTPUTS = ['sweep.csv', 'summary.json'] as const;
-
 /**
  * `quantbid sweep`: a backtest of every setting of the grid alpha x policy x unaccepted rule on the
  * grid engine (this thread and worker threads, resumable), into sweep.csv, summary.json and, when
@@ -63,13 +58,7 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
     { name: 'policy', option: '--policies', values: s.policies },
     { name: 'unaccepted', option: '--unaccepted', values: s.unaccepted },
   ] as const;
-  const paths = runInputPaths(s.inputs, s.model);
-  checkOutputFolder(s.out, s.report ? [...OUTPUTS, 'report.html'] : OUTPUTS, s.force);
-  // With --model the forecasts are made here, once, before the workers start.
-  const maker = forecastMaker(s.model, paths.history, s, hooks);
-  const data = readRunInputs(paths, { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, maker, true);
-  requireCoveredDay(data, paths, from, to);
-  const model = maker?.made();
+  const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
   // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
   const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
