@@ -4,7 +4,7 @@ import type { GridPoint } from './expandGrid.js';
 import type { GridRow } from './taskModule.js';
 
 /**
- * The sweep table: one line per setting in grid order; the axis columns (values as in the keys), then
+ * The grid's table (sweep.csv, size.csv): one line per setting in grid order; the axis columns (values as in the keys), then
  * the task's columns (numbers by formatNumber, booleans as true/false, null as an empty cell).
  */
 export function gridCsv(axes: readonly GridAxis[], points: readonly GridPoint[], rows: readonly GridRow[]): string {

@@ -1,6 +1,6 @@
 /**
- * The resume journal of a sweep: a JSON Lines file in the output folder. The first line is a header
- * naming the sweep by a fingerprint of its arguments and inputs; each further line is one finished
+ * The resume journal of a grid (a sweep or a sizing): a JSON Lines file in the output folder. The first line is a header
+ * naming the grid by a fingerprint of its arguments and inputs; each further line is one finished
  * setting, `{"key":...,"row":{...}}`, written in one call and flushed to disk (fsync) before the next
  * setting is recorded. A process killed mid-write leaves at most a torn last line without its line
  * break: reading ignores it, and resuming cuts it off before appending.

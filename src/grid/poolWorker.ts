@@ -1,5 +1,5 @@
 /**
- * Worker thread of the sweep pool (workerPool.ts): loads the task module and its context once, then
+ * Worker thread of the grid's pool (workerPool.ts): loads the task module and its context once, then
  * runs one setting per message and posts the row, or the error, back.
  */
 import { parentPort, workerData } from 'node:worker_threads';

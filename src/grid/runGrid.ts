@@ -17,7 +17,7 @@ import type { GridAxis } from './gridAxis.js';
  * (checkRow.ts) but takes the caller's word for beyond it.
  */
 export interface GridOptions<Axes extends readonly GridAxis[] = readonly GridAxis[], Input = unknown, Row extends GridRow = GridRow> {
-  /** Folder for the table and, while the sweep runs, its journal. Required. */
+  /** Folder for the table and, while the grid runs, its journal. Required. */
   readonly outDir: string;
   /** The grid's axes, in grid order (expandGrid.ts); their types give the settings' type. Required. */
   readonly axes: Axes;

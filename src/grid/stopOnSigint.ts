@@ -1,5 +1,5 @@
 /**
- * Ctrl-C for long runs: the first SIGINT aborts the returned signal (a sweep then starts no new
+ * Ctrl-C for long runs: the first SIGINT aborts the returned signal (a grid then starts no new
  * setting, lets the running ones finish and keeps them); a second SIGINT stops the process at once, as
  * if no handler were installed (the settings running then are lost; the journal stays whole, because
  * each of its lines is written in one call). Call `dispose` when the run is over.

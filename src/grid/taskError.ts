@@ -21,7 +21,7 @@ export function serialiseError(err: unknown): SerialisedError {
 }
 
 /**
- * The error a sweep reports for a failed setting: an InputError as it was (it already says what is
+ * The error a grid reports for a failed setting: an InputError as it was (it already says what is
  * wrong and what to do), anything else as an Error naming the setting, with the original stack.
  */
 export function settingError(err: SerialisedError, key: string): Error {

@@ -12,7 +12,7 @@ export type GridRow = Readonly<Record<string, RowCell>>;
  * What a task module exports; the contract is spelled out in workerPool.ts. `S` is the type of the
  * grid's settings (SettingOf its axes), `Input` the grid's contextInput, `Context` what loadContext
  * makes of it. A task module declares its exports with these types, e.g.
- * `export const run: TaskModule<SweepGridSetting, SweepContext>['run'] = ...`.
+ * `export function run(setting: SweepSetting, context: SweepTaskContext): SweepRow` (app/sweep/sweepTask.ts).
  */
 export interface TaskModule<S extends Setting = Setting, Context = unknown, Input = unknown> {
   run(setting: S, context: Context): GridRow | Promise<GridRow>;

@@ -1,24 +1,25 @@
 /**
  * Runs a task module for many settings, on worker threads or in this thread.
  *
- * Task-module contract (what a sweep task, e.g. one backtest per setting, must provide):
+ * Task-module contract (what a grid's task, e.g. one backtest per setting, must provide):
  * - It is an ES module file of compiled JavaScript, named by path or file URL, that a worker thread
  *   can import on its own: it may import anything, but must not rely on state set up by the caller.
  * - `export function run(setting, context): row` (or a Promise of a row). `setting` is one grid point,
  *   e.g. `{ alpha: 0.02, policy: 'quantile', unaccepted: 'follow-plan' }` (numbers as numbers, words
- *   as strings). `row` is a plain object of result columns: names in lower snake case that differ from
+ *   as strings), of the type its axes give (SettingOf, expandGrid.ts): its values were checked when the
+ *   axes were, so `run` reads them as they are. `row` is a plain object of result columns: names in lower snake case that differ from
  *   the axis names, the same names in the same order for every setting, cells finite numbers, strings
  *   without commas, quotes or line breaks, booleans or null. Numbers are written with formatNumber (6
  *   decimals at most).
  * - `run` must be deterministic: it may depend only on the setting and the context (seeded generators
  *   only, no clock). Then the output is the same for any number of threads and after a resume.
  * - `export function loadContext(input): context` (optional, may be async) is called once per thread
- *   that runs settings (this one and each worker) with the sweep's `contextInput`, before any `run`: read and
+ *   that runs settings (this one and each worker) with the grid's `contextInput`, before any `run`: read and
  *   parse the input files there, not in `run`. Without it the context is `contextInput` itself.
  *   `contextInput` is copied into each worker by structured clone: pass paths and flags, not big data.
  * - To reject a setting as bad input (e.g. an alpha outside the forecast's levels), throw an
  *   InputError: it reaches the CLI as such (exit code 2). Any other throw is a fault naming the setting.
- *   Either stops the sweep: no new settings start, running ones finish and are kept.
+ *   Either stops the grid: no new settings start, running ones finish and are kept.
  *
  * Results are handed to `onResult` in the order the settings finish (not grid order), one at a time,
  * in this thread. After `signal` aborts, no new setting starts; the running ones finish and are handed
