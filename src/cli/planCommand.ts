@@ -1,5 +1,4 @@
 import { Command } from 'commander';
-import { demoUseCase } from '../app/plan/demoUseCase.js';
 import { PLAN_DEFAULTS, planUseCase } from '../app/plan/planUseCase.js';
 import { PLAN_POLICIES, type PlanPolicy } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
@@ -53,17 +52,4 @@ Examples:
     printResult(io, planUseCase(settings, cliHooks(io, false)), flags.json === true);
   });
   return command;
-}
-
-export function demoCommand(io: CliIo): Command {
-  return new Command('demo')
-    .description('plan the next delivery day of the shipped fictional market (Halvorn) and print a summary')
-    .addOption(outOption('also write the plan\'s files into this folder'))
-    .addOption(forceOption())
-    .addOption(jsonOption())
-    .addHelpText('after', '\nExamples:\n  quantbid demo\n  quantbid demo --out runs/demo --force')
-    .action((flags: { out?: string; force?: boolean; json?: boolean }) => {
-      const settings = { ...(flags.out === undefined ? {} : { out: flags.out }), force: flags.force === true };
-      printResult(io, demoUseCase(settings, cliHooks(io, false)), flags.json === true);
-    });
 }
