@@ -1,5 +1,5 @@
-import type { InputProblem } from './inputError.js';
-import { shownText } from './shownText.js';
+import type { InputProblem } from '../errors/inputError.js';
+import { shownText } from '../errors/shownText.js';
 
 /** One CSV data row with its 1-based line number in the file. */
 export interface CsvRow {

@@ -1,10 +1,10 @@
 import type { DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory } from '../types.js';
 import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
-import { InputError, ProblemList } from './inputError.js';
+import { InputError, ProblemList } from '../errors/inputError.js';
 import { parseDecimal, splitCsv, type CsvRow } from './csvText.js';
 import { readInputFile } from './readInputFile.js';
 
-/** Column names with a fixed meaning in a price history (DESIGN.md section 8). */
+/** Column names with a fixed meaning in a price history (docs/design.md section 8). */
 export const HISTORY_COLUMNS = Object.freeze({
   periodStart: 'period_start',
   price: 'price',

@@ -1,11 +1,11 @@
 import type { MarketSpec, QuantileDay } from '../types.js';
 import { DayCalendar, locatePeriod } from '../market/dayCalendar.js';
 import { rearrange } from '../forecast/quantileSet.js';
-import { ProblemList } from './inputError.js';
+import { ProblemList } from '../errors/inputError.js';
 import { fieldCountProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow } from './csvText.js';
 import { readQuantileHeader } from './quantileHeader.js';
 import { readInputFile } from './readInputFile.js';
-import { shownText } from './shownText.js';
+import { shownText } from '../errors/shownText.js';
 
 /** A quantile forecast file, validated: complete days by day, and what was repaired or left out. */
 export interface QuantileForecastFile {

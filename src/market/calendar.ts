@@ -1,5 +1,5 @@
 import { DateTime, IANAZone } from 'luxon';
-import type { DeliveryPeriod } from '../types.js';
+import type { DeliveryPeriod } from './deliveryPeriod.js';
 
 /**
  * The delivery periods of one delivery day in a market's IANA zone.

@@ -51,7 +51,7 @@ interface Candidate {
 /**
  * Solves the day problem exactly, with no simultaneous charge and discharge in any period.
  *
- * Method: the LP relaxation (DESIGN.md section 4) is solved; simultaneous flows in periods where
+ * Method: the LP relaxation (docs/design.md section 4) is solved; simultaneous flows in periods where
  * removing them cannot lower the value are netted out exactly (see simultaneousFlows.ts); in the
  * remaining "arbitrage periods" a depth-first branch and bound fixes the period to charge-only or
  * discharge-only, with the LP value as the bound (Land and Doig 1960). The incumbent is proven

@@ -4,13 +4,13 @@ import type { FallbackPrices } from './fallbackPrices.js';
 import type { SettlementTotals } from './settlementTotals.js';
 
 /**
- * What the battery does about orders the auction did not accept (DESIGN.md section 5):
+ * What the battery does about orders the auction did not accept (docs/design.md section 5):
  * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the fallback price;
  * - `follow-accepted`: it moves only with accepted orders; unaccepted orders have no effect.
  */
-export type UnacceptedPolicy = 'follow-plan' | 'follow-accepted';
+export type UnacceptedRule = 'follow-plan' | 'follow-accepted';
 
-export const UNACCEPTED_POLICIES: readonly UnacceptedPolicy[] = Object.freeze(['follow-plan', 'follow-accepted']);
+export const UNACCEPTED_RULES: readonly UnacceptedRule[] = Object.freeze(['follow-plan', 'follow-accepted']);
 
 /** One period's order as settlement reads it (an Order has these fields and more). */
 export type PeriodOrder = Pick<Order, 'side' | 'quantityMw' | 'limitPrice'>;
@@ -26,7 +26,7 @@ export interface SettleDayInput {
   /** Realised clearing price per period [currency/MWh]. */
   readonly clearingPricePerMwh: readonly number[];
   readonly fallback: FallbackPrices;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
 }
 
 /**
@@ -55,7 +55,7 @@ export interface SettledDay {
 export const SETTLE_TOLERANCE = 1e-6;
 
 /**
- * Settles one delivery day's orders against the realised prices (DESIGN.md section 5).
+ * Settles one delivery day's orders against the realised prices (docs/design.md section 5).
  *
  * Periods are settled in time order; each starts from the state of charge the previous one left.
  * In period t with an order of q MW (energy E = q dt):

@@ -32,7 +32,7 @@ export type FastDayOutcome = DayOutcome | { readonly status: 'not-covered'; read
 export const FAST_SOLVER_NAME = 'fast-warehouse-sweep';
 
 /**
- * Exact special-purpose solver of the day problem of DESIGN.md section 4, with no simultaneous
+ * Exact special-purpose solver of the day problem of docs/design.md section 4, with no simultaneous
  * charge and discharge in any period.
  *
  * Method: the problem in stored-energy units is the warehouse problem (storedDay.ts); its concave

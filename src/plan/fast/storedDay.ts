@@ -1,7 +1,7 @@
 import type { DayProblem } from '../../types.js';
 
 /**
- * The day problem (DESIGN.md section 4) in stored-energy units: the warehouse problem (Cahn 1948;
+ * The day problem (docs/design.md section 4) in stored-energy units: the warehouse problem (Cahn 1948;
  * Bellman 1956, "On the theory of dynamic programming - a warehousing problem", Management Sci.
  * 2(3), doi:10.1287/mnsc.2.3.272).
  *
