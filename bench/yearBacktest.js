@@ -7,14 +7,13 @@
 //   npm run build && node bench/yearBacktest.js [--year 2026] [--reads 5] [--runs 3]
 //
 // Times are medians over --reads reads and --runs backtests; CPU time is process.cpuUsage().
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { gunzipSync } from 'node:zlib';
+import { writeYearInputs } from './lib/yearData.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-const demo = join(root, 'scenarios', 'halvorn');
 const arg = (name, fallback) => {
   const i = process.argv.indexOf(`--${name}`);
   return i > 0 ? process.argv[i + 1] : fallback;
@@ -30,22 +29,12 @@ const { readPriceHistory } = await dist('io/readPriceHistory.js');
 const { readQuantileForecast } = await dist('io/readQuantileForecast.js');
 const { runBacktest } = await dist('backtest/runBacktest.js');
 
-/** The CSV's header and the rows whose local timestamp starts with the year (or is the eve's). */
-function cutToYear(gzPath) {
-  const [header, ...rows] = gunzipSync(readFileSync(gzPath)).toString('utf8').trimEnd().split('\n');
-  const eve = `${Number(YEAR) - 1}-12-31`;
-  return [header, ...rows.filter((row) => row.startsWith(YEAR) || row.startsWith(eve))].join('\n') + '\n';
-}
-
 const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
 const folder = mkdtempSync(join(tmpdir(), 'quantbid-year-'));
 try {
-  const historyPath = join(folder, 'history.csv');
-  const forecastPath = join(folder, 'quantiles.csv');
-  writeFileSync(historyPath, cutToYear(join(demo, 'history.csv.gz')));
-  writeFileSync(forecastPath, cutToYear(join(demo, 'quantiles.csv.gz')));
-  const market = readMarketSpec(join(demo, 'market.json'));
-  const battery = batteryModel(readBatterySpec(join(demo, 'battery.json')));
+  const { historyPath, forecastPath, marketPath, batteryPath } = writeYearInputs(folder, YEAR);
+  const market = readMarketSpec(marketPath);
+  const battery = batteryModel(readBatterySpec(batteryPath));
 
   const readMs = [];
   let history;

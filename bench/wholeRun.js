@@ -1,0 +1,81 @@
+// What a user waits for: whole quantbid processes, Node start-up included, each against a reference
+// process measured in the same rounds (interleaved, so that the machine's drift hits both alike).
+//
+//   year backtest    `quantbid backtest` of one year of the demo market at 15 minutes (19 levels, five
+//                    policies, one setting, ledger.csv, days.csv and summary.json written), against a
+//                    bare Node script that reads the same two CSVs, splits every line and parses every
+//                    number and timestamp (bench/lib/plainRead.js)                     goal: at most 2x
+//   --version        `quantbid --version` against `node -e 0`                             goal: at most 2x
+//   backtest --help  `quantbid backtest --help` against `node -e 0`                       goal: at most 2x
+//   plan             `quantbid plan` of the demo day, cold (a new process), against `node -e 0`
+//                                                                                          goal: at most 3x
+//
+//   npm run build && node bench/wholeRun.js [--year 2026] [--rounds 7]
+//
+// Each figure is a median wall time over --rounds rounds; each ratio is the median over the rounds of
+// the ratio within a round, with the lowest and highest round.
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { demoFolder, writeYearInputs } from './lib/yearData.js';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const arg = (name, fallback) => {
+  const i = process.argv.indexOf(`--${name}`);
+  return i > 0 ? process.argv[i + 1] : fallback;
+};
+const YEAR = arg('year', '2026');
+const ROUNDS = Number(arg('rounds', 7));
+const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
+const quantbid = join(root, 'bin', 'quantbid.js');
+
+/** Wall time of one process [ms]; throws when it fails. */
+function wallMs(args) {
+  const started = performance.now();
+  const result = spawnSync(process.execPath, args, { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
+  const ms = performance.now() - started;
+  if (result.status !== 0) throw new Error(`node ${args.join(' ')} failed (${result.status}): ${result.stderr}`);
+  return ms;
+}
+
+const folder = mkdtempSync(join(tmpdir(), 'quantbid-whole-'));
+try {
+  const inputs = writeYearInputs(folder, YEAR);
+  const out = join(folder, 'out');
+  const runs = {
+    'node -e 0': ['-e', '0'],
+    'plain read': [join(root, 'bench', 'lib', 'plainRead.js'), inputs.historyPath, inputs.forecastPath],
+    'year backtest': [quantbid, 'backtest', '--scenario', inputs.scenarioPath, '--from', `${YEAR}-01-01`, '--to', `${YEAR}-12-31`, '--out', out, '--force', '--quiet'],
+    '--version': [quantbid, '--version'],
+    'backtest --help': [quantbid, 'backtest', '--help'],
+    plan: [quantbid, 'plan', '--scenario', join(demoFolder, 'scenario.json'), '--out', join(folder, 'plan'), '--force'],
+  };
+  const times = Object.fromEntries(Object.keys(runs).map((name) => [name, []]));
+  for (const args of Object.values(runs)) wallMs(args); // warm the file cache
+  for (let round = 0; round < ROUNDS; round++) {
+    for (const [name, args] of Object.entries(runs)) times[name].push(wallMs(args));
+  }
+  const comparisons = [
+    ['year backtest', 'plain read', 2],
+    ['--version', 'node -e 0', 2],
+    ['backtest --help', 'node -e 0', 2],
+    ['plan', 'node -e 0', 3],
+  ];
+  const mib = (path) => (statSync(path).size / 1048576).toFixed(1);
+  console.log(`whole processes, Node start-up included, ${ROUNDS} interleaved rounds; year ${YEAR} of the demo market at 15 minutes,`);
+  console.log(`history ${mib(inputs.historyPath)} MiB, forecast ${mib(inputs.forecastPath)} MiB (19 levels); ledger.csv ${mib(join(out, 'ledger.csv'))} MiB written`);
+  for (const name of ['node -e 0', 'plain read']) console.log(`  ${name.padEnd(16)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall (reference)`);
+  for (const [name, reference, goal] of comparisons) {
+    const ratios = times[name].map((ms, i) => ms / times[reference][i]);
+    const ratio = median(ratios);
+    const verdict = ratio <= goal ? 'met' : 'not met';
+    console.log(
+      `  ${name.padEnd(16)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall = ${ratio.toFixed(2)}x ${reference} ` +
+        `(rounds ${Math.min(...ratios).toFixed(2)} to ${Math.max(...ratios).toFixed(2)}; goal at most ${goal}x: ${verdict})`,
+    );
+  }
+} finally {
+  rmSync(folder, { recursive: true, force: true });
+}
