@@ -1,5 +1,6 @@
-import { DateTime, IANAZone } from 'luxon';
+import { DateTime, IANAZone, Info, type Zone } from 'luxon';
 import type { DeliveryPeriod } from '../types.js';
+import { dayNumber, dayText } from './civilDays.js';
 
 /**
  * The delivery periods of one delivery day in a market's IANA zone.
@@ -34,10 +35,20 @@ export function deliveryPeriods(day: string, timeZone: string, periodMinutes: nu
   return periods;
 }
 
-/** UTC offset of a zone at an instant [min]. */
+/**
+ * UTC offset of a zone at an instant [min]: what DateTime.fromMillis(ms, { zone }).offset gives, asked
+ * of luxon's zone object itself (kept per zone name) without making a DateTime.
+ */
 function offsetMinutes(ms: number, timeZone: string): number {
-  return DateTime.fromMillis(ms, { zone: timeZone }).offset;
+  let zone = zones.get(timeZone);
+  if (zone === undefined) {
+    zone = Info.normalizeZone(timeZone);
+    zones.set(timeZone, zone);
+  }
+  return zone.offset(ms);
 }
+
+const zones = new Map<string, Zone>();
 
 /** ISO 8601 local time for a fixed offset, e.g. `2027-06-15T10:00:00+02:00` (same text as formatInstant). */
 function formatWithOffset(ms: number, offsetMin: number): string {
@@ -85,6 +96,10 @@ export function nextDay(day: string): string {
 
 /** `day` shifted by `days` calendar days. */
 export function shiftDay(day: string, days: number): string {
+  // Days YYYY-MM-DD within years 0000 to 9999 by day numbers; anything else as the zone library has it.
+  const number = Number.isInteger(days) ? dayNumber(day) : null;
+  const shifted = number === null ? null : dayText(number + days);
+  if (shifted !== null) return shifted;
   const text = DateTime.fromISO(day, { zone: 'UTC' }).plus({ days }).toISODate();
   if (text === null) throw new RangeError(`not a valid day: ${day}`);
   return text;
@@ -106,8 +121,7 @@ export function isValidTimeZone(name: string): boolean {
   return IANAZone.isValidZone(name);
 }
 
-const DAY_PATTERN = /^\d{4}-\d{2}-\d{2}$/;
-
+/** Whether `text` is a day YYYY-MM-DD of the (proleptic Gregorian) calendar. */
 export function isValidDay(text: string): boolean {
-  return DAY_PATTERN.test(text) && DateTime.fromISO(text, { zone: 'UTC' }).isValid;
+  return dayNumber(text) !== null;
 }
