@@ -10,10 +10,12 @@
 //   plan             `quantbid plan` of the demo day, cold (a new process), against `node -e 0`
 //                                                                                          goal: at most 3x
 //
-//   npm run build && node bench/wholeRun.js [--year 2026] [--rounds 7]
+//   npm run build && node bench/wholeRun.js [--year 2026] [--rounds 7] [--baseline DIR]
 //
 // Each figure is a median wall time over --rounds rounds; each ratio is the median over the rounds of
-// the ratio within a round, with the lowest and highest round.
+// the ratio within a round, with the lowest and highest round. --baseline DIR (another built checkout,
+// e.g. a worktree of the previous commit) times the same quantbid commands of DIR in the same rounds,
+// so that a change is measured before and after on the same machine at the same time.
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -28,8 +30,8 @@ const arg = (name, fallback) => {
 };
 const YEAR = arg('year', '2026');
 const ROUNDS = Number(arg('rounds', 7));
+const BASELINE = arg('baseline', null);
 const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
-const quantbid = join(root, 'bin', 'quantbid.js');
 
 /** Wall time of one process [ms]; throws when it fails. */
 function wallMs(args) {
@@ -44,13 +46,21 @@ const folder = mkdtempSync(join(tmpdir(), 'quantbid-whole-'));
 try {
   const inputs = writeYearInputs(folder, YEAR);
   const out = join(folder, 'out');
+  /** The quantbid processes of the checkout at `checkout`, named with `suffix`, writing into folders named with `tag`. */
+  const quantbidRuns = (checkout, suffix, tag) => {
+    const quantbid = join(checkout, 'bin', 'quantbid.js');
+    return {
+      [`year backtest${suffix}`]: [quantbid, 'backtest', '--scenario', inputs.scenarioPath, '--from', `${YEAR}-01-01`, '--to', `${YEAR}-12-31`, '--out', `${out}${tag}`, '--force', '--quiet'],
+      [`--version${suffix}`]: [quantbid, '--version'],
+      [`backtest --help${suffix}`]: [quantbid, 'backtest', '--help'],
+      [`plan${suffix}`]: [quantbid, 'plan', '--scenario', join(demoFolder, 'scenario.json'), '--out', join(folder, `plan${tag}`), '--force'],
+    };
+  };
   const runs = {
     'node -e 0': ['-e', '0'],
     'plain read': [join(root, 'bench', 'lib', 'plainRead.js'), inputs.historyPath, inputs.forecastPath],
-    'year backtest': [quantbid, 'backtest', '--scenario', inputs.scenarioPath, '--from', `${YEAR}-01-01`, '--to', `${YEAR}-12-31`, '--out', out, '--force', '--quiet'],
-    '--version': [quantbid, '--version'],
-    'backtest --help': [quantbid, 'backtest', '--help'],
-    plan: [quantbid, 'plan', '--scenario', join(demoFolder, 'scenario.json'), '--out', join(folder, 'plan'), '--force'],
+    ...quantbidRuns(root, '', ''),
+    ...(BASELINE === null ? {} : quantbidRuns(BASELINE, ' (baseline)', '-baseline')),
   };
   const times = Object.fromEntries(Object.keys(runs).map((name) => [name, []]));
   for (const args of Object.values(runs)) wallMs(args); // warm the file cache
@@ -62,17 +72,18 @@ try {
     ['--version', 'node -e 0', 2],
     ['backtest --help', 'node -e 0', 2],
     ['plan', 'node -e 0', 3],
-  ];
+  ].flatMap(([name, reference, goal]) => [[name, reference, goal], ...(BASELINE === null ? [] : [[`${name} (baseline)`, reference, goal]])]);
   const mib = (path) => (statSync(path).size / 1048576).toFixed(1);
   console.log(`whole processes, Node start-up included, ${ROUNDS} interleaved rounds; year ${YEAR} of the demo market at 15 minutes,`);
   console.log(`history ${mib(inputs.historyPath)} MiB, forecast ${mib(inputs.forecastPath)} MiB (19 levels); ledger.csv ${mib(join(out, 'ledger.csv'))} MiB written`);
-  for (const name of ['node -e 0', 'plain read']) console.log(`  ${name.padEnd(16)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall (reference)`);
+  if (BASELINE !== null) console.log(`baseline: the same commands of ${BASELINE}`);
+  for (const name of ['node -e 0', 'plain read']) console.log(`  ${name.padEnd(BASELINE === null ? 16 : 27)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall (reference)`);
   for (const [name, reference, goal] of comparisons) {
     const ratios = times[name].map((ms, i) => ms / times[reference][i]);
     const ratio = median(ratios);
     const verdict = ratio <= goal ? 'met' : 'not met';
     console.log(
-      `  ${name.padEnd(16)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall = ${ratio.toFixed(2)}x ${reference} ` +
+      `  ${name.padEnd(BASELINE === null ? 16 : 27)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall = ${ratio.toFixed(2)}x ${reference} ` +
         `(rounds ${Math.min(...ratios).toFixed(2)} to ${Math.max(...ratios).toFixed(2)}; goal at most ${goal}x: ${verdict})`,
     );
   }
