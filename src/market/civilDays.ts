@@ -20,7 +20,7 @@ export function dayNumber(day: string): number | null {
   return era * 146097 + dayOfEra - 719468;
 }
 
-/** The YYYY-MM-DD text of a day number, or null when its year is outside 0000 to 9999. */
+/** The YYYY-MM-DD text of a day number, or null when its year is outside 0000 to 9999 (or it is no number). */
 export function dayText(number: number): string | null {
   const z = number + 719468;
   const era = Math.floor(z / 146097);
@@ -31,7 +31,7 @@ export function dayText(number: number): string | null {
   const date = dayOfYear - Math.floor((153 * shifted + 2) / 5) + 1;
   const month = shifted < 10 ? shifted + 3 : shifted - 9;
   const year = yearOfEra + era * 400 + (month <= 2 ? 1 : 0);
-  if (year < 0 || year > 9999) return null;
+  if (!(year >= 0 && year <= 9999)) return null;
   return `${String(year).padStart(4, '0')}-${month < 10 ? '0' : ''}${month}-${date < 10 ? '0' : ''}${date}`;
 }
 

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { DateTime } from 'luxon';
 import { describe, expect, it } from 'vitest';
-import { isValidDay, shiftDay } from '../../src/market/calendar.js';
+import { deliveryPeriods, isValidDay, shiftDay } from '../../src/market/calendar.js';
 import { dayNumber, dayText } from '../../src/market/civilDays.js';
 
 /** Reference: luxon's reading of ISO dates in UTC (proleptic Gregorian calendar). */
@@ -46,5 +46,41 @@ describe('civil days against luxon', () => {
       { seed: 170303, numRuns: 20_000 },
     );
     expect(() => shiftDay('2026-02-30', 1)).toThrow(RangeError);
+  });
+});
+
+describe('period texts of days with one offset', () => {
+  /** Reference: the local time written from the engine's Date (UTC fields of the instant plus the offset). */
+  function byDate(ms: number, offsetMin: number): string {
+    const local = new Date(ms + offsetMin * 60_000);
+    const two = (n: number) => (n < 10 ? `0${n}` : String(n));
+    const abs = Math.abs(offsetMin);
+    return (
+      `${String(local.getUTCFullYear()).padStart(4, '0')}-${two(local.getUTCMonth() + 1)}-${two(local.getUTCDate())}` +
+      `T${two(local.getUTCHours())}:${two(local.getUTCMinutes())}:${two(local.getUTCSeconds())}${offsetMin < 0 ? '-' : '+'}${two(Math.floor(abs / 60))}:${two(abs % 60)}`
+    );
+  }
+
+  it('are the Date-written local times with the day offset (luxon), in zones with quarter- and half-hour offsets and in local mean time', () => {
+    const zones = ['Europe/Berlin', 'America/St_Johns', 'Asia/Kathmandu', 'Pacific/Chatham', 'Australia/Lord_Howe', 'America/Los_Angeles', 'Pacific/Kiritimati', 'UTC'];
+    fc.assert(
+      fc.property(fc.constantFrom(...zones), validDay.filter((day) => day >= '1850-01-01' && day <= '2100-12-31'), fc.constantFrom(15, 30, 60), (zone, day, periodMinutes) => {
+        let periods;
+        try {
+          periods = deliveryPeriods(day, zone, periodMinutes);
+        } catch {
+          return; // a day not cut into whole periods (a shift of seconds in local mean time)
+        }
+        const offsets = new Set(periods.map((p) => DateTime.fromMillis(p.startMs, { zone }).offset));
+        const first = periods[0] as { startMs: number };
+        const offset = DateTime.fromMillis(first.startMs, { zone }).offset;
+        if (offsets.size !== 1 || DateTime.fromMillis(first.startMs + periods.length * periodMinutes * 60_000, { zone }).offset !== offset) return;
+        periods.forEach((p) => {
+          expect(p.start).toBe(byDate(p.startMs, offset));
+          expect(p.end).toBe(byDate(p.startMs + periodMinutes * 60_000, offset));
+        });
+      }),
+      { seed: 170304, numRuns: 1_500 },
+    );
   });
 });
