@@ -22,16 +22,12 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { demoFolder, writeYearInputs } from './lib/yearData.js';
+import { median, option } from './lib/args.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-const arg = (name, fallback) => {
-  const i = process.argv.indexOf(`--${name}`);
-  return i > 0 ? process.argv[i + 1] : fallback;
-};
-const YEAR = arg('year', '2026');
-const ROUNDS = Number(arg('rounds', 7));
-const BASELINE = arg('baseline', null);
-const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
+const YEAR = option('year', '2026');
+const ROUNDS = Number(option('rounds', 7));
+const BASELINE = option('baseline', null);
 
 /** Wall time of one process [ms]; throws when it fails. */
 function wallMs(args) {

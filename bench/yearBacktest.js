@@ -12,15 +12,12 @@ import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { writeYearInputs } from './lib/yearData.js';
+import { median, option } from './lib/args.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-const arg = (name, fallback) => {
-  const i = process.argv.indexOf(`--${name}`);
-  return i > 0 ? process.argv[i + 1] : fallback;
-};
-const YEAR = arg('year', '2026');
-const READS = Number(arg('reads', 5));
-const RUNS = Number(arg('runs', 3));
+const YEAR = option('year', '2026');
+const READS = Number(option('reads', 5));
+const RUNS = Number(option('runs', 3));
 const dist = (path) => import(pathToFileURL(join(root, 'dist', path)).href);
 
 const { readMarketSpec, readBatterySpec } = await dist('io/readSpecs.js');
@@ -29,7 +26,6 @@ const { readPriceHistory } = await dist('io/readPriceHistory.js');
 const { readQuantileForecast } = await dist('io/readQuantileForecast.js');
 const { runBacktest } = await dist('backtest/runBacktest.js');
 
-const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
 const folder = mkdtempSync(join(tmpdir(), 'quantbid-year-'));
 try {
   const { historyPath, forecastPath, marketPath, batteryPath } = writeYearInputs(folder, YEAR);

@@ -136,6 +136,7 @@ export function settleDay(input: SettleDayInput): SettledDay {
       auctionCash,
       fallbackCash,
       degradationCost,
+      auctionCash + fallbackCash - degradationCost,
       soc,
     );
     periods[t] = period;
@@ -200,43 +201,19 @@ function checkInput(input: SettleDayInput, count: number): void {
  * piles up as garbage; objects made by `new` are not placed that way. Same fields, same order.
  */
 class SettledPeriodRecord implements SettledPeriod {
-  readonly accepted: boolean | null;
-  readonly boughtAuctionMwh: number;
-  readonly soldAuctionMwh: number;
-  readonly boughtFallbackMwh: number;
-  readonly soldFallbackMwh: number;
-  readonly chargedMwh: number;
-  readonly dischargedMwh: number;
-  readonly auctionCash: number;
-  readonly fallbackCash: number;
-  readonly degradationCost: number;
-  readonly profit: number;
-  readonly socMwh: number;
-
+  // Parameter properties become fields in this order: the order of the fields as they always were.
   constructor(
-    accepted: boolean | null,
-    boughtAuctionMwh: number,
-    soldAuctionMwh: number,
-    boughtFallbackMwh: number,
-    soldFallbackMwh: number,
-    chargedMwh: number,
-    dischargedMwh: number,
-    auctionCash: number,
-    fallbackCash: number,
-    degradationCost: number,
-    socMwh: number,
-  ) {
-    this.accepted = accepted;
-    this.boughtAuctionMwh = boughtAuctionMwh;
-    this.soldAuctionMwh = soldAuctionMwh;
-    this.boughtFallbackMwh = boughtFallbackMwh;
-    this.soldFallbackMwh = soldFallbackMwh;
-    this.chargedMwh = chargedMwh;
-    this.dischargedMwh = dischargedMwh;
-    this.auctionCash = auctionCash;
-    this.fallbackCash = fallbackCash;
-    this.degradationCost = degradationCost;
-    this.profit = auctionCash + fallbackCash - degradationCost;
-    this.socMwh = socMwh;
-  }
+    readonly accepted: boolean | null,
+    readonly boughtAuctionMwh: number,
+    readonly soldAuctionMwh: number,
+    readonly boughtFallbackMwh: number,
+    readonly soldFallbackMwh: number,
+    readonly chargedMwh: number,
+    readonly dischargedMwh: number,
+    readonly auctionCash: number,
+    readonly fallbackCash: number,
+    readonly degradationCost: number,
+    readonly profit: number,
+    readonly socMwh: number,
+  ) {}
 }
