@@ -13,11 +13,13 @@
 //   npm run build && node bench/wholeRun.js [--year 2026] [--rounds 7] [--baseline DIR]
 //
 // Each figure is a median wall time over --rounds rounds; each ratio is the median over the rounds of
-// the ratio within a round, with the lowest and highest round. --baseline DIR (another built checkout,
+// the ratio within a round, with the lowest and highest round. Where Linux's /proc tells, the CPU time
+// of each process (user + system, 10 ms ticks) is given too, with the ratio of the medians: on a busy
+// machine wall times swing more than CPU times. --baseline DIR (another built checkout,
 // e.g. a worktree of the previous commit) times the same quantbid commands of DIR in the same rounds,
 // so that a change is measured before and after on the same machine at the same time.
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, statSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -29,13 +31,28 @@ const YEAR = option('year', '2026');
 const ROUNDS = Number(option('rounds', 7));
 const BASELINE = option('baseline', null);
 
-/** Wall time of one process [ms]; throws when it fails. */
-function wallMs(args) {
+/**
+ * CPU time of this process's finished children [ms], user and system (Linux: /proc/self/stat, fields
+ * cutime and cstime, in ticks of 10 ms); null where there is no /proc.
+ */
+function childrenCpuMs() {
+  try {
+    const fields = readFileSync('/proc/self/stat', 'utf8').split(') ')[1].split(' ');
+    return (Number(fields[13]) + Number(fields[14])) * 10;
+  } catch {
+    return null;
+  }
+}
+
+/** Wall and CPU time of one process [ms] (CPU null where unknown); throws when it fails. */
+function timed(args) {
+  const cpuBefore = childrenCpuMs();
   const started = performance.now();
   const result = spawnSync(process.execPath, args, { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
-  const ms = performance.now() - started;
+  const wall = performance.now() - started;
+  const cpuAfter = childrenCpuMs();
   if (result.status !== 0) throw new Error(`node ${args.join(' ')} failed (${result.status}): ${result.stderr}`);
-  return ms;
+  return { wall, cpu: cpuBefore === null || cpuAfter === null ? null : cpuAfter - cpuBefore };
 }
 
 const folder = mkdtempSync(join(tmpdir(), 'quantbid-whole-'));
@@ -59,10 +76,22 @@ try {
     ...(BASELINE === null ? {} : quantbidRuns(BASELINE, ' (baseline)', '-baseline')),
   };
   const times = Object.fromEntries(Object.keys(runs).map((name) => [name, []]));
-  for (const args of Object.values(runs)) wallMs(args); // warm the file cache
+  const cpu = Object.fromEntries(Object.keys(runs).map((name) => [name, []]));
+  for (const args of Object.values(runs)) timed(args); // warm the file cache
   for (let round = 0; round < ROUNDS; round++) {
-    for (const [name, args] of Object.entries(runs)) times[name].push(wallMs(args));
+    for (const [name, args] of Object.entries(runs)) {
+      const { wall, cpu: cpuMs } = timed(args);
+      times[name].push(wall);
+      cpu[name].push(cpuMs);
+    }
   }
+  const cpuKnown = Object.values(cpu).every((list) => list.every((ms) => ms !== null));
+  /** ` (CPU ...)`: the median CPU time, and the ratio of medians against `reference` when given. */
+  const cpuNote = (name, reference) => {
+    if (!cpuKnown) return '';
+    const ratio = reference === undefined ? '' : ` = ${(median(cpu[name]) / median(cpu[reference])).toFixed(2)}x`;
+    return `; CPU ${median(cpu[name]).toFixed(0)} ms${ratio}`;
+  };
   const comparisons = [
     ['year backtest', 'plain read', 2],
     ['--version', 'node -e 0', 2],
@@ -73,14 +102,14 @@ try {
   console.log(`whole processes, Node start-up included, ${ROUNDS} interleaved rounds; year ${YEAR} of the demo market at 15 minutes,`);
   console.log(`history ${mib(inputs.historyPath)} MiB, forecast ${mib(inputs.forecastPath)} MiB (19 levels); ledger.csv ${mib(join(out, 'ledger.csv'))} MiB written`);
   if (BASELINE !== null) console.log(`baseline: the same commands of ${BASELINE}`);
-  for (const name of ['node -e 0', 'plain read']) console.log(`  ${name.padEnd(BASELINE === null ? 16 : 27)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall (reference)`);
+  for (const name of ['node -e 0', 'plain read']) console.log(`  ${name.padEnd(BASELINE === null ? 16 : 27)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall (reference${cpuNote(name)})`);
   for (const [name, reference, goal] of comparisons) {
     const ratios = times[name].map((ms, i) => ms / times[reference][i]);
     const ratio = median(ratios);
     const verdict = ratio <= goal ? 'met' : 'not met';
     console.log(
       `  ${name.padEnd(BASELINE === null ? 16 : 27)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall = ${ratio.toFixed(2)}x ${reference} ` +
-        `(rounds ${Math.min(...ratios).toFixed(2)} to ${Math.max(...ratios).toFixed(2)}; goal at most ${goal}x: ${verdict})`,
+        `(rounds ${Math.min(...ratios).toFixed(2)} to ${Math.max(...ratios).toFixed(2)}; goal at most ${goal}x: ${verdict}${cpuNote(name, reference)})`,
     );
   }
 } finally {
