@@ -1,8 +1,10 @@
 // One year of the demo market at 15 minutes, five policies, one setting (alpha 0.1, follow-plan):
 // the backtest's days per second and the share of its time spent solving day problems, against the
-// time to read and validate that year's history and forecast CSVs (the floor of any run), measured in
-// the same process. Both CSVs are cut to the year (with the last day of the year before, which the
-// history needs for the first day's state) and written uncompressed to a temporary folder first.
+// time quantbid's readers take to read and validate that year's history and forecast CSVs, measured in
+// the same process (medians, so the cold first read does not count). What a user waits for, the whole
+// process against a plain read, is bench/wholeRun.js. Both CSVs are cut to the year (with the last day of
+// the year before, which the history needs for the first day's state) and written uncompressed to a
+// temporary folder first.
 //
 //   npm run build && node bench/yearBacktest.js [--year 2026] [--reads 5] [--runs 3]
 //
@@ -67,7 +69,7 @@ try {
   const read = median(readMs);
   console.log(`year ${YEAR} of the demo market at 15 minutes: ${days} days covered, ${policies} policies, alpha 0.1, follow-plan`);
   console.log(`read and validate history + forecast CSVs   median ${(read / 1000).toFixed(3)} s over ${READS} reads (the reference)`);
-  console.log(`backtest, plan and settle every policy      median ${(totals.ms / 1000).toFixed(3)} s over ${RUNS} runs = ${(totals.ms / read).toFixed(2)} x the read (goal: at most 2)`);
+  console.log(`backtest, plan and settle every policy      median ${(totals.ms / 1000).toFixed(3)} s over ${RUNS} runs = ${(totals.ms / read).toFixed(2)} x the read`);
   console.log(`  days per second                          ${(days / (totals.ms / 1000)).toFixed(0)} (${((days * policies) / (totals.ms / 1000)).toFixed(0)} policy-days per second)`);
   console.log(`  share of the time solving day problems   ${(100 * totals.solveShare).toFixed(1)} %`);
   console.log(`the same, keeping every period's ledger     median ${(ledger.ms / 1000).toFixed(3)} s = ${(ledger.ms / read).toFixed(2)} x the read, ${(100 * ledger.solveShare).toFixed(1)} % solving`);
