@@ -1,5 +1,7 @@
+import type { DeliveryPeriod } from '../types.js';
 import type { BacktestDay, BacktestResult } from '../backtest/runBacktest.js';
-import { csvLine } from './formatNumber.js';
+import { CsvBuilder } from './csvBuilder.js';
+import { csvLine, formatNumber } from './formatNumber.js';
 
 /**
  * `ledger.csv`: one row per covered day, policy and delivery period, in that order. The order columns
@@ -29,30 +31,86 @@ export function ledgerCsv(result: BacktestResult): string {
 
 /**
  * The ledger.csv rows of one covered day, each ending in a line break; ledger.csv is the header line
- * (LEDGER_COLUMNS) and then these rows day by day, so a long backtest can write it as it goes.
+ * (LEDGER_COLUMNS) and then these rows day by day, so a long backtest can write it as it goes. The rows
+ * are written as bytes (CsvBuilder); the day's realised prices, the same in every policy's rows, are
+ * formatted once per period and copied.
  */
 export function ledgerRows(day: BacktestDay): string {
-  const lines: string[] = [];
+  const out = ledgerBuilder;
+  const count = day.periods.length;
+  // Where the prices of period t (clearing, fallback buy, fallback sell) were written in this text.
+  const priceFrom = new Int32Array(count).fill(-1);
+  const priceTo = new Int32Array(count);
   for (const run of day.runs) {
-    if (run.ledger === null) throw new RangeError('ledgerCsv: the backtest was run without keepLedger');
+    if (run.ledger === null) {
+      out.take();
+      throw new RangeError('ledgerCsv: the backtest was run without keepLedger');
+    }
     const { orders, periods } = run.ledger;
-    day.periods.forEach((period, t) => {
+    for (let t = 0; t < count; t++) {
+      const period = day.periods[t] as DeliveryPeriod;
       const order = orders[t] ?? null;
       const s = periods[t];
-      if (s === undefined) throw new RangeError(`ledgerCsv: no settlement for ${period.start}`);
-      lines.push(
-        csvLine([
-          day.day, run.policy, period.start,
-          order?.side ?? '', order === null ? '' : order.quantityMw, order === null ? '' : order.limitPrice, s.accepted === null ? '' : String(s.accepted),
-          day.clearingPricePerMwh[t] as number, day.fallback.buyPerMwh[t] as number, day.fallback.sellPerMwh[t] as number,
-          s.boughtAuctionMwh, s.soldAuctionMwh, s.boughtFallbackMwh, s.soldFallbackMwh,
-          s.chargedMwh, s.dischargedMwh, s.auctionCash, s.fallbackCash, s.degradationCost, s.profit, s.socMwh,
-        ]),
-      );
-    });
+      if (s === undefined) {
+        out.take();
+        throw new RangeError(`ledgerCsv: no settlement for ${period.start}`);
+      }
+      out.text(day.day);
+      out.comma();
+      out.text(run.policy);
+      out.comma();
+      out.text(period.start);
+      out.comma();
+      if (order !== null) {
+        out.text(order.side);
+        out.comma();
+        out.number(order.quantityMw);
+        out.comma();
+        out.number(order.limitPrice);
+      } else out.text(',,');
+      out.comma();
+      if (s.accepted !== null) out.text(s.accepted ? 'true' : 'false');
+      out.comma();
+      const from = priceFrom[t] as number;
+      if (from < 0) {
+        priceFrom[t] = out.position;
+        out.number(day.clearingPricePerMwh[t] as number);
+        out.comma();
+        out.number(day.fallback.buyPerMwh[t] as number);
+        out.comma();
+        out.number(day.fallback.sellPerMwh[t] as number);
+        priceTo[t] = out.position;
+      } else out.copy(from, priceTo[t] as number);
+      out.comma();
+      out.number(s.boughtAuctionMwh);
+      out.comma();
+      out.number(s.soldAuctionMwh);
+      out.comma();
+      out.number(s.boughtFallbackMwh);
+      out.comma();
+      out.number(s.soldFallbackMwh);
+      out.comma();
+      out.number(s.chargedMwh);
+      out.comma();
+      out.number(s.dischargedMwh);
+      out.comma();
+      out.number(s.auctionCash);
+      out.comma();
+      out.number(s.fallbackCash);
+      out.comma();
+      out.number(s.degradationCost);
+      out.comma();
+      out.number(s.profit);
+      out.comma();
+      out.number(s.socMwh);
+      out.newline();
+    }
   }
-  return lines.length === 0 ? '' : `${lines.join('\n')}\n`;
+  return out.take();
 }
+
+/** One builder for every day's ledger rows: its buffer is kept from day to day. */
+const ledgerBuilder = new CsvBuilder();
 
 export function daysCsv(result: BacktestResult): string {
   const lines = [DAYS_COLUMNS.join(',')];
