@@ -36,7 +36,7 @@ export { NodeLimitError, SOLVE_DAY_DEFAULTS, solveDay, type SolveDayOptions } fr
 export { scheduleValue } from './plan/scheduleValue.js';
 
 // ---- settle a day's orders against realised prices ----
-export { chooseFallbackSource, dayFallbackPrices, type FallbackPrices, type FallbackSource } from './settle/fallbackPrices.js';
+export { chooseImbalanceSource, dayImbalancePrices, type ImbalancePrices, type ImbalanceSource } from './settle/imbalancePrices.js';
 export { settleDay, UNACCEPTED_RULES, type SettleDayInput, type SettledDay, type SettledPeriod, type UnacceptedRule } from './settle/settleDay.js';
 export type { SettlementTotals } from './settle/settlementTotals.js';
 
