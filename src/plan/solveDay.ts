@@ -4,7 +4,7 @@ import { infeasibilityReason } from './dayFeasibility.js';
 import { javascriptLpSolver, type LpSolver } from './lpSolver.js';
 import { scheduleValue, socPath } from './scheduleValue.js';
 import { isArbitragePeriod, netPeriod } from './simultaneousFlows.js';
-import { solveDayFast } from './fast/solveDayFast.js';
+import { solveWarehouseDay } from './warehouse/solveWarehouseDay.js';
 
 /** Options of solveDay, merged over SOLVE_DAY_DEFAULTS. */
 export interface SolveDayOptions {
@@ -14,11 +14,19 @@ export interface SolveDayOptions {
   readonly maxNodes: number;
   /** A node is pruned when its bound is within this relative gap of the incumbent [-]. */
   readonly relativeGap: number;
-  /** Try the exact special-purpose solver (src/plan/fast) first; the LP path takes the days it does not cover. */
-  readonly fast: boolean;
+  /**
+   * Which path solves the day: `auto` tries the warehouse solver (src/plan/warehouse) and hands the
+   * days it does not cover to the LP path; `warehouse` uses the warehouse solver alone (a day it does
+   * not cover throws UncoveredDayError); `lp` uses the LP path alone (LP relaxation by `lpSolver`,
+   * our branch and bound on arbitrage periods), e.g. to check it. Default `auto`.
+   */
+  readonly solver: DaySolverChoice;
   /** Adds the time spent in solveDay to this counter (benchmarks); the caller hands in the clock. Default none. */
   readonly stopwatch?: SolveStopwatch;
 }
+
+/** The paths solveDay can take (SolveDayOptions.solver). */
+export type DaySolverChoice = 'auto' | 'warehouse' | 'lp';
 
 /** Time spent solving day problems, read with the caller's clock [ms]. */
 export interface SolveStopwatch {
@@ -31,8 +39,16 @@ export const SOLVE_DAY_DEFAULTS: SolveDayOptions = Object.freeze({
   lpSolver: javascriptLpSolver,
   maxNodes: 5000,
   relativeGap: 1e-10,
-  fast: true,
+  solver: 'auto',
 });
+
+/** Thrown by solveDay with `solver: 'warehouse'` on a day the warehouse solver does not cover. */
+export class UncoveredDayError extends Error {
+  constructor(reason: string) {
+    super(`the warehouse solver does not cover this day (${reason}); solve it with solver 'auto' or 'lp'`);
+    this.name = 'UncoveredDayError';
+  }
+}
 
 /** Thrown when the branch and bound cannot prove optimality within its node budget. */
 export class NodeLimitError extends Error {
@@ -73,9 +89,10 @@ export function solveDay(problem: DayProblem, options: Partial<SolveDayOptions> 
 function solveDayWith(problem: DayProblem, settings: SolveDayOptions): DayOutcome {
   const reason = infeasibilityReason(problem);
   if (reason !== null) return { status: 'infeasible', reason };
-  if (settings.fast) {
-    const fast = solveDayFast(problem);
-    if (fast.status !== 'not-covered') return fast;
+  if (settings.solver !== 'lp') {
+    const outcome = solveWarehouseDay(problem);
+    if (outcome.status !== 'not-covered') return outcome;
+    if (settings.solver === 'warehouse') throw new UncoveredDayError(outcome.reason);
   }
   const periods = problem.buyPricePerMwh.length;
   const flowTolMw = 1e-9 * Math.max(1, problem.battery.chargeMw, problem.battery.dischargeMw);

@@ -91,7 +91,7 @@ describe('planPolicyDay', () => {
   const request = { forecast, realised, market, battery: small, alpha: 0.1, socStartMwh: 0, solveOptions: {} };
 
   it('without a proven optimum in the node budget the policy places no orders and says why', () => {
-    const plan = planPolicyDay({ ...request, policy: 'point', solveOptions: { maxNodes: 1, fast: false } });
+    const plan = planPolicyDay({ ...request, policy: 'point', solveOptions: { maxNodes: 1, solver: 'lp' } });
     expect(plan.status).toBe('node-limit');
     expect(plan.orders).toEqual([null, null]);
   });

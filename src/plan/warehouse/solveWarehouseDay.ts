@@ -6,8 +6,8 @@ import { DayContext, DpSolver, SweepSolver } from './dayContext.js';
 import { LineSolution, SWEEP_START_UNREACHABLE } from './lineSweep.js';
 import { toStoredDay, type StoredDay, type StoredDayArrays } from './storedDay.js';
 
-/** Options of solveDayFast, merged over FAST_SOLVER_DEFAULTS. */
-export interface FastSolverOptions {
+/** Options of solveWarehouseDay, merged over WAREHOUSE_SOLVER_DEFAULTS. */
+export interface WarehouseSolverOptions {
   /** Branch-and-bound nodes on the chord sweep before the dynamic program takes over. */
   readonly sweepNodes: number;
   /** Runs of the dynamic program in its branch and bound (only a binding cycle cap needs more than one). */
@@ -24,12 +24,12 @@ export interface FastSolverOptions {
  * Budgets measured on seeded days (bench/daySolverCheck.js): about 0.5 % of days with a
  * negative-price stretch exceed the first two; the last resort has solved every one so far.
  */
-export const FAST_SOLVER_DEFAULTS: FastSolverOptions = Object.freeze({ sweepNodes: 64, programNodes: 64, maxBreakpoints: 400, lastResortNodes: 20_000, lastResortBreakpoints: 200_000 });
+export const WAREHOUSE_SOLVER_DEFAULTS: WarehouseSolverOptions = Object.freeze({ sweepNodes: 64, programNodes: 64, maxBreakpoints: 400, lastResortNodes: 20_000, lastResortBreakpoints: 200_000 });
 
 /** A DayOutcome, or `not-covered` when the caller must fall back to the general LP path. */
-export type FastDayOutcome = DayOutcome | { readonly status: 'not-covered'; readonly reason: string };
+export type WarehouseDayOutcome = DayOutcome | { readonly status: 'not-covered'; readonly reason: string };
 
-export const FAST_SOLVER_NAME = 'fast-warehouse-sweep';
+export const WAREHOUSE_SOLVER_NAME = 'fast-warehouse-sweep';
 
 /**
  * Exact special-purpose solver of the day problem of DESIGN.md section 4, with no simultaneous
@@ -49,11 +49,11 @@ export const FAST_SOLVER_NAME = 'fast-warehouse-sweep';
  * result depends on the problem only.
  *
  * Returns `optimal` with the schedule in grid units (MW; socMwh by the recursion of section 4),
- * `infeasible` with a reason, or `not-covered` (fastSolverGap, or both budgets spent).
+ * `infeasible` with a reason, or `not-covered` (uncoveredReason, or both budgets spent).
  */
-export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOptions> = {}): FastDayOutcome {
-  const settings: FastSolverOptions = { ...FAST_SOLVER_DEFAULTS, ...options };
-  // fastSolverGap in two parts: the prices are checked through their sum as toStoredDay converts them.
+export function solveWarehouseDay(problem: DayProblem, options: Partial<WarehouseSolverOptions> = {}): WarehouseDayOutcome {
+  const settings: WarehouseSolverOptions = { ...WAREHOUSE_SOLVER_DEFAULTS, ...options };
+  // uncoveredReason in two parts: the prices are checked through their sum as toStoredDay converts them.
   const gap = scalarGap(problem);
   if (gap !== null) return { status: 'not-covered', reason: gap };
   const engine = engineFor(problem.buyPricePerMwh.length, settings.maxBreakpoints);
@@ -104,7 +104,7 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
     return { status: 'infeasible', reason: endReason(problem, day) };
   }
   const { schedule, objective } = toSchedule(problem, day, best);
-  return { status: 'optimal', schedule, objective, solver: FAST_SOLVER_NAME, nodes: nodes + outcome.nodes };
+  return { status: 'optimal', schedule, objective, solver: WAREHOUSE_SOLVER_NAME, nodes: nodes + outcome.nodes };
 }
 
 /**

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { concaveStep, maxOf, Pwl } from '../../src/plan/fast/pwl.js';
+import { concaveStep, maxOf, Pwl } from '../../../src/plan/warehouse/pwl.js';
 
 // The piecewise-linear operations of the day solver's dynamic program, checked against their
 // definitions evaluated by enumeration (fast-check, fixed seeds):
