@@ -1,19 +1,17 @@
 import type { DayProblem } from '../types.js';
 import type { LpModel } from './lpSolver.js';
-
-/** Per-period restriction used by the branch and bound: the period may only charge, or only discharge. */
-export type PeriodMode = 'charge-only' | 'discharge-only';
+import { PERIOD_MODE } from './periodMode.js';
 
 /**
  * The planning LP of DESIGN.md section 4 as a row model. Variables: c{t} charge [MW], d{t} discharge
  * [MW], s{t} state of charge at the end of period t [MWh]. Rows:
  * - b{t}: s_t - s_{t-1} - eta_c dt c_t + (dt / eta_d) d_t = 0   (s_0 moved to the right-hand side)
  * - s_t within [socMin, socMax]; s_T >= max(socMin, socEndMin)
- * - c_t <= chargeMw, d_t <= dischargeMw (0 where a mode forbids the flow)
+ * - c_t <= chargeMw, d_t <= dischargeMw (0 where the period's mode, a PERIOD_MODE value, forbids the flow)
  * - cycle cap: sum_t dt d_t <= maxDischargeMwhPerDay
  * Objective row `value`: sum_t dt (sell_t - deg) d_t - dt buy_t c_t + terminal s_T.
  */
-export function dayLpModel(problem: DayProblem, modes: ReadonlyMap<number, PeriodMode> = new Map()): LpModel {
+export function dayLpModel(problem: DayProblem, modes?: Int8Array): LpModel {
   const { battery, periodHours: dt } = problem;
   const periods = problem.buyPricePerMwh.length;
   const constraints: Record<string, { max?: number; min?: number; equal?: number }> = {};
@@ -22,10 +20,10 @@ export function dayLpModel(problem: DayProblem, modes: ReadonlyMap<number, Perio
   const hasCap = battery.maxDischargeMwhPerDay !== undefined;
   if (hasCap) constraints.cycles = { max: battery.maxDischargeMwhPerDay as number };
   for (let t = 0; t < periods; t++) {
-    const mode = modes.get(t);
+    const mode = modes?.[t] ?? PERIOD_MODE.free;
     constraints[`b${t}`] = { equal: t === 0 ? problem.socStartMwh : 0 };
-    constraints[`cmax${t}`] = { max: mode === 'discharge-only' ? 0 : battery.chargeMw };
-    constraints[`dmax${t}`] = { max: mode === 'charge-only' ? 0 : battery.dischargeMw };
+    constraints[`cmax${t}`] = { max: mode === PERIOD_MODE.dischargeOnly ? 0 : battery.chargeMw };
+    constraints[`dmax${t}`] = { max: mode === PERIOD_MODE.chargeOnly ? 0 : battery.dischargeMw };
     constraints[`smax${t}`] = { max: battery.socMaxMwh };
     constraints[`smin${t}`] = { min: t === periods - 1 ? endFloor : battery.socMinMwh };
     variables[`c${t}`] = { value: -dt * (problem.buyPricePerMwh[t] as number), [`b${t}`]: -battery.chargeEfficiency * dt, [`cmax${t}`]: 1 };

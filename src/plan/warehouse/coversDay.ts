@@ -1,7 +1,7 @@
 import type { DayProblem } from '../../types.js';
 
 /**
- * Whether the fast solver covers a day problem: null when it does, else the reason (the caller
+ * Whether the warehouse solver covers a day problem: null when it does, else the reason (the caller
  * then uses the general LP path). Covered: at least one period, equal-length finite price series,
  * dt > 0, efficiencies > 0, power limits >= 0, finite state-of-charge values, finite wear cost and
  * terminal value, no cycle cap or a finite cap >= 0. An empty window or an unreachable floor is

@@ -1,91 +1,100 @@
-import { LineSolution, sweepLine, SweepWorkspace, type SweepStatus } from './lineSweep.js';
+import { sweepLine, SweepWorkspace, type SweepObserver } from './lineSweep.js';
+import type { StageStatus } from './stageStatus.js';
 import type { StoredDay } from './storedDay.js';
-import { ValueDp } from './valueDp.js';
+import { StoredSchedule } from './storedSchedule.js';
 
-/** Solves the loaded day at a multiplier mu on discharged energy, with per-period modes. */
-export interface MuSolver {
-  solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus;
-  /** Whether every solution has x_t y_t = 0 in every period already (nothing to net). */
-  readonly complementary: boolean;
+/**
+ * The inner problem of the cycle-cap search (cycleCapMultiplier.ts): the loaded day solved at a
+ * multiplier mu on discharged energy, with per-period modes, into `out`.
+ */
+export interface MultiplierSolver {
+  /** `sweep` (lineSweep.ts): convex periods on their chord, whose flows may be simultaneous; `program` (valueDp.ts): one mode per period, exactly. */
+  readonly method: 'sweep' | 'program';
+  solveAt(mu: number, modes: Int8Array, out: StoredSchedule): StageStatus;
 }
 
-/** The concave sweep (lineSweep.ts). */
-export class SweepSolver implements MuSolver {
-  readonly complementary = false;
-  private readonly workspace: SweepWorkspace;
+/** One step of the cycle-cap search, as an observer sees it (cycleCapMultiplier.ts). */
+export interface MultiplierStep {
+  /** `zero`: the solve at mu = 0; `idle`: the do-nothing schedule taken as the first low side; `high`: the solve at muHigh; `trial`: a solve at the crossing of the two sides' lines. */
+  readonly kind: 'zero' | 'idle' | 'high' | 'trial';
+  readonly mu: number;
+  readonly status: StageStatus;
+  /** The solution's value (without the multiplier term) and discharged energy [MWh stored]. */
+  readonly value: number;
+  readonly discharged: number;
+}
+
+/** One node of the branching, as an observer sees it (arbitrageBranching.ts). */
+export interface BranchNode {
+  readonly modes: Int8Array;
+  readonly status: StageStatus;
+  /** The node's bound (its relaxation's value), NaN unless the status is ok. */
+  readonly bound: number;
+  /** What the node led to: pruned by the incumbent, a new incumbent, split on a period, or infeasible. */
+  readonly outcome: 'pruned' | 'incumbent' | 'split' | 'infeasible';
+  /** The split period, or -1. */
+  readonly split: number;
+}
+
+/** Looks at a solve as it goes (docs/day-solver.md traces a day with one); the solver runs without. */
+export interface SolveObserver {
+  readonly sweep?: SweepObserver;
+  multiplierStep?(step: MultiplierStep): void;
+  branchNode?(node: BranchNode): void;
+}
+
+/** The chord sweep as a MultiplierSolver. */
+export class SweepSolver implements MultiplierSolver {
+  readonly method = 'sweep';
+  readonly workspace: SweepWorkspace;
   private day: StoredDay | null = null;
+  private observer: SweepObserver | undefined;
 
   constructor(capacity: number) {
     this.workspace = new SweepWorkspace(capacity);
   }
 
-  load(day: StoredDay): this {
+  load(day: StoredDay, observer?: SweepObserver): this {
     this.day = day;
+    this.observer = observer;
     return this;
   }
 
-  solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
-    return sweepLine(this.day!, mu, modes, this.workspace, out);
+  solveAt(mu: number, modes: Int8Array, out: StoredSchedule): StageStatus {
+    return sweepLine(this.day!, mu, modes, this.workspace, out, this.observer);
   }
 }
 
-/** The exact dynamic program (valueDp.ts). */
-export class DpSolver implements MuSolver {
-  readonly complementary = true;
-  private readonly dp: ValueDp;
-
-  constructor(capacity: number, maxBreakpoints: number) {
-    this.dp = new ValueDp(capacity, maxBreakpoints);
-  }
-
-  load(day: StoredDay): this {
-    this.dp.load(day);
-    return this;
-  }
-
-  /** See ValueDp.setIncumbent. */
-  setIncumbent(value: number, discharged: number): void {
-    this.dp.setIncumbent(value, discharged);
-  }
-
-  /** See ValueDp.maxBreakpoints. */
-  set maxBreakpoints(count: number) {
-    this.dp.maxBreakpoints = count;
-  }
-
-  solveAt(mu: number, modes: Int8Array, out: LineSolution): SweepStatus {
-    return this.dp.solveAt(mu, modes, out);
-  }
-}
-
-/** One day's problem, its solver and the scratch solutions of the cycle-cap search and the branching. */
+/** One day's problem, its inner solver, and the scratch schedules of the cycle-cap search and the branching. */
 export class DayContext {
-  /** The two sides of the cap and a trial (cycleCapDual.ts). */
-  readonly above: LineSolution;
-  readonly below: LineSolution;
-  readonly trial: LineSolution;
+  /** The two sides of the cap and a trial (cycleCapMultiplier.ts). */
+  readonly above: StoredSchedule;
+  readonly below: StoredSchedule;
+  readonly trial: StoredSchedule;
   /** A node's relaxation and its netted copy (arbitrageBranching.ts). */
-  readonly node: LineSolution;
-  readonly netted: LineSolution;
+  readonly node: StoredSchedule;
+  readonly netted: StoredSchedule;
   /** The root's modes (all free); the branching reuses it for one child. */
   readonly rootModes: Int8Array;
   /** muHigh, computed on first use for the loaded day (NaN until then). */
   private highMultiplier = Number.NaN;
   day!: StoredDay;
-  solver!: MuSolver;
+  solver!: MultiplierSolver;
+  observer: SolveObserver | undefined;
 
   constructor(capacity: number) {
-    this.above = new LineSolution(capacity);
-    this.below = new LineSolution(capacity);
-    this.trial = new LineSolution(capacity);
-    this.node = new LineSolution(capacity);
-    this.netted = new LineSolution(capacity);
+    this.above = new StoredSchedule(capacity);
+    this.below = new StoredSchedule(capacity);
+    this.trial = new StoredSchedule(capacity);
+    this.node = new StoredSchedule(capacity);
+    this.netted = new StoredSchedule(capacity);
     this.rootModes = new Int8Array(capacity);
   }
 
-  load(day: StoredDay, solver: MuSolver): this {
+  load(day: StoredDay, solver: MultiplierSolver, observer?: SolveObserver): this {
     this.day = day;
     this.solver = solver;
+    this.observer = observer;
     this.highMultiplier = Number.NaN;
     return this;
   }

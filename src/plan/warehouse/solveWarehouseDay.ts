@@ -1,10 +1,10 @@
 import type { DayOutcome, DayProblem, Schedule } from '../../types.js';
 import { branchOnArbitrage, type BranchOutcome } from './arbitrageBranching.js';
 import { priceGap, scalarGap } from './coversDay.js';
-import { CAP_UNREACHABLE } from './cycleCapDual.js';
-import { DayContext, DpSolver, SweepSolver } from './dayContext.js';
-import { LineSolution, SWEEP_START_UNREACHABLE } from './lineSweep.js';
-import { toStoredDay, type StoredDay, type StoredDayArrays } from './storedDay.js';
+import type { MultiplierSolver, SolveObserver } from './dayContext.js';
+import { toStoredDay, type StoredDay } from './storedDay.js';
+import type { StoredSchedule } from './storedSchedule.js';
+import { DayWorkspace } from './workspace.js';
 
 /** Options of solveWarehouseDay, merged over WAREHOUSE_SOLVER_DEFAULTS. */
 export interface WarehouseSolverOptions {
@@ -20,6 +20,12 @@ export interface WarehouseSolverOptions {
   readonly lastResortBreakpoints: number;
 }
 
+/** What a call may bring besides budgets: its own workspace (day loops keep one), an observer (the traced day of docs/day-solver.md). */
+export interface WarehouseSolveContext {
+  readonly workspace?: DayWorkspace;
+  readonly observer?: SolveObserver;
+}
+
 /**
  * Budgets measured on seeded days (bench/daySolverCheck.js): about 0.5 % of days with a
  * negative-price stretch exceed the first two; the last resort has solved every one so far.
@@ -29,82 +35,104 @@ export const WAREHOUSE_SOLVER_DEFAULTS: WarehouseSolverOptions = Object.freeze({
 /** A DayOutcome, or `not-covered` when the caller must fall back to the general LP path. */
 export type WarehouseDayOutcome = DayOutcome | { readonly status: 'not-covered'; readonly reason: string };
 
+/** The method label of an optimal outcome (plan.json and the plan report print it). */
 export const WAREHOUSE_SOLVER_NAME = 'fast-warehouse-sweep';
 
 /**
- * Exact special-purpose solver of the day problem of DESIGN.md section 4, with no simultaneous
+ * Exact special-purpose solver of the day problem (docs/day-solver.md), with no simultaneous
  * charge and discharge in any period.
  *
  * Method: the problem in stored-energy units is the warehouse problem (storedDay.ts); its concave
  * part is solved by a forward sweep over the slope sequence of the value function of stored
  * energy (lineSweep.ts), the cycle cap by a parametric step on its Lagrange multiplier
- * (cycleCapDual.ts), and complementarity in arbitrage periods by branch and bound over those
+ * (cycleCapMultiplier.ts), and complementarity in arbitrage periods by branch and bound over those
  * periods only (arbitrageBranching.ts). Outside arbitrage periods no branching is needed.
  *
  * Arbitrage periods get one mode each by one of two exact methods, the other one taking over
  * when the first spends its budget: branching on the chord sweep (fast when the chord relaxation
  * is tight: wide windows, or a cycle cap) or the dynamic program over general piecewise-linear
  * value functions (valueDp.ts; fast when the window is narrow against the power steps). The order
- * is chosen by programSuits. Scratch arrays are kept in a module-level cache between calls; the
- * result depends on the problem only.
+ * is chosen by programSuits; a last resort runs the program with far larger budgets.
  *
- * Returns `optimal` with the schedule in grid units (MW; socMwh by the recursion of section 4),
- * `infeasible` with a reason, or `not-covered` (uncoveredReason, or both budgets spent).
+ * Scratch arrays live in a DayWorkspace: the caller's (context.workspace), else one shared by the
+ * calls that bring none (see sharedWorkspace). The result depends on the problem only.
+ *
+ * Returns `optimal` with the schedule in grid units (MW; socMwh by the recursion s_t = s_{t-1} +
+ * eta_c dt c_t - dt d_t / eta_d), `infeasible` with a reason, or `not-covered` (uncoveredReason, or
+ * every budget spent).
  */
-export function solveWarehouseDay(problem: DayProblem, options: Partial<WarehouseSolverOptions> = {}): WarehouseDayOutcome {
-  const settings: WarehouseSolverOptions = { ...WAREHOUSE_SOLVER_DEFAULTS, ...options };
+export function solveWarehouseDay(problem: DayProblem, options: Partial<WarehouseSolverOptions> = NO_OPTIONS, context: WarehouseSolveContext = NO_OPTIONS): WarehouseDayOutcome {
+  const settings: WarehouseSolverOptions = options === NO_OPTIONS ? WAREHOUSE_SOLVER_DEFAULTS : { ...WAREHOUSE_SOLVER_DEFAULTS, ...options };
   // uncoveredReason in two parts: the prices are checked through their sum as toStoredDay converts them.
   const gap = scalarGap(problem);
   if (gap !== null) return { status: 'not-covered', reason: gap };
-  const engine = engineFor(problem.buyPricePerMwh.length, settings.maxBreakpoints);
-  const day = toStoredDay(problem, engine.arrays);
+  const ws = workspaceFor(problem.buyPricePerMwh.length, context.workspace);
+  const day = toStoredDay(problem, ws.prices);
   const badPrice = Number.isFinite(day.priceSum) ? null : priceGap(problem);
   if (badPrice !== null) return { status: 'not-covered', reason: badPrice };
   const b = problem.battery;
   if (b.socMinMwh > b.socMaxMwh) return { status: 'infeasible', reason: `the state-of-charge window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh is empty` };
-  const { ctx, best } = engine;
+  const { observer } = context;
   const programFirst = day.arbitrageCount > 0 && programSuits(day);
-  const attempts = programFirst ? ([engine.program, engine.sweep] as const) : ([engine.sweep, engine.program] as const);
-  const incumbent = { value: -Infinity, discharged: 0 };
-  const keepIncumbent = (result: BranchOutcome): void => {
-    if (result.status === 'gave-up' && result.incumbent && best.value > incumbent.value) {
-      incumbent.value = best.value;
-      incumbent.discharged = best.discharged;
-    }
-  };
+  const attempts = settings === WAREHOUSE_SOLVER_DEFAULTS ? DEFAULT_ATTEMPTS : attemptsOf(settings);
+  let incumbent: { value: number; discharged: number } | null = null;
   let nodes = 0;
-  let outcome = branchOnArbitrage(ctx.load(day, attempts[0].load(day)), day.arbitrageCount === 0 ? Infinity : programFirst ? settings.programNodes : settings.sweepNodes, best);
-  if (outcome.status === 'gave-up') {
-    nodes = outcome.nodes;
-    keepIncumbent(outcome);
-    const second = attempts[1].load(day);
-    if (second === engine.program && incumbent.value > -Infinity) engine.program.setIncumbent(incumbent.value, incumbent.discharged);
-    outcome = branchOnArbitrage(ctx.load(day, second), programFirst ? settings.sweepNodes : settings.programNodes, best);
-  }
-  if (outcome.status === 'gave-up') {
-    // The last resort: the exact program with budgets about a thousand times larger (seconds at worst).
+  let outcome: BranchOutcome | null = null;
+  for (const attempt of programFirst ? attempts.programFirst : attempts.sweepFirst) {
+    const solver: MultiplierSolver = attempt.method === 'sweep' ? ws.sweep.load(day, observer?.sweep) : ws.program.load(day, { maxBreakpoints: attempt.maxBreakpoints, incumbent });
+    outcome = branchOnArbitrage(ws.context.load(day, solver, observer), day.arbitrageCount === 0 ? Infinity : attempt.nodes, ws.best);
     nodes += outcome.nodes;
-    keepIncumbent(outcome);
-    engine.program.load(day);
-    if (incumbent.value > -Infinity) engine.program.setIncumbent(incumbent.value, incumbent.discharged);
-    engine.program.maxBreakpoints = settings.lastResortBreakpoints;
-    try {
-      outcome = branchOnArbitrage(ctx.load(day, engine.program), settings.lastResortNodes, best);
-    } finally {
-      engine.program.maxBreakpoints = settings.maxBreakpoints;
+    if (outcome.status !== 'node-budget-spent' && outcome.status !== 'too-many-breakpoints') break;
+    if (outcome.incumbent && (incumbent === null || ws.best.value > incumbent.value)) incumbent = { value: ws.best.value, discharged: ws.best.discharged };
+  }
+  switch (outcome!.status) {
+    case 'ok': {
+      const { schedule, objective } = toSchedule(problem, day, ws.best);
+      return { status: 'optimal', schedule, objective, solver: WAREHOUSE_SOLVER_NAME, nodes };
+    }
+    case 'start-unreachable':
+      return { status: 'infeasible', reason: startReason(problem) };
+    case 'cap-unreachable':
+      return { status: 'infeasible', reason: capReason(problem, ws.context.below.discharged * b.dischargeEfficiency) };
+    case 'end-unreachable':
+      return { status: 'infeasible', reason: endReason(problem, day) };
+    default: {
+      const budgets = `${settings.lastResortNodes} program runs of at most ${settings.lastResortBreakpoints} breakpoints`;
+      return { status: 'not-covered', reason: `no proven optimum within the budgets (${budgets})` };
     }
   }
-  if (outcome.status === 'gave-up') {
-    const budgets = `${settings.lastResortNodes} program runs of at most ${settings.lastResortBreakpoints} breakpoints`;
-    return { status: 'not-covered', reason: `no proven optimum within the budgets (${budgets})` };
-  }
-  if (outcome.status === 'infeasible') {
-    if (outcome.cause === SWEEP_START_UNREACHABLE) return { status: 'infeasible', reason: startReason(problem) };
-    if (outcome.cause === CAP_UNREACHABLE) return { status: 'infeasible', reason: capReason(problem, ctx.below.discharged * b.dischargeEfficiency) };
-    return { status: 'infeasible', reason: endReason(problem, day) };
-  }
-  const { schedule, objective } = toSchedule(problem, day, best);
-  return { status: 'optimal', schedule, objective, solver: WAREHOUSE_SOLVER_NAME, nodes: nodes + outcome.nodes };
+}
+
+/** One pass of the branching: its inner method and budgets. */
+interface Attempt {
+  readonly method: MultiplierSolver['method'];
+  readonly nodes: number;
+  readonly maxBreakpoints: number;
+}
+
+/** The passes in either order, each followed by the last resort: the exact program with budgets about a thousand times larger (seconds at worst). */
+function attemptsOf(settings: WarehouseSolverOptions): { readonly sweepFirst: readonly Attempt[]; readonly programFirst: readonly Attempt[] } {
+  const sweep: Attempt = { method: 'sweep', nodes: settings.sweepNodes, maxBreakpoints: 0 };
+  const program: Attempt = { method: 'program', nodes: settings.programNodes, maxBreakpoints: settings.maxBreakpoints };
+  const lastResort: Attempt = { method: 'program', nodes: settings.lastResortNodes, maxBreakpoints: settings.lastResortBreakpoints };
+  return { sweepFirst: [sweep, program, lastResort], programFirst: [program, sweep, lastResort] };
+}
+
+const NO_OPTIONS = Object.freeze({});
+const DEFAULT_ATTEMPTS = attemptsOf(WAREHOUSE_SOLVER_DEFAULTS);
+
+/**
+ * The workspace of calls that bring none. The solver is synchronous and every stage overwrites
+ * what it reads, so sharing it changes no answer; it only saves allocating a workspace per call
+ * (DayWorkspace). Replaced by a larger one when a longer day comes.
+ */
+let sharedWorkspace: DayWorkspace | null = null;
+
+/** The caller's workspace when it fits the day, else the shared one (grown to fit). */
+function workspaceFor(periods: number, own: DayWorkspace | undefined): DayWorkspace {
+  if (own !== undefined && own.capacity >= periods) return own;
+  if (sharedWorkspace === null || sharedWorkspace.capacity < periods) sharedWorkspace = new DayWorkspace(Math.max(periods, 100));
+  return sharedWorkspace;
 }
 
 /**
@@ -120,40 +148,11 @@ function programSuits(day: StoredDay): boolean {
   return day.dischargeCapMwh === Infinity && day.socMaxMwh - day.socMinMwh <= 2.5 * step;
 }
 
-/** Scratch space of the solver, kept between calls (the solver is synchronous, so never shared). */
-interface Engine {
-  readonly capacity: number;
-  readonly maxBreakpoints: number;
-  readonly sweep: SweepSolver;
-  readonly program: DpSolver;
-  readonly ctx: DayContext;
-  readonly best: LineSolution;
-  readonly arrays: StoredDayArrays;
-}
-
-let cached: Engine | null = null;
-
-function engineFor(periods: number, maxBreakpoints: number): Engine {
-  if (cached === null || cached.capacity < periods || cached.maxBreakpoints !== maxBreakpoints) {
-    const capacity = Math.max(periods, 100);
-    cached = {
-      capacity,
-      maxBreakpoints,
-      sweep: new SweepSolver(capacity),
-      program: new DpSolver(capacity, maxBreakpoints),
-      ctx: new DayContext(capacity),
-      best: new LineSolution(capacity),
-      arrays: { chargePrice: new Float64Array(capacity), dischargePrice: new Float64Array(capacity), arbitrage: new Uint8Array(capacity) },
-    };
-  }
-  return cached;
-}
-
 /**
  * Grid units: c_t = x_t / (eta_c dt), d_t = eta_d y_t / dt (exactly the limit at x = X, y = Y), and
  * the objective sum_t dt ((sell_t - deg) d_t - buy_t c_t) + terminal s_T [currency] in the same pass.
  */
-function toSchedule(problem: DayProblem, day: StoredDay, sol: LineSolution): { schedule: Schedule; objective: number } {
+function toSchedule(problem: DayProblem, day: StoredDay, sol: StoredSchedule): { schedule: Schedule; objective: number } {
   const { battery: b, periodHours: dt } = problem;
   const deg = b.degradationCostPerMwh;
   const chargeMw: number[] = new Array<number>(day.periods);
