@@ -97,6 +97,8 @@ export function endOfDayValue(day: StoredDay, out: Pwl): boolean {
   return true;
 }
 
+const ANYWHERE: Window = Object.freeze({ lo: -Infinity, hi: Infinity, eps: 0 });
+
 /** What backwardValues computes: stages T down to `downTo`, convex periods `convex`, at most `maxBreakpoints` per stage. */
 export interface BackwardPass {
   readonly downTo: number;
@@ -121,7 +123,8 @@ export function backwardValues(run: ProgramRun, pass: BackwardPass, values: PwlS
   values.store(day.periods, w);
   for (let t = day.periods - 1; t >= pass.downTo; t--) {
     const shape = periodKernel(day, t, mu, modes[t]!, true, scratch.kernel);
-    if (!periodStep(w, scratch.kernel, shape, pass.convex, day.window, scratch, spare)) return false;
+    // W_0 is the value from the start, which need not lie in the window (the first period may bring it in).
+    if (!periodStep(w, scratch.kernel, shape, pass.convex, t === 0 ? ANYWHERE : day.window, scratch, spare)) return false;
     if (spare.n > pass.maxBreakpoints) {
       upperHulls(spare, pass.maxBreakpoints, scratch.pwl, w);
     } else {

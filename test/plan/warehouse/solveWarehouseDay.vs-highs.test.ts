@@ -6,7 +6,7 @@ import { uncoveredReason, solveWarehouseDay } from '../../../src/plan/warehouse/
 import type { BatteryModel, DayProblem } from '../../../src/types.js';
 import { checkSchedule, recomputedObjective } from '../../reference/checkSchedule.js';
 import { HIGHS_NPM_VERSION, loadHighsSolver, solveDayWithHighs } from '../../reference/highsDayModel.js';
-import { randomDay } from '../../reference/randomDays.js';
+import { randomDay, SeededRandom } from '../../reference/randomDays.js';
 import { testBattery } from '../testBattery.js';
 
 // Reference: HiGHS (npm `highs` 1.15.3) solving the MIP of test/reference/highsDayModel.ts with a
@@ -99,6 +99,33 @@ describe('solveWarehouseDay against HiGHS', () => {
     }
     expect(failures).toEqual([]);
   }, 900_000);
+
+  it('60 seeded days starting outside the window (by up to two first-period steps): HiGHS agrees, through either exact method', () => {
+    // The first period may bring the start inside the window, or fail to: then no schedule exists.
+    const failures: string[] = [];
+    for (let i = 0; i < 60; i++) {
+      const name = `outside-start-${i}`;
+      const base = randomDay(name, { negativePrices: true });
+      const b = base.battery;
+      const rng = SeededRandom.fromName(name);
+      const above = rng.chance(0.5);
+      const step = above ? (base.periodHours * b.dischargeMw) / b.dischargeEfficiency : base.periodHours * b.chargeMw * b.chargeEfficiency;
+      const offset = 2 * step * rng.next();
+      const problem: DayProblem = { ...base, socStartMwh: above ? b.socMaxMwh + offset : Math.max(0, b.socMinMwh - offset), socEndMinMwh: b.socMinMwh };
+      const reference = solveDayWithHighs(highs, problem, true);
+      for (const options of [{}, { sweepNodes: 0 }]) {
+        const outcome = solveWarehouseDay(problem, options);
+        const label = `${name} ${JSON.stringify(options)}`;
+        if (reference.status !== 'optimal' || outcome.status !== 'optimal') {
+          if (reference.status !== outcome.status) failures.push(`${label}: HiGHS ${reference.status}, warehouse ${outcome.status}`);
+          continue;
+        }
+        if (relGap(outcome.objective, reference.objective) > 1e-9) failures.push(`${label}: objective ${outcome.objective}, HiGHS ${reference.objective}`);
+        failures.push(...checkSchedule(problem, outcome.schedule).map((v) => `${label}: ${v}`));
+      }
+    }
+    expect(failures).toEqual([]);
+  });
 
   it('infeasible days agree with HiGHS and give a reason', () => {
     for (let i = 0; i < 40; i++) {
