@@ -12,11 +12,11 @@ import { isArbitragePeriod } from './simultaneousFlows.js';
  * - cycle cap: sum_t dt d_t <= maxDischargeMwhPerDay
  * - h{t}, in a free arbitrage period (simultaneousFlows.ts): c_t / C + d_t / D <= 1, the convex hull
  *   of "charge only" and "discharge only" (Balas 1979, "Disjunctive programming", Ann. Discrete Math.
- *   5, doi:10.1016/S0167-5060(08)70342-X). C and D are the most one period can charge and discharge
- *   without a simultaneous flow: the power limits, and when the start lies in the window also the
- *   window's width W (C <= W / (eta_c dt), D <= eta_d W / dt), since s_{t-1} and s_t both lie in it.
- *   Valid for every schedule without simultaneous flows, it tightens the relaxation the branch and
- *   bound starts from (a tight window against the power once took it past 5,000 nodes without it).
+ *   5). C and D are the most one period can charge and discharge without a simultaneous flow: the
+ *   power limits, and when the start lies in the window also the window's width W (C <= W /
+ *   (eta_c dt), D <= eta_d W / dt), since s_{t-1} and s_t both lie in it. Valid for every schedule
+ *   without simultaneous flows, it tightens the relaxation the branch and bound starts from (a
+ *   tight window against the power once took it past 5,000 nodes without it).
  * Objective row `value`: sum_t dt (sell_t - deg) d_t - dt buy_t c_t + terminal s_T.
  */
 export function dayLpModel(problem: DayProblem, modes?: Int8Array): LpModel {

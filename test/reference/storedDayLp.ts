@@ -68,12 +68,12 @@ export function solveStoredLp(highs: Highs, lp: StoredLp): StoredLpOutcome {
 /**
  * The LP over the convex hull of the union of the stored-units sets in which each period of
  * `either` takes one mode (charge or discharge), the others keeping lp.sets: the disjunctive
- * formulation of Balas (1979, "Disjunctive programming", Ann. Discrete Math. 5,
- * doi:10.1016/S0167-5060(08)70342-X) with one copy of the variables per combination of modes m,
- * scaled by its weight lambda_m (sum lambda_m = 1), and the cap on the sum over the copies. Its
+ * formulation of Balas (1979, "Disjunctive programming", Ann. Discrete Math. 5) with one copy of
+ * the variables per combination of modes m, scaled by its weight lambda_m (sum lambda_m = 1), and
+ * the cap on the sum over the copies. Its
  * optimum is the best value over that hull: what the cap's Lagrangian dual reaches when the inner
  * problem keeps one mode per period exactly (Geoffrion 1974, "Lagrangean relaxation for integer
- * programming", Math. Prog. Study 2, doi:10.1007/BFb0120686). Returns x, y summed over the copies.
+ * programming", Math. Prog. Study 2). Returns x, y summed over the copies.
  */
 export function solveStoredHull(highs: Highs, lp: StoredLp, either: readonly number[]): StoredLpOutcome {
   const periods = lp.sets.length;

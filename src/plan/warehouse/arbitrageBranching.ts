@@ -86,7 +86,7 @@ export function branchOnArbitrage(ctx: DayContext, maxNodes: number, best: Store
 
 /** Shows a node to the observer. */
 function report(ctx: DayContext, modes: Int8Array, status: StageStatus, bound: number, outcome: BranchNode['outcome'], split: number): void {
-  ctx.observer?.branchNode?.({ modes: modes.slice(0, ctx.day.periods), status, bound, outcome, split });
+  ctx.observer?.branchNode?.({ modes: modes.slice(0, ctx.day.periods), status, bound, outcome, split, schedule: ctx.node });
 }
 
 /** The arbitrage period with the largest simultaneous share, or -1; nets negligible shares. */

@@ -34,6 +34,8 @@ export interface BranchNode {
   readonly outcome: 'pruned' | 'incumbent' | 'split' | 'infeasible';
   /** The split period, or -1. */
   readonly split: number;
+  /** The node's relaxed schedule (read it during the call; the branching reuses it). */
+  readonly schedule: StoredSchedule;
 }
 
 /** Looks at a solve as it goes (docs/day-solver.md traces a day with one); the solver runs without. */
