@@ -169,7 +169,9 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
       hi = low;
     }
     if (lo < low) {
-      // The steepest segments are forced: take low - lo MWh of them (takeSteepest, inlined on the ends in locals).
+      // The steepest segments are forced: take low - lo MWh of them. This is takeSteepest written out on
+      // the ends in locals: calling it here (writing the ends back and reading them again) measured 9 %
+      // slower per sweep.
       let left = low - lo;
       while (left > 0 && tail > head) {
         const id = ids[tail - 1]!;

@@ -47,7 +47,7 @@ export class ValueBounds {
     const { day } = run;
     this.path.value = 0;
     this.path.discharged = 0;
-    const end = followValues(run, this.values, 0, day.socStartMwh, scratch.kernel, this.path);
+    const end = followValues(run, this.values, { stage: 0, state: day.socStartMwh, direction: 1 }, scratch.kernel, this.path);
     if (!(end >= day.socEndFloorMwh - day.window.eps)) return true;
     // W and the program's F carry the multiplier term; the path's value does not.
     this.lowerBound = this.path.value - run.mu * this.path.discharged;

@@ -6,7 +6,7 @@ import type { StageStatus } from './stageStatus.js';
 import type { StoredDay } from './storedDay.js';
 import type { StoredSchedule } from './storedSchedule.js';
 import { pruneDead, ValueBounds } from './valueBounds.js';
-import { backwardValues, bestMove, followValues, periodStep, type ProgramRun, StepScratch } from './valueSteps.js';
+import { backwardValues, followValues, periodStep, type ProgramRun, StepScratch } from './valueSteps.js';
 
 /**
  * Exact dynamic program over stored energy with complementarity in every period, arbitrage periods
@@ -110,9 +110,13 @@ export class ValueProgram {
     }
     const joinState = bestJoin(f, this.tail, join, day.window.eps);
     if (Number.isNaN(joinState)) return 'end-unreachable';
-    this.recover(run, joinState, out);
-    const end = followValues(run, this.tail, join, joinState, scratch.kernel, out);
-    return Number.isNaN(end) ? 'end-unreachable' : 'ok';
+    // The path: backwards from the join through F (the best predecessor of each state), then
+    // forwards through the tail J.
+    out.value = 0;
+    out.discharged = 0;
+    const start = followValues(run, this.forward, { stage: join, state: joinState, direction: -1 }, scratch.kernel, out);
+    const end = followValues(run, this.tail, { stage: join, state: joinState, direction: 1 }, scratch.kernel, out);
+    return Number.isNaN(start) || Number.isNaN(end) ? 'end-unreachable' : 'ok';
   }
 
   /** The lower bound less a rounding margin, or -Infinity when there is none (no pruning). */
@@ -122,32 +126,6 @@ export class ValueProgram {
     const incumbent = this.limits.incumbent;
     if (incumbent !== null && lower > -Infinity && allFree(run.modes, run.day.periods)) lower = Math.max(lower, incumbent.value - run.mu * incumbent.discharged);
     return lower === -Infinity ? -Infinity : lower - 1e-10 * Math.max(1, Math.abs(lower));
-  }
-
-  /**
-   * Backward pass from the join state: the best predecessor of each state (bestMove over F_{t-1}),
-   * one signed move per period; sets out.value and out.discharged for periods before the join.
-   */
-  private recover(run: ProgramRun, joinState: number, out: StoredSchedule): void {
-    const { day, mu, modes } = run;
-    const kernel = this.scratch.kernel;
-    let s = joinState;
-    let value = 0;
-    let discharged = 0;
-    for (let t = this.join - 1; t >= 0; t--) {
-      periodKernel(day, t, mu, modes[t]!, false, kernel);
-      const u = bestMove(this.forward, t, s, kernel, -1, day.window.eps);
-      const w = s - u;
-      const x = w > 0 ? w : 0;
-      const y = w < 0 ? -w : 0;
-      out.x[t] = x;
-      out.y[t] = y;
-      value += day.dischargePrice[t]! * y - day.chargePrice[t]! * x;
-      discharged += y;
-      s = u;
-    }
-    out.value = value;
-    out.discharged = discharged;
   }
 }
 

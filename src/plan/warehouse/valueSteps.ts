@@ -167,24 +167,37 @@ export function bestMove(values: PwlSeries, stage: number, s: number, kernel: Ke
   return bestU;
 }
 
+/** Where a walk through value functions starts: the stage, the state there, and the direction. */
+export interface WalkStart {
+  readonly stage: number;
+  readonly state: number;
+  /** 1: forwards to the end of the day through backward values; -1: backwards to the start through forward values. */
+  readonly direction: 1 | -1;
+}
+
 /**
- * Follows backward values forward from state s at stage `from`: each period t moves to the state
- * that maximises k_t(s_t - s_{t-1}) + values_{t+1}(s_t) (bestMove), one signed move per period, so
- * x_t y_t = 0. Writes x_t, y_t into `out`, adds their value and discharged energy to out.value and
- * out.discharged and closes with V s_T. Returns s_T, or NaN when a period cannot reach the next
- * stage's domain.
+ * Follows value functions from a state, one period at a time, to the neighbouring state that
+ * maximises the period's value plus the values there (bestMove): forwards from stage `stage`, each
+ * period t moving to the s_t that maximises k_t(s_t - s_{t-1}) + values_{t+1}(s_t); or backwards
+ * from stage `stage` to the start, each period t coming from the s_{t-1} that maximises
+ * values_{t-1}(s_{t-1}) + k_t(s_t - s_{t-1}). One signed move per period, so x_t y_t = 0. Writes x_t,
+ * y_t into `out` and adds their value and discharged energy to out.value and out.discharged (going
+ * forwards, also V s_T). Returns the state where the walk ends, or NaN when a period cannot reach the
+ * next stage's domain.
  */
-export function followValues(run: ProgramRun, values: PwlSeries, from: number, s: number, kernel: Kernel, out: StoredSchedule): number {
+export function followValues(run: ProgramRun, values: PwlSeries, start: WalkStart, kernel: Kernel, out: StoredSchedule): number {
   const { day, mu, modes } = run;
+  const { direction } = start;
   const eps = day.window.eps;
-  let state = s;
+  let state = start.state;
   let value = out.value;
   let discharged = out.discharged;
-  for (let t = from; t < day.periods; t++) {
+  const first = direction === 1 ? start.stage : start.stage - 1;
+  for (let t = first; direction === 1 ? t < day.periods : t >= 0; t += direction) {
     periodKernel(day, t, mu, modes[t]!, false, kernel);
-    const next = bestMove(values, t + 1, state, kernel, 1, eps);
+    const next = bestMove(values, direction === 1 ? t + 1 : t, state, kernel, direction, eps);
     if (Number.isNaN(next)) return Number.NaN;
-    const w = next - state;
+    const w = direction * (next - state);
     const x = w > 0 ? w : 0;
     const y = w < 0 ? -w : 0;
     out.x[t] = x;
@@ -193,7 +206,7 @@ export function followValues(run: ProgramRun, values: PwlSeries, from: number, s
     discharged += y;
     state = next;
   }
-  out.value = value + day.terminalValuePerMwh * state;
+  out.value = direction === 1 ? value + day.terminalValuePerMwh * state : value;
   out.discharged = discharged;
   return state;
 }
