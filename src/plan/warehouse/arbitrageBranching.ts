@@ -11,7 +11,7 @@ import { netPeriod, revalue, type StoredSchedule } from './storedSchedule.js';
  *
  * Notes. A node fixes some arbitrage periods to charge-only (y_t = 0) or discharge-only
  * (x_t = 0). With the chord sweep every other arbitrage period is relaxed to the convex hull of
- * its two modes (storedDay.ts); with the dynamic program (valueDp.ts) every single-multiplier
+ * its two modes (storedDay.ts); with the dynamic program (valueProgram.ts) every single-multiplier
  * solution already has one mode per period and only the cycle-cap mix can put both flows in an
  * arbitrage period. Either way the node's value (cycleCapMultiplier.ts) is an upper bound on every
  * feasible schedule of the node: it is at least the Lagrangian value z(mu*), and netting outside

@@ -8,7 +8,7 @@ import { StoredSchedule } from './storedSchedule.js';
  * multiplier mu on discharged energy, with per-period modes, into `out`.
  */
 export interface MultiplierSolver {
-  /** `sweep` (lineSweep.ts): convex periods on their chord, whose flows may be simultaneous; `program` (valueDp.ts): one mode per period, exactly. */
+  /** `sweep` (lineSweep.ts): convex periods on their chord, whose flows may be simultaneous; `program` (valueProgram.ts): one mode per period, exactly. */
   readonly method: 'sweep' | 'program';
   solveAt(mu: number, modes: Int8Array, out: StoredSchedule): StageStatus;
 }

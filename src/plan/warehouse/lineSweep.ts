@@ -189,7 +189,7 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
       lo = low;
     }
     if (hi > high) {
-      // The window cannot hold the flattest segments: drop hi - high MWh of them (dropFlattest, inlined).
+      // The window cannot hold the flattest segments: drop hi - high MWh of them.
       let left = hi - high;
       while (left > 0 && tail > head) {
         const id = ids[head]!;
@@ -238,24 +238,6 @@ function takeSteepest(ws: SweepWorkspace, amount: number): void {
     taken[id] = taken[id]! + rest;
     remaining[id] = 0;
     live.tail--;
-  }
-}
-
-/** Drops `amount` MWh from the flattest open segments (the window cannot hold them). */
-function dropFlattest(ws: SweepWorkspace, amount: number): void {
-  const { live, remaining } = ws;
-  const ids = live.ids;
-  let left = amount;
-  while (left > 0 && live.tail > live.head) {
-    const id = ids[live.head]!;
-    const rest = remaining[id]!;
-    if (rest > left) {
-      remaining[id] = rest - left;
-      return;
-    }
-    left -= rest;
-    remaining[id] = 0;
-    live.head++;
   }
 }
 

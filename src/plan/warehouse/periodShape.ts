@@ -25,6 +25,13 @@ export function periodShape(day: StoredDay, t: number, mu: number, mode: number)
   return day.arbitrage[t] === 1 && day.dischargePrice[t]! - mu > day.chargePrice[t]! ? PERIOD_SHAPE.convex : PERIOD_SHAPE.concave;
 }
 
+/** The loaded day at a multiplier mu on discharged energy with per-period modes: what one run of a stage solves. */
+export interface DayAtMultiplier {
+  readonly day: StoredDay;
+  readonly mu: number;
+  readonly modes: Int8Array;
+}
+
 /**
  * Fills `out` with period t's value of its move as a two-piece kernel (pwl.ts) and returns the
  * period's shape. Forward (a state after period t from one before it, move w = s_t - s_{t-1}): the
@@ -33,15 +40,16 @@ export function periodShape(day: StoredDay, t: number, mu: number, mode: number)
  * reflected, slope p_t on [-X, 0], then the discharge reflected, slope q_t - mu on [0, Y]. A piece
  * the mode forbids has length 0.
  */
-export function periodKernel(day: StoredDay, t: number, mu: number, mode: number, backward: boolean, out: Kernel): PeriodShape {
-  const shape = periodShape(day, t, mu, mode);
+export function periodKernel(run: DayAtMultiplier, t: number, direction: 'forward' | 'backward', out: Kernel): PeriodShape {
+  const { day, mu } = run;
+  const shape = periodShape(day, t, mu, run.modes[t]!);
   const chargeMwh = shape === PERIOD_SHAPE.dischargeOnly ? 0 : day.chargeStepMwh;
   const dischargeMwh = shape === PERIOD_SHAPE.chargeOnly ? 0 : day.dischargeStepMwh;
   const p = day.chargePrice[t]!;
   const qm = day.dischargePrice[t]! - mu;
   const { lower, upper } = out;
   lower.to = upper.from = 0;
-  if (backward) {
+  if (direction === 'backward') {
     lower.from = -chargeMwh;
     lower.slope = p;
     upper.to = dischargeMwh;

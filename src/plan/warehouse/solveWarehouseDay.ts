@@ -51,7 +51,7 @@ export const WAREHOUSE_SOLVER_NAME = 'fast-warehouse-sweep';
  * Arbitrage periods get one mode each by one of two exact methods, the other one taking over
  * when the first spends its budget: branching on the chord sweep (fast when the chord relaxation
  * is tight: wide windows, or a cycle cap) or the dynamic program over general piecewise-linear
- * value functions (valueDp.ts; fast when the window is narrow against the power steps). The order
+ * value functions (valueProgram.ts; fast when the window is narrow against the power steps). The order
  * is chosen by programSuits; a last resort runs the program with far larger budgets.
  *
  * Scratch arrays live in a DayWorkspace: the caller's (context.workspace), else one shared by the

@@ -1,6 +1,6 @@
 /**
  * The one status vocabulary of the warehouse solver's stages: the sweep (lineSweep.ts), the dynamic
- * program (valueDp.ts), the cycle-cap multiplier search (cycleCapMultiplier.ts) and the branching
+ * program (valueProgram.ts), the cycle-cap multiplier search (cycleCapMultiplier.ts) and the branching
  * (arbitrageBranching.ts) each answer one of these; solveWarehouseDay.ts turns them into the
  * public DayOutcome.
  *

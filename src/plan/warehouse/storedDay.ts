@@ -19,7 +19,7 @@ import type { Window } from './pwl.js';
  * both >= 0 unless q_t > p_t, i.e. (sell_t - deg) eta_c eta_d > buy_t. So outside such
  * "arbitrage periods" any solution can be netted without loss and complementarity never binds;
  * inside them (only possible at negative prices) the relaxation gains by burning energy in losses
- * and complementarity needs an exact treatment (arbitrageBranching.ts, valueDp.ts).
+ * and complementarity needs an exact treatment (arbitrageBranching.ts, valueProgram.ts).
  *
  * Per period, as a function of the net move w = x - y in [-Y, X], the best value under
  * complementarity is k_t(w) = -p_t w for w >= 0 and -q_t w for w <= 0: concave when p_t >= q_t,

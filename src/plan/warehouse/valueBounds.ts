@@ -4,7 +4,7 @@ import { StoredSchedule } from './storedSchedule.js';
 import { backwardValues, followValues, type ProgramRun, type StepScratch } from './valueSteps.js';
 
 /**
- * Bounds that let the exact dynamic program (valueDp.ts) drop states that cannot lie on an optimal
+ * Bounds that let the exact dynamic program (valueProgram.ts) drop states that cannot lie on an optimal
  * path: an upper bound W_t(s) on the best value still to come from state s after period t, and a
  * lower bound on the optimum (the value of one feasible path).
  *

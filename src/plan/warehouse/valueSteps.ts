@@ -1,11 +1,11 @@
 import { clip, concaveSlide, concaveStep, isConcave, type Kernel, maxOf, newKernel, type Piece, Pwl, PwlScratch, slide, slideMax, upperHulls, type Window } from './pwl.js';
 import type { PwlSeries } from './pwlSeries.js';
-import { kernelValue, PERIOD_SHAPE, periodKernel, type PeriodShape } from './periodShape.js';
+import { type DayAtMultiplier, kernelValue, PERIOD_SHAPE, periodKernel, type PeriodShape } from './periodShape.js';
 import type { StoredDay } from './storedDay.js';
 import type { StoredSchedule } from './storedSchedule.js';
 
 /**
- * The steps the programs over general piecewise-linear value functions share (valueDp.ts,
+ * The steps the programs over general piecewise-linear value functions share (valueProgram.ts,
  * valueBounds.ts): one period's step of a value function, the backward program, and the walk that
  * follows value functions to a schedule. All rest on one recursion (Bellman 1956, the warehouse
  * problem): with k_t the period's value of its move (periodShape.ts),
@@ -16,11 +16,7 @@ import type { StoredSchedule } from './storedSchedule.js';
  */
 
 /** One run of a program: the loaded day, the multiplier mu on discharged energy, the per-period modes. */
-export interface ProgramRun {
-  readonly day: StoredDay;
-  readonly mu: number;
-  readonly modes: Int8Array;
-}
+export type ProgramRun = DayAtMultiplier;
 
 /** How a step treats a convex period: the maximum of its two pieces (exact) or its chord (a concave upper bound). */
 export type ConvexPeriods = 'exact' | 'chord';
@@ -111,18 +107,18 @@ export interface BackwardPass {
  * The backward program into `values` (stage t at index t): W_T = endOfDayValue, then
  * W_{t-1} = periodStep(W_t, backward kernel of period t) down to stage pass.downTo. Exact when every
  * period after downTo is concave or flow-only and no stage outgrows maxBreakpoints (the concave tail
- * of valueDp.ts); an upper bound on the best continuation otherwise (valueBounds.ts), since the chord
+ * of valueProgram.ts); an upper bound on the best continuation otherwise (valueBounds.ts), since the chord
  * and the upper hulls lie at or above what they replace. False when no state reaches the floor.
  */
 export function backwardValues(run: ProgramRun, pass: BackwardPass, values: PwlSeries, scratch: StepScratch, current: Pwl, next: Pwl): boolean {
-  const { day, mu, modes } = run;
+  const { day } = run;
   let w = current;
   let spare = next;
   if (!endOfDayValue(day, w)) return false;
   values.clear();
   values.store(day.periods, w);
   for (let t = day.periods - 1; t >= pass.downTo; t--) {
-    const shape = periodKernel(day, t, mu, modes[t]!, true, scratch.kernel);
+    const shape = periodKernel(run, t, 'backward', scratch.kernel);
     // W_0 is the value from the start, which need not lie in the window (the first period may bring it in).
     if (!periodStep(w, scratch.kernel, shape, pass.convex, t === 0 ? ANYWHERE : day.window, scratch, spare)) return false;
     if (spare.n > pass.maxBreakpoints) {
@@ -186,7 +182,7 @@ export interface WalkStart {
  * next stage's domain.
  */
 export function followValues(run: ProgramRun, values: PwlSeries, start: WalkStart, kernel: Kernel, out: StoredSchedule): number {
-  const { day, mu, modes } = run;
+  const { day } = run;
   const { direction } = start;
   const eps = day.window.eps;
   let state = start.state;
@@ -194,7 +190,7 @@ export function followValues(run: ProgramRun, values: PwlSeries, start: WalkStar
   let discharged = out.discharged;
   const first = direction === 1 ? start.stage : start.stage - 1;
   for (let t = first; direction === 1 ? t < day.periods : t >= 0; t += direction) {
-    periodKernel(day, t, mu, modes[t]!, false, kernel);
+    periodKernel(run, t, 'forward', kernel);
     const next = bestMove(values, direction === 1 ? t + 1 : t, state, kernel, direction, eps);
     if (Number.isNaN(next)) return Number.NaN;
     const w = direction * (next - state);

@@ -1,7 +1,7 @@
 import { DayContext, SweepSolver } from './dayContext.js';
 import type { StoredDayArrays } from './storedDay.js';
 import { StoredSchedule } from './storedSchedule.js';
-import { ValueProgram } from './valueDp.js';
+import { ValueProgram } from './valueProgram.js';
 
 /**
  * Every scratch array of the warehouse solver for days of up to `capacity` periods: the stored

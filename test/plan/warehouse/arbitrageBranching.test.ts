@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { branchOnArbitrage } from '../../../src/plan/warehouse/arbitrageBranching.js';
 import { DayContext, SweepSolver } from '../../../src/plan/warehouse/dayContext.js';
 import { StoredSchedule } from '../../../src/plan/warehouse/storedSchedule.js';
-import { ValueProgram } from '../../../src/plan/warehouse/valueDp.js';
+import { ValueProgram } from '../../../src/plan/warehouse/valueProgram.js';
 import { loadHighsSolver } from '../../reference/highsDayModel.js';
 import { type PeriodSet, solveStoredLp } from '../../reference/storedDayLp.js';
 import { modeChoices, randomStoredDay, relGap, storedLp, storedValue, storedViolations } from './randomStoredDays.js';

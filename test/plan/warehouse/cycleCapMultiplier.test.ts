@@ -3,7 +3,7 @@ import { PERIOD_MODE } from '../../../src/plan/periodMode.js';
 import { solveWithCap } from '../../../src/plan/warehouse/cycleCapMultiplier.js';
 import { DayContext, SweepSolver } from '../../../src/plan/warehouse/dayContext.js';
 import { StoredSchedule } from '../../../src/plan/warehouse/storedSchedule.js';
-import { ValueProgram } from '../../../src/plan/warehouse/valueDp.js';
+import { ValueProgram } from '../../../src/plan/warehouse/valueProgram.js';
 import { loadHighsSolver } from '../../reference/highsDayModel.js';
 import { type PeriodSet, solveStoredHull, solveStoredLp } from '../../reference/storedDayLp.js';
 import { randomModes, randomStoredDay, relGap, storedLp, storedValue, storedViolations } from './randomStoredDays.js';

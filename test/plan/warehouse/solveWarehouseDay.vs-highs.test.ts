@@ -80,7 +80,7 @@ describe('solveWarehouseDay against HiGHS', () => {
   }, 900_000);
 
   it('150 seeded random days with the dynamic program alone (pruned by its bounds): the MIP optimum to 1e-9 relative', () => {
-    // No chord-sweep nodes: every day with arbitrage periods goes through valueDp.ts, whose pruning
+    // No chord-sweep nodes: every day with arbitrage periods goes through valueProgram.ts, whose pruning
     // (valueBounds.ts) must never drop the optimal path.
     const failures: string[] = [];
     // check-6372 (bench/daySolverCheck.js) once exposed a stale solution entering the cycle-cap mix

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { PERIOD_MODE } from '../../../src/plan/periodMode.js';
 import { StoredSchedule } from '../../../src/plan/warehouse/storedSchedule.js';
 import { ValueBounds } from '../../../src/plan/warehouse/valueBounds.js';
-import { ValueProgram } from '../../../src/plan/warehouse/valueDp.js';
+import { ValueProgram } from '../../../src/plan/warehouse/valueProgram.js';
 import { StepScratch } from '../../../src/plan/warehouse/valueSteps.js';
 import type { StoredDay } from '../../../src/plan/warehouse/storedDay.js';
 import { loadHighsSolver } from '../../reference/highsDayModel.js';
@@ -10,7 +10,7 @@ import { SeededRandom } from '../../reference/randomDays.js';
 import { type PeriodSet, solveStoredLp } from '../../reference/storedDayLp.js';
 import { modeChoices, randomModes, randomStoredDay, relGap, storedLp, storedValue, storedViolations } from './randomStoredDays.js';
 
-// The dynamic program (valueDp.ts) solves the day at a multiplier mu with one mode in every period
+// The dynamic program (valueProgram.ts) solves the day at a multiplier mu with one mode in every period
 // exactly. Brute force: every assignment of charge-only or discharge-only to the periods where that
 // choice matters (free arbitrage periods with q_t - mu > p_t), each an LP solved by HiGHS
 // (test/reference/storedDayLp.ts; elsewhere both flows may run, which netting makes free), and the

@@ -1,4 +1,5 @@
 import { PERIOD_MODE } from '../periodMode.js';
+import type { MultiplierSolver } from './dayContext.js';
 import { Pwl } from './pwl.js';
 import { PwlSeries } from './pwlSeries.js';
 import { PERIOD_SHAPE, periodKernel, periodShape } from './periodShape.js';
@@ -46,7 +47,7 @@ export interface ProgramLimits {
   readonly incumbent: { readonly value: number; readonly discharged: number } | null;
 }
 
-export class ValueProgram {
+export class ValueProgram implements MultiplierSolver {
   readonly method = 'program';
   /** F_0..F_join of the last run, stage t at index t. */
   readonly forward: PwlSeries;
@@ -93,7 +94,7 @@ export class ValueProgram {
     this.forward.clear();
     this.forward.store(0, f);
     for (let t = 0; t < join; t++) {
-      const shape = periodKernel(day, t, mu, modes[t]!, false, scratch.kernel);
+      const shape = periodKernel(run, t, 'forward', scratch.kernel);
       if (!periodStep(f, scratch.kernel, shape, 'exact', day.window, scratch, next)) return 'start-unreachable';
       [f, next] = [next, f];
       if (f.n > PRUNE_FROM) {
