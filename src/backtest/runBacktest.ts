@@ -2,7 +2,7 @@ import type { BatteryModel, DeliveryPeriod, HistoryDay, MarketSpec, Order, Price
 import { daysBetween } from '../market/calendar.js';
 import type { SolveDayOptions } from '../plan/solveDay.js';
 import { chooseFallbackSource, dayFallbackPrices, NoFallbackPriceError, type FallbackPrices, type FallbackSource } from '../settle/fallbackPrices.js';
-import { settleDay, type SettledPeriod, type UnacceptedPolicy } from '../settle/settleDay.js';
+import { settleDay, type SettledPeriod, type UnacceptedRule } from '../settle/settleDay.js';
 import type { SettlementTotals } from '../settle/settlementTotals.js';
 import { BACKTEST_POLICIES, type BacktestPolicy } from './backtestPolicy.js';
 import { planPolicyDay, type PlanFailure } from './planPolicyDay.js';
@@ -28,7 +28,7 @@ export interface BacktestOptions {
   /** Central interval [q(alpha), q(1 - alpha)] of the quantile and median policies, in (0, 0.5). Default 0.1. */
   readonly alpha: number;
   /** What the battery does about unaccepted orders. Default `follow-plan`. */
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
   /** Policies to run side by side, in this order. Default all five. */
   readonly policies: readonly BacktestPolicy[];
   /** Keep every period's orders and settlement (for ledger.csv); a sweep turns it off. Default true. */
@@ -86,7 +86,7 @@ export interface BacktestResult {
   readonly from: string;
   readonly to: string;
   readonly alpha: number;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
   readonly policies: readonly BacktestPolicy[];
   readonly fallbackSource: FallbackSource;
   /** Days with a complete history and forecast, ascending. */
@@ -98,7 +98,7 @@ export interface BacktestResult {
 }
 
 /**
- * Replays the policies day by day over [from, to] (DESIGN.md sections 3 and 5).
+ * Replays the policies day by day over [from, to] (docs/design.md sections 3 and 5).
  *
  * For each delivery day in order: a day without a complete history or forecast is skipped and listed
  * (never filled in); otherwise each policy plans from that day's forecast alone and its own state of

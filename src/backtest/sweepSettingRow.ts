@@ -1,5 +1,4 @@
-import type { UnacceptedPolicy } from '../settle/settleDay.js';
-import type { SweepRow } from './sweep/taskModule.js';
+import type { UnacceptedRule } from '../settle/settleDay.js';
 import { edgeTest } from './edgeTest.js';
 import { policyMetrics } from './policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from './policyRun.js';
@@ -10,12 +9,12 @@ export const SWEEP_POLICIES = Object.freeze(['quantile', 'median'] as const);
 export type SweepPolicy = (typeof SWEEP_POLICIES)[number];
 
 /** One setting of `quantbid sweep`. */
-export interface SweepSetting {
+export type SweepSetting = {
   /** Central interval [q(alpha), q(1 - alpha)], in (0, 0.5). */
   readonly alpha: number;
   readonly policy: SweepPolicy;
-  readonly unaccepted: UnacceptedPolicy;
-}
+  readonly unaccepted: UnacceptedRule;
+};
 
 /**
  * Columns of `sweep.csv` after the axis columns `alpha,policy,unaccepted`, in this order. Sums are over
@@ -40,6 +39,15 @@ export const SWEEP_COLUMNS = Object.freeze([
   'buy_acceptance_rate', 'sell_acceptance_rate', 'fallback_mwh', 'fallback_cash', 'auction_cash', 'degradation_cost', 'discharged_mwh',
   'cycles', 'days_without_plan', 'daily_profit_sd', 'worst_day_5pct', 'max_drawdown',
 ] as const);
+
+/** One row of sweep.csv after the axis columns, in SWEEP_COLUMNS order. */
+export type SweepRow = Readonly<Record<(typeof SWEEP_COLUMNS)[number], number | null>>;
+
+/** A finished setting of a sweep with its row. */
+export interface SweepResult {
+  readonly setting: SweepSetting;
+  readonly row: SweepRow;
+}
 
 /** Alpha handed to runs of policies that ignore it (point, perfect foresight). */
 const UNUSED_ALPHA = 0.1;
@@ -79,5 +87,5 @@ export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, mem
     worst_day_5pct: m.worstDay5Percent,
     max_drawdown: m.maxDrawdown,
   };
-  return Object.fromEntries(SWEEP_COLUMNS.map((column) => [column, row[column]]));
+  return Object.fromEntries(SWEEP_COLUMNS.map((column) => [column, row[column]])) as SweepRow;
 }

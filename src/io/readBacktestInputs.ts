@@ -1,7 +1,7 @@
 import { createHash } from 'node:crypto';
 import type { BatterySpec, MarketSpec, PriceHistory } from '../types.js';
 import { chooseFallbackSource } from '../settle/fallbackPrices.js';
-import { gatherProblems, InputError, throwIfProblems, type InputProblem } from './inputError.js';
+import { gatherProblems, InputError, throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { readPriceHistory } from './readPriceHistory.js';
 import { parseQuantileForecast, readQuantileForecast, type QuantileForecastFile } from './readQuantileForecast.js';
 import { readBatterySpec, readMarketSpec } from './readSpecs.js';

@@ -1,10 +1,12 @@
 import type { DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory } from '../types.js';
-import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
-import { InputError, ProblemList } from './inputError.js';
-import { parseDecimal, splitCsv, type CsvRow } from './csvText.js';
+import { DayCalendar } from '../market/dayCalendar.js';
+import { InputError, ProblemList } from '../errors/inputError.js';
+import { parseDecimal, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
+import { PeriodLocator } from './periodLocator.js';
+import { PlainRow } from './plainRow.js';
 import { readInputFile } from './readInputFile.js';
 
-/** Column names with a fixed meaning in a price history (DESIGN.md section 8). */
+/** Column names with a fixed meaning in a price history (docs/design.md section 8). */
 export const HISTORY_COLUMNS = Object.freeze({
   periodStart: 'period_start',
   price: 'price',
@@ -34,11 +36,11 @@ export function parsePriceHistory(text: string, file: string, market: MarketSpec
   const split = splitCsv(text, file);
   if ('problems' in split) throw new InputError(split.problems);
   const problems = new ProblemList();
-  const { header, rows } = split.table;
+  const { header } = split.table;
   const layout = historyLayout(header, file, problems);
   problems.throwIfAny();
   const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
-  const byDay = readRows(rows, header, file, market, calendar, problems);
+  const byDay = readRows(split.table, header, file, market, calendar, problems);
   problems.throwIfAny();
   return assembleHistory(byDay, layout, calendar);
 }
@@ -92,48 +94,77 @@ interface DayBuffer {
 
 /**
  * Reads every row into its day's buffer; a row with any problem is listed and not used. Rows go
- * straight into per-day columns (no object per row), which keeps a long history quick to read.
+ * straight into per-day columns (no object per row), which keeps a long history quick to read; the
+ * usual row is read in place (PlainRow, PeriodLocator), any other by splitCsvLine and parseDecimal,
+ * which word its problems.
  */
 function readRows(
-  rows: Iterable<CsvRow>,
+  table: CsvTable,
   header: readonly string[],
   file: string,
   market: MarketSpec,
   calendar: DayCalendar,
   problems: ProblemList,
 ): Map<string, DayBuffer> {
-  const locator = new SequentialLocator(calendar);
+  const locator = new PeriodLocator(calendar);
   const byDay = new Map<string, DayBuffer>();
-  const width = header.length;
-  const values = new Float64Array(width - 1);
-  for (const row of rows) {
+  const values = new Float64Array(header.length - 1);
+  const plain = new PlainRow(header.length);
+  const lines = table.lines();
+  while (lines.next()) {
     if (problems.full) break;
-    if (row.cells.length !== width) {
-      // Name the first column without a value, or the first cell beyond the header.
-      const field = row.cells.length < width ? (header[row.cells.length] as string) : `column ${width + 1}`;
-      const fix = row.cells.length > width ? 'give one value per column on every line; a decimal comma (42,5) splits a number in two: write 42.5' : 'give one value per column on every line';
-      problems.add({ file, line: row.line, field, message: `${row.cells.length} fields, the header has ${width}`, fix });
-      continue;
+    if (plain.read(lines.text, lines.from, lines.to) && withinLimits(plain.values[0] as number, market)) {
+      const located = locator.locateAt(lines.text, plain.stampFrom, plain.stampTo);
+      if (located.ok) store(byDay, calendar, located, lines.line, plain.values);
+      else problems.add({ file, line: lines.line, field: HISTORY_COLUMNS.periodStart, message: located.message, fix: located.fix });
+    } else {
+      readRow({ line: lines.line, cells: splitCsvLine(lines.lineText()) }, header, file, market, locator, problems, values, byDay, calendar);
     }
-    const located = locator.locate(row.cells[0] as string);
-    let ok = located.ok;
-    if (!located.ok) problems.add({ file, line: row.line, field: HISTORY_COLUMNS.periodStart, message: located.message, fix: located.fix });
-    for (let k = 1; k < width; k++) {
-      const cell = parseDecimal(row.cells[k] as string);
-      const field = header[k] as string;
-      if ('error' in cell) {
-        problems.add({ file, line: row.line, field, message: cell.error, fix: cell.fix });
-        ok = false;
-      } else if (k === 1 && (cell.value < market.priceFloor || cell.value > market.priceCap)) {
-        problems.add({ file, line: row.line, field, message: `price ${cell.value} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the history's unit and the market spec's priceFloor and priceCap" });
-        ok = false;
-      } else {
-        values[k - 1] = cell.value;
-      }
-    }
-    if (ok && located.ok) store(byDay, calendar, located, row.line, values);
   }
   return byDay;
+}
+
+function withinLimits(price: number, market: MarketSpec): boolean {
+  return price >= market.priceFloor && price <= market.priceCap;
+}
+
+/** One row read cell by cell: its problems listed (the period start first, then the cells in order), or its values stored. */
+function readRow(
+  row: CsvRow,
+  header: readonly string[],
+  file: string,
+  market: MarketSpec,
+  locator: PeriodLocator,
+  problems: ProblemList,
+  values: Float64Array,
+  byDay: Map<string, DayBuffer>,
+  calendar: DayCalendar,
+): void {
+  const width = header.length;
+  if (row.cells.length !== width) {
+    // Name the first column without a value, or the first cell beyond the header.
+    const field = row.cells.length < width ? (header[row.cells.length] as string) : `column ${width + 1}`;
+    const fix = row.cells.length > width ? 'give one value per column on every line; a decimal comma (42,5) splits a number in two: write 42.5' : 'give one value per column on every line';
+    problems.add({ file, line: row.line, field, message: `${row.cells.length} fields, the header has ${width}`, fix });
+    return;
+  }
+  const located = locator.locate(row.cells[0] as string);
+  let ok = located.ok;
+  if (!located.ok) problems.add({ file, line: row.line, field: HISTORY_COLUMNS.periodStart, message: located.message, fix: located.fix });
+  for (let k = 1; k < width; k++) {
+    const cell = parseDecimal(row.cells[k] as string);
+    const field = header[k] as string;
+    if ('error' in cell) {
+      problems.add({ file, line: row.line, field, message: cell.error, fix: cell.fix });
+      ok = false;
+    } else if (k === 1 && (cell.value < market.priceFloor || cell.value > market.priceCap)) {
+      problems.add({ file, line: row.line, field, message: `price ${cell.value} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the history's unit and the market spec's priceFloor and priceCap" });
+      ok = false;
+    } else {
+      values[k - 1] = cell.value;
+    }
+  }
+  if (ok && located.ok) store(byDay, calendar, located, row.line, values);
 }
 
 function store(byDay: Map<string, DayBuffer>, calendar: DayCalendar, at: { day: string; index: number }, line: number, values: Float64Array): void {
@@ -149,44 +180,7 @@ function store(byDay: Map<string, DayBuffer>, calendar: DayCalendar, at: { day: 
     return;
   }
   buffer.lines[at.index] = line;
-  values.forEach((value, k) => {
-    (buffer.columns[k] as Float64Array)[at.index] = value;
-  });
-}
-
-/**
- * locatePeriod with a fast path for files in time order: when a timestamp is exactly the calendar's
- * text of the period after the last one found, that is its period (the calendar's text is the form
- * locatePeriod accepts); anything else goes through locatePeriod. Same answers, without a date
- * library call per row.
- */
-class SequentialLocator {
-  private last: { day: string; index: number } | null = null;
-
-  constructor(private readonly calendar: DayCalendar) {}
-
-  locate(stamp: string): LocatedPeriod {
-    const expected = this.next();
-    const located: LocatedPeriod =
-      expected !== null && expected.period.start === stamp
-        ? { ok: true, day: expected.day, index: expected.index, startMs: expected.period.startMs }
-        : locatePeriod(stamp, this.calendar);
-    this.last = located.ok ? { day: located.day, index: located.index } : null;
-    return located;
-  }
-
-  private next(): { day: string; index: number; period: DeliveryPeriod } | null {
-    if (this.last === null) return null;
-    const { day, index } = this.last;
-    const periods = this.calendar.periods(day);
-    const same = periods[index + 1];
-    if (same !== undefined) return { day, index: index + 1, period: same };
-    // After a day's last period comes the first period of the day its end falls on.
-    const end = (periods[index] as DeliveryPeriod).end;
-    const following = end.slice(0, 10);
-    const first = this.calendar.periods(following)[0];
-    return first?.start === end ? { day: following, index: 0, period: first } : null;
-  }
+  for (let k = 0; k < values.length; k++) (buffer.columns[k] as Float64Array)[at.index] = values[k] as number;
 }
 
 function assembleHistory(byDay: ReadonlyMap<string, DayBuffer>, layout: HistoryLayout, calendar: DayCalendar): PriceHistory {
@@ -200,7 +194,7 @@ function assembleHistory(byDay: ReadonlyMap<string, DayBuffer>, layout: HistoryL
       incompleteDays.push({ day, reason });
       continue;
     }
-    const column = (k: number): number[] => Array.from(buffer.columns[k - 1] as Float64Array);
+    const column = (k: number): number[] => plainArray(buffer.columns[k - 1] as Float64Array);
     const exogenous: Record<string, number[]> = {};
     for (const { name, column: k } of layout.exogenous) exogenous[name] = column(k);
     days.push({
@@ -212,6 +206,13 @@ function assembleHistory(byDay: ReadonlyMap<string, DayBuffer>, layout: HistoryL
     });
   }
   return { days, exogenousNames: layout.exogenous.map((e) => e.name), incompleteDays };
+}
+
+/** The numbers of a typed array as a plain array of its exact length (Array.from is several times slower). */
+function plainArray(values: Float64Array): number[] {
+  const array = new Array<number>(values.length);
+  for (let k = 0; k < values.length; k++) array[k] = values[k] as number;
+  return array;
 }
 
 function incompleteReason(buffer: DayBuffer, periods: readonly DeliveryPeriod[]): string | null {

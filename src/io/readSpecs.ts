@@ -2,7 +2,7 @@ import { z } from 'zod';
 import type { BatterySpec, MarketSpec } from '../types.js';
 import { BATTERY_FIELD_FIXES, parseBatterySpec } from '../battery/batterySpec.js';
 import { MARKET_FIELD_FIXES, parseMarketSpec } from '../market/marketSpec.js';
-import { InputError } from './inputError.js';
+import { InputError } from '../errors/inputError.js';
 import { parseJsonText, zodProblems } from './jsonProblems.js';
 import { readInputFile } from './readInputFile.js';
 

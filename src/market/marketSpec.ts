@@ -1,5 +1,4 @@
 import { z } from 'zod';
-import type { MarketSpec } from '../types.js';
 import { isValidTimeZone } from './calendar.js';
 import { unevenClockShift } from './clockShifts.js';
 
@@ -8,24 +7,37 @@ const finite = (what: string) =>
 const text = (what: string) =>
   z.string({ error: (issue) => (issue.input === undefined ? `missing ${what}` : `${what} must be text in double quotes`) });
 
-/** Schema of `market.json` (DESIGN.md section 8), with sanity checks that say what to fix. */
+/**
+ * Fallback price rule for histories without a `fallback_price` column: an unaccepted buy is closed at
+ * clearing + penaltyPerMwh (the operator pays more), an unaccepted sell at clearing - penaltyPerMwh
+ * (the operator receives less).
+ */
+export const fallbackRuleSchema = z.strictObject({
+  kind: z.literal('clearing-plus-penalty', { error: 'fallback.kind must be "clearing-plus-penalty"' }),
+  /** Penalty added against the operator [currency/MWh], >= 0. */
+  penaltyPerMwh: finite('penaltyPerMwh').min(0, 'penaltyPerMwh must be >= 0'),
+});
+
+/** Schema of `market.json` (docs/design.md section 8), with sanity checks that say what to fix. */
 export const marketSpecSchema = z
   .strictObject({
+    /** IANA time zone of the delivery day, e.g. `Europe/Berlin`. Required. */
     timeZone: text('timeZone').refine(isValidTimeZone, { message: 'not an IANA time zone' }),
+    /** Length of a delivery period [min]: 15, 30 or 60. Required. */
     periodMinutes: z.union([z.literal(15), z.literal(30), z.literal(60)], {
       error: (issue) => (issue.input === undefined ? 'missing periodMinutes' : 'periodMinutes must be 15, 30 or 60'),
     }),
+    /** Lowest price the auction can clear at [currency/MWh]. Required. */
     priceFloor: finite('priceFloor'),
+    /** Highest price the auction can clear at [currency/MWh]. Required. */
     priceCap: finite('priceCap'),
+    /** Currency label printed beside prices, e.g. `EUR` or an invented one. Required. */
     currency: text('currency').min(1, 'currency must not be empty'),
+    /** Gate closure, local time of day on the day before delivery, `HH:MM`. Required. */
     gateClosure: text('gateClosure')
       .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'gateClosure must be a local time HH:MM'),
-    fallback: z
-      .strictObject({
-        kind: z.literal('clearing-plus-penalty', { error: 'fallback.kind must be "clearing-plus-penalty"' }),
-        penaltyPerMwh: finite('penaltyPerMwh').min(0, 'penaltyPerMwh must be >= 0'),
-      })
-      .optional(),
+    /** Rule for the fallback (balancing) price where a history has none. Default: none (required then). */
+    fallback: fallbackRuleSchema.optional(),
   })
   .superRefine(
     (spec, ctx) => {
@@ -60,6 +72,12 @@ export const MARKET_FIELD_FIXES: Readonly<Record<string, string>> = {
   'fallback.penaltyPerMwh': 'give a penalty >= 0 in currency/MWh',
 };
 
+/** Market spec, as read from `market.json`: the type of marketSpecSchema's output. */
+export type MarketSpec = Readonly<z.output<typeof marketSpecSchema>>;
+
+/** The fallback price rule of a market spec. */
+export type FallbackRule = Readonly<z.output<typeof fallbackRuleSchema>>;
+
 export function parseMarketSpec(value: unknown): z.ZodSafeParseResult<MarketSpec> {
-  return marketSpecSchema.safeParse(value) as z.ZodSafeParseResult<MarketSpec>;
+  return marketSpecSchema.safeParse(value);
 }

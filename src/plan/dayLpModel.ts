@@ -4,7 +4,7 @@ import { PERIOD_MODE } from './periodMode.js';
 import { isArbitragePeriod } from './simultaneousFlows.js';
 
 /**
- * The planning LP of DESIGN.md section 4 as a row model. Variables: c{t} charge [MW], d{t} discharge
+ * The planning LP of docs/design.md section 4 as a row model. Variables: c{t} charge [MW], d{t} discharge
  * [MW], s{t} state of charge at the end of period t [MWh]. Rows:
  * - b{t}: s_t - s_{t-1} - eta_c dt c_t + (dt / eta_d) d_t = 0   (s_0 moved to the right-hand side)
  * - s_t within [socMin, socMax]; s_T >= max(socMin, socEndMin)

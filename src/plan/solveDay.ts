@@ -72,12 +72,12 @@ interface Candidate {
  * Solves the day problem exactly, with no simultaneous charge and discharge in any period.
  *
  * Two exact paths (options.solver picks; docs/day-solver.md). The warehouse solver
- * (src/plan/warehouse) takes every day it covers. The LP path: the LP relaxation (dayLpModel.ts) is
- * solved by `lpSolver`; simultaneous flows in periods where removing them cannot lower the value are
- * netted out exactly (see simultaneousFlows.ts); in the remaining "arbitrage periods" a depth-first
- * branch and bound fixes the period to charge-only or discharge-only (PERIOD_MODE), with the LP value
- * as the bound (Land and Doig 1960). The incumbent is proven optimal to `relativeGap` when no open
- * node can beat it.
+ * (src/plan/warehouse) takes every day it covers. The LP path: the LP relaxation (dayLpModel.ts;
+ * docs/design.md section 4) is solved by `lpSolver`; simultaneous flows in periods where removing
+ * them cannot lower the value are netted out exactly (see simultaneousFlows.ts); in the remaining
+ * "arbitrage periods" a depth-first branch and bound fixes the period to charge-only or
+ * discharge-only (PERIOD_MODE), with the LP value as the bound (Land and Doig 1960). The incumbent
+ * is proven optimal to `relativeGap` when no open node can beat it.
  */
 export function solveDay(problem: DayProblem, options: Partial<SolveDayOptions> = {}): DayOutcome {
   const settings: SolveDayOptions = { ...SOLVE_DAY_DEFAULTS, ...options };

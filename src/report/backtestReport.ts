@@ -1,7 +1,7 @@
 import type { BacktestMetrics } from '../backtest/backtestMetrics.js';
 import type { PolicyMetrics } from '../backtest/policyMetrics.js';
 import type { BacktestResult, PolicyDay } from '../backtest/runBacktest.js';
-import { fallbackDescription } from '../io/backtestOutputs.js';
+import { fallbackDescription } from './fallbackDescription.js';
 import type { BatteryModel, MarketSpec } from '../types.js';
 import { barChart } from './barChart.js';
 import { categoryAxis } from './categoryAxis.js';

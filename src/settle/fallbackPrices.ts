@@ -1,7 +1,7 @@
 import type { HistoryDay, MarketSpec, PriceHistory } from '../types.js';
 
 /**
- * Where the fallback (balancing) price comes from (DESIGN.md section 5):
+ * Where the fallback (balancing) price comes from (docs/design.md section 5):
  * - `history`: the history's `fallback_price` column, the same price for energy bought and sold;
  * - `clearing-plus-penalty`: the market spec's rule: energy bought at fallback costs clearing + penalty,
  *   energy sold at fallback earns clearing - penalty (the penalty always works against the operator).

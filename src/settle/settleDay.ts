@@ -4,13 +4,13 @@ import type { FallbackPrices } from './fallbackPrices.js';
 import type { SettlementTotals } from './settlementTotals.js';
 
 /**
- * What the battery does about orders the auction did not accept (DESIGN.md section 5):
+ * What the battery does about orders the auction did not accept (docs/design.md section 5):
  * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the fallback price;
  * - `follow-accepted`: it moves only with accepted orders; unaccepted orders have no effect.
  */
-export type UnacceptedPolicy = 'follow-plan' | 'follow-accepted';
+export type UnacceptedRule = 'follow-plan' | 'follow-accepted';
 
-export const UNACCEPTED_POLICIES: readonly UnacceptedPolicy[] = Object.freeze(['follow-plan', 'follow-accepted']);
+export const UNACCEPTED_RULES: readonly UnacceptedRule[] = Object.freeze(['follow-plan', 'follow-accepted']);
 
 /** One period's order as settlement reads it (an Order has these fields and more). */
 export type PeriodOrder = Pick<Order, 'side' | 'quantityMw' | 'limitPrice'>;
@@ -26,7 +26,7 @@ export interface SettleDayInput {
   /** Realised clearing price per period [currency/MWh]. */
   readonly clearingPricePerMwh: readonly number[];
   readonly fallback: FallbackPrices;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
 }
 
 /**
@@ -55,7 +55,7 @@ export interface SettledDay {
 export const SETTLE_TOLERANCE = 1e-6;
 
 /**
- * Settles one delivery day's orders against the realised prices (DESIGN.md section 5).
+ * Settles one delivery day's orders against the realised prices (docs/design.md section 5).
  *
  * Periods are settled in time order; each starts from the state of charge the previous one left.
  * In period t with an order of q MW (energy E = q dt):
@@ -125,10 +125,10 @@ export function settleDay(input: SettleDayInput): SettledDay {
     const auctionCash = clearing * (tradeSoldAuction - tradeBoughtAuction);
     const fallbackCash = (input.fallback.sellPerMwh[t] as number) * soldFallbackMwh - (input.fallback.buyPerMwh[t] as number) * boughtFallbackMwh;
     const degradationCost = battery.degradationCostPerMwh * dischargedMwh;
-    const period: SettledPeriod = {
+    const period = new SettledPeriodRecord(
       accepted,
-      boughtAuctionMwh: tradeBoughtAuction,
-      soldAuctionMwh: tradeSoldAuction,
+      tradeBoughtAuction,
+      tradeSoldAuction,
       boughtFallbackMwh,
       soldFallbackMwh,
       chargedMwh,
@@ -136,9 +136,9 @@ export function settleDay(input: SettleDayInput): SettledDay {
       auctionCash,
       fallbackCash,
       degradationCost,
-      profit: auctionCash + fallbackCash - degradationCost,
-      socMwh: soc,
-    };
+      auctionCash + fallbackCash - degradationCost,
+      soc,
+    );
     periods[t] = period;
     profit += period.profit;
     auction += auctionCash;
@@ -192,4 +192,28 @@ function checkInput(input: SettleDayInput, count: number): void {
   input.orders.forEach((order, t) => {
     if (order !== null && !(order.quantityMw >= 0)) throw new RangeError(`settleDay: the order of period ${t} has quantity ${order.quantityMw} MW; quantities are >= 0`);
   });
+}
+
+/**
+ * A SettledPeriod made by a constructor rather than an object literal: the engine may decide, from a
+ * few early days whose ledger was still being written, to allocate every object of a literal straight
+ * into its old generation, where a long backtest's ledger (1.75 million periods in ten years) then
+ * piles up as garbage; objects made by `new` are not placed that way. Same fields, same order.
+ */
+class SettledPeriodRecord implements SettledPeriod {
+  // Parameter properties become fields in this order: the order of the fields as they always were.
+  constructor(
+    readonly accepted: boolean | null,
+    readonly boughtAuctionMwh: number,
+    readonly soldAuctionMwh: number,
+    readonly boughtFallbackMwh: number,
+    readonly soldFallbackMwh: number,
+    readonly chargedMwh: number,
+    readonly dischargedMwh: number,
+    readonly auctionCash: number,
+    readonly fallbackCash: number,
+    readonly degradationCost: number,
+    readonly profit: number,
+    readonly socMwh: number,
+  ) {}
 }

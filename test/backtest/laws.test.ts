@@ -8,10 +8,10 @@ import { planDay } from '../../src/plan/planDay.js';
 import { scheduleValue } from '../../src/plan/scheduleValue.js';
 import { solveDay } from '../../src/plan/solveDay.js';
 import { dayFallbackPrices } from '../../src/settle/fallbackPrices.js';
-import { settleDay, type SettledDay, type UnacceptedPolicy } from '../../src/settle/settleDay.js';
+import { settleDay, type SettledDay, type UnacceptedRule } from '../../src/settle/settleDay.js';
 import { FIRST_DAY, randomMarketArb, scalePrices, scalesExactly, type RandomMarket } from './randomMarket.js';
 
-// Laws of the backtest (DESIGN.md sections 4 and 5) on seeded small random markets (fast-check, fixed
+// Laws of the backtest (docs/design.md sections 4 and 5) on seeded small random markets (fast-check, fixed
 // seeds): each day has 4 to 8 hourly periods, so javascript-lp-solver stays quick.
 
 const SEED = 20260601;
@@ -23,7 +23,7 @@ function firstDay(m: RandomMarket): { forecast: QuantileDay; realised: HistoryDa
 }
 
 /** One policy on the market's first day from its initial state of charge, planned and settled. */
-function settleFirstDay(m: RandomMarket, policy: BacktestPolicy, unaccepted: UnacceptedPolicy, penaltyPerMwh?: number): SettledDay {
+function settleFirstDay(m: RandomMarket, policy: BacktestPolicy, unaccepted: UnacceptedRule, penaltyPerMwh?: number): SettledDay {
   const { forecast, realised } = firstDay(m);
   const socStartMwh = m.battery.socInitialMwh;
   const plan = planPolicyDay({ policy, forecast, realised, market: m.market, battery: m.battery, alpha: ALPHA, socStartMwh, solveOptions: {} });
@@ -91,7 +91,7 @@ describe('backtest laws on small random markets', () => {
 
   it('price-taking and perfect-foresight orders are always accepted', () => {
     fc.assert(
-      fc.property(randomMarketArb(3), fc.constantFrom<UnacceptedPolicy>('follow-plan', 'follow-accepted'), (m, unaccepted) => {
+      fc.property(randomMarketArb(3), fc.constantFrom<UnacceptedRule>('follow-plan', 'follow-accepted'), (m, unaccepted) => {
         const result = runBacktest(m, { policies: ['price-taking', 'perfect-foresight'], unaccepted });
         for (const day of result.days) {
           for (const run of day.runs) {
@@ -124,7 +124,7 @@ describe('backtest laws on small random markets', () => {
     // ties between equally good plans the same way; for other k an equally good but different plan may
     // be chosen, whose realised profit differs (the perfect-foresight law below holds for any k).
     fc.assert(
-      fc.property(randomMarketArb(3), fc.constantFrom(-3, -2, -1, 1, 2, 3), fc.constantFrom<UnacceptedPolicy>('follow-plan', 'follow-accepted'), (m, power, unaccepted) => {
+      fc.property(randomMarketArb(3), fc.constantFrom(-3, -2, -1, 1, 2, 3), fc.constantFrom<UnacceptedRule>('follow-plan', 'follow-accepted'), (m, power, unaccepted) => {
         const k = 2 ** power;
         fc.pre(scalesExactly(m, k));
         const base = runBacktest(m, { unaccepted, keepLedger: false });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { batteryModel } from '../../src/battery/batterySpec.js';
-import { InputError } from '../../src/io/inputError.js';
+import { InputError } from '../../src/errors/inputError.js';
 import { parseJsonSpec } from '../../src/io/readSpecs.js';
 import { BATTERY_FIELD_FIXES, parseBatterySpec } from '../../src/battery/batterySpec.js';
 import { MARKET_FIELD_FIXES, parseMarketSpec } from '../../src/market/marketSpec.js';

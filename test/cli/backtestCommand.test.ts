@@ -3,6 +3,7 @@ import { existsSync, mkdtempSync, readFileSync, readdirSync, statSync, writeFile
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { checkBuild } from '../distBuild.js';
 import { deliveryPeriods } from '../../src/market/calendar.js';
 
 // `quantbid backtest` run as users run it: the compiled CLI (dist/, built by `npm run build`) in a child
@@ -22,17 +23,6 @@ interface Run {
 function quantbid(args: readonly string[]): Run {
   const result = spawnSync(process.execPath, ['bin/quantbid.js', ...args], { cwd: ROOT, encoding: 'utf8', timeout: 300_000 });
   return { code: result.status, stdout: result.stdout, stderr: result.stderr };
-}
-
-/** The compiled files this test runs must not be older than their sources. */
-function checkBuild(): void {
-  const pairs = ['cli/backtestCommand', 'cli/main', 'io/backtestOutputs', 'io/readPriceHistory', 'backtest/runBacktest', 'settle/settleDay'];
-  for (const name of pairs) {
-    const built = join(ROOT, 'dist', `${name}.js`);
-    if (!existsSync(built) || statSync(built).mtimeMs < statSync(join(ROOT, 'src', `${name}.ts`)).mtimeMs) {
-      throw new Error(`dist/${name}.js is missing or older than src/${name}.ts: run \`npm run build\` first`);
-    }
-  }
 }
 
 function snapshot(dir: string): Record<string, { text: string; mtimeMs: number }> {

@@ -19,7 +19,7 @@ function sweepArgs(out: string, extra: readonly string[] = []): string[] {
 }
 
 beforeAll(() => {
-  checkBuild(['cli/sweepCommand', 'cli/gridRun', 'cli/main', 'backtest/sweepBacktestTask', 'backtest/sweepSettingRow', 'backtest/policyRun', 'io/sweepOutputs']);
+  checkBuild();
   scenario = writeScenario('sweep-cli', { days: 8 });
   oneThread = join(scenario.dir, 'one-thread');
   const run = quantbid(sweepArgs(oneThread, ['--threads', '1']));
@@ -114,7 +114,7 @@ describe('quantbid sweep rejects bad input with exit code 2 and writes nothing',
   it.each([
     [['--alphas', '0.3:0.1:0.1'], /--alphas: the start of "0.3:0.1:0.1" is above its end/],
     [['--alphas', '0.1,0.6'], /--alphas: 0.6 is not an alpha in \(0, 0.5\)/],
-    [['--alphas', '0.02,0.1'], /--alphas: alpha 0.02: alpha or 1 - alpha lies outside the forecast's levels \[0.05, 0.95\]/],
+    [['--alphas', '0.02,0.1'], /--alphas: alpha 0.02 needs the levels 0.02 and 0.98, outside the forecast's levels \[0.05, 0.95\]/],
     [['--policies', 'quantile,oracle'], /--policies: "oracle" is not one of quantile, median/],
     [['--unaccepted', 'ignore'], /--unaccepted: "ignore" is not one of follow-plan, follow-accepted/],
     [['--threads', '0'], /"0" must be a whole number >= 1/],

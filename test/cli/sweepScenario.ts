@@ -121,15 +121,7 @@ export function journalKeys(journal: string): string[] {
     .map((line) => (JSON.parse(line) as { key: string }).key);
 }
 
-/** Fails with what to do when dist/ is missing or older than the sources these tests run. */
-export function checkBuild(names: readonly string[]): void {
-  for (const name of names) {
-    const built = join(ROOT, 'dist', `${name}.js`);
-    if (!existsSync(built) || statSync(built).mtimeMs < statSync(join(ROOT, 'src', `${name}.ts`)).mtimeMs) {
-      throw new Error(`dist/${name}.js is missing or older than src/${name}.ts: run \`npm run build\` first`);
-    }
-  }
-}
+export { checkBuild } from '../distBuild.js';
 
 /** CSV text as rows of cells (our CSV never quotes). */
 export function csvRows(text: string): string[][] {

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { describe, expect, it } from 'vitest';
 import type { MarketSpec } from '../../src/types.js';
-import { InputError, type InputProblem } from '../../src/io/inputError.js';
+import { InputError, type InputProblem } from '../../src/errors/inputError.js';
 import { parsePriceHistory, readPriceHistory } from '../../src/io/readPriceHistory.js';
 import { readMarketSpec } from '../../src/io/readSpecs.js';
 import { deliveryPeriods } from '../../src/market/calendar.js';

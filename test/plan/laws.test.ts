@@ -5,7 +5,7 @@ import { type DaySolverChoice, solveDay } from '../../src/plan/solveDay.js';
 import { planDay } from '../../src/plan/planDay.js';
 import { deliveryPeriods } from '../../src/market/calendar.js';
 
-// Laws of the planning LP (DESIGN.md section 4) checked on seeded random days (fast-check, fixed seeds),
+// Laws of the planning LP (docs/design.md section 4) checked on seeded random days (fast-check, fixed seeds),
 // through each of solveDay's two paths: the warehouse solver and the LP path (javascript-lp-solver
 // with our branch and bound), so days are short (<= 12 periods) to keep the suite quick.
 

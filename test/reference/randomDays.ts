@@ -1,7 +1,7 @@
 import type { BatteryModel, DayProblem } from '../../src/types.js';
 
 /**
- * Seeded random day problems (DESIGN.md section 4) for checks against a general-purpose solver.
+ * Seeded random day problems (docs/design.md section 4) for checks against a general-purpose solver.
  *
  * The days are invented on purpose: they are inputs only, never check values. What they cover:
  * 24 hourly periods or 92, 96, 100 quarter-hours (clock-change days); prices with and without

@@ -5,7 +5,7 @@ import { isAccepted } from '../../src/settle/acceptance.js';
 import { settleDay, type PeriodOrder, type SettleDayInput } from '../../src/settle/settleDay.js';
 import { batteryModelArb } from '../backtest/randomMarket.js';
 
-// Laws of one day's settlement (DESIGN.md section 5) on seeded random days and random orders (fast-check,
+// Laws of one day's settlement (docs/design.md section 5) on seeded random days and random orders (fast-check,
 // fixed seeds). The orders need not come from a plan: the laws hold for any orders.
 
 const SEED = 20260501;

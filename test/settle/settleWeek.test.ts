@@ -1,10 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import type { BatteryModel, Side } from '../../src/types.js';
-import { settleDay, type PeriodOrder, type UnacceptedPolicy } from '../../src/settle/settleDay.js';
+import { settleDay, type PeriodOrder, type UnacceptedRule } from '../../src/settle/settleDay.js';
 
 // A week settled by hand: 7 short days of 4 one-hour periods, the same orders under both rules for
 // unaccepted orders, the state of charge carried from day to day. Every number below is worked out in
-// the comments from DESIGN.md section 5 (acceptance, cash at the clearing price) and the conventions of
+// the comments from docs/design.md section 5 (acceptance, cash at the clearing price) and the conventions of
 // settleDay; none comes from running the code.
 //
 // Battery: 10 MWh, charge 5 MW, discharge 4 MW, eta_c = eta_d = 0.8, window [1, 9] MWh, starts at 4 MWh,
@@ -34,7 +34,7 @@ interface HandDay {
   /** Accepted per period (null: no order): the same under both rules. */
   readonly accepted: readonly (boolean | null)[];
   /** Profit per period and state of charge at the end of each period, per rule. */
-  readonly expected: Readonly<Record<UnacceptedPolicy, { readonly profit: readonly number[]; readonly soc: readonly number[] }>>;
+  readonly expected: Readonly<Record<UnacceptedRule, { readonly profit: readonly number[]; readonly soc: readonly number[] }>>;
 }
 
 const week: readonly HandDay[] = [
@@ -125,9 +125,9 @@ const week: readonly HandDay[] = [
 
 // Week totals by hand: follow-plan 252 + 47 + 82 + 324.2 - 50.4 + 221.6 + 19.6 = 896;
 // follow-accepted 252 + 84.8 - 50 + 334.2 + 0 + 221.6 + 19.6 = 862.2.
-const WEEK_PROFIT: Record<UnacceptedPolicy, number> = { 'follow-plan': 896, 'follow-accepted': 862.2 };
+const WEEK_PROFIT: Record<UnacceptedRule, number> = { 'follow-plan': 896, 'follow-accepted': 862.2 };
 
-function settleWeek(unaccepted: UnacceptedPolicy) {
+function settleWeek(unaccepted: UnacceptedRule) {
   let soc = battery.socInitialMwh;
   return week.map((day) => {
     const settled = settleDay(
