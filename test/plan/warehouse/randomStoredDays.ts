@@ -16,6 +16,8 @@ export interface StoredDayOptions {
   readonly cap?: boolean;
   readonly minPeriods?: number;
   readonly maxPeriods?: number;
+  /** Share of periods with a negative price (default 0.35). */
+  readonly negativeShare?: number;
 }
 
 export function randomStoredDay(name: string, options: StoredDayOptions = {}): StoredDay {
@@ -41,7 +43,7 @@ export function randomStoredDay(name: string, options: StoredDayOptions = {}): S
   let arbitrageCount = 0;
   let priceSum = 0;
   for (let t = 0; t < periods; t++) {
-    const price = rng.chance(0.35) ? -round(rng.uniform(5, 80)) : round(rng.uniform(0, 100));
+    const price = rng.chance(options.negativeShare ?? 0.35) ? -round(rng.uniform(5, 80)) : round(rng.uniform(0, 100));
     const half = rng.chance(0.5) ? 0 : round(rng.uniform(0, 4));
     chargePrice[t] = (price + half) / eta;
     dischargePrice[t] = (price - half - wear) * eta;
