@@ -15,12 +15,9 @@
 //
 // The days are invented inputs (test/reference/randomDays.ts); the models are the reference models
 // of test/reference/highsDayModel.ts (HiGHS via the `highs` devDependency).
+import { option as arg } from './lib/args.js';
 import { loadDist, loadReference } from './lib/reference.js';
 
-const arg = (name, fallback) => {
-  const i = process.argv.indexOf(`--${name}`);
-  return i > 0 ? process.argv[i + 1] : fallback;
-};
 const DAYS = Number(arg('days', 1000));
 const BATTERIES = Number(arg('batteries', 4));
 const NEGATIVE = { yes: true, no: false, mixed: undefined }[arg('negative', 'yes')];

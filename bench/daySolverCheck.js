@@ -5,12 +5,9 @@
 // violations (test/reference/checkSchedule.ts), simultaneous flows and the days not covered.
 //
 //   npm run build && node bench/daySolverCheck.js [--days 10000] [--prefix check]
+import { option as arg } from './lib/args.js';
 import { loadDist, loadReference } from './lib/reference.js';
 
-const arg = (name, fallback) => {
-  const i = process.argv.indexOf(`--${name}`);
-  return i > 0 ? process.argv[i + 1] : fallback;
-};
 const DAYS = Number(arg('days', 10000));
 const PREFIX = arg('prefix', 'check');
 

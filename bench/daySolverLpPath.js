@@ -6,12 +6,9 @@
 // warehouse solver and HiGHS fresh from model text, measured in the same run, with their ratios.
 //
 //   npm run build && node bench/daySolverLpPath.js [--days 200] [--periods 24] [--negative yes|no|mixed]
+import { median, option as arg } from './lib/args.js';
 import { loadDist, loadReference } from './lib/reference.js';
 
-const arg = (name, fallback) => {
-  const i = process.argv.indexOf(`--${name}`);
-  return i > 0 ? process.argv[i + 1] : fallback;
-};
 const DAYS = Number(arg('days', 200));
 const PERIODS = Number(arg('periods', 24));
 const NEGATIVE = { yes: true, no: false, mixed: undefined }[arg('negative', 'mixed')];
@@ -57,7 +54,6 @@ for (let i = 0; i < DAYS; i++) {
   if (gap > 1e-6 || violations.length > 0) problems.push(`${name}: gap ${gap.toExponential(2)}${violations.length > 0 ? `, ${violations[0]}` : ''}`);
   else agree++;
 }
-const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 const lpMedian = median(times.lp);
 console.log(`${DAYS} seeded days of ${PERIODS} periods (negative prices: ${arg('negative', 'mixed')}); HiGHS npm ${ref.HIGHS_NPM_VERSION} MIP as the reference`);
 console.log(`LP path agrees with HiGHS on ${agree} days; over its node budget (NodeLimitError) on ${nodeLimit}; worst relative gap ${worst.toExponential(2)}; ${(nodes / Math.max(1, agree)).toFixed(1)} branch-and-bound nodes per agreeing day`);
