@@ -1,7 +1,8 @@
 // `npm run bench`: the benchmarks one after another, each in its own process, each printing medians
 // and ratios against a reference measured in the same run (never a lone absolute time).
 //
-//   npm run bench            the day solver, a year's backtest, sweep and forecast (a few minutes)
+//   npm run bench            the day solver, a year's backtest in and out of process, start-up, sweep and
+//                            forecast (a few minutes)
 //   npm run bench -- --all   also the 12 x 12 size grid and the forecast quality run (much longer)
 import { spawnSync } from 'node:child_process';
 import { dirname, join } from 'node:path';
@@ -12,6 +13,7 @@ const all = process.argv.includes('--all');
 const benches = [
   ['day solver against HiGHS (issue goal: 10x its kept model)', 'daySolver.js', ['--days', '1000']],
   ['one year backtest against reading its CSVs', 'yearBacktest.js', []],
+  ['whole processes against plain Node: the year backtest, --version, --help, plan', 'wholeRun.js', []],
   ['one year sweep on 1 and 2 threads', 'sweepYear.js', []],
   ['one year of daily forecasts by arx-hs and the default method, share fitting, against reading the year', 'forecastYear.js', []],
   ...(all

@@ -8,7 +8,7 @@
 # DIR receives the inputs (65 MB) and the outputs (190 MB, mostly ledger.csv); without DIR a temporary
 # folder is used and removed at the end. The peak resident set size and the wall time come from GNU
 # time (/usr/bin/time -v); where it is missing, from process.resourceUsage().maxRSS (bench/lib/maxRss.js)
-# and the shell's clock. The target is a peak under 1 GB (1,048,576 kB).
+# and the shell's clock. The goal is a peak under 400 MiB (409,600 kB).
 set -euo pipefail
 root=$(cd "$(dirname "$0")/.." && pwd)
 if [ $# -ge 1 ]; then
@@ -40,7 +40,7 @@ if [ -x /usr/bin/time ]; then
   sed -n 's/^\t\(User time (seconds)\|System time (seconds)\|Elapsed (wall clock) time (h:mm:ss or m:ss)\): */\1: /p' "$dir/stderr.txt"
 fi
 echo "wall time: ${wall_s} s; load average at the end: $(cut -d ' ' -f 1-3 /proc/loadavg 2>/dev/null || echo unknown)"
-if [ "$peak_kb" -ge 1048576 ]; then
-  echo "over the 1 GB target" >&2
+if [ "$peak_kb" -ge 409600 ]; then
+  echo "over the 400 MiB goal" >&2
   exit 1
 fi

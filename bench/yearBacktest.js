@@ -1,27 +1,25 @@
 // One year of the demo market at 15 minutes, five policies, one setting (alpha 0.1, follow-plan):
 // the backtest's days per second and the share of its time spent solving day problems, against the
-// time to read and validate that year's history and forecast CSVs (the floor of any run), measured in
-// the same process. Both CSVs are cut to the year (with the last day of the year before, which the
-// history needs for the first day's state) and written uncompressed to a temporary folder first.
+// time quantbid's readers take to read and validate that year's history and forecast CSVs, measured in
+// the same process (medians, so the cold first read does not count). What a user waits for, the whole
+// process against a plain read, is bench/wholeRun.js. Both CSVs are cut to the year (with the last day of
+// the year before, which the history needs for the first day's state) and written uncompressed to a
+// temporary folder first.
 //
 //   npm run build && node bench/yearBacktest.js [--year 2026] [--reads 5] [--runs 3]
 //
 // Times are medians over --reads reads and --runs backtests; CPU time is process.cpuUsage().
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { gunzipSync } from 'node:zlib';
+import { writeYearInputs } from './lib/yearData.js';
+import { median, option } from './lib/args.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-const demo = join(root, 'scenarios', 'halvorn');
-const arg = (name, fallback) => {
-  const i = process.argv.indexOf(`--${name}`);
-  return i > 0 ? process.argv[i + 1] : fallback;
-};
-const YEAR = arg('year', '2026');
-const READS = Number(arg('reads', 5));
-const RUNS = Number(arg('runs', 3));
+const YEAR = option('year', '2026');
+const READS = Number(option('reads', 5));
+const RUNS = Number(option('runs', 3));
 const dist = (path) => import(pathToFileURL(join(root, 'dist', path)).href);
 
 const { readMarketSpec, readBatterySpec } = await dist('io/readSpecs.js');
@@ -30,22 +28,11 @@ const { readPriceHistory } = await dist('io/readPriceHistory.js');
 const { readQuantileForecast } = await dist('io/readQuantileForecast.js');
 const { runBacktest } = await dist('backtest/runBacktest.js');
 
-/** The CSV's header and the rows whose local timestamp starts with the year (or is the eve's). */
-function cutToYear(gzPath) {
-  const [header, ...rows] = gunzipSync(readFileSync(gzPath)).toString('utf8').trimEnd().split('\n');
-  const eve = `${Number(YEAR) - 1}-12-31`;
-  return [header, ...rows.filter((row) => row.startsWith(YEAR) || row.startsWith(eve))].join('\n') + '\n';
-}
-
-const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
 const folder = mkdtempSync(join(tmpdir(), 'quantbid-year-'));
 try {
-  const historyPath = join(folder, 'history.csv');
-  const forecastPath = join(folder, 'quantiles.csv');
-  writeFileSync(historyPath, cutToYear(join(demo, 'history.csv.gz')));
-  writeFileSync(forecastPath, cutToYear(join(demo, 'quantiles.csv.gz')));
-  const market = readMarketSpec(join(demo, 'market.json'));
-  const battery = batteryModel(readBatterySpec(join(demo, 'battery.json')));
+  const { historyPath, forecastPath, marketPath, batteryPath } = writeYearInputs(folder, YEAR);
+  const market = readMarketSpec(marketPath);
+  const battery = batteryModel(readBatterySpec(batteryPath));
 
   const readMs = [];
   let history;
@@ -82,7 +69,7 @@ try {
   const read = median(readMs);
   console.log(`year ${YEAR} of the demo market at 15 minutes: ${days} days covered, ${policies} policies, alpha 0.1, follow-plan`);
   console.log(`read and validate history + forecast CSVs   median ${(read / 1000).toFixed(3)} s over ${READS} reads (the reference)`);
-  console.log(`backtest, plan and settle every policy      median ${(totals.ms / 1000).toFixed(3)} s over ${RUNS} runs = ${(totals.ms / read).toFixed(2)} x the read (goal: at most 2)`);
+  console.log(`backtest, plan and settle every policy      median ${(totals.ms / 1000).toFixed(3)} s over ${RUNS} runs = ${(totals.ms / read).toFixed(2)} x the read`);
   console.log(`  days per second                          ${(days / (totals.ms / 1000)).toFixed(0)} (${((days * policies) / (totals.ms / 1000)).toFixed(0)} policy-days per second)`);
   console.log(`  share of the time solving day problems   ${(100 * totals.solveShare).toFixed(1)} %`);
   console.log(`the same, keeping every period's ledger     median ${(ledger.ms / 1000).toFixed(3)} s = ${(ledger.ms / read).toFixed(2)} x the read, ${(100 * ledger.solveShare).toFixed(1)} % solving`);

@@ -1,5 +1,7 @@
 /**
- * Public types of quantbid, in one place. Every field says its unit and default.
+ * Public types of quantbid, in one place. Every field says its unit and default. The spec types
+ * (MarketSpec, BatterySpec) are the outputs of their zod schemas (market/marketSpec.ts,
+ * battery/batterySpec.ts), where their fields are documented; they are re-exported here.
  *
  * Conventions used everywhere:
  * - power in MW, energy in MWh, price in currency/MWh (the currency is a label in the market spec);
@@ -8,97 +10,11 @@
  * - timestamps are ISO 8601 strings with an offset, e.g. `2027-03-28T02:00:00+02:00`.
  */
 
-/** Market spec, as read from `market.json` (DESIGN.md section 8). */
-export interface MarketSpec {
-  /** IANA time zone of the delivery day, e.g. `Europe/Berlin`. Required. */
-  readonly timeZone: string;
-  /** Length of a delivery period [min]: 15, 30 or 60. Required. */
-  readonly periodMinutes: 15 | 30 | 60;
-  /** Lowest price the auction can clear at [currency/MWh]. Required. */
-  readonly priceFloor: number;
-  /** Highest price the auction can clear at [currency/MWh]. Required. */
-  readonly priceCap: number;
-  /** Currency label printed beside prices, e.g. `EUR` or an invented one. Required. */
-  readonly currency: string;
-  /** Gate closure, local time of day on the day before delivery, `HH:MM`. Required. */
-  readonly gateClosure: string;
-  /** Rule for the fallback (balancing) price where a history has none. Default: none (required then). */
-  readonly fallback?: FallbackRule;
-}
-
-/**
- * Fallback price rule for histories without a `fallback_price` column:
- * an unaccepted buy is closed at clearing + penaltyPerMwh (the operator pays more),
- * an unaccepted sell at clearing - penaltyPerMwh (the operator receives less).
- */
-export interface FallbackRule {
-  readonly kind: 'clearing-plus-penalty';
-  /** Penalty added against the operator [currency/MWh], >= 0. */
-  readonly penaltyPerMwh: number;
-}
-
-/** Battery spec, as read from `battery.json` (DESIGN.md section 8). */
-export interface BatterySpec {
-  /** Nameplate energy capacity [MWh], > 0. */
-  readonly energyMwh: number;
-  /** Maximum charge power at the grid connection [MW], > 0. */
-  readonly chargeMw: number;
-  /** Maximum discharge power at the grid connection [MW], > 0. */
-  readonly dischargeMw: number;
-  /** Round-trip efficiency (0, 1]; split as sqrt into charge and discharge. Either this or both of the next two. */
-  readonly roundTripEfficiency?: number;
-  /** Charge efficiency (0, 1]: MWh stored per MWh bought. */
-  readonly chargeEfficiency?: number;
-  /** Discharge efficiency (0, 1]: MWh sold per MWh taken from store. */
-  readonly dischargeEfficiency?: number;
-  /** Lowest allowed state of charge as a fraction of energyMwh [-], default 0. */
-  readonly socMinFraction: number;
-  /** Highest allowed state of charge as a fraction of energyMwh [-], default 1. */
-  readonly socMaxFraction: number;
-  /** State of charge at the start of the first planned day as a fraction of energyMwh [-], default 0.5. */
-  readonly socInitialFraction: number;
-  /** Lowest state of charge at the end of each day as a fraction [-]. Default: the day's starting state. */
-  readonly socFinalMinFraction?: number;
-  /** Cap on discharged energy per day in equivalent full cycles of the usable window [1/day]. Default: none. */
-  readonly maxCyclesPerDay?: number;
-  /** Wear cost per MWh discharged [currency/MWh], >= 0, default 0. */
-  readonly degradationCostPerMwh: number;
-}
-
-/** Battery values the planner uses, derived once from a BatterySpec (all in physical units). */
-export interface BatteryModel {
-  /** Nameplate energy [MWh]. */
-  readonly energyMwh: number;
-  /** Charge power limit [MW]. */
-  readonly chargeMw: number;
-  /** Discharge power limit [MW]. */
-  readonly dischargeMw: number;
-  /** Charge efficiency eta_c (0, 1] [-]. */
-  readonly chargeEfficiency: number;
-  /** Discharge efficiency eta_d (0, 1] [-]. */
-  readonly dischargeEfficiency: number;
-  /** State-of-charge window [MWh]. */
-  readonly socMinMwh: number;
-  readonly socMaxMwh: number;
-  /** State of charge at the start of the first day [MWh]. */
-  readonly socInitialMwh: number;
-  /** End-of-day floor [MWh]; undefined means "the day's starting state". */
-  readonly socFinalMinMwh: number | undefined;
-  /** Cap on discharged energy per day [MWh at the grid]; undefined means no cap. */
-  readonly maxDischargeMwhPerDay: number | undefined;
-  /** Wear cost per MWh discharged (at the grid) [currency/MWh]. */
-  readonly degradationCostPerMwh: number;
-}
-
-/** One delivery period. */
-export interface DeliveryPeriod {
-  /** Start, ISO 8601 with the market zone's offset. */
-  readonly start: string;
-  /** End, ISO 8601 with the market zone's offset. */
-  readonly end: string;
-  /** Start as epoch milliseconds (for joins and sorting). */
-  readonly startMs: number;
-}
+export type { ImbalanceRule, MarketSpec } from './market/marketSpec.js';
+export type { DeliveryPeriod } from './market/deliveryPeriod.js';
+export type { BatteryModel, BatterySpec } from './battery/batterySpec.js';
+import type { BatteryModel } from './battery/batterySpec.js';
+import type { DeliveryPeriod } from './market/deliveryPeriod.js';
 
 /** One delivery day's quantile forecast: prices[t][k] at levels[k], non-decreasing in k. */
 export interface QuantileDay {
@@ -113,7 +29,7 @@ export interface QuantileDay {
 }
 
 /**
- * The day problem the planner solves (DESIGN.md section 4), in physical units.
+ * The day problem the planner solves (docs/design.md section 4), in physical units.
  * Prices are the ones the objective uses; limits are set separately.
  */
 export interface DayProblem {
@@ -171,11 +87,11 @@ export interface Order {
   readonly quantileLevel: number | null;
 }
 
-/** Planning policy names (DESIGN.md section 4). */
+/** Planning policy names (docs/design.md section 4). */
 export type PlanPolicy = 'quantile' | 'median' | 'point';
 
 /**
- * One delivery day of price history: realised clearing prices, the fallback (balancing) price where
+ * One delivery day of price history: realised clearing prices, the imbalance (balancing) price where
  * the history has one, and exogenous columns known before gate closure (e.g. `load_forecast_mw`).
  * Arrays are indexed like `periods`.
  */
@@ -185,8 +101,8 @@ export interface HistoryDay {
   readonly periods: readonly DeliveryPeriod[];
   /** Realised clearing price per period [currency/MWh]. */
   readonly pricePerMwh: readonly number[];
-  /** Realised fallback price per period [currency/MWh], or null when the history has no such column. */
-  readonly fallbackPricePerMwh: readonly number[] | null;
+  /** Realised imbalance price per period [currency/MWh], or null when the history has no such column. */
+  readonly imbalancePricePerMwh: readonly number[] | null;
   /** Exogenous columns by CSV header name, e.g. `load_forecast_mw` [MW]. */
   readonly exogenous: Readonly<Record<string, readonly number[]>>;
 }

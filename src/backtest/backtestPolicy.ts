@@ -1,5 +1,5 @@
 /**
- * The policies a backtest compares on the same days (DESIGN.md sections 4 and 5):
+ * The policies a backtest compares on the same days (docs/design.md sections 4 and 5):
  * - `quantile`: schedule and limits on the pessimistic side of the forecast, buys at q(1 - alpha), sells at q(alpha);
  * - `median`: schedule on the median, limits at q(1 - alpha) for buys and q(alpha) for sells;
  * - `point`: schedule and limits on the median;
@@ -10,3 +10,16 @@
 export type BacktestPolicy = 'quantile' | 'median' | 'point' | 'price-taking' | 'perfect-foresight';
 
 export const BACKTEST_POLICIES: readonly BacktestPolicy[] = Object.freeze(['quantile', 'median', 'point', 'price-taking', 'perfect-foresight']);
+
+/**
+ * Whether a policy reads the forecast at alpha and 1 - alpha: quantile and median do (their limits,
+ * and for quantile the schedule, come from q(alpha) and q(1 - alpha)); the others ignore alpha.
+ */
+export function readsAlpha(policy: BacktestPolicy): policy is 'quantile' | 'median' {
+  return policy === 'quantile' || policy === 'median';
+}
+
+/** Whether a policy reads the forecast's median: median, point and price-taking schedule on it. */
+export function readsMedian(policy: BacktestPolicy): boolean {
+  return policy === 'median' || policy === 'point' || policy === 'price-taking';
+}

@@ -1,7 +1,7 @@
 import { dieboldMariano, type DieboldMarianoResult } from '../stats/dieboldMariano.js';
 
 /**
- * The edge of one policy over another: is its mean daily profit higher? (DESIGN.md section 6)
+ * The edge of one policy over another: is its mean daily profit higher? (docs/design.md section 6)
  *
  * Notes: with daily profits a_t (the tested policy, e.g. quantile) and b_t (the reference, e.g. point)
  * on the same days, d_t = a_t - b_t. Taking the loss of a policy to be its negated profit, d_t is the

@@ -1,4 +1,4 @@
-/** The backtest of one setting: the day loop, the policies and their metrics (DESIGN.md sections 3-6). */
+/** The backtest of one setting: the day loop, the policies and their metrics (docs/design.md sections 3-6). */
 export { BACKTEST_POLICIES, type BacktestPolicy } from './backtestPolicy.js';
 export { backtestMetrics, type BacktestMetrics, type MonthRow } from './backtestMetrics.js';
 export { dailyProfitStats, WORST_DAY_LEVEL, type DailyProfitStats } from './dailyProfitStats.js';

@@ -1,4 +1,4 @@
-import type { UnacceptedPolicy } from '../settle/settleDay.js';
+import type { UnacceptedRule } from '../settle/settleDay.js';
 import type { BacktestPolicy } from './backtestPolicy.js';
 import { runBacktest, type BacktestInput, type PolicyDay } from './runBacktest.js';
 
@@ -19,7 +19,7 @@ export interface PolicyRun {
 export interface PolicyRunOptions {
   /** Central interval of the quantile and median policies, in (0, 0.5); ignored by the others. */
   readonly alpha: number;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly unaccepted: UnacceptedRule;
 }
 
 /**

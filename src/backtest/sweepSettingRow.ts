@@ -1,5 +1,4 @@
-import type { UnacceptedPolicy } from '../settle/settleDay.js';
-import type { SweepRow } from './sweep/taskModule.js';
+import type { UnacceptedRule } from '../settle/settleDay.js';
 import { edgeTest } from './edgeTest.js';
 import { policyMetrics } from './policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from './policyRun.js';
@@ -10,12 +9,12 @@ export const SWEEP_POLICIES = Object.freeze(['quantile', 'median'] as const);
 export type SweepPolicy = (typeof SWEEP_POLICIES)[number];
 
 /** One setting of `quantbid sweep`. */
-export interface SweepSetting {
+export type SweepSetting = {
   /** Central interval [q(alpha), q(1 - alpha)], in (0, 0.5). */
   readonly alpha: number;
   readonly policy: SweepPolicy;
-  readonly unaccepted: UnacceptedPolicy;
-}
+  readonly unaccepted: UnacceptedRule;
+};
 
 /**
  * Columns of `sweep.csv` after the axis columns `alpha,policy,unaccepted`, in this order. Sums are over
@@ -29,7 +28,7 @@ export interface SweepSetting {
  *   correction (h = 1) of that difference, H1: the setting earns more than the point policy
  *   (edgeTest.ts); empty when there is no test (fewer than 2 days, or every daily difference equal);
  * - `buy_acceptance_rate`, `sell_acceptance_rate`: accepted orders / orders (empty without orders);
- * - `fallback_mwh`, `fallback_cash`: energy bought plus sold at the fallback price, and its cash;
+ * - `imbalance_mwh`, `imbalance_cash`: energy bought plus sold at the imbalance price, and its cash;
  * - `auction_cash`, `degradation_cost`, `discharged_mwh`;
  * - `cycles`: discharged MWh / usable MWh (socMax - socMin), equivalent full cycles;
  * - `days_without_plan`: days the policy had no feasible plan and placed no orders;
@@ -37,9 +36,18 @@ export interface SweepSetting {
  */
 export const SWEEP_COLUMNS = Object.freeze([
   'days', 'profit', 'mean_daily_profit', 'capture_ratio', 'perfect_foresight_profit', 'point_profit', 'edge_vs_point', 'p_value_vs_point',
-  'buy_acceptance_rate', 'sell_acceptance_rate', 'fallback_mwh', 'fallback_cash', 'auction_cash', 'degradation_cost', 'discharged_mwh',
+  'buy_acceptance_rate', 'sell_acceptance_rate', 'imbalance_mwh', 'imbalance_cash', 'auction_cash', 'degradation_cost', 'discharged_mwh',
   'cycles', 'days_without_plan', 'daily_profit_sd', 'worst_day_5pct', 'max_drawdown',
 ] as const);
+
+/** One row of sweep.csv after the axis columns, in SWEEP_COLUMNS order. */
+export type SweepRow = Readonly<Record<(typeof SWEEP_COLUMNS)[number], number | null>>;
+
+/** A finished setting of a sweep with its row. */
+export interface SweepResult {
+  readonly setting: SweepSetting;
+  readonly row: SweepRow;
+}
 
 /** Alpha handed to runs of policies that ignore it (point, perfect foresight). */
 const UNUSED_ALPHA = 0.1;
@@ -68,8 +76,8 @@ export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, mem
     p_value_vs_point: edge.status === 'ok' ? edge.pValueOneSided : null,
     buy_acceptance_rate: m.buyAcceptanceRate,
     sell_acceptance_rate: m.sellAcceptanceRate,
-    fallback_mwh: m.boughtFallbackMwh + m.soldFallbackMwh,
-    fallback_cash: m.fallbackCash,
+    imbalance_mwh: m.boughtImbalanceMwh + m.soldImbalanceMwh,
+    imbalance_cash: m.imbalanceCash,
     auction_cash: m.auctionCash,
     degradation_cost: m.degradationCost,
     discharged_mwh: m.dischargedMwh,
@@ -79,5 +87,5 @@ export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, mem
     worst_day_5pct: m.worstDay5Percent,
     max_drawdown: m.maxDrawdown,
   };
-  return Object.fromEntries(SWEEP_COLUMNS.map((column) => [column, row[column]]));
+  return Object.fromEntries(SWEEP_COLUMNS.map((column) => [column, row[column]])) as SweepRow;
 }

@@ -1,7 +1,6 @@
 import { z } from 'zod';
-import type { BatteryModel, BatterySpec } from '../types.js';
 
-/** Defaults of the optional battery fields (DESIGN.md section 8). */
+/** Defaults of the optional battery fields (docs/design.md section 8). */
 export const BATTERY_DEFAULTS = Object.freeze({
   socMinFraction: 0,
   socMaxFraction: 1,
@@ -15,19 +14,31 @@ const positive = (field: string) => num(field).gt(0, `${field} must be > 0`);
 const efficiency = (field: string) => num(field).gt(0, `${field} must be in (0, 1]`).lte(1, `${field} must be in (0, 1]`);
 const fraction = (field: string) => num(field).min(0, `${field} must be in [0, 1]`).max(1, `${field} must be in [0, 1]`);
 
-/** The fields of `battery.json`, each checked on its own. */
+/** The fields of `battery.json` (docs/design.md section 8), each checked on its own. */
 const batteryFields = z.strictObject({
+  /** Nameplate energy capacity [MWh], > 0. */
   energyMwh: positive('energyMwh'),
+  /** Maximum charge power at the grid connection [MW], > 0. */
   chargeMw: positive('chargeMw'),
+  /** Maximum discharge power at the grid connection [MW], > 0. */
   dischargeMw: positive('dischargeMw'),
+  /** Round-trip efficiency (0, 1]; split as sqrt into charge and discharge. Either this or both of the next two. */
   roundTripEfficiency: efficiency('roundTripEfficiency').optional(),
+  /** Charge efficiency (0, 1]: MWh stored per MWh bought. */
   chargeEfficiency: efficiency('chargeEfficiency').optional(),
+  /** Discharge efficiency (0, 1]: MWh sold per MWh taken from store. */
   dischargeEfficiency: efficiency('dischargeEfficiency').optional(),
+  /** Lowest allowed state of charge as a fraction of energyMwh [-], default 0. */
   socMinFraction: fraction('socMinFraction').default(BATTERY_DEFAULTS.socMinFraction),
+  /** Highest allowed state of charge as a fraction of energyMwh [-], default 1. */
   socMaxFraction: fraction('socMaxFraction').default(BATTERY_DEFAULTS.socMaxFraction),
+  /** State of charge at the start of the first planned day as a fraction of energyMwh [-], default 0.5. */
   socInitialFraction: fraction('socInitialFraction').default(BATTERY_DEFAULTS.socInitialFraction),
+  /** Lowest state of charge at the end of each day as a fraction [-]. Default: the day's starting state. */
   socFinalMinFraction: fraction('socFinalMinFraction').optional(),
+  /** Cap on discharged energy per day in equivalent full cycles of the usable window [1/day]. Default: none. */
   maxCyclesPerDay: positive('maxCyclesPerDay').optional(),
+  /** Wear cost per MWh discharged [currency/MWh], >= 0, default 0. */
   degradationCostPerMwh: num('degradationCostPerMwh')
     .min(0, 'degradationCostPerMwh must be >= 0')
     .default(BATTERY_DEFAULTS.degradationCostPerMwh),
@@ -90,8 +101,36 @@ export const BATTERY_FIELD_FIXES: Readonly<Record<string, string>> = {
   degradationCostPerMwh: 'give a wear cost >= 0 per MWh discharged, e.g. 4',
 };
 
+/** Battery spec, as read from `battery.json`: the type of batterySpecSchema's output (defaults filled in). */
+export type BatterySpec = Readonly<z.output<typeof batterySpecSchema>>;
+
 export function parseBatterySpec(value: unknown): z.ZodSafeParseResult<BatterySpec> {
-  return batterySpecSchema.safeParse(value) as z.ZodSafeParseResult<BatterySpec>;
+  return batterySpecSchema.safeParse(value);
+}
+
+/** Battery values the planner uses, derived once from a BatterySpec (all in physical units). */
+export interface BatteryModel {
+  /** Nameplate energy [MWh]. */
+  readonly energyMwh: number;
+  /** Charge power limit [MW]. */
+  readonly chargeMw: number;
+  /** Discharge power limit [MW]. */
+  readonly dischargeMw: number;
+  /** Charge efficiency eta_c (0, 1] [-]. */
+  readonly chargeEfficiency: number;
+  /** Discharge efficiency eta_d (0, 1] [-]. */
+  readonly dischargeEfficiency: number;
+  /** State-of-charge window [MWh]. */
+  readonly socMinMwh: number;
+  readonly socMaxMwh: number;
+  /** State of charge at the start of the first day [MWh]. */
+  readonly socInitialMwh: number;
+  /** End-of-day floor [MWh]; undefined means "the day's starting state". */
+  readonly socFinalMinMwh: number | undefined;
+  /** Cap on discharged energy per day [MWh at the grid]; undefined means no cap. */
+  readonly maxDischargeMwhPerDay: number | undefined;
+  /** Wear cost per MWh discharged (at the grid) [currency/MWh]. */
+  readonly degradationCostPerMwh: number;
 }
 
 /**
@@ -99,7 +138,7 @@ export function parseBatterySpec(value: unknown): z.ZodSafeParseResult<BatterySp
  *
  * With only a round-trip efficiency, eta_c = eta_d = sqrt(roundTrip) (common practice: losses split
  * evenly between the two conversions). The cycle cap limits energy discharged at the grid per day to
- * maxCyclesPerDay x usable energy, usable = (socMax - socMin) x energyMwh (DESIGN.md section 4).
+ * maxCyclesPerDay x usable energy, usable = (socMax - socMin) x energyMwh (docs/design.md section 4).
  */
 export function batteryModel(spec: BatterySpec): BatteryModel {
   const roundTrip = spec.roundTripEfficiency;

@@ -1,17 +1,17 @@
 import { Command, CommanderError } from 'commander';
-import { InputError, formatProblem } from '../io/inputError.js';
+import { InputError, formatProblem } from '../errors/inputError.js';
+import { packageVersion } from '../app/packageInfo.js';
 import { backtestCommand } from './backtestCommand.js';
-import { demoCommand } from './demoCommand.js';
 import { forecastCommand } from './forecastCommand.js';
+import { demoCommand } from './demoCommand.js';
 import { planCommand } from './planCommand.js';
 import { processIo, type CliIo } from './cliIo.js';
 import { scoreCommand } from './scoreCommand.js';
 import { sizeCommand } from './sizeCommand.js';
 import { sweepCommand } from './sweepCommand.js';
-import { packageVersion } from './version.js';
 import { usageErrorText } from './usageError.js';
 
-/** Exit codes (DESIGN.md section 7). */
+/** Exit codes (docs/design.md section 7). */
 export const EXIT = Object.freeze({ ok: 0, internal: 1, badInput: 2 });
 
 /**

@@ -1,4 +1,4 @@
-import { formatProblem, type InputProblem } from '../io/inputError.js';
+import { formatProblem, type InputProblem } from '../errors/inputError.js';
 
 /**
  * A command-line usage error as reported by commander, rewritten as one of our problems

@@ -1,5 +1,5 @@
 /**
- * Quantile forecasts of day-ahead prices from price history (DESIGN.md section 6): for one delivery
+ * Quantile forecasts of day-ahead prices from price history (docs/design.md section 6): for one delivery
  * day of a history, using only the days before it and the delivery day's own exogenous columns.
  *
  * Methods (point model + how the quantiles are made):

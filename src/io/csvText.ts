@@ -1,5 +1,5 @@
-import type { InputProblem } from './inputError.js';
-import { shownText } from './shownText.js';
+import type { InputProblem } from '../errors/inputError.js';
+import { shownText } from '../errors/shownText.js';
 
 /** One CSV data row with its 1-based line number in the file. */
 export interface CsvRow {
@@ -18,6 +18,11 @@ export interface CsvTable {
   readonly rows: Iterable<CsvRow>;
   /** Whether there is at least one non-blank line after the header. */
   readonly hasRows: boolean;
+  /**
+   * The same data rows as a cursor over the text (byte order mark removed), without cutting a string
+   * per line: for readers that read a row's cells in place (PlainRow).
+   */
+  lines(): CsvLineCursor;
 }
 
 /**
@@ -44,14 +49,68 @@ export function splitCsv(text: string, file: string): { table: CsvTable } | { pr
       }
     },
   };
-  return { table: { header: splitCsvLine(headerText), headerLine: first.line, rows, hasRows: lines.nextNonBlank(dataStart, first.line) !== null } };
+  const cursor = (): CsvLineCursor => new CsvLineCursor(body, lines.breakChar, dataStart, first.line);
+  return { table: { header: splitCsvLine(headerText), headerLine: first.line, rows, hasRows: lines.nextNonBlank(dataStart, first.line) !== null, lines: cursor } };
+}
+
+/**
+ * The non-blank lines of a text after an offset, one at a time: `next()` moves to the next one and
+ * sets `line` (1-based), `from` and `to` (the line's text without its line break and a carriage
+ * return before it, as the rows of splitCsv have it).
+ */
+export class CsvLineCursor {
+  line: number;
+  from = 0;
+  to = 0;
+  private at: number;
+
+  constructor(
+    readonly text: string,
+    private readonly breakChar: string,
+    start: number,
+    lineBefore: number,
+  ) {
+    this.at = start;
+    this.line = lineBefore;
+  }
+
+  next(): boolean {
+    const text = this.text;
+    // As text.split(breakChar): a text ending in a line break has an empty last line.
+    while (this.at <= text.length) {
+      const found = text.indexOf(this.breakChar, this.at);
+      const stop = found < 0 ? text.length : found;
+      const start = this.at;
+      this.line++;
+      this.at = stop + 1;
+      if (!isBlank(text, start, stop)) {
+        this.from = start;
+        this.to = stop > start && text.charCodeAt(stop - 1) === 0x0d ? stop - 1 : stop;
+        return true;
+      }
+    }
+    return false;
+  }
+
+  /** The current line's text (as a row of splitCsv has it). */
+  lineText(): string {
+    return this.text.slice(this.from, this.to);
+  }
+}
+
+/** Whether text[from, to) is blank (String.prototype.trim leaves nothing); decided without a slice for the usual line. */
+function isBlank(text: string, from: number, to: number): boolean {
+  if (from === to) return true;
+  const code = text.charCodeAt(from);
+  if (code > 0x20 && code < 0x7f) return false;
+  return text.slice(from, to).trim() === '';
 }
 
 /** Walks the lines of a text by offsets, without splitting it into an array of lines. */
 class TextLines {
   constructor(
     private readonly text: string,
-    private readonly breakChar: string,
+    readonly breakChar: string,
   ) {}
 
   /**

@@ -1,5 +1,5 @@
 import type { z } from 'zod';
-import type { InputProblem } from './inputError.js';
+import type { InputProblem } from '../errors/inputError.js';
 import { jsonSyntaxError } from './jsonSyntaxError.js';
 
 /**

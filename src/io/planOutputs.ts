@@ -1,7 +1,7 @@
 import type { DeliveryPeriod, Order, Schedule } from '../types.js';
 import { csvLine } from './formatNumber.js';
 
-/** `orders.csv`: period_start,period_end,side,quantity_mw,limit_price,quantile_level (DESIGN.md section 8). */
+/** `orders.csv`: period_start,period_end,side,quantity_mw,limit_price,quantile_level (docs/design.md section 8). */
 export function ordersCsv(orders: readonly Order[]): string {
   const lines = ['period_start,period_end,side,quantity_mw,limit_price,quantile_level'];
   for (const o of orders) {

@@ -18,7 +18,7 @@ export function levelText(level: number): string {
 }
 
 /**
- * The wide quantile forecast CSV of DESIGN.md section 8, `period_start,q0.05,...,q0.95`: one row per
+ * The wide quantile forecast CSV of docs/design.md section 8, `period_start,q0.05,...,q0.95`: one row per
  * delivery period, days in the order given, levels as in the first day (every day must have them),
  * prices with at most FORECAST_PRICE_DECIMALS decimals. parseQuantileForecast reads it back.
  */

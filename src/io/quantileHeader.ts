@@ -1,5 +1,5 @@
-import type { InputProblem } from './inputError.js';
-import { shownText } from './shownText.js';
+import type { InputProblem } from '../errors/inputError.js';
+import { shownText } from '../errors/shownText.js';
 
 /** The layout a quantile forecast header names, with the levels of the wide layout. */
 export interface QuantileHeader {
@@ -13,7 +13,7 @@ const LEVEL_HEADER = /^q(\d*\.?\d+)$/;
 const LAYOUTS = 'use the header period_start,q0.05,...,q0.95 (wide) or period_start,level,price (long)';
 
 /**
- * Checks the header of a quantile forecast (DESIGN.md section 8): `period_start` first, then either
+ * Checks the header of a quantile forecast (docs/design.md section 8): `period_start` first, then either
  * `level,price` (long layout) or one column `q<level>` per level, levels in (0, 1) and increasing
  * (wide layout). Every problem of the header is listed; levels written as percentages are named as such.
  *

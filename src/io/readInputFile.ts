@@ -1,6 +1,6 @@
 import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
 import { constants, gunzipSync } from 'node:zlib';
-import { InputError, type InputProblem } from './inputError.js';
+import { InputError, type InputProblem } from '../errors/inputError.js';
 import { SNIFF_BYTES, sniffText, type FirstLineCheck } from './sniffText.js';
 
 /**

@@ -1,56 +1,68 @@
 import type { DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory } from '../types.js';
-import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
-import { InputError, ProblemList } from './inputError.js';
-import { parseDecimal, splitCsv, type CsvRow } from './csvText.js';
+import { DayCalendar } from '../market/dayCalendar.js';
+import { InputError, ProblemList } from '../errors/inputError.js';
+import { parseDecimal, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
+import { PeriodLocator } from './periodLocator.js';
+import { PlainRow } from './plainRow.js';
 import { readInputFile } from './readInputFile.js';
 
-/** Column names with a fixed meaning in a price history (DESIGN.md section 8). */
+/** Column names with a fixed meaning in a price history (docs/design.md section 8). */
 export const HISTORY_COLUMNS = Object.freeze({
   periodStart: 'period_start',
   price: 'price',
-  fallbackPrice: 'fallback_price',
+  imbalancePrice: 'imbalance_price',
 });
 
+/** The old name of the `imbalance_price` column, still read (docs/design.md section 2). */
+export const OLD_IMBALANCE_PRICE_COLUMN = 'fallback_price';
+
 /** Reads a price history file (.csv or .csv.gz); see parsePriceHistory. */
-export function readPriceHistory(path: string, market: MarketSpec): PriceHistory {
-  return parsePriceHistory(readInputFile(path), path, market);
+export function readPriceHistory(path: string, market: MarketSpec, note?: (text: string) => void): PriceHistory {
+  return parsePriceHistory(readInputFile(path), path, market, note);
 }
 
 /**
- * Parses a price history: `period_start,price` plus an optional `fallback_price` column and any number
- * of exogenous columns (e.g. `load_forecast_mw`), in any order after `price`.
+ * Parses a price history: `period_start,price` plus an optional `imbalance_price` column and any number
+ * of exogenous columns (e.g. `load_forecast_mw`), in any order after `price`. The column under its old
+ * name `fallback_price` is read as `imbalance_price`, and `note` (when given) hears one line saying so
+ * and asking to rename the column; both names in one file is a problem.
  *
  * Conventions:
  * - every cell must be a finite decimal with a dot (parseDecimal); `period_start` must name a period
  *   start of the market's calendar with the zone's offset on that date (locatePeriod);
- * - `price` must lie in the market's [priceFloor, priceCap]; `fallback_price` is a balancing price and
+ * - `price` must lie in the market's [priceFloor, priceCap]; `imbalance_price` is a balancing price and
  *   is only required to be finite (balancing prices are not bound by the auction's limits, common practice);
  * - rows may come in any order; days come out ascending;
  * - a day with missing periods or a period given twice is left out and listed in `incompleteDays` with
  *   the reason (never filled in, never averaged);
  * - cell problems are all collected and thrown together as one InputError (file, line, column).
  */
-export function parsePriceHistory(text: string, file: string, market: MarketSpec): PriceHistory {
+export function parsePriceHistory(text: string, file: string, market: MarketSpec, note?: (text: string) => void): PriceHistory {
   const split = splitCsv(text, file);
   if ('problems' in split) throw new InputError(split.problems);
   const problems = new ProblemList();
-  const { header, rows } = split.table;
+  const { header } = split.table;
   const layout = historyLayout(header, file, problems);
   problems.throwIfAny();
+  if (layout.oldImbalanceName && note !== undefined) {
+    note(`note: ${file}:1: the column ${OLD_IMBALANCE_PRICE_COLUMN} is read as ${HISTORY_COLUMNS.imbalancePrice}; rename the column to ${HISTORY_COLUMNS.imbalancePrice}\n`);
+  }
   const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
-  const byDay = readRows(rows, header, file, market, calendar, problems);
+  const byDay = readRows(split.table, header, file, market, calendar, problems);
   problems.throwIfAny();
   return assembleHistory(byDay, layout, calendar);
 }
 
 /** Where each column is. */
 interface HistoryLayout {
-  readonly fallbackColumn: number | null;
+  readonly imbalanceColumn: number | null;
+  /** Whether the imbalance price column has its old name. */
+  readonly oldImbalanceName: boolean;
   /** Exogenous columns: name and 0-based index. */
   readonly exogenous: readonly { readonly name: string; readonly column: number }[];
 }
 
-const HEADER_FIX = 'use the header period_start,price[,fallback_price][,other columns such as load_forecast_mw]';
+const HEADER_FIX = 'use the header period_start,price[,imbalance_price][,other columns such as load_forecast_mw]';
 
 function historyLayout(header: readonly string[], file: string, problems: ProblemList): HistoryLayout {
   const at = (k: number): string => header[k] ?? '';
@@ -60,7 +72,8 @@ function historyLayout(header: readonly string[], file: string, problems: Proble
   if (at(1) !== HISTORY_COLUMNS.price) {
     problems.add({ file, line: 1, field: at(1), message: `the second column is "${at(1)}", expected "price"`, fix: HEADER_FIX });
   }
-  let fallbackColumn: number | null = null;
+  let imbalanceColumn: number | null = null;
+  let oldImbalanceName = false;
   const exogenous: { name: string; column: number }[] = [];
   const seen = new Set<string>();
   header.forEach((name, k) => {
@@ -74,10 +87,18 @@ function historyLayout(header: readonly string[], file: string, problems: Proble
     }
     seen.add(name);
     if (k < 2) return;
-    if (name === HISTORY_COLUMNS.fallbackPrice) fallbackColumn = k;
-    else exogenous.push({ name, column: k });
+    if (name === HISTORY_COLUMNS.imbalancePrice || name === OLD_IMBALANCE_PRICE_COLUMN) {
+      if (imbalanceColumn !== null) {
+        problems.add({ file, line: 1, field: name, message: `both ${HISTORY_COLUMNS.imbalancePrice} and its old name ${OLD_IMBALANCE_PRICE_COLUMN} are given`, fix: `keep one of them, named ${HISTORY_COLUMNS.imbalancePrice}` });
+        return;
+      }
+      imbalanceColumn = k;
+      oldImbalanceName = name === OLD_IMBALANCE_PRICE_COLUMN;
+    } else {
+      exogenous.push({ name, column: k });
+    }
   });
-  return { fallbackColumn, exogenous };
+  return { imbalanceColumn, oldImbalanceName, exogenous };
 }
 
 /** The cells of one delivery day as they are read: one column per numeric field, NaN where not given. */
@@ -92,48 +113,77 @@ interface DayBuffer {
 
 /**
  * Reads every row into its day's buffer; a row with any problem is listed and not used. Rows go
- * straight into per-day columns (no object per row), which keeps a long history quick to read.
+ * straight into per-day columns (no object per row), which keeps a long history quick to read; the
+ * usual row is read in place (PlainRow, PeriodLocator), any other by splitCsvLine and parseDecimal,
+ * which word its problems.
  */
 function readRows(
-  rows: Iterable<CsvRow>,
+  table: CsvTable,
   header: readonly string[],
   file: string,
   market: MarketSpec,
   calendar: DayCalendar,
   problems: ProblemList,
 ): Map<string, DayBuffer> {
-  const locator = new SequentialLocator(calendar);
+  const locator = new PeriodLocator(calendar);
   const byDay = new Map<string, DayBuffer>();
-  const width = header.length;
-  const values = new Float64Array(width - 1);
-  for (const row of rows) {
+  const values = new Float64Array(header.length - 1);
+  const plain = new PlainRow(header.length);
+  const lines = table.lines();
+  while (lines.next()) {
     if (problems.full) break;
-    if (row.cells.length !== width) {
-      // Name the first column without a value, or the first cell beyond the header.
-      const field = row.cells.length < width ? (header[row.cells.length] as string) : `column ${width + 1}`;
-      const fix = row.cells.length > width ? 'give one value per column on every line; a decimal comma (42,5) splits a number in two: write 42.5' : 'give one value per column on every line';
-      problems.add({ file, line: row.line, field, message: `${row.cells.length} fields, the header has ${width}`, fix });
-      continue;
+    if (plain.read(lines.text, lines.from, lines.to) && withinLimits(plain.values[0] as number, market)) {
+      const located = locator.locateAt(lines.text, plain.stampFrom, plain.stampTo);
+      if (located.ok) store(byDay, calendar, located, lines.line, plain.values);
+      else problems.add({ file, line: lines.line, field: HISTORY_COLUMNS.periodStart, message: located.message, fix: located.fix });
+    } else {
+      readRow({ line: lines.line, cells: splitCsvLine(lines.lineText()) }, header, file, market, locator, problems, values, byDay, calendar);
     }
-    const located = locator.locate(row.cells[0] as string);
-    let ok = located.ok;
-    if (!located.ok) problems.add({ file, line: row.line, field: HISTORY_COLUMNS.periodStart, message: located.message, fix: located.fix });
-    for (let k = 1; k < width; k++) {
-      const cell = parseDecimal(row.cells[k] as string);
-      const field = header[k] as string;
-      if ('error' in cell) {
-        problems.add({ file, line: row.line, field, message: cell.error, fix: cell.fix });
-        ok = false;
-      } else if (k === 1 && (cell.value < market.priceFloor || cell.value > market.priceCap)) {
-        problems.add({ file, line: row.line, field, message: `price ${cell.value} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the history's unit and the market spec's priceFloor and priceCap" });
-        ok = false;
-      } else {
-        values[k - 1] = cell.value;
-      }
-    }
-    if (ok && located.ok) store(byDay, calendar, located, row.line, values);
   }
   return byDay;
+}
+
+function withinLimits(price: number, market: MarketSpec): boolean {
+  return price >= market.priceFloor && price <= market.priceCap;
+}
+
+/** One row read cell by cell: its problems listed (the period start first, then the cells in order), or its values stored. */
+function readRow(
+  row: CsvRow,
+  header: readonly string[],
+  file: string,
+  market: MarketSpec,
+  locator: PeriodLocator,
+  problems: ProblemList,
+  values: Float64Array,
+  byDay: Map<string, DayBuffer>,
+  calendar: DayCalendar,
+): void {
+  const width = header.length;
+  if (row.cells.length !== width) {
+    // Name the first column without a value, or the first cell beyond the header.
+    const field = row.cells.length < width ? (header[row.cells.length] as string) : `column ${width + 1}`;
+    const fix = row.cells.length > width ? 'give one value per column on every line; a decimal comma (42,5) splits a number in two: write 42.5' : 'give one value per column on every line';
+    problems.add({ file, line: row.line, field, message: `${row.cells.length} fields, the header has ${width}`, fix });
+    return;
+  }
+  const located = locator.locate(row.cells[0] as string);
+  let ok = located.ok;
+  if (!located.ok) problems.add({ file, line: row.line, field: HISTORY_COLUMNS.periodStart, message: located.message, fix: located.fix });
+  for (let k = 1; k < width; k++) {
+    const cell = parseDecimal(row.cells[k] as string);
+    const field = header[k] as string;
+    if ('error' in cell) {
+      problems.add({ file, line: row.line, field, message: cell.error, fix: cell.fix });
+      ok = false;
+    } else if (k === 1 && (cell.value < market.priceFloor || cell.value > market.priceCap)) {
+      problems.add({ file, line: row.line, field, message: `price ${cell.value} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the history's unit and the market spec's priceFloor and priceCap" });
+      ok = false;
+    } else {
+      values[k - 1] = cell.value;
+    }
+  }
+  if (ok && located.ok) store(byDay, calendar, located, row.line, values);
 }
 
 function store(byDay: Map<string, DayBuffer>, calendar: DayCalendar, at: { day: string; index: number }, line: number, values: Float64Array): void {
@@ -149,44 +199,7 @@ function store(byDay: Map<string, DayBuffer>, calendar: DayCalendar, at: { day: 
     return;
   }
   buffer.lines[at.index] = line;
-  values.forEach((value, k) => {
-    (buffer.columns[k] as Float64Array)[at.index] = value;
-  });
-}
-
-/**
- * locatePeriod with a fast path for files in time order: when a timestamp is exactly the calendar's
- * text of the period after the last one found, that is its period (the calendar's text is the form
- * locatePeriod accepts); anything else goes through locatePeriod. Same answers, without a date
- * library call per row.
- */
-class SequentialLocator {
-  private last: { day: string; index: number } | null = null;
-
-  constructor(private readonly calendar: DayCalendar) {}
-
-  locate(stamp: string): LocatedPeriod {
-    const expected = this.next();
-    const located: LocatedPeriod =
-      expected !== null && expected.period.start === stamp
-        ? { ok: true, day: expected.day, index: expected.index, startMs: expected.period.startMs }
-        : locatePeriod(stamp, this.calendar);
-    this.last = located.ok ? { day: located.day, index: located.index } : null;
-    return located;
-  }
-
-  private next(): { day: string; index: number; period: DeliveryPeriod } | null {
-    if (this.last === null) return null;
-    const { day, index } = this.last;
-    const periods = this.calendar.periods(day);
-    const same = periods[index + 1];
-    if (same !== undefined) return { day, index: index + 1, period: same };
-    // After a day's last period comes the first period of the day its end falls on.
-    const end = (periods[index] as DeliveryPeriod).end;
-    const following = end.slice(0, 10);
-    const first = this.calendar.periods(following)[0];
-    return first?.start === end ? { day: following, index: 0, period: first } : null;
-  }
+  for (let k = 0; k < values.length; k++) (buffer.columns[k] as Float64Array)[at.index] = values[k] as number;
 }
 
 function assembleHistory(byDay: ReadonlyMap<string, DayBuffer>, layout: HistoryLayout, calendar: DayCalendar): PriceHistory {
@@ -200,18 +213,25 @@ function assembleHistory(byDay: ReadonlyMap<string, DayBuffer>, layout: HistoryL
       incompleteDays.push({ day, reason });
       continue;
     }
-    const column = (k: number): number[] => Array.from(buffer.columns[k - 1] as Float64Array);
+    const column = (k: number): number[] => plainArray(buffer.columns[k - 1] as Float64Array);
     const exogenous: Record<string, number[]> = {};
     for (const { name, column: k } of layout.exogenous) exogenous[name] = column(k);
     days.push({
       day,
       periods,
       pricePerMwh: column(1),
-      fallbackPricePerMwh: layout.fallbackColumn === null ? null : column(layout.fallbackColumn),
+      imbalancePricePerMwh: layout.imbalanceColumn === null ? null : column(layout.imbalanceColumn),
       exogenous,
     });
   }
   return { days, exogenousNames: layout.exogenous.map((e) => e.name), incompleteDays };
+}
+
+/** The numbers of a typed array as a plain array of its exact length (Array.from is several times slower). */
+function plainArray(values: Float64Array): number[] {
+  const array = new Array<number>(values.length);
+  for (let k = 0; k < values.length; k++) array[k] = values[k] as number;
+  return array;
 }
 
 function incompleteReason(buffer: DayBuffer, periods: readonly DeliveryPeriod[]): string | null {

@@ -1,11 +1,13 @@
 import type { MarketSpec, QuantileDay } from '../types.js';
-import { DayCalendar, locatePeriod } from '../market/dayCalendar.js';
+import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
 import { rearrange } from '../forecast/quantileSet.js';
-import { ProblemList } from './inputError.js';
-import { fieldCountProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow } from './csvText.js';
+import { ProblemList } from '../errors/inputError.js';
+import { fieldCountProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
+import { PeriodLocator } from './periodLocator.js';
+import { PlainRow } from './plainRow.js';
 import { readQuantileHeader } from './quantileHeader.js';
 import { readInputFile } from './readInputFile.js';
-import { shownText } from './shownText.js';
+import { shownText } from '../errors/shownText.js';
 
 /** A quantile forecast file, validated: complete days by day, and what was repaired or left out. */
 export interface QuantileForecastFile {
@@ -60,78 +62,149 @@ export function parseQuantileForecast(text: string, file: string, market: Market
     problems.add({ file, line: headerLine, message: 'the file has a header but no data rows', fix: 'give one row per delivery period (wide) or per period and level (long)' });
     problems.throwIfAny();
   }
-  const grid = checked.layout === 'long' ? longGrid(rows, file, market, problems) : wideGrid(header, checked.levels, rows, file, market, problems);
+  if (checked.layout === 'wide') return readWide(split.table, checked.levels, file, market, problems);
+  const { levels, periods } = longPeriods(rows, file, market, problems);
   problems.throwIfAny();
-  return assembleDays(grid, file, market, problems);
+  const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
+  const days = new ForecastDays(calendar, levels);
+  for (const { stamp, line, prices } of periods) days.add(locatePeriod(stamp, calendar), stamp, 0, stamp.length, line, prices, file, problems);
+  problems.throwIfAny();
+  return { file, ...days.assemble() };
 }
 
 /**
- * The rows as read, in file order: timestamp text, line, and the prices at `levels` packed into one
- * typed array (row r at r x levels.length), so that ten years of quarter-hours take 8 bytes per price
- * rather than an array object per row.
+ * The wide layout in one pass over the text: each row's prices go straight into its day, the usual
+ * row read in place (PlainRow, PeriodLocator), any other cell by cell. The problems come out as
+ * if in two passes: those of the cells first, and only when there are none, those of the period
+ * starts (not a period of the calendar, given twice), each list in file order.
  */
-class ForecastGrid {
-  readonly stamps: string[] = [];
-  readonly lines: number[] = [];
-  /** 0 where a cell of the row is wrong (its prices are not kept). */
-  private valid = new Uint8Array(1024);
-  private prices: Float64Array;
-
-  constructor(readonly levels: number[]) {
-    this.prices = new Float64Array(1024 * Math.max(1, levels.length));
-  }
-
-  get size(): number {
-    return this.stamps.length;
-  }
-
-  /** Adds a row; `prices` null when a cell of it is wrong. */
-  add(stamp: string, line: number, prices: ArrayLike<number> | null): void {
-    const r = this.stamps.length;
-    const width = this.levels.length;
-    if (r === this.valid.length) {
-      this.valid = grown(this.valid, new Uint8Array(2 * r));
-      this.prices = grown(this.prices, new Float64Array(2 * r * width));
-    }
-    this.stamps.push(stamp);
-    this.lines.push(line);
-    this.valid[r] = prices === null ? 0 : 1;
-    if (prices !== null) for (let k = 0; k < width; k++) this.prices[r * width + k] = prices[k] as number;
-  }
-
-  /** Row r's prices as a new array, or null when a cell of it was wrong. */
-  pricesOf(r: number): number[] | null {
-    const width = this.levels.length;
-    return this.valid[r] === 1 ? Array.from(this.prices.subarray(r * width, (r + 1) * width)) : null;
-  }
-}
-
-function grown<T extends Uint8Array | Float64Array>(from: T, to: T): T {
-  to.set(from);
-  return to;
-}
-
-function wideGrid(header: readonly string[], levels: readonly number[], rows: Iterable<CsvRow>, file: string, market: MarketSpec, problems: ProblemList): ForecastGrid {
-  const grid = new ForecastGrid([...levels]);
+function readWide(table: CsvTable, levels: readonly number[], file: string, market: MarketSpec, problems: ProblemList): QuantileForecastFile {
+  const { header } = table;
+  const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
+  const locator = new PeriodLocator(calendar);
+  const days = new ForecastDays(calendar, [...levels]);
+  const stampProblems = new ProblemList(problems.limit);
+  const plain = new PlainRow(header.length);
   const prices = new Float64Array(levels.length);
-  for (const row of rows) {
+  const lines = table.lines();
+  while (lines.next()) {
     if (problems.full) break;
-    if (row.cells.length !== header.length) {
-      problems.add(fieldCountProblem(row, header, file, 'give one value per column on every line'));
+    if (plain.read(lines.text, lines.from, lines.to) && withinLimits(plain.values, market)) {
+      // No cell problem once one is found: the period starts are then not looked at.
+      if (problems.items.length > 0) continue;
+      const located = locator.locateAt(lines.text, plain.stampFrom, plain.stampTo);
+      days.add(located, lines.text, plain.stampFrom, plain.stampTo, lines.line, plain.values, file, stampProblems);
+      continue;
+    }
+    const cells = splitCsvLine(lines.lineText());
+    if (cells.length !== header.length) {
+      problems.add(fieldCountProblem({ line: lines.line, cells }, header, file, 'give one value per column on every line'));
       continue;
     }
     let valid = true;
     for (let k = 0; k < levels.length; k++) {
-      const parsed = priceCell(row.cells[k + 1] as string, market);
+      const parsed = priceCell(cells[k + 1] as string, market);
       if ('value' in parsed) prices[k] = parsed.value;
       else {
-        problems.add({ file, line: row.line, field: header[k + 1] as string, message: parsed.error, fix: parsed.fix });
+        problems.add({ file, line: lines.line, field: header[k + 1] as string, message: parsed.error, fix: parsed.fix });
         valid = false;
       }
     }
-    grid.add(row.cells[0] as string, row.line, valid ? prices : null);
+    if (valid && problems.items.length === 0) {
+      const stamp = cells[0] as string;
+      days.add(locator.locate(stamp), stamp, 0, stamp.length, lines.line, prices, file, stampProblems);
+    }
   }
-  return grid;
+  problems.throwIfAny();
+  stampProblems.throwIfAny();
+  return { file, ...days.assemble() };
+}
+
+/** Whether every price of a row lies inside the market's [priceFloor, priceCap]. */
+function withinLimits(prices: Float64Array, market: MarketSpec): boolean {
+  for (let k = 0; k < prices.length; k++) {
+    const price = prices[k] as number;
+    if (!(price >= market.priceFloor && price <= market.priceCap)) return false;
+  }
+  return true;
+}
+
+/**
+ * A forecast's rows by day and period as they are located: prices sorted where they cross (and
+ * counted), a period given twice or not of the calendar listed as a problem.
+ */
+class ForecastDays {
+  private readonly byDay = new Map<string, { prices: (number[] | undefined)[]; lines: Int32Array }>();
+  private repairedPeriods = 0;
+  private readonly repairedExamples: string[] = [];
+
+  constructor(
+    private readonly calendar: DayCalendar,
+    private readonly levels: number[],
+  ) {}
+
+  /**
+   * One row: `located` from its period_start, which stands at text[from, to) (cut out only when a
+   * problem or a repair names it); `prices` null when a cell of the row was wrong (listed already).
+   */
+  add(located: LocatedPeriod, text: string, from: number, to: number, line: number, prices: ArrayLike<number> | null, file: string, problems: ProblemList): void {
+    if (!located.ok) {
+      problems.add({ file, line, field: 'period_start', message: located.message, fix: located.fix });
+      return;
+    }
+    let day = this.byDay.get(located.day);
+    if (day === undefined) {
+      const count = this.calendar.periods(located.day).length;
+      day = { prices: new Array<number[] | undefined>(count).fill(undefined), lines: new Int32Array(count) };
+      this.byDay.set(located.day, day);
+    }
+    const first = day.lines[located.index] as number;
+    if (first !== 0) {
+      problems.add({ file, line, field: 'period_start', message: `period ${text.slice(from, to)} appears twice (first on line ${first})`, fix: 'give each delivery period once' });
+      return;
+    }
+    day.lines[located.index] = line;
+    if (prices === null) return;
+    // Sized once: ten years of quarter-hours are 350,000 rows.
+    const row = new Array<number>(prices.length);
+    let crossing = false;
+    for (let k = 0; k < prices.length; k++) {
+      row[k] = prices[k] as number;
+      if (k > 0 && (row[k] as number) < (row[k - 1] as number)) crossing = true;
+    }
+    if (crossing) {
+      this.repairedPeriods++;
+      if (this.repairedExamples.length < 5) this.repairedExamples.push(ownCopy(text.slice(from, to)));
+    }
+    day.prices[located.index] = crossing ? rearrange(row).prices : row;
+  }
+
+  /** Complete days by day, and the days with periods missing, in day order. */
+  assemble(): Omit<QuantileForecastFile, 'file'> {
+    const days = new Map<string, QuantileDay>();
+    const incompleteDays: { day: string; reason: string }[] = [];
+    for (const day of [...this.byDay.keys()].sort()) {
+      const entry = this.byDay.get(day) as { prices: (number[] | undefined)[] };
+      const periods = this.calendar.periods(day);
+      const missing = periods.filter((_, t) => entry.prices[t] === undefined);
+      if (missing.length > 0) {
+        const shown = missing.slice(0, 3).map((p) => p.start).join(', ');
+        incompleteDays.push({ day, reason: `${missing.length} of ${periods.length} periods missing (${shown}${missing.length > 3 ? ', ...' : ''})` });
+        continue;
+      }
+      days.set(day, { day, levels: this.levels, periods, prices: entry.prices as number[][] });
+    }
+    return { levels: this.levels, days, incompleteDays, repairedPeriods: this.repairedPeriods, repairedExamples: this.repairedExamples };
+  }
+}
+
+/**
+ * A string that shares no memory with the text it was cut from: a cut keeps the whole file's text
+ * alive for as long as the cut lives (the engine's sliced strings), and the examples live as long as
+ * the forecast. UTF-16 code units round-trip unchanged.
+ */
+function ownCopy(text: string): string {
+  return Buffer.from(text, 'utf16le').toString('utf16le');
 }
 
 /** A price cell: a finite decimal inside the market's [priceFloor, priceCap]. */
@@ -161,7 +234,15 @@ interface LongGroup {
 
 const LONG_HEADER = ['period_start', 'level', 'price'] as const;
 
-function longGrid(rows: Iterable<CsvRow>, file: string, market: MarketSpec, problems: ProblemList): ForecastGrid {
+/** A period of the long layout: its prices at every level, or null when a row of it was wrong. */
+interface LongPeriod {
+  readonly stamp: string;
+  readonly line: number;
+  readonly prices: readonly number[] | null;
+}
+
+/** The long layout's periods in order of first appearance, and the levels they give. */
+function longPeriods(rows: Iterable<CsvRow>, file: string, market: MarketSpec, problems: ProblemList): { levels: number[]; periods: LongPeriod[] } {
   const levelSet = new Set<number>();
   const byStamp = new Map<string, LongGroup>();
   for (const row of rows) {
@@ -191,63 +272,14 @@ function longGrid(rows: Iterable<CsvRow>, file: string, market: MarketSpec, prob
     group.valid = false;
   }
   const levels = [...levelSet].sort((a, b) => a - b);
-  const grid = new ForecastGrid(levels);
+  const periods: LongPeriod[] = [];
   for (const group of byStamp.values()) {
     const missing = levels.filter((level) => !group.prices.has(level));
     if (group.valid && missing.length > 0) {
       problems.add({ file, line: group.line, field: 'level', message: `period ${shownText(group.stamp)} lacks levels ${missing.join(', ')}`, fix: 'give every period the same set of levels' });
     }
     const complete = group.valid && missing.length === 0;
-    grid.add(group.stamp, group.line, complete ? levels.map((level) => group.prices.get(level) as number) : null);
+    periods.push({ stamp: group.stamp, line: group.line, prices: complete ? levels.map((level) => group.prices.get(level) as number) : null });
   }
-  return grid;
-}
-
-function assembleDays(grid: ForecastGrid, file: string, market: MarketSpec, problems: ProblemList): QuantileForecastFile {
-  const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
-  // Per day and period: the prices (undefined until read) and the line they were first read from (0: none).
-  const byDay = new Map<string, { prices: (number[] | undefined)[]; lines: number[] }>();
-  let repairedPeriods = 0;
-  const repairedExamples: string[] = [];
-  for (let r = 0; r < grid.size; r++) {
-    const entry = { stamp: grid.stamps[r] as string, line: grid.lines[r] as number, prices: grid.pricesOf(r) };
-    const located = locatePeriod(entry.stamp, calendar);
-    if (!located.ok) {
-      problems.add({ file, line: entry.line, field: 'period_start', message: located.message, fix: located.fix });
-      continue;
-    }
-    let day = byDay.get(located.day);
-    if (day === undefined) {
-      const count = calendar.periods(located.day).length;
-      day = { prices: new Array<number[] | undefined>(count).fill(undefined), lines: new Array<number>(count).fill(0) };
-      byDay.set(located.day, day);
-    }
-    if (day.lines[located.index] !== 0) {
-      problems.add({ file, line: entry.line, field: 'period_start', message: `period ${entry.stamp} appears twice (first on line ${day.lines[located.index]})`, fix: 'give each delivery period once' });
-      continue;
-    }
-    day.lines[located.index] = entry.line;
-    if (entry.prices === null) continue; // its problems are listed already
-    const { prices, repaired } = rearrange(entry.prices);
-    if (repaired) {
-      repairedPeriods++;
-      if (repairedExamples.length < 5) repairedExamples.push(entry.stamp);
-    }
-    day.prices[located.index] = prices;
-  }
-  problems.throwIfAny();
-  const days = new Map<string, QuantileDay>();
-  const incompleteDays: { day: string; reason: string }[] = [];
-  for (const day of [...byDay.keys()].sort()) {
-    const entry = byDay.get(day) as { prices: (number[] | undefined)[] };
-    const periods = calendar.periods(day);
-    const missing = periods.filter((_, t) => entry.prices[t] === undefined);
-    if (missing.length > 0) {
-      const shown = missing.slice(0, 3).map((p) => p.start).join(', ');
-      incompleteDays.push({ day, reason: `${missing.length} of ${periods.length} periods missing (${shown}${missing.length > 3 ? ', ...' : ''})` });
-      continue;
-    }
-    days.set(day, { day, levels: grid.levels, periods, prices: entry.prices as number[][] });
-  }
-  return { file, levels: grid.levels, days, incompleteDays, repairedPeriods, repairedExamples };
+  return { levels, periods };
 }

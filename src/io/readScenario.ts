@@ -5,7 +5,7 @@ import { lineOfJsonPath } from './jsonProblems.js';
 import { MAX_SPEC_BYTES, parseJsonSpec } from './readSpecs.js';
 import { readInputFile } from './readInputFile.js';
 
-/** A scenario file bundles the paths of the inputs, relative to itself (DESIGN.md section 8). */
+/** A scenario file bundles the paths of the inputs, relative to itself (docs/design.md section 8). */
 export interface Scenario {
   readonly file: string;
   readonly name: string;

@@ -1,4 +1,4 @@
-import type { InputProblem } from './inputError.js';
+import type { InputProblem } from '../errors/inputError.js';
 
 /** How many bytes are looked at before a file is read whole [bytes]. */
 export const SNIFF_BYTES = 64 * 1024;

@@ -1,6 +1,6 @@
 import { closeSync, existsSync, fsyncSync, mkdirSync, mkdtempSync, openSync, readdirSync, renameSync, rmdirSync, rmSync, statSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
-import { InputError, type InputProblem } from './inputError.js';
+import { InputError, type InputProblem } from '../errors/inputError.js';
 
 /** One output file: its name inside the output folder and its full text. */
 export interface OutputFile {
@@ -30,7 +30,7 @@ const RETIRED_PREFIX = '.retired-';
  *    then the empty commit folder is removed;
  * 4. recover: every write into a folder first removes the partial folders and finishes (rolls forward)
  *    the commit folders that processes no longer running left behind, and removes their stray
- *    `.sweep-journal.jsonl.tmp-<pid>` files (a journal being created, sweepJournal.ts).
+ *    `.sweep-journal.jsonl.tmp-<pid>` files (a journal being created, gridJournal.ts).
  *
  * So a run killed at any moment leaves the old set (killed before the commit), or the new set (after
  * the install), or, killed during the install's few renames, a commit folder that holds the rest of the

@@ -1,5 +1,6 @@
-import { DateTime, IANAZone } from 'luxon';
-import type { DeliveryPeriod } from '../types.js';
+import { DateTime, IANAZone, Info, type Zone } from 'luxon';
+import type { DeliveryPeriod } from './deliveryPeriod.js';
+import { dayNumber, dayText } from './civilDays.js';
 
 /**
  * The delivery periods of one delivery day in a market's IANA zone.
@@ -23,7 +24,7 @@ export function deliveryPeriods(day: string, timeZone: string, periodMinutes: nu
   // clock-change days) local time is UTC plus one fixed offset, so the text is built by arithmetic.
   const startOffset = offsetMinutes(startMs, timeZone);
   const fixed = startOffset === offsetMinutes(endMs, timeZone) && startOffset === offsetMinutes(endMs - 1, timeZone);
-  const format = fixed ? (ms: number) => formatWithOffset(ms, startOffset) : (ms: number) => formatInstant(ms, timeZone);
+  const format = fixed ? fixedOffsetFormatter(startOffset) : (ms: number) => formatInstant(ms, timeZone);
   const periods: DeliveryPeriod[] = [];
   let start = format(startMs);
   for (let ms = startMs; ms < endMs; ms += stepMs) {
@@ -34,12 +35,48 @@ export function deliveryPeriods(day: string, timeZone: string, periodMinutes: nu
   return periods;
 }
 
-/** UTC offset of a zone at an instant [min]. */
+/**
+ * UTC offset of a zone at an instant [min]: what DateTime.fromMillis(ms, { zone }).offset gives, asked
+ * of luxon's zone object itself (kept per zone name) without making a DateTime.
+ */
 function offsetMinutes(ms: number, timeZone: string): number {
-  return DateTime.fromMillis(ms, { zone: timeZone }).offset;
+  let zone = zones.get(timeZone);
+  if (zone === undefined) {
+    zone = Info.normalizeZone(timeZone);
+    zones.set(timeZone, zone);
+  }
+  return zone.offset(ms);
 }
 
-/** ISO 8601 local time for a fixed offset, e.g. `2027-06-15T10:00:00+02:00` (same text as formatInstant). */
+const zones = new Map<string, Zone>();
+
+/**
+ * ISO 8601 local time for a fixed offset, e.g. `2027-06-15T10:00:00+02:00` (same text as formatInstant),
+ * by day numbers and integer arithmetic; the date text of the last day asked is kept (a day's periods
+ * share it). Years outside 0000 to 9999 are written through Date.
+ */
+function fixedOffsetFormatter(offsetMin: number): (ms: number) => string {
+  const abs = Math.abs(offsetMin);
+  const suffix = `${offsetMin < 0 ? '-' : '+'}${pad2(Math.floor(abs / 60))}:${pad2(abs % 60)}`;
+  let lastDay = Number.NaN;
+  let lastDate: string | null = null;
+  return (ms) => {
+    // Whole milliseconds, as Date keeps them (offsets of local mean time are not whole minutes).
+    const local = Math.trunc(ms + offsetMin * 60_000);
+    const day = Math.floor(local / DAY_MS);
+    if (day !== lastDay) {
+      lastDay = day;
+      lastDate = dayText(day);
+    }
+    if (lastDate === null) return formatWithOffset(ms, offsetMin);
+    const inDay = local - day * DAY_MS;
+    return `${lastDate}T${pad2(Math.floor(inDay / 3_600_000))}:${pad2(Math.floor((inDay % 3_600_000) / 60_000))}:${pad2(Math.floor((inDay % 60_000) / 1000))}${suffix}`;
+  };
+}
+
+const DAY_MS = 86_400_000;
+
+/** ISO 8601 local time for a fixed offset through Date (any year Date can hold). */
 function formatWithOffset(ms: number, offsetMin: number): string {
   const local = new Date(ms + offsetMin * 60_000);
   const sign = offsetMin < 0 ? '-' : '+';
@@ -52,8 +89,10 @@ function formatWithOffset(ms: number, offsetMin: number): string {
 }
 
 function pad2(n: number): string {
-  return n < 10 ? `0${n}` : String(n);
+  return Number.isInteger(n) && n >= 0 && n < 60 ? (TWO_DIGITS[n] as string) : n < 10 ? `0${n}` : String(n);
 }
+
+const TWO_DIGITS: readonly string[] = Array.from({ length: 60 }, (_, n) => String(n).padStart(2, '0'));
 
 /** Absolute start and end [epoch ms] of a delivery day (local midnight to next local midnight). */
 export function deliveryDayBounds(day: string, timeZone: string): { startMs: number; endMs: number } {
@@ -85,6 +124,10 @@ export function nextDay(day: string): string {
 
 /** `day` shifted by `days` calendar days. */
 export function shiftDay(day: string, days: number): string {
+  // Days YYYY-MM-DD within years 0000 to 9999 by day numbers; anything else as the zone library has it.
+  const number = Number.isInteger(days) ? dayNumber(day) : null;
+  const shifted = number === null ? null : dayText(number + days);
+  if (shifted !== null) return shifted;
   const text = DateTime.fromISO(day, { zone: 'UTC' }).plus({ days }).toISODate();
   if (text === null) throw new RangeError(`not a valid day: ${day}`);
   return text;
@@ -106,8 +149,7 @@ export function isValidTimeZone(name: string): boolean {
   return IANAZone.isValidZone(name);
 }
 
-const DAY_PATTERN = /^\d{4}-\d{2}-\d{2}$/;
-
+/** Whether `text` is a day YYYY-MM-DD of the (proleptic Gregorian) calendar. */
 export function isValidDay(text: string): boolean {
-  return DAY_PATTERN.test(text) && DateTime.fromISO(text, { zone: 'UTC' }).isValid;
+  return dayNumber(text) !== null;
 }

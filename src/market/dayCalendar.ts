@@ -1,4 +1,4 @@
-import type { DeliveryPeriod } from '../types.js';
+import type { DeliveryPeriod } from './deliveryPeriod.js';
 import { dayOfInstant, deliveryPeriods, isValidDay } from './calendar.js';
 
 /** The periods of each delivery day of one market, computed once per day and kept. */

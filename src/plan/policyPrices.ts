@@ -18,7 +18,7 @@ export interface PolicyPrices {
 }
 
 /**
- * The policies of DESIGN.md section 4, with alpha the width of the central interval [q(alpha), q(1 - alpha)]:
+ * The policies of docs/design.md section 4, with alpha the width of the central interval [q(alpha), q(1 - alpha)]:
  * - `quantile`: schedule and limits on the pessimistic side: buy at q(1 - alpha), sell at q(alpha);
  * - `median`:   schedule on the median, limits at q(1 - alpha) for buys and q(alpha) for sells;
  * - `point`:    schedule and limits on the median.

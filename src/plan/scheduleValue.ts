@@ -2,7 +2,7 @@ import type { DayProblem, Schedule } from '../types.js';
 
 /**
  * Objective value of a schedule at the problem's prices [currency]:
- * sum_t dt (sell_t d_t - buy_t c_t) - deg sum_t dt d_t + terminal s_T (DESIGN.md section 4).
+ * sum_t dt (sell_t d_t - buy_t c_t) - deg sum_t dt d_t + terminal s_T (docs/design.md section 4).
  */
 export function scheduleValue(problem: DayProblem, schedule: Schedule): number {
   const dt = problem.periodHours;

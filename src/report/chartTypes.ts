@@ -5,7 +5,7 @@
 
 /** A quantity shown on an axis or in a legend: printed as `label [unit]`. */
 export interface Quantity {
-  /** What is measured, in DESIGN.md vocabulary, e.g. `price`, `state of charge`. */
+  /** What is measured, in the vocabulary of docs/design.md section 2, e.g. `price`, `state of charge`. */
   readonly label: string;
   /** Its unit, e.g. `HLV/MWh`, `MW`, `-` for a pure number. */
   readonly unit: string;

@@ -76,8 +76,9 @@ export { contrastRatio, relativeLuminance } from './colour.js';
 // pages
 export { FAN_LEVEL_PAIRS, fanBands, planReport, type OptimalPlan, type PlanReportInput } from './planReport.js';
 export { backtestChartIds, backtestReport, type BacktestReportInput } from './backtestReport.js';
-export { alphaCurves, bestIndex, curveChartId, sweepReport, SWEEP_REPORT_TOP, topSettings, type AlphaCurve, type SweepReportInput, type SweepSummary } from './sweepReport.js';
-export { sizeChartIds, sizeGrid, sizeReport, type SizeGrid, type SizeReportInput, type SizeSummary } from './sizeReport.js';
-export { SCORE_CHART_IDS, scoreReport, type ScoreReportInput } from './scoreReport.js';
+export { alphaCurves, bestIndex, curveChartId, sweepReport, SWEEP_REPORT_TOP, topSettings, type AlphaCurve, type SweepReportInput } from './sweepReport.js';
+export type { GridSummaryHead, PickedSize, ResultCell, SettingResult, SizeReportSummary, SweepReportSummary } from './gridReportInput.js';
+export { sizeChartIds, sizeGrid, sizeReport, type SizeGrid, type SizeReportInput } from './sizeReport.js';
+export { SCORE_CHART_IDS, scoreReport, type ScoreReportInput, type ScoreSummaryInput, type UnscoredDay } from './scoreReport.js';
 export { POLICY_STYLES, policyStyle, type PolicyStyle } from './policyStyles.js';
 export { clockAxis } from './clockAxis.js';

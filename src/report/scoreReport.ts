@@ -1,4 +1,5 @@
-import type { ScoreSummaryInput } from '../io/scoreOutputs.js';
+import type { ForecastComparison } from '../forecast/scoring/compareForecasts.js';
+import type { ScoreTable } from '../forecast/scoring/scoreForecasts.js';
 import { barChart } from './barChart.js';
 import { calibrationPlot } from './calibrationPlot.js';
 import { categoryAxis } from './categoryAxis.js';
@@ -9,6 +10,24 @@ import type { Markup } from './markup.js';
 import { OKABE_ITO } from './palette.js';
 import { factList, htmlTable } from './table.js';
 import { numberText } from './tickLabel.js';
+
+/** A forecast day that was not scored, and why. */
+export interface UnscoredDay {
+  readonly day: string;
+  readonly reason: string;
+}
+
+/** A scored forecast: what score.json (app/score/scoreSummary.ts) and the score report show. */
+export interface ScoreSummaryInput {
+  readonly inputs: Readonly<Record<string, string>>;
+  readonly currency: string;
+  readonly table: ScoreTable;
+  /** Scored days, in time order. */
+  readonly days: readonly string[];
+  readonly unscored: readonly UnscoredDay[];
+  /** The --against comparison, or null. */
+  readonly comparison: ForecastComparison | null;
+}
 
 export interface ScoreReportInput extends ScoreSummaryInput {
   /** The market's IANA zone, named on the period-of-the-day axis. */

@@ -1,7 +1,4 @@
-import type { SizePick } from '../backtest/size/bestSizes.js';
-import type { RowCell } from '../backtest/sweep/taskModule.js';
-import type { sizeSummary } from '../io/sizeOutputs.js';
-import type { GridResult } from '../io/sweepOutputs.js';
+import type { PickedSize, ResultCell, SettingResult, SizeReportSummary } from './gridReportInput.js';
 import { categoryAxis } from './categoryAxis.js';
 import { heatMap } from './heatMap.js';
 import { htmlPage, paragraph, type PageSection } from './htmlPage.js';
@@ -9,13 +6,11 @@ import type { Markup } from './markup.js';
 import { factList, htmlTable } from './table.js';
 import { numberText } from './tickLabel.js';
 
-export type SizeSummary = ReturnType<typeof sizeSummary>;
-
 export interface SizeReportInput {
   /** Every finished setting with its row of size.csv, in grid order. */
-  readonly results: readonly GridResult[];
+  readonly results: readonly SettingResult[];
   /** The content of the sizing's summary.json (span, axes, alpha, economics, best sizes). */
-  readonly summary: SizeSummary;
+  readonly summary: SizeReportSummary;
 }
 
 /** One energy x power grid of values: rows are powers (row 0 the smallest), columns energies. */
@@ -30,7 +25,7 @@ export interface SizeGrid {
  * The grid of `column` over energy x power for one policy and one round-trip efficiency, read from
  * the results (cells that are not numbers, such as `none`, stay null).
  */
-export function sizeGrid(results: readonly GridResult[], axes: Readonly<Record<string, readonly (number | string)[]>>, policy: string, efficiency: number | string, column: string): SizeGrid {
+export function sizeGrid(results: readonly SettingResult[], axes: Readonly<Record<string, readonly (number | string)[]>>, policy: string, efficiency: number | string, column: string): SizeGrid {
   const energiesMwh = (axes.energy_mwh ?? []) as number[];
   const powersMw = (axes.power_mw ?? []) as number[];
   const values = powersMw.map(() => energiesMwh.map((): number | null => null));
@@ -67,7 +62,7 @@ export function sizeReport(input: SizeReportInput): string {
     { id: 'maps', heading: 'Value over energy and power', blocks: maps.length > 0 ? maps : [paragraph('No size has a result.')] },
     { id: 'best', heading: 'Best sizes', blocks: [bestTable(summary)] },
     { id: 'economics', heading: 'Economics', blocks: [factList(economicsFacts(summary)), htmlTable({ caption: 'Steps (as in summary.json)', columns: [{ header: 'step' }], rows: summary.economics.steps.map((s) => [s]) })] },
-    { id: 'inputs', heading: 'Inputs', blocks: [htmlTable({ columns: [{ header: 'input' }, { header: 'file' }], rows: Object.entries(summary.inputs).map(([k, v]) => [k, v]) })] },
+    { id: 'inputs', heading: 'Inputs', blocks: [htmlTable({ columns: [{ header: 'input' }, { header: 'file' }], rows: Object.entries(summary.inputs).flatMap(([k, v]) => (v === undefined ? [] : [[k, v]])) })] },
   ];
   return htmlPage({
     title: `Battery sizes ${summary.from} to ${summary.to}`,
@@ -78,7 +73,7 @@ export function sizeReport(input: SizeReportInput): string {
   });
 }
 
-function summaryFacts(summary: SizeSummary): [string, string][] {
+function summaryFacts(summary: SizeReportSummary): [string, string][] {
   const scored = summary.alpha.scored;
   const alpha =
     summary.alpha.method === 'fixed'
@@ -95,7 +90,7 @@ function summaryFacts(summary: SizeSummary): [string, string][] {
   ];
 }
 
-function economicsFacts(summary: SizeSummary): [string, string][] {
+function economicsFacts(summary: SizeReportSummary): [string, string][] {
   const e = summary.economics;
   const c = summary.currency;
   return [
@@ -139,11 +134,11 @@ function heatMaps(input: SizeReportInput, policy: string, efficiency: number | s
   ];
 }
 
-function bestTable(summary: SizeSummary): Markup {
+function bestTable(summary: SizeReportSummary): Markup {
   const c = summary.currency;
-  const num = (cell: RowCell | undefined) => (typeof cell === 'number' && Number.isFinite(cell) ? cell : null);
-  const text = (cell: RowCell | undefined) => (typeof cell === 'string' ? cell : null);
-  const row = (policy: string, criterion: string, pick: SizePick | null) => {
+  const num = (cell: ResultCell | undefined) => (typeof cell === 'number' && Number.isFinite(cell) ? cell : null);
+  const text = (cell: ResultCell | undefined) => (typeof cell === 'string' ? cell : null);
+  const row = (policy: string, criterion: string, pick: PickedSize | null) => {
     if (pick === null) return [policy, criterion, 'none', null, null, null, null, null, null];
     const r = pick.row;
     const irr = num(r.irr);

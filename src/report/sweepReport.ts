@@ -1,5 +1,4 @@
-import type { RowCell } from '../backtest/sweep/taskModule.js';
-import type { GridResult, sweepSummary } from '../io/sweepOutputs.js';
+import type { ResultCell, SettingResult, SweepReportSummary } from './gridReportInput.js';
 import type { Guide, NumberAxis } from './chartTypes.js';
 import { htmlPage, paragraph, type PageSection } from './htmlPage.js';
 import { lineChart, type LineSeries } from './lineChart.js';
@@ -9,13 +8,11 @@ import { policyStyle } from './policyStyles.js';
 import { factList, htmlTable } from './table.js';
 import { numberText } from './tickLabel.js';
 
-export type SweepSummary = ReturnType<typeof sweepSummary>;
-
 export interface SweepReportInput {
   /** Every finished setting with its row of sweep.csv, in grid order. */
-  readonly results: readonly GridResult[];
+  readonly results: readonly SettingResult[];
   /** The content of the sweep's summary.json (span, axes, best setting, best alpha per policy and rule). */
-  readonly summary: SweepSummary;
+  readonly summary: SweepReportSummary;
 }
 
 /** Settings listed in the table of top settings. */
@@ -24,16 +21,16 @@ export const SWEEP_REPORT_TOP = 10;
 /** One line of settings that differ only in alpha, e.g. policy quantile under follow-plan. */
 export interface AlphaCurve {
   /** The setting's values besides alpha, in axis order. */
-  readonly fixed: Readonly<Record<string, RowCell>>;
+  readonly fixed: Readonly<Record<string, ResultCell>>;
   /** `quantile, follow-plan`. */
   readonly label: string;
   /** The result at each alpha of the alpha axis (null where the grid has none). */
-  readonly results: readonly (GridResult | null)[];
+  readonly results: readonly (SettingResult | null)[];
 }
 
 /** The sweep's results grouped into curves over the alpha axis, in grid order of the other axes. */
-export function alphaCurves(results: readonly GridResult[], alphas: readonly number[]): AlphaCurve[] {
-  const curves = new Map<string, { fixed: Record<string, RowCell>; results: (GridResult | null)[] }>();
+export function alphaCurves(results: readonly SettingResult[], alphas: readonly number[]): AlphaCurve[] {
+  const curves = new Map<string, { fixed: Record<string, ResultCell>; results: (SettingResult | null)[] }>();
   for (const r of results) {
     const fixed = Object.fromEntries(Object.entries(r.setting).filter(([name]) => name !== 'alpha'));
     const key = JSON.stringify(fixed);
@@ -50,7 +47,7 @@ export function curveChartId(curve: AlphaCurve): string {
   return `sweep-acceptance-${Object.values(curve.fixed).map((v) => String(v).toLowerCase().replace(/[^a-z0-9]+/g, '-')).join('-')}`.replace(/-+$/, '');
 }
 
-function num(cell: RowCell | undefined): number | null {
+function num(cell: ResultCell | undefined): number | null {
   return typeof cell === 'number' && Number.isFinite(cell) ? cell : null;
 }
 
@@ -73,7 +70,7 @@ export function sweepReport(input: SweepReportInput): string {
       { id: 'settings', heading: 'Best settings', blocks: [bestAlphaTable(summary), topSettingsTable(input)] },
     );
   }
-  sections.push({ id: 'inputs', heading: 'Inputs', blocks: [htmlTable({ columns: [{ header: 'input' }, { header: 'file' }], rows: Object.entries(summary.inputs).map(([k, v]) => [k, v]) })] });
+  sections.push({ id: 'inputs', heading: 'Inputs', blocks: [htmlTable({ columns: [{ header: 'input' }, { header: 'file' }], rows: Object.entries(summary.inputs).flatMap(([k, v]) => (v === undefined ? [] : [[k, v]])) })] });
   return htmlPage({
     title: `Sweep ${summary.from} to ${summary.to}`,
     subtitle: `${summary.settings} settings over ${summary.daysCovered} covered days (${summary.skippedDays.length} skipped); money in ${summary.currency}.`,
@@ -104,7 +101,7 @@ function summaryFacts(input: SweepReportInput): [string, string][] {
   return facts;
 }
 
-function settingText(setting: Readonly<Record<string, RowCell>>): string {
+function settingText(setting: Readonly<Record<string, ResultCell>>): string {
   return Object.entries(setting)
     .map(([name, v]) => (name === 'alpha' ? `alpha ${numberText(v as number, 6)}` : String(v)))
     .join(', ');
@@ -143,7 +140,7 @@ function profitChart(input: SweepReportInput, curves: readonly AlphaCurve[], x: 
 
 function acceptanceChart(curve: AlphaCurve, x: NumberAxis, currency: string): Markup {
   const style = policyStyle(String(curve.fixed.policy));
-  const share = (r: GridResult | null, column: string) => {
+  const share = (r: SettingResult | null, column: string) => {
     const v = num(r?.row[column]);
     return v === null ? null : 100 * v;
   };
@@ -175,9 +172,9 @@ export function bestIndex(values: readonly (number | null)[]): number {
   return best;
 }
 
-function bestAlphaTable(summary: SweepSummary): Markup {
+function bestAlphaTable(summary: SweepReportSummary): Markup {
   const c = summary.currency;
-  const pct = (x: RowCell | undefined) => (num(x) === null ? null : 100 * (num(x) as number));
+  const pct = (x: ResultCell | undefined) => (num(x) === null ? null : 100 * (num(x) as number));
   return htmlTable({
     caption: 'Most profitable alpha per policy and unaccepted rule (as in summary.json)',
     columns: [
@@ -194,7 +191,7 @@ function bestAlphaTable(summary: SweepSummary): Markup {
 }
 
 /** The SWEEP_REPORT_TOP settings with the highest profit, ties in grid order. */
-export function topSettings(results: readonly GridResult[], count = SWEEP_REPORT_TOP): GridResult[] {
+export function topSettings(results: readonly SettingResult[], count = SWEEP_REPORT_TOP): SettingResult[] {
   return results
     .filter((r) => num(r.row.profit) !== null)
     .map((r, i) => [r, i] as const)
@@ -205,7 +202,7 @@ export function topSettings(results: readonly GridResult[], count = SWEEP_REPORT
 
 function topSettingsTable(input: SweepReportInput): Markup {
   const c = input.summary.currency;
-  const pct = (x: RowCell | undefined) => (num(x) === null ? null : 100 * (num(x) as number));
+  const pct = (x: ResultCell | undefined) => (num(x) === null ? null : 100 * (num(x) as number));
   const top = topSettings(input.results);
   return htmlTable({
     caption: `Top ${top.length} settings by profit (of ${input.results.length})`,
@@ -218,7 +215,7 @@ function topSettingsTable(input: SweepReportInput): Markup {
       { header: 'p-value vs point', unit: '-', decimals: 4 },
       { header: 'buys accepted', unit: '%', decimals: 1 },
       { header: 'sells accepted', unit: '%', decimals: 1 },
-      { header: 'fallback energy', unit: 'MWh', decimals: 1 },
+      { header: 'imbalance energy', unit: 'MWh', decimals: 1 },
     ],
     rows: top.map((r) => [
       typeof r.setting.alpha === 'number' ? numberText(r.setting.alpha, 6) : null,
@@ -229,7 +226,7 @@ function topSettingsTable(input: SweepReportInput): Markup {
       num(r.row.p_value_vs_point),
       pct(r.row.buy_acceptance_rate),
       pct(r.row.sell_acceptance_rate),
-      num(r.row.fallback_mwh),
+      num(r.row.imbalance_mwh),
     ]),
   });
 }

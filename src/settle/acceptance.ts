@@ -1,7 +1,7 @@
 import type { Side } from '../types.js';
 
 /**
- * Whether the auction accepts an order (DESIGN.md section 2, uniform marginal pricing): a buy when the
+ * Whether the auction accepts an order (docs/design.md section 2, uniform marginal pricing): a buy when the
  * clearing price is at or below its limit, a sell when the clearing price is at or above its limit.
  * A tie (clearing = limit) is accepted. An accepted order settles at the clearing price, never at its
  * limit.

@@ -1,16 +1,16 @@
 import type { BatteryModel, Order } from '../types.js';
 import { isAccepted } from './acceptance.js';
-import type { FallbackPrices } from './fallbackPrices.js';
+import type { ImbalancePrices } from './imbalancePrices.js';
 import type { SettlementTotals } from './settlementTotals.js';
 
 /**
- * What the battery does about orders the auction did not accept (DESIGN.md section 5):
- * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the fallback price;
+ * What the battery does about orders the auction did not accept (docs/design.md section 5):
+ * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the imbalance price;
  * - `follow-accepted`: it moves only with accepted orders; unaccepted orders have no effect.
  */
-export type UnacceptedPolicy = 'follow-plan' | 'follow-accepted';
+export type UnacceptedRule = 'follow-plan' | 'follow-accepted';
 
-export const UNACCEPTED_POLICIES: readonly UnacceptedPolicy[] = Object.freeze(['follow-plan', 'follow-accepted']);
+export const UNACCEPTED_RULES: readonly UnacceptedRule[] = Object.freeze(['follow-plan', 'follow-accepted']);
 
 /** One period's order as settlement reads it (an Order has these fields and more). */
 export type PeriodOrder = Pick<Order, 'side' | 'quantityMw' | 'limitPrice'>;
@@ -25,8 +25,8 @@ export interface SettleDayInput {
   readonly orders: readonly (PeriodOrder | null)[];
   /** Realised clearing price per period [currency/MWh]. */
   readonly clearingPricePerMwh: readonly number[];
-  readonly fallback: FallbackPrices;
-  readonly unaccepted: UnacceptedPolicy;
+  readonly imbalance: ImbalancePrices;
+  readonly unaccepted: UnacceptedRule;
 }
 
 /**
@@ -55,18 +55,18 @@ export interface SettledDay {
 export const SETTLE_TOLERANCE = 1e-6;
 
 /**
- * Settles one delivery day's orders against the realised prices (DESIGN.md section 5).
+ * Settles one delivery day's orders against the realised prices (docs/design.md section 5).
  *
  * Periods are settled in time order; each starts from the state of charge the previous one left.
  * In period t with an order of q MW (energy E = q dt):
  * 1. acceptance: a buy iff clearing <= limit, a sell iff clearing >= limit (isAccepted);
  * 2. the auction: an accepted buy pays clearing x E, an accepted sell receives clearing x E;
  * 3. the intended flow: `follow-plan` moves E whether accepted or not, and an unaccepted order's E is
- *    closed at the fallback price (a buy bought at the fallback buy price, a sell sold at the fallback
+ *    closed at the imbalance price (a buy bought at the imbalance buy price, a sell sold at the imbalance
  *    sell price); `follow-accepted` moves E only when accepted;
  * 4. the store's limits: at most min(chargeMw dt, (socMax - s) / eta_c) can be charged and at most
  *    min(dischargeMw dt, (s - socMin) eta_d) discharged. Energy an accepted buy cannot store is sold back
- *    at the fallback sell price; the part of a sell the store cannot cover is bought back at the fallback
+ *    at the imbalance sell price; the part of a sell the store cannot cover is bought back at the imbalance
  *    buy price. A plan made from the same starting state never meets these limits, so under
  *    `follow-plan` step 4 only absorbs rounding;
  * 5. s_t = s_{t-1} + eta_c x charged - discharged / eta_d, clamped into [socMin, socMax] (the clamp and
@@ -86,17 +86,17 @@ export function settleDay(input: SettleDayInput): SettledDay {
   const tolMwh = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
   const periods: SettledPeriod[] = new Array<SettledPeriod>(count);
   // Sums in period order, in plain variables (a settled year is ~175,000 periods per policy).
-  let profit = 0, auction = 0, fallbackSum = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtFallback = 0, soldFallback = 0;
+  let profit = 0, auction = 0, imbalanceSum = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtImbalance = 0, soldImbalance = 0;
   let charged = 0, discharged = 0, buys = 0, buysAccepted = 0, sells = 0, sellsAccepted = 0;
   let soc = input.socStartMwh;
   for (let t = 0; t < count; t++) {
     const order = input.orders[t] ?? null;
     const clearing = input.clearingPricePerMwh[t] as number;
-    // What the order does in the auction and at the fallback price, and the flow it asks for [MWh].
+    // What the order does in the auction and at the imbalance price, and the flow it asks for [MWh].
     let tradeBoughtAuction = 0;
     let tradeSoldAuction = 0;
-    let tradeBoughtFallback = 0;
-    let tradeSoldFallback = 0;
+    let tradeBoughtImbalance = 0;
+    let tradeSoldImbalance = 0;
     let tradeCharge = 0;
     let tradeDischarge = 0;
     let accepted: boolean | null = null;
@@ -106,11 +106,11 @@ export function settleDay(input: SettleDayInput): SettledDay {
       const moves = accepted || input.unaccepted === 'follow-plan';
       if (order.side === 'buy') {
         if (accepted) tradeBoughtAuction = energy;
-        else if (moves) tradeBoughtFallback = energy;
+        else if (moves) tradeBoughtImbalance = energy;
         if (moves) tradeCharge = energy;
       } else {
         if (accepted) tradeSoldAuction = energy;
-        else if (moves) tradeSoldFallback = energy;
+        else if (moves) tradeSoldImbalance = energy;
         if (moves) tradeDischarge = energy;
       }
     }
@@ -118,36 +118,36 @@ export function settleDay(input: SettleDayInput): SettledDay {
     const deliverable = Math.max(0, Math.min(battery.dischargeMw * dt, (soc - battery.socMinMwh) * battery.dischargeEfficiency));
     const chargedMwh = tradeCharge <= storable + tolMwh ? tradeCharge : storable;
     const dischargedMwh = tradeDischarge <= deliverable + tolMwh ? tradeDischarge : deliverable;
-    const soldFallbackMwh = tradeSoldFallback + (tradeCharge - chargedMwh);
-    const boughtFallbackMwh = tradeBoughtFallback + (tradeDischarge - dischargedMwh);
+    const soldImbalanceMwh = tradeSoldImbalance + (tradeCharge - chargedMwh);
+    const boughtImbalanceMwh = tradeBoughtImbalance + (tradeDischarge - dischargedMwh);
     soc += battery.chargeEfficiency * chargedMwh - dischargedMwh / battery.dischargeEfficiency;
     soc = Math.min(battery.socMaxMwh, Math.max(battery.socMinMwh, soc));
     const auctionCash = clearing * (tradeSoldAuction - tradeBoughtAuction);
-    const fallbackCash = (input.fallback.sellPerMwh[t] as number) * soldFallbackMwh - (input.fallback.buyPerMwh[t] as number) * boughtFallbackMwh;
+    const imbalanceCash = (input.imbalance.sellPerMwh[t] as number) * soldImbalanceMwh - (input.imbalance.buyPerMwh[t] as number) * boughtImbalanceMwh;
     const degradationCost = battery.degradationCostPerMwh * dischargedMwh;
-    const period: SettledPeriod = {
+    const period = new SettledPeriodRecord(
       accepted,
-      boughtAuctionMwh: tradeBoughtAuction,
-      soldAuctionMwh: tradeSoldAuction,
-      boughtFallbackMwh,
-      soldFallbackMwh,
+      tradeBoughtAuction,
+      tradeSoldAuction,
+      boughtImbalanceMwh,
+      soldImbalanceMwh,
       chargedMwh,
       dischargedMwh,
       auctionCash,
-      fallbackCash,
+      imbalanceCash,
       degradationCost,
-      profit: auctionCash + fallbackCash - degradationCost,
-      socMwh: soc,
-    };
+      auctionCash + imbalanceCash - degradationCost,
+      soc,
+    );
     periods[t] = period;
     profit += period.profit;
     auction += auctionCash;
-    fallbackSum += fallbackCash;
+    imbalanceSum += imbalanceCash;
     degradation += degradationCost;
     boughtAuction += tradeBoughtAuction;
     soldAuction += tradeSoldAuction;
-    boughtFallback += boughtFallbackMwh;
-    soldFallback += soldFallbackMwh;
+    boughtImbalance += boughtImbalanceMwh;
+    soldImbalance += soldImbalanceMwh;
     charged += chargedMwh;
     discharged += dischargedMwh;
     if (order !== null) {
@@ -163,12 +163,12 @@ export function settleDay(input: SettleDayInput): SettledDay {
   const totals: SettlementTotals = {
     profit,
     auctionCash: auction,
-    fallbackCash: fallbackSum,
+    imbalanceCash: imbalanceSum,
     degradationCost: degradation,
     boughtAuctionMwh: boughtAuction,
     soldAuctionMwh: soldAuction,
-    boughtFallbackMwh: boughtFallback,
-    soldFallbackMwh: soldFallback,
+    boughtImbalanceMwh: boughtImbalance,
+    soldImbalanceMwh: soldImbalance,
     chargedMwh: charged,
     dischargedMwh: discharged,
     buys,
@@ -181,9 +181,9 @@ export function settleDay(input: SettleDayInput): SettledDay {
 
 function checkInput(input: SettleDayInput, count: number): void {
   const { battery } = input;
-  const lengths = [input.orders.length, input.fallback.buyPerMwh.length, input.fallback.sellPerMwh.length];
+  const lengths = [input.orders.length, input.imbalance.buyPerMwh.length, input.imbalance.sellPerMwh.length];
   if (lengths.some((n) => n !== count)) {
-    throw new RangeError(`settleDay: orders (${lengths[0]}), fallback prices (${lengths[1]}, ${lengths[2]}) and clearing prices (${count}) differ in length`);
+    throw new RangeError(`settleDay: orders (${lengths[0]}), imbalance prices (${lengths[1]}, ${lengths[2]}) and clearing prices (${count}) differ in length`);
   }
   const tol = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
   if (!(input.socStartMwh >= battery.socMinMwh - tol && input.socStartMwh <= battery.socMaxMwh + tol)) {
@@ -192,4 +192,28 @@ function checkInput(input: SettleDayInput, count: number): void {
   input.orders.forEach((order, t) => {
     if (order !== null && !(order.quantityMw >= 0)) throw new RangeError(`settleDay: the order of period ${t} has quantity ${order.quantityMw} MW; quantities are >= 0`);
   });
+}
+
+/**
+ * A SettledPeriod made by a constructor rather than an object literal: the engine may decide, from a
+ * few early days whose ledger was still being written, to allocate every object of a literal straight
+ * into its old generation, where a long backtest's ledger (1.75 million periods in ten years) then
+ * piles up as garbage; objects made by `new` are not placed that way. Same fields, same order.
+ */
+class SettledPeriodRecord implements SettledPeriod {
+  // Parameter properties become fields in this order: the order of the fields as they always were.
+  constructor(
+    readonly accepted: boolean | null,
+    readonly boughtAuctionMwh: number,
+    readonly soldAuctionMwh: number,
+    readonly boughtImbalanceMwh: number,
+    readonly soldImbalanceMwh: number,
+    readonly chargedMwh: number,
+    readonly dischargedMwh: number,
+    readonly auctionCash: number,
+    readonly imbalanceCash: number,
+    readonly degradationCost: number,
+    readonly profit: number,
+    readonly socMwh: number,
+  ) {}
 }

@@ -7,11 +7,11 @@ import { runBacktest } from '../../src/backtest/runBacktest.js';
 import { planDay } from '../../src/plan/planDay.js';
 import { scheduleValue } from '../../src/plan/scheduleValue.js';
 import { solveDay } from '../../src/plan/solveDay.js';
-import { dayFallbackPrices } from '../../src/settle/fallbackPrices.js';
-import { settleDay, type SettledDay, type UnacceptedPolicy } from '../../src/settle/settleDay.js';
+import { dayImbalancePrices } from '../../src/settle/imbalancePrices.js';
+import { settleDay, type SettledDay, type UnacceptedRule } from '../../src/settle/settleDay.js';
 import { FIRST_DAY, randomMarketArb, scalePrices, scalesExactly, type RandomMarket } from './randomMarket.js';
 
-// Laws of the backtest (DESIGN.md sections 4 and 5) on seeded small random markets (fast-check, fixed
+// Laws of the backtest (docs/design.md sections 4 and 5) on seeded small random markets (fast-check, fixed
 // seeds): each day has 4 to 8 hourly periods, so javascript-lp-solver stays quick.
 
 const SEED = 20260601;
@@ -23,19 +23,19 @@ function firstDay(m: RandomMarket): { forecast: QuantileDay; realised: HistoryDa
 }
 
 /** One policy on the market's first day from its initial state of charge, planned and settled. */
-function settleFirstDay(m: RandomMarket, policy: BacktestPolicy, unaccepted: UnacceptedPolicy, penaltyPerMwh?: number): SettledDay {
+function settleFirstDay(m: RandomMarket, policy: BacktestPolicy, unaccepted: UnacceptedRule, penaltyPerMwh?: number): SettledDay {
   const { forecast, realised } = firstDay(m);
   const socStartMwh = m.battery.socInitialMwh;
   const plan = planPolicyDay({ policy, forecast, realised, market: m.market, battery: m.battery, alpha: ALPHA, socStartMwh, solveOptions: {} });
   if (plan.status !== 'optimal') throw new Error(`${policy}: ${plan.reason}`);
-  const penalty = penaltyPerMwh ?? m.market.fallback?.penaltyPerMwh ?? 0;
+  const penalty = penaltyPerMwh ?? m.market.imbalance?.penaltyPerMwh ?? 0;
   return settleDay({
     periodHours: 1,
     battery: m.battery,
     socStartMwh,
     orders: plan.orders,
     clearingPricePerMwh: realised.pricePerMwh,
-    fallback: dayFallbackPrices(realised, { kind: 'clearing-plus-penalty', penaltyPerMwh: penalty }),
+    imbalance: dayImbalancePrices(realised, { kind: 'clearing-plus-penalty', penaltyPerMwh: penalty }),
     unaccepted,
   });
 }
@@ -51,7 +51,7 @@ function bestAtRealised(m: RandomMarket, endFloorMwh: number): number {
 const slack = (x: number) => 1e-7 * Math.max(1, Math.abs(x));
 
 describe('backtest laws on small random markets', () => {
-  it('follow-plan: no policy beats perfect foresight on the same day from the same state (fallback penalty >= 0)', () => {
+  it('follow-plan: no policy beats perfect foresight on the same day from the same state (imbalance penalty >= 0)', () => {
     fc.assert(
       fc.property(randomMarketArb(1), (m) => {
         const upper = settleFirstDay(m, 'perfect-foresight', 'follow-plan').totals.profit;
@@ -65,7 +65,7 @@ describe('backtest laws on small random markets', () => {
 
   it('follow-accepted: no policy beats the best schedule that ends where the policy ended', () => {
     // The battery's actual path is a feasible schedule from the same start that ends at its actual end
-    // state; with fallback prices no better than the clearing price its cash cannot beat that schedule.
+    // state; with imbalance prices no better than the clearing price its cash cannot beat that schedule.
     fc.assert(
       fc.property(randomMarketArb(1), (m) => {
         for (const policy of FORECAST_POLICIES) {
@@ -91,13 +91,13 @@ describe('backtest laws on small random markets', () => {
 
   it('price-taking and perfect-foresight orders are always accepted', () => {
     fc.assert(
-      fc.property(randomMarketArb(3), fc.constantFrom<UnacceptedPolicy>('follow-plan', 'follow-accepted'), (m, unaccepted) => {
+      fc.property(randomMarketArb(3), fc.constantFrom<UnacceptedRule>('follow-plan', 'follow-accepted'), (m, unaccepted) => {
         const result = runBacktest(m, { policies: ['price-taking', 'perfect-foresight'], unaccepted });
         for (const day of result.days) {
           for (const run of day.runs) {
             expect(run.totals.buysAccepted).toBe(run.totals.buys);
             expect(run.totals.sellsAccepted).toBe(run.totals.sells);
-            expect(run.totals.boughtFallbackMwh + run.totals.soldFallbackMwh).toBeLessThanOrEqual(1e-9);
+            expect(run.totals.boughtImbalanceMwh + run.totals.soldImbalanceMwh).toBeLessThanOrEqual(1e-9);
           }
         }
       }),
@@ -105,7 +105,7 @@ describe('backtest laws on small random markets', () => {
     );
   });
 
-  it('with the fallback price equal to the clearing price, follow-plan profit is the plan\'s value at the realised prices', () => {
+  it('with the imbalance price equal to the clearing price, follow-plan profit is the plan\'s value at the realised prices', () => {
     fc.assert(
       fc.property(randomMarketArb(1), fc.constantFrom('quantile' as const, 'median' as const, 'point' as const), (m, policy) => {
         const { forecast, realised } = firstDay(m);
@@ -124,7 +124,7 @@ describe('backtest laws on small random markets', () => {
     // ties between equally good plans the same way; for other k an equally good but different plan may
     // be chosen, whose realised profit differs (the perfect-foresight law below holds for any k).
     fc.assert(
-      fc.property(randomMarketArb(3), fc.constantFrom(-3, -2, -1, 1, 2, 3), fc.constantFrom<UnacceptedPolicy>('follow-plan', 'follow-accepted'), (m, power, unaccepted) => {
+      fc.property(randomMarketArb(3), fc.constantFrom(-3, -2, -1, 1, 2, 3), fc.constantFrom<UnacceptedRule>('follow-plan', 'follow-accepted'), (m, power, unaccepted) => {
         const k = 2 ** power;
         fc.pre(scalesExactly(m, k));
         const base = runBacktest(m, { unaccepted, keepLedger: false });

@@ -2,7 +2,7 @@ import { existsSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { runMain } from './runMain.js';
 
-// Representative bad usage and bad input of every command: the exit code (2, DESIGN.md section 7)
+// Representative bad usage and bad input of every command: the exit code (2, docs/design.md section 7)
 // and the exact text on stderr, compared with the stored snapshots in __snapshots__/. Paths are
 // relative to the repository root (vitest runs there), so the messages are the same on every machine.
 // After an intended change of a message, regenerate with

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { runMain } from './runMain.js';
-import { packageVersion } from '../../src/cli/version.js';
+import { packageVersion } from '../../src/app/packageInfo.js';
 
 // The help text of every command, compared with the stored snapshots in __snapshots__/: a change of
 // an option, a default or an example shows up in review. After an intended change, regenerate with

@@ -101,7 +101,7 @@ describe('quantbid backtest --model', () => {
     ['an unknown model, with the list', ['--model', 'magic'], /"magic" must be one of naive-hs, arx-hs, lasso-hs, arx-conformal, qra/],
     ['--levels without --model', ['--levels', '0.1,0.9'], /--levels: is used only with --model/],
     ['--no-forecast-cache without --model', ['--no-forecast-cache'], /--no-forecast-cache: is used only with --model/],
-    ['levels that do not hold the alpha, before any fitting', ['--model', 'naive-hs', '--levels', '0.2,0.5,0.8'], /--model naive-hs: --alpha: the policies need the levels 0.1 and 0.9, outside the forecast's levels \[0.2, 0.8\]/],
+    ['levels that do not hold the alpha, before any fitting', ['--model', 'naive-hs', '--levels', '0.2,0.5,0.8'], /--model naive-hs: --alpha: alpha 0.1 needs the levels 0.1 and 0.9, outside the forecast's levels \[0.2, 0.8\]/],
   ])('exits 2 and writes nothing for %s', async (name, args, message) => {
     const out = join(work, `bad-${name.replace(/\W+/g, '-')}`);
     const cacheArgs = args.includes('--no-forecast-cache') ? [] : ['--forecast-cache', join(work, 'bad-cache')];
@@ -114,7 +114,7 @@ describe('quantbid backtest --model', () => {
 });
 
 describe('the compiled CLI with --model', () => {
-  beforeAll(() => checkBuild(['cli/modelOptions', 'cli/sweepCommand', 'cli/backtestCommand', 'io/forecastCache', 'forecast/storedForecastRange', 'backtest/sweepBacktestTask', 'io/readBacktestInputs']));
+  beforeAll(() => checkBuild());
 
   it('keeps the cache in .quantbid-cache/forecasts of the working folder by default; --no-forecast-cache writes none', () => {
     const cwd = mkdtempSync(join(tmpdir(), 'quantbid-model-cwd-'));

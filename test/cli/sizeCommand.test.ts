@@ -24,7 +24,7 @@ function table(dir: string): { header: string[]; rows: string[][] } {
 }
 
 beforeAll(() => {
-  checkBuild(['cli/sizeCommand', 'cli/gridRun', 'cli/main', 'backtest/sizeBacktestTask', 'backtest/size/sizeSettingRow', 'backtest/size/sizeEconomics', 'io/sizeOutputs']);
+  checkBuild();
   scenario = writeScenario('size-cli', { days: 8 });
   fixed = join(scenario.dir, 'fixed');
   expect(quantbid(sizeArgs(fixed, FIXED_GRID))).toMatchObject({ code: 0, stderr: '' });
@@ -143,7 +143,7 @@ describe('quantbid size rejects bad input with exit code 2 and writes nothing', 
     [[...grid, ...ECONOMICS, '--policy', 'oracle'], /--policy: "oracle" is not one of quantile, median, point, price-taking/],
     [[...grid, ...ECONOMICS, '--efficiency', '1.2'], /--efficiency: 1.2 is not an efficiency in \(0, 1\]/],
     [[...grid, ...ECONOMICS, '--alphas', '0.1,0.2'], /--alphas: is used only with --alpha best/],
-    [[...grid, ...ECONOMICS, '--alpha', 'best', '--alphas', '0.02,0.1'], /--alphas: alpha 0.02: alpha or 1 - alpha lies outside the forecast's levels/],
+    [[...grid, ...ECONOMICS, '--alpha', 'best', '--alphas', '0.02,0.1'], /--alphas: alpha 0.02 needs the levels 0.02 and 0.98, outside the forecast's levels/],
     [grid, /--capex-per-mwh: no --capex-per-mwh given[\s\S]*--capex-per-mw: no[\s\S]*--life-years: no[\s\S]*--discount-rate: no/],
   ])('%j', (extra, message) => {
     const out = join(scenario.dir, `bad-${extra.join('').replace(/[^a-z0-9]/gi, '')}`);

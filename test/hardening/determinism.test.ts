@@ -5,7 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_SCENARIO, folderFiles, runCliProcess } from './cliProcess.js';
 
 /**
- * The same inputs give the same bytes (DESIGN.md section 7): the demo's plan, backtest, sweep and size
+ * The same inputs give the same bytes (docs/design.md section 7): the demo's plan, backtest, sweep and size
  * outputs, through the CLI on short ranges of the demo scenario, are byte-identical across two runs,
  * and for sweep and size across 1 and 2 worker threads (--threads). Each run writes into its own
  * folder; no output may name its folder, the clock or the thread count.

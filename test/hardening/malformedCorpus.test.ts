@@ -1,7 +1,7 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { InputError, formatProblem } from '../../src/io/inputError.js';
+import { InputError, formatProblem } from '../../src/errors/inputError.js';
 import { readPriceHistory } from '../../src/io/readPriceHistory.js';
 import { readMarketSpec } from '../../src/io/readSpecs.js';
 import {

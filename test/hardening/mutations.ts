@@ -1,5 +1,5 @@
 import fc from 'fast-check';
-import { InputError } from '../../src/io/inputError.js';
+import { InputError } from '../../src/errors/inputError.js';
 
 /**
  * Structured mutations of valid input text for property tests: whole lines dropped, doubled or

@@ -81,7 +81,7 @@ const caseArbitrary = marketArbitrary.chain((market) =>
   }),
 );
 
-/** Checks every limit of DESIGN.md section 4 on an optimal plan, to a tolerance relative to the sizes. */
+/** Checks every limit of docs/design.md section 4 on an optimal plan, to a tolerance relative to the sizes. */
 function expectFeasible(result: Extract<PlanResult, { status: 'optimal' }>, battery: BatteryModel, market: MarketSpec): void {
   const { schedule } = result.outcome;
   const dt = result.problem.periodHours;

@@ -4,7 +4,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { MarketSpec } from '../../src/types.js';
 import { BATTERY_FIELD_FIXES, parseBatterySpec } from '../../src/battery/batterySpec.js';
-import { formatProblem } from '../../src/io/inputError.js';
+import { formatProblem } from '../../src/errors/inputError.js';
 import { jsonSyntaxError } from '../../src/io/jsonSyntaxError.js';
 import { parsePriceHistory } from '../../src/io/readPriceHistory.js';
 import { parseQuantileForecast, type QuantileForecastFile } from '../../src/io/readQuantileForecast.js';

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { MarketSpec } from '../../src/types.js';
-import { InputError } from '../../src/io/inputError.js';
+import { InputError } from '../../src/errors/inputError.js';
 import { parseQuantileForecast } from '../../src/io/readQuantileForecast.js';
 import { deliveryPeriods } from '../../src/market/calendar.js';
 

@@ -3,7 +3,7 @@ import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, 
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { InputError } from '../../src/io/inputError.js';
+import { InputError } from '../../src/errors/inputError.js';
 import { COMMIT_PREFIX, OutputStage, PARTIAL_PREFIX, recoverOutputs, writeOutputs } from '../../src/io/writeOutputs.js';
 
 /**

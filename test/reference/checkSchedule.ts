@@ -1,7 +1,7 @@
 import type { DayProblem, Schedule } from '../../src/types.js';
 
 /**
- * An independent feasibility check of a schedule against the day problem of DESIGN.md section 4.
+ * An independent feasibility check of a schedule against the day problem of docs/design.md section 4.
  *
  * Recomputes the state of charge by s_t = s_{t-1} + eta_c dt c_t - dt d_t / eta_d from s_{-1} =
  * socStart and lists every violation of: array lengths; 0 <= c_t <= chargeMw; 0 <= d_t <=

@@ -2,7 +2,7 @@ import loadHighs, { type Highs } from 'highs';
 import type { DayProblem, Schedule } from '../../src/types.js';
 
 /**
- * The day problem of DESIGN.md section 4 for the general-purpose solver HiGHS (npm `highs`
+ * The day problem of docs/design.md section 4 for the general-purpose solver HiGHS (npm `highs`
  * 1.15.3; Huangfu and Hall 2018, "Parallelizing the dual revised simplex method", Math. Prog.
  * Comp. 10, doi:10.1007/s12532-017-0130-5), built independently of src/plan.
  *

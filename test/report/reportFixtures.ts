@@ -48,11 +48,10 @@ export async function scoreWithReport(): Promise<string> {
   return out;
 }
 
-const GRID_SOURCES = ['cli/main', 'cli/sweepCommand', 'cli/sizeCommand', 'report/sweepReport', 'report/sizeReport', 'report/lineChart', 'report/heatMap'];
 
 /** `quantbid sweep --report` through the compiled CLI. */
 export function sweepWithReport(): string {
-  checkBuild(GRID_SOURCES);
+  checkBuild();
   const out = freshOut('sweep-report');
   const run = quantbid(['sweep', '--scenario', HALVORN_SCENARIO, ...span('sweep'), ...SWEEP_ARGS, '--report', '--out', out]);
   if (run.code !== 0) throw new Error(`sweep --report failed with ${String(run.code)}: ${run.stderr}`);
@@ -61,7 +60,7 @@ export function sweepWithReport(): string {
 
 /** `quantbid size --report` through the compiled CLI. */
 export function sizeWithReport(): string {
-  checkBuild(GRID_SOURCES);
+  checkBuild();
   const out = freshOut('size-report');
   const run = quantbid(['size', '--scenario', HALVORN_SCENARIO, ...span('size'), ...SIZE_ARGS, '--report', '--out', out]);
   if (run.code !== 0) throw new Error(`size --report failed with ${String(run.code)}: ${run.stderr}`);

@@ -1,27 +1,26 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import type { GridResult } from '../../src/io/sweepOutputs.js';
-import { sizeChartIds, sizeGrid, sizeReport, type SizeSummary } from '../../src/report/index.js';
+import { sizeChartIds, sizeGrid, sizeReport, type SizeReportSummary, type SettingResult } from '../../src/report/index.js';
 import { chartSource, csvObjects, readOutput, sizeWithReport, tableRows, labelledCharts } from './reportFixtures.js';
 import { deepFreeze, elements } from './svgQuery.js';
 
 const AXES = { energy_mwh: [5, 10], power_mw: [2.5, 5, 10], round_trip_efficiency: [0.88], policy: ['quantile', 'perfect-foresight'] };
 
 /** Invented rows (behaviour only): NPV highest at 10 MWh / 5 MW; one IRR without a root. */
-function inventedResults(): GridResult[] {
-  const results: GridResult[] = [];
+function inventedResults(): SettingResult[] {
+  const results: SettingResult[] = [];
   for (const energy_mwh of AXES.energy_mwh) {
     for (const power_mw of AXES.power_mw) {
       for (const policy of AXES.policy) {
         const setting = { energy_mwh, power_mw, round_trip_efficiency: 0.88, policy };
         const npv = 1000 * (energy_mwh === 10 && power_mw === 5 ? 50 : energy_mwh - power_mw) + (policy === 'perfect-foresight' ? 1e5 : 0);
-        results.push({ index: results.length, key: JSON.stringify(setting), setting, row: { npv, profit_per_mwh: 100 / energy_mwh + power_mw, irr: power_mw === 10 ? 'none' : 0.05 } });
+        results.push({ setting, row: { npv, profit_per_mwh: 100 / energy_mwh + power_mw, irr: power_mw === 10 ? 'none' : 0.05 } });
       }
     }
   }
   return results;
 }
 
-function inventedSummary(currency: string): SizeSummary {
+function inventedSummary(currency: string): SizeReportSummary {
   return {
     command: 'size',
     from: '2026-01-01',
@@ -38,7 +37,7 @@ function inventedSummary(currency: string): SizeSummary {
     economics: { capexPerMwh: 1, capexPerMw: 1, fixedOmPerMwYear: 0, lifeYears: 15, lifeCycles: null, discountRate: 0.07, steps: ['npv = sum'] },
     best: [],
     note: 'perfect foresight is a bound',
-  } as unknown as SizeSummary;
+  } as unknown as SizeReportSummary;
 }
 
 describe('sizeReport as a function', () => {

@@ -1,19 +1,18 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import type { GridResult } from '../../src/io/sweepOutputs.js';
-import { alphaCurves, bestIndex, curveChartId, lineChart, sweepReport, topSettings, type SweepSummary } from '../../src/report/index.js';
+import { alphaCurves, bestIndex, curveChartId, lineChart, sweepReport, topSettings, type SweepReportSummary, type SettingResult } from '../../src/report/index.js';
 import { chartSource, csvObjects, markTitles, readOutput, shownNumber, sweepWithReport, tableRows, labelledCharts } from './reportFixtures.js';
 import { deepFreeze, elements } from './svgQuery.js';
 
 /** A sweep of invented rows (behaviour only): profit peaks at alpha 0.2 for quantile, 0.1 for median. */
-function inventedSweep(currency = 'HLV'): { results: GridResult[]; summary: SweepSummary } {
+function inventedSweep(currency = 'HLV'): { results: SettingResult[]; summary: SweepReportSummary } {
   const alphas = [0.1, 0.2, 0.3];
   const policies = ['quantile', 'median'];
-  const results: GridResult[] = [];
+  const results: SettingResult[] = [];
   for (const alpha of alphas) {
     for (const policy of policies) {
       const profit = policy === 'quantile' ? 1000 - 5000 * (alpha - 0.2) ** 2 : 900 - 1000 * alpha;
       const setting = { alpha, policy, unaccepted: 'follow-plan' };
-      results.push({ index: results.length, key: JSON.stringify(setting), setting, row: { profit, capture_ratio: profit / 2000, perfect_foresight_profit: 2000, point_profit: 700, edge_vs_point: 1, p_value_vs_point: 0.2, buy_acceptance_rate: 1 - alpha, sell_acceptance_rate: 1 - alpha / 2, fallback_mwh: 10 } });
+      results.push({ setting, row: { profit, capture_ratio: profit / 2000, perfect_foresight_profit: 2000, point_profit: 700, edge_vs_point: 1, p_value_vs_point: 0.2, buy_acceptance_rate: 1 - alpha, sell_acceptance_rate: 1 - alpha / 2, imbalance_mwh: 10 } });
     }
   }
   const best = results.reduce((a, b) => ((b.row.profit as number) > (a.row.profit as number) ? b : a));
@@ -34,7 +33,7 @@ function inventedSweep(currency = 'HLV'): { results: GridResult[]; summary: Swee
     }),
     note: 'in-sample',
     conventions: { captureRatio: '', pValueVsPoint: '', cycles: '', cash: '' },
-  } as unknown as SweepSummary;
+  } as unknown as SweepReportSummary;
   return { results, summary };
 }
 

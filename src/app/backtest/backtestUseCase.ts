@@ -1,0 +1,90 @@
+import { z } from 'zod';
+import { batteryModel } from '../../battery/batterySpec.js';
+import { backtestMetrics } from '../../backtest/backtestMetrics.js';
+import { BACKTEST_POLICIES, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
+import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay } from '../../backtest/runBacktest.js';
+import { daysBetween } from '../../market/calendar.js';
+import { LEDGER_COLUMNS, daysCsv, ledgerRows } from '../../io/backtestOutputs.js';
+import { jsonText } from '../../io/planOutputs.js';
+import { checkOutputFolder, OutputStage } from '../../io/writeOutputs.js';
+import { backtestReport } from '../../report/backtestReport.js';
+import type { Done } from '../commandResult.js';
+import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
+import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
+import { readRunInputs, runInputPaths } from '../runInputs.js';
+import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { backtestSummary, backtestSummaryText } from './backtestSummary.js';
+
+/** The settings of `quantbid backtest`, checked once when the backtest starts. */
+export const backtestSettingsSchema = z
+  .strictObject({
+    /** The market, battery, history and forecast files, or a scenario naming them. */
+    inputs: inputSourcesSchema,
+    /** Make the forecasts from the history instead of reading a forecast file. */
+    model: modelSettingsSchema.optional(),
+    /** First and last delivery day, YYYY-MM-DD, both included. */
+    from: daySchema,
+    to: daySchema,
+    /** Central interval [q(alpha), q(1 - alpha)] of the quantile and median policies; default 0.1. */
+    alpha: alphaSchema.default(BACKTEST_DEFAULTS.alpha),
+    /** What the battery does about unaccepted orders; default follow-plan. */
+    unaccepted: unacceptedRuleSchema.default(BACKTEST_DEFAULTS.unaccepted),
+    /** Policies replayed side by side, each once; default all five. */
+    policies: z
+      .array(z.enum(BACKTEST_POLICIES as readonly BacktestPolicy[] as [BacktestPolicy, ...BacktestPolicy[]]))
+      .min(1)
+      .refine((list) => new Set(list).size === list.length, 'each policy may appear once')
+      .default([...BACKTEST_POLICIES]),
+    /** Folder for ledger.csv, days.csv, summary.json (and report.html). */
+    out: outFolderSchema,
+    /** Overwrite existing outputs. */
+    force: z.boolean().default(false),
+    /** Also write report.html. */
+    report: z.boolean().default(false),
+  })
+  .superRefine(checkSpan);
+
+export type BacktestSettings = z.input<typeof backtestSettingsSchema>;
+
+export type BacktestSummary = ReturnType<typeof backtestSummary> & { readonly forecastModel?: ModelForecastSummary };
+
+const BACKTEST_OUTPUTS = ['ledger.csv', 'days.csv', 'summary.json'] as const;
+
+/**
+ * `quantbid backtest`: replays the policies day by day over the span (runBacktest) and writes
+ * ledger.csv (day by day as the days are settled), days.csv, summary.json and, when asked, report.html
+ * into `out` as one output set.
+ */
+export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QUIET_HOOKS): Done<BacktestSummary> {
+  const s = validSettings(backtestSettingsSchema, settings, 'backtest');
+  const paths = runInputPaths(s.inputs, s.model);
+  const outputs = s.report ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
+  checkOutputFolder(s.out, outputs, s.force);
+  // With --model the forecasts are made here, day by day from the history (through the forecast cache).
+  const maker = forecastMaker(s.model, paths.history, s, hooks);
+  const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
+  const model = maker?.made();
+  const { market, history, forecast } = data;
+  const battery = batteryModel(data.batterySpec);
+  const progress = hooks.progress('backtest', daysBetween(s.from, s.to).length);
+  const onDay = ({ done }: { done: number }): void => progress.update(done);
+  // ledger.csv goes into the output stage day by day (writeOutputs.ts): ten years keep no ledger in memory.
+  const stage = OutputStage.begin(s.out, outputs, s.force, ['report.html']);
+  try {
+    const ledger = stage.open('ledger.csv');
+    ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
+    const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRows(day));
+    const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay });
+    progress.finish();
+    const metrics = backtestMetrics(result, battery);
+    const inputs = inputsShown(paths, s.model);
+    const summary: BacktestSummary = { ...backtestSummary(result, metrics, { market, battery, inputs }), ...(model === undefined ? {} : { forecastModel: model.summary }) };
+    stage.write('days.csv', daysCsv(result));
+    stage.write('summary.json', jsonText(summary));
+    if (s.report) stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
+    stage.commit();
+    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs)}${model?.note ?? ''}` };
+  } finally {
+    stage.discard();
+  }
+}

@@ -1,0 +1,117 @@
+import type { GridAxis } from '../grid/gridAxis.js';
+import type { SettingOf } from '../grid/expandGrid.js';
+import { interruptedMessage, runGrid, type GridOptions, type GridOutcome, type GridResult } from '../grid/runGrid.js';
+import { stopOnSigint } from '../grid/stopOnSigint.js';
+import type { GridRow } from '../grid/taskModule.js';
+import type { BacktestInputData, BacktestInputPaths } from '../io/readBacktestInputs.js';
+import { jsonText } from '../io/planOutputs.js';
+import { checkOutputFolder } from '../io/writeOutputs.js';
+import type { LevelUse } from './forecastLevels.js';
+import type { Done, Interrupted } from './commandResult.js';
+import { forecastMaker, gridInputFiles, type ModelForecast } from './modelForecast.js';
+import { packageVersion } from './packageInfo.js';
+import type { RunHooks } from './runHooks.js';
+import { readRunInputs, requireCoveredDay, runInputPaths } from './runInputs.js';
+import type { InputSources, ModelSettings } from './settingSchemas.js';
+
+/**
+ * Runs a grid (runGrid) with a progress display and Ctrl-C handling: the first Ctrl-C lets the
+ * running settings finish and keeps them in the journal; the run then returns `interrupted` with how
+ * to resume (the CLI ends with exit code 130).
+ */
+export async function runCommandGrid<const Axes extends readonly GridAxis[], Input, Row extends GridRow>(
+  hooks: RunHooks,
+  label: string,
+  options: Omit<GridOptions<Axes, Input, Row>, 'signal' | 'onProgress'>,
+): Promise<Extract<GridOutcome<SettingOf<Axes>, Row>, { status: 'complete' }> | Interrupted> {
+  const total = options.axes.reduce((product, axis) => product * axis.values.length, 1);
+  const progress = hooks.progress(label, total);
+  const stop = stopOnSigint((text) => hooks.warn(text));
+  let outcome: GridOutcome<SettingOf<Axes>, Row>;
+  try {
+    outcome = await runGrid<Axes, Input, Row>({ ...options, signal: stop.signal, onProgress: (done) => progress.update(done) });
+  } finally {
+    stop.dispose();
+    progress.finish();
+  }
+  if (outcome.status === 'interrupted') return { status: 'interrupted', message: interruptedMessage(outcome) };
+  return outcome;
+}
+
+/** What a grid command (sweep, size) runs: its grid, its task, and how it sums up the finished grid. */
+export interface GridCommand<Axes extends readonly GridAxis[], Input, Row extends GridRow, Summary> {
+  /** `sweep` or `size`: the progress label, the table `<command>.csv`, the fingerprint's command. */
+  readonly command: 'sweep' | 'size';
+  readonly run: { readonly out: string; readonly force: boolean; readonly restart: boolean; readonly report: boolean; readonly threads?: number | undefined };
+  readonly axes: Axes;
+  /** The compiled task module beside the use case, e.g. `new URL('./sweepTask.js', import.meta.url)`. */
+  readonly taskModule: URL;
+  readonly contextInput: Input;
+  /** What decides the rows besides the axes, inputs and task (fingerprinted with the command and version). */
+  readonly identity: Readonly<Record<string, unknown>>;
+  readonly paths: BacktestInputPaths;
+  /** The forecasts --model made, or undefined. */
+  readonly model: ModelForecast | undefined;
+  readonly summary: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => Summary;
+  readonly report: (results: readonly GridResult<SettingOf<Axes>, Row>[], summary: Summary) => string;
+  readonly summaryText: (summary: Summary, resumed: number, files: readonly string[]) => string;
+}
+
+/**
+ * A grid command from its grid to its outputs: the table, summary.json and (when asked) report.html
+ * written as one output set (a run killed while writing leaves the old outputs or all the new ones),
+ * the summary made once for the files and the human summary.
+ */
+export async function runGridCommand<const Axes extends readonly GridAxis[], Input, Row extends GridRow, Summary>(
+  spec: GridCommand<Axes, Input, Row, Summary>,
+  hooks: RunHooks,
+): Promise<Done<Summary> | Interrupted> {
+  type Results = readonly GridResult<SettingOf<Axes>, Row>[];
+  let made: { readonly results: Results; readonly summary: Summary } | undefined;
+  const summaryOf = (results: Results): Summary => {
+    if (made?.results !== results) made = { results, summary: spec.summary(results) };
+    return made.summary;
+  };
+  const { run, model } = spec;
+  const outcome = await runCommandGrid<Axes, Input, Row>(hooks, spec.command, {
+    outDir: run.out,
+    axes: spec.axes,
+    taskModule: spec.taskModule,
+    contextInput: spec.contextInput,
+    identity: { command: spec.command, version: packageVersion(), ...spec.identity, ...(model === undefined ? {} : { forecastModel: model.identity }) },
+    inputFiles: gridInputFiles(spec.paths),
+    ...(run.threads === undefined ? {} : { threads: run.threads }),
+    restart: run.restart,
+    force: run.force,
+    csvName: `${spec.command}.csv`,
+    optionalOutputs: ['report.html'],
+    moreOutputs: (results) => [
+      { name: 'summary.json', text: jsonText(summaryOf(results)) },
+      ...(run.report ? [{ name: 'report.html', text: spec.report(results, summaryOf(results)) }] : []),
+    ],
+  });
+  if (outcome.status === 'interrupted') return outcome;
+  const summary = summaryOf(outcome.results);
+  return { status: 'done', summary, text: `${spec.summaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}` };
+}
+
+/**
+ * The inputs of a grid command, read and checked in this thread before any setting runs: the input
+ * paths, the output folder (the table, summary.json and, when asked, report.html), every input file
+ * and the levels the grid reads (readRunInputs, remembered for a one-thread grid's task), a span
+ * with at least one covered day; with --model the forecasts are made here, once, before the workers
+ * start.
+ */
+export function readGridInputs(
+  settings: { readonly inputs: InputSources; readonly model?: ModelSettings | undefined; readonly from: string; readonly to: string; readonly out: string; readonly force: boolean; readonly report: boolean },
+  table: string,
+  use: LevelUse,
+  hooks: RunHooks,
+): { readonly paths: BacktestInputPaths; readonly data: BacktestInputData; readonly model: ModelForecast | undefined } {
+  const paths = runInputPaths(settings.inputs, settings.model);
+  checkOutputFolder(settings.out, [table, 'summary.json', ...(settings.report ? ['report.html'] : [])], settings.force);
+  const maker = forecastMaker(settings.model, paths.history, settings, hooks);
+  const data = readRunInputs(paths, use, maker, hooks, true);
+  requireCoveredDay(data, paths, settings.from, settings.to);
+  return { paths, data, model: maker?.made() };
+}

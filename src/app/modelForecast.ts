@@ -1,0 +1,145 @@
+import { InputError } from '../errors/inputError.js';
+import { DEFAULTS, type ForecastMethod } from '../forecast/forecaster.js';
+import { NO_STORE, storedForecastRange } from '../forecast/storedForecastRange.js';
+import { DEFAULT_FORECAST_CACHE_DIR, ForecastCache } from '../io/forecastCache.js';
+import { quantileForecastCsv } from '../io/quantileForecastCsv.js';
+import type { BacktestInputPaths, MakeForecast } from '../io/readBacktestInputs.js';
+import { parseQuantileForecast, type QuantileForecastFile } from '../io/readQuantileForecast.js';
+import { DayCalendar } from '../market/dayCalendar.js';
+import type { MarketSpec, PriceHistory } from '../types.js';
+import { packageVersion } from './packageInfo.js';
+import type { RunHooks } from './runHooks.js';
+import { levelsFromText } from './settingRules.js';
+import type { ModelSettings } from './settingSchemas.js';
+
+/** The levels `quantbid forecast` and --model forecast by default, as written in the help. */
+export const DEFAULT_LEVELS_TEXT = '0.05:0.95:0.05';
+
+/** Defaults of --model: the levels of `quantbid forecast`, the cache in `.quantbid-cache/forecasts` of the working folder. */
+export const MODEL_DEFAULTS = Object.freeze({ levels: DEFAULT_LEVELS_TEXT, cacheDir: DEFAULT_FORECAST_CACHE_DIR });
+
+/** DEFAULT_LEVELS_TEXT as numbers. */
+export function defaultLevels(): number[] {
+  const parsed = levelsFromText(DEFAULT_LEVELS_TEXT);
+  if ('problem' in parsed) throw new Error(`DEFAULT_LEVELS_TEXT: ${parsed.problem}`);
+  return parsed.levels;
+}
+
+/** Forecasts made by --model for a run, in every form the commands need. */
+export interface ModelForecast {
+  /** The wide quantile CSV, byte for byte what `quantbid forecast` writes for these days. */
+  readonly csv: string;
+  /** Name of the forecast in messages, e.g. `--model arx-hs`. */
+  readonly label: string;
+  /** The CSV read back as a forecast file is read: a backtest sees exactly what it would see from the file. */
+  readonly file: QuantileForecastFile;
+  /** For summary.json: method, levels, options, days forecast and skipped (the same in every run). */
+  readonly summary: ModelForecastSummary;
+  /** What the forecasts depend on besides the history file, for a grid's resume fingerprint. */
+  readonly identity: { readonly method: ForecastMethod; readonly levels: readonly number[]; readonly options: unknown; readonly version: string };
+  /** One line for the human summary: days fitted, taken from the cache, cache entries refitted. */
+  readonly note: string;
+}
+
+export interface ModelForecastSummary {
+  readonly method: ForecastMethod;
+  readonly levels: readonly number[];
+  readonly options: typeof DEFAULTS;
+  readonly daysForecast: number;
+  readonly skippedDays: readonly { readonly day: string; readonly reason: string }[];
+}
+
+/** The levels --model forecasts: the settings', else the default. */
+export function modelLevels(model: ModelSettings): readonly number[] {
+  return model.levels ?? defaultLevels();
+}
+
+/** The name of the --model forecast in messages. */
+export function modelLabel(model: ModelSettings): string {
+  return `--model ${model.method}`;
+}
+
+/**
+ * Forecasts the history days from `from` to `to` with --model (storedForecastRange through the
+ * cache unless it is switched off), with a progress display, and reads them back through the forecast
+ * file parser. No day forecast is an input error (exit code 2).
+ */
+export function makeModelForecast(model: ModelSettings, market: MarketSpec, history: PriceHistory, historyFile: string, span: { readonly from: string; readonly to: string }, hooks: RunHooks): ModelForecast {
+  const { method } = model;
+  const { from, to } = span;
+  const levels = modelLevels(model);
+  const cache = model.cache === false ? undefined : new ForecastCache(model.cache ?? MODEL_DEFAULTS.cacheDir, (message) => hooks.note(message));
+  const calendar = new DayCalendar(market.timeZone, market.periodMinutes);
+  const label = modelLabel(model);
+  const progress = hooks.progress('forecast', history.days.filter((d) => d.day >= from && d.day <= to).length);
+  const result = storedForecastRange(
+    history,
+    { from, to, method, levels, priceFloor: market.priceFloor, priceCap: market.priceCap, periodsOf: (day) => calendar.periods(day) },
+    { market: { timeZone: market.timeZone, periodMinutes: market.periodMinutes, priceFloor: market.priceFloor, priceCap: market.priceCap }, softwareVersion: packageVersion() },
+    {},
+    cache ?? NO_STORE,
+    (done) => progress.update(done),
+  );
+  progress.finish();
+  if (result.forecasts.length === 0) {
+    const first = result.skipped[0];
+    throw new InputError([
+      {
+        file: historyFile,
+        field: '--model',
+        message: `${method} could forecast no day from ${from} to ${to} (${result.skipped.length} history days skipped${first === undefined ? '' : `; ${first.day}: ${first.reason}`})`,
+        fix: 'choose days the history covers, after enough history for the method',
+      },
+    ]);
+  }
+  const csv = quantileForecastCsv(result.forecasts);
+  const count = (n: number, what: string): string => `${n} ${what}${n === 1 ? '' : 's'}`;
+  const damaged = cache === undefined || cache.rejected === 0 ? '' : `, ${cache.rejected} damaged cache ${cache.rejected === 1 ? 'entry' : 'entries'} made again`;
+  const cacheText = cache === undefined ? 'no cache' : `${result.daysFromStore} from the cache ${cache.dir}${damaged}`;
+  return {
+    csv,
+    label,
+    file: parseQuantileForecast(csv, label, market),
+    summary: { method, levels: [...levels], options: DEFAULTS, daysForecast: result.forecasts.length, skippedDays: result.skipped },
+    identity: { method, levels: [...levels], options: DEFAULTS, version: packageVersion() },
+    note: `forecasts: ${method} at ${levels.length} levels, ${count(result.forecasts.length, 'day')} forecast, ${result.skipped.length} skipped; ${count(result.daysFitted, 'day')} fitted, ${cacheText}\n`,
+  };
+}
+
+/** --model for a run that reads its inputs with readBacktestInputs: how to make the forecasts, and the forecasts once made. */
+export interface ForecastMaker {
+  readonly levels: readonly number[];
+  readonly label: string;
+  readonly make: MakeForecast;
+  /** The forecasts `make` made (call after reading the inputs). */
+  made(): ModelForecast;
+}
+
+/** The ForecastMaker of --model, or undefined without it. */
+export function forecastMaker(model: ModelSettings | undefined, historyFile: string, span: { readonly from: string; readonly to: string }, hooks: RunHooks): ForecastMaker | undefined {
+  if (model === undefined) return undefined;
+  let made: ModelForecast | undefined;
+  return {
+    levels: modelLevels(model),
+    label: modelLabel(model),
+    make: (market, history) => {
+      made = makeModelForecast(model, market, history, historyFile, span, hooks);
+      return made;
+    },
+    made: () => {
+      if (made === undefined) throw new Error('forecastMaker: made() before the forecasts were made');
+      return made;
+    },
+  };
+}
+
+/** The inputs a summary lists: the files given, and with --model the method in place of a forecast file. */
+export function inputsShown(paths: BacktestInputPaths, model: ModelSettings | undefined): Record<string, string> {
+  const files = Object.fromEntries(Object.entries(paths).filter((entry): entry is [string, string] => entry[1] !== undefined));
+  return model === undefined ? files : { ...files, model: model.method };
+}
+
+/** The input files a grid's resume fingerprint covers: the forecast file only when one is read. */
+export function gridInputFiles(paths: BacktestInputPaths): string[] {
+  return [paths.market, paths.battery, paths.history, ...(paths.forecast === undefined ? [] : [paths.forecast])];
+}

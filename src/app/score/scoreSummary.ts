@@ -1,0 +1,117 @@
+import type { ForecastComparison } from '../../forecast/scoring/compareForecasts.js';
+import type { IntervalCoverage, ScoreTable, Scores } from '../../forecast/scoring/scoreForecasts.js';
+import type { ScoreSummaryInput } from '../../report/scoreReport.js';
+import { formatNumber } from '../../io/formatNumber.js';
+import { levelText } from '../../io/quantileForecastCsv.js';
+
+/** Significance level at which byPeriod rejections are counted [-]. */
+const TEST_LEVEL = 0.05;
+
+const NOTES = [
+  'crps: the mean pinball loss over the levels and periods; the factor 2 is NOT included, so it approximates CRPS / 2 (multiply by 2 to compare with a CRPS) [currency/MWh]',
+  'pinball.<level>: mean pinball loss rho_tau(y - q) = (y - q)(tau - 1{y < q}) over the periods [currency/MWh]',
+  'coverage.<c>: share of realised prices y with q((1 - c) / 2) <= y <= q((1 + c) / 2), for each central interval whose two levels are in the forecast',
+  'calibration.<level>: share of realised prices strictly below the quantile at that level (a calibrated forecast: the level)',
+  'kupiec.<c>: Kupiec (1995) proportion-of-failures test, failure = y outside the central interval c, expected rate 1 - c; christoffersen.<c>: Christoffersen (1998) independence and conditional coverage tests of the failures in time order (first observation starts the chain)',
+  'the overall tests pool every period of every day; failures within a day are dependent, so their p-values are too small: judge calibration by the per-period tests (byPeriod, one sequence over the days per period of the day) and periodsRejectedAt5pct',
+  'periods of the day are local clock times: on a 25-hour day both periods of the repeated hour count for its clock time, on a 23-hour day the skipped hour has one observation less',
+];
+
+/** The content of score.json (and of `quantbid score --json`). */
+export function scoreSummary(input: ScoreSummaryInput) {
+  const { table } = input;
+  return {
+    notes: input.comparison === null ? NOTES : [...NOTES, 'dieboldMariano: d = daily crps of --forecast minus daily crps of --against, on the days both forecast; crpsForecast and crpsAgainst are the means of the daily crps (each day counts once, whatever its number of periods); HLN-corrected DM with h = 1 referred to t(n - 1); pValueAgainstBetter tests E[d] > 0, pValueForecastBetter E[d] < 0'],
+    inputs: { ...input.inputs },
+    currency: input.currency,
+    levels: [...table.levels],
+    days: {
+      scored: input.days.length,
+      first: input.days[0] ?? null,
+      last: input.days[input.days.length - 1] ?? null,
+      unscored: input.unscored.length,
+      unscoredDays: input.unscored,
+    },
+    periods: table.overall.count,
+    ...scoresJson(table.levels, table.overall),
+    periodsOfTheDay: table.bySlot.filter((slot) => slot.count > 0).length,
+    periodsRejectedAt5pct: periodsRejected(table),
+    byPeriod: table.bySlot.map((slot) => ({ periodStart: slot.slotStart, periods: slot.count, ...scoresJson(table.levels, slot) })),
+    dieboldMariano: input.comparison === null ? null : comparisonJson(input.comparison),
+  };
+}
+
+function scoresJson(levels: readonly number[], scores: Scores) {
+  const byLevel = (values: readonly number[]) => Object.fromEntries(levels.map((tau, k) => [levelText(tau), values[k] as number]));
+  const byInterval = <T>(value: (c: IntervalCoverage) => T) => Object.fromEntries(scores.coverage.map((c) => [levelText(c.nominal), value(c)]));
+  return {
+    crps: scores.crps,
+    pinball: byLevel(scores.pinball),
+    coverage: byInterval((c) => c.observed),
+    calibration: byLevel(scores.belowShare),
+    kupiec: byInterval((c) => (c.kupiec === null ? null : { n: c.kupiec.n, failures: c.failures, expectedRate: c.kupiec.expectedRate, observedRate: c.kupiec.observedRate, lr: c.kupiec.lr, pValue: c.kupiec.pValue })),
+    christoffersen: byInterval((c) => {
+      const t = c.christoffersen;
+      return t === null ? null : { ...t.counts, pi01: t.pi01, pi11: t.pi11, lrIndependence: t.lrIndependence, pValueIndependence: t.pValueIndependence, lrConditionalCoverage: t.lrConditionalCoverage, pValueConditionalCoverage: t.pValueConditionalCoverage };
+    }),
+  };
+}
+
+/** Per central interval: of the periods of the day, how many reject each test at TEST_LEVEL. */
+function periodsRejected(table: ScoreTable) {
+  const count = (i: number, pValue: (c: IntervalCoverage) => number | undefined): number =>
+    table.bySlot.filter((slot) => {
+      const c = slot.coverage[i];
+      const p = c === undefined ? undefined : pValue(c);
+      return p !== undefined && p < TEST_LEVEL;
+    }).length;
+  return Object.fromEntries(
+    table.overall.coverage.map((interval, i) => [
+      levelText(interval.nominal),
+      {
+        kupiec: count(i, (c) => c.kupiec?.pValue),
+        christoffersenIndependence: count(i, (c) => c.christoffersen?.pValueIndependence),
+        christoffersenConditionalCoverage: count(i, (c) => c.christoffersen?.pValueConditionalCoverage),
+      },
+    ]),
+  );
+}
+
+function comparisonJson(c: ForecastComparison) {
+  const t = c.test;
+  return {
+    days: c.days,
+    crpsForecast: c.lossFirst,
+    crpsAgainst: c.lossSecond,
+    status: t.status,
+    meanDifference: t.meanDifference,
+    ...(t.status === 'ok'
+      ? { dm: t.dm, hln: t.hln, degreesOfFreedom: t.degreesOfFreedom, pValueTwoSided: t.pValueTwoSided, pValueAgainstBetter: t.pValueOneSided, pValueForecastBetter: 1 - t.pValueOneSided }
+      : { reason: t.reason }),
+  };
+}
+
+/** The short human summary of `quantbid score`. */
+export function scoreSummaryText(summary: ReturnType<typeof scoreSummary>, out: string, written: readonly string[] = ['score.json']): string {
+  const pct = (x: number) => `${formatNumber(100 * x, 2)}%`;
+  const money = (x: number) => `${formatNumber(x, 4)} ${summary.currency}/MWh`;
+  const p = (x: number) => (x < 1e-4 ? '<0.0001' : formatNumber(x, 4));
+  const lines = [
+    `scored ${summary.days.scored} days (${summary.days.first} to ${summary.days.last}), ${summary.periods} periods; ${summary.days.unscored} forecast days not scored`,
+    `  crps (mean pinball, = CRPS/2): ${money(summary.crps)}`,
+    ...Object.entries(summary.coverage).map(([c, observed]) => {
+      const kupiec = summary.kupiec[c];
+      const rejected = summary.periodsRejectedAt5pct[c]?.kupiec ?? 0;
+      return `  coverage ${pct(Number(c))}: ${pct(observed)}; Kupiec p ${kupiec === null || kupiec === undefined ? '-' : p(kupiec.pValue)} overall, rejected at 5% in ${rejected} of ${summary.periodsOfTheDay} periods of the day`;
+    }),
+  ];
+  const dm = summary.dieboldMariano;
+  if (dm !== null) {
+    lines.push(
+      `  --against: daily crps ${money(dm.crpsAgainst)}, this forecast's ${money(dm.crpsForecast)}, on ${dm.days} common days; ` +
+        ('hln' in dm ? `Diebold-Mariano (HLN) ${formatNumber(dm.hln, 3)}, p two-sided ${p(dm.pValueTwoSided)}` : `Diebold-Mariano not defined: ${dm.reason}`),
+    );
+  }
+  lines.push(`  wrote ${out}/${written.join(', ')}`);
+  return `${lines.join('\n')}\n`;
+}

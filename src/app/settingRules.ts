@@ -1,0 +1,74 @@
+/**
+ * The rules of the settings that several commands share, each written once: the CLI's option parsers
+ * (cli/options.ts) and the use cases' settings schemas (settingSchemas.ts) both call these, so a rule
+ * and its words cannot drift apart between commands.
+ */
+import { dirname, parse, resolve } from 'node:path';
+import { shownText } from '../errors/shownText.js';
+import { parseDecimalRange } from '../grid/decimalRange.js';
+import { parseDecimal } from '../io/csvText.js';
+
+/** A decimal number with a dot, as in the input files (no hex, no Infinity, no blanks around it kept), or NaN. */
+export function decimalOf(text: string): number {
+  const parsed = parseDecimal(text.trim());
+  return 'value' in parsed ? parsed.value : Number.NaN;
+}
+
+/** Why a path cannot name an input or output, or null: an empty path is an unset shell variable. */
+export function pathProblem(path: string): string | null {
+  return path.trim() === '' ? 'the path is empty; give a file or folder name (is a shell variable unset?)' : null;
+}
+
+/**
+ * Why `out` cannot take a command's outputs, or null: an empty path (else the outputs would land in
+ * the working folder) or the root folder. With `csvFile`, `out` may name a CSV file, whose folder
+ * takes the outputs. An existing file where a folder belongs is found when the folder is checked
+ * (io/writeOutputs.ts checkOutputFolder), with the other problems of the folder.
+ */
+export function outFolderProblem(out: string, form: 'folder' | 'folder-or-csv-file' = 'folder'): string | null {
+  const empty = pathProblem(out);
+  if (empty !== null) return empty;
+  const path = resolve(out);
+  const folder = form === 'folder-or-csv-file' && /\.csv$/i.test(out) ? dirname(path) : path;
+  if (folder === parse(folder).root) return `${shownText(out)} is the root folder; give a folder for the outputs, e.g. runs/out`;
+  return null;
+}
+
+/** Most quantile levels one forecast may have [-] (0.01:0.99:0.01 is 99). */
+export const MAX_LEVELS = 99;
+
+/** How levels are written, for the problem texts. */
+const LEVELS_FORM = 'give levels in (0, 1) as a range start:end:step (e.g. 0.05:0.95:0.05) or a list (e.g. 0.1,0.5,0.9)';
+
+/**
+ * Quantile levels from text: a range `start:end:step` (exact decimals, end included when on the grid,
+ * e.g. `0.05:0.95:0.05`) or a comma-separated list (`0.1,0.5,0.9`); checked by levelsProblem.
+ */
+export function levelsFromText(text: string): { readonly levels: number[] } | { readonly problem: string } {
+  const bad = (why: string) => ({ problem: `"${shownText(text)}": ${why}; ${LEVELS_FORM}` });
+  let levels: number[];
+  if (text.includes(':')) {
+    const range = parseDecimalRange(text);
+    if (range.status === 'bad') return bad(range.message);
+    if (range.count > BigInt(MAX_LEVELS)) return bad(`${range.count} levels, more than ${MAX_LEVELS}`);
+    levels = Array.from({ length: Number(range.count) }, (_, i) => Number(range.valueText(i)));
+  } else {
+    levels = [];
+    for (const cell of text.split(',')) {
+      const parsed = parseDecimal(cell.trim());
+      if (!('value' in parsed)) return bad(`"${shownText(cell.trim())}" is not a number`);
+      levels.push(parsed.value);
+    }
+  }
+  const problem = levelsProblem(levels);
+  return problem === null ? { levels } : bad(problem);
+}
+
+/** Why these cannot be a forecast's levels, or null: at most MAX_LEVELS, each in (0, 1), strictly increasing. */
+export function levelsProblem(levels: readonly number[]): string | null {
+  if (levels.length > MAX_LEVELS) return `${levels.length} levels, more than ${MAX_LEVELS}`;
+  const outside = levels.filter((tau) => !(tau > 0 && tau < 1));
+  if (outside.length > 0) return `level${outside.length > 1 ? 's' : ''} ${outside.join(', ')} outside (0, 1)`;
+  if (levels.some((tau, k) => k > 0 && !(tau > (levels[k - 1] as number)))) return 'the levels do not increase strictly';
+  return null;
+}

@@ -1,0 +1,57 @@
+/**
+ * The task module of `quantbid size` (contract: grid/workerPool.ts), run from its compiled copy
+ * dist/app/size/sizeTask.js. `loadContext` takes the inputs the parent read (or reads the four input
+ * files once per thread); `run` backtests one typed setting `{ energy_mwh, power_mw,
+ * round_trip_efficiency, policy }`, checked when the sizing's settings were, and returns its row with
+ * the project economics (sizing/sizeSettingRow.ts).
+ */
+import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type GivenForecast } from '../../io/readBacktestInputs.js';
+import type { UnacceptedRule } from '../../settle/settleDay.js';
+import { RunMemo, type PolicyRun } from '../../backtest/policyRun.js';
+import type { AlphaMode } from '../../sizing/alphaChoice.js';
+import type { SizeCosts } from '../../sizing/sizeEconomics.js';
+import { sizeSettingRow, type SizeGridSetting, type SizeRow, type SizeStudy } from '../../sizing/sizeSettingRow.js';
+
+/** The sizing's contextInput: plain data, copied into every worker. */
+export interface SizeTaskInput {
+  readonly paths: BacktestInputPaths;
+  /** The inputs already read and checked by the parent, cut to from..to (inputDataSpan.ts); when given, no file is read. */
+  readonly data?: BacktestInputData;
+  /** The forecasts of --model, made once in the parent (CSV text: cheap to copy, parsed once per worker); else paths.forecast is read. */
+  readonly forecast?: GivenForecast;
+  readonly from: string;
+  readonly to: string;
+  readonly alpha: AlphaMode;
+  readonly unaccepted: UnacceptedRule;
+  readonly costs: SizeCosts;
+  /** Whether the efficiency axis replaces the spec's efficiencies (--efficiency given). */
+  readonly efficiencyGiven: boolean;
+}
+
+export interface SizeTaskContext {
+  readonly study: SizeStudy;
+  readonly efficiencyGiven: boolean;
+  /** Perfect-foresight runs per size, made once per worker where settings of one size meet. */
+  readonly memo: RunMemo<PolicyRun>;
+}
+
+export function loadContext(task: SizeTaskInput): SizeTaskContext {
+  const data = task.data ?? readBacktestInputsOnce(task.paths, task.forecast);
+  const study: SizeStudy = {
+    market: data.market,
+    batterySpec: data.batterySpec,
+    history: data.history,
+    forecast: data.forecast,
+    from: task.from,
+    to: task.to,
+    alpha: task.alpha,
+    unaccepted: task.unaccepted,
+    costs: task.costs,
+  };
+  return { study, efficiencyGiven: task.efficiencyGiven, memo: new RunMemo() };
+}
+
+export function run(setting: SizeGridSetting, context: SizeTaskContext): SizeRow {
+  const size = { energyMwh: setting.energy_mwh, powerMw: setting.power_mw, ...(context.efficiencyGiven ? { roundTripEfficiency: setting.round_trip_efficiency } : {}) };
+  return sizeSettingRow(context.study, { ...size, policy: setting.policy }, context.memo);
+}

@@ -1,0 +1,141 @@
+import { z } from 'zod';
+import { daysBetween } from '../../market/calendar.js';
+import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
+import { sizeReport } from '../../report/sizeReport.js';
+import type { AlphaMode } from '../../sizing/alphaChoice.js';
+import type { SizeResult } from '../../sizing/bestSizes.js';
+import { specRoundTripEfficiency } from '../../sizing/scaledBattery.js';
+import type { SizeCosts } from '../../sizing/sizeEconomics.js';
+import { SIZE_POLICIES, type SizePolicy } from '../../sizing/sizeSettingRow.js';
+import type { Done, Interrupted } from '../commandResult.js';
+import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
+import { inputDataSpan } from '../inputDataSpan.js';
+import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
+import { alphaSchema, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { sizeSummary, sizeSummaryText } from './sizeSummary.js';
+import type { SizeTaskInput } from './sizeTask.js';
+
+/** Defaults: the quantile policy at alpha 0.1, the grid of `--alpha best`, follow-plan, no fixed O&M. */
+export const SIZE_DEFAULTS = Object.freeze({
+  policy: 'quantile',
+  alpha: 0.1,
+  alphas: '0.05:0.45:0.05',
+  unaccepted: 'follow-plan' as const,
+  fixedOmPerMwYear: 0,
+});
+
+/** The size axes and the alphas of `--alpha best` from their text, every problem listed together; an axis whose text is undefined is left out. */
+export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly powerMw?: string; readonly efficiency?: string; readonly alphas?: string; readonly policy: string }) {
+  const numbers = (name: string, option: string, spec: string | undefined, accept: (x: number) => boolean, expected: string) =>
+    spec === undefined ? [] : [() => parseNumberAxis(name, option, spec, { accept, expected })];
+  const axes = parseAxes([
+    ...numbers('energy_mwh', '--energy-mwh', text.energyMwh, (x) => x > 0, 'a number > 0'),
+    ...numbers('power_mw', '--power-mw', text.powerMw, (x) => x > 0, 'a number > 0'),
+    ...numbers('round_trip_efficiency', '--efficiency', text.efficiency, (x) => x > 0 && x <= 1, 'an efficiency in (0, 1]'),
+    ...numbers('alpha', '--alphas', text.alphas, isAlpha, `an alpha in ${ALPHA_RANGE}`),
+    () => parseWordAxis('policy', '--policy', text.policy, SIZE_POLICIES),
+  ]);
+  const values = (name: string) => axes.find((axis) => axis.name === name)?.values;
+  const numbersOf = (name: string) => (values(name) as readonly number[] | undefined)?.slice();
+  return {
+    energiesMwh: numbersOf('energy_mwh'),
+    powersMw: numbersOf('power_mw'),
+    efficiencies: numbersOf('round_trip_efficiency'),
+    alphas: numbersOf('alpha'),
+    policies: [...(values('policy') as readonly (typeof SIZE_POLICIES)[number][])],
+  };
+}
+
+/** The alphas `--alpha best` chooses from when none are given: SIZE_DEFAULTS.alphas. */
+function defaultBestAlphas(): number[] {
+  return sizeAxesFromText({ alphas: SIZE_DEFAULTS.alphas, policy: SIZE_DEFAULTS.policy }).alphas ?? [];
+}
+
+/** `--alpha best` chooses on the first half of the days and scores on the second: it needs two days or more. */
+export function alphaBestSpanProblem(from: string, to: string): string | null {
+  return daysBetween(from, to).length < 2 ? 'best needs at least 2 days: it chooses on the first half and scores on the second' : null;
+}
+
+/** Costs and finance of the project, the same for every size (sizing/sizeEconomics.ts). */
+export const sizeCostsSchema = z.strictObject({
+  capexPerMwh: z.number().finite().min(0),
+  capexPerMw: z.number().finite().min(0),
+  fixedOmPerMwYear: z.number().finite().min(0).default(SIZE_DEFAULTS.fixedOmPerMwYear),
+  lifeYears: z.number().int().min(1),
+  lifeCycles: z.number().finite().gt(0).nullable().default(null),
+  discountRate: z.number().finite().gt(-1),
+});
+
+/** The settings of `quantbid size`, checked once when the sizing starts; worker threads get them typed. */
+export const sizeSettingsSchema = z
+  .strictObject({
+    ...gridRunSettings,
+    /** First and last delivery day, YYYY-MM-DD, both included. */
+    from: daySchema,
+    to: daySchema,
+    /** The energy axis [MWh], each > 0. */
+    energiesMwh: eachOnce(z.number().finite().gt(0)),
+    /** The power axis [MW], charge = discharge, each > 0. */
+    powersMw: eachOnce(z.number().finite().gt(0)),
+    /** Round-trip efficiencies in (0, 1]; default the battery spec's. */
+    efficiencies: eachOnce(z.number().gt(0).lte(1)).optional(),
+    /** Policies scored; perfect-foresight rows are always added. */
+    policies: eachOnce(z.enum(SIZE_POLICIES)),
+    /** Alpha of the quantile and median policies, or `best`: chosen per size on the first half of the days. */
+    alpha: z.union([alphaSchema, z.literal('best')]).default(SIZE_DEFAULTS.alpha),
+    /** The alphas `best` chooses from; default 0.05 to 0.45 in steps of 0.05. */
+    alphas: eachOnce(alphaSchema).optional(),
+    /** What the battery does about unaccepted orders; default follow-plan. */
+    unaccepted: unacceptedRuleSchema.default(SIZE_DEFAULTS.unaccepted),
+    costs: sizeCostsSchema,
+  })
+  .superRefine((s, ctx) => {
+    checkSpan(s, ctx);
+    if (s.alpha !== 'best' && s.alphas !== undefined) ctx.addIssue({ code: 'custom', path: ['alphas'], message: 'is used only with --alpha best' });
+    const best = s.alpha === 'best' && spanProblem(s.from, s.to) === null ? alphaBestSpanProblem(s.from, s.to) : null;
+    if (best !== null) ctx.addIssue({ code: 'custom', path: ['alpha'], message: best });
+  });
+
+export type SizeSettings = z.input<typeof sizeSettingsSchema>;
+
+export type SizeSummary = ReturnType<typeof sizeSummary>;
+
+/**
+ * `quantbid size`: a backtest of every battery size of the grid energy x power [x efficiency] for
+ * each policy, valued as a project (NPV, IRR, payback) on the grid engine, into size.csv,
+ * summary.json and, when asked, report.html.
+ */
+export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIET_HOOKS): Promise<Done<SizeSummary> | Interrupted> {
+  const s = validSettings(sizeSettingsSchema, settings, 'size');
+  const { from, to } = s;
+  const costs: SizeCosts = s.costs;
+  const alpha: AlphaMode = s.alpha === 'best' ? { method: 'best', alphas: s.alphas ?? defaultBestAlphas() } : { method: 'fixed', alpha: s.alpha };
+  const alphas = alpha.method === 'fixed' ? [alpha.alpha] : alpha.alphas;
+  const { paths, data, model } = readGridInputs(s, 'size.csv', { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policy' }, hooks);
+  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+  const axes = [
+    { name: 'energy_mwh', option: '--energy-mwh', values: s.energiesMwh },
+    { name: 'power_mw', option: '--power-mw', values: s.powersMw },
+    { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
+    { name: 'policy', option: '--policy', values: [...s.policies, 'perfect-foresight'] as SizePolicy[] },
+  ] as const;
+  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
+  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, data: inputDataSpan(data, from, to) };
+  return runGridCommand(
+    {
+      command: 'size',
+      run: s,
+      axes,
+      taskModule: new URL('./sizeTask.js', import.meta.url),
+      contextInput,
+      identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven },
+      paths,
+      model,
+      summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
+      report: (results, summary) => sizeReport({ results, summary }),
+      summaryText: sizeSummaryText,
+    },
+    hooks,
+  );
+}

@@ -1,0 +1,39 @@
+/**
+ * The task module of `quantbid sweep` (contract: grid/workerPool.ts), run from its compiled copy
+ * dist/app/sweep/sweepTask.js. `loadContext` takes the inputs the parent read (or reads the four
+ * input files once per thread); `run` backtests one typed setting `{ alpha, policy, unaccepted }`,
+ * checked when the sweep's settings were, and returns its row (backtest/sweepSettingRow.ts).
+ */
+import { batteryModel } from '../../battery/batterySpec.js';
+import { RunMemo, type PolicyRun } from '../../backtest/policyRun.js';
+import type { BacktestInput } from '../../backtest/runBacktest.js';
+import { sweepSettingRow, type SweepRow, type SweepSetting } from '../../backtest/sweepSettingRow.js';
+import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type GivenForecast } from '../../io/readBacktestInputs.js';
+
+/** The sweep's contextInput: plain data, copied into every worker. */
+export interface SweepTaskInput {
+  readonly paths: BacktestInputPaths;
+  /** The inputs already read and checked by the parent, cut to from..to (inputDataSpan.ts); when given, no file is read. */
+  readonly data?: BacktestInputData;
+  /** The forecasts of --model, made once in the parent (CSV text: cheap to copy, parsed once per worker); else paths.forecast is read. */
+  readonly forecast?: GivenForecast;
+  /** First and last delivery day, YYYY-MM-DD, both included. */
+  readonly from: string;
+  readonly to: string;
+}
+
+export interface SweepTaskContext {
+  readonly input: BacktestInput;
+  /** Reference runs (perfect foresight, point) made once per worker. */
+  readonly memo: RunMemo<PolicyRun>;
+}
+
+export function loadContext(task: SweepTaskInput): SweepTaskContext {
+  const data = task.data ?? readBacktestInputsOnce(task.paths, task.forecast);
+  const input: BacktestInput = { market: data.market, battery: batteryModel(data.batterySpec), history: data.history, forecast: data.forecast, from: task.from, to: task.to };
+  return { input, memo: new RunMemo() };
+}
+
+export function run(setting: SweepSetting, context: SweepTaskContext): SweepRow {
+  return sweepSettingRow(context.input, setting, context.memo);
+}

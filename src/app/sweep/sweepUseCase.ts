@@ -1,0 +1,81 @@
+import { z } from 'zod';
+import { SWEEP_POLICIES, type SweepResult } from '../../backtest/sweepSettingRow.js';
+import { sweepReport } from '../../report/sweepReport.js';
+import type { Done, Interrupted } from '../commandResult.js';
+import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
+import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { inputDataSpan } from '../inputDataSpan.js';
+import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
+import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
+import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
+import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
+import type { SweepTaskInput } from './sweepTask.js';
+
+/** Defaults of the axes as written in the help: alphas the demo forecast's levels (0.05 to 0.95) allow, both alpha policies, follow-plan. */
+export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: SWEEP_POLICIES.join(','), unaccepted: 'follow-plan' });
+
+/** The axes of a sweep from their text (`--alphas 0.05:0.45:0.05`, `--policies quantile,median`, ...), every problem listed together. */
+export function sweepAxesFromText(text: { readonly alphas: string; readonly policies: string; readonly unaccepted: string }) {
+  const [alphas, policies, unaccepted] = parseAxes([
+    () => parseNumberAxis('alpha', '--alphas', text.alphas, { accept: isAlpha, expected: `an alpha in ${ALPHA_RANGE}` }),
+    () => parseWordAxis('policy', '--policies', text.policies, SWEEP_POLICIES),
+    () => parseWordAxis('unaccepted', '--unaccepted', text.unaccepted, UNACCEPTED_RULES),
+  ]);
+  return { alphas: [...alphas.values], policies: [...policies.values], unaccepted: [...unaccepted.values] };
+}
+
+/** The settings of `quantbid sweep`, checked once when the sweep starts; worker threads get them typed. */
+export const sweepSettingsSchema = z
+  .strictObject({
+    ...gridRunSettings,
+    /** First and last delivery day, YYYY-MM-DD, both included. */
+    from: daySchema,
+    to: daySchema,
+    /** The alpha axis, each alpha in (0, 0.5). */
+    alphas: eachOnce(alphaSchema),
+    /** The policy axis: policies whose orders depend on alpha. */
+    policies: eachOnce(z.enum(SWEEP_POLICIES)),
+    /** The axis of rules for unaccepted orders. */
+    unaccepted: eachOnce(unacceptedRuleSchema),
+  })
+  .superRefine(checkSpan);
+
+export type SweepSettings = z.input<typeof sweepSettingsSchema>;
+
+export type SweepSummary = ReturnType<typeof sweepSummary>;
+
+/**
+ * `quantbid sweep`: a backtest of every setting of the grid alpha x policy x unaccepted rule on the
+ * grid engine (this thread and worker threads, resumable), into sweep.csv, summary.json and, when
+ * asked, report.html.
+ */
+export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QUIET_HOOKS): Promise<Done<SweepSummary> | Interrupted> {
+  const s = validSettings(sweepSettingsSchema, settings, 'sweep');
+  const { from, to } = s;
+  const axes = [
+    { name: 'alpha', option: '--alphas', values: s.alphas },
+    { name: 'policy', option: '--policies', values: s.policies },
+    { name: 'unaccepted', option: '--unaccepted', values: s.unaccepted },
+  ] as const;
+  const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
+  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
+  const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
+  return runGridCommand(
+    {
+      command: 'sweep',
+      run: s,
+      axes,
+      taskModule: new URL('./sweepTask.js', import.meta.url),
+      contextInput,
+      identity: { from, to },
+      paths,
+      model,
+      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, ...modelContext }),
+      report: (results, summary) => sweepReport({ results, summary }),
+      summaryText: sweepSummaryText,
+    },
+    hooks,
+  );
+}

@@ -1,0 +1,17 @@
+import type { RunHooks } from '../app/runHooks.js';
+import type { CliIo } from './cliIo.js';
+import { createProgress } from './progress.js';
+
+/**
+ * The hooks a use case reports through, on the terminal: notes on stderr unless `quiet`, warnings on
+ * stderr always, progress bars on stderr when it is a terminal and not `quiet` (createProgress).
+ */
+export function cliHooks(io: CliIo, quiet: boolean): RunHooks {
+  return {
+    note: (text) => {
+      if (!quiet) io.stderr(text);
+    },
+    warn: (text) => io.stderr(text),
+    progress: (label, total) => createProgress(io, { total, label, quiet }),
+  };
+}

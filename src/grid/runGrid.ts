@@ -1,0 +1,189 @@
+import { mkdirSync, rmSync } from 'node:fs';
+import { join } from 'node:path';
+import { InputError } from '../errors/inputError.js';
+import { checkOutputFolder, writeOutputs, type OutputFile } from '../io/writeOutputs.js';
+import { checkRow } from './checkRow.js';
+import { gridCsv } from './gridCsv.js';
+import { gridFingerprint } from './gridFingerprint.js';
+import { expandGrid, GRID_DEFAULTS, type GridPoint, type Setting, type SettingOf } from './expandGrid.js';
+import { JOURNAL_FORMAT, JOURNAL_VERSION, JournalWriter, journalLine, readJournal, type JournalEntry } from './gridJournal.js';
+import { taskModuleUrl, type GridRow } from './taskModule.js';
+import { defaultThreads, runPool, type PoolJob, type PoolStatus } from './workerPool.js';
+import type { GridAxis } from './gridAxis.js';
+
+/**
+ * The options of runGrid. `Axes` gives the settings' type (SettingOf), `Input` the contextInput's and
+ * `Row` the rows': what the task module's run returns, which runGrid checks against the row contract
+ * (checkRow.ts) but takes the caller's word for beyond it.
+ */
+export interface GridOptions<Axes extends readonly GridAxis[] = readonly GridAxis[], Input = unknown, Row extends GridRow = GridRow> {
+  /** Folder for the table and, while the grid runs, its journal. Required. */
+  readonly outDir: string;
+  /** The grid's axes, in grid order (expandGrid.ts); their types give the settings' type. Required. */
+  readonly axes: Axes;
+  /** Compiled task module, path or file URL (contract in workerPool.ts). Required. */
+  readonly taskModule: string | URL;
+  /** Handed to the task's loadContext once per thread that runs settings. Default undefined. */
+  readonly contextInput?: Input;
+  /**
+   * Everything besides the axes, inputs and task that decides the rows (command name, version, options),
+   * as JSON-able data; it goes into the journal's fingerprint. Leave out what does not change rows:
+   * --threads, --out, --quiet, --force, --restart. Default null.
+   */
+  readonly identity?: unknown;
+  /** Input files whose contents the rows depend on (fingerprinted). Default none. */
+  readonly inputFiles?: readonly string[];
+  /** Threads [-], a whole number >= 1, this one included: n runs settings here and on n - 1 workers. Default os.availableParallelism(). */
+  readonly threads?: number;
+  /** Discard a journal found in outDir instead of resuming or refusing it. Default false. */
+  readonly restart?: boolean;
+  /** Overwrite an existing table. Default false. */
+  readonly force?: boolean;
+  /** File name of the table. Default `sweep.csv`; the journal is `.sweep-journal.jsonl` beside it. */
+  readonly csvName?: string;
+  /**
+   * Further outputs made from the finished results (e.g. `summary.json`), written in one set with the
+   * table, so that a run killed while writing leaves the old outputs or all the new ones. Default none.
+   */
+  readonly moreOutputs?: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => readonly OutputFile[];
+  /** Outputs the command writes only on request (e.g. report.html): removed with --force when not written. */
+  readonly optionalOutputs?: readonly string[];
+  /** Most settings a grid may have [-]. Default 100,000. */
+  readonly maxSettings?: number;
+  /** Abort (e.g. on SIGINT) to stop starting settings; the running ones finish and are kept. */
+  readonly signal?: AbortSignal;
+  /** Called with the settings done (resumed ones included) once before work and after each one. */
+  readonly onProgress?: (done: number, total: number) => void;
+  /** The clock for the journal header's start time. Default `() => new Date()`. */
+  readonly now?: () => Date;
+}
+
+export const GRID_RUN_DEFAULTS = Object.freeze({
+  identity: null as unknown,
+  inputFiles: Object.freeze([]) as readonly string[],
+  restart: false,
+  force: false,
+  csvName: 'sweep.csv',
+  maxSettings: GRID_DEFAULTS.maxSettings,
+  now: (): Date => new Date(),
+});
+
+/** A setting with its row, in grid order. */
+export interface GridResult<S extends Setting = Setting, Row extends GridRow = GridRow> extends GridPoint<S> {
+  readonly row: Row;
+}
+
+export type GridOutcome<S extends Setting = Setting, Row extends GridRow = GridRow> =
+  | {
+      readonly status: 'complete';
+      readonly total: number;
+      /** Settings taken from a journal of an earlier, interrupted run [-]. */
+      readonly resumed: number;
+      readonly results: readonly GridResult<S, Row>[];
+      /** Paths written (the table, then the further outputs). */
+      readonly files: readonly string[];
+    }
+  | {
+      readonly status: 'interrupted';
+      readonly total: number;
+      readonly done: number;
+      /** Path of the journal that keeps the finished settings. */
+      readonly journal: string;
+    };
+
+/** `.sweep-journal.jsonl` for `sweep.csv`, `.size-journal.jsonl` for `size.csv`. */
+export function journalName(csvName: string): string {
+  return `.${csvName.replace(/\.csv$/, '')}-journal.jsonl`;
+}
+
+/**
+ * Runs a task for every setting of the grid and writes the table, resuming an interrupted run.
+ *
+ * Steps: expand the grid (problems before any work); check the output folder; fingerprint the
+ * arguments and inputs; take the finished settings from a journal with the same fingerprint (a
+ * different one is refused unless `restart`); run the rest on the pool, appending each row to the
+ * journal as it finishes; when all are done, write the table in grid order and the further outputs as
+ * one set with writeOutputs (the old set or the new one, never a mix) and remove the journal. Rows
+ * pass through the journal's JSON either way, so a resumed run writes the same bytes as an
+ * uninterrupted one. Interrupted by `signal`, it returns `interrupted` and keeps the journal.
+ */
+export async function runGrid<const Axes extends readonly GridAxis[], Input = unknown, Row extends GridRow = GridRow>(options: GridOptions<Axes, Input, Row>): Promise<GridOutcome<SettingOf<Axes>, Row>> {
+  const o = { ...GRID_RUN_DEFAULTS, ...options };
+  const threads = checkedThreads(o.threads ?? defaultThreads());
+  const grid = expandGrid(o.axes, { maxSettings: o.maxSettings });
+  checkOutputFolder(o.outDir, [o.csvName], o.force);
+  const taskUrl = taskModuleUrl(o.taskModule);
+  const fingerprint = gridFingerprint({ identity: o.identity, axes: o.axes, inputFiles: o.inputFiles, taskModuleUrl: taskUrl });
+  mkdirSync(o.outDir, { recursive: true });
+  const journal = join(o.outDir, journalName(o.csvName));
+  const { writer, entries } = openJournal(journal, fingerprint, grid, o);
+
+  const rows: (GridRow | undefined)[] = new Array<GridRow | undefined>(grid.length);
+  const indexOf = new Map(grid.map((point) => [point.key, point.index]));
+  let columns: readonly string[] | undefined;
+  const keep = (entry: JournalEntry): void => {
+    const row = checkRow(entry.row, entry.key, o.axes, columns);
+    columns ??= Object.keys(row);
+    rows[indexOf.get(entry.key) as number] = row;
+  };
+  entries.forEach(keep);
+  const resumed = entries.length;
+  let done = resumed;
+  o.onProgress?.(done, grid.length);
+
+  const jobs: PoolJob[] = grid.filter((point) => rows[point.index] === undefined).map((point) => ({ id: point.index, key: point.key, setting: point.setting }));
+  let status: PoolStatus;
+  try {
+    status = await runPool(jobs, { taskModule: taskUrl, contextInput: o.contextInput, threads, signal: o.signal }, (job, row) => {
+      checkRow(row, job.key, o.axes, columns);
+      const line = journalLine({ key: job.key, row });
+      writer.append(line);
+      keep(JSON.parse(line) as JournalEntry);
+      done++;
+      o.onProgress?.(done, grid.length);
+    });
+  } finally {
+    writer.close();
+  }
+  if (status === 'stopped') return { status: 'interrupted', total: grid.length, done, journal };
+
+  // Every row passed checkRow; that it has the columns of `Row` is the task module's contract with the caller.
+  const complete = rows as Row[];
+  const results = grid.map((point) => ({ ...point, row: complete[point.index] as Row }));
+  const files = writeOutputs(o.outDir, [{ name: o.csvName, text: gridCsv(o.axes, grid, complete) }, ...(o.moreOutputs?.(results) ?? [])], o.force, o.optionalOutputs ?? []);
+  // Killed before this line, a re-run finds every setting in the journal and writes the same bytes.
+  rmSync(journal, { force: true });
+  return { status: 'complete', total: grid.length, resumed, results, files };
+}
+
+/** The message for an interrupted sweep: what is kept and how to go on. */
+export function interruptedMessage(outcome: Extract<GridOutcome, { status: 'interrupted' }>): string {
+  return `stopped after ${outcome.done} of ${outcome.total} settings; the finished ones are kept in ${outcome.journal}.\nRun the same command again to resume (or add --restart to start over).\n`;
+}
+
+function openJournal(path: string, fingerprint: string, grid: readonly GridPoint<Setting>[], o: { readonly restart: boolean; readonly now: () => Date }): { writer: JournalWriter; entries: JournalEntry[] } {
+  const found = o.restart ? ({ status: 'absent' } as const) : readJournal(path);
+  if (found.status === 'absent') {
+    const header = { format: JOURNAL_FORMAT, version: JOURNAL_VERSION, fingerprint, settings: grid.length, started: o.now().toISOString() } as const;
+    return { writer: JournalWriter.create(path, header), entries: [] };
+  }
+  if (found.header.fingerprint !== fingerprint) {
+    throw new InputError([
+      {
+        file: path,
+        field: '--restart',
+        message: `holds ${found.entries.length} finished settings of a sweep started ${found.header.started} with other arguments or input files`,
+        fix: 'run that sweep\'s command again to resume it, or add --restart to discard the journal and start this one',
+      },
+    ]);
+  }
+  const keys = new Set(grid.map((point) => point.key));
+  const seen = new Set<string>();
+  const entries = found.entries.filter((entry) => keys.has(entry.key) && !seen.has(entry.key) && seen.add(entry.key));
+  return { writer: JournalWriter.resume(path, found.wholeBytes), entries };
+}
+
+function checkedThreads(threads: number): number {
+  if (Number.isInteger(threads) && threads >= 1) return threads;
+  throw new InputError([{ file: 'command line', field: '--threads', message: `${threads} is not a whole number of threads >= 1`, fix: 'give --threads 1 or more (1 runs without worker threads)' }]);
+}

@@ -1,0 +1,26 @@
+import type { PlanPolicy } from '../types.js';
+
+/** The planning policies (docs/design.md section 4), in the order the help lists them. */
+export const PLAN_POLICIES: readonly PlanPolicy[] = Object.freeze(['quantile', 'median', 'point']);
+
+/** The interval an alpha lies in, for messages: the rule of isAlpha. */
+export const ALPHA_RANGE = '(0, 0.5)';
+
+/** What an alpha must be, for messages. */
+export const ALPHA_RULE = `a number in ${ALPHA_RANGE}`;
+
+/**
+ * Whether `alpha` is the width of a central interval [q(alpha), q(1 - alpha)] (docs/design.md
+ * section 4): 0 < alpha < 0.5, so that q(alpha) lies below the median and q(1 - alpha) above it.
+ */
+export function isAlpha(alpha: number): boolean {
+  return alpha > 0 && alpha < 0.5;
+}
+
+/**
+ * The upper level 1 - alpha, rounded to 12 decimals so that it reads as the level a forecast names
+ * (1 - 0.1 is 0.9, not 0.9000000000000000222); levels closer than 1e-9 are one level everywhere.
+ */
+export function upperLevel(alpha: number): number {
+  return Number((1 - alpha).toFixed(12));
+}

@@ -1,0 +1,56 @@
+/**
+ * The house rule of quantbid's source: which folder of src/ may import which, written once. The
+ * checker (importGraph.ts) reads every import of src/**\/*.ts and test/architecture/imports.test.ts
+ * fails `npm test` on any import this table does not allow, on a cycle between folders, and on file,
+ * path, process or thread access in a domain folder. DEVELOPERS.md shows the same table.
+ *
+ * A folder is a top-level folder of src/ (src/plan/warehouse belongs to `plan`); `types` is src/types.ts and
+ * `index` is src/index.ts, the library entry. A folder may always import its own files.
+ */
+export type Layer =
+  | 'errors'
+  | 'types'
+  | 'market'
+  | 'battery'
+  | 'stats'
+  | 'economics'
+  | 'forecast'
+  | 'plan'
+  | 'settle'
+  | 'backtest'
+  | 'sizing'
+  | 'io'
+  | 'grid'
+  | 'report'
+  | 'app'
+  | 'cli'
+  | 'index';
+
+/** The domain: pure and synchronous; no files, no paths, no process, no threads, no clock. */
+export const DOMAIN: readonly Layer[] = ['market', 'battery', 'stats', 'economics', 'forecast', 'plan', 'settle', 'backtest', 'sizing'];
+
+const domainAnd = (...more: Layer[]): Layer[] => ['types', ...DOMAIN, 'errors', ...more];
+
+/** Layer -> the layers it may import. */
+export const MAY_IMPORT: Readonly<Record<Layer, readonly Layer[]>> = {
+  errors: [],
+  types: ['market', 'battery'],
+  market: ['errors'],
+  battery: ['errors'],
+  stats: ['errors'],
+  economics: ['stats', 'errors'],
+  forecast: ['types', 'market', 'stats', 'errors'],
+  plan: ['types', 'market', 'battery', 'forecast', 'errors'],
+  settle: ['types', 'market', 'battery', 'errors'],
+  backtest: ['types', 'market', 'battery', 'forecast', 'plan', 'settle', 'stats', 'errors'],
+  sizing: ['types', 'market', 'battery', 'plan', 'settle', 'backtest', 'economics', 'stats', 'errors'],
+  io: domainAnd(),
+  grid: ['io', 'errors'],
+  report: domainAnd('io'),
+  app: domainAnd('io', 'grid', 'report'),
+  cli: ['app', 'errors'],
+  index: domainAnd('io', 'grid', 'report', 'app'),
+};
+
+/** Packages the domain may use besides its own folders: validation, time zones, the LP solver, hashing. */
+export const DOMAIN_PACKAGES: readonly string[] = ['zod', 'luxon', 'javascript-lp-solver', 'node:crypto'];
