@@ -6,6 +6,10 @@
 //   - the profit over the year of a `price-taking` plan (schedule on the median, limits at the cap and
 //     floor) and of a `median` plan (schedule on the median, limits at q0.9 / q0.1) made on the forecast,
 //     as a SHARE of the same plan made on the true quantiles (backtest, follow-plan, the demo's battery);
+//   - the same share for price-taking in EXPECTED profit: every accepted MWh valued at the period's true
+//     mean price instead of the realised one (truth-mean.csv). Realised profit in a market with rare
+//     spikes near the cap is a lottery (a plan that happens to charge in a spike hour loses what a year
+//     earns); the expected profit measures the plans, not the draw;
 //   - the seconds the method took.
 // The truth's own row shows what sampling alone does to coverage and the median share over one year.
 // Prints markdown tables (docs/forecast-quality.md holds them).
@@ -16,6 +20,7 @@
 // The input files are written to --out (default bench/.cache/knownMarkets) and read back through the
 // project's readers, as `quantbid` reads them; the forecasts are made by forecastRange, as `quantbid
 // forecast` makes them.
+import { readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { loadDist } from './lib/reference.js';
 import { LEVELS, writeSettings } from './knownMarkets/generate.js';
@@ -56,6 +61,13 @@ for (const folder of folders) {
   const battery = batteryModel(readBatterySpec(scenario.battery));
   const history = readPriceHistory(scenario.history, market);
   const truthFile = readQuantileForecast(scenario.forecast, market);
+  const meanPrice = new Map();
+  for (const line of readFileSync(join(folder, 'truth-mean.csv'), 'utf8').trim().split('\n').slice(1)) {
+    const [start, mean] = line.split(',');
+    const day = start.slice(0, 10);
+    if (!meanPrice.has(day)) meanPrice.set(day, []);
+    meanPrice.get(day).push(Number(mean));
+  }
   const realised = new Map(history.days.map((d) => [d.day, d.pricePerMwh]));
   const calendar = new DayCalendar(market.timeZone, market.periodMinutes);
   const name = folder.split(/[\\/]/).pop();
@@ -67,9 +79,18 @@ for (const folder of folders) {
     const table = scoreForecasts(scored);
     const backtest = runBacktest(
       { market, battery, history, forecast: { days: new Map(kept.map((q) => [q.day, q])), incompleteDays: [] }, from: FROM, to: TO },
-      { policies: POLICIES, keepLedger: false },
+      { policies: POLICIES, keepLedger: true },
     );
     const profit = Object.fromEntries(POLICIES.map((p, i) => [p, backtest.days.reduce((sum, day) => sum + day.runs[i].totals.profit, 0)]));
+    // Price-taking: every order accepted, no imbalance; valued at the true means instead of the draws.
+    const taking = POLICIES.indexOf('price-taking');
+    profit.expected = backtest.days.reduce((sum, day) => {
+      const means = meanPrice.get(day.day);
+      const periods = day.runs[taking].ledger.periods;
+      let surprise = 0;
+      periods.forEach((p, t) => (surprise += (day.clearingPricePerMwh[t] - means[t]) * (p.soldAuctionMwh - p.boughtAuctionMwh)));
+      return sum + day.runs[taking].totals.profit - surprise;
+    }, 0);
     return { days: kept.map((q) => q.day), table, profit };
   };
 
@@ -94,7 +115,7 @@ for (const folder of folders) {
     const set = new Set(days);
     return scoreForecasts(truthDays.filter((q) => set.has(q.day)).map((forecast) => ({ forecast, realised: realised.get(forecast.day) }))).overall.crps;
   };
-  const header = ['method', 'days', 'pinball / truth', 'cov. 80%', 'cov. 90%', 'below q0.5', 'price-taking / truth', 'median / truth', 'time [s]'];
+  const header = ['method', 'days', 'pinball / truth', 'cov. 80%', 'cov. 90%', 'below q0.5', 'price-taking / truth', 'price-taking / truth, expected', 'median / truth', 'time [s]'];
   const lines = [`| ${header.join(' | ')} |`, `|${header.map(() => '---').join('|')}|`];
   for (const row of rows) {
     const o = row.table.overall;
@@ -103,12 +124,12 @@ for (const folder of folders) {
     const ratio = o.crps / (row === rows[0] ? o.crps : truthPinballOn(row.days));
     const share = (p) => row.profit[p] / sameDays.profit[p];
     const label = row.name === DEFAULT_METHOD ? `**${row.name}** (default)` : row.name;
-    lines.push(`| ${[label, row.days.length, fmt(ratio, 3), percent(cov(0.8)), percent(cov(0.9)), fmt(o.belowShare[LEVELS.indexOf(0.5)], 3), percent(share('price-taking')), percent(share('median')), row.seconds === null ? '-' : fmt(row.seconds, 0)].join(' | ')} |`);
-    if (row !== rows[0]) summary.push({ setting: name, method: row.name, ratio, cov80: cov(0.8), cov90: cov(0.9), below: o.belowShare[LEVELS.indexOf(0.5)], priceTaking: share('price-taking'), median: share('median'), chosen: row.chosen });
+    lines.push(`| ${[label, row.days.length, fmt(ratio, 3), percent(cov(0.8)), percent(cov(0.9)), fmt(o.belowShare[LEVELS.indexOf(0.5)], 3), percent(share('price-taking')), percent(share('expected')), percent(share('median')), row.seconds === null ? '-' : fmt(row.seconds, 0)].join(' | ')} |`);
+    if (row !== rows[0]) summary.push({ setting: name, method: row.name, ratio, cov80: cov(0.8), cov90: cov(0.9), below: o.belowShare[LEVELS.indexOf(0.5)], priceTaking: share('price-taking'), expected: share('expected'), median: share('median'), chosen: row.chosen });
   }
   const setting = SETTINGS.find((s) => s.name === name);
   console.log(`\n### ${name}: ${setting.summary}\n`);
-  console.log(`${truth.days.length} days ${FROM} to ${TO}; true pinball ${fmt(truth.table.overall.crps, 3)} ${market.currency}/MWh; profit on the true quantiles: price-taking ${fmt(truth.profit['price-taking'], 0)}, median ${fmt(truth.profit.median, 0)} ${market.currency}\n`);
+  console.log(`${truth.days.length} days ${FROM} to ${TO}; true pinball ${fmt(truth.table.overall.crps, 3)} ${market.currency}/MWh; profit on the true quantiles: price-taking ${fmt(truth.profit['price-taking'], 0)} (expected ${fmt(truth.profit.expected, 0)}), median ${fmt(truth.profit.median, 0)} ${market.currency}\n`);
   console.log(lines.join('\n'));
   const autoRow = rows.find((r) => r.chosen !== null);
   if (autoRow !== undefined) console.log(`\n${autoRow.name} chose: ${Object.entries(autoRow.chosen).sort((a, b) => b[1] - a[1]).map(([m, n]) => `${m} ${n} days`).join(', ')}`);
@@ -116,12 +137,12 @@ for (const folder of folders) {
 
 // Across settings: per method, the worst figure of every goal.
 const methods = [...new Set(summary.map((r) => r.method))];
-const header = ['method', 'worst pinball / truth', 'coverage 80% range', 'coverage 90% range', 'below q0.5 range', 'worst price-taking / truth', 'worst median / truth'];
+const header = ['method', 'worst pinball / truth', 'coverage 80% range', 'coverage 90% range', 'below q0.5 range', 'worst price-taking / truth', 'worst price-taking / truth, expected', 'worst median / truth'];
 const lines = [`| ${header.join(' | ')} |`, `|${header.map(() => '---').join('|')}|`];
 for (const method of methods) {
   const rows = summary.filter((r) => r.method === method);
   const range = (key, scale, d) => `${fmt(scale * Math.min(...rows.map((r) => r[key])), d)} - ${fmt(scale * Math.max(...rows.map((r) => r[key])), d)}`;
-  lines.push(`| ${[method, fmt(Math.max(...rows.map((r) => r.ratio)), 3), range('cov80', 100, 1), range('cov90', 100, 1), range('below', 1, 3), percent(Math.min(...rows.map((r) => r.priceTaking))), percent(Math.min(...rows.map((r) => r.median)))].join(' | ')} |`);
+  lines.push(`| ${[method, fmt(Math.max(...rows.map((r) => r.ratio)), 3), range('cov80', 100, 1), range('cov90', 100, 1), range('below', 1, 3), percent(Math.min(...rows.map((r) => r.priceTaking))), percent(Math.min(...rows.map((r) => r.expected))), percent(Math.min(...rows.map((r) => r.median)))].join(' | ')} |`);
 }
 console.log(`\n### Across the ${folders.length} settings (worst or range over settings)\n`);
 console.log(lines.join('\n'));

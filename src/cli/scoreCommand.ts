@@ -9,6 +9,7 @@ import { printResult } from './printResult.js';
 
 export interface ScoreFlags extends InputFlags {
   readonly against?: string;
+  readonly paths?: string;
   readonly from?: string;
   readonly to?: string;
   readonly out?: string;
@@ -21,6 +22,7 @@ export function scoreCommand(io: CliIo): Command {
   const command = new Command('score')
     .description('score a quantile forecast against the realised prices of a history: pinball, CRPS, coverage, calibration and their tests, per period of the day and overall')
     .option('--against <file>', 'a second quantile forecast (same levels): Diebold-Mariano test of the two on their common days', pathArg)
+    .option('--paths <file>', 'whole-day scenario paths (paths.csv of quantbid forecast --paths): energy and variogram scores', pathArg)
     .option('--from <YYYY-MM-DD>', 'score only days from this one (default: the first forecast day)', dayArg)
     .option('--to <YYYY-MM-DD>', 'score only days up to this one, included (default: the last forecast day)', dayArg)
     .addOption(outOption('folder for score.json (required)'))
@@ -38,11 +40,16 @@ the factor 2 is not included, so it approximates CRPS/2), pinball.<level>, cover
 (e.g. coverage["0.8"] for [q0.1, q0.9]), calibration.<level> (share of prices below the quantile),
 Kupiec and Christoffersen tests of each central interval, all overall and per period of the day
 (byPeriod), and with --against the Diebold-Mariano test (HLN-corrected, h = 1, on the daily crps).
+With --paths, score.json also holds paths.energyScore and paths.variogramScore (order 0.5), the
+means over the days the history has, beside the same scores with each period's values shuffled
+across the paths (the marginals without the dependence between periods).
 
 Examples:
   quantbid score --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 --out runs/vendor-score --report
   quantbid score --scenario scenarios/halvorn/scenario.json --forecast runs/fc/quantiles.csv \\
                  --against scenarios/halvorn/quantiles.csv.gz --out runs/fc-score
+  quantbid score --scenario scenarios/halvorn/scenario.json --forecast runs/fc/quantiles.csv \\
+                 --paths runs/fc/paths.csv --out runs/fc-score
   quantbid score --market market.json --history history.csv --forecast quantiles.csv --out runs/score --json`,
   );
   command.action((flags: ScoreFlags) => {
@@ -50,6 +57,7 @@ Examples:
     const settings = {
       inputs: inputSources(flags),
       ...(flags.against === undefined ? {} : { against: flags.against }),
+      ...(flags.paths === undefined ? {} : { paths: flags.paths }),
       ...(flags.from === undefined ? {} : { from: flags.from }),
       ...(flags.to === undefined ? {} : { to: flags.to }),
       out,

@@ -67,12 +67,12 @@ export interface AutoChoice extends AutoCandidate {
 }
 
 /**
- * The method `quantbid forecast` uses when none is named: of the methods that met every quality
- * target on a year of the demo market (coverage of the 80% and 90% intervals within 3 points, Kupiec
- * not rejected at 5%, CRPS at least 25% below naive-hs), the one with the lowest CRPS
- * (docs/forecast-quality.md, bench/forecastQuality.js).
+ * The method `quantbid forecast` uses when none is named: `auto`, which chooses each day among
+ * options.autoCandidates by their pinball loss on the days just before (docs/forecast-quality.md:
+ * on the known-distribution bench markets and the demo, bench/forecastKnownMarkets.js and
+ * bench/forecastQuality.js).
  */
-export const DEFAULT_METHOD: ForecastMethod = 'arx-hs';
+export const DEFAULT_METHOD: ForecastMethod = 'auto';
 
 /** Levels added to the asked ones for the paths' marginals (their tails). */
 const PATH_TAIL_LEVELS: readonly number[] = Object.freeze([0.001, 0.005, 0.01, 0.02, 0.03, 0.04, 0.96, 0.97, 0.98, 0.99, 0.995, 0.999]);
