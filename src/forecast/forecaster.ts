@@ -74,6 +74,24 @@ export interface AutoChoice extends AutoCandidate {
  */
 export const DEFAULT_METHOD: ForecastMethod = 'auto';
 
+/** A calibration day: its point forecast (made from the days before it), realised prices and drivers. */
+interface CalibrationDay {
+  readonly dayNumber: number;
+  readonly forecast: PointForecast;
+  readonly realised: Float64Array;
+  readonly exogenous: readonly Float64Array[];
+}
+
+/** What the methods of one point model and calibration window share for a delivery day. */
+interface CalibrationState {
+  readonly calibration: readonly CalibrationDay[];
+  readonly scale: ErrorScale;
+  /** The point forecast on the error scale, per slot. */
+  readonly centre: Float64Array;
+  /** errors[d][s] of the calibration days on the error scale. */
+  readonly errors: readonly Float64Array[];
+}
+
 /** Levels added to the asked ones for the paths' marginals (their tails). */
 const PATH_TAIL_LEVELS: readonly number[] = Object.freeze([0.001, 0.005, 0.01, 0.02, 0.03, 0.04, 0.96, 0.97, 0.98, 0.99, 0.995, 0.999]);
 
@@ -207,8 +225,9 @@ export class Forecaster {
   private readonly warmStarts = new QraWarmStarts();
   private readonly driverWarmStarts = new QraWarmStarts();
   private readonly losses = new Map<string, number | null>();
-  /** The last forecast `auto` made, kept so that the next day's validation need not make it again. */
-  private lastChosen: { readonly key: string; readonly forecast: DayForecast } | undefined;
+  /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
+  private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
+  private readonly states = new Map<string, CalibrationState>();
 
   constructor(
     private readonly history: PriceHistory,
@@ -254,20 +273,30 @@ export class Forecaster {
     const common = validation.flatMap((_, v) => (losses.every((l) => l[v] !== null) ? [v] : []));
     const totals = losses.map((l) => common.reduce((sum, v) => sum + (l[v] as number), 0));
     const order = candidates.map((_, i) => i).sort((p, q) => (common.length === 0 ? p - q : (totals[p] as number) - (totals[q] as number) || p - q));
-    let firstError: unknown;
-    for (const i of order) {
-      const candidate = candidates[i] as AutoCandidate;
-      try {
-        const made = this.forecastWith(dayIndex, levels, candidate.method, candidate.calibrationDays);
-        this.lastChosen = { key: `${candidate.method}|${candidate.calibrationDays}|${levelsKey}|${dayIndex}`, forecast: made };
-        const validationLoss = common.length === 0 ? null : (totals[i] as number) / common.length;
-        return { ...made, chosen: { ...candidate, validationDays: common.length, validationLoss } };
-      } catch (err) {
-        if (!(err instanceof InsufficientHistoryError)) throw err;
-        firstError ??= err;
-      }
+    // Every candidate forecasts the delivery day now: the chosen one's forecast is the answer, and all of
+    // them are scored when this day becomes a validation day (its prices are then known).
+    const made = candidates.map((c) => this.candidateForecast(c, dayIndex, levels, levelsKey));
+    const chosen = order.find((i) => !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
+    if (chosen === undefined) throw made[0] as InsufficientHistoryError;
+    const candidate = candidates[chosen] as AutoCandidate;
+    const validationLoss = common.length === 0 ? null : (totals[chosen] as number) / common.length;
+    return { ...(made[chosen] as DayForecast), chosen: { ...candidate, validationDays: common.length, validationLoss } };
+  }
+
+  /** A candidate's forecast of day j (kept until its loss is scored), or the reason it has none. */
+  private candidateForecast(candidate: AutoCandidate, j: number, levels: readonly number[], levelsKey: string): DayForecast | InsufficientHistoryError {
+    const key = `${candidate.method}|${candidate.calibrationDays}|${levelsKey}|${j}`;
+    const kept = this.pending.get(key);
+    if (kept !== undefined) return kept;
+    let made: DayForecast | InsufficientHistoryError;
+    try {
+      made = this.forecastWith(j, levels, candidate.method, candidate.calibrationDays);
+    } catch (err) {
+      if (!(err instanceof InsufficientHistoryError)) throw err;
+      made = err;
     }
-    throw firstError;
+    this.pending.set(key, made);
+    return made;
   }
 
   /** The candidates of `auto` this history can serve (those on residual load need its columns). */
@@ -281,15 +310,14 @@ export class Forecaster {
     const key = `${candidate.method}|${candidate.calibrationDays}|${levelsKey}|${j}`;
     const kept = this.losses.get(key);
     if (kept !== undefined) return kept;
+    const made = this.candidateForecast(candidate, j, levels, levelsKey);
+    this.pending.delete(key);
     let loss: number | null = null;
-    try {
-      const made = this.lastChosen?.key === key ? this.lastChosen.forecast : this.forecastWith(j, levels, candidate.method, candidate.calibrationDays);
+    if (!(made instanceof InsufficientHistoryError)) {
       const realised = (this.history.days[j] as PriceHistory['days'][number]).pricePerMwh;
       let sum = 0;
       made.quantiles.prices.forEach((row, t) => (sum += crpsFromQuantiles(realised[t] as number, row, levels)));
       loss = sum / realised.length;
-    } catch (err) {
-      if (!(err instanceof InsufficientHistoryError)) throw err;
     }
     this.losses.set(key, loss);
     return loss;
@@ -303,17 +331,10 @@ export class Forecaster {
     if (point === null) {
       throw new InsufficientHistoryError(view.target.day, `the ${model} point forecast`, this.historyNeeded(model), view.pastCount);
     }
-    const calibration = this.calibrationSet(model, view, calibrationDays);
+    const { calibration, scale, centre, errors } = this.calibrationState(model, view, point, calibrationDays);
     if (calibration.length < this.options.minCalibrationDays) {
       throw new InsufficientHistoryError(view.target.day, `${method} calibration`, this.options.minCalibrationDays, calibration.length);
     }
-    const scale = this.errorScaleOf(model, calibration);
-    const centre = point.mean.map(scale.to);
-    const errors = calibration.map((c) => {
-      const e = new Float64Array(c.realised.length);
-      for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - scale.to(c.forecast.mean[s] as number);
-      return e;
-    });
     const notes: string[] = [];
     /** The method's quantiles at levels `at`, per slot, on the price scale, before rearrangement. */
     const quantileStep = (at: readonly number[]): number[][] => {
@@ -387,6 +408,28 @@ export class Forecaster {
     return scenarioPaths({ quantileDay, template: errors, n: this.options.scenarioPaths, seed: daySeed(this.options.pathSeed, view.target.dayNumber) });
   }
 
+  /**
+   * The calibration days, error scale, centre and errors of a delivery day for a point model and window,
+   * kept for the methods that share them (e.g. driver-hs and driver-fhs under auto) until another day asks.
+   */
+  private calibrationState(model: PointModelName, view: HistoryView, point: PointForecast, calibrationDays: number): CalibrationState {
+    const key = `${model}|${calibrationDays}|${view.target.dayNumber}`;
+    const kept = this.states.get(key);
+    if (kept !== undefined) return kept;
+    const calibration = this.calibrationSet(model, view, calibrationDays);
+    const scale = calibration.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, calibration);
+    const centre = point.mean.map(scale.to);
+    const errors = calibration.map((c) => {
+      const e = new Float64Array(c.realised.length);
+      for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - scale.to(c.forecast.mean[s] as number);
+      return e;
+    });
+    const state = { calibration, scale, centre, errors };
+    if (this.states.size >= 8) this.states.clear();
+    this.states.set(key, state);
+    return state;
+  }
+
   /** The point forecast of past or delivery day `dayIndex`, made from the days before it, memoised. */
   private pointFor(model: PointModelName, dayIndex: number, view?: HistoryView): PointForecast | null {
     let cache = this.points.get(model);
@@ -411,7 +454,7 @@ export class Forecaster {
   /** The calibration days before the delivery day that could be forecast, oldest first. */
   private calibrationSet(model: PointModelName, view: HistoryView, calibrationDays: number) {
     const first = view.target.dayNumber - calibrationDays;
-    const out: { dayNumber: number; forecast: PointForecast; realised: Float64Array; exogenous: readonly Float64Array[] }[] = [];
+    const out: CalibrationDay[] = [];
     for (let i = view.indexAtOrBefore(first - 1) + 1; i < view.pastCount; i++) {
       const forecast = this.pointFor(model, i);
       if (forecast === null) continue;

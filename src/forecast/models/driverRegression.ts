@@ -179,10 +179,15 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
         longest = choleskyLeastSquares(gram);
       });
       pseudoObservations(slotValues, a, trainingDays, longest as LinearModel, residuals);
-      builder.forEachGram(slotValues, a, (gram, w) => {
-        for (const j of thinHinges(slotValues, a, J, gram.n)) gram.scales[j] = 0;
-        (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(predictLinear(choleskyLeastSquares(gram), target));
-      });
+      builder.forEachGram(
+        slotValues,
+        a,
+        (gram, w) => {
+          for (const j of thinHinges(slotValues, a, J, gram.n)) gram.scales[j] = 0;
+          (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(predictLinear(choleskyLeastSquares(gram), target));
+        },
+        true,
+      );
     });
   }
   const members = sizes.map((size) => forecasts.get(size) as Float64Array);

@@ -70,28 +70,57 @@ export class SlotDayGramBuilder {
     }
   }
 
+  /** Per count, the slot's sums of the last full pass (for a pass with a new response only). */
+  private snapshots: { sumA: Float64Array; prodAA: Float64Array; prodAB: Float64Array; buckets: Float64Array }[] = [];
+  private lastShift: Float64Array = new Float64Array(0);
+
   /**
    * The Grams of one slot, one per count, handed to `use` in the order of the counts. The Gram passed is
    * overwritten by the next one: copy what must be kept.
    *
+   * With `newResponseOnly`, the slot columns must be those of the previous call and only the response
+   * (the last value of each row) new: the sums of the slot columns are then taken from that call and
+   * only the response's are formed, O(a) per row instead of O(a^2) (a refit on modified responses).
+   *
    * @param slotValues n x a row-major: per training row the a - 1 slot columns and, last, the response
    */
-  forEachGram(slotValues: Float64Array, a: number, use: (gram: StandardisedGram, index: number) => void): void {
+  forEachGram(slotValues: Float64Array, a: number, use: (gram: StandardisedGram, index: number) => void, newResponseOnly = false): void {
     const { n, counts, day } = this;
     const { width: B, dummies: D } = day;
     const p = a - 1;
     const k = p + B + D;
-    const shiftA = slotValues.slice(0, a);
-    const sumA = new Float64Array(a);
-    const prodAA = new Float64Array(a * a);
-    const prodAB = new Float64Array(a * B);
-    const buckets = new Float64Array((D + 1) * a);
+    const reuse = newResponseOnly && this.lastShift.length === a && this.snapshots.length === counts.length;
+    const shiftA = reuse ? Float64Array.from(this.lastShift) : slotValues.slice(0, a);
+    shiftA[p] = slotValues[p] as number;
+    let sumA = new Float64Array(a);
+    let prodAA = new Float64Array(a * a);
+    let prodAB = new Float64Array(a * B);
+    let buckets = new Float64Array((D + 1) * a);
+    const response = { sum: 0, withSlot: new Float64Array(a), withDay: new Float64Array(B), buckets: new Float64Array(D + 1) };
     const ra = new Float64Array(a);
     const rb = new Float64Array(B);
+    if (!reuse) {
+      this.snapshots = [];
+      this.lastShift = shiftA;
+    }
     let from = 0;
     counts.forEach((count, w) => {
       const to = Math.min(count, n);
-      accumulate(slotValues, a, from, to, shiftA, day, this.shiftDay, { sumA, prodAA, prodAB, buckets, ra, rb });
+      if (reuse) {
+        accumulateResponse(slotValues, a, from, to, shiftA, day, this.shiftDay, response, ra, rb);
+        const snapshot = this.snapshots[w] as (typeof this.snapshots)[number];
+        sumA = Float64Array.from(snapshot.sumA);
+        prodAA = Float64Array.from(snapshot.prodAA);
+        prodAB = Float64Array.from(snapshot.prodAB);
+        buckets = Float64Array.from(snapshot.buckets);
+        sumA[p] = response.sum;
+        for (let q = 0; q <= p; q++) prodAA[q * a + p] = response.withSlot[q] as number;
+        for (let j = 0; j < B; j++) prodAB[p * B + j] = response.withDay[j] as number;
+        for (let c = 0; c <= D; c++) buckets[c * a + p] = response.buckets[c] as number;
+      } else {
+        accumulate(slotValues, a, from, to, shiftA, day, this.shiftDay, { sumA, prodAA, prodAB, buckets, ra, rb });
+        this.snapshots.push({ sumA: Float64Array.from(sumA), prodAA: Float64Array.from(prodAA), prodAB: Float64Array.from(prodAB), buckets: Float64Array.from(buckets) });
+      }
       from = to;
       const sharedSums = this.sharedSums[w] as Float64Array;
       const sharedProducts = this.sharedProducts[w] as Float64Array;
@@ -158,5 +187,30 @@ function accumulate(slotValues: Float64Array, a: number, from: number, to: numbe
       const row = q * a;
       for (let r = q; r < a; r++) prodAA[row + r] = (prodAA[row + r] as number) + rq * (ra[r] as number);
     }
+  }
+}
+
+/** Running shifted sums of the response with itself, the slot columns, the day-level columns and the categories. */
+interface ResponseSums {
+  sum: number;
+  readonly withSlot: Float64Array;
+  readonly withDay: Float64Array;
+  readonly buckets: Float64Array;
+}
+
+/** Adds rows from..to-1 of one slot to the response's shifted sums only (the slot columns' sums are kept). */
+function accumulateResponse(slotValues: Float64Array, a: number, from: number, to: number, shiftA: Float64Array, day: DayLevelColumns, shiftDay: Float64Array, sums: ResponseSums, ra: Float64Array, rb: Float64Array): void {
+  const B = day.width;
+  const p = a - 1;
+  for (let i = from; i < to; i++) {
+    const base = i * a;
+    for (let q = 0; q < a; q++) ra[q] = (slotValues[base + q] as number) - (shiftA[q] as number);
+    for (let j = 0; j < B; j++) rb[j] = (day.continuous[i * B + j] as number) - (shiftDay[j] as number);
+    const ry = ra[p] as number;
+    sums.sum += ry;
+    const category = (day.categories[i] as number) - 1;
+    sums.buckets[category] = (sums.buckets[category] as number) + ry;
+    for (let q = 0; q < a; q++) sums.withSlot[q] = (sums.withSlot[q] as number) + ry * (ra[q] as number);
+    for (let j = 0; j < B; j++) sums.withDay[j] = (sums.withDay[j] as number) + ry * (rb[j] as number);
   }
 }
