@@ -342,6 +342,21 @@ const HUBER_C = 1.345;
 const MAD_TO_SIGMA = 1.482602218505602;
 
 /**
+ * Huber's clipping point c sigma of residuals r_1..r_n: c = 1.345, sigma = MAD / Phi^-1(3/4) with
+ * MAD = med |r_i - med r| (the median is the order statistic n >> 1 counted from 0: the middle one for odd
+ * n, the upper of the two middle ones for even n).
+ */
+export function huberClipLimit(residuals: Float64Array): number {
+  const n = residuals.length;
+  const work = Float64Array.from(residuals);
+  const n2 = n >> 1;
+  const med = selectInPlace(work, n2);
+  for (let r = 0; r < n; r++) work[r] = Math.abs((residuals[r] as number) - med);
+  const sigma = selectInPlace(work, n2) * MAD_TO_SIGMA;
+  return HUBER_C * sigma;
+}
+
+/**
  * Replaces the response column of `slotValues` (rows of slot columns, response last) by Huber's
  * pseudo-observations of the fit `model`: y* = y_hat + psi(y - y_hat), psi(r) = max(-c sigma, min(c sigma, r)),
  * sigma = MAD of the residuals / Phi^-1(3/4). Least squares on them is Bickel's one-step Huber estimate.
@@ -359,12 +374,7 @@ function pseudoObservations(slotValues: Float64Array, a: number, trainingDays: r
     if (d.weekday <= 6) f += b[p + 1 + d.weekday] as number;
     residuals[r] = (slotValues[base + p] as number) - f;
   }
-  const work = Float64Array.from(residuals);
-  const n2 = n >> 1;
-  const med = selectInPlace(work, n2);
-  for (let r = 0; r < n; r++) work[r] = Math.abs((residuals[r] as number) - med);
-  const sigma = selectInPlace(work, n2) * MAD_TO_SIGMA;
-  const limit = HUBER_C * sigma;
+  const limit = huberClipLimit(residuals.subarray(0, n));
   for (let r = 0; r < n; r++) {
     const e = residuals[r] as number;
     if (e > limit) slotValues[r * a + p] = (slotValues[r * a + p] as number) - (e - limit);
