@@ -39,6 +39,9 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
       profitPerMwYear: 'profit / (days / 365.25) / dischargeMw',
       profitPerMwhYear: 'profit / (days / 365.25) / energyMwh',
       equivalentFullCycles: 'discharged MWh at the grid / usable MWh (socMax - socMin)',
+      imbalanceCash: 'gross imbalance cash: imbalance sell price x MWh sold at it - imbalance buy price x MWh bought at it (+ received, - paid)',
+      imbalanceCostVsClearing: 'cost of imbalance against the clearing price: sum of (imbalance buy price - clearing) x MWh bought at the imbalance price - (imbalance sell price - clearing) x MWh sold at it (+ cost, - gain)',
+      deliberateImbalance: 'energy of orders the store could not deliver (a sell beyond its content) or absorb (a buy beyond its room or power), bought or sold back at the imbalance price; under follow-accepted, accepted orders the battery cannot honour; part of the imbalance energies and imbalanceCash',
       worstDay5Percent: 'empirical 5% quantile of daily profit, linear interpolation (Hyndman-Fan definition 7)',
       maxDrawdown: 'largest fall of cumulative profit from an earlier peak, starting from 0',
       acceptanceRates: 'accepted orders / orders, counted per order',
@@ -64,9 +67,9 @@ export function backtestSummaryText(result: BacktestResult, metrics: BacktestMet
   const money = (x: number | null) => (x === null ? '-' : formatNumber(x, 0));
   const share = (x: number | null) => (x === null ? '-' : `${formatNumber(100 * x, 1)}%`);
   const rows = Object.entries(metrics.policies).map(([name, m]) => [
-    name, money(m.profit), money(m.meanDailyProfit), share(m.captureRatio), share(m.buyAcceptanceRate), share(m.sellAcceptanceRate), formatNumber(m.equivalentFullCycles, 1), money(m.imbalanceCash),
+    name, money(m.profit), money(m.meanDailyProfit), share(m.captureRatio), share(m.buyAcceptanceRate), share(m.sellAcceptanceRate), formatNumber(m.equivalentFullCycles, 1), money(m.imbalanceCash), money(m.imbalanceCostVsClearing),
   ]);
-  const header = ['policy', `profit ${market.currency}`, 'per day', 'capture', 'buys acc.', 'sells acc.', 'cycles', 'imbalance cash'];
+  const header = ['policy', `profit ${market.currency}`, 'per day', 'capture', 'buys acc.', 'sells acc.', 'cycles', 'imbalance gross', 'imb. cost vs clearing'];
   const widths = header.map((h, k) => Math.max(h.length, ...rows.map((r) => (r[k] as string).length)));
   const line = (cells: readonly string[]) => `  ${cells.map((c, k) => (k === 0 ? c.padEnd(widths[k] as number) : c.padStart(widths[k] as number))).join('  ')}`;
   const lines = [
@@ -74,11 +77,24 @@ export function backtestSummaryText(result: BacktestResult, metrics: BacktestMet
     `  imbalance price: ${imbalanceDescription(result.imbalanceSource, market.currency)}`,
     line(header),
     ...rows.map(line),
+    '  imbalance gross: cash at the imbalance price (+ received); imb. cost vs clearing: what that energy cost against the clearing price (+ cost)',
+    ...deliberateLines(result, metrics),
     `  ${edgeLine(metrics)}`,
     ...missingLine(result),
     `  wrote ${outDir}/${written.join(', ')}`,
   ];
   return `${lines.join('\n')}\n`;
+}
+
+/** The flag on deliberate imbalance: orders the battery could not honour, settled at the imbalance price. */
+function deliberateLines(result: BacktestResult, metrics: BacktestMetrics): string[] {
+  const flagged = Object.entries(metrics.policies).filter(([, m]) => m.deliberateImbalancePeriods > 0);
+  if (flagged.length === 0) return [];
+  const what = result.unaccepted === 'follow-accepted' ? 'accepted orders the battery could not deliver or absorb' : 'orders the battery could not deliver or absorb';
+  return [
+    `  warning: deliberate imbalance: ${what}, settled at the imbalance price; most markets forbid planning on it (SAFETY.md section 3):`,
+    ...flagged.map(([name, m]) => `    ${name}: ${formatNumber(m.deliberateImbalanceMwh, 1)} MWh in ${m.deliberateImbalancePeriods} periods, cash ${formatNumber(m.deliberateImbalanceCash, 0)}`),
+  ];
 }
 
 function missingLine(result: BacktestResult): string[] {
