@@ -3,7 +3,9 @@ import { backtestSummary, backtestSummaryText } from '../../../src/app/backtest/
 import { backtestMetrics } from '../../../src/backtest/backtestMetrics.js';
 import { runBacktest } from '../../../src/backtest/runBacktest.js';
 import { jsonText } from '../../../src/io/planOutputs.js';
-import { battery, input, market } from '../../backtest/handWorkedWeek.js';
+import { battery, history, input, market } from '../../backtest/handWorkedWeek.js';
+import { backtestReport } from '../../../src/report/backtestReport.js';
+import type { HistoryDay } from '../../../src/types.js';
 
 // summary.json of the hand-worked week (test/backtest/handWorkedWeek.ts): 3 covered days of 4 periods.
 
@@ -25,5 +27,43 @@ describe('backtest summary', () => {
     // Worked in handWorkedWeek.ts: the quantile policy's profit over the three covered days.
     expect(summary.policies.quantile?.profit).toBeCloseTo(856, 6);
     expect(backtestSummaryText(result, metrics, market, 'out')).toMatch(/3 days covered, 2 skipped[\s\S]*quantile +856 /);
+  });
+});
+
+describe('deliberate imbalance is flagged in summary.json, on the console and in the report', () => {
+  // Day A of handWorkedWeek.ts with the first price raised to 25: the quantile plan's buy of 4 MW at limit
+  // 22 is not accepted (25 > 22), its sell of 4 MW at limit 18 is (95 >= 18). Under follow-accepted the store
+  // stays empty, so the 4 MWh sold cannot be delivered and are bought back at the imbalance price 96:
+  // deliberate imbalance 4 MWh in 1 period, cash -384; the auction pays +380, profit -4; against the
+  // clearing price the 4 MWh cost (96 - 95) x 4 = 4. Under follow-plan the buy is closed at the imbalance
+  // price 21 and the sell is delivered: no deliberate imbalance.
+  const dayA = history.days[0] as HistoryDay;
+  const raised: HistoryDay = { ...dayA, pricePerMwh: [25, 45, 95, 50] };
+  const oneDay = { ...input, history: { ...history, days: [raised] }, from: '2026-05-04', to: '2026-05-04' };
+  const run = (unaccepted: 'follow-plan' | 'follow-accepted') => {
+    const r = runBacktest(oneDay, { policies: ['quantile'], unaccepted });
+    return { result: r, metrics: backtestMetrics(r, battery) };
+  };
+
+  it('follow-accepted: counted and flagged', () => {
+    const { result: r, metrics: m } = run('follow-accepted');
+    const summary = backtestSummary(r, m, { market, battery, inputs: {} });
+    expect(summary.policies.quantile?.deliberateImbalanceMwh).toBeCloseTo(4, 12);
+    expect(summary.policies.quantile?.deliberateImbalancePeriods).toBe(1);
+    expect(summary.policies.quantile?.deliberateImbalanceCash).toBeCloseTo(-384, 9);
+    expect(summary.policies.quantile?.imbalanceCostVsClearing).toBeCloseTo(4, 9);
+    expect(summary.policies.quantile?.profit).toBeCloseTo(-4, 9);
+    const text = backtestSummaryText(r, m, market, 'out');
+    expect(text).toContain('warning: deliberate imbalance: accepted orders the battery could not deliver or absorb');
+    expect(text).toContain('    quantile: 4 MWh in 1 periods, cash -384');
+    const page = backtestReport({ result: r, metrics: m, market, battery });
+    expect(page).toMatch(/deliberate imbalance<\/dt>\s*<dd>quantile 4 MWh in 1 periods/);
+  });
+
+  it('follow-plan: none, and no flag', () => {
+    const { result: r, metrics: m } = run('follow-plan');
+    expect(m.policies.quantile?.deliberateImbalanceMwh).toBe(0);
+    expect(backtestSummaryText(r, m, market, 'out')).not.toContain('deliberate');
+    expect(backtestReport({ result: r, metrics: m, market, battery })).not.toContain('deliberate imbalance</dt>');
   });
 });
