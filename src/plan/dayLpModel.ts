@@ -10,7 +10,7 @@ export type PeriodMode = 'charge-only' | 'discharge-only';
  * - b{t}: s_t - s_{t-1} - eta_c dt c_t + (dt / eta_d) d_t = 0   (s_0 moved to the right-hand side)
  * - s_t within [socMin, socMax]; s_T >= max(socMin, socEndMin)
  * - c_t <= chargeMw, d_t <= dischargeMw (0 where a mode forbids the flow)
- * - cycle cap: sum_t dt d_t <= maxDischargeMwhPerDay
+ * - cycle cap: sum_t dt d_t / eta_d <= maxFromStoreMwhPerDay (energy taken out of the store)
  * Objective row `value`: sum_t dt (sell_t - deg) d_t - dt buy_t c_t + terminal s_T.
  */
 export function dayLpModel(problem: DayProblem, modes: ReadonlyMap<number, PeriodMode> = new Map()): LpModel {
@@ -19,8 +19,8 @@ export function dayLpModel(problem: DayProblem, modes: ReadonlyMap<number, Perio
   const constraints: Record<string, { max?: number; min?: number; equal?: number }> = {};
   const variables: Record<string, Record<string, number>> = {};
   const endFloor = Math.max(battery.socMinMwh, problem.socEndMinMwh);
-  const hasCap = battery.maxDischargeMwhPerDay !== undefined;
-  if (hasCap) constraints.cycles = { max: battery.maxDischargeMwhPerDay as number };
+  const hasCap = battery.maxFromStoreMwhPerDay !== undefined;
+  if (hasCap) constraints.cycles = { max: battery.maxFromStoreMwhPerDay as number };
   for (let t = 0; t < periods; t++) {
     const mode = modes.get(t);
     constraints[`b${t}`] = { equal: t === 0 ? problem.socStartMwh : 0 };
@@ -34,7 +34,7 @@ export function dayLpModel(problem: DayProblem, modes: ReadonlyMap<number, Perio
       [`b${t}`]: dt / battery.dischargeEfficiency,
       [`dmax${t}`]: 1,
     };
-    if (hasCap) discharge.cycles = dt;
+    if (hasCap) discharge.cycles = dt / battery.dischargeEfficiency;
     variables[`d${t}`] = discharge;
     const soc: Record<string, number> = { [`b${t}`]: 1, [`smax${t}`]: 1, [`smin${t}`]: 1 };
     if (t + 1 < periods) soc[`b${t + 1}`] = -1;

@@ -232,9 +232,10 @@ function policyTables(input: BacktestReportInput): Markup[] {
         { header: 'capture ratio', unit: '%', decimals: 1 },
         { header: '5 % worst day', unit: c, decimals: 0 },
         { header: 'max drawdown', unit: c, decimals: 0 },
-        { header: 'full cycles', unit: '-', decimals: 1 },
+        { header: 'full cycles, total', unit: '-', decimals: 1 },
+        { header: 'full cycles per day', unit: '1/day', decimals: 2 },
       ],
-      rows: rows.map(([p, m]) => [p, m.profit, m.meanDailyProfit, pct(m.captureRatio), m.worstDay5Percent, m.maxDrawdown, m.equivalentFullCycles]),
+      rows: rows.map(([p, m]) => [p, m.profit, m.meanDailyProfit, pct(m.captureRatio), m.worstDay5Percent, m.maxDrawdown, m.cyclesTotal, m.cyclesPerDay]),
     }),
     htmlTable({
       caption: 'Orders and the imbalance price per policy',

@@ -37,7 +37,7 @@ export interface SizeBacktestTotals {
   readonly tradingCash: number;
   /** Energy discharged at the grid [MWh]. */
   readonly dischargedMwh: number;
-  /** Equivalent full cycles of the usable window [-]. */
+  /** Equivalent full cycles: MWh taken out of the store / usable window (equivalentFullCycles.ts) [-]. */
   readonly equivalentFullCycles: number;
 }
 

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { equivalentFullCycles } from '../../src/battery/equivalentFullCycles.js';
 import { batteryModel } from '../../src/battery/batterySpec.js';
 import { InputError } from '../../src/errors/inputError.js';
 import { parseJsonSpec } from '../../src/io/readSpecs.js';
@@ -30,7 +31,16 @@ describe('battery spec', () => {
 
   it('derives the cycle cap from the usable window: 2 cycles x (0.95 - 0.05) x 10 MWh = 18 MWh', () => {
     const spec = battery('{"energyMwh": 10, "chargeMw": 5, "dischargeMw": 5, "roundTripEfficiency": 0.9, "socMinFraction": 0.05, "socMaxFraction": 0.95, "maxCyclesPerDay": 2}');
-    expect(batteryModel(spec).maxDischargeMwhPerDay).toBeCloseTo(18, 12);
+    expect(batteryModel(spec).maxFromStoreMwhPerDay).toBeCloseTo(18, 12);
+  });
+
+  it('one cycle definition: a full swing of the window is one equivalent full cycle, the unit of the cap', () => {
+    // Round trip 0.9, so eta_d = sqrt(0.9) = 0.9486833; usable 9 MWh. Two full swings take 18 MWh out of
+    // the store and deliver 18 x 0.9486833 = 17.076299 MWh at the grid: 2 cycles, exactly the cap of 2 per
+    // day (18 MWh out of the store). Counting the grid-side energy instead gave 17.076299 / 9 = 1.897.
+    const model = batteryModel(battery('{"energyMwh": 10, "chargeMw": 5, "dischargeMw": 5, "roundTripEfficiency": 0.9, "socMinFraction": 0.05, "socMaxFraction": 0.95, "maxCyclesPerDay": 2}'));
+    expect(equivalentFullCycles(17.076299, model)).toBeCloseTo(2, 6);
+    expect(equivalentFullCycles(2 * 9 * model.dischargeEfficiency, model) * 9).toBeCloseTo(model.maxFromStoreMwhPerDay as number, 9);
   });
 
   it('lists every physical problem with its line and field, and says what to do', () => {

@@ -20,7 +20,7 @@ const battery: BatteryModel = Object.freeze({
   socMaxMwh: 8,
   socInitialMwh: 4,
   socFinalMinMwh: undefined,
-  maxDischargeMwhPerDay: undefined,
+  maxFromStoreMwhPerDay: undefined,
   degradationCostPerMwh: 0,
 });
 

@@ -187,7 +187,7 @@ describe('settleDay laws', () => {
 describe('settleDay conventions', () => {
   const battery: BatteryModel = Object.freeze({
     energyMwh: 1, chargeMw: 1, dischargeMw: 1, chargeEfficiency: 1, dischargeEfficiency: 1, socMinMwh: 0, socMaxMwh: 1,
-    socInitialMwh: 0, socFinalMinMwh: undefined, maxDischargeMwhPerDay: undefined, degradationCostPerMwh: 0,
+    socInitialMwh: 0, socFinalMinMwh: undefined, maxFromStoreMwhPerDay: undefined, degradationCostPerMwh: 0,
   });
   const base: SettleDayInput = Object.freeze({
     periodHours: 1, battery, socStartMwh: 0, orders: [null], clearingPricePerMwh: [50], imbalance: { buyPerMwh: [60], sellPerMwh: [40] }, unaccepted: 'follow-plan',

@@ -21,7 +21,7 @@ const battery: BatteryModel = Object.freeze({
   socMaxMwh: 9,
   socInitialMwh: 4,
   socFinalMinMwh: undefined,
-  maxDischargeMwhPerDay: undefined,
+  maxFromStoreMwhPerDay: undefined,
   degradationCostPerMwh: 2,
 });
 const PENALTY = 10;

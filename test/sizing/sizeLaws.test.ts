@@ -199,7 +199,7 @@ describe('scaledBatterySpec', () => {
     expect(scaledBatterySpec(spec, { energyMwh: 30, powerMw: 12 })).toEqual({ ...spec, energyMwh: 30, chargeMw: 12, dischargeMw: 12 });
     const model = batteryModel(scaledBatterySpec(spec, { energyMwh: 30, powerMw: 12 }));
     // The cycle cap is per usable MWh: 2 x (0.95 - 0.05) x 30 MWh.
-    expect(model.maxDischargeMwhPerDay).toBeCloseTo(54, 12);
+    expect(model.maxFromStoreMwhPerDay).toBeCloseTo(54, 12);
   });
 
   it('replaces split efficiencies by a given round trip, split as its square root', () => {

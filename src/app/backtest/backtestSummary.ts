@@ -38,7 +38,8 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
       cash: '+ received, - paid',
       profitPerMwYear: 'profit / (days / 365.25) / dischargeMw',
       profitPerMwhYear: 'profit / (days / 365.25) / energyMwh',
-      equivalentFullCycles: 'discharged MWh at the grid / usable MWh (socMax - socMin)',
+      cyclesTotal: 'equivalent full cycles over the covered days: MWh taken out of the store (discharged MWh at the grid / discharge efficiency) / usable MWh (socMax - socMin); a full swing of the window is one cycle, the count maxCyclesPerDay caps per day',
+      cyclesPerDay: 'cyclesTotal / days',
       imbalanceCash: 'gross imbalance cash: imbalance sell price x MWh sold at it - imbalance buy price x MWh bought at it (+ received, - paid)',
       imbalanceCostVsClearing: 'cost of imbalance against the clearing price: sum of (imbalance buy price - clearing) x MWh bought at the imbalance price - (imbalance sell price - clearing) x MWh sold at it (+ cost, - gain)',
       deliberateImbalance: 'energy of orders the store could not deliver (a sell beyond its content) or absorb (a buy beyond its room or power), bought or sold back at the imbalance price; under follow-accepted, accepted orders the battery cannot honour; part of the imbalance energies and imbalanceCash',
@@ -67,9 +68,9 @@ export function backtestSummaryText(result: BacktestResult, metrics: BacktestMet
   const money = (x: number | null) => (x === null ? '-' : formatNumber(x, 0));
   const share = (x: number | null) => (x === null ? '-' : `${formatNumber(100 * x, 1)}%`);
   const rows = Object.entries(metrics.policies).map(([name, m]) => [
-    name, money(m.profit), money(m.meanDailyProfit), share(m.captureRatio), share(m.buyAcceptanceRate), share(m.sellAcceptanceRate), formatNumber(m.equivalentFullCycles, 1), money(m.imbalanceCash), money(m.imbalanceCostVsClearing),
+    name, money(m.profit), money(m.meanDailyProfit), share(m.captureRatio), share(m.buyAcceptanceRate), share(m.sellAcceptanceRate), m.cyclesPerDay === null ? '-' : formatNumber(m.cyclesPerDay, 2), money(m.imbalanceCash), money(m.imbalanceCostVsClearing),
   ]);
-  const header = ['policy', `profit ${market.currency}`, 'per day', 'capture', 'buys acc.', 'sells acc.', 'cycles', 'imbalance gross', 'imb. cost vs clearing'];
+  const header = ['policy', `profit ${market.currency}`, 'per day', 'capture', 'buys acc.', 'sells acc.', 'cycles/day', 'imbalance gross', 'imb. cost vs clearing'];
   const widths = header.map((h, k) => Math.max(h.length, ...rows.map((r) => (r[k] as string).length)));
   const line = (cells: readonly string[]) => `  ${cells.map((c, k) => (k === 0 ? c.padEnd(widths[k] as number) : c.padStart(widths[k] as number))).join('  ')}`;
   const lines = [

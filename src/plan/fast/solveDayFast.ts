@@ -100,7 +100,7 @@ export function solveDayFast(problem: DayProblem, options: Partial<FastSolverOpt
   }
   if (outcome.status === 'infeasible') {
     if (outcome.cause === SWEEP_START_UNREACHABLE) return { status: 'infeasible', reason: startReason(problem) };
-    if (outcome.cause === CAP_UNREACHABLE) return { status: 'infeasible', reason: capReason(problem, ctx.below.discharged * b.dischargeEfficiency) };
+    if (outcome.cause === CAP_UNREACHABLE) return { status: 'infeasible', reason: capReason(problem, ctx.below.discharged) };
     return { status: 'infeasible', reason: endReason(problem, day) };
   }
   const { schedule, objective } = toSchedule(problem, day, best);
@@ -191,7 +191,7 @@ function endReason(problem: DayProblem, day: StoredDay): string {
 }
 
 function capReason(problem: DayProblem, neededMwh: number): string {
-  return `the cycle cap of ${fmt(problem.battery.maxDischargeMwhPerDay ?? Infinity)} MWh discharged per day is below the ${fmt(neededMwh)} MWh the day must discharge to stay inside the window; raise the cap`;
+  return `the cycle cap of ${fmt(problem.battery.maxFromStoreMwhPerDay ?? Infinity)} MWh taken out of the store per day is below the ${fmt(neededMwh)} MWh the day must take out to stay inside the window; raise the cap`;
 }
 
 function fmt(x: number): string {
