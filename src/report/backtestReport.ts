@@ -1,6 +1,7 @@
 import type { BacktestMetrics } from '../backtest/backtestMetrics.js';
 import type { PolicyMetrics } from '../backtest/policyMetrics.js';
 import type { BacktestResult, PolicyDay } from '../backtest/runBacktest.js';
+import { extrapolationWarning, yearCoverage } from '../economics/yearCoverage.js';
 import { imbalanceDescription } from './imbalanceDescription.js';
 import type { BatteryModel, MarketSpec } from '../types.js';
 import { barChart } from './barChart.js';
@@ -84,7 +85,14 @@ function summaryFacts(input: BacktestReportInput): [string, string][] {
     ['profit', policies.join('; ')],
     ['quantile against point', edgeText(metrics, c)],
     ...deliberateFact(metrics, c),
+    ...yearlyFact(result),
   ];
+}
+
+/** The warning on the yearly figures of summary.json when they are extrapolated (yearCoverage.ts). */
+function yearlyFact(result: BacktestResult): [string, string][] {
+  const warning = extrapolationWarning(yearCoverage(result.days.map((day) => day.day)), 'the yearly figures of summary.json (profitPerMwYear, profitPerMwhYear)');
+  return warning === null ? [] : [['yearly figures', `Warning: ${warning}.`]];
 }
 
 /** The flag on deliberate imbalance (orders the battery could not honour), when there is any. */

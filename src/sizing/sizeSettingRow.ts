@@ -62,13 +62,14 @@ export type SizeGridSetting = {
  *   `throughput_mwh_per_year` (MWh discharged at the grid per year);
  * - `capex`, `annual_fixed_om`, `replacements` (of the cells over the life);
  * - `simple_payback_years`, `discounted_payback_years` (`never` when not within the life);
- * - `buy_acceptance_rate`, `sell_acceptance_rate`, `days_without_plan`.
+ * - `buy_acceptance_rate`, `sell_acceptance_rate`, `days_without_plan`;
+ * - `residual_value`: the last replacement set's value at the end of life, credited in the last year.
  */
 export const SIZE_COLUMNS = Object.freeze([
   'alpha', 'profit', 'profit_per_year', 'npv', 'irr',
   'days', 'capture_ratio', 'profit_per_mwh', 'profit_per_mw', 'revenue_per_mwh_year', 'revenue_per_mw_year', 'spread_per_mwh_discharged',
   'cycles_per_year', 'throughput_mwh_per_year', 'capex', 'annual_fixed_om', 'replacements', 'simple_payback_years', 'discounted_payback_years',
-  'buy_acceptance_rate', 'sell_acceptance_rate', 'days_without_plan',
+  'buy_acceptance_rate', 'sell_acceptance_rate', 'days_without_plan', 'residual_value',
 ] as const);
 
 /** One row of size.csv after the axis columns, in SIZE_COLUMNS order. */
@@ -126,6 +127,7 @@ export function sizeSettingRow(study: SizeStudy, setting: SizeSetting, memo: Run
     buy_acceptance_rate: m.buyAcceptanceRate,
     sell_acceptance_rate: m.sellAcceptanceRate,
     days_without_plan: m.daysWithoutPlan,
+    residual_value: e.residualValue,
   };
   return Object.fromEntries(SIZE_COLUMNS.map((column) => [column, row[column]])) as SizeRow;
 }

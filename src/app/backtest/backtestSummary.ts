@@ -1,5 +1,6 @@
 import type { BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import type { BacktestResult } from '../../backtest/runBacktest.js';
+import { extrapolationWarning, yearCoverage } from '../../economics/yearCoverage.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import { imbalanceDescription } from '../../report/imbalanceDescription.js';
 import type { BatteryModel, MarketSpec } from '../../types.js';
@@ -47,6 +48,7 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
       maxDrawdown: 'largest fall of cumulative profit from an earlier peak, starting from 0',
       acceptanceRates: 'accepted orders / orders, counted per order',
     },
+    yearlyFigures: yearlyFigures(result),
     policies: metrics.policies,
     edge: metrics.edge,
     socEndMwh: result.socEndMwh,
@@ -54,6 +56,18 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
     plansMissing: plansMissing(result),
     months: metrics.months,
   };
+}
+
+/** The figures of summary.json scaled to a year, and whether they are extrapolated from less than a year. */
+export const BACKTEST_YEARLY_FIGURES = 'profitPerMwYear and profitPerMwhYear';
+
+/**
+ * Which months the yearly figures (profitPerMwYear, profitPerMwhYear) come from and, when they are
+ * extrapolated from less than a year or without some month of the year, the warning (yearCoverage.ts).
+ */
+export function yearlyFigures(result: BacktestResult) {
+  const coverage = yearCoverage(result.days.map((day) => day.day));
+  return { figures: ['profitPerMwYear', 'profitPerMwhYear'], ...coverage, warning: extrapolationWarning(coverage, BACKTEST_YEARLY_FIGURES) };
 }
 
 /** Policy-days without a plan (no orders placed), with the reason. */

@@ -83,6 +83,7 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
     stage.write('summary.json', jsonText(summary));
     if (s.report) stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
     stage.commit();
+    if (summary.yearlyFigures.warning !== null) hooks.note(`warning: ${summary.yearlyFigures.warning}\n`);
     return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs)}${model?.note ?? ''}` };
   } finally {
     stage.discard();
