@@ -30,6 +30,18 @@ describe('backtest summary', () => {
   });
 });
 
+describe('yearly figures from three days are flagged as extrapolated', () => {
+  it('in summary.json and in the report, naming the month covered and the months missing', () => {
+    // 3 covered days, all in May 2026: profitPerMwYear = profit x 365.25 / 3 / dischargeMw, a factor of 121.75.
+    const summary = backtestSummary(result, metrics, { market, battery, inputs: {} });
+    expect(summary.yearlyFigures).toMatchObject({ figures: ['profitPerMwYear', 'profitPerMwhYear'], days: 3, monthsCovered: ['2026-05'], extrapolated: true });
+    expect(summary.yearlyFigures.warning).toBe(
+      'profitPerMwYear and profitPerMwhYear are extrapolated to a year: scaled x 365.25 / 3 = 121.75 from 3 covered days in 1 month (2026-05); January, February, March, April, June, July, August, September, October, November and December are missing, so their prices never entered these figures (seasonal bias)',
+    );
+    expect(backtestReport({ result, metrics, market, battery })).toMatch(/yearly figures<\/dt>\s*<dd>Warning: the yearly figures of summary.json \(profitPerMwYear, profitPerMwhYear\) are extrapolated to a year: scaled x 365.25 \/ 3 = 121.75/);
+  });
+});
+
 describe('deliberate imbalance is flagged in summary.json, on the console and in the report', () => {
   // Day A of handWorkedWeek.ts with the first price raised to 25: the quantile plan's buy of 4 MW at limit
   // 22 is not accepted (25 > 22), its sell of 4 MW at limit 18 is (95 >= 18). Under follow-accepted the store
