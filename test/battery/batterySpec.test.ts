@@ -100,4 +100,23 @@ describe('market spec', () => {
       'market.json:2: fallback.kind: fallback.kind must be "clearing-plus-penalty"; use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
     ]);
   });
+
+  it('reads the optional order steps and names each bad one with its line and what to do', () => {
+    const head = '{"timeZone": "Europe/Berlin", "periodMinutes": 15, "priceFloor": -500, "priceCap": 4000, "currency": "HLV", "gateClosure": "12:00",\n';
+    const spec = market(`${head} "quantityStepMw": 0.1, "minimumQuantityMw": 0.1, "priceTickPerMwh": 0.01}`);
+    expect([spec.quantityStepMw, spec.minimumQuantityMw, spec.priceTickPerMwh]).toEqual([0.1, 0.1, 0.01]);
+    expect(problemsOf(() => market(`${head} "quantityStepMw": 0,\n "minimumQuantityMw": 5000,\n "priceTickPerMwh": -1}`))).toEqual([
+      "market.json:2: quantityStepMw: quantityStepMw must be > 0; give the exchange's quantity step in MW, e.g. 0.1, or leave the field out",
+      "market.json:3: minimumQuantityMw: minimumQuantityMw must be at most 1000 MW; check the unit; give the exchange's smallest order in MW, e.g. 0.1, or leave the field out",
+      "market.json:4: priceTickPerMwh: priceTickPerMwh must be > 0; give the exchange's price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out",
+    ]);
+    expect(problemsOf(() => market(`${head} "quantityStepMw": "0.1"}`))[0]).toMatch(/^market.json:2: quantityStepMw: quantityStepMw must be a number;/);
+    // Rounding a limit to the tick keeps it inside [floor, cap] only when both lie on the tick: -500 is
+    // 2000 ticks of 0.25, 4000.1 is not a whole number of them.
+    const offTick = '{"timeZone": "Europe/Berlin", "periodMinutes": 15, "priceFloor": -500, "priceCap": 4000.1, "currency": "HLV", "gateClosure": "12:00",\n';
+    expect(problemsOf(() => market(`${offTick} "priceTickPerMwh": 0.25}`))).toEqual([
+      'market.json:2: priceTickPerMwh: priceCap (4000.1) is not a whole number of ticks of 0.25; give the exchange\'s price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out',
+    ]);
+    expect(problemsOf(() => market(`${head} "priceTickPerMwh": 5000}`))[0]).toMatch(/priceTickPerMwh \(5000\) is wider than the whole price range \[-500, 4000\]/);
+  });
 });

@@ -1,7 +1,9 @@
 import type { BacktestMetrics } from '../../backtest/backtestMetrics.js';
+import type { PolicyMetrics } from '../../backtest/policyMetrics.js';
 import type { BacktestResult } from '../../backtest/runBacktest.js';
 import { extrapolationWarning, yearCoverage } from '../../economics/yearCoverage.js';
 import { formatNumber } from '../../io/formatNumber.js';
+import { exchangeSteps } from '../../plan/exchangeRounding.js';
 import { imbalanceDescription } from '../../report/imbalanceDescription.js';
 import type { BatteryModel, MarketSpec } from '../../types.js';
 
@@ -10,6 +12,8 @@ export interface BacktestSummaryContext {
   readonly battery: BatteryModel;
   /** Input paths as the user gave them. */
   readonly inputs: Readonly<Record<string, string>>;
+  /** With the market's order steps: metrics of the same backtest with the orders as planned (unrounded). */
+  readonly unrounded?: BacktestMetrics;
 }
 
 /**
@@ -49,6 +53,7 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
       acceptanceRates: 'accepted orders / orders, counted per order',
     },
     yearlyFigures: yearlyFigures(result),
+    ...orderSteps(market, metrics, context.unrounded),
     policies: metrics.policies,
     edge: metrics.edge,
     socEndMwh: result.socEndMwh,
@@ -56,6 +61,34 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
     plansMissing: plansMissing(result),
     months: metrics.months,
   };
+}
+
+/**
+ * The market's order steps, when it has any (no key without them): every policy's orders were rounded
+ * to them, and `roundingLoss` is the difference in profit against the same backtest with the orders as
+ * planned (`unrounded`, run on the market spec without its steps).
+ */
+function orderSteps(market: MarketSpec, metrics: BacktestMetrics, unrounded: BacktestMetrics | undefined) {
+  const steps = exchangeSteps(market);
+  if (steps === null || unrounded === undefined) return {};
+  const policies = Object.keys(metrics.policies);
+  const without = (p: string) => (unrounded.policies[p] as PolicyMetrics).profit;
+  return {
+    orderSteps: {
+      ...steps,
+      profitWithoutRounding: Object.fromEntries(policies.map((p) => [p, without(p)])),
+      roundingLoss: Object.fromEntries(policies.map((p) => [p, without(p) - (metrics.policies[p] as PolicyMetrics).profit])),
+      rule: 'orders rounded to the steps so that the battery can always deliver them (quantities down, buy limits down and sell limits up to the tick); roundingLoss = profitWithoutRounding - profit, the same backtest with the orders as planned',
+    },
+  };
+}
+
+/** The console line on the profit lost to rounding the orders to the market's steps. */
+function roundingLine(market: MarketSpec, metrics: BacktestMetrics, unrounded: BacktestMetrics | undefined): string[] {
+  const { orderSteps: steps } = orderSteps(market, metrics, unrounded);
+  if (steps === undefined) return [];
+  const losses = Object.entries(steps.roundingLoss).map(([name, loss]) => `${name} ${formatNumber(loss, 0)}`);
+  return [`  profit lost to rounding the orders to the exchange's steps (against the same backtest unrounded): ${losses.join(', ')}`];
 }
 
 /** The figures of summary.json scaled to a year, and whether they are extrapolated from less than a year. */
@@ -78,7 +111,14 @@ function plansMissing(result: BacktestResult): { day: string; policy: string; st
 }
 
 /** The short human summary printed on stdout. */
-export function backtestSummaryText(result: BacktestResult, metrics: BacktestMetrics, market: MarketSpec, outDir: string, written: readonly string[] = ['ledger.csv', 'days.csv', 'summary.json']): string {
+export function backtestSummaryText(
+  result: BacktestResult,
+  metrics: BacktestMetrics,
+  market: MarketSpec,
+  outDir: string,
+  written: readonly string[] = ['ledger.csv', 'days.csv', 'summary.json'],
+  unrounded?: BacktestMetrics,
+): string {
   const money = (x: number | null) => (x === null ? '-' : formatNumber(x, 0));
   const share = (x: number | null) => (x === null ? '-' : `${formatNumber(100 * x, 1)}%`);
   const rows = Object.entries(metrics.policies).map(([name, m]) => [
@@ -94,6 +134,7 @@ export function backtestSummaryText(result: BacktestResult, metrics: BacktestMet
     ...rows.map(line),
     '  imbalance gross: cash at the imbalance price (+ received); imb. cost vs clearing: what that energy cost against the clearing price (+ cost)',
     ...deliberateLines(result, metrics),
+    ...roundingLine(market, metrics, unrounded),
     `  ${edgeLine(metrics)}`,
     ...missingLine(result),
     `  wrote ${outDir}/${written.join(', ')}`,

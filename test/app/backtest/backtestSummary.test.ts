@@ -79,3 +79,33 @@ describe('deliberate imbalance is flagged in summary.json, on the console and in
     expect(backtestReport({ result: r, metrics: m, market, battery })).not.toContain('deliberate imbalance</dt>');
   });
 });
+
+describe('the loss from rounding to the exchange\'s steps, as the difference in profit', () => {
+  // Day A of handWorkedWeek.ts, quantile policy: planned buy 4 MW in hour 0 at limit 22 and sell 4 MW in
+  // hour 2 at limit 18: realised 20 and 95, both accepted, profit -80 + 380 = 300.
+  // With a quantity step of 3 MW and a price tick of 5: the buy rounds down to 3 MW (3 MWh in store), the
+  // sell to 3 MW; the buy limit 22 down to 20, the sell limit 18 up to 20. Clearing 20 <= 20: the buy is
+  // accepted (a tie), 95 >= 20: the sell too. Profit -60 + 285 = 225: a loss from rounding of 75.
+  const stepped = { ...market, quantityStepMw: 3, priceTickPerMwh: 5 };
+  const dayA = { ...input, from: '2026-05-04', to: '2026-05-04' };
+  const rounded = runBacktest({ ...dayA, market: stepped }, { policies: ['quantile'] });
+  const plain = runBacktest(dayA, { policies: ['quantile'] });
+  const roundedMetrics = backtestMetrics(rounded, battery);
+  const plainMetrics = backtestMetrics(plain, battery);
+
+  it('summary.json and the console say what rounding cost, worked by hand', () => {
+    expect(roundedMetrics.policies.quantile?.profit).toBeCloseTo(225, 9);
+    const summary = backtestSummary(rounded, roundedMetrics, { market: stepped, battery, inputs: {}, unrounded: plainMetrics });
+    expect(summary.orderSteps).toMatchObject({ quantityStepMw: 3, minimumQuantityMw: null, priceTickPerMwh: 5 });
+    expect(summary.orderSteps?.profitWithoutRounding.quantile).toBeCloseTo(300, 9);
+    expect(summary.orderSteps?.roundingLoss.quantile).toBeCloseTo(75, 9);
+    const text = backtestSummaryText(rounded, roundedMetrics, stepped, 'out', undefined, plainMetrics);
+    expect(text).toContain("profit lost to rounding the orders to the exchange's steps (against the same backtest unrounded): quantile 75");
+  });
+
+  it('without steps: no rounding key and no line (outputs as before)', () => {
+    const summary = backtestSummary(plain, plainMetrics, { market, battery, inputs: {} });
+    expect('orderSteps' in summary).toBe(false);
+    expect(backtestSummaryText(plain, plainMetrics, market, 'out')).not.toContain('rounding');
+  });
+});
