@@ -25,16 +25,16 @@ describe('the cycle cap counts energy taken out of the store', () => {
     Object.freeze({ periodHours: 1, buyPricePerMwh: [1000, 1000, 1000], sellPricePerMwh: [50, 40, 30], battery: battery(cap), socStartMwh: 2, socEndMinMwh: 0 });
 
   it.each([
-    ['the exact solver', true],
-    ['the LP path', false],
-  ])('%s: 0.8 MW at 50 under a cap of 0.5 cycles, a full window without one', (_name, fast) => {
-    const capped = solveDay(problem(0.5 * 2), { fast });
+    ['the warehouse solver', 'warehouse'],
+    ['the LP path', 'lp'],
+  ] as const)('%s: 0.8 MW at 50 under a cap of 0.5 cycles, a full window without one', (_name, solver) => {
+    const capped = solveDay(problem(0.5 * 2), { solver });
     expect(capped.status).toBe('optimal');
     if (capped.status !== 'optimal') return;
     expect(capped.objective).toBeCloseTo(40, 9);
     expect(capped.schedule.dischargeMw[0]).toBeCloseTo(0.8, 9);
     expect(taken(problem(1), capped.schedule.dischargeMw) / 2).toBeCloseTo(0.5, 9);
-    const free = solveDay(problem(undefined), { fast });
+    const free = solveDay(problem(undefined), { solver });
     expect(free.status === 'optimal' && free.objective).toBeCloseTo(74, 9);
   });
 });
@@ -58,13 +58,13 @@ describe('the cap against HiGHS on seeded days with a binding cap', () => {
       checked++;
       const cap = b.maxFromStoreMwhPerDay;
       if (taken(day, reference.schedule.dischargeMw) >= cap - 1e-9 * Math.max(1, cap)) binding++;
-      for (const fast of [true, false]) {
-        const outcome = solveDay(day, { fast });
-        expect(outcome.status, `${i} fast=${fast}`).toBe('optimal');
+      for (const solver of ['warehouse', 'lp'] as const) {
+        const outcome = solveDay(day, { solver });
+        expect(outcome.status, `${i} ${solver}`).toBe('optimal');
         if (outcome.status !== 'optimal') continue;
-        // The tolerances of the long comparisons (DEVELOPERS.md): 1e-9 for the exact solver, 1e-6 for the LP path.
-        expect(Math.abs(outcome.objective - reference.objective) / Math.max(1, Math.abs(reference.objective)), `${i} fast=${fast}`).toBeLessThanOrEqual(fast ? 1e-9 : 1e-6);
-        expect(taken(day, outcome.schedule.dischargeMw), `${i} fast=${fast}`).toBeLessThanOrEqual(cap + 1e-7 * Math.max(1, cap));
+        // The tolerances of the long comparisons (DEVELOPERS.md): 1e-9 for the warehouse solver, 1e-6 for the LP path.
+        expect(Math.abs(outcome.objective - reference.objective) / Math.max(1, Math.abs(reference.objective)), `${i} ${solver}`).toBeLessThanOrEqual(solver === 'warehouse' ? 1e-9 : 1e-6);
+        expect(taken(day, outcome.schedule.dischargeMw), `${i} ${solver}`).toBeLessThanOrEqual(cap + 1e-7 * Math.max(1, cap));
       }
     }
     expect(checked).toBe(60);
