@@ -95,7 +95,8 @@ export interface RoundedSchedule {
  * 3. down to the end-of-day floor: selling less may end the day above the floor, and with the default
  *    floor (the day's start) that energy would stay in store for good, each day starting a little fuller;
  *    the excess is bought less, from the last buy backwards, each cut on the step, never below the floor
- *    and never so deep that a later sale finds the store short. What is left is under one step's energy.
+ *    and never so deep that a later sale finds the store short. What is left is usually under one
+ *    step's energy.
  * Quantities only ever go down, so power limits hold; the window holds by construction.
  */
 export function roundSchedule(problem: DayProblem, schedule: Schedule, exchange: ExchangeSteps): RoundedSchedule {
