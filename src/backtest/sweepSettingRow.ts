@@ -28,7 +28,8 @@ export type SweepSetting = {
  *   correction (h = 1) of that difference, H1: the setting earns more than the point policy
  *   (edgeTest.ts); empty when there is no test (fewer than 2 days, or every daily difference equal);
  * - `buy_acceptance_rate`, `sell_acceptance_rate`: accepted orders / orders (empty without orders);
- * - `imbalance_mwh`, `imbalance_cash`: energy bought plus sold at the imbalance price, and its cash;
+ * - `imbalance_mwh`, `imbalance_cash`: energy bought plus sold at the imbalance price, and its gross cash
+ *   (the whole price, + received; its cost against the clearing price is in backtest's days.csv);
  * - `auction_cash`, `degradation_cost`, `discharged_mwh`;
  * - `cycles_total`: equivalent full cycles over the days, MWh taken out of the store (discharged / eta_d) /
  *   usable MWh (socMax - socMin), the count the daily cycle cap bounds; `cycles_per_day`: cycles_total / days;
