@@ -14,6 +14,7 @@ export { formatProblem, InputError, type InputProblem } from './errors/inputErro
 
 // ---- read specs and files (they check everything and throw InputError) ----
 export { batteryModel, BATTERY_DEFAULTS, parseBatterySpec, roundTripEfficiency } from './battery/batterySpec.js';
+export { equivalentFullCycles } from './battery/equivalentFullCycles.js';
 export { parseMarketSpec } from './market/marketSpec.js';
 export { daysBetween, deliveryPeriods, isValidDay } from './market/calendar.js';
 export { readBatterySpec, readMarketSpec } from './io/readSpecs.js';
@@ -35,6 +36,7 @@ export { policyPrices, type PolicyPrices } from './plan/policyPrices.js';
 export { type DaySolverChoice, NodeLimitError, SOLVE_DAY_DEFAULTS, solveDay, type SolveDayOptions, UncoveredDayError } from './plan/solveDay.js';
 export { DayWorkspace } from './plan/warehouse/workspace.js';
 export { scheduleValue } from './plan/scheduleValue.js';
+export { exchangeSteps, roundLimit, roundSchedule, type ExchangeRounding, type ExchangeSteps, type RoundedSchedule } from './plan/exchangeRounding.js';
 
 // ---- settle a day's orders against realised prices ----
 export { chooseImbalanceSource, dayImbalancePrices, type ImbalancePrices, type ImbalanceSource } from './settle/imbalancePrices.js';
@@ -60,7 +62,7 @@ export { scoreForecasts, type ScoreTable, type ScoredDay } from './forecast/scor
 export { alphaSplit, chooseAlpha, type AlphaMode } from './sizing/alphaChoice.js';
 export { scaledBatterySpec, type BatterySize } from './sizing/scaledBattery.js';
 export { sizeEconomics, type SizeCosts, type SizeEconomics } from './sizing/sizeEconomics.js';
-export { irr, npv } from './economics/index.js';
+export { irr, npv, projectCashFlows, type ProjectCashFlows, extrapolationWarning, yearCoverage, type YearCoverage } from './economics/index.js';
 
 // ---- whole commands, as the CLI runs them: settings in, files written, summary out ----
 export { QUIET_HOOKS, type ProgressDisplay, type RunHooks } from './app/runHooks.js';

@@ -1,6 +1,5 @@
 import type { BatteryModel, DayOutcome, DayProblem, HistoryDay, MarketSpec, Order, QuantileDay } from '../types.js';
-import { planDay } from '../plan/planDay.js';
-import { scheduleOrders } from '../plan/scheduleOrders.js';
+import { planDay, roundForExchange } from '../plan/planDay.js';
 import { NodeLimitError, solveDay, type SolveDayOptions } from '../plan/solveDay.js';
 import { ordersByPeriod } from '../settle/ordersByPeriod.js';
 import type { BacktestPolicy } from './backtestPolicy.js';
@@ -73,12 +72,13 @@ function perfectForesight(request: PolicyDayRequest): PolicyDayPlan {
     socStartMwh,
     socEndMinMwh: battery.socFinalMinMwh ?? socStartMwh,
   };
-  const outcome = solveDay(problem, request.solveOptions);
-  if (outcome.status !== 'optimal') return noPlan(outcome, prices.length);
+  const solved = solveDay(problem, request.solveOptions);
+  if (solved.status !== 'optimal') return noPlan(solved, prices.length);
   // Limits and levels are placeholders here: atFloorAndCap replaces them.
   const realisedPrices = { buyPricePerMwh: [...prices], sellPricePerMwh: [...prices], buyLimitPerMwh: [...prices], sellLimitPerMwh: [...prices], buyLevel: 0.5, sellLevel: 0.5 };
-  const orders = atFloorAndCap(scheduleOrders(realised.periods, outcome.schedule, realisedPrices), market);
-  return { status: 'optimal', orders: ordersByPeriod(realised.periods, orders), plannedValue: outcome.objective };
+  // With the market's order steps the schedule is rounded to them, as planDay does (planDay.ts).
+  const { outcome, orders } = roundForExchange(problem, solved, realised.periods, realisedPrices, market);
+  return { status: 'optimal', orders: ordersByPeriod(realised.periods, atFloorAndCap(orders, market)), plannedValue: outcome.objective };
 }
 
 /** Orders that are always accepted: buys limited at the cap, sells at the floor, no quantile level. */

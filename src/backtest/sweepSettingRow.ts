@@ -28,16 +28,18 @@ export type SweepSetting = {
  *   correction (h = 1) of that difference, H1: the setting earns more than the point policy
  *   (edgeTest.ts); empty when there is no test (fewer than 2 days, or every daily difference equal);
  * - `buy_acceptance_rate`, `sell_acceptance_rate`: accepted orders / orders (empty without orders);
- * - `imbalance_mwh`, `imbalance_cash`: energy bought plus sold at the imbalance price, and its cash;
+ * - `imbalance_mwh`, `imbalance_cash`: energy bought plus sold at the imbalance price, and its gross cash
+ *   (the whole price, + received; its cost against the clearing price is in backtest's days.csv);
  * - `auction_cash`, `degradation_cost`, `discharged_mwh`;
- * - `cycles`: discharged MWh / usable MWh (socMax - socMin), equivalent full cycles;
+ * - `cycles_total`: equivalent full cycles over the days, MWh taken out of the store (discharged / eta_d) /
+ *   usable MWh (socMax - socMin), the count the daily cycle cap bounds; `cycles_per_day`: cycles_total / days;
  * - `days_without_plan`: days the policy had no feasible plan and placed no orders;
  * - `daily_profit_sd`, `worst_day_5pct`, `max_drawdown`: as in backtest's summary (dailyProfitStats.ts).
  */
 export const SWEEP_COLUMNS = Object.freeze([
   'days', 'profit', 'mean_daily_profit', 'capture_ratio', 'perfect_foresight_profit', 'point_profit', 'edge_vs_point', 'p_value_vs_point',
   'buy_acceptance_rate', 'sell_acceptance_rate', 'imbalance_mwh', 'imbalance_cash', 'auction_cash', 'degradation_cost', 'discharged_mwh',
-  'cycles', 'days_without_plan', 'daily_profit_sd', 'worst_day_5pct', 'max_drawdown',
+  'cycles_total', 'cycles_per_day', 'days_without_plan', 'daily_profit_sd', 'worst_day_5pct', 'max_drawdown',
 ] as const);
 
 /** One row of sweep.csv after the axis columns, in SWEEP_COLUMNS order. */
@@ -81,7 +83,8 @@ export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, mem
     auction_cash: m.auctionCash,
     degradation_cost: m.degradationCost,
     discharged_mwh: m.dischargedMwh,
-    cycles: m.equivalentFullCycles,
+    cycles_total: m.cyclesTotal,
+    cycles_per_day: m.cyclesPerDay,
     days_without_plan: m.daysWithoutPlan,
     daily_profit_sd: m.dailyProfitStandardDeviation,
     worst_day_5pct: m.worstDay5Percent,

@@ -61,8 +61,11 @@ export function sizeCommand(io: CliIo): Command {
 Columns of size.csv: energy_mwh,power_mw,round_trip_efficiency,policy,alpha,profit,profit_per_year,npv,irr,
 then days,capture_ratio,profit_per_mwh,profit_per_mw,revenue_per_mwh_year,revenue_per_mw_year,
 spread_per_mwh_discharged,cycles_per_year,throughput_mwh_per_year,capex,annual_fixed_om,replacements,
-simple_payback_years,discounted_payback_years and acceptance rates; irr is "none" and a payback "never"
-when there is none. An interrupted run (Ctrl-C: exit code 130) resumes from its journal in --out.
+simple_payback_years,discounted_payback_years,buy_acceptance_rate,sell_acceptance_rate,
+days_without_plan,residual_value; irr is "none" and a payback "never" when there is none. Cells bought
+again during the life are credited their residual value (straight-line) in the last year; yearly figures
+from less than a year of days are flagged as extrapolated. An interrupted run (Ctrl-C: exit code 130)
+resumes from its journal in --out.
 
 Examples:
   quantbid size --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 \\

@@ -56,5 +56,7 @@ export interface SizeReportSummary extends GridSummaryHead {
     readonly scored: DayRange & { readonly days: readonly string[] };
   };
   readonly economics: SizeCosts & { readonly steps: readonly string[] };
+  /** What an owner must know before reading the best size as an answer (extrapolated years, losses, grid edges). */
+  readonly warnings: readonly string[];
   readonly best: readonly { readonly policy: string; readonly highestNpv: PickedSize | null; readonly highestIrr: PickedSize | null }[];
 }

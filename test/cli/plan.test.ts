@@ -117,3 +117,42 @@ describe('quantbid plan', () => {
     expect(version.stdout.trim()).toMatch(/^\d+\.\d+\.\d+$/);
   });
 });
+
+describe('quantbid plan with the exchange\'s order steps in market.json', () => {
+  it('orders on the quantity step and the tick, the schedule to match, the loss from rounding in plan.json and on the console', async () => {
+    const stepped = join(dir, 'market-steps.json');
+    writeFileSync(stepped, JSON.stringify({ ...JSON.parse(readFileSync(join(dir, 'market.json'), 'utf8')), quantityStepMw: 0.5, minimumQuantityMw: 1, priceTickPerMwh: 1 }));
+    const plainOut = join(dir, 'plan-unrounded');
+    const out = join(dir, 'plan-rounded');
+    expect((await run(['plan', ...inputs(), '--day', day, '--out', plainOut])).code).toBe(0);
+    const result = await run(['plan', ...inputs(), '--market', stepped, '--day', day, '--out', out]);
+    expect(result.code).toBe(0);
+    // Without the steps plan.json has no rounding (and is as before); with them it says what the rounding cost.
+    const plain = JSON.parse(readFileSync(join(plainOut, 'plan.json'), 'utf8'));
+    const plan = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8'));
+    expect('rounding' in plain).toBe(false);
+    expect(plan.rounding).toMatchObject({ quantityStepMw: 0.5, minimumQuantityMw: 1, priceTickPerMwh: 1 });
+    expect(plan.rounding.valueBeforeRounding).toBeCloseTo(plain.objective, 6);
+    expect(plan.rounding.lossFromRounding).toBeCloseTo(plan.rounding.valueBeforeRounding - plan.rounding.valueAfterRounding, 6);
+    expect(plan.objective).toBeCloseTo(plan.rounding.valueAfterRounding, 6);
+    expect(result.stdout).toMatch(/rounded to the exchange \(quantity step 0\.5 MW, minimum 1 MW, price tick 1\): loss from rounding -?[\d.]+ HLV/);
+    // Each order: a whole number of 0.5 MW steps, at least 1 MW, its limit a whole number; buys limited at
+    // or below q(0.9), sells at or above q(0.1), read from the unrounded plan's orders of the same period.
+    const rows = (folder: string) => readFileSync(join(folder, 'orders.csv'), 'utf8').trimEnd().split('\n').slice(1).map((l) => l.split(','));
+    const before = new Map(rows(plainOut).map((r) => [r[0], r]));
+    for (const [start, , side, quantity, limit] of rows(out)) {
+      expect(Number(quantity) * 2).toBe(Math.round(Number(quantity) * 2));
+      expect(Number(quantity)).toBeGreaterThanOrEqual(1);
+      expect(Number(limit)).toBe(Math.round(Number(limit)));
+      const planned = before.get(start as string);
+      if (planned?.[2] === side) expect(side === 'buy' ? Number(limit) <= Number(planned?.[4]) : Number(limit) >= Number(planned?.[4])).toBe(true);
+    }
+    // schedule.csv is the rounded schedule: its flows are the orders.
+    const schedule = readFileSync(join(out, 'schedule.csv'), 'utf8').trimEnd().split('\n').slice(1).map((l) => l.split(','));
+    const ordered = new Map(rows(out).map((r) => [r[0], r]));
+    for (const [start, charge, discharge] of schedule) {
+      const o = ordered.get(start as string);
+      expect([Number(charge), Number(discharge)]).toEqual(o === undefined ? [0, 0] : o[2] === 'buy' ? [Number(o[3]), 0] : [0, Number(o[3])]);
+    }
+  });
+});

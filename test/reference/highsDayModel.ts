@@ -11,7 +11,7 @@ import type { DayProblem, Schedule } from '../../src/types.js';
  * socEndMin)), and in the MIP a binary u_t (1 = the period may charge, 0 = it may discharge).
  * Rows: b_t: s_t - s_{t-1} - eta_c dt c_t + (dt / eta_d) d_t = 0 (s_{-1} = socStart on the right);
  * MIP only: cu_t: c_t - chargeMw u_t <= 0, du_t: d_t + dischargeMw u_t <= dischargeMw;
- * cap: sum_t dt d_t <= maxDischargeMwhPerDay (+inf without a cap).
+ * cap: sum_t (dt / eta_d) d_t <= maxFromStoreMwhPerDay, energy taken out of the store (+inf without a cap).
  * Objective, maximised: sum_t dt (sell_t - deg) d_t - dt buy_t c_t + terminal s_{T-1}.
  */
 
@@ -98,7 +98,7 @@ export function dayRows(problem: DayProblem, integer: boolean): DayRow[] {
     }
   }
   const capCols = Array.from({ length: periods }, (_, t) => col(1, t, periods));
-  rows.push({ name: 'cap', lower: -Infinity, upper: b.maxDischargeMwhPerDay ?? Infinity, cols: capCols, values: capCols.map(() => dt) });
+  rows.push({ name: 'cap', lower: -Infinity, upper: b.maxFromStoreMwhPerDay ?? Infinity, cols: capCols, values: capCols.map(() => dt / b.dischargeEfficiency) });
   return rows;
 }
 
@@ -194,7 +194,7 @@ export class KeptDayModel {
     this.model.changeColsCost(all, columns.colCost);
     this.model.changeColsBounds(all, columns.colLower, columns.colUpper);
     this.model.changeRowBounds(0, problem.socStartMwh, problem.socStartMwh);
-    this.model.changeRowBounds(this.capRow, -this.highs.infinity, b.maxDischargeMwhPerDay ?? this.highs.infinity);
+    this.model.changeRowBounds(this.capRow, -this.highs.infinity, b.maxFromStoreMwhPerDay ?? this.highs.infinity);
     const run = this.model.run();
     const codes = this.highs.constants.modelStatus;
     if (run.modelStatus === codes.infeasible) return { status: 'infeasible' };

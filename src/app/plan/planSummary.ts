@@ -33,12 +33,33 @@ export function planSummary(result: Extract<PlanResult, { status: 'optimal' }>, 
     expectedValueAtMedian: result.expectedValueAtMedian,
     solver: { status: result.outcome.status, method: result.outcome.solver, nodes: result.outcome.nodes },
     orders: { buys: buys.length, sells: sells.length, boughtMwh: mwh(buys), soldMwh: mwh(sells) },
+    ...roundingPart(result),
     forecast: {
       levels: context.forecastFile.levels,
       repairedPeriodsInFile: context.forecastFile.repairedPeriods,
       repairedExamples: context.forecastFile.repairedExamples,
     },
   };
+}
+
+/** plan.json's `rounding` when the market has order steps (no key without them, so plan.json is as before). */
+function roundingPart(result: Extract<PlanResult, { status: 'optimal' }>) {
+  return result.rounding === null ? {} : { rounding: result.rounding };
+}
+
+/** The console line on rounding to the market's order steps; none without them. */
+function roundingLines(result: Extract<PlanResult, { status: 'optimal' }>, currency: string): string[] {
+  const r = result.rounding;
+  if (r === null) return [];
+  const steps = [
+    ...(r.quantityStepMw === null ? [] : [`quantity step ${formatNumber(r.quantityStepMw)} MW`]),
+    ...(r.minimumQuantityMw === null ? [] : [`minimum ${formatNumber(r.minimumQuantityMw)} MW`]),
+    ...(r.priceTickPerMwh === null ? [] : [`price tick ${formatNumber(r.priceTickPerMwh)}`]),
+  ].join(', ');
+  const short = r.socEndShortMwh > 0 ? `; the day ends ${formatNumber(r.socEndShortMwh, 3)} MWh below its end-of-day floor` : '';
+  return [
+    `  rounded to the exchange (${steps}): loss from rounding ${formatNumber(r.lossFromRounding, 2)} ${currency} (value ${formatNumber(r.valueBeforeRounding, 2)} before, ${formatNumber(r.valueAfterRounding, 2)} after); ${r.ordersDropped} orders dropped, ${r.limitsMoved} limits moved onto the tick${short}`,
+  ];
 }
 
 /**
@@ -65,6 +86,7 @@ export function planSummaryText(
     `plan for ${day} (${forecast.periods.length} periods of ${market.periodMinutes} min), policy ${policy}`,
     `  orders: ${buys.length} buys, ${formatNumber(boughtMwh, 3)} MWh; ${sells.length} sells, ${formatNumber(soldMwh, 3)} MWh`,
     `  value at the policy's prices: ${money(result.outcome.objective)}; at the median forecast: ${money(result.expectedValueAtMedian)}`,
+    ...roundingLines(result, market.currency),
     `  state of charge [MWh] from ${formatNumber(result.problem.socStartMwh, 2)}, at the end of each hour:`,
     `    ${hourlySoc(forecast, result.outcome.schedule.socMwh).join(' ')}`,
   ];

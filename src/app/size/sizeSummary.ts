@@ -2,6 +2,7 @@ import { coveredDays } from '../../backtest/coveredDays.js';
 import { alphaSplit, type AlphaMode, type DayRange } from '../../sizing/alphaChoice.js';
 import { bestSizes, type SizePick, type SizeResult } from '../../sizing/bestSizes.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
+import { extrapolationWarning, yearCoverage } from '../../economics/yearCoverage.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import { gridSummaryHead, type GridSummaryContext } from '../gridSummary.js';
 
@@ -21,6 +22,8 @@ export function sizeSummary(results: readonly SizeResult[], context: SizeSummary
   const { data, from, to } = context;
   const days = (range: DayRange) => ({ ...range, days: coveredDays(data.history, data.forecast, range.from, range.to) });
   const best = bestSizes(results, context.axes);
+  const alpha = alphaPart(context.alpha, from, to, days);
+  const yearly = sizeYearlyFigures(alpha.scored.days);
   return {
     ...gridSummaryHead('size', context),
     settings: results.length,
@@ -29,7 +32,8 @@ export function sizeSummary(results: readonly SizeResult[], context: SizeSummary
       scaling: 'energyMwh = energy_mwh, chargeMw = dischargeMw = power_mw; state-of-charge fractions, cycle cap per day and wear cost kept; efficiency from round_trip_efficiency when --efficiency is given, else the spec\'s',
     },
     unaccepted: context.unaccepted,
-    alpha: alphaPart(context.alpha, from, to, days),
+    alpha,
+    yearlyFigures: yearly,
     economics: {
       ...context.costs,
       steps: [
@@ -37,14 +41,24 @@ export function sizeSummary(results: readonly SizeResult[], context: SizeSummary
         'capex = capexPerMwh x energy_mwh + capexPerMw x power_mw',
         'CF_0 = -capex; CF_y = profit_per_year - fixedOmPerMwYear x power_mw - cell replacements in year y, y = 1..lifeYears',
         'a replacement (capexPerMwh x energy_mwh) falls at the end of each year in which the cells reach lifeCycles equivalent full cycles before the end of life (none when lifeCycles is null)',
+        'residual_value: the last replacement set, written off straight-line over its own life (lifeCycles / cycles_per_year years), is credited in the last year at capexPerMwh x energy_mwh x (replacements + 1 - lifeYears x cycles_per_year / lifeCycles); the initial plant has none',
         'npv = sum_y CF_y / (1 + discountRate)^y; irr = the root of NPV nearest 0, "none" without one',
         'payback: when the (discounted) cumulative cash flow first reaches 0, linear within the year, "never" within the life',
       ],
     },
     best,
-    warnings: sizeWarnings(best, context.axes),
+    warnings: [...(yearly.warning === null ? [] : [yearly.warning]), ...sizeWarnings(best, context.axes)],
     note: 'perfect-foresight rows know the prices in advance: an upper bound on what any policy earns with that size, not a policy one can run',
   };
+}
+
+/** The columns of size.csv scaled to a year from the scored days, and everything computed from them. */
+export const SIZE_YEARLY_FIGURES = 'profit_per_year, revenue_per_mwh_year, revenue_per_mw_year, cycles_per_year and throughput_mwh_per_year, and with them npv, irr, replacements and the paybacks,';
+
+/** Which months the yearly figures of size.csv come from, and the warning when they are extrapolated (yearCoverage.ts). */
+export function sizeYearlyFigures(scoredDays: readonly string[]) {
+  const coverage = yearCoverage(scoredDays);
+  return { ...coverage, warning: extrapolationWarning(coverage, SIZE_YEARLY_FIGURES) };
 }
 
 function alphaPart<T>(mode: AlphaMode, from: string, to: string, days: (range: DayRange) => T) {

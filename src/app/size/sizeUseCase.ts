@@ -122,7 +122,7 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
   ] as const;
   // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
   const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, data: inputDataSpan(data, from, to) };
-  return runGridCommand(
+  const outcome = await runGridCommand(
     {
       command: 'size',
       run: s,
@@ -138,4 +138,6 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
     },
     hooks,
   );
+  if (outcome.status === 'done' && outcome.summary.yearlyFigures.warning !== null) hooks.note(`warning: ${outcome.summary.yearlyFigures.warning}\n`);
+  return outcome;
 }
