@@ -1,7 +1,7 @@
 import type { PlanPolicy } from '../types.js';
 
 /** The planning policies (docs/design.md section 4), in the order the help lists them. */
-export const PLAN_POLICIES: readonly PlanPolicy[] = Object.freeze(['quantile', 'median', 'point']);
+export const PLAN_POLICIES: readonly PlanPolicy[] = Object.freeze(['quantile', 'median', 'point', 'price-taking']);
 
 /** The interval an alpha lies in, for messages: the rule of isAlpha. */
 export const ALPHA_RANGE = '(0, 0.5)';

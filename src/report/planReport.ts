@@ -67,7 +67,8 @@ export function planReport(input: PlanReportInput): string {
 function policyText(input: PlanReportInput): string {
   const { policy, plan } = input;
   if (policy === 'point') return 'policy point: schedule and limits at the median forecast';
-  const levels = `buys limited at q${numberText(plan.prices.buyLevel, 4)}, sells at q${numberText(plan.prices.sellLevel, 4)}`;
+  if (policy === 'price-taking') return 'policy price-taking: scheduled on the median, buys limited at the price cap and sells at the floor (always accepted)';
+  const levels = `buys limited at q${numberText(plan.prices.buyLevel ?? Number.NaN, 4)}, sells at q${numberText(plan.prices.sellLevel ?? Number.NaN, 4)}`;
   return policy === 'quantile' ? `policy quantile, alpha ${numberText(input.alpha, 4)}: scheduled and ${levels}` : `policy median, alpha ${numberText(input.alpha, 4)}: scheduled on the median, ${levels}`;
 }
 
@@ -120,19 +121,25 @@ function pricesChart(input: PlanReportInput, axis: ReturnType<typeof periodAxis>
     }
     return values;
   };
-  const level = (tau: number) => (input.policy === 'point' ? 'median' : `q${numberText(tau, 4)}`);
+  const level = (tau: number | null) => (input.policy === 'point' ? 'median' : `q${numberText(tau ?? Number.NaN, 4)}`);
+  // Price-taking limits sit at the cap and floor, far off the forecast's scale: they are said, not drawn.
+  const drawLimits = input.policy !== 'price-taking';
   return fanChart({
     id: 'plan-prices',
     title: `Price forecast with the limit prices of the orders, ${input.day}`,
-    caption: 'Bands: forecast intervals, darker is narrower; line: median. \u25bc a buy is accepted at or below its limit, \u25b2 a sell at or above.',
+    caption: drawLimits
+      ? 'Bands: forecast intervals, darker is narrower; line: median. \u25bc a buy is accepted at or below its limit, \u25b2 a sell at or above.'
+      : 'Bands: forecast intervals, darker is narrower; line: median. The price-taking orders are limited at the price cap (buys) and floor (sells), off this scale: every clearing price accepts them.',
     x: axis,
     y: { label: 'price', unit },
     bands: fanBands(forecast),
     median: { name: 'median (q0.5)', values: forecast.prices.map((row) => priceAtLevel(forecast.levels, row, 0.5)) },
-    markers: [
-      { name: `buy limit (${level(plan.prices.buyLevel)})`, values: limits('buy'), shape: 'triangle-down', colour: ROLE_COLOURS.buy },
-      { name: `sell limit (${level(plan.prices.sellLevel)})`, values: limits('sell'), shape: 'triangle-up', colour: ROLE_COLOURS.sell },
-    ],
+    markers: drawLimits
+      ? [
+          { name: `buy limit (${level(plan.prices.buyLevel)})`, values: limits('buy'), shape: 'triangle-down', colour: ROLE_COLOURS.buy },
+          { name: `sell limit (${level(plan.prices.sellLevel)})`, values: limits('sell'), shape: 'triangle-up', colour: ROLE_COLOURS.sell },
+        ]
+      : [],
   });
 }
 
