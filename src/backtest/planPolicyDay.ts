@@ -13,7 +13,7 @@ export interface PolicyDayRequest {
   readonly realised: HistoryDay;
   readonly market: MarketSpec;
   readonly battery: BatteryModel;
-  /** Central interval [q(alpha), q(1 - alpha)], in (0, 0.5). */
+  /** Tail level: buys limited at q(1 - alpha), sells at q(alpha); in (0, 0.5). */
   readonly alpha: number;
   /** State of charge at the start of the day [MWh], carried from the policy's previous day. */
   readonly socStartMwh: number;

@@ -32,11 +32,11 @@ export function planCommand(io: CliIo): Command {
   command.addHelpText(
     'after',
     `
-The plan's value is given three ways: at the prices it was scheduled on, if every
-order fills at its limit, and expected under the forecast (acceptance read from
-the quantiles; unaccepted orders closed at the market's imbalance rule, or else
-at the --history's mean imbalance-minus-clearing spread); beside it, the
-price-taking plan of the same day.
+The plan's value is given three ways: at the prices it was scheduled on, if
+every order fills at its limit, and expected under the forecast (acceptance
+read from the quantiles; unaccepted orders closed at the market's imbalance
+rule, or else at the --history's mean imbalance-minus-clearing spread); beside
+it, the price-taking plan of the same day.
 
 Examples:
   quantbid plan --scenario scenarios/halvorn/scenario.json --day 2027-01-01 \\

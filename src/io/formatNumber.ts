@@ -1,3 +1,4 @@
+import { smallPValueText } from '../stats/smallPValue.js';
 import { DECIMAL_SCALES, EXACT_SCALED_LIMIT, formatByToFixed, roundedUnits, wholeUnits } from './decimalUnits.js';
 
 /**
@@ -43,17 +44,10 @@ export function csvLine(cells: readonly (string | number)[]): string {
   return line;
 }
 
-/** p-values below this are written in scientific notation (formatPValue). */
-export const SMALL_P_VALUE = 1e-4;
-
 /**
  * A p-value for reading: 4 decimals from 1e-4 up (`0.0013`, `0.973`), below it two significant digits
  * in scientific notation (`3.2e-7`), never `0`; a p-value that underflowed to 0 is `<1e-300`.
  */
 export function formatPValue(p: number): string {
-  if (!(p >= SMALL_P_VALUE)) {
-    if (p > 0) return p.toExponential(1);
-    if (p === 0) return '<1e-300';
-  }
-  return formatNumber(p, 4);
+  return smallPValueText(p) ?? formatNumber(p, 4);
 }

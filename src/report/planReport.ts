@@ -19,7 +19,7 @@ export interface PlanReportInput {
   /** Delivery day, YYYY-MM-DD. */
   readonly day: string;
   readonly policy: PlanPolicy;
-  /** Width of the central interval [q(alpha), q(1 - alpha)] (ignored by the point policy). */
+  /** Tail level: buys limited at q(1 - alpha), sells at q(alpha) (ignored by point and price-taking). */
   readonly alpha: number;
   readonly market: MarketSpec;
   /** The day's quantile forecast the plan was made from. */
