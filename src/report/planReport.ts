@@ -28,6 +28,8 @@ export interface PlanReportInput {
   readonly plan: OptimalPlan;
   /** Input files by role as the user named them (market, battery, forecast), listed in the report. */
   readonly inputs?: Readonly<Record<string, string>>;
+  /** What the plan is worth if every order fills at its limit, and expected under the forecast (plan.json's `value`), with the price-taking plan's expectation beside it. */
+  readonly worth?: { readonly ifFilledAtLimits: number; readonly expected: number | null; readonly baselineExpected: number | null };
 }
 
 /** Central intervals drawn in the fan, widest first, where the forecast's levels reach them. */
@@ -86,10 +88,23 @@ function summaryFacts(input: PlanReportInput): [string, string][] {
     ['orders', `${buys.length} buys, ${mwh(energy(buys))}; ${sells.length} sells, ${mwh(energy(sells))}`],
     ["value at the policy's prices", money(plan.outcome.objective)],
     ['value at the median forecast', money(plan.expectedValueAtMedian)],
+    ...worthFacts(input, money),
     ['state of charge', `${mwh(plan.problem.socStartMwh)} at the start, ${mwh(soc[soc.length - 1] ?? plan.problem.socStartMwh)} at the end (floor ${mwh(plan.problem.socEndMinMwh)})`],
     ['solver', `${plan.outcome.solver}, ${plan.outcome.nodes} branch-and-bound nodes`],
     ['forecast levels', `${forecast.levels.map((l) => numberText(l, 4)).join(', ')} (${forecast.levels.length} levels)`],
   ];
+}
+
+function worthFacts(input: PlanReportInput, money: (x: number) => string): [string, string][] {
+  const w = input.worth;
+  if (w === undefined) return [];
+  const facts: [string, string][] = [['value if every order fills at its limit', money(w.ifFilledAtLimits)]];
+  if (w.expected !== null) facts.push(['expected value under the forecast', `${money(w.expected)} (acceptance read from the quantiles; unaccepted orders at the expected imbalance price)`]);
+  if (w.expected !== null && w.baselineExpected !== null) {
+    const gap = w.expected - w.baselineExpected;
+    facts.push(['price-taking plan of the day, expected', `${money(w.baselineExpected)}: this plan expects ${money(Math.abs(gap))} ${gap < 0 ? 'LESS' : 'more'}`]);
+  }
+  return facts;
 }
 
 /**

@@ -171,6 +171,8 @@ export interface PlanTextExtras {
   readonly worth: PlanWorth;
   readonly baseline: PlanWorth | null;
   readonly warnings: readonly PlanWarning[];
+  /** List every order with its acceptance probability under the forecast. */
+  readonly listOrders?: boolean;
 }
 
 /**
@@ -199,6 +201,7 @@ export function planSummaryText(
     `  orders: ${buys.length} buys, ${formatNumber(boughtMwh, 3)} MWh; ${sells.length} sells, ${formatNumber(soldMwh, 3)} MWh`,
     `  value at the policy's prices: ${money(result.outcome.objective)}; at the median forecast: ${money(result.expectedValueAtMedian)}`,
   ];
+  if (extras?.listOrders === true) lines.push(...orderLines(result.orders, extras.worth, market));
   if (extras !== undefined) lines.push(...worthLines(extras, money));
   lines.push(`  state of charge [MWh] from ${formatNumber(result.problem.socStartMwh, 2)}, at the end of each hour:`, `    ${hourlySoc(forecast, result.outcome.schedule.socMwh).join(' ')}`);
   if (outDir !== undefined) lines.push(`  wrote ${written.map((name, i) => (i === 0 ? `${outDir}/${name}` : name)).join(', ')}`);
@@ -225,6 +228,28 @@ function worthLines(extras: PlanTextExtras, money: (x: number) => string): strin
     lines.push(`  price-taking (same forecast, median schedule, always accepted) expects ${money(baseline.expected.value)}: ${verdict}`);
   }
   return lines;
+}
+
+/** Every order: delivery period (local time), side, quantity, limit and the level it was read at, P(accepted). */
+function orderLines(orders: readonly Order[], worth: PlanWorth, market: MarketSpec): string[] {
+  if (orders.length === 0) return ['  no orders: at the policy\'s prices no charge and later discharge pays for itself'];
+  const acceptance = worth.expected?.orderAcceptance;
+  // Fixed decimals, so that the column lines up; never "-0.00".
+  const fixed = (x: number, d: number) => (Number(x.toFixed(d)) === 0 ? (0).toFixed(d) : x.toFixed(d));
+  const rows = orders.map((o, i) => {
+    const level = o.quantileLevel === null ? (o.side === 'buy' ? 'cap' : 'floor') : `q${o.quantileLevel}`;
+    const p = acceptance?.[i];
+    return [
+      `${o.periodStart.slice(11, 16)}-${o.periodEnd.slice(11, 16)}`,
+      o.side,
+      `${fixed(o.quantityMw, 3)} MW`,
+      `at ${fixed(o.limitPrice, 2)} (${level})`,
+      p === undefined ? '' : `P(accepted) ${fixed(p, 2)}`,
+    ];
+  });
+  const widths = rows[0]!.map((_, k) => Math.max(...rows.map((r) => r[k]!.length)));
+  const line = (r: readonly string[]) => `    ${r.map((c, k) => (k === 2 || k === 3 ? c.padStart(widths[k]!) : c.padEnd(widths[k]!))).join('  ').trimEnd()}`;
+  return [`  orders (local time; limit in ${market.currency}/MWh, the level it was read at; P(accepted) under the forecast):`, ...rows.map(line)];
 }
 
 function hourlySoc(forecast: QuantileDay, soc: readonly number[]): string[] {

@@ -42,6 +42,8 @@ export const planSettingsSchema = z.strictObject({
   force: z.boolean().default(false),
   /** Also write report.html (needs `out`). */
   report: z.boolean().default(false),
+  /** List every order in the printed summary (the demo does). */
+  listOrders: z.boolean().default(false),
 });
 
 export type PlanSettings = z.input<typeof planSettingsSchema>;
@@ -91,7 +93,9 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
         { name: 'orders.csv', text: ordersCsv(result.orders) },
         { name: 'schedule.csv', text: scheduleCsv(forecast.periods, result.outcome.schedule) },
         { name: 'plan.json', text: jsonText(summary) },
-        ...(s.report ? [{ name: 'report.html', text: planReport({ day, policy: s.policy, alpha: s.alpha, market, forecast, plan: result, inputs: paths }) }] : []),
+        ...(s.report
+          ? [{ name: 'report.html', text: planReport({ day, policy: s.policy, alpha: s.alpha, market, forecast, plan: result, inputs: paths, worth: { ifFilledAtLimits: worth.ifFilledAtLimits, expected: worth.expected?.value ?? null, baselineExpected: baseline?.expected?.value ?? null } }) }]
+          : []),
       ],
       s.force,
       ['report.html'],
@@ -103,7 +107,7 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
     hooks.note(`note: ${paths.forecast}: ${repaired.periods} of the ${forecast.periods.length} periods of ${day} had crossing quantiles, sorted into order (monotone rearrangement), e.g. ${repaired.example}\n`);
   }
   for (const warning of warnings) hooks.warn(`warning: ${warning.message}\n`);
-  return { status: 'done', summary, text: planSummaryText(result, forecast, market, day, s, s.out, outputs, { worth, baseline, warnings }) };
+  return { status: 'done', summary, text: planSummaryText(result, forecast, market, day, s, s.out, outputs, { worth, baseline, warnings, listOrders: s.listOrders }) };
 }
 
 /** The price-taking plan of the same day valued like the plan: the simplest baseline a plan is compared with. */
