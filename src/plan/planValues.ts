@@ -1,5 +1,5 @@
 import type { BatteryModel, MarketSpec, Order, QuantileDay } from '../types.js';
-import { meanPrice, orderExpectation } from '../forecast/quantileDistribution.js';
+import { orderExpectation } from '../forecast/quantileDistribution.js';
 
 /**
  * The price at which an unaccepted order is expected to be closed, for a day not yet settled
@@ -97,11 +97,6 @@ export function expectedPlanValue(orders: readonly Order[], forecast: QuantileDa
     imbalanceMwh,
     orderAcceptance,
   };
-}
-
-/** The mean forecast price of each period of the day (quantileDistribution's convention) [currency/MWh]. */
-export function meanForecastPrices(forecast: QuantileDay): number[] {
-  return forecast.prices.map((row) => meanPrice(forecast.levels, row));
 }
 
 /** A buy and a sell whose limits cannot break even, and by how much. */
