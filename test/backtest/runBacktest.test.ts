@@ -83,7 +83,7 @@ describe('runBacktest inputs', () => {
 
 describe('planPolicyDay', () => {
   // Two hours, median -100 then 50 (spread 2), efficiency 0.9 both ways, window [0, 0.45] MWh: at -100
-  // the relaxation would charge and discharge at once, so the exact solver must branch (one node is not enough).
+  // the relaxation would charge and discharge at once. The LP path with a budget of no nodes proves no optimum.
   const day = '2026-05-04';
   const forecast: QuantileDay = { day, levels: [0.1, 0.5, 0.9], periods: hourlyPeriods(day, 2), prices: [[-102, -100, -98], [48, 50, 52]] };
   const realised: HistoryDay = { day, periods: hourlyPeriods(day, 2), pricePerMwh: [-100, 50], imbalancePricePerMwh: null, exogenous: {} };
@@ -91,7 +91,7 @@ describe('planPolicyDay', () => {
   const request = { forecast, realised, market, battery: small, alpha: 0.1, socStartMwh: 0, solveOptions: {} };
 
   it('without a proven optimum in the node budget the policy places no orders and says why', () => {
-    const plan = planPolicyDay({ ...request, policy: 'point', solveOptions: { maxNodes: 1, fast: false } });
+    const plan = planPolicyDay({ ...request, policy: 'point', solveOptions: { maxNodes: 0, solver: 'lp' } });
     expect(plan.status).toBe('node-limit');
     expect(plan.orders).toEqual([null, null]);
   });
