@@ -37,6 +37,9 @@ export { type DaySolverChoice, NodeLimitError, SOLVE_DAY_DEFAULTS, solveDay, typ
 export { DayWorkspace } from './plan/warehouse/workspace.js';
 export { scheduleValue } from './plan/scheduleValue.js';
 export { exchangeSteps, roundLimit, roundSchedule, type ExchangeRounding, type ExchangeSteps, type RoundedSchedule } from './plan/exchangeRounding.js';
+export { expectedPlanValue, losingPairs, valueIfFilledAtLimits, type ExpectedPlanValue, type ImbalanceExpectation, type LosingPairs } from './plan/planValues.js';
+export { imbalanceExpectation } from './plan/imbalanceExpectation.js';
+export { solveDayWithRecovery, windowRecovery, type WindowRecovery } from './plan/windowRecovery.js';
 
 // ---- settle a day's orders against realised prices ----
 export { chooseImbalanceSource, dayImbalancePrices, type ImbalancePrices, type ImbalanceSource } from './settle/imbalancePrices.js';
@@ -45,7 +48,7 @@ export type { SettlementTotals } from './settle/settlementTotals.js';
 
 // ---- backtest policies over history ----
 export { BACKTEST_POLICIES, type BacktestPolicy } from './backtest/backtestPolicy.js';
-export { backtestMetrics, type BacktestMetrics } from './backtest/backtestMetrics.js';
+export { backtestMetrics, STRONGEST_BASELINE_RULE, type BacktestMetrics, type BaselineComparison } from './backtest/backtestMetrics.js';
 export { BACKTEST_DEFAULTS, runBacktest, type BacktestDay, type BacktestInput, type BacktestOptions, type BacktestResult, type ForecastDays, type PolicyDay } from './backtest/runBacktest.js';
 export { policyMetrics, type PolicyMetrics } from './backtest/policyMetrics.js';
 export { edgeTest, type EdgeTest } from './backtest/edgeTest.js';
@@ -54,6 +57,7 @@ export { edgeTest, type EdgeTest } from './backtest/edgeTest.js';
 export { DEFAULT_METHOD, DEFAULTS as FORECAST_DEFAULTS, FORECAST_METHODS, type ForecastMethod, type ForecastOptions } from './forecast/forecaster.js';
 export { forecastRange, type ForecastRangeRequest, type ForecastRangeResult } from './forecast/forecastRange.js';
 export { priceAtLevel, rearrange } from './forecast/quantileSet.js';
+export { meanPrice, orderExpectation, type OrderExpectation } from './forecast/quantileDistribution.js';
 export { compareForecasts, type ForecastComparison } from './forecast/scoring/compareForecasts.js';
 export { pinballLoss } from './forecast/scoring/pinball.js';
 export { scoreForecasts, type ScoreTable, type ScoredDay } from './forecast/scoring/scoreForecasts.js';

@@ -4,15 +4,16 @@ import { policyPrices, type PolicyPrices } from './policyPrices.js';
 import { scheduleOrders } from './scheduleOrders.js';
 import { scheduleValue } from './scheduleValue.js';
 import { solveDay, type SolveDayOptions } from './solveDay.js';
+import { solveDayWithRecovery, windowRecovery, type WindowRecovery } from './windowRecovery.js';
 
 export interface PlanRequest {
   readonly forecast: QuantileDay;
   readonly market: MarketSpec;
   readonly battery: BatteryModel;
   readonly policy: PlanPolicy;
-  /** Width of the central interval [q(alpha), q(1 - alpha)], in (0, 0.5). */
+  /** Tail level: buys limited at q(1 - alpha), sells at q(alpha); in (0, 0.5). */
   readonly alpha: number;
-  /** State of charge at the start of the day [MWh]. */
+  /** State of charge at the start of the day [MWh]; outside the window, the plan first comes back into it (windowRecovery.ts). */
   readonly socStartMwh: number;
   readonly solveOptions?: Partial<SolveDayOptions>;
 }
@@ -32,32 +33,49 @@ export type PlanResult =
       readonly expectedValueAtMedian: number;
       /** What rounding to the market's steps did (exchangeRounding.ts); null when the market has none. */
       readonly rounding: ExchangeRounding | null;
+      /**
+       * How a start outside the window comes back into it, with the periods bid at the price cap
+       * (buys) or floor (sells) so that the auction accepts them: the forced ones and the crossing
+       * period; null when the day starts inside the window.
+       */
+      readonly recovery: (WindowRecovery & { readonly periodsAtCapOrFloor: number }) | null;
     }
   | Exclude<DayOutcome, { status: 'optimal' }>;
 
 /**
  * One delivery day: policy prices from the forecast -> day problem -> exact schedule -> orders.
- * The end-of-day floor is the battery's socFinalMinMwh, or else the day's starting state. With a
- * quantity step, minimum quantity or price tick in the market spec the schedule and the limits are
- * rounded to them (roundForExchange) and the orders are the rounded ones.
+ * The end-of-day floor is the battery's socFinalMinMwh, or else the day's starting state, moved into
+ * the window when the start lies outside it. With a quantity step, minimum quantity or price tick in
+ * the market spec the schedule and the limits are rounded to them (roundForExchange) and the orders
+ * are the rounded ones.
+ *
+ * A start outside the window: the periods windowRecovery forces run at full power toward the window,
+ * the rest of the day is solved from where they leave the battery (within one period of the window:
+ * the day solver must end its first period inside it), with the cycle cap lowered by the energy the
+ * forced periods discharge. The forced periods and the crossing period must happen whatever the
+ * prices, so their orders are limited at the price cap (buys) or floor (sells).
  */
 export function planDay(request: PlanRequest): PlanResult {
   const { forecast, market, battery, policy, alpha, socStartMwh } = request;
   const prices = policyPrices(forecast, policy, alpha, market);
+  const floor = battery.socFinalMinMwh ?? socStartMwh;
   const problem: DayProblem = {
     periodHours: market.periodMinutes / 60,
     buyPricePerMwh: prices.buyPricePerMwh,
     sellPricePerMwh: prices.sellPricePerMwh,
     battery,
     socStartMwh,
-    socEndMinMwh: battery.socFinalMinMwh ?? socStartMwh,
+    socEndMinMwh: Math.min(battery.socMaxMwh, Math.max(battery.socMinMwh, floor)),
   };
-  const solved = solveDay(problem, request.solveOptions);
+  const recovery = windowRecovery(battery, problem.periodHours, socStartMwh, forecast.periods.length);
+  const solved = recovery === null ? solveDay(problem, request.solveOptions) : solveDayWithRecovery(problem, recovery, request.solveOptions);
   if (solved.status !== 'optimal') return solved;
-  const { outcome, orders, rounding } = roundForExchange(problem, solved, forecast.periods, prices, market);
+  const { outcome, orders: rounded, rounding } = roundForExchange(problem, solved, forecast.periods, prices, market);
+  const atCapOrFloor = recovery === null ? 0 : Math.min(forecast.periods.length, recovery.forcedPeriods + (insideWindow(battery, recovery.socAfterMwh) ? 0 : 1));
+  const orders = rounded.map((o) => (recoveryOrder(o, forecast, atCapOrFloor) ? { ...o, limitPrice: o.side === 'buy' ? market.priceCap : market.priceFloor, quantileLevel: null } : o));
   const median = policyPrices(forecast, 'point', alpha, market);
   const expectedValueAtMedian = scheduleValue({ ...problem, buyPricePerMwh: median.buyPricePerMwh, sellPricePerMwh: median.sellPricePerMwh }, outcome.schedule);
-  return { status: 'optimal', problem, prices, outcome, orders, expectedValueAtMedian, rounding };
+  return { status: 'optimal', problem, prices, outcome, orders, expectedValueAtMedian, rounding, recovery: recovery === null ? null : { ...recovery, periodsAtCapOrFloor: atCapOrFloor } };
 }
 
 /**
@@ -92,3 +110,14 @@ export function roundForExchange(
     rounding: { ...exchange, ...what, limitsMoved, ...value },
   };
 }
+
+function insideWindow(battery: BatteryModel, socMwh: number): boolean {
+  const tol = 1e-9 * Math.max(1, battery.energyMwh);
+  return socMwh >= battery.socMinMwh - tol && socMwh <= battery.socMaxMwh + tol;
+}
+
+function recoveryOrder(order: Order, forecast: QuantileDay, periods: number): boolean {
+  for (let t = 0; t < periods; t++) if ((forecast.periods[t] as { start: string }).start === order.periodStart) return true;
+  return false;
+}
+

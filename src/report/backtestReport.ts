@@ -2,15 +2,16 @@ import type { BacktestMetrics } from '../backtest/backtestMetrics.js';
 import type { PolicyMetrics } from '../backtest/policyMetrics.js';
 import type { BacktestResult, PolicyDay } from '../backtest/runBacktest.js';
 import { extrapolationWarning, yearCoverage } from '../economics/yearCoverage.js';
+import { formatPValue } from '../io/formatNumber.js';
+import { baselineHeadline, edgeSentence } from './edgeText.js';
 import { imbalanceDescription } from './imbalanceDescription.js';
 import type { BatteryModel, MarketSpec } from '../types.js';
 import { barChart } from './barChart.js';
 import { categoryAxis } from './categoryAxis.js';
-import { histogram } from './histogram.js';
+import { dataBinWidth, histogram } from './histogram.js';
 import { htmlPage, paragraph, type PageSection } from './htmlPage.js';
 import { lineChart } from './lineChart.js';
 import type { Markup } from './markup.js';
-import { niceTicks } from './niceTicks.js';
 import { OKABE_ITO, ROLE_COLOURS } from './palette.js';
 import { policyStyle } from './policyStyles.js';
 import { factList, htmlTable } from './table.js';
@@ -49,7 +50,7 @@ export function backtestReport(input: BacktestReportInput): string {
       { id: 'profit', heading: 'Cumulative profit', blocks: [cumulativeChart(input)] },
       { id: 'daily', heading: 'Daily profit', blocks: dailyHistograms(input) },
       { id: 'orders', heading: 'Acceptance and the imbalance price', blocks: [acceptanceChart(input), ...imbalanceCharts(input)] },
-      { id: 'policies', heading: 'Policies', blocks: policyTables(input) },
+      { id: 'policies', heading: 'Policies', blocks: [...policyTables(input), ...edgeTable(input.metrics, currency)] },
       { id: 'months', heading: 'Month by month', blocks: monthTables(input) },
     );
   }
@@ -83,7 +84,7 @@ function summaryFacts(input: BacktestReportInput): [string, string][] {
     ['policies', `alpha ${numberText(result.alpha, 4)} for quantile and median; unaccepted orders: ${result.unaccepted}`],
     ['imbalance price', imbalanceDescription(result.imbalanceSource, c)],
     ['profit', policies.join('; ')],
-    ['quantile against point', edgeText(metrics, c)],
+    ...headlineFacts(metrics, c),
     ...deliberateFact(metrics, c),
     ...yearlyFact(result),
   ];
@@ -103,11 +104,38 @@ function deliberateFact(metrics: BacktestMetrics, currency: string): [string, st
   return [['deliberate imbalance', `${who.join('; ')}: orders the battery could not deliver or absorb, settled at the imbalance price. Most markets forbid planning on it: it breaches the balance responsibility (SAFETY.md).`]];
 }
 
-function edgeText(metrics: BacktestMetrics, currency: string): string {
-  const edge = metrics.edge;
-  if (edge === null) return 'not tested (both policies are needed)';
-  if (edge.status !== 'ok') return `not tested (${edge.reason})`;
-  return `${numberText(edge.meanDifference, 2)} ${currency} more per day on average; Diebold-Mariano/HLN statistic ${numberText(edge.hln, 3)}, one-sided p = ${numberText(edge.pValueOneSided, 4)} (small p: the quantile policy earns more)`;
+/** The tested policy against the strongest simple baseline, first and plainly. */
+function headlineFacts(metrics: BacktestMetrics, currency: string): [string, string][] {
+  if (metrics.tested === null) return [];
+  const headline = baselineHeadline(metrics, currency, numberText);
+  if (headline === null) return [[`${metrics.tested} against a simple baseline`, 'not tested: neither point nor price-taking was run beside it']];
+  return [[`${metrics.tested} against the strongest simple baseline`, `${headline.verdict}. ${headline.test}.`]];
+}
+
+/** The tested policy against every other one, as in summary.json's `edges`. */
+function edgeTable(metrics: BacktestMetrics, currency: string): Markup[] {
+  if (metrics.tested === null || metrics.edges.length === 0) return [];
+  return [
+    htmlTable({
+      caption: `${metrics.tested} against every other policy: mean daily profit difference and the Diebold-Mariano test with the Harvey-Leybourne-Newbold correction (one-sided p-values; small: that side earns more)`,
+      columns: [
+        { header: 'against' },
+        { header: `${metrics.tested} minus it`, unit: `${currency}/day`, decimals: 2 },
+        { header: 'HLN statistic', unit: '-', decimals: 3 },
+        { header: `p, ${metrics.tested} earns more` },
+        { header: 'p, it earns more' },
+        { header: 'reading' },
+      ],
+      rows: metrics.edges.map((e) => [
+        e.reference,
+        e.meanDifference,
+        e.status === 'ok' ? e.hln : null,
+        e.status === 'ok' ? formatPValue(e.pValueTestedEarnsMore) : null,
+        e.status === 'ok' ? formatPValue(e.pValueReferenceEarnsMore) : null,
+        edgeSentence(e, currency, numberText),
+      ]),
+    }),
+  ];
 }
 
 function runsOf(result: BacktestResult, k: number): PolicyDay[] {
@@ -141,7 +169,8 @@ function dailyHistograms(input: BacktestReportInput): Markup[] {
   const all = profits.flat();
   const lo = Math.min(...all);
   const hi = Math.max(...all);
-  const binWidth = niceTicks(lo, hi, 20).step;
+  // One width for every policy, chosen from all their daily profits together (Freedman-Diaconis).
+  const binWidth = dataBinWidth(all);
   const min = Math.floor(lo / binWidth + 1e-9) * binWidth;
   const max = Math.max(min + binWidth, Math.ceil(hi / binWidth - 1e-9) * binWidth);
   return result.policies.map((policy, k) => {
@@ -154,7 +183,7 @@ function dailyHistograms(input: BacktestReportInput): Markup[] {
     return histogram({
       id: `backtest-daily-${policy}`,
       title: `Daily profit, ${style.label}`,
-      caption: `Bars: number of days whose profit falls in each ${numberText(binWidth, 6)} ${market.currency} bin (same bins for every policy); dashed: the mean day and the 5 % quantile (the worst day in 20).`,
+      caption: `Bars: number of days whose profit falls in each ${numberText(binWidth, 6)} ${market.currency} bin (the width chosen from the data by the Freedman-Diaconis rule, 2 IQR n^(\u22121/3), rounded to a 1-2-5 step; the same bins for every policy); dashed: the mean day and the 5 % quantile (the worst day in 20).`,
       values: profits[k] as number[],
       binWidth,
       x: { label: 'profit of a day', unit: market.currency, min, max },

@@ -32,13 +32,24 @@ export interface GridSummaryHead {
 
 /** The sweep's summary.json as the sweep report reads it. */
 export interface SweepReportSummary extends GridSummaryHead {
-  readonly best: SettingResult | null;
+  /** Per unaccepted rule, the most profitable setting and the strongest simple baseline it is read against. */
+  readonly bestByRule: readonly {
+    readonly unaccepted: number | string;
+    readonly best: SettingResult | null;
+    readonly strongestBaseline: { readonly policy: string; readonly profit: number } | null;
+    readonly beatsStrongestBaseline: boolean | null;
+    readonly perfectForesightProfit: number | null;
+  }[];
   readonly bestAlphaByPolicy: readonly {
     readonly policy: number | string;
     readonly unaccepted: number | string;
     readonly alpha: number | string | null;
     readonly row: Readonly<Record<string, ResultCell>> | null;
+    readonly onEdgeOfAlphaGrid: boolean;
   }[];
+  /** The reference policies' rows per rule (point, price-taking, perfect-foresight). */
+  readonly references: readonly { readonly policy: string; readonly unaccepted: string; readonly row: Readonly<Record<string, ResultCell>> }[];
+  readonly warnings: readonly string[];
 }
 
 /** A size the sizing summary picked, with its row and the NPV of its grid neighbours. */

@@ -70,6 +70,26 @@ describe('quantbid backtest on the demo scenario, February 2026', () => {
     expect(summary.months.map((m: { month: string }) => m.month)).toEqual(['2026-02']);
   });
 
+  it('tests quantile against every other policy and headlines the stronger of point and price-taking, from days.csv', () => {
+    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+    const rows = csvRows(readFileSync(join(out, 'days.csv'), 'utf8')).slice(1);
+    const daily = (policy: string) => rows.filter((r) => r[1] === policy).map((r) => Number(r[2]));
+    const total = (policy: string) => daily(policy).reduce((a, b) => a + b, 0);
+    expect(summary.tested).toBe('quantile');
+    expect(summary.edges.map((e: { reference: string }) => e.reference)).toEqual(['median', 'point', 'price-taking', 'perfect-foresight']);
+    for (const edge of summary.edges as { reference: string; meanDifference: number }[]) {
+      // The mean of the daily differences, recomputed from days.csv (6 decimals per cell).
+      const d = daily('quantile').map((q, i) => q - (daily(edge.reference)[i] as number));
+      expect(edge.meanDifference).toBeCloseTo(d.reduce((a, b) => a + b, 0) / d.length, 4);
+    }
+    const stronger = total('price-taking') > total('point') ? 'price-taking' : 'point';
+    expect(summary.baseline.policy).toBe(stronger);
+    expect(summary.baseline.testedLoses).toBe(total('quantile') < total(stronger));
+    const word = summary.baseline.testedLoses ? 'LOSES' : 'beats it';
+    expect(first.stdout).toContain(`against the strongest simple baseline, ${stronger} (the more profitable of point and price-taking): quantile ${word}`);
+    expect(first.stdout).toMatch(/quantile earns [\d.]+ HLV per day (more|LESS) than perfect-foresight \(Diebold-Mariano\/HLN/);
+  });
+
   it('days.csv keeps the contract columns, one row per day and policy, and sums to the summary', () => {
     const rows = csvRows(readFileSync(join(out, 'days.csv'), 'utf8'));
     expect(rows[0]?.slice(0, 9)).toEqual(['day', 'policy', 'profit', 'soc_start_mwh', 'soc_end_mwh', 'buys_accepted', 'buys', 'sells_accepted', 'sells']);

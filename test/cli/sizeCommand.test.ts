@@ -32,12 +32,12 @@ beforeAll(() => {
 }, 300_000);
 
 describe('quantbid size with a fixed alpha', () => {
-  it('writes one row per size and policy, perfect-foresight rows included, in grid order, contract columns first', () => {
+  it('writes one row per size and policy, price-taking and perfect-foresight rows included, in grid order, contract columns first', () => {
     expect(readdirSync(fixed).sort()).toEqual(['size.csv', 'summary.json']);
     const { header, rows } = table(fixed);
     expect(header.slice(0, CONTRACT.length)).toEqual(CONTRACT);
     expect(header).toEqual(expect.arrayContaining(['capture_ratio', 'profit_per_mwh', 'profit_per_mw', 'cycles_per_year', 'throughput_mwh_per_year', 'capex', 'simple_payback_years', 'discounted_payback_years', 'revenue_per_mw_year', 'revenue_per_mwh_year', 'spread_per_mwh_discharged']));
-    const expected = ['5', '10'].flatMap((e) => ['2.5', '5'].flatMap((p) => ['0.82', '0.88'].flatMap((eff) => ['quantile', 'perfect-foresight'].map((policy) => [e, p, eff, policy]))));
+    const expected = ['5', '10'].flatMap((e) => ['2.5', '5'].flatMap((p) => ['0.82', '0.88'].flatMap((eff) => ['quantile', 'price-taking', 'perfect-foresight'].map((policy) => [e, p, eff, policy]))));
     expect(rows.map((r) => r.slice(0, 4))).toEqual(expected);
     for (const r of rows) expect(r[4]).toBe(r[3] === 'quantile' ? '0.1' : '');
   });
@@ -63,7 +63,7 @@ describe('quantbid size with a fixed alpha', () => {
     const summary = JSON.parse(readFileSync(join(fixed, 'summary.json'), 'utf8'));
     const { header, rows } = table(fixed);
     const cell = (r: string[], name: string) => r[header.indexOf(name)] as string;
-    expect(summary.best.map((b: { policy: string }) => b.policy)).toEqual(['quantile', 'perfect-foresight']);
+    expect(summary.best.map((b: { policy: string }) => b.policy)).toEqual(['quantile', 'price-taking', 'perfect-foresight']);
     for (const best of summary.best) {
       const mine = rows.filter((r) => r[3] === best.policy);
       // The chosen size's value is the column's maximum (sizes of equal value at the file's 6 decimals,
@@ -92,11 +92,32 @@ describe('quantbid size with a fixed alpha', () => {
     const killed = await quantbidStoppedAfter(sizeArgs(out, FIXED_GRID), journal, 2, 'SIGKILL');
     expect(killed.signal).toBe('SIGKILL');
     const kept = journalKeys(journal);
-    expect(kept.length).toBeLessThan(16);
+    expect(kept.length).toBeLessThan(24);
     const resumed = quantbid(sizeArgs(out, FIXED_GRID));
     expect(withoutYearWarning(resumed)).toMatchObject({ code: 0, stderr: '' });
-    expect(resumed.stdout).toContain(`16 settings (${kept.length} resumed from the journal)`);
+    expect(resumed.stdout).toContain(`24 settings (${kept.length} resumed from the journal)`);
     for (const name of ['size.csv', 'summary.json']) expect(readFileSync(join(out, name), 'utf8')).toBe(readFileSync(join(fixed, name), 'utf8'));
+  });
+});
+
+describe('quantbid size: one spelling for lists of policies', () => {
+  const grid = ['--energy-mwh', '10', '--power-mw', '5', ...ECONOMICS, '--threads', '1'];
+  it('--policies, and --policy as its former name with a note: the same size.csv; price-taking is not added twice', () => {
+    const now = join(scenario.dir, 'policies-new');
+    const then = join(scenario.dir, 'policies-old');
+    expect(quantbid(sizeArgs(now, [...grid, '--policies', 'quantile,price-taking']))).toMatchObject({ code: 0, stderr: '' });
+    const old = quantbid(sizeArgs(then, [...grid, '--policy', 'quantile,price-taking']));
+    expect(old.code).toBe(0);
+    expect(old.stderr).toBe('note: --policy is read as --policies (one spelling for lists of policies, as in backtest and sweep); write --policies\n');
+    expect(readFileSync(join(then, 'size.csv'), 'utf8')).toBe(readFileSync(join(now, 'size.csv'), 'utf8'));
+    expect(table(now).rows.map((r) => r[3])).toEqual(['quantile', 'price-taking', 'perfect-foresight']);
+  });
+
+  it('both spellings at once is bad usage', () => {
+    const out = join(scenario.dir, 'policies-both');
+    const run = quantbid(sizeArgs(out, [...grid, '--policies', 'quantile', '--policy', 'median']));
+    expect(run).toMatchObject({ code: 2, stderr: expect.stringMatching(/--policy: was given with --policies, its new name; give the policies once, as --policies/) });
+    expect(existsSync(out)).toBe(false);
   });
 });
 

@@ -102,10 +102,26 @@ export function dayRows(problem: DayProblem, integer: boolean): DayRow[] {
   return rows;
 }
 
+/**
+ * Bounds on the state of charge at the end of each period that replace the window's [socMin, socMax]
+ * (the last period's lower bound stays at least the end-of-day floor), e.g. the time-varying bounds of
+ * a start outside the window.
+ */
+export interface SocBounds {
+  readonly lowerMwh: readonly number[];
+  readonly upperMwh: readonly number[];
+}
+
 /** CPLEX LP text of the model (numbers printed in JavaScript's shortest round-trip form). */
-export function dayModelText(problem: DayProblem, integer: boolean): string {
+export function dayModelText(problem: DayProblem, integer: boolean, socBounds?: SocBounds): string {
   const periods = problem.buyPricePerMwh.length;
   const { colCost, colLower, colUpper } = dayColumns(problem, integer);
+  if (socBounds !== undefined) {
+    for (let t = 0; t < periods; t++) {
+      colLower[col(2, t, periods)] = t === periods - 1 ? Math.max(socBounds.lowerMwh[t] as number, problem.socEndMinMwh) : (socBounds.lowerMwh[t] as number);
+      colUpper[col(2, t, periods)] = socBounds.upperMwh[t] as number;
+    }
+  }
   const sum = (cols: readonly number[], values: readonly number[]): string => {
     const terms = cols.map((j, k) => `${(values[k] as number) < 0 ? '-' : '+'} ${Math.abs(values[k] as number)} ${colName(j, periods)}`);
     const lines: string[] = [];
@@ -127,9 +143,9 @@ export function dayModelText(problem: DayProblem, integer: boolean): string {
 }
 
 /** Solves the day with a fresh HiGHS instance from LP text: the MIP (`integer`) or its LP relaxation. */
-export function solveDayWithHighs(highs: Highs, problem: DayProblem, integer: boolean): HighsDayOutcome {
+export function solveDayWithHighs(highs: Highs, problem: DayProblem, integer: boolean, socBounds?: SocBounds): HighsDayOutcome {
   const periods = problem.buyPricePerMwh.length;
-  const result = highs.solve(dayModelText(problem, integer), HIGHS_EXACT_OPTIONS);
+  const result = highs.solve(dayModelText(problem, integer, socBounds), HIGHS_EXACT_OPTIONS);
   if (result.Status === 'Infeasible') return { status: 'infeasible' };
   if (result.Status !== 'Optimal') return { status: 'other', detail: result.Status };
   const value = (n: string): number => (result.Columns[n] as { Primal: number }).Primal;

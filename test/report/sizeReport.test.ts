@@ -88,7 +88,8 @@ describe('quantbid size --report on the Halvorn demo (compiled CLI)', () => {
   });
 
   it('every NPV cell is the npv of its size in size.csv, in thousands', () => {
-    expect(labelledCharts(html)).toEqual(['size-npv-quantile', 'size-profit-quantile']);
+    // The price-taking baseline's maps follow the policy's: every size is read against it.
+    expect(labelledCharts(html)).toEqual(['size-npv-quantile', 'size-profit-quantile', 'size-npv-price-taking', 'size-profit-price-taking']);
     const cells = elements(chartSource(html, 'size-npv-quantile'), 'rect', 'cell');
     const energies = [5, 10, 20];
     const powers = [2.5, 5, 10];

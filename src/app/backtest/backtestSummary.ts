@@ -1,9 +1,11 @@
 import type { BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import type { PolicyMetrics } from '../../backtest/policyMetrics.js';
 import type { BacktestResult } from '../../backtest/runBacktest.js';
+import { STRONGEST_BASELINE_RULE } from '../../backtest/backtestMetrics.js';
 import { extrapolationWarning, yearCoverage } from '../../economics/yearCoverage.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import { exchangeSteps } from '../../plan/exchangeRounding.js';
+import { baselineHeadline, edgeSentence } from '../../report/edgeText.js';
 import { imbalanceDescription } from '../../report/imbalanceDescription.js';
 import type { BatteryModel, MarketSpec } from '../../types.js';
 
@@ -51,10 +53,19 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
       worstDay5Percent: 'empirical 5% quantile of daily profit, linear interpolation (Hyndman-Fan definition 7)',
       maxDrawdown: 'largest fall of cumulative profit from an earlier peak, starting from 0',
       acceptanceRates: 'accepted orders / orders, counted per order',
+      edges: 'the tested policy (the first run other than perfect-foresight) against every other: Diebold-Mariano test with the Harvey-Leybourne-Newbold correction (h = 1) of d = tested daily profit - reference daily profit; pValueTestedEarnsMore = P(T >= HLN), pValueReferenceEarnsMore = P(T <= HLN), T ~ t(n - 1)',
+      baseline: `the headline compares the tested policy with the strongest simple baseline: ${STRONGEST_BASELINE_RULE} by profit over the run (point on a tie)`,
+      edge: 'quantile against point, as in edges; kept for scripts that read it',
     },
     yearlyFigures: yearlyFigures(result),
     ...orderSteps(market, metrics, context.unrounded),
+    tested: metrics.tested,
+    baseline:
+      metrics.baseline === null
+        ? null
+        : { policy: metrics.baseline.policy, testedLoses: metrics.baseline.testedLoses, ...baselineHeadline(metrics, market.currency, formatNumber), edge: metrics.baseline.edge },
     policies: metrics.policies,
+    edges: metrics.edges,
     edge: metrics.edge,
     socEndMwh: result.socEndMwh,
     skippedDays: result.skippedDays,
@@ -136,7 +147,7 @@ export function backtestSummaryText(
     '  (imbalance price - clearing price) x MWh bought at the imbalance price, minus the same for MWh sold at it, + cost',
     ...deliberateLines(result, metrics),
     ...roundingLine(market, metrics, unrounded),
-    `  ${edgeLine(metrics)}`,
+    ...edgeLines(metrics, market.currency),
     ...missingLine(result),
     `  wrote ${outDir}/${written.join(', ')}`,
   ];
@@ -161,9 +172,11 @@ function missingLine(result: BacktestResult): string[] {
   return [`  no plan, so no orders, for ${missing.length} policy-day${missing.length > 1 ? 's' : ''}: ${shown}${missing.length > 3 ? ', ...' : ''} (see plansMissing in summary.json)`];
 }
 
-function edgeLine(metrics: BacktestMetrics): string {
-  const edge = metrics.edge;
-  if (edge === null) return 'edge of quantile over point: not tested (both policies are needed)';
-  if (edge.status !== 'ok') return `edge of quantile over point: not tested (${edge.reason})`;
-  return `edge of quantile over point: ${formatNumber(edge.meanDifference, 2)} per day, Diebold-Mariano/HLN ${formatNumber(edge.hln, 3)}, one-sided p = ${formatNumber(edge.pValueOneSided, 4)}`;
+/** The headline against the strongest simple baseline, then the tested policy against every other. */
+function edgeLines(metrics: BacktestMetrics, currency: string): string[] {
+  if (metrics.tested === null) return ['  no edge tested: only perfect foresight was run'];
+  const headline = baselineHeadline(metrics, currency, formatNumber);
+  const lines = headline === null ? [`  ${metrics.tested}: no simple baseline (point, price-taking) was run beside it`] : [`  ${headline.verdict}`, `    ${headline.test}`];
+  if (metrics.edges.length > 0) lines.push(`  ${metrics.tested} against every other policy:`, ...metrics.edges.map((edge) => `    ${edgeSentence(edge, currency, formatNumber)}`));
+  return lines;
 }

@@ -27,7 +27,7 @@ export const backtestSettingsSchema = z
     /** First and last delivery day, YYYY-MM-DD, both included. */
     from: daySchema,
     to: daySchema,
-    /** Central interval [q(alpha), q(1 - alpha)] of the quantile and median policies; default 0.1. */
+    /** Tail level of the quantile and median policies (buys limited at q(1 - alpha), sells at q(alpha)); default 0.1. */
     alpha: alphaSchema.default(BACKTEST_DEFAULTS.alpha),
     /** What the battery does about unaccepted orders; default follow-plan. */
     unaccepted: unacceptedRuleSchema.default(BACKTEST_DEFAULTS.unaccepted),

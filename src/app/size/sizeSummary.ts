@@ -48,7 +48,7 @@ export function sizeSummary(results: readonly SizeResult[], context: SizeSummary
     },
     best,
     warnings: [...(yearly.warning === null ? [] : [yearly.warning]), ...sizeWarnings(best, context.axes)],
-    note: 'perfect-foresight rows know the prices in advance: an upper bound on what any policy earns with that size, not a policy one can run',
+    note: 'price-taking rows (the median schedule bid at the cap and floor) are the simplest baseline every size is read against; perfect-foresight rows know the prices in advance: an upper bound on what any policy earns with that size, not a policy one can run',
   };
 }
 
@@ -93,8 +93,9 @@ export function sizeSummaryText(summary: ReturnType<typeof sizeSummary>, resumed
 
 /**
  * What an owner must know before reading the best size as an answer: a policy whose every size loses
- * money at these costs, and a best size on the edge of the grid (the optimum may lie beyond it).
- * Perfect foresight is an upper bound, not a choice, and gets no warning.
+ * money at these costs, a best size on the edge of the grid (the optimum may lie beyond it), and a
+ * policy whose best NPV is below the price-taking baseline's. Perfect foresight is an upper bound,
+ * not a choice, and gets no warning.
  */
 export function sizeWarnings(best: ReturnType<typeof bestSizes>, axes: readonly { readonly name: string; readonly values: readonly (number | string)[] }[]): string[] {
   const warnings: string[] = [];
@@ -112,6 +113,15 @@ export function sizeWarnings(best: ReturnType<typeof bestSizes>, axes: readonly 
     if (energy !== null && (pick.energyMwh === energy[0] || pick.energyMwh === energy[1])) edges.push(`--energy-mwh (${formatNumber(pick.energyMwh)} MWh)`);
     if (power !== null && (pick.powerMw === power[0] || pick.powerMw === power[1])) edges.push(`--power-mw (${formatNumber(pick.powerMw)} MW)`);
     if (edges.length > 0) warnings.push(`${policy.policy}: the highest NPV lies on the edge of the grid in ${edges.join(' and ')}; extend the grid past it to see whether it is the optimum`);
+  }
+  // Every size is read against the simplest baseline: price-taking (its rows are always there).
+  const taking = best.find((b) => b.policy === 'price-taking')?.highestNpv;
+  for (const policy of best) {
+    const pick = policy.highestNpv;
+    if (policy.policy === 'perfect-foresight' || policy.policy === 'price-taking' || pick === null || taking === undefined || taking === null) continue;
+    if ((pick.row.npv as number) < (taking.row.npv as number)) {
+      warnings.push(`${policy.policy}: its highest NPV (${formatNumber(pick.row.npv as number, 0)}) is below price-taking's (${formatNumber(taking.row.npv as number, 0)}): at these costs the simplest baseline pays better`);
+    }
   }
   return warnings;
 }

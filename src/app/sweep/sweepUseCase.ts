@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { SWEEP_POLICIES, type SweepResult } from '../../backtest/sweepSettingRow.js';
+import { batteryModel } from '../../battery/batterySpec.js';
+import { SWEEP_POLICIES, sweepReferenceRows, type SweepReferenceRow, type SweepResult } from '../../backtest/sweepSettingRow.js';
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
@@ -32,7 +33,7 @@ export const sweepSettingsSchema = z
     /** First and last delivery day, YYYY-MM-DD, both included. */
     from: daySchema,
     to: daySchema,
-    /** The alpha axis, each alpha in (0, 0.5). */
+    /** The alpha axis: tail levels, each in (0, 0.5). */
     alphas: eachOnce(alphaSchema),
     /** The policy axis: policies whose orders depend on alpha. */
     policies: eachOnce(z.enum(SWEEP_POLICIES)),
@@ -61,7 +62,12 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
   const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
   // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
+  const span = inputDataSpan(data, from, to);
+  const contextInput: SweepTaskInput = { paths, from, to, data: span };
+  // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
+  let references: SweepReferenceRow[] | undefined;
+  const referenceRows = (): SweepReferenceRow[] =>
+    (references ??= sweepReferenceRows({ market: span.market, battery: batteryModel(span.batterySpec), history: span.history, forecast: span.forecast, from, to }, s.unaccepted));
   return runGridCommand(
     {
       command: 'sweep',
@@ -72,7 +78,8 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
       identity: { from, to },
       paths,
       model,
-      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, ...modelContext }),
+      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext }),
+      moreRows: () => referenceRows(),
       report: (results, summary) => sweepReport({ results, summary }),
       summaryText: sweepSummaryText,
     },
