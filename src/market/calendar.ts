@@ -2,6 +2,8 @@ import { DateTime, IANAZone, Info, type Zone } from 'luxon';
 import type { DeliveryPeriod } from './deliveryPeriod.js';
 import { dayNumber, dayText } from './civilDays.js';
 
+export { isValidDay } from './civilDays.js';
+
 /**
  * The delivery periods of one delivery day in a market's IANA zone.
  *
@@ -147,9 +149,4 @@ export function isoWeekday(day: string): number {
 
 export function isValidTimeZone(name: string): boolean {
   return IANAZone.isValidZone(name);
-}
-
-/** Whether `text` is a day YYYY-MM-DD of the (proleptic Gregorian) calendar. */
-export function isValidDay(text: string): boolean {
-  return dayNumber(text) !== null;
 }

@@ -3,14 +3,9 @@ import { isAccepted } from './acceptance.js';
 import type { FallbackPrices } from './fallbackPrices.js';
 import type { SettlementTotals } from './settlementTotals.js';
 
-/**
- * What the battery does about orders the auction did not accept (docs/design.md section 5):
- * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the fallback price;
- * - `follow-accepted`: it moves only with accepted orders; unaccepted orders have no effect.
- */
-export type UnacceptedRule = 'follow-plan' | 'follow-accepted';
+import type { UnacceptedRule } from './unacceptedRule.js';
 
-export const UNACCEPTED_RULES: readonly UnacceptedRule[] = Object.freeze(['follow-plan', 'follow-accepted']);
+export { UNACCEPTED_RULES, type UnacceptedRule } from './unacceptedRule.js';
 
 /** One period's order as settlement reads it (an Order has these fields and more). */
 export type PeriodOrder = Pick<Order, 'side' | 'quantityMw' | 'limitPrice'>;

@@ -12,8 +12,7 @@ import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
 import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
 import type { SweepTaskInput } from './sweepTask.js';
 
-/** Defaults of the axes as written in the help: alphas the demo forecast's levels (0.05 to 0.95) allow, both alpha policies, follow-plan. */
-export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: SWEEP_POLICIES.join(','), unaccepted: 'follow-plan' });
+export { SWEEP_DEFAULTS } from '../commandDefaults.js';
 
 /** The axes of a sweep from their text (`--alphas 0.05:0.45:0.05`, `--policies quantile,median`, ...), every problem listed together. */
 export function sweepAxesFromText(text: { readonly alphas: string; readonly policies: string; readonly unaccepted: string }) {
