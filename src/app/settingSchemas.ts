@@ -5,8 +5,8 @@
  */
 import { z } from 'zod';
 import { InputError } from '../errors/inputError.js';
-import { FORECAST_METHODS } from '../forecast/forecaster.js';
-import { isValidDay } from '../market/calendar.js';
+import { FORECAST_METHODS } from '../forecast/forecastMethods.js';
+import { isValidDay } from '../market/civilDays.js';
 import { ALPHA_RULE, isAlpha } from '../plan/alpha.js';
 import { UNACCEPTED_RULES, type UnacceptedRule } from '../settle/settleDay.js';
 import { levelsProblem, outFolderProblem, pathProblem, spanProblem } from './settingRules.js';
