@@ -130,7 +130,9 @@ function runDay(
   const runs = settings.policies.map((policy): PolicyDay => {
     const socStartMwh = soc.get(policy) as number;
     const plan = planPolicyDay({ policy, forecast, realised, market, battery, alpha: settings.alpha, socStartMwh, solveOptions: settings.solveOptions });
+    const keepLedger = settings.keepLedger || settings.onLedgerDay !== null;
     const settled = settleDay({
+      keepPeriods: keepLedger,
       periodHours: market.periodMinutes / 60,
       battery,
       socStartMwh,
@@ -148,7 +150,7 @@ function runDay(
       socStartMwh,
       socEndMwh: settled.socEndMwh,
       totals: settled.totals,
-      ledger: settings.keepLedger || settings.onLedgerDay !== null ? { orders: plan.orders, periods: settled.periods } : null,
+      ledger: keepLedger ? { orders: plan.orders, periods: settled.periods } : null,
     };
   });
   return { day: realised.day, periods: realised.periods, clearingPricePerMwh: realised.pricePerMwh, fallback, runs };

@@ -1,4 +1,5 @@
 import type { BatteryModel, DayOutcome, DayProblem, MarketSpec, Order, PlanPolicy, QuantileDay } from '../types.js';
+import { pricesAtLevel } from '../forecast/quantileSet.js';
 import { policyPrices, type PolicyPrices } from './policyPrices.js';
 import { scheduleOrders } from './scheduleOrders.js';
 import { scheduleValue } from './scheduleValue.js';
@@ -46,7 +47,8 @@ export function planDay(request: PlanRequest): PlanResult {
   const outcome = solveDay(problem, request.solveOptions);
   if (outcome.status !== 'optimal') return outcome;
   const orders = scheduleOrders(forecast.periods, outcome.schedule, prices);
-  const median = policyPrices(forecast, 'point', alpha, market);
-  const expectedValueAtMedian = scheduleValue({ ...problem, buyPricePerMwh: median.buyPricePerMwh, sellPricePerMwh: median.sellPricePerMwh }, outcome.schedule);
+  // The median and point policies schedule on the median already.
+  const median = policy === 'median' || policy === 'point' ? prices.buyPricePerMwh : pricesAtLevel(forecast.levels, forecast.prices, 0.5);
+  const expectedValueAtMedian = scheduleValue({ ...problem, buyPricePerMwh: median, sellPricePerMwh: median }, outcome.schedule);
   return { status: 'optimal', problem, prices, outcome, orders, expectedValueAtMedian };
 }

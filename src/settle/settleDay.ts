@@ -22,6 +22,8 @@ export interface SettleDayInput {
   readonly clearingPricePerMwh: readonly number[];
   readonly fallback: FallbackPrices;
   readonly unaccepted: UnacceptedRule;
+  /** Whether to return every period's settlement (a ledger); without it `periods` is empty and only the totals are made. Default true. */
+  readonly keepPeriods?: boolean;
 }
 
 /**
@@ -79,7 +81,8 @@ export function settleDay(input: SettleDayInput): SettledDay {
   const count = input.clearingPricePerMwh.length;
   checkInput(input, count);
   const tolMwh = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
-  const periods: SettledPeriod[] = new Array<SettledPeriod>(count);
+  const keepPeriods = input.keepPeriods ?? true;
+  const periods: SettledPeriod[] = new Array<SettledPeriod>(keepPeriods ? count : 0);
   // Sums in period order, in plain variables (a settled year is ~175,000 periods per policy).
   let profit = 0, auction = 0, fallbackSum = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtFallback = 0, soldFallback = 0;
   let charged = 0, discharged = 0, buys = 0, buysAccepted = 0, sells = 0, sellsAccepted = 0;
@@ -120,22 +123,24 @@ export function settleDay(input: SettleDayInput): SettledDay {
     const auctionCash = clearing * (tradeSoldAuction - tradeBoughtAuction);
     const fallbackCash = (input.fallback.sellPerMwh[t] as number) * soldFallbackMwh - (input.fallback.buyPerMwh[t] as number) * boughtFallbackMwh;
     const degradationCost = battery.degradationCostPerMwh * dischargedMwh;
-    const period = new SettledPeriodRecord(
-      accepted,
-      tradeBoughtAuction,
-      tradeSoldAuction,
-      boughtFallbackMwh,
-      soldFallbackMwh,
-      chargedMwh,
-      dischargedMwh,
-      auctionCash,
-      fallbackCash,
-      degradationCost,
-      auctionCash + fallbackCash - degradationCost,
-      soc,
-    );
-    periods[t] = period;
-    profit += period.profit;
+    const periodProfit = auctionCash + fallbackCash - degradationCost;
+    if (keepPeriods) {
+      periods[t] = new SettledPeriodRecord(
+        accepted,
+        tradeBoughtAuction,
+        tradeSoldAuction,
+        boughtFallbackMwh,
+        soldFallbackMwh,
+        chargedMwh,
+        dischargedMwh,
+        auctionCash,
+        fallbackCash,
+        degradationCost,
+        periodProfit,
+        soc,
+      );
+    }
+    profit += periodProfit;
     auction += auctionCash;
     fallbackSum += fallbackCash;
     degradation += degradationCost;
