@@ -1,4 +1,4 @@
-import { batteryModel } from '../battery/batterySpec.js';
+import { batteryModel } from '../battery/batteryModel.js';
 import type { BatterySpec, MarketSpec, PriceHistory } from '../types.js';
 import type { UnacceptedRule } from '../settle/settleDay.js';
 import { readsAlpha } from '../backtest/backtestPolicy.js';

@@ -11,6 +11,7 @@ import { SIZE_DEFAULTS } from '../commandDefaults.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { readGridInputs, runGridCommand } from '../gridRun.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
+import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
@@ -115,7 +116,7 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
     { name: 'policy', option: '--policy', values: [...s.policies, 'perfect-foresight'] as SizePolicy[] },
   ] as const;
   // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, data: inputDataSpan(data, from, to) };
+  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, shared: shareInputs(inputDataSpan(data, from, to)) };
   return runGridCommand(
     {
       command: 'size',

@@ -4,6 +4,7 @@ import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
 import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
@@ -59,8 +60,8 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
   ] as const;
   const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
+  // The workers get the inputs as read here, cut to the span and shared: none reads or parses a file again.
+  const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(inputDataSpan(data, from, to)) };
   return runGridCommand(
     {
       command: 'sweep',
