@@ -111,7 +111,7 @@ export function readGridInputs(
   const paths = runInputPaths(settings.inputs, settings.model);
   checkOutputFolder(settings.out, [table, 'summary.json', ...(settings.report ? ['report.html'] : [])], settings.force);
   const maker = forecastMaker(settings.model, paths.history, settings, hooks);
-  const data = readRunInputs(paths, use, maker, true);
+  const data = readRunInputs(paths, use, maker, hooks, true);
   requireCoveredDay(data, paths, settings.from, settings.to);
   return { paths, data, model: maker?.made() };
 }

@@ -18,8 +18,8 @@ export interface SharedInputs {
     readonly days: readonly string[];
     readonly periodCounts: readonly number[];
     readonly pricePerMwh: Float64Array;
-    /** The fallback price of every period, or null when the history has no such column. */
-    readonly fallbackPricePerMwh: Float64Array | null;
+    /** The imbalance price of every period, or null when the history has no such column. */
+    readonly imbalancePricePerMwh: Float64Array | null;
     readonly exogenousNames: readonly string[];
     /** exogenous[k]: the column exogenousNames[k], every period. */
     readonly exogenous: readonly Float64Array[];
@@ -43,7 +43,7 @@ export function shareInputs(data: BacktestInputData): SharedInputs {
   const historyDays = history.days;
   const forecastDays = [...forecast.days.values()];
   const periodCount = historyDays.reduce((n, d) => n + d.pricePerMwh.length, 0);
-  const withFallback = historyDays.every((d) => d.fallbackPricePerMwh !== null) && historyDays.length > 0;
+  const withImbalance = historyDays.every((d) => d.imbalancePricePerMwh !== null) && historyDays.length > 0;
   const series = (values: (day: HistoryDay) => readonly number[]): Float64Array => {
     const out = sharedArray(periodCount);
     let at = 0;
@@ -70,7 +70,7 @@ export function shareInputs(data: BacktestInputData): SharedInputs {
       days: historyDays.map((d) => d.day),
       periodCounts: historyDays.map((d) => d.pricePerMwh.length),
       pricePerMwh,
-      fallbackPricePerMwh: withFallback ? series((d) => d.fallbackPricePerMwh as readonly number[]) : null,
+      imbalancePricePerMwh: withImbalance ? series((d) => d.imbalancePricePerMwh as readonly number[]) : null,
       exogenousNames: history.exogenousNames,
       exogenous: history.exogenousNames.map((name) => series((d) => d.exogenous[name] as readonly number[])),
       incompleteDays: history.incompleteDays,
@@ -114,7 +114,7 @@ export function sharedInputData(shared: SharedInputs): BacktestInputData {
       day,
       periods: periodsOf(day, count),
       pricePerMwh: slice(history.pricePerMwh),
-      fallbackPricePerMwh: history.fallbackPricePerMwh === null ? null : slice(history.fallbackPricePerMwh),
+      imbalancePricePerMwh: history.imbalancePricePerMwh === null ? null : slice(history.imbalancePricePerMwh),
       exogenous,
     });
     from += count;

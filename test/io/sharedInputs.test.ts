@@ -16,7 +16,7 @@ const demo = {
 };
 
 describe('shareInputs / sharedInputData', () => {
-  it('rebuilds the demo inputs in another thread exactly: two months over a clock change, fallback and exogenous columns', () => {
+  it('rebuilds the demo inputs in another thread exactly: two months over a clock change, imbalance and exogenous columns', () => {
     const data = inputDataSpan(readBacktestInputs(demo), '2026-03-01', '2026-04-30');
     const shared = shareInputs(data);
     expect(shared.history.pricePerMwh.buffer).toBeInstanceOf(SharedArrayBuffer);
@@ -28,7 +28,7 @@ describe('shareInputs / sharedInputData', () => {
     expect(elsewhere.history.days.map((d) => d.periods.length)).toContain(92);
   });
 
-  it('keeps a history without fallback prices, empty inputs and negative zero', () => {
+  it('keeps a history without imbalance prices, empty inputs and negative zero', () => {
     const market = { timeZone: 'Europe/Berlin', periodMinutes: 60, priceFloor: -500, priceCap: 4000, currency: 'HLV' } as const;
     const rows = Array.from({ length: 24 }, (_, h) => `2026-06-01T${String(h).padStart(2, '0')}:00:00+02:00,${h === 0 ? '-0' : h - 3.25},${h * 10}`);
     const history = parsePriceHistory(`period_start,price,wind_mw\n${rows.join('\n')}\n`, 'h.csv', market as never);
@@ -38,7 +38,7 @@ describe('shareInputs / sharedInputData', () => {
     const elsewhere = sharedInputData(structuredClone(shareInputs(data)));
     expect(elsewhere).toEqual(data);
     expect(Object.is(elsewhere.history.days[0]?.pricePerMwh[0], -0)).toBe(true);
-    expect(elsewhere.history.days[0]?.fallbackPricePerMwh).toBeNull();
+    expect(elsewhere.history.days[0]?.imbalancePricePerMwh).toBeNull();
     const empty = { ...data, history: { ...history, days: [] }, forecast: { ...forecast, days: new Map() } };
     expect(sharedInputData(structuredClone(shareInputs(empty)))).toEqual(empty);
   });

@@ -62,7 +62,7 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
   checkOutputFolder(s.out, outputs, s.force);
   // With --model the forecasts are made here, day by day from the history (through the forecast cache).
   const maker = forecastMaker(s.model, paths.history, s, hooks);
-  const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker);
+  const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
   const model = maker?.made();
   const { market, history, forecast } = data;
   const battery = batteryModel(data.batterySpec);

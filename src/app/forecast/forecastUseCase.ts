@@ -66,8 +66,9 @@ export function forecastUseCase(settings: ForecastSettings, hooks: RunHooks = QU
   const outputs = [target.quantiles, ...(s.scenarioPaths > 0 ? [target.paths] : []), target.summary];
   checkOutputFolder(out, outputs, s.force);
   const problems: InputProblem[] = [];
-  const market = gatherProblems(problems, () => readMarketSpec(paths.market));
-  const history = market === undefined ? undefined : gatherProblems(problems, () => readPriceHistory(paths.history, market));
+  const note = (text: string): void => hooks.note(text);
+  const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
+  const history = market === undefined ? undefined : gatherProblems(problems, () => readPriceHistory(paths.history, market, note));
   if (market === undefined || history === undefined) throw new InputError(problems);
 
   const started = performance.now();

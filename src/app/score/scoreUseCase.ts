@@ -51,9 +51,10 @@ export function scoreUseCase(settings: ScoreSettings, hooks: RunHooks = QUIET_HO
   const outputs = s.report ? ['score.json', 'report.html'] : ['score.json'];
   checkOutputFolder(s.out, outputs, s.force);
   const problems: InputProblem[] = [];
-  const market = gatherProblems(problems, () => readMarketSpec(paths.market));
+  const note = (text: string): void => hooks.note(text);
+  const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
   const read = <T>(reader: (m: NonNullable<typeof market>) => T): T | undefined => (market === undefined ? undefined : gatherProblems(problems, () => reader(market)));
-  const history = read((m) => readPriceHistory(paths.history, m));
+  const history = read((m) => readPriceHistory(paths.history, m, note));
   const forecast = read((m) => readQuantileForecast(paths.forecast, m));
   const against = s.against === undefined ? null : read((m) => readQuantileForecast(s.against as string, m));
   if (market === undefined || history === undefined || forecast === undefined || against === undefined) throw new InputError(problems);
