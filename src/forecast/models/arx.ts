@@ -1,7 +1,6 @@
-import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
+import { choleskyPrediction } from '../linalg/choleskyLeastSquares.js';
 import type { LassoOptions } from '../linalg/lasso.js';
 import { lassoBic } from '../linalg/lasso.js';
-import type { LinearModel } from '../linalg/linearModel.js';
 import { predictLinear } from '../linalg/linearModel.js';
 import type { FitStopwatch } from '../fitStopwatch.js';
 import { timedFits } from '../fitStopwatch.js';
@@ -159,29 +158,44 @@ function fitWindows(
   };
   const watch = settings.stopwatch;
   const builder = timedFits(watch, 0, () => new ArxGramBuilder(dayLevel, counts));
-  const slotValues = new Float64Array(n * a);
-  const features = new Float64Array(k);
-  const forecasts = new Map<number, Float64Array>(counts.map((c) => [c, new Float64Array(S)]));
-  for (let s = 0; s < S; s++) {
+  // Each slot column's source, per training row: the lag grids, the exogenous columns, the response.
+  const sources: Float64Array[][] = [
+    rows.map((row) => row.lag1),
+    rows.map((row) => row.lag2),
+    rows.map((row) => row.lag7),
+    ...Array.from({ length: exo }, (_, j) => rows.map((row) => row.exogenous[j] as Float64Array)),
+    responses,
+  ];
+  // Laid out slot by slot, then column by column: the a columns of slot s are columns[s a n, (s + 1) a n).
+  const columns = slotColumns(S * a * n);
+  for (let p = 0; p < a; p++) {
+    const source = sources[p] as Float64Array[];
     for (let r = 0; r < n; r++) {
-      const row = rows[r] as DayRegressors;
-      const base = r * a;
-      slotValues[base] = row.lag1[s] as number;
-      slotValues[base + 1] = row.lag2[s] as number;
-      slotValues[base + 2] = row.lag7[s] as number;
-      for (let j = 0; j < exo; j++) slotValues[base + 3 + j] = (row.exogenous[j] as Float64Array)[s] as number;
-      slotValues[base + a - 1] = (responses[r] as Float64Array)[s] as number;
+      const grid = source[r] as Float64Array;
+      for (let s = 0, at = p * n + r; s < S; s++, at += a * n) columns[at] = grid[s] as number;
     }
+  }
+  const features = new Float64Array(k);
+  const byCount = counts.map(() => new Float64Array(S));
+  for (let s = 0; s < S; s++) {
     target.fill(features, s);
     // One model per window; the timed stretch also holds its prediction, a k-term dot product.
     timedFits(watch, counts.length, () =>
-      builder.forEachGram(slotValues, a, s === S - 1, (gram, w) => {
-        const model: LinearModel = settings.estimator === 'lasso' ? lassoBic(gram, settings.lasso).model : choleskyLeastSquares(gram);
-        (forecasts.get(counts[w] as number) as Float64Array)[s] = fromAsinhScale(predictLinear(model, features), scale);
+      builder.forEachGram(columns.subarray(s * a * n, (s + 1) * a * n), a, s === S - 1, (gram, w) => {
+        const z = settings.estimator === 'lasso' ? predictLinear(lassoBic(gram, settings.lasso).model, features) : choleskyPrediction(gram, features);
+        (byCount[w] as Float64Array)[s] = fromAsinhScale(z, scale);
       }),
     );
   }
-  return forecasts;
+  return new Map(counts.map((c, w) => [c, byCount[w] as Float64Array]));
+}
+
+/** Scratch space for the slot columns of a forecast, kept between forecasts (a year of quarter-hours: 2 MiB). */
+let columnScratch = new Float64Array(0);
+
+function slotColumns(length: number): Float64Array {
+  if (columnScratch.length < length) columnScratch = new Float64Array(length);
+  return columnScratch;
 }
 
 /** Median and MAD of all prices of the training days. */
