@@ -83,6 +83,7 @@ export class ArxGramBuilder {
     const work = this.workspace(a);
     const { cols, shiftA, sumA, prodAA, prodAB, buckets, bucket } = work;
     const W = counts.length;
+    const zeros = a * n;
     for (let p = 0; p < a; p++) {
       const base = p * n;
       const shift = columns[base] as number;
@@ -91,67 +92,61 @@ export class ArxGramBuilder {
     }
     for (let p = 0; p < a; p++) {
       const pn = p * n;
-      // The column's sum, its sums by weekday and its products with min, max and last, in one pass.
-      let sum = 0;
-      let ab0 = 0;
-      let ab1 = 0;
-      let ab2 = 0;
-      let i = 0;
-      bucket.fill(0);
-      for (let w = 0; w < W; w++) {
-        const end = counts[w] as number;
-        for (; i < end; i++) {
-          const v = cols[pn + i] as number;
-          sum += v;
-          const d = (weekdays[i] as number) - 1;
-          bucket[d] = (bucket[d] as number) + v;
-          ab0 += v * (rb[i] as number);
-          ab1 += v * (rb[n + i] as number);
-          ab2 += v * (rb[2 * n + i] as number);
-        }
-        sumA[w * a + p] = sum;
-        for (let d = 0; d < 7; d++) buckets[(w * 7 + d) * a + p] = bucket[d] as number;
-        const at = (w * a + p) * B;
-        prodAB[at] = ab0;
-        prodAB[at + 1] = ab1;
-        prodAB[at + 2] = ab2;
-      }
-      // Its products with the columns q >= p, four at a time.
-      let q = p;
-      for (; q + 3 < a; q += 4) {
+      // Products with the columns q >= p, four per pass over the rows (past the last column, with a
+      // column of zeros whose products are dropped); the first pass also takes the column's sum, its
+      // sums by weekday and its products with min, max and last.
+      for (let q = p; q < a; q += 4) {
+        const first = q === p;
         const q0 = q * n;
-        const q1 = q0 + n;
-        const q2 = q1 + n;
-        const q3 = q2 + n;
+        const q1 = q + 1 < a ? q0 + n : zeros;
+        const q2 = q + 2 < a ? q0 + 2 * n : zeros;
+        const q3 = q + 3 < a ? q0 + 3 * n : zeros;
         let s0 = 0;
         let s1 = 0;
         let s2 = 0;
         let s3 = 0;
-        i = 0;
+        let sum = 0;
+        let ab0 = 0;
+        let ab1 = 0;
+        let ab2 = 0;
+        if (first) bucket.fill(0);
+        let i = 0;
         for (let w = 0; w < W; w++) {
           const end = counts[w] as number;
-          for (; i < end; i++) {
-            const v = cols[pn + i] as number;
-            s0 += v * (cols[q0 + i] as number);
-            s1 += v * (cols[q1 + i] as number);
-            s2 += v * (cols[q2 + i] as number);
-            s3 += v * (cols[q3 + i] as number);
+          if (first) {
+            for (; i < end; i++) {
+              const v = cols[pn + i] as number;
+              sum += v;
+              const d = (weekdays[i] as number) - 1;
+              bucket[d] = (bucket[d] as number) + v;
+              ab0 += v * (rb[i] as number);
+              ab1 += v * (rb[n + i] as number);
+              ab2 += v * (rb[2 * n + i] as number);
+              s0 += v * (cols[q0 + i] as number);
+              s1 += v * (cols[q1 + i] as number);
+              s2 += v * (cols[q2 + i] as number);
+              s3 += v * (cols[q3 + i] as number);
+            }
+            sumA[w * a + p] = sum;
+            for (let d = 0; d < 7; d++) buckets[(w * 7 + d) * a + p] = bucket[d] as number;
+            const at = (w * a + p) * B;
+            prodAB[at] = ab0;
+            prodAB[at + 1] = ab1;
+            prodAB[at + 2] = ab2;
+          } else {
+            for (; i < end; i++) {
+              const v = cols[pn + i] as number;
+              s0 += v * (cols[q0 + i] as number);
+              s1 += v * (cols[q1 + i] as number);
+              s2 += v * (cols[q2 + i] as number);
+              s3 += v * (cols[q3 + i] as number);
+            }
           }
           const at = w * a * a + p * a + q;
           prodAA[at] = s0;
-          prodAA[at + 1] = s1;
-          prodAA[at + 2] = s2;
-          prodAA[at + 3] = s3;
-        }
-      }
-      for (; q < a; q++) {
-        const qn = q * n;
-        let product = 0;
-        i = 0;
-        for (let w = 0; w < W; w++) {
-          const end = counts[w] as number;
-          for (; i < end; i++) product += (cols[pn + i] as number) * (cols[qn + i] as number);
-          prodAA[w * a * a + p * a + q] = product;
+          if (q + 1 < a) prodAA[at + 1] = s1;
+          if (q + 2 < a) prodAA[at + 2] = s2;
+          if (q + 3 < a) prodAA[at + 3] = s3;
         }
       }
     }
@@ -167,7 +162,7 @@ export class ArxGramBuilder {
       this.work = {
         a,
         k,
-        cols: new Float64Array(a * this.n),
+        cols: new Float64Array((a + 1) * this.n),
         shiftA: new Float64Array(a),
         sumA: new Float64Array(W * a),
         prodAA: new Float64Array(W * a * a),
@@ -246,7 +241,7 @@ function sourceA(c: number): number {
 interface SlotWork {
   readonly a: number;
   readonly k: number;
-  /** The shifted slot columns, column by column: cols[p n + i]. */
+  /** The shifted slot columns, column by column: cols[p n + i], then a column of zeros. */
   readonly cols: Float64Array;
   readonly shiftA: Float64Array;
   /** Per count w: sums of the shifted slot columns, sumA[w a + p]. */
