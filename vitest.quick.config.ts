@@ -28,6 +28,7 @@ export const SLOW_OR_SPAWNING = [
   'test/report/backtestReport.test.ts',
   'test/report/scoreReport.test.ts',
   'test/cli/quietFlag.test.ts',
+  'test/cli/startupModules.test.ts',
   'test/hardening/cliProperties.test.ts',
   'test/forecast/forecaster.test.ts',
   'test/forecast/fitStopwatch.test.ts',

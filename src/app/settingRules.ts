@@ -34,6 +34,11 @@ export function outFolderProblem(out: string, form: 'folder' | 'folder-or-csv-fi
   return null;
 }
 
+/** The first and last delivery day of a run, both included, the first not after the last. */
+export function spanProblem(from: string, to: string): string | null {
+  return from > to ? `--to ${to} is before --from ${from}` : null;
+}
+
 /** Most quantile levels one forecast may have [-] (0.01:0.99:0.01 is 99). */
 export const MAX_LEVELS = 99;
 

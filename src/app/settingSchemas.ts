@@ -5,11 +5,13 @@
  */
 import { z } from 'zod';
 import { InputError } from '../errors/inputError.js';
-import { FORECAST_METHODS } from '../forecast/forecaster.js';
-import { isValidDay } from '../market/calendar.js';
+import { FORECAST_METHODS } from '../forecast/forecastMethods.js';
+import { isValidDay } from '../market/civilDays.js';
 import { ALPHA_RULE, isAlpha } from '../plan/alpha.js';
 import { UNACCEPTED_RULES, type UnacceptedRule } from '../settle/settleDay.js';
-import { levelsProblem, outFolderProblem, pathProblem } from './settingRules.js';
+import { levelsProblem, outFolderProblem, pathProblem, spanProblem } from './settingRules.js';
+
+export { spanProblem } from './settingRules.js';
 
 /** A delivery day, YYYY-MM-DD. */
 export const daySchema = z.string().refine(isValidDay, 'must be a day YYYY-MM-DD, e.g. 2027-03-28');
@@ -61,11 +63,6 @@ export const modelSettingsSchema = z.strictObject({
   cache: z.union([pathSchema, z.literal(false)]).optional(),
 });
 export type ModelSettings = z.input<typeof modelSettingsSchema>;
-
-/** The first and last delivery day of a run, both included, the first not after the last. */
-export function spanProblem(from: string, to: string): string | null {
-  return from > to ? `--to ${to} is before --from ${from}` : null;
-}
 
 /** The span check of a settings schema (`.superRefine(checkSpan)`): a `to` before `from` is a problem of `to`. */
 export function checkSpan(settings: { readonly from?: string | undefined; readonly to?: string | undefined }, ctx: z.RefinementCtx): void {

@@ -5,10 +5,9 @@ import { edgeTest, type EdgeTest } from './edgeTest.js';
 import { policyMetrics } from './policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from './policyRun.js';
 import type { BacktestInput } from './runBacktest.js';
+import type { SweepPolicy } from './backtestPolicy.js';
 
-/** Policies a sweep varies alpha for: the two whose orders depend on it. */
-export const SWEEP_POLICIES = Object.freeze(['quantile', 'median'] as const);
-export type SweepPolicy = (typeof SWEEP_POLICIES)[number];
+export { SWEEP_POLICIES, type SweepPolicy } from './backtestPolicy.js';
 
 /**
  * The reference policies whose rows sweep.csv carries after the grid, once per rule: they do not

@@ -1,5 +1,4 @@
 import { Command, InvalidArgumentError, Option } from 'commander';
-import { backtestUseCase } from '../app/backtest/backtestUseCase.js';
 import { BACKTEST_DEFAULTS, BACKTEST_POLICIES, type BacktestPolicy, type UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
@@ -84,7 +83,7 @@ Examples:
                     --from 2026-03-01 --to 2026-03-31 \\
                     --model arx-hs --levels 0.05:0.95:0.05 --out runs/march-arx`,
   );
-  command.action((flags: BacktestFlags) => {
+  command.action(async (flags: BacktestFlags) => {
     const span = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'ledger.csv, days.csv and summary.json' });
     const model = modelSettings(flags);
     const settings = {
@@ -97,6 +96,7 @@ Examples:
       force: flags.force === true,
       report: flags.report === true,
     };
+    const { backtestUseCase } = await import('../app/backtest/backtestUseCase.js');
     printResult(io, backtestUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
   });
   return command;

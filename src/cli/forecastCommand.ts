@@ -1,8 +1,7 @@
 import { Command, InvalidArgumentError, Option } from 'commander';
 import { shownText } from '../errors/shownText.js';
-import { FORECAST_DEFAULTS, forecastUseCase } from '../app/forecast/forecastUseCase.js';
-import { DEFAULT_LEVELS_TEXT } from '../app/modelForecast.js';
-import { FORECAST_METHODS, FORECAST_OPTION_DEFAULTS, type ForecastMethod } from '../app/vocabulary.js';
+import { DEFAULT_LEVELS_TEXT, FORECAST_DEFAULTS } from '../app/commandDefaults.js';
+import { DEFAULT_CALIBRATION_DAYS, FORECAST_METHODS, type ForecastMethod } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addInputOptions, forceOption, inputSources, jsonOption, levelsArg, oneOf, outOption, quietOption, requireSpanAndOut, spanOptions, type InputFlags } from './options.js';
@@ -23,8 +22,8 @@ export interface ForecastFlags extends InputFlags {
 /** `--paths S`: a whole number of scenario paths per day, 0 to calibrationDays. */
 export function parsePathCountArg(value: string): number {
   const count = Number(value);
-  if (!/^\d+$/.test(value.trim()) || count > FORECAST_OPTION_DEFAULTS.calibrationDays) {
-    throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number of paths from 0 to ${FORECAST_OPTION_DEFAULTS.calibrationDays} (one per calibration day at most)`);
+  if (!/^\d+$/.test(value.trim()) || count > DEFAULT_CALIBRATION_DAYS) {
+    throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number of paths from 0 to ${DEFAULT_CALIBRATION_DAYS} (one per calibration day at most)`);
   }
   return count;
 }
@@ -68,9 +67,10 @@ Examples:
   quantbid score --scenario scenarios/halvorn/scenario.json \\
                  --forecast runs/fc/quantiles.csv --out runs/fc-score`,
   );
-  command.action((flags: ForecastFlags) => {
+  command.action(async (flags: ForecastFlags) => {
     const span = requireSpanAndOut(flags, { days: 'delivery day to forecast', outFolder: 'quantiles.csv and forecast.json' });
     const settings = { inputs: inputSources(flags), ...span, method: flags.method, levels: [...flags.levels], scenarioPaths: flags.paths, force: flags.force === true };
+    const { forecastUseCase } = await import('../app/forecast/forecastUseCase.js');
     printResult(io, forecastUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
   });
   return command;

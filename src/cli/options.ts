@@ -8,9 +8,9 @@ import { InvalidArgumentError, Option, type Command } from 'commander';
 import { InputError, throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { shownText } from '../errors/shownText.js';
 import type { InputName } from '../app/inputFiles.js';
-import { MODEL_DEFAULTS } from '../app/modelForecast.js';
-import { decimalOf, levelsFromText, outFolderProblem, pathProblem } from '../app/settingRules.js';
-import { spanProblem, type InputSources, type ModelSettings } from '../app/settingSchemas.js';
+import { MODEL_DEFAULTS } from '../app/commandDefaults.js';
+import { decimalOf, levelsFromText, outFolderProblem, pathProblem, spanProblem } from '../app/settingRules.js';
+import type { InputSources, ModelSettings } from '../app/settingSchemas.js';
 import { ALPHA_RULE, FORECAST_METHODS, isAlpha, isValidDay, UNACCEPTED_RULES, type ForecastMethod, type UnacceptedRule } from '../app/vocabulary.js';
 
 // ---- value parsers ----

@@ -1,5 +1,5 @@
 import { Command } from 'commander';
-import { PLAN_DEFAULTS, planUseCase } from '../app/plan/planUseCase.js';
+import { PLAN_DEFAULTS } from '../app/commandDefaults.js';
 import { PLAN_POLICIES, type PlanPolicy } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
@@ -47,7 +47,7 @@ Examples:
   quantbid plan --scenario scenarios/halvorn/scenario.json --policy median \\
                 --alpha 0.2 --json`,
   );
-  command.action((flags: PlanFlags) => {
+  command.action(async (flags: PlanFlags) => {
     const settings = {
       inputs: inputSources(flags),
       ...(flags.day === undefined ? {} : { day: flags.day }),
@@ -58,6 +58,7 @@ Examples:
       force: flags.force === true,
       report: flags.report === true,
     };
+    const { planUseCase } = await import('../app/plan/planUseCase.js');
     printResult(io, planUseCase(settings, cliHooks(io, false)), flags.json === true);
   });
   return command;

@@ -1,7 +1,8 @@
 import { Command, InvalidArgumentError } from 'commander';
 import { gatherProblems, InputError, type InputProblem } from '../errors/inputError.js';
 import { shownText } from '../errors/shownText.js';
-import { alphaBestSpanProblem, SIZE_DEFAULTS, sizeAxesFromText, sizeUseCase, type SizeSettings } from '../app/size/sizeUseCase.js';
+import { SIZE_DEFAULTS } from '../app/commandDefaults.js';
+import type { SizeSettings } from '../app/size/sizeUseCase.js';
 import { ALPHA_RANGE, SIZE_POLICIES, UNACCEPTED_RULES, type UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
@@ -94,19 +95,21 @@ Examples:
   );
   command.action(async (flags: SizeFlags) => {
     const { from, to, out } = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'size.csv and summary.json' });
-    const settings: SizeSettings = { ...gridRunSettings(flags, out), from, to, ...sizeFlagSettings(flags, from, to) };
+    const size = await import('../app/size/sizeUseCase.js');
+    const settings: SizeSettings = { ...gridRunSettings(flags, out), from, to, ...sizeFlagSettings(flags, from, to, size) };
     const hooks = cliHooks(io, flags.quiet === true);
     if (flags.policy !== undefined) hooks.note('note: --policy is read as --policies (one spelling for lists of policies, as in backtest and sweep); write --policies\n');
-    printResult(io, await sizeUseCase(settings, hooks), flags.json === true);
+    printResult(io, await size.sizeUseCase(settings, hooks), flags.json === true);
   });
   return command;
 }
 
 /**
  * The sizing's own settings from its flags, all problems listed together: the size and policy axes,
- * the alpha (with `best`, a grid and at least two days), the required economics.
+ * the alpha (with `best`, a grid and at least two days), the required economics; `rules` are the use
+ * case's, loaded with it.
  */
-function sizeFlagSettings(flags: SizeFlags, from: string, to: string): Omit<SizeSettings, 'inputs' | 'model' | 'threads' | 'restart' | 'out' | 'force' | 'report' | 'from' | 'to'> {
+function sizeFlagSettings(flags: SizeFlags, from: string, to: string, rules: Pick<typeof import('../app/size/sizeUseCase.js'), 'sizeAxesFromText' | 'alphaBestSpanProblem'>): Omit<SizeSettings, 'inputs' | 'model' | 'threads' | 'restart' | 'out' | 'force' | 'report' | 'from' | 'to'> {
   const problems: InputProblem[] = [];
   const missing = (option: string, fix: string): void => {
     problems.push({ file: 'command line', field: option, message: `no ${option} given`, fix });
@@ -116,7 +119,7 @@ function sizeFlagSettings(flags: SizeFlags, from: string, to: string): Omit<Size
   }
   const policies = flags.policies ?? flags.policy ?? SIZE_DEFAULTS.policies;
   const axes = gatherProblems(problems, () =>
-    sizeAxesFromText({ energyMwh: flags.energyMwh, powerMw: flags.powerMw, efficiency: flags.efficiency, alphas: flags.alpha === 'best' ? (flags.alphas ?? SIZE_DEFAULTS.alphas) : undefined, policies, policiesOption: flags.policies === undefined && flags.policy !== undefined ? '--policy' : '--policies' }),
+    rules.sizeAxesFromText({ energyMwh: flags.energyMwh, powerMw: flags.powerMw, efficiency: flags.efficiency, alphas: flags.alpha === 'best' ? (flags.alphas ?? SIZE_DEFAULTS.alphas) : undefined, policies, policiesOption: flags.policies === undefined && flags.policy !== undefined ? '--policy' : '--policies' }),
   );
   if (flags.energyMwh === undefined) missing('--energy-mwh', 'give the energies to try, e.g. --energy-mwh 5:60:5');
   if (flags.powerMw === undefined) missing('--power-mw', 'give the powers to try, e.g. --power-mw 2.5:30:2.5');
@@ -127,7 +130,7 @@ function sizeFlagSettings(flags: SizeFlags, from: string, to: string): Omit<Size
   if (flags.alpha !== 'best' && flags.alphas !== undefined) {
     problems.push({ file: 'command line', field: '--alphas', message: 'is used only with --alpha best', fix: 'add --alpha best, or leave --alphas out' });
   }
-  const best = flags.alpha === 'best' ? alphaBestSpanProblem(from, to) : null;
+  const best = flags.alpha === 'best' ? rules.alphaBestSpanProblem(from, to) : null;
   if (best !== null) problems.push({ file: 'command line', field: '--alpha', message: best, fix: 'give a longer span from --from to --to, or a fixed --alpha' });
   if (problems.length > 0 || axes === undefined) throw new InputError(problems);
   return {

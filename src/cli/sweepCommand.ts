@@ -1,5 +1,5 @@
 import { Command } from 'commander';
-import { SWEEP_DEFAULTS, sweepAxesFromText, sweepUseCase } from '../app/sweep/sweepUseCase.js';
+import { SWEEP_DEFAULTS } from '../app/commandDefaults.js';
 import { SWEEP_POLICIES, UNACCEPTED_RULES } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
@@ -80,6 +80,7 @@ Examples:
   );
   command.action(async (flags: SweepFlags) => {
     const { from, to, out } = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'sweep.csv and summary.json' });
+    const { sweepAxesFromText, sweepUseCase } = await import('../app/sweep/sweepUseCase.js');
     const axes = sweepAxesFromText(flags);
     const settings = { ...gridRunSettings(flags, out), from, to, ...axes };
     printResult(io, await sweepUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);

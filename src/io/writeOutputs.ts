@@ -57,8 +57,9 @@ export interface StagedFile {
   /**
    * Appends text, written at once: pieces are not gathered in memory, where a long run's pieces would
    * outlive the young generation of the garbage collector and pile up (pass pieces of some kilobytes).
+   * Bytes are written as they are (UTF-8 text).
    */
-  append(text: string): void;
+  append(text: string | Uint8Array): void;
 }
 
 /**
@@ -105,9 +106,12 @@ export class OutputStage {
     const fd = this.guard(() => openSync(this.path(name), 'w'));
     this.openFiles.set(name, fd);
     return {
-      append: (text: string) => {
+      append: (text: string | Uint8Array) => {
         if (this.done) throw new RangeError(`OutputStage: ${name} is closed`);
-        this.guard(() => writeSync(fd, text));
+        this.guard(() => {
+          if (typeof text === 'string') writeSync(fd, text);
+          else for (let written = 0; written < text.length; ) written += writeSync(fd, text, written, text.length - written);
+        });
       },
     };
   }

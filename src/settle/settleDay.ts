@@ -3,14 +3,9 @@ import { isAccepted } from './acceptance.js';
 import type { ImbalancePrices } from './imbalancePrices.js';
 import type { SettlementTotals } from './settlementTotals.js';
 
-/**
- * What the battery does about orders the auction did not accept (docs/design.md section 5):
- * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the imbalance price;
- * - `follow-accepted`: it moves only with accepted orders; unaccepted orders have no effect.
- */
-export type UnacceptedRule = 'follow-plan' | 'follow-accepted';
+import type { UnacceptedRule } from './unacceptedRule.js';
 
-export const UNACCEPTED_RULES: readonly UnacceptedRule[] = Object.freeze(['follow-plan', 'follow-accepted']);
+export { UNACCEPTED_RULES, type UnacceptedRule } from './unacceptedRule.js';
 
 /** One period's order as settlement reads it (an Order has these fields and more). */
 export type PeriodOrder = Pick<Order, 'side' | 'quantityMw' | 'limitPrice'>;
@@ -27,6 +22,8 @@ export interface SettleDayInput {
   readonly clearingPricePerMwh: readonly number[];
   readonly imbalance: ImbalancePrices;
   readonly unaccepted: UnacceptedRule;
+  /** Whether to return every period's settlement (a ledger); without it `periods` is empty and only the totals are made. Default true. */
+  readonly keepPeriods?: boolean;
 }
 
 /**
@@ -88,7 +85,8 @@ export function settleDay(input: SettleDayInput): SettledDay {
   const count = input.clearingPricePerMwh.length;
   checkInput(input, count);
   const tolMwh = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
-  const periods: SettledPeriod[] = new Array<SettledPeriod>(count);
+  const keepPeriods = input.keepPeriods ?? true;
+  const periods: SettledPeriod[] = new Array<SettledPeriod>(keepPeriods ? count : 0);
   // Sums in period order, in plain variables (a settled year is ~175,000 periods per policy).
   let profit = 0, auction = 0, imbalanceSum = 0, costVsClearing = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtImbalance = 0, soldImbalance = 0;
   let deliberateMwh = 0, deliberateCash = 0, deliberatePeriods = 0;
@@ -135,22 +133,25 @@ export function settleDay(input: SettleDayInput): SettledDay {
     const auctionCash = clearing * (tradeSoldAuction - tradeBoughtAuction);
     const imbalanceCash = imbalanceSell * soldImbalanceMwh - imbalanceBuy * boughtImbalanceMwh;
     const degradationCost = battery.degradationCostPerMwh * dischargedMwh;
+    const periodProfit = auctionCash + imbalanceCash - degradationCost;
     const deliberateImbalanceMwh = soldBackMwh + boughtBackMwh;
-    const period = new SettledPeriodRecord(
-      accepted,
-      tradeBoughtAuction,
-      tradeSoldAuction,
-      boughtImbalanceMwh,
-      soldImbalanceMwh,
-      chargedMwh,
-      dischargedMwh,
-      auctionCash,
-      imbalanceCash,
-      degradationCost,
-      auctionCash + imbalanceCash - degradationCost,
-      soc,
-      deliberateImbalanceMwh,
-    );
+    if (keepPeriods) {
+      periods[t] = new SettledPeriodRecord(
+        accepted,
+        tradeBoughtAuction,
+        tradeSoldAuction,
+        boughtImbalanceMwh,
+        soldImbalanceMwh,
+        chargedMwh,
+        dischargedMwh,
+        auctionCash,
+        imbalanceCash,
+        degradationCost,
+        periodProfit,
+        soc,
+        deliberateImbalanceMwh,
+      );
+    }
     if (boughtImbalanceMwh !== 0 || soldImbalanceMwh !== 0) {
       costVsClearing += (imbalanceBuy - clearing) * boughtImbalanceMwh - (imbalanceSell - clearing) * soldImbalanceMwh;
       if (deliberateImbalanceMwh > 0) {
@@ -159,8 +160,7 @@ export function settleDay(input: SettleDayInput): SettledDay {
         deliberatePeriods++;
       }
     }
-    periods[t] = period;
-    profit += period.profit;
+    profit += periodProfit;
     auction += auctionCash;
     imbalanceSum += imbalanceCash;
     degradation += degradationCost;

@@ -175,7 +175,8 @@ describe('ArxGramBuilder', () => {
       }
       const plain = nestedStandardisedGrams({ rows: n, cols: k, data: x }, y, counts);
       const fast: StandardisedGram[] = [];
-      builder.forEachGram(slotValues, a, lastSlot, (g) => fast.push(structuredClone(g)));
+      const columns = Float64Array.from({ length: n * a }, (_, c) => slotValues[(c % n) * a + Math.floor(c / n)]!);
+      builder.forEachGram(columns, a, lastSlot, (g) => fast.push(structuredClone(g)));
       fast.forEach((g, w) => {
         const p = plain[w]!;
         expect(g.n).toBe(p.n);

@@ -6,7 +6,7 @@ import type { UnacceptedRule } from '../../settle/settleDay.js';
 import { BACKTEST_POLICIES, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
 import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay, type BacktestInput } from '../../backtest/runBacktest.js';
 import { daysBetween } from '../../market/calendar.js';
-import { LEDGER_COLUMNS, daysCsv, ledgerRows } from '../../io/backtestOutputs.js';
+import { LEDGER_COLUMNS, daysCsv, ledgerRowBytes } from '../../io/backtestOutputs.js';
 import { jsonText } from '../../io/planOutputs.js';
 import { checkOutputFolder, OutputStage } from '../../io/writeOutputs.js';
 import { backtestReport } from '../../report/backtestReport.js';
@@ -75,7 +75,7 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
   try {
     const ledger = stage.open('ledger.csv');
     ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
-    const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRows(day));
+    const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRowBytes(day));
     const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay });
     progress.finish();
     const metrics = backtestMetrics(result, battery);

@@ -1,7 +1,7 @@
 import { basename, dirname } from 'node:path';
 import { z } from 'zod';
 import { gatherProblems, InputError, type InputProblem } from '../../errors/inputError.js';
-import { DEFAULT_METHOD, DEFAULTS, FORECAST_METHODS } from '../../forecast/forecaster.js';
+import { DEFAULTS, FORECAST_METHODS } from '../../forecast/forecaster.js';
 import { forecastRange, type ForecastRangeResult } from '../../forecast/forecastRange.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import { jsonText } from '../../io/planOutputs.js';
@@ -11,6 +11,7 @@ import { readMarketSpec } from '../../io/readSpecs.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { daysBetween } from '../../market/calendar.js';
 import { DayCalendar } from '../../market/dayCalendar.js';
+import { FORECAST_DEFAULTS } from '../commandDefaults.js';
 import type { Done } from '../commandResult.js';
 import { inputFiles } from '../inputFiles.js';
 import { defaultLevels } from '../modelForecast.js';
@@ -18,8 +19,7 @@ import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { outFolderProblem } from '../settingRules.js';
 import { checkSpan, daySchema, inputSourcesSchema, levelsSchema, validSettings } from '../settingSchemas.js';
 
-/** Defaults of `quantbid forecast`: the method of docs/forecast-quality.md, 19 levels, no paths. */
-export const FORECAST_DEFAULTS = Object.freeze({ method: DEFAULT_METHOD, paths: 0 });
+export { FORECAST_DEFAULTS } from '../commandDefaults.js';
 
 /** The settings of `quantbid forecast`, checked once when it starts. */
 export const forecastSettingsSchema = z

@@ -11,6 +11,7 @@ import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
 import { planDay, type PlanResult } from '../../plan/planDay.js';
 import { planReport } from '../../report/planReport.js';
 import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
+import { PLAN_DEFAULTS } from '../commandDefaults.js';
 import type { Done } from '../commandResult.js';
 import { forecastLevelProblems } from '../forecastLevels.js';
 import { inputFiles } from '../inputFiles.js';
@@ -18,8 +19,7 @@ import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
 import { planSummary, planSummaryText, planWarnings, planWorth, type PlanWorth } from './planSummary.js';
 
-/** Defaults of `quantbid plan`: the quantile policy at alpha 0.1. */
-export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanPolicy });
+export { PLAN_DEFAULTS } from '../commandDefaults.js';
 
 /** The settings of `quantbid plan`, checked once when the plan starts. */
 export const planSettingsSchema = z.strictObject({

@@ -7,23 +7,18 @@ import type { SizeResult } from '../../sizing/bestSizes.js';
 import { specRoundTripEfficiency } from '../../sizing/scaledBattery.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
 import { SIZE_POLICIES, type SizePolicy } from '../../sizing/sizeSettingRow.js';
+import { SIZE_DEFAULTS } from '../commandDefaults.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { readGridInputs, runGridCommand } from '../gridRun.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
+import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { sizeSummary, sizeSummaryText } from './sizeSummary.js';
 import type { SizeTaskInput } from './sizeTask.js';
 
-/** Defaults: the quantile policy at alpha 0.1, the grid of `--alpha best`, follow-plan, no fixed O&M. */
-export const SIZE_DEFAULTS = Object.freeze({
-  policies: 'quantile',
-  alpha: 0.1,
-  alphas: '0.05:0.45:0.05',
-  unaccepted: 'follow-plan' as const,
-  fixedOmPerMwYear: 0,
-});
+export { SIZE_DEFAULTS } from '../commandDefaults.js';
 
 /** The size axes and the alphas of `--alpha best` from their text, every problem listed together; an axis whose text is undefined is left out. */
 export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly powerMw?: string; readonly efficiency?: string; readonly alphas?: string; readonly policies: string; readonly policiesOption?: string }) {
@@ -129,7 +124,7 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
     { name: 'policy', option: '--policies', values: sizePolicyAxis(s.policies) },
   ] as const;
   // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, data: inputDataSpan(data, from, to) };
+  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, shared: shareInputs(inputDataSpan(data, from, to)) };
   const outcome = await runGridCommand(
     {
       command: 'size',

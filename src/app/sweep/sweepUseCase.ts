@@ -5,6 +5,7 @@ import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
 import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
@@ -13,8 +14,7 @@ import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
 import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
 import type { SweepTaskInput } from './sweepTask.js';
 
-/** Defaults of the axes as written in the help: alphas the demo forecast's levels (0.05 to 0.95) allow, both alpha policies, follow-plan. */
-export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: SWEEP_POLICIES.join(','), unaccepted: 'follow-plan' });
+export { SWEEP_DEFAULTS } from '../commandDefaults.js';
 
 /** The axes of a sweep from their text (`--alphas 0.05:0.45:0.05`, `--policies quantile,median`, ...), every problem listed together. */
 export function sweepAxesFromText(text: { readonly alphas: string; readonly policies: string; readonly unaccepted: string }) {
@@ -61,9 +61,9 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
   ] as const;
   const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
+  // The workers get the inputs as read here, cut to the span and shared: none reads or parses a file again.
   const span = inputDataSpan(data, from, to);
-  const contextInput: SweepTaskInput = { paths, from, to, data: span };
+  const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(span) };
   // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
   let references: SweepReferenceRow[] | undefined;
   const referenceRows = (): SweepReferenceRow[] =>
