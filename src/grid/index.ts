@@ -9,7 +9,7 @@ export { runPool, defaultThreads } from './workerPool.js';
 export type { PoolJob, PoolOptions, PoolStatus } from './workerPool.js';
 export { runGrid, interruptedMessage, journalName, GRID_RUN_DEFAULTS } from './runGrid.js';
 export type { GridOptions, GridOutcome, GridResult } from './runGrid.js';
-export { readJournal } from './gridJournal.js';
+export { readJournal, journalDigest } from './gridJournal.js';
 export type { JournalHeader, JournalEntry } from './gridJournal.js';
 export { gridFingerprint, canonicalJson } from './gridFingerprint.js';
 export { stopOnSigint } from './stopOnSigint.js';

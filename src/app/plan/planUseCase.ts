@@ -4,6 +4,7 @@ import { gatherProblems, InputError, throwIfProblems, type InputProblem } from '
 import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
 import { readQuantileForecast, type QuantileForecastFile } from '../../io/readQuantileForecast.js';
 import { readBatterySpec, readMarketSpec } from '../../io/readSpecs.js';
+import type { OutputLock } from '../../io/outputLock.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { PLAN_POLICIES } from '../../plan/alpha.js';
 import { planDay } from '../../plan/planDay.js';
@@ -11,7 +12,8 @@ import { planReport } from '../../report/planReport.js';
 import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
 import type { Done } from '../commandResult.js';
 import { forecastLevelProblems } from '../forecastLevels.js';
-import { inputFiles } from '../inputFiles.js';
+import { inputFiles, runInputFiles } from '../inputFiles.js';
+import { lockedRun } from '../lockedRun.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
 import { planSummary, planSummaryText } from './planSummary.js';
@@ -60,7 +62,17 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
     throw new InputError([{ file: 'command line', field: '--report', message: 'report.html needs a folder to go to', fix: 'add --out DIR' }]);
   }
   const outputs = s.report ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS;
-  if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force);
+  if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
+  return lockedRun(s.out, 'plan', (lock) => planDayRun(s, { paths, day, outputs, lock }, hooks));
+}
+
+/** The plan of `day` from the checked settings, written under the output folder's lock (when there is a folder). */
+function planDayRun(
+  s: z.output<typeof planSettingsSchema>,
+  run: { readonly paths: Record<'market' | 'battery' | 'forecast', string>; readonly day: string; readonly outputs: readonly string[]; readonly lock: OutputLock | undefined },
+  hooks: RunHooks,
+): Done<PlanSummary> {
+  const { paths, day, outputs } = run;
   const { market, battery, forecastFile } = readPlanInputs(paths);
   const forecast = forecastDay(forecastFile, day);
   const socStartMwh = s.socStartMwh ?? battery.socInitialMwh;
@@ -84,6 +96,7 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
       ],
       s.force,
       ['report.html'],
+      run.lock,
     );
   }
   // Repaired, not refused (docs/design.md section 6); a note, so that --json output stays clean.

@@ -8,7 +8,7 @@ import { specRoundTripEfficiency } from '../../sizing/scaledBattery.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
 import { SIZE_POLICIES, type SizePolicy } from '../../sizing/sizeSettingRow.js';
 import type { Done, Interrupted } from '../commandResult.js';
-import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { lockedGridRun, runGridCommand } from '../gridRun.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
@@ -112,30 +112,33 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
   const costs: SizeCosts = s.costs;
   const alpha: AlphaMode = s.alpha === 'best' ? { method: 'best', alphas: s.alphas ?? defaultBestAlphas() } : { method: 'fixed', alpha: s.alpha };
   const alphas = alpha.method === 'fixed' ? [alpha.alpha] : alpha.alphas;
-  const { paths, data, model } = readGridInputs(s, 'size.csv', { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policy' }, hooks);
-  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  const axes = [
-    { name: 'energy_mwh', option: '--energy-mwh', values: s.energiesMwh },
-    { name: 'power_mw', option: '--power-mw', values: s.powersMw },
-    { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
-    { name: 'policy', option: '--policy', values: [...s.policies, 'perfect-foresight'] as SizePolicy[] },
-  ] as const;
-  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, data: inputDataSpan(data, from, to) };
-  return runGridCommand(
-    {
-      command: 'size',
-      run: s,
-      axes,
-      taskModule: new URL('./sizeTask.js', import.meta.url),
-      contextInput,
-      identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven },
-      paths,
-      model,
-      summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
-      report: (results, summary) => sizeReport({ results, summary }),
-      summaryText: sizeSummaryText,
-    },
-    hooks,
-  );
+  const use = { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policy' };
+  return lockedGridRun(s, 'size', use, hooks, ({ paths, data, model }, lock) => {
+    const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+    const axes = [
+      { name: 'energy_mwh', option: '--energy-mwh', values: s.energiesMwh },
+      { name: 'power_mw', option: '--power-mw', values: s.powersMw },
+      { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
+      { name: 'policy', option: '--policy', values: [...s.policies, 'perfect-foresight'] as SizePolicy[] },
+    ] as const;
+    // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
+    const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, data: inputDataSpan(data, from, to) };
+    return runGridCommand(
+      {
+        command: 'size',
+        run: s,
+        lock,
+        axes,
+        taskModule: new URL('./sizeTask.js', import.meta.url),
+        contextInput,
+        identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven },
+        paths,
+        model,
+        summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
+        report: (results, summary) => sizeReport({ results, summary }),
+        summaryText: sizeSummaryText,
+      },
+      hooks,
+    );
+  });
 }

@@ -3,7 +3,7 @@ import { SWEEP_POLICIES, type SweepResult } from '../../backtest/sweepSettingRow
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
-import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { lockedGridRun, runGridCommand } from '../gridRun.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
@@ -58,24 +58,27 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
     { name: 'policy', option: '--policies', values: s.policies },
     { name: 'unaccepted', option: '--unaccepted', values: s.unaccepted },
   ] as const;
-  const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
-  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
-  return runGridCommand(
-    {
-      command: 'sweep',
-      run: s,
-      axes,
-      taskModule: new URL('./sweepTask.js', import.meta.url),
-      contextInput,
-      identity: { from, to },
-      paths,
-      model,
-      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, ...modelContext }),
-      report: (results, summary) => sweepReport({ results, summary }),
-      summaryText: sweepSummaryText,
-    },
-    hooks,
-  );
+  const use = { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' };
+  return lockedGridRun(s, 'sweep', use, hooks, ({ paths, data, model }, lock) => {
+    const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+    // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
+    const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
+    return runGridCommand(
+      {
+        command: 'sweep',
+        run: s,
+        lock,
+        axes,
+        taskModule: new URL('./sweepTask.js', import.meta.url),
+        contextInput,
+        identity: { from, to },
+        paths,
+        model,
+        summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, ...modelContext }),
+        report: (results, summary) => sweepReport({ results, summary }),
+        summaryText: sweepSummaryText,
+      },
+      hooks,
+    );
+  });
 }
