@@ -21,6 +21,7 @@ export const SLOW_OR_SPAWNING = [
   'test/grid/runGrid.test.ts',
   'test/grid/killResume.test.ts',
   'test/hardening/killedRuns.test.ts',
+  'test/hardening/concurrentRuns.test.ts',
   'test/hardening/determinism.test.ts',
   'test/io/forecastCache.test.ts',
   'test/report/sweepReport.test.ts',

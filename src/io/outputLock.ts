@@ -9,6 +9,8 @@ import { isRunning } from './processAlive.js';
 export const LOCK_NAME = '.quantbid-lock';
 /** Prefix of the temporary files a lock is written to before it is linked into place (removed as leftovers). */
 export const LOCK_TEMP_PREFIX = `${LOCK_NAME}.tmp-`;
+/** Name of the short-lived lock a run holds while it removes a stale lock (removeStale). */
+export const RECOVERY_NAME = `${LOCK_NAME}.recover`;
 
 /** What a lock file holds: who holds the folder, for the message a second run prints. */
 export interface LockHolder {
@@ -25,7 +27,8 @@ export interface LockHolder {
 const heldTokens = new Set<string>();
 
 /** Attempts to take a lock that was in the way (a stale lock removed, or one released meanwhile). */
-const MAX_ATTEMPTS = 5;
+const MAX_ATTEMPTS = 200;
+
 
 /**
  * The lock of an output folder, held for the whole run of a command that writes into it, so that two
@@ -61,13 +64,12 @@ export class OutputLock {
     const created = fileStep(outDir, () => makeFolders(outDir));
     try {
       for (let attempt = 1; ; attempt++) {
-        if (fileStep(outDir, () => tryCreate(outDir, holder))) break;
+        if (fileStep(outDir, () => tryCreate(outDir, LOCK_NAME, holder))) break;
         const found = readHolder(outDir);
         if (found === 'gone') continue;
         if (found === 'unreadable') throw new InputError([unreadableProblem(outDir)]);
-        if (heldTokens.has(found.token) || (found.pid !== process.pid && isRunning(found.pid))) throw new InputError([heldProblem(outDir, found)]);
-        if (attempt >= MAX_ATTEMPTS) throw new InputError([heldProblem(outDir, found)]);
-        fileStep(outDir, () => removeStale(outDir, found));
+        if (heldTokens.has(found.token) || (found.pid !== process.pid && isRunning(found.pid)) || attempt >= MAX_ATTEMPTS) throw new InputError([heldProblem(outDir, found)]);
+        fileStep(outDir, () => removeStale(outDir, found, holder));
       }
     } catch (err) {
       removeEmptyFolders(created);
@@ -109,9 +111,9 @@ export class OutputLock {
   }
 }
 
-/** Creates the lock file with `holder`; false when a lock file is in the way. */
-function tryCreate(outDir: string, holder: LockHolder): boolean {
-  const path = join(outDir, LOCK_NAME);
+/** Creates the lock file `name` in `outDir` with `holder`; false when a file of that name is in the way. */
+function tryCreate(outDir: string, name: string, holder: LockHolder): boolean {
+  const path = join(outDir, name);
   const text = `${JSON.stringify(holder)}\n`;
   const temporary = join(outDir, `${LOCK_TEMP_PREFIX}${process.pid}-${holder.token}`);
   writeFileSync(temporary, text, { flush: true });
@@ -146,8 +148,8 @@ function createExclusive(path: string, text: string): boolean {
 }
 
 /** The holder named by the lock file of `outDir`: `gone` when there is none, `unreadable` when it is not a lock quantbid wrote. */
-export function readHolder(outDir: string): LockHolder | 'gone' | 'unreadable' {
-  const path = join(outDir, LOCK_NAME);
+export function readHolder(outDir: string, name = LOCK_NAME): LockHolder | 'gone' | 'unreadable' {
+  const path = join(outDir, name);
   let text: string;
   try {
     // A lock is a small regular file; a folder, a link or a large file at its name is not one of ours.
@@ -176,13 +178,37 @@ function parseHolder(text: string): LockHolder | null {
 }
 
 /**
- * Removes the stale lock `stale`: renamed to a name of this process's own (atomic: of two runs only one
- * moves it), then deleted when it is still that stale lock. When a live lock was moved instead (another
- * run recovered the stale one and took the folder between our read and our rename), it is linked back
- * to its name, unless a third lock stands there already.
+ * Removes the stale lock `stale`, under the recovery lock `.quantbid-lock.recover` (taken like the lock
+ * itself, by a hard link), so that of several runs recovering it at once one removes it: holding the
+ * recovery lock, a run reads the lock again and deletes it only when it is still that stale lock (no
+ * other run can replace a lock that exists, or delete one without the recovery lock). A recovery lock
+ * of a run that is gone is moved away and checked by its token (moveStale); one of a run that runs
+ * makes this one wait a moment and try again.
  */
-function removeStale(outDir: string, stale: LockHolder): void {
-  const path = join(outDir, LOCK_NAME);
+function removeStale(outDir: string, stale: LockHolder, self: LockHolder): void {
+  if (!tryCreate(outDir, RECOVERY_NAME, self)) {
+    const recovering = readHolder(outDir, RECOVERY_NAME);
+    if (recovering === 'gone') return;
+    if (recovering !== 'unreadable' && recovering.pid !== process.pid && !isRunning(recovering.pid)) moveStale(outDir, RECOVERY_NAME, recovering);
+    else pause(5);
+    return;
+  }
+  try {
+    const now = readHolder(outDir);
+    if (now !== 'gone' && now !== 'unreadable' && now.token === stale.token) unlinkSync(join(outDir, LOCK_NAME));
+  } finally {
+    const mine = readHolder(outDir, RECOVERY_NAME);
+    if (mine !== 'gone' && mine !== 'unreadable' && mine.token === self.token) unlinkSync(join(outDir, RECOVERY_NAME));
+  }
+}
+
+/**
+ * Removes the file `name` that held `stale`: renamed to a name of this run's own (atomic: of two runs
+ * only one moves it), then deleted when it is still that stale file; a live one moved by mistake (it
+ * replaced the stale one between the read and the rename) is linked back unless its name is taken again.
+ */
+function moveStale(outDir: string, name: string, stale: LockHolder): void {
+  const path = join(outDir, name);
   const moved = join(outDir, `${LOCK_TEMP_PREFIX}${process.pid}-stale-${randomUUID()}`);
   try {
     renameSync(path, moved);
@@ -200,10 +226,15 @@ function removeStale(outDir: string, stale: LockHolder): void {
     try {
       linkSync(moved, path);
     } catch {
-      // A third run holds the name now; the moved lock's holder finds its lock replaced (OutputLock.verify).
+      // Taken again meanwhile: the moved file's holder finds it gone when it checks (OutputLock.verify).
     }
   }
   unlinkSync(moved);
+}
+
+/** Waits `ms` milliseconds without giving up the thread (the lock is taken synchronously). */
+function pause(ms: number): void {
+  Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, ms);
 }
 
 function heldProblem(outDir: string, holder: LockHolder): InputProblem {

@@ -64,3 +64,21 @@ export function seededUniform(seed: number): () => number {
     return state / 2147483647;
   };
 }
+
+/**
+ * Node arguments that preload a module pausing `pauseMs` before and after every rename in the file
+ * system, saying `test-rename NAME` on stderr first: a run's output renames become windows long enough
+ * to kill it in, or to start a second run in. Timing only: the outputs are the plain CLI's.
+ */
+export function slowRenamePreload(pauseMs: number): string[] {
+  const source = [
+    `import fs from 'node:fs';`,
+    `import { basename } from 'node:path';`,
+    `import { syncBuiltinESMExports } from 'node:module';`,
+    `const rename = fs.renameSync;`,
+    `const pause = () => Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, ${pauseMs});`,
+    `fs.renameSync = (from, to) => { process.stderr.write('test-rename ' + basename(String(to)) + '\\n'); pause(); rename(from, to); pause(); };`,
+    `syncBuiltinESMExports();`,
+  ].join('\n');
+  return ['--import', `data:text/javascript,${encodeURIComponent(source)}`];
+}

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { LOCK_NAME, LOCK_TEMP_PREFIX } from '../../src/io/outputLock.js';
 import { COMMIT_PREFIX, PARTIAL_PREFIX } from '../../src/io/writeOutputs.js';
-import { DEMO_SCENARIO, folderFiles, runCliProcess, seededUniform, startCli, type CliExit } from './cliProcess.js';
+import { DEMO_SCENARIO, folderFiles, runCliProcess, seededUniform, slowRenamePreload, startCli, type CliExit } from './cliProcess.js';
 
 /**
  * A backtest and a sweep of the demo scenario, run with `--force` over the outputs of an earlier run
@@ -26,16 +26,7 @@ import { DEMO_SCENARIO, folderFiles, runCliProcess, seededUniform, startCli, typ
  * (the lock of a dead process is stale), which the test checks by running again.
  */
 const RENAME_PAUSE_MS = 250;
-const SLOW_RENAMES = [
-  `import fs from 'node:fs';`,
-  `import { basename } from 'node:path';`,
-  `import { syncBuiltinESMExports } from 'node:module';`,
-  `const rename = fs.renameSync;`,
-  `const pause = () => Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, ${RENAME_PAUSE_MS});`,
-  `fs.renameSync = (from, to) => { process.stderr.write('test-rename ' + basename(String(to)) + '\\n'); pause(); rename(from, to); pause(); };`,
-  `syncBuiltinESMExports();`,
-].join('\n');
-const PRELOAD = ['--import', `data:text/javascript,${encodeURIComponent(SLOW_RENAMES)}`];
+const PRELOAD = slowRenamePreload(RENAME_PAUSE_MS);
 
 const FROM = '2026-03-01';
 let scratch = '';
