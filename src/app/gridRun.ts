@@ -1,7 +1,7 @@
 import type { GridAxis } from '../grid/gridAxis.js';
 import type { SettingOf } from '../grid/expandGrid.js';
 import { interruptedMessage, runGrid, type GridOptions, type GridOutcome, type GridResult } from '../grid/runGrid.js';
-import { stopOnSigint } from '../grid/stopOnSigint.js';
+import { stopOnSignals } from '../grid/stopOnSignals.js';
 import type { GridRow } from '../grid/taskModule.js';
 import type { BacktestInputData, BacktestInputPaths } from '../io/readBacktestInputs.js';
 import { jsonText } from '../io/planOutputs.js';
@@ -18,9 +18,9 @@ import { readRunInputs, requireCoveredDay, runInputPaths } from './runInputs.js'
 import type { InputSources, ModelSettings } from './settingSchemas.js';
 
 /**
- * Runs a grid (runGrid) with a progress display and Ctrl-C handling: the first Ctrl-C lets the
- * running settings finish and keeps them in the journal; the run then returns `interrupted` with how
- * to resume (the CLI ends with exit code 130).
+ * Runs a grid (runGrid) with a progress display and Ctrl-C and SIGTERM handling: the first of them
+ * lets the running settings finish and keeps them in the journal; the run then returns `interrupted`
+ * with how to resume and the signal (the CLI ends with exit code 130 after Ctrl-C, 143 after SIGTERM).
  */
 export async function runCommandGrid<const Axes extends readonly GridAxis[], Input, Row extends GridRow>(
   hooks: RunHooks,
@@ -29,7 +29,7 @@ export async function runCommandGrid<const Axes extends readonly GridAxis[], Inp
 ): Promise<Extract<GridOutcome<SettingOf<Axes>, Row>, { status: 'complete' }> | Interrupted> {
   const total = options.axes.reduce((product, axis) => product * axis.values.length, 1);
   const progress = hooks.progress(label, total);
-  const stop = stopOnSigint((text) => hooks.warn(text));
+  const stop = stopOnSignals((text) => hooks.warn(text));
   let outcome: GridOutcome<SettingOf<Axes>, Row>;
   try {
     outcome = await runGrid<Axes, Input, Row>({ ...options, signal: stop.signal, onProgress: (done) => progress.update(done) });
@@ -37,7 +37,7 @@ export async function runCommandGrid<const Axes extends readonly GridAxis[], Inp
     stop.dispose();
     progress.finish();
   }
-  if (outcome.status === 'interrupted') return { status: 'interrupted', message: interruptedMessage(outcome) };
+  if (outcome.status === 'interrupted') return { status: 'interrupted', message: interruptedMessage(outcome), signal: stop.received() ?? 'SIGINT' };
   return outcome;
 }
 

@@ -12,4 +12,5 @@ export type { GridOptions, GridOutcome, GridResult } from './runGrid.js';
 export { readJournal, journalDigest } from './gridJournal.js';
 export type { JournalHeader, JournalEntry } from './gridJournal.js';
 export { gridFingerprint, canonicalJson } from './gridFingerprint.js';
-export { stopOnSigint } from './stopOnSigint.js';
+export { stopOnSignals } from './stopOnSignals.js';
+export type { SignalStop, StopSignal } from './stopOnSignals.js';

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { hasInvisible } from '../errors/shownText.js';
 import { isValidTimeZone } from './calendar.js';
 import { unevenClockShift } from './clockShifts.js';
 
@@ -32,7 +33,10 @@ export const marketSpecSchema = z
     /** Highest price the auction can clear at [currency/MWh]. Required. */
     priceCap: finite('priceCap'),
     /** Currency label printed beside prices, e.g. `EUR` or an invented one. Required. */
-    currency: text('currency').min(1, 'currency must not be empty'),
+    currency: text('currency')
+      .min(1, 'currency must not be empty')
+      .max(16, 'currency must be a short label of at most 16 characters')
+      .refine((label) => !hasInvisible(label) && label.trim() === label, 'currency must be printable text without control characters or blanks around it'),
     /** Gate closure, local time of day on the day before delivery, `HH:MM`. Required. */
     gateClosure: text('gateClosure')
       .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'gateClosure must be a local time HH:MM'),
@@ -66,7 +70,7 @@ export const MARKET_FIELD_FIXES: Readonly<Record<string, string>> = {
   periodMinutes: 'set the market time unit: 15, 30 or 60 (a period that divides every clock shift of the zone)',
   priceFloor: 'give the auction\'s lowest clearing price in currency/MWh, e.g. -500',
   priceCap: 'give the auction\'s highest clearing price in currency/MWh, above priceFloor, e.g. 4000',
-  currency: 'give a currency label such as "EUR"',
+  currency: 'give a short printable currency label such as "EUR"',
   gateClosure: 'give the local time on the day before delivery, e.g. "12:00"',
   'fallback.kind': 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
   'fallback.penaltyPerMwh': 'give a penalty >= 0 in currency/MWh',

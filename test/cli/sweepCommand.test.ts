@@ -103,6 +103,19 @@ describe('quantbid sweep on a small seeded market', () => {
     expect(existsSync(join(out, 'sweep.csv'))).toBe(false);
   });
 
+  it('stopped with SIGTERM (a service manager\'s stop): exit code 143 and the same message on how to resume, the journal kept', async () => {
+    const out = join(scenario.dir, 'terminated');
+    const journal = join(out, '.sweep-journal.jsonl');
+    const stopped = await quantbidStoppedAfter(sweepArgs(out, ['--threads', '2']), journal, 1, 'SIGTERM');
+    expect(stopped.code).toBe(143);
+    const kept = journalKeys(journal);
+    expect(stopped.stderr).toContain('stopping: no new settings start, the running ones finish and are kept; send SIGTERM again to stop at once.\n');
+    expect(stopped.stderr).toContain(`stopped after ${kept.length} of ${SETTINGS} settings; the finished ones are kept in ${journal}.\nRun the same command again to resume (or add --restart to start over).\n`);
+    expect(existsSync(join(out, 'sweep.csv'))).toBe(false);
+    const resumed = quantbid(sweepArgs(out, ['--threads', '2']));
+    expect(resumed.stdout).toContain(`${SETTINGS} settings (${kept.length} resumed from the journal)`);
+  });
+
   it('--help shows examples', () => {
     const help = quantbid(['sweep', '--help']);
     expect(help.code).toBe(0);
