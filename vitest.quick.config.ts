@@ -22,6 +22,8 @@ export const SLOW_OR_SPAWNING = [
   'test/grid/killResume.test.ts',
   'test/hardening/killedRuns.test.ts',
   'test/hardening/concurrentRuns.test.ts',
+  'test/hardening/fullDisk.test.ts',
+  'test/hardening/journalTampering.test.ts',
   'test/hardening/determinism.test.ts',
   'test/io/forecastCache.test.ts',
   'test/report/sweepReport.test.ts',

@@ -1,6 +1,7 @@
 import { rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { InputError } from '../errors/inputError.js';
+import { InputError, type InputProblem } from '../errors/inputError.js';
+import { outFolderWriteProblem } from '../io/outFolderWriteProblem.js';
 import { OutputLock } from '../io/outputLock.js';
 import { checkOutputFolder, writeOutputs, type OutputFile } from '../io/writeOutputs.js';
 import { checkRow } from './checkRow.js';
@@ -193,16 +194,14 @@ function diskStep<T>(outDir: string, journal: string, kept: number, step: () => 
     return step();
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
-    const problems = err instanceof InputError ? err.problems : code?.startsWith('E') === true ? [fileSystemProblem(outDir, code)] : null;
-    if (problems === null) throw err;
+    const problem = err instanceof InputError ? null : outFolderWriteProblem(outDir, code);
+    if (!(err instanceof InputError) && problem === null) throw err;
+    const problems = err instanceof InputError ? err.problems : [problem as InputProblem];
     if (kept === 0) throw err instanceof InputError ? err : new InputError(problems);
-    throw new InputError(problems, { kept: `the ${kept} finished settings are kept in ${journal}; when the problem is solved, run the same command again to resume.` });
+    // Another folder would start over: the finished settings are in this one.
+    const here = problems.map((p) => (p.message === 'the disk is full' ? { ...p, fix: 'free some space on that disk' } : p));
+    throw new InputError(here, { kept: `the ${kept} finished settings are kept in ${journal}; when the problem is solved, run the same command again to resume.` });
   }
-}
-
-function fileSystemProblem(outDir: string, code: string): { file: string; field: string; message: string; fix: string } {
-  if (code === 'ENOSPC' || code === 'EDQUOT') return { file: outDir, field: '--out', message: 'the disk is full', fix: 'free some space on that disk' };
-  return { file: outDir, field: '--out', message: `cannot be written (${code})`, fix: 'check the folder and the disk' };
 }
 
 /** The message for an interrupted sweep: what is kept and how to go on. */

@@ -82,3 +82,24 @@ export function slowRenamePreload(pauseMs: number): string[] {
   ].join('\n');
   return ['--import', `data:text/javascript,${encodeURIComponent(source)}`];
 }
+
+/**
+ * Node arguments that preload a module making the disk look full (ENOSPC, as write(2) reports it):
+ * after `journalAppends` whole appends to a grid's journal, or (`stagedWrites`) on every write into an
+ * output stage (`.quantbid-partial-*`). The rest of the file system works as usual.
+ */
+export function diskFullPreload(fault: { readonly journalAppends?: number; readonly stagedWrites?: boolean }): string[] {
+  const source = [
+    `import fs from 'node:fs';`,
+    `import { syncBuiltinESMExports } from 'node:module';`,
+    `const full = () => Object.assign(new Error('ENOSPC: no space left on device, write'), { code: 'ENOSPC', errno: -28, syscall: 'write' });`,
+    `const journals = new Set();`,
+    `let appends = 0;`,
+    `const open = fs.openSync, write = fs.writeSync, writeFile = fs.writeFileSync;`,
+    `fs.openSync = (path, ...rest) => { const fd = open(path, ...rest); if (/-journal\\.jsonl$/.test(String(path))) journals.add(fd); return fd; };`,
+    `fs.writeSync = (fd, ...rest) => { if (journals.has(fd) && ${fault.journalAppends ?? -1} >= 0 && appends++ >= ${fault.journalAppends ?? -1}) throw full(); return write(fd, ...rest); };`,
+    `fs.writeFileSync = (path, ...rest) => { if (${fault.stagedWrites === true} && String(path).includes('.quantbid-partial-')) throw full(); return writeFile(path, ...rest); };`,
+    `syncBuiltinESMExports();`,
+  ].join('\n');
+  return ['--import', `data:text/javascript,${encodeURIComponent(source)}`];
+}
