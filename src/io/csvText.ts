@@ -5,6 +5,8 @@ import { shownText } from '../errors/shownText.js';
 export interface CsvRow {
   readonly line: number;
   readonly cells: readonly string[];
+  /** Whether a quoted cell is still open at the end of the line (openQuoteProblem words it). */
+  readonly openQuote?: boolean;
 }
 
 export interface CsvTable {
@@ -45,7 +47,8 @@ export function splitCsv(text: string, file: string): { table: CsvTable } | { pr
   const rows: Iterable<CsvRow> = {
     *[Symbol.iterator]() {
       for (let at = lines.nextNonBlank(dataStart, first.line); at !== null; at = lines.nextNonBlank(at.end, at.line)) {
-        yield { line: at.line, cells: splitCsvLine(stripCr(at.text)) };
+        const text = stripCr(at.text);
+        yield { line: at.line, cells: splitCsvLine(text), openQuote: hasOpenQuote(text) };
       }
     },
   };
@@ -162,6 +165,38 @@ export function fieldCountProblem(row: CsvRow, header: readonly string[], file: 
 
 function stripCr(line: string): string {
   return line.endsWith('\r') ? line.slice(0, -1) : line;
+}
+
+/**
+ * Whether a cell of the line opens a quote that the line does not close: a line break inside a quoted
+ * cell (RFC 4180 allows it; quantbid's files have one row per line and do not), or a quote missing.
+ */
+export function hasOpenQuote(line: string): boolean {
+  if (!line.includes('"')) return false;
+  let quoted = false;
+  let cellStart = true;
+  for (let i = 0; i < line.length; i++) {
+    const c = line[i] as string;
+    if (quoted) {
+      if (c === '"') {
+        if (line[i + 1] === '"') i++;
+        else quoted = false;
+      }
+    } else if (c === '"' && cellStart) quoted = true;
+    else if (c === ',') cellStart = true;
+    else if (c !== ' ' && c !== '\t') cellStart = false;
+  }
+  return quoted;
+}
+
+/** The problem of a line whose quoted cell is not closed on it (hasOpenQuote). */
+export function openQuoteProblem(lineNumber: number, file: string): InputProblem {
+  return {
+    file,
+    line: lineNumber,
+    message: 'a quoted cell is not closed on this line: a line break inside quotes is not supported (each row is one line), or a closing quote is missing',
+    fix: 'keep every row on one line and close each quote on it; cells in these files need no quotes',
+  };
 }
 
 /** The fields of one CSV line, trimmed, quotes removed. */

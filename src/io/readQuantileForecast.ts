@@ -2,7 +2,7 @@ import type { MarketSpec, QuantileDay } from '../types.js';
 import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
 import { rearrange } from '../forecast/quantileSet.js';
 import { ProblemList } from '../errors/inputError.js';
-import { fieldCountProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
+import { fieldCountProblem, hasOpenQuote, openQuoteProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
 import { PeriodLocator } from './periodLocator.js';
 import { PlainRow } from './plainRow.js';
 import { readQuantileHeader } from './quantileHeader.js';
@@ -96,7 +96,12 @@ function readWide(table: CsvTable, levels: readonly number[], file: string, mark
       days.add(located, lines.text, plain.stampFrom, plain.stampTo, lines.line, plain.values, file, stampProblems);
       continue;
     }
-    const cells = splitCsvLine(lines.lineText());
+    const lineText = lines.lineText();
+    if (hasOpenQuote(lineText)) {
+      problems.add(openQuoteProblem(lines.line, file));
+      continue;
+    }
+    const cells = splitCsvLine(lineText);
     if (cells.length !== header.length) {
       problems.add(fieldCountProblem({ line: lines.line, cells }, header, file, 'give one value per column on every line'));
       continue;
@@ -253,8 +258,8 @@ function longPeriods(rows: Iterable<CsvRow>, file: string, market: MarketSpec, p
       group = { stamp, line: row.line, prices: new Map(), valid: true };
       byStamp.set(stamp, group);
     }
-    if (row.cells.length !== 3) {
-      problems.add(fieldCountProblem(row, LONG_HEADER, file, 'give period_start,level,price on every line'));
+    if (row.openQuote === true || row.cells.length !== 3) {
+      problems.add(row.openQuote === true ? openQuoteProblem(row.line, file) : fieldCountProblem(row, LONG_HEADER, file, 'give period_start,level,price on every line'));
       group.valid = false;
       continue;
     }

@@ -7,6 +7,7 @@ import { readBatterySpec, readMarketSpec } from '../../io/readSpecs.js';
 import type { OutputLock } from '../../io/outputLock.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { PLAN_POLICIES } from '../../plan/alpha.js';
+import { isSkippedDay } from '../../market/calendar.js';
 import { planDay } from '../../plan/planDay.js';
 import { planReport } from '../../report/planReport.js';
 import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
@@ -74,7 +75,7 @@ function planDayRun(
 ): Done<PlanSummary> {
   const { paths, day, outputs } = run;
   const { market, battery, forecastFile } = readPlanInputs(paths);
-  const forecast = forecastDay(forecastFile, day);
+  const forecast = forecastDay(forecastFile, day, market.timeZone);
   const socStartMwh = s.socStartMwh ?? battery.socInitialMwh;
   if (s.socStartMwh !== undefined && (socStartMwh < battery.socMinMwh || socStartMwh > battery.socMaxMwh)) {
     throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is outside the battery's window [${battery.socMinMwh}, ${battery.socMaxMwh}] MWh`, fix: 'give a state of charge inside the window' }]);
@@ -119,9 +120,12 @@ function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>
   return { market, battery: batteryModel(spec), forecastFile };
 }
 
-function forecastDay(file: QuantileForecastFile, day: string): QuantileDay {
+function forecastDay(file: QuantileForecastFile, day: string, timeZone: string): QuantileDay {
   const found = file.days.get(day);
   if (found !== undefined) return found;
+  if (isSkippedDay(day, timeZone)) {
+    throw new InputError([{ file: 'command line', field: '--day', message: `${day} does not exist in ${timeZone}: the zone's clocks skipped the whole date`, fix: 'choose a delivery day the zone has, e.g. the day before or after' }]);
+  }
   const incomplete = file.incompleteDays.find((d) => d.day === day);
   const covered = [...file.days.keys()];
   throw new InputError([
