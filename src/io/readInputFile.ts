@@ -70,7 +70,7 @@ function notUtf8Problem(path: string, bytes: Buffer): InputProblem {
 }
 
 /** Offset of the first byte that does not belong to a well-formed UTF-8 sequence (RFC 3629, table 3-7 of Unicode 15, section 3.9). */
-function firstBadUtf8Byte(bytes: Buffer): number {
+export function firstBadUtf8Byte(bytes: Buffer): number {
   for (let i = 0; i < bytes.length; ) {
     const b = bytes[i] as number;
     if (b < 0x80) {

@@ -103,7 +103,7 @@ describe('quantbid sweep on a small seeded market', () => {
     expect(existsSync(join(out, 'sweep.csv'))).toBe(false);
   });
 
-  it('stopped with SIGTERM (a service manager\'s stop): exit code 143 and the same message on how to resume, the journal kept', async () => {
+  it('stopped with SIGTERM (as a service manager stops it): exit code 143 and the same message on how to resume, the journal kept', async () => {
     const out = join(scenario.dir, 'terminated');
     const journal = join(out, '.sweep-journal.jsonl');
     const stopped = await quantbidStoppedAfter(sweepArgs(out, ['--threads', '2']), journal, 1, 'SIGTERM');

@@ -66,10 +66,21 @@ export interface ReaderCase {
   readonly incompleteDays?: readonly string[];
 }
 
+/** An item of the hardening work that no single run of main() can show, with the test file that shows it. */
+export interface ElsewhereCase {
+  readonly name: string;
+  readonly what: string;
+  /** The test file, relative to the repository. */
+  readonly test: string;
+  /** A title of a test in that file (a part of it). */
+  readonly title: string;
+}
+
 export interface Manifest {
   readonly defaults: { readonly day: string; readonly inputs: Readonly<Record<string, string>> };
   readonly cases: readonly CorpusCase[];
   readonly historyCases: readonly ReaderCase[];
+  readonly elsewhere: readonly ElsewhereCase[];
 }
 
 export function loadManifest(): Manifest {

@@ -102,6 +102,13 @@ describe('quantbid plan on malformed input', () => {
   });
 });
 
+describe('items shown by other tests (processes, signals, races, a full disk)', () => {
+  it.each(manifest.elsewhere.map((c) => [c.name, c] as const))('%s', (_name, c) => {
+    const text = readFileSync(join(FIXTURES, '../../..', c.test), 'utf8');
+    expect(text, `${c.test} holds a test titled "${c.title}"`).toContain(c.title);
+  });
+});
+
 describe('the price-history reader on malformed input', () => {
   const market = readMarketSpec(join(FIXTURES, manifest.defaults.inputs.market as string));
   it.each(manifest.historyCases.map((c) => [c.name, c] as const))('%s', (_name, c) => {
