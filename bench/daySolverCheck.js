@@ -1,21 +1,18 @@
-// Long correctness run of the exact fast day solver: seeded random days (24, 92, 96, 100 periods,
+// Long correctness run of the exact warehouse day solver: seeded random days (24, 92, 96, 100 periods,
 // negative prices, tight and loose windows, cycle cap on and off, wear cost, terminal value) solved
-// by src/plan/fast (compiled into dist/) and by HiGHS as a MIP with a binary mode per period and zero
+// by src/plan/warehouse (compiled into dist/) and by HiGHS as a MIP with a binary mode per period and zero
 // MIP gaps (test/reference/highsDayModel.ts). Prints the worst relative objective gap, feasibility
 // violations (test/reference/checkSchedule.ts), simultaneous flows and the days not covered.
 //
 //   npm run build && node bench/daySolverCheck.js [--days 10000] [--prefix check]
+import { option as arg } from './lib/args.js';
 import { loadDist, loadReference } from './lib/reference.js';
 
-const arg = (name, fallback) => {
-  const i = process.argv.indexOf(`--${name}`);
-  return i > 0 ? process.argv[i + 1] : fallback;
-};
 const DAYS = Number(arg('days', 10000));
 const PREFIX = arg('prefix', 'check');
 
 const ref = await loadReference();
-const { solveDayFast } = await loadDist('plan/fast/index.js');
+const { solveWarehouseDay } = await loadDist('plan/warehouse/index.js');
 const highs = await ref.loadHighsSolver();
 
 let worst = 0;
@@ -28,27 +25,27 @@ const started = performance.now();
 for (let i = 0; i < DAYS; i++) {
   const name = `${PREFIX}-${i}`;
   const day = ref.randomDay(name);
-  const fast = solveDayFast(day);
-  if (fast.status === 'not-covered') {
+  const warehouse = solveWarehouseDay(day);
+  if (warehouse.status === 'not-covered') {
     notCovered++;
     continue;
   }
   const mip = ref.solveDayWithHighs(highs, day, true);
-  if (mip.status !== 'optimal' || fast.status !== 'optimal') {
-    if (mip.status !== fast.status) problems.push(`${name}: HiGHS ${mip.status}, fast ${fast.status}`);
+  if (mip.status !== 'optimal' || warehouse.status !== 'optimal') {
+    if (mip.status !== warehouse.status) problems.push(`${name}: HiGHS ${mip.status}, warehouse ${warehouse.status}`);
     else infeasible++;
     continue;
   }
   optimal++;
-  const gap = Math.abs(fast.objective - mip.objective) / Math.max(1, Math.abs(mip.objective));
+  const gap = Math.abs(warehouse.objective - mip.objective) / Math.max(1, Math.abs(mip.objective));
   if (gap > worst) {
     worst = gap;
     worstDay = name;
   }
-  if (gap > 1e-9) problems.push(`${name}: objective ${fast.objective}, HiGHS ${mip.objective} (gap ${gap.toExponential(2)})`);
-  for (const v of ref.checkSchedule(day, fast.schedule)) problems.push(`${name}: ${v}`);
-  fast.schedule.chargeMw.forEach((c, t) => {
-    if (c > 0 && fast.schedule.dischargeMw[t] > 0) problems.push(`${name}: period ${t} charges and discharges`);
+  if (gap > 1e-9) problems.push(`${name}: objective ${warehouse.objective}, HiGHS ${mip.objective} (gap ${gap.toExponential(2)})`);
+  for (const v of ref.checkSchedule(day, warehouse.schedule)) problems.push(`${name}: ${v}`);
+  warehouse.schedule.chargeMw.forEach((c, t) => {
+    if (c > 0 && warehouse.schedule.dischargeMw[t] > 0) problems.push(`${name}: period ${t} charges and discharges`);
   });
   if ((i + 1) % 1000 === 0) console.log(`${i + 1} days, worst gap so far ${worst.toExponential(2)}, ${((performance.now() - started) / 1000).toFixed(0)} s`);
 }

@@ -1,6 +1,6 @@
 // Seeded fictional inputs for the 10-year scale run (bench/scale10y.sh): a quarter-hour market on the
 // Europe/Berlin clock, price history 2017-01-01 to 2026-12-31 (350,592 delivery periods, clock-change
-// days included) with fallback prices, and a 19-level quantile forecast (0.05 to 0.95) for the same
+// days included) with imbalance prices, and a 19-level quantile forecast (0.05 to 0.95) for the same
 // periods. Nothing here is real data: the numbers come from the seeded generator below, to exercise
 // size and memory, not to be realistic.
 //
@@ -12,7 +12,7 @@
 //                        + D_d, with D_d an AR(1) over days (phi 0.7, sd 15)
 //   price           p_t = m_t + e_t, e_t an AR(1) over periods (phi 0.9, sd 18), plus rare spikes,
 //                        clamped into [floor, cap]
-//   fallback price  p_t + 0.5 (p_t - m_t) + N(0, 5)
+//   imbalance price  p_t + 0.5 (p_t - m_t) + N(0, 5)
 //   forecast        median m_t + N(0, 6); level tau at median + s_t z_tau with s_t = 14 + 0.12 |m_t|,
 //                   z_tau the standard normal quantile, clamped into [floor, cap]
 // Random numbers: xorshift32 (Marsaglia 2003, "Xorshift RNGs", J. Stat. Software 8(14)), normal
@@ -93,13 +93,13 @@ function lineWriter(path) {
 
 mkdirSync(dir, { recursive: true });
 const json = (value) => `${JSON.stringify(value, null, 2)}\n`;
-writeFileSync(join(dir, 'market.json'), json({ timeZone: ZONE, periodMinutes: 15, priceFloor: PRICE_FLOOR, priceCap: PRICE_CAP, currency: 'HLV', gateClosure: '12:00', fallback: { kind: 'clearing-plus-penalty', penaltyPerMwh: 15 } }));
+writeFileSync(join(dir, 'market.json'), json({ timeZone: ZONE, periodMinutes: 15, priceFloor: PRICE_FLOOR, priceCap: PRICE_CAP, currency: 'HLV', gateClosure: '12:00', imbalance: { kind: 'clearing-plus-penalty', penaltyPerMwh: 15 } }));
 writeFileSync(join(dir, 'battery.json'), json({ energyMwh: 10, chargeMw: 5, dischargeMw: 5, roundTripEfficiency: 0.88, socMinFraction: 0.05, socMaxFraction: 0.95, socInitialFraction: 0.5, maxCyclesPerDay: 2, degradationCostPerMwh: 4 }));
 writeFileSync(join(dir, 'scenario.json'), json({ name: 'scale run (fictional)', market: 'market.json', battery: 'battery.json', history: 'history.csv', forecast: 'quantiles.csv' }));
 
 const history = lineWriter(join(dir, 'history.csv'));
 const quantiles = lineWriter(join(dir, 'quantiles.csv'));
-history.line('period_start,price,fallback_price');
+history.line('period_start,price,imbalance_price');
 quantiles.line(`period_start,${LEVELS.map((l) => `q${l}`).join(',')}`);
 const zs = LEVELS.map(normalQuantile);
 
@@ -123,11 +123,11 @@ for (let ms = start; ms < end; ms += PERIOD_MS) {
   const expected = 70 + 25 * season + 30 * bump(h, 8.5) + 45 * bump(h, 19) - 35 * bump(h, 13) * (1 - season) / 2 + dayShock;
   noise = 0.9 * noise + 18 * Math.sqrt(1 - 0.81) * normal();
   const price = clamp(expected + noise + (h > 17 && h < 20 ? spike : 0));
-  const fallback = clamp(price + 0.5 * (price - expected) + 5 * normal());
+  const imbalance = clamp(price + 0.5 * (price - expected) + 5 * normal());
   const median = expected + 6 * normal();
   const spread = 14 + 0.12 * Math.abs(median);
   const iso = at.toISO({ suppressMilliseconds: true });
-  history.line(`${iso},${fixed(price)},${fixed(fallback)}`);
+  history.line(`${iso},${fixed(price)},${fixed(imbalance)}`);
   quantiles.line(`${iso},${zs.map((z) => fixed(clamp(median + spread * z))).join(',')}`);
   periods++;
 }

@@ -4,7 +4,7 @@
 //   npm run build && node bench/sizeGrid.js [--grid 12] [--from 2026-01-01] [--to 2026-12-31] [--threads 2] [--keep]
 //
 // The hourly inputs are made on the fly in a temporary folder from the demo scenario scenarios/halvorn
-// (quarter-hourly): each hour's price, fallback price and each quantile level is the mean of its four
+// (quarter-hourly): each hour's price, imbalance price and each quantile level is the mean of its four
 // quarter-hours (grouped by the instant, so the doubled autumn hour stays two hours). A mean of
 // quantiles is not a quantile of the mean; for timing that does not matter. The battery is the demo's
 // 10 MWh / 5 MW, scaled to energies 5, 10, ... MWh and powers 2.5, 5, ... MW (grid x grid sizes).

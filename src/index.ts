@@ -32,11 +32,12 @@ export { writeOutputs, type OutputFile } from './io/writeOutputs.js';
 export { isAlpha, PLAN_POLICIES } from './plan/alpha.js';
 export { planDay, type PlanRequest, type PlanResult } from './plan/planDay.js';
 export { policyPrices, type PolicyPrices } from './plan/policyPrices.js';
-export { NodeLimitError, SOLVE_DAY_DEFAULTS, solveDay, type SolveDayOptions } from './plan/solveDay.js';
+export { type DaySolverChoice, NodeLimitError, SOLVE_DAY_DEFAULTS, solveDay, type SolveDayOptions, UncoveredDayError } from './plan/solveDay.js';
+export { DayWorkspace } from './plan/warehouse/workspace.js';
 export { scheduleValue } from './plan/scheduleValue.js';
 
 // ---- settle a day's orders against realised prices ----
-export { chooseFallbackSource, dayFallbackPrices, type FallbackPrices, type FallbackSource } from './settle/fallbackPrices.js';
+export { chooseImbalanceSource, dayImbalancePrices, type ImbalancePrices, type ImbalanceSource } from './settle/imbalancePrices.js';
 export { settleDay, UNACCEPTED_RULES, type SettleDayInput, type SettledDay, type SettledPeriod, type UnacceptedRule } from './settle/settleDay.js';
 export type { SettlementTotals } from './settle/settlementTotals.js';
 

@@ -10,7 +10,7 @@
  * - timestamps are ISO 8601 strings with an offset, e.g. `2027-03-28T02:00:00+02:00`.
  */
 
-export type { FallbackRule, MarketSpec } from './market/marketSpec.js';
+export type { ImbalanceRule, MarketSpec } from './market/marketSpec.js';
 export type { DeliveryPeriod } from './market/deliveryPeriod.js';
 export type { BatteryModel, BatterySpec } from './battery/batterySpec.js';
 import type { BatteryModel } from './battery/batterySpec.js';
@@ -91,7 +91,7 @@ export interface Order {
 export type PlanPolicy = 'quantile' | 'median' | 'point';
 
 /**
- * One delivery day of price history: realised clearing prices, the fallback (balancing) price where
+ * One delivery day of price history: realised clearing prices, the imbalance (balancing) price where
  * the history has one, and exogenous columns known before gate closure (e.g. `load_forecast_mw`).
  * Arrays are indexed like `periods`.
  */
@@ -101,8 +101,8 @@ export interface HistoryDay {
   readonly periods: readonly DeliveryPeriod[];
   /** Realised clearing price per period [currency/MWh]. */
   readonly pricePerMwh: readonly number[];
-  /** Realised fallback price per period [currency/MWh], or null when the history has no such column. */
-  readonly fallbackPricePerMwh: readonly number[] | null;
+  /** Realised imbalance price per period [currency/MWh], or null when the history has no such column. */
+  readonly imbalancePricePerMwh: readonly number[] | null;
   /** Exogenous columns by CSV header name, e.g. `load_forecast_mw` [MW]. */
   readonly exogenous: Readonly<Record<string, readonly number[]>>;
 }

@@ -54,8 +54,8 @@
  *    h > 0 (fat tails). K is set so that the 80 % central interval covers roughly, not exactly,
  *    80 % of outcomes. In about 0.1 % of rows one level is then nudged below the level before it
  *    (a crossing), as in real vendor files, so that readers exercise their rearrangement.
- * 7. Fallback (balancing) price "moves against whoever was surprised":
- *    fallback = clearing + KAPPA * (clearing - vendor median) + noise, clamped into [floor, cap].
+ * 7. Imbalance (balancing) price "moves against whoever was surprised":
+ *    imbalance = clearing + KAPPA * (clearing - vendor median) + noise, clamped into [floor, cap].
  *
  * Random numbers: xoshiro128** (Blackman & Vigna 2021) seeded per named stream through a 32-bit
  * mixer of SEED and the stream name, so that each process has its own stream and changing one
@@ -145,7 +145,7 @@ const VENDOR_H = 0.09;
 /** Share of quantile rows given a crossing. */
 const CROSSING_PROBABILITY = 0.001;
 
-/** Fallback price: sensitivity to the forecast surprise [-]. */
+/** Imbalance price: sensitivity to the forecast surprise [-]. */
 const KAPPA = 0.5;
 
 // ------------------------------------------------------------------------------------------------
@@ -460,7 +460,7 @@ function atHour(series, hourIdx) {
 /**
  * Simulate every process over the whole calendar (history days and the forecast-only demo day).
  * @returns {{ periods: Period[], days: string[], spikeEvents: number, price: Float64Array,
- *   fallback: Float64Array, loadForecast: Float64Array, renewablesForecast: Float64Array,
+ *   imbalance: Float64Array, loadForecast: Float64Array, renewablesForecast: Float64Array,
  *   quantiles: number[][], crossingsInjected: number }}
  */
 function simulate() {
@@ -524,7 +524,8 @@ function simulate() {
 
   const zs = LEVELS.map((tau) => normalQuantile(tau));
   const priceNoiseRng = new Rng(SEED, 'price-noise');
-  const fallbackRng = new Rng(SEED, 'fallback-noise');
+  // The stream keeps the name it was first generated with, so the committed data regenerate byte for byte.
+  const imbalanceRng = new Rng(SEED, 'fallback-noise');
   const crossingRng = new Rng(SEED, 'crossings');
 
   const out = {
@@ -532,7 +533,7 @@ function simulate() {
     days,
     spikeEvents,
     price: new Float64Array(nP),
-    fallback: new Float64Array(nP),
+    imbalance: new Float64Array(nP),
     loadForecast: new Float64Array(nP),
     renewablesForecast: new Float64Array(nP),
     /** @type {number[][]} */
@@ -604,11 +605,11 @@ function simulate() {
     }
     out.quantiles.push(q);
 
-    // 7. fallback
-    const fb = price + KAPPA * (price - median) + fallbackRng.normal() * (3 + 0.04 * Math.abs(price));
+    // 7. imbalance
+    const imb = price + KAPPA * (price - median) + imbalanceRng.normal() * (3 + 0.04 * Math.abs(price));
 
     out.price[t] = price;
-    out.fallback[t] = clamp(fb, PRICE_FLOOR, PRICE_CAP);
+    out.imbalance[t] = clamp(imb, PRICE_FLOOR, PRICE_CAP);
     out.loadForecast[t] = loadFcst;
     out.renewablesForecast[t] = windFcst + solarFcst;
   }
@@ -651,7 +652,7 @@ function main() {
       priceCap: PRICE_CAP,
       currency: 'HLV',
       gateClosure: '12:00',
-      fallback: { kind: 'clearing-plus-penalty', penaltyPerMwh: 15 },
+      imbalance: { kind: 'clearing-plus-penalty', penaltyPerMwh: 15 },
     }),
   );
   writeAtomic(
@@ -674,7 +675,7 @@ function main() {
       name: 'Halvorn day-ahead auction (fictional demo)',
       description:
         'Invented island region Halvorn, quarter-hour day-ahead auction in the invented currency HLV, ' +
-        'clock Europe/Berlin. Seeded synthetic history 2025-2026 with fallback prices and load/renewables ' +
+        'clock Europe/Berlin. Seeded synthetic history 2025-2026 with imbalance prices and load/renewables ' +
         'forecasts, a vendor-style 19-level quantile forecast through the demo day 2027-01-01, and a ' +
         '10 MWh / 5 MW battery. No real market, place or data.',
       market: 'market.json',
@@ -686,7 +687,7 @@ function main() {
   );
 
   // history.csv.gz and quantiles.csv.gz, with the figures gathered on the way.
-  const historyLines = ['period_start,price,fallback_price,load_forecast_mw,renewables_forecast_mw'];
+  const historyLines = ['period_start,price,imbalance_price,load_forecast_mw,renewables_forecast_mw'];
   const quantileLines = [`period_start,${LEVELS.map((l) => `q${l}`).join(',')}`];
   const i10 = LEVELS.indexOf(0.1);
   const i90 = LEVELS.indexOf(0.9);
@@ -705,7 +706,7 @@ function main() {
   let below50 = 0;
   let pinball = 0;
   let crossingRows = 0;
-  let fbAgainst = 0;
+  let imbalanceAgainst = 0;
   let sumLoad = 0;
   let sumRen = 0;
 
@@ -722,12 +723,12 @@ function main() {
     if (p.dayIdx > lastHistoryIdx) continue;
 
     const priceText = fixed(/** @type {number} */ (sim.price[t]), 2);
-    const fbText = fixed(/** @type {number} */ (sim.fallback[t]), 2);
+    const imbalanceText = fixed(/** @type {number} */ (sim.imbalance[t]), 2);
     historyLines.push(
-      `${p.iso},${priceText},${fbText},${fixed(/** @type {number} */ (sim.loadForecast[t]), 1)},${fixed(/** @type {number} */ (sim.renewablesForecast[t]), 1)}`,
+      `${p.iso},${priceText},${imbalanceText},${fixed(/** @type {number} */ (sim.loadForecast[t]), 1)},${fixed(/** @type {number} */ (sim.renewablesForecast[t]), 1)}`,
     );
     const price = Number(priceText);
-    const fb = Number(fbText);
+    const imbalance = Number(imbalanceText);
     n += 1;
     sum += price;
     sumSq += price * price;
@@ -744,7 +745,7 @@ function main() {
       pinball += e >= 0 ? tau * e : (tau - 1) * e;
     });
     const surprise = price - at(i50);
-    if (surprise !== 0 && Math.sign(fb - price) === Math.sign(surprise)) fbAgainst += 1;
+    if (surprise !== 0 && Math.sign(imbalance - price) === Math.sign(surprise)) imbalanceAgainst += 1;
     sumLoad += /** @type {number} */ (sim.loadForecast[t]);
     sumRen += /** @type {number} */ (sim.renewablesForecast[t]);
   }
@@ -768,7 +769,7 @@ function main() {
     `  share below median         ${pct(below50 / n)}`,
     `  mean pinball (19 lv.)      ${(pinball / n / LEVELS.length).toFixed(3)} HLV/MWh`,
     `  crossing rows              ${crossingRows}`,
-    `  fallback against surprise  ${pct(fbAgainst / n)}`,
+    `  imbalance against surprise ${pct(imbalanceAgainst / n)}`,
     `  mean load forecast         ${(sumLoad / n).toFixed(1)} MW, mean renewables forecast ${(sumRen / n).toFixed(1)} MW`,
     `  history.csv.gz             ${history.length} bytes`,
     `  quantiles.csv.gz           ${quantiles.length} bytes`,

@@ -131,7 +131,7 @@ export function lockedGridRun<R>(settings: GridInputSettings, command: 'sweep' |
  */
 function readGridInputs(settings: GridInputSettings, paths: BacktestInputPaths, use: LevelUse, hooks: RunHooks): GridInputs {
   const maker = forecastMaker(settings.model, paths.history, settings, hooks);
-  const data = readRunInputs(paths, use, maker, true);
+  const data = readRunInputs(paths, use, maker, hooks, true);
   requireCoveredDay(data, paths, settings.from, settings.to);
   return { paths, data, model: maker?.made() };
 }

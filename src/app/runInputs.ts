@@ -4,6 +4,7 @@ import { readBacktestInputs, readBacktestInputsOnce, type BacktestInputData, typ
 import { forecastLevelProblems, type LevelUse } from './forecastLevels.js';
 import { inputFiles, type InputName } from './inputFiles.js';
 import type { ForecastMaker } from './modelForecast.js';
+import type { RunHooks } from './runHooks.js';
 import type { InputSources, ModelSettings } from './settingSchemas.js';
 
 /** The inputs of backtest, sweep and size. */
@@ -24,14 +25,15 @@ export function runInputPaths(inputs: InputSources, model: ModelSettings | undef
 
 /**
  * Reads and checks the inputs of a run before it starts: every file problem, a history without
- * fallback prices (readBacktestInputs), and levels the run would read outside the forecast's (a
+ * imbalance prices (readBacktestInputs), and levels the run would read outside the forecast's (a
  * quantile is never extrapolated). With `maker` (--model) the forecast is made from the market and
  * history instead of read, and its levels are checked before any fitting. `once` remembers the inputs
- * for the life of this thread (a one-thread grid's task then reads nothing again).
+ * for the life of this thread (a one-thread grid's task then reads nothing again). An old column or
+ * field name read under its new one is a note through `hooks`.
  */
-export function readRunInputs(paths: BacktestInputPaths, use: LevelUse, maker: ForecastMaker | undefined, once = false): BacktestInputData {
+export function readRunInputs(paths: BacktestInputPaths, use: LevelUse, maker: ForecastMaker | undefined, hooks: RunHooks, once = false): BacktestInputData {
   if (maker !== undefined) throwIfProblems(forecastLevelProblems(maker.levels, maker.label, use));
-  const data = (once ? readBacktestInputsOnce : readBacktestInputs)(paths, maker?.make);
+  const data = (once ? readBacktestInputsOnce : readBacktestInputs)(paths, maker?.make, (text) => hooks.note(text));
   throwIfProblems(forecastLevelProblems(data.forecast.levels, data.forecast.file, use));
   return data;
 }

@@ -1,7 +1,7 @@
 import type { BatteryModel, DeliveryPeriod, HistoryDay, MarketSpec, Order, PriceHistory, QuantileDay } from '../types.js';
 import { daysBetween } from '../market/calendar.js';
 import type { SolveDayOptions } from '../plan/solveDay.js';
-import { chooseFallbackSource, dayFallbackPrices, NoFallbackPriceError, type FallbackPrices, type FallbackSource } from '../settle/fallbackPrices.js';
+import { chooseImbalanceSource, dayImbalancePrices, NoImbalancePriceError, type ImbalancePrices, type ImbalanceSource } from '../settle/imbalancePrices.js';
 import { settleDay, type SettledPeriod, type UnacceptedRule } from '../settle/settleDay.js';
 import type { SettlementTotals } from '../settle/settlementTotals.js';
 import { BACKTEST_POLICIES, type BacktestPolicy } from './backtestPolicy.js';
@@ -78,7 +78,7 @@ export interface BacktestDay {
   readonly day: string;
   readonly periods: readonly DeliveryPeriod[];
   readonly clearingPricePerMwh: readonly number[];
-  readonly fallback: FallbackPrices;
+  readonly imbalance: ImbalancePrices;
   readonly runs: readonly PolicyDay[];
 }
 
@@ -88,7 +88,7 @@ export interface BacktestResult {
   readonly alpha: number;
   readonly unaccepted: UnacceptedRule;
   readonly policies: readonly BacktestPolicy[];
-  readonly fallbackSource: FallbackSource;
+  readonly imbalanceSource: ImbalanceSource;
   /** Days with a complete history and forecast, ascending. */
   readonly days: readonly BacktestDay[];
   /** Days of [from, to] left out, with the reason; never filled in. */
@@ -103,10 +103,10 @@ export interface BacktestResult {
  * For each delivery day in order: a day without a complete history or forecast is skipped and listed
  * (never filled in); otherwise each policy plans from that day's forecast alone and its own state of
  * charge carried from its previous covered day (the first day starts at battery.socInitialMwh), its
- * orders are settled against the realised clearing and fallback prices (settleDay), and the state of
+ * orders are settled against the realised clearing and imbalance prices (settleDay), and the state of
  * charge at the end is carried on - across skipped days unchanged. All policies see the same days.
  *
- * @throws NoFallbackPriceError when neither the history nor the market spec gives a fallback price;
+ * @throws NoImbalancePriceError when neither the history nor the market spec gives an imbalance price;
  *   LevelOutOfRangeError when alpha or 1 - alpha lies outside the forecast's levels; RangeError for
  *   from > to.
  */
@@ -114,8 +114,8 @@ export function runBacktest(input: BacktestInput, options: Partial<BacktestOptio
   const settings: BacktestOptions = { ...BACKTEST_DEFAULTS, ...options };
   const { market, battery, history, forecast } = input;
   if (input.from > input.to) throw new RangeError(`runBacktest: from ${input.from} is after to ${input.to}`);
-  const fallbackSource = chooseFallbackSource(history, market);
-  if (fallbackSource === null) throw new NoFallbackPriceError();
+  const imbalanceSource = chooseImbalanceSource(history, market);
+  if (imbalanceSource === null) throw new NoImbalancePriceError();
   const historyByDay = new Map(history.days.map((d) => [d.day, d]));
   const skipReasons = skippedReasons(history, forecast);
   const soc = new Map<BacktestPolicy, number>(settings.policies.map((p) => [p, battery.socInitialMwh]));
@@ -128,7 +128,7 @@ export function runBacktest(input: BacktestInput, options: Partial<BacktestOptio
     if (realised === undefined || dayForecast === undefined) {
       skippedDays.push({ day, reason: skipReasons(day, realised === undefined, dayForecast === undefined) });
     } else {
-      const day = runDay(realised, dayForecast, input, settings, fallbackSource, soc);
+      const day = runDay(realised, dayForecast, input, settings, imbalanceSource, soc);
       settings.onLedgerDay?.(day);
       days.push(settings.keepLedger || settings.onLedgerDay === null ? day : { ...day, runs: day.runs.map((run) => ({ ...run, ledger: null })) });
     }
@@ -140,7 +140,7 @@ export function runBacktest(input: BacktestInput, options: Partial<BacktestOptio
     alpha: settings.alpha,
     unaccepted: settings.unaccepted,
     policies: settings.policies,
-    fallbackSource,
+    imbalanceSource,
     days,
     skippedDays,
     socEndMwh: Object.fromEntries(soc),
@@ -152,14 +152,14 @@ function runDay(
   forecast: QuantileDay,
   input: BacktestInput,
   settings: BacktestOptions,
-  fallbackSource: FallbackSource,
+  imbalanceSource: ImbalanceSource,
   soc: Map<BacktestPolicy, number>,
 ): BacktestDay {
   const { market, battery } = input;
   if (forecast.periods.length !== realised.periods.length) {
     throw new RangeError(`day ${realised.day}: the forecast has ${forecast.periods.length} periods, the history ${realised.periods.length}`);
   }
-  const fallback = dayFallbackPrices(realised, fallbackSource);
+  const imbalance = dayImbalancePrices(realised, imbalanceSource);
   const runs = settings.policies.map((policy): PolicyDay => {
     const socStartMwh = soc.get(policy) as number;
     const plan = planPolicyDay({ policy, forecast, realised, market, battery, alpha: settings.alpha, socStartMwh, solveOptions: settings.solveOptions });
@@ -169,7 +169,7 @@ function runDay(
       socStartMwh,
       orders: plan.orders,
       clearingPricePerMwh: realised.pricePerMwh,
-      fallback,
+      imbalance,
       unaccepted: settings.unaccepted,
     });
     soc.set(policy, settled.socEndMwh);
@@ -184,7 +184,7 @@ function runDay(
       ledger: settings.keepLedger || settings.onLedgerDay !== null ? { orders: plan.orders, periods: settled.periods } : null,
     };
   });
-  return { day: realised.day, periods: realised.periods, clearingPricePerMwh: realised.pricePerMwh, fallback, runs };
+  return { day: realised.day, periods: realised.periods, clearingPricePerMwh: realised.pricePerMwh, imbalance, runs };
 }
 
 /** Why a day is skipped: missing or incomplete in the history, the forecast, or both. */

@@ -28,7 +28,7 @@ export type SweepSetting = {
  *   correction (h = 1) of that difference, H1: the setting earns more than the point policy
  *   (edgeTest.ts); empty when there is no test (fewer than 2 days, or every daily difference equal);
  * - `buy_acceptance_rate`, `sell_acceptance_rate`: accepted orders / orders (empty without orders);
- * - `fallback_mwh`, `fallback_cash`: energy bought plus sold at the fallback price, and its cash;
+ * - `imbalance_mwh`, `imbalance_cash`: energy bought plus sold at the imbalance price, and its cash;
  * - `auction_cash`, `degradation_cost`, `discharged_mwh`;
  * - `cycles`: discharged MWh / usable MWh (socMax - socMin), equivalent full cycles;
  * - `days_without_plan`: days the policy had no feasible plan and placed no orders;
@@ -36,7 +36,7 @@ export type SweepSetting = {
  */
 export const SWEEP_COLUMNS = Object.freeze([
   'days', 'profit', 'mean_daily_profit', 'capture_ratio', 'perfect_foresight_profit', 'point_profit', 'edge_vs_point', 'p_value_vs_point',
-  'buy_acceptance_rate', 'sell_acceptance_rate', 'fallback_mwh', 'fallback_cash', 'auction_cash', 'degradation_cost', 'discharged_mwh',
+  'buy_acceptance_rate', 'sell_acceptance_rate', 'imbalance_mwh', 'imbalance_cash', 'auction_cash', 'degradation_cost', 'discharged_mwh',
   'cycles', 'days_without_plan', 'daily_profit_sd', 'worst_day_5pct', 'max_drawdown',
 ] as const);
 
@@ -76,8 +76,8 @@ export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, mem
     p_value_vs_point: edge.status === 'ok' ? edge.pValueOneSided : null,
     buy_acceptance_rate: m.buyAcceptanceRate,
     sell_acceptance_rate: m.sellAcceptanceRate,
-    fallback_mwh: m.boughtFallbackMwh + m.soldFallbackMwh,
-    fallback_cash: m.fallbackCash,
+    imbalance_mwh: m.boughtImbalanceMwh + m.soldImbalanceMwh,
+    imbalance_cash: m.imbalanceCash,
     auction_cash: m.auctionCash,
     degradation_cost: m.degradationCost,
     discharged_mwh: m.dischargedMwh,

@@ -52,10 +52,10 @@ export function backtestCommand(io: CliIo): Command {
     .addOption(from)
     .addOption(to)
     .addOption(alphaOption('central interval [q(alpha), q(1-alpha)] of the quantile and median policies', BACKTEST_DEFAULTS.alpha))
-    .addOption(unacceptedOption('unaccepted orders: follow-plan (close them at the fallback price) | follow-accepted (move only with accepted orders)', BACKTEST_DEFAULTS.unaccepted))
+    .addOption(unacceptedOption('unaccepted orders: follow-plan (close them at the imbalance price) | follow-accepted (move only with accepted orders)', BACKTEST_DEFAULTS.unaccepted))
     .option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}`, parsePoliciesArg, [...BACKTEST_DEFAULTS.policies])
     .addOption(outOption('folder for ledger.csv, days.csv and summary.json (required)'))
-    .addOption(reportOption('also write report.html into --out: cumulative profit, daily profit, acceptance, fallback energy, month table'))
+    .addOption(reportOption('also write report.html into --out: cumulative profit, daily profit, acceptance, imbalance energy, month table'))
     .addOption(quietOption())
     .addOption(forceOption())
     .addOption(jsonOption());

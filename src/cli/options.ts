@@ -151,7 +151,7 @@ const INPUT_HELP: Readonly<Record<InputName, string>> = {
   market: 'market spec JSON (time zone, period length, price floor and cap)',
   battery: 'battery spec JSON (energy, power, efficiency, state-of-charge window)',
   forecast: 'quantile forecast CSV, wide or long layout (.csv or .csv.gz)',
-  history: 'price history CSV: period_start,price[,fallback_price,...] (.csv or .csv.gz)',
+  history: 'price history CSV: period_start,price[,imbalance_price,...] (.csv or .csv.gz)',
 };
 
 /** Adds --scenario and the input files `names`, in that order. */

@@ -29,7 +29,7 @@ export interface DayForecastSetup {
  *
  * `before` is a hash chain, before[i + 1] = SHA-256(before[i] || day i), so the whole history is hashed
  * once, and adding days after the end of the history leaves the digests of the earlier days unchanged.
- * Fallback prices and incomplete days are left out: the forecaster never reads them.
+ * Imbalance prices and incomplete days are left out: the forecaster never reads them.
  */
 export function historyDigests(history: PriceHistory): { readonly before: readonly string[]; readonly target: readonly string[] } {
   const names = history.exogenousNames;

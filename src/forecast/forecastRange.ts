@@ -97,7 +97,7 @@ function forecastOrReason(make: () => DayForecast): DayForecast | string {
 
 /** The history with one more day after its end whose prices are unknown (NaN, never read). */
 function withFutureDay(history: PriceHistory, day: string, periods: readonly DeliveryPeriod[]): PriceHistory {
-  const future: HistoryDay = { day, periods, pricePerMwh: periods.map(() => Number.NaN), fallbackPricePerMwh: null, exogenous: {} };
+  const future: HistoryDay = { day, periods, pricePerMwh: periods.map(() => Number.NaN), imbalancePricePerMwh: null, exogenous: {} };
   return { ...history, days: [...history.days, future] };
 }
 

@@ -10,9 +10,9 @@ import { csvLine, formatNumber } from './formatNumber.js';
  */
 export const LEDGER_COLUMNS = Object.freeze([
   'day', 'policy', 'period_start', 'side', 'quantity_mw', 'limit_price', 'accepted',
-  'clearing_price', 'fallback_buy_price', 'fallback_sell_price',
-  'bought_auction_mwh', 'sold_auction_mwh', 'bought_fallback_mwh', 'sold_fallback_mwh',
-  'charged_mwh', 'discharged_mwh', 'auction_cash', 'fallback_cash', 'degradation_cost', 'profit', 'soc_mwh',
+  'clearing_price', 'imbalance_buy_price', 'imbalance_sell_price',
+  'bought_auction_mwh', 'sold_auction_mwh', 'bought_imbalance_mwh', 'sold_imbalance_mwh',
+  'charged_mwh', 'discharged_mwh', 'auction_cash', 'imbalance_cash', 'degradation_cost', 'profit', 'soc_mwh',
 ]);
 
 /**
@@ -21,8 +21,8 @@ export const LEDGER_COLUMNS = Object.freeze([
  */
 export const DAYS_COLUMNS = Object.freeze([
   'day', 'policy', 'profit', 'soc_start_mwh', 'soc_end_mwh', 'buys_accepted', 'buys', 'sells_accepted', 'sells',
-  'auction_cash', 'fallback_cash', 'degradation_cost',
-  'bought_auction_mwh', 'sold_auction_mwh', 'bought_fallback_mwh', 'sold_fallback_mwh', 'discharged_mwh', 'plan_status',
+  'auction_cash', 'imbalance_cash', 'degradation_cost',
+  'bought_auction_mwh', 'sold_auction_mwh', 'bought_imbalance_mwh', 'sold_imbalance_mwh', 'discharged_mwh', 'plan_status',
 ]);
 
 export function ledgerCsv(result: BacktestResult): string {
@@ -38,7 +38,7 @@ export function ledgerCsv(result: BacktestResult): string {
 export function ledgerRows(day: BacktestDay): string {
   const out = ledgerBuilder;
   const count = day.periods.length;
-  // Where the prices of period t (clearing, fallback buy, fallback sell) were written in this text.
+  // Where the prices of period t (clearing, imbalance buy, imbalance sell) were written in this text.
   const priceFrom = new Int32Array(count).fill(-1);
   const priceTo = new Int32Array(count);
   for (const run of day.runs) {
@@ -76,9 +76,9 @@ export function ledgerRows(day: BacktestDay): string {
         priceFrom[t] = out.position;
         out.number(day.clearingPricePerMwh[t] as number);
         out.comma();
-        out.number(day.fallback.buyPerMwh[t] as number);
+        out.number(day.imbalance.buyPerMwh[t] as number);
         out.comma();
-        out.number(day.fallback.sellPerMwh[t] as number);
+        out.number(day.imbalance.sellPerMwh[t] as number);
         priceTo[t] = out.position;
       } else out.copy(from, priceTo[t] as number);
       out.comma();
@@ -86,9 +86,9 @@ export function ledgerRows(day: BacktestDay): string {
       out.comma();
       out.number(s.soldAuctionMwh);
       out.comma();
-      out.number(s.boughtFallbackMwh);
+      out.number(s.boughtImbalanceMwh);
       out.comma();
-      out.number(s.soldFallbackMwh);
+      out.number(s.soldImbalanceMwh);
       out.comma();
       out.number(s.chargedMwh);
       out.comma();
@@ -96,7 +96,7 @@ export function ledgerRows(day: BacktestDay): string {
       out.comma();
       out.number(s.auctionCash);
       out.comma();
-      out.number(s.fallbackCash);
+      out.number(s.imbalanceCash);
       out.comma();
       out.number(s.degradationCost);
       out.comma();
@@ -120,8 +120,8 @@ export function daysCsv(result: BacktestResult): string {
       lines.push(
         csvLine([
           day.day, run.policy, x.profit, run.socStartMwh, run.socEndMwh, x.buysAccepted, x.buys, x.sellsAccepted, x.sells,
-          x.auctionCash, x.fallbackCash, x.degradationCost,
-          x.boughtAuctionMwh, x.soldAuctionMwh, x.boughtFallbackMwh, x.soldFallbackMwh, x.dischargedMwh, run.planStatus,
+          x.auctionCash, x.imbalanceCash, x.degradationCost,
+          x.boughtAuctionMwh, x.soldAuctionMwh, x.boughtImbalanceMwh, x.soldImbalanceMwh, x.dischargedMwh, run.planStatus,
         ]),
       );
     }

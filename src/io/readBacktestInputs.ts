@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import type { BatterySpec, MarketSpec, PriceHistory } from '../types.js';
-import { chooseFallbackSource } from '../settle/fallbackPrices.js';
+import { chooseImbalanceSource } from '../settle/imbalancePrices.js';
 import { gatherProblems, InputError, throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { readPriceHistory } from './readPriceHistory.js';
 import { parseQuantileForecast, readQuantileForecast, type QuantileForecastFile } from './readQuantileForecast.js';
@@ -40,24 +40,25 @@ export interface BacktestInputData {
  * Reads the market and battery specs, the price history and the quantile forecast: from the file
  * `paths.forecast`, or from `given` text, or made by `given` from the market and history once every
  * file problem is known to be absent. Every problem of every file is listed together in one
- * InputError; so is a history without fallback prices when the market spec has no fallback rule either.
+ * InputError; so is a history without imbalance prices when the market spec has no imbalance rule either.
+ * `note` hears of an old field or column name read under its new one (readMarketSpec, readPriceHistory).
  */
-export function readBacktestInputs(paths: BacktestInputPaths, given?: GivenForecast | MakeForecast): BacktestInputData {
+export function readBacktestInputs(paths: BacktestInputPaths, given?: GivenForecast | MakeForecast, note?: (text: string) => void): BacktestInputData {
   const problems: InputProblem[] = [];
-  const market = gatherProblems(problems, () => readMarketSpec(paths.market));
+  const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
   const batterySpec = gatherProblems(problems, () => readBatterySpec(paths.battery));
   if (market === undefined || batterySpec === undefined) throw new InputError(problems);
-  const history = gatherProblems(problems, () => readPriceHistory(paths.history, market));
+  const history = gatherProblems(problems, () => readPriceHistory(paths.history, market, note));
   const read = (g: GivenForecast): QuantileForecastFile => g.file ?? parseQuantileForecast(g.csv, g.label, market);
   let forecast: QuantileForecastFile | undefined;
   if (given === undefined) forecast = gatherProblems(problems, () => readQuantileForecast(requiredForecastPath(paths), market));
   else if (typeof given !== 'function') forecast = gatherProblems(problems, () => read(given));
-  if (history !== undefined && chooseFallbackSource(history, market) === null) {
+  if (history !== undefined && chooseImbalanceSource(history, market) === null) {
     problems.push({
       file: paths.history,
-      field: 'fallback_price',
-      message: 'the history has no fallback_price column and the market spec has no fallback rule',
-      fix: `add a fallback_price column to the history, or a "fallback" rule such as {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15} to ${paths.market}`,
+      field: 'imbalance_price',
+      message: 'the history has no imbalance_price column and the market spec has no imbalance rule',
+      fix: `add an imbalance_price column to the history, or an "imbalance" rule such as {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15} to ${paths.market}`,
     });
   }
   throwIfProblems(problems);
@@ -72,20 +73,21 @@ const cache = new Map<string, BacktestInputData>();
  * forecast by its text's SHA-256): a command reads and checks the inputs before its sweep starts, and
  * a sweep on one thread then reuses them in its task instead of parsing the files again (each worker
  * thread has a cache of its own). A forecast made by a MakeForecast is remembered under the text it made.
+ * `note` hears only what a read tells, not a remembered one.
  */
-export function readBacktestInputsOnce(paths: BacktestInputPaths, given?: GivenForecast | MakeForecast): BacktestInputData {
+export function readBacktestInputsOnce(paths: BacktestInputPaths, given?: GivenForecast | MakeForecast, note?: (text: string) => void): BacktestInputData {
   const keyOf = (g: GivenForecast | undefined): string =>
     JSON.stringify([paths.market, paths.battery, paths.history, g === undefined ? { file: requiredForecastPath(paths) } : { label: g.label, sha256: createHash('sha256').update(g.csv).digest('hex') }]);
   if (typeof given === 'function') {
     let made: GivenForecast | undefined;
-    const data = readBacktestInputs(paths, (market, history) => (made = given(market, history)));
+    const data = readBacktestInputs(paths, (market, history) => (made = given(market, history)), note);
     cache.set(keyOf(made as GivenForecast | undefined), data);
     return data;
   }
   const key = keyOf(given);
   const known = cache.get(key);
   if (known !== undefined) return known;
-  const data = readBacktestInputs(paths, given);
+  const data = readBacktestInputs(paths, given, note);
   cache.set(key, data);
   return data;
 }

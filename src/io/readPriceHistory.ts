@@ -10,35 +10,43 @@ import { readInputFile } from './readInputFile.js';
 export const HISTORY_COLUMNS = Object.freeze({
   periodStart: 'period_start',
   price: 'price',
-  fallbackPrice: 'fallback_price',
+  imbalancePrice: 'imbalance_price',
 });
 
+/** The old name of the `imbalance_price` column, still read (docs/design.md section 2). */
+export const OLD_IMBALANCE_PRICE_COLUMN = 'fallback_price';
+
 /** Reads a price history file (.csv or .csv.gz); see parsePriceHistory. */
-export function readPriceHistory(path: string, market: MarketSpec): PriceHistory {
-  return parsePriceHistory(readInputFile(path), path, market);
+export function readPriceHistory(path: string, market: MarketSpec, note?: (text: string) => void): PriceHistory {
+  return parsePriceHistory(readInputFile(path), path, market, note);
 }
 
 /**
- * Parses a price history: `period_start,price` plus an optional `fallback_price` column and any number
- * of exogenous columns (e.g. `load_forecast_mw`), in any order after `price`.
+ * Parses a price history: `period_start,price` plus an optional `imbalance_price` column and any number
+ * of exogenous columns (e.g. `load_forecast_mw`), in any order after `price`. The column under its old
+ * name `fallback_price` is read as `imbalance_price`, and `note` (when given) hears one line saying so
+ * and asking to rename the column; both names in one file is a problem.
  *
  * Conventions:
  * - every cell must be a finite decimal with a dot (parseDecimal); `period_start` must name a period
  *   start of the market's calendar with the zone's offset on that date (locatePeriod);
- * - `price` must lie in the market's [priceFloor, priceCap]; `fallback_price` is a balancing price and
+ * - `price` must lie in the market's [priceFloor, priceCap]; `imbalance_price` is a balancing price and
  *   is only required to be finite (balancing prices are not bound by the auction's limits, common practice);
  * - rows may come in any order; days come out ascending;
  * - a day with missing periods or a period given twice is left out and listed in `incompleteDays` with
  *   the reason (never filled in, never averaged);
  * - cell problems are all collected and thrown together as one InputError (file, line, column).
  */
-export function parsePriceHistory(text: string, file: string, market: MarketSpec): PriceHistory {
+export function parsePriceHistory(text: string, file: string, market: MarketSpec, note?: (text: string) => void): PriceHistory {
   const split = splitCsv(text, file);
   if ('problems' in split) throw new InputError(split.problems);
   const problems = new ProblemList();
   const { header } = split.table;
   const layout = historyLayout(header, file, problems);
   problems.throwIfAny();
+  if (layout.oldImbalanceName && note !== undefined) {
+    note(`note: ${file}:1: the column ${OLD_IMBALANCE_PRICE_COLUMN} is read as ${HISTORY_COLUMNS.imbalancePrice}; rename the column to ${HISTORY_COLUMNS.imbalancePrice}\n`);
+  }
   const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
   const byDay = readRows(split.table, header, file, market, calendar, problems);
   problems.throwIfAny();
@@ -47,12 +55,14 @@ export function parsePriceHistory(text: string, file: string, market: MarketSpec
 
 /** Where each column is. */
 interface HistoryLayout {
-  readonly fallbackColumn: number | null;
+  readonly imbalanceColumn: number | null;
+  /** Whether the imbalance price column has its old name. */
+  readonly oldImbalanceName: boolean;
   /** Exogenous columns: name and 0-based index. */
   readonly exogenous: readonly { readonly name: string; readonly column: number }[];
 }
 
-const HEADER_FIX = 'use the header period_start,price[,fallback_price][,other columns such as load_forecast_mw]';
+const HEADER_FIX = 'use the header period_start,price[,imbalance_price][,other columns such as load_forecast_mw]';
 
 function historyLayout(header: readonly string[], file: string, problems: ProblemList): HistoryLayout {
   const at = (k: number): string => header[k] ?? '';
@@ -62,7 +72,8 @@ function historyLayout(header: readonly string[], file: string, problems: Proble
   if (at(1) !== HISTORY_COLUMNS.price) {
     problems.add({ file, line: 1, field: at(1), message: `the second column is "${at(1)}", expected "price"`, fix: HEADER_FIX });
   }
-  let fallbackColumn: number | null = null;
+  let imbalanceColumn: number | null = null;
+  let oldImbalanceName = false;
   const exogenous: { name: string; column: number }[] = [];
   const seen = new Set<string>();
   header.forEach((name, k) => {
@@ -76,10 +87,18 @@ function historyLayout(header: readonly string[], file: string, problems: Proble
     }
     seen.add(name);
     if (k < 2) return;
-    if (name === HISTORY_COLUMNS.fallbackPrice) fallbackColumn = k;
-    else exogenous.push({ name, column: k });
+    if (name === HISTORY_COLUMNS.imbalancePrice || name === OLD_IMBALANCE_PRICE_COLUMN) {
+      if (imbalanceColumn !== null) {
+        problems.add({ file, line: 1, field: name, message: `both ${HISTORY_COLUMNS.imbalancePrice} and its old name ${OLD_IMBALANCE_PRICE_COLUMN} are given`, fix: `keep one of them, named ${HISTORY_COLUMNS.imbalancePrice}` });
+        return;
+      }
+      imbalanceColumn = k;
+      oldImbalanceName = name === OLD_IMBALANCE_PRICE_COLUMN;
+    } else {
+      exogenous.push({ name, column: k });
+    }
   });
-  return { fallbackColumn, exogenous };
+  return { imbalanceColumn, oldImbalanceName, exogenous };
 }
 
 /** The cells of one delivery day as they are read: one column per numeric field, NaN where not given. */
@@ -201,7 +220,7 @@ function assembleHistory(byDay: ReadonlyMap<string, DayBuffer>, layout: HistoryL
       day,
       periods,
       pricePerMwh: column(1),
-      fallbackPricePerMwh: layout.fallbackColumn === null ? null : column(layout.fallbackColumn),
+      imbalancePricePerMwh: layout.imbalanceColumn === null ? null : column(layout.imbalanceColumn),
       exogenous,
     });
   }

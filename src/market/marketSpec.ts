@@ -9,15 +9,21 @@ const text = (what: string) =>
   z.string({ error: (issue) => (issue.input === undefined ? `missing ${what}` : `${what} must be text in double quotes`) });
 
 /**
- * Fallback price rule for histories without a `fallback_price` column: an unaccepted buy is closed at
+ * Imbalance price rule for histories without an `imbalance_price` column: an unaccepted buy is closed at
  * clearing + penaltyPerMwh (the operator pays more), an unaccepted sell at clearing - penaltyPerMwh
- * (the operator receives less).
+ * (the operator receives less). `key` is the field it is read from, named in its messages.
  */
-export const fallbackRuleSchema = z.strictObject({
-  kind: z.literal('clearing-plus-penalty', { error: 'fallback.kind must be "clearing-plus-penalty"' }),
-  /** Penalty added against the operator [currency/MWh], >= 0. */
-  penaltyPerMwh: finite('penaltyPerMwh').min(0, 'penaltyPerMwh must be >= 0'),
-});
+const ruleSchema = (key: string) =>
+  z.strictObject({
+    kind: z.literal('clearing-plus-penalty', { error: `${key}.kind must be "clearing-plus-penalty"` }),
+    /** Penalty added against the operator [currency/MWh], >= 0. */
+    penaltyPerMwh: finite('penaltyPerMwh').min(0, 'penaltyPerMwh must be >= 0'),
+  });
+
+export const imbalanceRuleSchema = ruleSchema('imbalance');
+
+/** The old name of the field `imbalance`, still read (docs/design.md section 2). */
+export const OLD_IMBALANCE_FIELD = 'fallback';
 
 /** Schema of `market.json` (docs/design.md section 8), with sanity checks that say what to fix. */
 export const marketSpecSchema = z
@@ -40,14 +46,19 @@ export const marketSpecSchema = z
     /** Gate closure, local time of day on the day before delivery, `HH:MM`. Required. */
     gateClosure: text('gateClosure')
       .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'gateClosure must be a local time HH:MM'),
-    /** Rule for the fallback (balancing) price where a history has none. Default: none (required then). */
-    fallback: fallbackRuleSchema.optional(),
+    /** Rule for the imbalance (balancing) price where a history has none. Default: none (required then). */
+    imbalance: imbalanceRuleSchema.optional(),
+    /** The old name of `imbalance`, read as it; not both. */
+    [OLD_IMBALANCE_FIELD]: ruleSchema(OLD_IMBALANCE_FIELD).optional(),
   })
   .superRefine(
     (spec, ctx) => {
       // Runs even when other fields are wrong, so that every problem is listed at once; each check
       // looks only at fields that are themselves valid.
-      const { priceFloor, priceCap, timeZone, periodMinutes } = spec as Partial<Record<keyof typeof spec, unknown>>;
+      const { priceFloor, priceCap, timeZone, periodMinutes, imbalance, fallback } = spec as Partial<Record<keyof typeof spec, unknown>>;
+      if (imbalance !== undefined && fallback !== undefined) {
+        ctx.addIssue({ code: 'custom', path: [OLD_IMBALANCE_FIELD], message: `both "imbalance" and its old name "${OLD_IMBALANCE_FIELD}" are given` });
+      }
       if (isFinite(priceFloor) && isFinite(priceCap) && priceFloor >= priceCap) {
         ctx.addIssue({ code: 'custom', path: ['priceCap'], message: `priceCap (${priceCap}) must be above priceFloor (${priceFloor})` });
       }
@@ -59,7 +70,9 @@ export const marketSpecSchema = z
       }
     },
     { when: (payload) => typeof payload.value === 'object' && payload.value !== null && !Array.isArray(payload.value) },
-  );
+  )
+  // The old name is read as the new one, so the rest of the program sees only `imbalance`.
+  .transform(({ fallback, ...spec }) => (fallback === undefined ? spec : { ...spec, imbalance: fallback }));
 
 function isFinite(value: unknown): value is number {
   return typeof value === 'number' && Number.isFinite(value);
@@ -72,15 +85,18 @@ export const MARKET_FIELD_FIXES: Readonly<Record<string, string>> = {
   priceCap: 'give the auction\'s highest clearing price in currency/MWh, above priceFloor, e.g. 4000',
   currency: 'give a short printable currency label such as "EUR"',
   gateClosure: 'give the local time on the day before delivery, e.g. "12:00"',
-  'fallback.kind': 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
-  'fallback.penaltyPerMwh': 'give a penalty >= 0 in currency/MWh',
+  'imbalance.kind': 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
+  'imbalance.penaltyPerMwh': 'give a penalty >= 0 in currency/MWh',
+  [OLD_IMBALANCE_FIELD]: 'keep only "imbalance", the same rule under its new name',
+  [`${OLD_IMBALANCE_FIELD}.kind`]: 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
+  [`${OLD_IMBALANCE_FIELD}.penaltyPerMwh`]: 'give a penalty >= 0 in currency/MWh',
 };
 
 /** Market spec, as read from `market.json`: the type of marketSpecSchema's output. */
 export type MarketSpec = Readonly<z.output<typeof marketSpecSchema>>;
 
-/** The fallback price rule of a market spec. */
-export type FallbackRule = Readonly<z.output<typeof fallbackRuleSchema>>;
+/** The imbalance price rule of a market spec. */
+export type ImbalanceRule = Readonly<z.output<typeof imbalanceRuleSchema>>;
 
 export function parseMarketSpec(value: unknown): z.ZodSafeParseResult<MarketSpec> {
   return marketSpecSchema.safeParse(value);

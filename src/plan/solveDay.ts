@@ -1,10 +1,12 @@
 import type { DayOutcome, DayProblem, Schedule } from '../types.js';
-import { dayLpModel, type PeriodMode } from './dayLpModel.js';
+import { dayLpModel } from './dayLpModel.js';
 import { infeasibilityReason } from './dayFeasibility.js';
 import { javascriptLpSolver, type LpSolver } from './lpSolver.js';
+import { freeModes, PERIOD_MODE } from './periodMode.js';
 import { scheduleValue, socPath } from './scheduleValue.js';
 import { isArbitragePeriod, netPeriod } from './simultaneousFlows.js';
-import { solveDayFast } from './fast/solveDayFast.js';
+import { solveWarehouseDay } from './warehouse/solveWarehouseDay.js';
+import type { DayWorkspace } from './warehouse/workspace.js';
 
 /** Options of solveDay, merged over SOLVE_DAY_DEFAULTS. */
 export interface SolveDayOptions {
@@ -14,11 +16,21 @@ export interface SolveDayOptions {
   readonly maxNodes: number;
   /** A node is pruned when its bound is within this relative gap of the incumbent [-]. */
   readonly relativeGap: number;
-  /** Try the exact special-purpose solver (src/plan/fast) first; the LP path takes the days it does not cover. */
-  readonly fast: boolean;
+  /**
+   * Which path solves the day: `auto` tries the warehouse solver (src/plan/warehouse) and hands the
+   * days it does not cover to the LP path; `warehouse` uses the warehouse solver alone (a day it does
+   * not cover throws UncoveredDayError); `lp` uses the LP path alone (LP relaxation by `lpSolver`,
+   * our branch and bound on arbitrage periods), e.g. to check it. Default `auto`.
+   */
+  readonly solver: DaySolverChoice;
+  /** Scratch arrays of the warehouse solver; a loop over days passes one to skip allocating (src/plan/warehouse/workspace.ts). Default: a shared one. */
+  readonly workspace?: DayWorkspace;
   /** Adds the time spent in solveDay to this counter (benchmarks); the caller hands in the clock. Default none. */
   readonly stopwatch?: SolveStopwatch;
 }
+
+/** The paths solveDay can take (SolveDayOptions.solver). */
+export type DaySolverChoice = 'auto' | 'warehouse' | 'lp';
 
 /** Time spent solving day problems, read with the caller's clock [ms]. */
 export interface SolveStopwatch {
@@ -31,8 +43,16 @@ export const SOLVE_DAY_DEFAULTS: SolveDayOptions = Object.freeze({
   lpSolver: javascriptLpSolver,
   maxNodes: 5000,
   relativeGap: 1e-10,
-  fast: true,
+  solver: 'auto',
 });
+
+/** Thrown by solveDay with `solver: 'warehouse'` on a day the warehouse solver does not cover. */
+export class UncoveredDayError extends Error {
+  constructor(reason: string) {
+    super(`the warehouse solver does not cover this day (${reason}); solve it with solver 'auto' or 'lp'`);
+    this.name = 'UncoveredDayError';
+  }
+}
 
 /** Thrown when the branch and bound cannot prove optimality within its node budget. */
 export class NodeLimitError extends Error {
@@ -51,11 +71,13 @@ interface Candidate {
 /**
  * Solves the day problem exactly, with no simultaneous charge and discharge in any period.
  *
- * Method: the LP relaxation (docs/design.md section 4) is solved; simultaneous flows in periods where
- * removing them cannot lower the value are netted out exactly (see simultaneousFlows.ts); in the
- * remaining "arbitrage periods" a depth-first branch and bound fixes the period to charge-only or
- * discharge-only, with the LP value as the bound (Land and Doig 1960). The incumbent is proven
- * optimal to `relativeGap` when no open node can beat it.
+ * Two exact paths (options.solver picks; docs/day-solver.md). The warehouse solver
+ * (src/plan/warehouse) takes every day it covers. The LP path: the LP relaxation (dayLpModel.ts;
+ * docs/design.md section 4) is solved by `lpSolver`; simultaneous flows in periods where removing
+ * them cannot lower the value are netted out exactly (see simultaneousFlows.ts); in the remaining
+ * "arbitrage periods" a depth-first branch and bound fixes the period to charge-only or
+ * discharge-only (PERIOD_MODE), with the LP value as the bound (Land and Doig 1960). The incumbent
+ * is proven optimal to `relativeGap` when no open node can beat it.
  */
 export function solveDay(problem: DayProblem, options: Partial<SolveDayOptions> = {}): DayOutcome {
   const settings: SolveDayOptions = { ...SOLVE_DAY_DEFAULTS, ...options };
@@ -73,18 +95,20 @@ export function solveDay(problem: DayProblem, options: Partial<SolveDayOptions> 
 function solveDayWith(problem: DayProblem, settings: SolveDayOptions): DayOutcome {
   const reason = infeasibilityReason(problem);
   if (reason !== null) return { status: 'infeasible', reason };
-  if (settings.fast) {
-    const fast = solveDayFast(problem);
-    if (fast.status !== 'not-covered') return fast;
+  if (settings.solver !== 'lp') {
+    const outcome = settings.workspace === undefined ? solveWarehouseDay(problem) : solveWarehouseDay(problem, undefined, { workspace: settings.workspace });
+    if (outcome.status !== 'not-covered') return outcome;
+    if (settings.solver === 'warehouse') throw new UncoveredDayError(outcome.reason);
   }
   const periods = problem.buyPricePerMwh.length;
   const flowTolMw = 1e-9 * Math.max(1, problem.battery.chargeMw, problem.battery.dischargeMw);
 
   let nodes = 0;
   let best: { schedule: Schedule; value: number } | null = null;
-  const stack: ReadonlyMap<number, PeriodMode>[] = [new Map()];
+  const root = freeModes(periods);
+  const stack: Int8Array[] = [root];
 
-  const relax = (modes: ReadonlyMap<number, PeriodMode>): Candidate | 'infeasible' | 'unbounded' => {
+  const relax = (modes: Int8Array): Candidate | 'infeasible' | 'unbounded' => {
     nodes++;
     const result = settings.lpSolver.solve(dayLpModel(problem, modes));
     if (result.status !== 'optimal') return result.status;
@@ -100,11 +124,11 @@ function solveDayWith(problem: DayProblem, settings: SolveDayOptions): DayOutcom
 
   while (stack.length > 0) {
     if (nodes >= settings.maxNodes) throw new NodeLimitError(nodes);
-    const modes = stack.pop() as ReadonlyMap<number, PeriodMode>;
+    const modes = stack.pop() as Int8Array;
     const node = relax(modes);
     if (node === 'unbounded') return { status: 'unbounded', reason: 'the day problem is unbounded; check the battery limits' };
     if (node === 'infeasible') {
-      if (modes.size === 0) return { status: 'infeasible', reason: 'no schedule keeps the state of charge inside its window and meets the end-of-day floor' };
+      if (modes === root) return { status: 'infeasible', reason: 'no schedule keeps the state of charge inside its window and meets the end-of-day floor' };
       continue;
     }
     if (best !== null && node.bound <= best.value + settings.relativeGap * Math.max(1, Math.abs(best.value))) continue;
@@ -117,8 +141,10 @@ function solveDayWith(problem: DayProblem, settings: SolveDayOptions): DayOutcom
     }
     // Explore first the side that keeps the larger stored-energy flow of the split period.
     const keepCharge = node.chargeMw[split] as number * problem.battery.chargeEfficiency >= (node.dischargeMw[split] as number) / problem.battery.dischargeEfficiency;
-    const chargeChild = new Map(modes).set(split, 'charge-only' as const);
-    const dischargeChild = new Map(modes).set(split, 'discharge-only' as const);
+    const chargeChild = modes.slice();
+    chargeChild[split] = PERIOD_MODE.chargeOnly;
+    const dischargeChild = modes.slice();
+    dischargeChild[split] = PERIOD_MODE.dischargeOnly;
     stack.push(keepCharge ? dischargeChild : chargeChild, keepCharge ? chargeChild : dischargeChild);
   }
   if (best === null) return { status: 'infeasible', reason: 'no schedule without simultaneous charge and discharge meets the limits' };

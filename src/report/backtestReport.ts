@@ -1,7 +1,7 @@
 import type { BacktestMetrics } from '../backtest/backtestMetrics.js';
 import type { PolicyMetrics } from '../backtest/policyMetrics.js';
 import type { BacktestResult, PolicyDay } from '../backtest/runBacktest.js';
-import { fallbackDescription } from './fallbackDescription.js';
+import { imbalanceDescription } from './imbalanceDescription.js';
 import type { BatteryModel, MarketSpec } from '../types.js';
 import { barChart } from './barChart.js';
 import { categoryAxis } from './categoryAxis.js';
@@ -28,13 +28,13 @@ export interface BacktestReportInput {
 
 /** Ids of the charts a backtest report draws for these policies (when every chart has data). */
 export function backtestChartIds(policies: readonly string[]): string[] {
-  return ['backtest-cumulative', ...policies.map((p) => `backtest-daily-${p}`), 'backtest-acceptance', 'backtest-fallback-energy', 'backtest-fallback-cash'];
+  return ['backtest-cumulative', ...policies.map((p) => `backtest-daily-${p}`), 'backtest-acceptance', 'backtest-imbalance-energy', 'backtest-imbalance-cash'];
 }
 
 /**
  * The backtest report, `report.html`: a summary; cumulative profit of every policy over the covered
  * days with perfect foresight as the ceiling; the distribution of daily profit per policy; acceptance
- * rates per side; energy and cash at the fallback price; tables per policy and per month. Every
+ * rates per side; energy and cash at the imbalance price; tables per policy and per month. Every
  * number comes from runBacktest and backtestMetrics, the same as summary.json. Same input, same bytes.
  */
 export function backtestReport(input: BacktestReportInput): string {
@@ -47,7 +47,7 @@ export function backtestReport(input: BacktestReportInput): string {
     sections.push(
       { id: 'profit', heading: 'Cumulative profit', blocks: [cumulativeChart(input)] },
       { id: 'daily', heading: 'Daily profit', blocks: dailyHistograms(input) },
-      { id: 'orders', heading: 'Acceptance and the fallback price', blocks: [acceptanceChart(input), ...fallbackCharts(input)] },
+      { id: 'orders', heading: 'Acceptance and the imbalance price', blocks: [acceptanceChart(input), ...imbalanceCharts(input)] },
       { id: 'policies', heading: 'Policies', blocks: policyTables(input) },
       { id: 'months', heading: 'Month by month', blocks: monthTables(input) },
     );
@@ -80,7 +80,7 @@ function summaryFacts(input: BacktestReportInput): [string, string][] {
     ['span', `${result.from} to ${result.to}: ${result.days.length} days covered, ${result.skippedDays.length} skipped`],
     ['battery', `${numberText(battery.energyMwh, 3)} MWh, charge ${numberText(battery.chargeMw, 3)} MW, discharge ${numberText(battery.dischargeMw, 3)} MW, usable ${numberText(battery.socMaxMwh - battery.socMinMwh, 3)} MWh`],
     ['policies', `alpha ${numberText(result.alpha, 4)} for quantile and median; unaccepted orders: ${result.unaccepted}`],
-    ['fallback price', fallbackDescription(result.fallbackSource, c)],
+    ['imbalance price', imbalanceDescription(result.imbalanceSource, c)],
     ['profit', policies.join('; ')],
     ['quantile against point', edgeText(metrics, c)],
   ];
@@ -169,35 +169,35 @@ function acceptanceChart(input: BacktestReportInput): Markup {
   });
 }
 
-function fallbackCharts(input: BacktestReportInput): Markup[] {
+function imbalanceCharts(input: BacktestReportInput): Markup[] {
   const { result, metrics, market } = input;
   const m = result.policies.map((p) => metrics.policies[p] as PolicyMetrics);
   const x = categoryAxis(result.policies.map((p) => policyStyle(p).label), { label: 'policy', unit: '-' });
-  if (m.every((p) => p.boughtFallbackMwh === 0 && p.soldFallbackMwh === 0 && p.fallbackCash === 0)) {
-    return [paragraph('No energy was settled at the fallback price: every policy moved only energy the auction accepted.')];
+  if (m.every((p) => p.boughtImbalanceMwh === 0 && p.soldImbalanceMwh === 0 && p.imbalanceCash === 0)) {
+    return [paragraph('No energy was settled at the imbalance price: every policy moved only energy the auction accepted.')];
   }
-  const rule = result.unaccepted === 'follow-plan' ? 'the battery ran its plan anyway, so unaccepted orders were bought or sold at the fallback price' : 'sells the stored energy could not cover were covered at the fallback price';
+  const rule = result.unaccepted === 'follow-plan' ? 'the battery ran its plan anyway, so unaccepted orders were bought or sold at the imbalance price' : 'sells the stored energy could not cover were covered at the imbalance price';
   return [
     barChart({
-      id: 'backtest-fallback-energy',
-      title: 'Energy settled at the fallback price, per policy',
-      caption: `Energy bought and sold at the fallback (balancing) price instead of the auction over all covered days (${result.unaccepted}: ${rule}).`,
+      id: 'backtest-imbalance-energy',
+      title: 'Energy settled at the imbalance price, per policy',
+      caption: `Energy bought and sold at the imbalance (balancing) price instead of the auction over all covered days (${result.unaccepted}: ${rule}).`,
       x,
-      y: { label: 'energy at the fallback price', unit: 'MWh' },
+      y: { label: 'energy at the imbalance price', unit: 'MWh' },
       plotHeight: 180,
       series: [
-        { name: 'bought at the fallback price', values: m.map((p) => p.boughtFallbackMwh), colour: ROLE_COLOURS.buy },
-        { name: 'sold at the fallback price', values: m.map((p) => p.soldFallbackMwh), colour: ROLE_COLOURS.sell },
+        { name: 'bought at the imbalance price', values: m.map((p) => p.boughtImbalanceMwh), colour: ROLE_COLOURS.buy },
+        { name: 'sold at the imbalance price', values: m.map((p) => p.soldImbalanceMwh), colour: ROLE_COLOURS.sell },
       ],
     }),
     barChart({
-      id: 'backtest-fallback-cash',
-      title: 'Cash at the fallback price, per policy',
-      caption: 'Cash of the energy above, + received, \u2212 paid; below zero the fallback price cost the policy money. It is part of the profit.',
+      id: 'backtest-imbalance-cash',
+      title: 'Cash at the imbalance price, per policy',
+      caption: 'Cash of the energy above, + received, \u2212 paid; below zero the imbalance price cost the policy money. It is part of the profit.',
       x,
-      y: { label: 'fallback cash, + received', unit: market.currency },
+      y: { label: 'imbalance cash, + received', unit: market.currency },
       plotHeight: 180,
-      series: [{ name: 'fallback cash', values: m.map((p) => p.fallbackCash), colour: OKABE_ITO.blue }],
+      series: [{ name: 'imbalance cash', values: m.map((p) => p.imbalanceCash), colour: OKABE_ITO.blue }],
     }),
   ];
 }
@@ -222,17 +222,17 @@ function policyTables(input: BacktestReportInput): Markup[] {
       rows: rows.map(([p, m]) => [p, m.profit, m.meanDailyProfit, pct(m.captureRatio), m.worstDay5Percent, m.maxDrawdown, m.equivalentFullCycles]),
     }),
     htmlTable({
-      caption: 'Orders and the fallback price per policy',
+      caption: 'Orders and the imbalance price per policy',
       columns: [
         { header: 'policy' },
         { header: 'buys accepted', unit: '%', decimals: 1 },
         { header: 'sells accepted', unit: '%', decimals: 1 },
-        { header: 'bought at fallback', unit: 'MWh', decimals: 1 },
-        { header: 'sold at fallback', unit: 'MWh', decimals: 1 },
-        { header: 'fallback cash', unit: c, decimals: 0 },
+        { header: 'bought at imbalance price', unit: 'MWh', decimals: 1 },
+        { header: 'sold at imbalance price', unit: 'MWh', decimals: 1 },
+        { header: 'imbalance cash', unit: c, decimals: 0 },
         { header: 'days without plan' },
       ],
-      rows: rows.map(([p, m]) => [p, pct(m.buyAcceptanceRate), pct(m.sellAcceptanceRate), m.boughtFallbackMwh, m.soldFallbackMwh, m.fallbackCash, m.daysWithoutPlan]),
+      rows: rows.map(([p, m]) => [p, pct(m.buyAcceptanceRate), pct(m.sellAcceptanceRate), m.boughtImbalanceMwh, m.soldImbalanceMwh, m.imbalanceCash, m.daysWithoutPlan]),
     }),
   ];
 }

@@ -215,7 +215,7 @@ function topSettingsTable(input: SweepReportInput): Markup {
       { header: 'p-value vs point', unit: '-', decimals: 4 },
       { header: 'buys accepted', unit: '%', decimals: 1 },
       { header: 'sells accepted', unit: '%', decimals: 1 },
-      { header: 'fallback energy', unit: 'MWh', decimals: 1 },
+      { header: 'imbalance energy', unit: 'MWh', decimals: 1 },
     ],
     rows: top.map((r) => [
       typeof r.setting.alpha === 'number' ? numberText(r.setting.alpha, 6) : null,
@@ -226,7 +226,7 @@ function topSettingsTable(input: SweepReportInput): Markup {
       num(r.row.p_value_vs_point),
       pct(r.row.buy_acceptance_rate),
       pct(r.row.sell_acceptance_rate),
-      num(r.row.fallback_mwh),
+      num(r.row.imbalance_mwh),
     ]),
   });
 }

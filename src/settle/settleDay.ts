@@ -1,11 +1,11 @@
 import type { BatteryModel, Order } from '../types.js';
 import { isAccepted } from './acceptance.js';
-import type { FallbackPrices } from './fallbackPrices.js';
+import type { ImbalancePrices } from './imbalancePrices.js';
 import type { SettlementTotals } from './settlementTotals.js';
 
 /**
  * What the battery does about orders the auction did not accept (docs/design.md section 5):
- * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the fallback price;
+ * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the imbalance price;
  * - `follow-accepted`: it moves only with accepted orders; unaccepted orders have no effect.
  */
 export type UnacceptedRule = 'follow-plan' | 'follow-accepted';
@@ -25,7 +25,7 @@ export interface SettleDayInput {
   readonly orders: readonly (PeriodOrder | null)[];
   /** Realised clearing price per period [currency/MWh]. */
   readonly clearingPricePerMwh: readonly number[];
-  readonly fallback: FallbackPrices;
+  readonly imbalance: ImbalancePrices;
   readonly unaccepted: UnacceptedRule;
 }
 
@@ -62,11 +62,11 @@ export const SETTLE_TOLERANCE = 1e-6;
  * 1. acceptance: a buy iff clearing <= limit, a sell iff clearing >= limit (isAccepted);
  * 2. the auction: an accepted buy pays clearing x E, an accepted sell receives clearing x E;
  * 3. the intended flow: `follow-plan` moves E whether accepted or not, and an unaccepted order's E is
- *    closed at the fallback price (a buy bought at the fallback buy price, a sell sold at the fallback
+ *    closed at the imbalance price (a buy bought at the imbalance buy price, a sell sold at the imbalance
  *    sell price); `follow-accepted` moves E only when accepted;
  * 4. the store's limits: at most min(chargeMw dt, (socMax - s) / eta_c) can be charged and at most
  *    min(dischargeMw dt, (s - socMin) eta_d) discharged. Energy an accepted buy cannot store is sold back
- *    at the fallback sell price; the part of a sell the store cannot cover is bought back at the fallback
+ *    at the imbalance sell price; the part of a sell the store cannot cover is bought back at the imbalance
  *    buy price. A plan made from the same starting state never meets these limits, so under
  *    `follow-plan` step 4 only absorbs rounding;
  * 5. s_t = s_{t-1} + eta_c x charged - discharged / eta_d, clamped into [socMin, socMax] (the clamp and
@@ -86,17 +86,17 @@ export function settleDay(input: SettleDayInput): SettledDay {
   const tolMwh = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
   const periods: SettledPeriod[] = new Array<SettledPeriod>(count);
   // Sums in period order, in plain variables (a settled year is ~175,000 periods per policy).
-  let profit = 0, auction = 0, fallbackSum = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtFallback = 0, soldFallback = 0;
+  let profit = 0, auction = 0, imbalanceSum = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtImbalance = 0, soldImbalance = 0;
   let charged = 0, discharged = 0, buys = 0, buysAccepted = 0, sells = 0, sellsAccepted = 0;
   let soc = input.socStartMwh;
   for (let t = 0; t < count; t++) {
     const order = input.orders[t] ?? null;
     const clearing = input.clearingPricePerMwh[t] as number;
-    // What the order does in the auction and at the fallback price, and the flow it asks for [MWh].
+    // What the order does in the auction and at the imbalance price, and the flow it asks for [MWh].
     let tradeBoughtAuction = 0;
     let tradeSoldAuction = 0;
-    let tradeBoughtFallback = 0;
-    let tradeSoldFallback = 0;
+    let tradeBoughtImbalance = 0;
+    let tradeSoldImbalance = 0;
     let tradeCharge = 0;
     let tradeDischarge = 0;
     let accepted: boolean | null = null;
@@ -106,11 +106,11 @@ export function settleDay(input: SettleDayInput): SettledDay {
       const moves = accepted || input.unaccepted === 'follow-plan';
       if (order.side === 'buy') {
         if (accepted) tradeBoughtAuction = energy;
-        else if (moves) tradeBoughtFallback = energy;
+        else if (moves) tradeBoughtImbalance = energy;
         if (moves) tradeCharge = energy;
       } else {
         if (accepted) tradeSoldAuction = energy;
-        else if (moves) tradeSoldFallback = energy;
+        else if (moves) tradeSoldImbalance = energy;
         if (moves) tradeDischarge = energy;
       }
     }
@@ -118,36 +118,36 @@ export function settleDay(input: SettleDayInput): SettledDay {
     const deliverable = Math.max(0, Math.min(battery.dischargeMw * dt, (soc - battery.socMinMwh) * battery.dischargeEfficiency));
     const chargedMwh = tradeCharge <= storable + tolMwh ? tradeCharge : storable;
     const dischargedMwh = tradeDischarge <= deliverable + tolMwh ? tradeDischarge : deliverable;
-    const soldFallbackMwh = tradeSoldFallback + (tradeCharge - chargedMwh);
-    const boughtFallbackMwh = tradeBoughtFallback + (tradeDischarge - dischargedMwh);
+    const soldImbalanceMwh = tradeSoldImbalance + (tradeCharge - chargedMwh);
+    const boughtImbalanceMwh = tradeBoughtImbalance + (tradeDischarge - dischargedMwh);
     soc += battery.chargeEfficiency * chargedMwh - dischargedMwh / battery.dischargeEfficiency;
     soc = Math.min(battery.socMaxMwh, Math.max(battery.socMinMwh, soc));
     const auctionCash = clearing * (tradeSoldAuction - tradeBoughtAuction);
-    const fallbackCash = (input.fallback.sellPerMwh[t] as number) * soldFallbackMwh - (input.fallback.buyPerMwh[t] as number) * boughtFallbackMwh;
+    const imbalanceCash = (input.imbalance.sellPerMwh[t] as number) * soldImbalanceMwh - (input.imbalance.buyPerMwh[t] as number) * boughtImbalanceMwh;
     const degradationCost = battery.degradationCostPerMwh * dischargedMwh;
     const period = new SettledPeriodRecord(
       accepted,
       tradeBoughtAuction,
       tradeSoldAuction,
-      boughtFallbackMwh,
-      soldFallbackMwh,
+      boughtImbalanceMwh,
+      soldImbalanceMwh,
       chargedMwh,
       dischargedMwh,
       auctionCash,
-      fallbackCash,
+      imbalanceCash,
       degradationCost,
-      auctionCash + fallbackCash - degradationCost,
+      auctionCash + imbalanceCash - degradationCost,
       soc,
     );
     periods[t] = period;
     profit += period.profit;
     auction += auctionCash;
-    fallbackSum += fallbackCash;
+    imbalanceSum += imbalanceCash;
     degradation += degradationCost;
     boughtAuction += tradeBoughtAuction;
     soldAuction += tradeSoldAuction;
-    boughtFallback += boughtFallbackMwh;
-    soldFallback += soldFallbackMwh;
+    boughtImbalance += boughtImbalanceMwh;
+    soldImbalance += soldImbalanceMwh;
     charged += chargedMwh;
     discharged += dischargedMwh;
     if (order !== null) {
@@ -163,12 +163,12 @@ export function settleDay(input: SettleDayInput): SettledDay {
   const totals: SettlementTotals = {
     profit,
     auctionCash: auction,
-    fallbackCash: fallbackSum,
+    imbalanceCash: imbalanceSum,
     degradationCost: degradation,
     boughtAuctionMwh: boughtAuction,
     soldAuctionMwh: soldAuction,
-    boughtFallbackMwh: boughtFallback,
-    soldFallbackMwh: soldFallback,
+    boughtImbalanceMwh: boughtImbalance,
+    soldImbalanceMwh: soldImbalance,
     chargedMwh: charged,
     dischargedMwh: discharged,
     buys,
@@ -181,9 +181,9 @@ export function settleDay(input: SettleDayInput): SettledDay {
 
 function checkInput(input: SettleDayInput, count: number): void {
   const { battery } = input;
-  const lengths = [input.orders.length, input.fallback.buyPerMwh.length, input.fallback.sellPerMwh.length];
+  const lengths = [input.orders.length, input.imbalance.buyPerMwh.length, input.imbalance.sellPerMwh.length];
   if (lengths.some((n) => n !== count)) {
-    throw new RangeError(`settleDay: orders (${lengths[0]}), fallback prices (${lengths[1]}, ${lengths[2]}) and clearing prices (${count}) differ in length`);
+    throw new RangeError(`settleDay: orders (${lengths[0]}), imbalance prices (${lengths[1]}, ${lengths[2]}) and clearing prices (${count}) differ in length`);
   }
   const tol = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
   if (!(input.socStartMwh >= battery.socMinMwh - tol && input.socStartMwh <= battery.socMaxMwh + tol)) {
@@ -206,12 +206,12 @@ class SettledPeriodRecord implements SettledPeriod {
     readonly accepted: boolean | null,
     readonly boughtAuctionMwh: number,
     readonly soldAuctionMwh: number,
-    readonly boughtFallbackMwh: number,
-    readonly soldFallbackMwh: number,
+    readonly boughtImbalanceMwh: number,
+    readonly soldImbalanceMwh: number,
     readonly chargedMwh: number,
     readonly dischargedMwh: number,
     readonly auctionCash: number,
-    readonly fallbackCash: number,
+    readonly imbalanceCash: number,
     readonly degradationCost: number,
     readonly profit: number,
     readonly socMwh: number,

@@ -3,20 +3,20 @@
  * cash [currency] with + received, - paid; counts of orders.
  */
 export interface SettlementTotals {
-  /** auctionCash + fallbackCash - degradationCost [currency]. */
+  /** auctionCash + imbalanceCash - degradationCost [currency]. */
   readonly profit: number;
   /** clearing price x (sold - bought in the auction) [currency]. */
   readonly auctionCash: number;
-  /** fallback sell price x sold at fallback - fallback buy price x bought at fallback [currency]. */
-  readonly fallbackCash: number;
+  /** imbalance sell price x energy sold at it - imbalance buy price x energy bought at it [currency]. */
+  readonly imbalanceCash: number;
   /** degradationCostPerMwh x dischargedMwh [currency], >= 0. */
   readonly degradationCost: number;
   /** Energy bought and sold in the auction (accepted orders) [MWh]. */
   readonly boughtAuctionMwh: number;
   readonly soldAuctionMwh: number;
-  /** Energy bought and sold at the fallback price [MWh]. */
-  readonly boughtFallbackMwh: number;
-  readonly soldFallbackMwh: number;
+  /** Energy bought and sold at the imbalance price [MWh]. */
+  readonly boughtImbalanceMwh: number;
+  readonly soldImbalanceMwh: number;
   /** Energy taken from the grid into the battery [MWh]. */
   readonly chargedMwh: number;
   /** Energy given from the battery to the grid [MWh]; degradation is charged on it. */
@@ -32,12 +32,12 @@ export interface SettlementTotals {
 export const ZERO_TOTALS: SettlementTotals = Object.freeze({
   profit: 0,
   auctionCash: 0,
-  fallbackCash: 0,
+  imbalanceCash: 0,
   degradationCost: 0,
   boughtAuctionMwh: 0,
   soldAuctionMwh: 0,
-  boughtFallbackMwh: 0,
-  soldFallbackMwh: 0,
+  boughtImbalanceMwh: 0,
+  soldImbalanceMwh: 0,
   chargedMwh: 0,
   dischargedMwh: 0,
   buys: 0,

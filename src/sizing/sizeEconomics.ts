@@ -33,7 +33,7 @@ export interface SizeBacktestTotals {
   readonly days: number;
   /** Profit: trading cash - wear cost [currency]. */
   readonly profit: number;
-  /** Trading cash: auction cash + fallback cash, before the wear cost [currency]. */
+  /** Trading cash: auction cash + imbalance cash, before the wear cost [currency]. */
   readonly tradingCash: number;
   /** Energy discharged at the grid [MWh]. */
   readonly dischargedMwh: number;

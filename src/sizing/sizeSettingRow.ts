@@ -55,7 +55,7 @@ export type SizeGridSetting = {
  * - `profit_per_year`, `npv`, `irr` (`none` when NPV has no root, e.g. flows without a sign change);
  * - `days`: days scored; `capture_ratio`: profit / perfect-foresight profit on those days;
  * - `profit_per_mwh`, `profit_per_mw`: profit over the scored days per MWh of energy and per MW of power;
- * - `revenue_per_mwh_year`, `revenue_per_mw_year`: trading cash (auction + fallback, before the wear
+ * - `revenue_per_mwh_year`, `revenue_per_mw_year`: trading cash (auction + imbalance, before the wear
  *   cost) per year, per MWh and per MW;
  * - `spread_per_mwh_discharged`: trading cash / MWh discharged, the spread captured per MWh sold;
  * - `cycles_per_year` (equivalent full cycles of the usable window), `throughput_mwh_per_year`;
@@ -100,7 +100,7 @@ export function sizeSettingRow(study: SizeStudy, setting: SizeSetting, memo: Run
     run = runPolicy(scored, setting.policy, { alpha: alpha ?? UNUSED_ALPHA, unaccepted: study.unaccepted });
   }
   const m = policyMetrics(run.runs, battery, perfect.profit);
-  const tradingCash = m.auctionCash + m.fallbackCash;
+  const tradingCash = m.auctionCash + m.imbalanceCash;
   const e = sizeEconomics(setting, { days: m.days, profit: m.profit, tradingCash, dischargedMwh: m.dischargedMwh, equivalentFullCycles: m.equivalentFullCycles }, study.costs);
   const row: Record<(typeof SIZE_COLUMNS)[number], number | string | null> = {
     alpha,

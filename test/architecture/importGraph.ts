@@ -66,7 +66,7 @@ function isGlobalUse(node: ts.Identifier): boolean {
   return (ts.isPropertyAccessExpression(parent) || ts.isElementAccessExpression(parent)) && parent.expression === node;
 }
 
-/** The layer of a file under src/ (`src/plan/fast/pwl.ts` -> `plan`, `src/types.ts` -> `types`), or null. */
+/** The layer of a file under src/ (`src/plan/warehouse/pwl.ts` -> `plan`, `src/types.ts` -> `types`), or null. */
 export function layerOf(file: string): Layer | null {
   const parts = normalize(file).split(/[\\/]/);
   if (parts[0] !== 'src' || parts.length < 2) return null;

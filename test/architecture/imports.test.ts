@@ -55,7 +55,7 @@ describe('the checker', () => {
   });
 
   it('names the folder of a file, with src/types.ts and src/index.ts on their own', () => {
-    expect([layerOf('src/plan/fast/pwl.ts'), layerOf('src/types.ts'), layerOf('src/index.ts'), layerOf('src/cli/main.ts'), layerOf('test/x.ts')]).toEqual(['plan', 'types', 'index', 'cli', null]);
+    expect([layerOf('src/plan/warehouse/pwl.ts'), layerOf('src/types.ts'), layerOf('src/index.ts'), layerOf('src/cli/main.ts'), layerOf('test/x.ts')]).toEqual(['plan', 'types', 'index', 'cli', null]);
   });
 
   it('fails on a deliberately bad import: the domain reaching into io, the cli and node:fs, and using process', () => {

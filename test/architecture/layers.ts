@@ -4,7 +4,7 @@
  * fails `npm test` on any import this table does not allow, on a cycle between folders, and on file,
  * path, process or thread access in a domain folder. DEVELOPERS.md shows the same table.
  *
- * A folder is a top-level folder of src/ (src/plan/fast belongs to `plan`); `types` is src/types.ts and
+ * A folder is a top-level folder of src/ (src/plan/warehouse belongs to `plan`); `types` is src/types.ts and
  * `index` is src/index.ts, the library entry. A folder may always import its own files.
  */
 export type Layer =

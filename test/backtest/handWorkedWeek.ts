@@ -19,8 +19,8 @@ export const battery: BatteryModel = Object.freeze({
 function forecastDay(day: string, medians: readonly number[]): QuantileDay {
   return Object.freeze({ day, levels: [0.1, 0.5, 0.9], periods: hourlyPeriods(day, 4), prices: medians.map((m) => [m - 2, m, m + 2]) });
 }
-function historyDay(day: string, prices: readonly number[], fallback: readonly number[]): HistoryDay {
-  return Object.freeze({ day, periods: hourlyPeriods(day, 4), pricePerMwh: prices, fallbackPricePerMwh: fallback, exogenous: {} });
+function historyDay(day: string, prices: readonly number[], imbalance: readonly number[]): HistoryDay {
+  return Object.freeze({ day, periods: hourlyPeriods(day, 4), pricePerMwh: prices, imbalancePricePerMwh: imbalance, exogenous: {} });
 }
 
 // Day A, 05-04: buy prices q0.9 = 22, 42, 92, 52, sell prices q0.1 = 18, 38, 88, 48: the plan buys 4 MW in
@@ -28,12 +28,12 @@ function historyDay(day: string, prices: readonly number[], fallback: readonly n
 // Realised 20, 45, 95, 50: both accepted: -80 + 380 = 300 under either rule. End 0.
 // Day C, 05-05: buy 22 in hour 1, sell 98 in hour 3 (4 x 76 = 304). Realised 80, 20, 30, 90: the buy is
 // accepted (20 <= 22), the sell is not (90 < 98).
-//   follow-plan: -80, then 4 MWh sold at the fallback 85: +340 -> 260, end 0.
+//   follow-plan: -80, then 4 MWh sold at the imbalance 85: +340 -> 260, end 0.
 //   follow-accepted: -80, the 4 MWh stay in store: end 4.
 // 05-06: no history (listed incomplete). Skipped; the state of charge carries over unchanged.
-// Day D, 05-07: buy prices 22, 62, 32, 72, sell prices 18, 58, 28, 68. Realised 25, 60, 30, 70, fallback 26, 61, 29, 69.
+// Day D, 05-07: buy prices 22, 62, 32, 72, sell prices 18, 58, 28, 68. Realised 25, 60, 30, 70, imbalance 26, 61, 29, 69.
 //   follow-plan from 0: two cycles, buy h0 (22) sell h1 (58), buy h2 (32) sell h3 (68): 2 x 4 x 36 = 288.
-//     h0 not accepted (25 > 22): bought at fallback 26: -104; h1 +240; h2 accepted (30 <= 32) -120; h3 +280: 296.
+//     h0 not accepted (25 > 22): bought at imbalance 26: -104; h1 +240; h2 accepted (30 <= 32) -120; h3 +280: 296.
 //   follow-accepted from 4 (full, and must end at >= 4): sell h1 (58), buy back h2 (32): 4 x 26 = 104.
 //     h1 accepted (60 >= 58): +240, h2 accepted: -120: 120, end 4.
 // 05-08: no forecast. Skipped.

@@ -7,7 +7,7 @@ import { runBacktest } from '../../src/backtest/runBacktest.js';
 import { planDay } from '../../src/plan/planDay.js';
 import { scheduleValue } from '../../src/plan/scheduleValue.js';
 import { solveDay } from '../../src/plan/solveDay.js';
-import { dayFallbackPrices } from '../../src/settle/fallbackPrices.js';
+import { dayImbalancePrices } from '../../src/settle/imbalancePrices.js';
 import { settleDay, type SettledDay, type UnacceptedRule } from '../../src/settle/settleDay.js';
 import { FIRST_DAY, randomMarketArb, scalePrices, scalesExactly, type RandomMarket } from './randomMarket.js';
 
@@ -28,14 +28,14 @@ function settleFirstDay(m: RandomMarket, policy: BacktestPolicy, unaccepted: Una
   const socStartMwh = m.battery.socInitialMwh;
   const plan = planPolicyDay({ policy, forecast, realised, market: m.market, battery: m.battery, alpha: ALPHA, socStartMwh, solveOptions: {} });
   if (plan.status !== 'optimal') throw new Error(`${policy}: ${plan.reason}`);
-  const penalty = penaltyPerMwh ?? m.market.fallback?.penaltyPerMwh ?? 0;
+  const penalty = penaltyPerMwh ?? m.market.imbalance?.penaltyPerMwh ?? 0;
   return settleDay({
     periodHours: 1,
     battery: m.battery,
     socStartMwh,
     orders: plan.orders,
     clearingPricePerMwh: realised.pricePerMwh,
-    fallback: dayFallbackPrices(realised, { kind: 'clearing-plus-penalty', penaltyPerMwh: penalty }),
+    imbalance: dayImbalancePrices(realised, { kind: 'clearing-plus-penalty', penaltyPerMwh: penalty }),
     unaccepted,
   });
 }
@@ -51,7 +51,7 @@ function bestAtRealised(m: RandomMarket, endFloorMwh: number): number {
 const slack = (x: number) => 1e-7 * Math.max(1, Math.abs(x));
 
 describe('backtest laws on small random markets', () => {
-  it('follow-plan: no policy beats perfect foresight on the same day from the same state (fallback penalty >= 0)', () => {
+  it('follow-plan: no policy beats perfect foresight on the same day from the same state (imbalance penalty >= 0)', () => {
     fc.assert(
       fc.property(randomMarketArb(1), (m) => {
         const upper = settleFirstDay(m, 'perfect-foresight', 'follow-plan').totals.profit;
@@ -65,7 +65,7 @@ describe('backtest laws on small random markets', () => {
 
   it('follow-accepted: no policy beats the best schedule that ends where the policy ended', () => {
     // The battery's actual path is a feasible schedule from the same start that ends at its actual end
-    // state; with fallback prices no better than the clearing price its cash cannot beat that schedule.
+    // state; with imbalance prices no better than the clearing price its cash cannot beat that schedule.
     fc.assert(
       fc.property(randomMarketArb(1), (m) => {
         for (const policy of FORECAST_POLICIES) {
@@ -97,7 +97,7 @@ describe('backtest laws on small random markets', () => {
           for (const run of day.runs) {
             expect(run.totals.buysAccepted).toBe(run.totals.buys);
             expect(run.totals.sellsAccepted).toBe(run.totals.sells);
-            expect(run.totals.boughtFallbackMwh + run.totals.soldFallbackMwh).toBeLessThanOrEqual(1e-9);
+            expect(run.totals.boughtImbalanceMwh + run.totals.soldImbalanceMwh).toBeLessThanOrEqual(1e-9);
           }
         }
       }),
@@ -105,7 +105,7 @@ describe('backtest laws on small random markets', () => {
     );
   });
 
-  it('with the fallback price equal to the clearing price, follow-plan profit is the plan\'s value at the realised prices', () => {
+  it('with the imbalance price equal to the clearing price, follow-plan profit is the plan\'s value at the realised prices', () => {
     fc.assert(
       fc.property(randomMarketArb(1), fc.constantFrom('quantile' as const, 'median' as const, 'point' as const), (m, policy) => {
         const { forecast, realised } = firstDay(m);

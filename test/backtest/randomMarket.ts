@@ -44,7 +44,7 @@ export const batteryModelArb: fc.Arbitrary<BatteryModel> = fc
     });
   });
 
-/** A random market of `days` days with 4 to 8 hourly periods each and a fallback penalty in [0, 40]. */
+/** A random market of `days` days with 4 to 8 hourly periods each and an imbalance penalty in [0, 40]. */
 export function randomMarketArb(days: number): fc.Arbitrary<RandomMarket> {
   return fc
     .record({
@@ -56,7 +56,7 @@ export function randomMarketArb(days: number): fc.Arbitrary<RandomMarket> {
     .map(({ periods, draws, battery, penalty }) => {
       const market: MarketSpec = Object.freeze({
         timeZone: 'UTC', periodMinutes: 60, priceFloor: -100, priceCap: 1000, currency: 'TST', gateClosure: '12:00',
-        fallback: Object.freeze({ kind: 'clearing-plus-penalty' as const, penaltyPerMwh: penalty }),
+        imbalance: Object.freeze({ kind: 'clearing-plus-penalty' as const, penaltyPerMwh: penalty }),
       });
       const historyDays: HistoryDay[] = [];
       const forecastDays = new Map<string, QuantileDay>();
@@ -68,7 +68,7 @@ export function randomMarketArb(days: number): fc.Arbitrary<RandomMarket> {
         const prices = cells.map((c) => [clamp(c.median - c.below), clamp(c.median), clamp(c.median + c.above)]);
         const realised = cells.map((c) => clamp(c.median + c.surprise * (c.surprise < 0 ? c.below : c.above)));
         forecastDays.set(day, Object.freeze({ day, levels: LEVELS, periods: ps, prices: Object.freeze(prices.map((r) => Object.freeze(r))) }));
-        historyDays.push(Object.freeze({ day, periods: ps, pricePerMwh: Object.freeze(realised), fallbackPricePerMwh: null, exogenous: {} }));
+        historyDays.push(Object.freeze({ day, periods: ps, pricePerMwh: Object.freeze(realised), imbalancePricePerMwh: null, exogenous: {} }));
       });
       return {
         market,
@@ -102,7 +102,7 @@ export function scalesExactly(m: RandomMarket, k: number): boolean {
   const values = [
     m.market.priceFloor,
     m.market.priceCap,
-    m.market.fallback?.penaltyPerMwh ?? 0,
+    m.market.imbalance?.penaltyPerMwh ?? 0,
     m.battery.degradationCostPerMwh,
     ...m.history.days.flatMap((d) => d.pricePerMwh),
     ...[...m.forecast.days.values()].flatMap((q) => q.prices.flat()),
@@ -111,8 +111,8 @@ export function scalesExactly(m: RandomMarket, k: number): boolean {
 }
 
 export function scalePrices(m: RandomMarket, k: number): RandomMarket {
-  const penalty = m.market.fallback?.penaltyPerMwh ?? 0;
-  const market: MarketSpec = { ...m.market, priceFloor: k * m.market.priceFloor, priceCap: k * m.market.priceCap, fallback: { kind: 'clearing-plus-penalty', penaltyPerMwh: k * penalty } };
+  const penalty = m.market.imbalance?.penaltyPerMwh ?? 0;
+  const market: MarketSpec = { ...m.market, priceFloor: k * m.market.priceFloor, priceCap: k * m.market.priceCap, imbalance: { kind: 'clearing-plus-penalty', penaltyPerMwh: k * penalty } };
   const forecastDays = new Map([...m.forecast.days].map(([day, q]) => [day, { ...q, prices: q.prices.map((row) => row.map((p) => k * p)) }]));
   return {
     ...m,

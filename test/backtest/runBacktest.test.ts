@@ -3,7 +3,7 @@ import type { BatteryModel, HistoryDay, PriceHistory, QuantileDay } from '../../
 import { backtestMetrics } from '../../src/backtest/backtestMetrics.js';
 import { runBacktest, type BacktestResult } from '../../src/backtest/runBacktest.js';
 import { planPolicyDay } from '../../src/backtest/planPolicyDay.js';
-import { NoFallbackPriceError } from '../../src/settle/fallbackPrices.js';
+import { NoImbalancePriceError } from '../../src/settle/imbalancePrices.js';
 import { battery, history, input, market } from './handWorkedWeek.js';
 import { hourlyPeriods } from './randomMarket.js';
 
@@ -50,10 +50,10 @@ describe('runBacktest on a hand-worked week', () => {
     expect(m?.equivalentFullCycles).toBeCloseTo(4, 9);
     expect(m?.profitPerMwYear).toBeCloseTo((856 * 365.25) / 3 / 4, 6);
     expect(m?.profitPerMwhYear).toBeCloseTo((856 * 365.25) / 3 / 8, 6);
-    // Fallback: C sold 4 MWh at 85 (+340), D bought 4 MWh at 26 (-104).
-    expect(m?.soldFallbackMwh).toBeCloseTo(4, 9);
-    expect(m?.boughtFallbackMwh).toBeCloseTo(4, 9);
-    expect(m?.fallbackCash).toBeCloseTo(236, 6);
+    // Imbalance: C sold 4 MWh at 85 (+340), D bought 4 MWh at 26 (-104).
+    expect(m?.soldImbalanceMwh).toBeCloseTo(4, 9);
+    expect(m?.boughtImbalanceMwh).toBeCloseTo(4, 9);
+    expect(m?.imbalanceCash).toBeCloseTo(236, 6);
   });
 
   it('the month table sums to the totals', () => {
@@ -65,11 +65,11 @@ describe('runBacktest on a hand-worked week', () => {
 });
 
 describe('runBacktest inputs', () => {
-  it('uses the market rule when the history has no fallback column, and fails without either', () => {
-    const bare: PriceHistory = { ...history, days: history.days.map((d) => ({ ...d, fallbackPricePerMwh: null })) };
-    expect(() => runBacktest({ ...input, history: bare })).toThrow(NoFallbackPriceError);
-    const ruled = runBacktest({ ...input, history: bare, market: { ...market, fallback: { kind: 'clearing-plus-penalty', penaltyPerMwh: 5 } } }, { policies: ['quantile'] });
-    expect(ruled.fallbackSource).toEqual({ kind: 'clearing-plus-penalty', penaltyPerMwh: 5 });
+  it('uses the market rule when the history has no imbalance column, and fails without either', () => {
+    const bare: PriceHistory = { ...history, days: history.days.map((d) => ({ ...d, imbalancePricePerMwh: null })) };
+    expect(() => runBacktest({ ...input, history: bare })).toThrow(NoImbalancePriceError);
+    const ruled = runBacktest({ ...input, history: bare, market: { ...market, imbalance: { kind: 'clearing-plus-penalty', penaltyPerMwh: 5 } } }, { policies: ['quantile'] });
+    expect(ruled.imbalanceSource).toEqual({ kind: 'clearing-plus-penalty', penaltyPerMwh: 5 });
     // Day C: the sell closes at clearing - 5 = 85: the same 260 as with the history's 85.
     expect(profits(ruled, 'quantile')[1]).toBeCloseTo(260, 6);
   });
@@ -83,15 +83,15 @@ describe('runBacktest inputs', () => {
 
 describe('planPolicyDay', () => {
   // Two hours, median -100 then 50 (spread 2), efficiency 0.9 both ways, window [0, 0.45] MWh: at -100
-  // the relaxation would charge and discharge at once, so the exact solver must branch (one node is not enough).
+  // the relaxation would charge and discharge at once. The LP path with a budget of no nodes proves no optimum.
   const day = '2026-05-04';
   const forecast: QuantileDay = { day, levels: [0.1, 0.5, 0.9], periods: hourlyPeriods(day, 2), prices: [[-102, -100, -98], [48, 50, 52]] };
-  const realised: HistoryDay = { day, periods: hourlyPeriods(day, 2), pricePerMwh: [-100, 50], fallbackPricePerMwh: null, exogenous: {} };
+  const realised: HistoryDay = { day, periods: hourlyPeriods(day, 2), pricePerMwh: [-100, 50], imbalancePricePerMwh: null, exogenous: {} };
   const small: BatteryModel = { ...battery, energyMwh: 1, chargeMw: 1, dischargeMw: 1, chargeEfficiency: 0.9, dischargeEfficiency: 0.9, socMaxMwh: 0.45 };
   const request = { forecast, realised, market, battery: small, alpha: 0.1, socStartMwh: 0, solveOptions: {} };
 
   it('without a proven optimum in the node budget the policy places no orders and says why', () => {
-    const plan = planPolicyDay({ ...request, policy: 'point', solveOptions: { maxNodes: 1, fast: false } });
+    const plan = planPolicyDay({ ...request, policy: 'point', solveOptions: { maxNodes: 0, solver: 'lp' } });
     expect(plan.status).toBe('node-limit');
     expect(plan.orders).toEqual([null, null]);
   });

@@ -74,4 +74,20 @@ describe('market spec', () => {
     const cap = problemsOf(() => market('{"timeZone": "Europe/Berlin", "periodMinutes": 15, "priceFloor": 100, "priceCap": 100, "currency": "HLV", "gateClosure": "12:00"}'));
     expect(cap[0]).toMatch(/priceCap: priceCap \(100\) must be above priceFloor \(100\)/);
   });
+
+  it('reads the imbalance rule under its old name "fallback" as "imbalance"; both names is an error on the old one\'s line', () => {
+    const head = '{"timeZone": "Europe/Berlin", "periodMinutes": 15, "priceFloor": -500, "priceCap": 4000, "currency": "HLV", "gateClosure": "12:00",\n';
+    const rule = '{"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}';
+    const renamed = market(`${head} "imbalance": ${rule}}`);
+    expect(renamed.imbalance).toEqual({ kind: 'clearing-plus-penalty', penaltyPerMwh: 15 });
+    const old = market(`${head} "fallback": ${rule}}`);
+    expect(old).toEqual(renamed);
+    expect(Object.keys(old)).not.toContain('fallback');
+    expect(problemsOf(() => market(`${head} "imbalance": ${rule},\n "fallback": ${rule}}`))).toEqual([
+      'market.json:3: fallback: both "imbalance" and its old name "fallback" are given; keep only "imbalance", the same rule under its new name',
+    ]);
+    expect(problemsOf(() => market(`${head} "fallback": {"kind": "fixed", "penaltyPerMwh": 15}}`))).toEqual([
+      'market.json:2: fallback.kind: fallback.kind must be "clearing-plus-penalty"; use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
+    ]);
+  });
 });

@@ -51,10 +51,10 @@ describe('quantbid backtest on the demo scenario, February 2026', () => {
     expect(readdirSync(out).sort()).toEqual([...OUTPUTS].sort());
     expect(first.stdout).toMatch(/^backtest 2026-02-01 to 2026-02-28: 28 days covered, 0 skipped/);
     for (const policy of POLICIES) expect(first.stdout).toContain(policy);
-    expect(first.stdout).toMatch(/fallback price: the history's fallback_price column/);
+    expect(first.stdout).toMatch(/imbalance price: the history's imbalance_price column/);
   });
 
-  it('summary.json holds profit and capture ratio per policy, the edge test, skipped days, the fallback source and the months', () => {
+  it('summary.json holds profit and capture ratio per policy, the edge test, skipped days, the imbalance source and the months', () => {
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
     for (const policy of POLICIES) {
       expect(typeof summary.policies[policy].profit).toBe('number');
@@ -63,7 +63,7 @@ describe('quantbid backtest on the demo scenario, February 2026', () => {
     expect(summary.policies['perfect-foresight'].captureRatio).toBe(1);
     expect(summary.edge).toMatchObject({ tested: 'quantile', reference: 'point', n: 28, horizon: 1 });
     expect(summary.skippedDays).toEqual([]);
-    expect(summary.fallbackSource.kind).toBe('history');
+    expect(summary.imbalanceSource.kind).toBe('history');
     expect(summary.months.map((m: { month: string }) => m.month)).toEqual(['2026-02']);
   });
 
@@ -134,19 +134,19 @@ describe('quantbid backtest rejects bad input with exit code 2 and writes nothin
     expect(existsSync(join(dir, 'summary.json'))).toBe(false);
   });
 
-  it('asks for a fallback price when neither the history nor the market spec has one', () => {
+  it('asks for an imbalance price when neither the history nor the market spec has one', () => {
     const market = JSON.parse(readFileSync(join(ROOT, 'scenarios/halvorn/market.json'), 'utf8'));
-    delete market.fallback;
+    delete market.imbalance;
     writeFileSync(join(work, 'market.json'), JSON.stringify(market));
     const lines = ['period_start,price', ...deliveryPeriods('2026-02-01', 'Europe/Berlin', 15).map((p, t) => `${p.start},${50 + (t % 7)}`)];
     writeFileSync(join(work, 'history.csv'), `${lines.join('\n')}\n`);
-    const dir = join(work, 'no-fallback');
+    const dir = join(work, 'no-imbalance');
     const run = quantbid([
       'backtest', '--scenario', SCENARIO, '--market', join(work, 'market.json'), '--history', join(work, 'history.csv'),
       '--from', '2026-02-01', '--to', '2026-02-01', '--out', dir,
     ]);
     expect(run.code).toBe(2);
-    expect(run.stderr).toMatch(/history\.csv: fallback_price: the history has no fallback_price column and the market spec has no fallback rule; add a fallback_price column/);
+    expect(run.stderr).toMatch(/history\.csv: imbalance_price: the history has no imbalance_price column and the market spec has no imbalance rule; add an imbalance_price column/);
     expect(existsSync(dir)).toBe(false);
   });
 

@@ -1,4 +1,4 @@
-import { existsSync, readFileSync, readdirSync } from 'node:fs';
+import { existsSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { checkBuild, csvRows, journalKeys, quantbid, quantbidStoppedAfter, writeScenario, type Scenario } from './sweepScenario.js';
@@ -31,13 +31,13 @@ describe('quantbid sweep on a small seeded market', () => {
     expect(readdirSync(oneThread).sort()).toEqual(['summary.json', 'sweep.csv']);
     const rows = csvRows(readFileSync(join(oneThread, 'sweep.csv'), 'utf8'));
     expect(rows[0]?.slice(0, 5)).toEqual(['alpha', 'policy', 'unaccepted', 'days', 'profit']);
-    expect(rows[0]).toEqual(expect.arrayContaining(['capture_ratio', 'buy_acceptance_rate', 'sell_acceptance_rate', 'fallback_mwh', 'fallback_cash', 'cycles', 'p_value_vs_point']));
+    expect(rows[0]).toEqual(expect.arrayContaining(['capture_ratio', 'buy_acceptance_rate', 'sell_acceptance_rate', 'imbalance_mwh', 'imbalance_cash', 'cycles', 'p_value_vs_point']));
     const expected = ALPHAS.flatMap((a) => POLICIES.flatMap((p) => RULES.map((u) => [a, p, u])));
     expect(rows.slice(1).map((r) => r.slice(0, 3))).toEqual(expected);
     expect(rows).toHaveLength(1 + SETTINGS);
   });
 
-  it('agrees with quantbid backtest for the same setting: profit, capture ratio, acceptance, fallback and the DM/HLN p-value', () => {
+  it('agrees with quantbid backtest for the same setting: profit, capture ratio, acceptance, imbalance and the DM/HLN p-value', () => {
     const out = join(scenario.dir, 'backtest');
     const run = quantbid(['backtest', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--alpha', '0.25', '--policies', 'quantile,point,perfect-foresight', '--out', out]);
     expect(run).toMatchObject({ code: 0, stderr: '' });
@@ -51,7 +51,7 @@ describe('quantbid sweep on a small seeded market', () => {
     expect(cell('profit')).toBeCloseTo(q.profit, 5);
     expect(cell('capture_ratio')).toBeCloseTo(q.captureRatio, 5);
     expect(cell('buy_acceptance_rate')).toBeCloseTo(q.buyAcceptanceRate, 5);
-    expect(cell('fallback_cash')).toBeCloseTo(q.fallbackCash, 5);
+    expect(cell('imbalance_cash')).toBeCloseTo(q.imbalanceCash, 5);
     expect(cell('cycles')).toBeCloseTo(q.equivalentFullCycles, 5);
     expect(cell('perfect_foresight_profit')).toBeCloseTo(backtest.policies['perfect-foresight'].profit, 5);
     expect(cell('point_profit')).toBeCloseTo(backtest.policies.point.profit, 5);
@@ -114,6 +114,31 @@ describe('quantbid sweep on a small seeded market', () => {
     expect(existsSync(join(out, 'sweep.csv'))).toBe(false);
     const resumed = quantbid(sweepArgs(out, ['--threads', '2']));
     expect(resumed.stdout).toContain(`${SETTINGS} settings (${kept.length} resumed from the journal)`);
+  });
+
+  it('reads the old names of the imbalance price (fallback_price, "fallback"): each note once for all threads, the same sweep.csv', () => {
+    const market = JSON.parse(readFileSync(join(scenario.dir, 'market.json'), 'utf8'));
+    const { imbalance, ...rest } = market;
+    writeFileSync(join(scenario.dir, 'market-old.json'), `${JSON.stringify({ ...rest, fallback: imbalance }, null, 2)}\n`);
+    const [header, ...rows] = readFileSync(join(scenario.dir, 'history.csv'), 'utf8').trimEnd().split('\n');
+    const withColumn = (name: string): string => `${[`${header},${name}`, ...rows.map((row) => `${row},${(Number(row.split(',')[1]) + 7).toFixed(2)}`)].join('\n')}\n`;
+    writeFileSync(join(scenario.dir, 'history-old.csv'), withColumn('fallback_price'));
+    writeFileSync(join(scenario.dir, 'history-new.csv'), withColumn('imbalance_price'));
+    const run = (name: string, marketFile: string) => {
+      const out = join(scenario.dir, `names-${name}`);
+      return { out, run: quantbid(sweepArgs(out, ['--threads', '2', '--market', join(scenario.dir, marketFile), '--history', join(scenario.dir, `history-${name}.csv`)])) };
+    };
+    const now = run('new', 'market.json');
+    const then = run('old', 'market-old.json');
+    expect(now.run).toMatchObject({ code: 0, stderr: '' });
+    expect(then.run.code).toBe(0);
+    expect(then.run.stderr).toBe(
+      `note: ${join(scenario.dir, 'market-old.json')}:8: the field "fallback" is read as "imbalance"; rename it to "imbalance"\n` +
+        `note: ${join(scenario.dir, 'history-old.csv')}:1: the column fallback_price is read as imbalance_price; rename the column to imbalance_price\n`,
+    );
+    expect(readFileSync(join(then.out, 'sweep.csv'), 'utf8')).toBe(readFileSync(join(now.out, 'sweep.csv'), 'utf8'));
+    // The history's column, not the market's rule, prices unaccepted orders: the outputs differ from the run without it.
+    expect(readFileSync(join(now.out, 'sweep.csv'), 'utf8')).not.toBe(readFileSync(join(oneThread, 'sweep.csv'), 'utf8'));
   });
 
   it('--help shows examples', () => {

@@ -60,7 +60,7 @@ export function writeScenario(name: string, options: ScenarioOptions): Scenario 
       history.push(`${start},${(median + surprise + (options.priceShift ?? 0)).toFixed(2)}`);
     }
   }
-  const market = { timeZone: 'UTC', periodMinutes: 60, priceFloor: -500, priceCap: 3000, currency: 'TST', gateClosure: '12:00', fallback: { kind: 'clearing-plus-penalty', penaltyPerMwh: 10 } };
+  const market = { timeZone: 'UTC', periodMinutes: 60, priceFloor: -500, priceCap: 3000, currency: 'TST', gateClosure: '12:00', imbalance: { kind: 'clearing-plus-penalty', penaltyPerMwh: 10 } };
   const battery = {
     energyMwh: 10, chargeMw: 5, dischargeMw: 5, roundTripEfficiency: 0.88, socMinFraction: 0.05, socMaxFraction: 0.95, socInitialFraction: 0.5, maxCyclesPerDay: 2, degradationCostPerMwh: 2,
     ...options.battery,

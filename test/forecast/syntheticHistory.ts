@@ -49,7 +49,7 @@ export function syntheticHistory(options: Partial<SyntheticOptions> = {}): Price
       day,
       periods,
       pricePerMwh: slots.map((s) => price[s] as number),
-      fallbackPricePerMwh: null,
+      imbalancePricePerMwh: null,
       exogenous: { load_mw: slots.map((s) => load[s] as number) },
     });
   }

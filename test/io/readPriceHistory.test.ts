@@ -10,9 +10,9 @@ import { readMarketSpec } from '../../src/io/readSpecs.js';
 import { deliveryPeriods } from '../../src/market/calendar.js';
 
 const market: MarketSpec = Object.freeze({ timeZone: 'Europe/Berlin', periodMinutes: 60, priceFloor: -500, priceCap: 4000, currency: 'HLV', gateClosure: '12:00' });
-const HEADER = 'period_start,price,fallback_price,load_forecast_mw';
+const HEADER = 'period_start,price,imbalance_price,load_forecast_mw';
 
-/** Lines of one day: price 10 + t, fallback 20 + t, load 1000 + t. */
+/** Lines of one day: price 10 + t, imbalance 20 + t, load 1000 + t. */
 function dayLines(day: string): string[] {
   return deliveryPeriods(day, market.timeZone, 60).map((p, t) => `${p.start},${10 + t},${20 + t},${1000 + t}`);
 }
@@ -40,14 +40,14 @@ function withRow(row: number, replace: (cells: string[]) => string[]): string {
 }
 
 describe('parsePriceHistory', () => {
-  it('reads complete days in ascending order, with the fallback and exogenous columns', () => {
+  it('reads complete days in ascending order, with the imbalance and exogenous columns', () => {
     const history = parsePriceHistory(text([...dayLines('2027-06-16'), ...dayLines('2027-06-15')]), 'h.csv', market);
     expect(history.days.map((d) => d.day)).toEqual(['2027-06-15', '2027-06-16']);
     expect(history.exogenousNames).toEqual(['load_forecast_mw']);
     const day = history.days[0];
     expect(day?.periods).toEqual(deliveryPeriods('2027-06-15', market.timeZone, 60));
     expect(day?.pricePerMwh[5]).toBe(15);
-    expect(day?.fallbackPricePerMwh?.[5]).toBe(25);
+    expect(day?.imbalancePricePerMwh?.[5]).toBe(25);
     expect(day?.exogenous.load_forecast_mw?.[5]).toBe(1005);
     expect(history.incompleteDays).toEqual([]);
   });
@@ -57,11 +57,29 @@ describe('parsePriceHistory', () => {
     expect(parsePriceHistory(`\ufeff${plain.replaceAll('\n', '\r\n')}`, 'h.csv', market)).toEqual(parsePriceHistory(plain, 'h.csv', market));
   });
 
-  it('needs no fallback column: fallbackPricePerMwh is then null', () => {
+  it('needs no imbalance column: imbalancePricePerMwh is then null', () => {
     const lines = deliveryPeriods('2027-06-15', market.timeZone, 60).map((p) => `${p.start},42.5`);
     const history = parsePriceHistory(text(lines, 'period_start,price'), 'h.csv', market);
-    expect(history.days[0]?.fallbackPricePerMwh).toBeNull();
+    expect(history.days[0]?.imbalancePricePerMwh).toBeNull();
     expect(history.days[0]?.pricePerMwh[0]).toBe(42.5);
+  });
+
+  it('reads the old column name fallback_price as imbalance_price, with one note asking to rename it', () => {
+    const lines = [...dayLines('2027-06-15'), ...dayLines('2027-06-16')];
+    const notes: string[] = [];
+    const old = parsePriceHistory(text(lines, 'period_start,price,fallback_price,load_forecast_mw'), 'h.csv', market, (note) => notes.push(note));
+    expect(old).toEqual(parsePriceHistory(text(lines), 'h.csv', market));
+    expect(notes).toEqual(['note: h.csv:1: the column fallback_price is read as imbalance_price; rename the column to imbalance_price\n']);
+    const none: string[] = [];
+    parsePriceHistory(text(lines), 'h.csv', market, (note) => none.push(note));
+    expect(none).toEqual([]);
+  });
+
+  it('refuses a history with both imbalance_price and its old name fallback_price', () => {
+    const lines = dayLines('2027-06-15').map((line) => `${line},7`);
+    expect(problemsOf(text(lines, `${HEADER},fallback_price`))).toEqual([
+      { file: 'h.csv', line: 1, field: 'fallback_price', message: 'both imbalance_price and its old name fallback_price are given', fix: 'keep one of them, named imbalance_price' },
+    ]);
   });
 
   it('takes the clock-change days from the calendar: 23 and 25 hours, the doubled hour told apart by its offset', () => {
@@ -95,7 +113,7 @@ describe('parsePriceHistory rejects bad input with file, line and field', () => 
   it.each([
     ['an empty price', withRow(0, (c) => [c[0] as string, '', c[2] as string, c[3] as string]), 2, 'price', /empty value/],
     ['NaN', withRow(1, (c) => [c[0] as string, 'NaN', c[2] as string, c[3] as string]), 3, 'price', /NaN is not a finite number/],
-    ['Infinity', withRow(2, (c) => [c[0] as string, c[1] as string, 'Infinity', c[3] as string]), 4, 'fallback_price', /Infinity is not a finite number/],
+    ['Infinity', withRow(2, (c) => [c[0] as string, c[1] as string, 'Infinity', c[3] as string]), 4, 'imbalance_price', /Infinity is not a finite number/],
     ['a price above the cap', withRow(4, (c) => [c[0] as string, '4000.01', c[2] as string, c[3] as string]), 6, 'price', /4000.01 is outside the market's \[-500, 4000\]/],
     ['a price below the floor', withRow(5, (c) => [c[0] as string, '-600', c[2] as string, c[3] as string]), 7, 'price', /-600 is outside/],
     ['an empty exogenous cell', withRow(6, (c) => [c[0] as string, c[1] as string, c[2] as string, '']), 8, 'load_forecast_mw', /empty value/],
@@ -154,6 +172,6 @@ describe('the demo history', () => {
     expect([lengths.get('2025-03-30'), lengths.get('2025-10-26'), lengths.get('2026-06-01')]).toEqual([92, 100, 96]);
     // The first row of the file, as printed in scenarios/halvorn/README.md.
     expect(history.days[0]?.pricePerMwh[0]).toBe(107.63);
-    expect(history.days[0]?.fallbackPricePerMwh?.[0]).toBe(109.56);
+    expect(history.days[0]?.imbalancePricePerMwh?.[0]).toBe(109.56);
   });
 });

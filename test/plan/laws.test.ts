@@ -1,12 +1,13 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { BatteryModel, DayProblem, MarketSpec, QuantileDay } from '../../src/types.js';
-import { solveDay } from '../../src/plan/solveDay.js';
+import { type DaySolverChoice, solveDay } from '../../src/plan/solveDay.js';
 import { planDay } from '../../src/plan/planDay.js';
 import { deliveryPeriods } from '../../src/market/calendar.js';
 
-// Laws of the planning LP (docs/design.md section 4) checked on seeded random days (fast-check, fixed seeds).
-// javascript-lp-solver is the engine here, so days are short (<= 12 periods) to keep the suite quick.
+// Laws of the planning LP (docs/design.md section 4) checked on seeded random days (fast-check, fixed seeds),
+// through each of solveDay's two paths: the warehouse solver and the LP path (javascript-lp-solver
+// with our branch and bound), so days are short (<= 12 periods) to keep the suite quick.
 
 const batteryArb = fc.record({
   energyMwh: fc.double({ min: 1, max: 20, noNaN: true }),
@@ -51,8 +52,8 @@ function problem(battery: BatteryModel, prices: readonly number[], spread = 0): 
   };
 }
 
-function objective(p: DayProblem): number {
-  const outcome = solveDay(p);
+function objective(p: DayProblem, solver: DaySolverChoice): number {
+  const outcome = solveDay(p, { solver });
   if (outcome.status !== 'optimal') throw new Error(`expected optimal, got ${outcome.status}`);
   return outcome.objective;
 }
@@ -60,13 +61,13 @@ function objective(p: DayProblem): number {
 const prices = fc.array(fc.double({ min: -200, max: 400, noNaN: true }), { minLength: 1, maxLength: 12 });
 const settings = { numRuns: 60, seed: 20270328 };
 
-describe('planning laws', () => {
+describe.each(['warehouse', 'lp'] as const)('planning laws through the %s path', (solver) => {
   it('scaling all prices and the degradation cost by k > 0 scales the objective by k', () => {
     fc.assert(
       fc.property(batteryArb, prices, fc.double({ min: 0.1, max: 10, noNaN: true }), (b, p, k) => {
         const battery = model(b);
-        const base = objective(problem(battery, p, 3));
-        const scaled = objective(problem({ ...battery, degradationCostPerMwh: battery.degradationCostPerMwh * k }, p.map((x) => x * k), 3 * k));
+        const base = objective(problem(battery, p, 3), solver);
+        const scaled = objective(problem({ ...battery, degradationCostPerMwh: battery.degradationCostPerMwh * k }, p.map((x) => x * k), 3 * k), solver);
         expect(Math.abs(scaled - k * base)).toBeLessThanOrEqual(1e-7 * Math.max(1, Math.abs(k * base)));
       }),
       settings,
@@ -79,8 +80,8 @@ describe('planning laws', () => {
     fc.assert(
       fc.property(batteryArb, fc.array(fc.double({ min: 50, max: 300, noNaN: true }), { minLength: 1, maxLength: 12 }), fc.double({ min: -50, max: 50, noNaN: true }), (b, p, k) => {
         const battery = { ...model({ ...b, eta: 1, deg: 0 }) };
-        const base = objective(problem(battery, p));
-        expect(Math.abs(objective(problem(battery, p.map((x) => x + k))) - base)).toBeLessThanOrEqual(1e-7 * Math.max(1, Math.abs(base)));
+        const base = objective(problem(battery, p), solver);
+        expect(Math.abs(objective(problem(battery, p.map((x) => x + k)), solver) - base)).toBeLessThanOrEqual(1e-7 * Math.max(1, Math.abs(base)));
       }),
       settings,
     );
@@ -90,16 +91,19 @@ describe('planning laws', () => {
     fc.assert(
       fc.property(batteryArb, prices, fc.double({ min: 1, max: 3, noNaN: true }), (b, p, grow) => {
         const battery = model(b);
-        const base = objective(problem(battery, p, 2));
+        const base = objective(problem(battery, p, 2), solver);
         const tol = 1e-7 * Math.max(1, Math.abs(base));
-        expect(objective(problem({ ...battery, chargeMw: battery.chargeMw * grow }, p, 2))).toBeGreaterThanOrEqual(base - tol);
-        expect(objective(problem({ ...battery, dischargeMw: battery.dischargeMw * grow }, p, 2))).toBeGreaterThanOrEqual(base - tol);
-        expect(objective(problem({ ...battery, socMaxMwh: battery.socMaxMwh * grow, energyMwh: battery.energyMwh * grow }, p, 2))).toBeGreaterThanOrEqual(base - tol);
+        expect(objective(problem({ ...battery, chargeMw: battery.chargeMw * grow }, p, 2), solver)).toBeGreaterThanOrEqual(base - tol);
+        expect(objective(problem({ ...battery, dischargeMw: battery.dischargeMw * grow }, p, 2), solver)).toBeGreaterThanOrEqual(base - tol);
+        expect(objective(problem({ ...battery, socMaxMwh: battery.socMaxMwh * grow, energyMwh: battery.energyMwh * grow }, p, 2), solver)).toBeGreaterThanOrEqual(base - tol);
       }),
       settings,
     );
   });
 
+});
+
+describe('planning laws', () => {
   it('the quantile policy never plans a negative value when the battery may idle (end floor = start)', () => {
     const market: MarketSpec = { timeZone: 'Europe/Berlin', periodMinutes: 60, priceFloor: -500, priceCap: 4000, currency: 'HLV', gateClosure: '12:00' };
     const periods = deliveryPeriods('2027-06-15', 'Europe/Berlin', 60);

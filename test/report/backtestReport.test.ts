@@ -76,12 +76,12 @@ describe('quantbid backtest --report', () => {
     }
   });
 
-  it('fallback energy bars are the energies bought and sold at the fallback price in days.csv', () => {
-    const titles = markTitles(chartSource(html, 'backtest-fallback-energy'));
+  it('imbalance energy bars are the energies bought and sold at the imbalance price in days.csv', () => {
+    const titles = markTitles(chartSource(html, 'backtest-imbalance-energy'));
     const value = (name: string) => shownNumber(/: (\S+) MWh$/.exec(titles.find((t) => t.startsWith(name)) ?? '')?.[1] ?? 'NaN');
-    expect(value('bought at the fallback price, quantile:')).toBeCloseTo(sum('quantile', 'bought_fallback_mwh'), 2);
-    expect(value('sold at the fallback price, point:')).toBeCloseTo(sum('point', 'sold_fallback_mwh'), 2);
-    // Price-taking orders are always accepted, so it has no fallback bar at all (0 draws none).
+    expect(value('bought at the imbalance price, quantile:')).toBeCloseTo(sum('quantile', 'bought_imbalance_mwh'), 2);
+    expect(value('sold at the imbalance price, point:')).toBeCloseTo(sum('point', 'sold_imbalance_mwh'), 2);
+    // Price-taking orders are always accepted, so it has no imbalance bar at all (0 draws none).
     expect(titles.some((t) => t.includes('price-taking'))).toBe(false);
   });
 

@@ -12,7 +12,7 @@ function inventedSweep(currency = 'HLV'): { results: SettingResult[]; summary: S
     for (const policy of policies) {
       const profit = policy === 'quantile' ? 1000 - 5000 * (alpha - 0.2) ** 2 : 900 - 1000 * alpha;
       const setting = { alpha, policy, unaccepted: 'follow-plan' };
-      results.push({ setting, row: { profit, capture_ratio: profit / 2000, perfect_foresight_profit: 2000, point_profit: 700, edge_vs_point: 1, p_value_vs_point: 0.2, buy_acceptance_rate: 1 - alpha, sell_acceptance_rate: 1 - alpha / 2, fallback_mwh: 10 } });
+      results.push({ setting, row: { profit, capture_ratio: profit / 2000, perfect_foresight_profit: 2000, point_profit: 700, edge_vs_point: 1, p_value_vs_point: 0.2, buy_acceptance_rate: 1 - alpha, sell_acceptance_rate: 1 - alpha / 2, imbalance_mwh: 10 } });
     }
   }
   const best = results.reduce((a, b) => ((b.row.profit as number) > (a.row.profit as number) ? b : a));

@@ -15,7 +15,7 @@ const orderArb = fc.option(
   fc.record({ side: fc.constantFrom('buy' as const, 'sell' as const), quantityMw: fc.double({ min: 0, max: 12, noNaN: true }), limitPrice: price }),
   { nil: null, freq: 3 },
 );
-const periodArb = fc.record({ order: orderArb, clearing: price, fallbackBuy: price, fallbackSell: price });
+const periodArb = fc.record({ order: orderArb, clearing: price, imbalanceBuy: price, imbalanceSell: price });
 
 const dayArb = fc.record({
   battery: batteryModelArb,
@@ -33,7 +33,7 @@ function input(draw: DayDraw, overrides: Partial<SettleDayInput> = {}): SettleDa
     socStartMwh: draw.battery.socInitialMwh,
     orders: Object.freeze(draw.periods.map((p) => (p.order === null ? null : Object.freeze(p.order as PeriodOrder)))),
     clearingPricePerMwh: Object.freeze(draw.periods.map((p) => p.clearing)),
-    fallback: Object.freeze({ buyPerMwh: Object.freeze(draw.periods.map((p) => p.fallbackBuy)), sellPerMwh: Object.freeze(draw.periods.map((p) => p.fallbackSell)) }),
+    imbalance: Object.freeze({ buyPerMwh: Object.freeze(draw.periods.map((p) => p.imbalanceBuy)), sellPerMwh: Object.freeze(draw.periods.map((p) => p.imbalanceSell)) }),
     unaccepted: draw.unaccepted,
     ...overrides,
   });
@@ -42,11 +42,11 @@ function input(draw: DayDraw, overrides: Partial<SettleDayInput> = {}): SettleDa
 const tol = (x: number) => 1e-9 * Math.max(1, Math.abs(x));
 
 describe('settleDay laws', () => {
-  it('energy balance: charged - discharged = bought - sold (auction + fallback) in every period', () => {
+  it('energy balance: charged - discharged = bought - sold (auction + imbalance) in every period', () => {
     fc.assert(
       fc.property(dayArb, (draw) => {
         for (const p of settleDay(input(draw)).periods) {
-          const net = p.boughtAuctionMwh + p.boughtFallbackMwh - p.soldAuctionMwh - p.soldFallbackMwh;
+          const net = p.boughtAuctionMwh + p.boughtImbalanceMwh - p.soldAuctionMwh - p.soldImbalanceMwh;
           expect(Math.abs(p.chargedMwh - p.dischargedMwh - net)).toBeLessThanOrEqual(1e-9);
         }
       }),
@@ -73,18 +73,18 @@ describe('settleDay laws', () => {
     );
   });
 
-  it('cash: auction at the clearing price (never the limit), fallback at the fallback prices, wear on discharged energy', () => {
+  it('cash: auction at the clearing price (never the limit), imbalance at the imbalance prices, wear on discharged energy', () => {
     fc.assert(
       fc.property(dayArb, (draw) => {
         const settled = settleDay(input(draw));
         settled.periods.forEach((p, t) => {
           const d = draw.periods[t] as (typeof draw.periods)[number];
           const auction = d.clearing * (p.soldAuctionMwh - p.boughtAuctionMwh);
-          const fallback = d.fallbackSell * p.soldFallbackMwh - d.fallbackBuy * p.boughtFallbackMwh;
+          const imbalance = d.imbalanceSell * p.soldImbalanceMwh - d.imbalanceBuy * p.boughtImbalanceMwh;
           const wear = draw.battery.degradationCostPerMwh * p.dischargedMwh;
           expect(Math.abs(p.auctionCash - auction)).toBeLessThanOrEqual(tol(auction));
-          expect(Math.abs(p.fallbackCash - fallback)).toBeLessThanOrEqual(tol(fallback));
-          expect(Math.abs(p.profit - (auction + fallback - wear))).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(auction) + Math.abs(fallback) + wear));
+          expect(Math.abs(p.imbalanceCash - imbalance)).toBeLessThanOrEqual(tol(imbalance));
+          expect(Math.abs(p.profit - (auction + imbalance - wear))).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(auction) + Math.abs(imbalance) + wear));
         });
         const sum = settled.periods.reduce((acc, p) => acc + p.profit, 0);
         expect(Math.abs(settled.totals.profit - sum)).toBeLessThanOrEqual(1e-9 * Math.max(1, Math.abs(sum)));
@@ -109,12 +109,12 @@ describe('settleDay laws', () => {
     );
   });
 
-  it('follow-accepted: an unaccepted order neither moves the battery nor trades at fallback', () => {
+  it('follow-accepted: an unaccepted order neither moves the battery nor trades at the imbalance price', () => {
     fc.assert(
       fc.property(dayArb, (draw) => {
         settleDay(input(draw, { unaccepted: 'follow-accepted' })).periods.forEach((p) => {
           // (=== 0 also holds for -0, which a negative clearing price times zero energy gives)
-          if (p.accepted !== true) expect([p.chargedMwh, p.dischargedMwh, p.boughtFallbackMwh, p.soldFallbackMwh, p.profit].every((x) => x === 0)).toBe(true);
+          if (p.accepted !== true) expect([p.chargedMwh, p.dischargedMwh, p.boughtImbalanceMwh, p.soldImbalanceMwh, p.profit].every((x) => x === 0)).toBe(true);
         });
       }),
       { seed: SEED + 4, numRuns: 300 },
@@ -140,7 +140,7 @@ describe('settleDay conventions', () => {
     socInitialMwh: 0, socFinalMinMwh: undefined, maxDischargeMwhPerDay: undefined, degradationCostPerMwh: 0,
   });
   const base: SettleDayInput = Object.freeze({
-    periodHours: 1, battery, socStartMwh: 0, orders: [null], clearingPricePerMwh: [50], fallback: { buyPerMwh: [60], sellPerMwh: [40] }, unaccepted: 'follow-plan',
+    periodHours: 1, battery, socStartMwh: 0, orders: [null], clearingPricePerMwh: [50], imbalance: { buyPerMwh: [60], sellPerMwh: [40] }, unaccepted: 'follow-plan',
   });
 
   it('a day without orders earns nothing and keeps its state of charge', () => {

@@ -9,7 +9,7 @@ import { settleDay, type PeriodOrder, type UnacceptedRule } from '../../src/sett
 //
 // Battery: 10 MWh, charge 5 MW, discharge 4 MW, eta_c = eta_d = 0.8, window [1, 9] MWh, starts at 4 MWh,
 // wear 2 per MWh discharged. Buying q MW for 1 h stores 0.8 q MWh; selling q MW takes q / 0.8 MWh.
-// Fallback rule: clearing + 10 for energy bought at fallback, clearing - 10 for energy sold at fallback.
+// Imbalance rule: clearing + 10 for energy bought at imbalance, clearing - 10 for energy sold at imbalance.
 
 const battery: BatteryModel = Object.freeze({
   energyMwh: 10,
@@ -51,7 +51,7 @@ const week: readonly HandDay[] = [
   },
   {
     // Day 2, buy 5 @ 30 not accepted (35 > 30), sell 4 @ 65 accepted (70 >= 65).
-    // follow-plan, from 3: the buy is bought at fallback 35 + 10 = 45: -225, 3 -> 7; sell +280 - 8 wear, 7 -> 2.
+    // follow-plan, from 3: the buy is bought at imbalance 35 + 10 = 45: -225, 3 -> 7; sell +280 - 8 wear, 7 -> 2.
     // follow-accepted, from 3: no buy. The store can give (3 - 1) x 0.8 = 1.6 MWh of the 4 sold: wear 2 x 1.6 = 3.2,
     // 3 -> 1; the missing 2.4 MWh are bought back at 70 + 10 = 80: -192. Period: 280 - 192 - 3.2 = 84.8.
     prices: [40, 35, 70, 60],
@@ -64,7 +64,7 @@ const week: readonly HandDay[] = [
   },
   {
     // Day 3, buy 5 @ 20 accepted (10 <= 20), sell 4 @ 55 not accepted (45 < 55).
-    // follow-plan, from 2: -50, 2 -> 6; the sell is sold at fallback 45 - 10 = 35: +140 - 8 wear, 6 -> 1.
+    // follow-plan, from 2: -50, 2 -> 6; the sell is sold at imbalance 45 - 10 = 35: +140 - 8 wear, 6 -> 1.
     // follow-accepted, from 1: -50, 1 -> 5; no sell: 5 MWh carried to day 4.
     prices: [10, 15, 50, 45],
     orders: [o('buy', 5, 20), null, null, o('sell', 4, 55)],
@@ -139,7 +139,7 @@ function settleWeek(unaccepted: UnacceptedRule) {
         socStartMwh: soc,
         orders: Object.freeze([...day.orders]),
         clearingPricePerMwh: Object.freeze([...day.prices]),
-        fallback: Object.freeze({ buyPerMwh: Object.freeze(day.prices.map((p) => p + PENALTY)), sellPerMwh: Object.freeze(day.prices.map((p) => p - PENALTY)) }),
+        imbalance: Object.freeze({ buyPerMwh: Object.freeze(day.prices.map((p) => p + PENALTY)), sellPerMwh: Object.freeze(day.prices.map((p) => p - PENALTY)) }),
         unaccepted,
       }),
     );
@@ -174,9 +174,9 @@ describe('the sell the store cannot cover and the buy the store cannot take (fol
     const p = settled[1]?.periods[2];
     expect(p?.soldAuctionMwh).toBeCloseTo(4, 12);
     expect(p?.dischargedMwh).toBeCloseTo(1.6, 12);
-    expect(p?.boughtFallbackMwh).toBeCloseTo(2.4, 12);
+    expect(p?.boughtImbalanceMwh).toBeCloseTo(2.4, 12);
     expect(p?.auctionCash).toBeCloseTo(280, 9);
-    expect(p?.fallbackCash).toBeCloseTo(-192, 9);
+    expect(p?.imbalanceCash).toBeCloseTo(-192, 9);
     expect(p?.degradationCost).toBeCloseTo(3.2, 9);
   });
 
@@ -184,32 +184,32 @@ describe('the sell the store cannot cover and the buy the store cannot take (fol
     const p = settled[3]?.periods[1];
     expect(p?.boughtAuctionMwh).toBe(5);
     expect(p?.chargedMwh).toBeCloseTo(0, 12);
-    expect(p?.soldFallbackMwh).toBeCloseTo(5, 12);
-    expect(p?.fallbackCash).toBeCloseTo(10, 9);
+    expect(p?.soldImbalanceMwh).toBeCloseTo(5, 12);
+    expect(p?.imbalanceCash).toBeCloseTo(10, 9);
   });
 
   it('day 3: an unaccepted order moves nothing and costs nothing', () => {
     const p = settled[2]?.periods[3];
     expect(p?.accepted).toBe(false);
-    expect([p?.soldAuctionMwh, p?.soldFallbackMwh, p?.dischargedMwh, p?.profit]).toEqual([0, 0, 0, 0]);
+    expect([p?.soldAuctionMwh, p?.soldImbalanceMwh, p?.dischargedMwh, p?.profit]).toEqual([0, 0, 0, 0]);
   });
 });
 
-describe('follow-plan closes unaccepted orders at the fallback price', () => {
+describe('follow-plan closes unaccepted orders at the imbalance price', () => {
   const settled = settleWeek('follow-plan');
 
   it('day 2: the unaccepted buy is bought at 45, the battery still charges', () => {
     const p = settled[1]?.periods[1];
-    expect(p?.boughtFallbackMwh).toBe(5);
+    expect(p?.boughtImbalanceMwh).toBe(5);
     expect(p?.boughtAuctionMwh).toBe(0);
     expect(p?.chargedMwh).toBe(5);
-    expect(p?.fallbackCash).toBeCloseTo(-225, 9);
+    expect(p?.imbalanceCash).toBeCloseTo(-225, 9);
   });
 
   it('day 3: the unaccepted sell is sold at 35, the battery still discharges', () => {
     const p = settled[2]?.periods[3];
-    expect(p?.soldFallbackMwh).toBe(4);
+    expect(p?.soldImbalanceMwh).toBe(4);
     expect(p?.dischargedMwh).toBe(4);
-    expect(p?.fallbackCash).toBeCloseTo(140, 9);
+    expect(p?.imbalanceCash).toBeCloseTo(140, 9);
   });
 });

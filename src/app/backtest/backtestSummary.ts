@@ -1,7 +1,7 @@
 import type { BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import type { BacktestResult } from '../../backtest/runBacktest.js';
 import { formatNumber } from '../../io/formatNumber.js';
-import { fallbackDescription } from '../../report/fallbackDescription.js';
+import { imbalanceDescription } from '../../report/imbalanceDescription.js';
 import type { BatteryModel, MarketSpec } from '../../types.js';
 
 export interface BacktestSummaryContext {
@@ -13,7 +13,7 @@ export interface BacktestSummaryContext {
 
 /**
  * The content of `summary.json` and of `--json`: `policies.<name>.profit` and `.captureRatio` (and the
- * other metrics), `edge`, `skippedDays`, `fallbackSource`, `months`. Key order is fixed by construction.
+ * other metrics), `edge`, `skippedDays`, `imbalanceSource`, `months`. Key order is fixed by construction.
  */
 export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics, context: BacktestSummaryContext) {
   const { market, battery } = context;
@@ -33,7 +33,7 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
       usableMwh: battery.socMaxMwh - battery.socMinMwh,
       socInitialMwh: battery.socInitialMwh,
     },
-    fallbackSource: { ...result.fallbackSource, description: fallbackDescription(result.fallbackSource, market.currency) },
+    imbalanceSource: { ...result.imbalanceSource, description: imbalanceDescription(result.imbalanceSource, market.currency) },
     conventions: {
       cash: '+ received, - paid',
       profitPerMwYear: 'profit / (days / 365.25) / dischargeMw',
@@ -64,14 +64,14 @@ export function backtestSummaryText(result: BacktestResult, metrics: BacktestMet
   const money = (x: number | null) => (x === null ? '-' : formatNumber(x, 0));
   const share = (x: number | null) => (x === null ? '-' : `${formatNumber(100 * x, 1)}%`);
   const rows = Object.entries(metrics.policies).map(([name, m]) => [
-    name, money(m.profit), money(m.meanDailyProfit), share(m.captureRatio), share(m.buyAcceptanceRate), share(m.sellAcceptanceRate), formatNumber(m.equivalentFullCycles, 1), money(m.fallbackCash),
+    name, money(m.profit), money(m.meanDailyProfit), share(m.captureRatio), share(m.buyAcceptanceRate), share(m.sellAcceptanceRate), formatNumber(m.equivalentFullCycles, 1), money(m.imbalanceCash),
   ]);
-  const header = ['policy', `profit ${market.currency}`, 'per day', 'capture', 'buys acc.', 'sells acc.', 'cycles', 'fallback cash'];
+  const header = ['policy', `profit ${market.currency}`, 'per day', 'capture', 'buys acc.', 'sells acc.', 'cycles', 'imbalance cash'];
   const widths = header.map((h, k) => Math.max(h.length, ...rows.map((r) => (r[k] as string).length)));
   const line = (cells: readonly string[]) => `  ${cells.map((c, k) => (k === 0 ? c.padEnd(widths[k] as number) : c.padStart(widths[k] as number))).join('  ')}`;
   const lines = [
     `backtest ${result.from} to ${result.to}: ${result.days.length} days covered, ${result.skippedDays.length} skipped; alpha ${result.alpha}, unaccepted orders: ${result.unaccepted}`,
-    `  fallback price: ${fallbackDescription(result.fallbackSource, market.currency)}`,
+    `  imbalance price: ${imbalanceDescription(result.imbalanceSource, market.currency)}`,
     line(header),
     ...rows.map(line),
     `  ${edgeLine(metrics)}`,

@@ -71,7 +71,7 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
 function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: BacktestInputPaths, outputs: readonly string[], lock: OutputLock, hooks: RunHooks): Done<BacktestSummary> {
   // With --model the forecasts are made here, day by day from the history (through the forecast cache).
   const maker = forecastMaker(s.model, paths.history, s, hooks);
-  const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker);
+  const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
   const model = maker?.made();
   const { market, history, forecast } = data;
   const battery = batteryModel(data.batterySpec);

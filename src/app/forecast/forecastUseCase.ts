@@ -79,8 +79,9 @@ function forecastRun(
 ): Done<ForecastSummary> {
   const { out, outputs, target } = run;
   const problems: InputProblem[] = [];
-  const market = gatherProblems(problems, () => readMarketSpec(paths.market));
-  const history = market === undefined ? undefined : gatherProblems(problems, () => readPriceHistory(paths.history, market));
+  const note = (text: string): void => hooks.note(text);
+  const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
+  const history = market === undefined ? undefined : gatherProblems(problems, () => readPriceHistory(paths.history, market, note));
   if (market === undefined || history === undefined) throw new InputError(problems);
 
   const started = performance.now();

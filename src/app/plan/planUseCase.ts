@@ -74,7 +74,7 @@ function planDayRun(
   hooks: RunHooks,
 ): Done<PlanSummary> {
   const { paths, day, outputs } = run;
-  const { market, battery, forecastFile } = readPlanInputs(paths);
+  const { market, battery, forecastFile } = readPlanInputs(paths, (text) => hooks.note(text));
   const forecast = forecastDay(forecastFile, day, market.timeZone);
   const socStartMwh = s.socStartMwh ?? battery.socInitialMwh;
   if (s.socStartMwh !== undefined && (socStartMwh < battery.socMinMwh || socStartMwh > battery.socMaxMwh)) {
@@ -109,11 +109,12 @@ function planDayRun(
 
 /**
  * The market spec, the battery and the forecast (which needs the market). Every file is read even when
- * one before it has problems, and all problems are thrown together.
+ * one before it has problems, and all problems are thrown together. `note` hears of an old field name
+ * read under its new one.
  */
-function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>): { market: MarketSpec; battery: BatteryModel; forecastFile: QuantileForecastFile } {
+function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>, note: (text: string) => void): { market: MarketSpec; battery: BatteryModel; forecastFile: QuantileForecastFile } {
   const problems: InputProblem[] = [];
-  const market = gatherProblems(problems, () => readMarketSpec(paths.market));
+  const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
   const spec = gatherProblems(problems, () => readBatterySpec(paths.battery));
   const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecast(paths.forecast, market));
   if (market === undefined || spec === undefined || forecastFile === undefined) throw new InputError(problems);

@@ -58,9 +58,10 @@ export function scoreUseCase(settings: ScoreSettings, hooks: RunHooks = QUIET_HO
 /** The scores of the checked settings, from reading the inputs to score.json, under the output folder's lock. */
 function scoreRun(s: z.output<typeof scoreSettingsSchema>, paths: Record<(typeof INPUTS)[number], string>, outputs: readonly string[], lock: OutputLock, hooks: RunHooks): Done<ScoreSummary> {
   const problems: InputProblem[] = [];
-  const market = gatherProblems(problems, () => readMarketSpec(paths.market));
+  const note = (text: string): void => hooks.note(text);
+  const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
   const read = <T>(reader: (m: NonNullable<typeof market>) => T): T | undefined => (market === undefined ? undefined : gatherProblems(problems, () => reader(market)));
-  const history = read((m) => readPriceHistory(paths.history, m));
+  const history = read((m) => readPriceHistory(paths.history, m, note));
   const forecast = read((m) => readQuantileForecast(paths.forecast, m));
   const against = s.against === undefined ? null : read((m) => readQuantileForecast(s.against as string, m));
   if (market === undefined || history === undefined || forecast === undefined || against === undefined) throw new InputError(problems);

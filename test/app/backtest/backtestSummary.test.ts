@@ -18,9 +18,9 @@ describe('backtest summary', () => {
     );
   });
 
-  it('names the fallback source and lists the skipped days', () => {
+  it('names the imbalance source and lists the skipped days', () => {
     const summary = backtestSummary(result, metrics, { market, battery, inputs: { history: 'h.csv' } });
-    expect(summary.fallbackSource).toEqual({ kind: 'history', description: "the history's fallback_price column" });
+    expect(summary.imbalanceSource).toEqual({ kind: 'history', description: "the history's imbalance_price column" });
     expect(summary.skippedDays.map((d) => d.day)).toEqual(['2026-05-06', '2026-05-08']);
     // Worked in handWorkedWeek.ts: the quantile policy's profit over the three covered days.
     expect(summary.policies.quantile?.profit).toBeCloseTo(856, 6);

@@ -1,17 +1,17 @@
 import type { DayProblem } from '../../types.js';
 
 /**
- * Whether the fast solver covers a day problem: null when it does, else the reason (the caller
+ * Whether the warehouse solver covers a day problem: null when it does, else the reason (the caller
  * then uses the general LP path). Covered: at least one period, equal-length finite price series,
  * dt > 0, efficiencies > 0, power limits >= 0, finite state-of-charge values, finite wear cost and
  * terminal value, no cycle cap or a finite cap >= 0. An empty window or an unreachable floor is
  * covered: the solver answers `infeasible` with the reason.
  */
-export function fastSolverGap(problem: DayProblem): string | null {
+export function uncoveredReason(problem: DayProblem): string | null {
   return scalarGap(problem) ?? priceGap(problem);
 }
 
-/** fastSolverGap without the per-period price check (solveDayFast checks the prices as it converts them). */
+/** uncoveredReason without the per-period price check (solveWarehouseDay checks the prices as it converts them). */
 export function scalarGap(problem: DayProblem): string | null {
   const b = problem.battery;
   const periods = problem.buyPricePerMwh.length;
@@ -43,7 +43,7 @@ export function priceGap(problem: DayProblem): string | null {
   return null;
 }
 
-/** True when solveDayFast covers the problem (see fastSolverGap). */
+/** True when solveWarehouseDay covers the problem (see uncoveredReason). */
 export function coversDay(problem: DayProblem): boolean {
-  return fastSolverGap(problem) === null;
+  return uncoveredReason(problem) === null;
 }

@@ -1,7 +1,8 @@
 import type { DayProblem } from '../../types.js';
+import type { Window } from './pwl.js';
 
 /**
- * The day problem (docs/design.md section 4) in stored-energy units: the warehouse problem (Cahn 1948;
+ * The day problem (docs/day-solver.md) in stored-energy units: the warehouse problem (Cahn 1948;
  * Bellman 1956, "On the theory of dynamic programming - a warehousing problem", Management Sci.
  * 2(3), doi:10.1287/mnsc.2.3.272).
  *
@@ -18,7 +19,7 @@ import type { DayProblem } from '../../types.js';
  * both >= 0 unless q_t > p_t, i.e. (sell_t - deg) eta_c eta_d > buy_t. So outside such
  * "arbitrage periods" any solution can be netted without loss and complementarity never binds;
  * inside them (only possible at negative prices) the relaxation gains by burning energy in losses
- * and complementarity needs an exact treatment (arbitrageBranching.ts, valueDp.ts).
+ * and complementarity needs an exact treatment (arbitrageBranching.ts, valueProgram.ts).
  *
  * Per period, as a function of the net move w = x - y in [-Y, X], the best value under
  * complementarity is k_t(w) = -p_t w for w >= 0 and -q_t w for w <= 0: concave when p_t >= q_t,
@@ -50,6 +51,8 @@ export interface StoredDay {
   readonly socStartMwh: number;
   readonly socMinMwh: number;
   readonly socMaxMwh: number;
+  /** [socMin, socMax] with the tolerance within which an edge counts as reached despite rounding [MWh]. */
+  readonly window: Window;
   /** max(socMin, socEndMin) [MWh]. */
   readonly socEndFloorMwh: number;
   /** V [currency/MWh]. */
@@ -99,6 +102,7 @@ export function toStoredDay(problem: DayProblem, arrays?: StoredDayArrays): Stor
     }
   }
   const cap = b.maxDischargeMwhPerDay;
+  const eps = 1e-12 * Math.max(1, Math.abs(b.socMaxMwh), Math.abs(b.socMinMwh), chargeStepMwh, dischargeStepMwh);
   return {
     periods,
     chargeStepMwh,
@@ -112,6 +116,7 @@ export function toStoredDay(problem: DayProblem, arrays?: StoredDayArrays): Stor
     socStartMwh: problem.socStartMwh,
     socMinMwh: b.socMinMwh,
     socMaxMwh: b.socMaxMwh,
+    window: { lo: b.socMinMwh, hi: b.socMaxMwh, eps },
     socEndFloorMwh: Math.max(b.socMinMwh, problem.socEndMinMwh),
     terminalValuePerMwh: problem.terminalValuePerMwh ?? 0,
     dischargeCapMwh: cap === undefined ? Infinity : cap / b.dischargeEfficiency,

@@ -1,6 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { concaveStep, maxOf, Pwl } from '../../src/plan/fast/pwl.js';
+import { concaveStep, maxOf, Pwl, PwlScratch } from '../../../src/plan/warehouse/pwl.js';
 
 // The piecewise-linear operations of the day solver's dynamic program, checked against their
 // definitions evaluated by enumeration (fast-check, fixed seeds):
@@ -84,7 +84,8 @@ describe('concaveStep', () => {
         const hi = k.lo + k.width;
         const kernel = (w: number): number => (w <= k.a + k.len1 ? k.s1 * w : k.s1 * (k.a + k.len1) + s2 * (w - k.a - k.len1));
         const out = new Pwl(4);
-        const met = concaveStep(pwlOf(points), k.a, k.len1, k.s1, k.len2, s2, k.lo, hi, 0, out);
+        const kernel2 = { lower: { from: k.a, to: k.a + k.len1, slope: k.s1 }, upper: { from: k.a + k.len1, to: k.a + k.len1 + k.len2, slope: s2 } };
+        const met = concaveStep(pwlOf(points), kernel2, { lo: k.lo, hi, eps: 0 }, new PwlScratch(), out);
         const domainLo = points[0]![0] + k.a;
         const domainHi = points[points.length - 1]![0] + k.a + k.len1 + k.len2;
         expect(met).toBe(!(domainLo > hi || domainHi < k.lo));

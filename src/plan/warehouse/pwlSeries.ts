@@ -1,4 +1,4 @@
-import type { Pwl } from './pwl.js';
+import { type Pwl, valueAt } from './pwl.js';
 
 /**
  * The value functions of a dynamic program, one per stage, kept back to back in two growing arrays
@@ -44,5 +44,20 @@ export class PwlSeries {
     this.start[t] = used;
     this.count[t] = f.n;
     this.used = used + f.n;
+  }
+
+  /** Stage t's value at x (clamped into its domain). */
+  at(t: number, x: number): number {
+    return valueAt(this.xs, this.vs, this.start[t]!, this.count[t]!, x);
+  }
+
+  /** The left end of stage t's domain. */
+  domainLo(t: number): number {
+    return this.xs[this.start[t]!]!;
+  }
+
+  /** The right end of stage t's domain. */
+  domainHi(t: number): number {
+    return this.xs[this.start[t]! + this.count[t]! - 1]!;
   }
 }

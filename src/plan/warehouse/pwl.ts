@@ -16,6 +16,52 @@
  * Points closer than a relative 1e-13 merge; collinear neighbours (slopes within a relative 1e-13)
  * are dropped, which keeps the number of breakpoints small.
  */
+/** A linear piece of a period's value: value `slope` x w for a move w in [from, to]. */
+export interface Piece {
+  from: number;
+  to: number;
+  slope: number;
+}
+
+/**
+ * A period's value of its move as two linear pieces: `lower` (value lower.slope x w on [lower.from,
+ * lower.to]) and `upper`, which continues it from lower.to with slope upper.slope up to upper.to.
+ * The day solver's kernels meet at w = 0 (lower.to = upper.from = 0), so both values read slope x w.
+ * Concave when lower.slope >= upper.slope. The solver refills one kernel per period (periodShape.ts).
+ */
+export interface Kernel {
+  readonly lower: Piece;
+  readonly upper: Piece;
+}
+
+export function newKernel(): Kernel {
+  return { lower: { from: 0, to: 0, slope: 0 }, upper: { from: 0, to: 0, slope: 0 } };
+}
+
+/** The interval [lo, hi] a function is restricted to, and how far outside its ends still counts as meeting it. */
+export interface Window {
+  readonly lo: number;
+  readonly hi: number;
+  readonly eps: number;
+}
+
+/**
+ * Scratch arrays of the operations below, grown on demand and handed in by the caller (the solver
+ * keeps one in its workspace): results never depend on what a previous call left in them.
+ */
+export class PwlScratch {
+  /** Index deque of slideMax. */
+  deque = new Int32Array(64);
+  /** Values of at most three lines at both ends of one elementary interval (slideMax). */
+  readonly lineStart = new Float64Array(3);
+  readonly lineEnd = new Float64Array(3);
+  /** Breakpoints of a concave step before its restriction (concaveStep). */
+  stepXs = new Float64Array(64);
+  stepVs = new Float64Array(64);
+  /** Point stack of upperHull. */
+  hull = new Int32Array(64);
+}
+
 export class Pwl {
   xs: Float64Array;
   vs: Float64Array;
@@ -89,12 +135,12 @@ export function valueAt(xs: Float64Array, vs: Float64Array, from: number, n: num
   return vs[lo]! + ((vs[hi]! - vs[lo]!) * (x - x0)) / (xs[hi]! - x0);
 }
 
-/** Lines on one elementary interval [e0, e1], given by their values at both ends. */
-const startValue = new Float64Array(3);
-const endValue = new Float64Array(3);
-
-/** Pushes the upper envelope of lines 0..count-1 over [e0, e1] (the point at e0 included). */
-function pushEnvelope(out: Pwl, e0: number, e1: number, count: number, shift: number, tilt: number): void {
+/**
+ * Pushes the upper envelope over [e0, e1] of lines 0..count-1, given by their values at both ends
+ * (scratch.lineStart, scratch.lineEnd), shifted right by `shift` and tilted by `tilt` (the point at e0 included).
+ */
+function pushEnvelope(out: Pwl, e0: number, e1: number, count: number, shift: number, tilt: number, scratch: PwlScratch): void {
+  const { lineStart: startValue, lineEnd: endValue } = scratch;
   const width = e1 - e0;
   let top = 0;
   for (let k = 1; k < count; k++) {
@@ -126,24 +172,25 @@ function pushEnvelope(out: Pwl, e0: number, e1: number, count: number, shift: nu
   }
 }
 
-/** Index deque for the breakpoint maximum (module scratch, grown on demand). */
-let deque = new Int32Array(64);
-
 /**
- * out = the sliding maximum G(s) = max_{w in [a, b]} F(s - w) + sigma w on [x_0 + a, x_{n-1} + b].
- * `out` must differ from `f`.
+ * out = the sliding maximum G(s) = max_{w in [a, b]} F(s - w) + sigma w on [x_0 + a, x_{n-1} + b],
+ * for the piece (a, b, sigma) = (from, to, slope). `out` must differ from `f`.
  */
-export function slideMax(f: Pwl, a: number, b: number, sigma: number, out: Pwl): void {
+export function slideMax(f: Pwl, piece: Piece, scratch: PwlScratch, out: Pwl): void {
+  const { from: a, to: b, slope: sigma } = piece;
+  const { lineStart: startValue, lineEnd: endValue } = scratch;
   out.clear();
   const n = f.n;
   const xs = f.xs;
+  const vs = f.vs;
   const L = b - a;
-  const h = (i: number): number => f.vs[i]! - sigma * xs[i]!;
+  // H(x_i) = v_i - sigma x_i is written out where needed (a closure here measured slower).
   if (L <= 0 || n === 0) {
     for (let i = 0; i < n; i++) out.push(xs[i]! + a, f.vs[i]! + sigma * a);
     return;
   }
-  if (deque.length < n) deque = new Int32Array(2 * n);
+  if (scratch.deque.length < n) scratch.deque = new Int32Array(2 * n);
+  const deque = scratch.deque;
   let head = 0;
   let tail = 0;
   let i = 0; // next breakpoint of H to enter at r = x_i
@@ -153,8 +200,8 @@ export function slideMax(f: Pwl, a: number, b: number, sigma: number, out: Pwl):
   const end = xs[last]! + L;
   while (e0 < end) {
     while (i < n && xs[i]! <= e0) {
-      const hi = h(i);
-      while (tail > head && h(deque[tail - 1]!) <= hi) tail--;
+      const hi = vs[i]! - sigma * xs[i]!;
+      while (tail > head && vs[deque[tail - 1]!]! - sigma * xs[deque[tail - 1]!]! <= hi) tail--;
       deque[tail++] = i++;
     }
     while (j < n && xs[j]! + L <= e0) j++;
@@ -162,23 +209,28 @@ export function slideMax(f: Pwl, a: number, b: number, sigma: number, out: Pwl):
     while (tail > head && xs[deque[head]!]! + L < e1) head++;
     let count = 0;
     if (i < n) {
-      // H(r) on the piece [x_{i-1}, x_i]
-      startValue[count] = lerp(xs, f.vs, i - 1, e0) - sigma * e0;
-      endValue[count++] = lerp(xs, f.vs, i - 1, e1) - sigma * e1;
+      // H(r) on the piece [x_{i-1}, x_i], where F has the slope dv
+      const k = i - 1;
+      const dv = (vs[i]! - vs[k]!) / (xs[i]! - xs[k]!);
+      startValue[count] = vs[k]! + dv * (e0 - xs[k]!) - sigma * e0;
+      endValue[count++] = vs[k]! + dv * (e1 - xs[k]!) - sigma * e1;
     }
     if (j > 0) {
       // H(r - L) on the piece [x_{j-1}, x_j]
-      startValue[count] = lerp(xs, f.vs, j - 1, e0 - L) - sigma * (e0 - L);
-      endValue[count++] = lerp(xs, f.vs, j - 1, e1 - L) - sigma * (e1 - L);
+      const k = j - 1;
+      const dv = (vs[j]! - vs[k]!) / (xs[j]! - xs[k]!);
+      startValue[count] = vs[k]! + dv * (e0 - L - xs[k]!) - sigma * (e0 - L);
+      endValue[count++] = vs[k]! + dv * (e1 - L - xs[k]!) - sigma * (e1 - L);
     }
     if (tail > head) {
-      startValue[count] = endValue[count] = h(deque[head]!);
+      const top = deque[head]!;
+      startValue[count] = endValue[count] = vs[top]! - sigma * xs[top]!;
       count++;
     }
-    pushEnvelope(out, e0, e1, count, a, sigma);
+    pushEnvelope(out, e0, e1, count, a, sigma, scratch);
     e0 = e1;
   }
-  out.push(end + a, h(last) + sigma * (end + a));
+  out.push(end + a, vs[last]! - sigma * xs[last]! + sigma * (end + a));
 }
 
 /**
@@ -230,8 +282,9 @@ export function maxOf(f: Pwl, g: Pwl, out: Pwl): void {
   out.push(end, Math.max(fx[fLast]! === end ? f.vs[fLast]! : -Infinity, gx[gLast]! === end ? g.vs[gLast]! : -Infinity));
 }
 
-/** out = f restricted to [lo, hi]; false when they do not meet (within `eps`). */
-export function clip(f: Pwl, lo: number, hi: number, eps: number, out: Pwl): boolean {
+/** out = f restricted to the window; false when they do not meet (within window.eps). */
+export function clip(f: Pwl, window: Window, out: Pwl): boolean {
+  const { lo, hi, eps } = window;
   out.clear();
   const xs = f.xs;
   const last = f.n - 1;
@@ -253,12 +306,14 @@ function lerp(xs: Float64Array, vs: Float64Array, k: number, x: number): number 
 }
 
 /**
- * out = max_{w in [a, b]} f(s - w) + sigma w for a concave f: the sup-convolution of two concave
- * functions merges their slope sequences (Rockafellar 1970, Convex Analysis, section 5), so the
- * piece of slope sigma and length b - a goes between f's pieces steeper than sigma (shifted by a)
- * and the rest (shifted by b). Exact and linear in the breakpoints, with no new ones but two.
+ * out = max_{w in [a, b]} f(s - w) + sigma w for a concave f and the piece (a, b, sigma) = (from,
+ * to, slope): the sup-convolution of two concave functions merges their slope sequences
+ * (Rockafellar 1970, Convex Analysis, section 5), so the piece of slope sigma and length b - a goes
+ * between f's pieces steeper than sigma (shifted by a) and the rest (shifted by b). Exact and
+ * linear in the breakpoints, with no new ones but two.
  */
-export function concaveSlide(f: Pwl, a: number, b: number, sigma: number, out: Pwl): void {
+export function concaveSlide(f: Pwl, piece: Piece, out: Pwl): void {
+  const { from: a, to: b, slope: sigma } = piece;
   out.clear();
   const xs = f.xs;
   const vs = f.vs;
@@ -288,23 +343,26 @@ export function isConcave(f: Pwl): boolean {
 }
 
 /** slideMax, by the slope merge of concaveSlide when f is concave (the same function, far cheaper). */
-export function slide(f: Pwl, a: number, b: number, sigma: number, out: Pwl): void {
-  if (isConcave(f)) concaveSlide(f, a, b, sigma, out);
-  else slideMax(f, a, b, sigma, out);
+export function slide(f: Pwl, piece: Piece, scratch: PwlScratch, out: Pwl): void {
+  if (isConcave(f)) concaveSlide(f, piece, out);
+  else slideMax(f, piece, scratch, out);
 }
 
-/** Breakpoints of a concave step before its restriction (module scratch, grown on demand). */
-let stepXs = new Float64Array(64);
-let stepVs = new Float64Array(64);
-
 /**
- * out = (f (+) kernel) restricted to [lo, hi], for a concave f and a concave kernel of two pieces:
- * slope s1 on [a, a + len1], then slope s2 <= s1 on the next len2 (kernel value s1 a at a). This is
- * concaveSlide for each piece and then clip, in one pass: f's pieces steeper than s1 are shifted by
- * (a, s1 a), those between s1 and s2 by the end of the first piece, the rest by the end of the
- * second (the slope merge of concaveSlide). False when the result misses [lo, hi] by more than eps.
+ * out = (f (+) kernel) restricted to the window, for a concave f and a concave kernel (lower.slope
+ * = s1 >= upper.slope = s2): slope s1 on [a, a + len1], then s2 on the next len2 (kernel value s1 a
+ * at a). This is concaveSlide for each piece and then clip, in one pass: f's pieces steeper than
+ * s1 are shifted by (a, s1 a), those between s1 and s2 by the end of the first piece, the rest by
+ * the end of the second (the slope merge of concaveSlide). False when the result misses the window
+ * by more than window.eps.
  */
-export function concaveStep(f: Pwl, a: number, len1: number, s1: number, len2: number, s2: number, lo: number, hi: number, eps: number, out: Pwl): boolean {
+export function concaveStep(f: Pwl, kernel: Kernel, window: Window, scratch: PwlScratch, out: Pwl): boolean {
+  const { lo, hi, eps } = window;
+  const a = kernel.lower.from;
+  const len1 = kernel.lower.to - a;
+  const s1 = kernel.lower.slope;
+  const len2 = kernel.upper.to - kernel.upper.from;
+  const s2 = kernel.upper.slope;
   const xs = f.xs;
   const vs = f.vs;
   const n = f.n;
@@ -318,12 +376,12 @@ export function concaveStep(f: Pwl, a: number, len1: number, s1: number, len2: n
       break;
     }
   }
-  if (stepXs.length < n + 2) {
-    stepXs = new Float64Array(2 * (n + 2));
-    stepVs = new Float64Array(2 * (n + 2));
+  if (scratch.stepXs.length < n + 2) {
+    scratch.stepXs = new Float64Array(2 * (n + 2));
+    scratch.stepVs = new Float64Array(2 * (n + 2));
   }
-  const px = stepXs;
-  const pv = stepVs;
+  const px = scratch.stepXs;
+  const pv = scratch.stepVs;
   const shiftX2 = a + len1;
   const shiftV1 = s1 * a;
   const shiftV2 = shiftV1 + s1 * len1;
@@ -350,4 +408,43 @@ export function concaveStep(f: Pwl, a: number, len1: number, s1: number, len2: n
   for (let j = 0; j < m; j++) if (px[j]! > from && px[j]! < to) out.push(px[j]!, pv[j]!);
   out.push(to, valueAt(px, pv, 0, m, to));
   return true;
+}
+
+/**
+ * out >= f with at most `most` breakpoints: f's breakpoints are cut into pieces of equal count that
+ * share their end points, and each piece is replaced by its upper concave hull (Andrew 1979, the
+ * monotone chain), which passes through the piece's end points, so out is continuous and at or
+ * above f everywhere. Fewer, longer pieces until the result fits; one piece gives the concave hull.
+ */
+export function upperHulls(f: Pwl, most: number, scratch: PwlScratch, out: Pwl): void {
+  const n = f.n;
+  for (let pieces = Math.max(1, most >> 2); ; pieces = pieces >> 1) {
+    out.clear();
+    const size = Math.ceil((n - 1) / pieces);
+    for (let from = 0; from < n - 1; from += size) {
+      const to = Math.min(n - 1, from + size);
+      upperHull(f, from, to, scratch, out);
+    }
+    if (out.n <= most || pieces === 1) return;
+  }
+}
+
+/** Appends the upper concave hull of f's breakpoints from..to (inclusive) to out. */
+function upperHull(f: Pwl, from: number, to: number, scratch: PwlScratch, out: Pwl): void {
+  const { xs, vs } = f;
+  if (scratch.hull.length < to - from + 1) scratch.hull = new Int32Array(2 * (to - from + 1));
+  const hull = scratch.hull;
+  let top = 0;
+  for (let i = from; i <= to; i++) {
+    // pop while the last point lies on or below the chord from the one before it to point i
+    while (top >= 2) {
+      const a = hull[top - 2]!;
+      const b = hull[top - 1]!;
+      const cross = (xs[b]! - xs[a]!) * (vs[i]! - vs[a]!) - (vs[b]! - vs[a]!) * (xs[i]! - xs[a]!);
+      if (cross >= 0) top--;
+      else break;
+    }
+    hull[top++] = i;
+  }
+  for (let k = 0; k < top; k++) out.push(xs[hull[k]!]!, vs[hull[k]!]!);
 }

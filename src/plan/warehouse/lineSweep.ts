@@ -1,5 +1,8 @@
-import { CHARGE, CHORD, DISCHARGE, LiveSegments, ranksBelow } from './liveSegments.js';
+import { LiveSegments, ranksBelow, SEGMENT_KIND } from './liveSegments.js';
+import { PERIOD_SHAPE, periodShape } from './periodShape.js';
+import type { StageStatus } from './stageStatus.js';
 import type { StoredDay } from './storedDay.js';
+import type { StoredSchedule } from './storedSchedule.js';
 
 /**
  * Exact solution of the day problem when every period's value function of its net move is concave
@@ -29,37 +32,6 @@ import type { StoredDay } from './storedDay.js';
  * The open segments live in a short sorted array (liveSegments.ts): they hold at most the window's
  * width of energy, so an insert moves few of them, and the ends are read in O(1).
  */
-export const SWEEP_OK = 0;
-export const SWEEP_START_UNREACHABLE = 1;
-export const SWEEP_END_UNREACHABLE = 2;
-/** The dynamic program (valueDp.ts) gave up: its value functions outgrew their breakpoint budget. */
-export const SWEEP_TOO_LARGE = 4;
-export type SweepStatus = typeof SWEEP_OK | typeof SWEEP_START_UNREACHABLE | typeof SWEEP_END_UNREACHABLE | typeof SWEEP_TOO_LARGE;
-
-/** Per-period restriction set by the branch and bound. */
-export const FREE = 0;
-export const CHARGE_ONLY = 1;
-export const DISCHARGE_ONLY = 2;
-
-/** A solution in stored units with its value (without the multiplier term) and total y. */
-export class LineSolution {
-  readonly x: Float64Array;
-  readonly y: Float64Array;
-  value = 0;
-  discharged = 0;
-
-  constructor(periods: number) {
-    this.x = new Float64Array(periods);
-    this.y = new Float64Array(periods);
-  }
-
-  copyFrom(other: LineSolution): void {
-    this.x.set(other.x);
-    this.y.set(other.y);
-    this.value = other.value;
-    this.discharged = other.discharged;
-  }
-}
 
 /** Scratch arrays for days of up to `capacity` periods, reused from sweep to sweep. */
 export class SweepWorkspace {
@@ -67,35 +39,41 @@ export class SweepWorkspace {
   readonly remaining: Float64Array;
   readonly taken: Float64Array;
   readonly live: LiveSegments;
+  /** Per period: its shape in this sweep (periodShape.ts), for reading the schedule off the segments. */
+  readonly shapes: Int8Array;
 
   constructor(capacity: number) {
     const n = 3 * capacity;
+    this.shapes = new Int8Array(capacity);
     this.remaining = new Float64Array(n);
     this.taken = new Float64Array(n);
     this.live = new LiveSegments(capacity);
   }
 }
 
-/** Tolerance for a window edge to count as reached despite rounding [MWh]. */
-export function edgeTolerance(day: StoredDay): number {
-  return 1e-12 * Math.max(1, Math.abs(day.socMaxMwh), Math.abs(day.socMinMwh), day.chargeStepMwh, day.dischargeStepMwh);
+/**
+ * Looks at the sweep as it goes (docs/day-solver.md traces a day with one); the solver runs without.
+ * `afterPeriod` sees the open segments after period t's window cut, with the reachable range [lo, hi];
+ * `atEnd` sees them after the end-of-day floor and the terminal value took their share.
+ */
+export interface SweepObserver {
+  afterPeriod(t: number, ws: SweepWorkspace, lo: number, hi: number): void;
+  atEnd(ws: SweepWorkspace): void;
 }
 
 /**
- * Solves at multiplier mu with per-period modes; writes the solution into `out`.
+ * Solves at multiplier mu with per-period modes; writes the schedule into `out`.
  * The hot loop keeps the ends of the open-segment array in locals and inserts in place (measured:
- * about 13 % faster than calling LiveSegments.insert, which must read and write them on the object).
+ * about 13 % faster than calling a method on LiveSegments, which must read and write them on the object).
  */
-export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: SweepWorkspace, out: LineSolution): SweepStatus {
+export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: SweepWorkspace, out: StoredSchedule, observer?: SweepObserver): StageStatus {
   const X = day.chargeStepMwh;
   const Y = day.dischargeStepMwh;
   const L = X + Y;
   const p = day.chargePrice;
   const q = day.dischargePrice;
-  const arbitrage = day.arbitrage;
-  const { socMinMwh: low, socMaxMwh: high } = day;
-  const eps = edgeTolerance(day);
-  const { live, remaining, taken } = ws;
+  const { lo: low, hi: high, eps } = day.window;
+  const { live, remaining, taken, shapes } = ws;
   const { ids, slopes } = live;
   live.clear();
   let head = live.head;
@@ -103,43 +81,45 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
   let lo = day.socStartMwh;
   let hi = lo;
   for (let t = 0; t < day.periods; t++) {
-    const mode = modes[t]!;
+    const shape = periodShape(day, t, mu, modes[t]!);
+    shapes[t] = shape;
     const pt = p[t]!;
     const qm = q[t]! - mu;
-    // The period's one or two segments: (id1, slope1, length1) and, for a free period outside
-    // arbitrage, the charge segment (id1 + 1, -p_t, X) after its discharge segment.
+    // The period's one or two segments: (id1, slope1, length1) and, for a concave period, the
+    // charge segment (id1 + 1, -p_t, X) after its discharge segment.
+    const base = 3 * t;
     let id1: number;
     let slope1: number;
     let length1: number;
-    let both = false;
-    if (mode === CHARGE_ONLY) {
-      id1 = 3 * t + CHARGE;
-      slope1 = -pt;
-      length1 = X;
-      hi += X;
-    } else if (mode === DISCHARGE_ONLY) {
-      id1 = 3 * t + DISCHARGE;
+    const both = shape === PERIOD_SHAPE.concave;
+    if (both) {
+      id1 = base + SEGMENT_KIND.discharge;
       slope1 = -qm;
       length1 = Y;
       lo -= Y;
-    } else if (arbitrage[t] === 1 && qm > pt) {
-      id1 = 3 * t + CHORD;
+      hi += X;
+    } else if (shape === PERIOD_SHAPE.convex) {
+      id1 = base + SEGMENT_KIND.chord;
       slope1 = -(pt * X + qm * Y) / L;
       length1 = L;
       lo -= Y;
       hi += X;
+    } else if (shape === PERIOD_SHAPE.chargeOnly) {
+      id1 = base + SEGMENT_KIND.charge;
+      slope1 = -pt;
+      length1 = X;
+      hi += X;
     } else {
-      id1 = 3 * t + DISCHARGE;
+      id1 = base + SEGMENT_KIND.discharge;
       slope1 = -qm;
       length1 = Y;
-      both = true;
       lo -= Y;
-      hi += X;
     }
     for (let k = both ? 2 : 1; k > 0; k--) {
-      const id = k === 1 && both ? id1 + CHARGE - DISCHARGE : id1;
-      const slope = k === 1 && both ? -pt : slope1;
-      const size = k === 1 && both ? X : length1;
+      const second = k === 1 && both;
+      const id = second ? base + SEGMENT_KIND.charge : id1;
+      const slope = second ? -pt : slope1;
+      const size = second ? X : length1;
       remaining[id] = size;
       taken[id] = 0;
       if (!(size > 0)) continue;
@@ -153,14 +133,14 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
       } else if (slope < slopes[head]!) {
         a = head;
       } else {
-        let base = head;
+        let from = head;
         let n = tail - head;
         while (n > 1) {
           const half = n >>> 1;
-          base = slopes[base + half - 1]! < slope ? base + half : base;
+          from = slopes[from + half - 1]! < slope ? from + half : from;
           n -= half;
         }
-        a = slopes[base]! < slope ? base + 1 : base;
+        a = slopes[from]! < slope ? from + 1 : from;
         while (a < tail && slopes[a] === slope && ranksBelow(ids[a]!, id)) a++;
       }
       if (a - head < tail - a) {
@@ -181,15 +161,17 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
       slopes[a] = slope;
     }
     if (lo > high) {
-      if (lo > high + eps) return SWEEP_START_UNREACHABLE;
+      if (lo > high + eps) return 'start-unreachable';
       lo = high;
     }
     if (hi < low) {
-      if (hi < low - eps) return SWEEP_START_UNREACHABLE;
+      if (hi < low - eps) return 'start-unreachable';
       hi = low;
     }
     if (lo < low) {
-      // The steepest segments are forced: take low - lo MWh of them.
+      // The steepest segments are forced: take low - lo MWh of them. This is takeSteepest written out on
+      // the ends in locals: calling it here (writing the ends back and reading them again) measured 9 %
+      // slower per sweep.
       let left = low - lo;
       while (left > 0 && tail > head) {
         const id = ids[tail - 1]!;
@@ -222,18 +204,24 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
       }
       hi = high;
     }
+    if (observer !== undefined) {
+      live.head = head;
+      live.tail = tail;
+      observer.afterPeriod(t, ws, lo, hi);
+    }
   }
   live.head = head;
   live.tail = tail;
   const floor = day.socEndFloorMwh;
-  if (hi < floor - eps) return SWEEP_END_UNREACHABLE;
+  if (hi < floor - eps) return 'end-unreachable';
   if (lo < floor) takeSteepest(ws, floor - lo);
   takeWhileProfitable(ws, -day.terminalValuePerMwh);
-  readSolution(day, modes, mu, ws, out);
-  return SWEEP_OK;
+  observer?.atEnd(ws);
+  readSchedule(day, ws, out);
+  return 'ok';
 }
 
-/** Takes `amount` MWh from the steepest segments (they are forced into the solution). */
+/** Takes `amount` MWh from the steepest open segments (they are forced into the solution). */
 function takeSteepest(ws: SweepWorkspace, amount: number): void {
   const { live, remaining, taken } = ws;
   const ids = live.ids;
@@ -264,31 +252,33 @@ function takeWhileProfitable(ws: SweepWorkspace, threshold: number): void {
   }
 }
 
-function readSolution(day: StoredDay, modes: Int8Array, mu: number, ws: SweepWorkspace, out: LineSolution): void {
+/** The schedule read off the taken parts of each period's segments (see the notes above). */
+function readSchedule(day: StoredDay, ws: SweepWorkspace, out: StoredSchedule): void {
   const X = day.chargeStepMwh;
   const Y = day.dischargeStepMwh;
   const L = X + Y;
   const p = day.chargePrice;
   const q = day.dischargePrice;
+  const { taken, shapes } = ws;
   let value = 0;
   let discharged = 0;
   let soc = day.socStartMwh;
   for (let t = 0; t < day.periods; t++) {
-    const id = 3 * t;
-    const mode = modes[t]!;
+    const base = 3 * t;
+    const shape = shapes[t]!;
     let x = 0;
     let y = 0;
-    if (mode === CHARGE_ONLY) {
-      x = ws.taken[id + CHARGE]!;
-    } else if (mode === DISCHARGE_ONLY) {
-      y = Y - ws.taken[id + DISCHARGE]!;
-    } else if (day.arbitrage[t] === 1 && q[t]! - mu > p[t]!) {
-      const tau = ws.taken[id + CHORD]!;
+    if (shape === PERIOD_SHAPE.concave) {
+      x = taken[base + SEGMENT_KIND.charge]!;
+      y = Y - taken[base + SEGMENT_KIND.discharge]!;
+    } else if (shape === PERIOD_SHAPE.convex) {
+      const tau = taken[base + SEGMENT_KIND.chord]!;
       x = tau >= L ? X : (X * tau) / L;
       y = tau <= 0 ? Y : tau >= L ? 0 : (Y * (L - tau)) / L;
+    } else if (shape === PERIOD_SHAPE.chargeOnly) {
+      x = taken[base + SEGMENT_KIND.charge]!;
     } else {
-      x = ws.taken[id + CHARGE]!;
-      y = Y - ws.taken[id + DISCHARGE]!;
+      y = Y - taken[base + SEGMENT_KIND.discharge]!;
     }
     out.x[t] = x;
     out.y[t] = y;
