@@ -9,7 +9,8 @@ import { FORECAST_METHODS } from '../forecast/forecaster.js';
 import { isValidDay } from '../market/calendar.js';
 import { ALPHA_RULE, isAlpha } from '../plan/alpha.js';
 import { UNACCEPTED_RULES, type UnacceptedRule } from '../settle/settleDay.js';
-import { levelsProblem, outFolderProblem, pathProblem } from './settingRules.js';
+import { dayNumber } from '../market/civilDays.js';
+import { levelsProblem, MAX_SPAN_YEARS, outFolderProblem, pathProblem, rangeProblem } from './settingRules.js';
 
 /** A delivery day, YYYY-MM-DD. */
 export const daySchema = z.string().refine(isValidDay, 'must be a day YYYY-MM-DD, e.g. 2027-03-28');
@@ -62,9 +63,26 @@ export const modelSettingsSchema = z.strictObject({
 });
 export type ModelSettings = z.input<typeof modelSettingsSchema>;
 
-/** The first and last delivery day of a run, both included, the first not after the last. */
+/** A number of the settings in [lo, hi] (a whole number when `whole`), with rangeProblem's words. */
+export function boundedNumber(limits: readonly [number, number], whole = false) {
+  return z.number().superRefine((value, ctx) => {
+    const problem = rangeProblem(value, limits, whole);
+    if (problem !== null) ctx.addIssue({ code: 'custom', message: `${value} ${problem}` });
+  });
+}
+
+/**
+ * The first and last delivery day of a run, both included: the first not after the last, and at most
+ * MAX_SPAN_YEARS apart, so that a run never walks through millennia of days without data.
+ */
 export function spanProblem(from: string, to: string): string | null {
-  return from > to ? `--to ${to} is before --from ${from}` : null;
+  if (from > to) return `--to ${to} is before --from ${from}`;
+  const first = dayNumber(from);
+  const last = dayNumber(to);
+  if (first === null || last === null) return null;
+  const years = (last - first + 1) / 365.2425;
+  if (years > MAX_SPAN_YEARS) return `--from ${from} to --to ${to} spans ${Math.round(years)} years, more than the ${MAX_SPAN_YEARS} a run may cover`;
+  return null;
 }
 
 /** The span check of a settings schema (`.superRefine(checkSpan)`): a `to` before `from` is a problem of `to`. */

@@ -6,6 +6,7 @@ export { BACKTEST_POLICIES, type BacktestPolicy } from '../backtest/backtestPoli
 export { BACKTEST_DEFAULTS } from '../backtest/runBacktest.js';
 export { SWEEP_POLICIES, type SweepPolicy } from '../backtest/sweepSettingRow.js';
 export { DEFAULTS as FORECAST_OPTION_DEFAULTS, FORECAST_METHODS, type ForecastMethod } from '../forecast/forecaster.js';
+export { LEVEL_RANGE_TEXT } from '../forecast/quantiles/levels.js';
 export { isValidDay } from '../market/calendar.js';
 export { ALPHA_RANGE, ALPHA_RULE, isAlpha, PLAN_POLICIES } from '../plan/alpha.js';
 export { UNACCEPTED_RULES, type UnacceptedRule } from '../settle/settleDay.js';

@@ -229,11 +229,16 @@ const NUMBER_PATTERN = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
 /**
  * A finite decimal number with a dot as the decimal mark, or a problem that says why not.
- * Rejects NaN, Infinity, empty cells and decimal commas by name.
+ * Rejects NaN, Infinity, numbers beyond the doubles (1e999), empty cells and decimal commas by name.
  */
 export function parseDecimal(cell: string): { value: number } | { error: string; fix: string } {
   if (cell === '') return { error: 'empty value', fix: 'fill in a number' };
-  if (NUMBER_PATTERN.test(cell)) return { value: Number(cell) };
+  if (NUMBER_PATTERN.test(cell)) {
+    const value = Number(cell);
+    // 1e999 is a well-formed number whose value is beyond every double (about 1.8e308).
+    if (!Number.isFinite(value)) return { error: `${shownText(cell)} is out of range: larger than any number a file may hold (about 1.8e308)`, fix: 'check the unit and the decimal point of this value' };
+    return { value };
+  }
   if (/^[+-]?(nan|inf|infinity)$/i.test(cell)) {
     return { error: `${cell} is not a finite number`, fix: 'give a finite price; drop the row or the day if the value is unknown' };
   }

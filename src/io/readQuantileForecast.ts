@@ -1,6 +1,7 @@
 import type { MarketSpec, QuantileDay } from '../types.js';
 import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
 import { rearrange } from '../forecast/quantileSet.js';
+import { isLevel, LEVEL_RANGE_TEXT } from '../forecast/quantiles/levels.js';
 import { ProblemList } from '../errors/inputError.js';
 import { fieldCountProblem, hasOpenQuote, openQuoteProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
 import { PeriodLocator } from './periodLocator.js';
@@ -216,7 +217,7 @@ function ownCopy(text: string): string {
 function priceCell(cell: string, market: MarketSpec): ReturnType<typeof parseDecimal> {
   const parsed = parseDecimal(cell);
   if ('error' in parsed || (parsed.value >= market.priceFloor && parsed.value <= market.priceCap)) return parsed;
-  return { error: `price ${parsed.value} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the forecast's unit and the market spec's priceFloor and priceCap" };
+  return { error: `price ${shownText(cell)} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the forecast's unit and the market spec's priceFloor and priceCap" };
 }
 
 /** A level cell of the long layout: a finite decimal in (0, 1); a percentage is named as such. */
@@ -225,7 +226,7 @@ function levelCell(cell: string): ReturnType<typeof parseDecimal> {
   if ('error' in parsed) return parsed;
   const level = parsed.value;
   if (level >= 1 && level < 100) return { error: `level ${level} looks like a percentage`, fix: `write levels as fractions in (0, 1), e.g. ${level / 100}` };
-  if (!(level > 0 && level < 1)) return { error: `level ${level} is outside (0, 1)`, fix: 'levels are probabilities strictly between 0 and 1' };
+  if (!isLevel(level)) return { error: `level ${shownText(cell)} is outside ${LEVEL_RANGE_TEXT}`, fix: `levels are probabilities in ${LEVEL_RANGE_TEXT}` };
   return parsed;
 }
 

@@ -3,8 +3,19 @@ import { hasInvisible } from '../errors/shownText.js';
 import { isValidTimeZone } from './calendar.js';
 import { unevenClockShift } from './clockShifts.js';
 
-const finite = (what: string) =>
-  z.number({ error: (issue) => (issue.input === undefined ? `missing ${what}` : `${what} must be a number`) }).finite();
+/**
+ * Largest size of a price a market spec or a price history may give [currency/MWh]: 1,000,000 is above
+ * every day-ahead market's cap in its own currency (4000 EUR, 17,500 AUD, 251,000 JPY when converted
+ * from JEPX's 251 JPY/kWh; common practice), and keeps sums over decades of periods far from overflow.
+ */
+export const PRICE_LIMIT_PER_MWH = 1_000_000;
+
+/** A number of a spec in [lo, hi]; Infinity (JSON's 1e999) and NaN are out of that range too. */
+const bounded = (what: string, lo: number, hi: number) =>
+  z
+    .number({ error: (issue) => (issue.input === undefined ? `missing ${what}` : typeof issue.input === 'number' ? `${what} must be in [${lo}, ${hi}]` : `${what} must be a number`) })
+    .min(lo, `${what} must be in [${lo}, ${hi}]`)
+    .max(hi, `${what} must be in [${lo}, ${hi}]`);
 const text = (what: string) =>
   z.string({ error: (issue) => (issue.input === undefined ? `missing ${what}` : `${what} must be text in double quotes`) });
 
@@ -17,7 +28,7 @@ const ruleSchema = (key: string) =>
   z.strictObject({
     kind: z.literal('clearing-plus-penalty', { error: `${key}.kind must be "clearing-plus-penalty"` }),
     /** Penalty added against the operator [currency/MWh], >= 0. */
-    penaltyPerMwh: finite('penaltyPerMwh').min(0, 'penaltyPerMwh must be >= 0'),
+    penaltyPerMwh: bounded('penaltyPerMwh', 0, PRICE_LIMIT_PER_MWH),
   });
 
 export const imbalanceRuleSchema = ruleSchema('imbalance');
@@ -35,9 +46,9 @@ export const marketSpecSchema = z
       error: (issue) => (issue.input === undefined ? 'missing periodMinutes' : 'periodMinutes must be 15, 30 or 60'),
     }),
     /** Lowest price the auction can clear at [currency/MWh]. Required. */
-    priceFloor: finite('priceFloor'),
+    priceFloor: bounded('priceFloor', -PRICE_LIMIT_PER_MWH, PRICE_LIMIT_PER_MWH),
     /** Highest price the auction can clear at [currency/MWh]. Required. */
-    priceCap: finite('priceCap'),
+    priceCap: bounded('priceCap', -PRICE_LIMIT_PER_MWH, PRICE_LIMIT_PER_MWH),
     /** Currency label printed beside prices, e.g. `EUR` or an invented one. Required. */
     currency: text('currency')
       .min(1, 'currency must not be empty')

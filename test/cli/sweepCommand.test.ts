@@ -151,11 +151,11 @@ describe('quantbid sweep on a small seeded market', () => {
 describe('quantbid sweep rejects bad input with exit code 2 and writes nothing', () => {
   it.each([
     [['--alphas', '0.3:0.1:0.1'], /--alphas: the start of "0.3:0.1:0.1" is above its end/],
-    [['--alphas', '0.1,0.6'], /--alphas: 0.6 is not an alpha in \(0, 0.5\)/],
+    [['--alphas', '0.1,0.6'], /--alphas: 0.6 is not an alpha in \[0.001, 0.5\)/],
     [['--alphas', '0.02,0.1'], /--alphas: alpha 0.02 needs the levels 0.02 and 0.98, outside the forecast's levels \[0.05, 0.95\]/],
     [['--policies', 'quantile,oracle'], /--policies: "oracle" is not one of quantile, median/],
     [['--unaccepted', 'ignore'], /--unaccepted: "ignore" is not one of follow-plan, follow-accepted/],
-    [['--threads', '0'], /"0" must be a whole number >= 1/],
+    [['--threads', '0'], /"0" must be a whole number in \[1, 1024\]/],
   ])('%j', (extra, message) => {
     const out = join(scenario.dir, `bad-${extra.join('').replace(/[^a-z0-9]/gi, '')}`);
     const run = quantbid(['sweep', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--out', out, ...extra]);

@@ -15,7 +15,7 @@ import { runInputFiles } from '../inputFiles.js';
 import { lockedRun } from '../lockedRun.js';
 import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { readRunInputs, runInputPaths } from '../runInputs.js';
+import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { backtestSummary, backtestSummaryText } from './backtestSummary.js';
 
@@ -73,6 +73,8 @@ function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: Backtest
   const maker = forecastMaker(s.model, paths.history, s, hooks);
   const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
   const model = maker?.made();
+  // A span without a covered day is bad input, as for sweep and size: an all-zero table would look like a result.
+  requireCoveredDay(data, paths, s.from, s.to);
   const { market, history, forecast } = data;
   const battery = batteryModel(data.batterySpec);
   const progress = hooks.progress('backtest', daysBetween(s.from, s.to).length);

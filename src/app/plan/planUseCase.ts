@@ -16,7 +16,8 @@ import { forecastLevelProblems } from '../forecastLevels.js';
 import { inputFiles, runInputFiles } from '../inputFiles.js';
 import { lockedRun } from '../lockedRun.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
+import { RUN_LIMITS } from '../settingRules.js';
+import { alphaSchema, boundedNumber, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
 import { planSummary, planSummaryText } from './planSummary.js';
 
 /** Defaults of `quantbid plan`: the quantile policy at alpha 0.1. */
@@ -33,7 +34,7 @@ export const planSettingsSchema = z.strictObject({
   /** Planning policy; default quantile. */
   policy: z.enum(PLAN_POLICIES as readonly PlanPolicy[] as [PlanPolicy, ...PlanPolicy[]]).default(PLAN_DEFAULTS.policy),
   /** State of charge at the start of the day [MWh]; default socInitialFraction x energyMwh. */
-  socStartMwh: z.number().finite().min(0).optional(),
+  socStartMwh: boundedNumber(RUN_LIMITS.socStartMwh).optional(),
   /** Folder for orders.csv, schedule.csv, plan.json (and report.html); none: nothing is written. */
   out: outFolderSchema.optional(),
   /** Overwrite existing outputs. */
