@@ -24,6 +24,7 @@ export const SLOW_OR_SPAWNING = [
   'test/hardening/concurrentRuns.test.ts',
   'test/hardening/fullDisk.test.ts',
   'test/hardening/journalTampering.test.ts',
+  'test/hardening/numericFuzz.test.ts',
   'test/hardening/determinism.test.ts',
   'test/io/forecastCache.test.ts',
   'test/report/sweepReport.test.ts',

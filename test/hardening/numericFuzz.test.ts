@@ -16,8 +16,8 @@ import { FIXTURES } from './corpusRunner.js';
  * thread). Each run must end with exit code 0 or 2, never 1 (a fault); print no NaN or Infinity; on
  * exit code 2 leave --out as it was (nothing written); and do bounded work.
  *
- * The work is bounded by construction and checked by count, not by time: the inputs hold one day at
- * hourly periods, the grids at most four settings, and the forecast one day; a value that would make
+ * The work is bounded by construction and checked by count, not by time: the runs cover one day at
+ * hourly periods (the forecast learns from 45 before it), the grids hold at most four settings; a value that would make
  * the work grow (a life of 1e9 years, 1e308 threads, a span of millennia) must be refused by its range
  * check before any arithmetic. Every run's output folder is measured: at most 1 MiB written.
  *
@@ -41,11 +41,30 @@ interface Target {
   readonly put: (inputs: Inputs, value: string) => void;
 }
 
+/**
+ * The corpus's valid history day (2027-06-15, hourly, Europe/Berlin) repeated for the 45 days before it
+ * with prices shifted day by day, so that `forecast` has days to learn from (summer time throughout).
+ */
+function longHistory(): string {
+  const [header, ...rows] = readFileSync(join(FIXTURES, 'history/valid.csv'), 'utf8').trimEnd().split('\n');
+  const days = Array.from({ length: 46 }, (_, k) => new Date(Date.UTC(2027, 4, 1 + k)).toISOString().slice(0, 10));
+  const lines = days.flatMap((day, k) =>
+    rows.map((row) => {
+      const [stamp, price, imbalance, load] = row.split(',') as [string, string, string, string];
+      const shift = ((k * 7) % 11) - 5;
+      return [`${day}${stamp.slice(10)}`, (Number(price) + shift).toFixed(2), (Number(imbalance) + shift).toFixed(2), load].join(',');
+    }),
+  );
+  return `${[header, ...lines].join('\n')}\n`;
+}
+
+const HISTORY = longHistory();
+
 const base = (): Inputs => ({
   market: readFileSync(join(FIXTURES, 'base/market.json'), 'utf8'),
   battery: readFileSync(join(FIXTURES, 'base/battery.json'), 'utf8'),
   forecast: readFileSync(join(FIXTURES, 'base/quantilesWide.csv'), 'utf8'),
-  history: readFileSync(join(FIXTURES, 'history/valid.csv'), 'utf8'),
+  history: HISTORY,
   flags: [],
 });
 
@@ -95,9 +114,9 @@ const TARGETS: readonly Target[] = [
   field('degradationCostPerMwh', 'battery', ['plan', 'size']),
   { name: 'forecast price cell', commands: ['plan', 'backtest'], put: (i, v) => void (i.forecast = csvCell(i.forecast, 7, 3, v)) },
   { name: 'forecast level in the header', commands: ['plan', 'sweep'], put: (i, v) => void (i.forecast = i.forecast.replace('q0.95', `q${v}`)) },
-  { name: 'history price cell', commands: ['backtest', 'forecast'], put: (i, v) => void (i.history = csvCell(i.history, 5, 1, v)) },
-  { name: 'history imbalance_price cell', commands: ['backtest', 'size'], put: (i, v) => void (i.history = csvCell(i.history, 9, 2, v)) },
-  { name: 'history exogenous cell', commands: ['sweep', 'forecast'], put: (i, v) => void (i.history = csvCell(i.history, 11, 3, v)) },
+  { name: 'history price cell', commands: ['backtest', 'forecast'], put: (i, v) => void (i.history = csvCell(i.history, 45 * 24 + 5, 1, v)) },
+  { name: 'history imbalance_price cell', commands: ['backtest', 'size'], put: (i, v) => void (i.history = csvCell(i.history, 45 * 24 + 9, 2, v)) },
+  { name: 'history exogenous cell', commands: ['sweep', 'forecast'], put: (i, v) => void (i.history = csvCell(i.history, 40 * 24 + 11, 3, v)) },
   flag('--alpha', ['plan', 'backtest', 'size']),
   flag('--soc-start', ['plan']),
   flag('--alphas', ['sweep']),
@@ -150,7 +169,7 @@ function argvOf(command: Command, files: Record<'market' | 'battery' | 'forecast
         '--capex-per-mwh', '180000', '--capex-per-mw', '60000', '--life-years', '15', '--discount-rate', '0.07', '--threads', '1', '--quiet', '--out', out, ...flags,
       ];
     case 'forecast':
-      return ['forecast', '--market', files.market, '--history', files.history, '--from', '2027-06-16', '--to', '2027-06-16', '--method', 'naive-hs', '--quiet', '--out', out, ...flags];
+      return ['forecast', '--market', files.market, '--history', files.history, '--from', '2027-06-15', '--to', '2027-06-15', '--method', 'naive-hs', '--quiet', '--out', out, ...flags];
   }
 }
 
@@ -174,7 +193,7 @@ async function check(target: Target, command: Command, value: string): Promise<n
   let stdout = '';
   let stderr = '';
   const io: CliIo = { stdout: (s) => void (stdout += s), stderr: (s) => void (stderr += s), stderrIsTerminal: false };
-  const code = await main(argvOf(command, files, out, inputs.flags), io);
+  const code = await main(['node', 'quantbid', ...argvOf(command, files, out, inputs.flags)], io);
   const what = `${command} with ${target.name} = ${value}\n${stderr}`;
   expect([0, 2], what).toContain(code);
   expect(stderr, what).not.toMatch(/internal fault/);
