@@ -207,7 +207,7 @@ export function requireSpanAndOut(
   const to = need(flags.to, '--to', `give --to YYYY-MM-DD, the last ${texts.days}`);
   const out = need(flags.out, '--out', `give --out DIR, the folder for ${texts.outFolder}`);
   const span = problems.length === 0 ? spanProblem(from, to) : null;
-  if (span !== null) problems.push({ file: 'command line', field: '--to', message: span, fix: 'give a --to on or after --from' });
+  if (span !== null) problems.push({ file: 'command line', field: '--to', message: span, fix: from > to ? 'give a --to on or after --from' : 'give --from and --to within the data and closer together' });
   if (problems.length > 0) throw new InputError(problems);
   return { from, to, out };
 }

@@ -63,7 +63,8 @@ Columns of size.csv: energy_mwh,power_mw,round_trip_efficiency,policy,alpha,prof
 then days,capture_ratio,profit_per_mwh,profit_per_mw,revenue_per_mwh_year,revenue_per_mw_year,
 spread_per_mwh_discharged,cycles_per_year,throughput_mwh_per_year,capex,annual_fixed_om,replacements,
 simple_payback_years,discounted_payback_years and acceptance rates; irr is "none" and a payback "never"
-when there is none. An interrupted run (Ctrl-C: exit code 130) resumes from its journal in --out.
+when there is none. An interrupted run (Ctrl-C: exit code 130; SIGTERM: 143) resumes from its journal in
+--out.
 
 Examples:
   quantbid size --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 \\

@@ -55,8 +55,8 @@ export function sweepCommand(io: CliIo): Command {
 Columns of sweep.csv: alpha,policy,unaccepted, then days,profit,mean_daily_profit,capture_ratio,
 perfect_foresight_profit,point_profit,edge_vs_point,p_value_vs_point (one-sided Diebold-Mariano/HLN
 test that the setting earns more than the point policy), acceptance rates, imbalance energy and cash,
-cycles and the daily-profit risk measures. An interrupted sweep (Ctrl-C: exit code 130) resumes from
-its journal in --out when run again with the same arguments.
+cycles and the daily-profit risk measures. An interrupted sweep (Ctrl-C: exit code 130; SIGTERM: 143)
+resumes from its journal in --out when run again with the same arguments.
 
 Examples:
   quantbid sweep --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-03-31 --out runs/sweep-q1 --report
