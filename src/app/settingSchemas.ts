@@ -9,7 +9,7 @@ import { FORECAST_METHODS } from '../forecast/forecastMethods.js';
 import { isValidDay } from '../market/civilDays.js';
 import { ALPHA_RULE, isAlpha } from '../plan/alpha.js';
 import { UNACCEPTED_RULES, type UnacceptedRule } from '../settle/settleDay.js';
-import { levelsProblem, outFolderProblem, pathProblem, spanProblem } from './settingRules.js';
+import { levelsProblem, outFolderProblem, pathProblem, rangeProblem, spanProblem } from './settingRules.js';
 
 export { spanProblem } from './settingRules.js';
 
@@ -63,6 +63,14 @@ export const modelSettingsSchema = z.strictObject({
   cache: z.union([pathSchema, z.literal(false)]).optional(),
 });
 export type ModelSettings = z.input<typeof modelSettingsSchema>;
+
+/** A number of the settings in [lo, hi] (a whole number when `whole`), with rangeProblem's words. */
+export function boundedNumber(limits: readonly [number, number], whole = false) {
+  return z.number().superRefine((value, ctx) => {
+    const problem = rangeProblem(value, limits, whole);
+    if (problem !== null) ctx.addIssue({ code: 'custom', message: `${value} ${problem}` });
+  });
+}
 
 /** The span check of a settings schema (`.superRefine(checkSpan)`): a `to` before `from` is a problem of `to`. */
 export function checkSpan(settings: { readonly from?: string | undefined; readonly to?: string | undefined }, ctx: z.RefinementCtx): void {

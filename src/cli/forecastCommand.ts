@@ -1,7 +1,7 @@
 import { Command, InvalidArgumentError, Option } from 'commander';
 import { shownText } from '../errors/shownText.js';
 import { DEFAULT_LEVELS_TEXT, FORECAST_DEFAULTS } from '../app/commandDefaults.js';
-import { DEFAULT_CALIBRATION_DAYS, FORECAST_METHODS, type ForecastMethod } from '../app/vocabulary.js';
+import { DEFAULT_CALIBRATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, type ForecastMethod } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addInputOptions, forceOption, inputSources, jsonOption, levelsArg, oneOf, outOption, quietOption, requireSpanAndOut, spanOptions, type InputFlags } from './options.js';
@@ -35,7 +35,7 @@ export function forecastCommand(io: CliIo): Command {
     .addOption(from)
     .addOption(to)
     .option('--method <name>', `${FORECAST_METHODS.join(' | ')} (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
-    .addOption(new Option('--levels <list>', 'quantile levels in (0, 1): a range start:end:step or a list 0.1,0.5,0.9').argParser(levelsArg).default(levelsArg(DEFAULT_LEVELS_TEXT), DEFAULT_LEVELS_TEXT))
+    .addOption(new Option('--levels <list>', `quantile levels in ${LEVEL_RANGE_TEXT}: a range start:end:step or a list 0.1,0.5,0.9`).argParser(levelsArg).default(levelsArg(DEFAULT_LEVELS_TEXT), DEFAULT_LEVELS_TEXT))
     .option('--paths <S>', 'also write S whole-day scenario paths per day to paths.csv', parsePathCountArg, FORECAST_DEFAULTS.paths)
     .addOption(outOption('folder for quantiles.csv, forecast.json and (with --paths) paths.csv, or the quantile file itself, NAME.json and NAME.paths.csv going beside it (required)', 'folder-or-csv-file'))
     .addOption(quietOption())

@@ -3,7 +3,8 @@ import { PLAN_DEFAULTS } from '../app/commandDefaults.js';
 import { PLAN_POLICIES, type PlanPolicy } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
-import { addInputOptions, alphaOption, dayArg, forceOption, inputSources, jsonOption, nonNegativeArg, oneOf, outOption, reportOption, type InputFlags } from './options.js';
+import { RUN_LIMITS } from '../app/settingRules.js';
+import { addInputOptions, alphaOption, dayArg, forceOption, inputSources, jsonOption, oneOf, outOption, rangeArg, reportOption, type InputFlags } from './options.js';
 import { printResult } from './printResult.js';
 
 export interface PlanFlags extends InputFlags {
@@ -23,7 +24,7 @@ export function planCommand(io: CliIo): Command {
     .option('--day <YYYY-MM-DD>', 'delivery day to plan (default: the scenario\'s demoDay)', dayArg)
     .addOption(alphaOption('tail level: buys limited at q(1-alpha), sells at q(alpha); the interval [q(alpha), q(1-alpha)] covers 1 - 2 alpha', PLAN_DEFAULTS.alpha))
     .option('--policy <name>', `${PLAN_POLICIES.join(' | ')} (price-taking: the median schedule with limits at the price cap and floor, the baseline every plan is compared with)`, oneOf<PlanPolicy>(PLAN_POLICIES), PLAN_DEFAULTS.policy)
-    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh); outside the window: a warning, and the plan comes back into it at full power', nonNegativeArg)
+    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh); outside the window: a warning, and the plan comes back into it at full power', rangeArg(RUN_LIMITS.socStartMwh, '5'))
     .addOption(outOption('folder for orders.csv, schedule.csv and plan.json'))
     .addOption(reportOption('also write report.html into --out: forecast fan with the limit prices, schedule charts, orders table'))
     .addOption(forceOption())

@@ -6,7 +6,8 @@ import type { SizeSettings } from '../app/size/sizeUseCase.js';
 import { ALPHA_RANGE, SIZE_POLICIES, UNACCEPTED_RULES, type UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
-import { addGridOptions, addInputOptions, addModelOptions, alphaArg, nonNegativeArg, oneOf, positiveArg, rateArg, reportOption, requireSpanAndOut, wholeNumberArg, type InputFlags, type ModelFlags } from './options.js';
+import { RUN_LIMITS } from '../app/settingRules.js';
+import { addGridOptions, addInputOptions, addModelOptions, alphaArg, oneOf, rangeArg, reportOption, requireSpanAndOut, type InputFlags, type ModelFlags } from './options.js';
 import { printResult } from './printResult.js';
 import { gridRunSettings, type GridFlags } from './sweepCommand.js';
 
@@ -49,12 +50,12 @@ export function sizeCommand(io: CliIo): Command {
     .option('--alpha <a|best>', 'tail level of the quantile and median policies, or best: chosen per size on the first half of the days, scored on the second', parseAlphaOrBest, SIZE_DEFAULTS.alpha)
     .option('--alphas <list>', `the alphas --alpha best chooses from (default ${SIZE_DEFAULTS.alphas})`)
     .option('--unaccepted <rule>', `unaccepted orders: ${UNACCEPTED_RULES.join(' | ')}`, oneOf<UnacceptedRule>(UNACCEPTED_RULES), SIZE_DEFAULTS.unaccepted)
-    .option('--capex-per-mwh <x>', 'capital cost of the energy part [currency/MWh] (required)', nonNegativeArg)
-    .option('--capex-per-mw <x>', 'capital cost of the power part [currency/MW] (required)', nonNegativeArg)
-    .option('--fixed-om-per-mw-year <x>', 'fixed operation and maintenance [currency/(MW year)]', nonNegativeArg, SIZE_DEFAULTS.fixedOmPerMwYear)
-    .option('--life-years <n>', 'project life [years], a whole number >= 1 (required)', wholeNumberArg(1, '15'))
-    .option('--life-cycles <n>', 'equivalent full cycles one set of cells lasts; the cells are bought again when they run out before the end of life (default: no limit)', positiveArg)
-    .option('--discount-rate <r>', 'discount rate per year as a fraction, e.g. 0.07 (required)', rateArg);
+    .option('--capex-per-mwh <x>', 'capital cost of the energy part [currency/MWh] (required)', rangeArg(RUN_LIMITS.capexPerMwh, '180000'))
+    .option('--capex-per-mw <x>', 'capital cost of the power part [currency/MW] (required)', rangeArg(RUN_LIMITS.capexPerMw, '60000'))
+    .option('--fixed-om-per-mw-year <x>', 'fixed operation and maintenance [currency/(MW year)]', rangeArg(RUN_LIMITS.fixedOmPerMwYear, '8000'), SIZE_DEFAULTS.fixedOmPerMwYear)
+    .option('--life-years <n>', 'project life [years], a whole number from 1 to 100 (required)', rangeArg(RUN_LIMITS.lifeYears, '15', true))
+    .option('--life-cycles <n>', 'equivalent full cycles one set of cells lasts; the cells are bought again when they run out before the end of life (default: no limit)', rangeArg(RUN_LIMITS.lifeCycles, '6000'))
+    .option('--discount-rate <r>', 'discount rate per year as a fraction, e.g. 0.07 (required)', rangeArg(RUN_LIMITS.discountRate, '0.07 for 7%'));
   addGridOptions(command, 'size.csv');
   command.addOption(reportOption('also write report.html into --out: heat maps of NPV and profit per MWh over energy x power, best sizes'));
   addInputOptions(command, ['market', 'battery', 'forecast', 'history']);
@@ -72,7 +73,8 @@ payback "never" when there is none. Cells bought again during the life are
 credited their residual value (straight-line) in the last year; yearly figures
 from less than a year of days are flagged as extrapolated. Every size has
 price-taking and perfect-foresight rows beside the policies asked for.
-An interrupted run (Ctrl-C: exit code 130) resumes from its journal in --out.
+An interrupted run (Ctrl-C: exit code 130; SIGTERM: 143) resumes from its
+journal in --out.
 
 Examples:
   quantbid size --scenario scenarios/halvorn/scenario.json \\

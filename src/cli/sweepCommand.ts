@@ -60,8 +60,8 @@ and cash, cycles, the daily-profit risk measures, and price_taking_profit,
 edge_vs_price_taking,p_value_vs_price_taking. After the grid, rows of the
 reference policies point, price-taking and perfect-foresight for each rule
 (alpha empty). The best setting is chosen within each rule, never across rules.
-An interrupted sweep (Ctrl-C: exit code 130) resumes from its journal in --out
-when run again with the same arguments.
+An interrupted sweep (Ctrl-C: exit code 130; SIGTERM: 143) resumes from its
+journal in --out when run again with the same arguments.
 
 Examples:
   quantbid sweep --scenario scenarios/halvorn/scenario.json \\

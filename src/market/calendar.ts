@@ -97,6 +97,15 @@ export function deliveryDayBounds(day: string, timeZone: string): { startMs: num
   return { startMs: start.toMillis(), endMs: end.toMillis() };
 }
 
+/**
+ * Whether a zone skipped `day` altogether: its clocks jumped over the whole date (e.g. Pacific/Apia
+ * moved across the date line on 2011-12-30), so no instant has that local date and the day has no
+ * delivery periods of its own.
+ */
+export function isSkippedDay(day: string, timeZone: string): boolean {
+  return dayOfInstant(deliveryDayBounds(day, timeZone).startMs, timeZone) !== day;
+}
+
 /** ISO 8601 with the zone's offset at that instant, seconds kept, milliseconds dropped. */
 export function formatInstant(ms: number, timeZone: string): string {
   const text = DateTime.fromMillis(ms, { zone: timeZone }).toISO({ suppressMilliseconds: true });

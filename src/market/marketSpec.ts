@@ -1,7 +1,22 @@
 import { z } from 'zod';
+import { hasInvisible } from '../errors/shownText.js';
 import { isValidTimeZone } from './calendar.js';
 import { unevenClockShift } from './clockShifts.js';
 
+/**
+ * Largest size of a price a market spec or a price history may give [currency/MWh]: 1,000,000 is above
+ * every day-ahead market's cap in its own currency (4000 EUR, 17,500 AUD, 251,000 JPY when converted
+ * from JEPX's 251 JPY/kWh; common practice), and keeps sums over decades of periods far from overflow.
+ */
+export const PRICE_LIMIT_PER_MWH = 1_000_000;
+
+/** A number of a spec in [lo, hi]; Infinity (JSON's 1e999) and NaN are out of that range too. */
+const bounded = (what: string, lo: number, hi: number) =>
+  z
+    .number({ error: (issue) => (issue.input === undefined ? `missing ${what}` : typeof issue.input === 'number' ? `${what} must be in [${lo}, ${hi}]` : `${what} must be a number`) })
+    .min(lo, `${what} must be in [${lo}, ${hi}]`)
+    .max(hi, `${what} must be in [${lo}, ${hi}]`);
+/** A finite number of a spec (1e999 parses to Infinity and is refused). */
 const finite = (what: string) =>
   z.number({ error: (issue) => (issue.input === undefined ? `missing ${what}` : `${what} must be a number`) }).finite();
 const text = (what: string) =>
@@ -16,7 +31,7 @@ const ruleSchema = (key: string) =>
   z.strictObject({
     kind: z.literal('clearing-plus-penalty', { error: `${key}.kind must be "clearing-plus-penalty"` }),
     /** Penalty added against the operator [currency/MWh], >= 0. */
-    penaltyPerMwh: finite('penaltyPerMwh').min(0, 'penaltyPerMwh must be >= 0'),
+    penaltyPerMwh: bounded('penaltyPerMwh', 0, PRICE_LIMIT_PER_MWH),
   });
 
 export const imbalanceRuleSchema = ruleSchema('imbalance');
@@ -50,11 +65,14 @@ export const marketSpecSchema = z
       error: (issue) => (issue.input === undefined ? 'missing periodMinutes' : 'periodMinutes must be 15, 30 or 60'),
     }),
     /** Lowest price the auction can clear at [currency/MWh]. Required. */
-    priceFloor: finite('priceFloor'),
+    priceFloor: bounded('priceFloor', -PRICE_LIMIT_PER_MWH, PRICE_LIMIT_PER_MWH),
     /** Highest price the auction can clear at [currency/MWh]. Required. */
-    priceCap: finite('priceCap'),
+    priceCap: bounded('priceCap', -PRICE_LIMIT_PER_MWH, PRICE_LIMIT_PER_MWH),
     /** Currency label printed beside prices, e.g. `EUR` or an invented one. Required. */
-    currency: text('currency').min(1, 'currency must not be empty'),
+    currency: text('currency')
+      .min(1, 'currency must not be empty')
+      .max(16, 'currency must be a short label of at most 16 characters')
+      .refine((label) => !hasInvisible(label) && label.trim() === label, 'currency must be printable text without control characters or blanks around it'),
     /** Gate closure, local time of day on the day before delivery, `HH:MM`. Required. */
     gateClosure: text('gateClosure')
       .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'gateClosure must be a local time HH:MM'),
@@ -111,7 +129,7 @@ export const MARKET_FIELD_FIXES: Readonly<Record<string, string>> = {
   periodMinutes: 'set the market time unit: 15, 30 or 60 (a period that divides every clock shift of the zone)',
   priceFloor: 'give the auction\'s lowest clearing price in currency/MWh, e.g. -500',
   priceCap: 'give the auction\'s highest clearing price in currency/MWh, above priceFloor, e.g. 4000',
-  currency: 'give a currency label such as "EUR"',
+  currency: 'give a short printable currency label such as "EUR"',
   gateClosure: 'give the local time on the day before delivery, e.g. "12:00"',
   'imbalance.kind': 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
   'imbalance.penaltyPerMwh': 'give a penalty >= 0 in currency/MWh',

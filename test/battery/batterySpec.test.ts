@@ -56,9 +56,9 @@ describe('battery spec', () => {
       '}',
     ].join('\n');
     const lines = problemsOf(() => battery(text));
-    expect(lines).toContain('battery.json:2: energyMwh: energyMwh must be > 0; give the usable nameplate energy in MWh, e.g. 10');
-    expect(lines.some((l) => l.startsWith('battery.json:3: chargeMw: chargeMw must be > 0;'))).toBe(true);
-    expect(lines.some((l) => l.startsWith('battery.json:5: roundTripEfficiency: roundTripEfficiency must be in (0, 1];'))).toBe(true);
+    expect(lines).toContain('battery.json:2: energyMwh: energyMwh must be in [0.001, 100000]; give the usable nameplate energy in MWh, e.g. 10');
+    expect(lines.some((l) => l.startsWith('battery.json:3: chargeMw: chargeMw must be in [0.001, 100000];'))).toBe(true);
+    expect(lines.some((l) => l.startsWith('battery.json:5: roundTripEfficiency: roundTripEfficiency must be in [0.05, 1];'))).toBe(true);
   });
 
   it('checks the window and the initial state once the fields are valid', () => {

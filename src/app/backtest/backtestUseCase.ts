@@ -8,12 +8,16 @@ import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay, type BacktestInput } 
 import { daysBetween } from '../../market/calendar.js';
 import { LEDGER_COLUMNS, daysCsv, ledgerRowBytes } from '../../io/backtestOutputs.js';
 import { jsonText } from '../../io/planOutputs.js';
+import type { OutputLock } from '../../io/outputLock.js';
+import type { BacktestInputPaths } from '../../io/readBacktestInputs.js';
 import { checkOutputFolder, OutputStage } from '../../io/writeOutputs.js';
 import { backtestReport } from '../../report/backtestReport.js';
 import type { Done } from '../commandResult.js';
+import { runInputFiles } from '../inputFiles.js';
+import { lockedRun } from '../lockedRun.js';
 import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { readRunInputs, runInputPaths } from '../runInputs.js';
+import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { backtestSummary, backtestSummaryText } from './backtestSummary.js';
 
@@ -61,17 +65,24 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
   const s = validSettings(backtestSettingsSchema, settings, 'backtest');
   const paths = runInputPaths(s.inputs, s.model);
   const outputs = s.report ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
-  checkOutputFolder(s.out, outputs, s.force);
+  checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
+  return lockedRun(s.out, 'backtest', (lock) => backtestRun(s, paths, outputs, lock as OutputLock, hooks));
+}
+
+/** The backtest of the checked settings, from reading the inputs to the outputs, under the output folder's lock. */
+function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: BacktestInputPaths, outputs: readonly string[], lock: OutputLock, hooks: RunHooks): Done<BacktestSummary> {
   // With --model the forecasts are made here, day by day from the history (through the forecast cache).
   const maker = forecastMaker(s.model, paths.history, s, hooks);
   const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
   const model = maker?.made();
+  // A span without a covered day is bad input, as for sweep and size: an all-zero table would look like a result.
+  requireCoveredDay(data, paths, s.from, s.to);
   const { market, history, forecast } = data;
   const battery = batteryModel(data.batterySpec);
   const progress = hooks.progress('backtest', daysBetween(s.from, s.to).length);
   const onDay = ({ done }: { done: number }): void => progress.update(done);
   // ledger.csv goes into the output stage day by day (writeOutputs.ts): ten years keep no ledger in memory.
-  const stage = OutputStage.begin(s.out, outputs, s.force, ['report.html']);
+  const stage = OutputStage.begin(s.out, outputs, s.force, ['report.html'], lock);
   try {
     const ledger = stage.open('ledger.csv');
     ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);

@@ -5,18 +5,22 @@ import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
 import { readQuantileForecast, type QuantileForecastFile } from '../../io/readQuantileForecast.js';
 import { readPriceHistory } from '../../io/readPriceHistory.js';
 import { readBatterySpec, readMarketSpec } from '../../io/readSpecs.js';
+import type { OutputLock } from '../../io/outputLock.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { PLAN_POLICIES } from '../../plan/alpha.js';
 import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
+import { isSkippedDay } from '../../market/calendar.js';
 import { planDay, type PlanResult } from '../../plan/planDay.js';
 import { planReport } from '../../report/planReport.js';
 import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
 import { PLAN_DEFAULTS } from '../commandDefaults.js';
 import type { Done } from '../commandResult.js';
 import { forecastLevelProblems } from '../forecastLevels.js';
-import { inputFiles } from '../inputFiles.js';
+import { inputFiles, runInputFiles } from '../inputFiles.js';
+import { lockedRun } from '../lockedRun.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
+import { RUN_LIMITS } from '../settingRules.js';
+import { alphaSchema, boundedNumber, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
 import { planSummary, planSummaryText, planWarnings, planWorth, type PlanWorth } from './planSummary.js';
 
 export { PLAN_DEFAULTS } from '../commandDefaults.js';
@@ -35,7 +39,7 @@ export const planSettingsSchema = z.strictObject({
    * State of charge at the start of the day [MWh]; default socInitialFraction x energyMwh. Outside the
    * battery's window it is accepted with a warning, and the plan first comes back into the window.
    */
-  socStartMwh: z.number().finite().min(0).optional(),
+  socStartMwh: boundedNumber(RUN_LIMITS.socStartMwh).optional(),
   /** Folder for orders.csv, schedule.csv, plan.json (and report.html); none: nothing is written. */
   out: outFolderSchema.optional(),
   /** Overwrite existing outputs. */
@@ -67,9 +71,19 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
     throw new InputError([{ file: 'command line', field: '--report', message: 'report.html needs a folder to go to', fix: 'add --out DIR' }]);
   }
   const outputs = s.report ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS;
-  if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force);
+  if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
+  return lockedRun(s.out, 'plan', (lock) => planDayRun(s, { paths, day, outputs, lock }, hooks));
+}
+
+/** The plan of `day` from the checked settings, written under the output folder's lock (when there is a folder). */
+function planDayRun(
+  s: z.output<typeof planSettingsSchema>,
+  run: { readonly paths: Record<'market' | 'battery' | 'forecast', string> & { readonly history?: string }; readonly day: string; readonly outputs: readonly string[]; readonly lock: OutputLock | undefined },
+  hooks: RunHooks,
+): Done<PlanSummary> {
+  const { paths, day, outputs } = run;
   const { market, battery, forecastFile } = readPlanInputs(paths, (text) => hooks.note(text));
-  const forecast = forecastDay(forecastFile, day);
+  const forecast = forecastDay(forecastFile, day, market.timeZone);
   const socStartMwh = s.socStartMwh ?? battery.socInitialMwh;
   if (socStartMwh > battery.energyMwh) {
     throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is more than the battery's energy ${battery.energyMwh} MWh`, fix: 'give the energy in store now, at most energyMwh' }]);
@@ -99,6 +113,7 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
       ],
       s.force,
       ['report.html'],
+      run.lock,
     );
   }
   // Repaired, not refused (docs/design.md section 6); a note, so that --json output stays clean.
@@ -130,9 +145,12 @@ function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>
   return { market, battery: batteryModel(spec), forecastFile };
 }
 
-function forecastDay(file: QuantileForecastFile, day: string): QuantileDay {
+function forecastDay(file: QuantileForecastFile, day: string, timeZone: string): QuantileDay {
   const found = file.days.get(day);
   if (found !== undefined) return found;
+  if (isSkippedDay(day, timeZone)) {
+    throw new InputError([{ file: 'command line', field: '--day', message: `${day} does not exist in ${timeZone}: the zone's clocks skipped the whole date`, fix: 'choose a delivery day the zone has, e.g. the day before or after' }]);
+  }
   const incomplete = file.incompleteDays.find((d) => d.day === day);
   const covered = [...file.days.keys()];
   throw new InputError([

@@ -4,7 +4,7 @@ import { SWEEP_POLICIES, sweepReferenceRows, type SweepReferenceRow, type SweepR
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
-import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { lockedGridRun, runGridCommand } from '../gridRun.js';
 import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
@@ -59,30 +59,33 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
     { name: 'policy', option: '--policies', values: s.policies },
     { name: 'unaccepted', option: '--unaccepted', values: s.unaccepted },
   ] as const;
-  const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
-  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  // The workers get the inputs as read here, cut to the span and shared: none reads or parses a file again.
-  const span = inputDataSpan(data, from, to);
-  const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(span) };
-  // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
-  let references: SweepReferenceRow[] | undefined;
-  const referenceRows = (): SweepReferenceRow[] =>
-    (references ??= sweepReferenceRows({ market: span.market, battery: batteryModel(span.batterySpec), history: span.history, forecast: span.forecast, from, to }, s.unaccepted));
-  return runGridCommand(
-    {
-      command: 'sweep',
-      run: s,
-      axes,
-      taskModule: new URL('./sweepTask.js', import.meta.url),
-      contextInput,
-      identity: { from, to },
-      paths,
-      model,
-      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext }),
-      moreRows: () => referenceRows(),
-      report: (results, summary) => sweepReport({ results, summary }),
-      summaryText: sweepSummaryText,
-    },
-    hooks,
-  );
+  const use = { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' };
+  return lockedGridRun(s, 'sweep', use, hooks, ({ paths, data, model }, lock) => {
+    const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+    // The workers get the inputs as read here, cut to the span and shared: none reads or parses a file again.
+    const span = inputDataSpan(data, from, to);
+    const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(span) };
+    // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
+    let references: SweepReferenceRow[] | undefined;
+    const referenceRows = (): SweepReferenceRow[] =>
+      (references ??= sweepReferenceRows({ market: span.market, battery: batteryModel(span.batterySpec), history: span.history, forecast: span.forecast, from, to }, s.unaccepted));
+    return runGridCommand(
+      {
+        command: 'sweep',
+        run: s,
+        lock,
+        axes,
+        taskModule: new URL('./sweepTask.js', import.meta.url),
+        contextInput,
+        identity: { from, to },
+        paths,
+        model,
+        summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext }),
+        moreRows: () => referenceRows(),
+        report: (results, summary) => sweepReport({ results, summary }),
+        summaryText: sweepSummaryText,
+      },
+      hooks,
+    );
+  });
 }
