@@ -36,6 +36,11 @@ export const SLOW_OR_SPAWNING = [
   'test/hardening/cliProperties.test.ts',
   'test/forecast/forecaster.test.ts',
   'test/forecast/fitStopwatch.test.ts',
+  // Whole years of odd zones compared with luxon, and the readers' long property runs.
+  'test/io/periodLocator.test.ts',
+  'test/market/steadyDays.test.ts',
+  'test/market/civilDays.test.ts',
+  'test/io/plainRow.test.ts',
 ];
 
 export default mergeConfig(base, defineConfig({ test: { exclude: ['**/node_modules/**', ...SLOW_OR_SPAWNING], isolate: false } }));

@@ -29,12 +29,16 @@ function loadedModules(args: readonly string[]): string[] {
     .map((line) => line.slice('loaded '.length).replace(`${root}/`, ''));
 }
 
-/** Heavy modules: a package other than commander, or a file of dist/ outside the CLI's own light modules. */
+/**
+ * Heavy modules: a package other than commander, or a file of dist/ outside the CLI's own light modules
+ * (the forecasting layer's error classes are light: the levels' words that the help prints use them).
+ */
 function heavy(modules: readonly string[]): string[] {
   return modules.filter(
     (m) =>
       /node_modules\/(zod|luxon|javascript-lp-solver)\//.test(m) ||
-      /^dist\/(report|plan\/warehouse|forecast\/models|io\/read)/.test(m) ||
+      // The forecasting layer's error classes are light: the levels' words that the help prints use them.
+      /^dist\/(report|plan\/warehouse|forecast\/models\/(?!errors\.js$)|io\/read)/.test(m) ||
       /UseCase\.js$/.test(m) ||
       m === 'node:zlib' ||
       m === 'node:worker_threads',
