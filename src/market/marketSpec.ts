@@ -42,9 +42,19 @@ export const imbalanceRuleSchema = ruleSchema('imbalance');
  */
 export const MAX_QUANTITY_STEP_MW = 1000;
 
-/** A positive number of at most `max`, with messages that name the field. */
-const stepField = (what: string, max: number, unit: string) =>
-  finite(what).gt(0, `${what} must be > 0`).max(max, `${what} must be at most ${max} ${unit}; check the unit`);
+/**
+ * Smallest quantity step and minimum quantity accepted [MW]: 1 kW, far below any exchange's step, and
+ * large enough that a day's energy divided by it stays a modest whole number (a step of 1e-320 MW
+ * overflows the rounding arithmetic).
+ */
+export const MIN_QUANTITY_STEP_MW = 0.001;
+
+/** Smallest price tick accepted [currency/MWh]: 0.0001, below any exchange's tick (0.01 is common practice). */
+export const MIN_PRICE_TICK_PER_MWH = 0.0001;
+
+/** A number in [min, max], with messages that name the field. */
+const stepField = (what: string, min: number, max: number, unit: string) =>
+  finite(what).min(min, `${what} must be at least ${min} ${unit}`).max(max, `${what} must be at most ${max} ${unit}; check the unit`);
 
 /** Whether x is a whole multiple of step, up to floating-point dust (1e-9 of a step). */
 export function isMultipleOf(x: number, step: number): boolean {
@@ -80,12 +90,12 @@ export const marketSpecSchema = z
     imbalance: imbalanceRuleSchema.optional(),
     /** The old name of `imbalance`, read as it; not both. */
     [OLD_IMBALANCE_FIELD]: ruleSchema(OLD_IMBALANCE_FIELD).optional(),
-    /** Order quantities are whole multiples of this [MW], > 0. Default: none (quantities as planned). */
-    quantityStepMw: stepField('quantityStepMw', MAX_QUANTITY_STEP_MW, 'MW').optional(),
-    /** Smallest order the exchange takes [MW], > 0; smaller orders are dropped. Default: none. */
-    minimumQuantityMw: stepField('minimumQuantityMw', MAX_QUANTITY_STEP_MW, 'MW').optional(),
-    /** Limit prices are whole multiples of this [currency/MWh], > 0; floor and cap lie on it. Default: none. */
-    priceTickPerMwh: finite('priceTickPerMwh').gt(0, 'priceTickPerMwh must be > 0').optional(),
+    /** Order quantities are whole multiples of this [MW], at least MIN_QUANTITY_STEP_MW. Default: none (quantities as planned). */
+    quantityStepMw: stepField('quantityStepMw', MIN_QUANTITY_STEP_MW, MAX_QUANTITY_STEP_MW, 'MW').optional(),
+    /** Smallest order the exchange takes [MW], at least MIN_QUANTITY_STEP_MW; smaller orders are dropped. Default: none. */
+    minimumQuantityMw: stepField('minimumQuantityMw', MIN_QUANTITY_STEP_MW, MAX_QUANTITY_STEP_MW, 'MW').optional(),
+    /** Limit prices are whole multiples of this [currency/MWh], at least MIN_PRICE_TICK_PER_MWH; floor and cap lie on it. Default: none. */
+    priceTickPerMwh: finite('priceTickPerMwh').min(MIN_PRICE_TICK_PER_MWH, `priceTickPerMwh must be at least ${MIN_PRICE_TICK_PER_MWH}`).optional(),
   })
   .superRefine(
     (spec, ctx) => {

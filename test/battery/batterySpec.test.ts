@@ -106,9 +106,9 @@ describe('market spec', () => {
     const spec = market(`${head} "quantityStepMw": 0.1, "minimumQuantityMw": 0.1, "priceTickPerMwh": 0.01}`);
     expect([spec.quantityStepMw, spec.minimumQuantityMw, spec.priceTickPerMwh]).toEqual([0.1, 0.1, 0.01]);
     expect(problemsOf(() => market(`${head} "quantityStepMw": 0,\n "minimumQuantityMw": 5000,\n "priceTickPerMwh": -1}`))).toEqual([
-      "market.json:2: quantityStepMw: quantityStepMw must be > 0; give the exchange's quantity step in MW, e.g. 0.1, or leave the field out",
+      "market.json:2: quantityStepMw: quantityStepMw must be at least 0.001 MW; give the exchange's quantity step in MW, e.g. 0.1, or leave the field out",
       "market.json:3: minimumQuantityMw: minimumQuantityMw must be at most 1000 MW; check the unit; give the exchange's smallest order in MW, e.g. 0.1, or leave the field out",
-      "market.json:4: priceTickPerMwh: priceTickPerMwh must be > 0; give the exchange's price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out",
+      "market.json:4: priceTickPerMwh: priceTickPerMwh must be at least 0.0001; give the exchange's price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out",
     ]);
     expect(problemsOf(() => market(`${head} "quantityStepMw": "0.1"}`))[0]).toMatch(/^market.json:2: quantityStepMw: quantityStepMw must be a number;/);
     // Rounding a limit to the tick keeps it inside [floor, cap] only when both lie on the tick: -500 is
