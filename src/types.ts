@@ -12,8 +12,9 @@
 
 export type { ImbalanceRule, MarketSpec } from './market/marketSpec.js';
 export type { DeliveryPeriod } from './market/deliveryPeriod.js';
-export type { BatteryModel, BatterySpec } from './battery/batterySpec.js';
-import type { BatteryModel } from './battery/batterySpec.js';
+export type { BatterySpec } from './battery/batterySpec.js';
+export type { BatteryModel } from './battery/batteryModel.js';
+import type { BatteryModel } from './battery/batteryModel.js';
 import type { DeliveryPeriod } from './market/deliveryPeriod.js';
 
 /** One delivery day's quantile forecast: prices[t][k] at levels[k], non-decreasing in k. */
@@ -88,7 +89,7 @@ export interface Order {
 }
 
 /** Planning policy names (docs/design.md section 4). */
-export type PlanPolicy = 'quantile' | 'median' | 'point';
+export type PlanPolicy = 'quantile' | 'median' | 'point' | 'price-taking';
 
 /**
  * One delivery day of price history: realised clearing prices, the imbalance (balancing) price where

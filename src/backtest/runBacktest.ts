@@ -1,11 +1,13 @@
 import type { BatteryModel, DeliveryPeriod, HistoryDay, MarketSpec, Order, PriceHistory, QuantileDay } from '../types.js';
 import { daysBetween } from '../market/calendar.js';
-import type { SolveDayOptions } from '../plan/solveDay.js';
 import { chooseImbalanceSource, dayImbalancePrices, NoImbalancePriceError, type ImbalancePrices, type ImbalanceSource } from '../settle/imbalancePrices.js';
 import { settleDay, type SettledPeriod, type UnacceptedRule } from '../settle/settleDay.js';
 import type { SettlementTotals } from '../settle/settlementTotals.js';
-import { BACKTEST_POLICIES, type BacktestPolicy } from './backtestPolicy.js';
+import type { BacktestPolicy } from './backtestPolicy.js';
+import { BACKTEST_DEFAULTS, type BacktestOptions } from './backtestOptions.js';
 import { planPolicyDay, type PlanFailure } from './planPolicyDay.js';
+
+export { BACKTEST_DEFAULTS, type BacktestOptions } from './backtestOptions.js';
 
 /** Quantile forecasts by day, and the days the forecast file left out (a QuantileForecastFile fits). */
 export interface ForecastDays {
@@ -22,41 +24,6 @@ export interface BacktestInput {
   readonly from: string;
   readonly to: string;
 }
-
-/** Options of runBacktest, merged over BACKTEST_DEFAULTS. */
-export interface BacktestOptions {
-  /** Central interval [q(alpha), q(1 - alpha)] of the quantile and median policies, in (0, 0.5). Default 0.1. */
-  readonly alpha: number;
-  /** What the battery does about unaccepted orders. Default `follow-plan`. */
-  readonly unaccepted: UnacceptedRule;
-  /** Policies to run side by side, in this order. Default all five. */
-  readonly policies: readonly BacktestPolicy[];
-  /** Keep every period's orders and settlement (for ledger.csv); a sweep turns it off. Default true. */
-  readonly keepLedger: boolean;
-  /**
-   * Passed to every solveDay call, e.g. another LP solver. This is where a faster exact day solver
-   * plugs in once solveDay (or planDay) accepts it; the backtest itself does not care which solves.
-   */
-  readonly solveOptions: Partial<SolveDayOptions>;
-  /** Called after each day of [from, to], covered or skipped (progress display). Default none. */
-  readonly onDay: ((progress: { readonly day: string; readonly done: number; readonly total: number }) => void) | null;
-  /**
-   * Called with each covered day, its ledger included, as soon as it is settled: a long backtest can
-   * write ledger.csv day by day and, with keepLedger false, keep no ledger in memory (ten years of
-   * quarter-hours and five policies are 1.75 million settled periods). Default none.
-   */
-  readonly onLedgerDay: ((day: BacktestDay) => void) | null;
-}
-
-export const BACKTEST_DEFAULTS: BacktestOptions = Object.freeze({
-  alpha: 0.1,
-  unaccepted: 'follow-plan',
-  policies: BACKTEST_POLICIES,
-  keepLedger: true,
-  solveOptions: Object.freeze({}),
-  onDay: null,
-  onLedgerDay: null,
-});
 
 /** One policy on one day. */
 export interface PolicyDay {
@@ -163,7 +130,9 @@ function runDay(
   const runs = settings.policies.map((policy): PolicyDay => {
     const socStartMwh = soc.get(policy) as number;
     const plan = planPolicyDay({ policy, forecast, realised, market, battery, alpha: settings.alpha, socStartMwh, solveOptions: settings.solveOptions });
+    const keepLedger = settings.keepLedger || settings.onLedgerDay !== null;
     const settled = settleDay({
+      keepPeriods: keepLedger,
       periodHours: market.periodMinutes / 60,
       battery,
       socStartMwh,
@@ -181,7 +150,7 @@ function runDay(
       socStartMwh,
       socEndMwh: settled.socEndMwh,
       totals: settled.totals,
-      ledger: settings.keepLedger || settings.onLedgerDay !== null ? { orders: plan.orders, periods: settled.periods } : null,
+      ledger: keepLedger ? { orders: plan.orders, periods: settled.periods } : null,
     };
   });
   return { day: realised.day, periods: realised.periods, clearingPricePerMwh: realised.pricePerMwh, imbalance, runs };

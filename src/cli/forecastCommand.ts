@@ -1,8 +1,7 @@
 import { Command, InvalidArgumentError, Option } from 'commander';
 import { shownText } from '../errors/shownText.js';
-import { FORECAST_DEFAULTS, forecastUseCase } from '../app/forecast/forecastUseCase.js';
-import { DEFAULT_LEVELS_TEXT } from '../app/modelForecast.js';
-import { FORECAST_METHODS, FORECAST_OPTION_DEFAULTS, MAX_PATHS, type ForecastMethod } from '../app/vocabulary.js';
+import { DEFAULT_LEVELS_TEXT, FORECAST_DEFAULTS } from '../app/commandDefaults.js';
+import { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, MAX_PATHS, type ForecastMethod } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addInputOptions, forceOption, inputSources, jsonOption, levelsArg, oneOf, outOption, quietOption, requireSpanAndOut, spanOptions, type InputFlags } from './options.js';
@@ -43,8 +42,8 @@ export function forecastCommand(io: CliIo): Command {
     .description('quantile forecasts of day-ahead prices from price history, day by day, each from the days before it only')
     .addOption(from)
     .addOption(to)
-    .option('--method <name>', `${FORECAST_METHODS.join(' | ')}; auto chooses each day among ${[...new Set(FORECAST_OPTION_DEFAULTS.autoCandidates.map((c) => c.method))].join(', ')} by their pinball loss on the ${FORECAST_OPTION_DEFAULTS.autoValidationDays} days before (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
-    .addOption(new Option('--levels <list>', 'quantile levels in (0, 1): a range start:end:step or a list 0.1,0.5,0.9').argParser(levelsArg).default(levelsArg(DEFAULT_LEVELS_TEXT), DEFAULT_LEVELS_TEXT))
+    .option('--method <name>', `${FORECAST_METHODS.join(' | ')}; auto chooses each day among ${[...new Set(AUTO_CANDIDATES.map((c) => c.method))].join(', ')} by their pinball loss on the ${AUTO_VALIDATION_DAYS} days before (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
+    .addOption(new Option('--levels <list>', `quantile levels in ${LEVEL_RANGE_TEXT}: a range start:end:step or a list 0.1,0.5,0.9`).argParser(levelsArg).default(levelsArg(DEFAULT_LEVELS_TEXT), DEFAULT_LEVELS_TEXT))
     .option('--paths <S>', 'also write S whole-day scenario paths per day to paths.csv', parsePathCountArg, FORECAST_DEFAULTS.paths)
     .option('--path-seed <N>', 'seed of the paths: the same seed and inputs give the same paths', parseSeedArg, FORECAST_DEFAULTS.pathSeed)
     .addOption(outOption('folder for quantiles.csv, forecast.json and (with --paths) paths.csv, or the quantile file itself, NAME.json and NAME.paths.csv going beside it (required)', 'folder-or-csv-file'))
@@ -55,26 +54,34 @@ export function forecastCommand(io: CliIo): Command {
   command.addHelpText(
     'after',
     `
-Outputs, in the folder --out (or, for --out DIR/NAME.csv, NAME.csv, NAME.json and NAME.paths.csv in DIR):
-  quantiles.csv  wide quantile forecast period_start,q0.05,...,q0.95 (the layout --forecast reads);
-                 days that could not be forecast are left out and listed in forecast.json
-  paths.csv      with --paths S: period_start,path,price, per day S whole-day price curves: in
-                 every period the S values are the day's own quantiles at (j - 1/2)/S, ordered
-                 across the periods like the whole-day errors of S past days (Schaake shuffle),
-                 so paths keep the dependence between periods; seeded by --path-seed
-  forecast.json  method, levels, options, days forecast and skipped with the reason, and with
-                 auto the method chosen each day; the same inputs give byte-identical files
-                 (the time spent is printed, not written)
+Outputs, in the folder --out (or, for --out DIR/NAME.csv, NAME.csv, NAME.json
+and NAME.paths.csv in DIR):
+  quantiles.csv  wide quantile forecast period_start,q0.05,...,q0.95 (the
+                 layout --forecast reads); days that could not be forecast are
+                 left out and listed in forecast.json
+  paths.csv      with --paths S: period_start,path,price, per day S whole-day
+                 price curves: in every period the S values are the day's own
+                 quantiles at (j - 1/2)/S, ordered across the periods like the
+                 whole-day errors of S past days (Schaake shuffle), so paths
+                 keep the dependence between periods; seeded by --path-seed
+  forecast.json  method, levels, options, days forecast and skipped with the
+                 reason, and with auto the method chosen each day; the same
+                 inputs give byte-identical files (the time spent is printed,
+                 not written)
 
 Examples:
-  quantbid forecast --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 --out runs/fc
-  quantbid forecast --market market.json --history history.csv --from 2026-06-01 --to 2026-06-30 \\
-                    --method qra --levels 0.1,0.5,0.9 --paths 20 --out runs/june
-  quantbid score --scenario scenarios/halvorn/scenario.json --forecast runs/fc/quantiles.csv --out runs/fc-score`,
+  quantbid forecast --scenario scenarios/halvorn/scenario.json \\
+                    --from 2026-01-01 --to 2026-12-31 --out runs/fc
+  quantbid forecast --market market.json --history history.csv \\
+                    --from 2026-06-01 --to 2026-06-30 --method qra \\
+                    --levels 0.1,0.5,0.9 --paths 20 --out runs/june
+  quantbid score --scenario scenarios/halvorn/scenario.json \\
+                 --forecast runs/fc/quantiles.csv --out runs/fc-score`,
   );
-  command.action((flags: ForecastFlags) => {
+  command.action(async (flags: ForecastFlags) => {
     const span = requireSpanAndOut(flags, { days: 'delivery day to forecast', outFolder: 'quantiles.csv and forecast.json' });
     const settings = { inputs: inputSources(flags), ...span, method: flags.method, levels: [...flags.levels], scenarioPaths: flags.paths, pathSeed: flags.pathSeed, force: flags.force === true };
+    const { forecastUseCase } = await import('../app/forecast/forecastUseCase.js');
     printResult(io, forecastUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
   });
   return command;

@@ -1,9 +1,10 @@
 import { Command } from 'commander';
-import { PLAN_DEFAULTS, planUseCase } from '../app/plan/planUseCase.js';
+import { PLAN_DEFAULTS } from '../app/commandDefaults.js';
 import { PLAN_POLICIES, type PlanPolicy } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
-import { addInputOptions, alphaOption, dayArg, forceOption, inputSources, jsonOption, nonNegativeArg, oneOf, outOption, reportOption, type InputFlags } from './options.js';
+import { RUN_LIMITS } from '../app/settingRules.js';
+import { addInputOptions, alphaOption, dayArg, forceOption, inputSources, jsonOption, oneOf, outOption, rangeArg, reportOption, type InputFlags } from './options.js';
 import { printResult } from './printResult.js';
 
 export interface PlanFlags extends InputFlags {
@@ -21,24 +22,33 @@ export function planCommand(io: CliIo): Command {
   const command = new Command('plan')
     .description('plan one delivery day: orders (buy/sell, quantity, limit price) and a schedule from a quantile forecast')
     .option('--day <YYYY-MM-DD>', 'delivery day to plan (default: the scenario\'s demoDay)', dayArg)
-    .addOption(alphaOption('central interval [q(alpha), q(1-alpha)]: buys limited at q(1-alpha), sells at q(alpha)', PLAN_DEFAULTS.alpha))
-    .option('--policy <name>', PLAN_POLICIES.join(' | '), oneOf<PlanPolicy>(PLAN_POLICIES), PLAN_DEFAULTS.policy)
-    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh)', nonNegativeArg)
+    .addOption(alphaOption('tail level: buys limited at q(1-alpha), sells at q(alpha); the interval [q(alpha), q(1-alpha)] covers 1 - 2 alpha', PLAN_DEFAULTS.alpha))
+    .option('--policy <name>', `${PLAN_POLICIES.join(' | ')} (price-taking: the median schedule with limits at the price cap and floor, the baseline every plan is compared with)`, oneOf<PlanPolicy>(PLAN_POLICIES), PLAN_DEFAULTS.policy)
+    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh); outside the window: a warning, and the plan comes back into it at full power', rangeArg(RUN_LIMITS.socStartMwh, '5'))
     .addOption(outOption('folder for orders.csv, schedule.csv and plan.json'))
     .addOption(reportOption('also write report.html into --out: forecast fan with the limit prices, schedule charts, orders table'))
     .addOption(forceOption())
     .addOption(jsonOption());
-  addInputOptions(command, ['market', 'battery', 'forecast']);
+  addInputOptions(command, ['market', 'battery', 'forecast', 'history']);
   command.addHelpText(
     'after',
     `
+The plan's value is given three ways: at the prices it was scheduled on, if
+every order fills at its limit, and expected under the forecast (acceptance
+read from the quantiles; unaccepted orders closed at the market's imbalance
+rule, or else at the --history's mean imbalance-minus-clearing spread); beside
+it, the price-taking plan of the same day.
+
 Examples:
-  quantbid plan --scenario scenarios/halvorn/scenario.json --day 2027-01-01 --out plans/2027-01-01
-  quantbid plan --market market.json --battery battery.json --forecast quantiles.csv \\
-                --day 2027-03-28 --alpha 0.1 --out plans/2027-03-28
-  quantbid plan --scenario scenarios/halvorn/scenario.json --policy median --alpha 0.2 --json`,
+  quantbid plan --scenario scenarios/halvorn/scenario.json --day 2027-01-01 \\
+                --out plans/2027-01-01
+  quantbid plan --market market.json --battery battery.json \\
+                --forecast quantiles.csv --day 2027-03-28 --alpha 0.1 \\
+                --out plans/2027-03-28
+  quantbid plan --scenario scenarios/halvorn/scenario.json --policy median \\
+                --alpha 0.2 --json`,
   );
-  command.action((flags: PlanFlags) => {
+  command.action(async (flags: PlanFlags) => {
     const settings = {
       inputs: inputSources(flags),
       ...(flags.day === undefined ? {} : { day: flags.day }),
@@ -49,6 +59,7 @@ Examples:
       force: flags.force === true,
       report: flags.report === true,
     };
+    const { planUseCase } = await import('../app/plan/planUseCase.js');
     printResult(io, planUseCase(settings, cliHooks(io, false)), flags.json === true);
   });
   return command;

@@ -1,7 +1,6 @@
 import { Command } from 'commander';
 import { InputError, type InputProblem } from '../errors/inputError.js';
-import { scoreUseCase } from '../app/score/scoreUseCase.js';
-import { spanProblem } from '../app/settingSchemas.js';
+import { spanProblem } from '../app/settingRules.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addInputOptions, dayArg, forceOption, inputSources, jsonOption, outOption, pathArg, reportOption, type InputFlags } from './options.js';
@@ -33,26 +32,37 @@ export function scoreCommand(io: CliIo): Command {
   command.addHelpText(
     'after',
     `
-Only days present in both the forecast and the history are scored; the other forecast days are
-listed in score.json with the reason (a forecast with no day in the history is an error, exit
-code 2). score.json holds crps (the mean pinball loss over the levels:
-the factor 2 is not included, so it approximates CRPS/2), pinball.<level>, coverage.<interval>
-(e.g. coverage["0.8"] for [q0.1, q0.9]), calibration.<level> (share of prices below the quantile),
-Kupiec and Christoffersen tests of each central interval, all overall and per period of the day
-(byPeriod), and with --against the Diebold-Mariano test (HLN-corrected, h = 1, on the daily crps).
-With --paths, score.json also holds paths.energyScore and paths.variogramScore (order 0.5), the
-means over the days the history has, beside the same scores with each period's values shuffled
-across the paths (the marginals without the dependence between periods).
+Only days present in both the forecast and the history are scored; the other
+forecast days are listed in score.json with the reason (a forecast with no day
+in the history is an error, exit code 2). score.json holds crps (the mean
+pinball loss over the levels and every scored period, each period counting
+once: the factor 2 is not included, so it approximates CRPS/2),
+pinball.<level>, coverage.<interval> (e.g. coverage["0.8"] for [q0.1, q0.9]),
+calibration.<level> (share of prices below the quantile), Kupiec and
+Christoffersen tests of each central interval, all overall and per period of
+the day (byPeriod), and with --against the Diebold-Mariano test (HLN-corrected,
+h = 1, on the days both forecast; each day's loss weighs its periods, so the
+mean of the daily losses is the crps of those days). With --paths, score.json
+also holds paths.energyScore and paths.variogramScore (order 0.5), the means
+over the days the history has, beside the same scores with each period's values
+shuffled across the paths (the marginals without the dependence between
+periods).
 
 Examples:
-  quantbid score --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 --out runs/vendor-score --report
-  quantbid score --scenario scenarios/halvorn/scenario.json --forecast runs/fc/quantiles.csv \\
-                 --against scenarios/halvorn/quantiles.csv.gz --out runs/fc-score
-  quantbid score --scenario scenarios/halvorn/scenario.json --forecast runs/fc/quantiles.csv \\
+  quantbid score --scenario scenarios/halvorn/scenario.json \\
+                 --from 2026-01-01 --to 2026-12-31 --out runs/vendor-score \\
+                 --report
+  quantbid score --scenario scenarios/halvorn/scenario.json \\
+                 --forecast runs/fc/quantiles.csv \\
+                 --against scenarios/halvorn/quantiles.csv.gz \\
+                 --out runs/fc-score
+  quantbid score --scenario scenarios/halvorn/scenario.json \\
+                 --forecast runs/fc/quantiles.csv \\
                  --paths runs/fc/paths.csv --out runs/fc-score
-  quantbid score --market market.json --history history.csv --forecast quantiles.csv --out runs/score --json`,
+  quantbid score --market market.json --history history.csv \\
+                 --forecast quantiles.csv --out runs/score --json`,
   );
-  command.action((flags: ScoreFlags) => {
+  command.action(async (flags: ScoreFlags) => {
     const out = requiredOut(flags);
     const settings = {
       inputs: inputSources(flags),
@@ -64,6 +74,7 @@ Examples:
       force: flags.force === true,
       report: flags.report === true,
     };
+    const { scoreUseCase } = await import('../app/score/scoreUseCase.js');
     printResult(io, scoreUseCase(settings, cliHooks(io, false)), flags.json === true);
   });
   return command;

@@ -42,21 +42,9 @@ import { daySeed } from './paths/seededStream.js';
 import { crpsFromQuantiles } from './scoring/crps.js';
 import { residualLoadColumns } from './models/residualLoad.js';
 import { conformalQuantiles } from './quantiles/splitConformal.js';
+import { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_CALIBRATION_DAYS, DEFAULT_PATH_SEED, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
-/** Most whole-day paths per day [-]. */
-export const MAX_PATHS = 10_000;
-
-/** Method names, for the CLI's `--method`. */
-export const FORECAST_METHODS = ['auto', 'naive-hs', 'arx-hs', 'lasso-hs', 'arx-conformal', 'qra', 'driver-hs', 'driver-fhs', 'driver-qr'] as const;
-export type ForecastMethod = (typeof FORECAST_METHODS)[number];
-/** The methods `auto` chooses among (every method but itself). */
-export type SingleMethod = Exclude<ForecastMethod, 'auto'>;
-
-/** One candidate of `auto`: a method and its calibration window [calendar days]. */
-export interface AutoCandidate {
-  readonly method: SingleMethod;
-  readonly calibrationDays: number;
-}
+export { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_METHOD, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
 /** What `auto` chose for a day, and on what evidence. */
 export interface AutoChoice extends AutoCandidate {
@@ -65,14 +53,6 @@ export interface AutoChoice extends AutoCandidate {
   /** Mean pinball loss of the chosen candidate over the validation days [currency/MWh], or null without any. */
   readonly validationLoss: number | null;
 }
-
-/**
- * The method `quantbid forecast` uses when none is named: `auto`, which chooses each day among
- * options.autoCandidates by their pinball loss on the days just before (docs/forecast-quality.md:
- * on the known-distribution bench markets and the demo, bench/forecastKnownMarkets.js and
- * bench/forecastQuality.js).
- */
-export const DEFAULT_METHOD: ForecastMethod = 'auto';
 
 /** A calibration day: its point forecast (made from the days before it), realised prices and drivers. */
 interface CalibrationDay {
@@ -170,23 +150,18 @@ export function forecastSettings(options: Partial<ForecastOptions>): Partial<Omi
 export const DEFAULTS: ForecastOptions = Object.freeze({
   windowsDays: Object.freeze([56, 91, 182, 364]),
   minTrainingDays: 28,
-  calibrationDays: 364,
+  calibrationDays: DEFAULT_CALIBRATION_DAYS,
   minCalibrationDays: 28,
   driverWindowsDays: Object.freeze([182, 364]),
   driverKnots: 3,
   driverScale: 'asinh',
   spreadPool: 'slot',
-  autoCandidates: Object.freeze([
-    Object.freeze({ method: 'driver-hs', calibrationDays: 364 }),
-    Object.freeze({ method: 'arx-hs', calibrationDays: 364 }),
-    Object.freeze({ method: 'driver-hs', calibrationDays: 91 }),
-    Object.freeze({ method: 'driver-fhs', calibrationDays: 364 }),
-  ] as const),
-  autoValidationDays: 28,
+  autoCandidates: AUTO_CANDIDATES,
+  autoValidationDays: AUTO_VALIDATION_DAYS,
   naiveLagDays: 7,
   qraModel: 'arx',
   scenarioPaths: 0,
-  pathSeed: 1,
+  pathSeed: DEFAULT_PATH_SEED,
   lasso: LASSO_DEFAULTS,
   errorScale: 'model',
 });

@@ -1,3 +1,4 @@
+import { smallPValueText } from '../stats/smallPValue.js';
 import { DECIMAL_SCALES, EXACT_SCALED_LIMIT, formatByToFixed, roundedUnits, wholeUnits } from './decimalUnits.js';
 
 /**
@@ -6,10 +7,12 @@ import { DECIMAL_SCALES, EXACT_SCALED_LIMIT, formatByToFixed, roundedUnits, whol
  *
  * The text is exactly `value.toFixed(digits)` with trailing zeros (and a bare point) dropped and "-0"
  * written "0"; ordinary magnitudes take an exact arithmetic route (decimalUnits.ts) instead of
- * building and trimming a string per value.
+ * building and trimming a string per value. NaN and infinities throw a RangeError (a fault).
  */
 export function formatNumber(value: number, digits = 6): string {
   if (value === 0) return '0';
+  // A non-finite value never reaches a user: it is a fault (every input is range-checked before arithmetic).
+  if (!Number.isFinite(value)) throw new RangeError(`formatNumber: ${value} is not a finite number`);
   const scale = DECIMAL_SCALES[digits];
   if (scale === undefined) return formatByToFixed(value, digits);
   const magnitude = value < 0 ? -value : value;
@@ -41,4 +44,12 @@ export function csvLine(cells: readonly (string | number)[]): string {
     line = k === 0 ? text : `${line},${text}`;
   }
   return line;
+}
+
+/**
+ * A p-value for reading: 4 decimals from 1e-4 up (`0.0013`, `0.973`), below it two significant digits
+ * in scientific notation (`3.2e-7`), never `0`; a p-value that underflowed to 0 is `<1e-300`.
+ */
+export function formatPValue(p: number): string {
+  return smallPValueText(p) ?? formatNumber(p, 4);
 }

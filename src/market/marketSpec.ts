@@ -1,7 +1,22 @@
 import { z } from 'zod';
+import { hasInvisible } from '../errors/shownText.js';
 import { isValidTimeZone } from './calendar.js';
 import { unevenClockShift } from './clockShifts.js';
 
+/**
+ * Largest size of a price a market spec or a price history may give [currency/MWh]: 1,000,000 is above
+ * every day-ahead market's cap in its own currency (4000 EUR, 17,500 AUD, 251,000 JPY when converted
+ * from JEPX's 251 JPY/kWh; common practice), and keeps sums over decades of periods far from overflow.
+ */
+export const PRICE_LIMIT_PER_MWH = 1_000_000;
+
+/** A number of a spec in [lo, hi]; Infinity (JSON's 1e999) and NaN are out of that range too. */
+const bounded = (what: string, lo: number, hi: number) =>
+  z
+    .number({ error: (issue) => (issue.input === undefined ? `missing ${what}` : typeof issue.input === 'number' ? `${what} must be in [${lo}, ${hi}]` : `${what} must be a number`) })
+    .min(lo, `${what} must be in [${lo}, ${hi}]`)
+    .max(hi, `${what} must be in [${lo}, ${hi}]`);
+/** A finite number of a spec (1e999 parses to Infinity and is refused). */
 const finite = (what: string) =>
   z.number({ error: (issue) => (issue.input === undefined ? `missing ${what}` : `${what} must be a number`) }).finite();
 const text = (what: string) =>
@@ -16,10 +31,36 @@ const ruleSchema = (key: string) =>
   z.strictObject({
     kind: z.literal('clearing-plus-penalty', { error: `${key}.kind must be "clearing-plus-penalty"` }),
     /** Penalty added against the operator [currency/MWh], >= 0. */
-    penaltyPerMwh: finite('penaltyPerMwh').min(0, 'penaltyPerMwh must be >= 0'),
+    penaltyPerMwh: bounded('penaltyPerMwh', 0, PRICE_LIMIT_PER_MWH),
   });
 
 export const imbalanceRuleSchema = ruleSchema('imbalance');
+
+/**
+ * Largest quantity step and minimum quantity accepted [MW]: exchanges trade in steps of 0.1 MW or 1 MW,
+ * so a step above this is a unit mistake (kW for MW), not a market.
+ */
+export const MAX_QUANTITY_STEP_MW = 1000;
+
+/**
+ * Smallest quantity step and minimum quantity accepted [MW]: 1 kW, far below any exchange's step, and
+ * large enough that a day's energy divided by it stays a modest whole number (a step of 1e-320 MW
+ * overflows the rounding arithmetic).
+ */
+export const MIN_QUANTITY_STEP_MW = 0.001;
+
+/** Smallest price tick accepted [currency/MWh]: 0.0001, below any exchange's tick (0.01 is common practice). */
+export const MIN_PRICE_TICK_PER_MWH = 0.0001;
+
+/** A number in [min, max], with messages that name the field. */
+const stepField = (what: string, min: number, max: number, unit: string) =>
+  finite(what).min(min, `${what} must be at least ${min} ${unit}`).max(max, `${what} must be at most ${max} ${unit}; check the unit`);
+
+/** Whether x is a whole multiple of step, up to floating-point dust (1e-9 of a step). */
+export function isMultipleOf(x: number, step: number): boolean {
+  const k = x / step;
+  return Math.abs(k - Math.round(k)) <= 1e-9 * Math.max(1, Math.abs(k));
+}
 
 /** The old name of the field `imbalance`, still read (docs/design.md section 2). */
 export const OLD_IMBALANCE_FIELD = 'fallback';
@@ -34,11 +75,14 @@ export const marketSpecSchema = z
       error: (issue) => (issue.input === undefined ? 'missing periodMinutes' : 'periodMinutes must be 15, 30 or 60'),
     }),
     /** Lowest price the auction can clear at [currency/MWh]. Required. */
-    priceFloor: finite('priceFloor'),
+    priceFloor: bounded('priceFloor', -PRICE_LIMIT_PER_MWH, PRICE_LIMIT_PER_MWH),
     /** Highest price the auction can clear at [currency/MWh]. Required. */
-    priceCap: finite('priceCap'),
+    priceCap: bounded('priceCap', -PRICE_LIMIT_PER_MWH, PRICE_LIMIT_PER_MWH),
     /** Currency label printed beside prices, e.g. `EUR` or an invented one. Required. */
-    currency: text('currency').min(1, 'currency must not be empty'),
+    currency: text('currency')
+      .min(1, 'currency must not be empty')
+      .max(16, 'currency must be a short label of at most 16 characters')
+      .refine((label) => !hasInvisible(label) && label.trim() === label, 'currency must be printable text without control characters or blanks around it'),
     /** Gate closure, local time of day on the day before delivery, `HH:MM`. Required. */
     gateClosure: text('gateClosure')
       .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'gateClosure must be a local time HH:MM'),
@@ -46,17 +90,33 @@ export const marketSpecSchema = z
     imbalance: imbalanceRuleSchema.optional(),
     /** The old name of `imbalance`, read as it; not both. */
     [OLD_IMBALANCE_FIELD]: ruleSchema(OLD_IMBALANCE_FIELD).optional(),
+    /** Order quantities are whole multiples of this [MW], at least MIN_QUANTITY_STEP_MW. Default: none (quantities as planned). */
+    quantityStepMw: stepField('quantityStepMw', MIN_QUANTITY_STEP_MW, MAX_QUANTITY_STEP_MW, 'MW').optional(),
+    /** Smallest order the exchange takes [MW], at least MIN_QUANTITY_STEP_MW; smaller orders are dropped. Default: none. */
+    minimumQuantityMw: stepField('minimumQuantityMw', MIN_QUANTITY_STEP_MW, MAX_QUANTITY_STEP_MW, 'MW').optional(),
+    /** Limit prices are whole multiples of this [currency/MWh], at least MIN_PRICE_TICK_PER_MWH; floor and cap lie on it. Default: none. */
+    priceTickPerMwh: finite('priceTickPerMwh').min(MIN_PRICE_TICK_PER_MWH, `priceTickPerMwh must be at least ${MIN_PRICE_TICK_PER_MWH}`).optional(),
   })
   .superRefine(
     (spec, ctx) => {
       // Runs even when other fields are wrong, so that every problem is listed at once; each check
       // looks only at fields that are themselves valid.
-      const { priceFloor, priceCap, timeZone, periodMinutes, imbalance, fallback } = spec as Partial<Record<keyof typeof spec, unknown>>;
+      const { priceFloor, priceCap, timeZone, periodMinutes, imbalance, fallback, priceTickPerMwh } = spec as Partial<Record<keyof typeof spec, unknown>>;
       if (imbalance !== undefined && fallback !== undefined) {
         ctx.addIssue({ code: 'custom', path: [OLD_IMBALANCE_FIELD], message: `both "imbalance" and its old name "${OLD_IMBALANCE_FIELD}" are given` });
       }
       if (isFinite(priceFloor) && isFinite(priceCap) && priceFloor >= priceCap) {
         ctx.addIssue({ code: 'custom', path: ['priceCap'], message: `priceCap (${priceCap}) must be above priceFloor (${priceFloor})` });
+      }
+      // Rounding limits to the tick keeps them inside [floor, cap] only when floor and cap lie on the tick.
+      if (isFinite(priceTickPerMwh) && priceTickPerMwh > 0 && isFinite(priceFloor) && isFinite(priceCap) && priceFloor < priceCap) {
+        if (priceTickPerMwh > priceCap - priceFloor) {
+          ctx.addIssue({ code: 'custom', path: ['priceTickPerMwh'], message: `priceTickPerMwh (${priceTickPerMwh}) is wider than the whole price range [${priceFloor}, ${priceCap}]` });
+        } else {
+          for (const [name, value] of [['priceFloor', priceFloor], ['priceCap', priceCap]] as const) {
+            if (!isMultipleOf(value, priceTickPerMwh)) ctx.addIssue({ code: 'custom', path: ['priceTickPerMwh'], message: `${name} (${value}) is not a whole number of ticks of ${priceTickPerMwh}` });
+          }
+        }
       }
       if (typeof timeZone === 'string' && isValidTimeZone(timeZone) && (periodMinutes === 15 || periodMinutes === 30 || periodMinutes === 60)) {
         const shift = unevenClockShift(timeZone, periodMinutes);
@@ -79,13 +139,16 @@ export const MARKET_FIELD_FIXES: Readonly<Record<string, string>> = {
   periodMinutes: 'set the market time unit: 15, 30 or 60 (a period that divides every clock shift of the zone)',
   priceFloor: 'give the auction\'s lowest clearing price in currency/MWh, e.g. -500',
   priceCap: 'give the auction\'s highest clearing price in currency/MWh, above priceFloor, e.g. 4000',
-  currency: 'give a currency label such as "EUR"',
+  currency: 'give a short printable currency label such as "EUR"',
   gateClosure: 'give the local time on the day before delivery, e.g. "12:00"',
   'imbalance.kind': 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
   'imbalance.penaltyPerMwh': 'give a penalty >= 0 in currency/MWh',
   [OLD_IMBALANCE_FIELD]: 'keep only "imbalance", the same rule under its new name',
   [`${OLD_IMBALANCE_FIELD}.kind`]: 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
   [`${OLD_IMBALANCE_FIELD}.penaltyPerMwh`]: 'give a penalty >= 0 in currency/MWh',
+  quantityStepMw: 'give the exchange\'s quantity step in MW, e.g. 0.1, or leave the field out',
+  minimumQuantityMw: 'give the exchange\'s smallest order in MW, e.g. 0.1, or leave the field out',
+  priceTickPerMwh: 'give the exchange\'s price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out',
 };
 
 /** Market spec, as read from `market.json`: the type of marketSpecSchema's output. */

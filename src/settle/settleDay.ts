@@ -3,14 +3,9 @@ import { isAccepted } from './acceptance.js';
 import type { ImbalancePrices } from './imbalancePrices.js';
 import type { SettlementTotals } from './settlementTotals.js';
 
-/**
- * What the battery does about orders the auction did not accept (docs/design.md section 5):
- * - `follow-plan`: it runs its schedule anyway and closes every unaccepted order at the imbalance price;
- * - `follow-accepted`: it moves only with accepted orders; unaccepted orders have no effect.
- */
-export type UnacceptedRule = 'follow-plan' | 'follow-accepted';
+import type { UnacceptedRule } from './unacceptedRule.js';
 
-export const UNACCEPTED_RULES: readonly UnacceptedRule[] = Object.freeze(['follow-plan', 'follow-accepted']);
+export { UNACCEPTED_RULES, type UnacceptedRule } from './unacceptedRule.js';
 
 /** One period's order as settlement reads it (an Order has these fields and more). */
 export type PeriodOrder = Pick<Order, 'side' | 'quantityMw' | 'limitPrice'>;
@@ -27,13 +22,16 @@ export interface SettleDayInput {
   readonly clearingPricePerMwh: readonly number[];
   readonly imbalance: ImbalancePrices;
   readonly unaccepted: UnacceptedRule;
+  /** Whether to return every period's settlement (a ledger); without it `periods` is empty and only the totals are made. Default true. */
+  readonly keepPeriods?: boolean;
 }
 
 /**
  * The settlement of one period: the energies and cash of SettlementTotals (energies at the grid [MWh],
  * cash + received, - paid [currency]) and what happened to the period's order.
  */
-export interface SettledPeriod extends Omit<SettlementTotals, 'buys' | 'buysAccepted' | 'sells' | 'sellsAccepted'> {
+export interface SettledPeriod
+  extends Omit<SettlementTotals, 'buys' | 'buysAccepted' | 'sells' | 'sellsAccepted' | 'imbalanceCostVsClearing' | 'deliberateImbalanceCash' | 'deliberateImbalancePeriods'> {
   /** Whether the period's order was accepted; null when the period has no order. */
   readonly accepted: boolean | null;
   /** State of charge at the end of the period [MWh]. */
@@ -68,13 +66,16 @@ export const SETTLE_TOLERANCE = 1e-6;
  *    min(dischargeMw dt, (s - socMin) eta_d) discharged. Energy an accepted buy cannot store is sold back
  *    at the imbalance sell price; the part of a sell the store cannot cover is bought back at the imbalance
  *    buy price. A plan made from the same starting state never meets these limits, so under
- *    `follow-plan` step 4 only absorbs rounding;
+ *    `follow-plan` step 4 only absorbs rounding; under `follow-accepted` it settles accepted orders the
+ *    battery cannot honour: that energy is the deliberate imbalance, counted on its own;
  * 5. s_t = s_{t-1} + eta_c x charged - discharged / eta_d, clamped into [socMin, socMax] (the clamp and
  *    SETTLE_TOLERANCE only remove floating-point dust);
  * 6. degradation = degradationCostPerMwh x discharged (energy actually discharged at the grid, as in the
  *    planning LP).
  *
  * Signs of cash: + received, - paid. A negative clearing price makes an accepted buy earn money.
+ * The cost of imbalance against the clearing price is (imbalance buy - clearing) x bought at the
+ * imbalance price - (imbalance sell - clearing) x sold at it, + cost (SettlementTotals).
  *
  * @throws RangeError when the series differ in length, a quantity is negative, or the starting state is
  *   outside the window.
@@ -84,9 +85,11 @@ export function settleDay(input: SettleDayInput): SettledDay {
   const count = input.clearingPricePerMwh.length;
   checkInput(input, count);
   const tolMwh = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
-  const periods: SettledPeriod[] = new Array<SettledPeriod>(count);
+  const keepPeriods = input.keepPeriods ?? true;
+  const periods: SettledPeriod[] = new Array<SettledPeriod>(keepPeriods ? count : 0);
   // Sums in period order, in plain variables (a settled year is ~175,000 periods per policy).
-  let profit = 0, auction = 0, imbalanceSum = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtImbalance = 0, soldImbalance = 0;
+  let profit = 0, auction = 0, imbalanceSum = 0, costVsClearing = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtImbalance = 0, soldImbalance = 0;
+  let deliberateMwh = 0, deliberateCash = 0, deliberatePeriods = 0;
   let charged = 0, discharged = 0, buys = 0, buysAccepted = 0, sells = 0, sellsAccepted = 0;
   let soc = input.socStartMwh;
   for (let t = 0; t < count; t++) {
@@ -118,29 +121,46 @@ export function settleDay(input: SettleDayInput): SettledDay {
     const deliverable = Math.max(0, Math.min(battery.dischargeMw * dt, (soc - battery.socMinMwh) * battery.dischargeEfficiency));
     const chargedMwh = tradeCharge <= storable + tolMwh ? tradeCharge : storable;
     const dischargedMwh = tradeDischarge <= deliverable + tolMwh ? tradeDischarge : deliverable;
-    const soldImbalanceMwh = tradeSoldImbalance + (tradeCharge - chargedMwh);
-    const boughtImbalanceMwh = tradeBoughtImbalance + (tradeDischarge - dischargedMwh);
+    // Step 4: energy the store cannot absorb is sold back, energy it cannot deliver is bought back.
+    const soldBackMwh = tradeCharge - chargedMwh;
+    const boughtBackMwh = tradeDischarge - dischargedMwh;
+    const soldImbalanceMwh = tradeSoldImbalance + soldBackMwh;
+    const boughtImbalanceMwh = tradeBoughtImbalance + boughtBackMwh;
     soc += battery.chargeEfficiency * chargedMwh - dischargedMwh / battery.dischargeEfficiency;
     soc = Math.min(battery.socMaxMwh, Math.max(battery.socMinMwh, soc));
+    const imbalanceSell = input.imbalance.sellPerMwh[t] as number;
+    const imbalanceBuy = input.imbalance.buyPerMwh[t] as number;
     const auctionCash = clearing * (tradeSoldAuction - tradeBoughtAuction);
-    const imbalanceCash = (input.imbalance.sellPerMwh[t] as number) * soldImbalanceMwh - (input.imbalance.buyPerMwh[t] as number) * boughtImbalanceMwh;
+    const imbalanceCash = imbalanceSell * soldImbalanceMwh - imbalanceBuy * boughtImbalanceMwh;
     const degradationCost = battery.degradationCostPerMwh * dischargedMwh;
-    const period = new SettledPeriodRecord(
-      accepted,
-      tradeBoughtAuction,
-      tradeSoldAuction,
-      boughtImbalanceMwh,
-      soldImbalanceMwh,
-      chargedMwh,
-      dischargedMwh,
-      auctionCash,
-      imbalanceCash,
-      degradationCost,
-      auctionCash + imbalanceCash - degradationCost,
-      soc,
-    );
-    periods[t] = period;
-    profit += period.profit;
+    const periodProfit = auctionCash + imbalanceCash - degradationCost;
+    const deliberateImbalanceMwh = soldBackMwh + boughtBackMwh;
+    if (keepPeriods) {
+      periods[t] = new SettledPeriodRecord(
+        accepted,
+        tradeBoughtAuction,
+        tradeSoldAuction,
+        boughtImbalanceMwh,
+        soldImbalanceMwh,
+        chargedMwh,
+        dischargedMwh,
+        auctionCash,
+        imbalanceCash,
+        degradationCost,
+        periodProfit,
+        soc,
+        deliberateImbalanceMwh,
+      );
+    }
+    if (boughtImbalanceMwh !== 0 || soldImbalanceMwh !== 0) {
+      costVsClearing += (imbalanceBuy - clearing) * boughtImbalanceMwh - (imbalanceSell - clearing) * soldImbalanceMwh;
+      if (deliberateImbalanceMwh > 0) {
+        deliberateMwh += deliberateImbalanceMwh;
+        deliberateCash += imbalanceSell * soldBackMwh - imbalanceBuy * boughtBackMwh;
+        deliberatePeriods++;
+      }
+    }
+    profit += periodProfit;
     auction += auctionCash;
     imbalanceSum += imbalanceCash;
     degradation += degradationCost;
@@ -164,6 +184,10 @@ export function settleDay(input: SettleDayInput): SettledDay {
     profit,
     auctionCash: auction,
     imbalanceCash: imbalanceSum,
+    imbalanceCostVsClearing: costVsClearing,
+    deliberateImbalanceMwh: deliberateMwh,
+    deliberateImbalanceCash: deliberateCash,
+    deliberateImbalancePeriods: deliberatePeriods,
     degradationCost: degradation,
     boughtAuctionMwh: boughtAuction,
     soldAuctionMwh: soldAuction,
@@ -198,7 +222,8 @@ function checkInput(input: SettleDayInput, count: number): void {
  * A SettledPeriod made by a constructor rather than an object literal: the engine may decide, from a
  * few early days whose ledger was still being written, to allocate every object of a literal straight
  * into its old generation, where a long backtest's ledger (1.75 million periods in ten years) then
- * piles up as garbage; objects made by `new` are not placed that way. Same fields, same order.
+ * piles up as garbage; objects made by `new` are not placed that way. Same fields, same order (the
+ * deliberate imbalance last).
  */
 class SettledPeriodRecord implements SettledPeriod {
   // Parameter properties become fields in this order: the order of the fields as they always were.
@@ -215,5 +240,6 @@ class SettledPeriodRecord implements SettledPeriod {
     readonly degradationCost: number,
     readonly profit: number,
     readonly socMwh: number,
+    readonly deliberateImbalanceMwh: number,
   ) {}
 }

@@ -29,7 +29,9 @@ describe('edgeTest (Diebold-Mariano with the HLN correction, h = 1)', () => {
   it('three days with d = 1, 2, 3 against the closed form of Student t with 2 degrees of freedom', () => {
     // d = quantile - point = 1, 2, 3: mean 2, gamma_0 = (1 + 0 + 1) / 3 = 2/3, DM = 2 / sqrt((2/3) / 3) = 3 sqrt(2),
     // HLN = DM sqrt((n + 1 - 2h + h(h - 1)/n) / n) = 3 sqrt(2) sqrt(2/3) = 2 sqrt(3).
-    // For t with 2 degrees of freedom F(t) = 1/2 + t / (2 sqrt(2 + t^2)) (a textbook closed form), so
+    // For t with 2 degrees of freedom the density is Gamma(3/2) / (sqrt(2 pi) Gamma(1)) (1 + t^2/2)^(-3/2)
+    // = (2 + t^2)^(-3/2) (Student 1908), whose integral is F(t) = 1/2 + t / (2 sqrt(2 + t^2)) (derived
+    // here: d/dt t / (2 sqrt(2 + t^2)) = (2 + t^2)^(-3/2), and F(0) = 1/2 by symmetry), so
     // P(T >= 2 sqrt(3)) = 1/2 - 2 sqrt(3) / (2 sqrt(14)) = 1/2 - sqrt(3/14).
     const edge = edgeTest({ name: 'quantile', dailyProfit: [11, 12, 13] }, { name: 'point', dailyProfit: [10, 10, 10] });
     expect(edge.status).toBe('ok');
@@ -48,6 +50,25 @@ describe('edgeTest (Diebold-Mariano with the HLN correction, h = 1)', () => {
     if (ab.status !== 'ok' || ba.status !== 'ok') throw new Error('expected ok');
     expect(ab.hln).toBeCloseTo(-ba.hln, 12);
     expect(ab.pValueOneSided + ba.pValueOneSided).toBeCloseTo(1, 12);
+  });
+
+  it('the p-value that the reference earns more is P(T <= HLN), the swapped test\'s p that it earns more', () => {
+    // d = 1, 2, 3, -2 (tested minus reference): HLN = sqrt(6/7) with 3 df, P(T_3 >= HLN) = 0.21141313088605126
+    // (SciPy 1.17.1 t.sf, and Abramowitz and Stegun 26.7.3 by hand in test/stats/dieboldMariano.test.ts),
+    // so P(T_3 <= HLN) = 1 - 0.21141313088605126 = 0.78858686911394874.
+    const edge = edgeTest({ name: 'q', dailyProfit: [1, 2, 3, -2] }, { name: 'p', dailyProfit: [0, 0, 0, 0] });
+    if (edge.status !== 'ok') throw new Error('expected ok');
+    expect(edge.pValueTestedEarnsMore).toBeCloseTo(0.21141313088605126, 14);
+    expect(edge.pValueReferenceEarnsMore).toBeCloseTo(0.78858686911394874, 14);
+    // Far apart: the reference's p is tiny but never rounded to 0, and equals the swapped test's.
+    const low = { name: 'low', dailyProfit: [1, 2, 1.5, 2.5, 1, 2, 1.2, 1.8, 1.4, 1.6] };
+    const high = { name: 'high', dailyProfit: low.dailyProfit.map((x, i) => x + 1000 + (i % 3)) };
+    const lowHigh = edgeTest(low, high);
+    const highLow = edgeTest(high, low);
+    if (lowHigh.status !== 'ok' || highLow.status !== 'ok') throw new Error('expected ok');
+    expect(lowHigh.pValueReferenceEarnsMore).toBeGreaterThan(0);
+    expect(lowHigh.pValueReferenceEarnsMore).toBeLessThan(1e-12);
+    expect(lowHigh.pValueReferenceEarnsMore).toBe(highLow.pValueTestedEarnsMore);
   });
 
   it('says why when the test cannot be made', () => {

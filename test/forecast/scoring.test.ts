@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { crpsFromQuantiles, crpsNormal } from '../../src/forecast/scoring/crps.js';
 import { pinballLoss } from '../../src/forecast/scoring/pinball.js';
 import { scoreForecasts } from '../../src/forecast/scoring/scoreForecasts.js';
+import { compareForecasts } from '../../src/forecast/scoring/compareForecasts.js';
 import type { ScoredDay } from '../../src/forecast/scoring/scoreForecasts.js';
 import { ForecastInputError } from '../../src/forecast/models/errors.js';
 import { normalQuantile } from '../../src/stats/normalQuantile.js';
@@ -26,8 +27,11 @@ describe('pinball loss', () => {
 });
 
 describe('CRPS', () => {
-  // Closed form for N(mu, sigma^2) (Gneiting, Raftery, Westveld and Goldman 2005); values as given in
-  // the task, the first also equal to (sqrt 2 - 1) / sqrt pi = 0.23369497...
+  // Closed form for N(mu, sigma^2): CRPS = sigma [z (2 Phi(z) - 1) + 2 phi(z) - 1 / sqrt(pi)], z = (y - mu) / sigma
+  // (Gneiting, Raftery, Westveld and Goldman 2005, Monthly Weather Review 133, 1098-1118, eq. 5), worked by
+  // hand with Phi(1) = 0.8413447, phi(1) = 0.2419707, Phi(2) = 0.9772499, phi(2) = 0.0539910 (Abramowitz
+  // and Stegun 1964, table 26.1): y = 0 gives 2 phi(0) - 1/sqrt(pi) = (sqrt 2 - 1) / sqrt pi = 0.2336950,
+  // y = 1 gives 0.6826895 + 0.4839414 - 0.5641896 = 0.6024413, y = 2 gives 1.9089996 + 0.1079820 - 0.5641896 = 1.4527920.
   it('closed form of N(0,1) at y = 0, 1, 2 gives 0.2336950, 0.6024414, 1.4527918', () => {
     expect(crpsNormal(0, 1, 0)).toBeCloseTo(0.233695, 6);
     expect(crpsNormal(0, 1, 0)).toBeCloseTo((Math.SQRT2 - 1) / Math.sqrt(Math.PI), 12);
@@ -40,7 +44,10 @@ describe('CRPS', () => {
   it('mean pinball over the 99 percentile levels of N(0,1) at y = 0 is 0.117956, about CRPS / 2', () => {
     const levels = Array.from({ length: 99 }, (_, i) => (i + 1) / 100);
     const quantiles = levels.map(normalQuantile);
+    // At y = 0 the pinball loss of the exact quantile q_tau is min(tau, 1 - tau) |q_tau|, so the mean is
+    // (1/99) sum_k min(tau_k, 1 - tau_k) |Phi^-1(tau_k)|; 0.117956 is that sum from R's qnorm (from memory).
     expect(crpsFromQuantiles(0, quantiles, levels)).toBeCloseTo(0.117956, 6);
+    expect(crpsFromQuantiles(0, quantiles, levels)).toBeCloseTo(levels.reduce((s, tau, k) => s + Math.min(tau, 1 - tau) * Math.abs(quantiles[k] as number), 0) / 99, 12);
     // 99 levels leave out the tails beyond 1% and 99%: within 0.01 of CRPS / 2 at y = 0, 1, 2
     for (const y of [0, 1, 2]) expect(Math.abs(crpsFromQuantiles(y, quantiles, levels) - crpsNormal(0, 1, y) / 2)).toBeLessThan(0.01);
   });
@@ -123,5 +130,23 @@ describe('scoreForecasts', () => {
     const short = { ...days[0]!, realised: days[0]!.realised.slice(1) };
     expect(() => scoreForecasts([short])).toThrow(ForecastInputError);
     expect(() => scoreForecasts([])).toThrow(ForecastInputError);
+  });
+});
+
+describe('one crps per forecast: the DM comparison\'s crps is the crps of scoreForecasts', () => {
+  // Two days at the single level 0.5, whose pinball loss is |y - q| / 2. Day A has one period with
+  // error 2 (loss 1), day B two periods with errors 4 and 4 (losses 2 and 2). Each period counting
+  // once, crps = (1 + 2 + 2) / 3 = 5/3; the mean of the two day means would be (1 + 2) / 2 = 1.5.
+  const periods = (n: number) => Array.from({ length: n }, (_, t) => ({ start: `2030-01-0${n}T0${t}:00:00Z`, end: `2030-01-0${n}T0${t + 1}:00:00Z`, startMs: Date.UTC(2030, 0, n, t) }));
+  const day = (d: string, n: number, q: number): ScoredDay => ({ forecast: { day: d, levels: [0.5], periods: periods(n), prices: Array.from({ length: n }, () => [q]) }, realised: new Array<number>(n).fill(q + (n === 1 ? 2 : 4)) });
+  it('crpsForecast is the crps over every period of the compared days (5/3 by hand), and scoreForecasts gives the same', () => {
+    const first = [day('2030-01-01', 1, 10), day('2030-01-02', 2, 10)];
+    // The second forecast is exact: loss 0 everywhere.
+    const second = first.map((d) => ({ ...d, forecast: { ...d.forecast, prices: d.realised.map((y) => [y]) } }));
+    const c = compareForecasts(first, second);
+    expect(c.lossFirst).toBeCloseTo(5 / 3, 12);
+    expect(c.lossSecond).toBe(0);
+    expect(c.test.meanDifference).toBeCloseTo(5 / 3, 12);
+    expect(scoreForecasts(first).overall.crps).toBeCloseTo(5 / 3, 12);
   });
 });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { runBacktest } from '../../src/backtest/runBacktest.js';
-import { daysCsv, DAYS_COLUMNS, LEDGER_COLUMNS, ledgerCsv, ledgerRows } from '../../src/io/backtestOutputs.js';
+import { daysCsv, DAYS_COLUMNS, LEDGER_COLUMNS, ledgerCsv, ledgerRowBytes, ledgerRows } from '../../src/io/backtestOutputs.js';
 import { input } from '../backtest/handWorkedWeek.js';
 
 // Output files of the hand-worked week (test/backtest/handWorkedWeek.ts): 3 covered days of 4 periods.
@@ -22,8 +22,8 @@ describe('backtest output files', () => {
     expect(lines[0]).toBe(LEDGER_COLUMNS.join(','));
     expect(lines).toHaveLength(1 + 3 * 2 * 4);
     // Day A, quantile, hour 0: buy 4 MW at limit 22, cleared at 20: pays 80; hour 1: no order.
-    expect(lines[1]).toBe('2026-05-04,quantile,2026-05-04T00:00:00Z,buy,4,22,true,20,21,21,4,0,0,0,4,0,-80,0,0,-80,4');
-    expect(lines[2]).toBe('2026-05-04,quantile,2026-05-04T01:00:00Z,,,,,45,44,44,0,0,0,0,0,0,0,0,0,0,4');
+    expect(lines[1]).toBe('2026-05-04,quantile,2026-05-04T00:00:00Z,buy,4,22,true,20,21,21,4,0,0,0,4,0,-80,0,0,-80,4,0');
+    expect(lines[2]).toBe('2026-05-04,quantile,2026-05-04T01:00:00Z,,,,,45,44,44,0,0,0,0,0,0,0,0,0,0,4,0');
   });
 
   it('the same result gives the same bytes', () => {
@@ -38,6 +38,13 @@ describe('backtest output files', () => {
     expect(streamed).toBe(ledgerCsv(result));
     expect(lean.days.every((day) => day.runs.every((run) => run.ledger === null))).toBe(true);
     expect(daysCsv(lean)).toBe(daysCsv(result));
+  });
+
+  it('as bytes (what backtest writes), the ledger is the UTF-8 of the same text', () => {
+    const pieces: Buffer[] = [Buffer.from(`${LEDGER_COLUMNS.join(',')}\n`)];
+    // Each day's bytes are a view that the next day overwrites: copied as they come, as a file write does.
+    runBacktest(input, { policies: ['quantile', 'perfect-foresight'], keepLedger: false, onLedgerDay: (day) => void pieces.push(Buffer.from(ledgerRowBytes(day))) });
+    expect(Buffer.concat(pieces).toString('utf8')).toBe(ledgerCsv(result));
   });
 
   it('refuses to write a ledger for a backtest run without one', () => {

@@ -21,7 +21,7 @@ const battery: BatteryModel = Object.freeze({
   socMaxMwh: 9,
   socInitialMwh: 4,
   socFinalMinMwh: undefined,
-  maxDischargeMwhPerDay: undefined,
+  maxFromStoreMwhPerDay: undefined,
   degradationCostPerMwh: 2,
 });
 const PENALTY = 10;
@@ -100,7 +100,8 @@ const week: readonly HandDay[] = [
     },
   },
   {
-    // Day 6, a negative price: buy 5 @ 0 clears at -20 (accepted): the buyer is paid 20 x 5 = +100 (1 -> 5);
+    // Day 6, a negative price: buy 5 @ 0 clears at -20 (accepted): the buyer is paid 20 x 5 = +100 (1 -> 5;
+    // a negative clearing price pays the buyer: cash = -price x quantity, common practice in day-ahead auctions);
     // sell 3.2 @ 35 at 40: +128 - 6.4 (5 -> 1). Both rules alike.
     prices: [-20, 10, 30, 40],
     orders: [o('buy', 5, 0), null, null, o('sell', 3.2, 35)],
@@ -111,7 +112,8 @@ const week: readonly HandDay[] = [
     },
   },
   {
-    // Day 7, ties: buy 5 @ 30 clears at 30, sell 3.2 @ 55 clears at 55: both accepted (a tie is accepted).
+    // Day 7, ties: buy 5 @ 30 clears at 30, sell 3.2 @ 55 clears at 55: both accepted (an order whose limit
+    // equals the clearing price is accepted: common practice in day-ahead auctions).
     // -150 (1 -> 5), 3.2 x 55 = 176 - 6.4 (5 -> 1). Both rules alike.
     prices: [30, 30, 55, 50],
     orders: [null, o('buy', 5, 30), o('sell', 3.2, 55), null],
@@ -126,6 +128,16 @@ const week: readonly HandDay[] = [
 // Week totals by hand: follow-plan 252 + 47 + 82 + 324.2 - 50.4 + 221.6 + 19.6 = 896;
 // follow-accepted 252 + 84.8 - 50 + 334.2 + 0 + 221.6 + 19.6 = 862.2.
 const WEEK_PROFIT: Record<UnacceptedRule, number> = { 'follow-plan': 896, 'follow-accepted': 862.2 };
+
+// The imbalance figures of the week by hand. Under clearing +- 10 every MWh at the imbalance price costs
+// exactly 10 against the clearing price. follow-plan: unaccepted orders on day 2 (buy 5), day 3 (sell 4) and
+// day 5 (buy 5, sell 3.2): 17.2 MWh, cost 172; gross cash -225 + 140 - 300 + 256 = -129; no deliberate
+// imbalance (the store never runs out). follow-accepted: only deliberate imbalance, day 2 (2.4 MWh bought
+// back at 80: -192) and day 4 (5 MWh sold back at 2: +10): 7.4 MWh in 2 periods, cash -182, cost 74.
+const WEEK_IMBALANCE: Record<UnacceptedRule, { gross: number; cost: number; deliberateMwh: number; deliberatePeriods: number; deliberateCash: number }> = {
+  'follow-plan': { gross: -129, cost: 172, deliberateMwh: 0, deliberatePeriods: 0, deliberateCash: 0 },
+  'follow-accepted': { gross: -182, cost: 74, deliberateMwh: 7.4, deliberatePeriods: 2, deliberateCash: -182 },
+};
 
 function settleWeek(unaccepted: UnacceptedRule) {
   let soc = battery.socInitialMwh;
@@ -162,6 +174,17 @@ describe.each(['follow-plan', 'follow-accepted'] as const)('a hand-settled week,
   it('carries the state of charge from day to day and totals the week', () => {
     settled.slice(1).forEach((day, d) => expect(day.socStartMwh).toBe((settled[d] as { socEndMwh: number }).socEndMwh));
     expect(settled.reduce((sum, day) => sum + day.totals.profit, 0)).toBeCloseTo(WEEK_PROFIT[unaccepted], 9);
+  });
+
+  it('totals the gross imbalance cash, its cost against the clearing price and the deliberate imbalance', () => {
+    const week = (key: 'imbalanceCash' | 'imbalanceCostVsClearing' | 'deliberateImbalanceMwh' | 'deliberateImbalancePeriods' | 'deliberateImbalanceCash') =>
+      settled.reduce((sum, day) => sum + day.totals[key], 0);
+    const expected = WEEK_IMBALANCE[unaccepted];
+    expect(week('imbalanceCash')).toBeCloseTo(expected.gross, 9);
+    expect(week('imbalanceCostVsClearing')).toBeCloseTo(expected.cost, 9);
+    expect(week('deliberateImbalanceMwh')).toBeCloseTo(expected.deliberateMwh, 9);
+    expect(week('deliberateImbalancePeriods')).toBe(expected.deliberatePeriods);
+    expect(week('deliberateImbalanceCash')).toBeCloseTo(expected.deliberateCash, 9);
   });
 });
 

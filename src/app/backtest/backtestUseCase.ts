@@ -1,17 +1,23 @@
 import { z } from 'zod';
 import { batteryModel } from '../../battery/batterySpec.js';
-import { backtestMetrics } from '../../backtest/backtestMetrics.js';
+import { backtestMetrics, type BacktestMetrics } from '../../backtest/backtestMetrics.js';
+import { exchangeSteps, withoutExchangeSteps } from '../../plan/exchangeRounding.js';
+import type { UnacceptedRule } from '../../settle/settleDay.js';
 import { BACKTEST_POLICIES, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
-import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay } from '../../backtest/runBacktest.js';
+import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay, type BacktestInput } from '../../backtest/runBacktest.js';
 import { daysBetween } from '../../market/calendar.js';
-import { LEDGER_COLUMNS, daysCsv, ledgerRows } from '../../io/backtestOutputs.js';
+import { LEDGER_COLUMNS, daysCsv, ledgerRowBytes } from '../../io/backtestOutputs.js';
 import { jsonText } from '../../io/planOutputs.js';
+import type { OutputLock } from '../../io/outputLock.js';
+import type { BacktestInputPaths } from '../../io/readBacktestInputs.js';
 import { checkOutputFolder, OutputStage } from '../../io/writeOutputs.js';
 import { backtestReport } from '../../report/backtestReport.js';
 import type { Done } from '../commandResult.js';
+import { runInputFiles } from '../inputFiles.js';
+import { lockedRun } from '../lockedRun.js';
 import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { readRunInputs, runInputPaths } from '../runInputs.js';
+import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { backtestSummary, backtestSummaryText } from './backtestSummary.js';
 
@@ -25,7 +31,7 @@ export const backtestSettingsSchema = z
     /** First and last delivery day, YYYY-MM-DD, both included. */
     from: daySchema,
     to: daySchema,
-    /** Central interval [q(alpha), q(1 - alpha)] of the quantile and median policies; default 0.1. */
+    /** Tail level of the quantile and median policies (buys limited at q(1 - alpha), sells at q(alpha)); default 0.1. */
     alpha: alphaSchema.default(BACKTEST_DEFAULTS.alpha),
     /** What the battery does about unaccepted orders; default follow-plan. */
     unaccepted: unacceptedRuleSchema.default(BACKTEST_DEFAULTS.unaccepted),
@@ -59,32 +65,62 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
   const s = validSettings(backtestSettingsSchema, settings, 'backtest');
   const paths = runInputPaths(s.inputs, s.model);
   const outputs = s.report ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
-  checkOutputFolder(s.out, outputs, s.force);
+  checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
+  return lockedRun(s.out, 'backtest', (lock) => backtestRun(s, paths, outputs, lock as OutputLock, hooks));
+}
+
+/** The backtest of the checked settings, from reading the inputs to the outputs, under the output folder's lock. */
+function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: BacktestInputPaths, outputs: readonly string[], lock: OutputLock, hooks: RunHooks): Done<BacktestSummary> {
   // With --model the forecasts are made here, day by day from the history (through the forecast cache).
   const maker = forecastMaker(s.model, paths.history, s, hooks);
   const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
   const model = maker?.made();
+  // A span without a covered day is bad input, as for sweep and size: an all-zero table would look like a result.
+  requireCoveredDay(data, paths, s.from, s.to);
   const { market, history, forecast } = data;
   const battery = batteryModel(data.batterySpec);
   const progress = hooks.progress('backtest', daysBetween(s.from, s.to).length);
   const onDay = ({ done }: { done: number }): void => progress.update(done);
   // ledger.csv goes into the output stage day by day (writeOutputs.ts): ten years keep no ledger in memory.
-  const stage = OutputStage.begin(s.out, outputs, s.force, ['report.html']);
+  const stage = OutputStage.begin(s.out, outputs, s.force, ['report.html'], lock);
   try {
     const ledger = stage.open('ledger.csv');
     ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
-    const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRows(day));
+    const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRowBytes(day));
     const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay });
     progress.finish();
     const metrics = backtestMetrics(result, battery);
+    const unrounded = unroundedMetrics(s, { market, battery, history, forecast }, hooks);
     const inputs = inputsShown(paths, s.model);
-    const summary: BacktestSummary = { ...backtestSummary(result, metrics, { market, battery, inputs }), ...(model === undefined ? {} : { forecastModel: model.summary }) };
+    const context = { market, battery, inputs, ...(unrounded === undefined ? {} : { unrounded }) };
+    const summary: BacktestSummary = { ...backtestSummary(result, metrics, context), ...(model === undefined ? {} : { forecastModel: model.summary }) };
     stage.write('days.csv', daysCsv(result));
     stage.write('summary.json', jsonText(summary));
     if (s.report) stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
     stage.commit();
-    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs)}${model?.note ?? ''}` };
+    if (summary.yearlyFigures.warning !== null) hooks.note(`warning: ${summary.yearlyFigures.warning}\n`);
+    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded)}${model?.note ?? ''}` };
   } finally {
     stage.discard();
   }
+}
+
+/**
+ * With order steps in the market spec the backtest's orders are rounded to them; the same backtest on the
+ * market spec without the steps (orders as planned) gives the reference for the loss from rounding. None
+ * without steps (nothing is run twice).
+ */
+function unroundedMetrics(
+  s: { readonly from: string; readonly to: string; readonly alpha: number; readonly unaccepted: UnacceptedRule; readonly policies: readonly BacktestPolicy[] },
+  data: Omit<BacktestInput, 'from' | 'to'>,
+  hooks: RunHooks,
+): BacktestMetrics | undefined {
+  if (exchangeSteps(data.market) === null) return undefined;
+  const progress = hooks.progress('backtest without rounding', daysBetween(s.from, s.to).length);
+  const result = runBacktest(
+    { ...data, market: withoutExchangeSteps(data.market), from: s.from, to: s.to },
+    { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, keepLedger: false, onDay: ({ done }) => progress.update(done) },
+  );
+  progress.finish();
+  return backtestMetrics(result, data.battery);
 }

@@ -3,21 +3,27 @@ import { batteryModel } from '../../battery/batterySpec.js';
 import { gatherProblems, InputError, throwIfProblems, type InputProblem } from '../../errors/inputError.js';
 import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
 import { readQuantileForecast, type QuantileForecastFile } from '../../io/readQuantileForecast.js';
+import { readPriceHistory } from '../../io/readPriceHistory.js';
 import { readBatterySpec, readMarketSpec } from '../../io/readSpecs.js';
+import type { OutputLock } from '../../io/outputLock.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { PLAN_POLICIES } from '../../plan/alpha.js';
-import { planDay } from '../../plan/planDay.js';
+import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
+import { isSkippedDay } from '../../market/calendar.js';
+import { planDay, type PlanResult } from '../../plan/planDay.js';
 import { planReport } from '../../report/planReport.js';
 import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
+import { PLAN_DEFAULTS } from '../commandDefaults.js';
 import type { Done } from '../commandResult.js';
 import { forecastLevelProblems } from '../forecastLevels.js';
-import { inputFiles } from '../inputFiles.js';
+import { inputFiles, runInputFiles } from '../inputFiles.js';
+import { lockedRun } from '../lockedRun.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
-import { planSummary, planSummaryText } from './planSummary.js';
+import { RUN_LIMITS } from '../settingRules.js';
+import { alphaSchema, boundedNumber, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
+import { planSummary, planSummaryText, planWarnings, planWorth, type PlanWorth } from './planSummary.js';
 
-/** Defaults of `quantbid plan`: the quantile policy at alpha 0.1. */
-export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanPolicy });
+export { PLAN_DEFAULTS } from '../commandDefaults.js';
 
 /** The settings of `quantbid plan`, checked once when the plan starts. */
 export const planSettingsSchema = z.strictObject({
@@ -25,18 +31,23 @@ export const planSettingsSchema = z.strictObject({
   inputs: inputSourcesSchema,
   /** Delivery day to plan, YYYY-MM-DD; default the scenario's demoDay. */
   day: daySchema.optional(),
-  /** Central interval [q(alpha), q(1 - alpha)]; default 0.1. */
+  /** Tail level: buys limited at q(1 - alpha), sells at q(alpha); default 0.1. */
   alpha: alphaSchema.default(PLAN_DEFAULTS.alpha),
   /** Planning policy; default quantile. */
   policy: z.enum(PLAN_POLICIES as readonly PlanPolicy[] as [PlanPolicy, ...PlanPolicy[]]).default(PLAN_DEFAULTS.policy),
-  /** State of charge at the start of the day [MWh]; default socInitialFraction x energyMwh. */
-  socStartMwh: z.number().finite().min(0).optional(),
+  /**
+   * State of charge at the start of the day [MWh]; default socInitialFraction x energyMwh. Outside the
+   * battery's window it is accepted with a warning, and the plan first comes back into the window.
+   */
+  socStartMwh: boundedNumber(RUN_LIMITS.socStartMwh).optional(),
   /** Folder for orders.csv, schedule.csv, plan.json (and report.html); none: nothing is written. */
   out: outFolderSchema.optional(),
   /** Overwrite existing outputs. */
   force: z.boolean().default(false),
   /** Also write report.html (needs `out`). */
   report: z.boolean().default(false),
+  /** List every order in the printed summary (the demo does). */
+  listOrders: z.boolean().default(false),
 });
 
 export type PlanSettings = z.input<typeof planSettingsSchema>;
@@ -51,7 +62,7 @@ const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
  */
 export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOKS): Done<PlanSummary> {
   const s = validSettings(planSettingsSchema, settings, 'plan');
-  const { paths, demoDay } = inputFiles(s.inputs, ['market', 'battery', 'forecast']);
+  const { paths, demoDay } = inputFiles(s.inputs, ['market', 'battery', 'forecast'], ['history']);
   const day = s.day ?? demoDay;
   if (day === undefined) {
     throw new InputError([{ file: 'command line', field: '--day', message: 'no delivery day given', fix: 'give --day YYYY-MM-DD' }]);
@@ -60,19 +71,35 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
     throw new InputError([{ file: 'command line', field: '--report', message: 'report.html needs a folder to go to', fix: 'add --out DIR' }]);
   }
   const outputs = s.report ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS;
-  if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force);
+  if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
+  return lockedRun(s.out, 'plan', (lock) => planDayRun(s, { paths, day, outputs, lock }, hooks));
+}
+
+/** The plan of `day` from the checked settings, written under the output folder's lock (when there is a folder). */
+function planDayRun(
+  s: z.output<typeof planSettingsSchema>,
+  run: { readonly paths: Record<'market' | 'battery' | 'forecast', string> & { readonly history?: string }; readonly day: string; readonly outputs: readonly string[]; readonly lock: OutputLock | undefined },
+  hooks: RunHooks,
+): Done<PlanSummary> {
+  const { paths, day, outputs } = run;
   const { market, battery, forecastFile } = readPlanInputs(paths, (text) => hooks.note(text));
-  const forecast = forecastDay(forecastFile, day);
+  const forecast = forecastDay(forecastFile, day, market.timeZone);
   const socStartMwh = s.socStartMwh ?? battery.socInitialMwh;
-  if (s.socStartMwh !== undefined && (socStartMwh < battery.socMinMwh || socStartMwh > battery.socMaxMwh)) {
-    throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is outside the battery's window [${battery.socMinMwh}, ${battery.socMaxMwh}] MWh`, fix: 'give a state of charge inside the window' }]);
+  if (socStartMwh > battery.energyMwh) {
+    throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is more than the battery's energy ${battery.energyMwh} MWh`, fix: 'give the energy in store now, at most energyMwh' }]);
   }
   throwIfProblems(forecastLevelProblems(forecastFile.levels, forecastFile.file, { policies: [s.policy], alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policy' }));
   const result = planDay({ forecast, market, battery, policy: s.policy, alpha: s.alpha, socStartMwh });
   if (result.status !== 'optimal') {
     throw new InputError([{ file: paths.battery, message: `no feasible plan for ${day}: ${result.reason}`, fix: 'check the battery spec and --soc-start' }]);
   }
-  const summary = planSummary(result, { day, policy: s.policy, alpha: s.alpha, paths, market, forecastFile });
+  // The imbalance price the orders expect: the market's rule, else the history's (read only then).
+  const history = market.imbalance === undefined && paths.history !== undefined ? readPriceHistory(paths.history, market, (text) => hooks.note(text)) : undefined;
+  const imbalance = imbalanceExpectation(market, history, day);
+  const worth = planWorth(result, forecast, market, battery, imbalance);
+  const baseline = s.policy === 'price-taking' ? null : baselineWorth({ forecast, market, battery, alpha: s.alpha, socStartMwh }, imbalance);
+  const warnings = planWarnings(result, battery, market.currency, worth.losingPairs);
+  const summary = planSummary(result, { day, policy: s.policy, alpha: s.alpha, paths, market, forecastFile, worth, baseline, warnings });
   if (s.out !== undefined) {
     writeOutputs(
       s.out,
@@ -80,17 +107,28 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
         { name: 'orders.csv', text: ordersCsv(result.orders) },
         { name: 'schedule.csv', text: scheduleCsv(forecast.periods, result.outcome.schedule) },
         { name: 'plan.json', text: jsonText(summary) },
-        ...(s.report ? [{ name: 'report.html', text: planReport({ day, policy: s.policy, alpha: s.alpha, market, forecast, plan: result, inputs: paths }) }] : []),
+        ...(s.report
+          ? [{ name: 'report.html', text: planReport({ day, policy: s.policy, alpha: s.alpha, market, forecast, plan: result, inputs: paths, worth: { ifFilledAtLimits: worth.ifFilledAtLimits, expected: worth.expected?.value ?? null, baselineExpected: baseline?.expected?.value ?? null } }) }]
+          : []),
       ],
       s.force,
       ['report.html'],
+      run.lock,
     );
   }
   // Repaired, not refused (docs/design.md section 6); a note, so that --json output stays clean.
-  if (forecastFile.repairedPeriods > 0) {
-    hooks.note(`note: ${paths.forecast}: ${forecastFile.repairedPeriods} periods had crossing quantiles, sorted into order (monotone rearrangement), e.g. ${forecastFile.repairedExamples[0] ?? ''}\n`);
+  const repaired = forecastFile.repairedByDay.get(day);
+  if (repaired !== undefined) {
+    hooks.note(`note: ${paths.forecast}: ${repaired.periods} of the ${forecast.periods.length} periods of ${day} had crossing quantiles, sorted into order (monotone rearrangement), e.g. ${repaired.example}\n`);
   }
-  return { status: 'done', summary, text: planSummaryText(result, forecast, market, day, s, s.out, outputs) };
+  for (const warning of warnings) hooks.warn(`warning: ${warning.message}\n`);
+  return { status: 'done', summary, text: planSummaryText(result, forecast, market, day, s, s.out, outputs, { worth, baseline, warnings, listOrders: s.listOrders }) };
+}
+
+/** The price-taking plan of the same day valued like the plan: the simplest baseline a plan is compared with. */
+function baselineWorth(request: Omit<Parameters<typeof planDay>[0], 'policy'>, imbalance: ReturnType<typeof imbalanceExpectation>): PlanWorth | null {
+  const plan: PlanResult = planDay({ ...request, policy: 'price-taking' });
+  return plan.status === 'optimal' ? planWorth(plan, request.forecast, request.market, request.battery, imbalance) : null;
 }
 
 /**
@@ -107,9 +145,12 @@ function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>
   return { market, battery: batteryModel(spec), forecastFile };
 }
 
-function forecastDay(file: QuantileForecastFile, day: string): QuantileDay {
+function forecastDay(file: QuantileForecastFile, day: string, timeZone: string): QuantileDay {
   const found = file.days.get(day);
   if (found !== undefined) return found;
+  if (isSkippedDay(day, timeZone)) {
+    throw new InputError([{ file: 'command line', field: '--day', message: `${day} does not exist in ${timeZone}: the zone's clocks skipped the whole date`, fix: 'choose a delivery day the zone has, e.g. the day before or after' }]);
+  }
   const incomplete = file.incompleteDays.find((d) => d.day === day);
   const covered = [...file.days.keys()];
   throw new InputError([

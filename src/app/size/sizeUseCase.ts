@@ -7,34 +7,37 @@ import type { SizeResult } from '../../sizing/bestSizes.js';
 import { specRoundTripEfficiency } from '../../sizing/scaledBattery.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
 import { SIZE_POLICIES, type SizePolicy } from '../../sizing/sizeSettingRow.js';
+import { SIZE_DEFAULTS } from '../commandDefaults.js';
 import type { Done, Interrupted } from '../commandResult.js';
-import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { lockedGridRun, runGridCommand } from '../gridRun.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
+import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { alphaSchema, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { BATTERY_LIMITS } from '../../battery/batterySpec.js';
+import { RUN_LIMITS } from '../settingRules.js';
+import { alphaSchema, boundedNumber, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { sizeSummary, sizeSummaryText } from './sizeSummary.js';
 import type { SizeTaskInput } from './sizeTask.js';
 
-/** Defaults: the quantile policy at alpha 0.1, the grid of `--alpha best`, follow-plan, no fixed O&M. */
-export const SIZE_DEFAULTS = Object.freeze({
-  policy: 'quantile',
-  alpha: 0.1,
-  alphas: '0.05:0.45:0.05',
-  unaccepted: 'follow-plan' as const,
-  fixedOmPerMwYear: 0,
-});
+export { SIZE_DEFAULTS } from '../commandDefaults.js';
+
+/** Whether a number lies in [lo, hi]. */
+const within =
+  ([lo, hi]: readonly [number, number]) =>
+  (x: number): boolean =>
+    x >= lo && x <= hi;
 
 /** The size axes and the alphas of `--alpha best` from their text, every problem listed together; an axis whose text is undefined is left out. */
-export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly powerMw?: string; readonly efficiency?: string; readonly alphas?: string; readonly policy: string }) {
+export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly powerMw?: string; readonly efficiency?: string; readonly alphas?: string; readonly policies: string; readonly policiesOption?: string }) {
   const numbers = (name: string, option: string, spec: string | undefined, accept: (x: number) => boolean, expected: string) =>
     spec === undefined ? [] : [() => parseNumberAxis(name, option, spec, { accept, expected })];
   const axes = parseAxes([
-    ...numbers('energy_mwh', '--energy-mwh', text.energyMwh, (x) => x > 0, 'a number > 0'),
-    ...numbers('power_mw', '--power-mw', text.powerMw, (x) => x > 0, 'a number > 0'),
-    ...numbers('round_trip_efficiency', '--efficiency', text.efficiency, (x) => x > 0 && x <= 1, 'an efficiency in (0, 1]'),
+    ...numbers('energy_mwh', '--energy-mwh', text.energyMwh, within(BATTERY_LIMITS.energyMwh), `an energy in [${BATTERY_LIMITS.energyMwh.join(', ')}] MWh`),
+    ...numbers('power_mw', '--power-mw', text.powerMw, within(BATTERY_LIMITS.powerMw), `a power in [${BATTERY_LIMITS.powerMw.join(', ')}] MW`),
+    ...numbers('round_trip_efficiency', '--efficiency', text.efficiency, within(BATTERY_LIMITS.efficiency), `an efficiency in [${BATTERY_LIMITS.efficiency.join(', ')}]`),
     ...numbers('alpha', '--alphas', text.alphas, isAlpha, `an alpha in ${ALPHA_RANGE}`),
-    () => parseWordAxis('policy', '--policy', text.policy, SIZE_POLICIES),
+    () => parseWordAxis('policy', text.policiesOption ?? '--policies', text.policies, SIZE_POLICIES),
   ]);
   const values = (name: string) => axes.find((axis) => axis.name === name)?.values;
   const numbersOf = (name: string) => (values(name) as readonly number[] | undefined)?.slice();
@@ -47,9 +50,17 @@ export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly p
   };
 }
 
+/**
+ * The policy axis of size.csv: the policies asked for, then the baselines every size is read against,
+ * price-taking (unless asked for) and perfect-foresight.
+ */
+export function sizePolicyAxis(policies: readonly (typeof SIZE_POLICIES)[number][]): SizePolicy[] {
+  return [...policies, ...(policies.includes('price-taking') ? [] : ['price-taking' as const]), 'perfect-foresight'];
+}
+
 /** The alphas `--alpha best` chooses from when none are given: SIZE_DEFAULTS.alphas. */
 function defaultBestAlphas(): number[] {
-  return sizeAxesFromText({ alphas: SIZE_DEFAULTS.alphas, policy: SIZE_DEFAULTS.policy }).alphas ?? [];
+  return sizeAxesFromText({ alphas: SIZE_DEFAULTS.alphas, policies: SIZE_DEFAULTS.policies }).alphas ?? [];
 }
 
 /** `--alpha best` chooses on the first half of the days and scores on the second: it needs two days or more. */
@@ -59,12 +70,12 @@ export function alphaBestSpanProblem(from: string, to: string): string | null {
 
 /** Costs and finance of the project, the same for every size (sizing/sizeEconomics.ts). */
 export const sizeCostsSchema = z.strictObject({
-  capexPerMwh: z.number().finite().min(0),
-  capexPerMw: z.number().finite().min(0),
-  fixedOmPerMwYear: z.number().finite().min(0).default(SIZE_DEFAULTS.fixedOmPerMwYear),
-  lifeYears: z.number().int().min(1),
-  lifeCycles: z.number().finite().gt(0).nullable().default(null),
-  discountRate: z.number().finite().gt(-1),
+  capexPerMwh: boundedNumber(RUN_LIMITS.capexPerMwh),
+  capexPerMw: boundedNumber(RUN_LIMITS.capexPerMw),
+  fixedOmPerMwYear: boundedNumber(RUN_LIMITS.fixedOmPerMwYear).default(SIZE_DEFAULTS.fixedOmPerMwYear),
+  lifeYears: boundedNumber(RUN_LIMITS.lifeYears, true),
+  lifeCycles: boundedNumber(RUN_LIMITS.lifeCycles).nullable().default(null),
+  discountRate: boundedNumber(RUN_LIMITS.discountRate),
 });
 
 /** The settings of `quantbid size`, checked once when the sizing starts; worker threads get them typed. */
@@ -74,13 +85,13 @@ export const sizeSettingsSchema = z
     /** First and last delivery day, YYYY-MM-DD, both included. */
     from: daySchema,
     to: daySchema,
-    /** The energy axis [MWh], each > 0. */
-    energiesMwh: eachOnce(z.number().finite().gt(0)),
-    /** The power axis [MW], charge = discharge, each > 0. */
-    powersMw: eachOnce(z.number().finite().gt(0)),
-    /** Round-trip efficiencies in (0, 1]; default the battery spec's. */
-    efficiencies: eachOnce(z.number().gt(0).lte(1)).optional(),
-    /** Policies scored; perfect-foresight rows are always added. */
+    /** The energy axis [MWh], each in BATTERY_LIMITS.energyMwh. */
+    energiesMwh: eachOnce(boundedNumber(BATTERY_LIMITS.energyMwh)),
+    /** The power axis [MW], charge = discharge, each in BATTERY_LIMITS.powerMw. */
+    powersMw: eachOnce(boundedNumber(BATTERY_LIMITS.powerMw)),
+    /** Round-trip efficiencies in BATTERY_LIMITS.efficiency; default the battery spec's. */
+    efficiencies: eachOnce(boundedNumber(BATTERY_LIMITS.efficiency)).optional(),
+    /** Policies scored; price-taking and perfect-foresight rows are always added (the baselines every size is read against). */
     policies: eachOnce(z.enum(SIZE_POLICIES)),
     /** Alpha of the quantile and median policies, or `best`: chosen per size on the first half of the days. */
     alpha: z.union([alphaSchema, z.literal('best')]).default(SIZE_DEFAULTS.alpha),
@@ -112,30 +123,35 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
   const costs: SizeCosts = s.costs;
   const alpha: AlphaMode = s.alpha === 'best' ? { method: 'best', alphas: s.alphas ?? defaultBestAlphas() } : { method: 'fixed', alpha: s.alpha };
   const alphas = alpha.method === 'fixed' ? [alpha.alpha] : alpha.alphas;
-  const { paths, data, model } = readGridInputs(s, 'size.csv', { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policy' }, hooks);
-  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  const axes = [
-    { name: 'energy_mwh', option: '--energy-mwh', values: s.energiesMwh },
-    { name: 'power_mw', option: '--power-mw', values: s.powersMw },
-    { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
-    { name: 'policy', option: '--policy', values: [...s.policies, 'perfect-foresight'] as SizePolicy[] },
-  ] as const;
-  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, data: inputDataSpan(data, from, to) };
-  return runGridCommand(
-    {
-      command: 'size',
-      run: s,
-      axes,
-      taskModule: new URL('./sizeTask.js', import.meta.url),
-      contextInput,
-      identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven },
-      paths,
-      model,
-      summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
-      report: (results, summary) => sizeReport({ results, summary }),
-      summaryText: sizeSummaryText,
-    },
-    hooks,
-  );
+  const use = { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policies' };
+  const outcome = await lockedGridRun(s, 'size', use, hooks, ({ paths, data, model }, lock) => {
+    const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+    const axes = [
+      { name: 'energy_mwh', option: '--energy-mwh', values: s.energiesMwh },
+      { name: 'power_mw', option: '--power-mw', values: s.powersMw },
+      { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
+      { name: 'policy', option: '--policies', values: sizePolicyAxis(s.policies) },
+    ] as const;
+    // The workers get the inputs as read here, cut to the span and shared: none reads or parses a file again.
+    const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, shared: shareInputs(inputDataSpan(data, from, to)) };
+    return runGridCommand(
+      {
+        command: 'size',
+        run: s,
+        lock,
+        axes,
+        taskModule: new URL('./sizeTask.js', import.meta.url),
+        contextInput,
+        identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven },
+        paths,
+        model,
+        summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
+        report: (results, summary) => sizeReport({ results, summary }),
+        summaryText: sizeSummaryText,
+      },
+      hooks,
+    );
+  });
+  if (outcome.status === 'done' && outcome.summary.yearlyFigures.warning !== null) hooks.note(`warning: ${outcome.summary.yearlyFigures.warning}\n`);
+  return outcome;
 }

@@ -1,9 +1,11 @@
 import { z } from 'zod';
-import { SWEEP_POLICIES, type SweepResult } from '../../backtest/sweepSettingRow.js';
+import { batteryModel } from '../../battery/batterySpec.js';
+import { SWEEP_POLICIES, sweepReferenceRows, type SweepReferenceRow, type SweepResult } from '../../backtest/sweepSettingRow.js';
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
-import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { lockedGridRun, runGridCommand } from '../gridRun.js';
+import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
@@ -12,8 +14,7 @@ import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
 import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
 import type { SweepTaskInput } from './sweepTask.js';
 
-/** Defaults of the axes as written in the help: alphas the demo forecast's levels (0.05 to 0.95) allow, both alpha policies, follow-plan. */
-export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: SWEEP_POLICIES.join(','), unaccepted: 'follow-plan' });
+export { SWEEP_DEFAULTS } from '../commandDefaults.js';
 
 /** The axes of a sweep from their text (`--alphas 0.05:0.45:0.05`, `--policies quantile,median`, ...), every problem listed together. */
 export function sweepAxesFromText(text: { readonly alphas: string; readonly policies: string; readonly unaccepted: string }) {
@@ -32,7 +33,7 @@ export const sweepSettingsSchema = z
     /** First and last delivery day, YYYY-MM-DD, both included. */
     from: daySchema,
     to: daySchema,
-    /** The alpha axis, each alpha in (0, 0.5). */
+    /** The alpha axis: tail levels, each in (0, 0.5). */
     alphas: eachOnce(alphaSchema),
     /** The policy axis: policies whose orders depend on alpha. */
     policies: eachOnce(z.enum(SWEEP_POLICIES)),
@@ -58,24 +59,33 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
     { name: 'policy', option: '--policies', values: s.policies },
     { name: 'unaccepted', option: '--unaccepted', values: s.unaccepted },
   ] as const;
-  const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
-  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
-  return runGridCommand(
-    {
-      command: 'sweep',
-      run: s,
-      axes,
-      taskModule: new URL('./sweepTask.js', import.meta.url),
-      contextInput,
-      identity: { from, to },
-      paths,
-      model,
-      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, ...modelContext }),
-      report: (results, summary) => sweepReport({ results, summary }),
-      summaryText: sweepSummaryText,
-    },
-    hooks,
-  );
+  const use = { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' };
+  return lockedGridRun(s, 'sweep', use, hooks, ({ paths, data, model }, lock) => {
+    const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+    // The workers get the inputs as read here, cut to the span and shared: none reads or parses a file again.
+    const span = inputDataSpan(data, from, to);
+    const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(span) };
+    // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
+    let references: SweepReferenceRow[] | undefined;
+    const referenceRows = (): SweepReferenceRow[] =>
+      (references ??= sweepReferenceRows({ market: span.market, battery: batteryModel(span.batterySpec), history: span.history, forecast: span.forecast, from, to }, s.unaccepted));
+    return runGridCommand(
+      {
+        command: 'sweep',
+        run: s,
+        lock,
+        axes,
+        taskModule: new URL('./sweepTask.js', import.meta.url),
+        contextInput,
+        identity: { from, to },
+        paths,
+        model,
+        summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext }),
+        moreRows: () => referenceRows(),
+        report: (results, summary) => sweepReport({ results, summary }),
+        summaryText: sweepSummaryText,
+      },
+      hooks,
+    );
+  });
 }
