@@ -313,35 +313,24 @@ export class Forecaster {
     const notes: string[] = [];
     /** The method's quantiles at levels `at`, per slot, on the price scale, before rearrangement. */
     const quantileStep = (at: readonly number[]): number[][] => {
-      let grid: number[][];
-      if (method === 'qra') {
-        grid = quantileRegressionAveraging(
-          point.members,
-          {
-            members: calibration.map((c) => c.forecast.members),
-            realised: calibration.map((c) => c.realised),
-            dayIds: Int32Array.from(calibration, (c) => c.dayNumber),
-          },
+      /** Quantile regression of the realised prices on `regressors` of the calibration days (QRA's solver). */
+      const regressionQuantiles = (target: readonly ArrayLike<number>[], regressors: (c: CalibrationDay) => readonly ArrayLike<number>[], warmStarts: QraWarmStarts) =>
+        quantileRegressionAveraging(
+          target,
+          { members: calibration.map(regressors), realised: calibration.map((c) => c.realised), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) },
           at,
-          this.warmStarts,
+          warmStarts,
           this.options.stopwatch,
         );
+      let grid: number[][];
+      if (method === 'qra') {
+        grid = regressionQuantiles(point.members, (c) => c.forecast.members, this.warmStarts);
       } else if (method === 'arx-conformal') {
         const conformal = conformalQuantiles(centre, errors, at);
         if (conformal.clamped && at === levels) notes.push(`too few calibration days (${calibration.length}) for the outermost levels: the largest absolute error was used`);
         grid = conformal.prices;
       } else if (method === 'driver-qr') {
-        grid = quantileRegressionAveraging(
-          [point.mean, ...view.target.exogenous],
-          {
-            members: calibration.map((c) => [c.forecast.mean, ...c.exogenous]),
-            realised: calibration.map((c) => c.realised),
-            dayIds: Int32Array.from(calibration, (c) => c.dayNumber),
-          },
-          at,
-          this.driverWarmStarts,
-          this.options.stopwatch,
-        );
+        grid = regressionQuantiles([point.mean, ...view.target.exogenous], (c) => [c.forecast.mean, ...c.exogenous], this.driverWarmStarts);
       } else if (method === 'driver-fhs') {
         const features = calibration.map((c) => spreadFeatures(c.exogenous, Float64Array.from(c.forecast.mean, scale.to)));
         grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool);

@@ -1,6 +1,6 @@
 import type { DeliveryPeriod, MarketSpec } from '../types.js';
 import { DayCalendar, locatePeriod } from '../market/dayCalendar.js';
-import { ProblemList } from '../errors/inputError.js';
+import { InputError, ProblemList } from '../errors/inputError.js';
 import { fieldCountProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine } from './csvText.js';
 import { readInputFile } from './readInputFile.js';
 import { shownText } from '../errors/shownText.js';
@@ -39,12 +39,8 @@ export function readScenarioPaths(path: string, market: MarketSpec): ScenarioPat
  */
 export function parseScenarioPaths(text: string, file: string, market: MarketSpec): ScenarioPathsFile {
   const split = splitCsv(text, file);
+  if ('problems' in split) throw new InputError(split.problems);
   const problems = new ProblemList();
-  if ('problems' in split) {
-    split.problems.forEach((p) => problems.add(p));
-    problems.throwIfAny();
-    throw new Error('unreachable');
-  }
   const { header, headerLine, rows } = split.table;
   headerProblems(header, file, headerLine).forEach((p) => problems.add(p));
   problems.throwIfAny();

@@ -9,6 +9,7 @@ import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
 import { fromAsinhScale, robustScale, selectInPlace, toAsinhScale, type RobustScale } from './robustAsinh.js';
+import { weekdayColumns } from './arx.js';
 
 /** Settings of the driver regression; see {@link driverForecast}. */
 export interface DriverSettings {
@@ -33,12 +34,7 @@ export function driverColumns(knots: number): string[] {
     'mean residual load(d-1)',
     'price(d-1,s)',
     'price(d-7,s)',
-    'monday',
-    'tuesday',
-    'wednesday',
-    'thursday',
-    'friday',
-    'saturday',
+    ...weekdayColumns(),
   ];
 }
 

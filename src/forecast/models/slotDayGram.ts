@@ -1,4 +1,5 @@
 import type { StandardisedGram } from '../linalg/standardisedGram.js';
+import { nestedShiftedSums } from '../linalg/nestedShiftedSums.js';
 import { standardiseCentredSums } from '../linalg/standardisedGram.js';
 
 /** Day-level regressors of a per-slot design: the same in every slot of a training day. */
@@ -34,8 +35,8 @@ export class SlotDayGramBuilder {
   private readonly n: number;
   private readonly m: number;
   private readonly shiftDay: Float64Array;
-  private readonly sharedSums: Float64Array[] = [];
-  private readonly sharedProducts: Float64Array[] = [];
+  private readonly sharedSums: Float64Array[];
+  private readonly sharedProducts: Float64Array[];
 
   constructor(
     private readonly day: DayLevelColumns,
@@ -51,23 +52,12 @@ export class SlotDayGramBuilder {
     };
     this.shiftDay = new Float64Array(m);
     if (this.n > 0) rowOf(0, this.shiftDay);
-    const sums = new Float64Array(m);
-    const products = new Float64Array(m * m);
-    const row = new Float64Array(m);
-    let i = 0;
-    for (const count of counts) {
-      for (; i < count; i++) {
-        rowOf(i, row);
-        for (let j = 0; j < m; j++) row[j] = (row[j] as number) - (this.shiftDay[j] as number);
-        for (let j = 0; j < m; j++) {
-          const rj = row[j] as number;
-          sums[j] = (sums[j] as number) + rj;
-          for (let l = j; l < m; l++) products[j * m + l] = (products[j * m + l] as number) + rj * (row[l] as number);
-        }
-      }
-      this.sharedSums.push(Float64Array.from(sums));
-      this.sharedProducts.push(Float64Array.from(products));
-    }
+    const shared = nestedShiftedSums(counts, m, (i, row) => {
+      rowOf(i, row);
+      for (let j = 0; j < m; j++) row[j] = (row[j] as number) - (this.shiftDay[j] as number);
+    });
+    this.sharedSums = shared.sums;
+    this.sharedProducts = shared.products;
   }
 
   /** Per count, the slot's sums of the last full pass (for a pass with a new response only). */
