@@ -43,6 +43,20 @@ beforeAll(async () => {
 }, 120_000);
 
 describe('quantbid backtest --model', () => {
+  it('--model auto records the method chosen each day, as quantbid forecast does, and equals the backtest of its file', async () => {
+    const fc = join(work, 'fc-auto');
+    const viaAuto = join(work, 'via-auto');
+    const viaFile = join(work, 'via-auto-file');
+    expect((await runCli(['backtest', '--scenario', SCENARIO, ...SPAN, '--model', 'auto', '--no-forecast-cache', '--out', viaAuto])).code).toBe(0);
+    expect((await runCli(['forecast', '--scenario', SCENARIO, ...SPAN, '--out', fc])).code).toBe(0);
+    expect((await runCli(['backtest', '--scenario', SCENARIO, ...SPAN, '--forecast', join(fc, 'quantiles.csv'), '--out', viaFile])).code).toBe(0);
+    expect(read(viaAuto, 'days.csv')).toBe(read(viaFile, 'days.csv'));
+    const chosen = JSON.parse(read(viaAuto, 'summary.json')).forecastModel.chosenMethods;
+    expect(chosen).toEqual(JSON.parse(read(fc, 'forecast.json')).chosenMethods);
+    expect(chosen.perDay.map((c: { day: string }) => c.day)).toEqual(['2025-03-05', '2025-03-06', '2025-03-07', '2025-03-08', '2025-03-09']);
+    for (const c of chosen.perDay) expect(['driver-hs', 'arx-hs', 'driver-fhs']).toContain(c.method);
+  }, 300_000);
+
   it('equals quantbid forecast followed by backtest --forecast of its file: days.csv and ledger.csv byte for byte', async () => {
     const fc = join(work, 'fc');
     const viaFile = join(work, 'via-file');
