@@ -15,7 +15,10 @@
 // Prints markdown tables (docs/forecast-quality.md holds them).
 //
 //   npm run build && node bench/forecastKnownMarkets.js [--settings a,b] [--methods auto,arx-hs]
-//        [--from 2031-01-01] [--to 2031-12-31] [--options '{"calibrationDays":182}'] [--out DIR]
+//        [--from 2031-01-01] [--to 2031-12-31] [--options '{"calibrationDays":182}'] [--out DIR] [--draw N]
+//
+// --draw N (N > 0) scores a fresh, independent draw of every setting (generate.js --draw) instead of the
+// bench's own, written to bench/.cache/knownMarkets-drawN.
 //
 // The input files are written to --out (default bench/.cache/knownMarkets) and read back through the
 // project's readers, as `quantbid` reads them; the forecasts are made by forecastRange, as `quantbid
@@ -44,13 +47,14 @@ const { DayCalendar } = await loadDist('market/dayCalendar.js');
 
 const FROM = arg('from', SPAN.truthFrom);
 const TO = arg('to', SPAN.to);
-const OUT = resolve(arg('out', join('bench', '.cache', 'knownMarkets')));
+const DRAW = Number(arg('draw', 0));
+const OUT = resolve(arg('out', join('bench', '.cache', DRAW === 0 ? 'knownMarkets' : `knownMarkets-draw${DRAW}`)));
 const NAMES = arg('settings', SETTINGS.map((s) => s.name).join(',')).split(',');
 const METHODS = arg('methods', FORECAST_METHODS.join(',')).split(',');
 const OPTIONS = JSON.parse(arg('options', '{}'));
 const POLICIES = ['price-taking', 'median'];
 
-const folders = await writeSettings(OUT, NAMES);
+const folders = await writeSettings(OUT, NAMES, DRAW);
 const fmt = (x, d) => (x === null || x === undefined || Number.isNaN(x) ? '-' : x.toFixed(d));
 const percent = (x) => `${fmt(100 * x, 1)}%`;
 const summary = [];
