@@ -8,6 +8,7 @@ import { PeriodLocator } from './periodLocator.js';
 import { PlainRow } from './plainRow.js';
 import { readQuantileHeader } from './quantileHeader.js';
 import { readInputFile } from './readInputFile.js';
+import type { FirstLineCheck } from './sniffText.js';
 import { shownText } from '../errors/shownText.js';
 
 /** A quantile forecast file, validated: complete days by day, and what was repaired or left out. */
@@ -32,11 +33,15 @@ export interface QuantileForecastFile {
  * from the first bytes, before the file is read whole.
  */
 export function readQuantileForecast(path: string, market: MarketSpec): QuantileForecastFile {
-  const firstLine = (line: string, lineNumber: number) => {
+  return parseQuantileForecast(readInputFile(path, { firstLine: quantileHeaderCheck(path) }), path, market);
+}
+
+/** The check of a forecast's header line from the file's first bytes (readInputFile's `firstLine`). */
+export function quantileHeaderCheck(path: string): FirstLineCheck {
+  return (line, lineNumber) => {
     const separator = separatorProblem(line, path, lineNumber);
     return separator === null ? readQuantileHeader(splitCsvLine(line), path, lineNumber).problems : [separator];
   };
-  return parseQuantileForecast(readInputFile(path, { firstLine }), path, market);
 }
 
 /**
