@@ -29,14 +29,18 @@ export interface ReadInputOptions {
  * errors that say what to do; only the first SNIFF_BYTES are read to tell.
  */
 export function readInputFile(path: string, options: ReadInputOptions = {}): string {
-  return readInputBytes(path, options).toString('utf8');
+  return checkedBytes(path, options).toString('utf8');
 }
 
 /**
  * The bytes of a text input file after every check of readInputFile (UTF-8 included), not yet made a
  * string: for a reader that looks at a small part of a large file (the rows of one day).
  */
-export function readInputBytes(path: string, options: ReadInputOptions = {}): Buffer {
+export function readInputBytes(path: string, options: ReadInputOptions = {}): Uint8Array {
+  return checkedBytes(path, options);
+}
+
+function checkedBytes(path: string, options: ReadInputOptions): Buffer {
   const maxBytes = options.maxBytes ?? MAX_INPUT_BYTES;
   const size = checkedSize(path, maxBytes);
   const gzip = path.endsWith('.gz');

@@ -2,13 +2,12 @@ import type { MarketSpec, QuantileDay } from '../types.js';
 import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
 import { rearrange } from '../forecast/quantileSet.js';
 import { isLevel, LEVEL_RANGE_TEXT } from '../forecast/quantiles/levels.js';
-import { ProblemList } from '../errors/inputError.js';
+import { ProblemList, type InputProblem } from '../errors/inputError.js';
 import { fieldCountProblem, hasOpenQuote, openQuoteProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
 import { PeriodLocator } from './periodLocator.js';
 import { PlainRow } from './plainRow.js';
 import { readQuantileHeader } from './quantileHeader.js';
 import { readInputFile } from './readInputFile.js';
-import type { FirstLineCheck } from './sniffText.js';
 import { shownText } from '../errors/shownText.js';
 
 /** A quantile forecast file, validated: complete days by day, and what was repaired or left out. */
@@ -37,7 +36,7 @@ export function readQuantileForecast(path: string, market: MarketSpec): Quantile
 }
 
 /** The check of a forecast's header line from the file's first bytes (readInputFile's `firstLine`). */
-export function quantileHeaderCheck(path: string): FirstLineCheck {
+export function quantileHeaderCheck(path: string): (line: string, lineNumber: number) => readonly InputProblem[] {
   return (line, lineNumber) => {
     const separator = separatorProblem(line, path, lineNumber);
     return separator === null ? readQuantileHeader(splitCsvLine(line), path, lineNumber).problems : [separator];

@@ -27,7 +27,8 @@ export interface QuantileForecastForDay extends QuantileForecastFile {
  * covers.
  */
 export function readQuantileForecastDay(path: string, market: MarketSpec, day: string): QuantileForecastForDay {
-  const bytes = readInputBytes(path, { firstLine: quantileHeaderCheck(path) });
+  const read = readInputBytes(path, { firstLine: quantileHeaderCheck(path) });
+  const bytes = Buffer.from(read.buffer, read.byteOffset, read.byteLength);
   const dayRows = dayLinesText(bytes, day);
   if (dayRows !== null) {
     try {

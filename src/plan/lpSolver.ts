@@ -1,15 +1,4 @@
-import { createRequire } from 'node:module';
-import type { SolveResult } from 'javascript-lp-solver';
-
-/**
- * javascript-lp-solver, loaded the first time an LP is solved (its CommonJS build, synchronously): the
- * day solver rarely needs it, and loading it costs a plan's start-up about a fifth of Node's own.
- */
-let loadedSolver: typeof import('javascript-lp-solver').default | undefined;
-function lpSolverLibrary(): typeof import('javascript-lp-solver').default {
-  loadedSolver ??= createRequire(import.meta.url)('javascript-lp-solver') as typeof import('javascript-lp-solver').default;
-  return loadedSolver;
-}
+import solver, { type SolveResult } from 'javascript-lp-solver';
 
 /**
  * A linear program in the row form javascript-lp-solver reads: each variable lists its coefficient
@@ -41,7 +30,7 @@ export interface LpSolver {
 export const javascriptLpSolver: LpSolver = {
   name: 'javascript-lp-solver',
   solve(model: LpModel): LpResult {
-    const raw = lpSolverLibrary().Solve({
+    const raw = solver.Solve({
       optimize: model.objectiveRow,
       opType: model.direction,
       constraints: model.constraints as Record<string, { max?: number; min?: number; equal?: number }>,
