@@ -1,9 +1,15 @@
 import type { BatteryModel, DayOutcome, DayProblem, HistoryDay, MarketSpec, Order, QuantileDay } from '../types.js';
+import { planCurves } from '../curves/planCurves.js';
 import { planDay } from '../plan/planDay.js';
 import { scheduleOrders } from '../plan/scheduleOrders.js';
 import { NodeLimitError, solveDay, type SolveDayOptions } from '../plan/solveDay.js';
 import { ordersByPeriod } from '../settle/ordersByPeriod.js';
+import type { UnacceptedRule } from '../settle/unacceptedRule.js';
+import type { ProfitDistribution } from '../scenarios/profitDistribution.js';
+import { chooseAuto, type AutoChoice, type Candidate } from './autoChoice.js';
 import type { BacktestPolicy } from './backtestPolicy.js';
+import type { DayBid } from './dayBid.js';
+import type { DayScenarios, ScenarioPlanning } from './scenarioPlanning.js';
 
 export interface PolicyDayRequest {
   readonly policy: BacktestPolicy;
@@ -19,47 +25,73 @@ export interface PolicyDayRequest {
   readonly socStartMwh: number;
   /** Passed to every solveDay call (the place to plug in another solver). */
   readonly solveOptions: Partial<SolveDayOptions>;
+  /** The rule for unaccepted orders (auto scores its candidates under it). */
+  readonly unaccepted: UnacceptedRule;
+  /** Scenario planning, for `curve` and `auto`; null otherwise. */
+  readonly scenarioPlanning: ScenarioPlanning | null;
+  /** The day's scenarios, made once per day for every policy that needs them. */
+  readonly scenarios: (() => DayScenarios) | null;
 }
 
-/** A policy's orders for one day, laid out by period, or why it has none. */
+/** A policy's bids for one day, laid out by period, or why it has none. */
 export type PolicyDayPlan =
   | {
       readonly status: 'optimal';
-      readonly orders: readonly (Order | null)[];
-      /** Objective of the plan at the prices it was scheduled on [currency]. */
+      readonly orders: readonly DayBid[];
+      /** `curves`: the bids are curves, settled by what clears under either rule. */
+      readonly kind: 'schedule' | 'curves';
+      /** Objective of the plan at the prices it was scheduled on [currency] (a curve: its planned mean). */
       readonly plannedValue: number;
+      /** For `curve`: the curves and the flat bids on the planning paths; for `auto`: its choice. */
+      readonly scenarioReport: ScenarioReport | null;
     }
-  | { readonly status: PlanFailure; readonly reason: string; readonly orders: readonly (Order | null)[] };
+  | { readonly status: PlanFailure; readonly reason: string; readonly orders: readonly DayBid[] };
+
+/** What the scenario policies saw that day. */
+export type ScenarioReport =
+  | { readonly kind: 'curve'; readonly chosen: 'curves' | 'flat'; readonly plannedCurves: ProfitDistribution; readonly plannedFlat: ProfitDistribution }
+  | { readonly kind: 'auto'; readonly choice: AutoChoice };
 
 /**
- * Why a policy has no plan for a day: the day problem has no feasible or bounded schedule, or the
- * exact solver could not prove an optimum within its node budget (never a silent suboptimum: the
- * policy then places no orders, and the backtest lists the day).
+ * Why a policy has no plan for a day: the day problem has no feasible or bounded schedule, the exact
+ * solver could not prove an optimum within its node budget, or the curve program failed (never a silent
+ * suboptimum: the policy then places no orders, and the backtest lists the day).
  */
-export type PlanFailure = 'infeasible' | 'unbounded' | 'node-limit';
+export type PlanFailure = 'infeasible' | 'unbounded' | 'node-limit' | 'failed';
 
 /**
  * One policy's orders for one day. `quantile`, `median` and `point` are planDay itself;
  * `price-taking` is the `point` plan with every limit moved to the price cap (buys) or floor (sells);
  * `perfect-foresight` solves the day problem on the realised prices (buy = sell = clearing) with the
  * same end-of-day floor as planDay (the battery's socFinalMinMwh, else the day's starting state) and
- * bids at the cap and floor. Without a plan the policy places no orders that day.
+ * bids at the cap and floor; `curve` plans curves on the day's planning paths (planCurves), falling back
+ * to price-taking's bids; `auto` scores every candidate on the fresh paths and submits the best
+ * (chooseAuto). Without a plan the policy places no orders that day.
  */
 export function planPolicyDay(request: PolicyDayRequest): PolicyDayPlan {
+  const periods = request.forecast.periods.length;
   try {
-    return request.policy === 'perfect-foresight' ? perfectForesight(request) : fromForecast(request, request.policy);
+    switch (request.policy) {
+      case 'perfect-foresight':
+        return perfectForesight(request);
+      case 'curve':
+      case 'auto':
+        return scenarioPolicy(request, request.policy);
+      default:
+        return fromForecast(request, request.policy, request.alpha);
+    }
   } catch (err) {
     if (!(err instanceof NodeLimitError)) throw err;
-    return { status: 'node-limit', reason: err.message, orders: new Array<Order | null>(request.forecast.periods.length).fill(null) };
+    return { status: 'node-limit', reason: err.message, orders: new Array<DayBid>(periods).fill(null) };
   }
 }
 
-function fromForecast(request: PolicyDayRequest, policy: Exclude<BacktestPolicy, 'perfect-foresight'>): PolicyDayPlan {
-  const { forecast, market, battery, alpha, socStartMwh, solveOptions } = request;
+function fromForecast(request: PolicyDayRequest, policy: 'quantile' | 'median' | 'point' | 'price-taking', alpha: number): PolicyDayPlan {
+  const { forecast, market, battery, socStartMwh, solveOptions } = request;
   const plan = planDay({ forecast, market, battery, policy: policy === 'price-taking' ? 'point' : policy, alpha, socStartMwh, solveOptions });
   if (plan.status !== 'optimal') return noPlan(plan, forecast.periods.length);
   const orders = policy === 'price-taking' ? atFloorAndCap(plan.orders, market) : plan.orders;
-  return { status: 'optimal', orders: ordersByPeriod(forecast.periods, orders), plannedValue: plan.outcome.objective };
+  return { status: 'optimal', orders: ordersByPeriod(forecast.periods, orders), kind: 'schedule', plannedValue: plan.outcome.objective, scenarioReport: null };
 }
 
 function perfectForesight(request: PolicyDayRequest): PolicyDayPlan {
@@ -78,7 +110,59 @@ function perfectForesight(request: PolicyDayRequest): PolicyDayPlan {
   // Limits and levels are placeholders here: atFloorAndCap replaces them.
   const realisedPrices = { buyPricePerMwh: [...prices], sellPricePerMwh: [...prices], buyLimitPerMwh: [...prices], sellLimitPerMwh: [...prices], buyLevel: 0.5, sellLevel: 0.5 };
   const orders = atFloorAndCap(scheduleOrders(realised.periods, outcome.schedule, realisedPrices), market);
-  return { status: 'optimal', orders: ordersByPeriod(realised.periods, orders), plannedValue: outcome.objective };
+  return { status: 'optimal', orders: ordersByPeriod(realised.periods, orders), kind: 'schedule', plannedValue: outcome.objective, scenarioReport: null };
+}
+
+function scenarioPolicy(request: PolicyDayRequest, policy: 'curve' | 'auto'): PolicyDayPlan {
+  const { forecast, market, battery, socStartMwh } = request;
+  const planning = request.scenarioPlanning;
+  if (planning === null || request.scenarios === null) throw new RangeError(`planPolicyDay: the ${policy} policy needs scenario planning (paths and a solver)`);
+  const flat = fromForecast(request, 'price-taking', request.alpha);
+  if (flat.status !== 'optimal') return flat;
+  const scenarios = request.scenarios();
+  const socEndMinMwh = battery.socFinalMinMwh ?? socStartMwh;
+  const curve = planCurves({
+    planning: scenarios.planning,
+    market,
+    battery,
+    socStartMwh,
+    socEndMinMwh,
+    steps: planning.curveSteps,
+    riskWeight: planning.riskWeight,
+    flatBids: flat.orders,
+    solver: planning.solver,
+  });
+  if (curve.status !== 'optimal') return { status: curve.status, reason: curve.reason, orders: new Array<DayBid>(forecast.periods.length).fill(null) };
+  const curveKind = curve.chosen === 'curves' ? 'curves' : 'schedule';
+  const curveBids: readonly DayBid[] = curve.chosen === 'curves' ? curve.curveBids : flat.orders;
+  if (policy === 'curve') {
+    const report: ScenarioReport = { kind: 'curve', chosen: curve.chosen, plannedCurves: curve.plannedCurves, plannedFlat: curve.plannedFlat };
+    const planned = curve.chosen === 'curves' ? curve.plannedCurves : curve.plannedFlat;
+    return { status: 'optimal', orders: curveBids, kind: curveKind, plannedValue: planned.mean, scenarioReport: report };
+  }
+  const candidates: Candidate[] = [{ name: 'price-taking', policy: 'price-taking', alpha: null, bids: flat.orders, kind: 'schedule', planned: null }];
+  const point = fromForecast(request, 'point', request.alpha);
+  if (point.status === 'optimal') candidates.push({ name: 'point', policy: 'point', alpha: null, bids: point.orders, kind: 'schedule', planned: null });
+  for (const policyName of ['quantile', 'median'] as const) {
+    for (const alpha of planning.alphas) {
+      const plan = fromForecast(request, policyName, alpha);
+      if (plan.status === 'optimal') candidates.push({ name: `${policyName} ${alpha}`, policy: policyName, alpha, bids: plan.orders, kind: 'schedule', planned: null });
+    }
+  }
+  candidates.push({ name: 'curve', policy: 'curve', alpha: null, bids: curveBids, kind: curveKind, planned: curve.chosen === 'curves' ? curve.plannedCurves : curve.plannedFlat });
+  const choice = chooseAuto({
+    candidates,
+    fresh: scenarios.fresh,
+    battery,
+    periodHours: market.periodMinutes / 60,
+    socStartMwh,
+    socEndMinMwh,
+    unaccepted: request.unaccepted,
+    riskWeight: planning.riskWeight,
+    switchStandardErrors: planning.switchStandardErrors,
+  });
+  const chosen = choice.scores[choice.chosen] as (typeof choice.scores)[number];
+  return { status: 'optimal', orders: chosen.candidate.bids, kind: chosen.candidate.kind, plannedValue: chosen.fresh.mean, scenarioReport: { kind: 'auto', choice } };
 }
 
 /** Orders that are always accepted: buys limited at the cap, sells at the floor, no quantile level. */
@@ -87,5 +171,5 @@ function atFloorAndCap(orders: readonly Order[], market: MarketSpec): Order[] {
 }
 
 function noPlan(outcome: Exclude<DayOutcome, { status: 'optimal' }>, periods: number): PolicyDayPlan {
-  return { status: outcome.status, reason: outcome.reason, orders: new Array<Order | null>(periods).fill(null) };
+  return { status: outcome.status, reason: outcome.reason, orders: new Array<DayBid>(periods).fill(null) };
 }

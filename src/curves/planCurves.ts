@@ -1,5 +1,5 @@
 import type { BatteryModel, MarketSpec } from '../types.js';
-import type { PeriodBid } from '../settle/periodBid.js';
+import type { PeriodBid, PeriodOrder } from '../settle/periodBid.js';
 import { riskAdjustedValue } from '../scenarios/criterion.js';
 import { evaluateBids } from '../scenarios/evaluateBids.js';
 import { CVAR_SHARE, profitDistribution, type ProfitDistribution } from '../scenarios/profitDistribution.js';
@@ -7,7 +7,7 @@ import type { ScenarioSet } from '../scenarios/scenarioSet.js';
 import { solveCurveProgram } from './curveProgram.js';
 import type { SparseLpSolver } from './linearProgram.js';
 import { curvePricePoints } from './pricePoints.js';
-import { curveBids, netSoldFromStored, type StepCurve } from './stepCurve.js';
+import { curveStack, netSoldFromStored, type StepCurve } from './stepCurve.js';
 
 export interface CurvePlanRequest {
   /** Planning paths (never the paths a choice between bids is scored on: those are fresh). */
@@ -32,10 +32,9 @@ export type CurvePlan =
       readonly status: 'optimal';
       /** `curves` when the program's curves value the planning paths higher than the flat bids, else `flat`. */
       readonly chosen: 'curves' | 'flat';
-      /** The program's curves (also when the flat bids were chosen). */
+      /** The program's curves, and the same as stacks of limit orders (also when the flat bids were chosen). */
       readonly curves: readonly StepCurve[];
-      /** The chosen bids. */
-      readonly bids: readonly PeriodBid[];
+      readonly curveBids: readonly (readonly PeriodOrder[])[];
       /** The curves and the flat bids settled on the planning paths. */
       readonly plannedCurves: ProfitDistribution;
       readonly plannedFlat: ProfitDistribution;
@@ -49,9 +48,9 @@ export type CurvePlan =
  * period (curvePricePoints), the stochastic program (solveCurveProgram), the net stored energy of each
  * step turned into net MW sold, and the curves as stacks of limit orders. Both the curves and the flat
  * bids are then settled on the planning paths (under follow-accepted: a curve moves with what clears,
- * and the flat bids are always accepted); the flat bids are returned when the curves do not value the
- * planning paths higher by the criterion, so the result is never worse than price-taking on the paths
- * it was planned on. On fresh paths it can be (backtest/autoChoice.ts scores it there).
+ * and the flat bids are always accepted); `chosen` is `flat` when the curves do not value the planning
+ * paths higher by the criterion, so what is chosen is never worse than price-taking on the paths it was
+ * planned on. On fresh paths it can be (backtest/autoChoice.ts scores it there).
  */
 export function planCurves(request: CurvePlanRequest): CurvePlan {
   const { planning, market, battery, socStartMwh } = request;
@@ -73,17 +72,17 @@ export function planCurves(request: CurvePlanRequest): CurvePlan {
     breakpoints: Array.from((points[t] as (typeof points)[number]).breakpoints),
     netSoldMw: Array.from(stored, (e) => netSoldFromStored(e, battery, periodHours)),
   }));
-  const bids = curveBids(curves, market);
+  const stacks = curves.map((curve) => curveStack(curve, market));
   const settle = (b: readonly PeriodBid[]): ProfitDistribution =>
     profitDistribution(evaluateBids({ bids: b, scenarios: planning, battery, periodHours, socStartMwh, unaccepted: 'follow-accepted' }));
-  const plannedCurves = settle(bids);
+  const plannedCurves = settle(stacks);
   const plannedFlat = settle(request.flatBids);
   const better = riskAdjustedValue(plannedCurves, request.riskWeight) > riskAdjustedValue(plannedFlat, request.riskWeight);
   return {
     status: 'optimal',
     chosen: better ? 'curves' : 'flat',
     curves,
-    bids: better ? bids : request.flatBids,
+    curveBids: stacks,
     plannedCurves,
     plannedFlat,
     program: { objective: outcome.objective, rounds: outcome.rounds, lazyRows: outcome.lazyRows },

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { batteryModel } from '../../battery/batterySpec.js';
 import { backtestMetrics } from '../../backtest/backtestMetrics.js';
-import { BACKTEST_POLICIES, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
+import { BACKTEST_POLICIES, DEFAULT_BACKTEST_POLICIES, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
 import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay } from '../../backtest/runBacktest.js';
 import { daysBetween } from '../../market/calendar.js';
 import { LEDGER_COLUMNS, daysCsv, ledgerRows } from '../../io/backtestOutputs.js';
@@ -29,12 +29,12 @@ export const backtestSettingsSchema = z
     alpha: alphaSchema.default(BACKTEST_DEFAULTS.alpha),
     /** What the battery does about unaccepted orders; default follow-plan. */
     unaccepted: unacceptedRuleSchema.default(BACKTEST_DEFAULTS.unaccepted),
-    /** Policies replayed side by side, each once; default all five. */
+    /** Policies replayed side by side, each once; default the five that need no scenarios. */
     policies: z
       .array(z.enum(BACKTEST_POLICIES as readonly BacktestPolicy[] as [BacktestPolicy, ...BacktestPolicy[]]))
       .min(1)
       .refine((list) => new Set(list).size === list.length, 'each policy may appear once')
-      .default([...BACKTEST_POLICIES]),
+      .default([...DEFAULT_BACKTEST_POLICIES]),
     /** Folder for ledger.csv, days.csv, summary.json (and report.html). */
     out: outFolderSchema,
     /** Overwrite existing outputs. */

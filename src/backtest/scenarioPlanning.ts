@@ -1,0 +1,46 @@
+import type { QuantileDay } from '../types.js';
+import type { SparseLpSolver } from '../curves/linearProgram.js';
+import type { ScenarioSet } from '../scenarios/scenarioSet.js';
+
+/**
+ * A day's scenarios: planning paths, on which curves are chosen, and fresh paths, drawn apart from them,
+ * on which every candidate is scored (docs/design.md section 4.6). Scoring on the planning paths would
+ * flatter whatever was fitted to them.
+ */
+export interface DayScenarios {
+  readonly planning: ScenarioSet;
+  readonly fresh: ScenarioSet;
+}
+
+/** Makes the scenarios of a delivery day from its quantile forecast (the app decides how: paths and seeds). */
+export type DayScenarioSource = (forecast: QuantileDay) => DayScenarios;
+
+/** What the `curve` and `auto` policies need besides a day's forecast. */
+export interface ScenarioPlanning {
+  readonly scenarios: DayScenarioSource;
+  readonly solver: SparseLpSolver;
+  /** Most steps of a period's curve [-]. */
+  readonly curveSteps: number;
+  /** lambda >= 0 of the criterion mean + lambda x CVaR 5 % (scenarios/criterion.ts). */
+  readonly riskWeight: number;
+  /** The alphas of the quantile and median candidates of `auto` (each with 1 - alpha in the forecast's levels). */
+  readonly alphas: readonly number[];
+  /**
+   * z [-]: `auto` leaves price-taking only for a candidate whose advantage over it on the fresh paths
+   * exceeds z standard errors of the paired difference (winner's-curse control).
+   */
+  readonly switchStandardErrors: number;
+}
+
+/**
+ * Defaults of scenario planning; the numbers of paths and of curve steps, and z, were chosen on the
+ * known-distribution bench (docs/scenario-bids.md) across all its settings.
+ */
+export const SCENARIO_DEFAULTS = Object.freeze({
+  planningPaths: 100,
+  freshPaths: 1000,
+  curveSteps: 4,
+  riskWeight: 0,
+  alphas: Object.freeze([0.05, 0.1, 0.2, 0.3, 0.4]),
+  switchStandardErrors: 2,
+});
