@@ -9,17 +9,22 @@ export type InputName = 'market' | 'battery' | 'forecast' | 'history';
 
 /**
  * Input paths from the files named on their own, else from the scenario file. A missing input is a
- * command-line problem, a scenario entry naming a file that does not exist a problem of the scenario
+ * command-line problem (an `optional` one is left out), a scenario entry naming a file that does not exist a problem of the scenario
  * file; all are listed together. Paths are relative to the working folder.
  */
-export function inputFiles<N extends InputName>(sources: InputSources, names: readonly N[]): { paths: Record<N, string>; demoDay?: string } {
+export function inputFiles<N extends InputName, O extends InputName = never>(
+  sources: InputSources,
+  names: readonly N[],
+  optional: readonly O[] = [],
+): { paths: Record<N, string> & Partial<Record<O, string>>; demoDay?: string } {
   const scenario = sources.scenario === undefined ? undefined : readScenario(sources.scenario);
-  const paths = {} as Record<N, string>;
+  const paths = {} as Record<N | O, string>;
   const problems: InputProblem[] = [];
-  for (const name of names) {
+  for (const name of [...names, ...optional]) {
     const named = sources[name] === undefined ? scenario?.[name] : undefined;
     const path = sources[name] ?? (named === undefined ? undefined : relative(process.cwd(), named));
     if (path === undefined) {
+      if ((optional as readonly InputName[]).includes(name)) continue;
       problems.push({ file: 'command line', field: `--${name}`, message: `no ${name} file given`, fix: `give --${name} FILE, or --scenario FILE with a "${name}" entry` });
     } else if (scenario !== undefined && named !== undefined && pathKind(named) !== 'file') {
       const line = scenario.lines[name];

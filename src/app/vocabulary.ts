@@ -4,6 +4,7 @@
  */
 export { BACKTEST_POLICIES, type BacktestPolicy } from '../backtest/backtestPolicy.js';
 export { BACKTEST_DEFAULTS } from '../backtest/runBacktest.js';
+export { SCENARIO_DEFAULTS } from '../backtest/scenarioPlanning.js';
 export { SWEEP_POLICIES, type SweepPolicy } from '../backtest/sweepSettingRow.js';
 export { DEFAULTS as FORECAST_OPTION_DEFAULTS, FORECAST_METHODS, type ForecastMethod } from '../forecast/forecaster.js';
 export { isValidDay } from '../market/calendar.js';

@@ -1,5 +1,6 @@
 import type { BatteryModel } from '../types.js';
 import type { UnacceptedRule } from '../settle/unacceptedRule.js';
+import { VALUE_TOLERANCE } from '../curves/planCurves.js';
 import { riskAdjustedValue } from '../scenarios/criterion.js';
 import { evaluateBids, type PathOutcomes } from '../scenarios/evaluateBids.js';
 import { CVAR_SHARE, profitDistribution, type ProfitDistribution } from '../scenarios/profitDistribution.js';
@@ -92,12 +93,16 @@ export function chooseAuto(request: AutoRequest): AutoChoice {
   });
   const reference = terms[0] as Float64Array;
   const scores: CandidateScore[] = partial.map((p, i) => ({ ...p, advantage: pairedDifference(terms[i] as Float64Array, reference) }));
+  // Ties and differences of rounding go to the earlier candidate, price-taking first.
+  const tolerance = (value: number): number => VALUE_TOLERANCE * Math.max(1, Math.abs(value));
   let best = 0;
   scores.forEach((s, i) => {
-    if (s.value > (scores[best] as CandidateScore).value) best = i;
+    const leader = (scores[best] as CandidateScore).value;
+    if (s.value > leader + tolerance(leader)) best = i;
   });
   const winner = scores[best] as CandidateScore;
-  const significant = best !== 0 && winner.advantage.mean > request.switchStandardErrors * winner.advantage.standardError;
+  const { mean, standardError } = winner.advantage;
+  const significant = best !== 0 && mean > request.switchStandardErrors * standardError && mean > tolerance((scores[0] as CandidateScore).value);
   return { scores, chosen: significant ? best : 0, best };
 }
 

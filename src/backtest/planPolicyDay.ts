@@ -5,7 +5,6 @@ import { scheduleOrders } from '../plan/scheduleOrders.js';
 import { NodeLimitError, solveDay, type SolveDayOptions } from '../plan/solveDay.js';
 import { ordersByPeriod } from '../settle/ordersByPeriod.js';
 import type { UnacceptedRule } from '../settle/unacceptedRule.js';
-import type { ProfitDistribution } from '../scenarios/profitDistribution.js';
 import { chooseAuto, type AutoChoice, type Candidate } from './autoChoice.js';
 import type { BacktestPolicy } from './backtestPolicy.js';
 import type { DayBid } from './dayBid.js';
@@ -15,8 +14,8 @@ export interface PolicyDayRequest {
   readonly policy: BacktestPolicy;
   /** The day's quantile forecast (the only forecast information a policy sees). */
   readonly forecast: QuantileDay;
-  /** The day's realised prices: seen only by `perfect-foresight`. */
-  readonly realised: HistoryDay;
+  /** The day's realised prices: seen only by `perfect-foresight`; null when planning a day ahead. */
+  readonly realised: HistoryDay | null;
   readonly market: MarketSpec;
   readonly battery: BatteryModel;
   /** Central interval [q(alpha), q(1 - alpha)], in (0, 0.5). */
@@ -40,17 +39,17 @@ export type PolicyDayPlan =
       readonly orders: readonly DayBid[];
       /** `curves`: the bids are curves, settled by what clears under either rule. */
       readonly kind: 'schedule' | 'curves';
-      /** Objective of the plan at the prices it was scheduled on [currency] (a curve: its planned mean). */
+      /** Objective of the plan at the prices it was scheduled on [currency] (curve, auto: the mean on the fresh paths). */
       readonly plannedValue: number;
-      /** For `curve`: the curves and the flat bids on the planning paths; for `auto`: its choice. */
+      /** For `curve` and `auto`: the candidates scored on the fresh paths and the choice. */
       readonly scenarioReport: ScenarioReport | null;
     }
   | { readonly status: PlanFailure; readonly reason: string; readonly orders: readonly DayBid[] };
 
-/** What the scenario policies saw that day. */
-export type ScenarioReport =
-  | { readonly kind: 'curve'; readonly chosen: 'curves' | 'flat'; readonly plannedCurves: ProfitDistribution; readonly plannedFlat: ProfitDistribution }
-  | { readonly kind: 'auto'; readonly choice: AutoChoice };
+/** What the scenario policies saw that day: every candidate scored on the fresh paths, and the choice. */
+export interface ScenarioReport {
+  readonly choice: AutoChoice;
+}
 
 /**
  * Why a policy has no plan for a day: the day problem has no feasible or bounded schedule, the exact
@@ -64,9 +63,10 @@ export type PlanFailure = 'infeasible' | 'unbounded' | 'node-limit' | 'failed';
  * `price-taking` is the `point` plan with every limit moved to the price cap (buys) or floor (sells);
  * `perfect-foresight` solves the day problem on the realised prices (buy = sell = clearing) with the
  * same end-of-day floor as planDay (the battery's socFinalMinMwh, else the day's starting state) and
- * bids at the cap and floor; `curve` plans curves on the day's planning paths (planCurves), falling back
- * to price-taking's bids; `auto` scores every candidate on the fresh paths and submits the best
- * (chooseAuto). Without a plan the policy places no orders that day.
+ * bids at the cap and floor; `curve` plans curves on the day's planning paths (planCurves) and submits
+ * them when they beat price-taking on the fresh paths by the switching rule, else price-taking's bids;
+ * `auto` does the same with every candidate (price-taking, point, quantile and median over the alphas,
+ * curve; chooseAuto). Without a plan the policy places no orders that day.
  */
 export function planPolicyDay(request: PolicyDayRequest): PolicyDayPlan {
   const periods = request.forecast.periods.length;
@@ -96,6 +96,7 @@ function fromForecast(request: PolicyDayRequest, policy: 'quantile' | 'median' |
 
 function perfectForesight(request: PolicyDayRequest): PolicyDayPlan {
   const { realised, market, battery, socStartMwh } = request;
+  if (realised === null) throw new RangeError('planPolicyDay: perfect foresight needs the realised prices');
   const prices = realised.pricePerMwh;
   const problem: DayProblem = {
     periodHours: market.periodMinutes / 60,
@@ -135,18 +136,15 @@ function scenarioPolicy(request: PolicyDayRequest, policy: 'curve' | 'auto'): Po
   if (curve.status !== 'optimal') return { status: curve.status, reason: curve.reason, orders: new Array<DayBid>(forecast.periods.length).fill(null) };
   const curveKind = curve.chosen === 'curves' ? 'curves' : 'schedule';
   const curveBids: readonly DayBid[] = curve.chosen === 'curves' ? curve.curveBids : flat.orders;
-  if (policy === 'curve') {
-    const report: ScenarioReport = { kind: 'curve', chosen: curve.chosen, plannedCurves: curve.plannedCurves, plannedFlat: curve.plannedFlat };
-    const planned = curve.chosen === 'curves' ? curve.plannedCurves : curve.plannedFlat;
-    return { status: 'optimal', orders: curveBids, kind: curveKind, plannedValue: planned.mean, scenarioReport: report };
-  }
-  const candidates: Candidate[] = [{ name: 'price-taking', policy: 'price-taking', alpha: null, bids: flat.orders, kind: 'schedule', planned: null }];
-  const point = fromForecast(request, 'point', request.alpha);
-  if (point.status === 'optimal') candidates.push({ name: 'point', policy: 'point', alpha: null, bids: point.orders, kind: 'schedule', planned: null });
-  for (const policyName of ['quantile', 'median'] as const) {
-    for (const alpha of planning.alphas) {
-      const plan = fromForecast(request, policyName, alpha);
-      if (plan.status === 'optimal') candidates.push({ name: `${policyName} ${alpha}`, policy: policyName, alpha, bids: plan.orders, kind: 'schedule', planned: null });
+  const candidates: Candidate[] = [{ name: 'price-taking', policy: 'price-taking', alpha: null, bids: flat.orders, kind: 'schedule', planned: curve.plannedFlat }];
+  if (policy === 'auto') {
+    const point = fromForecast(request, 'point', request.alpha);
+    if (point.status === 'optimal') candidates.push({ name: 'point', policy: 'point', alpha: null, bids: point.orders, kind: 'schedule', planned: null });
+    for (const policyName of ['quantile', 'median'] as const) {
+      for (const alpha of planning.alphas) {
+        const plan = fromForecast(request, policyName, alpha);
+        if (plan.status === 'optimal') candidates.push({ name: `${policyName} ${alpha}`, policy: policyName, alpha, bids: plan.orders, kind: 'schedule', planned: null });
+      }
     }
   }
   candidates.push({ name: 'curve', policy: 'curve', alpha: null, bids: curveBids, kind: curveKind, planned: curve.chosen === 'curves' ? curve.plannedCurves : curve.plannedFlat });
@@ -162,7 +160,7 @@ function scenarioPolicy(request: PolicyDayRequest, policy: 'curve' | 'auto'): Po
     switchStandardErrors: planning.switchStandardErrors,
   });
   const chosen = choice.scores[choice.chosen] as (typeof choice.scores)[number];
-  return { status: 'optimal', orders: chosen.candidate.bids, kind: chosen.candidate.kind, plannedValue: chosen.fresh.mean, scenarioReport: { kind: 'auto', choice } };
+  return { status: 'optimal', orders: chosen.candidate.bids, kind: chosen.candidate.kind, plannedValue: chosen.fresh.mean, scenarioReport: { choice } };
 }
 
 /** Orders that are always accepted: buys limited at the cap, sells at the floor, no quantile level. */

@@ -9,6 +9,9 @@ import type { SparseLpSolver } from './linearProgram.js';
 import { curvePricePoints } from './pricePoints.js';
 import { curveStack, netSoldFromStored, type StepCurve } from './stepCurve.js';
 
+/** Relative difference of two values below which they are the same value, rounding apart [-]. */
+export const VALUE_TOLERANCE = 1e-9;
+
 export interface CurvePlanRequest {
   /** Planning paths (never the paths a choice between bids is scored on: those are fresh). */
   readonly planning: ScenarioSet;
@@ -77,7 +80,9 @@ export function planCurves(request: CurvePlanRequest): CurvePlan {
     profitDistribution(evaluateBids({ bids: b, scenarios: planning, battery, periodHours, socStartMwh, unaccepted: 'follow-accepted' }));
   const plannedCurves = settle(stacks);
   const plannedFlat = settle(request.flatBids);
-  const better = riskAdjustedValue(plannedCurves, request.riskWeight) > riskAdjustedValue(plannedFlat, request.riskWeight);
+  const flatValue = riskAdjustedValue(plannedFlat, request.riskWeight);
+  // Better by more than rounding: a curve that is the flat bids in all but name is not chosen.
+  const better = riskAdjustedValue(plannedCurves, request.riskWeight) > flatValue + VALUE_TOLERANCE * Math.max(1, Math.abs(flatValue));
   return {
     status: 'optimal',
     chosen: better ? 'curves' : 'flat',

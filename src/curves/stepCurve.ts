@@ -1,4 +1,4 @@
-import type { BatteryModel, DeliveryPeriod, MarketSpec, Order } from '../types.js';
+import type { BatteryModel, MarketSpec } from '../types.js';
 import type { PeriodBid, PeriodOrder } from '../settle/periodBid.js';
 import { stepOf } from './pricePoints.js';
 
@@ -62,16 +62,6 @@ export function curveStack(curve: StepCurve, market: MarketSpec): PeriodOrder[] 
 /** The bid of every period of a day of curves: its stack (an empty curve is an empty stack). */
 export function curveBids(curves: readonly StepCurve[], market: MarketSpec): PeriodBid[] {
   return curves.map((curve) => curveStack(curve, market));
-}
-
-/** The rows of orders.csv for a day of curves: each period's stack, one row per step, no quantile level. */
-export function curveOrders(periods: readonly DeliveryPeriod[], curves: readonly StepCurve[], market: MarketSpec): Order[] {
-  const orders: Order[] = [];
-  curves.forEach((curve, t) => {
-    const period = periods[t] as DeliveryPeriod;
-    for (const o of curveStack(curve, market)) orders.push({ periodStart: period.start, periodEnd: period.end, side: o.side, quantityMw: o.quantityMw, limitPrice: o.limitPrice, quantileLevel: null });
-  });
-  return orders;
 }
 
 /** The curve's net quantity sold at a clearing price [MW] (the step the price falls in). */

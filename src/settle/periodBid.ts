@@ -10,7 +10,7 @@ export type PeriodOrder = Pick<Order, 'side' | 'quantityMw' | 'limitPrice'>;
  * - a curve: a stack of limit orders (an array, even of one), buys and sells. Whatever the clearing
  *   price pi, the stack sells sum{sells with limit <= pi} - sum{buys with limit >= pi}: a quantity
  *   that never falls as pi rises, so every stack is a monotone bid curve, and a step curve is exactly
- *   such a stack (curves/curveOrders.ts).
+ *   such a stack (curves/stepCurve.ts).
  * A curve has no schedule apart from what clears, so it is settled by what cleared under either rule
  * for unaccepted orders (settleDay refuses a curve under follow-plan).
  */

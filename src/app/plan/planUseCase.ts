@@ -9,15 +9,23 @@ import { PLAN_POLICIES } from '../../plan/alpha.js';
 import { planDay } from '../../plan/planDay.js';
 import { planReport } from '../../report/planReport.js';
 import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
+import type { SparseLpSolver } from '../../curves/linearProgram.js';
+import type { UnacceptedRule } from '../../settle/unacceptedRule.js';
 import type { Done } from '../commandResult.js';
 import { forecastLevelProblems } from '../forecastLevels.js';
 import { inputFiles } from '../inputFiles.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
+import { scenarioSettingsSchema, type ScenarioSettings } from '../scenarios/scenarioSettings.js';
+import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { SCENARIO_PLAN_OUTPUTS, scenarioPlan, type ScenarioPlanSummary } from './scenarioPlan.js';
 import { planSummary, planSummaryText } from './planSummary.js';
 
+/** The policies of `quantbid plan`: the schedule policies, and curve and auto on whole-day scenarios. */
+export const PLAN_COMMAND_POLICIES = Object.freeze([...PLAN_POLICIES, 'curve', 'auto'] as const);
+export type PlanCommandPolicy = PlanPolicy | 'curve' | 'auto';
+
 /** Defaults of `quantbid plan`: the quantile policy at alpha 0.1. */
-export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanPolicy });
+export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanCommandPolicy, unaccepted: 'follow-plan' as UnacceptedRule });
 
 /** The settings of `quantbid plan`, checked once when the plan starts. */
 export const planSettingsSchema = z.strictObject({
@@ -28,7 +36,11 @@ export const planSettingsSchema = z.strictObject({
   /** Central interval [q(alpha), q(1 - alpha)]; default 0.1. */
   alpha: alphaSchema.default(PLAN_DEFAULTS.alpha),
   /** Planning policy; default quantile. */
-  policy: z.enum(PLAN_POLICIES as readonly PlanPolicy[] as [PlanPolicy, ...PlanPolicy[]]).default(PLAN_DEFAULTS.policy),
+  policy: z.enum(PLAN_COMMAND_POLICIES as readonly PlanCommandPolicy[] as [PlanCommandPolicy, ...PlanCommandPolicy[]]).default(PLAN_DEFAULTS.policy),
+  /** Paths and settings of the curve and auto policies (required by them). */
+  scenarios: scenarioSettingsSchema.optional(),
+  /** What the battery does about unaccepted orders: auto scores its candidates under it. Default follow-plan. */
+  unaccepted: unacceptedRuleSchema.default(PLAN_DEFAULTS.unaccepted),
   /** State of charge at the start of the day [MWh]; default socInitialFraction x energyMwh. */
   socStartMwh: z.number().finite().min(0).optional(),
   /** Folder for orders.csv, schedule.csv, plan.json (and report.html); none: nothing is written. */
@@ -41,7 +53,12 @@ export const planSettingsSchema = z.strictObject({
 
 export type PlanSettings = z.input<typeof planSettingsSchema>;
 
-export type PlanSummary = ReturnType<typeof planSummary>;
+export type PlanSummary = ReturnType<typeof planSummary> | ScenarioPlanSummary;
+
+/** What a plan may need besides its settings: the LP solver of the curve and auto policies (app/solver/highsSolver.ts). */
+export interface PlanTools {
+  readonly lpSolver?: SparseLpSolver;
+}
 
 const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
 
@@ -49,9 +66,13 @@ const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
  * `quantbid plan`: one delivery day's orders and schedule from the quantile forecast (planDay), written
  * as orders.csv, schedule.csv, plan.json and, when asked, report.html into `out` as one output set.
  */
-export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOKS): Done<PlanSummary> {
+export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOKS, tools: PlanTools = {}): Done<PlanSummary> {
   const s = validSettings(planSettingsSchema, settings, 'plan');
-  const { paths, demoDay } = inputFiles(s.inputs, ['market', 'battery', 'forecast']);
+  const onScenarios = s.policy === 'curve' || s.policy === 'auto';
+  if (onScenarios && s.scenarios === undefined) {
+    throw new InputError([{ file: 'command line', field: '--paths', message: `the ${s.policy} policy plans on whole-day price paths and none were given`, fix: 'give --paths FILE (quantbid forecast --paths 364 writes one)' }]);
+  }
+  const { paths, demoDay } = inputFiles(s.inputs, ['market', 'battery', 'forecast'], onScenarios ? ['history'] : []);
   const day = s.day ?? demoDay;
   if (day === undefined) {
     throw new InputError([{ file: 'command line', field: '--day', message: 'no delivery day given', fix: 'give --day YYYY-MM-DD' }]);
@@ -59,7 +80,7 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
   if (s.report && s.out === undefined) {
     throw new InputError([{ file: 'command line', field: '--report', message: 'report.html needs a folder to go to', fix: 'add --out DIR' }]);
   }
-  const outputs = s.report ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS;
+  const outputs = onScenarios ? [...SCENARIO_PLAN_OUTPUTS, ...(s.report ? ['report.html'] : [])] : s.report ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS;
   if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force);
   const { market, battery, forecastFile } = readPlanInputs(paths, (text) => hooks.note(text));
   const forecast = forecastDay(forecastFile, day);
@@ -68,6 +89,14 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
     throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is outside the battery's window [${battery.socMinMwh}, ${battery.socMaxMwh}] MWh`, fix: 'give a state of charge inside the window' }]);
   }
   throwIfProblems(forecastLevelProblems(forecastFile.levels, forecastFile.file, { policies: [s.policy], alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policy' }));
+  if (s.policy === 'curve' || s.policy === 'auto') {
+    if (tools.lpSolver === undefined) throw new Error(`planUseCase: the ${s.policy} policy needs tools.lpSolver (loadHighsSolver)`);
+    const inputs: Record<string, string> = { ...paths };
+    return scenarioPlan(
+      { day, policy: s.policy, scenarios: s.scenarios as ScenarioSettings, market, battery, forecastFile, forecast, socStartMwh, unaccepted: s.unaccepted, inputs, out: s.out, force: s.force, report: s.report, solver: tools.lpSolver },
+      hooks,
+    );
+  }
   const result = planDay({ forecast, market, battery, policy: s.policy, alpha: s.alpha, socStartMwh });
   if (result.status !== 'optimal') {
     throw new InputError([{ file: paths.battery, message: `no feasible plan for ${day}: ${result.reason}`, fix: 'check the battery spec and --soc-start' }]);
