@@ -5,6 +5,9 @@
 // the year's profit of both, their ratio, the mean of the worst 5 % of days (CVaR 5 % of daily profit),
 // what auto submitted, and, per day, the curves against price-taking on the fresh paths (how often the
 // curves' fresh mean is below price-taking's by more than one standard error); writes JSON (--json).
+// Beside the realised profit (one draw of each day, where a single price spike can decide a year) it
+// prints the EXPECTED profit: each day's submitted bids settled, from the state of charge the policy
+// was in, on 2,000 further true paths of the day (the mean over the true law, up to its sampling error).
 //
 //   npm run build && node bench/scenarioBids/yearAuto.js [--settings a,b] [--json out.json] [--days N]
 import { writeFileSync } from 'node:fs';
@@ -19,6 +22,9 @@ const { loadHighsSolver } = await dist('app/solver/highsSolver.js');
 const { runBacktest } = await dist('backtest/runBacktest.js');
 const { SCENARIO_DEFAULTS } = await dist('backtest/scenarioPlanning.js');
 const { worstTailMean } = await dist('stats/worstTailMean.js');
+const { evaluateBids } = await dist('scenarios/evaluateBids.js');
+const { scenarioSet } = await dist('scenarios/scenarioSet.js');
+const TEST_PATHS = 2000;
 
 const settings = option('settings', SETTING_NAMES.join(',')).split(',');
 const dayLimit = option('days', undefined);
@@ -33,12 +39,22 @@ for (const name of settings) {
   for (const rule of RULES) {
     const cpu0 = process.cpuUsage();
     const wall0 = performance.now();
+    const expected = [[], []];
+    const onLedgerDay = (day) => {
+      const p = known.paths(day.day, TEST_PATHS, 'test');
+      const test = scenarioSet(p.clearing, p.imbalance, p.imbalance);
+      day.runs.forEach((run, i) => {
+        const profit = evaluateBids({ bids: run.ledger.orders, scenarios: test, battery, periodHours: known.market.periodMinutes / 60, socStartMwh: run.socStartMwh, unaccepted: run.bidKind === 'curves' ? 'follow-accepted' : rule }).profit;
+        expected[i].push(profit.reduce((a, b) => a + b, 0) / profit.length);
+      });
+    };
     const result = runBacktest(
       { market: known.market, battery, history: known.history, forecast: { days: known.forecastDays, incompleteDays: [] }, from: days[0], to: days[days.length - 1] },
       {
         policies: ['price-taking', 'auto'],
         unaccepted: rule,
         keepLedger: false,
+        onLedgerDay,
         scenarioPlanning: {
           scenarios: source, solver, curveSteps: SCENARIO_DEFAULTS.curveSteps, riskWeight: SCENARIO_DEFAULTS.riskWeight,
           alphas: SCENARIO_DEFAULTS.alphas, switchStandardErrors: SCENARIO_DEFAULTS.switchStandardErrors,
@@ -72,6 +88,9 @@ for (const name of settings) {
       priceTaking: sum(taking),
       auto: sum(auto),
       ratio: sum(auto) / sum(taking),
+      expectedPriceTaking: sum(expected[0]),
+      expectedAuto: sum(expected[1]),
+      expectedRatio: sum(expected[1]) / sum(expected[0]),
       worst5PriceTaking: worstTailMean(taking, 0.05),
       worst5Auto: worstTailMean(auto, 0.05),
       daysSwitched: result.days.length - (submitted['price-taking'] ?? 0),
@@ -83,7 +102,7 @@ for (const name of settings) {
     };
     results.push(row);
     console.log(
-      `${name.padEnd(20)} ${rule.padEnd(16)} days ${row.days}  price-taking ${row.priceTaking.toFixed(0).padStart(9)}  auto ${row.auto.toFixed(0).padStart(9)}  ratio ${row.ratio.toFixed(3)}  worst 5% ${row.worst5PriceTaking.toFixed(0)} / ${row.worst5Auto.toFixed(0)}  switched ${row.daysSwitched}  curve fresh < -1 se on ${curveBelow}/${curveDays} days  cpu ${row.cpuSeconds.toFixed(0)} s`,
+      `${name.padEnd(20)} ${rule.padEnd(16)} days ${row.days}  realised: price-taking ${row.priceTaking.toFixed(0).padStart(9)}  auto ${row.auto.toFixed(0).padStart(9)}  ratio ${row.ratio.toFixed(3)}  expected: ${row.expectedPriceTaking.toFixed(0)} / ${row.expectedAuto.toFixed(0)} ratio ${row.expectedRatio.toFixed(3)}  worst 5% ${row.worst5PriceTaking.toFixed(0)} / ${row.worst5Auto.toFixed(0)}  switched ${row.daysSwitched}  curve fresh < -1 se on ${curveBelow}/${curveDays} days  cpu ${row.cpuSeconds.toFixed(0)} s`,
     );
     console.log(`    submitted: ${Object.entries(submitted).map(([k, v]) => `${k} ${v}`).join(', ')}`);
   }

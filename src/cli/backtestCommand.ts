@@ -17,12 +17,16 @@ import {
   requireSpanAndOut,
   spanOptions,
   unacceptedOption,
+  addScenarioOptions,
+  scenarioSettings,
   type InputFlags,
   type ModelFlags,
+  type ScenarioFlags,
 } from './options.js';
+import { loadHighsSolver } from '../app/solver/highsSolver.js';
 import { printResult } from './printResult.js';
 
-export interface BacktestFlags extends InputFlags, ModelFlags {
+export interface BacktestFlags extends InputFlags, ModelFlags, ScenarioFlags {
   readonly from?: string;
   readonly to?: string;
   readonly alpha: number;
@@ -53,7 +57,8 @@ export function backtestCommand(io: CliIo): Command {
     .addOption(to)
     .addOption(alphaOption('central interval [q(alpha), q(1-alpha)] of the quantile and median policies', BACKTEST_DEFAULTS.alpha))
     .addOption(unacceptedOption('unaccepted orders: follow-plan (close them at the imbalance price) | follow-accepted (move only with accepted orders)', BACKTEST_DEFAULTS.unaccepted))
-    .option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}`, parsePoliciesArg, [...BACKTEST_DEFAULTS.policies])
+    .option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')} (curve and auto plan on --paths)`, parsePoliciesArg, [...BACKTEST_DEFAULTS.policies]);
+  addScenarioOptions(command)
     .addOption(outOption('folder for ledger.csv, days.csv and summary.json (required)'))
     .addOption(reportOption('also write report.html into --out: cumulative profit, daily profit, acceptance, imbalance energy, month table'))
     .addOption(quietOption())
@@ -71,11 +76,14 @@ Examples:
   quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-06-01 --to 2026-06-30 \\
                     --policies quantile,point,perfect-foresight --out runs/june --json
   quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-03-01 --to 2026-03-31 \\
-                    --model arx-hs --levels 0.05:0.95:0.05 --out runs/march-arx`,
+                    --model arx-hs --levels 0.05:0.95:0.05 --out runs/march-arx
+  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-12-01 --to 2026-12-07 \\
+                    --policies price-taking,auto --paths runs/fc/paths.csv --out runs/auto`,
   );
-  command.action((flags: BacktestFlags) => {
+  command.action(async (flags: BacktestFlags) => {
     const span = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'ledger.csv, days.csv and summary.json' });
     const model = modelSettings(flags);
+    const scenarios = scenarioSettings(flags);
     const settings = {
       inputs: inputSources(flags),
       ...(model === undefined ? {} : { model }),
@@ -83,10 +91,13 @@ Examples:
       alpha: flags.alpha,
       unaccepted: flags.unaccepted,
       policies: [...flags.policies],
+      ...(scenarios === undefined ? {} : { scenarios }),
       force: flags.force === true,
       report: flags.report === true,
     };
-    printResult(io, backtestUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
+    // HiGHS is loaded only when a policy plans on scenarios.
+    const tools = scenarios !== undefined && flags.policies.some((p) => p === 'curve' || p === 'auto') ? { lpSolver: await loadHighsSolver() } : {};
+    printResult(io, backtestUseCase(settings, cliHooks(io, flags.quiet === true), tools), flags.json === true);
   });
   return command;
 }

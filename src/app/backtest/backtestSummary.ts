@@ -1,5 +1,6 @@
 import type { BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import type { BacktestResult } from '../../backtest/runBacktest.js';
+import { scenarioChoices } from '../../backtest/scenarioChoices.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import { imbalanceDescription } from '../../report/imbalanceDescription.js';
 import type { BatteryModel, MarketSpec } from '../../types.js';
@@ -49,6 +50,7 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
     skippedDays: result.skippedDays,
     plansMissing: plansMissing(result),
     months: metrics.months,
+    ...(result.policies.some((p) => p === 'curve' || p === 'auto') ? { scenarioChoices: scenarioChoices(result) } : {}),
   };
 }
 

@@ -11,6 +11,8 @@ import { backtestReport } from '../../report/backtestReport.js';
 import type { Done } from '../commandResult.js';
 import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
+import { requireScenarioSettings, scenarioPlanningOf, type ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
+import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { readRunInputs, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { backtestSummary, backtestSummaryText } from './backtestSummary.js';
@@ -35,6 +37,8 @@ export const backtestSettingsSchema = z
       .min(1)
       .refine((list) => new Set(list).size === list.length, 'each policy may appear once')
       .default([...DEFAULT_BACKTEST_POLICIES]),
+    /** Paths and settings of the curve and auto policies (required by them). */
+    scenarios: scenarioSettingsSchema.optional(),
     /** Folder for ledger.csv, days.csv, summary.json (and report.html). */
     out: outFolderSchema,
     /** Overwrite existing outputs. */
@@ -55,8 +59,9 @@ const BACKTEST_OUTPUTS = ['ledger.csv', 'days.csv', 'summary.json'] as const;
  * ledger.csv (day by day as the days are settled), days.csv, summary.json and, when asked, report.html
  * into `out` as one output set.
  */
-export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QUIET_HOOKS): Done<BacktestSummary> {
+export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QUIET_HOOKS, tools: ScenarioTools = {}): Done<BacktestSummary> {
   const s = validSettings(backtestSettingsSchema, settings, 'backtest');
+  requireScenarioSettings(s.policies, s.scenarios, '--policies');
   const paths = runInputPaths(s.inputs, s.model);
   const outputs = s.report ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
   checkOutputFolder(s.out, outputs, s.force);
@@ -74,7 +79,8 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
     const ledger = stage.open('ledger.csv');
     ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
     const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRows(day));
-    const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay });
+    const scenarioPlanning = s.scenarios === undefined ? null : scenarioPlanningOf(s.scenarios, { market, history, forecast, tools });
+    const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay, scenarioPlanning });
     progress.finish();
     const metrics = backtestMetrics(result, battery);
     const inputs = inputsShown(paths, s.model);

@@ -9,12 +9,12 @@ import { PLAN_POLICIES } from '../../plan/alpha.js';
 import { planDay } from '../../plan/planDay.js';
 import { planReport } from '../../report/planReport.js';
 import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
-import type { SparseLpSolver } from '../../curves/linearProgram.js';
 import type { UnacceptedRule } from '../../settle/unacceptedRule.js';
 import type { Done } from '../commandResult.js';
 import { forecastLevelProblems } from '../forecastLevels.js';
 import { inputFiles } from '../inputFiles.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
+import type { ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
 import { scenarioSettingsSchema, type ScenarioSettings } from '../scenarios/scenarioSettings.js';
 import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { SCENARIO_PLAN_OUTPUTS, scenarioPlan, type ScenarioPlanSummary } from './scenarioPlan.js';
@@ -55,10 +55,8 @@ export type PlanSettings = z.input<typeof planSettingsSchema>;
 
 export type PlanSummary = ReturnType<typeof planSummary> | ScenarioPlanSummary;
 
-/** What a plan may need besides its settings: the LP solver of the curve and auto policies (app/solver/highsSolver.ts). */
-export interface PlanTools {
-  readonly lpSolver?: SparseLpSolver;
-}
+/** What a plan may need besides its settings: the LP solver of the curve and auto policies. */
+export type PlanTools = ScenarioTools;
 
 const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
 

@@ -1,7 +1,7 @@
 import type { BatteryModel, MarketSpec, QuantileDay } from '../../types.js';
 import { dayBidOrders } from '../../backtest/dayBid.js';
 import { planPolicyDay } from '../../backtest/planPolicyDay.js';
-import { SCENARIO_DEFAULTS, type ScenarioPlanning } from '../../backtest/scenarioPlanning.js';
+import { SCENARIO_DEFAULTS } from '../../backtest/scenarioPlanning.js';
 import type { SparseLpSolver } from '../../curves/linearProgram.js';
 import { gatherProblems, InputError, type InputProblem } from '../../errors/inputError.js';
 import { jsonText, ordersCsv } from '../../io/planOutputs.js';
@@ -13,8 +13,9 @@ import { writeOutputs } from '../../io/writeOutputs.js';
 import { scenarioPlanReport } from '../../report/scenarioPlanReport.js';
 import type { Done } from '../commandResult.js';
 import type { RunHooks } from '../runHooks.js';
-import { imbalancePathSource, pathScenarioSource } from '../scenarios/pathScenarios.js';
-import { autoAlphas, curveSteps, type ScenarioSettings } from '../scenarios/scenarioSettings.js';
+import { imbalancePathSource } from '../scenarios/pathScenarios.js';
+import { scenarioPlanningOf } from '../scenarios/scenarioPlanningOf.js';
+import type { ScenarioSettings } from '../scenarios/scenarioSettings.js';
 import { candidateTableText, scenarioPlanSummary, whyText } from './scenarioPlanSummary.js';
 
 export interface ScenarioPlanRequest {
@@ -54,18 +55,9 @@ export function scenarioPlan(request: ScenarioPlanRequest, hooks: RunHooks): Don
   const historyPath = request.inputs['history'];
   const history = historyPath === undefined ? null : (gatherProblems(problems, () => readPriceHistory(historyPath, market, (text) => hooks.note(text))) ?? null);
   if (pathsFile === undefined || (historyPath !== undefined && history === null)) throw new InputError(problems);
-  const inputs = { paths: pathsFile, market, history, forecastDays: request.forecastFile.days, planningPaths: scenarios.planningPaths };
-  const imbalance = imbalancePathSource(day, inputs);
-  const source = pathScenarioSource(inputs);
-  const made = source(forecast);
-  const planning: ScenarioPlanning = {
-    scenarios: () => made,
-    solver: request.solver,
-    curveSteps: curveSteps(market.bidCurves?.maxOrdersPerPeriod),
-    riskWeight: scenarios.riskWeight,
-    alphas: autoAlphas(forecast.levels),
-    switchStandardErrors: SCENARIO_DEFAULTS.switchStandardErrors,
-  };
+  const imbalance = imbalancePathSource(day, { market, history, forecastDays: request.forecastFile.days });
+  const planning = scenarioPlanningOf(scenarios, { market, history, forecast: request.forecastFile, tools: { lpSolver: request.solver }, paths: pathsFile });
+  const made = planning.scenarios(forecast);
   const socEndMinMwh = battery.socFinalMinMwh ?? socStartMwh;
   const plan = planPolicyDay({
     policy, forecast, realised: null, market, battery, alpha: SCENARIO_DEFAULTS.alphas[1] as number, socStartMwh, solveOptions: {},
