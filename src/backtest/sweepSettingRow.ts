@@ -1,11 +1,16 @@
 import type { UnacceptedRule } from '../settle/settleDay.js';
+import { readsAlpha } from './backtestPolicy.js';
 import { edgeTest } from './edgeTest.js';
 import { policyMetrics } from './policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from './policyRun.js';
 import type { BacktestInput } from './runBacktest.js';
+import type { ScenarioPlanning } from './scenarioPlanning.js';
 
-/** Policies a sweep varies alpha for: the two whose orders depend on it. */
-export const SWEEP_POLICIES = Object.freeze(['quantile', 'median'] as const);
+/**
+ * Policies a sweep may run: the two whose orders depend on alpha, and the two that plan on whole-day
+ * scenarios (curve, auto), which ignore alpha: their row is the same at every alpha of the axis.
+ */
+export const SWEEP_POLICIES = Object.freeze(['quantile', 'median', 'curve', 'auto'] as const);
 export type SweepPolicy = (typeof SWEEP_POLICIES)[number];
 
 /** One setting of `quantbid sweep`. */
@@ -55,16 +60,18 @@ const UNUSED_ALPHA = 0.1;
 /**
  * The row of one sweep setting. The setting's policy is run on its own; perfect foresight and the point
  * policy do not depend on alpha or on the swept policy, so they are run once per `unaccepted` rule and
- * kept in `memo` (the task's context), which changes no value (runPolicy.ts: policies do not interact).
+ * kept in `memo` (the task's context), which changes no value (runPolicy.ts: policies do not interact);
+ * so are curve and auto, which ignore alpha. `scenarioPlanning` is needed by curve and auto alone.
  */
-export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, memo: RunMemo<PolicyRun>): SweepRow {
-  const reference = (policy: 'perfect-foresight' | 'point'): PolicyRun =>
-    memo.get(`${policy}|${setting.unaccepted}`, () => runPolicy(input, policy, { alpha: UNUSED_ALPHA, unaccepted: setting.unaccepted }));
-  const perfect = reference('perfect-foresight');
-  const point = reference('point');
-  const run = runPolicy(input, setting.policy, setting);
+export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, memo: RunMemo<PolicyRun>, scenarioPlanning: ScenarioPlanning | null = null): SweepRow {
+  const alphaFree = (policy: 'perfect-foresight' | 'point' | 'curve' | 'auto'): PolicyRun =>
+    memo.get(`${policy}|${setting.unaccepted}`, () => runPolicy(input, policy, { alpha: UNUSED_ALPHA, unaccepted: setting.unaccepted, scenarioPlanning }));
+  const perfect = alphaFree('perfect-foresight');
+  const point = alphaFree('point');
+  const policy = setting.policy;
+  const run = readsAlpha(policy) ? runPolicy(input, policy, setting) : alphaFree(policy);
   const m = policyMetrics(run.runs, input.battery, perfect.profit);
-  const edge = edgeTest({ name: setting.policy, dailyProfit: run.dailyProfit }, { name: 'point', dailyProfit: point.dailyProfit });
+  const edge = edgeTest({ name: policy, dailyProfit: run.dailyProfit }, { name: 'point', dailyProfit: point.dailyProfit });
   const row: Record<(typeof SWEEP_COLUMNS)[number], number | null> = {
     days: m.days,
     profit: m.profit,

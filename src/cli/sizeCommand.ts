@@ -5,11 +5,11 @@ import { alphaBestSpanProblem, SIZE_DEFAULTS, sizeAxesFromText, sizeUseCase, typ
 import { ALPHA_RANGE, SIZE_POLICIES, UNACCEPTED_RULES, type UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
-import { addGridOptions, addInputOptions, addModelOptions, alphaArg, nonNegativeArg, oneOf, positiveArg, rateArg, reportOption, requireSpanAndOut, wholeNumberArg, type InputFlags, type ModelFlags } from './options.js';
+import { addGridOptions, addInputOptions, addModelOptions, addScenarioOptions, alphaArg, nonNegativeArg, oneOf, positiveArg, rateArg, reportOption, requireSpanAndOut, scenarioSettings, wholeNumberArg, type InputFlags, type ModelFlags, type ScenarioFlags } from './options.js';
 import { printResult } from './printResult.js';
 import { gridRunSettings, type GridFlags } from './sweepCommand.js';
 
-export interface SizeFlags extends InputFlags, GridFlags, ModelFlags {
+export interface SizeFlags extends InputFlags, GridFlags, ModelFlags, ScenarioFlags {
   readonly energyMwh?: string;
   readonly powerMw?: string;
   readonly efficiency?: string;
@@ -41,7 +41,7 @@ export function sizeCommand(io: CliIo): Command {
     .option('--energy-mwh <list>', 'energies [MWh]: values and ranges start:end:step, e.g. 5:60:5 (required)')
     .option('--power-mw <list>', 'powers [MW], charge = discharge, e.g. 2.5:30:2.5 (required)')
     .option('--efficiency <list>', 'round-trip efficiencies, e.g. 0.82,0.88 (default: the battery spec\'s)')
-    .option('--policy <list>', `policies to score, from ${SIZE_POLICIES.join(', ')}; perfect-foresight rows are always added`, SIZE_DEFAULTS.policy)
+    .option('--policy <list>', `policies to score, from ${SIZE_POLICIES.join(', ')} (curve and auto plan on --paths); perfect-foresight rows are always added`, SIZE_DEFAULTS.policy)
     .option('--alpha <a|best>', 'alpha of the quantile and median policies, or best: chosen per size on the first half of the days, scored on the second', parseAlphaOrBest, SIZE_DEFAULTS.alpha)
     .option('--alphas <list>', `the alphas --alpha best chooses from (default ${SIZE_DEFAULTS.alphas})`)
     .option('--unaccepted <rule>', `unaccepted orders: ${UNACCEPTED_RULES.join(' | ')}`, oneOf<UnacceptedRule>(UNACCEPTED_RULES), SIZE_DEFAULTS.unaccepted)
@@ -51,6 +51,7 @@ export function sizeCommand(io: CliIo): Command {
     .option('--life-years <n>', 'project life [years], a whole number >= 1 (required)', wholeNumberArg(1, '15'))
     .option('--life-cycles <n>', 'equivalent full cycles one set of cells lasts; the cells are bought again when they run out before the end of life (default: no limit)', positiveArg)
     .option('--discount-rate <r>', 'discount rate per year as a fraction, e.g. 0.07 (required)', rateArg);
+  addScenarioOptions(command);
   addGridOptions(command, 'size.csv');
   command.addOption(reportOption('also write report.html into --out: heat maps of NPV and profit per MWh over energy x power, best sizes'));
   addInputOptions(command, ['market', 'battery', 'forecast', 'history']);
@@ -106,8 +107,10 @@ function sizeFlagSettings(flags: SizeFlags, from: string, to: string): Omit<Size
   }
   const best = flags.alpha === 'best' ? alphaBestSpanProblem(from, to) : null;
   if (best !== null) problems.push({ file: 'command line', field: '--alpha', message: best, fix: 'give a longer span from --from to --to, or a fixed --alpha' });
+  const scenarios = gatherProblems(problems, () => scenarioSettings(flags));
   if (problems.length > 0 || axes === undefined) throw new InputError(problems);
   return {
+    ...(scenarios === undefined ? {} : { scenarios }),
     energiesMwh: axes.energiesMwh as number[],
     powersMw: axes.powersMw as number[],
     ...(axes.efficiencies === undefined ? {} : { efficiencies: axes.efficiencies }),

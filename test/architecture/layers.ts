@@ -58,3 +58,11 @@ export const MAY_IMPORT: Readonly<Record<Layer, readonly Layer[]>> = {
 
 /** Packages the domain may use besides its own folders: validation, time zones, the LP solver, hashing. */
 export const DOMAIN_PACKAGES: readonly string[] = ['zod', 'luxon', 'javascript-lp-solver', 'node:crypto'];
+
+/**
+ * Packages loaded only when a run needs them, by `await import(...)`, and only from these folders:
+ * HiGHS, the LP solver of the curve program, is loaded by app/solver/highsSolver.ts for the curve
+ * and auto policies alone (README: the solver dependency and why); every other command never pays
+ * its start-up.
+ */
+export const LAZY_PACKAGES: Readonly<Record<string, readonly Layer[]>> = { highs: ['app'] };

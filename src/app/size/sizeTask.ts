@@ -3,7 +3,8 @@
  * dist/app/size/sizeTask.js. `loadContext` takes the inputs the parent read (or reads the four input
  * files once per thread); `run` backtests one typed setting `{ energy_mwh, power_mw,
  * round_trip_efficiency, policy }`, checked when the sizing's settings were, and returns its row with
- * the project economics (sizing/sizeSettingRow.ts).
+ * the project economics (sizing/sizeSettingRow.ts). With curve or auto on the policy axis, each thread
+ * loads HiGHS once (app/scenarios/gridScenarios.ts).
  */
 import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type GivenForecast } from '../../io/readBacktestInputs.js';
 import type { UnacceptedRule } from '../../settle/settleDay.js';
@@ -11,6 +12,7 @@ import { RunMemo, type PolicyRun } from '../../backtest/policyRun.js';
 import type { AlphaMode } from '../../sizing/alphaChoice.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
 import { sizeSettingRow, type SizeGridSetting, type SizeRow, type SizeStudy } from '../../sizing/sizeSettingRow.js';
+import { gridScenarioPlanning, type GridScenarioInput } from '../scenarios/gridScenarios.js';
 
 /** The sizing's contextInput: plain data, copied into every worker. */
 export interface SizeTaskInput {
@@ -26,6 +28,8 @@ export interface SizeTaskInput {
   readonly costs: SizeCosts;
   /** Whether the efficiency axis replaces the spec's efficiencies (--efficiency given). */
   readonly efficiencyGiven: boolean;
+  /** The paths and settings of curve and auto, when the policy axis holds either. */
+  readonly scenarios?: GridScenarioInput;
 }
 
 export interface SizeTaskContext {
@@ -35,7 +39,7 @@ export interface SizeTaskContext {
   readonly memo: RunMemo<PolicyRun>;
 }
 
-export function loadContext(task: SizeTaskInput): SizeTaskContext {
+export async function loadContext(task: SizeTaskInput): Promise<SizeTaskContext> {
   const data = task.data ?? readBacktestInputsOnce(task.paths, task.forecast);
   const study: SizeStudy = {
     market: data.market,
@@ -47,6 +51,7 @@ export function loadContext(task: SizeTaskInput): SizeTaskContext {
     alpha: task.alpha,
     unaccepted: task.unaccepted,
     costs: task.costs,
+    scenarioPlanning: await gridScenarioPlanning(task.scenarios, data),
   };
   return { study, efficiencyGiven: task.efficiencyGiven, memo: new RunMemo() };
 }

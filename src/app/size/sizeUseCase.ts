@@ -13,6 +13,8 @@ import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } 
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { gridScenarioInput } from '../scenarios/gridScenarios.js';
+import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { sizeSummary, sizeSummaryText } from './sizeSummary.js';
 import type { SizeTaskInput } from './sizeTask.js';
 
@@ -89,6 +91,8 @@ export const sizeSettingsSchema = z
     /** What the battery does about unaccepted orders; default follow-plan. */
     unaccepted: unacceptedRuleSchema.default(SIZE_DEFAULTS.unaccepted),
     costs: sizeCostsSchema,
+    /** Paths and settings of curve and auto (required when the policy axis holds either). */
+    scenarios: scenarioSettingsSchema.optional(),
   })
   .superRefine((s, ctx) => {
     checkSpan(s, ctx);
@@ -120,8 +124,14 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
     { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
     { name: 'policy', option: '--policy', values: [...s.policies, 'perfect-foresight'] as SizePolicy[] },
   ] as const;
-  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, data: inputDataSpan(data, from, to) };
+  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, from, to, policyOption: '--policy' });
+  // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
+  // spread is learnt from the history before each day): none reads or parses a file again.
+  const contextInput: SizeTaskInput = {
+    paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined,
+    data: scenarios === undefined ? inputDataSpan(data, from, to) : data,
+    ...(scenarios === undefined ? {} : { scenarios }),
+  };
   return runGridCommand(
     {
       command: 'size',
@@ -129,8 +139,9 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
       axes,
       taskModule: new URL('./sizeTask.js', import.meta.url),
       contextInput,
-      identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven },
+      identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
       paths,
+      moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
       model,
       summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
       report: (results, summary) => sizeReport({ results, summary }),

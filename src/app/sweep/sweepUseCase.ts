@@ -9,11 +9,13 @@ import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
 import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
+import { gridScenarioInput } from '../scenarios/gridScenarios.js';
+import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
 import type { SweepTaskInput } from './sweepTask.js';
 
 /** Defaults of the axes as written in the help: alphas the demo forecast's levels (0.05 to 0.95) allow, both alpha policies, follow-plan. */
-export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: SWEEP_POLICIES.join(','), unaccepted: 'follow-plan' });
+export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: 'quantile,median', unaccepted: 'follow-plan' });
 
 /** The axes of a sweep from their text (`--alphas 0.05:0.45:0.05`, `--policies quantile,median`, ...), every problem listed together. */
 export function sweepAxesFromText(text: { readonly alphas: string; readonly policies: string; readonly unaccepted: string }) {
@@ -34,8 +36,10 @@ export const sweepSettingsSchema = z
     to: daySchema,
     /** The alpha axis, each alpha in (0, 0.5). */
     alphas: eachOnce(alphaSchema),
-    /** The policy axis: policies whose orders depend on alpha. */
+    /** The policy axis: quantile and median, whose orders depend on alpha, and curve and auto, which ignore it. */
     policies: eachOnce(z.enum(SWEEP_POLICIES)),
+    /** Paths and settings of curve and auto (required when the policy axis holds either). */
+    scenarios: scenarioSettingsSchema.optional(),
     /** The axis of rules for unaccepted orders. */
     unaccepted: eachOnce(unacceptedRuleSchema),
   })
@@ -60,8 +64,10 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
   ] as const;
   const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  // The workers get the inputs as read here, cut to the span: none reads or parses a file again.
-  const contextInput: SweepTaskInput = { paths, from, to, data: inputDataSpan(data, from, to) };
+  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, from, to, policyOption: '--policies' });
+  // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
+  // spread is learnt from the history before each day): none reads or parses a file again.
+  const contextInput: SweepTaskInput = { paths, from, to, data: scenarios === undefined ? inputDataSpan(data, from, to) : data, ...(scenarios === undefined ? {} : { scenarios }) };
   return runGridCommand(
     {
       command: 'sweep',
@@ -69,8 +75,9 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
       axes,
       taskModule: new URL('./sweepTask.js', import.meta.url),
       contextInput,
-      identity: { from, to },
+      identity: { from, to, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
       paths,
+      moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
       model,
       summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, ...modelContext }),
       report: (results, summary) => sweepReport({ results, summary }),
