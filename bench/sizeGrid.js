@@ -1,5 +1,5 @@
 // Wall and CPU time of `quantbid size` on an energy x power grid over one year at hourly resolution,
-// one policy (quantile, alpha 0.1) plus the perfect-foresight rows.
+// one policy (quantile, alpha 0.1) plus the price-taking and perfect-foresight rows every size has.
 //
 //   npm run build && node bench/sizeGrid.js [--grid 12] [--from 2026-01-01] [--to 2026-12-31] [--threads 2] [--keep]
 //
@@ -11,9 +11,9 @@
 //
 // CPU time is process.cpuUsage() of this process, which counts every thread (the sweep's workers run
 // in this process), so it says how much work was done even when the machine is busy with other work.
-// A policy-day is one policy planned and settled on one day. Each size runs the quantile policy and
-// perfect foresight; the quantile setting also needs perfect foresight's profit (capture ratio), which
-// a worker reuses when it also ran the size's other setting, so a size costs 2 to 3
+// A policy-day is one policy planned and settled on one day. Each size runs the quantile policy,
+// price-taking and perfect foresight; every setting also needs perfect foresight's profit (capture
+// ratio), which a worker reuses when it also ran another setting of the size, so a size costs 3 to 5
 // policy-runs: the time per policy-day is given for both counts.
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -64,7 +64,7 @@ const { main } = await import('../dist/cli/main.js');
 const io = { stdout: () => undefined, stderr: (text) => process.stderr.write(text), stderrIsTerminal: false };
 const args = [
   'size', '--scenario', join(dir, 'scenario.json'), '--from', FROM, '--to', TO,
-  '--energy-mwh', `5:${5 * GRID}:5`, '--power-mw', `2.5:${2.5 * GRID}:2.5`, '--policy', 'quantile', '--alpha', '0.1',
+  '--energy-mwh', `5:${5 * GRID}:5`, '--power-mw', `2.5:${2.5 * GRID}:2.5`, '--policies', 'quantile', '--alpha', '0.1',
   '--capex-per-mwh', '180000', '--capex-per-mw', '60000', '--fixed-om-per-mw-year', '8000', '--life-years', '15', '--discount-rate', '0.07',
   '--threads', THREADS, '--quiet', '--json', '--out', join(dir, 'out'),
 ];
@@ -79,10 +79,10 @@ const summary = JSON.parse(readFileSync(join(dir, 'out', 'summary.json'), 'utf8'
 const days = summary.daysCovered;
 const sizes = GRID * GRID;
 const ms = (seconds, count) => ((1000 * seconds) / count).toFixed(2);
-console.log(`quantbid size, ${GRID} x ${GRID} sizes, quantile + perfect-foresight, ${days} hourly days (${FROM} to ${TO}), --threads ${THREADS}`);
+console.log(`quantbid size, ${GRID} x ${GRID} sizes, quantile + price-taking + perfect-foresight, ${days} hourly days (${FROM} to ${TO}), --threads ${THREADS}`);
 console.log(`  wall ${wallS.toFixed(1)} s, CPU ${cpuS.toFixed(1)} s (all threads, load and parse included)`);
 console.log(`  per size-day: wall ${ms(wallS, sizes * days)} ms, CPU ${ms(cpuS, sizes * days)} ms`);
-console.log(`  per policy-day: CPU ${ms(cpuS, 3 * sizes * days)} to ${ms(cpuS, 2 * sizes * days)} ms (3 or 2 policy-runs per size)`);
+console.log(`  per policy-day: CPU ${ms(cpuS, 5 * sizes * days)} to ${ms(cpuS, 3 * sizes * days)} ms (5 or 3 policy-runs per size)`);
 console.log(`  highest NPV (quantile): ${JSON.stringify(summary.best[0]?.highestNpv && { energyMwh: summary.best[0].highestNpv.energyMwh, powerMw: summary.best[0].highestNpv.powerMw, npv: summary.best[0].highestNpv.row.npv })}`);
 if (!process.argv.includes('--keep')) rmSync(dir, { recursive: true, force: true });
 else console.log(`  kept ${dir}`);

@@ -14,6 +14,7 @@ export { formatProblem, InputError, type InputProblem } from './errors/inputErro
 
 // ---- read specs and files (they check everything and throw InputError) ----
 export { batteryModel, BATTERY_DEFAULTS, parseBatterySpec, roundTripEfficiency } from './battery/batterySpec.js';
+export { equivalentFullCycles } from './battery/equivalentFullCycles.js';
 export { parseMarketSpec } from './market/marketSpec.js';
 export { daysBetween, deliveryPeriods, isValidDay } from './market/calendar.js';
 export { readBatterySpec, readMarketSpec } from './io/readSpecs.js';
@@ -35,6 +36,10 @@ export { policyPrices, type PolicyPrices } from './plan/policyPrices.js';
 export { type DaySolverChoice, NodeLimitError, SOLVE_DAY_DEFAULTS, solveDay, type SolveDayOptions, UncoveredDayError } from './plan/solveDay.js';
 export { DayWorkspace } from './plan/warehouse/workspace.js';
 export { scheduleValue } from './plan/scheduleValue.js';
+export { exchangeSteps, roundLimit, roundSchedule, type ExchangeRounding, type ExchangeSteps, type RoundedSchedule } from './plan/exchangeRounding.js';
+export { expectedPlanValue, losingPairs, valueIfFilledAtLimits, type ExpectedPlanValue, type ImbalanceExpectation, type LosingPairs } from './plan/planValues.js';
+export { imbalanceExpectation } from './plan/imbalanceExpectation.js';
+export { solveDayWithRecovery, windowRecovery, type WindowRecovery } from './plan/windowRecovery.js';
 
 // ---- settle a day's orders against realised prices ----
 export { chooseImbalanceSource, dayImbalancePrices, type ImbalancePrices, type ImbalanceSource } from './settle/imbalancePrices.js';
@@ -43,7 +48,7 @@ export type { SettlementTotals } from './settle/settlementTotals.js';
 
 // ---- backtest policies over history ----
 export { BACKTEST_POLICIES, type BacktestPolicy } from './backtest/backtestPolicy.js';
-export { backtestMetrics, type BacktestMetrics } from './backtest/backtestMetrics.js';
+export { backtestMetrics, STRONGEST_BASELINE_RULE, type BacktestMetrics, type BaselineComparison } from './backtest/backtestMetrics.js';
 export { BACKTEST_DEFAULTS, runBacktest, type BacktestDay, type BacktestInput, type BacktestOptions, type BacktestResult, type ForecastDays, type PolicyDay } from './backtest/runBacktest.js';
 export { policyMetrics, type PolicyMetrics } from './backtest/policyMetrics.js';
 export { edgeTest, type EdgeTest } from './backtest/edgeTest.js';
@@ -52,6 +57,7 @@ export { edgeTest, type EdgeTest } from './backtest/edgeTest.js';
 export { DEFAULT_METHOD, DEFAULTS as FORECAST_DEFAULTS, FORECAST_METHODS, type ForecastMethod, type ForecastOptions } from './forecast/forecaster.js';
 export { forecastRange, type ForecastRangeRequest, type ForecastRangeResult } from './forecast/forecastRange.js';
 export { priceAtLevel, rearrange } from './forecast/quantileSet.js';
+export { meanPrice, orderExpectation, type OrderExpectation } from './forecast/quantileDistribution.js';
 export { compareForecasts, type ForecastComparison } from './forecast/scoring/compareForecasts.js';
 export { pinballLoss } from './forecast/scoring/pinball.js';
 export { scoreForecasts, type ScoreTable, type ScoredDay } from './forecast/scoring/scoreForecasts.js';
@@ -60,7 +66,7 @@ export { scoreForecasts, type ScoreTable, type ScoredDay } from './forecast/scor
 export { alphaSplit, chooseAlpha, type AlphaMode } from './sizing/alphaChoice.js';
 export { scaledBatterySpec, type BatterySize } from './sizing/scaledBattery.js';
 export { sizeEconomics, type SizeCosts, type SizeEconomics } from './sizing/sizeEconomics.js';
-export { irr, npv } from './economics/index.js';
+export { irr, npv, projectCashFlows, type ProjectCashFlows, extrapolationWarning, yearCoverage, type YearCoverage } from './economics/index.js';
 
 // ---- whole commands, as the CLI runs them: settings in, files written, summary out ----
 export { QUIET_HOOKS, type ProgressDisplay, type RunHooks } from './app/runHooks.js';

@@ -88,7 +88,7 @@ export interface Order {
 }
 
 /** Planning policy names (docs/design.md section 4). */
-export type PlanPolicy = 'quantile' | 'median' | 'point';
+export type PlanPolicy = 'quantile' | 'median' | 'point' | 'price-taking';
 
 /**
  * One delivery day of price history: realised clearing prices, the imbalance (balancing) price where

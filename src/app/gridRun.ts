@@ -1,4 +1,5 @@
 import type { GridAxis } from '../grid/gridAxis.js';
+import type { TableRow } from '../grid/gridCsv.js';
 import type { SettingOf } from '../grid/expandGrid.js';
 import { interruptedMessage, runGrid, type GridOptions, type GridOutcome, type GridResult } from '../grid/runGrid.js';
 import { stopOnSigint } from '../grid/stopOnSigint.js';
@@ -55,6 +56,8 @@ export interface GridCommand<Axes extends readonly GridAxis[], Input, Row extend
   /** The forecasts --model made, or undefined. */
   readonly model: ModelForecast | undefined;
   readonly summary: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => Summary;
+  /** Lines of the table after the settings (runGrid's moreRows), e.g. the sweep's reference policies. */
+  readonly moreRows?: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => readonly TableRow[];
   readonly report: (results: readonly GridResult<SettingOf<Axes>, Row>[], summary: Summary) => string;
   readonly summaryText: (summary: Summary, resumed: number, files: readonly string[]) => string;
 }
@@ -87,6 +90,7 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
     force: run.force,
     csvName: `${spec.command}.csv`,
     optionalOutputs: ['report.html'],
+    ...(spec.moreRows === undefined ? {} : { moreRows: spec.moreRows }),
     moreOutputs: (results) => [
       { name: 'summary.json', text: jsonText(summaryOf(results)) },
       ...(run.report ? [{ name: 'report.html', text: spec.report(results, summaryOf(results)) }] : []),

@@ -9,7 +9,7 @@ export type InputName = 'market' | 'battery' | 'forecast' | 'history';
 
 /**
  * Input paths from the files named on their own, else from the scenario file. A missing input is a
- * command-line problem (an `optional` one is left out), a scenario entry naming a file that does not exist a problem of the scenario
+ * command-line problem (an `optional` one is left out of the paths), a scenario entry naming a file that does not exist a problem of the scenario
  * file; all are listed together. Paths are relative to the working folder.
  */
 export function inputFiles<N extends InputName, O extends InputName = never>(
@@ -18,19 +18,20 @@ export function inputFiles<N extends InputName, O extends InputName = never>(
   optional: readonly O[] = [],
 ): { paths: Record<N, string> & Partial<Record<O, string>>; demoDay?: string } {
   const scenario = sources.scenario === undefined ? undefined : readScenario(sources.scenario);
-  const paths = {} as Record<N | O, string>;
+  const paths = {} as Record<N, string> & Partial<Record<O, string>>;
   const problems: InputProblem[] = [];
-  for (const name of [...names, ...optional]) {
+  for (const name of [...names, ...optional] as (N | O)[]) {
     const named = sources[name] === undefined ? scenario?.[name] : undefined;
     const path = sources[name] ?? (named === undefined ? undefined : relative(process.cwd(), named));
-    if (path === undefined) {
-      if ((optional as readonly InputName[]).includes(name)) continue;
+    if (path === undefined && (optional as readonly InputName[]).includes(name)) {
+      continue;
+    } else if (path === undefined) {
       problems.push({ file: 'command line', field: `--${name}`, message: `no ${name} file given`, fix: `give --${name} FILE, or --scenario FILE with a "${name}" entry` });
     } else if (scenario !== undefined && named !== undefined && pathKind(named) !== 'file') {
       const line = scenario.lines[name];
       const what = pathKind(named) === 'absent' ? 'which does not exist' : 'which is not a file';
       problems.push({ file: scenario.file, ...(line === undefined ? {} : { line }), field: name, message: `names ${path}, ${what}`, fix: `give the ${name} file's path relative to the scenario file, or --${name} FILE` });
-    } else paths[name] = path;
+    } else (paths as Record<InputName, string>)[name] = path;
   }
   throwIfProblems(problems);
   return scenario?.demoDay === undefined ? { paths } : { paths, demoDay: scenario.demoDay };

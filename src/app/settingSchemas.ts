@@ -14,7 +14,7 @@ import { levelsProblem, outFolderProblem, pathProblem } from './settingRules.js'
 /** A delivery day, YYYY-MM-DD. */
 export const daySchema = z.string().refine(isValidDay, 'must be a day YYYY-MM-DD, e.g. 2027-03-28');
 
-/** The width of the central interval [q(alpha), q(1 - alpha)]. */
+/** The tail level alpha: buys limited at q(1 - alpha), sells at q(alpha); [q(alpha), q(1 - alpha)] covers 1 - 2 alpha. */
 export const alphaSchema = z.number().refine(isAlpha, `alpha must be ${ALPHA_RULE}`);
 
 /** A file path: not empty. */

@@ -1,6 +1,6 @@
 import type { BatteryModel } from '../types.js';
 import type { BacktestPolicy } from './backtestPolicy.js';
-import { edgeTest, type EdgeTest } from './edgeTest.js';
+import { edgeTest, type DailyProfits, type EdgeTest } from './edgeTest.js';
 import { policyMetrics, type PolicyMetrics } from './policyMetrics.js';
 import type { BacktestDay, BacktestResult, PolicyDay } from './runBacktest.js';
 
@@ -13,21 +13,62 @@ export interface MonthRow {
   readonly policies: Readonly<Record<string, { readonly profit: number; readonly meanDailyProfit: number | null; readonly captureRatio: number | null }>>;
 }
 
+/** The comparison a backtest leads with: the tested policy against the strongest simple baseline. */
+export interface BaselineComparison {
+  /** `point` or `price-taking`: the one with the higher profit over the run (point on a tie). */
+  readonly policy: BacktestPolicy;
+  /** tested minus baseline, Diebold-Mariano with HLN on daily profits. */
+  readonly edge: EdgeTest;
+  /** Whether the tested policy earned less than the baseline over the run. */
+  readonly testedLoses: boolean;
+}
+
 export interface BacktestMetrics {
   /** By policy, in the backtest's policy order. */
   readonly policies: Readonly<Record<string, PolicyMetrics>>;
-  /** quantile against point (Diebold-Mariano with HLN); null unless both were run. */
+  /** The policy the edges test: the first one run other than perfect foresight; null when there is none. */
+  readonly tested: BacktestPolicy | null;
+  /** The tested policy against the strongest simple baseline (STRONGEST_BASELINE_RULE); null when neither baseline was run beside it. */
+  readonly baseline: BaselineComparison | null;
+  /** The tested policy against every other policy run, in policy order (Diebold-Mariano with HLN). */
+  readonly edges: readonly EdgeTest[];
+  /** quantile against point (Diebold-Mariano with HLN); null unless both were run. Kept for scripts: `baseline` is the headline. */
   readonly edge: EdgeTest | null;
   readonly months: readonly MonthRow[];
 }
 
-/** Metrics of every policy over the covered days, the month table and the edge of quantile over point. */
+/** Which baseline a backtest's headline compares with, in words. */
+export const STRONGEST_BASELINE_RULE = 'the more profitable of point and price-taking';
+
+/**
+ * Metrics of every policy over the covered days, the month table, and the edge of the tested policy
+ * (the first one run other than perfect foresight) over every other one, led by the strongest simple
+ * baseline: of point and price-taking, the one with the higher profit over the run.
+ */
 export function backtestMetrics(result: BacktestResult, battery: BatteryModel): BacktestMetrics {
+  const policies = metricsByPolicy(result.days, result.policies, battery);
+  const tested = result.policies.find((p) => p !== 'perfect-foresight') ?? null;
+  const profits = (policy: BacktestPolicy): DailyProfits => {
+    const k = result.policies.indexOf(policy);
+    return { name: policy, dailyProfit: result.days.map((day) => (day.runs[k] as PolicyDay).totals.profit) };
+  };
+  const edges = tested === null ? [] : result.policies.filter((p) => p !== tested).map((p) => edgeTest(profits(tested), profits(p)));
   return {
-    policies: metricsByPolicy(result.days, result.policies, battery),
+    policies,
+    tested,
+    baseline: tested === null ? null : strongestBaseline(tested, policies, edges),
+    edges,
     edge: quantileOverPoint(result),
     months: monthTable(result, battery),
   };
+}
+
+function strongestBaseline(tested: BacktestPolicy, policies: Readonly<Record<string, PolicyMetrics>>, edges: readonly EdgeTest[]): BaselineComparison | null {
+  const candidates = (['point', 'price-taking'] as const).filter((p) => p !== tested && policies[p] !== undefined);
+  if (candidates.length === 0) return null;
+  const best = candidates.reduce((a, b) => ((policies[b] as PolicyMetrics).profit > (policies[a] as PolicyMetrics).profit ? b : a));
+  const edge = edges.find((e) => e.reference === best) as EdgeTest;
+  return { policy: best, edge, testedLoses: (policies[tested] as PolicyMetrics).profit < (policies[best] as PolicyMetrics).profit };
 }
 
 function metricsByPolicy(days: readonly BacktestDay[], policies: readonly BacktestPolicy[], battery: BatteryModel): Record<string, PolicyMetrics> {

@@ -1,4 +1,5 @@
 import { dieboldMariano, type DieboldMarianoResult } from '../stats/dieboldMariano.js';
+import { studentTCdf } from '../stats/studentTCdf.js';
 
 /**
  * The edge of one policy over another: is its mean daily profit higher? (docs/design.md section 6)
@@ -15,7 +16,13 @@ import { dieboldMariano, type DieboldMarianoResult } from '../stats/dieboldMaria
  * Forecasting 13(2), 281-291, doi:10.1016/S0169-2070(96)00719-4.
  */
 export type EdgeTest = { readonly tested: string; readonly reference: string } & (
-  | DieboldMarianoResult
+  | (Extract<DieboldMarianoResult, { status: 'ok' }> & {
+      /** P(T >= HLN): small when the tested policy earns more (= pValueOneSided). */
+      readonly pValueTestedEarnsMore: number;
+      /** P(T <= HLN): small when the reference earns more, computed as such (not as 1 - pValueOneSided, which loses small values). */
+      readonly pValueReferenceEarnsMore: number;
+    })
+  | Exclude<DieboldMarianoResult, { status: 'ok' }>
   | { readonly status: 'too-few-days'; readonly n: number; readonly meanDifference: number | null; readonly reason: string }
 );
 
@@ -32,5 +39,7 @@ export function edgeTest(tested: DailyProfits, reference: DailyProfits): EdgeTes
   const names = { tested: tested.name, reference: reference.name };
   const d = tested.dailyProfit.map((a, t) => a - (reference.dailyProfit[t] as number));
   if (n < 2) return { ...names, status: 'too-few-days', n, meanDifference: d[0] ?? null, reason: 'the test needs at least 2 days' };
-  return { ...names, ...dieboldMariano(d, 1) };
+  const test = dieboldMariano(d, 1);
+  if (test.status !== 'ok') return { ...names, ...test };
+  return { ...names, ...test, pValueTestedEarnsMore: test.pValueOneSided, pValueReferenceEarnsMore: studentTCdf(test.hln, test.degreesOfFreedom) };
 }

@@ -1,7 +1,6 @@
 import type { BatteryModel, DayOutcome, DayProblem, HistoryDay, MarketSpec, Order, QuantileDay } from '../types.js';
 import { planCurves } from '../curves/planCurves.js';
-import { planDay } from '../plan/planDay.js';
-import { scheduleOrders } from '../plan/scheduleOrders.js';
+import { planDay, roundForExchange } from '../plan/planDay.js';
 import { NodeLimitError, solveDay, type SolveDayOptions } from '../plan/solveDay.js';
 import { ordersByPeriod } from '../settle/ordersByPeriod.js';
 import type { UnacceptedRule } from '../settle/unacceptedRule.js';
@@ -18,7 +17,7 @@ export interface PolicyDayRequest {
   readonly realised: HistoryDay | null;
   readonly market: MarketSpec;
   readonly battery: BatteryModel;
-  /** Central interval [q(alpha), q(1 - alpha)], in (0, 0.5). */
+  /** Tail level: buys limited at q(1 - alpha), sells at q(alpha); in (0, 0.5). */
   readonly alpha: number;
   /** State of charge at the start of the day [MWh], carried from the policy's previous day. */
   readonly socStartMwh: number;
@@ -59,8 +58,9 @@ export interface ScenarioReport {
 export type PlanFailure = 'infeasible' | 'unbounded' | 'node-limit' | 'failed';
 
 /**
- * One policy's orders for one day. `quantile`, `median` and `point` are planDay itself;
- * `price-taking` is the `point` plan with every limit moved to the price cap (buys) or floor (sells);
+ * One policy's orders for one day. `quantile`, `median`, `point` and `price-taking` are planDay
+ * itself (the `point` schedule with buys limited at the price cap and sells at the floor is
+ * policyPrices' `price-taking`, the same code `quantbid plan --policy price-taking` runs);
  * `perfect-foresight` solves the day problem on the realised prices (buy = sell = clearing) with the
  * same end-of-day floor as planDay (the battery's socFinalMinMwh, else the day's starting state) and
  * bids at the cap and floor; `curve` plans curves on the day's planning paths (planCurves) and submits
@@ -88,10 +88,9 @@ export function planPolicyDay(request: PolicyDayRequest): PolicyDayPlan {
 
 function fromForecast(request: PolicyDayRequest, policy: 'quantile' | 'median' | 'point' | 'price-taking', alpha: number): PolicyDayPlan {
   const { forecast, market, battery, socStartMwh, solveOptions } = request;
-  const plan = planDay({ forecast, market, battery, policy: policy === 'price-taking' ? 'point' : policy, alpha, socStartMwh, solveOptions });
+  const plan = planDay({ forecast, market, battery, policy, alpha, socStartMwh, solveOptions });
   if (plan.status !== 'optimal') return noPlan(plan, forecast.periods.length);
-  const orders = policy === 'price-taking' ? atFloorAndCap(plan.orders, market) : plan.orders;
-  return { status: 'optimal', orders: ordersByPeriod(forecast.periods, orders), kind: 'schedule', plannedValue: plan.outcome.objective, scenarioReport: null };
+  return { status: 'optimal', orders: ordersByPeriod(forecast.periods, plan.orders), kind: 'schedule', plannedValue: plan.outcome.objective, scenarioReport: null };
 }
 
 function perfectForesight(request: PolicyDayRequest): PolicyDayPlan {
@@ -106,11 +105,19 @@ function perfectForesight(request: PolicyDayRequest): PolicyDayPlan {
     socStartMwh,
     socEndMinMwh: battery.socFinalMinMwh ?? socStartMwh,
   };
-  const outcome = solveDay(problem, request.solveOptions);
-  if (outcome.status !== 'optimal') return noPlan(outcome, prices.length);
-  // Limits and levels are placeholders here: atFloorAndCap replaces them.
-  const realisedPrices = { buyPricePerMwh: [...prices], sellPricePerMwh: [...prices], buyLimitPerMwh: [...prices], sellLimitPerMwh: [...prices], buyLevel: 0.5, sellLevel: 0.5 };
-  const orders = atFloorAndCap(scheduleOrders(realised.periods, outcome.schedule, realisedPrices), market);
+  const solved = solveDay(problem, request.solveOptions);
+  if (solved.status !== 'optimal') return noPlan(solved, prices.length);
+  // Bids like price-taking: every buy limited at the cap, every sell at the floor, so every order is accepted.
+  const atCapAndFloor = {
+    buyPricePerMwh: [...prices],
+    sellPricePerMwh: [...prices],
+    buyLimitPerMwh: prices.map(() => market.priceCap),
+    sellLimitPerMwh: prices.map(() => market.priceFloor),
+    buyLevel: null,
+    sellLevel: null,
+  };
+  // With the market's order steps the schedule is rounded to them, as planDay does (planDay.ts).
+  const { outcome, orders } = roundForExchange(problem, solved, realised.periods, atCapAndFloor, market);
   return { status: 'optimal', orders: ordersByPeriod(realised.periods, orders), kind: 'schedule', plannedValue: outcome.objective, scenarioReport: null };
 }
 
@@ -161,11 +168,6 @@ function scenarioPolicy(request: PolicyDayRequest, policy: 'curve' | 'auto'): Po
   });
   const chosen = choice.scores[choice.chosen] as (typeof choice.scores)[number];
   return { status: 'optimal', orders: chosen.candidate.bids, kind: chosen.candidate.kind, plannedValue: chosen.fresh.mean, scenarioReport: { choice } };
-}
-
-/** Orders that are always accepted: buys limited at the cap, sells at the floor, no quantile level. */
-function atFloorAndCap(orders: readonly Order[], market: MarketSpec): Order[] {
-  return orders.map((o) => ({ ...o, limitPrice: o.side === 'buy' ? market.priceCap : market.priceFloor, quantileLevel: null }));
 }
 
 function noPlan(outcome: Exclude<DayOutcome, { status: 'optimal' }>, periods: number): PolicyDayPlan {

@@ -1,4 +1,5 @@
 import type { BatteryModel } from '../types.js';
+import { equivalentFullCycles } from '../battery/equivalentFullCycles.js';
 import { addTotals, ZERO_TOTALS, type SettlementTotals } from '../settle/settlementTotals.js';
 import { dailyProfitStats } from './dailyProfitStats.js';
 import type { PolicyDay } from './runBacktest.js';
@@ -22,8 +23,13 @@ export interface PolicyMetrics extends SettlementTotals {
   /** Accepted buy orders / buy orders (counted per order) [-]; null without buy orders. */
   readonly buyAcceptanceRate: number | null;
   readonly sellAcceptanceRate: number | null;
-  /** Discharged energy at the grid / usable energy (socMax - socMin) [-], the measure of the cycle cap. */
-  readonly equivalentFullCycles: number;
+  /**
+   * Equivalent full cycles over all the days: energy taken out of the store (discharged at the grid /
+   * eta_d) / usable energy (socMax - socMin) [-], the count the daily cycle cap bounds (equivalentFullCycles.ts).
+   */
+  readonly cyclesTotal: number;
+  /** cyclesTotal / days [1/day]; null without days. */
+  readonly cyclesPerDay: number | null;
   readonly dailyProfitStandardDeviation: number | null;
   readonly worstDay5Percent: number | null;
   readonly maxDrawdown: number;
@@ -49,7 +55,8 @@ export function policyMetrics(runs: readonly PolicyDay[], battery: BatteryModel,
     captureRatio: perfectForesightProfit === null ? null : ratio(totals.profit, perfectForesightProfit),
     buyAcceptanceRate: ratio(totals.buysAccepted, totals.buys),
     sellAcceptanceRate: ratio(totals.sellsAccepted, totals.sells),
-    equivalentFullCycles: totals.dischargedMwh / (battery.socMaxMwh - battery.socMinMwh),
+    cyclesTotal: equivalentFullCycles(totals.dischargedMwh, battery),
+    cyclesPerDay: n === 0 ? null : equivalentFullCycles(totals.dischargedMwh, battery) / n,
     dailyProfitStandardDeviation: stats.standardDeviation,
     worstDay5Percent: stats.worstDay5Percent,
     maxDrawdown: stats.maxDrawdown,

@@ -18,7 +18,7 @@ export interface PolicyRun {
 
 /** What a single-policy run needs besides the inputs. */
 export interface PolicyRunOptions {
-  /** Central interval of the quantile and median policies, in (0, 0.5); ignored by the others. */
+  /** Tail level of the quantile and median policies, in (0, 0.5); ignored by the others. */
   readonly alpha: number;
   readonly unaccepted: UnacceptedRule;
   /** Paths, solver and settings of the `curve` and `auto` policies; needed by them alone. */

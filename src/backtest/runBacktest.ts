@@ -27,7 +27,7 @@ export interface BacktestInput {
 
 /** Options of runBacktest, merged over BACKTEST_DEFAULTS. */
 export interface BacktestOptions {
-  /** Central interval [q(alpha), q(1 - alpha)] of the quantile and median policies, in (0, 0.5). Default 0.1. */
+  /** Tail level of the quantile and median policies (buys limited at q(1 - alpha), sells at q(alpha)), in (0, 0.5). Default 0.1. */
   readonly alpha: number;
   /** What the battery does about unaccepted orders. Default `follow-plan`. */
   readonly unaccepted: UnacceptedRule;

@@ -36,7 +36,11 @@ const batteryFields = z.strictObject({
   socInitialFraction: fraction('socInitialFraction').default(BATTERY_DEFAULTS.socInitialFraction),
   /** Lowest state of charge at the end of each day as a fraction [-]. Default: the day's starting state. */
   socFinalMinFraction: fraction('socFinalMinFraction').optional(),
-  /** Cap on discharged energy per day in equivalent full cycles of the usable window [1/day]. Default: none. */
+  /**
+   * Cap on equivalent full cycles per day [1/day]: energy taken out of the store per day (before the
+   * discharge losses) at most maxCyclesPerDay x the usable window, so one full swing of the window is one
+   * cycle (docs/design.md section 4.1). Default: none.
+   */
   maxCyclesPerDay: positive('maxCyclesPerDay').optional(),
   /** Wear cost per MWh discharged [currency/MWh], >= 0, default 0. */
   degradationCostPerMwh: num('degradationCostPerMwh')
@@ -127,8 +131,11 @@ export interface BatteryModel {
   readonly socInitialMwh: number;
   /** End-of-day floor [MWh]; undefined means "the day's starting state". */
   readonly socFinalMinMwh: number | undefined;
-  /** Cap on discharged energy per day [MWh at the grid]; undefined means no cap. */
-  readonly maxDischargeMwhPerDay: number | undefined;
+  /**
+   * Cap on energy taken out of the store per day [MWh stored, before the discharge losses: discharged at
+   * the grid / eta_d]: maxCyclesPerDay x usable window. undefined means no cap.
+   */
+  readonly maxFromStoreMwhPerDay: number | undefined;
   /** Wear cost per MWh discharged (at the grid) [currency/MWh]. */
   readonly degradationCostPerMwh: number;
 }
@@ -137,8 +144,10 @@ export interface BatteryModel {
  * Physical values the planner uses.
  *
  * With only a round-trip efficiency, eta_c = eta_d = sqrt(roundTrip) (common practice: losses split
- * evenly between the two conversions). The cycle cap limits energy discharged at the grid per day to
- * maxCyclesPerDay x usable energy, usable = (socMax - socMin) x energyMwh (docs/design.md section 4).
+ * evenly between the two conversions). The cycle cap limits energy taken out of the store per day
+ * (discharged at the grid / eta_d) to maxCyclesPerDay x usable energy, usable = (socMax - socMin) x
+ * energyMwh: equivalent full cycles count a full swing of the window as one cycle (docs/design.md
+ * section 4.1), the same count as equivalentFullCycles.
  */
 export function batteryModel(spec: BatterySpec): BatteryModel {
   const roundTrip = spec.roundTripEfficiency;
@@ -156,7 +165,7 @@ export function batteryModel(spec: BatterySpec): BatteryModel {
     socMaxMwh,
     socInitialMwh: spec.socInitialFraction * spec.energyMwh,
     socFinalMinMwh: spec.socFinalMinFraction === undefined ? undefined : spec.socFinalMinFraction * spec.energyMwh,
-    maxDischargeMwhPerDay: spec.maxCyclesPerDay === undefined ? undefined : spec.maxCyclesPerDay * (socMaxMwh - socMinMwh),
+    maxFromStoreMwhPerDay: spec.maxCyclesPerDay === undefined ? undefined : spec.maxCyclesPerDay * (socMaxMwh - socMinMwh),
     degradationCostPerMwh: spec.degradationCostPerMwh,
   };
 }

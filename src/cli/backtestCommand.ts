@@ -1,4 +1,4 @@
-import { Command, InvalidArgumentError } from 'commander';
+import { Command, InvalidArgumentError, Option } from 'commander';
 import { backtestUseCase } from '../app/backtest/backtestUseCase.js';
 import { BACKTEST_DEFAULTS, BACKTEST_POLICIES, type BacktestPolicy, type UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
@@ -52,12 +52,12 @@ export function parsePoliciesArg(value: string): BacktestPolicy[] {
 export function backtestCommand(io: CliIo): Command {
   const [from, to] = spanOptions();
   const command = new Command('backtest')
-    .description('replay the policies day by day over history: what the quantile policy would have earned, against point and perfect foresight')
+    .description('replay the policies day by day over history: what the quantile policy would have earned, against the simple baselines (point, price-taking) and perfect foresight')
     .addOption(from)
     .addOption(to)
-    .addOption(alphaOption('central interval [q(alpha), q(1-alpha)] of the quantile and median policies', BACKTEST_DEFAULTS.alpha))
+    .addOption(alphaOption('tail level of the quantile and median policies: buys limited at q(1-alpha), sells at q(alpha); [q(alpha), q(1-alpha)] covers 1 - 2 alpha', BACKTEST_DEFAULTS.alpha))
     .addOption(unacceptedOption('unaccepted orders: follow-plan (close them at the imbalance price) | follow-accepted (move only with accepted orders)', BACKTEST_DEFAULTS.unaccepted))
-    .option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')} (curve and auto plan on --paths)`, parsePoliciesArg, [...BACKTEST_DEFAULTS.policies]);
+    .addOption(new Option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}; the first other than perfect-foresight is the one tested; curve and auto plan on --paths`).argParser(parsePoliciesArg).default([...BACKTEST_DEFAULTS.policies], 'all five'))
   addScenarioOptions(command)
     .addOption(outOption('folder for ledger.csv, days.csv and summary.json (required)'))
     .addOption(reportOption('also write report.html into --out: cumulative profit, daily profit, acceptance, imbalance energy, month table'))
@@ -69,16 +69,29 @@ export function backtestCommand(io: CliIo): Command {
   command.addHelpText(
     'after',
     `
+The first policy of --policies other than perfect-foresight is tested against
+every other one (Diebold-Mariano with the Harvey-Leybourne-Newbold correction,
+on daily profits); the console and summary.json lead with it against the
+strongest simple baseline, the more profitable of point and price-taking.
+
 Examples:
-  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-01-31 --out runs/jan --report
-  quantbid backtest --market market.json --battery battery.json --forecast quantiles.csv --history history.csv \\
-                    --from 2025-01-01 --to 2025-12-31 --alpha 0.2 --unaccepted follow-accepted --out runs/2025
-  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-06-01 --to 2026-06-30 \\
-                    --policies quantile,point,perfect-foresight --out runs/june --json
-  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-03-01 --to 2026-03-31 \\
+  quantbid backtest --scenario scenarios/halvorn/scenario.json \\
+                    --from 2026-01-01 --to 2026-01-31 --out runs/jan --report
+  quantbid backtest --market market.json --battery battery.json \\
+                    --forecast quantiles.csv --history history.csv \\
+                    --from 2025-01-01 --to 2025-12-31 --alpha 0.2 \\
+                    --unaccepted follow-accepted --out runs/2025
+  quantbid backtest --scenario scenarios/halvorn/scenario.json \\
+                    --from 2026-06-01 --to 2026-06-30 \\
+                    --policies quantile,point,perfect-foresight \\
+                    --out runs/june --json
+  quantbid backtest --scenario scenarios/halvorn/scenario.json \\
+                    --from 2026-03-01 --to 2026-03-31 \\
                     --model arx-hs --levels 0.05:0.95:0.05 --out runs/march-arx
-  quantbid backtest --scenario scenarios/halvorn/scenario.json --from 2026-12-01 --to 2026-12-07 \\
-                    --policies price-taking,auto --paths runs/fc/paths.csv --out runs/auto`,
+  quantbid backtest --scenario scenarios/halvorn/scenario.json \\
+                    --from 2026-12-01 --to 2026-12-07 \\
+                    --policies price-taking,auto --paths runs/fc/paths.csv \\
+                    --out runs/auto`,
   );
   command.action(async (flags: BacktestFlags) => {
     const span = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'ledger.csv, days.csv and summary.json' });

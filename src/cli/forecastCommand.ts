@@ -46,20 +46,27 @@ export function forecastCommand(io: CliIo): Command {
   command.addHelpText(
     'after',
     `
-Outputs, in the folder --out (or, for --out DIR/NAME.csv, NAME.csv, NAME.json and NAME.paths.csv in DIR):
-  quantiles.csv  wide quantile forecast period_start,q0.05,...,q0.95 (the layout --forecast reads);
-                 days that could not be forecast are left out and listed in forecast.json
-  paths.csv      with --paths S: period_start,path,price, per day S whole-day price curves
-                 (the day's point forecast plus the errors of one calibration day, period by
-                 period, most recent day first: paths keep the dependence between periods)
-  forecast.json  method, levels, options, days forecast and skipped with the reason; the same
-                 inputs give byte-identical files (the time spent is printed, not written)
+Outputs, in the folder --out (or, for --out DIR/NAME.csv, NAME.csv, NAME.json
+and NAME.paths.csv in DIR):
+  quantiles.csv  wide quantile forecast period_start,q0.05,...,q0.95 (the
+                 layout --forecast reads); days that could not be forecast are
+                 left out and listed in forecast.json
+  paths.csv      with --paths S: period_start,path,price, per day S whole-day
+                 price curves (the day's point forecast plus the errors of one
+                 calibration day, period by period, most recent day first:
+                 paths keep the dependence between periods)
+  forecast.json  method, levels, options, days forecast and skipped with the
+                 reason; the same inputs give byte-identical files (the time
+                 spent is printed, not written)
 
 Examples:
-  quantbid forecast --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 --out runs/fc
-  quantbid forecast --market market.json --history history.csv --from 2026-06-01 --to 2026-06-30 \\
-                    --method qra --levels 0.1,0.5,0.9 --paths 20 --out runs/june
-  quantbid score --scenario scenarios/halvorn/scenario.json --forecast runs/fc/quantiles.csv --out runs/fc-score`,
+  quantbid forecast --scenario scenarios/halvorn/scenario.json \\
+                    --from 2026-01-01 --to 2026-12-31 --out runs/fc
+  quantbid forecast --market market.json --history history.csv \\
+                    --from 2026-06-01 --to 2026-06-30 --method qra \\
+                    --levels 0.1,0.5,0.9 --paths 20 --out runs/june
+  quantbid score --scenario scenarios/halvorn/scenario.json \\
+                 --forecast runs/fc/quantiles.csv --out runs/fc-score`,
   );
   command.action((flags: ForecastFlags) => {
     const span = requireSpanAndOut(flags, { days: 'delivery day to forecast', outFolder: 'quantiles.csv and forecast.json' });

@@ -24,7 +24,7 @@ export function dayArg(value: string): string {
 export function alphaArg(value: string): number {
   const alpha = decimalOf(value);
   if (!isAlpha(alpha)) {
-    throw new InvalidArgumentError(`alpha ${shownText(value)} must be ${ALPHA_RULE}: the central interval [q(alpha), q(1 - alpha)], e.g. 0.1`);
+    throw new InvalidArgumentError(`alpha ${shownText(value)} must be ${ALPHA_RULE}: the tail level, buys limited at q(1 - alpha) and sells at q(alpha), e.g. 0.1`);
   }
   return alpha;
 }

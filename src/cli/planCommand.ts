@@ -39,9 +39,9 @@ export function planCommand(io: CliIo): Command {
   const command = new Command('plan')
     .description('plan one delivery day: orders (buy/sell, quantity, limit price) and a schedule from a quantile forecast')
     .option('--day <YYYY-MM-DD>', 'delivery day to plan (default: the scenario\'s demoDay)', dayArg)
-    .addOption(alphaOption('central interval [q(alpha), q(1-alpha)]: buys limited at q(1-alpha), sells at q(alpha)', PLAN_DEFAULTS.alpha))
-    .option('--policy <name>', `${PLAN_COMMAND_POLICIES.join(' | ')}; curve and auto plan on --paths`, oneOf<PlanCommandPolicy>(PLAN_COMMAND_POLICIES), PLAN_DEFAULTS.policy)
-    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh)', nonNegativeArg);
+    .addOption(alphaOption('tail level: buys limited at q(1-alpha), sells at q(alpha); the interval [q(alpha), q(1-alpha)] covers 1 - 2 alpha', PLAN_DEFAULTS.alpha))
+    .option('--policy <name>', `${PLAN_COMMAND_POLICIES.join(' | ')} (price-taking: the median schedule with limits at the price cap and floor, the baseline every plan is compared with; curve and auto plan on --paths)`, oneOf<PlanCommandPolicy>(PLAN_COMMAND_POLICIES), PLAN_DEFAULTS.policy)
+    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh); outside the window: a warning, and the plan comes back into it at full power', nonNegativeArg);
   addScenarioOptions(command)
     .addOption(unacceptedOption('with curve or auto: what the battery does about unaccepted orders, follow-plan | follow-accepted', PLAN_DEFAULTS.unaccepted))
     .addOption(outOption('folder for orders.csv, schedule.csv and plan.json'))
@@ -52,12 +52,23 @@ export function planCommand(io: CliIo): Command {
   command.addHelpText(
     'after',
     `
+The plan's value is given three ways: at the prices it was scheduled on, if
+every order fills at its limit, and expected under the forecast (acceptance
+read from the quantiles; unaccepted orders closed at the market's imbalance
+rule, or else at the --history's mean imbalance-minus-clearing spread); beside
+it, the price-taking plan of the same day.
+
 Examples:
-  quantbid plan --scenario scenarios/halvorn/scenario.json --day 2027-01-01 --out plans/2027-01-01
-  quantbid plan --market market.json --battery battery.json --forecast quantiles.csv \\
-                --day 2027-03-28 --alpha 0.1 --out plans/2027-03-28
-  quantbid plan --scenario scenarios/halvorn/scenario.json --day 2027-01-01 --policy auto \\
-                --paths runs/fc/paths.csv --unaccepted follow-accepted --out plans/auto`,
+  quantbid plan --scenario scenarios/halvorn/scenario.json --day 2027-01-01 \\
+                --out plans/2027-01-01
+  quantbid plan --market market.json --battery battery.json \\
+                --forecast quantiles.csv --day 2027-03-28 --alpha 0.1 \\
+                --out plans/2027-03-28
+  quantbid plan --scenario scenarios/halvorn/scenario.json --policy median \\
+                --alpha 0.2 --json
+  quantbid plan --scenario scenarios/halvorn/scenario.json --day 2027-01-01 \\
+                --policy auto --paths runs/fc/paths.csv \\
+                --unaccepted follow-accepted --out plans/auto`,
   );
   command.action(async (flags: PlanFlags) => {
     const scenarios = scenarioSettings(flags);

@@ -31,19 +31,28 @@ export function scoreCommand(io: CliIo): Command {
   command.addHelpText(
     'after',
     `
-Only days present in both the forecast and the history are scored; the other forecast days are
-listed in score.json with the reason (a forecast with no day in the history is an error, exit
-code 2). score.json holds crps (the mean pinball loss over the levels:
-the factor 2 is not included, so it approximates CRPS/2), pinball.<level>, coverage.<interval>
-(e.g. coverage["0.8"] for [q0.1, q0.9]), calibration.<level> (share of prices below the quantile),
-Kupiec and Christoffersen tests of each central interval, all overall and per period of the day
-(byPeriod), and with --against the Diebold-Mariano test (HLN-corrected, h = 1, on the daily crps).
+Only days present in both the forecast and the history are scored; the other
+forecast days are listed in score.json with the reason (a forecast with no day
+in the history is an error, exit code 2). score.json holds crps (the mean
+pinball loss over the levels and every scored period, each period counting
+once: the factor 2 is not included, so it approximates CRPS/2),
+pinball.<level>, coverage.<interval> (e.g. coverage["0.8"] for [q0.1, q0.9]),
+calibration.<level> (share of prices below the quantile), Kupiec and
+Christoffersen tests of each central interval, all overall and per period of
+the day (byPeriod), and with --against the Diebold-Mariano test (HLN-corrected,
+h = 1, on the days both forecast; each day's loss weighs its periods, so the
+mean of the daily losses is the crps of those days).
 
 Examples:
-  quantbid score --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 --out runs/vendor-score --report
-  quantbid score --scenario scenarios/halvorn/scenario.json --forecast runs/fc/quantiles.csv \\
-                 --against scenarios/halvorn/quantiles.csv.gz --out runs/fc-score
-  quantbid score --market market.json --history history.csv --forecast quantiles.csv --out runs/score --json`,
+  quantbid score --scenario scenarios/halvorn/scenario.json \\
+                 --from 2026-01-01 --to 2026-12-31 --out runs/vendor-score \\
+                 --report
+  quantbid score --scenario scenarios/halvorn/scenario.json \\
+                 --forecast runs/fc/quantiles.csv \\
+                 --against scenarios/halvorn/quantiles.csv.gz \\
+                 --out runs/fc-score
+  quantbid score --market market.json --history history.csv \\
+                 --forecast quantiles.csv --out runs/score --json`,
   );
   command.action((flags: ScoreFlags) => {
     const out = requiredOut(flags);

@@ -13,7 +13,9 @@ export interface SizeFlags extends InputFlags, GridFlags, ModelFlags, ScenarioFl
   readonly energyMwh?: string;
   readonly powerMw?: string;
   readonly efficiency?: string;
-  readonly policy: string;
+  readonly policies?: string;
+  /** The old spelling of --policies, still read (with a note). */
+  readonly policy?: string;
   readonly alpha: number | 'best';
   readonly alphas?: string;
   readonly unaccepted: UnacceptedRule;
@@ -41,8 +43,9 @@ export function sizeCommand(io: CliIo): Command {
     .option('--energy-mwh <list>', 'energies [MWh]: values and ranges start:end:step, e.g. 5:60:5 (required)')
     .option('--power-mw <list>', 'powers [MW], charge = discharge, e.g. 2.5:30:2.5 (required)')
     .option('--efficiency <list>', 'round-trip efficiencies, e.g. 0.82,0.88 (default: the battery spec\'s)')
-    .option('--policy <list>', `policies to score, from ${SIZE_POLICIES.join(', ')} (curve and auto plan on --paths); perfect-foresight rows are always added`, SIZE_DEFAULTS.policy)
-    .option('--alpha <a|best>', 'alpha of the quantile and median policies, or best: chosen per size on the first half of the days, scored on the second', parseAlphaOrBest, SIZE_DEFAULTS.alpha)
+    .option('--policies <list>', `policies to score, from ${SIZE_POLICIES.join(', ')} (default: ${SIZE_DEFAULTS.policies}; curve and auto plan on --paths); price-taking and perfect-foresight rows are always added`)
+    .option('--policy <list>', 'the former name of --policies, still read (with a note)')
+    .option('--alpha <a|best>', 'tail level of the quantile and median policies, or best: chosen per size on the first half of the days, scored on the second', parseAlphaOrBest, SIZE_DEFAULTS.alpha)
     .option('--alphas <list>', `the alphas --alpha best chooses from (default ${SIZE_DEFAULTS.alphas})`)
     .option('--unaccepted <rule>', `unaccepted orders: ${UNACCEPTED_RULES.join(' | ')}`, oneOf<UnacceptedRule>(UNACCEPTED_RULES), SIZE_DEFAULTS.unaccepted)
     .option('--capex-per-mwh <x>', 'capital cost of the energy part [currency/MWh] (required)', nonNegativeArg)
@@ -59,27 +62,43 @@ export function sizeCommand(io: CliIo): Command {
   command.addHelpText(
     'after',
     `
-Columns of size.csv: energy_mwh,power_mw,round_trip_efficiency,policy,alpha,profit,profit_per_year,npv,irr,
-then days,capture_ratio,profit_per_mwh,profit_per_mw,revenue_per_mwh_year,revenue_per_mw_year,
-spread_per_mwh_discharged,cycles_per_year,throughput_mwh_per_year,capex,annual_fixed_om,replacements,
-simple_payback_years,discounted_payback_years and acceptance rates; irr is "none" and a payback "never"
-when there is none. An interrupted run (Ctrl-C: exit code 130) resumes from its journal in --out.
+Columns of size.csv: energy_mwh,power_mw,round_trip_efficiency,policy,alpha,
+profit,profit_per_year,npv,irr, then days,capture_ratio,profit_per_mwh,
+profit_per_mw,revenue_per_mwh_year,revenue_per_mw_year,
+spread_per_mwh_discharged,cycles_per_year,throughput_mwh_per_year,capex,
+annual_fixed_om,replacements,simple_payback_years,discounted_payback_years,
+acceptance rates, days_without_plan and residual_value; irr is "none" and a
+payback "never" when there is none. Cells bought again during the life are
+credited their residual value (straight-line) in the last year; yearly figures
+from less than a year of days are flagged as extrapolated. Every size has
+price-taking and perfect-foresight rows beside the policies asked for.
+An interrupted run (Ctrl-C: exit code 130) resumes from its journal in --out.
 
 Examples:
-  quantbid size --scenario scenarios/halvorn/scenario.json --from 2026-01-01 --to 2026-12-31 \\
-                --energy-mwh 5:40:5 --power-mw 2.5:20:2.5 --capex-per-mwh 180000 --capex-per-mw 60000 \\
-                --fixed-om-per-mw-year 8000 --life-years 15 --discount-rate 0.07 --out runs/size-2026 --report
-  quantbid size --scenario scenarios/halvorn/scenario.json --from 2025-01-01 --to 2026-12-31 \\
-                --energy-mwh 10,20,40 --power-mw 5,10 --efficiency 0.82,0.88 --alpha best --alphas 0.05:0.45:0.05 \\
-                --capex-per-mwh 180000 --capex-per-mw 60000 --life-years 15 --life-cycles 6000 --discount-rate 0.07 --out runs/size-best
-  quantbid size --scenario scenarios/halvorn/scenario.json --from 2026-06-01 --to 2026-06-30 --energy-mwh 10 --power-mw 5 \\
-                --policy quantile,point --capex-per-mwh 180000 --capex-per-mw 60000 --life-years 15 --discount-rate 0.07 \\
+  quantbid size --scenario scenarios/halvorn/scenario.json \\
+                --from 2026-01-01 --to 2026-12-31 \\
+                --energy-mwh 5:40:5 --power-mw 2.5:20:2.5 \\
+                --capex-per-mwh 180000 --capex-per-mw 60000 \\
+                --fixed-om-per-mw-year 8000 --life-years 15 \\
+                --discount-rate 0.07 --out runs/size-2026 --report
+  quantbid size --scenario scenarios/halvorn/scenario.json \\
+                --from 2025-01-01 --to 2026-12-31 \\
+                --energy-mwh 10,20,40 --power-mw 5,10 --efficiency 0.82,0.88 \\
+                --alpha best --alphas 0.05:0.45:0.05 \\
+                --capex-per-mwh 180000 --capex-per-mw 60000 --life-years 15 \\
+                --life-cycles 6000 --discount-rate 0.07 --out runs/size-best
+  quantbid size --scenario scenarios/halvorn/scenario.json \\
+                --from 2026-06-01 --to 2026-06-30 --energy-mwh 10 --power-mw 5 \\
+                --policies quantile,point --capex-per-mwh 180000 \\
+                --capex-per-mw 60000 --life-years 15 --discount-rate 0.07 \\
                 --threads 1 --out runs/size-june --json --quiet`,
   );
   command.action(async (flags: SizeFlags) => {
     const { from, to, out } = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'size.csv and summary.json' });
     const settings: SizeSettings = { ...gridRunSettings(flags, out), from, to, ...sizeFlagSettings(flags, from, to) };
-    printResult(io, await sizeUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
+    const hooks = cliHooks(io, flags.quiet === true);
+    if (flags.policy !== undefined) hooks.note('note: --policy is read as --policies (one spelling for lists of policies, as in backtest and sweep); write --policies\n');
+    printResult(io, await sizeUseCase(settings, hooks), flags.json === true);
   });
   return command;
 }
@@ -93,8 +112,12 @@ function sizeFlagSettings(flags: SizeFlags, from: string, to: string): Omit<Size
   const missing = (option: string, fix: string): void => {
     problems.push({ file: 'command line', field: option, message: `no ${option} given`, fix });
   };
+  if (flags.policy !== undefined && flags.policies !== undefined) {
+    problems.push({ file: 'command line', field: '--policy', message: 'was given with --policies, its new name', fix: 'give the policies once, as --policies' });
+  }
+  const policies = flags.policies ?? flags.policy ?? SIZE_DEFAULTS.policies;
   const axes = gatherProblems(problems, () =>
-    sizeAxesFromText({ energyMwh: flags.energyMwh, powerMw: flags.powerMw, efficiency: flags.efficiency, alphas: flags.alpha === 'best' ? (flags.alphas ?? SIZE_DEFAULTS.alphas) : undefined, policy: flags.policy }),
+    sizeAxesFromText({ energyMwh: flags.energyMwh, powerMw: flags.powerMw, efficiency: flags.efficiency, alphas: flags.alpha === 'best' ? (flags.alphas ?? SIZE_DEFAULTS.alphas) : undefined, policies, policiesOption: flags.policies === undefined && flags.policy !== undefined ? '--policy' : '--policies' }),
   );
   if (flags.energyMwh === undefined) missing('--energy-mwh', 'give the energies to try, e.g. --energy-mwh 5:60:5');
   if (flags.powerMw === undefined) missing('--power-mw', 'give the powers to try, e.g. --power-mw 2.5:30:2.5');

@@ -59,7 +59,7 @@ export type CurveProgramOutcome =
  *   0 <= ep <= eta_c chargeMw dt,  0 <= em <= dischargeMw dt / eta_d  (power limits)
  *   em_{t,k} = 0 in a step holding a negative planning price
  *   socMin <= s_{w,t} <= socMax,  s_{w,T} >= socEnd         (every path, every period)
- *   sum_t eta_d em_{t,j(w,t)} <= maxDischargeMwhPerDay       (cycle cap at the grid, every path)
+ *   sum_t em_{t,j(w,t)} <= maxFromStoreMwhPerDay             (cycle cap out of the store, every path)
  *
  * Why it is exact: on a path with pi >= 0, raising ep and em together never pays (it buys
  * 1/eta_c >= eta_d MWh for every MWh it sells), so an optimum nets them, with the same states of charge
@@ -171,7 +171,7 @@ export function solveCurveProgram(request: CurveProgramRequest): CurveProgramOut
   try {
     const tol = 1e-7 * Math.max(1, battery.energyMwh);
     const added = new Set<number>(); // w * (T + 1) + t for prefix rows, w * (T + 1) + T for cycle-cap rows
-    const cap = battery.maxDischargeMwhPerDay;
+    const cap = battery.maxFromStoreMwhPerDay;
     const maxRounds = request.maxRounds ?? 100;
     let lazyRows = 0;
     for (let round = 1; round <= maxRounds; round++) {
@@ -185,12 +185,12 @@ export function solveCurveProgram(request: CurveProgramRequest): CurveProgramOut
         let atUp = -1;
         let worstDown = tol;
         let atDown = -1;
-        let discharged = 0;
+        let fromStore = 0;
         for (let t = 0; t < T; t++) {
           const ep = column(w, t);
           const em = x[ep + 1] as number;
           s += (x[ep] as number) - em;
-          discharged += etaD * em;
+          fromStore += em;
           if (s - battery.socMaxMwh > worstUp && !added.has(w * (T + 1) + t)) {
             worstUp = s - battery.socMaxMwh;
             atUp = t;
@@ -206,11 +206,11 @@ export function solveCurveProgram(request: CurveProgramRequest): CurveProgramOut
           fillPrefix(w, t);
           more.add(pathIndices.subarray(0, 2 * t + 2), pathValues.subarray(0, 2 * t + 2), battery.socMinMwh - s0, battery.socMaxMwh - s0);
         }
-        if (cap !== undefined && discharged > cap + tol && !added.has(w * (T + 1) + T)) {
+        if (cap !== undefined && fromStore > cap + tol && !added.has(w * (T + 1) + T)) {
           added.add(w * (T + 1) + T);
           for (let t = 0; t < T; t++) {
             pathIndices[t] = column(w, t) + 1;
-            pathValues[t] = etaD;
+            pathValues[t] = 1;
           }
           more.add(pathIndices.subarray(0, T), pathValues.subarray(0, T), -Infinity, cap);
         }

@@ -17,3 +17,4 @@ export {
   type ProjectCashFlows,
 } from './projectCashFlows.js';
 export { requireDiscountRate } from './discountRate.js';
+export { yearCoverage, extrapolationWarning, MONTH_NAMES, DAYS_IN_A_YEAR, type YearCoverage } from './yearCoverage.js';

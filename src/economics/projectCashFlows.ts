@@ -29,7 +29,7 @@ export const DEFAULT_PROJECT_OPTIONS = Object.freeze({ replacementFraction: 1 })
 
 /** Yearly cash flows of a project and the parts they are made of. */
 export interface ProjectCashFlows {
-  /** CF_0..CF_lifeYears [currency]: CF_0 = -capex, CF_y = profit - O&M - replacements in year y. */
+  /** CF_0..CF_lifeYears [currency]: CF_0 = -capex, CF_y = profit - O&M - replacements in year y (+ the residual value in the last year). */
   readonly cashFlows: readonly number[];
   /** capexPerMwh * energyMwh + capexPerMw * powerMw [currency]. */
   readonly capex: number;
@@ -39,6 +39,12 @@ export interface ProjectCashFlows {
   readonly replacementCost: number;
   /** End-of-year index of each replacement, ascending (repeated when two fall in one year). */
   readonly replacementYears: readonly number[];
+  /**
+   * Residual value of the last replacement set at the end of life, credited in CF_L [currency]:
+   * straight-line over that set's life, R x (m + 1 - L x cyclesPerYear / lifeCycles) with m replacements;
+   * 0 without a replacement.
+   */
+  readonly residualValue: number;
 }
 
 /**
@@ -54,14 +60,21 @@ export interface ProjectCashFlows {
  * A set that runs out exactly at or after the end of life is not replaced, so with
  * K(y) = floor(y * cyclesPerYear / lifeCycles) sets used up by the end of year y,
  *   k_y = K(y) - K(y - 1) for y < L and k_L = ceil(L * cyclesPerYear / lifeCycles) - 1 - K(L - 1).
- * No residual value is credited at the end of life; no inflation, no tax.
+ * Residual value: the set in use at the end of life (the m-th replacement, m = sum_y k_y >= 1) was
+ * bought for R and started at m * lifeCycles / cyclesPerYear years; it is written off straight-line over
+ * its own life of lifeCycles / cyclesPerYear years, so at the end of life it is still worth
+ *   RV = R * (m + 1 - L * cyclesPerYear / lifeCycles)   (in [0, 1) x R),
+ * credited in CF_L. A replacement bought shortly before the end of life thus costs only the part of it
+ * the project uses. The initial plant, cells included, carries no residual value (conservative, as
+ * before); no inflation, no tax.
  *
  * @param input sizes, costs, profit, life and throughput (see ProjectInput)
  * @example
  * projectCashFlows({ energyMwh: 20, powerMw: 10, capexPerMwh: 300, capexPerMw: 100,
  *   fixedOmPerMwYear: 5, annualProfit: 1000, lifeYears: 3, lifeCycles: 500, cyclesPerYear: 300 });
- * // capex 7000, O&M 50/year, cells run out at 1.67 years -> replacement 6000 at the end of year 2:
- * // { cashFlows: [-7000, 950, -5050, 950], replacementYears: [2], ... }
+ * // capex 7000, O&M 50/year, cells run out at 1.67 years -> replacement 6000 at the end of year 2;
+ * // by the end of year 3 the replacement has run 3 - 1.67 = 1.33 of its 1.67 years: RV = 6000 x (2 - 1.8) = 1200:
+ * // { cashFlows: [-7000, 950, -5050, 2150], replacementYears: [2], residualValue: 1200, ... }
  *
  * Reference: the year-by-year cash-flow model of W. Short, D. J. Packey and T. Holt (1995),
  * A Manual for the Economic Evaluation of Energy Efficiency and Renewable Energy Technologies,
@@ -94,5 +107,9 @@ export function projectCashFlows(input: ProjectInput): ProjectCashFlows {
     for (let i = 0; i < count; i++) replacementYears.push(y);
     cashFlows.push(input.annualProfit - annualFixedOm - count * replacementCost);
   }
-  return { cashFlows, capex, annualFixedOm, replacementCost, replacementYears };
+  const m = replacementYears.length;
+  const setsUsed = (input.lifeYears * input.cyclesPerYear) / input.lifeCycles;
+  const residualValue = m === 0 ? 0 : replacementCost * Math.min(1, Math.max(0, m + 1 - setsUsed));
+  cashFlows[input.lifeYears] = (cashFlows[input.lifeYears] as number) + residualValue;
+  return { cashFlows, capex, annualFixedOm, replacementCost, replacementYears, residualValue };
 }

@@ -3,7 +3,7 @@ import { join } from 'node:path';
 import { InputError } from '../errors/inputError.js';
 import { checkOutputFolder, writeOutputs, type OutputFile } from '../io/writeOutputs.js';
 import { checkRow } from './checkRow.js';
-import { gridCsv } from './gridCsv.js';
+import { gridCsv, type TableRow } from './gridCsv.js';
 import { gridFingerprint } from './gridFingerprint.js';
 import { expandGrid, GRID_DEFAULTS, type GridPoint, type Setting, type SettingOf } from './expandGrid.js';
 import { JOURNAL_FORMAT, JOURNAL_VERSION, JournalWriter, journalLine, readJournal, type JournalEntry } from './gridJournal.js';
@@ -46,6 +46,11 @@ export interface GridOptions<Axes extends readonly GridAxis[] = readonly GridAxi
    * table, so that a run killed while writing leaves the old outputs or all the new ones. Default none.
    */
   readonly moreOutputs?: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => readonly OutputFile[];
+  /**
+   * Lines of the table after the grid's settings, made from the finished results (e.g. a sweep's
+   * reference policies, which no setting varies); each row checked like a setting's. Default none.
+   */
+  readonly moreRows?: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => readonly TableRow[];
   /** Outputs the command writes only on request (e.g. report.html): removed with --force when not written. */
   readonly optionalOutputs?: readonly string[];
   /** Most settings a grid may have [-]. Default 100,000. */
@@ -150,7 +155,9 @@ export async function runGrid<const Axes extends readonly GridAxis[], Input = un
   // Every row passed checkRow; that it has the columns of `Row` is the task module's contract with the caller.
   const complete = rows as Row[];
   const results = grid.map((point) => ({ ...point, row: complete[point.index] as Row }));
-  const files = writeOutputs(o.outDir, [{ name: o.csvName, text: gridCsv(o.axes, grid, complete) }, ...(o.moreOutputs?.(results) ?? [])], o.force, o.optionalOutputs ?? []);
+  const more = o.moreRows?.(results) ?? [];
+  more.forEach((extra, i) => checkRow(extra.row, `table row ${i + 1} after the grid`, o.axes, columns));
+  const files = writeOutputs(o.outDir, [{ name: o.csvName, text: gridCsv(o.axes, grid, complete, more) }, ...(o.moreOutputs?.(results) ?? [])], o.force, o.optionalOutputs ?? []);
   // Killed before this line, a re-run finds every setting in the journal and writes the same bytes.
   rmSync(journal, { force: true });
   return { status: 'complete', total: grid.length, resumed, results, files };

@@ -7,24 +7,32 @@ import { csvLine, formatNumber } from './formatNumber.js';
 /**
  * `ledger.csv`: one row per covered day, policy and delivery period, in that order. The order columns
  * are empty in a period without an order; a period bid as a curve has side `curve` and empty quantity
- * and limit (its steps are a stack of orders; what it cleared is in the energy columns). Energies at the grid [MWh]; cash + received, - paid
- * [currency]; `soc_mwh` is the state of charge at the end of the period.
+ * and limit (its steps are a stack of orders; what it cleared is in the energy columns). Energies at
+ * the grid [MWh]; cash + received, - paid [currency]; `soc_mwh` is the state of charge at the end of
+ * the period; `deliberate_imbalance_mwh` is the part of `bought_imbalance_mwh` + `sold_imbalance_mwh`
+ * that the store could not deliver or absorb (SettlementTotals.deliberateImbalanceMwh), the rest being
+ * unaccepted orders closed under follow-plan.
  */
 export const LEDGER_COLUMNS = Object.freeze([
   'day', 'policy', 'period_start', 'side', 'quantity_mw', 'limit_price', 'accepted',
   'clearing_price', 'imbalance_buy_price', 'imbalance_sell_price',
   'bought_auction_mwh', 'sold_auction_mwh', 'bought_imbalance_mwh', 'sold_imbalance_mwh',
   'charged_mwh', 'discharged_mwh', 'auction_cash', 'imbalance_cash', 'degradation_cost', 'profit', 'soc_mwh',
+  'deliberate_imbalance_mwh',
 ]);
 
 /**
  * `days.csv`: one row per covered day and policy. The first nine columns are a contract that scripts
- * rely on (docs/design.md section 8); later columns may be added.
+ * rely on (docs/design.md section 8); later columns may be added. `imbalance_cash` is the gross cash at
+ * the imbalance price, `imbalance_cost_vs_clearing` what that energy cost against the clearing price
+ * (+ cost), and the `deliberate_imbalance_*` columns the part of the imbalance the store could not deliver
+ * or absorb (SettlementTotals).
  */
 export const DAYS_COLUMNS = Object.freeze([
   'day', 'policy', 'profit', 'soc_start_mwh', 'soc_end_mwh', 'buys_accepted', 'buys', 'sells_accepted', 'sells',
   'auction_cash', 'imbalance_cash', 'degradation_cost',
   'bought_auction_mwh', 'sold_auction_mwh', 'bought_imbalance_mwh', 'sold_imbalance_mwh', 'discharged_mwh', 'plan_status',
+  'imbalance_cost_vs_clearing', 'deliberate_imbalance_mwh', 'deliberate_imbalance_periods', 'deliberate_imbalance_cash',
 ]);
 
 export function ledgerCsv(result: BacktestResult): string {
@@ -108,6 +116,8 @@ export function ledgerRows(day: BacktestDay): string {
       out.number(s.profit);
       out.comma();
       out.number(s.socMwh);
+      out.comma();
+      out.number(s.deliberateImbalanceMwh);
       out.newline();
     }
   }
@@ -127,6 +137,7 @@ export function daysCsv(result: BacktestResult): string {
           day.day, run.policy, x.profit, run.socStartMwh, run.socEndMwh, x.buysAccepted, x.buys, x.sellsAccepted, x.sells,
           x.auctionCash, x.imbalanceCash, x.degradationCost,
           x.boughtAuctionMwh, x.soldAuctionMwh, x.boughtImbalanceMwh, x.soldImbalanceMwh, x.dischargedMwh, run.planStatus,
+          x.imbalanceCostVsClearing, x.deliberateImbalanceMwh, x.deliberateImbalancePeriods, x.deliberateImbalanceCash,
         ]),
       );
     }

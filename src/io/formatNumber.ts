@@ -1,3 +1,4 @@
+import { smallPValueText } from '../stats/smallPValue.js';
 import { DECIMAL_SCALES, EXACT_SCALED_LIMIT, formatByToFixed, roundedUnits, wholeUnits } from './decimalUnits.js';
 
 /**
@@ -41,4 +42,12 @@ export function csvLine(cells: readonly (string | number)[]): string {
     line = k === 0 ? text : `${line},${text}`;
   }
   return line;
+}
+
+/**
+ * A p-value for reading: 4 decimals from 1e-4 up (`0.0013`, `0.973`), below it two significant digits
+ * in scientific notation (`3.2e-7`), never `0`; a p-value that underflowed to 0 is `<1e-300`.
+ */
+export function formatPValue(p: number): string {
+  return smallPValueText(p) ?? formatNumber(p, 4);
 }

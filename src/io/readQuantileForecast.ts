@@ -22,6 +22,8 @@ export interface QuantileForecastFile {
   readonly repairedPeriods: number;
   /** The first few repaired period starts, for the report. */
   readonly repairedExamples: readonly string[];
+  /** Per day with repairs: how many of its periods were sorted, and the first of them. */
+  readonly repairedByDay: ReadonlyMap<string, { readonly periods: number; readonly example: string }>;
 }
 
 /**
@@ -137,6 +139,7 @@ class ForecastDays {
   private readonly byDay = new Map<string, { prices: (number[] | undefined)[]; lines: Int32Array }>();
   private repairedPeriods = 0;
   private readonly repairedExamples: string[] = [];
+  private readonly repairedByDay = new Map<string, { periods: number; example: string }>();
 
   constructor(
     private readonly calendar: DayCalendar,
@@ -175,6 +178,9 @@ class ForecastDays {
     if (crossing) {
       this.repairedPeriods++;
       if (this.repairedExamples.length < 5) this.repairedExamples.push(ownCopy(text.slice(from, to)));
+      const repairs = this.repairedByDay.get(located.day);
+      if (repairs === undefined) this.repairedByDay.set(located.day, { periods: 1, example: ownCopy(text.slice(from, to)) });
+      else repairs.periods++;
     }
     day.prices[located.index] = crossing ? rearrange(row).prices : row;
   }
@@ -194,7 +200,7 @@ class ForecastDays {
       }
       days.set(day, { day, levels: this.levels, periods, prices: entry.prices as number[][] });
     }
-    return { levels: this.levels, days, incompleteDays, repairedPeriods: this.repairedPeriods, repairedExamples: this.repairedExamples };
+    return { levels: this.levels, days, incompleteDays, repairedPeriods: this.repairedPeriods, repairedExamples: this.repairedExamples, repairedByDay: this.repairedByDay };
   }
 }
 

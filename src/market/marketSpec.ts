@@ -37,6 +37,22 @@ export const bidCurvesSchema = z.strictObject({
     .optional(),
 });
 
+/**
+ * Largest quantity step and minimum quantity accepted [MW]: exchanges trade in steps of 0.1 MW or 1 MW,
+ * so a step above this is a unit mistake (kW for MW), not a market.
+ */
+export const MAX_QUANTITY_STEP_MW = 1000;
+
+/** A positive number of at most `max`, with messages that name the field. */
+const stepField = (what: string, max: number, unit: string) =>
+  finite(what).gt(0, `${what} must be > 0`).max(max, `${what} must be at most ${max} ${unit}; check the unit`);
+
+/** Whether x is a whole multiple of step, up to floating-point dust (1e-9 of a step). */
+export function isMultipleOf(x: number, step: number): boolean {
+  const k = x / step;
+  return Math.abs(k - Math.round(k)) <= 1e-9 * Math.max(1, Math.abs(k));
+}
+
 /** The old name of the field `imbalance`, still read (docs/design.md section 2). */
 export const OLD_IMBALANCE_FIELD = 'fallback';
 
@@ -64,17 +80,33 @@ export const marketSpecSchema = z
     bidCurves: bidCurvesSchema.optional(),
     /** The old name of `imbalance`, read as it; not both. */
     [OLD_IMBALANCE_FIELD]: ruleSchema(OLD_IMBALANCE_FIELD).optional(),
+    /** Order quantities are whole multiples of this [MW], > 0. Default: none (quantities as planned). */
+    quantityStepMw: stepField('quantityStepMw', MAX_QUANTITY_STEP_MW, 'MW').optional(),
+    /** Smallest order the exchange takes [MW], > 0; smaller orders are dropped. Default: none. */
+    minimumQuantityMw: stepField('minimumQuantityMw', MAX_QUANTITY_STEP_MW, 'MW').optional(),
+    /** Limit prices are whole multiples of this [currency/MWh], > 0; floor and cap lie on it. Default: none. */
+    priceTickPerMwh: finite('priceTickPerMwh').gt(0, 'priceTickPerMwh must be > 0').optional(),
   })
   .superRefine(
     (spec, ctx) => {
       // Runs even when other fields are wrong, so that every problem is listed at once; each check
       // looks only at fields that are themselves valid.
-      const { priceFloor, priceCap, timeZone, periodMinutes, imbalance, fallback } = spec as Partial<Record<keyof typeof spec, unknown>>;
+      const { priceFloor, priceCap, timeZone, periodMinutes, imbalance, fallback, priceTickPerMwh } = spec as Partial<Record<keyof typeof spec, unknown>>;
       if (imbalance !== undefined && fallback !== undefined) {
         ctx.addIssue({ code: 'custom', path: [OLD_IMBALANCE_FIELD], message: `both "imbalance" and its old name "${OLD_IMBALANCE_FIELD}" are given` });
       }
       if (isFinite(priceFloor) && isFinite(priceCap) && priceFloor >= priceCap) {
         ctx.addIssue({ code: 'custom', path: ['priceCap'], message: `priceCap (${priceCap}) must be above priceFloor (${priceFloor})` });
+      }
+      // Rounding limits to the tick keeps them inside [floor, cap] only when floor and cap lie on the tick.
+      if (isFinite(priceTickPerMwh) && priceTickPerMwh > 0 && isFinite(priceFloor) && isFinite(priceCap) && priceFloor < priceCap) {
+        if (priceTickPerMwh > priceCap - priceFloor) {
+          ctx.addIssue({ code: 'custom', path: ['priceTickPerMwh'], message: `priceTickPerMwh (${priceTickPerMwh}) is wider than the whole price range [${priceFloor}, ${priceCap}]` });
+        } else {
+          for (const [name, value] of [['priceFloor', priceFloor], ['priceCap', priceCap]] as const) {
+            if (!isMultipleOf(value, priceTickPerMwh)) ctx.addIssue({ code: 'custom', path: ['priceTickPerMwh'], message: `${name} (${value}) is not a whole number of ticks of ${priceTickPerMwh}` });
+          }
+        }
       }
       if (typeof timeZone === 'string' && isValidTimeZone(timeZone) && (periodMinutes === 15 || periodMinutes === 30 || periodMinutes === 60)) {
         const shift = unevenClockShift(timeZone, periodMinutes);
@@ -106,6 +138,9 @@ export const MARKET_FIELD_FIXES: Readonly<Record<string, string>> = {
   [OLD_IMBALANCE_FIELD]: 'keep only "imbalance", the same rule under its new name',
   [`${OLD_IMBALANCE_FIELD}.kind`]: 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
   [`${OLD_IMBALANCE_FIELD}.penaltyPerMwh`]: 'give a penalty >= 0 in currency/MWh',
+  quantityStepMw: 'give the exchange\'s quantity step in MW, e.g. 0.1, or leave the field out',
+  minimumQuantityMw: 'give the exchange\'s smallest order in MW, e.g. 0.1, or leave the field out',
+  priceTickPerMwh: 'give the exchange\'s price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out',
 };
 
 /** Market spec, as read from `market.json`: the type of marketSpecSchema's output. */

@@ -1,7 +1,7 @@
 import type { PlanPolicy } from '../types.js';
 
 /** The planning policies (docs/design.md section 4), in the order the help lists them. */
-export const PLAN_POLICIES: readonly PlanPolicy[] = Object.freeze(['quantile', 'median', 'point']);
+export const PLAN_POLICIES: readonly PlanPolicy[] = Object.freeze(['quantile', 'median', 'point', 'price-taking']);
 
 /** The interval an alpha lies in, for messages: the rule of isAlpha. */
 export const ALPHA_RANGE = '(0, 0.5)';
@@ -10,8 +10,9 @@ export const ALPHA_RANGE = '(0, 0.5)';
 export const ALPHA_RULE = `a number in ${ALPHA_RANGE}`;
 
 /**
- * Whether `alpha` is the width of a central interval [q(alpha), q(1 - alpha)] (docs/design.md
- * section 4): 0 < alpha < 0.5, so that q(alpha) lies below the median and q(1 - alpha) above it.
+ * Whether `alpha` is a tail level (docs/design.md section 2): buys are limited at q(1 - alpha), sells
+ * at q(alpha), and the central interval [q(alpha), q(1 - alpha)] covers 1 - 2 alpha. 0 < alpha < 0.5,
+ * so that q(alpha) lies below the median and q(1 - alpha) above it.
  */
 export function isAlpha(alpha: number): boolean {
   return alpha > 0 && alpha < 0.5;

@@ -11,8 +11,13 @@ export function infeasibilityReason(problem: DayProblem): string | null {
   const tol = 1e-9 * Math.max(1, battery.energyMwh);
   if (periods === 0) return 'the day has no delivery periods';
   if (problem.sellPricePerMwh.length !== periods) return 'buy and sell price series differ in length';
-  if (s0 < battery.socMinMwh - tol || s0 > battery.socMaxMwh + tol) {
-    return `the starting state of charge ${fmt(s0)} MWh is outside the window [${fmt(battery.socMinMwh)}, ${fmt(battery.socMaxMwh)}] MWh; start inside it (--soc-start) or widen the window`;
+  // A start outside the window is a day problem only when the first period can bring it inside at
+  // full power (the rows s_t in [socMin, socMax] hold from the first period's end on); further out,
+  // planDay first runs the forced periods of windowRecovery.ts.
+  const firstChargeMwh = battery.chargeEfficiency * dt * battery.chargeMw;
+  const firstDischargeMwh = (dt * battery.dischargeMw) / battery.dischargeEfficiency;
+  if (s0 + firstChargeMwh < battery.socMinMwh - tol || s0 - firstDischargeMwh > battery.socMaxMwh + tol) {
+    return `the starting state of charge ${fmt(s0)} MWh is outside the window [${fmt(battery.socMinMwh)}, ${fmt(battery.socMaxMwh)}] MWh and the first period cannot bring it inside at full power; start inside it (--soc-start) or widen the window`;
   }
   const target = Math.max(problem.socEndMinMwh, battery.socMinMwh);
   if (target > battery.socMaxMwh + tol) {

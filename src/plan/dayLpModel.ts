@@ -9,7 +9,7 @@ import { isArbitragePeriod } from './simultaneousFlows.js';
  * - b{t}: s_t - s_{t-1} - eta_c dt c_t + (dt / eta_d) d_t = 0   (s_0 moved to the right-hand side)
  * - s_t within [socMin, socMax]; s_T >= max(socMin, socEndMin)
  * - c_t <= chargeMw, d_t <= dischargeMw (0 where the period's mode, a PERIOD_MODE value, forbids the flow)
- * - cycle cap: sum_t dt d_t <= maxDischargeMwhPerDay
+ * - cycle cap: sum_t dt d_t / eta_d <= maxFromStoreMwhPerDay (energy taken out of the store)
  * - h{t}, in a free arbitrage period (simultaneousFlows.ts): c_t / C + d_t / D <= 1, the convex hull
  *   of "charge only" and "discharge only" (Balas 1979, "Disjunctive programming", Ann. Discrete Math.
  *   5). C and D are the most one period can charge and discharge without a simultaneous flow: the
@@ -25,12 +25,12 @@ export function dayLpModel(problem: DayProblem, modes?: Int8Array): LpModel {
   const constraints: Record<string, { max?: number; min?: number; equal?: number }> = {};
   const variables: Record<string, Record<string, number>> = {};
   const endFloor = Math.max(battery.socMinMwh, problem.socEndMinMwh);
-  const hasCap = battery.maxDischargeMwhPerDay !== undefined;
+  const hasCap = battery.maxFromStoreMwhPerDay !== undefined;
   const inside = problem.socStartMwh >= battery.socMinMwh && problem.socStartMwh <= battery.socMaxMwh;
   const widthMwh = inside ? battery.socMaxMwh - battery.socMinMwh : Infinity;
   const hullChargeMw = Math.min(battery.chargeMw, widthMwh / (battery.chargeEfficiency * dt));
   const hullDischargeMw = Math.min(battery.dischargeMw, (widthMwh * battery.dischargeEfficiency) / dt);
-  if (hasCap) constraints.cycles = { max: battery.maxDischargeMwhPerDay as number };
+  if (hasCap) constraints.cycles = { max: battery.maxFromStoreMwhPerDay as number };
   for (let t = 0; t < periods; t++) {
     const mode = modes?.[t] ?? PERIOD_MODE.free;
     constraints[`b${t}`] = { equal: t === 0 ? problem.socStartMwh : 0 };
@@ -45,7 +45,7 @@ export function dayLpModel(problem: DayProblem, modes?: Int8Array): LpModel {
       [`b${t}`]: dt / battery.dischargeEfficiency,
       [`dmax${t}`]: 1,
     };
-    if (hasCap) discharge.cycles = dt;
+    if (hasCap) discharge.cycles = dt / battery.dischargeEfficiency;
     if (mode === PERIOD_MODE.free && hullChargeMw > 0 && hullDischargeMw > 0 && isArbitragePeriod(problem, t)) {
       constraints[`h${t}`] = { max: 1 };
       charge[`h${t}`] = 1 / hullChargeMw;

@@ -11,17 +11,21 @@ export interface PolicyPrices {
   readonly buyLimitPerMwh: number[];
   /** Limit price of a sell order, clamped into [floor, cap] [currency/MWh]. */
   readonly sellLimitPerMwh: number[];
-  /** Level the buy limit was read at (1 - alpha, or 0.5 for point). */
-  readonly buyLevel: number;
-  /** Level the sell limit was read at (alpha, or 0.5 for point). */
-  readonly sellLevel: number;
+  /** Level the buy limit was read at (1 - alpha, or 0.5 for point); null for a limit at the price cap. */
+  readonly buyLevel: number | null;
+  /** Level the sell limit was read at (alpha, or 0.5 for point); null for a limit at the price floor. */
+  readonly sellLevel: number | null;
 }
 
 /**
- * The policies of docs/design.md section 4, with alpha the width of the central interval [q(alpha), q(1 - alpha)]:
- * - `quantile`: schedule and limits on the pessimistic side: buy at q(1 - alpha), sell at q(alpha);
- * - `median`:   schedule on the median, limits at q(1 - alpha) for buys and q(alpha) for sells;
- * - `point`:    schedule and limits on the median.
+ * The policies of docs/design.md section 4, with alpha the tail level (the central interval
+ * [q(alpha), q(1 - alpha)] covers 1 - 2 alpha):
+ * - `quantile`:     schedule and limits on the pessimistic side: buy at q(1 - alpha), sell at q(alpha);
+ * - `median`:       schedule on the median, limits at q(1 - alpha) for buys and q(alpha) for sells;
+ * - `point`:        schedule and limits on the median;
+ * - `price-taking`: schedule on the median, buy limits at the price cap and sell limits at the floor,
+ *                   so that every clearing price accepts every order (the `point` schedule, always
+ *                   executed). The backtest's price-taking policy is this one (planPolicyDay.ts).
  * Quantiles between given levels are interpolated linearly; limits are clamped into [floor, cap].
  */
 export function policyPrices(forecast: QuantileDay, policy: PlanPolicy, alpha: number, market: MarketSpec): PolicyPrices {
@@ -30,6 +34,16 @@ export function policyPrices(forecast: QuantileDay, policy: PlanPolicy, alpha: n
   const clampAll = (prices: number[]): number[] => prices.map((p) => Math.min(market.priceCap, Math.max(market.priceFloor, p)));
   if (policy === 'point') {
     return { buyPricePerMwh: median, sellPricePerMwh: median, buyLimitPerMwh: clampAll(median), sellLimitPerMwh: clampAll(median), buyLevel: 0.5, sellLevel: 0.5 };
+  }
+  if (policy === 'price-taking') {
+    return {
+      buyPricePerMwh: median,
+      sellPricePerMwh: median,
+      buyLimitPerMwh: median.map(() => market.priceCap),
+      sellLimitPerMwh: median.map(() => market.priceFloor),
+      buyLevel: null,
+      sellLevel: null,
+    };
   }
   const upper = at(1 - alpha);
   const lower = at(alpha);

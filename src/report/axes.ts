@@ -28,11 +28,17 @@ export function valueAxisY(scale: LinearScale, plot: PlotArea, side: 'left' | 'r
   return markup`<g class="axis axis-y-${side}"><line x1="${x}" y1="${plot.top}" x2="${x}" y2="${plot.bottom}" stroke="${INK.axis}"/>${joinMarkup(parts, '')}</g>`;
 }
 
-/** A numeric x axis: light vertical grid lines and labels under the plot. */
+/**
+ * A numeric x axis: light vertical grid lines and labels under the plot. Every tick gets its grid
+ * line and tick mark; labels go on every k-th tick, k the smallest stride at which no two labels
+ * (centred on their ticks, widths by textWidth) come closer than LABEL_GAP.
+ */
 export function valueAxisX(scale: LinearScale, plot: PlotArea): Markup {
+  const stride = labelStride(scale.ticks.map((tick) => scale.at(tick)), scale.labels);
   const parts = scale.ticks.map((tick, i) => {
     const x = scale.at(tick);
-    return markup`<line x1="${x}" y1="${plot.top}" x2="${x}" y2="${plot.bottom}" stroke="${INK.grid}"/><line x1="${x}" y1="${plot.bottom}" x2="${x}" y2="${plot.bottom + 5}" stroke="${INK.axis}"/>${svgText(x, plot.bottom + 18, scale.labels[i] as string, { size: FONT.tick, anchor: 'middle', cls: 'tick-label' })}`;
+    const label = i % stride === 0 ? svgText(x, plot.bottom + 18, scale.labels[i] as string, { size: FONT.tick, anchor: 'middle', cls: 'tick-label' }) : '';
+    return markup`<line x1="${x}" y1="${plot.top}" x2="${x}" y2="${plot.bottom}" stroke="${INK.grid}"/><line x1="${x}" y1="${plot.bottom}" x2="${x}" y2="${plot.bottom + 5}" stroke="${INK.axis}"/>${label}`;
   });
   return markup`<g class="axis axis-x">${baseline(plot)}${joinMarkup(parts, '')}</g>`;
 }
@@ -59,6 +65,22 @@ export function bandAxisY(axis: BandAxis, scale: BandScale, plot: PlotArea): Mar
     return markup`<line x1="${plot.left - 5}" y1="${y}" x2="${plot.left}" y2="${y}" stroke="${INK.axis}"/>${svgText(plot.left - 8, y, t.label, { size: FONT.tick, anchor: 'end', middle: true, cls: 'tick-label' })}`;
   });
   return markup`<g class="axis axis-y-left"><line x1="${plot.left}" y1="${plot.top}" x2="${plot.left}" y2="${plot.bottom}" stroke="${INK.axis}"/>${joinMarkup(parts, '')}</g>`;
+}
+
+/**
+ * The smallest k such that labels 0, k, 2k, ... centred at `positions` [px] keep LABEL_GAP apart
+ * (their widths by textWidth at the tick font); the number of labels when none does (one label).
+ */
+export function labelStride(positions: readonly number[], labels: readonly string[]): number {
+  const half = labels.map((label) => textWidth(label, FONT.tick) / 2);
+  for (let k = 1; k < positions.length; k++) {
+    let fits = true;
+    for (let i = k; i < positions.length && fits; i += k) {
+      fits = Math.abs((positions[i] as number) - (positions[i - k] as number)) >= (half[i] as number) + (half[i - k] as number) + LABEL_GAP;
+    }
+    if (fits) return k;
+  }
+  return Math.max(1, positions.length);
 }
 
 function baseline(plot: PlotArea): Markup {

@@ -1,15 +1,17 @@
 import type { BacktestMetrics } from '../backtest/backtestMetrics.js';
 import type { PolicyMetrics } from '../backtest/policyMetrics.js';
 import type { BacktestResult, PolicyDay } from '../backtest/runBacktest.js';
+import { extrapolationWarning, yearCoverage } from '../economics/yearCoverage.js';
+import { formatPValue } from '../io/formatNumber.js';
+import { baselineHeadline, edgeSentence } from './edgeText.js';
 import { imbalanceDescription } from './imbalanceDescription.js';
 import type { BatteryModel, MarketSpec } from '../types.js';
 import { barChart } from './barChart.js';
 import { categoryAxis } from './categoryAxis.js';
-import { histogram } from './histogram.js';
+import { dataBinWidth, histogram } from './histogram.js';
 import { htmlPage, paragraph, type PageSection } from './htmlPage.js';
 import { lineChart } from './lineChart.js';
 import type { Markup } from './markup.js';
-import { niceTicks } from './niceTicks.js';
 import { OKABE_ITO, ROLE_COLOURS } from './palette.js';
 import { policyStyle } from './policyStyles.js';
 import { factList, htmlTable } from './table.js';
@@ -48,7 +50,7 @@ export function backtestReport(input: BacktestReportInput): string {
       { id: 'profit', heading: 'Cumulative profit', blocks: [cumulativeChart(input)] },
       { id: 'daily', heading: 'Daily profit', blocks: dailyHistograms(input) },
       { id: 'orders', heading: 'Acceptance and the imbalance price', blocks: [acceptanceChart(input), ...imbalanceCharts(input)] },
-      { id: 'policies', heading: 'Policies', blocks: policyTables(input) },
+      { id: 'policies', heading: 'Policies', blocks: [...policyTables(input), ...edgeTable(input.metrics, currency)] },
       { id: 'months', heading: 'Month by month', blocks: monthTables(input) },
     );
   }
@@ -82,15 +84,58 @@ function summaryFacts(input: BacktestReportInput): [string, string][] {
     ['policies', `alpha ${numberText(result.alpha, 4)} for quantile and median; unaccepted orders: ${result.unaccepted}`],
     ['imbalance price', imbalanceDescription(result.imbalanceSource, c)],
     ['profit', policies.join('; ')],
-    ['quantile against point', edgeText(metrics, c)],
+    ...headlineFacts(metrics, c),
+    ...deliberateFact(metrics, c),
+    ...yearlyFact(result),
   ];
 }
 
-function edgeText(metrics: BacktestMetrics, currency: string): string {
-  const edge = metrics.edge;
-  if (edge === null) return 'not tested (both policies are needed)';
-  if (edge.status !== 'ok') return `not tested (${edge.reason})`;
-  return `${numberText(edge.meanDifference, 2)} ${currency} more per day on average; Diebold-Mariano/HLN statistic ${numberText(edge.hln, 3)}, one-sided p = ${numberText(edge.pValueOneSided, 4)} (small p: the quantile policy earns more)`;
+/** The warning on the yearly figures of summary.json when they are extrapolated (yearCoverage.ts). */
+function yearlyFact(result: BacktestResult): [string, string][] {
+  const warning = extrapolationWarning(yearCoverage(result.days.map((day) => day.day)), 'the yearly figures of summary.json (profitPerMwYear, profitPerMwhYear)');
+  return warning === null ? [] : [['yearly figures', `Warning: ${warning}.`]];
+}
+
+/** The flag on deliberate imbalance (orders the battery could not honour), when there is any. */
+function deliberateFact(metrics: BacktestMetrics, currency: string): [string, string][] {
+  const flagged = Object.entries(metrics.policies).filter(([, m]) => m.deliberateImbalancePeriods > 0);
+  if (flagged.length === 0) return [];
+  const who = flagged.map(([name, m]) => `${name} ${numberText(m.deliberateImbalanceMwh, 1)} MWh in ${m.deliberateImbalancePeriods} periods, ${money(m.deliberateImbalanceCash, currency)}`);
+  return [['deliberate imbalance', `${who.join('; ')}: orders the battery could not deliver or absorb, settled at the imbalance price. Most markets forbid planning on it: it breaches the balance responsibility (SAFETY.md).`]];
+}
+
+/** The tested policy against the strongest simple baseline, first and plainly. */
+function headlineFacts(metrics: BacktestMetrics, currency: string): [string, string][] {
+  if (metrics.tested === null) return [];
+  const headline = baselineHeadline(metrics, currency, numberText);
+  if (headline === null) return [[`${metrics.tested} against a simple baseline`, 'not tested: neither point nor price-taking was run beside it']];
+  return [[`${metrics.tested} against the strongest simple baseline`, `${headline.verdict}. ${headline.test}.`]];
+}
+
+/** The tested policy against every other one, as in summary.json's `edges`. */
+function edgeTable(metrics: BacktestMetrics, currency: string): Markup[] {
+  if (metrics.tested === null || metrics.edges.length === 0) return [];
+  return [
+    htmlTable({
+      caption: `${metrics.tested} against every other policy: mean daily profit difference and the Diebold-Mariano test with the Harvey-Leybourne-Newbold correction (one-sided p-values; small: that side earns more)`,
+      columns: [
+        { header: 'against' },
+        { header: `${metrics.tested} minus it`, unit: `${currency}/day`, decimals: 2 },
+        { header: 'HLN statistic', unit: '-', decimals: 3 },
+        { header: `p, ${metrics.tested} earns more` },
+        { header: 'p, it earns more' },
+        { header: 'reading' },
+      ],
+      rows: metrics.edges.map((e) => [
+        e.reference,
+        e.meanDifference,
+        e.status === 'ok' ? e.hln : null,
+        e.status === 'ok' ? formatPValue(e.pValueTestedEarnsMore) : null,
+        e.status === 'ok' ? formatPValue(e.pValueReferenceEarnsMore) : null,
+        edgeSentence(e, currency, numberText),
+      ]),
+    }),
+  ];
 }
 
 function runsOf(result: BacktestResult, k: number): PolicyDay[] {
@@ -124,7 +169,8 @@ function dailyHistograms(input: BacktestReportInput): Markup[] {
   const all = profits.flat();
   const lo = Math.min(...all);
   const hi = Math.max(...all);
-  const binWidth = niceTicks(lo, hi, 20).step;
+  // One width for every policy, chosen from all their daily profits together (Freedman-Diaconis).
+  const binWidth = dataBinWidth(all);
   const min = Math.floor(lo / binWidth + 1e-9) * binWidth;
   const max = Math.max(min + binWidth, Math.ceil(hi / binWidth - 1e-9) * binWidth);
   return result.policies.map((policy, k) => {
@@ -137,7 +183,7 @@ function dailyHistograms(input: BacktestReportInput): Markup[] {
     return histogram({
       id: `backtest-daily-${policy}`,
       title: `Daily profit, ${style.label}`,
-      caption: `Bars: number of days whose profit falls in each ${numberText(binWidth, 6)} ${market.currency} bin (same bins for every policy); dashed: the mean day and the 5 % quantile (the worst day in 20).`,
+      caption: `Bars: number of days whose profit falls in each ${numberText(binWidth, 6)} ${market.currency} bin (the width chosen from the data by the Freedman-Diaconis rule, 2 IQR n^(\u22121/3), rounded to a 1-2-5 step; the same bins for every policy); dashed: the mean day and the 5 % quantile (the worst day in 20).`,
       values: profits[k] as number[],
       binWidth,
       x: { label: 'profit of a day', unit: market.currency, min, max },
@@ -176,28 +222,34 @@ function imbalanceCharts(input: BacktestReportInput): Markup[] {
   if (m.every((p) => p.boughtImbalanceMwh === 0 && p.soldImbalanceMwh === 0 && p.imbalanceCash === 0)) {
     return [paragraph('No energy was settled at the imbalance price: every policy moved only energy the auction accepted.')];
   }
-  const rule = result.unaccepted === 'follow-plan' ? 'the battery ran its plan anyway, so unaccepted orders were bought or sold at the imbalance price' : 'sells the stored energy could not cover were covered at the imbalance price';
+  const rule = result.unaccepted === 'follow-plan' ? 'the battery ran its plan anyway, so unaccepted orders were bought or sold at the imbalance price' : 'the battery moved only with accepted orders; what it could not deliver or absorb was bought or sold back at the imbalance price';
+  const deliberate = m.some((p) => p.deliberateImbalanceMwh > 0);
   return [
     barChart({
       id: 'backtest-imbalance-energy',
       title: 'Energy settled at the imbalance price, per policy',
-      caption: `Energy bought and sold at the imbalance (balancing) price instead of the auction over all covered days (${result.unaccepted}: ${rule}).`,
+      caption: `Energy bought and sold at the imbalance (balancing) price instead of the auction over all covered days (${result.unaccepted}: ${rule}).${deliberate ? ' Deliberate imbalance: the part of it the store could not deliver or absorb, orders the battery could not honour (SAFETY.md: most markets forbid planning on it).' : ''}`,
       x,
       y: { label: 'energy at the imbalance price', unit: 'MWh' },
       plotHeight: 180,
       series: [
         { name: 'bought at the imbalance price', values: m.map((p) => p.boughtImbalanceMwh), colour: ROLE_COLOURS.buy },
         { name: 'sold at the imbalance price', values: m.map((p) => p.soldImbalanceMwh), colour: ROLE_COLOURS.sell },
+        ...(deliberate ? [{ name: 'of it deliberate imbalance', values: m.map((p) => p.deliberateImbalanceMwh), colour: OKABE_ITO.reddishPurple }] : []),
       ],
     }),
     barChart({
       id: 'backtest-imbalance-cash',
-      title: 'Cash at the imbalance price, per policy',
-      caption: 'Cash of the energy above, + received, \u2212 paid; below zero the imbalance price cost the policy money. It is part of the profit.',
+      title: 'Gross imbalance cash and the cost of imbalance against the clearing price, per policy',
+      caption:
+        'Gross imbalance cash: the whole price of the energy above, + received, \u2212 paid; it is part of the profit, but its size mostly says how much energy went through the imbalance price, not what that cost. Cost of imbalance against the clearing price: (imbalance price \u2212 clearing price) \u00d7 MWh bought at the imbalance price, minus the same for MWh sold at it, summed: what closing that energy at the imbalance price instead of the clearing price took from the profit; above zero it cost the policy money, below zero it earned.',
       x,
-      y: { label: 'imbalance cash, + received', unit: market.currency },
+      y: { label: 'cash', unit: market.currency },
       plotHeight: 180,
-      series: [{ name: 'imbalance cash', values: m.map((p) => p.imbalanceCash), colour: OKABE_ITO.blue }],
+      series: [
+        { name: 'gross imbalance cash (+ received)', values: m.map((p) => p.imbalanceCash), colour: OKABE_ITO.blue },
+        { name: 'cost of imbalance against the clearing price (+ cost)', values: m.map((p) => p.imbalanceCostVsClearing), colour: OKABE_ITO.orange },
+      ],
     }),
   ];
 }
@@ -217,9 +269,10 @@ function policyTables(input: BacktestReportInput): Markup[] {
         { header: 'capture ratio', unit: '%', decimals: 1 },
         { header: '5 % worst day', unit: c, decimals: 0 },
         { header: 'max drawdown', unit: c, decimals: 0 },
-        { header: 'full cycles', unit: '-', decimals: 1 },
+        { header: 'full cycles, total', unit: '-', decimals: 1 },
+        { header: 'full cycles per day', unit: '1/day', decimals: 2 },
       ],
-      rows: rows.map(([p, m]) => [p, m.profit, m.meanDailyProfit, pct(m.captureRatio), m.worstDay5Percent, m.maxDrawdown, m.equivalentFullCycles]),
+      rows: rows.map(([p, m]) => [p, m.profit, m.meanDailyProfit, pct(m.captureRatio), m.worstDay5Percent, m.maxDrawdown, m.cyclesTotal, m.cyclesPerDay]),
     }),
     htmlTable({
       caption: 'Orders and the imbalance price per policy',
@@ -229,10 +282,16 @@ function policyTables(input: BacktestReportInput): Markup[] {
         { header: 'sells accepted', unit: '%', decimals: 1 },
         { header: 'bought at imbalance price', unit: 'MWh', decimals: 1 },
         { header: 'sold at imbalance price', unit: 'MWh', decimals: 1 },
-        { header: 'imbalance cash', unit: c, decimals: 0 },
+        { header: 'gross imbalance cash', unit: c, decimals: 0 },
+        { header: 'imbalance cost vs clearing', unit: c, decimals: 0 },
+        { header: 'deliberate imbalance', unit: 'MWh', decimals: 1 },
+        { header: 'deliberate imbalance periods' },
         { header: 'days without plan' },
       ],
-      rows: rows.map(([p, m]) => [p, pct(m.buyAcceptanceRate), pct(m.sellAcceptanceRate), m.boughtImbalanceMwh, m.soldImbalanceMwh, m.imbalanceCash, m.daysWithoutPlan]),
+      rows: rows.map(([p, m]) => [
+        p, pct(m.buyAcceptanceRate), pct(m.sellAcceptanceRate), m.boughtImbalanceMwh, m.soldImbalanceMwh, m.imbalanceCash, m.imbalanceCostVsClearing,
+        m.deliberateImbalanceMwh, m.deliberateImbalancePeriods, m.daysWithoutPlan,
+      ]),
     }),
   ];
 }

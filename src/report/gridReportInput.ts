@@ -32,13 +32,24 @@ export interface GridSummaryHead {
 
 /** The sweep's summary.json as the sweep report reads it. */
 export interface SweepReportSummary extends GridSummaryHead {
-  readonly best: SettingResult | null;
+  /** Per unaccepted rule, the most profitable setting and the strongest simple baseline it is read against. */
+  readonly bestByRule: readonly {
+    readonly unaccepted: number | string;
+    readonly best: SettingResult | null;
+    readonly strongestBaseline: { readonly policy: string; readonly profit: number } | null;
+    readonly beatsStrongestBaseline: boolean | null;
+    readonly perfectForesightProfit: number | null;
+  }[];
   readonly bestAlphaByPolicy: readonly {
     readonly policy: number | string;
     readonly unaccepted: number | string;
     readonly alpha: number | string | null;
     readonly row: Readonly<Record<string, ResultCell>> | null;
+    readonly onEdgeOfAlphaGrid: boolean;
   }[];
+  /** The reference policies' rows per rule (point, price-taking, perfect-foresight). */
+  readonly references: readonly { readonly policy: string; readonly unaccepted: string; readonly row: Readonly<Record<string, ResultCell>> }[];
+  readonly warnings: readonly string[];
 }
 
 /** A size the sizing summary picked, with its row and the NPV of its grid neighbours. */
@@ -56,5 +67,7 @@ export interface SizeReportSummary extends GridSummaryHead {
     readonly scored: DayRange & { readonly days: readonly string[] };
   };
   readonly economics: SizeCosts & { readonly steps: readonly string[] };
+  /** What an owner must know before reading the best size as an answer (extrapolated years, losses, grid edges). */
+  readonly warnings: readonly string[];
   readonly best: readonly { readonly policy: string; readonly highestNpv: PickedSize | null; readonly highestIrr: PickedSize | null }[];
 }

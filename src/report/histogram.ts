@@ -7,6 +7,7 @@ import { linearScale } from './linearScale.js';
 import { INK, seriesColour } from './palette.js';
 import { FONT, svgText, tooltip } from './svgText.js';
 import { numberText } from './tickLabel.js';
+import { quantileSorted } from '../stats/quantileSorted.js';
 
 /** A vertical reference line on a histogram, e.g. the mean or 0. */
 export interface HistogramMarker {
@@ -21,7 +22,7 @@ export interface HistogramSpec extends ChartBase {
   readonly x: ValueAxis;
   /** What a bar counts, e.g. { label: 'days', unit: 'count' }. */
   readonly y: Quantity;
-  /** Width of a bin [x unit]. Default: a 1-2-5 ladder step giving about 20 bins. */
+  /** Width of a bin [x unit]. Default: from the data (dataBinWidth, Freedman-Diaconis). */
   readonly binWidth?: number;
   readonly colour?: string;
   /** Name of the bars in the legend. Default: the y label. */
@@ -36,7 +37,38 @@ export interface Bin {
   readonly count: number;
 }
 
-export const HISTOGRAM_DEFAULTS = Object.freeze({ binTarget: 20 });
+export const HISTOGRAM_DEFAULTS = Object.freeze({ binTarget: 20, maxBins: 50 });
+
+/**
+ * A bin width chosen from the data: the Freedman-Diaconis rule h = 2 IQR n^(-1/3) (D. Freedman and
+ * P. Diaconis 1981, "On the histogram as a density estimator: L2 theory", Z. Wahrscheinlichkeitstheorie
+ * verw. Gebiete 57, 453-476), robust to the long tails daily profits have; the quartiles by Hyndman and
+ * Fan's definition 7 (stats/quantileSorted.ts). When the quartiles coincide (IQR 0), Sturges' rule
+ * range / (ceil(log2 n) + 1) (H. A. Sturges 1926, J. Am. Stat. Assoc. 21(153), 65-66). At most
+ * `maxBins` bins over the range. The width is then moved to the nearest step of the 1-2-5 ladder (in
+ * ratio), so that bin edges read as round numbers.
+ *
+ * Example: 1, 2, ..., 100: IQR = 75.25 - 25.75 = 49.5, h = 2 x 49.5 / 100^(1/3) = 21.33, nearest
+ * ladder step 20.
+ */
+export function dataBinWidth(values: readonly number[], maxBins: number = HISTOGRAM_DEFAULTS.maxBins): number {
+  const sorted = values.filter(Number.isFinite).sort((a, b) => a - b);
+  const n = sorted.length;
+  if (n === 0) return 1;
+  const range = (sorted[n - 1] as number) - (sorted[0] as number);
+  if (!(range > 0)) return niceTicks(sorted[0] as number, sorted[0] as number, 1).step;
+  const iqr = quantileSorted(sorted, 0.75) - quantileSorted(sorted, 0.25);
+  const rule = iqr > 0 ? (2 * iqr) / Math.cbrt(n) : range / (Math.ceil(Math.log2(n)) + 1);
+  return nearestLadderStep(Math.max(rule, range / maxBins));
+}
+
+/** The step of the 1-2-5 ladder nearest to `width` in ratio (|log(step / width)| smallest; the larger on a tie). */
+export function nearestLadderStep(width: number): number {
+  const above = niceTicks(0, width, 1).step;
+  const mantissa = Math.round(above / 10 ** Math.floor(Math.log10(above) + 1e-9));
+  const below = mantissa === 5 ? (above * 2) / 5 : above / 2;
+  return Math.log(above / width) <= Math.log(width / below) ? above : below;
+}
 
 /**
  * Bins of equal width starting at a multiple of the width: [k w, (k + 1) w). Each observation is
@@ -47,7 +79,7 @@ export function histogramBins(values: readonly number[], binWidth?: number): Bin
   if (finite.length === 0) return [];
   const lo = Math.min(...finite);
   const hi = Math.max(...finite);
-  const width = binWidth ?? niceTicks(lo, hi, HISTOGRAM_DEFAULTS.binTarget).step;
+  const width = binWidth ?? dataBinWidth(finite);
   if (!(width > 0)) throw new RangeError(`bin width must be > 0, got ${width}`);
   const first = Math.floor(lo / width + 1e-9);
   const count = Math.max(1, Math.ceil(hi / width - 1e-9) - first);

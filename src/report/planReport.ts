@@ -19,7 +19,7 @@ export interface PlanReportInput {
   /** Delivery day, YYYY-MM-DD. */
   readonly day: string;
   readonly policy: PlanPolicy;
-  /** Width of the central interval [q(alpha), q(1 - alpha)] (ignored by the point policy). */
+  /** Tail level: buys limited at q(1 - alpha), sells at q(alpha) (ignored by point and price-taking). */
   readonly alpha: number;
   readonly market: MarketSpec;
   /** The day's quantile forecast the plan was made from. */
@@ -28,6 +28,8 @@ export interface PlanReportInput {
   readonly plan: OptimalPlan;
   /** Input files by role as the user named them (market, battery, forecast), listed in the report. */
   readonly inputs?: Readonly<Record<string, string>>;
+  /** What the plan is worth if every order fills at its limit, and expected under the forecast (plan.json's `value`), with the price-taking plan's expectation beside it. */
+  readonly worth?: { readonly ifFilledAtLimits: number; readonly expected: number | null; readonly baselineExpected: number | null };
 }
 
 /** Central intervals drawn in the fan, widest first, where the forecast's levels reach them. */
@@ -67,7 +69,8 @@ export function planReport(input: PlanReportInput): string {
 function policyText(input: PlanReportInput): string {
   const { policy, plan } = input;
   if (policy === 'point') return 'policy point: schedule and limits at the median forecast';
-  const levels = `buys limited at q${numberText(plan.prices.buyLevel, 4)}, sells at q${numberText(plan.prices.sellLevel, 4)}`;
+  if (policy === 'price-taking') return 'policy price-taking: scheduled on the median, buys limited at the price cap and sells at the floor (always accepted)';
+  const levels = `buys limited at q${numberText(plan.prices.buyLevel ?? Number.NaN, 4)}, sells at q${numberText(plan.prices.sellLevel ?? Number.NaN, 4)}`;
   return policy === 'quantile' ? `policy quantile, alpha ${numberText(input.alpha, 4)}: scheduled and ${levels}` : `policy median, alpha ${numberText(input.alpha, 4)}: scheduled on the median, ${levels}`;
 }
 
@@ -85,10 +88,23 @@ function summaryFacts(input: PlanReportInput): [string, string][] {
     ['orders', `${buys.length} buys, ${mwh(energy(buys))}; ${sells.length} sells, ${mwh(energy(sells))}`],
     ["value at the policy's prices", money(plan.outcome.objective)],
     ['value at the median forecast', money(plan.expectedValueAtMedian)],
+    ...worthFacts(input, money),
     ['state of charge', `${mwh(plan.problem.socStartMwh)} at the start, ${mwh(soc[soc.length - 1] ?? plan.problem.socStartMwh)} at the end (floor ${mwh(plan.problem.socEndMinMwh)})`],
     ['solver', `${plan.outcome.solver}, ${plan.outcome.nodes} branch-and-bound nodes`],
     ['forecast levels', `${forecast.levels.map((l) => numberText(l, 4)).join(', ')} (${forecast.levels.length} levels)`],
   ];
+}
+
+function worthFacts(input: PlanReportInput, money: (x: number) => string): [string, string][] {
+  const w = input.worth;
+  if (w === undefined) return [];
+  const facts: [string, string][] = [['value if every order fills at its limit', money(w.ifFilledAtLimits)]];
+  if (w.expected !== null) facts.push(['expected value under the forecast', `${money(w.expected)} (acceptance read from the quantiles; unaccepted orders at the expected imbalance price)`]);
+  if (w.expected !== null && w.baselineExpected !== null) {
+    const gap = w.expected - w.baselineExpected;
+    facts.push(['price-taking plan of the day, expected', `${money(w.baselineExpected)}: this plan expects ${money(Math.abs(gap))} ${gap < 0 ? 'LESS' : 'more'}`]);
+  }
+  return facts;
 }
 
 /**
@@ -120,19 +136,25 @@ function pricesChart(input: PlanReportInput, axis: ReturnType<typeof periodAxis>
     }
     return values;
   };
-  const level = (tau: number) => (input.policy === 'point' ? 'median' : `q${numberText(tau, 4)}`);
+  const level = (tau: number | null) => (input.policy === 'point' ? 'median' : `q${numberText(tau ?? Number.NaN, 4)}`);
+  // Price-taking limits sit at the cap and floor, far off the forecast's scale: they are said, not drawn.
+  const drawLimits = input.policy !== 'price-taking';
   return fanChart({
     id: 'plan-prices',
     title: `Price forecast with the limit prices of the orders, ${input.day}`,
-    caption: 'Bands: forecast intervals, darker is narrower; line: median. \u25bc a buy is accepted at or below its limit, \u25b2 a sell at or above.',
+    caption: drawLimits
+      ? 'Bands: forecast intervals, darker is narrower; line: median. \u25bc a buy is accepted at or below its limit, \u25b2 a sell at or above.'
+      : 'Bands: forecast intervals, darker is narrower; line: median. The price-taking orders are limited at the price cap (buys) and floor (sells), off this scale: every clearing price accepts them.',
     x: axis,
     y: { label: 'price', unit },
     bands: fanBands(forecast),
     median: { name: 'median (q0.5)', values: forecast.prices.map((row) => priceAtLevel(forecast.levels, row, 0.5)) },
-    markers: [
-      { name: `buy limit (${level(plan.prices.buyLevel)})`, values: limits('buy'), shape: 'triangle-down', colour: ROLE_COLOURS.buy },
-      { name: `sell limit (${level(plan.prices.sellLevel)})`, values: limits('sell'), shape: 'triangle-up', colour: ROLE_COLOURS.sell },
-    ],
+    markers: drawLimits
+      ? [
+          { name: `buy limit (${level(plan.prices.buyLevel)})`, values: limits('buy'), shape: 'triangle-down', colour: ROLE_COLOURS.buy },
+          { name: `sell limit (${level(plan.prices.sellLevel)})`, values: limits('sell'), shape: 'triangle-up', colour: ROLE_COLOURS.sell },
+        ]
+      : [],
   });
 }
 

@@ -1,4 +1,5 @@
 import type { ForecastComparison } from '../forecast/scoring/compareForecasts.js';
+import { formatPValue } from '../io/formatNumber.js';
 import type { ScoreTable } from '../forecast/scoring/scoreForecasts.js';
 import { barChart } from './barChart.js';
 import { calibrationPlot } from './calibrationPlot.js';
@@ -71,14 +72,14 @@ function summaryFacts(input: ScoreReportInput): [string, string][] {
     ['days scored', `${days.length} (${days[0] ?? '\u2013'} to ${days[days.length - 1] ?? '\u2013'}); ${input.unscored.length} forecast days not scored`],
     ['periods scored', String(table.overall.count)],
     ['levels', table.levels.map((l) => numberText(l, 4)).join(', ')],
-    ['crps', `${numberText(table.overall.crps, 4)} ${unit}: the mean pinball loss over the levels (about CRPS / 2)`],
+    ['crps', `${numberText(table.overall.crps, 4)} ${unit}: the mean pinball loss over the levels and every period, each period counting once (about CRPS / 2)`],
   ];
   if (comparison !== null) {
     const t = comparison.test;
     facts.push([
       'against the second forecast',
-      `its daily crps ${numberText(comparison.lossSecond, 4)} ${unit}, this forecast's ${numberText(comparison.lossFirst, 4)} ${unit}, on ${comparison.days} common days; ` +
-        (t.status === 'ok' ? `Diebold-Mariano (HLN) ${numberText(t.hln, 3)}, two-sided p = ${numberText(t.pValueTwoSided, 4)}` : `Diebold-Mariano not defined: ${t.reason}`),
+      `its crps ${numberText(comparison.lossSecond, 4)} ${unit}, this forecast's ${numberText(comparison.lossFirst, 4)} ${unit}, on ${comparison.days} common days: ${comparison.lossFirst < comparison.lossSecond ? 'this forecast is better' : comparison.lossFirst > comparison.lossSecond ? 'the second forecast is better' : 'neither is better'} (lower crps); ` +
+        (t.status === 'ok' ? `Diebold-Mariano (HLN) ${numberText(t.hln, 3)}, two-sided p = ${formatPValue(t.pValueTwoSided)}` : `Diebold-Mariano not defined: ${t.reason}`),
     ]);
   }
   return facts;

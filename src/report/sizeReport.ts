@@ -87,6 +87,7 @@ function summaryFacts(summary: SizeReportSummary): [string, string][] {
     ['powers', `${list('power_mw')} MW (charge = discharge)`],
     ['round-trip efficiencies', list('round_trip_efficiency')],
     ['policies', `${list('policy')}; ${alpha}; unaccepted orders: ${summary.unaccepted}`],
+    ...summary.warnings.map((warning): [string, string] => ['warning', `${warning}.`]),
   ];
 }
 

@@ -7,6 +7,7 @@ import { OKABE_ITO, ROLE_COLOURS } from './palette.js';
 import { policyStyle } from './policyStyles.js';
 import { factList, htmlTable } from './table.js';
 import { numberText } from './tickLabel.js';
+import { formatPValue } from '../io/formatNumber.js';
 
 export interface SweepReportInput {
   /** Every finished setting with its row of sweep.csv, in grid order. */
@@ -53,7 +54,7 @@ function num(cell: ResultCell | undefined): number | null {
 
 /**
  * The sweep report, `report.html`: profit against alpha for every policy and unaccepted rule with the
- * most profitable setting marked; per policy and rule the profit with the acceptance rates of buys and
+ * most profitable setting of each rule marked and the reference policies of each rule as guides; per policy and rule the profit with the acceptance rates of buys and
  * sells on a second axis; the best alpha per policy and rule and the top settings as tables. Numbers
  * are the rows of sweep.csv and summary.json. Same input, same bytes.
  */
@@ -62,12 +63,12 @@ export function sweepReport(input: SweepReportInput): string {
   const alphas = ((summary.axes.alpha ?? []) as number[]).slice();
   const curves = alphaCurves(input.results, alphas);
   const x: NumberAxis = { kind: 'linear', label: 'alpha', unit: '-', values: alphas };
-  const sections: PageSection[] = [{ id: 'summary', heading: 'Summary', blocks: [factList(summaryFacts(input)), paragraph(`Note: ${summary.note}.`)] }];
+  const sections: PageSection[] = [{ id: 'summary', heading: 'Summary', blocks: [factList(summaryFacts(input)), ...summary.warnings.map((w) => paragraph(`Warning: ${w}.`)), paragraph(`Note: ${summary.note}.`)] }];
   if (input.results.length > 0) {
     sections.push(
       { id: 'profit', heading: 'Profit against alpha', blocks: [profitChart(input, curves, x)] },
       { id: 'acceptance', heading: 'Profit and acceptance per policy', blocks: curves.map((c) => acceptanceChart(c, x, summary.currency)) },
-      { id: 'settings', heading: 'Best settings', blocks: [bestAlphaTable(summary), topSettingsTable(input)] },
+      { id: 'settings', heading: 'Best settings', blocks: [referenceTable(summary), bestAlphaTable(summary), topSettingsTable(input)] },
     );
   }
   sections.push({ id: 'inputs', heading: 'Inputs', blocks: [htmlTable({ columns: [{ header: 'input' }, { header: 'file' }], rows: Object.entries(summary.inputs).flatMap(([k, v]) => (v === undefined ? [] : [[k, v]])) })] });
@@ -84,21 +85,29 @@ function summaryFacts(input: SweepReportInput): [string, string][] {
   const { summary } = input;
   const c = summary.currency;
   const axes = Object.entries(summary.axes).map(([name, values]) => `${name} ${values.map((v) => (typeof v === 'number' ? numberText(v, 6) : v)).join(', ')}`);
-  const best = summary.best;
   const facts: [string, string][] = [
     ['span', `${summary.from} to ${summary.to}: ${summary.daysCovered} days covered, ${summary.skippedDays.length} skipped`],
     ['grid', `${summary.settings} settings: ${axes.join('; ')}`],
   ];
-  if (best !== null) {
+  const money = (x: ResultCell | undefined) => `${numberText(num(x) ?? Number.NaN, 0)} ${c}`;
+  for (const rule of summary.bestByRule) {
+    const refs = summary.references.filter((r) => r.unaccepted === rule.unaccepted);
+    const ref = (policy: string) => refs.find((r) => r.policy === policy)?.row;
+    facts.push([`references, ${String(rule.unaccepted)}`, `point ${money(ref('point')?.profit)}, price-taking ${money(ref('price-taking')?.profit)}, perfect foresight ${money(ref('perfect-foresight')?.profit)}`]);
+    const best = rule.best;
+    if (best === null) continue;
     const row = best.row;
-    facts.push(['most profitable setting', `${settingText(best.setting)}: ${numberText(num(row.profit) ?? Number.NaN, 0)} ${c}${num(row.capture_ratio) === null ? '' : `, ${numberText(100 * (num(row.capture_ratio) as number), 1)} % of perfect foresight`}`]);
-  }
-  for (const rule of (summary.axes.unaccepted ?? []) as string[]) {
-    const row = input.results.find((r) => r.setting.unaccepted === rule)?.row;
-    if (row === undefined) continue;
-    facts.push([`references, ${rule}`, `perfect foresight ${numberText(num(row.perfect_foresight_profit) ?? Number.NaN, 0)} ${c}, point policy ${numberText(num(row.point_profit) ?? Number.NaN, 0)} ${c}`]);
+    const capture = num(row.capture_ratio) === null ? '' : `, ${numberText(100 * (num(row.capture_ratio) as number), 1)} % of perfect foresight`;
+    const verdict = rule.strongestBaseline === null || rule.beatsStrongestBaseline === null ? '' : rule.beatsStrongestBaseline ? `; beats ${rule.strongestBaseline.policy}` : `; LOSES to ${rule.strongestBaseline.policy}, the strongest simple baseline`;
+    facts.push([`most profitable setting, ${String(rule.unaccepted)}`, `${settingText(best.setting)}: ${money(row.profit)}${capture}${verdict}`]);
   }
   return facts;
+}
+
+/** A p-value cell of sweep.csv (a number, or text below 1e-4) as read. */
+function pValueCell(cell: ResultCell | undefined): string | null {
+  if (typeof cell === 'number') return formatPValue(cell);
+  return typeof cell === 'string' ? cell : null;
 }
 
 function settingText(setting: Readonly<Record<string, ResultCell>>): string {
@@ -114,23 +123,22 @@ function profitChart(input: SweepReportInput, curves: readonly AlphaCurve[], x: 
     return { name: curve.label, values: curve.results.map((r) => num(r?.row.profit)), colour: style.colour, dash: curve.fixed.unaccepted === 'follow-accepted', points: true };
   });
   const guides: Guide[] = [];
-  const best = summary.best;
-  if (best !== null) {
-    const k = x.values.indexOf(best.setting.alpha as number);
-    const profit = num(best.row.profit);
-    if (k >= 0 && profit !== null) {
-      series.push({ name: `most profitable: ${settingText(best.setting)}`, values: x.values.map((_, i) => (i === k ? profit : null)), colour: OKABE_ITO.black, marker: { shape: 'diamond', size: 7 } });
-      guides.push({ value: profit, label: `highest profit ${numberText(profit, 0)}` });
+  for (const rule of summary.bestByRule) {
+    const best = rule.best;
+    const k = best === null ? -1 : x.values.indexOf(best.setting.alpha as number);
+    const profit = best === null ? null : num(best.row.profit);
+    if (best !== null && k >= 0 && profit !== null) {
+      series.push({ name: `most profitable, ${String(rule.unaccepted)}: ${settingText(best.setting)}`, values: x.values.map((_, i) => (i === k ? profit : null)), colour: OKABE_ITO.black, marker: { shape: rule.unaccepted === 'follow-accepted' ? 'square' : 'diamond', size: 7 } });
     }
   }
-  for (const rule of (summary.axes.unaccepted ?? []) as string[]) {
-    const point = num(input.results.find((r) => r.setting.unaccepted === rule)?.row.point_profit);
-    if (point !== null) guides.push({ value: point, label: `point policy, ${rule}: ${numberText(point, 0)}` });
+  for (const reference of summary.references) {
+    const profit = num(reference.row.profit);
+    if (profit !== null) guides.push({ value: profit, label: `${reference.policy}, ${reference.unaccepted}: ${numberText(profit, 0)}` });
   }
   return lineChart({
     id: 'sweep-profit',
     title: 'Profit against alpha, per policy and unaccepted rule',
-    caption: `One line per policy and rule (dashed: follow-accepted); the black diamond marks the most profitable setting; dashed grey: the point policy, which does not depend on alpha. Alpha sets buy limits at q(1 \u2212 alpha) and sell limits at q(alpha); profit over ${summary.daysCovered} days.`,
+    caption: `One line per policy and rule (dashed: follow-accepted); black markers: the most profitable setting within each rule (diamond follow-plan, square follow-accepted), never chosen across rules; dashed grey: the reference policies point, price-taking and perfect foresight under each rule, which do not depend on alpha. Alpha, the tail level, sets buy limits at q(1 \u2212 alpha) and sell limits at q(alpha); profit over ${summary.daysCovered} days.`,
     x,
     y: { label: 'profit', unit: summary.currency },
     series,
@@ -176,17 +184,49 @@ function bestAlphaTable(summary: SweepReportSummary): Markup {
   const c = summary.currency;
   const pct = (x: ResultCell | undefined) => (num(x) === null ? null : 100 * (num(x) as number));
   return htmlTable({
-    caption: 'Most profitable alpha per policy and unaccepted rule (as in summary.json)',
+    caption: 'Most profitable alpha per policy and unaccepted rule (as in summary.json); "edge" when it is the smallest or largest alpha of the grid, where the optimum may lie beyond',
     columns: [
       { header: 'policy' },
       { header: 'unaccepted' },
       { header: 'alpha', unit: '-' },
+      { header: 'on the grid' },
       { header: 'profit', unit: c, decimals: 0 },
       { header: 'capture ratio', unit: '%', decimals: 1 },
       { header: 'edge over point', unit: `${c}/day`, decimals: 2 },
-      { header: 'p-value vs point', unit: '-', decimals: 4 },
+      { header: 'p-value vs point', unit: '-' },
+      { header: 'edge over price-taking', unit: `${c}/day`, decimals: 2 },
+      { header: 'p-value vs price-taking', unit: '-' },
     ],
-    rows: summary.bestAlphaByPolicy.map((b) => [String(b.policy), String(b.unaccepted), typeof b.alpha === 'number' ? numberText(b.alpha, 6) : null, num(b.row?.profit), pct(b.row?.capture_ratio), num(b.row?.edge_vs_point), num(b.row?.p_value_vs_point)]),
+    rows: summary.bestAlphaByPolicy.map((b) => [
+      String(b.policy),
+      String(b.unaccepted),
+      typeof b.alpha === 'number' ? numberText(b.alpha, 6) : null,
+      b.onEdgeOfAlphaGrid ? 'edge' : 'inside',
+      num(b.row?.profit),
+      pct(b.row?.capture_ratio),
+      num(b.row?.edge_vs_point),
+      pValueCell(b.row?.p_value_vs_point),
+      num(b.row?.edge_vs_price_taking),
+      pValueCell(b.row?.p_value_vs_price_taking),
+    ]),
+  });
+}
+
+function referenceTable(summary: SweepReportSummary): Markup {
+  const c = summary.currency;
+  const pct = (x: ResultCell | undefined) => (num(x) === null ? null : 100 * (num(x) as number));
+  return htmlTable({
+    caption: 'Reference policies per unaccepted rule (the rows of sweep.csv after the grid, alpha empty)',
+    columns: [
+      { header: 'policy' },
+      { header: 'unaccepted' },
+      { header: 'profit', unit: c, decimals: 0 },
+      { header: 'capture ratio', unit: '%', decimals: 1 },
+      { header: 'buys accepted', unit: '%', decimals: 1 },
+      { header: 'sells accepted', unit: '%', decimals: 1 },
+      { header: 'imbalance energy', unit: 'MWh', decimals: 1 },
+    ],
+    rows: summary.references.map((r) => [r.policy, r.unaccepted, num(r.row.profit), pct(r.row.capture_ratio), pct(r.row.buy_acceptance_rate), pct(r.row.sell_acceptance_rate), num(r.row.imbalance_mwh)]),
   });
 }
 
@@ -212,7 +252,8 @@ function topSettingsTable(input: SweepReportInput): Markup {
       { header: 'unaccepted' },
       { header: 'profit', unit: c, decimals: 0 },
       { header: 'capture ratio', unit: '%', decimals: 1 },
-      { header: 'p-value vs point', unit: '-', decimals: 4 },
+      { header: 'p-value vs point', unit: '-' },
+      { header: 'p-value vs price-taking', unit: '-' },
       { header: 'buys accepted', unit: '%', decimals: 1 },
       { header: 'sells accepted', unit: '%', decimals: 1 },
       { header: 'imbalance energy', unit: 'MWh', decimals: 1 },
@@ -223,7 +264,8 @@ function topSettingsTable(input: SweepReportInput): Markup {
       String(r.setting.unaccepted),
       num(r.row.profit),
       pct(r.row.capture_ratio),
-      num(r.row.p_value_vs_point),
+      pValueCell(r.row.p_value_vs_point),
+      pValueCell(r.row.p_value_vs_price_taking),
       pct(r.row.buy_acceptance_rate),
       pct(r.row.sell_acceptance_rate),
       num(r.row.imbalance_mwh),

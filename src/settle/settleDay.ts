@@ -27,7 +27,8 @@ export interface SettleDayInput {
  * The settlement of one period: the energies and cash of SettlementTotals (energies at the grid [MWh],
  * cash + received, - paid [currency]) and what happened to the period's order.
  */
-export interface SettledPeriod extends Omit<SettlementTotals, 'buys' | 'buysAccepted' | 'sells' | 'sellsAccepted'> {
+export interface SettledPeriod
+  extends Omit<SettlementTotals, 'buys' | 'buysAccepted' | 'sells' | 'sellsAccepted' | 'imbalanceCostVsClearing' | 'deliberateImbalanceCash' | 'deliberateImbalancePeriods'> {
   /** Whether the period's order was accepted; null when the period has no order. */
   readonly accepted: boolean | null;
   /** State of charge at the end of the period [MWh]. */
@@ -56,9 +57,13 @@ export const SETTLE_TOLERANCE = 1e-6;
  * limits, the state of charge, wear). A plan made from the same starting state never meets the store's
  * limits, so under `follow-plan` they only absorb rounding; under `follow-accepted` they do real work,
  * because the store then drifts from the plan. A period may carry a curve (a stack of limit orders,
- * periodBid.ts), settled by what cleared: allowed under `follow-accepted` only.
+ * periodBid.ts), settled by what cleared: allowed under `follow-accepted` only. Energy an accepted
+ * order (or the net of a curve's accepted steps) asks for that the store cannot take or give is settled
+ * at the imbalance price: that is the deliberate imbalance, counted on its own.
  *
  * Signs of cash: + received, - paid. A negative clearing price makes an accepted buy earn money.
+ * The cost of imbalance against the clearing price is (imbalance buy - clearing) x bought at the
+ * imbalance price - (imbalance sell - clearing) x sold at it, + cost (SettlementTotals).
  *
  * @throws RangeError when the series differ in length, a quantity is negative, the starting state is
  *   outside the window, or a curve is to be settled under follow-plan.
@@ -70,14 +75,18 @@ export function settleDay(input: SettleDayInput): SettledDay {
   const tolMwh = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
   const periods: SettledPeriod[] = new Array<SettledPeriod>(count);
   // Sums in period order, in plain variables (a settled year is ~175,000 periods per policy).
-  let profit = 0, auction = 0, imbalanceSum = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtImbalance = 0, soldImbalance = 0;
+  let profit = 0, auction = 0, imbalanceSum = 0, costVsClearing = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtImbalance = 0, soldImbalance = 0;
+  let deliberateMwh = 0, deliberateCash = 0, deliberatePeriods = 0;
   let charged = 0, discharged = 0, buys = 0, buysAccepted = 0, sells = 0, sellsAccepted = 0;
   let soc = input.socStartMwh;
   const context: PeriodContext = { battery, periodHours: input.periodHours, unaccepted: input.unaccepted, toleranceMwh: tolMwh };
   const outcome = new PeriodOutcome();
   for (let t = 0; t < count; t++) {
     const bid = input.orders[t] ?? null;
-    const o = settlePeriod(bid, input.clearingPricePerMwh[t] as number, input.imbalance.buyPerMwh[t] as number, input.imbalance.sellPerMwh[t] as number, soc, context, outcome);
+    const clearing = input.clearingPricePerMwh[t] as number;
+    const imbalanceBuy = input.imbalance.buyPerMwh[t] as number;
+    const imbalanceSell = input.imbalance.sellPerMwh[t] as number;
+    const o = settlePeriod(bid, clearing, imbalanceBuy, imbalanceSell, soc, context, outcome);
     soc = o.socMwh;
     const period = new SettledPeriodRecord(
       o.accepted,
@@ -92,7 +101,16 @@ export function settleDay(input: SettleDayInput): SettledDay {
       o.degradationCost,
       o.profit,
       soc,
+      o.deliberateImbalanceMwh,
     );
+    if (o.boughtImbalanceMwh !== 0 || o.soldImbalanceMwh !== 0) {
+      costVsClearing += (imbalanceBuy - clearing) * o.boughtImbalanceMwh - (imbalanceSell - clearing) * o.soldImbalanceMwh;
+      if (o.deliberateImbalanceMwh > 0) {
+        deliberateMwh += o.deliberateImbalanceMwh;
+        deliberateCash += o.deliberateImbalanceCash;
+        deliberatePeriods++;
+      }
+    }
     periods[t] = period;
     profit += period.profit;
     auction += o.auctionCash;
@@ -107,7 +125,7 @@ export function settleDay(input: SettleDayInput): SettledDay {
     if (bid !== null) {
       // Counts per order: a curve counts each of its steps.
       for (const order of bidOrders(bid)) {
-        const stepAccepted = isAccepted(order.side, order.limitPrice, input.clearingPricePerMwh[t] as number);
+        const stepAccepted = isAccepted(order.side, order.limitPrice, clearing);
         if (order.side === 'buy') {
           buys++;
           if (stepAccepted) buysAccepted++;
@@ -122,6 +140,10 @@ export function settleDay(input: SettleDayInput): SettledDay {
     profit,
     auctionCash: auction,
     imbalanceCash: imbalanceSum,
+    imbalanceCostVsClearing: costVsClearing,
+    deliberateImbalanceMwh: deliberateMwh,
+    deliberateImbalanceCash: deliberateCash,
+    deliberateImbalancePeriods: deliberatePeriods,
     degradationCost: degradation,
     boughtAuctionMwh: boughtAuction,
     soldAuctionMwh: soldAuction,
@@ -159,7 +181,8 @@ function checkInput(input: SettleDayInput, count: number): void {
  * A SettledPeriod made by a constructor rather than an object literal: the engine may decide, from a
  * few early days whose ledger was still being written, to allocate every object of a literal straight
  * into its old generation, where a long backtest's ledger (1.75 million periods in ten years) then
- * piles up as garbage; objects made by `new` are not placed that way. Same fields, same order.
+ * piles up as garbage; objects made by `new` are not placed that way. Same fields, same order (the
+ * deliberate imbalance last).
  */
 class SettledPeriodRecord implements SettledPeriod {
   // Parameter properties become fields in this order: the order of the fields as they always were.
@@ -176,5 +199,6 @@ class SettledPeriodRecord implements SettledPeriod {
     readonly degradationCost: number,
     readonly profit: number,
     readonly socMwh: number,
+    readonly deliberateImbalanceMwh: number,
   ) {}
 }

@@ -22,6 +22,10 @@ export class PeriodOutcome {
   degradationCost = 0;
   profit = 0;
   socMwh = 0;
+  /** Energy accepted orders asked for that the store could not take or give, settled at the imbalance price [MWh]. */
+  deliberateImbalanceMwh = 0;
+  /** Its cash at the imbalance prices [currency]. */
+  deliberateImbalanceCash = 0;
 }
 
 /** What settlePeriod needs besides the bid and the prices; the same for every period of a day. */
@@ -45,7 +49,8 @@ export interface PeriodContext {
  * 4. the store's limits: at most min(chargeMw dt, (socMax - s) / eta_c) can be charged and at most
  *    min(dischargeMw dt, (s - socMin) eta_d) discharged; energy a buy cannot store is sold back at the
  *    imbalance sell price, the part of a sell the store cannot cover is bought back at the imbalance
- *    buy price (within toleranceMwh the asked flow is taken as it is: floating-point dust);
+ *    buy price (within toleranceMwh the asked flow is taken as it is: floating-point dust); that energy
+ *    is the deliberate imbalance, counted on its own;
  * 5. s <- s + eta_c x charged - discharged / eta_d, clamped into [socMin, socMax];
  * 6. degradation = degradationCostPerMwh x discharged.
  * profit = auction cash + imbalance cash - degradation.
@@ -95,8 +100,11 @@ export function settlePeriod(bid: PeriodBid, clearing: number, imbalanceBuy: num
   const deliverable = Math.max(0, Math.min(battery.dischargeMw * dt, (soc - battery.socMinMwh) * battery.dischargeEfficiency));
   const chargedMwh = tradeCharge <= storable + tol ? tradeCharge : storable;
   const dischargedMwh = tradeDischarge <= deliverable + tol ? tradeDischarge : deliverable;
-  const soldImbalanceMwh = tradeSoldImbalance + (tradeCharge - chargedMwh);
-  const boughtImbalanceMwh = tradeBoughtImbalance + (tradeDischarge - dischargedMwh);
+  // Energy the store cannot absorb is sold back, energy it cannot deliver is bought back: the deliberate imbalance.
+  const soldBackMwh = tradeCharge - chargedMwh;
+  const boughtBackMwh = tradeDischarge - dischargedMwh;
+  const soldImbalanceMwh = tradeSoldImbalance + soldBackMwh;
+  const boughtImbalanceMwh = tradeBoughtImbalance + boughtBackMwh;
   let next = soc + battery.chargeEfficiency * chargedMwh - dischargedMwh / battery.dischargeEfficiency;
   next = Math.min(battery.socMaxMwh, Math.max(battery.socMinMwh, next));
   const auctionCash = clearing * (tradeSoldAuction - tradeBoughtAuction);
@@ -114,5 +122,7 @@ export function settlePeriod(bid: PeriodBid, clearing: number, imbalanceBuy: num
   out.degradationCost = degradationCost;
   out.profit = auctionCash + imbalanceCash - degradationCost;
   out.socMwh = next;
+  out.deliberateImbalanceMwh = soldBackMwh + boughtBackMwh;
+  out.deliberateImbalanceCash = imbalanceSell * soldBackMwh - imbalanceBuy * boughtBackMwh;
   return out;
 }

@@ -37,7 +37,7 @@ export interface SizeBacktestTotals {
   readonly tradingCash: number;
   /** Energy discharged at the grid [MWh]. */
   readonly dischargedMwh: number;
-  /** Equivalent full cycles of the usable window [-]. */
+  /** Equivalent full cycles: MWh taken out of the store / usable window (equivalentFullCycles.ts) [-]. */
   readonly equivalentFullCycles: number;
 }
 
@@ -58,6 +58,8 @@ export interface SizeEconomics {
   readonly annualFixedOm: number;
   /** Cell replacements over the life [-]. */
   readonly replacements: number;
+  /** Residual value of the last replacement set at the end of life, in CF_L (projectCashFlows) [currency]. */
+  readonly residualValue: number;
   /** CF_0..CF_L [currency] (projectCashFlows). */
   readonly cashFlows: readonly number[];
   /** NPV at the discount rate [currency]. */
@@ -77,7 +79,9 @@ export interface SizeEconomics {
  * 3. yearly flows, end-of-year convention (projectCashFlows.ts): CF_0 = -capex,
  *    CF_y = profitPerYear - fixedOmPerMwYear x P - replacements in year y, where the cells (the energy
  *    capital cost) are bought again each time their life in cycles, at cyclesPerYear, runs out before
- *    the end of the project life; no residual value, no tax, no inflation, profit the same every year;
+ *    the end of the project life, and the last replacement set's residual value (straight-line over its
+ *    own life) is credited in the last year; no other residual value, no tax, no inflation, profit the
+ *    same every year;
  * 4. NPV(r) = sum_y CF_y / (1 + r)^y (npv.ts);
  * 5. IRR: the root of NPV nearest 0 (irr.ts) within SIZE_IRR_SCAN, none when the flows never change
  *    sign or NPV has no root there;
@@ -117,6 +121,7 @@ export function sizeEconomics(size: { readonly energyMwh: number; readonly power
     capex: project.capex,
     annualFixedOm: project.annualFixedOm,
     replacements: project.replacementYears.length,
+    residualValue: project.residualValue,
     cashFlows: project.cashFlows,
     npv: npv(costs.discountRate, project.cashFlows),
     irr: rate.status === 'found' ? rate.rate : null,

@@ -61,16 +61,18 @@ export type SizeGridSetting = {
  * - `revenue_per_mwh_year`, `revenue_per_mw_year`: trading cash (auction + imbalance, before the wear
  *   cost) per year, per MWh and per MW;
  * - `spread_per_mwh_discharged`: trading cash / MWh discharged, the spread captured per MWh sold;
- * - `cycles_per_year` (equivalent full cycles of the usable window), `throughput_mwh_per_year`;
+ * - `cycles_per_year` (equivalent full cycles: MWh taken out of the store / usable window, per year),
+ *   `throughput_mwh_per_year` (MWh discharged at the grid per year);
  * - `capex`, `annual_fixed_om`, `replacements` (of the cells over the life);
  * - `simple_payback_years`, `discounted_payback_years` (`never` when not within the life);
- * - `buy_acceptance_rate`, `sell_acceptance_rate`, `days_without_plan`.
+ * - `buy_acceptance_rate`, `sell_acceptance_rate`, `days_without_plan`;
+ * - `residual_value`: the last replacement set's value at the end of life, credited in the last year.
  */
 export const SIZE_COLUMNS = Object.freeze([
   'alpha', 'profit', 'profit_per_year', 'npv', 'irr',
   'days', 'capture_ratio', 'profit_per_mwh', 'profit_per_mw', 'revenue_per_mwh_year', 'revenue_per_mw_year', 'spread_per_mwh_discharged',
   'cycles_per_year', 'throughput_mwh_per_year', 'capex', 'annual_fixed_om', 'replacements', 'simple_payback_years', 'discounted_payback_years',
-  'buy_acceptance_rate', 'sell_acceptance_rate', 'days_without_plan',
+  'buy_acceptance_rate', 'sell_acceptance_rate', 'days_without_plan', 'residual_value',
 ] as const);
 
 /** One row of size.csv after the axis columns, in SIZE_COLUMNS order. */
@@ -104,7 +106,7 @@ export function sizeSettingRow(study: SizeStudy, setting: SizeSetting, memo: Run
   }
   const m = policyMetrics(run.runs, battery, perfect.profit);
   const tradingCash = m.auctionCash + m.imbalanceCash;
-  const e = sizeEconomics(setting, { days: m.days, profit: m.profit, tradingCash, dischargedMwh: m.dischargedMwh, equivalentFullCycles: m.equivalentFullCycles }, study.costs);
+  const e = sizeEconomics(setting, { days: m.days, profit: m.profit, tradingCash, dischargedMwh: m.dischargedMwh, equivalentFullCycles: m.cyclesTotal }, study.costs);
   const row: Record<(typeof SIZE_COLUMNS)[number], number | string | null> = {
     alpha,
     profit: m.profit,
@@ -128,6 +130,7 @@ export function sizeSettingRow(study: SizeStudy, setting: SizeSetting, memo: Run
     buy_acceptance_rate: m.buyAcceptanceRate,
     sell_acceptance_rate: m.sellAcceptanceRate,
     days_without_plan: m.daysWithoutPlan,
+    residual_value: e.residualValue,
   };
   return Object.fromEntries(SIZE_COLUMNS.map((column) => [column, row[column]])) as SizeRow;
 }

@@ -12,7 +12,7 @@ import { hourlyPeriods } from './randomMarket.js';
 export const market: MarketSpec = Object.freeze({ timeZone: 'UTC', periodMinutes: 60, priceFloor: -100, priceCap: 1000, currency: 'TST', gateClosure: '12:00' });
 export const battery: BatteryModel = Object.freeze({
   energyMwh: 8, chargeMw: 4, dischargeMw: 4, chargeEfficiency: 1, dischargeEfficiency: 1, socMinMwh: 0, socMaxMwh: 4,
-  socInitialMwh: 0, socFinalMinMwh: undefined, maxDischargeMwhPerDay: undefined, degradationCostPerMwh: 0,
+  socInitialMwh: 0, socFinalMinMwh: undefined, maxFromStoreMwhPerDay: undefined, degradationCostPerMwh: 0,
 });
 
 /** q0.1 = median - 2, q0.9 = median + 2. */

@@ -50,6 +50,25 @@ describe('edgeTest (Diebold-Mariano with the HLN correction, h = 1)', () => {
     expect(ab.pValueOneSided + ba.pValueOneSided).toBeCloseTo(1, 12);
   });
 
+  it('the p-value that the reference earns more is P(T <= HLN), the swapped test\'s p that it earns more', () => {
+    // d = 1, 2, 3, -2 (tested minus reference): HLN = sqrt(6/7) with 3 df, P(T_3 >= HLN) = 0.21141313088605126
+    // (SciPy 1.17.1 t.sf, and Abramowitz and Stegun 26.7.3 by hand in test/stats/dieboldMariano.test.ts),
+    // so P(T_3 <= HLN) = 1 - 0.21141313088605126 = 0.78858686911394874.
+    const edge = edgeTest({ name: 'q', dailyProfit: [1, 2, 3, -2] }, { name: 'p', dailyProfit: [0, 0, 0, 0] });
+    if (edge.status !== 'ok') throw new Error('expected ok');
+    expect(edge.pValueTestedEarnsMore).toBeCloseTo(0.21141313088605126, 14);
+    expect(edge.pValueReferenceEarnsMore).toBeCloseTo(0.78858686911394874, 14);
+    // Far apart: the reference's p is tiny but never rounded to 0, and equals the swapped test's.
+    const low = { name: 'low', dailyProfit: [1, 2, 1.5, 2.5, 1, 2, 1.2, 1.8, 1.4, 1.6] };
+    const high = { name: 'high', dailyProfit: low.dailyProfit.map((x, i) => x + 1000 + (i % 3)) };
+    const lowHigh = edgeTest(low, high);
+    const highLow = edgeTest(high, low);
+    if (lowHigh.status !== 'ok' || highLow.status !== 'ok') throw new Error('expected ok');
+    expect(lowHigh.pValueReferenceEarnsMore).toBeGreaterThan(0);
+    expect(lowHigh.pValueReferenceEarnsMore).toBeLessThan(1e-12);
+    expect(lowHigh.pValueReferenceEarnsMore).toBe(highLow.pValueTestedEarnsMore);
+  });
+
   it('says why when the test cannot be made', () => {
     expect(edgeTest({ name: 'q', dailyProfit: [3] }, { name: 'p', dailyProfit: [1] })).toMatchObject({ status: 'too-few-days', n: 1, meanDifference: 2 });
     expect(edgeTest({ name: 'q', dailyProfit: [3, 4] }, { name: 'p', dailyProfit: [1, 2] })).toMatchObject({ status: 'zero-variance' });

@@ -40,7 +40,7 @@ export const batteryModelArb: fc.Arbitrary<BatteryModel> = fc
     return Object.freeze({
       energyMwh: b.energyMwh, chargeMw: b.chargeMw, dischargeMw: b.dischargeMw, chargeEfficiency: b.etaC, dischargeEfficiency: b.etaD,
       socMinMwh, socMaxMwh, socInitialMwh: socMinMwh + startFrac * (socMaxMwh - socMinMwh), socFinalMinMwh: undefined,
-      maxDischargeMwhPerDay: b.cycles === undefined ? undefined : b.cycles * (socMaxMwh - socMinMwh), degradationCostPerMwh: b.deg,
+      maxFromStoreMwhPerDay: b.cycles === undefined ? undefined : b.cycles * (socMaxMwh - socMinMwh), degradationCostPerMwh: b.deg,
     });
   });
 

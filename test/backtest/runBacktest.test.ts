@@ -46,14 +46,20 @@ describe('runBacktest on a hand-worked week', () => {
     expect(m?.captureRatio).toBeCloseTo(856 / 880, 9);
     expect(m?.buyAcceptanceRate).toBe(0.75);
     expect(m?.sellAcceptanceRate).toBe(0.75);
-    // Discharged 4 + 4 + 8 = 16 MWh over a 4 MWh window: 4 cycles. 3 days = 3 / 365.25 years.
-    expect(m?.equivalentFullCycles).toBeCloseTo(4, 9);
+    // Discharged 4 + 4 + 8 = 16 MWh (lossless: 16 MWh out of the store) over a 4 MWh window: 4 cycles,
+    // 4 / 3 per day. 3 days = 3 / 365.25 years.
+    expect(m?.cyclesTotal).toBeCloseTo(4, 9);
+    expect(m?.cyclesPerDay).toBeCloseTo(4 / 3, 9);
     expect(m?.profitPerMwYear).toBeCloseTo((856 * 365.25) / 3 / 4, 6);
     expect(m?.profitPerMwhYear).toBeCloseTo((856 * 365.25) / 3 / 8, 6);
     // Imbalance: C sold 4 MWh at 85 (+340), D bought 4 MWh at 26 (-104).
     expect(m?.soldImbalanceMwh).toBeCloseTo(4, 9);
     expect(m?.boughtImbalanceMwh).toBeCloseTo(4, 9);
     expect(m?.imbalanceCash).toBeCloseTo(236, 6);
+    // Against the clearing price: C sold at 85 where it cleared at 90, -(85 - 90) x 4 = +20; D bought at 26
+    // where it cleared at 25, (26 - 25) x 4 = +4: a cost of 24. No deliberate imbalance under follow-plan.
+    expect(m?.imbalanceCostVsClearing).toBeCloseTo(24, 6);
+    expect(m?.deliberateImbalanceMwh).toBe(0);
   });
 
   it('the month table sums to the totals', () => {

@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { equivalentFullCycles } from '../../src/battery/equivalentFullCycles.js';
 import { batteryModel } from '../../src/battery/batterySpec.js';
 import { InputError } from '../../src/errors/inputError.js';
 import { parseJsonSpec } from '../../src/io/readSpecs.js';
@@ -30,7 +31,16 @@ describe('battery spec', () => {
 
   it('derives the cycle cap from the usable window: 2 cycles x (0.95 - 0.05) x 10 MWh = 18 MWh', () => {
     const spec = battery('{"energyMwh": 10, "chargeMw": 5, "dischargeMw": 5, "roundTripEfficiency": 0.9, "socMinFraction": 0.05, "socMaxFraction": 0.95, "maxCyclesPerDay": 2}');
-    expect(batteryModel(spec).maxDischargeMwhPerDay).toBeCloseTo(18, 12);
+    expect(batteryModel(spec).maxFromStoreMwhPerDay).toBeCloseTo(18, 12);
+  });
+
+  it('one cycle definition: a full swing of the window is one equivalent full cycle, the unit of the cap', () => {
+    // Round trip 0.9, so eta_d = sqrt(0.9) = 0.9486833; usable 9 MWh. Two full swings take 18 MWh out of
+    // the store and deliver 18 x 0.9486833 = 17.076299 MWh at the grid: 2 cycles, exactly the cap of 2 per
+    // day (18 MWh out of the store). Counting the grid-side energy instead gave 17.076299 / 9 = 1.897.
+    const model = batteryModel(battery('{"energyMwh": 10, "chargeMw": 5, "dischargeMw": 5, "roundTripEfficiency": 0.9, "socMinFraction": 0.05, "socMaxFraction": 0.95, "maxCyclesPerDay": 2}'));
+    expect(equivalentFullCycles(17.076299, model)).toBeCloseTo(2, 6);
+    expect(equivalentFullCycles(2 * 9 * model.dischargeEfficiency, model) * 9).toBeCloseTo(model.maxFromStoreMwhPerDay as number, 9);
   });
 
   it('lists every physical problem with its line and field, and says what to do', () => {
@@ -89,5 +99,24 @@ describe('market spec', () => {
     expect(problemsOf(() => market(`${head} "fallback": {"kind": "fixed", "penaltyPerMwh": 15}}`))).toEqual([
       'market.json:2: fallback.kind: fallback.kind must be "clearing-plus-penalty"; use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
     ]);
+  });
+
+  it('reads the optional order steps and names each bad one with its line and what to do', () => {
+    const head = '{"timeZone": "Europe/Berlin", "periodMinutes": 15, "priceFloor": -500, "priceCap": 4000, "currency": "HLV", "gateClosure": "12:00",\n';
+    const spec = market(`${head} "quantityStepMw": 0.1, "minimumQuantityMw": 0.1, "priceTickPerMwh": 0.01}`);
+    expect([spec.quantityStepMw, spec.minimumQuantityMw, spec.priceTickPerMwh]).toEqual([0.1, 0.1, 0.01]);
+    expect(problemsOf(() => market(`${head} "quantityStepMw": 0,\n "minimumQuantityMw": 5000,\n "priceTickPerMwh": -1}`))).toEqual([
+      "market.json:2: quantityStepMw: quantityStepMw must be > 0; give the exchange's quantity step in MW, e.g. 0.1, or leave the field out",
+      "market.json:3: minimumQuantityMw: minimumQuantityMw must be at most 1000 MW; check the unit; give the exchange's smallest order in MW, e.g. 0.1, or leave the field out",
+      "market.json:4: priceTickPerMwh: priceTickPerMwh must be > 0; give the exchange's price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out",
+    ]);
+    expect(problemsOf(() => market(`${head} "quantityStepMw": "0.1"}`))[0]).toMatch(/^market.json:2: quantityStepMw: quantityStepMw must be a number;/);
+    // Rounding a limit to the tick keeps it inside [floor, cap] only when both lie on the tick: -500 is
+    // 2000 ticks of 0.25, 4000.1 is not a whole number of them.
+    const offTick = '{"timeZone": "Europe/Berlin", "periodMinutes": 15, "priceFloor": -500, "priceCap": 4000.1, "currency": "HLV", "gateClosure": "12:00",\n';
+    expect(problemsOf(() => market(`${offTick} "priceTickPerMwh": 0.25}`))).toEqual([
+      'market.json:2: priceTickPerMwh: priceCap (4000.1) is not a whole number of ticks of 0.25; give the exchange\'s price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out',
+    ]);
+    expect(problemsOf(() => market(`${head} "priceTickPerMwh": 5000}`))[0]).toMatch(/priceTickPerMwh \(5000\) is wider than the whole price range \[-500, 4000\]/);
   });
 });

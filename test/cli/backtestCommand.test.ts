@@ -46,7 +46,10 @@ beforeAll(() => {
 
 describe('quantbid backtest on the demo scenario, February 2026', () => {
   it('exits 0, writes ledger.csv, days.csv and summary.json, and prints a short summary', () => {
-    expect(first.stderr).toBe('');
+    // 28 days of February are not a year: the yearly figures say so (365.25 / 28 = 13.04).
+    expect(first.stderr).toBe(
+      'warning: profitPerMwYear and profitPerMwhYear are extrapolated to a year: scaled x 365.25 / 28 = 13.04 from 28 covered days in 1 month (2026-02); January, March, April, May, June, July, August, September, October, November and December are missing, so their prices never entered these figures (seasonal bias)\n',
+    );
     expect(first.code).toBe(0);
     expect(readdirSync(out).sort()).toEqual([...OUTPUTS].sort());
     expect(first.stdout).toMatch(/^backtest 2026-02-01 to 2026-02-28: 28 days covered, 0 skipped/);
@@ -65,6 +68,26 @@ describe('quantbid backtest on the demo scenario, February 2026', () => {
     expect(summary.skippedDays).toEqual([]);
     expect(summary.imbalanceSource.kind).toBe('history');
     expect(summary.months.map((m: { month: string }) => m.month)).toEqual(['2026-02']);
+  });
+
+  it('tests quantile against every other policy and headlines the stronger of point and price-taking, from days.csv', () => {
+    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+    const rows = csvRows(readFileSync(join(out, 'days.csv'), 'utf8')).slice(1);
+    const daily = (policy: string) => rows.filter((r) => r[1] === policy).map((r) => Number(r[2]));
+    const total = (policy: string) => daily(policy).reduce((a, b) => a + b, 0);
+    expect(summary.tested).toBe('quantile');
+    expect(summary.edges.map((e: { reference: string }) => e.reference)).toEqual(['median', 'point', 'price-taking', 'perfect-foresight']);
+    for (const edge of summary.edges as { reference: string; meanDifference: number }[]) {
+      // The mean of the daily differences, recomputed from days.csv (6 decimals per cell).
+      const d = daily('quantile').map((q, i) => q - (daily(edge.reference)[i] as number));
+      expect(edge.meanDifference).toBeCloseTo(d.reduce((a, b) => a + b, 0) / d.length, 4);
+    }
+    const stronger = total('price-taking') > total('point') ? 'price-taking' : 'point';
+    expect(summary.baseline.policy).toBe(stronger);
+    expect(summary.baseline.testedLoses).toBe(total('quantile') < total(stronger));
+    const word = summary.baseline.testedLoses ? 'LOSES' : 'beats it';
+    expect(first.stdout).toContain(`against the strongest simple baseline, ${stronger} (the more profitable of point and price-taking): quantile ${word}`);
+    expect(first.stdout).toMatch(/quantile earns [\d.]+ HLV per day (more|LESS) than perfect-foresight \(Diebold-Mariano\/HLN/);
   });
 
   it('days.csv keeps the contract columns, one row per day and policy, and sums to the summary', () => {
@@ -154,5 +177,32 @@ describe('quantbid backtest rejects bad input with exit code 2 and writes nothin
     const help = quantbid(['backtest', '--help']);
     expect(help.code).toBe(0);
     expect(help.stdout).toMatch(/Examples:\n {2}quantbid backtest --scenario/);
+  });
+});
+
+describe('quantbid backtest with the exchange\'s order steps in market.json', () => {
+  it('rounds the orders and reports the loss as the difference against the same backtest unrounded', () => {
+    const market = JSON.parse(readFileSync(join(ROOT, 'scenarios/halvorn/market.json'), 'utf8'));
+    const stepped = join(work, 'market-steps.json');
+    writeFileSync(stepped, JSON.stringify({ ...market, quantityStepMw: 0.1, minimumQuantityMw: 0.1, priceTickPerMwh: 0.01 }));
+    const span = ['--scenario', SCENARIO, '--from', '2026-02-01', '--to', '2026-02-03', '--policies', 'quantile,perfect-foresight'];
+    const rounded = quantbid(['backtest', ...span, '--market', stepped, '--out', join(work, 'steps')]);
+    const plain = quantbid(['backtest', ...span, '--out', join(work, 'no-steps')]);
+    expect([rounded.code, plain.code]).toEqual([0, 0]);
+    const summary = (dir: string) => JSON.parse(readFileSync(join(work, dir, 'summary.json'), 'utf8'));
+    const [withSteps, without] = [summary('steps'), summary('no-steps')];
+    expect('orderSteps' in without).toBe(false);
+    for (const policy of ['quantile', 'perfect-foresight']) {
+      expect(withSteps.orderSteps.profitWithoutRounding[policy]).toBe(without.policies[policy].profit);
+      expect(withSteps.orderSteps.roundingLoss[policy]).toBeCloseTo(without.policies[policy].profit - withSteps.policies[policy].profit, 5);
+    }
+    expect(rounded.stdout).toMatch(/profit lost to rounding the orders to the exchange's steps \(against the same backtest unrounded\): quantile -?\d+, perfect-foresight -?\d+/);
+    // The rounded orders in ledger.csv are whole numbers of 0.1 MW with limits on the 0.01 tick.
+    const ledger = csvRows(readFileSync(join(work, 'steps', 'ledger.csv'), 'utf8'));
+    const [q, l] = [ledger[0]?.indexOf('quantity_mw') as number, ledger[0]?.indexOf('limit_price') as number];
+    for (const row of ledger.slice(1).filter((r) => r[q] !== '')) {
+      expect(Math.abs(Number(row[q]) * 10 - Math.round(Number(row[q]) * 10))).toBeLessThan(1e-6);
+      expect(Math.abs(Number(row[l]) * 100 - Math.round(Number(row[l]) * 100))).toBeLessThan(1e-6);
+    }
   });
 });

@@ -78,10 +78,10 @@ describe('quantbid plan', () => {
   it.each([
     [['--alpha', '0.7'], /alpha 0.7 must be a number in \(0, 0.5\)/],
     [['--alpha', '0.02'], /--alpha: alpha 0.02 needs the levels 0.02 and 0.98, outside the forecast's levels \[0.05, 0.95\]/],
-    [['--policy', 'greedy'], /"greedy" must be one of quantile, median, point/],
+    [['--policy', 'greedy'], /"greedy" must be one of quantile, median, point, price-taking/],
     [['--day', '2027-13-01'], /is not a day; write it as YYYY-MM-DD/],
     [['--day', '2027-03-29'], /quantiles.csv: period_start: no forecast for 2027-03-29 \(the file covers 2027-03-28 to 2027-03-28\)/],
-    [['--soc-start', '9.5'], /--soc-start: 9.5 MWh is outside the battery's window \[1, 9\] MWh/],
+    [['--soc-start', '12'], /--soc-start: 12 MWh is more than the battery's energy 10 MWh/],
   ])('bad usage %j exits 2, names the problem and writes nothing', async (extra, message) => {
     const out = join(dir, `bad-${extra.join('')}`);
     const result = await run(['plan', ...inputs(), '--day', day, ...extra, '--out', out]);
@@ -115,5 +115,77 @@ describe('quantbid plan', () => {
     expect(help.stdout).toMatch(/Examples:\n {2}quantbid plan/);
     const version = await run(['--version']);
     expect(version.stdout.trim()).toMatch(/^\d+\.\d+\.\d+$/);
+  });
+
+  it('--soc-start outside the window: a warning, and the plan sells back into it in the first period, bid at the floor', async () => {
+    // Window [1, 9] MWh; from 9.8 MWh one quarter-hour at 5 MW takes 1.25 / sqrt(0.88) = 1.33 MWh out
+    // of the store: the first period crosses into the window, so no period is forced beyond it.
+    const out = join(dir, 'plan-outside');
+    const result = await run(['plan', ...inputs(), '--day', day, '--soc-start', '9.8', '--out', out]);
+    expect(result.code).toBe(0);
+    expect(result.stderr).toMatch(/warning: the starting state of charge 9.8 MWh is above the battery's window \[1, 9\] MWh; the plan discharges back to 9 MWh as fast as the power allows, within the first 1 period/);
+    const plan = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8')) as { recovery: { direction: string; forcedPeriods: number; periodsAtCapOrFloor: number }; warnings: { kind: string }[] };
+    expect(plan.recovery).toEqual({ direction: 'discharge', forcedPeriods: 0, forcedMwh: 0, periodsAtCapOrFloor: 1 });
+    expect(plan.warnings.map((w) => w.kind)).toContain('start-outside-window');
+    const schedule = readFileSync(join(out, 'schedule.csv'), 'utf8').trimEnd().split('\n');
+    const [, , discharge, soc] = (schedule[1] as string).split(',');
+    expect(Number(discharge)).toBeGreaterThan(0);
+    expect(Number(soc)).toBeLessThanOrEqual(9 + 1e-6);
+    const firstOrder = readFileSync(join(out, 'orders.csv'), 'utf8').trimEnd().split('\n')[1] as string;
+    expect(firstOrder).toMatch(/,sell,[\d.]+,-500,$/);
+  });
+
+  it('notes crossing quantiles of the planned day only, counted in that day', async () => {
+    // Two days in the file; the day after the planned one has two crossing periods, the planned day none.
+    const next = '2027-03-29';
+    const rows = (d: string, crossing: number) =>
+      deliveryPeriods(d, 'Europe/Berlin', 15).map((p, t) => [p.start, ...(t < crossing ? [50, 40, 60, 70, 80] : [30, 40, 60, 70, 80])].join(','));
+    const file = join(dir, 'two-days.csv');
+    writeFileSync(file, `${['period_start,q0.05,q0.1,q0.5,q0.9,q0.95', ...rows(day, 0), ...rows(next, 2)].join('\n')}\n`);
+    const args = ['plan', '--market', join(dir, 'market.json'), '--battery', join(dir, 'battery.json'), '--forecast', file];
+    const clean = await run([...args, '--day', day, '--json']);
+    expect(clean.stderr).not.toMatch(/crossing/);
+    expect((JSON.parse(clean.stdout) as { forecast: { repairedPeriodsInDay: number; repairedPeriodsInFile: number } }).forecast).toMatchObject({ repairedPeriodsInDay: 0, repairedPeriodsInFile: 2 });
+    const crossed = await run([...args, '--day', next, '--json']);
+    expect(crossed.stderr).toMatch(/note: .*two-days.csv: 2 of the 96 periods of 2027-03-29 had crossing quantiles, sorted into order/);
+  });
+});
+
+describe('quantbid plan with the exchange\'s order steps in market.json', () => {
+  it('orders on the quantity step and the tick, the schedule to match, the loss from rounding in plan.json and on the console', async () => {
+    const stepped = join(dir, 'market-steps.json');
+    writeFileSync(stepped, JSON.stringify({ ...JSON.parse(readFileSync(join(dir, 'market.json'), 'utf8')), quantityStepMw: 0.5, minimumQuantityMw: 1, priceTickPerMwh: 1 }));
+    const plainOut = join(dir, 'plan-unrounded');
+    const out = join(dir, 'plan-rounded');
+    expect((await run(['plan', ...inputs(), '--day', day, '--out', plainOut])).code).toBe(0);
+    const result = await run(['plan', ...inputs(), '--market', stepped, '--day', day, '--out', out]);
+    expect(result.code).toBe(0);
+    // Without the steps plan.json has no rounding (and is as before); with them it says what the rounding cost.
+    const plain = JSON.parse(readFileSync(join(plainOut, 'plan.json'), 'utf8'));
+    const plan = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8'));
+    expect('rounding' in plain).toBe(false);
+    expect(plan.rounding).toMatchObject({ quantityStepMw: 0.5, minimumQuantityMw: 1, priceTickPerMwh: 1 });
+    expect(plan.rounding.valueBeforeRounding).toBeCloseTo(plain.objective, 6);
+    expect(plan.rounding.lossFromRounding).toBeCloseTo(plan.rounding.valueBeforeRounding - plan.rounding.valueAfterRounding, 6);
+    expect(plan.objective).toBeCloseTo(plan.rounding.valueAfterRounding, 6);
+    expect(result.stdout).toMatch(/rounded to the exchange \(quantity step 0\.5 MW, minimum 1 MW, price tick 1\): loss from rounding -?[\d.]+ HLV/);
+    // Each order: a whole number of 0.5 MW steps, at least 1 MW, its limit a whole number; buys limited at
+    // or below q(0.9), sells at or above q(0.1), read from the unrounded plan's orders of the same period.
+    const rows = (folder: string) => readFileSync(join(folder, 'orders.csv'), 'utf8').trimEnd().split('\n').slice(1).map((l) => l.split(','));
+    const before = new Map(rows(plainOut).map((r) => [r[0], r]));
+    for (const [start, , side, quantity, limit] of rows(out)) {
+      expect(Number(quantity) * 2).toBe(Math.round(Number(quantity) * 2));
+      expect(Number(quantity)).toBeGreaterThanOrEqual(1);
+      expect(Number(limit)).toBe(Math.round(Number(limit)));
+      const planned = before.get(start as string);
+      if (planned?.[2] === side) expect(side === 'buy' ? Number(limit) <= Number(planned?.[4]) : Number(limit) >= Number(planned?.[4])).toBe(true);
+    }
+    // schedule.csv is the rounded schedule: its flows are the orders.
+    const schedule = readFileSync(join(out, 'schedule.csv'), 'utf8').trimEnd().split('\n').slice(1).map((l) => l.split(','));
+    const ordered = new Map(rows(out).map((r) => [r[0], r]));
+    for (const [start, charge, discharge] of schedule) {
+      const o = ordered.get(start as string);
+      expect([Number(charge), Number(discharge)]).toEqual(o === undefined ? [0, 0] : o[2] === 'buy' ? [Number(o[3]), 0] : [0, Number(o[3])]);
+    }
   });
 });

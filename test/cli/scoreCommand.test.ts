@@ -116,6 +116,12 @@ describe('quantbid score', () => {
     expect(dm.hln).toBeCloseTo(-3.748170, 5);
     expect(dm.pValueTwoSided).toBeCloseTo(2 * studentTCdf(-3.74817, 9), 5);
     expect(readFileSync(join(out, 'score.json'), 'utf8')).toBe(run.stdout);
+    // This forecast's crps, 21.5 / 3 = 7.1667, is below the point forecast's 12.5: this forecast is better; one-sided p = two-sided / 2.
+    expect((dm as unknown as { better: string }).better).toBe('forecast');
+    // One crps per forecast: on the same days, the DM figure is score.json's crps.
+    expect(dm.crpsForecast).toBeCloseTo((JSON.parse(run.stdout) as { crps: number }).crps, 12);
+    const text = await runCli(['score', ...inputs(), '--forecast', join(dir, 'uniform.csv'), '--against', join(dir, 'point.csv'), '--out', join(dir, 'against-text')]);
+    expect(text.stdout).toMatch(/--against: crps 12.5 HLV\/MWh, this forecast's 7.1667 HLV\/MWh, on 10 common days: this forecast is better \(lower crps\); Diebold-Mariano \(HLN\) -3.748, one-sided p = 0.0023 that it is/);
   });
 
   it.each([

@@ -2,6 +2,7 @@ import { existsSync, readFileSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { checkBuild, csvRows, journalKeys, quantbid, quantbidStoppedAfter, writeScenario, type Scenario } from './sweepScenario.js';
+import { withoutYearWarning } from './yearWarning.js';
 
 // `quantbid size` as users run it: the compiled CLI (dist/) in a child process, on a tiny invented
 // hourly scenario written into a temporary folder (sweepScenario.ts).
@@ -27,16 +28,16 @@ beforeAll(() => {
   checkBuild();
   scenario = writeScenario('size-cli', { days: 8 });
   fixed = join(scenario.dir, 'fixed');
-  expect(quantbid(sizeArgs(fixed, FIXED_GRID))).toMatchObject({ code: 0, stderr: '' });
+  expect(withoutYearWarning(quantbid(sizeArgs(fixed, FIXED_GRID)))).toMatchObject({ code: 0, stderr: '' });
 }, 300_000);
 
 describe('quantbid size with a fixed alpha', () => {
-  it('writes one row per size and policy, perfect-foresight rows included, in grid order, contract columns first', () => {
+  it('writes one row per size and policy, price-taking and perfect-foresight rows included, in grid order, contract columns first', () => {
     expect(readdirSync(fixed).sort()).toEqual(['size.csv', 'summary.json']);
     const { header, rows } = table(fixed);
     expect(header.slice(0, CONTRACT.length)).toEqual(CONTRACT);
     expect(header).toEqual(expect.arrayContaining(['capture_ratio', 'profit_per_mwh', 'profit_per_mw', 'cycles_per_year', 'throughput_mwh_per_year', 'capex', 'simple_payback_years', 'discounted_payback_years', 'revenue_per_mw_year', 'revenue_per_mwh_year', 'spread_per_mwh_discharged']));
-    const expected = ['5', '10'].flatMap((e) => ['2.5', '5'].flatMap((p) => ['0.82', '0.88'].flatMap((eff) => ['quantile', 'perfect-foresight'].map((policy) => [e, p, eff, policy]))));
+    const expected = ['5', '10'].flatMap((e) => ['2.5', '5'].flatMap((p) => ['0.82', '0.88'].flatMap((eff) => ['quantile', 'price-taking', 'perfect-foresight'].map((policy) => [e, p, eff, policy]))));
     expect(rows.map((r) => r.slice(0, 4))).toEqual(expected);
     for (const r of rows) expect(r[4]).toBe(r[3] === 'quantile' ? '0.1' : '');
   });
@@ -62,7 +63,7 @@ describe('quantbid size with a fixed alpha', () => {
     const summary = JSON.parse(readFileSync(join(fixed, 'summary.json'), 'utf8'));
     const { header, rows } = table(fixed);
     const cell = (r: string[], name: string) => r[header.indexOf(name)] as string;
-    expect(summary.best.map((b: { policy: string }) => b.policy)).toEqual(['quantile', 'perfect-foresight']);
+    expect(summary.best.map((b: { policy: string }) => b.policy)).toEqual(['quantile', 'price-taking', 'perfect-foresight']);
     for (const best of summary.best) {
       const mine = rows.filter((r) => r[3] === best.policy);
       // The chosen size's value is the column's maximum (sizes of equal value at the file's 6 decimals,
@@ -91,11 +92,32 @@ describe('quantbid size with a fixed alpha', () => {
     const killed = await quantbidStoppedAfter(sizeArgs(out, FIXED_GRID), journal, 2, 'SIGKILL');
     expect(killed.signal).toBe('SIGKILL');
     const kept = journalKeys(journal);
-    expect(kept.length).toBeLessThan(16);
+    expect(kept.length).toBeLessThan(24);
     const resumed = quantbid(sizeArgs(out, FIXED_GRID));
-    expect(resumed).toMatchObject({ code: 0, stderr: '' });
-    expect(resumed.stdout).toContain(`16 settings (${kept.length} resumed from the journal)`);
+    expect(withoutYearWarning(resumed)).toMatchObject({ code: 0, stderr: '' });
+    expect(resumed.stdout).toContain(`24 settings (${kept.length} resumed from the journal)`);
     for (const name of ['size.csv', 'summary.json']) expect(readFileSync(join(out, name), 'utf8')).toBe(readFileSync(join(fixed, name), 'utf8'));
+  });
+});
+
+describe('quantbid size: one spelling for lists of policies', () => {
+  const grid = ['--energy-mwh', '10', '--power-mw', '5', ...ECONOMICS, '--threads', '1'];
+  it('--policies, and --policy as its former name with a note: the same size.csv; price-taking is not added twice', () => {
+    const now = join(scenario.dir, 'policies-new');
+    const then = join(scenario.dir, 'policies-old');
+    expect(quantbid(sizeArgs(now, [...grid, '--policies', 'quantile,price-taking']))).toMatchObject({ code: 0, stderr: '' });
+    const old = quantbid(sizeArgs(then, [...grid, '--policy', 'quantile,price-taking']));
+    expect(old.code).toBe(0);
+    expect(old.stderr).toBe('note: --policy is read as --policies (one spelling for lists of policies, as in backtest and sweep); write --policies\n');
+    expect(readFileSync(join(then, 'size.csv'), 'utf8')).toBe(readFileSync(join(now, 'size.csv'), 'utf8'));
+    expect(table(now).rows.map((r) => r[3])).toEqual(['quantile', 'price-taking', 'perfect-foresight']);
+  });
+
+  it('both spellings at once is bad usage', () => {
+    const out = join(scenario.dir, 'policies-both');
+    const run = quantbid(sizeArgs(out, [...grid, '--policies', 'quantile', '--policy', 'median']));
+    expect(run).toMatchObject({ code: 2, stderr: expect.stringMatching(/--policy: was given with --policies, its new name; give the policies once, as --policies/) });
+    expect(existsSync(out)).toBe(false);
   });
 });
 
@@ -103,7 +125,7 @@ describe('quantbid size --alpha best', () => {
   it('chooses on the first half and scores on the second only: the days listed never overlap', () => {
     const out = join(scenario.dir, 'best');
     const run = quantbid(sizeArgs(out, ['--energy-mwh', '5,10', '--power-mw', '5', '--alpha', 'best', '--alphas', '0.1:0.4:0.1', ...ECONOMICS, '--json']));
-    expect(run).toMatchObject({ code: 0, stderr: '' });
+    expect(withoutYearWarning(run)).toMatchObject({ code: 0, stderr: '' });
     const summary = JSON.parse(run.stdout);
     const { choose, scored } = summary.alpha;
     expect(summary.alpha.method).toBe('best');
@@ -122,12 +144,46 @@ describe('quantbid size without capital cost', () => {
   it('gives irr "none" (the flows never change sign) and a payback of 0 years', () => {
     const out = join(scenario.dir, 'free');
     const run = quantbid(sizeArgs(out, ['--energy-mwh', '10', '--power-mw', '5', '--capex-per-mwh', '0', '--capex-per-mw', '0', '--life-years', '10', '--discount-rate', '0.07']));
-    expect(run).toMatchObject({ code: 0, stderr: '' });
+    expect(withoutYearWarning(run)).toMatchObject({ code: 0, stderr: '' });
     const { header, rows } = table(out);
     const pf = rows.find((r) => r[3] === 'perfect-foresight') as string[];
     expect(Number(pf[header.indexOf('profit')])).toBeGreaterThan(0);
     expect(pf[header.indexOf('irr')]).toBe('none');
     expect(pf[header.indexOf('simple_payback_years')]).toBe('0');
+  });
+});
+
+describe('quantbid size: yearly figures from 8 days, and cells replaced during the life', () => {
+  it('warns on stderr and in summary.json that the yearly figures are extrapolated (x 365.25 / 8 = 45.66)', () => {
+    const out = join(scenario.dir, 'year-warning');
+    const run = quantbid(sizeArgs(out, ['--energy-mwh', '10', '--power-mw', '5', ...ECONOMICS]));
+    expect(run.code).toBe(0);
+    const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
+    expect(summary.yearlyFigures).toMatchObject({ days: 8, extrapolated: true, monthsCovered: ['2026-03'] });
+    expect(summary.yearlyFigures.monthsMissing).toHaveLength(11);
+    expect(summary.yearlyFigures.warning).toMatch(/^profit_per_year, .* are extrapolated to a year: scaled x 365\.25 \/ 8 = 45\.66 from 8 covered days in 1 month \(2026-03\); January, February, April, .* and December are missing/);
+    expect(summary.warnings[0]).toBe(summary.yearlyFigures.warning);
+    expect(run.stderr).toBe(`warning: ${summary.yearlyFigures.warning as string}\n`);
+  });
+
+  it('a replacement carries its residual value into the last year: RV = capexPerMwh x E x (k + 1 - L x cycles_per_year / lifeCycles)', () => {
+    // With --life-cycles 600 over 15 years a set lasts 600 / cycles_per_year years; the residual is of the
+    // set in use at the end of life (projectCashFlows.ts, worked by hand in test/economics).
+    const out = join(scenario.dir, 'residual');
+    const run = quantbid(sizeArgs(out, ['--energy-mwh', '10', '--power-mw', '5', '--life-cycles', '600', ...ECONOMICS]));
+    expect(run.code).toBe(0);
+    const { header, rows } = table(out);
+    const cell = (r: string[], name: string) => Number(r[header.indexOf(name)]);
+    let replaced = 0;
+    for (const r of rows) {
+      const k = cell(r, 'replacements');
+      const used = (15 * cell(r, 'cycles_per_year')) / 600;
+      expect(k).toBe(Math.max(0, Math.ceil(used) - 1));
+      const expected = k === 0 ? 0 : 150_000 * 10 * (k + 1 - used);
+      expect(Math.abs(cell(r, 'residual_value') - expected)).toBeLessThanOrEqual(1e-4 * Math.max(1, expected));
+      if (k > 0) replaced++;
+    }
+    expect(replaced).toBeGreaterThan(0);
   });
 });
 

@@ -2,6 +2,7 @@ import { existsSync, readFileSync, readdirSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { checkBuild, csvRows, journalKeys, quantbid, quantbidStoppedAfter, writeScenario, type Scenario } from './sweepScenario.js';
+import { withoutYearWarning } from './yearWarning.js';
 
 // `quantbid sweep` as users run it: the compiled CLI (dist/) in a child process, on a tiny invented
 // hourly scenario written into a temporary folder (sweepScenario.ts).
@@ -10,6 +11,7 @@ const ALPHAS = ['0.05', '0.15', '0.25', '0.35', '0.45'];
 const POLICIES = ['quantile', 'median'];
 const RULES = ['follow-plan', 'follow-accepted'];
 const SETTINGS = ALPHAS.length * POLICIES.length * RULES.length;
+const REFERENCES = ['point', 'price-taking', 'perfect-foresight'];
 
 let scenario: Scenario;
 let oneThread = '';
@@ -27,20 +29,21 @@ beforeAll(() => {
 }, 300_000);
 
 describe('quantbid sweep on a small seeded market', () => {
-  it('writes sweep.csv with one row per setting in grid order (alpha outermost, unaccepted fastest) and summary.json', () => {
+  it('writes sweep.csv with one row per setting in grid order (alpha outermost, unaccepted fastest), then the reference rows per rule, and summary.json', () => {
     expect(readdirSync(oneThread).sort()).toEqual(['summary.json', 'sweep.csv']);
     const rows = csvRows(readFileSync(join(oneThread, 'sweep.csv'), 'utf8'));
     expect(rows[0]?.slice(0, 5)).toEqual(['alpha', 'policy', 'unaccepted', 'days', 'profit']);
-    expect(rows[0]).toEqual(expect.arrayContaining(['capture_ratio', 'buy_acceptance_rate', 'sell_acceptance_rate', 'imbalance_mwh', 'imbalance_cash', 'cycles', 'p_value_vs_point']));
+    expect(rows[0]).toEqual(expect.arrayContaining(['capture_ratio', 'buy_acceptance_rate', 'sell_acceptance_rate', 'imbalance_mwh', 'imbalance_cash', 'cycles_total', 'cycles_per_day', 'p_value_vs_point', 'price_taking_profit', 'edge_vs_price_taking', 'p_value_vs_price_taking']));
     const expected = ALPHAS.flatMap((a) => POLICIES.flatMap((p) => RULES.map((u) => [a, p, u])));
-    expect(rows.slice(1).map((r) => r.slice(0, 3))).toEqual(expected);
-    expect(rows).toHaveLength(1 + SETTINGS);
+    const references = RULES.flatMap((u) => REFERENCES.map((p) => ['', p, u]));
+    expect(rows.slice(1).map((r) => r.slice(0, 3))).toEqual([...expected, ...references]);
+    expect(rows).toHaveLength(1 + SETTINGS + references.length);
   });
 
   it('agrees with quantbid backtest for the same setting: profit, capture ratio, acceptance, imbalance and the DM/HLN p-value', () => {
     const out = join(scenario.dir, 'backtest');
-    const run = quantbid(['backtest', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--alpha', '0.25', '--policies', 'quantile,point,perfect-foresight', '--out', out]);
-    expect(run).toMatchObject({ code: 0, stderr: '' });
+    const run = quantbid(['backtest', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--alpha', '0.25', '--policies', 'quantile,point,price-taking,perfect-foresight', '--out', out]);
+    expect(withoutYearWarning(run)).toMatchObject({ code: 0, stderr: '' });
     const backtest = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
     const rows = csvRows(readFileSync(join(oneThread, 'sweep.csv'), 'utf8'));
     const header = rows[0] as string[];
@@ -52,20 +55,41 @@ describe('quantbid sweep on a small seeded market', () => {
     expect(cell('capture_ratio')).toBeCloseTo(q.captureRatio, 5);
     expect(cell('buy_acceptance_rate')).toBeCloseTo(q.buyAcceptanceRate, 5);
     expect(cell('imbalance_cash')).toBeCloseTo(q.imbalanceCash, 5);
-    expect(cell('cycles')).toBeCloseTo(q.equivalentFullCycles, 5);
+    expect(cell('cycles_total')).toBeCloseTo(q.cyclesTotal, 5);
+    expect(cell('cycles_per_day')).toBeCloseTo(q.cyclesTotal / q.days, 5);
     expect(cell('perfect_foresight_profit')).toBeCloseTo(backtest.policies['perfect-foresight'].profit, 5);
     expect(cell('point_profit')).toBeCloseTo(backtest.policies.point.profit, 5);
     expect(backtest.edge.status).toBe('ok');
     expect(cell('p_value_vs_point')).toBeCloseTo(backtest.edge.pValueOneSided, 5);
+    expect(cell('price_taking_profit')).toBeCloseTo(backtest.policies['price-taking'].profit, 5);
+    const taking = backtest.edges.find((e: { reference: string }) => e.reference === 'price-taking');
+    expect(cell('edge_vs_price_taking')).toBeCloseTo(taking.meanDifference, 5);
+    // The reference rows are the backtest's policies under the same rule.
+    for (const policy of ['point', 'price-taking', 'perfect-foresight']) {
+      const reference = rows.find((r) => r[0] === '' && r[1] === policy && r[2] === 'follow-plan') as string[];
+      expect(Number(reference[header.indexOf('profit')])).toBeCloseTo(backtest.policies[policy].profit, 5);
+      expect(Number(reference[header.indexOf('capture_ratio')])).toBeCloseTo(backtest.policies[policy].captureRatio, 5);
+    }
   });
 
-  it('summary.json names the setting with the highest profit in sweep.csv', () => {
+  it('summary.json names, within each rule, the setting with the highest profit in sweep.csv and reads it against the stronger simple baseline', () => {
     const rows = csvRows(readFileSync(join(oneThread, 'sweep.csv'), 'utf8'));
     const profit = (rows[0] as string[]).indexOf('profit');
-    const top = rows.slice(1).reduce((best, r) => (Number(r[profit]) > Number(best[profit]) ? r : best));
     const summary = JSON.parse(readFileSync(join(oneThread, 'summary.json'), 'utf8'));
-    expect([String(summary.best.setting.alpha), summary.best.setting.policy, summary.best.setting.unaccepted]).toEqual(top.slice(0, 3));
+    expect(summary.best).toBeUndefined();
+    expect(summary.bestByRule.map((b: { unaccepted: string }) => b.unaccepted)).toEqual(RULES);
+    for (const rule of summary.bestByRule) {
+      const ofRule = rows.slice(1).filter((r) => r[0] !== '' && r[2] === rule.unaccepted);
+      const top = ofRule.reduce((best, r) => (Number(r[profit]) > Number(best[profit]) ? r : best));
+      expect([String(rule.best.setting.alpha), rule.best.setting.policy, rule.best.setting.unaccepted]).toEqual(top.slice(0, 3));
+      const reference = (policy: string) => Number((rows.find((r) => r[0] === '' && r[1] === policy && r[2] === rule.unaccepted) as string[])[profit]);
+      const stronger = reference('price-taking') > reference('point') ? 'price-taking' : 'point';
+      expect(rule.strongestBaseline.policy).toBe(stronger);
+      expect(rule.beatsStrongestBaseline).toBe(Number(top[profit]) > reference(stronger));
+    }
     expect(summary.bestAlphaByPolicy).toHaveLength(POLICIES.length * RULES.length);
+    // An alpha at 0.05 or 0.45, the ends of --alphas, is flagged; one inside is not.
+    for (const best of summary.bestAlphaByPolicy) expect(best.onEdgeOfAlphaGrid).toBe(best.alpha === 0.05 || best.alpha === 0.45);
     expect(summary.daysCovered).toBe(8);
   });
 

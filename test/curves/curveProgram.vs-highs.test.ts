@@ -51,7 +51,7 @@ function randomCase(i: number) {
     socMaxMwh,
     socInitialMwh: 2,
     socFinalMinMwh: undefined,
-    maxDischargeMwhPerDay: rng.chance(0.4) ? rng.uniform(0.5, 3) : undefined,
+    maxFromStoreMwhPerDay: rng.chance(0.4) ? rng.uniform(0.5, 3) : undefined,
     degradationCostPerMwh: rng.chance(0.5) ? 0 : rng.uniform(0, 5),
   };
   // One case in ten asks to fill the store from empty: out of reach for weak chargers on short days.

@@ -13,7 +13,7 @@ import { settleDay } from '../../src/settle/settleDay.js';
 
 const battery: BatteryModel = Object.freeze({
   energyMwh: 10, chargeMw: 5, dischargeMw: 4, chargeEfficiency: 0.8, dischargeEfficiency: 0.8, socMinMwh: 1, socMaxMwh: 9,
-  socInitialMwh: 4, socFinalMinMwh: undefined, maxDischargeMwhPerDay: undefined, degradationCostPerMwh: 2,
+  socInitialMwh: 4, socFinalMinMwh: undefined, maxFromStoreMwhPerDay: undefined, degradationCostPerMwh: 2,
 });
 const market = { priceFloor: -500, priceCap: 3000 } as MarketSpec;
 

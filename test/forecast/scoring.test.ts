@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { crpsFromQuantiles, crpsNormal } from '../../src/forecast/scoring/crps.js';
 import { pinballLoss } from '../../src/forecast/scoring/pinball.js';
 import { scoreForecasts } from '../../src/forecast/scoring/scoreForecasts.js';
+import { compareForecasts } from '../../src/forecast/scoring/compareForecasts.js';
 import type { ScoredDay } from '../../src/forecast/scoring/scoreForecasts.js';
 import { ForecastInputError } from '../../src/forecast/models/errors.js';
 import { normalQuantile } from '../../src/stats/normalQuantile.js';
@@ -123,5 +124,23 @@ describe('scoreForecasts', () => {
     const short = { ...days[0]!, realised: days[0]!.realised.slice(1) };
     expect(() => scoreForecasts([short])).toThrow(ForecastInputError);
     expect(() => scoreForecasts([])).toThrow(ForecastInputError);
+  });
+});
+
+describe('one crps per forecast: the DM comparison\'s crps is the crps of scoreForecasts', () => {
+  // Two days at the single level 0.5, whose pinball loss is |y - q| / 2. Day A has one period with
+  // error 2 (loss 1), day B two periods with errors 4 and 4 (losses 2 and 2). Each period counting
+  // once, crps = (1 + 2 + 2) / 3 = 5/3; the mean of the two day means would be (1 + 2) / 2 = 1.5.
+  const periods = (n: number) => Array.from({ length: n }, (_, t) => ({ start: `2030-01-0${n}T0${t}:00:00Z`, end: `2030-01-0${n}T0${t + 1}:00:00Z`, startMs: Date.UTC(2030, 0, n, t) }));
+  const day = (d: string, n: number, q: number): ScoredDay => ({ forecast: { day: d, levels: [0.5], periods: periods(n), prices: Array.from({ length: n }, () => [q]) }, realised: new Array<number>(n).fill(q + (n === 1 ? 2 : 4)) });
+  it('crpsForecast is the crps over every period of the compared days (5/3 by hand), and scoreForecasts gives the same', () => {
+    const first = [day('2030-01-01', 1, 10), day('2030-01-02', 2, 10)];
+    // The second forecast is exact: loss 0 everywhere.
+    const second = first.map((d) => ({ ...d, forecast: { ...d.forecast, prices: d.realised.map((y) => [y]) } }));
+    const c = compareForecasts(first, second);
+    expect(c.lossFirst).toBeCloseTo(5 / 3, 12);
+    expect(c.lossSecond).toBe(0);
+    expect(c.test.meanDifference).toBeCloseTo(5 / 3, 12);
+    expect(scoreForecasts(first).overall.crps).toBeCloseTo(5 / 3, 12);
   });
 });

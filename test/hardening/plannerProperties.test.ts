@@ -88,7 +88,7 @@ function expectFeasible(result: Extract<PlanResult, { status: 'optimal' }>, batt
   const tolMw = 1e-6 * Math.max(1, battery.chargeMw, battery.dischargeMw);
   const tolMwh = 1e-6 * Math.max(1, battery.energyMwh);
   let soc = result.problem.socStartMwh;
-  let discharged = 0;
+  let fromStore = 0;
   schedule.chargeMw.forEach((c, t) => {
     const d = schedule.dischargeMw[t] as number;
     expect(c).toBeGreaterThanOrEqual(0);
@@ -97,13 +97,13 @@ function expectFeasible(result: Extract<PlanResult, { status: 'optimal' }>, batt
     expect(d).toBeLessThanOrEqual(battery.dischargeMw + tolMw);
     expect(Math.min(c, d), 'charge and discharge in one period').toBeLessThanOrEqual(tolMw);
     soc += battery.chargeEfficiency * dt * c - (dt * d) / battery.dischargeEfficiency;
-    discharged += dt * d;
+    fromStore += (dt * d) / battery.dischargeEfficiency;
     expect(Math.abs(soc - (schedule.socMwh[t] as number))).toBeLessThanOrEqual(tolMwh);
     expect(soc).toBeGreaterThanOrEqual(battery.socMinMwh - tolMwh);
     expect(soc).toBeLessThanOrEqual(battery.socMaxMwh + tolMwh);
   });
   expect(soc).toBeGreaterThanOrEqual(result.problem.socEndMinMwh - tolMwh);
-  if (battery.maxDischargeMwhPerDay !== undefined) expect(discharged).toBeLessThanOrEqual(battery.maxDischargeMwhPerDay + tolMwh);
+  if (battery.maxFromStoreMwhPerDay !== undefined) expect(fromStore).toBeLessThanOrEqual(battery.maxFromStoreMwhPerDay + tolMwh);
   for (const order of result.orders) {
     expect(order.limitPrice).toBeGreaterThanOrEqual(market.priceFloor);
     expect(order.limitPrice).toBeLessThanOrEqual(market.priceCap);

@@ -22,8 +22,8 @@ describe('backtest output files', () => {
     expect(lines[0]).toBe(LEDGER_COLUMNS.join(','));
     expect(lines).toHaveLength(1 + 3 * 2 * 4);
     // Day A, quantile, hour 0: buy 4 MW at limit 22, cleared at 20: pays 80; hour 1: no order.
-    expect(lines[1]).toBe('2026-05-04,quantile,2026-05-04T00:00:00Z,buy,4,22,true,20,21,21,4,0,0,0,4,0,-80,0,0,-80,4');
-    expect(lines[2]).toBe('2026-05-04,quantile,2026-05-04T01:00:00Z,,,,,45,44,44,0,0,0,0,0,0,0,0,0,0,4');
+    expect(lines[1]).toBe('2026-05-04,quantile,2026-05-04T00:00:00Z,buy,4,22,true,20,21,21,4,0,0,0,4,0,-80,0,0,-80,4,0');
+    expect(lines[2]).toBe('2026-05-04,quantile,2026-05-04T01:00:00Z,,,,,45,44,44,0,0,0,0,0,0,0,0,0,0,4,0');
   });
 
   it('the same result gives the same bytes', () => {

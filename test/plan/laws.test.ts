@@ -36,7 +36,7 @@ function model(b: BatteryDraw): BatteryModel {
     socMaxMwh,
     socInitialMwh: socMinMwh + b.startFrac * (socMaxMwh - socMinMwh),
     socFinalMinMwh: undefined,
-    maxDischargeMwhPerDay: b.cycles === undefined ? undefined : b.cycles * (socMaxMwh - socMinMwh),
+    maxFromStoreMwhPerDay: b.cycles === undefined ? undefined : b.cycles * (socMaxMwh - socMinMwh),
     degradationCostPerMwh: b.deg,
   };
 }

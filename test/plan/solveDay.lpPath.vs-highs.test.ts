@@ -36,7 +36,7 @@ describe(`solveDay's LP path (solver: 'lp') against HiGHS ${HIGHS_NPM_VERSION}`,
         const b = problem.battery;
         if (coversDay(problem)) seen.covered++;
         if (problem.buyPricePerMwh.some((_, t) => isArbitragePeriod(problem, t))) seen.arbitrage++;
-        if (b.maxDischargeMwhPerDay !== undefined) seen.cap++;
+        if (b.maxFromStoreMwhPerDay !== undefined) seen.cap++;
         if (b.degradationCostPerMwh > 0) seen.wear++;
         if (b.socMaxMwh - b.socMinMwh < 0.15 * b.energyMwh) seen.tight++;
         const reference = solveDayWithHighs(highs, problem, true);

@@ -12,7 +12,7 @@ export function testBattery(overrides: Partial<BatteryModel> = {}): BatteryModel
     socMaxMwh: 1,
     socInitialMwh: 0,
     socFinalMinMwh: undefined,
-    maxDischargeMwhPerDay: undefined,
+    maxFromStoreMwhPerDay: undefined,
     degradationCostPerMwh: 0,
     ...overrides,
   });

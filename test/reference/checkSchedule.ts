@@ -6,7 +6,8 @@ import type { DayProblem, Schedule } from '../../src/types.js';
  * Recomputes the state of charge by s_t = s_{t-1} + eta_c dt c_t - dt d_t / eta_d from s_{-1} =
  * socStart and lists every violation of: array lengths; 0 <= c_t <= chargeMw; 0 <= d_t <=
  * dischargeMw; the reported s_t equal to the recomputed one; socMin <= s_t <= socMax;
- * s_{T-1} >= socEndMin; sum_t dt d_t <= maxDischargeMwhPerDay; never c_t > 0 and d_t > 0 together.
+ * s_{T-1} >= socEndMin; sum_t dt d_t / eta_d <= maxFromStoreMwhPerDay (energy taken out of the store);
+ * never c_t > 0 and d_t > 0 together.
  *
  * Tolerance: `toleranceMwh` (default 1e-9 x max(1, energyMwh)) on energies and the same number,
  * read in MW, on powers; a flow counts as simultaneous when both flows exceed it.
@@ -22,7 +23,7 @@ export function checkSchedule(problem: DayProblem, schedule: Schedule, tolerance
   }
   if (problems.length > 0) return problems;
   let soc = problem.socStartMwh;
-  let dischargedMwh = 0;
+  let fromStoreMwh = 0;
   for (let t = 0; t < periods; t++) {
     const c = schedule.chargeMw[t] as number;
     const d = schedule.dischargeMw[t] as number;
@@ -30,14 +31,14 @@ export function checkSchedule(problem: DayProblem, schedule: Schedule, tolerance
     if (!(d >= -tol && d <= b.dischargeMw + tol)) problems.push(`period ${t}: discharge ${d} MW outside [0, ${b.dischargeMw}]`);
     if (c > tol && d > tol) problems.push(`period ${t}: charges ${c} MW and discharges ${d} MW at once`);
     soc += b.chargeEfficiency * dt * c - (dt * d) / b.dischargeEfficiency;
-    dischargedMwh += dt * d;
+    fromStoreMwh += (dt * d) / b.dischargeEfficiency;
     const reported = schedule.socMwh[t] as number;
     if (!(Math.abs(reported - soc) <= tol)) problems.push(`period ${t}: reported state of charge ${reported} MWh, recomputed ${soc}`);
     if (!(soc >= b.socMinMwh - tol && soc <= b.socMaxMwh + tol)) problems.push(`period ${t}: state of charge ${soc} MWh outside [${b.socMinMwh}, ${b.socMaxMwh}]`);
   }
   if (!(soc >= problem.socEndMinMwh - tol)) problems.push(`end state of charge ${soc} MWh below the floor ${problem.socEndMinMwh}`);
-  const cap = b.maxDischargeMwhPerDay;
-  if (cap !== undefined && !(dischargedMwh <= cap + tol)) problems.push(`discharged ${dischargedMwh} MWh above the cycle cap ${cap}`);
+  const cap = b.maxFromStoreMwhPerDay;
+  if (cap !== undefined && !(fromStoreMwh <= cap + tol)) problems.push(`took ${fromStoreMwh} MWh out of the store, above the cycle cap ${cap}`);
   return problems;
 }
 

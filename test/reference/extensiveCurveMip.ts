@@ -13,7 +13,7 @@ import { HIGHS_EXACT_OPTIONS } from './highsDayModel.js';
  *   s_{w,t} = s_{w,t-1} + eta_c dt c - dt d / eta_d,  socMin <= s <= socMax,  s_{w,T} >= socEnd
  *   c <= chargeMw b, d <= dischargeMw (1 - b), b binary   (no simultaneous charge and discharge)
  *   d_{w,t} = 0 where step j(w,t) is not sellable      (the one restriction the LP makes)
- *   sum_t dt d_{w,t} <= maxDischargeMwhPerDay
+ *   sum_t dt d_{w,t} / eta_d <= maxFromStoreMwhPerDay (energy out of the store)
  *   P_w = sum_t dt ( (pi - deg) d - pi c )
  * Objective, maximised: (1/S) sum_w P_w + lambda (eta - (1/(beta S)) sum_w z_w), z_w >= eta - P_w, z >= 0.
  */
@@ -110,7 +110,7 @@ export function solveExtensiveCurveMip(highs: Highs, day: ExtensiveCurveDay): { 
       row([c(w, t), bin(w, t)], [1, -b.chargeMw], -inf, 0);
       row([d(w, t), bin(w, t)], [1, b.dischargeMw], -inf, b.dischargeMw);
     }
-    if (b.maxDischargeMwhPerDay !== undefined) row(Array.from({ length: T }, (_, t) => d(w, t)), new Array<number>(T).fill(dt), -inf, b.maxDischargeMwhPerDay);
+    if (b.maxFromStoreMwhPerDay !== undefined) row(Array.from({ length: T }, (_, t) => d(w, t)), new Array<number>(T).fill(dt / b.dischargeEfficiency), -inf, b.maxFromStoreMwhPerDay);
     if (withRisk) {
       const cols = [zCol + w, etaCol];
       const vals = [1, -1];

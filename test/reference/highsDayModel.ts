@@ -11,7 +11,7 @@ import type { DayProblem, Schedule } from '../../src/types.js';
  * socEndMin)), and in the MIP a binary u_t (1 = the period may charge, 0 = it may discharge).
  * Rows: b_t: s_t - s_{t-1} - eta_c dt c_t + (dt / eta_d) d_t = 0 (s_{-1} = socStart on the right);
  * MIP only: cu_t: c_t - chargeMw u_t <= 0, du_t: d_t + dischargeMw u_t <= dischargeMw;
- * cap: sum_t dt d_t <= maxDischargeMwhPerDay (+inf without a cap).
+ * cap: sum_t (dt / eta_d) d_t <= maxFromStoreMwhPerDay, energy taken out of the store (+inf without a cap).
  * Objective, maximised: sum_t dt (sell_t - deg) d_t - dt buy_t c_t + terminal s_{T-1}.
  */
 
@@ -98,14 +98,30 @@ export function dayRows(problem: DayProblem, integer: boolean): DayRow[] {
     }
   }
   const capCols = Array.from({ length: periods }, (_, t) => col(1, t, periods));
-  rows.push({ name: 'cap', lower: -Infinity, upper: b.maxDischargeMwhPerDay ?? Infinity, cols: capCols, values: capCols.map(() => dt) });
+  rows.push({ name: 'cap', lower: -Infinity, upper: b.maxFromStoreMwhPerDay ?? Infinity, cols: capCols, values: capCols.map(() => dt / b.dischargeEfficiency) });
   return rows;
 }
 
+/**
+ * Bounds on the state of charge at the end of each period that replace the window's [socMin, socMax]
+ * (the last period's lower bound stays at least the end-of-day floor), e.g. the time-varying bounds of
+ * a start outside the window.
+ */
+export interface SocBounds {
+  readonly lowerMwh: readonly number[];
+  readonly upperMwh: readonly number[];
+}
+
 /** CPLEX LP text of the model (numbers printed in JavaScript's shortest round-trip form). */
-export function dayModelText(problem: DayProblem, integer: boolean): string {
+export function dayModelText(problem: DayProblem, integer: boolean, socBounds?: SocBounds): string {
   const periods = problem.buyPricePerMwh.length;
   const { colCost, colLower, colUpper } = dayColumns(problem, integer);
+  if (socBounds !== undefined) {
+    for (let t = 0; t < periods; t++) {
+      colLower[col(2, t, periods)] = t === periods - 1 ? Math.max(socBounds.lowerMwh[t] as number, problem.socEndMinMwh) : (socBounds.lowerMwh[t] as number);
+      colUpper[col(2, t, periods)] = socBounds.upperMwh[t] as number;
+    }
+  }
   const sum = (cols: readonly number[], values: readonly number[]): string => {
     const terms = cols.map((j, k) => `${(values[k] as number) < 0 ? '-' : '+'} ${Math.abs(values[k] as number)} ${colName(j, periods)}`);
     const lines: string[] = [];
@@ -127,9 +143,9 @@ export function dayModelText(problem: DayProblem, integer: boolean): string {
 }
 
 /** Solves the day with a fresh HiGHS instance from LP text: the MIP (`integer`) or its LP relaxation. */
-export function solveDayWithHighs(highs: Highs, problem: DayProblem, integer: boolean): HighsDayOutcome {
+export function solveDayWithHighs(highs: Highs, problem: DayProblem, integer: boolean, socBounds?: SocBounds): HighsDayOutcome {
   const periods = problem.buyPricePerMwh.length;
-  const result = highs.solve(dayModelText(problem, integer), HIGHS_EXACT_OPTIONS);
+  const result = highs.solve(dayModelText(problem, integer, socBounds), HIGHS_EXACT_OPTIONS);
   if (result.Status === 'Infeasible') return { status: 'infeasible' };
   if (result.Status !== 'Optimal') return { status: 'other', detail: result.Status };
   const value = (n: string): number => (result.Columns[n] as { Primal: number }).Primal;
@@ -194,7 +210,7 @@ export class KeptDayModel {
     this.model.changeColsCost(all, columns.colCost);
     this.model.changeColsBounds(all, columns.colLower, columns.colUpper);
     this.model.changeRowBounds(0, problem.socStartMwh, problem.socStartMwh);
-    this.model.changeRowBounds(this.capRow, -this.highs.infinity, b.maxDischargeMwhPerDay ?? this.highs.infinity);
+    this.model.changeRowBounds(this.capRow, -this.highs.infinity, b.maxFromStoreMwhPerDay ?? this.highs.infinity);
     const run = this.model.run();
     const codes = this.highs.constants.modelStatus;
     if (run.modelStatus === codes.infeasible) return { status: 'infeasible' };

@@ -135,7 +135,7 @@ function randomBattery(rng: SeededRandom, cycleCap: boolean): BatteryModel {
     socMaxMwh,
     socInitialMwh: socMinMwh,
     socFinalMinMwh: undefined,
-    maxDischargeMwhPerDay: cycleCap ? cycles * (socMaxMwh - socMinMwh) : undefined,
+    maxFromStoreMwhPerDay: cycleCap ? cycles * (socMaxMwh - socMinMwh) : undefined,
     degradationCostPerMwh: rng.chance(0.5) ? 0 : cents(rng.uniform(0.5, 20)),
   });
 }

@@ -85,6 +85,20 @@ describe('quantbid backtest --report', () => {
     expect(titles.some((t) => t.includes('price-taking'))).toBe(false);
   });
 
+  it('imbalance cash bars are the gross imbalance cash and the cost of imbalance against the clearing price in days.csv', () => {
+    const titles = markTitles(chartSource(html, 'backtest-imbalance-cash'));
+    const value = (name: string) => shownNumber(/: (\S+) HLV$/.exec(titles.find((t) => t.startsWith(name)) ?? '')?.[1] ?? 'NaN');
+    for (const policy of ['quantile', 'median', 'point']) {
+      expect(value(`gross imbalance cash (+ received), ${policy}:`), policy).toBeCloseTo(sum(policy, 'imbalance_cash'), 0);
+      expect(value(`cost of imbalance against the clearing price (+ cost), ${policy}:`), policy).toBeCloseTo(sum(policy, 'imbalance_cost_vs_clearing'), 0);
+    }
+    expect(chartSource(html, 'backtest-imbalance-cash')).toContain('above zero it cost the policy money');
+    const rows = tableRows(html, 'Orders and the imbalance price per policy');
+    const quantile = rows.find((r) => r[0] === 'quantile') as string[];
+    expect(shownNumber(quantile[5] as string)).toBeCloseTo(sum('quantile', 'imbalance_cash'), 0);
+    expect(shownNumber(quantile[6] as string)).toBeCloseTo(sum('quantile', 'imbalance_cost_vs_clearing'), 0);
+  });
+
   it('the month table has one row per calendar month and a total equal to days.csv', () => {
     const rows = tableRows(html, 'Profit by calendar month');
     expect(rows.map((r) => r[0])).toEqual(['2026-03', 'all']);

@@ -36,6 +36,7 @@ function inventedSummary(currency: string): SizeReportSummary {
     alpha: { method: 'fixed', alpha: 0.1, scored: { from: '2026-01-01', to: '2026-01-31', days: ['2026-01-01'] } },
     economics: { capexPerMwh: 1, capexPerMw: 1, fixedOmPerMwYear: 0, lifeYears: 15, lifeCycles: null, discountRate: 0.07, steps: ['npv = sum'] },
     best: [],
+    warnings: ['yearly figures <extrapolated>'],
     note: 'perfect foresight is a bound',
   } as unknown as SizeReportSummary;
 }
@@ -69,6 +70,8 @@ describe('sizeReport as a function', () => {
     expect(sizeReport(input)).toBe(page);
     expect(page).toContain('HLV &lt;&amp;&gt; &quot;x&quot;');
     expect(page).toContain('battery &lt;2&gt;.json');
+    // The summary's warnings are shown in the report's summary, escaped.
+    expect(page).toMatch(/warning<\/dt>\s*<dd>yearly figures &lt;extrapolated&gt;\.<\/dd>/);
     expect(page).not.toMatch(/HLV <&>|<2>/);
   });
 });
@@ -85,7 +88,8 @@ describe('quantbid size --report on the Halvorn demo (compiled CLI)', () => {
   });
 
   it('every NPV cell is the npv of its size in size.csv, in thousands', () => {
-    expect(labelledCharts(html)).toEqual(['size-npv-quantile', 'size-profit-quantile']);
+    // The price-taking baseline's maps follow the policy's: every size is read against it.
+    expect(labelledCharts(html)).toEqual(['size-npv-quantile', 'size-profit-quantile', 'size-npv-price-taking', 'size-profit-price-taking']);
     const cells = elements(chartSource(html, 'size-npv-quantile'), 'rect', 'cell');
     const energies = [5, 10, 20];
     const powers = [2.5, 5, 10];

@@ -26,11 +26,17 @@ function inventedSweep(currency = 'HLV'): { results: SettingResult[]; summary: S
     inputs: { market: 'market <1>.json' },
     axes: { alpha: alphas, policy: policies, unaccepted: ['follow-plan'] },
     settings: results.length,
-    best: { setting: best.setting, row: best.row },
+    bestByRule: [{ unaccepted: 'follow-plan', best: { setting: best.setting, row: best.row }, strongestBaseline: { policy: 'price-taking', profit: 950 }, beatsStrongestBaseline: true, perfectForesightProfit: 2000 }],
     bestAlphaByPolicy: policies.map((policy) => {
       const mine = results.filter((r) => r.setting.policy === policy).reduce((a, b) => ((b.row.profit as number) > (a.row.profit as number) ? b : a));
-      return { policy, unaccepted: 'follow-plan', alpha: mine.setting.alpha as number, row: mine.row };
+      return { policy, unaccepted: 'follow-plan', alpha: mine.setting.alpha as number, row: mine.row, onEdgeOfAlphaGrid: mine.setting.alpha === 0.1 };
     }),
+    references: [
+      { policy: 'point', unaccepted: 'follow-plan', row: { profit: 700 } },
+      { policy: 'price-taking', unaccepted: 'follow-plan', row: { profit: 950 } },
+      { policy: 'perfect-foresight', unaccepted: 'follow-plan', row: { profit: 2000 } },
+    ],
+    warnings: ['median, follow-plan: the most profitable alpha 0.1 lies on the edge of the grid'],
     note: 'in-sample',
     conventions: { captureRatio: '', pValueVsPoint: '', cycles: '', cash: '' },
   } as unknown as SweepReportSummary;
@@ -61,8 +67,13 @@ describe('sweepReport as a function', () => {
     const input = inventedSweep();
     const page = sweepReport(input);
     const profitSvg = chartSource(page, 'sweep-profit');
-    const best = profitSvg.slice(profitSvg.indexOf('data-series="most profitable: alpha 0.2, quantile, follow-plan"'));
-    expect(markTitles(best.slice(0, best.indexOf('</g>')))).toEqual(['most profitable: alpha 0.2, quantile, follow-plan, alpha 0.2 -: 1000 HLV']);
+    const best = profitSvg.slice(profitSvg.indexOf('data-series="most profitable, follow-plan: alpha 0.2, quantile, follow-plan"'));
+    expect(markTitles(best.slice(0, best.indexOf('</g>')))).toEqual(['most profitable, follow-plan: alpha 0.2, quantile, follow-plan, alpha 0.2 -: 1000 HLV']);
+    // The references of the rule are drawn as guides and named in the summary, with the verdict and the warning.
+    expect(profitSvg).toContain('price-taking, follow-plan: 950');
+    expect(profitSvg).toContain('perfect-foresight, follow-plan: 2000');
+    expect(page).toContain('beats price-taking');
+    expect(page).toContain('Warning: median, follow-plan: the most profitable alpha 0.1 lies on the edge of the grid.');
     const medianSvg = chartSource(page, 'sweep-acceptance-median-follow-plan');
     expect(markTitles(medianSvg).filter((t) => t.startsWith('most profitable'))).toEqual(['most profitable alpha 0.1, alpha 0.1 -: 800 HLV']);
   });
@@ -99,16 +110,26 @@ describe('quantbid sweep --report on the Halvorn demo (compiled CLI)', () => {
   beforeAll(() => {
     const out = sweepWithReport();
     html = readOutput(out, 'report.html');
-    rows = csvObjects(readOutput(out, 'sweep.csv'));
+    const all = csvObjects(readOutput(out, 'sweep.csv'));
+    // The grid's rows; the reference rows after them have an empty alpha.
+    rows = all.filter((r) => r.alpha !== '');
+    references = all.filter((r) => r.alpha === '');
   });
+  let references: Record<string, string>[] = [];
 
-  it('the diamond marks the row of sweep.csv with the highest profit', () => {
+  it('one marker per rule on the row of sweep.csv with the highest profit under that rule; the reference rows as guides', () => {
     expect(labelledCharts(html)).toHaveLength(5);
-    const best = rows.reduce((a, b) => (Number(b.profit) > Number(a.profit) ? b : a));
     const marked = markTitles(chartSource(html, 'sweep-profit')).filter((t) => t.startsWith('most profitable'));
-    expect(marked).toHaveLength(1);
-    expect(marked[0]).toContain(`alpha ${best.alpha}, ${best.policy}, ${best.unaccepted}`);
-    expect(shownNumber(/: (\S+) HLV$/.exec(marked[0] as string)?.[1] ?? 'NaN')).toBeCloseTo(Number(best.profit), 2);
+    expect(marked).toHaveLength(2);
+    for (const rule of ['follow-plan', 'follow-accepted']) {
+      const best = rows.filter((r) => r.unaccepted === rule).reduce((a, b) => (Number(b.profit) > Number(a.profit) ? b : a));
+      const mark = marked.find((t) => t.startsWith(`most profitable, ${rule}:`)) as string;
+      expect(mark).toContain(`alpha ${best.alpha}, ${best.policy}, ${best.unaccepted}`);
+      expect(shownNumber(/: (\S+) HLV$/.exec(mark)?.[1] ?? 'NaN')).toBeCloseTo(Number(best.profit), 2);
+    }
+    expect(references.map((r) => [r.policy, r.unaccepted])).toEqual(['follow-plan', 'follow-accepted'].flatMap((u) => ['point', 'price-taking', 'perfect-foresight'].map((p) => [p, u])));
+    const shown = tableRows(html, 'Reference policies per unaccepted rule');
+    shown.forEach((r, i) => expect(shownNumber(r[2] as string)).toBeCloseTo(Number(references[i]?.profit), 0));
   });
 
   it('every profit point and acceptance share equals its row of sweep.csv', () => {

@@ -78,7 +78,7 @@ describe('evaluateBids', () => {
 
   it('refuses bids of another length than the scenario set, and a curve under follow-plan', () => {
     const scenarios = scenarioSet([[10, 20]], [[10, 20]], [[10, 20]]);
-    const battery = { energyMwh: 1, chargeMw: 1, dischargeMw: 1, chargeEfficiency: 1, dischargeEfficiency: 1, socMinMwh: 0, socMaxMwh: 1, socInitialMwh: 0.5, socFinalMinMwh: undefined, maxDischargeMwhPerDay: undefined, degradationCostPerMwh: 0 };
+    const battery = { energyMwh: 1, chargeMw: 1, dischargeMw: 1, chargeEfficiency: 1, dischargeEfficiency: 1, socMinMwh: 0, socMaxMwh: 1, socInitialMwh: 0.5, socFinalMinMwh: undefined, maxFromStoreMwhPerDay: undefined, degradationCostPerMwh: 0 };
     const curve: PeriodOrder[] = [{ side: 'buy', quantityMw: 1, limitPrice: 15 }];
     expect(() => evaluateBids({ bids: [null], scenarios, battery, periodHours: 1, socStartMwh: 0.5, unaccepted: 'follow-plan' })).toThrow(RangeError);
     expect(() => evaluateBids({ bids: [curve, null], scenarios, battery, periodHours: 1, socStartMwh: 0.5, unaccepted: 'follow-plan' })).toThrow(RangeError);

@@ -21,7 +21,7 @@ const battery: BatteryModel = Object.freeze({
   socMaxMwh: 9,
   socInitialMwh: 4,
   socFinalMinMwh: undefined,
-  maxDischargeMwhPerDay: undefined,
+  maxFromStoreMwhPerDay: undefined,
   degradationCostPerMwh: 2,
 });
 const PENALTY = 10;
@@ -127,6 +127,16 @@ const week: readonly HandDay[] = [
 // follow-accepted 252 + 84.8 - 50 + 334.2 + 0 + 221.6 + 19.6 = 862.2.
 const WEEK_PROFIT: Record<UnacceptedRule, number> = { 'follow-plan': 896, 'follow-accepted': 862.2 };
 
+// The imbalance figures of the week by hand. Under clearing +- 10 every MWh at the imbalance price costs
+// exactly 10 against the clearing price. follow-plan: unaccepted orders on day 2 (buy 5), day 3 (sell 4) and
+// day 5 (buy 5, sell 3.2): 17.2 MWh, cost 172; gross cash -225 + 140 - 300 + 256 = -129; no deliberate
+// imbalance (the store never runs out). follow-accepted: only deliberate imbalance, day 2 (2.4 MWh bought
+// back at 80: -192) and day 4 (5 MWh sold back at 2: +10): 7.4 MWh in 2 periods, cash -182, cost 74.
+const WEEK_IMBALANCE: Record<UnacceptedRule, { gross: number; cost: number; deliberateMwh: number; deliberatePeriods: number; deliberateCash: number }> = {
+  'follow-plan': { gross: -129, cost: 172, deliberateMwh: 0, deliberatePeriods: 0, deliberateCash: 0 },
+  'follow-accepted': { gross: -182, cost: 74, deliberateMwh: 7.4, deliberatePeriods: 2, deliberateCash: -182 },
+};
+
 function settleWeek(unaccepted: UnacceptedRule) {
   let soc = battery.socInitialMwh;
   return week.map((day) => {
@@ -162,6 +172,17 @@ describe.each(['follow-plan', 'follow-accepted'] as const)('a hand-settled week,
   it('carries the state of charge from day to day and totals the week', () => {
     settled.slice(1).forEach((day, d) => expect(day.socStartMwh).toBe((settled[d] as { socEndMwh: number }).socEndMwh));
     expect(settled.reduce((sum, day) => sum + day.totals.profit, 0)).toBeCloseTo(WEEK_PROFIT[unaccepted], 9);
+  });
+
+  it('totals the gross imbalance cash, its cost against the clearing price and the deliberate imbalance', () => {
+    const week = (key: 'imbalanceCash' | 'imbalanceCostVsClearing' | 'deliberateImbalanceMwh' | 'deliberateImbalancePeriods' | 'deliberateImbalanceCash') =>
+      settled.reduce((sum, day) => sum + day.totals[key], 0);
+    const expected = WEEK_IMBALANCE[unaccepted];
+    expect(week('imbalanceCash')).toBeCloseTo(expected.gross, 9);
+    expect(week('imbalanceCostVsClearing')).toBeCloseTo(expected.cost, 9);
+    expect(week('deliberateImbalanceMwh')).toBeCloseTo(expected.deliberateMwh, 9);
+    expect(week('deliberateImbalancePeriods')).toBe(expected.deliberatePeriods);
+    expect(week('deliberateImbalanceCash')).toBeCloseTo(expected.deliberateCash, 9);
   });
 });
 

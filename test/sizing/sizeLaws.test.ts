@@ -112,10 +112,13 @@ describe('sizeEconomics against closed forms', () => {
 
   it('pays a cell replacement in each year the cells reach their life in cycles before the end of life', () => {
     // 500 cycles a year and cells of 2000 cycles: they run out at 4, 8 and 12 years (16 is past the life).
+    // The set bought at 12 years lasts 4 and has 1 of them left at 15: residual value 1/4 of a replacement
+    // (straight-line), credited in year 15.
     const e = sizeEconomics(size, totals, { ...costs, lifeCycles: 2000 });
     const replacement = 20 * 30_000;
     expect(e.replacements).toBe(3);
-    const closedForm = -800_000 + 140_000 * annuity(0.07, 15) - replacement * (1.07 ** -4 + 1.07 ** -8 + 1.07 ** -12);
+    expect(e.residualValue).toBeCloseTo(replacement / 4, 6);
+    const closedForm = -800_000 + 140_000 * annuity(0.07, 15) - replacement * (1.07 ** -4 + 1.07 ** -8 + 1.07 ** -12) + (replacement / 4) * 1.07 ** -15;
     expect(e.npv).toBeCloseTo(closedForm, 6);
   });
 
@@ -199,7 +202,7 @@ describe('scaledBatterySpec', () => {
     expect(scaledBatterySpec(spec, { energyMwh: 30, powerMw: 12 })).toEqual({ ...spec, energyMwh: 30, chargeMw: 12, dischargeMw: 12 });
     const model = batteryModel(scaledBatterySpec(spec, { energyMwh: 30, powerMw: 12 }));
     // The cycle cap is per usable MWh: 2 x (0.95 - 0.05) x 30 MWh.
-    expect(model.maxDischargeMwhPerDay).toBeCloseTo(54, 12);
+    expect(model.maxFromStoreMwhPerDay).toBeCloseTo(54, 12);
   });
 
   it('replaces split efficiencies by a given round trip, split as its square root', () => {

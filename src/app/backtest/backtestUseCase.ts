@@ -1,8 +1,10 @@
 import { z } from 'zod';
 import { batteryModel } from '../../battery/batterySpec.js';
-import { backtestMetrics } from '../../backtest/backtestMetrics.js';
+import { backtestMetrics, type BacktestMetrics } from '../../backtest/backtestMetrics.js';
+import { exchangeSteps, withoutExchangeSteps } from '../../plan/exchangeRounding.js';
+import type { UnacceptedRule } from '../../settle/settleDay.js';
 import { BACKTEST_POLICIES, DEFAULT_BACKTEST_POLICIES, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
-import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay } from '../../backtest/runBacktest.js';
+import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay, type BacktestInput } from '../../backtest/runBacktest.js';
 import { daysBetween } from '../../market/calendar.js';
 import { LEDGER_COLUMNS, daysCsv, ledgerRows } from '../../io/backtestOutputs.js';
 import { jsonText } from '../../io/planOutputs.js';
@@ -27,7 +29,7 @@ export const backtestSettingsSchema = z
     /** First and last delivery day, YYYY-MM-DD, both included. */
     from: daySchema,
     to: daySchema,
-    /** Central interval [q(alpha), q(1 - alpha)] of the quantile and median policies; default 0.1. */
+    /** Tail level of the quantile and median policies (buys limited at q(1 - alpha), sells at q(alpha)); default 0.1. */
     alpha: alphaSchema.default(BACKTEST_DEFAULTS.alpha),
     /** What the battery does about unaccepted orders; default follow-plan. */
     unaccepted: unacceptedRuleSchema.default(BACKTEST_DEFAULTS.unaccepted),
@@ -83,14 +85,37 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
     const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay, scenarioPlanning });
     progress.finish();
     const metrics = backtestMetrics(result, battery);
+    const unrounded = unroundedMetrics(s, { market, battery, history, forecast }, hooks);
     const inputs = inputsShown(paths, s.model);
-    const summary: BacktestSummary = { ...backtestSummary(result, metrics, { market, battery, inputs }), ...(model === undefined ? {} : { forecastModel: model.summary }) };
+    const context = { market, battery, inputs, ...(unrounded === undefined ? {} : { unrounded }) };
+    const summary: BacktestSummary = { ...backtestSummary(result, metrics, context), ...(model === undefined ? {} : { forecastModel: model.summary }) };
     stage.write('days.csv', daysCsv(result));
     stage.write('summary.json', jsonText(summary));
     if (s.report) stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
     stage.commit();
-    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs)}${model?.note ?? ''}` };
+    if (summary.yearlyFigures.warning !== null) hooks.note(`warning: ${summary.yearlyFigures.warning}\n`);
+    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded)}${model?.note ?? ''}` };
   } finally {
     stage.discard();
   }
+}
+
+/**
+ * With order steps in the market spec the backtest's orders are rounded to them; the same backtest on the
+ * market spec without the steps (orders as planned) gives the reference for the loss from rounding. None
+ * without steps (nothing is run twice).
+ */
+function unroundedMetrics(
+  s: { readonly from: string; readonly to: string; readonly alpha: number; readonly unaccepted: UnacceptedRule; readonly policies: readonly BacktestPolicy[] },
+  data: Omit<BacktestInput, 'from' | 'to'>,
+  hooks: RunHooks,
+): BacktestMetrics | undefined {
+  if (exchangeSteps(data.market) === null) return undefined;
+  const progress = hooks.progress('backtest without rounding', daysBetween(s.from, s.to).length);
+  const result = runBacktest(
+    { ...data, market: withoutExchangeSteps(data.market), from: s.from, to: s.to },
+    { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, keepLedger: false, onDay: ({ done }) => progress.update(done) },
+  );
+  progress.finish();
+  return backtestMetrics(result, data.battery);
 }

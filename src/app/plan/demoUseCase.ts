@@ -18,9 +18,23 @@ export function demoScenarioPath(): string {
   return relative(process.cwd(), fileURLToPath(new URL('scenarios/halvorn/scenario.json', packageRoot())));
 }
 
-/** `quantbid demo`: the plan of the shipped fictional market's demo day (planUseCase with the defaults). */
+/**
+ * `quantbid demo`: the plan of the shipped fictional market's demo day (planUseCase with the
+ * defaults), with every order listed, the price-taking plan of the day beside it, and the next
+ * command to try: a backtest of the same policies over the first quarter of 2026.
+ */
 export function demoUseCase(settings: DemoSettings, hooks: RunHooks = QUIET_HOOKS): Done<PlanSummary> {
   const scenario = demoScenarioPath();
   hooks.note(`demo: fictional market Halvorn (${scenario})\n`);
-  return planUseCase({ inputs: { scenario }, ...PLAN_DEFAULTS, ...settings }, hooks);
+  const done = planUseCase({ inputs: { scenario }, ...PLAN_DEFAULTS, ...settings, listOrders: true }, hooks);
+  return { ...done, text: `${done.text}${demoNextSteps(scenario)}` };
+}
+
+/** What to try after the demo: the backtest that says whether this policy beats the simple baselines. */
+export function demoNextSteps(scenario: string): string {
+  return [
+    'next: does this policy beat the simple baselines over many days? Replay it:',
+    `  quantbid backtest --scenario ${scenario} --from 2026-01-01 --to 2026-03-31 --out runs/demo-q1 --report`,
+    '',
+  ].join('\n');
 }

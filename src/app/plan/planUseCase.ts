@@ -3,10 +3,12 @@ import { batteryModel } from '../../battery/batterySpec.js';
 import { gatherProblems, InputError, throwIfProblems, type InputProblem } from '../../errors/inputError.js';
 import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
 import { readQuantileForecast, type QuantileForecastFile } from '../../io/readQuantileForecast.js';
+import { readPriceHistory } from '../../io/readPriceHistory.js';
 import { readBatterySpec, readMarketSpec } from '../../io/readSpecs.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { PLAN_POLICIES } from '../../plan/alpha.js';
-import { planDay } from '../../plan/planDay.js';
+import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
+import { planDay, type PlanResult } from '../../plan/planDay.js';
 import { planReport } from '../../report/planReport.js';
 import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
 import type { UnacceptedRule } from '../../settle/unacceptedRule.js';
@@ -18,7 +20,7 @@ import type { ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
 import { scenarioSettingsSchema, type ScenarioSettings } from '../scenarios/scenarioSettings.js';
 import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { SCENARIO_PLAN_OUTPUTS, scenarioPlan, type ScenarioPlanSummary } from './scenarioPlan.js';
-import { planSummary, planSummaryText } from './planSummary.js';
+import { planSummary, planSummaryText, planWarnings, planWorth, type PlanWorth } from './planSummary.js';
 
 /** The policies of `quantbid plan`: the schedule policies, and curve and auto on whole-day scenarios. */
 export const PLAN_COMMAND_POLICIES = Object.freeze([...PLAN_POLICIES, 'curve', 'auto'] as const);
@@ -33,7 +35,7 @@ export const planSettingsSchema = z.strictObject({
   inputs: inputSourcesSchema,
   /** Delivery day to plan, YYYY-MM-DD; default the scenario's demoDay. */
   day: daySchema.optional(),
-  /** Central interval [q(alpha), q(1 - alpha)]; default 0.1. */
+  /** Tail level: buys limited at q(1 - alpha), sells at q(alpha); default 0.1. */
   alpha: alphaSchema.default(PLAN_DEFAULTS.alpha),
   /** Planning policy; default quantile. */
   policy: z.enum(PLAN_COMMAND_POLICIES as readonly PlanCommandPolicy[] as [PlanCommandPolicy, ...PlanCommandPolicy[]]).default(PLAN_DEFAULTS.policy),
@@ -41,7 +43,11 @@ export const planSettingsSchema = z.strictObject({
   scenarios: scenarioSettingsSchema.optional(),
   /** What the battery does about unaccepted orders: auto scores its candidates under it. Default follow-plan. */
   unaccepted: unacceptedRuleSchema.default(PLAN_DEFAULTS.unaccepted),
-  /** State of charge at the start of the day [MWh]; default socInitialFraction x energyMwh. */
+  /**
+   * State of charge at the start of the day [MWh]; default socInitialFraction x energyMwh. Outside the
+   * battery's window it is accepted with a warning, and the plan first comes back into the window
+   * (not with curve or auto, which start inside it).
+   */
   socStartMwh: z.number().finite().min(0).optional(),
   /** Folder for orders.csv, schedule.csv, plan.json (and report.html); none: nothing is written. */
   out: outFolderSchema.optional(),
@@ -49,6 +55,8 @@ export const planSettingsSchema = z.strictObject({
   force: z.boolean().default(false),
   /** Also write report.html (needs `out`). */
   report: z.boolean().default(false),
+  /** List every order in the printed summary (the demo does). */
+  listOrders: z.boolean().default(false),
 });
 
 export type PlanSettings = z.input<typeof planSettingsSchema>;
@@ -70,7 +78,7 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
   if (onScenarios && s.scenarios === undefined) {
     throw new InputError([{ file: 'command line', field: '--paths', message: `the ${s.policy} policy plans on whole-day price paths and none were given`, fix: 'give --paths FILE (quantbid forecast --paths 364 writes one)' }]);
   }
-  const { paths, demoDay } = inputFiles(s.inputs, ['market', 'battery', 'forecast'], onScenarios ? ['history'] : []);
+  const { paths, demoDay } = inputFiles(s.inputs, ['market', 'battery', 'forecast'], ['history']);
   const day = s.day ?? demoDay;
   if (day === undefined) {
     throw new InputError([{ file: 'command line', field: '--day', message: 'no delivery day given', fix: 'give --day YYYY-MM-DD' }]);
@@ -83,11 +91,14 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
   const { market, battery, forecastFile } = readPlanInputs(paths, (text) => hooks.note(text));
   const forecast = forecastDay(forecastFile, day);
   const socStartMwh = s.socStartMwh ?? battery.socInitialMwh;
-  if (s.socStartMwh !== undefined && (socStartMwh < battery.socMinMwh || socStartMwh > battery.socMaxMwh)) {
-    throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is outside the battery's window [${battery.socMinMwh}, ${battery.socMaxMwh}] MWh`, fix: 'give a state of charge inside the window' }]);
+  if (socStartMwh > battery.energyMwh) {
+    throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is more than the battery's energy ${battery.energyMwh} MWh`, fix: 'give the energy in store now, at most energyMwh' }]);
   }
   throwIfProblems(forecastLevelProblems(forecastFile.levels, forecastFile.file, { policies: [s.policy], alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policy' }));
   if (s.policy === 'curve' || s.policy === 'auto') {
+    if (socStartMwh < battery.socMinMwh || socStartMwh > battery.socMaxMwh) {
+      throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is outside the battery's window [${battery.socMinMwh}, ${battery.socMaxMwh}] MWh, where ${s.policy} plans`, fix: 'give a start inside the window, or plan the way back with another policy first' }]);
+    }
     if (tools.lpSolver === undefined) throw new Error(`planUseCase: the ${s.policy} policy needs tools.lpSolver (loadHighsSolver)`);
     const inputs: Record<string, string> = { ...paths };
     return scenarioPlan(
@@ -99,7 +110,13 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
   if (result.status !== 'optimal') {
     throw new InputError([{ file: paths.battery, message: `no feasible plan for ${day}: ${result.reason}`, fix: 'check the battery spec and --soc-start' }]);
   }
-  const summary = planSummary(result, { day, policy: s.policy, alpha: s.alpha, paths, market, forecastFile });
+  // The imbalance price the orders expect: the market's rule, else the history's (read only then).
+  const history = market.imbalance === undefined && paths.history !== undefined ? readPriceHistory(paths.history, market, (text) => hooks.note(text)) : undefined;
+  const imbalance = imbalanceExpectation(market, history, day);
+  const worth = planWorth(result, forecast, market, battery, imbalance);
+  const baseline = s.policy === 'price-taking' ? null : baselineWorth({ forecast, market, battery, alpha: s.alpha, socStartMwh }, imbalance);
+  const warnings = planWarnings(result, battery, market.currency, worth.losingPairs);
+  const summary = planSummary(result, { day, policy: s.policy, alpha: s.alpha, paths, market, forecastFile, worth, baseline, warnings });
   if (s.out !== undefined) {
     writeOutputs(
       s.out,
@@ -107,17 +124,27 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
         { name: 'orders.csv', text: ordersCsv(result.orders) },
         { name: 'schedule.csv', text: scheduleCsv(forecast.periods, result.outcome.schedule) },
         { name: 'plan.json', text: jsonText(summary) },
-        ...(s.report ? [{ name: 'report.html', text: planReport({ day, policy: s.policy, alpha: s.alpha, market, forecast, plan: result, inputs: paths }) }] : []),
+        ...(s.report
+          ? [{ name: 'report.html', text: planReport({ day, policy: s.policy, alpha: s.alpha, market, forecast, plan: result, inputs: paths, worth: { ifFilledAtLimits: worth.ifFilledAtLimits, expected: worth.expected?.value ?? null, baselineExpected: baseline?.expected?.value ?? null } }) }]
+          : []),
       ],
       s.force,
       ['report.html'],
     );
   }
   // Repaired, not refused (docs/design.md section 6); a note, so that --json output stays clean.
-  if (forecastFile.repairedPeriods > 0) {
-    hooks.note(`note: ${paths.forecast}: ${forecastFile.repairedPeriods} periods had crossing quantiles, sorted into order (monotone rearrangement), e.g. ${forecastFile.repairedExamples[0] ?? ''}\n`);
+  const repaired = forecastFile.repairedByDay.get(day);
+  if (repaired !== undefined) {
+    hooks.note(`note: ${paths.forecast}: ${repaired.periods} of the ${forecast.periods.length} periods of ${day} had crossing quantiles, sorted into order (monotone rearrangement), e.g. ${repaired.example}\n`);
   }
-  return { status: 'done', summary, text: planSummaryText(result, forecast, market, day, s, s.out, outputs) };
+  for (const warning of warnings) hooks.warn(`warning: ${warning.message}\n`);
+  return { status: 'done', summary, text: planSummaryText(result, forecast, market, day, s, s.out, outputs, { worth, baseline, warnings, listOrders: s.listOrders }) };
+}
+
+/** The price-taking plan of the same day valued like the plan: the simplest baseline a plan is compared with. */
+function baselineWorth(request: Omit<Parameters<typeof planDay>[0], 'policy'>, imbalance: ReturnType<typeof imbalanceExpectation>): PlanWorth | null {
+  const plan: PlanResult = planDay({ ...request, policy: 'price-taking' });
+  return plan.status === 'optimal' ? planWorth(plan, request.forecast, request.market, request.battery, imbalance) : null;
 }
 
 /**

@@ -1,14 +1,15 @@
 import type { ForecastComparison } from '../../forecast/scoring/compareForecasts.js';
 import type { IntervalCoverage, ScoreTable, Scores } from '../../forecast/scoring/scoreForecasts.js';
 import type { ScoreSummaryInput } from '../../report/scoreReport.js';
-import { formatNumber } from '../../io/formatNumber.js';
+import { formatNumber, formatPValue } from '../../io/formatNumber.js';
+import { studentTCdf } from '../../stats/studentTCdf.js';
 import { levelText } from '../../io/quantileForecastCsv.js';
 
 /** Significance level at which byPeriod rejections are counted [-]. */
 const TEST_LEVEL = 0.05;
 
 const NOTES = [
-  'crps: the mean pinball loss over the levels and periods; the factor 2 is NOT included, so it approximates CRPS / 2 (multiply by 2 to compare with a CRPS) [currency/MWh]',
+  'crps: the mean pinball loss over the levels and every scored period, each period counting once (a 100-period day weighs 100/96 of a 96-period one); the factor 2 is NOT included, so it approximates CRPS / 2 (multiply by 2 to compare with a CRPS) [currency/MWh]',
   'pinball.<level>: mean pinball loss rho_tau(y - q) = (y - q)(tau - 1{y < q}) over the periods [currency/MWh]',
   'coverage.<c>: share of realised prices y with q((1 - c) / 2) <= y <= q((1 + c) / 2), for each central interval whose two levels are in the forecast',
   'calibration.<level>: share of realised prices strictly below the quantile at that level (a calibrated forecast: the level)',
@@ -21,7 +22,7 @@ const NOTES = [
 export function scoreSummary(input: ScoreSummaryInput) {
   const { table } = input;
   return {
-    notes: input.comparison === null ? NOTES : [...NOTES, 'dieboldMariano: d = daily crps of --forecast minus daily crps of --against, on the days both forecast; crpsForecast and crpsAgainst are the means of the daily crps (each day counts once, whatever its number of periods); HLN-corrected DM with h = 1 referred to t(n - 1); pValueAgainstBetter tests E[d] > 0, pValueForecastBetter E[d] < 0'],
+    notes: input.comparison === null ? NOTES : [...NOTES, 'dieboldMariano: on the days both forecast, d = daily loss of --forecast minus that of --against, a day\'s loss being its crps summed over its periods divided by the mean number of periods per day, so that crpsForecast and crpsAgainst (the means of the daily losses) are the crps of those days as defined above; HLN-corrected DM with h = 1 referred to t(n - 1); pValueAgainstBetter tests E[d] > 0, pValueForecastBetter E[d] < 0; better names the forecast with the lower crps'],
     inputs: { ...input.inputs },
     currency: input.currency,
     levels: [...table.levels],
@@ -83,10 +84,11 @@ function comparisonJson(c: ForecastComparison) {
     days: c.days,
     crpsForecast: c.lossFirst,
     crpsAgainst: c.lossSecond,
+    better: c.lossFirst < c.lossSecond ? 'forecast' : c.lossFirst > c.lossSecond ? 'against' : 'neither',
     status: t.status,
     meanDifference: t.meanDifference,
     ...(t.status === 'ok'
-      ? { dm: t.dm, hln: t.hln, degreesOfFreedom: t.degreesOfFreedom, pValueTwoSided: t.pValueTwoSided, pValueAgainstBetter: t.pValueOneSided, pValueForecastBetter: 1 - t.pValueOneSided }
+      ? { dm: t.dm, hln: t.hln, degreesOfFreedom: t.degreesOfFreedom, pValueTwoSided: t.pValueTwoSided, pValueAgainstBetter: t.pValueOneSided, pValueForecastBetter: studentTCdf(t.hln, t.degreesOfFreedom) }
       : { reason: t.reason }),
   };
 }
@@ -95,7 +97,7 @@ function comparisonJson(c: ForecastComparison) {
 export function scoreSummaryText(summary: ReturnType<typeof scoreSummary>, out: string, written: readonly string[] = ['score.json']): string {
   const pct = (x: number) => `${formatNumber(100 * x, 2)}%`;
   const money = (x: number) => `${formatNumber(x, 4)} ${summary.currency}/MWh`;
-  const p = (x: number) => (x < 1e-4 ? '<0.0001' : formatNumber(x, 4));
+  const p = formatPValue;
   const lines = [
     `scored ${summary.days.scored} days (${summary.days.first} to ${summary.days.last}), ${summary.periods} periods; ${summary.days.unscored} forecast days not scored`,
     `  crps (mean pinball, = CRPS/2): ${money(summary.crps)}`,
@@ -107,9 +109,11 @@ export function scoreSummaryText(summary: ReturnType<typeof scoreSummary>, out: 
   ];
   const dm = summary.dieboldMariano;
   if (dm !== null) {
+    const which = dm.better === 'forecast' ? 'this forecast is better (lower crps)' : dm.better === 'against' ? 'the --against forecast is better (lower crps)' : 'neither is better';
+    const oneSided = 'hln' in dm ? (dm.better === 'against' ? dm.pValueAgainstBetter : dm.pValueForecastBetter) : null;
     lines.push(
-      `  --against: daily crps ${money(dm.crpsAgainst)}, this forecast's ${money(dm.crpsForecast)}, on ${dm.days} common days; ` +
-        ('hln' in dm ? `Diebold-Mariano (HLN) ${formatNumber(dm.hln, 3)}, p two-sided ${p(dm.pValueTwoSided)}` : `Diebold-Mariano not defined: ${dm.reason}`),
+      `  --against: crps ${money(dm.crpsAgainst)}, this forecast's ${money(dm.crpsForecast)}, on ${dm.days} common days: ${which}; ` +
+        ('hln' in dm ? `Diebold-Mariano (HLN) ${formatNumber(dm.hln, 3)}, one-sided p = ${p(oneSided as number)} that it is, two-sided ${p(dm.pValueTwoSided)}` : `Diebold-Mariano not defined: ${dm.reason}`),
     );
   }
   lines.push(`  wrote ${out}/${written.join(', ')}`);

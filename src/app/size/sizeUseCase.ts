@@ -20,7 +20,7 @@ import type { SizeTaskInput } from './sizeTask.js';
 
 /** Defaults: the quantile policy at alpha 0.1, the grid of `--alpha best`, follow-plan, no fixed O&M. */
 export const SIZE_DEFAULTS = Object.freeze({
-  policy: 'quantile',
+  policies: 'quantile',
   alpha: 0.1,
   alphas: '0.05:0.45:0.05',
   unaccepted: 'follow-plan' as const,
@@ -28,7 +28,7 @@ export const SIZE_DEFAULTS = Object.freeze({
 });
 
 /** The size axes and the alphas of `--alpha best` from their text, every problem listed together; an axis whose text is undefined is left out. */
-export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly powerMw?: string; readonly efficiency?: string; readonly alphas?: string; readonly policy: string }) {
+export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly powerMw?: string; readonly efficiency?: string; readonly alphas?: string; readonly policies: string; readonly policiesOption?: string }) {
   const numbers = (name: string, option: string, spec: string | undefined, accept: (x: number) => boolean, expected: string) =>
     spec === undefined ? [] : [() => parseNumberAxis(name, option, spec, { accept, expected })];
   const axes = parseAxes([
@@ -36,7 +36,7 @@ export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly p
     ...numbers('power_mw', '--power-mw', text.powerMw, (x) => x > 0, 'a number > 0'),
     ...numbers('round_trip_efficiency', '--efficiency', text.efficiency, (x) => x > 0 && x <= 1, 'an efficiency in (0, 1]'),
     ...numbers('alpha', '--alphas', text.alphas, isAlpha, `an alpha in ${ALPHA_RANGE}`),
-    () => parseWordAxis('policy', '--policy', text.policy, SIZE_POLICIES),
+    () => parseWordAxis('policy', text.policiesOption ?? '--policies', text.policies, SIZE_POLICIES),
   ]);
   const values = (name: string) => axes.find((axis) => axis.name === name)?.values;
   const numbersOf = (name: string) => (values(name) as readonly number[] | undefined)?.slice();
@@ -49,9 +49,17 @@ export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly p
   };
 }
 
+/**
+ * The policy axis of size.csv: the policies asked for, then the baselines every size is read against,
+ * price-taking (unless asked for) and perfect-foresight.
+ */
+export function sizePolicyAxis(policies: readonly (typeof SIZE_POLICIES)[number][]): SizePolicy[] {
+  return [...policies, ...(policies.includes('price-taking') ? [] : ['price-taking' as const]), 'perfect-foresight'];
+}
+
 /** The alphas `--alpha best` chooses from when none are given: SIZE_DEFAULTS.alphas. */
 function defaultBestAlphas(): number[] {
-  return sizeAxesFromText({ alphas: SIZE_DEFAULTS.alphas, policy: SIZE_DEFAULTS.policy }).alphas ?? [];
+  return sizeAxesFromText({ alphas: SIZE_DEFAULTS.alphas, policies: SIZE_DEFAULTS.policies }).alphas ?? [];
 }
 
 /** `--alpha best` chooses on the first half of the days and scores on the second: it needs two days or more. */
@@ -82,7 +90,7 @@ export const sizeSettingsSchema = z
     powersMw: eachOnce(z.number().finite().gt(0)),
     /** Round-trip efficiencies in (0, 1]; default the battery spec's. */
     efficiencies: eachOnce(z.number().gt(0).lte(1)).optional(),
-    /** Policies scored; perfect-foresight rows are always added. */
+    /** Policies scored; price-taking and perfect-foresight rows are always added (the baselines every size is read against). */
     policies: eachOnce(z.enum(SIZE_POLICIES)),
     /** Alpha of the quantile and median policies, or `best`: chosen per size on the first half of the days. */
     alpha: z.union([alphaSchema, z.literal('best')]).default(SIZE_DEFAULTS.alpha),
@@ -116,15 +124,15 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
   const costs: SizeCosts = s.costs;
   const alpha: AlphaMode = s.alpha === 'best' ? { method: 'best', alphas: s.alphas ?? defaultBestAlphas() } : { method: 'fixed', alpha: s.alpha };
   const alphas = alpha.method === 'fixed' ? [alpha.alpha] : alpha.alphas;
-  const { paths, data, model } = readGridInputs(s, 'size.csv', { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policy' }, hooks);
+  const { paths, data, model } = readGridInputs(s, 'size.csv', { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policies' }, hooks);
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
   const axes = [
     { name: 'energy_mwh', option: '--energy-mwh', values: s.energiesMwh },
     { name: 'power_mw', option: '--power-mw', values: s.powersMw },
     { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
-    { name: 'policy', option: '--policy', values: [...s.policies, 'perfect-foresight'] as SizePolicy[] },
+    { name: 'policy', option: '--policies', values: sizePolicyAxis(s.policies) },
   ] as const;
-  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, from, to, policyOption: '--policy' });
+  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, from, to, policyOption: '--policies' });
   // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
   // spread is learnt from the history before each day): none reads or parses a file again.
   const contextInput: SizeTaskInput = {
@@ -132,7 +140,7 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
     data: scenarios === undefined ? inputDataSpan(data, from, to) : data,
     ...(scenarios === undefined ? {} : { scenarios }),
   };
-  return runGridCommand(
+  const outcome = await runGridCommand(
     {
       command: 'size',
       run: s,
@@ -149,4 +157,6 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
     },
     hooks,
   );
+  if (outcome.status === 'done' && outcome.summary.yearlyFigures.warning !== null) hooks.note(`warning: ${outcome.summary.yearlyFigures.warning}\n`);
+  return outcome;
 }

@@ -1,5 +1,6 @@
 import { z } from 'zod';
-import { SWEEP_POLICIES, type SweepResult } from '../../backtest/sweepSettingRow.js';
+import { batteryModel } from '../../battery/batterySpec.js';
+import { SWEEP_POLICIES, sweepReferenceRows, type SweepReferenceRow, type SweepResult } from '../../backtest/sweepSettingRow.js';
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
@@ -34,7 +35,7 @@ export const sweepSettingsSchema = z
     /** First and last delivery day, YYYY-MM-DD, both included. */
     from: daySchema,
     to: daySchema,
-    /** The alpha axis, each alpha in (0, 0.5). */
+    /** The alpha axis: tail levels, each in (0, 0.5). */
     alphas: eachOnce(alphaSchema),
     /** The policy axis: quantile and median, whose orders depend on alpha, and curve and auto, which ignore it. */
     policies: eachOnce(z.enum(SWEEP_POLICIES)),
@@ -67,7 +68,12 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
   const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, from, to, policyOption: '--policies' });
   // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
   // spread is learnt from the history before each day): none reads or parses a file again.
-  const contextInput: SweepTaskInput = { paths, from, to, data: scenarios === undefined ? inputDataSpan(data, from, to) : data, ...(scenarios === undefined ? {} : { scenarios }) };
+  const span = inputDataSpan(data, from, to);
+  const contextInput: SweepTaskInput = { paths, from, to, data: scenarios === undefined ? span : data, ...(scenarios === undefined ? {} : { scenarios }) };
+  // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
+  let references: SweepReferenceRow[] | undefined;
+  const referenceRows = (): SweepReferenceRow[] =>
+    (references ??= sweepReferenceRows({ market: span.market, battery: batteryModel(span.batterySpec), history: span.history, forecast: span.forecast, from, to }, s.unaccepted));
   return runGridCommand(
     {
       command: 'sweep',
@@ -79,7 +85,8 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
       paths,
       moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
       model,
-      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, ...modelContext }),
+      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext }),
+      moreRows: () => referenceRows(),
       report: (results, summary) => sweepReport({ results, summary }),
       summaryText: sweepSummaryText,
     },

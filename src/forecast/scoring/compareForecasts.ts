@@ -23,7 +23,10 @@ export function dailyLoss(scored: ScoredDay): number {
 export interface ForecastComparison {
   /** Days compared [-]. */
   readonly days: number;
-  /** Mean daily loss of the first and of the second forecast [currency/MWh]. */
+  /**
+   * The crps of the first and of the second forecast over the compared days, each period counting
+   * once (the definition of `crps` everywhere): the mean of the weighted daily losses [currency/MWh].
+   */
   readonly lossFirst: number;
   readonly lossSecond: number;
   /** Diebold-Mariano test with the HLN correction on d = L_first - L_second, horizon 1. */
@@ -31,11 +34,17 @@ export interface ForecastComparison {
 }
 
 /**
- * Diebold-Mariano comparison of two quantile forecasts of the same delivery days on their daily mean
- * pinball loss (see dailyLoss), with the Harvey-Leybourne-Newbold correction and horizon h = 1: each
- * day's forecast is made the day before, so the loss differences of a correctly specified forecast
- * form no moving average. d_t = L_first(t) - L_second(t): d > 0 on average means the second forecast
- * is better; the one-sided p-value of the result is for that alternative.
+ * Diebold-Mariano comparison of two quantile forecasts of the same delivery days on their daily
+ * losses, with the Harvey-Leybourne-Newbold correction and horizon h = 1: each day's forecast is made
+ * the day before, so the loss differences of a correctly specified forecast form no moving average.
+ * d_t = L_first(t) - L_second(t): d > 0 on average means the second forecast is better; the one-sided
+ * p-value of the result is for that alternative.
+ *
+ * One crps per forecast: `crps` is the mean over every period (and level), so a 100-period day weighs
+ * 100/96 of a 96-period one. The daily loss is therefore the day's crps summed over its periods and
+ * divided by the mean number of periods per compared day, L(t) = T_t dailyLoss(t) / Tbar: its mean
+ * over the days is exactly the crps of those days (lossFirst, lossSecond), and on days of equal
+ * length it is dailyLoss itself.
  *
  * References: F. X. Diebold and R. S. Mariano (1995), J. Business & Economic Statistics 13(3),
  * 253-263; D. Harvey, S. Leybourne and P. Newbold (1997), Int. J. Forecasting 13(2), 281-291 (see
@@ -57,8 +66,10 @@ export function compareForecasts(first: readonly ScoredDay[], second: readonly S
       throw new ForecastInputError(`second[${d}].forecast.levels`, 'the levels differ from those of the first forecast', 'compare forecasts made at the same levels');
     }
   });
-  const lossesFirst = first.map(dailyLoss);
-  const lossesSecond = second.map(dailyLoss);
+  const periodsPerDay = first.reduce((sum, day) => sum + day.realised.length, 0) / first.length;
+  const weighted = (day: ScoredDay): number => (dailyLoss(day) * day.realised.length) / periodsPerDay;
+  const lossesFirst = first.map(weighted);
+  const lossesSecond = second.map(weighted);
   const differences = lossesFirst.map((loss, d) => loss - (lossesSecond[d] as number));
   const lossFirst = mean(lossesFirst);
   const lossSecond = mean(lossesSecond);

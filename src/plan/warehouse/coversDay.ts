@@ -30,7 +30,7 @@ export function scalarGap(problem: DayProblem): string | null {
     Number.isFinite(b.degradationCostPerMwh) &&
     Number.isFinite(problem.terminalValuePerMwh ?? 0);
   if (!finite) return 'a state of charge, the wear cost or the terminal value is not a finite number';
-  const cap = b.maxDischargeMwhPerDay;
+  const cap = b.maxFromStoreMwhPerDay;
   if (cap !== undefined && !(cap >= 0 && Number.isFinite(cap))) return 'the cycle cap must be finite and >= 0';
   return null;
 }

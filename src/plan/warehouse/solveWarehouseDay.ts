@@ -93,7 +93,7 @@ export function solveWarehouseDay(problem: DayProblem, options: Partial<Warehous
     case 'start-unreachable':
       return { status: 'infeasible', reason: startReason(problem) };
     case 'cap-unreachable':
-      return { status: 'infeasible', reason: capReason(problem, ws.context.below.discharged * b.dischargeEfficiency) };
+      return { status: 'infeasible', reason: capReason(problem, ws.context.below.discharged) };
     case 'end-unreachable':
       return { status: 'infeasible', reason: endReason(problem, day) };
     default: {
@@ -190,7 +190,7 @@ function endReason(problem: DayProblem, day: StoredDay): string {
 }
 
 function capReason(problem: DayProblem, neededMwh: number): string {
-  return `the cycle cap of ${fmt(problem.battery.maxDischargeMwhPerDay ?? Infinity)} MWh discharged per day is below the ${fmt(neededMwh)} MWh the day must discharge to stay inside the window; raise the cap`;
+  return `the cycle cap of ${fmt(problem.battery.maxFromStoreMwhPerDay ?? Infinity)} MWh taken out of the store per day is below the ${fmt(neededMwh)} MWh the day must take out to stay inside the window; raise the cap`;
 }
 
 function fmt(x: number): string {

@@ -9,7 +9,7 @@ import type { Window } from './pwl.js';
  * Notes: with x_t = eta_c dt c_t [MWh put into the store] and y_t = dt d_t / eta_d [MWh taken out]
  *   s_t = s_{t-1} + x_t - y_t,   0 <= x_t <= X = eta_c dt chargeMw,   0 <= y_t <= Y = dt dischargeMw / eta_d,
  *   value = sum_t (q_t y_t - p_t x_t) + V s_T,   p_t = buy_t / eta_c,   q_t = (sell_t - deg) eta_d,
- *   cycle cap sum_t dt d_t <= cap  <=>  sum_t y_t <= cap / eta_d.
+ *   cycle cap sum_t dt d_t / eta_d = sum_t y_t <= cap (the cap counts energy taken out of the store).
  * p_t is the price of one stored MWh, q_t the net revenue of one stored MWh sold (after wear).
  *
  * Simultaneous flows. Replacing a pair x, y > 0 by its net, (x - y, 0) when x >= y or (0, y - x)
@@ -101,7 +101,7 @@ export function toStoredDay(problem: DayProblem, arrays?: StoredDayArrays): Stor
       arbitrage[t] = 0;
     }
   }
-  const cap = b.maxDischargeMwhPerDay;
+  const cap = b.maxFromStoreMwhPerDay;
   const eps = 1e-12 * Math.max(1, Math.abs(b.socMaxMwh), Math.abs(b.socMinMwh), chargeStepMwh, dischargeStepMwh);
   return {
     periods,
@@ -119,7 +119,7 @@ export function toStoredDay(problem: DayProblem, arrays?: StoredDayArrays): Stor
     window: { lo: b.socMinMwh, hi: b.socMaxMwh, eps },
     socEndFloorMwh: Math.max(b.socMinMwh, problem.socEndMinMwh),
     terminalValuePerMwh: problem.terminalValuePerMwh ?? 0,
-    dischargeCapMwh: cap === undefined ? Infinity : cap / b.dischargeEfficiency,
+    dischargeCapMwh: cap === undefined ? Infinity : cap,
     priceSum,
   };
 }

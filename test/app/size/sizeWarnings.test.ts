@@ -22,6 +22,12 @@ describe('sizeWarnings', () => {
     expect(warnings[1]).toMatch(/edge of the grid in --energy-mwh \(5 MWh\); extend/);
   });
 
+  it('says when a policy\'s best NPV is below the price-taking baseline\'s', () => {
+    const warnings = sizeWarnings([pick('quantile', 10, 5, 500), pick('price-taking', 10, 5, 900), pick('perfect-foresight', 10, 5, 5000)], axes);
+    expect(warnings).toEqual(["quantile: its highest NPV (500) is below price-taking's (900): at these costs the simplest baseline pays better"]);
+    expect(sizeWarnings([pick('quantile', 10, 5, 950), pick('price-taking', 10, 5, 900)], axes)).toEqual([]);
+  });
+
   it('leaves perfect foresight alone and ignores an axis with a single value', () => {
     expect(sizeWarnings([pick('perfect-foresight', 5, 2.5, -10)], axes)).toEqual([]);
     expect(sizeWarnings([pick('quantile', 10, 5, 1)], [{ name: 'energy_mwh', values: [10] }, { name: 'power_mw', values: [5] }])).toEqual([]);

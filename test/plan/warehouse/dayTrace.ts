@@ -17,7 +17,7 @@ export const TRACED_DAY: DayProblem = Object.freeze({
   periodHours: 1,
   buyPricePerMwh: Object.freeze([-10, 20, 10, 40]),
   sellPricePerMwh: Object.freeze([-10, 20, 10, 40]),
-  battery: testBattery({ energyMwh: 2, socMaxMwh: 2, chargeEfficiency: 0.8, dischargeEfficiency: 0.8, maxDischargeMwhPerDay: 1 }),
+  battery: testBattery({ energyMwh: 2, socMaxMwh: 2, chargeEfficiency: 0.8, dischargeEfficiency: 0.8, maxFromStoreMwhPerDay: 1.25 }),
   socStartMwh: 2,
   socEndMinMwh: 1,
 });
@@ -102,7 +102,7 @@ export function traceDay(problem: DayProblem): Trace {
       problem.buyPricePerMwh.map((p, t) => [String(t), fmt(p), fmt(problem.sellPricePerMwh[t]!)]),
     ),
     '',
-    `Battery: charge and discharge ${fmt(b.chargeMw)} MW, eta_c = ${fmt(b.chargeEfficiency)}, eta_d = ${fmt(b.dischargeEfficiency)} (round trip ${fmt(b.chargeEfficiency * b.dischargeEfficiency)}), window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh, wear ${fmt(b.degradationCostPerMwh)}/MWh, cycle cap ${fmt(b.maxDischargeMwhPerDay ?? Infinity)} MWh discharged per day; dt = ${fmt(problem.periodHours)} h; start ${fmt(problem.socStartMwh)} MWh, end floor ${fmt(problem.socEndMinMwh)} MWh, terminal value ${fmt(problem.terminalValuePerMwh ?? 0)}.`,
+    `Battery: charge and discharge ${fmt(b.chargeMw)} MW, eta_c = ${fmt(b.chargeEfficiency)}, eta_d = ${fmt(b.dischargeEfficiency)} (round trip ${fmt(b.chargeEfficiency * b.dischargeEfficiency)}), window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh, wear ${fmt(b.degradationCostPerMwh)}/MWh, cycle cap ${fmt(b.maxFromStoreMwhPerDay ?? Infinity)} MWh taken out of the store per day (${fmt((b.maxFromStoreMwhPerDay ?? Infinity) * b.dischargeEfficiency)} MWh at the grid); dt = ${fmt(problem.periodHours)} h; start ${fmt(problem.socStartMwh)} MWh, end floor ${fmt(problem.socEndMinMwh)} MWh, terminal value ${fmt(problem.terminalValuePerMwh ?? 0)}.`,
   ].join('\n');
 
   // The sweep method: record the first sweep (root, mu = 0), the root's multiplier steps, every node.
@@ -144,7 +144,7 @@ export function traceDay(problem: DayProblem): Trace {
       Array.from({ length: periods }, (_, t) => [String(t), fmt(day.chargePrice[t]!), fmt(day.dischargePrice[t]!), day.arbitrage[t] === 1 ? 'yes' : 'no']),
     ),
     '',
-    `X = ${fmt(day.chargeStepMwh)} MWh (eta_c dt chargeMw), Y = ${fmt(day.dischargeStepMwh)} MWh (dt dischargeMw / eta_d), window [${fmt(day.socMinMwh)}, ${fmt(day.socMaxMwh)}] MWh, end floor ${fmt(day.socEndFloorMwh)} MWh, V = ${fmt(day.terminalValuePerMwh)}, C = cap / eta_d = ${fmt(day.dischargeCapMwh)} MWh stored. ${day.arbitrageCount} of ${periods} periods are arbitrage periods; by programSuits the ${firstMethod === 'sweep' ? 'branching on the chord sweep' : 'dynamic program'} runs first.`,
+    `X = ${fmt(day.chargeStepMwh)} MWh (eta_c dt chargeMw), Y = ${fmt(day.dischargeStepMwh)} MWh (dt dischargeMw / eta_d), window [${fmt(day.socMinMwh)}, ${fmt(day.socMaxMwh)}] MWh, end floor ${fmt(day.socEndFloorMwh)} MWh, V = ${fmt(day.terminalValuePerMwh)}, C = cap = ${fmt(day.dischargeCapMwh)} MWh stored. ${day.arbitrageCount} of ${periods} periods are arbitrage periods; by programSuits the ${firstMethod === 'sweep' ? 'branching on the chord sweep' : 'dynamic program'} runs first.`,
   ].join('\n');
 
   const first = sweeps[0]!;
@@ -179,7 +179,7 @@ export function traceDay(problem: DayProblem): Trace {
       schedule.chargeMw.map((c, t) => [String(t), fmt(c), fmt(schedule.dischargeMw[t]!), fmt(schedule.socMwh[t]!)]),
     ),
     '',
-    `Objective ${fmt(objective)}; ${outcome.nodes} branch-and-bound nodes; discharged ${fmt(schedule.dischargeMw.reduce((a, d) => a + d * problem.periodHours, 0))} MWh of the ${fmt(b.maxDischargeMwhPerDay ?? Infinity)} MWh cap.`,
+    `Objective ${fmt(objective)}; ${outcome.nodes} branch-and-bound nodes; discharged ${fmt(schedule.dischargeMw.reduce((a, d) => a + d * problem.periodHours, 0))} MWh at the grid, ${fmt(schedule.dischargeMw.reduce((a, d) => a + (d * problem.periodHours) / b.dischargeEfficiency, 0))} MWh out of the store, of the ${fmt(b.maxFromStoreMwhPerDay ?? Infinity)} MWh cap.`,
   ].join('\n');
 
   // The dynamic program on the same day (sweepNodes: 0 sends it there): its first run, at mu = 0.

@@ -163,7 +163,7 @@ describe('solveWarehouseDay on hand-worked days', () => {
     // Uncapped: buy 1 at 10, sell 1 at 50 and 1 at 40: 80, but that discharges 2 MWh. With the cap,
     // the 1.5 MWh go to the dearest hours: 1 at 50 and 0.5 at 40; the store holds 1, so 0.5 more is
     // bought at 10 (buying more would be left over at zero value). Value -5 + 50 + 20 = 65.
-    const outcome = optimal(day([10, 50, 40], [10, 50, 40], battery({ maxDischargeMwhPerDay: 1.5 }), 1, 0));
+    const outcome = optimal(day([10, 50, 40], [10, 50, 40], battery({ maxFromStoreMwhPerDay: 1.5 }), 1, 0));
     expect(outcome.objective).toBeCloseTo(65, 9);
     expect(outcome.schedule.chargeMw[0]).toBeCloseTo(0.5, 12);
     expect(outcome.schedule.dischargeMw[1]).toBeCloseTo(1, 12);
