@@ -1,5 +1,6 @@
 import type { BatteryModel, DayOutcome, DayProblem, HistoryDay, MarketSpec, Order, QuantileDay } from '../types.js';
 import { planCurves } from '../curves/planCurves.js';
+import { exchangeSteps } from '../plan/exchangeRounding.js';
 import { planDay, roundForExchange } from '../plan/planDay.js';
 import { NodeLimitError, solveDay, type SolveDayOptions } from '../plan/solveDay.js';
 import { ordersByPeriod } from '../settle/ordersByPeriod.js';
@@ -129,21 +130,25 @@ function scenarioPolicy(request: PolicyDayRequest, policy: 'curve' | 'auto'): Po
   if (flat.status !== 'optimal') return flat;
   const scenarios = request.scenarios();
   const socEndMinMwh = battery.socFinalMinMwh ?? socStartMwh;
-  const curve = planCurves({
-    planning: scenarios.planning,
-    market,
-    battery,
-    socStartMwh,
-    socEndMinMwh,
-    steps: planning.curveSteps,
-    riskWeight: planning.riskWeight,
-    flatBids: flat.orders,
-    solver: planning.solver,
-  });
-  if (curve.status !== 'optimal') return { status: curve.status, reason: curve.reason, orders: new Array<DayBid>(forecast.periods.length).fill(null) };
-  const curveKind = curve.chosen === 'curves' ? 'curves' : 'schedule';
-  const curveBids: readonly DayBid[] = curve.chosen === 'curves' ? curve.curveBids : flat.orders;
-  const candidates: Candidate[] = [{ name: 'price-taking', policy: 'price-taking', alpha: null, bids: flat.orders, kind: 'schedule', planned: curve.plannedFlat }];
+  // A curve's quantities and limit prices are not on the exchange's steps (market.json quantityStepMw,
+  // minimumQuantityMw, priceTickPerMwh): on such a market curves are not offered (the app refuses `curve`).
+  if (exchangeSteps(market) !== null && policy === 'curve') throw new RangeError('planPolicyDay: curves are not offered on a market with order steps');
+  const curve =
+    exchangeSteps(market) !== null
+      ? null
+      : planCurves({
+          planning: scenarios.planning,
+          market,
+          battery,
+          socStartMwh,
+          socEndMinMwh,
+          steps: planning.curveSteps,
+          riskWeight: planning.riskWeight,
+          flatBids: flat.orders,
+          solver: planning.solver,
+        });
+  if (curve !== null && curve.status !== 'optimal') return { status: curve.status, reason: curve.reason, orders: new Array<DayBid>(forecast.periods.length).fill(null) };
+  const candidates: Candidate[] = [{ name: 'price-taking', policy: 'price-taking', alpha: null, bids: flat.orders, kind: 'schedule', planned: curve?.plannedFlat ?? null }];
   if (policy === 'auto') {
     const point = fromForecast(request, 'point', request.alpha);
     if (point.status === 'optimal') candidates.push({ name: 'point', policy: 'point', alpha: null, bids: point.orders, kind: 'schedule', planned: null });
@@ -154,7 +159,10 @@ function scenarioPolicy(request: PolicyDayRequest, policy: 'curve' | 'auto'): Po
       }
     }
   }
-  candidates.push({ name: 'curve', policy: 'curve', alpha: null, bids: curveBids, kind: curveKind, planned: curve.chosen === 'curves' ? curve.plannedCurves : curve.plannedFlat });
+  if (curve !== null) {
+    const curves = curve.chosen === 'curves';
+    candidates.push({ name: 'curve', policy: 'curve', alpha: null, bids: curves ? curve.curveBids : flat.orders, kind: curves ? 'curves' : 'schedule', planned: curves ? curve.plannedCurves : curve.plannedFlat });
+  }
   const choice = chooseAuto({
     candidates,
     fresh: scenarios.fresh,

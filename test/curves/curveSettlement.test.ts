@@ -3,6 +3,8 @@ import { describe, expect, it } from 'vitest';
 import type { BatteryModel, MarketSpec } from '../../src/types.js';
 import { curveStack, netSoldAt, netSoldFromStored, type StepCurve } from '../../src/curves/stepCurve.js';
 import { settleDay } from '../../src/settle/settleDay.js';
+import { dayBidOrders } from '../../src/backtest/dayBid.js';
+import { ordersCsv } from '../../src/io/planOutputs.js';
 
 // Curves in the auction and at the battery, period by period, worked out by hand from docs/design.md
 // section 5.2 (acceptance: a buy iff clearing <= limit, a sell iff clearing >= limit, a tie accepted;
@@ -18,11 +20,16 @@ const battery: BatteryModel = Object.freeze({
 const market = { priceFloor: -500, priceCap: 3000 } as MarketSpec;
 
 function settleOne(curve: StepCurve, clearing: number, socStartMwh = 4) {
+  const day = settleCurveDay(curve, clearing, socStartMwh);
+  return { profit: day.totals.profit, soc: day.socEndMwh, period: day.periods[0], totals: day.totals };
+}
+
+function settleCurveDay(curve: StepCurve, clearing: number, socStartMwh: number) {
   const day = settleDay({
     periodHours: 1, battery, socStartMwh, orders: [curveStack(curve, market)], clearingPricePerMwh: [clearing],
     imbalance: { buyPerMwh: [clearing + 10], sellPerMwh: [clearing - 10] }, unaccepted: 'follow-accepted',
   });
-  return { profit: day.totals.profit, soc: day.socEndMwh, period: day.periods[0] };
+  return day;
 }
 
 describe('a step curve as a stack of limit orders', () => {
@@ -54,6 +61,20 @@ describe('a step curve as a stack of limit orders', () => {
     expect(r.profit).toBeCloseTo(180 - 42 - 4.8, 12);
     expect(r.soc).toBeCloseTo(1, 12);
     expect(r.period?.boughtImbalanceMwh).toBeCloseTo(0.6, 12);
+  });
+
+  it('clearing 60: the 0.6 MWh the store cannot give is deliberate imbalance: -42 at the imbalance price, 0.6 x (70 - 60) = 6 against clearing', () => {
+    const { totals, period } = settleOne(curve, 60);
+    expect(period?.deliberateImbalanceMwh).toBeCloseTo(0.6, 12);
+    expect(totals.deliberateImbalanceMwh).toBeCloseTo(0.6, 12);
+    expect(totals.deliberateImbalanceCash).toBeCloseTo(-42, 12);
+    expect(totals.deliberateImbalancePeriods).toBe(1);
+    expect(totals.imbalanceCostVsClearing).toBeCloseTo(6, 12);
+  });
+
+  it('clearing 10: everything cleared is delivered, no deliberate imbalance', () => {
+    const { totals } = settleOne(curve, 10);
+    expect([totals.deliberateImbalanceMwh, totals.deliberateImbalanceCash, totals.deliberateImbalancePeriods, totals.imbalanceCostVsClearing]).toEqual([0, 0, 0, 0]);
   });
 
   it('clearing exactly 50 (a tie): the sell is accepted: 150 - 0.6 x 60 - 4.8 = 109.2', () => {
@@ -110,5 +131,50 @@ describe('a step curve as a stack of limit orders', () => {
     expect(netSoldFromStored(4, battery, 0.5)).toBeCloseTo(-10, 12);
     expect(netSoldFromStored(-2, battery, 0.5)).toBeCloseTo(3.2, 12);
     expect(netSoldFromStored(0, battery, 0.5)).toBe(0);
+  });
+});
+
+describe('orders.csv of a day of curves: one row per step, with the period and the side', () => {
+  // Two hourly periods. Period 1 carries the curve buy 4 MW below 20, sell 3 MW from 50 (y = -4, 0, 3);
+  // period 2 the curve crossing 0 at 40 (y = -2, 1). Worked by hand from curveStack's rule: period 1 is
+  // a buy of 4 limited at 20 and a sell of 3 limited at 50; period 2 a buy of 2 and a sell of 1, both
+  // limited at 40. A row is accepted as the auction accepts an order (a buy iff clearing <= limit, a sell
+  // iff clearing >= limit), so the accepted rows of a period sum to the curve's net quantity: period 1
+  // at 10: -4, at 30: 0, at 60: +3; period 2 at 30: -2, at 45: +1.
+  const periods = [
+    { start: '2027-01-01T00:00:00+00:00', end: '2027-01-01T01:00:00+00:00', startMs: 0 },
+    { start: '2027-01-01T01:00:00+00:00', end: '2027-01-01T02:00:00+00:00', startMs: 3_600_000 },
+  ];
+  const curves: StepCurve[] = [
+    { breakpoints: [20, 50], netSoldMw: [-4, 0, 3] },
+    { breakpoints: [40], netSoldMw: [-2, 1] },
+  ];
+  const text = ordersCsv(dayBidOrders(periods, curves.map((c) => curveStack(c, market))));
+
+  it('writes the rows worked out by hand, buys first, quantile level empty', () => {
+    expect(text).toBe(
+      [
+        'period_start,period_end,side,quantity_mw,limit_price,quantile_level',
+        '2027-01-01T00:00:00+00:00,2027-01-01T01:00:00+00:00,buy,4,20,',
+        '2027-01-01T00:00:00+00:00,2027-01-01T01:00:00+00:00,sell,3,50,',
+        '2027-01-01T01:00:00+00:00,2027-01-01T02:00:00+00:00,buy,2,40,',
+        '2027-01-01T01:00:00+00:00,2027-01-01T02:00:00+00:00,sell,1,40,',
+        '',
+      ].join('\n'),
+    );
+  });
+
+  it('read back row by row, the accepted rows of each period sum to the hand-worked net quantity', () => {
+    const rows = text.trimEnd().split('\n').slice(1).map((line) => line.split(','));
+    const netSold = (periodStart: string, clearing: number): number =>
+      rows
+        .filter((r) => r[0] === periodStart)
+        .reduce((sum, [, , side, quantity, limit]) => {
+          const accepted = side === 'buy' ? clearing <= Number(limit) : clearing >= Number(limit);
+          return accepted ? sum + (side === 'sell' ? 1 : -1) * Number(quantity) : sum;
+        }, 0);
+    const [first, second] = periods.map((p) => p.start) as [string, string];
+    expect([netSold(first, 10), netSold(first, 30), netSold(first, 60)]).toEqual([-4, 0, 3]);
+    expect([netSold(second, 30), netSold(second, 45)]).toEqual([-2, 1]);
   });
 });

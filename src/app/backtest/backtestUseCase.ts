@@ -13,7 +13,7 @@ import { backtestReport } from '../../report/backtestReport.js';
 import type { Done } from '../commandResult.js';
 import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { requireScenarioSettings, scenarioPlanningOf, type ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
+import { requireCurvesOffered, requireScenarioSettings, scenarioPlanningOf, type ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
 import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { readRunInputs, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
@@ -70,6 +70,7 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
   // With --model the forecasts are made here, day by day from the history (through the forecast cache).
   const maker = forecastMaker(s.model, paths.history, s, hooks);
   const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
+  requireCurvesOffered(s.policies, data.market, paths.market);
   const model = maker?.made();
   const { market, history, forecast } = data;
   const battery = batteryModel(data.batterySpec);

@@ -14,7 +14,7 @@ import { scenarioPlanReport } from '../../report/scenarioPlanReport.js';
 import type { Done } from '../commandResult.js';
 import type { RunHooks } from '../runHooks.js';
 import { imbalancePathSource } from '../scenarios/pathScenarios.js';
-import { scenarioPlanningOf } from '../scenarios/scenarioPlanningOf.js';
+import { requireCurvesOffered, scenarioPlanningOf } from '../scenarios/scenarioPlanningOf.js';
 import type { ScenarioSettings } from '../scenarios/scenarioSettings.js';
 import { candidateTableText, scenarioPlanSummary, whyText } from './scenarioPlanSummary.js';
 
@@ -50,6 +50,7 @@ export const SCENARIO_PLAN_OUTPUTS = ['orders.csv', 'plan.json'] as const;
  */
 export function scenarioPlan(request: ScenarioPlanRequest, hooks: RunHooks): Done<ScenarioPlanSummary> {
   const { day, policy, market, battery, forecast, socStartMwh, scenarios } = request;
+  requireCurvesOffered([policy], market, request.inputs['market'] ?? 'market');
   const problems: InputProblem[] = [];
   const pathsFile = gatherProblems(problems, () => readScenarioPaths(scenarios.paths, market));
   const historyPath = request.inputs['history'];

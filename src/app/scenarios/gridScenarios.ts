@@ -4,7 +4,7 @@ import type { ScenarioPlanning } from '../../backtest/scenarioPlanning.js';
 import type { BacktestInputData } from '../../io/readBacktestInputs.js';
 import { readScenarioPaths, type ScenarioPathsFile } from '../../io/readScenarioPaths.js';
 import { loadHighsSolver } from '../solver/highsSolver.js';
-import { requireScenarioSettings, scenarioPlanningOf } from './scenarioPlanningOf.js';
+import { requireCurvesOffered, requireScenarioSettings, scenarioPlanningOf } from './scenarioPlanningOf.js';
 import type { ScenarioSettings } from './scenarioSettings.js';
 
 /** What a grid task (sweep, size) needs to plan the curve and auto policies in its thread: plain data, copied into every worker. */
@@ -21,9 +21,10 @@ export interface GridScenarioInput {
 export function gridScenarioInput(
   policies: readonly BacktestPolicy[],
   scenarios: ScenarioSettings | undefined,
-  run: { readonly market: MarketSpec; readonly from: string; readonly to: string; readonly policyOption: string },
+  run: { readonly market: MarketSpec; readonly marketFile: string; readonly from: string; readonly to: string; readonly policyOption: string },
 ): GridScenarioInput | undefined {
   requireScenarioSettings(policies, scenarios, run.policyOption);
+  requireCurvesOffered(policies, run.market, run.marketFile);
   if (scenarios === undefined || !policies.some(usesScenarios)) return undefined;
   const file = readScenarioPaths(scenarios.paths, run.market);
   const days = new Map([...file.days].filter(([day]) => day >= run.from && day <= run.to));

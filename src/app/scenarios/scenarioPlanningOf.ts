@@ -3,6 +3,7 @@ import { usesScenarios, type BacktestPolicy } from '../../backtest/backtestPolic
 import { SCENARIO_DEFAULTS, type ScenarioPlanning } from '../../backtest/scenarioPlanning.js';
 import type { SparseLpSolver } from '../../curves/linearProgram.js';
 import { InputError } from '../../errors/inputError.js';
+import { exchangeSteps } from '../../plan/exchangeRounding.js';
 import { readScenarioPaths, type ScenarioPathsFile } from '../../io/readScenarioPaths.js';
 import { pathScenarioSource } from './pathScenarios.js';
 import { autoAlphas, curveSteps, type ScenarioSettings } from './scenarioSettings.js';
@@ -18,6 +19,15 @@ export function requireScenarioSettings(policies: readonly BacktestPolicy[], sce
   if (needing.length > 0 && scenarios === undefined) {
     throw new InputError([{ file: 'command line', field: option, message: `${needing.join(' and ')} plan on whole-day price paths and none were given`, fix: 'give --paths FILE (quantbid forecast --paths 364 writes one)' }]);
   }
+}
+
+/**
+ * The curve policy needs a market without order steps: a curve's quantities and limit prices are not
+ * rounded to them (on such a market `auto` leaves the curve out of its candidates).
+ */
+export function requireCurvesOffered(policies: readonly BacktestPolicy[], market: MarketSpec, marketFile: string): void {
+  if (!policies.includes('curve') || exchangeSteps(market) === null) return;
+  throw new InputError([{ file: marketFile, field: 'quantityStepMw', message: 'the curve policy is not offered on a market with order steps (quantityStepMw, minimumQuantityMw or priceTickPerMwh): its curves are not rounded to them', fix: 'use auto (it leaves curves out there) or another policy' }]);
 }
 
 /**

@@ -132,7 +132,7 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
     { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
     { name: 'policy', option: '--policies', values: sizePolicyAxis(s.policies) },
   ] as const;
-  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, from, to, policyOption: '--policies' });
+  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
   // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
   // spread is learnt from the history before each day): none reads or parses a file again.
   const contextInput: SizeTaskInput = {

@@ -65,7 +65,7 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
   ] as const;
   const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
   const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, from, to, policyOption: '--policies' });
+  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
   // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
   // spread is learnt from the history before each day): none reads or parses a file again.
   const span = inputDataSpan(data, from, to);
