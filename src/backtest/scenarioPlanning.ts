@@ -4,7 +4,7 @@ import type { ScenarioSet } from '../scenarios/scenarioSet.js';
 
 /**
  * A day's scenarios: planning paths, on which curves are chosen, and fresh paths, drawn apart from them,
- * on which every candidate is scored (docs/design.md section 4.6). Scoring on the planning paths would
+ * on which every candidate is scored (docs/design.md section 4.7). Scoring on the planning paths would
  * flatter whatever was fitted to them.
  */
 export interface DayScenarios {

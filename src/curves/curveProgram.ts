@@ -38,7 +38,7 @@ export type CurveProgramOutcome =
   | { readonly status: 'infeasible' | 'unbounded' | 'failed'; readonly reason: string };
 
 /**
- * The two-stage stochastic program of a day of step curves (docs/design.md section 4.6): the curves
+ * The two-stage stochastic program of a day of step curves (docs/design.md section 4.7): the curves
  * first, then on each planning path w the battery delivers what clears, within every limit.
  *
  * Stored-energy units. In period t and step k the curve changes the stored energy by

@@ -47,7 +47,7 @@ export type CurvePlan =
   | { readonly status: 'infeasible' | 'unbounded' | 'failed'; readonly reason: string };
 
 /**
- * A day of step bid curves from the planning paths (docs/design.md section 4.6): price points per
+ * A day of step bid curves from the planning paths (docs/design.md section 4.7): price points per
  * period (curvePricePoints), the stochastic program (solveCurveProgram), the net stored energy of each
  * step turned into net MW sold, and the curves as stacks of limit orders. Both the curves and the flat
  * bids are then settled on the planning paths (under follow-accepted: a curve moves with what clears,

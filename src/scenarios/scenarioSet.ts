@@ -2,7 +2,7 @@
  * Whole-day scenarios of one delivery day: S equally likely paths, each a clearing price and the
  * imbalance prices (buy and sell) in every one of the day's T periods. The paths keep the dependence
  * between the periods of a day, so a day's profit can be valued path by path (docs/design.md
- * section 4.6).
+ * section 4.7).
  *
  * Layout: period-major typed arrays, value of path w in period t at index t x S + w, so that the
  * settlement of a period runs over all paths in one contiguous loop (scenarios/evaluateBids.ts).

@@ -27,7 +27,7 @@ export interface ScenarioInputs {
 }
 
 /**
- * The imbalance prices of a day's paths (docs/design.md section 4.6): the history's observed imbalance
+ * The imbalance prices of a day's paths (docs/design.md section 4.7): the history's observed imbalance
  * prices win, as in settlement (settle/imbalancePrices.ts): the spread model fitted on the history's days
  * before `day` (at most a year) that have a forecast, the surprise measured from that forecast's median;
  * with fewer than 28 such days the spread is resampled from the days without a surprise term (every
