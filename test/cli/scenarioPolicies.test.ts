@@ -98,6 +98,34 @@ describe('curve and auto in sweep and size', () => {
     expect(Number(curve[header.indexOf('profit')])).toBeCloseTo(backtest.policies.curve?.profit as number, 5);
   });
 
+  it('plan --policy auto writes orders.csv and plan.json with every candidate scored on the fresh paths, price-taking first', () => {
+    const out = join(scenario.dir, 'plan-auto');
+    const run = quantbid(['plan', '--scenario', scenario.scenario, '--day', scenario.to, '--policy', 'auto', '--paths', pathsFile, '--planning-paths', '20', '--unaccepted', 'follow-accepted', '--out', out]);
+    expectDone(run);
+    const plan = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8'));
+    expect(plan.scenarios).toMatchObject({ planningPaths: 20, freshPaths: PATHS_PER_DAY - 20 });
+    expect(plan.candidates[0]).toMatchObject({ name: 'price-taking', advantageOverPriceTaking: 0 });
+    expect(plan.candidates.map((c: { name: string }) => c.name)).toEqual(expect.arrayContaining(['point', 'quantile 0.1', 'median 0.1', 'curve']));
+    expect(plan.candidates.map((c: { name: string }) => c.name)).toContain(plan.submitted);
+    const rows = csvRows(readFileSync(join(out, 'orders.csv'), 'utf8'));
+    expect(rows[0]).toEqual(['period_start', 'period_end', 'side', 'quantity_mw', 'limit_price', 'quantile_level']);
+    expect(plan.orders.rows).toBe(rows.length - 1);
+  });
+
+  it('on a market with order steps, plan --policy curve is refused (exit 2, naming market.json), auto runs without the curve', () => {
+    const market = JSON.parse(readFileSync(join(scenario.dir, 'market.json'), 'utf8'));
+    const stepped = join(scenario.dir, 'market-steps.json');
+    writeFileSync(stepped, JSON.stringify({ ...market, quantityStepMw: 0.1 }));
+    const base = ['plan', '--scenario', scenario.scenario, '--market', stepped, '--day', scenario.to, '--paths', pathsFile, '--planning-paths', '20', '--unaccepted', 'follow-accepted'];
+    const refused = quantbid([...base, '--policy', 'curve']);
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toContain('market-steps.json');
+    expect(refused.stderr).toContain('order steps');
+    const auto = quantbid([...base, '--policy', 'auto', '--json']);
+    expectDone(auto);
+    expect(JSON.parse(auto.stdout).candidates.map((c: { name: string }) => c.name)).not.toContain('curve');
+  });
+
   it('without --paths, a sweep of auto is refused with exit code 2 and names the option to give', () => {
     const run = quantbid(['sweep', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--policies', 'auto', '--out', join(scenario.dir, 'none')]);
     expect(run.code).toBe(2);
