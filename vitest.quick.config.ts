@@ -21,6 +21,10 @@ export const SLOW_OR_SPAWNING = [
   'test/grid/runGrid.test.ts',
   'test/grid/killResume.test.ts',
   'test/hardening/killedRuns.test.ts',
+  'test/hardening/concurrentRuns.test.ts',
+  'test/hardening/fullDisk.test.ts',
+  'test/hardening/journalTampering.test.ts',
+  'test/hardening/numericFuzz.test.ts',
   'test/hardening/determinism.test.ts',
   'test/io/forecastCache.test.ts',
   'test/report/sweepReport.test.ts',
@@ -28,9 +32,15 @@ export const SLOW_OR_SPAWNING = [
   'test/report/backtestReport.test.ts',
   'test/report/scoreReport.test.ts',
   'test/cli/quietFlag.test.ts',
+  'test/cli/startupModules.test.ts',
   'test/hardening/cliProperties.test.ts',
   'test/forecast/forecaster.test.ts',
   'test/forecast/fitStopwatch.test.ts',
+  // Whole years of odd zones compared with luxon, and the readers' long property runs.
+  'test/io/periodLocator.test.ts',
+  'test/market/steadyDays.test.ts',
+  'test/market/civilDays.test.ts',
+  'test/io/plainRow.test.ts',
 ];
 
 export default mergeConfig(base, defineConfig({ test: { exclude: ['**/node_modules/**', ...SLOW_OR_SPAWNING], isolate: false } }));

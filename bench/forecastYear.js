@@ -10,19 +10,57 @@
 //
 // The day times are the gaps between forecastRange's per-day callbacks; the first day carries the
 // calibration days' point forecasts, so it is shown apart and the median is over all days.
+//
+//   node bench/forecastYear.js --baseline DIR [--rounds 3]
+//
+// times the same year with the dist/ of DIR (another built checkout, e.g. of main) in separate
+// processes, interleaved round by round with this checkout's, and prints the median CPU and wall time
+// of each, the ratio of the medians, and whether both made the same forecasts (a SHA-256 of every
+// quantile, point and path price, bit for bit).
+import { createHash } from 'node:crypto';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import { gunzipSync } from 'node:zlib';
-import { loadDist } from './lib/reference.js';
+import { median } from './lib/args.js';
+import { timedNode } from './lib/processTime.js';
 
-const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-const demo = join(root, 'scenarios', 'halvorn');
+const here = join(dirname(fileURLToPath(import.meta.url)), '..');
 const arg = (name, fallback) => {
   const i = process.argv.indexOf(`--${name}`);
   return i > 0 ? process.argv[i + 1] : fallback;
 };
+/** The checkout whose dist/ is timed (--root, default this one); the demo's data is always this checkout's. */
+const root = arg('root', here);
+const demo = join(here, 'scenarios', 'halvorn');
+const loadDist = (path) => import(pathToFileURL(join(root, 'dist', path)).href);
+const BASELINE = arg('baseline', null);
+if (BASELINE !== null) {
+  compareWithBaseline(BASELINE, Number(arg('rounds', 3)));
+  process.exit(process.exitCode ?? 0);
+}
+
+/** Times this checkout and `baseline` in interleaved rounds (each a process of this script with --json). */
+function compareWithBaseline(baseline, rounds) {
+  const passOn = ['year', 'method', 'reads'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
+  const runs = { this: here, baseline };
+  const results = { this: [], baseline: [] };
+  for (let round = 0; round < rounds; round++) {
+    for (const [name, checkout] of Object.entries(runs)) {
+      const { stdout } = timedNode([fileURLToPath(import.meta.url), '--root', checkout, '--json', ...passOn]);
+      results[name].push(JSON.parse(stdout));
+    }
+  }
+  const cpu = (name) => median(results[name].map((r) => r.cpuMs));
+  const wall = (name) => median(results[name].map((r) => r.totalMs));
+  const digests = new Set([...results.this, ...results.baseline].map((r) => r.digest));
+  console.log(`a year of daily forecasts (${results.this[0].method}, ${results.this[0].days} days), this checkout against ${baseline}, ${rounds} interleaved rounds`);
+  for (const name of ['this', 'baseline']) console.log(`  ${name.padEnd(9)} median ${(cpu(name) / 1000).toFixed(1)} s CPU, ${(wall(name) / 1000).toFixed(1)} s wall`);
+  console.log(`  ratio     ${(cpu('this') / cpu('baseline')).toFixed(2)}x the baseline's CPU, ${(wall('this') / wall('baseline')).toFixed(2)}x its wall time (goal: at most 0.5x)`);
+  console.log(`  forecasts ${digests.size === 1 ? 'identical, bit for bit' : 'DIFFER'}`);
+  if (digests.size !== 1) process.exitCode = 1;
+}
 
 const { DEFAULT_METHOD, FORECAST_METHODS } = await loadDist('forecast/forecaster.js');
 const { forecastRange } = await loadDist('forecast/forecastRange.js');
@@ -38,7 +76,6 @@ if (!FORECAST_METHODS.includes(METHOD)) {
   process.exit(2);
 }
 const LEVELS = Array.from({ length: 19 }, (_, i) => Number(((i + 1) * 0.05).toFixed(2)));
-const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
 
 /** The CSV's header and the rows whose local timestamp starts with the year. */
 function cutToYear(gzPath) {
@@ -81,14 +118,23 @@ try {
   const cpuMs = (cpu.user + cpu.system) / 1000;
   const perDay = median(dayMs);
   const days = run.forecasts.length;
-
-  console.log(`year ${YEAR} of the demo market at 15 minutes, method ${METHOD}${METHOD === DEFAULT_METHOD ? ' (default)' : ''}, 19 levels, default options`);
-  console.log(`days forecast                      ${days} (${run.skipped.length} skipped)`);
-  console.log(`read and validate the year's CSV   median ${(read / 1000).toFixed(3)} s over ${READS} reads (the reference)`);
-  console.log(`forecast, median per day           ${(perDay / 1000).toFixed(3)} s = ${(perDay / read).toFixed(2)} x the read`);
-  console.log(`forecast, first day                ${((dayMs[0] ?? 0) / 1000).toFixed(1)} s (the calibration days' point forecasts)`);
-  console.log(`forecast, the whole year           ${(totalMs / 1000).toFixed(1)} s wall, ${(cpuMs / 1000).toFixed(1)} s CPU = ${(totalMs / read).toFixed(1)} x the read`);
-  console.log(`share of the time fitting models   ${(100 * stopwatch.spentMs / totalMs).toFixed(1)} % (${stopwatch.calls} models fitted, ${(1000 * stopwatch.spentMs / stopwatch.calls).toFixed(1)} us each)`);
+  if (process.argv.includes('--json')) {
+    const digest = createHash('sha256');
+    for (const f of run.forecasts) {
+      for (const row of f.quantiles.prices) digest.update(new Float64Array(row));
+      digest.update(new Float64Array(f.point));
+      for (const path of f.paths) digest.update(new Float64Array(path));
+    }
+    console.log(JSON.stringify({ method: METHOD, days, cpuMs, totalMs, perDay, digest: digest.digest('hex') }));
+  } else {
+    console.log(`year ${YEAR} of the demo market at 15 minutes, method ${METHOD}${METHOD === DEFAULT_METHOD ? ' (default)' : ''}, 19 levels, default options`);
+    console.log(`days forecast                      ${days} (${run.skipped.length} skipped)`);
+    console.log(`read and validate the year's CSV   median ${(read / 1000).toFixed(3)} s over ${READS} reads (the reference)`);
+    console.log(`forecast, median per day           ${(perDay / 1000).toFixed(3)} s = ${(perDay / read).toFixed(2)} x the read`);
+    console.log(`forecast, first day                ${((dayMs[0] ?? 0) / 1000).toFixed(1)} s (the calibration days' point forecasts)`);
+    console.log(`forecast, the whole year           ${(totalMs / 1000).toFixed(1)} s wall, ${(cpuMs / 1000).toFixed(1)} s CPU = ${(totalMs / read).toFixed(1)} x the read`);
+    console.log(`share of the time fitting models   ${(100 * stopwatch.spentMs / totalMs).toFixed(1)} % (${stopwatch.calls} models fitted, ${(1000 * stopwatch.spentMs / stopwatch.calls).toFixed(1)} us each)`);
+  }
 } finally {
   rmSync(folder, { recursive: true, force: true });
 }

@@ -1,56 +1,71 @@
 // A sweep of 24 alphas x 2 policies x 2 unaccepted rules (96 settings) over one year of the demo
-// market at 15 minutes, through the CLI, once on 1 thread and once on 2 worker threads: wall time of
-// each (median over --runs) and the speed-up. Also checks that both give the same sweep.csv bytes.
+// market at 15 minutes, through the CLI (whole processes, Node start-up included), on 1 thread and on
+// 2 threads (this one and a worker), in interleaved rounds so that the machine's drift hits both alike:
+// the median wall time of each, the median over the rounds of the speed-up within a round, and the
+// CPU time of each (user + system of the process and its worker, from Linux's /proc). Also checks that
+// both give the same sweep.csv bytes.
 //
-//   npm run build && node bench/sweepYear.js [--year 2026] [--runs 1]
+//   npm run build && node bench/sweepYear.js [--year 2026] [--rounds 3] [--baseline DIR]
 //
-// The alphas are 0.05:0.28:0.01: the demo forecast's levels run from 0.05 to 0.95.
-import { spawnSync } from 'node:child_process';
+// --baseline DIR (another built checkout) runs its sweeps in the same rounds, for a before and after.
+// The alphas are 0.05:0.28:0.01: the demo forecast's levels run from 0.05 to 0.95. The speed-up needs
+// two idle cores: on a machine whose cores are busy with other work, a second thread gets little more
+// CPU than the first (Linux shares the cores between sessions, not threads), which the CPU times show.
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { median, option } from './lib/args.js';
+import { timedNode } from './lib/processTime.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
-const arg = (name, fallback) => {
-  const i = process.argv.indexOf(`--${name}`);
-  return i > 0 ? process.argv[i + 1] : fallback;
-};
-const YEAR = arg('year', '2026');
-const RUNS = Number(arg('runs', 1));
-const median = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
+const YEAR = option('year', '2026');
+const ROUNDS = Number(option('rounds', 3));
+const BASELINE = option('baseline', null);
 
 const folder = mkdtempSync(join(tmpdir(), 'quantbid-sweep-'));
 try {
-  const wall = {};
+  const checkouts = [['', root], ...(BASELINE === null ? [] : [[' (baseline)', BASELINE]])];
+  const runs = checkouts.flatMap(([suffix, checkout]) => [1, 2].map((threads) => ({ name: `${threads} thread${threads > 1 ? 's' : ' '}${suffix}`, checkout, threads })));
+  const wall = Object.fromEntries(runs.map((r) => [r.name, []]));
+  const cpu = Object.fromEntries(runs.map((r) => [r.name, []]));
   const csv = {};
-  for (const threads of [1, 2]) {
-    const times = [];
-    for (let run = 0; run < RUNS; run++) {
-      const out = join(folder, `t${threads}-r${run}`);
+  const loads = [];
+  for (let round = 0; round < ROUNDS; round++) {
+    for (const run of runs) {
+      const out = join(folder, `${run.name.replace(/\W+/g, '-')}-${round}`);
       const argv = [
-        join(root, 'bin', 'quantbid.js'), 'sweep', '--scenario', join(root, 'scenarios', 'halvorn', 'scenario.json'),
+        join(run.checkout, 'bin', 'quantbid.js'), 'sweep', '--scenario', join(root, 'scenarios', 'halvorn', 'scenario.json'),
         '--from', `${YEAR}-01-01`, '--to', `${YEAR}-12-31`, '--alphas', '0.05:0.28:0.01', '--policies', 'quantile,median',
-        '--unaccepted', 'follow-plan,follow-accepted', '--threads', String(threads), '--out', out, '--quiet',
+        '--unaccepted', 'follow-plan,follow-accepted', '--threads', String(run.threads), '--out', out, '--quiet',
       ];
-      const started = performance.now();
-      const result = spawnSync(process.execPath, argv, { encoding: 'utf8' });
-      times.push(performance.now() - started);
-      if (result.status !== 0) throw new Error(`sweep on ${threads} thread(s) failed (${result.status}): ${result.stderr}`);
-      csv[threads] = readFileSync(join(out, 'sweep.csv'));
+      loads.push(loadavg()[0]);
+      const timed = timedNode(argv);
+      wall[run.name].push(timed.wall);
+      cpu[run.name].push(timed.cpu);
+      csv[run.name] = readFileSync(join(out, 'sweep.csv'));
     }
-    wall[threads] = median(times);
   }
   // The grid's rows have an alpha; the reference rows after them (point, price-taking, perfect foresight per rule) do not.
-  const lines = csv[1].toString('utf8').trimEnd().split('\n').slice(1);
+  const lines = csv[runs[0].name].toString('utf8').trimEnd().split('\n').slice(1);
   const settings = lines.filter((line) => !line.startsWith(',')).length;
   const references = lines.length - settings;
-  console.log(`sweep of ${settings} settings (24 alphas x 2 policies x 2 unaccepted rules)${references > 0 ? ` and ${references} reference rows` : ''} over ${YEAR} at 15 minutes, through the CLI`);
-  console.log(`1 thread    median wall ${(wall[1] / 1000).toFixed(1)} s over ${RUNS} run(s)`);
-  console.log(`2 threads   median wall ${(wall[2] / 1000).toFixed(1)} s (goal: under 60 s)`);
-  console.log(`speed-up    ${(wall[1] / wall[2]).toFixed(2)}x on 2 threads`);
-  console.log(`sweep.csv   ${csv[1].equals(csv[2]) ? 'byte-identical on 1 and 2 threads' : 'DIFFERS between 1 and 2 threads'}`);
-  if (!csv[1].equals(csv[2])) process.exitCode = 1;
+  const cpuKnown = Object.values(cpu).every((list) => list.every((ms) => ms !== null));
+  console.log(`sweep of ${settings} settings (24 alphas x 2 policies x 2 unaccepted rules)${references > 0 ? ` and ${references} reference rows` : ''} over ${YEAR} at 15 minutes, through the CLI,`);
+  console.log(`${ROUNDS} interleaved rounds; ${cpus().length} cores, load average ${median(loads).toFixed(1)} (median at the starts of the runs)`);
+  for (const [suffix] of checkouts) {
+    const one = `1 thread ${suffix}`;
+    const two = `2 threads${suffix}`;
+    const speedups = wall[one].map((ms, i) => ms / wall[two][i]);
+    const cpuNote = (name) => (cpuKnown ? `, CPU ${(median(cpu[name]) / 1000).toFixed(1)} s` : '');
+    console.log(`  ${one.padEnd(22)} median wall ${(median(wall[one]) / 1000).toFixed(1)} s${cpuNote(one)}`);
+    console.log(`  ${two.padEnd(22)} median wall ${(median(wall[two]) / 1000).toFixed(1)} s${cpuNote(two)} (goal: under 60 s)`);
+    console.log(`  ${`speed-up${suffix}`.padEnd(22)} ${median(speedups).toFixed(2)}x on 2 threads (rounds ${Math.min(...speedups).toFixed(2)} to ${Math.max(...speedups).toFixed(2)}; goal at least 1.7x)` +
+      (cpuKnown ? `; CPU on 2 threads ${(median(cpu[two]) / median(cpu[one])).toFixed(2)}x that on 1` : ''));
+  }
+  const same = runs.every((run) => csv[run.name].equals(csv[runs[0].name]));
+  console.log(`  sweep.csv              ${same ? 'byte-identical on 1 and 2 threads' : 'DIFFERS between runs'}${BASELINE === null ? '' : ' (and with the baseline)'}`);
+  if (!same) process.exitCode = 1;
 } finally {
   rmSync(folder, { recursive: true, force: true });
 }

@@ -18,41 +18,23 @@
 // machine wall times swing more than CPU times. --baseline DIR (another built checkout,
 // e.g. a worktree of the previous commit) times the same quantbid commands of DIR in the same rounds,
 // so that a change is measured before and after on the same machine at the same time.
-import { spawnSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { demoFolder, writeYearInputs } from './lib/yearData.js';
 import { median, option } from './lib/args.js';
+import { timedNode } from './lib/processTime.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const YEAR = option('year', '2026');
 const ROUNDS = Number(option('rounds', 7));
 const BASELINE = option('baseline', null);
 
-/**
- * CPU time of this process's finished children [ms], user and system (Linux: /proc/self/stat, fields
- * cutime and cstime, in ticks of 10 ms); null where there is no /proc.
- */
-function childrenCpuMs() {
-  try {
-    const fields = readFileSync('/proc/self/stat', 'utf8').split(') ')[1].split(' ');
-    return (Number(fields[13]) + Number(fields[14])) * 10;
-  } catch {
-    return null;
-  }
-}
-
 /** Wall and CPU time of one process [ms] (CPU null where unknown); throws when it fails. */
 function timed(args) {
-  const cpuBefore = childrenCpuMs();
-  const started = performance.now();
-  const result = spawnSync(process.execPath, args, { encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
-  const wall = performance.now() - started;
-  const cpuAfter = childrenCpuMs();
-  if (result.status !== 0) throw new Error(`node ${args.join(' ')} failed (${result.status}): ${result.stderr}`);
-  return { wall, cpu: cpuBefore === null || cpuAfter === null ? null : cpuAfter - cpuBefore };
+  const { wall, cpu } = timedNode(args);
+  return { wall, cpu };
 }
 
 const folder = mkdtempSync(join(tmpdir(), 'quantbid-whole-'));

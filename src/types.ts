@@ -12,8 +12,9 @@
 
 export type { ImbalanceRule, MarketSpec } from './market/marketSpec.js';
 export type { DeliveryPeriod } from './market/deliveryPeriod.js';
-export type { BatteryModel, BatterySpec } from './battery/batterySpec.js';
-import type { BatteryModel } from './battery/batterySpec.js';
+export type { BatterySpec } from './battery/batterySpec.js';
+export type { BatteryModel } from './battery/batteryModel.js';
+import type { BatteryModel } from './battery/batteryModel.js';
 import type { DeliveryPeriod } from './market/deliveryPeriod.js';
 
 /** One delivery day's quantile forecast: prices[t][k] at levels[k], non-decreasing in k. */

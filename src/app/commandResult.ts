@@ -15,6 +15,8 @@ export interface Interrupted {
   readonly status: 'interrupted';
   /** What was kept and how to go on, lines ending in line breaks. */
   readonly message: string;
+  /** The signal that stopped it: Ctrl-C (SIGINT) or SIGTERM. */
+  readonly signal: 'SIGINT' | 'SIGTERM';
 }
 
 /** What a front end prints of a finished use case: the summary as JSON (`--json`), else the human summary. */

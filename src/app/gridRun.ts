@@ -2,11 +2,14 @@ import type { GridAxis } from '../grid/gridAxis.js';
 import type { TableRow } from '../grid/gridCsv.js';
 import type { SettingOf } from '../grid/expandGrid.js';
 import { interruptedMessage, runGrid, type GridOptions, type GridOutcome, type GridResult } from '../grid/runGrid.js';
-import { stopOnSigint } from '../grid/stopOnSigint.js';
+import { stopOnSignals } from '../grid/stopOnSignals.js';
 import type { GridRow } from '../grid/taskModule.js';
 import type { BacktestInputData, BacktestInputPaths } from '../io/readBacktestInputs.js';
 import { jsonText } from '../io/planOutputs.js';
+import type { OutputLock } from '../io/outputLock.js';
 import { checkOutputFolder } from '../io/writeOutputs.js';
+import { runInputFiles } from './inputFiles.js';
+import { lockedRun } from './lockedRun.js';
 import type { LevelUse } from './forecastLevels.js';
 import type { Done, Interrupted } from './commandResult.js';
 import { forecastMaker, gridInputFiles, type ModelForecast } from './modelForecast.js';
@@ -16,9 +19,9 @@ import { readRunInputs, requireCoveredDay, runInputPaths } from './runInputs.js'
 import type { InputSources, ModelSettings } from './settingSchemas.js';
 
 /**
- * Runs a grid (runGrid) with a progress display and Ctrl-C handling: the first Ctrl-C lets the
- * running settings finish and keeps them in the journal; the run then returns `interrupted` with how
- * to resume (the CLI ends with exit code 130).
+ * Runs a grid (runGrid) with a progress display and Ctrl-C and SIGTERM handling: the first of them
+ * lets the running settings finish and keeps them in the journal; the run then returns `interrupted`
+ * with how to resume and the signal (the CLI ends with exit code 130 after Ctrl-C, 143 after SIGTERM).
  */
 export async function runCommandGrid<const Axes extends readonly GridAxis[], Input, Row extends GridRow>(
   hooks: RunHooks,
@@ -27,7 +30,7 @@ export async function runCommandGrid<const Axes extends readonly GridAxis[], Inp
 ): Promise<Extract<GridOutcome<SettingOf<Axes>, Row>, { status: 'complete' }> | Interrupted> {
   const total = options.axes.reduce((product, axis) => product * axis.values.length, 1);
   const progress = hooks.progress(label, total);
-  const stop = stopOnSigint((text) => hooks.warn(text));
+  const stop = stopOnSignals((text) => hooks.warn(text));
   let outcome: GridOutcome<SettingOf<Axes>, Row>;
   try {
     outcome = await runGrid<Axes, Input, Row>({ ...options, signal: stop.signal, onProgress: (done) => progress.update(done) });
@@ -35,7 +38,7 @@ export async function runCommandGrid<const Axes extends readonly GridAxis[], Inp
     stop.dispose();
     progress.finish();
   }
-  if (outcome.status === 'interrupted') return { status: 'interrupted', message: interruptedMessage(outcome) };
+  if (outcome.status === 'interrupted') return { status: 'interrupted', message: interruptedMessage(outcome), signal: stop.received() ?? 'SIGINT' };
   return outcome;
 }
 
@@ -44,6 +47,8 @@ export interface GridCommand<Axes extends readonly GridAxis[], Input, Row extend
   /** `sweep` or `size`: the progress label, the table `<command>.csv`, the fingerprint's command. */
   readonly command: 'sweep' | 'size';
   readonly run: { readonly out: string; readonly force: boolean; readonly restart: boolean; readonly report: boolean; readonly threads?: number | undefined };
+  /** The lock of the output folder, held by the caller (lockedGridRun). */
+  readonly lock: OutputLock;
   readonly axes: Axes;
   /** The compiled task module beside the use case, e.g. `new URL('./sweepTask.js', import.meta.url)`. */
   readonly taskModule: URL;
@@ -88,6 +93,7 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
     ...(run.threads === undefined ? {} : { threads: run.threads }),
     restart: run.restart,
     force: run.force,
+    lock: spec.lock,
     csvName: `${spec.command}.csv`,
     optionalOutputs: ['report.html'],
     ...(spec.moreRows === undefined ? {} : { moreRows: spec.moreRows }),
@@ -101,21 +107,35 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
   return { status: 'done', summary, text: `${spec.summaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}` };
 }
 
+/** The inputs of a grid command, read and checked (readGridInputs). */
+export interface GridInputs {
+  readonly paths: BacktestInputPaths;
+  readonly data: BacktestInputData;
+  readonly model: ModelForecast | undefined;
+}
+
+/** The settings of a grid command that readGridInputs and lockedGridRun use. */
+type GridInputSettings = { readonly inputs: InputSources; readonly model?: ModelSettings | undefined; readonly from: string; readonly to: string; readonly out: string; readonly force: boolean; readonly report: boolean };
+
 /**
- * The inputs of a grid command, read and checked in this thread before any setting runs: the input
- * paths, the output folder (the table, summary.json and, when asked, report.html), every input file
- * and the levels the grid reads (readRunInputs, remembered for a one-thread grid's task), a span
+ * A grid command run under the lock of its output folder (io/outputLock.ts) from the first input read
+ * to the last output written: the input paths and the output folder are checked (the table,
+ * summary.json and, when asked, report.html; none of them an input), the lock is taken, the inputs are
+ * read (readGridInputs) and `body` runs the grid; the lock is released when it ends.
+ */
+export function lockedGridRun<R>(settings: GridInputSettings, command: 'sweep' | 'size', use: LevelUse, hooks: RunHooks, body: (inputs: GridInputs, lock: OutputLock) => Promise<R>): Promise<R> {
+  const paths = runInputPaths(settings.inputs, settings.model);
+  checkOutputFolder(settings.out, [`${command}.csv`, 'summary.json', ...(settings.report ? ['report.html'] : [])], settings.force, runInputFiles(settings.inputs, paths));
+  return lockedRun(settings.out, command, (lock) => body(readGridInputs(settings, paths, use, hooks), lock as OutputLock));
+}
+
+/**
+ * The inputs of a grid command, read and checked in this thread before any setting runs: every input
+ * file and the levels the grid reads (readRunInputs, remembered for a one-thread grid's task), a span
  * with at least one covered day; with --model the forecasts are made here, once, before the workers
  * start.
  */
-export function readGridInputs(
-  settings: { readonly inputs: InputSources; readonly model?: ModelSettings | undefined; readonly from: string; readonly to: string; readonly out: string; readonly force: boolean; readonly report: boolean },
-  table: string,
-  use: LevelUse,
-  hooks: RunHooks,
-): { readonly paths: BacktestInputPaths; readonly data: BacktestInputData; readonly model: ModelForecast | undefined } {
-  const paths = runInputPaths(settings.inputs, settings.model);
-  checkOutputFolder(settings.out, [table, 'summary.json', ...(settings.report ? ['report.html'] : [])], settings.force);
+function readGridInputs(settings: GridInputSettings, paths: BacktestInputPaths, use: LevelUse, hooks: RunHooks): GridInputs {
   const maker = forecastMaker(settings.model, paths.history, settings, hooks);
   const data = readRunInputs(paths, use, maker, hooks, true);
   requireCoveredDay(data, paths, settings.from, settings.to);

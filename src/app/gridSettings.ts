@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { parseAxes, parseNumberAxis, parseWordAxis } from '../grid/gridAxis.js';
-import { inputSourcesSchema, modelSettingsSchema, outFolderSchema } from './settingSchemas.js';
+import { RUN_LIMITS } from './settingRules.js';
+import { boundedNumber, inputSourcesSchema, modelSettingsSchema, outFolderSchema } from './settingSchemas.js';
 
 export { parseAxes, parseNumberAxis, parseWordAxis };
 
@@ -19,7 +20,7 @@ export const gridRunSettings = {
   /** Make the forecasts from the history instead of reading a forecast file. */
   model: modelSettingsSchema.optional(),
   /** Threads running settings, this one included; default the number of CPUs. */
-  threads: z.number().int().min(1).optional(),
+  threads: boundedNumber(RUN_LIMITS.threads, true).optional(),
   /** Discard the journal of an interrupted run in `out` and start over; default resume it. */
   restart: z.boolean().default(false),
   /** Folder for the table and summary.json (and report.html). */

@@ -5,7 +5,7 @@ import type { BacktestInputData } from '../io/readBacktestInputs.js';
  * command hands its worker threads, already read and checked in the parent, so that no worker reads
  * or parses a file again. A backtest over from..to reads no history or forecast day outside them
  * (runBacktest.ts plans each day from that day's forecast and settles it at that day's prices).
- * Plain data: it crosses into a worker by structured clone.
+ * Plain data; the grid commands share it with their workers as SharedInputs (io/sharedInputs.ts).
  */
 export function inputDataSpan(data: BacktestInputData, from: string, to: string): BacktestInputData {
   const inSpan = (day: string): boolean => day >= from && day <= to;

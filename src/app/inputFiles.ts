@@ -1,6 +1,7 @@
 import { relative } from 'node:path';
 import { throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { pathKind } from '../io/pathKind.js';
+import type { RunInputFile } from '../io/writeOutputs.js';
 import { readScenario } from '../io/readScenario.js';
 import type { InputSources } from './settingSchemas.js';
 
@@ -35,4 +36,13 @@ export function inputFiles<N extends InputName, O extends InputName = never>(
   }
   throwIfProblems(problems);
   return scenario?.demoDay === undefined ? { paths } : { paths, demoDay: scenario.demoDay };
+}
+
+/** The input files of a run (the scenario file and the files it uses), for the check that no output is one of them. */
+export function runInputFiles(sources: InputSources, paths: Partial<Record<InputName, string>>, more: Readonly<Record<string, string | undefined>> = {}): RunInputFile[] {
+  const files: RunInputFile[] = [];
+  if (sources.scenario !== undefined) files.push({ path: sources.scenario, what: 'the scenario file' });
+  for (const [name, path] of Object.entries(paths)) if (path !== undefined) files.push({ path, what: `the ${name} file` });
+  for (const [what, path] of Object.entries(more)) if (path !== undefined) files.push({ path, what });
+  return files;
 }

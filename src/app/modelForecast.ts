@@ -1,22 +1,19 @@
 import { InputError } from '../errors/inputError.js';
 import { DEFAULTS, type ForecastMethod } from '../forecast/forecaster.js';
 import { NO_STORE, storedForecastRange } from '../forecast/storedForecastRange.js';
-import { DEFAULT_FORECAST_CACHE_DIR, ForecastCache } from '../io/forecastCache.js';
+import { ForecastCache } from '../io/forecastCache.js';
 import { quantileForecastCsv } from '../io/quantileForecastCsv.js';
 import type { BacktestInputPaths, MakeForecast } from '../io/readBacktestInputs.js';
 import { parseQuantileForecast, type QuantileForecastFile } from '../io/readQuantileForecast.js';
 import { DayCalendar } from '../market/dayCalendar.js';
 import type { MarketSpec, PriceHistory } from '../types.js';
 import { packageVersion } from './packageInfo.js';
+import { DEFAULT_LEVELS_TEXT, MODEL_DEFAULTS } from './commandDefaults.js';
 import type { RunHooks } from './runHooks.js';
 import { levelsFromText } from './settingRules.js';
 import type { ModelSettings } from './settingSchemas.js';
 
-/** The levels `quantbid forecast` and --model forecast by default, as written in the help. */
-export const DEFAULT_LEVELS_TEXT = '0.05:0.95:0.05';
-
-/** Defaults of --model: the levels of `quantbid forecast`, the cache in `.quantbid-cache/forecasts` of the working folder. */
-export const MODEL_DEFAULTS = Object.freeze({ levels: DEFAULT_LEVELS_TEXT, cacheDir: DEFAULT_FORECAST_CACHE_DIR });
+export { DEFAULT_LEVELS_TEXT, MODEL_DEFAULTS } from './commandDefaults.js';
 
 /** DEFAULT_LEVELS_TEXT as numbers. */
 export function defaultLevels(): number[] {

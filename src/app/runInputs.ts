@@ -38,11 +38,17 @@ export function readRunInputs(paths: BacktestInputPaths, use: LevelUse, maker: F
   return data;
 }
 
-/** A grid over a span without a day that has both a complete history and a complete forecast is bad input. */
+/**
+ * A run over a span without a day that has both a complete history and a complete forecast is bad
+ * input (backtest, sweep, size): the message says which days each file has.
+ */
 export function requireCoveredDay(data: BacktestInputData, paths: BacktestInputPaths, from: string, to: string): void {
   if (coveredDays(data.history, data.forecast, from, to).length === 0) {
+    const span = (days: readonly string[]): string => (days.length === 0 ? 'no complete day' : `complete days from ${days[0]} to ${days[days.length - 1]}`);
+    const forecastDays = [...data.forecast.days.keys()].sort();
+    const has = `the history has ${span(data.history.days.map((d) => d.day))}, the forecast ${span(forecastDays)}`;
     throw new InputError([
-      { file: paths.history, field: '--from', message: `no day from ${from} to ${to} has both a complete history and a complete forecast`, fix: 'choose days that both files cover' },
+      { file: paths.history, field: '--from', message: `no day from ${from} to ${to} has both a complete history and a complete forecast (${has})`, fix: 'choose days that both files cover' },
     ]);
   }
 }

@@ -7,6 +7,8 @@ import { dirname, parse, resolve } from 'node:path';
 import { shownText } from '../errors/shownText.js';
 import { parseDecimalRange } from '../grid/decimalRange.js';
 import { parseDecimal } from '../io/csvText.js';
+import { dayNumber } from '../market/civilDays.js';
+import { isLevel, LEVEL_RANGE_TEXT } from '../forecast/quantiles/levels.js';
 
 /** A decimal number with a dot, as in the input files (no hex, no Infinity, no blanks around it kept), or NaN. */
 export function decimalOf(text: string): number {
@@ -34,11 +36,25 @@ export function outFolderProblem(out: string, form: 'folder' | 'folder-or-csv-fi
   return null;
 }
 
+/**
+ * The first and last delivery day of a run, both included: the first not after the last, and at most
+ * MAX_SPAN_YEARS apart, so that a run never walks through millennia of days without data.
+ */
+export function spanProblem(from: string, to: string): string | null {
+  if (from > to) return `--to ${to} is before --from ${from}`;
+  const first = dayNumber(from);
+  const last = dayNumber(to);
+  if (first === null || last === null) return null;
+  const years = (last - first + 1) / 365.2425;
+  if (years > MAX_SPAN_YEARS) return `--from ${from} to --to ${to} spans ${Math.round(years)} years, more than the ${MAX_SPAN_YEARS} a run may cover`;
+  return null;
+}
+
 /** Most quantile levels one forecast may have [-] (0.01:0.99:0.01 is 99). */
 export const MAX_LEVELS = 99;
 
 /** How levels are written, for the problem texts. */
-const LEVELS_FORM = 'give levels in (0, 1) as a range start:end:step (e.g. 0.05:0.95:0.05) or a list (e.g. 0.1,0.5,0.9)';
+const LEVELS_FORM = `give levels in ${LEVEL_RANGE_TEXT} as a range start:end:step (e.g. 0.05:0.95:0.05) or a list (e.g. 0.1,0.5,0.9)`;
 
 /**
  * Quantile levels from text: a range `start:end:step` (exact decimals, end included when on the grid,
@@ -64,11 +80,45 @@ export function levelsFromText(text: string): { readonly levels: number[] } | { 
   return problem === null ? { levels } : bad(problem);
 }
 
-/** Why these cannot be a forecast's levels, or null: at most MAX_LEVELS, each in (0, 1), strictly increasing. */
+/** Why these cannot be a forecast's levels, or null: at most MAX_LEVELS, each in LEVEL_RANGE, strictly increasing. */
 export function levelsProblem(levels: readonly number[]): string | null {
   if (levels.length > MAX_LEVELS) return `${levels.length} levels, more than ${MAX_LEVELS}`;
-  const outside = levels.filter((tau) => !(tau > 0 && tau < 1));
-  if (outside.length > 0) return `level${outside.length > 1 ? 's' : ''} ${outside.join(', ')} outside (0, 1)`;
+  const outside = levels.filter((tau) => !isLevel(tau));
+  if (outside.length > 0) return `level${outside.length > 1 ? 's' : ''} ${outside.join(', ')} outside ${LEVEL_RANGE_TEXT}`;
   if (levels.some((tau, k) => k > 0 && !(tau > (levels[k - 1] as number)))) return 'the levels do not increase strictly';
   return null;
+}
+
+/**
+ * The ranges of the numbers a run takes from its flags or settings, beside the battery's own
+ * (battery/batterySpec.ts BATTERY_LIMITS, also the size axes') and alpha's (plan/alpha.ts): sane
+ * physically and economically, and small enough that no sum, power or product of them overflows or
+ * runs for long. Capital costs up to 1e9 currency per MWh or MW (a battery costs some 2e5 EUR/MWh;
+ * the bound leaves room for currencies of small units), fixed O&M up to 1e8 per MW-year, a life of 1 to
+ * 100 whole years and of 100 to 1,000,000 equivalent full cycles (cells last some thousands, common
+ * practice), a discount rate from -50% to +100% a year, 1 to 1024 threads, and a span of days of at
+ * most MAX_SPAN_YEARS.
+ */
+export const RUN_LIMITS = Object.freeze({
+  socStartMwh: [0, 100_000],
+  capexPerMwh: [0, 1e9],
+  capexPerMw: [0, 1e9],
+  fixedOmPerMwYear: [0, 1e8],
+  lifeYears: [1, 100],
+  lifeCycles: [100, 1_000_000],
+  discountRate: [-0.5, 1],
+  threads: [1, 1024],
+  /** Paths the curves are planned on (curve, auto). */
+  planningPaths: [2, 10_000],
+  /** lambda of mean + lambda x CVaR 5 % (curve, auto). */
+  riskWeight: [0, 1000],
+} as const satisfies Record<string, readonly [number, number]>);
+
+/** Longest span of delivery days a run may cover [years]: ten years of quarter-hours are 350,000 periods. */
+export const MAX_SPAN_YEARS = 50;
+
+/** Why `value` is not a number in [lo, hi] (a whole number when `whole`), or null. */
+export function rangeProblem(value: number, [lo, hi]: readonly [number, number], whole = false): string | null {
+  if (whole ? Number.isInteger(value) && value >= lo && value <= hi : value >= lo && value <= hi) return null;
+  return `must be a ${whole ? 'whole number' : 'number'} in [${lo}, ${hi}]`;
 }

@@ -5,11 +5,13 @@
  */
 import { z } from 'zod';
 import { InputError } from '../errors/inputError.js';
-import { FORECAST_METHODS } from '../forecast/forecaster.js';
-import { isValidDay } from '../market/calendar.js';
+import { FORECAST_METHODS } from '../forecast/forecastMethods.js';
+import { isValidDay } from '../market/civilDays.js';
 import { ALPHA_RULE, isAlpha } from '../plan/alpha.js';
 import { UNACCEPTED_RULES, type UnacceptedRule } from '../settle/settleDay.js';
-import { levelsProblem, outFolderProblem, pathProblem } from './settingRules.js';
+import { levelsProblem, outFolderProblem, pathProblem, rangeProblem, spanProblem } from './settingRules.js';
+
+export { spanProblem } from './settingRules.js';
 
 /** A delivery day, YYYY-MM-DD. */
 export const daySchema = z.string().refine(isValidDay, 'must be a day YYYY-MM-DD, e.g. 2027-03-28');
@@ -62,9 +64,12 @@ export const modelSettingsSchema = z.strictObject({
 });
 export type ModelSettings = z.input<typeof modelSettingsSchema>;
 
-/** The first and last delivery day of a run, both included, the first not after the last. */
-export function spanProblem(from: string, to: string): string | null {
-  return from > to ? `--to ${to} is before --from ${from}` : null;
+/** A number of the settings in [lo, hi] (a whole number when `whole`), with rangeProblem's words. */
+export function boundedNumber(limits: readonly [number, number], whole = false) {
+  return z.number().superRefine((value, ctx) => {
+    const problem = rangeProblem(value, limits, whole);
+    if (problem !== null) ctx.addIssue({ code: 'custom', message: `${value} ${problem}` });
+  });
 }
 
 /** The span check of a settings schema (`.superRefine(checkSpan)`): a `to` before `from` is a problem of `to`. */

@@ -19,6 +19,10 @@ export const BACKTEST_POLICIES: readonly BacktestPolicy[] = Object.freeze(['quan
 /** The policies a backtest runs when none are named: those that need no scenarios. */
 export const DEFAULT_BACKTEST_POLICIES: readonly BacktestPolicy[] = Object.freeze(['quantile', 'median', 'point', 'price-taking', 'perfect-foresight']);
 
+/** Policies a sweep varies alpha for: the two whose orders depend on it. */
+export const SWEEP_POLICIES = Object.freeze(['quantile', 'median', 'curve', 'auto'] as const);
+export type SweepPolicy = (typeof SWEEP_POLICIES)[number];
+
 /**
  * Whether a policy reads the forecast at alpha and 1 - alpha: quantile and median do (their limits,
  * and for quantile the schedule, come from q(alpha) and q(1 - alpha)); the others ignore alpha.

@@ -1,13 +1,15 @@
 import type { BatteryModel, DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory, QuantileDay } from '../types.js';
 import { daysBetween } from '../market/calendar.js';
-import type { SolveDayOptions } from '../plan/solveDay.js';
 import { chooseImbalanceSource, dayImbalancePrices, NoImbalancePriceError, type ImbalancePrices, type ImbalanceSource } from '../settle/imbalancePrices.js';
 import { settleDay, type SettledPeriod, type UnacceptedRule } from '../settle/settleDay.js';
 import type { SettlementTotals } from '../settle/settlementTotals.js';
-import { DEFAULT_BACKTEST_POLICIES, type BacktestPolicy } from './backtestPolicy.js';
+import type { BacktestPolicy } from './backtestPolicy.js';
+import { BACKTEST_DEFAULTS, type BacktestOptions } from './backtestOptions.js';
 import type { DayBid } from './dayBid.js';
 import { planPolicyDay, type PlanFailure, type ScenarioReport } from './planPolicyDay.js';
-import type { DayScenarios, ScenarioPlanning } from './scenarioPlanning.js';
+import type { DayScenarios } from './scenarioPlanning.js';
+
+export { BACKTEST_DEFAULTS, type BacktestOptions } from './backtestOptions.js';
 
 /** Quantile forecasts by day, and the days the forecast file left out (a QuantileForecastFile fits). */
 export interface ForecastDays {
@@ -24,44 +26,6 @@ export interface BacktestInput {
   readonly from: string;
   readonly to: string;
 }
-
-/** Options of runBacktest, merged over BACKTEST_DEFAULTS. */
-export interface BacktestOptions {
-  /** Tail level of the quantile and median policies (buys limited at q(1 - alpha), sells at q(alpha)), in (0, 0.5). Default 0.1. */
-  readonly alpha: number;
-  /** What the battery does about unaccepted orders. Default `follow-plan`. */
-  readonly unaccepted: UnacceptedRule;
-  /** Policies to run side by side, in this order. Default the five that need no scenarios (DEFAULT_BACKTEST_POLICIES). */
-  readonly policies: readonly BacktestPolicy[];
-  /** Keep every period's orders and settlement (for ledger.csv); a sweep turns it off. Default true. */
-  readonly keepLedger: boolean;
-  /**
-   * Passed to every solveDay call, e.g. another LP solver. This is where a faster exact day solver
-   * plugs in once solveDay (or planDay) accepts it; the backtest itself does not care which solves.
-   */
-  readonly solveOptions: Partial<SolveDayOptions>;
-  /** Called after each day of [from, to], covered or skipped (progress display). Default none. */
-  readonly onDay: ((progress: { readonly day: string; readonly done: number; readonly total: number }) => void) | null;
-  /**
-   * Called with each covered day, its ledger included, as soon as it is settled: a long backtest can
-   * write ledger.csv day by day and, with keepLedger false, keep no ledger in memory (ten years of
-   * quarter-hours and five policies are 1.75 million settled periods). Default none.
-   */
-  readonly onLedgerDay: ((day: BacktestDay) => void) | null;
-  /** Paths, solver and settings of the `curve` and `auto` policies; null when neither runs. Default null. */
-  readonly scenarioPlanning: ScenarioPlanning | null;
-}
-
-export const BACKTEST_DEFAULTS: BacktestOptions = Object.freeze({
-  alpha: 0.1,
-  unaccepted: 'follow-plan',
-  policies: DEFAULT_BACKTEST_POLICIES,
-  keepLedger: true,
-  solveOptions: Object.freeze({}),
-  onDay: null,
-  onLedgerDay: null,
-  scenarioPlanning: null,
-});
 
 /** One policy on one day. */
 export interface PolicyDay {
@@ -180,7 +144,9 @@ function runDay(
       unaccepted: settings.unaccepted, scenarioPlanning: planning, scenarios,
     });
     const optimal = plan.status === 'optimal';
+    const keepLedger = settings.keepLedger || settings.onLedgerDay !== null;
     const settled = settleDay({
+      keepPeriods: keepLedger,
       periodHours: market.periodMinutes / 60,
       battery,
       socStartMwh,
@@ -201,7 +167,7 @@ function runDay(
       socStartMwh,
       socEndMwh: settled.socEndMwh,
       totals: settled.totals,
-      ledger: settings.keepLedger || settings.onLedgerDay !== null ? { orders: plan.orders, periods: settled.periods } : null,
+      ledger: keepLedger ? { orders: plan.orders, periods: settled.periods } : null,
     };
   });
   return { day: realised.day, periods: realised.periods, clearingPricePerMwh: realised.pricePerMwh, imbalance, runs };

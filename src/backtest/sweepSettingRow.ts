@@ -6,13 +6,9 @@ import { policyMetrics } from './policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from './policyRun.js';
 import type { BacktestInput } from './runBacktest.js';
 import type { ScenarioPlanning } from './scenarioPlanning.js';
+import type { SweepPolicy } from './backtestPolicy.js';
 
-/**
- * Policies a sweep may run: the two whose orders depend on alpha, and the two that plan on whole-day
- * scenarios (curve, auto), which ignore alpha: their row is the same at every alpha of the axis.
- */
-export const SWEEP_POLICIES = Object.freeze(['quantile', 'median', 'curve', 'auto'] as const);
-export type SweepPolicy = (typeof SWEEP_POLICIES)[number];
+export { SWEEP_POLICIES, type SweepPolicy } from './backtestPolicy.js';
 
 /**
  * The reference policies whose rows sweep.csv carries after the grid, once per rule: they do not

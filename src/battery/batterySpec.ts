@@ -8,25 +8,42 @@ export const BATTERY_DEFAULTS = Object.freeze({
   degradationCostPerMwh: 0,
 });
 
-const num = (field: string) =>
-  z.number({ error: (issue) => (issue.input === undefined ? `missing ${field}` : `${field} must be a number`) }).finite();
-const positive = (field: string) => num(field).gt(0, `${field} must be > 0`);
-const efficiency = (field: string) => num(field).gt(0, `${field} must be in (0, 1]`).lte(1, `${field} must be in (0, 1]`);
-const fraction = (field: string) => num(field).min(0, `${field} must be in [0, 1]`).max(1, `${field} must be in [0, 1]`);
+/**
+ * The ranges of the battery's numbers: physically and economically sane, so that no arithmetic on them
+ * can overflow or lose all precision. Energy and power from 1 kWh / 1 kW to 100 GWh / 100 GW (the
+ * largest batteries built hold a few GWh, common practice); efficiencies from 5% (below that a store
+ * only burns energy) to 100%; cycle caps from 0.01 to 100 a day; a wear cost as large as a price can be.
+ */
+export const BATTERY_LIMITS = Object.freeze({
+  energyMwh: [0.001, 100_000],
+  powerMw: [0.001, 100_000],
+  efficiency: [0.05, 1],
+  maxCyclesPerDay: [0.01, 100],
+  degradationCostPerMwh: [0, 1_000_000],
+} as const satisfies Record<string, readonly [number, number]>);
+
+/** A number of the spec in [lo, hi]; Infinity (JSON's 1e999) and NaN are out of that range too. */
+const bounded = (field: string, [lo, hi]: readonly [number, number]) =>
+  z
+    .number({ error: (issue) => (issue.input === undefined ? `missing ${field}` : typeof issue.input === 'number' ? `${field} must be in [${lo}, ${hi}]` : `${field} must be a number`) })
+    .min(lo, `${field} must be in [${lo}, ${hi}]`)
+    .max(hi, `${field} must be in [${lo}, ${hi}]`);
+const efficiency = (field: string) => bounded(field, BATTERY_LIMITS.efficiency);
+const fraction = (field: string) => bounded(field, [0, 1]);
 
 /** The fields of `battery.json` (docs/design.md section 8), each checked on its own. */
 const batteryFields = z.strictObject({
-  /** Nameplate energy capacity [MWh], > 0. */
-  energyMwh: positive('energyMwh'),
-  /** Maximum charge power at the grid connection [MW], > 0. */
-  chargeMw: positive('chargeMw'),
-  /** Maximum discharge power at the grid connection [MW], > 0. */
-  dischargeMw: positive('dischargeMw'),
-  /** Round-trip efficiency (0, 1]; split as sqrt into charge and discharge. Either this or both of the next two. */
+  /** Nameplate energy capacity [MWh], in BATTERY_LIMITS.energyMwh. */
+  energyMwh: bounded('energyMwh', BATTERY_LIMITS.energyMwh),
+  /** Maximum charge power at the grid connection [MW], in BATTERY_LIMITS.powerMw. */
+  chargeMw: bounded('chargeMw', BATTERY_LIMITS.powerMw),
+  /** Maximum discharge power at the grid connection [MW], in BATTERY_LIMITS.powerMw. */
+  dischargeMw: bounded('dischargeMw', BATTERY_LIMITS.powerMw),
+  /** Round-trip efficiency [0.05, 1]; split as sqrt into charge and discharge. Either this or both of the next two. */
   roundTripEfficiency: efficiency('roundTripEfficiency').optional(),
-  /** Charge efficiency (0, 1]: MWh stored per MWh bought. */
+  /** Charge efficiency [0.05, 1]: MWh stored per MWh bought. */
   chargeEfficiency: efficiency('chargeEfficiency').optional(),
-  /** Discharge efficiency (0, 1]: MWh sold per MWh taken from store. */
+  /** Discharge efficiency [0.05, 1]: MWh sold per MWh taken from store. */
   dischargeEfficiency: efficiency('dischargeEfficiency').optional(),
   /** Lowest allowed state of charge as a fraction of energyMwh [-], default 0. */
   socMinFraction: fraction('socMinFraction').default(BATTERY_DEFAULTS.socMinFraction),
@@ -41,11 +58,9 @@ const batteryFields = z.strictObject({
    * discharge losses) at most maxCyclesPerDay x the usable window, so one full swing of the window is one
    * cycle (docs/design.md section 4.1). Default: none.
    */
-  maxCyclesPerDay: positive('maxCyclesPerDay').optional(),
-  /** Wear cost per MWh discharged [currency/MWh], >= 0, default 0. */
-  degradationCostPerMwh: num('degradationCostPerMwh')
-    .min(0, 'degradationCostPerMwh must be >= 0')
-    .default(BATTERY_DEFAULTS.degradationCostPerMwh),
+  maxCyclesPerDay: bounded('maxCyclesPerDay', BATTERY_LIMITS.maxCyclesPerDay).optional(),
+  /** Wear cost per MWh discharged [currency/MWh], in BATTERY_LIMITS.degradationCostPerMwh, default 0. */
+  degradationCostPerMwh: bounded('degradationCostPerMwh', BATTERY_LIMITS.degradationCostPerMwh).default(BATTERY_DEFAULTS.degradationCostPerMwh),
 });
 
 /** Schema of `battery.json`, with the physical sanity checks. */
@@ -94,15 +109,15 @@ export const BATTERY_FIELD_FIXES: Readonly<Record<string, string>> = {
   energyMwh: 'give the usable nameplate energy in MWh, e.g. 10',
   chargeMw: 'give the charge power limit at the grid connection in MW, e.g. 5',
   dischargeMw: 'give the discharge power limit at the grid connection in MW, e.g. 5',
-  roundTripEfficiency: 'give roundTripEfficiency in (0, 1], e.g. 0.88, or both chargeEfficiency and dischargeEfficiency',
-  chargeEfficiency: 'give chargeEfficiency in (0, 1] together with dischargeEfficiency',
-  dischargeEfficiency: 'give dischargeEfficiency in (0, 1] together with chargeEfficiency',
+  roundTripEfficiency: 'give roundTripEfficiency in [0.05, 1], e.g. 0.88, or both chargeEfficiency and dischargeEfficiency',
+  chargeEfficiency: 'give chargeEfficiency in [0.05, 1] together with dischargeEfficiency',
+  dischargeEfficiency: 'give dischargeEfficiency in [0.05, 1] together with chargeEfficiency',
   socMinFraction: 'give the lowest state of charge as a fraction of energyMwh, e.g. 0.05',
   socMaxFraction: 'give the highest state of charge as a fraction of energyMwh, above socMinFraction, e.g. 0.95',
   socInitialFraction: 'give a starting state of charge inside [socMinFraction, socMaxFraction]',
   socFinalMinFraction: 'give an end-of-day floor inside [socMinFraction, socMaxFraction], or leave it out',
-  maxCyclesPerDay: 'give a positive number of equivalent full cycles per day, or leave it out',
-  degradationCostPerMwh: 'give a wear cost >= 0 per MWh discharged, e.g. 4',
+  maxCyclesPerDay: 'give the equivalent full cycles per day, e.g. 1.5, or leave it out',
+  degradationCostPerMwh: 'give a wear cost per MWh discharged in currency/MWh, e.g. 4',
 };
 
 /** Battery spec, as read from `battery.json`: the type of batterySpecSchema's output (defaults filled in). */
@@ -112,65 +127,4 @@ export function parseBatterySpec(value: unknown): z.ZodSafeParseResult<BatterySp
   return batterySpecSchema.safeParse(value);
 }
 
-/** Battery values the planner uses, derived once from a BatterySpec (all in physical units). */
-export interface BatteryModel {
-  /** Nameplate energy [MWh]. */
-  readonly energyMwh: number;
-  /** Charge power limit [MW]. */
-  readonly chargeMw: number;
-  /** Discharge power limit [MW]. */
-  readonly dischargeMw: number;
-  /** Charge efficiency eta_c (0, 1] [-]. */
-  readonly chargeEfficiency: number;
-  /** Discharge efficiency eta_d (0, 1] [-]. */
-  readonly dischargeEfficiency: number;
-  /** State-of-charge window [MWh]. */
-  readonly socMinMwh: number;
-  readonly socMaxMwh: number;
-  /** State of charge at the start of the first day [MWh]. */
-  readonly socInitialMwh: number;
-  /** End-of-day floor [MWh]; undefined means "the day's starting state". */
-  readonly socFinalMinMwh: number | undefined;
-  /**
-   * Cap on energy taken out of the store per day [MWh stored, before the discharge losses: discharged at
-   * the grid / eta_d]: maxCyclesPerDay x usable window. undefined means no cap.
-   */
-  readonly maxFromStoreMwhPerDay: number | undefined;
-  /** Wear cost per MWh discharged (at the grid) [currency/MWh]. */
-  readonly degradationCostPerMwh: number;
-}
-
-/**
- * Physical values the planner uses.
- *
- * With only a round-trip efficiency, eta_c = eta_d = sqrt(roundTrip) (common practice: losses split
- * evenly between the two conversions). The cycle cap limits energy taken out of the store per day
- * (discharged at the grid / eta_d) to maxCyclesPerDay x usable energy, usable = (socMax - socMin) x
- * energyMwh: equivalent full cycles count a full swing of the window as one cycle (docs/design.md
- * section 4.1), the same count as equivalentFullCycles.
- */
-export function batteryModel(spec: BatterySpec): BatteryModel {
-  const roundTrip = spec.roundTripEfficiency;
-  const chargeEfficiency = spec.chargeEfficiency ?? Math.sqrt(roundTrip ?? 1);
-  const dischargeEfficiency = spec.dischargeEfficiency ?? Math.sqrt(roundTrip ?? 1);
-  const socMinMwh = spec.socMinFraction * spec.energyMwh;
-  const socMaxMwh = spec.socMaxFraction * spec.energyMwh;
-  return {
-    energyMwh: spec.energyMwh,
-    chargeMw: spec.chargeMw,
-    dischargeMw: spec.dischargeMw,
-    chargeEfficiency,
-    dischargeEfficiency,
-    socMinMwh,
-    socMaxMwh,
-    socInitialMwh: spec.socInitialFraction * spec.energyMwh,
-    socFinalMinMwh: spec.socFinalMinFraction === undefined ? undefined : spec.socFinalMinFraction * spec.energyMwh,
-    maxFromStoreMwhPerDay: spec.maxCyclesPerDay === undefined ? undefined : spec.maxCyclesPerDay * (socMaxMwh - socMinMwh),
-    degradationCostPerMwh: spec.degradationCostPerMwh,
-  };
-}
-
-/** Round-trip efficiency of a model [-]: eta_c x eta_d. */
-export function roundTripEfficiency(battery: BatteryModel): number {
-  return battery.chargeEfficiency * battery.dischargeEfficiency;
-}
+export { batteryModel, roundTripEfficiency, type BatteryModel } from './batteryModel.js';

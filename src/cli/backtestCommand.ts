@@ -1,5 +1,4 @@
 import { Command, InvalidArgumentError, Option } from 'commander';
-import { backtestUseCase } from '../app/backtest/backtestUseCase.js';
 import { BACKTEST_DEFAULTS, BACKTEST_POLICIES, type BacktestPolicy, type UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
@@ -23,7 +22,6 @@ import {
   type ModelFlags,
   type ScenarioFlags,
 } from './options.js';
-import { loadHighsSolver } from '../app/solver/highsSolver.js';
 import { printResult } from './printResult.js';
 
 export interface BacktestFlags extends InputFlags, ModelFlags, ScenarioFlags {
@@ -108,8 +106,10 @@ Examples:
       force: flags.force === true,
       report: flags.report === true,
     };
+    const { backtestUseCase } = await import('../app/backtest/backtestUseCase.js');
     // HiGHS is loaded only when a policy plans on scenarios.
-    const tools = scenarios !== undefined && flags.policies.some((p) => p === 'curve' || p === 'auto') ? { lpSolver: await loadHighsSolver() } : {};
+    const onScenarios = scenarios !== undefined && flags.policies.some((p) => p === 'curve' || p === 'auto');
+    const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
     printResult(io, backtestUseCase(settings, cliHooks(io, flags.quiet === true), tools), flags.json === true);
   });
   return command;

@@ -1,5 +1,4 @@
 import { Command } from 'commander';
-import { demoUseCase } from '../app/plan/demoUseCase.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { forceOption, jsonOption, outOption } from './options.js';
@@ -12,8 +11,9 @@ export function demoCommand(io: CliIo): Command {
     .addOption(forceOption())
     .addOption(jsonOption())
     .addHelpText('after', '\nExamples:\n  quantbid demo\n  quantbid demo --out runs/demo --force')
-    .action((flags: { out?: string; force?: boolean; json?: boolean }) => {
+    .action(async (flags: { out?: string; force?: boolean; json?: boolean }) => {
       const settings = { ...(flags.out === undefined ? {} : { out: flags.out }), force: flags.force === true };
+      const { demoUseCase } = await import('../app/plan/demoUseCase.js');
       printResult(io, demoUseCase(settings, cliHooks(io, false)), flags.json === true);
     });
 }

@@ -1,8 +1,7 @@
 import { Command, InvalidArgumentError, Option } from 'commander';
 import { shownText } from '../errors/shownText.js';
-import { FORECAST_DEFAULTS, forecastUseCase } from '../app/forecast/forecastUseCase.js';
-import { DEFAULT_LEVELS_TEXT } from '../app/modelForecast.js';
-import { FORECAST_METHODS, FORECAST_OPTION_DEFAULTS, type ForecastMethod } from '../app/vocabulary.js';
+import { DEFAULT_LEVELS_TEXT, FORECAST_DEFAULTS } from '../app/commandDefaults.js';
+import { DEFAULT_CALIBRATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, type ForecastMethod } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addInputOptions, forceOption, inputSources, jsonOption, levelsArg, oneOf, outOption, quietOption, requireSpanAndOut, spanOptions, type InputFlags } from './options.js';
@@ -23,8 +22,8 @@ export interface ForecastFlags extends InputFlags {
 /** `--paths S`: a whole number of scenario paths per day, 0 to calibrationDays. */
 export function parsePathCountArg(value: string): number {
   const count = Number(value);
-  if (!/^\d+$/.test(value.trim()) || count > FORECAST_OPTION_DEFAULTS.calibrationDays) {
-    throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number of paths from 0 to ${FORECAST_OPTION_DEFAULTS.calibrationDays} (one per calibration day at most)`);
+  if (!/^\d+$/.test(value.trim()) || count > DEFAULT_CALIBRATION_DAYS) {
+    throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number of paths from 0 to ${DEFAULT_CALIBRATION_DAYS} (one per calibration day at most)`);
   }
   return count;
 }
@@ -36,7 +35,7 @@ export function forecastCommand(io: CliIo): Command {
     .addOption(from)
     .addOption(to)
     .option('--method <name>', `${FORECAST_METHODS.join(' | ')} (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
-    .addOption(new Option('--levels <list>', 'quantile levels in (0, 1): a range start:end:step or a list 0.1,0.5,0.9').argParser(levelsArg).default(levelsArg(DEFAULT_LEVELS_TEXT), DEFAULT_LEVELS_TEXT))
+    .addOption(new Option('--levels <list>', `quantile levels in ${LEVEL_RANGE_TEXT}: a range start:end:step or a list 0.1,0.5,0.9`).argParser(levelsArg).default(levelsArg(DEFAULT_LEVELS_TEXT), DEFAULT_LEVELS_TEXT))
     .option('--paths <S>', 'also write S whole-day scenario paths per day to paths.csv', parsePathCountArg, FORECAST_DEFAULTS.paths)
     .addOption(outOption('folder for quantiles.csv, forecast.json and (with --paths) paths.csv, or the quantile file itself, NAME.json and NAME.paths.csv going beside it (required)', 'folder-or-csv-file'))
     .addOption(quietOption())
@@ -68,9 +67,10 @@ Examples:
   quantbid score --scenario scenarios/halvorn/scenario.json \\
                  --forecast runs/fc/quantiles.csv --out runs/fc-score`,
   );
-  command.action((flags: ForecastFlags) => {
+  command.action(async (flags: ForecastFlags) => {
     const span = requireSpanAndOut(flags, { days: 'delivery day to forecast', outFolder: 'quantiles.csv and forecast.json' });
     const settings = { inputs: inputSources(flags), ...span, method: flags.method, levels: [...flags.levels], scenarioPaths: flags.paths, force: flags.force === true };
+    const { forecastUseCase } = await import('../app/forecast/forecastUseCase.js');
     printResult(io, forecastUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
   });
   return command;

@@ -1,5 +1,6 @@
 import { Command, CommanderError } from 'commander';
 import { InputError, formatProblem } from '../errors/inputError.js';
+import { shownText, terminalText } from '../errors/shownText.js';
 import { packageVersion } from '../app/packageInfo.js';
 import { backtestCommand } from './backtestCommand.js';
 import { forecastCommand } from './forecastCommand.js';
@@ -63,10 +64,10 @@ export async function main(argv: readonly string[], io: CliIo = processIo): Prom
     }
     if (err instanceof InputError) {
       for (const problem of err.problems) io.stderr(`${formatProblem(problem)}\n`);
-      io.stderr('nothing was written.\n');
+      io.stderr(err.kept === undefined ? 'nothing was written.\n' : `${shownText(err.kept, 1000)}\n`);
       return EXIT.badInput;
     }
-    io.stderr(`quantbid: internal fault, please report it: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}\n`);
+    io.stderr(terminalText(`quantbid: internal fault, please report it: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}\n`));
     return EXIT.internal;
   }
 }

@@ -8,9 +8,9 @@ import { InvalidArgumentError, Option, type Command } from 'commander';
 import { InputError, throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { shownText } from '../errors/shownText.js';
 import type { InputName } from '../app/inputFiles.js';
-import { MODEL_DEFAULTS } from '../app/modelForecast.js';
-import { decimalOf, levelsFromText, outFolderProblem, pathProblem } from '../app/settingRules.js';
-import { spanProblem, type InputSources, type ModelSettings } from '../app/settingSchemas.js';
+import { MODEL_DEFAULTS } from '../app/commandDefaults.js';
+import { decimalOf, levelsFromText, outFolderProblem, pathProblem, rangeProblem, RUN_LIMITS, spanProblem } from '../app/settingRules.js';
+import type { InputSources, ModelSettings } from '../app/settingSchemas.js';
 import type { ScenarioSettingsInput } from '../app/scenarios/scenarioSettings.js';
 import { ALPHA_RULE, FORECAST_METHODS, isAlpha, isValidDay, SCENARIO_DEFAULTS, UNACCEPTED_RULES, type ForecastMethod, type UnacceptedRule } from '../app/vocabulary.js';
 
@@ -29,32 +29,16 @@ export function alphaArg(value: string): number {
   return alpha;
 }
 
-export function nonNegativeArg(value: string): number {
-  const x = decimalOf(value);
-  if (!Number.isFinite(x) || x < 0) throw new InvalidArgumentError(`"${shownText(value)}" must be a number >= 0, e.g. 5 or 2.5`);
-  return x;
-}
-
-/** A number > 0, e.g. `--life-cycles 6000`. */
-export function positiveArg(value: string): number {
-  const x = decimalOf(value);
-  if (!(x > 0)) throw new InvalidArgumentError(`"${shownText(value)}" must be a number > 0, e.g. 6000`);
-  return x;
-}
-
-/** A rate per year > -1, e.g. `--discount-rate 0.07` for 7%. */
-export function rateArg(value: string): number {
-  const r = decimalOf(value);
-  if (!(r > -1)) throw new InvalidArgumentError(`"${shownText(value)}" must be a rate per year > -1 written as a fraction, e.g. 0.07 for 7%`);
-  return r;
-}
-
-/** A whole number >= `min`, e.g. `--threads 2` or `--life-years 15`. */
-export function wholeNumberArg(min: number, example: string): (value: string) => number {
+/**
+ * A number in [lo, hi] (a whole number when `whole`), e.g. `--life-years 15` or `--capex-per-mwh
+ * 180000`; the ranges are the app's (RUN_LIMITS), so the flags and the settings refuse the same values.
+ */
+export function rangeArg(limits: readonly [number, number], example: string, whole = false): (value: string) => number {
   return (value) => {
-    const n = decimalOf(value);
-    if (!Number.isInteger(n) || n < min) throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number >= ${min}, e.g. ${example}`);
-    return n;
+    const x = decimalOf(value);
+    const problem = rangeProblem(x, limits, whole);
+    if (problem !== null) throw new InvalidArgumentError(`"${shownText(value)}" ${problem}, e.g. ${example}`);
+    return x;
   };
 }
 
@@ -72,7 +56,7 @@ export function pathArg(value: string): string {
   return value;
 }
 
-/** `--levels`: a range start:end:step or a list, each level in (0, 1), increasing. */
+/** `--levels`: a range start:end:step or a list, each level in LEVEL_RANGE_TEXT, increasing. */
 export function levelsArg(value: string): number[] {
   const parsed = levelsFromText(value);
   if ('problem' in parsed) throw new InvalidArgumentError(parsed.problem);
@@ -131,7 +115,7 @@ export function addGridOptions(command: Command, table: string): Command {
   return command
     .addOption(from)
     .addOption(to)
-    .addOption(new Option('--threads <n>', 'threads running settings, this one included; 1 runs without workers (default: the number of CPUs)').argParser(wholeNumberArg(1, '2')))
+    .addOption(new Option('--threads <n>', 'threads running settings, this one included; 1 runs without workers (default: the number of CPUs)').argParser(rangeArg(RUN_LIMITS.threads, '2', true)))
     .option('--restart', `discard the journal of an interrupted run in --out and start over (default: resume it)`)
     .addOption(quietOption())
     .addOption(outOption(`folder for ${table} and summary.json (required)`))
@@ -224,7 +208,7 @@ export function requireSpanAndOut(
   const to = need(flags.to, '--to', `give --to YYYY-MM-DD, the last ${texts.days}`);
   const out = need(flags.out, '--out', `give --out DIR, the folder for ${texts.outFolder}`);
   const span = problems.length === 0 ? spanProblem(from, to) : null;
-  if (span !== null) problems.push({ file: 'command line', field: '--to', message: span, fix: 'give a --to on or after --from' });
+  if (span !== null) problems.push({ file: 'command line', field: '--to', message: span, fix: from > to ? 'give a --to on or after --from' : 'give --from and --to within the data and closer together' });
   if (problems.length > 0) throw new InputError(problems);
   return { from, to, out };
 }
@@ -243,8 +227,8 @@ export interface ScenarioFlags {
 export function addScenarioOptions(command: Command): Command {
   return command
     .option('--paths <file>', 'with --policy curve or auto: whole-day price paths per day, period_start,path,price (quantbid forecast --paths 364 writes them)', pathArg)
-    .option('--planning-paths <n>', `paths the curves are planned on; the day's other paths score every candidate (default ${SCENARIO_DEFAULTS.planningPaths})`, wholeNumberArg(2, '100'))
-    .option('--risk-weight <x>', `lambda >= 0: choose by mean profit + lambda x CVaR 5 % (the mean of the worst 5 % of paths) (default ${SCENARIO_DEFAULTS.riskWeight})`, nonNegativeArg);
+    .option('--planning-paths <n>', `paths the curves are planned on; the day's other paths score every candidate (default ${SCENARIO_DEFAULTS.planningPaths})`, rangeArg(RUN_LIMITS.planningPaths, '100', true))
+    .option('--risk-weight <x>', `lambda >= 0: choose by mean profit + lambda x CVaR 5 % (the mean of the worst 5 % of paths) (default ${SCENARIO_DEFAULTS.riskWeight})`, rangeArg(RUN_LIMITS.riskWeight, '0.5'));
 }
 
 /** The scenario settings of the flags; options without --paths are a problem. */

@@ -1,9 +1,9 @@
 import { Command } from 'commander';
-import { PLAN_COMMAND_POLICIES, PLAN_DEFAULTS, planUseCase, type PlanCommandPolicy } from '../app/plan/planUseCase.js';
-import { loadHighsSolver } from '../app/solver/highsSolver.js';
+import { PLAN_COMMAND_POLICIES, PLAN_DEFAULTS, type PlanCommandPolicy } from '../app/commandDefaults.js';
 import type { UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
+import { RUN_LIMITS } from '../app/settingRules.js';
 import {
   addInputOptions,
   addScenarioOptions,
@@ -12,9 +12,9 @@ import {
   forceOption,
   inputSources,
   jsonOption,
-  nonNegativeArg,
   oneOf,
   outOption,
+  rangeArg,
   reportOption,
   scenarioSettings,
   unacceptedOption,
@@ -41,7 +41,7 @@ export function planCommand(io: CliIo): Command {
     .option('--day <YYYY-MM-DD>', 'delivery day to plan (default: the scenario\'s demoDay)', dayArg)
     .addOption(alphaOption('tail level: buys limited at q(1-alpha), sells at q(alpha); the interval [q(alpha), q(1-alpha)] covers 1 - 2 alpha', PLAN_DEFAULTS.alpha))
     .option('--policy <name>', `${PLAN_COMMAND_POLICIES.join(' | ')} (price-taking: the median schedule with limits at the price cap and floor, the baseline every plan is compared with; curve and auto plan on --paths)`, oneOf<PlanCommandPolicy>(PLAN_COMMAND_POLICIES), PLAN_DEFAULTS.policy)
-    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh); outside the window: a warning, and the plan comes back into it at full power', nonNegativeArg);
+    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh); outside the window: a warning, and the plan comes back into it at full power', rangeArg(RUN_LIMITS.socStartMwh, '5'));
   addScenarioOptions(command)
     .addOption(unacceptedOption('with curve or auto: what the battery does about unaccepted orders, follow-plan | follow-accepted', PLAN_DEFAULTS.unaccepted))
     .addOption(outOption('folder for orders.csv, schedule.csv and plan.json'))
@@ -84,9 +84,10 @@ Examples:
       force: flags.force === true,
       report: flags.report === true,
     };
+    const { planUseCase } = await import('../app/plan/planUseCase.js');
     // HiGHS is loaded only for the policies that plan on scenarios: other plans never pay its start-up.
-    const onScenarios = flags.policy === 'curve' || flags.policy === 'auto';
-    const tools = onScenarios && scenarios !== undefined ? { lpSolver: await loadHighsSolver() } : {};
+    const onScenarios = (flags.policy === 'curve' || flags.policy === 'auto') && scenarios !== undefined;
+    const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
     printResult(io, planUseCase(settings, cliHooks(io, false), tools), flags.json === true);
   });
   return command;

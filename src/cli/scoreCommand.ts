@@ -1,7 +1,6 @@
 import { Command } from 'commander';
 import { InputError, type InputProblem } from '../errors/inputError.js';
-import { scoreUseCase } from '../app/score/scoreUseCase.js';
-import { spanProblem } from '../app/settingSchemas.js';
+import { spanProblem } from '../app/settingRules.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addInputOptions, dayArg, forceOption, inputSources, jsonOption, outOption, pathArg, reportOption, type InputFlags } from './options.js';
@@ -54,7 +53,7 @@ Examples:
   quantbid score --market market.json --history history.csv \\
                  --forecast quantiles.csv --out runs/score --json`,
   );
-  command.action((flags: ScoreFlags) => {
+  command.action(async (flags: ScoreFlags) => {
     const out = requiredOut(flags);
     const settings = {
       inputs: inputSources(flags),
@@ -65,6 +64,7 @@ Examples:
       force: flags.force === true,
       report: flags.report === true,
     };
+    const { scoreUseCase } = await import('../app/score/scoreUseCase.js');
     printResult(io, scoreUseCase(settings, cliHooks(io, false)), flags.json === true);
   });
   return command;

@@ -1,11 +1,13 @@
 import { Command, InvalidArgumentError } from 'commander';
 import { gatherProblems, InputError, type InputProblem } from '../errors/inputError.js';
 import { shownText } from '../errors/shownText.js';
-import { alphaBestSpanProblem, SIZE_DEFAULTS, sizeAxesFromText, sizeUseCase, type SizeSettings } from '../app/size/sizeUseCase.js';
+import { SIZE_DEFAULTS } from '../app/commandDefaults.js';
+import type { SizeSettings } from '../app/size/sizeUseCase.js';
 import { ALPHA_RANGE, SIZE_POLICIES, UNACCEPTED_RULES, type UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
-import { addGridOptions, addInputOptions, addModelOptions, addScenarioOptions, alphaArg, nonNegativeArg, oneOf, positiveArg, rateArg, reportOption, requireSpanAndOut, scenarioSettings, wholeNumberArg, type InputFlags, type ModelFlags, type ScenarioFlags } from './options.js';
+import { RUN_LIMITS } from '../app/settingRules.js';
+import { addGridOptions, addInputOptions, addModelOptions, addScenarioOptions, alphaArg, oneOf, rangeArg, reportOption, requireSpanAndOut, scenarioSettings, type InputFlags, type ModelFlags, type ScenarioFlags } from './options.js';
 import { printResult } from './printResult.js';
 import { gridRunSettings, type GridFlags } from './sweepCommand.js';
 
@@ -48,12 +50,12 @@ export function sizeCommand(io: CliIo): Command {
     .option('--alpha <a|best>', 'tail level of the quantile and median policies, or best: chosen per size on the first half of the days, scored on the second', parseAlphaOrBest, SIZE_DEFAULTS.alpha)
     .option('--alphas <list>', `the alphas --alpha best chooses from (default ${SIZE_DEFAULTS.alphas})`)
     .option('--unaccepted <rule>', `unaccepted orders: ${UNACCEPTED_RULES.join(' | ')}`, oneOf<UnacceptedRule>(UNACCEPTED_RULES), SIZE_DEFAULTS.unaccepted)
-    .option('--capex-per-mwh <x>', 'capital cost of the energy part [currency/MWh] (required)', nonNegativeArg)
-    .option('--capex-per-mw <x>', 'capital cost of the power part [currency/MW] (required)', nonNegativeArg)
-    .option('--fixed-om-per-mw-year <x>', 'fixed operation and maintenance [currency/(MW year)]', nonNegativeArg, SIZE_DEFAULTS.fixedOmPerMwYear)
-    .option('--life-years <n>', 'project life [years], a whole number >= 1 (required)', wholeNumberArg(1, '15'))
-    .option('--life-cycles <n>', 'equivalent full cycles one set of cells lasts; the cells are bought again when they run out before the end of life (default: no limit)', positiveArg)
-    .option('--discount-rate <r>', 'discount rate per year as a fraction, e.g. 0.07 (required)', rateArg);
+    .option('--capex-per-mwh <x>', 'capital cost of the energy part [currency/MWh] (required)', rangeArg(RUN_LIMITS.capexPerMwh, '180000'))
+    .option('--capex-per-mw <x>', 'capital cost of the power part [currency/MW] (required)', rangeArg(RUN_LIMITS.capexPerMw, '60000'))
+    .option('--fixed-om-per-mw-year <x>', 'fixed operation and maintenance [currency/(MW year)]', rangeArg(RUN_LIMITS.fixedOmPerMwYear, '8000'), SIZE_DEFAULTS.fixedOmPerMwYear)
+    .option('--life-years <n>', 'project life [years], a whole number from 1 to 100 (required)', rangeArg(RUN_LIMITS.lifeYears, '15', true))
+    .option('--life-cycles <n>', 'equivalent full cycles one set of cells lasts; the cells are bought again when they run out before the end of life (default: no limit)', rangeArg(RUN_LIMITS.lifeCycles, '6000'))
+    .option('--discount-rate <r>', 'discount rate per year as a fraction, e.g. 0.07 (required)', rangeArg(RUN_LIMITS.discountRate, '0.07 for 7%'));
   addScenarioOptions(command);
   addGridOptions(command, 'size.csv');
   command.addOption(reportOption('also write report.html into --out: heat maps of NPV and profit per MWh over energy x power, best sizes'));
@@ -72,7 +74,8 @@ payback "never" when there is none. Cells bought again during the life are
 credited their residual value (straight-line) in the last year; yearly figures
 from less than a year of days are flagged as extrapolated. Every size has
 price-taking and perfect-foresight rows beside the policies asked for.
-An interrupted run (Ctrl-C: exit code 130) resumes from its journal in --out.
+An interrupted run (Ctrl-C: exit code 130; SIGTERM: 143) resumes from its
+journal in --out.
 
 Examples:
   quantbid size --scenario scenarios/halvorn/scenario.json \\
@@ -95,19 +98,21 @@ Examples:
   );
   command.action(async (flags: SizeFlags) => {
     const { from, to, out } = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'size.csv and summary.json' });
-    const settings: SizeSettings = { ...gridRunSettings(flags, out), from, to, ...sizeFlagSettings(flags, from, to) };
+    const size = await import('../app/size/sizeUseCase.js');
+    const settings: SizeSettings = { ...gridRunSettings(flags, out), from, to, ...sizeFlagSettings(flags, from, to, size) };
     const hooks = cliHooks(io, flags.quiet === true);
     if (flags.policy !== undefined) hooks.note('note: --policy is read as --policies (one spelling for lists of policies, as in backtest and sweep); write --policies\n');
-    printResult(io, await sizeUseCase(settings, hooks), flags.json === true);
+    printResult(io, await size.sizeUseCase(settings, hooks), flags.json === true);
   });
   return command;
 }
 
 /**
  * The sizing's own settings from its flags, all problems listed together: the size and policy axes,
- * the alpha (with `best`, a grid and at least two days), the required economics.
+ * the alpha (with `best`, a grid and at least two days), the required economics; `rules` are the use
+ * case's, loaded with it.
  */
-function sizeFlagSettings(flags: SizeFlags, from: string, to: string): Omit<SizeSettings, 'inputs' | 'model' | 'threads' | 'restart' | 'out' | 'force' | 'report' | 'from' | 'to'> {
+function sizeFlagSettings(flags: SizeFlags, from: string, to: string, rules: Pick<typeof import('../app/size/sizeUseCase.js'), 'sizeAxesFromText' | 'alphaBestSpanProblem'>): Omit<SizeSettings, 'inputs' | 'model' | 'threads' | 'restart' | 'out' | 'force' | 'report' | 'from' | 'to'> {
   const problems: InputProblem[] = [];
   const missing = (option: string, fix: string): void => {
     problems.push({ file: 'command line', field: option, message: `no ${option} given`, fix });
@@ -117,7 +122,7 @@ function sizeFlagSettings(flags: SizeFlags, from: string, to: string): Omit<Size
   }
   const policies = flags.policies ?? flags.policy ?? SIZE_DEFAULTS.policies;
   const axes = gatherProblems(problems, () =>
-    sizeAxesFromText({ energyMwh: flags.energyMwh, powerMw: flags.powerMw, efficiency: flags.efficiency, alphas: flags.alpha === 'best' ? (flags.alphas ?? SIZE_DEFAULTS.alphas) : undefined, policies, policiesOption: flags.policies === undefined && flags.policy !== undefined ? '--policy' : '--policies' }),
+    rules.sizeAxesFromText({ energyMwh: flags.energyMwh, powerMw: flags.powerMw, efficiency: flags.efficiency, alphas: flags.alpha === 'best' ? (flags.alphas ?? SIZE_DEFAULTS.alphas) : undefined, policies, policiesOption: flags.policies === undefined && flags.policy !== undefined ? '--policy' : '--policies' }),
   );
   if (flags.energyMwh === undefined) missing('--energy-mwh', 'give the energies to try, e.g. --energy-mwh 5:60:5');
   if (flags.powerMw === undefined) missing('--power-mw', 'give the powers to try, e.g. --power-mw 2.5:30:2.5');
@@ -128,7 +133,7 @@ function sizeFlagSettings(flags: SizeFlags, from: string, to: string): Omit<Size
   if (flags.alpha !== 'best' && flags.alphas !== undefined) {
     problems.push({ file: 'command line', field: '--alphas', message: 'is used only with --alpha best', fix: 'add --alpha best, or leave --alphas out' });
   }
-  const best = flags.alpha === 'best' ? alphaBestSpanProblem(from, to) : null;
+  const best = flags.alpha === 'best' ? rules.alphaBestSpanProblem(from, to) : null;
   if (best !== null) problems.push({ file: 'command line', field: '--alpha', message: best, fix: 'give a longer span from --from to --to, or a fixed --alpha' });
   const scenarios = gatherProblems(problems, () => scenarioSettings(flags));
   if (problems.length > 0 || axes === undefined) throw new InputError(problems);

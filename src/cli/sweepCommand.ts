@@ -1,5 +1,5 @@
 import { Command } from 'commander';
-import { SWEEP_DEFAULTS, sweepAxesFromText, sweepUseCase } from '../app/sweep/sweepUseCase.js';
+import { SWEEP_DEFAULTS } from '../app/commandDefaults.js';
 import { SWEEP_POLICIES, UNACCEPTED_RULES } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
@@ -74,8 +74,8 @@ and cash, cycles, the daily-profit risk measures, and price_taking_profit,
 edge_vs_price_taking,p_value_vs_price_taking. After the grid, rows of the
 reference policies point, price-taking and perfect-foresight for each rule
 (alpha empty). The best setting is chosen within each rule, never across rules.
-An interrupted sweep (Ctrl-C: exit code 130) resumes from its journal in --out
-when run again with the same arguments.
+An interrupted sweep (Ctrl-C: exit code 130; SIGTERM: 143) resumes from its
+journal in --out when run again with the same arguments.
 
 Examples:
   quantbid sweep --scenario scenarios/halvorn/scenario.json \\
@@ -98,6 +98,7 @@ Examples:
   );
   command.action(async (flags: SweepFlags) => {
     const { from, to, out } = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'sweep.csv and summary.json' });
+    const { sweepAxesFromText, sweepUseCase } = await import('../app/sweep/sweepUseCase.js');
     const axes = sweepAxesFromText(flags);
     const scenarios = scenarioSettings(flags);
     const settings = { ...gridRunSettings(flags, out), from, to, ...axes, ...(scenarios === undefined ? {} : { scenarios }) };

@@ -10,10 +10,10 @@ import { requireDiscountRate } from './discountRate.js';
  * @param rate r per year [-], > -1
  * @param years n, integer >= 0
  * @example
- * annuityFactor(0.05, 10); // 7.721734929184818 (annuity tables: 7.7217)
+ * annuityFactor(0.05, 10); // 7.721734929184818 = (1 - 1.05^-10) / 0.05
  *
  * Reference: R. A. Brealey, S. C. Myers and F. Allen, Principles of Corporate Finance (any
- * recent edition), the annuity formula; standard present-value-of-annuity tables.
+ * recent edition), the annuity formula.
  */
 export function annuityFactor(rate: number, years: number): number {
   requireDiscountRate('rate', rate);

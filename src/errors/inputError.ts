@@ -33,11 +33,17 @@ export function formatProblem(problem: InputProblem): string {
 /** Thrown at the edges (readers, argument parsers) when input is bad; carries all problems found. */
 export class InputError extends Error {
   readonly problems: readonly InputProblem[];
+  /**
+   * What was kept, when the run stopped after writing something that a second run picks up (a grid's
+   * journal on a full disk), one line; undefined when nothing was written (the CLI then says so).
+   */
+  readonly kept: string | undefined;
 
-  constructor(problems: readonly InputProblem[]) {
+  constructor(problems: readonly InputProblem[], options: { readonly kept?: string } = {}) {
     super(problems.map(formatProblem).join('\n'));
     this.name = 'InputError';
     this.problems = problems;
+    this.kept = options.kept;
   }
 }
 

@@ -37,18 +37,9 @@ import { requireLevels } from './quantiles/levels.js';
 import { QraWarmStarts, quantileRegressionAveraging } from './quantiles/quantileRegressionAveraging.js';
 import { rearrangeDay } from './quantiles/rearrangeDay.js';
 import { conformalQuantiles } from './quantiles/splitConformal.js';
+import { DEFAULT_CALIBRATION_DAYS, FORECAST_METHODS, type ForecastMethod } from './forecastMethods.js';
 
-/** Method names, for the CLI's `--method`. */
-export const FORECAST_METHODS = ['naive-hs', 'arx-hs', 'lasso-hs', 'arx-conformal', 'qra'] as const;
-export type ForecastMethod = (typeof FORECAST_METHODS)[number];
-
-/**
- * The method `quantbid forecast` uses when none is named: of the methods that met every quality
- * target on a year of the demo market (coverage of the 80% and 90% intervals within 3 points, Kupiec
- * not rejected at 5%, CRPS at least 25% below naive-hs), the one with the lowest CRPS
- * (docs/forecast-quality.md, bench/forecastQuality.js).
- */
-export const DEFAULT_METHOD: ForecastMethod = 'arx-hs';
+export { DEFAULT_METHOD, FORECAST_METHODS, type ForecastMethod } from './forecastMethods.js';
 
 /** Point models the methods are built on. */
 export type PointModelName = 'naive' | 'arx' | 'lasso';
@@ -104,7 +95,7 @@ export function forecastSettings(options: Partial<ForecastOptions>): Partial<Omi
 export const DEFAULTS: ForecastOptions = Object.freeze({
   windowsDays: Object.freeze([56, 91, 182, 364]),
   minTrainingDays: 28,
-  calibrationDays: 364,
+  calibrationDays: DEFAULT_CALIBRATION_DAYS,
   minCalibrationDays: 28,
   naiveLagDays: 7,
   qraModel: 'arx',

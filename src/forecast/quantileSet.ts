@@ -48,6 +48,31 @@ export class LevelOutOfRangeError extends RangeError {
  * @throws LevelOutOfRangeError outside [levels[0], levels[last]]
  */
 export function priceAtLevel(levels: readonly number[], prices: readonly number[], tau: number): number {
+  return priceAt(levelPosition(levels, tau), prices);
+}
+
+/**
+ * priceAtLevel of every period's prices at one level (the same numbers): the neighbouring levels are
+ * found once, since every period of a forecast has the same levels.
+ *
+ * @param rows rows[t]: the prices of period t at `levels`
+ */
+export function pricesAtLevel(levels: readonly number[], rows: readonly (readonly number[])[], tau: number): number[] {
+  const out = new Array<number>(rows.length);
+  if (rows.length === 0) return out;
+  const position = levelPosition(levels, tau);
+  for (let t = 0; t < rows.length; t++) out[t] = priceAt(position, rows[t] as readonly number[]);
+  return out;
+}
+
+/** Where a level lies among the levels: between levels lo and hi with weight w on hi, or at level lo (hi = lo). */
+interface LevelPosition {
+  readonly lo: number;
+  readonly hi: number;
+  readonly w: number;
+}
+
+function levelPosition(levels: readonly number[], tau: number): LevelPosition {
   const last = levels.length - 1;
   const lowest = levels[0];
   const highest = levels[last];
@@ -55,15 +80,20 @@ export function priceAtLevel(levels: readonly number[], prices: readonly number[
   // Levels parsed from headers such as q0.1 may differ from a computed 1 - 0.9 by one ulp.
   const eps = 1e-9;
   if (tau < lowest - eps || tau > highest + eps) throw new LevelOutOfRangeError(tau, lowest, highest);
-  if (tau <= lowest) return prices[0] as number;
-  if (tau >= highest) return prices[last] as number;
+  if (tau <= lowest) return { lo: 0, hi: 0, w: 0 };
+  if (tau >= highest) return { lo: last, hi: last, w: 0 };
   let hi = 1;
   while ((levels[hi] as number) < tau) hi++;
   const lo = hi - 1;
   const tauLo = levels[lo] as number;
   const tauHi = levels[hi] as number;
-  if (Math.abs(tau - tauHi) <= eps) return prices[hi] as number;
-  if (Math.abs(tau - tauLo) <= eps) return prices[lo] as number;
-  const w = (tau - tauLo) / (tauHi - tauLo);
+  if (Math.abs(tau - tauHi) <= eps) return { lo: hi, hi, w: 0 };
+  if (Math.abs(tau - tauLo) <= eps) return { lo, hi: lo, w: 0 };
+  return { lo, hi, w: (tau - tauLo) / (tauHi - tauLo) };
+}
+
+function priceAt(position: LevelPosition, prices: readonly number[]): number {
+  const { lo, hi, w } = position;
+  if (lo === hi) return prices[lo] as number;
   return (prices[lo] as number) * (1 - w) + (prices[hi] as number) * w;
 }

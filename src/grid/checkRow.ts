@@ -2,7 +2,12 @@ import type { GridAxis } from './gridAxis.js';
 import type { RowCell, GridRow } from './taskModule.js';
 
 const COLUMN = /^[a-z][a-z0-9_]*$/;
-const PLAIN = /^[^,"\r\n]*$/;
+/**
+ * A string cell: no comma, quote or line break (a CSV holds it without quoting), and no first
+ * character that a spreadsheet reads as the start of a formula (=, +, -, @, tab, carriage return:
+ * "CSV injection", OWASP; common practice).
+ */
+const PLAIN = /^(?![=+\-@\t\r])[^,"\r\n]*$/;
 
 /**
  * Checks a task's row against the contract (workerPool.ts): column names in lower snake case and

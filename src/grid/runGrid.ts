@@ -1,12 +1,14 @@
-import { mkdirSync, rmSync } from 'node:fs';
+import { rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { InputError } from '../errors/inputError.js';
+import { InputError, type InputProblem } from '../errors/inputError.js';
+import { outFolderWriteProblem } from '../io/outFolderWriteProblem.js';
+import { OutputLock } from '../io/outputLock.js';
 import { checkOutputFolder, writeOutputs, type OutputFile } from '../io/writeOutputs.js';
 import { checkRow } from './checkRow.js';
 import { gridCsv, type TableRow } from './gridCsv.js';
 import { gridFingerprint } from './gridFingerprint.js';
 import { expandGrid, GRID_DEFAULTS, type GridPoint, type Setting, type SettingOf } from './expandGrid.js';
-import { JOURNAL_FORMAT, JOURNAL_VERSION, JournalWriter, journalLine, readJournal, type JournalEntry } from './gridJournal.js';
+import { checkJournalEntry, damagedJournal, entryLine, JOURNAL_FORMAT, JOURNAL_VERSION, journalGridId, JournalWriter, MAX_JOURNAL_LINE_BYTES, readJournal, type JournalLineEntry } from './gridJournal.js';
 import { taskModuleUrl, type GridRow } from './taskModule.js';
 import { defaultThreads, runPool, type PoolJob, type PoolStatus } from './workerPool.js';
 import type { GridAxis } from './gridAxis.js';
@@ -55,6 +57,11 @@ export interface GridOptions<Axes extends readonly GridAxis[] = readonly GridAxi
   readonly optionalOutputs?: readonly string[];
   /** Most settings a grid may have [-]. Default 100,000. */
   readonly maxSettings?: number;
+  /**
+   * The lock of outDir when the caller holds it (io/outputLock.ts); without it runGrid takes the lock
+   * itself for its run. Default none.
+   */
+  readonly lock?: OutputLock;
   /** Abort (e.g. on SIGINT) to stop starting settings; the running ones finish and are kept. */
   readonly signal?: AbortSignal;
   /** Called with the settings done (resumed ones included) once before work and after each one. */
@@ -119,19 +126,38 @@ export async function runGrid<const Axes extends readonly GridAxis[], Input = un
   checkOutputFolder(o.outDir, [o.csvName], o.force);
   const taskUrl = taskModuleUrl(o.taskModule);
   const fingerprint = gridFingerprint({ identity: o.identity, axes: o.axes, inputFiles: o.inputFiles, taskModuleUrl: taskUrl });
-  mkdirSync(o.outDir, { recursive: true });
-  const journal = join(o.outDir, journalName(o.csvName));
-  const { writer, entries } = openJournal(journal, fingerprint, grid, o);
+  const lock = options.lock ?? OutputLock.take(o.outDir, o.csvName.replace(/\.csv$/, ''));
+  try {
+    if (options.lock !== undefined) lock.verify();
+    return await runLockedGrid(o, { grid, threads, taskUrl, fingerprint, lock });
+  } finally {
+    if (options.lock === undefined) lock.release();
+  }
+}
 
+/** runGrid's work once the folder is locked: the journal, the pool, the outputs. */
+async function runLockedGrid<const Axes extends readonly GridAxis[], Input, Row extends GridRow>(
+  o: GridOptions<Axes, Input, Row> & { readonly restart: boolean; readonly force: boolean; readonly csvName: string; readonly now: () => Date },
+  run: { readonly grid: readonly GridPoint<SettingOf<Axes>>[]; readonly threads: number; readonly taskUrl: string; readonly fingerprint: string; readonly lock: OutputLock },
+): Promise<GridOutcome<SettingOf<Axes>, Row>> {
+  const { grid, fingerprint } = run;
+  const journal = join(o.outDir, journalName(o.csvName));
   const rows: (GridRow | undefined)[] = new Array<GridRow | undefined>(grid.length);
   const indexOf = new Map(grid.map((point) => [point.key, point.index]));
   let columns: readonly string[] | undefined;
-  const keep = (entry: JournalEntry): void => {
-    const row = checkRow(entry.row, entry.key, o.axes, columns);
+  const keep = (key: string, row: GridRow): void => {
+    checkRow(row, key, o.axes, columns);
     columns ??= Object.keys(row);
-    rows[indexOf.get(entry.key) as number] = row;
+    rows[indexOf.get(key) as number] = row;
   };
-  entries.forEach(keep);
+  const { writer, entries } = diskStep(o.outDir, journal, 0, () => openJournal(journal, fingerprint, grid, o));
+  for (const entry of entries) {
+    try {
+      keep(entry.key, entry.row);
+    } catch (err) {
+      throw damagedJournal(journal, err instanceof Error ? err.message.replace(/^the sweep task returned /, 'a row with ') : String(err), entry.line);
+    }
+  }
   const resumed = entries.length;
   let done = resumed;
   o.onProgress?.(done, grid.length);
@@ -139,11 +165,12 @@ export async function runGrid<const Axes extends readonly GridAxis[], Input = un
   const jobs: PoolJob[] = grid.filter((point) => rows[point.index] === undefined).map((point) => ({ id: point.index, key: point.key, setting: point.setting }));
   let status: PoolStatus;
   try {
-    status = await runPool(jobs, { taskModule: taskUrl, contextInput: o.contextInput, threads, signal: o.signal }, (job, row) => {
+    status = await runPool(jobs, { taskModule: run.taskUrl, contextInput: o.contextInput, threads: run.threads, signal: o.signal }, (job, row) => {
       checkRow(row, job.key, o.axes, columns);
-      const line = journalLine({ key: job.key, row });
-      writer.append(line);
-      keep(JSON.parse(line) as JournalEntry);
+      const line = entryLine(fingerprint, job.key, row);
+      diskStep(o.outDir, journal, done, () => writer.append(line));
+      // Kept as the journal holds it, so a resumed run writes the same bytes as an uninterrupted one.
+      keep(job.key, (JSON.parse(line) as JournalLineEntry).row);
       done++;
       o.onProgress?.(done, grid.length);
     });
@@ -157,10 +184,31 @@ export async function runGrid<const Axes extends readonly GridAxis[], Input = un
   const results = grid.map((point) => ({ ...point, row: complete[point.index] as Row }));
   const more = o.moreRows?.(results) ?? [];
   more.forEach((extra, i) => checkRow(extra.row, `table row ${i + 1} after the grid`, o.axes, columns));
-  const files = writeOutputs(o.outDir, [{ name: o.csvName, text: gridCsv(o.axes, grid, complete, more) }, ...(o.moreOutputs?.(results) ?? [])], o.force, o.optionalOutputs ?? []);
+  const outputs = [{ name: o.csvName, text: gridCsv(o.axes, grid, complete, more) }, ...(o.moreOutputs?.(results) ?? [])];
+  const files = diskStep(o.outDir, journal, done, () => writeOutputs(o.outDir, outputs, o.force, o.optionalOutputs ?? [], run.lock));
   // Killed before this line, a re-run finds every setting in the journal and writes the same bytes.
   rmSync(journal, { force: true });
   return { status: 'complete', total: grid.length, resumed, results, files };
+}
+
+/**
+ * A write of the grid's journal or outputs. A full disk (or another failure of the file system) is bad
+ * input naming --out, and when the journal holds finished settings the message says they are kept and
+ * how to resume, instead of "nothing was written".
+ */
+function diskStep<T>(outDir: string, journal: string, kept: number, step: () => T): T {
+  try {
+    return step();
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    const problem = err instanceof InputError ? null : outFolderWriteProblem(outDir, code);
+    if (!(err instanceof InputError) && problem === null) throw err;
+    const problems = err instanceof InputError ? err.problems : [problem as InputProblem];
+    if (kept === 0) throw err instanceof InputError ? err : new InputError(problems);
+    // Another folder would start over: the finished settings are in this one.
+    const here = problems.map((p) => (p.message === 'the disk is full' ? { ...p, fix: 'free some space on that disk' } : p));
+    throw new InputError(here, { kept: `the ${kept} finished settings are kept in ${journal}; when the problem is solved, run the same command again to resume.` });
+  }
 }
 
 /** The message for an interrupted sweep: what is kept and how to go on. */
@@ -168,13 +216,18 @@ export function interruptedMessage(outcome: Extract<GridOutcome, { status: 'inte
   return `stopped after ${outcome.done} of ${outcome.total} settings; the finished ones are kept in ${outcome.journal}.\nRun the same command again to resume (or add --restart to start over).\n`;
 }
 
-function openJournal(path: string, fingerprint: string, grid: readonly GridPoint<Setting>[], o: { readonly restart: boolean; readonly now: () => Date }): { writer: JournalWriter; entries: JournalEntry[] } {
-  const found = o.restart ? ({ status: 'absent' } as const) : readJournal(path);
+function openJournal(path: string, fingerprint: string, grid: readonly GridPoint<Setting>[], o: { readonly restart: boolean; readonly now: () => Date }): { writer: JournalWriter; entries: JournalLineEntry[] } {
+  const found = o.restart ? ({ status: 'absent' } as const) : readJournal(path, (grid.length + 1) * MAX_JOURNAL_LINE_BYTES);
   if (found.status === 'absent') {
-    const header = { format: JOURNAL_FORMAT, version: JOURNAL_VERSION, fingerprint, settings: grid.length, started: o.now().toISOString() } as const;
-    return { writer: JournalWriter.create(path, header), entries: [] };
+    const header = { format: JOURNAL_FORMAT, version: JOURNAL_VERSION, grid: journalGridId(fingerprint), settings: grid.length, started: o.now().toISOString() } as const;
+    try {
+      return { writer: JournalWriter.create(path, header), entries: [] };
+    } catch (err) {
+      rmSync(`${path}.tmp-${process.pid}`, { force: true });
+      throw err;
+    }
   }
-  if (found.header.fingerprint !== fingerprint) {
+  if (found.header.grid !== journalGridId(fingerprint)) {
     throw new InputError([
       {
         file: path,
@@ -184,9 +237,17 @@ function openJournal(path: string, fingerprint: string, grid: readonly GridPoint
       },
     ]);
   }
+  if (found.header.settings !== grid.length) throw damagedJournal(path, `its header counts ${found.header.settings} settings, the grid has ${grid.length}`, 1);
   const keys = new Set(grid.map((point) => point.key));
   const seen = new Set<string>();
-  const entries = found.entries.filter((entry) => keys.has(entry.key) && !seen.has(entry.key) && seen.add(entry.key));
+  const entries: JournalLineEntry[] = [];
+  for (const entry of found.entries) {
+    checkJournalEntry(path, fingerprint, entry);
+    if (!keys.has(entry.key)) throw damagedJournal(path, `${entry.key} is not a setting of this grid`, entry.line);
+    if (seen.has(entry.key)) continue;
+    seen.add(entry.key);
+    entries.push(entry);
+  }
   return { writer: JournalWriter.resume(path, found.wholeBytes), entries };
 }
 

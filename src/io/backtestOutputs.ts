@@ -46,6 +46,21 @@ export function ledgerCsv(result: BacktestResult): string {
  * formatted once per period and copied.
  */
 export function ledgerRows(day: BacktestDay): string {
+  writeLedgerRows(day);
+  return ledgerBuilder.take();
+}
+
+/**
+ * ledgerRows as their UTF-8 bytes, for a file written as it goes: no string is made. The bytes are a
+ * view of a buffer that the next call overwrites; write them before asking for the next day's.
+ */
+export function ledgerRowBytes(day: BacktestDay): Uint8Array {
+  writeLedgerRows(day);
+  return ledgerBuilder.takeBytes();
+}
+
+/** The rows of ledgerRows, written into ledgerBuilder. */
+function writeLedgerRows(day: BacktestDay): void {
   const out = ledgerBuilder;
   const count = day.periods.length;
   // Where the prices of period t (clearing, imbalance buy, imbalance sell) were written in this text.
@@ -121,7 +136,6 @@ export function ledgerRows(day: BacktestDay): string {
       out.newline();
     }
   }
-  return out.take();
 }
 
 /** One builder for every day's ledger rows: its buffer is kept from day to day. */

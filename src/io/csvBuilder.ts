@@ -87,6 +87,17 @@ export class CsvBuilder {
     this.length += to - from;
   }
 
+  /**
+   * The UTF-8 bytes written since the last take, as a view of the builder's buffer: valid until the
+   * next write. The builder is empty afterwards.
+   */
+  takeBytes(): Uint8Array {
+    const view = this.bytes.subarray(0, this.length);
+    this.length = 0;
+    this.wide = false;
+    return view;
+  }
+
   /** The text written since the last take; the builder is empty afterwards. */
   take(): string {
     const view = Buffer.from(this.bytes.buffer, this.bytes.byteOffset, this.length);

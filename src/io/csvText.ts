@@ -5,6 +5,8 @@ import { shownText } from '../errors/shownText.js';
 export interface CsvRow {
   readonly line: number;
   readonly cells: readonly string[];
+  /** Whether a quoted cell is still open at the end of the line (openQuoteProblem words it). */
+  readonly openQuote?: boolean;
 }
 
 export interface CsvTable {
@@ -45,7 +47,8 @@ export function splitCsv(text: string, file: string): { table: CsvTable } | { pr
   const rows: Iterable<CsvRow> = {
     *[Symbol.iterator]() {
       for (let at = lines.nextNonBlank(dataStart, first.line); at !== null; at = lines.nextNonBlank(at.end, at.line)) {
-        yield { line: at.line, cells: splitCsvLine(stripCr(at.text)) };
+        const text = stripCr(at.text);
+        yield { line: at.line, cells: splitCsvLine(text), openQuote: hasOpenQuote(text) };
       }
     },
   };
@@ -164,6 +167,38 @@ function stripCr(line: string): string {
   return line.endsWith('\r') ? line.slice(0, -1) : line;
 }
 
+/**
+ * Whether a cell of the line opens a quote that the line does not close: a line break inside a quoted
+ * cell (RFC 4180 allows it; quantbid's files have one row per line and do not), or a quote missing.
+ */
+export function hasOpenQuote(line: string): boolean {
+  if (!line.includes('"')) return false;
+  let quoted = false;
+  let cellStart = true;
+  for (let i = 0; i < line.length; i++) {
+    const c = line[i] as string;
+    if (quoted) {
+      if (c === '"') {
+        if (line[i + 1] === '"') i++;
+        else quoted = false;
+      }
+    } else if (c === '"' && cellStart) quoted = true;
+    else if (c === ',') cellStart = true;
+    else if (c !== ' ' && c !== '\t') cellStart = false;
+  }
+  return quoted;
+}
+
+/** The problem of a line whose quoted cell is not closed on it (hasOpenQuote). */
+export function openQuoteProblem(lineNumber: number, file: string): InputProblem {
+  return {
+    file,
+    line: lineNumber,
+    message: 'a quoted cell is not closed on this line: a line break inside quotes is not supported (each row is one line), or a closing quote is missing',
+    fix: 'keep every row on one line and close each quote on it; cells in these files need no quotes',
+  };
+}
+
 /** The fields of one CSV line, trimmed, quotes removed. */
 export function splitCsvLine(line: string): string[] {
   if (!line.includes('"')) return line.split(',').map((cell) => cell.trim());
@@ -194,11 +229,16 @@ const NUMBER_PATTERN = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
 
 /**
  * A finite decimal number with a dot as the decimal mark, or a problem that says why not.
- * Rejects NaN, Infinity, empty cells and decimal commas by name.
+ * Rejects NaN, Infinity, numbers beyond the doubles (1e999), empty cells and decimal commas by name.
  */
 export function parseDecimal(cell: string): { value: number } | { error: string; fix: string } {
   if (cell === '') return { error: 'empty value', fix: 'fill in a number' };
-  if (NUMBER_PATTERN.test(cell)) return { value: Number(cell) };
+  if (NUMBER_PATTERN.test(cell)) {
+    const value = Number(cell);
+    // 1e999 is a well-formed number whose value is beyond every double (about 1.8e308).
+    if (!Number.isFinite(value)) return { error: `${shownText(cell)} is out of range: larger than any number a file may hold (about 1.8e308)`, fix: 'check the unit and the decimal point of this value' };
+    return { value };
+  }
   if (/^[+-]?(nan|inf|infinity)$/i.test(cell)) {
     return { error: `${cell} is not a finite number`, fix: 'give a finite price; drop the row or the day if the value is unknown' };
   }

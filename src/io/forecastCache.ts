@@ -4,9 +4,6 @@ import { dirname, join, resolve } from 'node:path';
 import { threadId } from 'node:worker_threads';
 import type { DayForecastStore, StoredDayForecast } from '../forecast/storedForecastRange.js';
 
-/** Default folder of the forecast cache, relative to the working folder. */
-export const DEFAULT_FORECAST_CACHE_DIR = join('.quantbid-cache', 'forecasts');
-
 const ENTRY_FORMAT = 'quantbid-day-forecast';
 const ENTRY_VERSION = 1;
 

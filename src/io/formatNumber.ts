@@ -7,10 +7,12 @@ import { DECIMAL_SCALES, EXACT_SCALED_LIMIT, formatByToFixed, roundedUnits, whol
  *
  * The text is exactly `value.toFixed(digits)` with trailing zeros (and a bare point) dropped and "-0"
  * written "0"; ordinary magnitudes take an exact arithmetic route (decimalUnits.ts) instead of
- * building and trimming a string per value.
+ * building and trimming a string per value. NaN and infinities throw a RangeError (a fault).
  */
 export function formatNumber(value: number, digits = 6): string {
   if (value === 0) return '0';
+  // A non-finite value never reaches a user: it is a fault (every input is range-checked before arithmetic).
+  if (!Number.isFinite(value)) throw new RangeError(`formatNumber: ${value} is not a finite number`);
   const scale = DECIMAL_SCALES[digits];
   if (scale === undefined) return formatByToFixed(value, digits);
   const magnitude = value < 0 ? -value : value;

@@ -1,28 +1,36 @@
 import type { z } from 'zod';
 import type { InputProblem } from '../errors/inputError.js';
+import { jsonDuplicateKeys } from './jsonDuplicateKeys.js';
 import { jsonSyntaxError } from './jsonSyntaxError.js';
 
 /**
- * JSON text -> value, or a problem that names the line and column of the first syntax error and the
- * usual mistake behind it. A byte order mark is accepted; an empty file is named as such.
+ * JSON text -> value, or the problems: the line and column of the first syntax error and the usual
+ * mistake behind it, or every key that appears twice in one object (JSON.parse would keep the last
+ * silently). A byte order mark is accepted; an empty file is named as such.
  */
-export function parseJsonText(text: string, file: string): { value: unknown } | { problem: InputProblem } {
+export function parseJsonText(text: string, file: string): { value: unknown } | { problems: InputProblem[] } {
   const body = stripBom(text);
   if (body.trim() === '') {
-    return { problem: { file, message: 'the file is empty', fix: 'give one JSON object such as {"energyMwh": 10, ...}; see the file formats in the README' } };
+    return { problems: [{ file, message: 'the file is empty', fix: 'give one JSON object such as {"energyMwh": 10, ...}; see the file formats in the README' }] };
   }
+  let value: unknown;
   try {
-    return { value: JSON.parse(body) };
+    value = JSON.parse(body);
   } catch (err) {
     const found = jsonSyntaxError(body);
     if (found === null) {
       // The engine and the scanner disagree (they should not): report the engine's words, no line.
       const message = err instanceof Error ? err.message : String(err);
-      return { problem: { file, message: `not valid JSON (${message})`, fix: 'check quotes, commas and brackets' } };
+      return { problems: [{ file, message: `not valid JSON (${message})`, fix: 'check quotes, commas and brackets' }] };
     }
     const { line, column } = lineAndColumn(body, found.offset);
-    return { problem: { file, line, message: `not valid JSON at column ${column}: ${found.message}`, fix: found.fix } };
+    return { problems: [{ file, line, message: `not valid JSON at column ${column}: ${found.message}`, fix: found.fix }] };
   }
+  const twice = jsonDuplicateKeys(body);
+  if (twice.length > 0) {
+    return { problems: twice.map((d) => ({ file, line: d.line, field: d.path, message: `appears twice in one object (first on line ${d.firstLine}), and only one value can count`, fix: 'keep one of the two and delete the other' })) };
+  }
+  return { value };
 }
 
 export function stripBom(text: string): string {

@@ -21,10 +21,12 @@ export function scheduleCsv(periods: readonly DeliveryPeriod[], schedule: Schedu
 
 /** Pretty JSON with a final newline; key order is the construction order, so output is deterministic. */
 export function jsonText(value: unknown): string {
-  return `${JSON.stringify(value, (_key, v: unknown) => (typeof v === 'number' ? roundForJson(v) : v), 2)}\n`;
+  return `${JSON.stringify(value, (key, v: unknown) => (typeof v === 'number' ? roundForJson(key, v) : v), 2)}\n`;
 }
 
-function roundForJson(v: number): number {
-  if (!Number.isFinite(v) || Number.isInteger(v)) return v;
+function roundForJson(key: string, v: number): number {
+  // JSON.stringify would write NaN and infinities as null without a word: a non-finite result is a fault.
+  if (!Number.isFinite(v)) throw new RangeError(`jsonText: ${key} is ${v}, not a finite number`);
+  if (Number.isInteger(v)) return v;
   return Number(v.toPrecision(12));
 }

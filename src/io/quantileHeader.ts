@@ -1,5 +1,6 @@
 import type { InputProblem } from '../errors/inputError.js';
 import { shownText } from '../errors/shownText.js';
+import { isLevel, LEVEL_RANGE_TEXT } from '../forecast/quantiles/levels.js';
 
 /** The layout a quantile forecast header names, with the levels of the wide layout. */
 export interface QuantileHeader {
@@ -53,7 +54,7 @@ function levelProblem(name: string, column: number, previous: number | undefined
   }
   const level = Number(match[1]);
   if (level >= 1 && level < 100) return { message: `level ${level} looks like a percentage`, fix: `write levels as fractions in (0, 1): q${level / 100} for ${level}%` };
-  if (!(level > 0 && level < 1)) return { message: `level ${level} is outside (0, 1)`, fix: 'levels are probabilities strictly between 0 and 1' };
+  if (!isLevel(level)) return { message: `level ${level} is outside ${LEVEL_RANGE_TEXT}`, fix: `levels are probabilities in ${LEVEL_RANGE_TEXT}` };
   if (previous !== undefined && level <= previous) {
     return { message: `level ${level} does not increase from the column before (${previous})`, fix: 'order the quantile columns by increasing level, each level once' };
   }

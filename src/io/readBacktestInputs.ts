@@ -53,7 +53,15 @@ export function readBacktestInputs(paths: BacktestInputPaths, given?: GivenForec
   let forecast: QuantileForecastFile | undefined;
   if (given === undefined) forecast = gatherProblems(problems, () => readQuantileForecast(requiredForecastPath(paths), market));
   else if (typeof given !== 'function') forecast = gatherProblems(problems, () => read(given));
-  if (history !== undefined && chooseImbalanceSource(history, market) === null) {
+  if (history !== undefined && history.days.length === 0) {
+    // Without a complete day nothing can be backtested, and whether the imbalance column is there cannot be told from days.
+    const first = history.incompleteDays[0];
+    problems.push({
+      file: paths.history,
+      message: `the history holds no complete day${first === undefined ? ' (only a header)' : ` (${history.incompleteDays.length} incomplete, e.g. ${first.day}: ${first.reason})`}`,
+      fix: 'give every delivery period of the days to backtest; a day is used only when it is complete',
+    });
+  } else if (history !== undefined && chooseImbalanceSource(history, market) === null) {
     problems.push({
       file: paths.history,
       field: 'imbalance_price',

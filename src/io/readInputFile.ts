@@ -1,4 +1,5 @@
 import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
+import { isUtf8 } from 'node:buffer';
 import { constants, gunzipSync } from 'node:zlib';
 import { InputError, type InputProblem } from '../errors/inputError.js';
 import { SNIFF_BYTES, sniffText, type FirstLineCheck } from './sniffText.js';
@@ -31,7 +32,11 @@ export function readInputFile(path: string, options: ReadInputOptions = {}): str
   const maxBytes = options.maxBytes ?? MAX_INPUT_BYTES;
   const size = checkedSize(path, maxBytes);
   const gzip = path.endsWith('.gz');
-  const head = readHead(path, Math.min(size, SNIFF_BYTES));
+  const head = readHead(path, SNIFF_BYTES);
+  if (head.length > size) {
+    // A file of the system (under /proc or /sys) reports 0 bytes and makes up its content as it is read.
+    throw new InputError([{ file: path, message: `is a special file of the system: it reports ${size} bytes but holds more`, fix: 'give a regular file; copy it to one first if you mean its content' }]);
+  }
   if (gzip) {
     if (size > 0 && !(head[0] === 0x1f && head[1] === 0x8b)) {
       throw new InputError([{ file: path, message: 'is named .gz but is not gzip-compressed', fix: 'decompress it yourself or rename it without .gz' }]);
@@ -42,7 +47,46 @@ export function readInputFile(path: string, options: ReadInputOptions = {}): str
     sniff(path, head, size > head.length, options);
   }
   const bytes = attempt(path, () => readFileSync(path));
-  return (gzip ? gunzipBytes(path, bytes, maxBytes) : bytes).toString('utf8');
+  const plain = gzip ? gunzipBytes(path, bytes, maxBytes) : bytes;
+  if (!isUtf8(plain)) throw new InputError([notUtf8Problem(path, plain)]);
+  return plain.toString('utf8');
+}
+
+/**
+ * The problem of bytes that are not UTF-8 (RFC 3629): where the first bad byte is, by byte offset and
+ * line, so that it is not silently read as U+FFFD and reported later as a strange cell.
+ */
+function notUtf8Problem(path: string, bytes: Buffer): InputProblem {
+  const at = firstBadUtf8Byte(bytes);
+  let line = 1;
+  for (let i = bytes.indexOf(0x0a); i >= 0 && i < at; i = bytes.indexOf(0x0a, i + 1)) line++;
+  const shown = bytes.subarray(at, at + 4).toString('hex').replace(/(..)/g, '$1 ').trim();
+  return {
+    file: path,
+    line,
+    message: `is not UTF-8 text: byte ${at + 1} (${shown}...) is not part of a UTF-8 character`,
+    fix: 'save the file as UTF-8 (e.g. "CSV UTF-8"); a file in Latin-1 or Windows-1252 shows this',
+  };
+}
+
+/** Offset of the first byte that does not belong to a well-formed UTF-8 sequence (RFC 3629, table 3-7 of Unicode 15, section 3.9). */
+export function firstBadUtf8Byte(bytes: Buffer): number {
+  for (let i = 0; i < bytes.length; ) {
+    const b = bytes[i] as number;
+    if (b < 0x80) {
+      i++;
+      continue;
+    }
+    const need = b >= 0xc2 && b <= 0xdf ? 1 : b >= 0xe0 && b <= 0xef ? 2 : b >= 0xf0 && b <= 0xf4 ? 3 : -1;
+    if (need < 0) return i;
+    const second = bytes[i + 1] ?? 0;
+    const low = b === 0xe0 ? 0xa0 : b === 0xf0 ? 0x90 : 0x80;
+    const high = b === 0xed ? 0x9f : b === 0xf4 ? 0x8f : 0xbf;
+    if (second < low || second > high) return i;
+    for (let k = 2; k <= need; k++) if (((bytes[i + k] ?? 0) & 0xc0) !== 0x80) return i;
+    i += need + 1;
+  }
+  return bytes.length;
 }
 
 /** Compressed bytes looked at to sniff a gzip file [bytes]: they decompress to a few MiB at most. */
@@ -88,11 +132,32 @@ function readHead(path: string, length: number): Buffer {
   }
 }
 
+/**
+ * Most a gzip input may inflate, as a multiple of its compressed size [-], above INFLATION_FLOOR_BYTES.
+ * A price CSV compresses 3 to 20 times (the demo's files: 3.5 and 3.0); a file that inflates a hundred
+ * times more is mostly one repeated byte (e.g. blank lines), and is refused after inflating at most
+ * this much, in time and memory bounded by the compressed size, not by the size limit.
+ */
+export const MAX_INFLATION_RATIO = 100;
+/** Inflated size always allowed [bytes], whatever the ratio: a small file is cheap however it compresses. */
+export const INFLATION_FLOOR_BYTES = 16 * 1024 * 1024;
+
 function gunzipBytes(path: string, bytes: Buffer, maxBytes: number): Buffer {
+  const byRatio = Math.max(INFLATION_FLOOR_BYTES, bytes.length * MAX_INFLATION_RATIO);
+  const limit = Math.min(maxBytes, byRatio);
   try {
-    return gunzipSync(bytes, { maxOutputLength: maxBytes });
+    return gunzipSync(bytes, { maxOutputLength: limit });
   } catch (err) {
     if ((err as NodeJS.ErrnoException).code === 'ERR_BUFFER_TOO_LARGE' || err instanceof RangeError) {
+      if (limit < maxBytes) {
+        throw new InputError([
+          {
+            file: path,
+            message: `inflates more than ${MAX_INFLATION_RATIO} times (past ${mebibytes(limit)} from ${mebibytes(bytes.length)} compressed), far more than a price CSV does: it is mostly one repeated byte, e.g. blank lines`,
+            fix: 'check that this is the right file; decompress it and look at it',
+          },
+        ]);
+      }
       throw new InputError([{ file: path, message: `decompresses to more than ${mebibytes(maxBytes)}`, fix: 'check that this is the right file; split a long history by year' }]);
     }
     throw new InputError([{ file: path, message: 'is named .gz but is not a readable gzip file (damaged or cut short)', fix: 'decompress it yourself to check it, or rename it without .gz' }]);
@@ -122,6 +187,8 @@ function fileSystemProblem(path: string, code: string | undefined): InputProblem
     case 'ENAMETOOLONG':
     case 'ERR_INVALID_ARG_VALUE':
       return { file: path, message: 'is not a valid file name (too long, or a character the file system refuses)', fix: 'check the path' };
+    case 'ELOOP':
+      return { file: path, message: 'cannot be read: it is a symbolic link that leads back to itself (a loop of links)', fix: 'point the link at the real file, or give the real file\'s path' };
     default:
       return { file: path, message: `cannot be read (${code ?? 'unknown error'})`, fix: 'check the path and the file' };
   }

@@ -1,7 +1,9 @@
 import type { DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory } from '../types.js';
 import { DayCalendar } from '../market/dayCalendar.js';
 import { InputError, ProblemList } from '../errors/inputError.js';
-import { parseDecimal, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
+import { shownText } from '../errors/shownText.js';
+import { PRICE_LIMIT_PER_MWH } from '../market/marketSpec.js';
+import { hasOpenQuote, openQuoteProblem, parseDecimal, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
 import { PeriodLocator } from './periodLocator.js';
 import { PlainRow } from './plainRow.js';
 import { readInputFile } from './readInputFile.js';
@@ -30,8 +32,9 @@ export function readPriceHistory(path: string, market: MarketSpec, note?: (text:
  * Conventions:
  * - every cell must be a finite decimal with a dot (parseDecimal); `period_start` must name a period
  *   start of the market's calendar with the zone's offset on that date (locatePeriod);
- * - `price` must lie in the market's [priceFloor, priceCap]; `imbalance_price` is a balancing price and
- *   is only required to be finite (balancing prices are not bound by the auction's limits, common practice);
+ * - `price` must lie in the market's [priceFloor, priceCap]; `imbalance_price` is a balancing price, not
+ *   bound by the auction's limits (common practice), and must lie within +-PRICE_LIMIT_PER_MWH; an
+ *   exogenous column's values within +-EXOGENOUS_LIMIT;
  * - rows may come in any order; days come out ascending;
  * - a day with missing periods or a period given twice is left out and listed in `incompleteDays` with
  *   the reason (never filled in, never averaged);
@@ -48,7 +51,7 @@ export function parsePriceHistory(text: string, file: string, market: MarketSpec
     note(`note: ${file}:1: the column ${OLD_IMBALANCE_PRICE_COLUMN} is read as ${HISTORY_COLUMNS.imbalancePrice}; rename the column to ${HISTORY_COLUMNS.imbalancePrice}\n`);
   }
   const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
-  const byDay = readRows(split.table, header, file, market, calendar, problems);
+  const byDay = readRows(split.table, header, layout, file, market, calendar, problems);
   problems.throwIfAny();
   return assembleHistory(byDay, layout, calendar);
 }
@@ -67,10 +70,10 @@ const HEADER_FIX = 'use the header period_start,price[,imbalance_price][,other c
 function historyLayout(header: readonly string[], file: string, problems: ProblemList): HistoryLayout {
   const at = (k: number): string => header[k] ?? '';
   if (at(0) !== HISTORY_COLUMNS.periodStart) {
-    problems.add({ file, line: 1, field: at(0), message: `the first column is "${at(0)}", expected "period_start"`, fix: HEADER_FIX });
+    problems.add({ file, line: 1, field: at(0), message: `the first column is "${shownText(at(0))}", expected "period_start"`, fix: HEADER_FIX });
   }
   if (at(1) !== HISTORY_COLUMNS.price) {
-    problems.add({ file, line: 1, field: at(1), message: `the second column is "${at(1)}", expected "price"`, fix: HEADER_FIX });
+    problems.add({ file, line: 1, field: at(1), message: `the second column is "${shownText(at(1))}", expected "price"`, fix: HEADER_FIX });
   }
   let imbalanceColumn: number | null = null;
   let oldImbalanceName = false;
@@ -82,7 +85,7 @@ function historyLayout(header: readonly string[], file: string, problems: Proble
       return;
     }
     if (seen.has(name)) {
-      problems.add({ file, line: 1, field: name, message: `column "${name}" appears twice`, fix: 'give each column once' });
+      problems.add({ file, line: 1, field: name, message: `column "${shownText(name)}" appears twice`, fix: 'give each column once' });
       return;
     }
     seen.add(name);
@@ -120,11 +123,13 @@ interface DayBuffer {
 function readRows(
   table: CsvTable,
   header: readonly string[],
+  layout: HistoryLayout,
   file: string,
   market: MarketSpec,
   calendar: DayCalendar,
   problems: ProblemList,
 ): Map<string, DayBuffer> {
+  const limits = columnLimits(header, layout);
   const locator = new PeriodLocator(calendar);
   const byDay = new Map<string, DayBuffer>();
   const values = new Float64Array(header.length - 1);
@@ -132,33 +137,63 @@ function readRows(
   const lines = table.lines();
   while (lines.next()) {
     if (problems.full) break;
-    if (plain.read(lines.text, lines.from, lines.to) && withinLimits(plain.values[0] as number, market)) {
+    if (plain.read(lines.text, lines.from, lines.to) && withinLimits(plain.values, limits, market)) {
       const located = locator.locateAt(lines.text, plain.stampFrom, plain.stampTo);
       if (located.ok) store(byDay, calendar, located, lines.line, plain.values);
       else problems.add({ file, line: lines.line, field: HISTORY_COLUMNS.periodStart, message: located.message, fix: located.fix });
     } else {
-      readRow({ line: lines.line, cells: splitCsvLine(lines.lineText()) }, header, file, market, locator, problems, values, byDay, calendar);
+      const lineText = lines.lineText();
+      if (hasOpenQuote(lineText)) problems.add(openQuoteProblem(lines.line, file));
+      else readRow({ line: lines.line, cells: splitCsvLine(lineText) }, { header, limits, file, market, locator, calendar }, problems, values, byDay);
     }
   }
   return byDay;
 }
 
-function withinLimits(price: number, market: MarketSpec): boolean {
-  return price >= market.priceFloor && price <= market.priceCap;
+/**
+ * Largest size of a value of an exogenous column (a load or renewables forecast in MW, or kW) [-]:
+ * beyond a thousand times the largest grid's load, and far from overflow in a regression's sums.
+ */
+export const EXOGENOUS_LIMIT = 1e9;
+
+/**
+ * The largest size each column's values may have, by column index (the header's): the imbalance
+ * price as large as a market's prices may be (PRICE_LIMIT_PER_MWH; balancing prices are not bound by
+ * the auction's floor and cap), an exogenous column EXOGENOUS_LIMIT. Columns 0 and 1 (period start,
+ * price) have their own checks.
+ */
+function columnLimits(header: readonly string[], layout: HistoryLayout): Float64Array {
+  const limits = new Float64Array(header.length).fill(EXOGENOUS_LIMIT);
+  if (layout.imbalanceColumn !== null) limits[layout.imbalanceColumn] = PRICE_LIMIT_PER_MWH;
+  return limits;
+}
+
+/** Whether the values of a row (columns 1 on) lie in their ranges: the price in [priceFloor, priceCap], the others within their limits. */
+function withinLimits(values: Float64Array, limits: Float64Array, market: MarketSpec): boolean {
+  const price = values[0] as number;
+  if (!(price >= market.priceFloor && price <= market.priceCap)) return false;
+  for (let k = 1; k < values.length; k++) {
+    const v = values[k] as number;
+    const limit = limits[k + 1] as number;
+    if (!(v >= -limit && v <= limit)) return false;
+  }
+  return true;
 }
 
 /** One row read cell by cell: its problems listed (the period start first, then the cells in order), or its values stored. */
-function readRow(
-  row: CsvRow,
-  header: readonly string[],
-  file: string,
-  market: MarketSpec,
-  locator: PeriodLocator,
-  problems: ProblemList,
-  values: Float64Array,
-  byDay: Map<string, DayBuffer>,
-  calendar: DayCalendar,
-): void {
+/** What readRow reads a row against: the header, each column's limit, the file's name, the market, the period locator and the calendar. */
+interface RowContext {
+  readonly header: readonly string[];
+  readonly limits: Float64Array;
+  readonly file: string;
+  readonly market: MarketSpec;
+  readonly locator: PeriodLocator;
+  readonly calendar: DayCalendar;
+}
+
+/** One row read cell by cell: its problems listed (the period start first, then the cells in order), or its values stored. */
+function readRow(row: CsvRow, context: RowContext, problems: ProblemList, values: Float64Array, byDay: Map<string, DayBuffer>): void {
+  const { header, limits, file, market, locator, calendar } = context;
   const width = header.length;
   if (row.cells.length !== width) {
     // Name the first column without a value, or the first cell beyond the header.
@@ -171,13 +206,19 @@ function readRow(
   let ok = located.ok;
   if (!located.ok) problems.add({ file, line: row.line, field: HISTORY_COLUMNS.periodStart, message: located.message, fix: located.fix });
   for (let k = 1; k < width; k++) {
-    const cell = parseDecimal(row.cells[k] as string);
+    const text = row.cells[k] as string;
+    const cell = parseDecimal(text);
     const field = header[k] as string;
+    const limit = limits[k] as number;
     if ('error' in cell) {
       problems.add({ file, line: row.line, field, message: cell.error, fix: cell.fix });
       ok = false;
     } else if (k === 1 && (cell.value < market.priceFloor || cell.value > market.priceCap)) {
-      problems.add({ file, line: row.line, field, message: `price ${cell.value} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the history's unit and the market spec's priceFloor and priceCap" });
+      problems.add({ file, line: row.line, field, message: `price ${shownText(text)} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the history's unit and the market spec's priceFloor and priceCap" });
+      ok = false;
+    } else if (k > 1 && !(Math.abs(cell.value) <= limit)) {
+      const what = limit === PRICE_LIMIT_PER_MWH ? 'an imbalance price' : 'a value of this column';
+      problems.add({ file, line: row.line, field, message: `${shownText(text)} is out of range: ${what} lies in [-${limit}, ${limit}]`, fix: "check the column's unit and decimal point" });
       ok = false;
     } else {
       values[k - 1] = cell.value;

@@ -1,8 +1,9 @@
 import type { MarketSpec, QuantileDay } from '../types.js';
 import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
 import { rearrange } from '../forecast/quantileSet.js';
+import { isLevel, LEVEL_RANGE_TEXT } from '../forecast/quantiles/levels.js';
 import { ProblemList } from '../errors/inputError.js';
-import { fieldCountProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
+import { fieldCountProblem, hasOpenQuote, openQuoteProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
 import { PeriodLocator } from './periodLocator.js';
 import { PlainRow } from './plainRow.js';
 import { readQuantileHeader } from './quantileHeader.js';
@@ -98,7 +99,12 @@ function readWide(table: CsvTable, levels: readonly number[], file: string, mark
       days.add(located, lines.text, plain.stampFrom, plain.stampTo, lines.line, plain.values, file, stampProblems);
       continue;
     }
-    const cells = splitCsvLine(lines.lineText());
+    const lineText = lines.lineText();
+    if (hasOpenQuote(lineText)) {
+      problems.add(openQuoteProblem(lines.line, file));
+      continue;
+    }
+    const cells = splitCsvLine(lineText);
     if (cells.length !== header.length) {
       problems.add(fieldCountProblem({ line: lines.line, cells }, header, file, 'give one value per column on every line'));
       continue;
@@ -217,7 +223,7 @@ function ownCopy(text: string): string {
 function priceCell(cell: string, market: MarketSpec): ReturnType<typeof parseDecimal> {
   const parsed = parseDecimal(cell);
   if ('error' in parsed || (parsed.value >= market.priceFloor && parsed.value <= market.priceCap)) return parsed;
-  return { error: `price ${parsed.value} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the forecast's unit and the market spec's priceFloor and priceCap" };
+  return { error: `price ${shownText(cell)} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the forecast's unit and the market spec's priceFloor and priceCap" };
 }
 
 /** A level cell of the long layout: a finite decimal in (0, 1); a percentage is named as such. */
@@ -226,7 +232,7 @@ function levelCell(cell: string): ReturnType<typeof parseDecimal> {
   if ('error' in parsed) return parsed;
   const level = parsed.value;
   if (level >= 1 && level < 100) return { error: `level ${level} looks like a percentage`, fix: `write levels as fractions in (0, 1), e.g. ${level / 100}` };
-  if (!(level > 0 && level < 1)) return { error: `level ${level} is outside (0, 1)`, fix: 'levels are probabilities strictly between 0 and 1' };
+  if (!isLevel(level)) return { error: `level ${shownText(cell)} is outside ${LEVEL_RANGE_TEXT}`, fix: `levels are probabilities in ${LEVEL_RANGE_TEXT}` };
   return parsed;
 }
 
@@ -259,8 +265,8 @@ function longPeriods(rows: Iterable<CsvRow>, file: string, market: MarketSpec, p
       group = { stamp, line: row.line, prices: new Map(), valid: true };
       byStamp.set(stamp, group);
     }
-    if (row.cells.length !== 3) {
-      problems.add(fieldCountProblem(row, LONG_HEADER, file, 'give period_start,level,price on every line'));
+    if (row.openQuote === true || row.cells.length !== 3) {
+      problems.add(row.openQuote === true ? openQuoteProblem(row.line, file) : fieldCountProblem(row, LONG_HEADER, file, 'give period_start,level,price on every line'));
       group.valid = false;
       continue;
     }

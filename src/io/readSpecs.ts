@@ -17,7 +17,7 @@ export function parseJsonSpec<T>(
   fixes: Readonly<Record<string, string>>,
 ): T {
   const json = parseJsonText(text, file);
-  if ('problem' in json) throw new InputError([json.problem]);
+  if ('problems' in json) throw new InputError(json.problems);
   const result = parse(json.value);
   if (!result.success) {
     throw new InputError(zodProblems(result.error, file, text, (field) => fixes[field] ?? 'see the file formats in the README', json.value));

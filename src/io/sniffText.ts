@@ -27,6 +27,10 @@ export function sniffText(file: string, head: Buffer, more: boolean, firstLine?:
     const found = lineBreak.exec(body);
     if (found === null && more) {
       if (head.length < SNIFF_BYTES) return [];
+      const columns = countCommas(body, start) + 1;
+      if (columns > 100) {
+        return [{ file, line, message: `the header line is longer than ${head.length} bytes (${columns} columns or more): more columns than any quantbid input has (a forecast has at most 99 levels)`, fix: 'give at most 99 quantile levels; check that this is the right file' }];
+      }
       return [{ file, line, message: `line ${line} is longer than ${head.length} bytes: this is not a CSV file with a header line`, fix: 'check that this is the right file' }];
     }
     const content = body.slice(start, found === null ? body.length : found.index);
@@ -34,6 +38,12 @@ export function sniffText(file: string, head: Buffer, more: boolean, firstLine?:
     if (found === null) return []; // blank or empty file: the reader says so
     start = lineBreak.lastIndex;
   }
+}
+
+function countCommas(text: string, from: number): number {
+  let count = 0;
+  for (let i = text.indexOf(',', from); i >= 0; i = text.indexOf(',', i + 1)) count++;
+  return count;
 }
 
 function binaryKind(head: Buffer): { message: string; fix: string } | null {

@@ -1,6 +1,9 @@
-import { DateTime, IANAZone, Info, type Zone } from 'luxon';
+import { DateTime, IANAZone } from 'luxon';
 import type { DeliveryPeriod } from './deliveryPeriod.js';
 import { dayNumber, dayText } from './civilDays.js';
+import { offsetMinutes, steadyDay } from './steadyDays.js';
+
+export { isValidDay } from './civilDays.js';
 
 /**
  * The delivery periods of one delivery day in a market's IANA zone.
@@ -15,8 +18,11 @@ import { dayNumber, dayText } from './civilDays.js';
  * @param periodMinutes 15, 30 or 60 [min]
  */
 export function deliveryPeriods(day: string, timeZone: string, periodMinutes: number): DeliveryPeriod[] {
-  const { startMs, endMs } = deliveryDayBounds(day, timeZone);
   const stepMs = periodMinutes * 60_000;
+  // Most days: a steady offset, found from the day before by two offset lookups (steadyDays.ts).
+  const steady = DAY_MS % stepMs === 0 ? steadyDay(day, timeZone, () => deliveryDayBounds(day, timeZone).startMs) : null;
+  if (steady !== null) return cutPeriods(steady.startMs, steady.startMs + DAY_MS, stepMs, fixedOffsetFormatter(steady.offsetMin));
+  const { startMs, endMs } = deliveryDayBounds(day, timeZone);
   if ((endMs - startMs) % stepMs !== 0) {
     throw new RangeError(`delivery day ${day} in ${timeZone} is not a whole number of ${periodMinutes}-minute periods`);
   }
@@ -24,7 +30,11 @@ export function deliveryPeriods(day: string, timeZone: string, periodMinutes: nu
   // clock-change days) local time is UTC plus one fixed offset, so the text is built by arithmetic.
   const startOffset = offsetMinutes(startMs, timeZone);
   const fixed = startOffset === offsetMinutes(endMs, timeZone) && startOffset === offsetMinutes(endMs - 1, timeZone);
-  const format = fixed ? fixedOffsetFormatter(startOffset) : (ms: number) => formatInstant(ms, timeZone);
+  return cutPeriods(startMs, endMs, stepMs, fixed ? fixedOffsetFormatter(startOffset) : (ms: number) => formatInstant(ms, timeZone));
+}
+
+/** The periods of [startMs, endMs) in steps of stepMs, named by `format`. */
+function cutPeriods(startMs: number, endMs: number, stepMs: number, format: (ms: number) => string): DeliveryPeriod[] {
   const periods: DeliveryPeriod[] = [];
   let start = format(startMs);
   for (let ms = startMs; ms < endMs; ms += stepMs) {
@@ -34,21 +44,6 @@ export function deliveryPeriods(day: string, timeZone: string, periodMinutes: nu
   }
   return periods;
 }
-
-/**
- * UTC offset of a zone at an instant [min]: what DateTime.fromMillis(ms, { zone }).offset gives, asked
- * of luxon's zone object itself (kept per zone name) without making a DateTime.
- */
-function offsetMinutes(ms: number, timeZone: string): number {
-  let zone = zones.get(timeZone);
-  if (zone === undefined) {
-    zone = Info.normalizeZone(timeZone);
-    zones.set(timeZone, zone);
-  }
-  return zone.offset(ms);
-}
-
-const zones = new Map<string, Zone>();
 
 /**
  * ISO 8601 local time for a fixed offset, e.g. `2027-06-15T10:00:00+02:00` (same text as formatInstant),
@@ -102,6 +97,15 @@ export function deliveryDayBounds(day: string, timeZone: string): { startMs: num
   return { startMs: start.toMillis(), endMs: end.toMillis() };
 }
 
+/**
+ * Whether a zone skipped `day` altogether: its clocks jumped over the whole date (e.g. Pacific/Apia
+ * moved across the date line on 2011-12-30), so no instant has that local date and the day has no
+ * delivery periods of its own.
+ */
+export function isSkippedDay(day: string, timeZone: string): boolean {
+  return dayOfInstant(deliveryDayBounds(day, timeZone).startMs, timeZone) !== day;
+}
+
 /** ISO 8601 with the zone's offset at that instant, seconds kept, milliseconds dropped. */
 export function formatInstant(ms: number, timeZone: string): string {
   const text = DateTime.fromMillis(ms, { zone: timeZone }).toISO({ suppressMilliseconds: true });
@@ -147,9 +151,4 @@ export function isoWeekday(day: string): number {
 
 export function isValidTimeZone(name: string): boolean {
   return IANAZone.isValidZone(name);
-}
-
-/** Whether `text` is a day YYYY-MM-DD of the (proleptic Gregorian) calendar. */
-export function isValidDay(text: string): boolean {
-  return dayNumber(text) !== null;
 }

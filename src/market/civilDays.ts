@@ -20,6 +20,11 @@ export function dayNumber(day: string): number | null {
   return era * 146097 + dayOfEra - 719468;
 }
 
+/** Whether `text` is a day YYYY-MM-DD of the (proleptic Gregorian) calendar. */
+export function isValidDay(text: string): boolean {
+  return dayNumber(text) !== null;
+}
+
 /** The YYYY-MM-DD text of a day number, or null when its year is outside 0000 to 9999 (or it is no number). */
 export function dayText(number: number): string | null {
   const z = number + 719468;

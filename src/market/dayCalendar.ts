@@ -1,5 +1,5 @@
 import type { DeliveryPeriod } from './deliveryPeriod.js';
-import { dayOfInstant, deliveryPeriods, isValidDay } from './calendar.js';
+import { dayOfInstant, deliveryPeriods, isValidDay, nextDay } from './calendar.js';
 
 /** The periods of each delivery day of one market, computed once per day and kept. */
 export class DayCalendar {
@@ -58,7 +58,7 @@ export class DayCalendar {
   }
 }
 
-const STAMP = /^(\d{4}-\d{2}-\d{2})T(\d{2}):(\d{2})(?::(\d{2})(?:\.\d+)?)?(Z|[+-]\d{2}:?\d{2})$/;
+const STAMP = /^(\d{4}-\d{2}-\d{2})T(\d{2}):(\d{2})(?::(\d{2})(\.\d+)?)?(Z|[+-]\d{2}:?\d{2})$/;
 
 export type LocatedPeriod =
   | { readonly ok: true; readonly day: string; readonly index: number; readonly startMs: number }
@@ -79,6 +79,15 @@ export function locatePeriod(text: string, calendar: DayCalendar): LocatedPeriod
     return { ok: false, message: `"${shown}" is not an ISO 8601 timestamp`, fix: 'write period starts like 2027-03-28T03:00:00+02:00' };
   }
   const day = match[1] as string;
+  if (match[2] === '24') {
+    const next = calendar.periodsIfValid(nextDay(day));
+    const start = next !== null && !('uncut' in next) ? next[0]?.start : undefined;
+    return { ok: false, message: `"${text}" writes midnight as 24:00, which names no period start of ${day}`, fix: `write the next day's start at 00:00${start === undefined ? '' : `, here ${start}`}` };
+  }
+  const fraction = match[5];
+  if (fraction !== undefined && /[1-9]/.test(fraction)) {
+    return { ok: false, message: `"${text}" has a fraction of a second (${fraction}); a delivery period starts on a whole minute`, fix: 'write period starts without fractions of a second, e.g. 2027-03-28T03:00:00+02:00' };
+  }
   const startMs = Date.parse(text);
   const periods = calendar.periodsIfValid(day);
   if (periods === null || Number.isNaN(startMs)) {
@@ -89,7 +98,7 @@ export function locatePeriod(text: string, calendar: DayCalendar): LocatedPeriod
   }
   const first = periods[0];
   const stepMs = calendar.periodMinutes * 60_000;
-  const offset = (match[5] as string) === 'Z' ? '+00:00' : normaliseOffset(match[5] as string);
+  const offset = (match[6] as string) === 'Z' ? '+00:00' : normaliseOffset(match[6] as string);
   const position = first === undefined ? -1 : (startMs - first.startMs) / stepMs;
   const period = Number.isInteger(position) ? periods[position] : undefined;
   if (period === undefined) {

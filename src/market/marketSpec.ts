@@ -1,7 +1,22 @@
 import { z } from 'zod';
+import { hasInvisible } from '../errors/shownText.js';
 import { isValidTimeZone } from './calendar.js';
 import { unevenClockShift } from './clockShifts.js';
 
+/**
+ * Largest size of a price a market spec or a price history may give [currency/MWh]: 1,000,000 is above
+ * every day-ahead market's cap in its own currency (4000 EUR, 17,500 AUD, 251,000 JPY when converted
+ * from JEPX's 251 JPY/kWh; common practice), and keeps sums over decades of periods far from overflow.
+ */
+export const PRICE_LIMIT_PER_MWH = 1_000_000;
+
+/** A number of a spec in [lo, hi]; Infinity (JSON's 1e999) and NaN are out of that range too. */
+const bounded = (what: string, lo: number, hi: number) =>
+  z
+    .number({ error: (issue) => (issue.input === undefined ? `missing ${what}` : typeof issue.input === 'number' ? `${what} must be in [${lo}, ${hi}]` : `${what} must be a number`) })
+    .min(lo, `${what} must be in [${lo}, ${hi}]`)
+    .max(hi, `${what} must be in [${lo}, ${hi}]`);
+/** A finite number of a spec (1e999 parses to Infinity and is refused). */
 const finite = (what: string) =>
   z.number({ error: (issue) => (issue.input === undefined ? `missing ${what}` : `${what} must be a number`) }).finite();
 const text = (what: string) =>
@@ -16,7 +31,7 @@ const ruleSchema = (key: string) =>
   z.strictObject({
     kind: z.literal('clearing-plus-penalty', { error: `${key}.kind must be "clearing-plus-penalty"` }),
     /** Penalty added against the operator [currency/MWh], >= 0. */
-    penaltyPerMwh: finite('penaltyPerMwh').min(0, 'penaltyPerMwh must be >= 0'),
+    penaltyPerMwh: bounded('penaltyPerMwh', 0, PRICE_LIMIT_PER_MWH),
   });
 
 export const imbalanceRuleSchema = ruleSchema('imbalance');
@@ -43,9 +58,19 @@ export const bidCurvesSchema = z.strictObject({
  */
 export const MAX_QUANTITY_STEP_MW = 1000;
 
-/** A positive number of at most `max`, with messages that name the field. */
-const stepField = (what: string, max: number, unit: string) =>
-  finite(what).gt(0, `${what} must be > 0`).max(max, `${what} must be at most ${max} ${unit}; check the unit`);
+/**
+ * Smallest quantity step and minimum quantity accepted [MW]: 1 kW, far below any exchange's step, and
+ * large enough that a day's energy divided by it stays a modest whole number (a step of 1e-320 MW
+ * overflows the rounding arithmetic).
+ */
+export const MIN_QUANTITY_STEP_MW = 0.001;
+
+/** Smallest price tick accepted [currency/MWh]: 0.0001, below any exchange's tick (0.01 is common practice). */
+export const MIN_PRICE_TICK_PER_MWH = 0.0001;
+
+/** A number in [min, max], with messages that name the field. */
+const stepField = (what: string, min: number, max: number, unit: string) =>
+  finite(what).min(min, `${what} must be at least ${min} ${unit}`).max(max, `${what} must be at most ${max} ${unit}; check the unit`);
 
 /** Whether x is a whole multiple of step, up to floating-point dust (1e-9 of a step). */
 export function isMultipleOf(x: number, step: number): boolean {
@@ -66,11 +91,14 @@ export const marketSpecSchema = z
       error: (issue) => (issue.input === undefined ? 'missing periodMinutes' : 'periodMinutes must be 15, 30 or 60'),
     }),
     /** Lowest price the auction can clear at [currency/MWh]. Required. */
-    priceFloor: finite('priceFloor'),
+    priceFloor: bounded('priceFloor', -PRICE_LIMIT_PER_MWH, PRICE_LIMIT_PER_MWH),
     /** Highest price the auction can clear at [currency/MWh]. Required. */
-    priceCap: finite('priceCap'),
+    priceCap: bounded('priceCap', -PRICE_LIMIT_PER_MWH, PRICE_LIMIT_PER_MWH),
     /** Currency label printed beside prices, e.g. `EUR` or an invented one. Required. */
-    currency: text('currency').min(1, 'currency must not be empty'),
+    currency: text('currency')
+      .min(1, 'currency must not be empty')
+      .max(16, 'currency must be a short label of at most 16 characters')
+      .refine((label) => !hasInvisible(label) && label.trim() === label, 'currency must be printable text without control characters or blanks around it'),
     /** Gate closure, local time of day on the day before delivery, `HH:MM`. Required. */
     gateClosure: text('gateClosure')
       .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'gateClosure must be a local time HH:MM'),
@@ -80,12 +108,12 @@ export const marketSpecSchema = z
     bidCurves: bidCurvesSchema.optional(),
     /** The old name of `imbalance`, read as it; not both. */
     [OLD_IMBALANCE_FIELD]: ruleSchema(OLD_IMBALANCE_FIELD).optional(),
-    /** Order quantities are whole multiples of this [MW], > 0. Default: none (quantities as planned). */
-    quantityStepMw: stepField('quantityStepMw', MAX_QUANTITY_STEP_MW, 'MW').optional(),
-    /** Smallest order the exchange takes [MW], > 0; smaller orders are dropped. Default: none. */
-    minimumQuantityMw: stepField('minimumQuantityMw', MAX_QUANTITY_STEP_MW, 'MW').optional(),
-    /** Limit prices are whole multiples of this [currency/MWh], > 0; floor and cap lie on it. Default: none. */
-    priceTickPerMwh: finite('priceTickPerMwh').gt(0, 'priceTickPerMwh must be > 0').optional(),
+    /** Order quantities are whole multiples of this [MW], at least MIN_QUANTITY_STEP_MW. Default: none (quantities as planned). */
+    quantityStepMw: stepField('quantityStepMw', MIN_QUANTITY_STEP_MW, MAX_QUANTITY_STEP_MW, 'MW').optional(),
+    /** Smallest order the exchange takes [MW], at least MIN_QUANTITY_STEP_MW; smaller orders are dropped. Default: none. */
+    minimumQuantityMw: stepField('minimumQuantityMw', MIN_QUANTITY_STEP_MW, MAX_QUANTITY_STEP_MW, 'MW').optional(),
+    /** Limit prices are whole multiples of this [currency/MWh], at least MIN_PRICE_TICK_PER_MWH; floor and cap lie on it. Default: none. */
+    priceTickPerMwh: finite('priceTickPerMwh').min(MIN_PRICE_TICK_PER_MWH, `priceTickPerMwh must be at least ${MIN_PRICE_TICK_PER_MWH}`).optional(),
   })
   .superRefine(
     (spec, ctx) => {
@@ -129,7 +157,7 @@ export const MARKET_FIELD_FIXES: Readonly<Record<string, string>> = {
   periodMinutes: 'set the market time unit: 15, 30 or 60 (a period that divides every clock shift of the zone)',
   priceFloor: 'give the auction\'s lowest clearing price in currency/MWh, e.g. -500',
   priceCap: 'give the auction\'s highest clearing price in currency/MWh, above priceFloor, e.g. 4000',
-  currency: 'give a currency label such as "EUR"',
+  currency: 'give a short printable currency label such as "EUR"',
   gateClosure: 'give the local time on the day before delivery, e.g. "12:00"',
   'imbalance.kind': 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
   'imbalance.penaltyPerMwh': 'give a penalty >= 0 in currency/MWh',

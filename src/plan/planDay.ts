@@ -1,5 +1,6 @@
 import type { BatteryModel, DayOutcome, DayProblem, DeliveryPeriod, MarketSpec, Order, PlanPolicy, QuantileDay } from '../types.js';
 import { exchangeSteps, roundingValue, roundLimit, roundSchedule, type ExchangeRounding } from './exchangeRounding.js';
+import { pricesAtLevel } from '../forecast/quantileSet.js';
 import { policyPrices, type PolicyPrices } from './policyPrices.js';
 import { scheduleOrders } from './scheduleOrders.js';
 import { scheduleValue } from './scheduleValue.js';
@@ -73,8 +74,9 @@ export function planDay(request: PlanRequest): PlanResult {
   const { outcome, orders: rounded, rounding } = roundForExchange(problem, solved, forecast.periods, prices, market);
   const atCapOrFloor = recovery === null ? 0 : Math.min(forecast.periods.length, recovery.forcedPeriods + (insideWindow(battery, recovery.socAfterMwh) ? 0 : 1));
   const orders = rounded.map((o) => (recoveryOrder(o, forecast, atCapOrFloor) ? { ...o, limitPrice: o.side === 'buy' ? market.priceCap : market.priceFloor, quantileLevel: null } : o));
-  const median = policyPrices(forecast, 'point', alpha, market);
-  const expectedValueAtMedian = scheduleValue({ ...problem, buyPricePerMwh: median.buyPricePerMwh, sellPricePerMwh: median.sellPricePerMwh }, outcome.schedule);
+  // The median and point policies schedule on the median already.
+  const median = policy === 'median' || policy === 'point' ? prices.buyPricePerMwh : pricesAtLevel(forecast.levels, forecast.prices, 0.5);
+  const expectedValueAtMedian = scheduleValue({ ...problem, buyPricePerMwh: median, sellPricePerMwh: median }, outcome.schedule);
   return { status: 'optimal', problem, prices, outcome, orders, expectedValueAtMedian, rounding, recovery: recovery === null ? null : { ...recovery, periodsAtCapOrFloor: atCapOrFloor } };
 }
 

@@ -1,5 +1,5 @@
 import type { MarketSpec, PlanPolicy, QuantileDay } from '../types.js';
-import { priceAtLevel } from '../forecast/quantileSet.js';
+import { pricesAtLevel } from '../forecast/quantileSet.js';
 
 /** Prices one policy schedules on, and the limit prices (with the levels they came from) it bids. */
 export interface PolicyPrices {
@@ -29,7 +29,7 @@ export interface PolicyPrices {
  * Quantiles between given levels are interpolated linearly; limits are clamped into [floor, cap].
  */
 export function policyPrices(forecast: QuantileDay, policy: PlanPolicy, alpha: number, market: MarketSpec): PolicyPrices {
-  const at = (tau: number): number[] => forecast.prices.map((row) => priceAtLevel(forecast.levels, row, tau));
+  const at = (tau: number): number[] => pricesAtLevel(forecast.levels, forecast.prices, tau);
   const median = at(0.5);
   const clampAll = (prices: number[]): number[] => prices.map((p) => Math.min(market.priceCap, Math.max(market.priceFloor, p)));
   if (policy === 'point') {

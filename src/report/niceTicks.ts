@@ -33,7 +33,7 @@ const EPS = 1e-9;
  *   intervals plus one at each end
  */
 export function niceTicks(min: number, max: number, target = 5): NiceTicks {
-  if (!Number.isFinite(min) || !Number.isFinite(max) || max < min) throw new RangeError(`niceTicks needs finite min <= max, got [${min}, ${max}]`);
+  if (!finiteRange(min, max)) throw new RangeError(`niceTicks needs finite min <= max with a finite width, got [${min}, ${max}]`);
   const [lo, hi] = widenDegenerate(min, max);
   const step = ladderStepAtLeast((hi - lo) / Math.max(1, target));
   const first = Math.floor(lo / step.value + EPS);
@@ -47,11 +47,12 @@ export function niceTicks(min: number, max: number, target = 5): NiceTicks {
  * primary axis then also fall on ticks of the secondary one.
  */
 export function alignedTicks(min: number, max: number, count: number): NiceTicks {
-  if (!Number.isFinite(min) || !Number.isFinite(max) || max < min) throw new RangeError(`alignedTicks needs finite min <= max, got [${min}, ${max}]`);
+  if (!finiteRange(min, max)) throw new RangeError(`alignedTicks needs finite min <= max with a finite width, got [${min}, ${max}]`);
   if (!Number.isInteger(count) || count < 2) throw new RangeError(`alignedTicks needs at least 2 ticks, got ${count}`);
   const [lo, hi] = widenDegenerate(min, max);
   let step = ladderStepAtLeast((hi - lo) / (count - 1));
   for (;;) {
+    if (!Number.isFinite(step.value)) throw new RangeError(`alignedTicks found no step for [${min}, ${max}]`);
     const first = Math.floor(lo / step.value + EPS);
     if ((first + count - 1) * step.value >= hi - EPS * step.value) return ticksFrom(first, count - 1, step);
     step = nextLadderStep(step);
@@ -65,7 +66,7 @@ export function alignedTicks(min: number, max: number, count: number): NiceTicks
  * Example: [-5, 5], target 5: step 2 misses the ends, step 5 gives -5, 0, 5.
  */
 export function ticksOnFixedEnds(min: number, max: number, niceStep: number, target: number): NiceTicks | null {
-  if (!(max > min)) return null;
+  if (!(max > min) || !finiteRange(min, max)) return null;
   const isMultiple = (v: number, s: number) => Math.abs(v / s - Math.round(v / s)) < 1e-9;
   for (let step = ladderStepAtLeast(niceStep / 2); step.value <= (max - min) / 2 + EPS; step = nextLadderStep(step)) {
     const intervals = Math.round((max - min) / step.value);
@@ -90,6 +91,11 @@ function ladderStep(rung: number, exponent: number): LadderStep {
 
 function nextLadderStep(step: LadderStep): LadderStep {
   return step.rung + 1 < LADDER.length ? ladderStep(step.rung + 1, step.exponent) : ladderStep(0, step.exponent + 1);
+}
+
+/** Whether [min, max] is a range the ladder can cover: both ends and the width finite, min <= max. */
+function finiteRange(min: number, max: number): boolean {
+  return Number.isFinite(min) && Number.isFinite(max) && max >= min && Number.isFinite(max - min);
 }
 
 function ladderStepAtLeast(raw: number): LadderStep {

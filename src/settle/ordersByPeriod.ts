@@ -7,13 +7,21 @@ import type { DeliveryPeriod, Order } from '../types.js';
  * @throws RangeError for an order outside the day's periods or a second order in one period.
  */
 export function ordersByPeriod(periods: readonly DeliveryPeriod[], orders: readonly Order[]): (Order | null)[] {
-  const index = new Map(periods.map((p, t) => [p.start, t]));
   const laid: (Order | null)[] = new Array<Order | null>(periods.length).fill(null);
+  // Orders come in period order as a rule: each is looked for from the period after the last one found.
+  let index: Map<string, number> | undefined;
+  let from = 0;
   for (const order of orders) {
-    const t = index.get(order.periodStart);
+    let t: number | undefined = from;
+    while (t < periods.length && (periods[t] as DeliveryPeriod).start !== order.periodStart) t++;
+    if (t === periods.length) {
+      index ??= new Map(periods.map((p, k) => [p.start, k]));
+      t = index.get(order.periodStart);
+    }
     if (t === undefined) throw new RangeError(`order for ${order.periodStart} is not in the day's periods`);
     if (laid[t] !== null) throw new RangeError(`two orders for ${order.periodStart}; at most one per period`);
     laid[t] = order;
+    from = t + 1;
   }
   return laid;
 }

@@ -21,6 +21,8 @@ export interface SettleDayInput {
   readonly clearingPricePerMwh: readonly number[];
   readonly imbalance: ImbalancePrices;
   readonly unaccepted: UnacceptedRule;
+  /** Whether to return every period's settlement (a ledger); without it `periods` is empty and only the totals are made. Default true. */
+  readonly keepPeriods?: boolean;
 }
 
 /**
@@ -73,7 +75,8 @@ export function settleDay(input: SettleDayInput): SettledDay {
   const count = input.clearingPricePerMwh.length;
   checkInput(input, count);
   const tolMwh = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
-  const periods: SettledPeriod[] = new Array<SettledPeriod>(count);
+  const keepPeriods = input.keepPeriods ?? true;
+  const periods: SettledPeriod[] = new Array<SettledPeriod>(keepPeriods ? count : 0);
   // Sums in period order, in plain variables (a settled year is ~175,000 periods per policy).
   let profit = 0, auction = 0, imbalanceSum = 0, costVsClearing = 0, degradation = 0, boughtAuction = 0, soldAuction = 0, boughtImbalance = 0, soldImbalance = 0;
   let deliberateMwh = 0, deliberateCash = 0, deliberatePeriods = 0;
@@ -88,21 +91,23 @@ export function settleDay(input: SettleDayInput): SettledDay {
     const imbalanceSell = input.imbalance.sellPerMwh[t] as number;
     const o = settlePeriod(bid, clearing, imbalanceBuy, imbalanceSell, soc, context, outcome);
     soc = o.socMwh;
-    const period = new SettledPeriodRecord(
-      o.accepted,
-      o.boughtAuctionMwh,
-      o.soldAuctionMwh,
-      o.boughtImbalanceMwh,
-      o.soldImbalanceMwh,
-      o.chargedMwh,
-      o.dischargedMwh,
-      o.auctionCash,
-      o.imbalanceCash,
-      o.degradationCost,
-      o.profit,
-      soc,
-      o.deliberateImbalanceMwh,
-    );
+    if (keepPeriods) {
+      periods[t] = new SettledPeriodRecord(
+        o.accepted,
+        o.boughtAuctionMwh,
+        o.soldAuctionMwh,
+        o.boughtImbalanceMwh,
+        o.soldImbalanceMwh,
+        o.chargedMwh,
+        o.dischargedMwh,
+        o.auctionCash,
+        o.imbalanceCash,
+        o.degradationCost,
+        o.profit,
+        soc,
+        o.deliberateImbalanceMwh,
+      );
+    }
     if (o.boughtImbalanceMwh !== 0 || o.soldImbalanceMwh !== 0) {
       costVsClearing += (imbalanceBuy - clearing) * o.boughtImbalanceMwh - (imbalanceSell - clearing) * o.soldImbalanceMwh;
       if (o.deliberateImbalanceMwh > 0) {
@@ -111,8 +116,7 @@ export function settleDay(input: SettleDayInput): SettledDay {
         deliberatePeriods++;
       }
     }
-    periods[t] = period;
-    profit += period.profit;
+    profit += o.profit;
     auction += o.auctionCash;
     imbalanceSum += o.imbalanceCash;
     degradation += o.degradationCost;

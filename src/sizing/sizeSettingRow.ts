@@ -1,4 +1,4 @@
-import { batteryModel } from '../battery/batterySpec.js';
+import { batteryModel } from '../battery/batteryModel.js';
 import type { BatterySpec, MarketSpec, PriceHistory } from '../types.js';
 import type { UnacceptedRule } from '../settle/settleDay.js';
 import { readsAlpha } from '../backtest/backtestPolicy.js';
@@ -9,10 +9,9 @@ import type { ScenarioPlanning } from '../backtest/scenarioPlanning.js';
 import { alphaSplit, chooseAlpha, type AlphaMode } from './alphaChoice.js';
 import { scaledBatterySpec, type BatterySize } from './scaledBattery.js';
 import { sizeEconomics, type SizeCosts } from './sizeEconomics.js';
+import type { SizePolicy } from './sizePolicy.js';
 
-/** Policies a sizing may score; `perfect-foresight` rows are always added beside them. */
-export const SIZE_POLICIES = Object.freeze(['quantile', 'median', 'point', 'price-taking', 'curve', 'auto'] as const);
-export type SizePolicy = (typeof SIZE_POLICIES)[number] | 'perfect-foresight';
+export { SIZE_POLICIES, type SizePolicy } from './sizePolicy.js';
 
 /** Everything a sizing's rows depend on besides the size and the policy. */
 export interface SizeStudy {

@@ -23,9 +23,9 @@ async function problemsOf(run: () => unknown): Promise<string[]> {
 }
 
 describe('settings checked once by the use case', () => {
-  it('plan: an alpha outside (0, 0.5), an unknown policy and an empty --out are each named', async () => {
+  it('plan: an alpha outside [0.001, 0.5), an unknown policy and an empty --out are each named', async () => {
     const problems = await problemsOf(() => planUseCase({ inputs: { scenario: S }, alpha: 0.7, policy: 'greedy' as never, out: '' }));
-    expect(problems).toEqual(['alpha: alpha must be a number in (0, 0.5)', expect.stringMatching(/^policy: /), 'out: the path is empty; give a file or folder name (is a shell variable unset?)']);
+    expect(problems).toEqual(['alpha: alpha must be a number in [0.001, 0.5)', expect.stringMatching(/^policy: /), 'out: the path is empty; give a file or folder name (is a shell variable unset?)']);
   });
 
   it('sweep: an alpha given twice, --to before --from, the root folder as --out', async () => {

@@ -29,7 +29,9 @@ describe('edgeTest (Diebold-Mariano with the HLN correction, h = 1)', () => {
   it('three days with d = 1, 2, 3 against the closed form of Student t with 2 degrees of freedom', () => {
     // d = quantile - point = 1, 2, 3: mean 2, gamma_0 = (1 + 0 + 1) / 3 = 2/3, DM = 2 / sqrt((2/3) / 3) = 3 sqrt(2),
     // HLN = DM sqrt((n + 1 - 2h + h(h - 1)/n) / n) = 3 sqrt(2) sqrt(2/3) = 2 sqrt(3).
-    // For t with 2 degrees of freedom F(t) = 1/2 + t / (2 sqrt(2 + t^2)) (a textbook closed form), so
+    // For t with 2 degrees of freedom the density is Gamma(3/2) / (sqrt(2 pi) Gamma(1)) (1 + t^2/2)^(-3/2)
+    // = (2 + t^2)^(-3/2) (Student 1908), whose integral is F(t) = 1/2 + t / (2 sqrt(2 + t^2)) (derived
+    // here: d/dt t / (2 sqrt(2 + t^2)) = (2 + t^2)^(-3/2), and F(0) = 1/2 by symmetry), so
     // P(T >= 2 sqrt(3)) = 1/2 - 2 sqrt(3) / (2 sqrt(14)) = 1/2 - sqrt(3/14).
     const edge = edgeTest({ name: 'quantile', dailyProfit: [11, 12, 13] }, { name: 'point', dailyProfit: [10, 10, 10] });
     expect(edge.status).toBe('ok');

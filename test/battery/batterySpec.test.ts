@@ -56,9 +56,9 @@ describe('battery spec', () => {
       '}',
     ].join('\n');
     const lines = problemsOf(() => battery(text));
-    expect(lines).toContain('battery.json:2: energyMwh: energyMwh must be > 0; give the usable nameplate energy in MWh, e.g. 10');
-    expect(lines.some((l) => l.startsWith('battery.json:3: chargeMw: chargeMw must be > 0;'))).toBe(true);
-    expect(lines.some((l) => l.startsWith('battery.json:5: roundTripEfficiency: roundTripEfficiency must be in (0, 1];'))).toBe(true);
+    expect(lines).toContain('battery.json:2: energyMwh: energyMwh must be in [0.001, 100000]; give the usable nameplate energy in MWh, e.g. 10');
+    expect(lines.some((l) => l.startsWith('battery.json:3: chargeMw: chargeMw must be in [0.001, 100000];'))).toBe(true);
+    expect(lines.some((l) => l.startsWith('battery.json:5: roundTripEfficiency: roundTripEfficiency must be in [0.05, 1];'))).toBe(true);
   });
 
   it('checks the window and the initial state once the fields are valid', () => {
@@ -106,9 +106,9 @@ describe('market spec', () => {
     const spec = market(`${head} "quantityStepMw": 0.1, "minimumQuantityMw": 0.1, "priceTickPerMwh": 0.01}`);
     expect([spec.quantityStepMw, spec.minimumQuantityMw, spec.priceTickPerMwh]).toEqual([0.1, 0.1, 0.01]);
     expect(problemsOf(() => market(`${head} "quantityStepMw": 0,\n "minimumQuantityMw": 5000,\n "priceTickPerMwh": -1}`))).toEqual([
-      "market.json:2: quantityStepMw: quantityStepMw must be > 0; give the exchange's quantity step in MW, e.g. 0.1, or leave the field out",
+      "market.json:2: quantityStepMw: quantityStepMw must be at least 0.001 MW; give the exchange's quantity step in MW, e.g. 0.1, or leave the field out",
       "market.json:3: minimumQuantityMw: minimumQuantityMw must be at most 1000 MW; check the unit; give the exchange's smallest order in MW, e.g. 0.1, or leave the field out",
-      "market.json:4: priceTickPerMwh: priceTickPerMwh must be > 0; give the exchange's price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out",
+      "market.json:4: priceTickPerMwh: priceTickPerMwh must be at least 0.0001; give the exchange's price tick in currency/MWh, e.g. 0.01, on which priceFloor and priceCap lie, or leave the field out",
     ]);
     expect(problemsOf(() => market(`${head} "quantityStepMw": "0.1"}`))[0]).toMatch(/^market.json:2: quantityStepMw: quantityStepMw must be a number;/);
     // Rounding a limit to the tick keeps it inside [floor, cap] only when both lie on the tick: -500 is

@@ -115,8 +115,8 @@ describe('quantbid forecast', () => {
   it.each([
     ['--to before --from', ['--from', '2031-03-10', '--to', '2031-03-09'], /--to: --to 2031-03-09 is before --from 2031-03-10/],
     ['an unknown method, with the list', ['--from', '2031-03-10', '--to', '2031-03-10', '--method', 'magic'], new RegExp(`"magic" must be one of ${FORECAST_METHODS.join(', ')}`)],
-    ['levels outside (0, 1)', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0:1:0.25'], /levels 0, 1 outside \(0, 1\)/],
-    ['a level of 1.2 in a list', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0.5,1.2'], /level 1.2 outside \(0, 1\)/],
+    ['levels outside [0.001, 0.999]', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0:1:0.25'], /levels 0, 1 outside \[0.001, 0.999\]/],
+    ['a level of 1.2 in a list', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0.5,1.2'], /level 1.2 outside \[0.001, 0.999\]/],
     ['levels not increasing', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0.5,0.1'], /do not increase strictly/],
     ['no day that can be forecast', ['--from', '2030-01-01', '--to', '2030-01-31'], /no day from 2030-01-01 to 2030-01-31 could be forecast/],
     ['--paths beyond the calibration days', ['--from', '2031-03-10', '--to', '2031-03-10', '--paths', '400'], /whole number of paths from 0 to 364/],

@@ -1,13 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { runMain } from './runMain.js';
+import { COMMANDS, runMain } from './runMain.js';
 import { packageVersion } from '../../src/app/packageInfo.js';
 
 // The help text of every command, compared with the stored snapshots in __snapshots__/: a change of
 // an option, a default or an example shows up in review. After an intended change, regenerate with
 //   npx vitest run test/cli/helpSnapshots.test.ts -u
 // and read the diff.
-
-export const COMMANDS = ['plan', 'backtest', 'sweep', 'size', 'forecast', 'score', 'demo'] as const;
 
 const run = (argv: readonly string[]) => runMain(argv);
 

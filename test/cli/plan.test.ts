@@ -76,7 +76,7 @@ describe('quantbid plan', () => {
   });
 
   it.each([
-    [['--alpha', '0.7'], /alpha 0.7 must be a number in \(0, 0.5\)/],
+    [['--alpha', '0.7'], /alpha 0.7 must be a number in \[0.001, 0.5\)/],
     [['--alpha', '0.02'], /--alpha: alpha 0.02 needs the levels 0.02 and 0.98, outside the forecast's levels \[0.05, 0.95\]/],
     [['--policy', 'greedy'], /"greedy" must be one of quantile, median, point, price-taking/],
     [['--day', '2027-13-01'], /is not a day; write it as YYYY-MM-DD/],
@@ -96,7 +96,7 @@ describe('quantbid plan', () => {
     const out = join(dir, 'bad-files');
     const result = await run(['plan', '--market', join(dir, 'market.json'), '--battery', bad, '--forecast', join(dir, 'quantiles.csv'), '--day', day, '--out', out]);
     expect(result.code).toBe(2);
-    expect(result.stderr).toContain(`${bad}:3: chargeMw: chargeMw must be > 0; give the charge power limit at the grid connection in MW, e.g. 5`);
+    expect(result.stderr).toContain(`${bad}:3: chargeMw: chargeMw must be in [0.001, 100000]; give the charge power limit at the grid connection in MW, e.g. 5`);
     expect(existsSync(out)).toBe(false);
     const missing = await run(['plan', '--market', join(dir, 'nope.json'), '--battery', bad, '--forecast', dir, '--day', day]);
     expect(missing.code).toBe(2);

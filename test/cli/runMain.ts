@@ -16,3 +16,6 @@ export async function runMain(argv: readonly string[], options: { readonly stder
   const code = await main(['node', 'quantbid', ...argv], io);
   return { code, stdout, stderr };
 }
+
+/** Every command of the CLI, in the order its help lists them. */
+export const COMMANDS = ['plan', 'backtest', 'sweep', 'size', 'forecast', 'score', 'demo'] as const;

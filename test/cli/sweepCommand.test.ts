@@ -127,6 +127,19 @@ describe('quantbid sweep on a small seeded market', () => {
     expect(existsSync(join(out, 'sweep.csv'))).toBe(false);
   });
 
+  it('stopped with SIGTERM (as a service manager stops it): exit code 143 and the same message on how to resume, the journal kept', async () => {
+    const out = join(scenario.dir, 'terminated');
+    const journal = join(out, '.sweep-journal.jsonl');
+    const stopped = await quantbidStoppedAfter(sweepArgs(out, ['--threads', '2']), journal, 1, 'SIGTERM');
+    expect(stopped.code).toBe(143);
+    const kept = journalKeys(journal);
+    expect(stopped.stderr).toContain('stopping: no new settings start, the running ones finish and are kept; send SIGTERM again to stop at once.\n');
+    expect(stopped.stderr).toContain(`stopped after ${kept.length} of ${SETTINGS} settings; the finished ones are kept in ${journal}.\nRun the same command again to resume (or add --restart to start over).\n`);
+    expect(existsSync(join(out, 'sweep.csv'))).toBe(false);
+    const resumed = quantbid(sweepArgs(out, ['--threads', '2']));
+    expect(resumed.stdout).toContain(`${SETTINGS} settings (${kept.length} resumed from the journal)`);
+  });
+
   it('reads the old names of the imbalance price (fallback_price, "fallback"): each note once for all threads, the same sweep.csv', () => {
     const market = JSON.parse(readFileSync(join(scenario.dir, 'market.json'), 'utf8'));
     const { imbalance, ...rest } = market;
@@ -162,11 +175,11 @@ describe('quantbid sweep on a small seeded market', () => {
 describe('quantbid sweep rejects bad input with exit code 2 and writes nothing', () => {
   it.each([
     [['--alphas', '0.3:0.1:0.1'], /--alphas: the start of "0.3:0.1:0.1" is above its end/],
-    [['--alphas', '0.1,0.6'], /--alphas: 0.6 is not an alpha in \(0, 0.5\)/],
+    [['--alphas', '0.1,0.6'], /--alphas: 0.6 is not an alpha in \[0.001, 0.5\)/],
     [['--alphas', '0.02,0.1'], /--alphas: alpha 0.02 needs the levels 0.02 and 0.98, outside the forecast's levels \[0.05, 0.95\]/],
     [['--policies', 'quantile,oracle'], /--policies: "oracle" is not one of quantile, median/],
     [['--unaccepted', 'ignore'], /--unaccepted: "ignore" is not one of follow-plan, follow-accepted/],
-    [['--threads', '0'], /"0" must be a whole number >= 1/],
+    [['--threads', '0'], /"0" must be a whole number in \[1, 1024\]/],
   ])('%j', (extra, message) => {
     const out = join(scenario.dir, `bad-${extra.join('').replace(/[^a-z0-9]/gi, '')}`);
     const run = quantbid(['sweep', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--out', out, ...extra]);

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { annualiseProfit, discountedPayback, simplePayback } from '../../src/economics/index.js';
 
+// The payback convention: flows at the end of each year, the crossing interpolated linearly within its
+// year (common practice in project appraisal).
 describe('simplePayback (end-of-year flows, linear within the year of the crossing)', () => {
   it('interpolates within the year: [-100, 30, 40, 50] pays back after 2 + 30/50 = 2.6 years (by hand)', () => {
     expect(simplePayback(Object.freeze([-100, 30, 40, 50]))).toEqual({ status: 'reached', years: 2.6 });

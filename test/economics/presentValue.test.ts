@@ -35,7 +35,7 @@ describe('npv (numpy-financial convention: CF_0 at t = 0, undiscounted)', () => 
 });
 
 describe('annuityFactor and capitalRecoveryFactor', () => {
-  it('give 7.721735 for 1 per year over 10 years at 5% (annuity tables; numpy 2.4.6 sum of 1.05^-t, numpyReferenceValues.py)', () => {
+  it('give 7.721735 for 1 per year over 10 years at 5% (the annuity formula (1 - 1.05^-10) / 0.05; numpy 2.4.6 sum of 1.05^-t, numpyReferenceValues.py)', () => {
     expect(annuityFactor(0.05, 10)).toBeCloseTo(7.721735, 6);
     expect(annuityFactor(0.05, 10)).toBeCloseTo((1 - 1.05 ** -10) / 0.05, 13);
     expect(capitalRecoveryFactor(0.05, 10)).toBeCloseTo(0.05 / (1 - 1.05 ** -10), 14);

@@ -27,8 +27,11 @@ describe('pinball loss', () => {
 });
 
 describe('CRPS', () => {
-  // Closed form for N(mu, sigma^2) (Gneiting, Raftery, Westveld and Goldman 2005); values as given in
-  // the task, the first also equal to (sqrt 2 - 1) / sqrt pi = 0.23369497...
+  // Closed form for N(mu, sigma^2): CRPS = sigma [z (2 Phi(z) - 1) + 2 phi(z) - 1 / sqrt(pi)], z = (y - mu) / sigma
+  // (Gneiting, Raftery, Westveld and Goldman 2005, Monthly Weather Review 133, 1098-1118, eq. 5), worked by
+  // hand with Phi(1) = 0.8413447, phi(1) = 0.2419707, Phi(2) = 0.9772499, phi(2) = 0.0539910 (Abramowitz
+  // and Stegun 1964, table 26.1): y = 0 gives 2 phi(0) - 1/sqrt(pi) = (sqrt 2 - 1) / sqrt pi = 0.2336950,
+  // y = 1 gives 0.6826895 + 0.4839414 - 0.5641896 = 0.6024413, y = 2 gives 1.9089996 + 0.1079820 - 0.5641896 = 1.4527920.
   it('closed form of N(0,1) at y = 0, 1, 2 gives 0.2336950, 0.6024414, 1.4527918', () => {
     expect(crpsNormal(0, 1, 0)).toBeCloseTo(0.233695, 6);
     expect(crpsNormal(0, 1, 0)).toBeCloseTo((Math.SQRT2 - 1) / Math.sqrt(Math.PI), 12);
@@ -41,7 +44,10 @@ describe('CRPS', () => {
   it('mean pinball over the 99 percentile levels of N(0,1) at y = 0 is 0.117956, about CRPS / 2', () => {
     const levels = Array.from({ length: 99 }, (_, i) => (i + 1) / 100);
     const quantiles = levels.map(normalQuantile);
+    // At y = 0 the pinball loss of the exact quantile q_tau is min(tau, 1 - tau) |q_tau|, so the mean is
+    // (1/99) sum_k min(tau_k, 1 - tau_k) |Phi^-1(tau_k)|; 0.117956 is that sum from R's qnorm (from memory).
     expect(crpsFromQuantiles(0, quantiles, levels)).toBeCloseTo(0.117956, 6);
+    expect(crpsFromQuantiles(0, quantiles, levels)).toBeCloseTo(levels.reduce((s, tau, k) => s + Math.min(tau, 1 - tau) * Math.abs(quantiles[k] as number), 0) / 99, 12);
     // 99 levels leave out the tails beyond 1% and 99%: within 0.01 of CRPS / 2 at y = 0, 1, 2
     for (const y of [0, 1, 2]) expect(Math.abs(crpsFromQuantiles(y, quantiles, levels) - crpsNormal(0, 1, y) / 2)).toBeLessThan(0.01);
   });

@@ -1,5 +1,6 @@
 import { appendFileSync, existsSync, readFileSync, utimesSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { GridOptions, GridOutcome } from '../../src/grid/index.js';
 import { EXAMPLE_TASK, importCompiledGrid, priceFolder, wholeLines, type GridModule } from './gridHarness.js';
@@ -146,16 +147,37 @@ describe('runGrid resume', () => {
     expect(csvOf(c.dir, 'run')).toBe(csvOf(c.dir, 'clean'));
   });
 
-  it('takes journalled rows as they are: a hand-written journal decides the rows it holds', async () => {
+  it('refuses a journal row it did not compute (no digest, an edited value, an injected text) as damaged, and leaves the journal', async () => {
     const c = exampleCase('by-hand');
     await complete(c.options('clean'));
-    const header = wholeLines(readFileSync((await interrupted(c.options('run'), 1)).journal, 'utf8'))[0] as string;
-    const marker = { spread: 1.5, profit: -2.25, trades: 7, note: 'by-hand', wide: false, missing: null };
-    writeFileSync(join(c.dir, 'run', JOURNAL), `${header}\n${JSON.stringify({ key: 'alpha=0.1|policy=median', row: marker })}\n`);
-    await complete(c.options('run'));
-    const expected = csvOf(c.dir, 'clean').replace(/^0\.1,median,.*$/m, '0.1,median,1.5,-2.25,7,by-hand,false,');
-    expect(expected).not.toBe(csvOf(c.dir, 'clean'));
-    expect(csvOf(c.dir, 'run')).toBe(expected);
+    const { journal } = await interrupted(c.options('run'), 2);
+    const [header, first] = wholeLines(readFileSync(journal, 'utf8')) as [string, string];
+    const entry = JSON.parse(first) as { key: string; row: Record<string, unknown>; digest: string };
+    const forged = [
+      JSON.stringify({ key: entry.key, row: entry.row }),
+      JSON.stringify({ ...entry, row: {} }),
+      JSON.stringify({ ...entry, row: { ...entry.row, spread: 999999999 } }),
+      JSON.stringify({ ...entry, row: { ...entry.row, note: '=cmd|x' } }),
+      JSON.stringify({ ...entry, row: { ...entry.row, note: '<script>' } }),
+      JSON.stringify({ ...entry, row: { ...entry.row, spread: 'many' } }),
+    ];
+    for (const line of forged) {
+      const text = `${header}\n${line}\n`;
+      writeFileSync(journal, text);
+      const err = await rejection(sweep.runGrid(c.options('run')));
+      expect(err.name, line).toBe('InputError');
+      expect(err.message, line).toMatch(new RegExp(`^${journal}:2: the journal is damaged: .*; add --restart to discard it and start over$`));
+      expect(readFileSync(journal, 'utf8')).toBe(text);
+      expect(existsSync(join(c.dir, 'run', 'sweep.csv'))).toBe(false);
+    }
+    // A row with the right digest but a text a spreadsheet reads as a formula still fails the row contract.
+    const options = c.options('run');
+    const fingerprint = sweep.gridFingerprint({ identity: options.identity, axes: options.axes, inputFiles: options.inputFiles ?? [], taskModuleUrl: pathToFileURL(EXAMPLE_TASK).href });
+    const injected = { ...entry.row, note: '=cmd|x' };
+    writeFileSync(journal, `${header}\n${JSON.stringify({ key: entry.key, row: injected, digest: sweep.journalDigest(fingerprint, entry.key, injected) })}\n`);
+    expect((await rejection(sweep.runGrid(options))).message).toMatch(new RegExp(`^${journal}:2: the journal is damaged: a row with column note = =cmd\\|x, which is not .*; add --restart`));
+    await complete(c.options('run', { restart: true }));
+    expect(csvOf(c.dir, 'run')).toBe(csvOf(c.dir, 'clean'));
   });
 
   it('ignores a torn last line and cuts it off before appending', async () => {

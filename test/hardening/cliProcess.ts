@@ -64,3 +64,42 @@ export function seededUniform(seed: number): () => number {
     return state / 2147483647;
   };
 }
+
+/**
+ * Node arguments that preload a module pausing `pauseMs` before and after every rename in the file
+ * system, saying `test-rename NAME` on stderr first: a run's output renames become windows long enough
+ * to kill it in, or to start a second run in. Timing only: the outputs are the plain CLI's.
+ */
+export function slowRenamePreload(pauseMs: number): string[] {
+  const source = [
+    `import fs from 'node:fs';`,
+    `import { basename } from 'node:path';`,
+    `import { syncBuiltinESMExports } from 'node:module';`,
+    `const rename = fs.renameSync;`,
+    `const pause = () => Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, ${pauseMs});`,
+    `fs.renameSync = (from, to) => { process.stderr.write('test-rename ' + basename(String(to)) + '\\n'); pause(); rename(from, to); pause(); };`,
+    `syncBuiltinESMExports();`,
+  ].join('\n');
+  return ['--import', `data:text/javascript,${encodeURIComponent(source)}`];
+}
+
+/**
+ * Node arguments that preload a module making the disk look full (ENOSPC, as write(2) reports it):
+ * after `journalAppends` whole appends to a grid's journal, or (`stagedWrites`) on every write into an
+ * output stage (`.quantbid-partial-*`). The rest of the file system works as usual.
+ */
+export function diskFullPreload(fault: { readonly journalAppends?: number; readonly stagedWrites?: boolean }): string[] {
+  const source = [
+    `import fs from 'node:fs';`,
+    `import { syncBuiltinESMExports } from 'node:module';`,
+    `const full = () => Object.assign(new Error('ENOSPC: no space left on device, write'), { code: 'ENOSPC', errno: -28, syscall: 'write' });`,
+    `const journals = new Set();`,
+    `let appends = 0;`,
+    `const open = fs.openSync, write = fs.writeSync, writeFile = fs.writeFileSync;`,
+    `fs.openSync = (path, ...rest) => { const fd = open(path, ...rest); if (/-journal\\.jsonl$/.test(String(path))) journals.add(fd); return fd; };`,
+    `fs.writeSync = (fd, ...rest) => { if (journals.has(fd) && ${fault.journalAppends ?? -1} >= 0 && appends++ >= ${fault.journalAppends ?? -1}) throw full(); return write(fd, ...rest); };`,
+    `fs.writeFileSync = (path, ...rest) => { if (${fault.stagedWrites === true} && String(path).includes('.quantbid-partial-')) throw full(); return writeFile(path, ...rest); };`,
+    `syncBuiltinESMExports();`,
+  ].join('\n');
+  return ['--import', `data:text/javascript,${encodeURIComponent(source)}`];
+}

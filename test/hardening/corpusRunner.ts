@@ -1,8 +1,11 @@
 import { createHash } from 'node:crypto';
-import { chmodSync, existsSync, lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, utimesSync, writeFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { chmodSync, existsSync, lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, readlinkSync, rmSync, symlinkSync, utimesSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { LOCK_NAME } from '../../src/io/outputLock.js';
+import { COMMIT_PREFIX } from '../../src/io/writeOutputs.js';
 
 /** The corpus folder, as the CLI is given it: relative to the working folder, like a user's path. */
 export const FIXTURES = relative(process.cwd(), fileURLToPath(new URL('../fixtures/malformed', import.meta.url))) || '.';
@@ -15,9 +18,18 @@ export const FIXTURES = relative(process.cwd(), fileURLToPath(new URL('../fixtur
  * - file: a plain file stands at the path;
  * - under-file: the path runs through a plain file (`file/plan`);
  * - read-only: a place no one may write to (see readOnlyPlace);
+ * - locked: a folder whose lock file names a process that runs (this test process's parent);
+ * - stale-lock: a folder whose lock file names a process that has ended;
+ * - leftover-set: a folder holding only the commit folder of a run that ended while installing the
+ *   three plan outputs (add --force with `args` to let the run replace them);
+ * - crafted-leftover: a folder with earlier outputs and a commit folder holding a folder orders.csv;
+ * - dangling-link: a symbolic link to a folder that does not exist;
+ * - link-loop: a symbolic link that points to itself;
  * - none: no --out at all.
  */
-export type OutMode = 'fresh' | 'existing' | 'existing-force' | 'file' | 'under-file' | 'read-only' | 'none';
+export type OutMode =
+  | 'fresh' | 'existing' | 'existing-force' | 'file' | 'under-file' | 'read-only'
+  | 'locked' | 'stale-lock' | 'leftover-set' | 'crafted-leftover' | 'dangling-link' | 'link-loop' | 'none';
 
 /** A stderr line pattern, or one repeated `repeat` times (a problem found on many rows). */
 export type StderrLine = string | { readonly repeat: number; readonly line: string };
@@ -54,10 +66,21 @@ export interface ReaderCase {
   readonly incompleteDays?: readonly string[];
 }
 
+/** An item of the hardening work that no single run of main() can show, with the test file that shows it. */
+export interface ElsewhereCase {
+  readonly name: string;
+  readonly what: string;
+  /** The test file, relative to the repository. */
+  readonly test: string;
+  /** A title of a test in that file (a part of it). */
+  readonly title: string;
+}
+
 export interface Manifest {
   readonly defaults: { readonly day: string; readonly inputs: Readonly<Record<string, string>> };
   readonly cases: readonly CorpusCase[];
   readonly historyCases: readonly ReaderCase[];
+  readonly elsewhere: readonly ElsewhereCase[];
 }
 
 export function loadManifest(): Manifest {
@@ -119,6 +142,32 @@ export function prepareOut(mode: OutMode, scratch: string): { out: string; how: 
       return { out: join(out, 'plan'), how: 'a path through a plain file' };
     case 'read-only':
       return readOnlyPlace(scratch);
+    case 'locked':
+    case 'stale-lock': {
+      mkdirSync(out);
+      const pid = mode === 'locked' ? process.ppid : endedProcessId();
+      writeFileSync(join(out, LOCK_NAME), `${JSON.stringify({ pid, command: 'sweep', started: '2027-06-15T10:00:00.000Z', token: 'corpus' })}\n`);
+      return { out, how: mode === 'locked' ? `a lock of process ${pid}, which runs` : `a lock of process ${pid}, which has ended` };
+    }
+    case 'leftover-set':
+    case 'crafted-leftover': {
+      mkdirSync(out);
+      const commit = join(out, `${COMMIT_PREFIX}${endedProcessId()}-corpus`);
+      mkdirSync(commit);
+      if (mode === 'leftover-set') for (const name of EARLIER_OUTPUTS) writeFileSync(join(commit, name), `leftover ${name}\n`);
+      else {
+        for (const name of EARLIER_OUTPUTS) writeFileSync(join(out, name), `earlier ${name}\n`);
+        mkdirSync(join(commit, 'orders.csv'));
+        writeFileSync(join(commit, 'plan.json'), 'crafted\n');
+      }
+      return { out, how: mode === 'leftover-set' ? 'a leftover commit folder of an ended run' : 'a crafted commit folder' };
+    }
+    case 'dangling-link':
+      symlinkSync(join(scratch, 'nowhere'), out);
+      return { out, how: 'a link to a folder that does not exist' };
+    case 'link-loop':
+      symlinkSync(out, out);
+      return { out, how: 'a link to itself' };
     default:
       return { out, how: 'a new folder' };
   }
@@ -137,14 +186,21 @@ export function readOnlyPlace(scratch: string): { out: string; how: string } {
   return { out: join(locked, 'out'), how: 'a folder with mode 555' };
 }
 
+/** The id of a process that has ended (a child run to its end). */
+export function endedProcessId(): number {
+  return spawnSync(process.execPath, ['-e', '0']).pid as number;
+}
+
 /** Every file and folder under `path` (or the path itself) with size, modification time and content hash. */
 export function snapshot(path: string): Record<string, string> {
   const result: Record<string, string> = {};
   const visit = (at: string) => {
-    if (!existsSync(at)) return;
+    if (!existsSync(at) && !isLink(at)) return;
     const stat = lstatSync(at);
     const key = relative(path, at) || '.';
-    if (stat.isDirectory()) {
+    if (stat.isSymbolicLink()) {
+      result[key] = `link ${readlinkSync(at)}`;
+    } else if (stat.isDirectory()) {
       result[key] = 'folder';
       for (const name of readdirSync(at).sort()) visit(join(at, name));
     } else {
@@ -153,6 +209,14 @@ export function snapshot(path: string): Record<string, string> {
   };
   visit(path);
   return result;
+}
+
+function isLink(path: string): boolean {
+  try {
+    return lstatSync(path).isSymbolicLink();
+  } catch {
+    return false;
+  }
 }
 
 /** A scratch folder for one case, removed (with any mode bits undone) by `done`. */

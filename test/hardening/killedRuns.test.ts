@@ -2,8 +2,9 @@ import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readdirSync, readFile
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { LOCK_NAME, LOCK_TEMP_PREFIX } from '../../src/io/outputLock.js';
 import { COMMIT_PREFIX, PARTIAL_PREFIX } from '../../src/io/writeOutputs.js';
-import { DEMO_SCENARIO, folderFiles, runCliProcess, seededUniform, startCli, type CliExit } from './cliProcess.js';
+import { DEMO_SCENARIO, folderFiles, runCliProcess, seededUniform, slowRenamePreload, startCli, type CliExit } from './cliProcess.js';
 import { stripYearWarning } from '../cli/yearWarning.js';
 
 /**
@@ -21,20 +22,12 @@ import { stripYearWarning } from '../cli/yearWarning.js';
  * seeded). The preload changes timing only; the reference runs are the plain CLI.
  *
  * Leftovers of a kill may only carry writeOutputs' hidden temporary names (`.quantbid-partial-*`,
- * `.quantbid-commit-*`, and for a sweep its journal and the journal's `.tmp-<pid>` name): the next run
- * into the folder removes or finishes them, which the test checks by running again.
+ * `.quantbid-commit-*`, the folder's lock `.quantbid-lock` and its `.tmp-` names, and for a sweep its
+ * journal and the journal's `.tmp-<pid>` name): the next run into the folder removes or finishes them
+ * (the lock of a dead process is stale), which the test checks by running again.
  */
 const RENAME_PAUSE_MS = 250;
-const SLOW_RENAMES = [
-  `import fs from 'node:fs';`,
-  `import { basename } from 'node:path';`,
-  `import { syncBuiltinESMExports } from 'node:module';`,
-  `const rename = fs.renameSync;`,
-  `const pause = () => Atomics.wait(new Int32Array(new SharedArrayBuffer(4)), 0, 0, ${RENAME_PAUSE_MS});`,
-  `fs.renameSync = (from, to) => { process.stderr.write('test-rename ' + basename(String(to)) + '\\n'); pause(); rename(from, to); pause(); };`,
-  `syncBuiltinESMExports();`,
-].join('\n');
-const PRELOAD = ['--import', `data:text/javascript,${encodeURIComponent(SLOW_RENAMES)}`];
+const PRELOAD = slowRenamePreload(RENAME_PAUSE_MS);
 
 const FROM = '2026-03-01';
 let scratch = '';
@@ -64,7 +57,7 @@ function checkLeft(out: string, before: Files, after: Files, journal: string | n
   const hidden = entries.filter((name) => name.startsWith('.'));
   expect(outputs).toEqual([...after.keys()]);
   const allowed = (name: string) =>
-    name.startsWith(PARTIAL_PREFIX) || name.startsWith(COMMIT_PREFIX) || (journal !== null && (name === journal || name.startsWith(`${journal}.tmp-`)));
+    name.startsWith(PARTIAL_PREFIX) || name.startsWith(COMMIT_PREFIX) || name === LOCK_NAME || name.startsWith(LOCK_TEMP_PREFIX) || (journal !== null && (name === journal || name.startsWith(`${journal}.tmp-`)));
   expect(hidden.filter((name) => !allowed(name))).toEqual([]);
   const now = new Map(outputs.map((name) => [name, readFileSync(join(out, name))]));
   for (const [name, bytes] of now) {

@@ -67,6 +67,7 @@ describe('the malformed-input manifest', () => {
   it('uses every fixture file, and names only files that exist (but the one meant to be missing)', () => {
     const used = new Set<string>([...Object.values(manifest.defaults.inputs), ...manifest.historyCases.map((c) => c.file)]);
     for (const c of manifest.cases) for (const file of Object.values(c.inputs ?? {})) if (file !== null) used.add(file);
+    for (const c of manifest.cases) for (const arg of c.argv ?? []) if (arg.startsWith('{F}/')) used.add(arg.slice('{F}/'.length));
     const present = listFiles(FIXTURES).filter((f) => f.includes('/'));
     expect(present.filter((f) => !used.has(f))).toEqual([]);
     expect([...used].filter((f) => statSync(join(FIXTURES, f), { throwIfNoEntry: false }) === undefined)).toEqual(['market/nowhere.json']);
@@ -99,6 +100,13 @@ describe('quantbid plan on malformed input', () => {
     } finally {
       scratch.done();
     }
+  });
+});
+
+describe('items shown by other tests (processes, signals, races, a full disk)', () => {
+  it.each(manifest.elsewhere.map((c) => [c.name, c] as const))('%s', (_name, c) => {
+    const text = readFileSync(join(FIXTURES, '../../..', c.test), 'utf8');
+    expect(text, `${c.test} holds a test titled "${c.title}"`).toContain(c.title);
   });
 });
 

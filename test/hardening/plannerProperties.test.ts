@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { BatteryModel, MarketSpec, QuantileDay } from '../../src/types.js';
-import { batteryModel, parseBatterySpec } from '../../src/battery/batterySpec.js';
+import { BATTERY_LIMITS, batteryModel, parseBatterySpec } from '../../src/battery/batterySpec.js';
 import { deliveryPeriods } from '../../src/market/calendar.js';
 import { planDay, type PlanResult } from '../../src/plan/planDay.js';
 import { seedOf } from './mutations.js';
@@ -25,7 +25,7 @@ const marketArbitrary: fc.Arbitrary<MarketSpec> = fc.record({
 /**
  * A battery spec as a user would write it, every field inside its documented range: energy from 1 kWh
  * to 10 GWh, charge and discharge power from 0.01 to 100 times the energy per hour (C-rates), as
- * powers of ten so that every scale is drawn as often.
+ * powers of ten so that every scale is drawn as often, kept inside the powers' range [0.001, 100000] MW.
  */
 const batterySpecArbitrary = fc
   .record({
@@ -50,8 +50,8 @@ const batterySpecArbitrary = fc
     return {
       ...rest,
       energyMwh,
-      chargeMw: energyMwh * 10 ** chargeRateExponent,
-      dischargeMw: energyMwh * 10 ** dischargeRateExponent,
+      chargeMw: inPowerRange(energyMwh * 10 ** chargeRateExponent),
+      dischargeMw: inPowerRange(energyMwh * 10 ** dischargeRateExponent),
       ...efficiency,
       socMinFraction,
       socMaxFraction: Math.min(1, socMaxFraction),
@@ -59,6 +59,12 @@ const batterySpecArbitrary = fc
       ...(finalFloor ? { socFinalMinFraction: within(d) } : {}),
     };
   });
+
+/** A power kept inside the battery spec's range of powers (BATTERY_LIMITS.powerMw). */
+function inPowerRange(mw: number): number {
+  const [lo, hi] = BATTERY_LIMITS.powerMw;
+  return Math.min(hi, Math.max(lo, mw));
+}
 
 /** A quantile day: per period a random centre and spread, quantiles sorted, all inside [floor, cap]. */
 function quantileDayArbitrary(market: MarketSpec): fc.Arbitrary<QuantileDay> {

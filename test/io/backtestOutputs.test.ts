@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { runBacktest } from '../../src/backtest/runBacktest.js';
-import { daysCsv, DAYS_COLUMNS, LEDGER_COLUMNS, ledgerCsv, ledgerRows } from '../../src/io/backtestOutputs.js';
+import { daysCsv, DAYS_COLUMNS, LEDGER_COLUMNS, ledgerCsv, ledgerRowBytes, ledgerRows } from '../../src/io/backtestOutputs.js';
 import { input } from '../backtest/handWorkedWeek.js';
 
 // Output files of the hand-worked week (test/backtest/handWorkedWeek.ts): 3 covered days of 4 periods.
@@ -38,6 +38,13 @@ describe('backtest output files', () => {
     expect(streamed).toBe(ledgerCsv(result));
     expect(lean.days.every((day) => day.runs.every((run) => run.ledger === null))).toBe(true);
     expect(daysCsv(lean)).toBe(daysCsv(result));
+  });
+
+  it('as bytes (what backtest writes), the ledger is the UTF-8 of the same text', () => {
+    const pieces: Buffer[] = [Buffer.from(`${LEDGER_COLUMNS.join(',')}\n`)];
+    // Each day's bytes are a view that the next day overwrites: copied as they come, as a file write does.
+    runBacktest(input, { policies: ['quantile', 'perfect-foresight'], keepLedger: false, onLedgerDay: (day) => void pieces.push(Buffer.from(ledgerRowBytes(day))) });
+    expect(Buffer.concat(pieces).toString('utf8')).toBe(ledgerCsv(result));
   });
 
   it('refuses to write a ledger for a backtest run without one', () => {

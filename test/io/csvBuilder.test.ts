@@ -59,6 +59,11 @@ describe('CsvBuilder', () => {
     expect(builder.take()).toBe('Halvørn ✓ 𝄞,1.5');
     builder.text('plain');
     expect(builder.take()).toBe('plain');
+    builder.text('Halvørn ✓');
+    builder.comma();
+    expect(Buffer.from(builder.takeBytes()).toString('utf8')).toBe('Halvørn ✓,');
+    builder.number(-2.25);
+    expect([...builder.takeBytes()]).toEqual([...Buffer.from('-2.25')]);
   });
 
   it('copies a stretch written before, and grows past its first buffer', () => {

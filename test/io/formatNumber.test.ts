@@ -7,7 +7,7 @@ const seeded = (seed: number, numRuns: number) => ({ seed, numRuns });
 
 describe('formatNumber: the same text as toFixed, trimmed (ECMA-262 Number.prototype.toFixed)', () => {
   it('edge cases: zeros, values that round to zero, ties, the exact route limit, 1e21 and beyond', () => {
-    for (const value of EDGE_VALUES) {
+    for (const value of EDGE_VALUES.filter(Number.isFinite)) {
       for (let digits = 0; digits <= 8; digits++) expect(formatNumber(value, digits), `${value} to ${digits}`).toBe(byToFixed(value, digits));
       expect(formatNumber(value), `${value}`).toBe(byToFixed(value, 6));
     }
@@ -15,9 +15,14 @@ describe('formatNumber: the same text as toFixed, trimmed (ECMA-262 Number.proto
 
   it('every double (random bits), 0 to 6 decimals', () => {
     fc.assert(
-      fc.property(anyBits, fc.integer({ min: 0, max: 6 }), (value, digits) => formatNumber(value, digits) === byToFixed(value, digits)),
+      fc.property(anyBits.filter(Number.isFinite), fc.integer({ min: 0, max: 6 }), (value, digits) => formatNumber(value, digits) === byToFixed(value, digits)),
       seeded(170001, 200_000),
     );
+  });
+
+  it('refuses NaN and the infinities: a non-finite value is a fault, never a printed "NaN" or "Infinity"', () => {
+    for (const value of [Number.NaN, Number.POSITIVE_INFINITY, Number.NEGATIVE_INFINITY]) expect(() => formatNumber(value), `${value}`).toThrow(RangeError);
+    expect(() => csvLine(['a', Number.NaN])).toThrow(RangeError);
   });
 
   it('ordinary magnitudes of output files (prices, energies, cash), 0 to 15 decimals', () => {

@@ -1,10 +1,10 @@
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { existsSync, linkSync, lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors/inputError.js';
-import { COMMIT_PREFIX, OutputStage, PARTIAL_PREFIX, recoverOutputs, writeOutputs } from '../../src/io/writeOutputs.js';
+import { checkOutputFolder, COMMIT_PREFIX, OutputStage, PARTIAL_PREFIX, recoverOutputs, writeOutputs } from '../../src/io/writeOutputs.js';
 
 /**
  * The output-set protocol of writeOutputs.ts on folders laid out as a killed run leaves them. The
@@ -29,7 +29,8 @@ function endedPid(): number {
 
 /** Every entry of a folder: a file's text, or `<folder>`. */
 function contents(dir: string): Record<string, string> {
-  return Object.fromEntries(readdirSync(dir).sort().map((name) => [name, statSync(join(dir, name)).isDirectory() ? '<folder>' : readFileSync(join(dir, name), 'utf8')]));
+  const entry = (path: string): string => (lstatSync(path).isSymbolicLink() ? '<link>' : statSync(path).isDirectory() ? '<folder>' : readFileSync(path, 'utf8'));
+  return Object.fromEntries(readdirSync(dir).sort().map((name) => [name, entry(join(dir, name))]));
 }
 
 describe('writeOutputs', () => {
@@ -88,6 +89,64 @@ describe('writeOutputs', () => {
     expect(() => writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }], true)).toThrow(/a\.csv: --out: is a folder where this output file should go/);
     expect(readdirSync(dir).sort()).toEqual(['a.csv', 'b.json']);
     expect(readFileSync(join(dir, 'b.json'), 'utf8')).toBe('old b');
+  });
+});
+
+describe('leftover sets and inputs', () => {
+  const commitOf = (dir: string, files: Record<string, string>): string => {
+    const committed = join(dir, `${COMMIT_PREFIX}${endedPid()}-left`);
+    mkdirSync(committed);
+    for (const [name, text] of Object.entries(files)) writeFileSync(join(committed, name), text);
+    return committed;
+  };
+
+  it('counts the files of a leftover set as existing outputs: without --force nothing moves', () => {
+    const dir = folder({ 'notes.txt': 'mine' });
+    const committed = commitOf(dir, { 'a.csv': 'left a' });
+    const before = contents(dir);
+    expect(() => writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }], false)).toThrow(/\.quantbid-commit-\d+-left: --out: holds outputs of an earlier run that stopped while moving them into place \(a\.csv\)/);
+    expect(contents(dir)).toEqual(before);
+    expect(contents(committed)).toEqual({ 'a.csv': 'left a' });
+    // With --force the leftover set is finished, then replaced.
+    writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }], true);
+    expect(contents(dir)).toEqual({ 'a.csv': 'new a', 'notes.txt': 'mine' });
+  });
+
+  it('a leftover set of other names is finished beside the new outputs', () => {
+    const dir = folder({});
+    commitOf(dir, { 'b.json': 'left b' });
+    writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }], false);
+    expect(contents(dir)).toEqual({ 'a.csv': 'new a', 'b.json': 'left b' });
+  });
+
+  it('refuses a commit folder quantbid cannot have left, before anything moves, even with --force', () => {
+    const crafted: [string, (dir: string) => void][] = [
+      ['a folder inside', (dir) => mkdirSync(join(commitOf(dir, { 'b.json': 'x' }), 'a.csv'))],
+      ['a link inside', (dir) => symlinkSync('/etc/hostname', join(commitOf(dir, {}), 'a.csv'))],
+      ['a hidden name', (dir) => commitOf(dir, { '.quantbid-lock': 'x' })],
+      ['over a folder', (dir) => { commitOf(dir, { 'sub': 'x' }); mkdirSync(join(dir, 'sub')); }],
+      ['a link as the commit folder', (dir) => symlinkSync(scratch, join(dir, `${COMMIT_PREFIX}${endedPid()}-link`))],
+    ];
+    for (const [what, make] of crafted) {
+      const dir = folder({ 'a.csv': 'old a' });
+      make(dir);
+      const before = contents(dir);
+      expect(() => writeOutputs(dir, [{ name: 'a.csv', text: 'new a' }], true), what).toThrow(/: --out: is not an output set quantbid left \(/);
+      expect(() => recoverOutputs(dir), what).toThrow(InputError);
+      expect(contents(dir), what).toEqual(before);
+    }
+  });
+
+  it('refuses an output that is one of the run\'s inputs: the same path, a link to it, a hard link of it', () => {
+    const dir = folder({ 'history.csv': 'prices', 'other.csv': 'x' });
+    const input = [{ path: join(dir, 'history.csv'), what: 'the history file' }];
+    expect(() => checkOutputFolder(dir, ['history.csv'], true, input)).toThrow(`${join(dir, 'history.csv')}: --out: would be written over the history file ${join(dir, 'history.csv')}, an input of this run`);
+    symlinkSync(join(dir, 'history.csv'), join(dir, 'linked.csv'));
+    linkSync(join(dir, 'history.csv'), join(dir, 'hard.csv'));
+    expect(() => checkOutputFolder(dir, ['linked.csv'], true, input)).toThrow(/would be written over the history file/);
+    expect(() => checkOutputFolder(dir, ['hard.csv'], true, input)).toThrow(/would be written over the history file/);
+    expect(() => checkOutputFolder(dir, ['other.csv', 'new.csv'], true, input)).not.toThrow();
+    expect(readFileSync(join(dir, 'history.csv'), 'utf8')).toBe('prices');
   });
 });
 

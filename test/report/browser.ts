@@ -23,12 +23,28 @@
  * test-artifacts/<name>/<chart id>.png (gitignored), to look at.
  */
 import { existsSync, mkdirSync, readFileSync } from 'node:fs';
-import { join, resolve } from 'node:path';
+import { delimiter, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { chromium } from 'playwright-core';
 import { expect } from 'vitest';
 
-export const CHROMIUM_PATH = '/usr/bin/chromium';
+/**
+ * The Chromium to run, looked up once: the first `chromium` or `chromium-browser` on PATH (CI finds
+ * Debian's there), else Debian's /usr/bin/chromium; null when there is none.
+ */
+function findChromium(): string | null {
+  const folders = (process.env.PATH ?? '').split(delimiter).filter((folder) => folder !== '');
+  for (const folder of [...folders, '/usr/bin']) {
+    for (const name of ['chromium', 'chromium-browser']) {
+      const path = join(folder, name);
+      if (existsSync(path)) return path;
+    }
+  }
+  return null;
+}
+
+const FOUND_CHROMIUM = findChromium();
+export const CHROMIUM_PATH = FOUND_CHROMIUM ?? 'chromium';
 
 /** Flags for a quiet, offline, sandbox-free headless run (containers have no user namespaces). */
 export const CHROMIUM_ARGS: readonly string[] = Object.freeze([
@@ -42,12 +58,12 @@ export const CHROMIUM_ARGS: readonly string[] = Object.freeze([
   '--disable-sync',
 ]);
 
-export const chromiumAvailable = existsSync(CHROMIUM_PATH);
+export const chromiumAvailable = FOUND_CHROMIUM !== null;
 
 /** Why browser tests are skipped, printed once per test file that imports this helper. */
-export const SKIP_REASON = `browser tests skipped: ${CHROMIUM_PATH} is absent (CI installs Debian's chromium through .ci/run; locally: apt-get install chromium)`;
+export const SKIP_REASON = "browser tests skipped: no chromium on PATH or in /usr/bin (CI installs Debian's chromium through .ci/run; locally: apt-get install chromium)";
 // Under CI (.ci/run installs chromium) a missing browser is a failure, never a silent skip.
-if (!chromiumAvailable && process.env.CI !== undefined && process.env.CI !== '') throw new Error(`${CHROMIUM_PATH} is absent under CI: .ci/run must install Debian's chromium before the tests`);
+if (!chromiumAvailable && process.env.CI !== undefined && process.env.CI !== '') throw new Error("no chromium on PATH under CI: .ci/run must install Debian's chromium before the tests");
 if (!chromiumAvailable) console.warn(SKIP_REASON);
 
 /** Suite name that says why it was skipped when Chromium is missing (vitest prints skipped names). */

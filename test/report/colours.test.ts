@@ -29,8 +29,12 @@ describe('WCAG 2.1 relative luminance and contrast', () => {
     expect(relativeLuminance('#ffffff')).toBe(1);
     expect(relativeLuminance('#000000')).toBe(0);
   });
-  it('#767676 on white is 4.54:1, the value usually quoted as the lightest grey passing AA', () => {
-    expect(contrastRatio('#767676', '#ffffff')).toBeCloseTo(4.54, 2);
+  it('#767676 on white is 4.54:1 by the WCAG 2.1 formulas (relative luminance, then (L1 + 0.05) / (L2 + 0.05))', () => {
+    // WCAG 2.1, definitions "relative luminance" and "contrast ratio": 0x76 / 255 = 0.462745, linearised
+    // ((0.462745 + 0.055) / 1.055)^2.4 = 0.181164 for each channel, so L = 0.181164 for a grey, and
+    // (1 + 0.05) / (0.181164 + 0.05) = 4.5422.
+    expect(relativeLuminance('#767676')).toBeCloseTo(0.181164, 6);
+    expect(contrastRatio('#767676', '#ffffff')).toBeCloseTo(4.5422, 4);
   });
   it('every grey that carries text is at least 4.5:1 on the paper (WCAG 2.1 SC 1.4.3, AA)', () => {
     for (const ink of [INK.text, INK.muted, INK.axis, INK.guide]) expect(contrastRatio(ink, INK.paper)).toBeGreaterThanOrEqual(4.5);

@@ -42,6 +42,20 @@ function input(draw: DayDraw, overrides: Partial<SettleDayInput> = {}): SettleDa
 const tol = (x: number) => 1e-9 * Math.max(1, Math.abs(x));
 
 describe('settleDay laws', () => {
+  it('without keepPeriods: the same totals and end state, no periods', () => {
+    fc.assert(
+      fc.property(dayArb, (draw) => {
+        const kept = settleDay(input(draw));
+        const bare = settleDay(input(draw, { keepPeriods: false }));
+        expect(bare.periods).toEqual([]);
+        expect(bare.totals).toEqual(kept.totals);
+        expect(bare.socEndMwh).toBe(kept.socEndMwh);
+        expect(kept.periods).toHaveLength(draw.periods.length);
+      }),
+      { seed: SEED, numRuns: 200 },
+    );
+  });
+
   it('energy balance: charged - discharged = bought - sold (auction + imbalance) in every period', () => {
     fc.assert(
       fc.property(dayArb, (draw) => {

@@ -100,7 +100,8 @@ const week: readonly HandDay[] = [
     },
   },
   {
-    // Day 6, a negative price: buy 5 @ 0 clears at -20 (accepted): the buyer is paid 20 x 5 = +100 (1 -> 5);
+    // Day 6, a negative price: buy 5 @ 0 clears at -20 (accepted): the buyer is paid 20 x 5 = +100 (1 -> 5;
+    // a negative clearing price pays the buyer: cash = -price x quantity, common practice in day-ahead auctions);
     // sell 3.2 @ 35 at 40: +128 - 6.4 (5 -> 1). Both rules alike.
     prices: [-20, 10, 30, 40],
     orders: [o('buy', 5, 0), null, null, o('sell', 3.2, 35)],
@@ -111,7 +112,8 @@ const week: readonly HandDay[] = [
     },
   },
   {
-    // Day 7, ties: buy 5 @ 30 clears at 30, sell 3.2 @ 55 clears at 55: both accepted (a tie is accepted).
+    // Day 7, ties: buy 5 @ 30 clears at 30, sell 3.2 @ 55 clears at 55: both accepted (an order whose limit
+    // equals the clearing price is accepted: common practice in day-ahead auctions).
     // -150 (1 -> 5), 3.2 x 55 = 176 - 6.4 (5 -> 1). Both rules alike.
     prices: [30, 30, 55, 50],
     orders: [null, o('buy', 5, 30), o('sell', 3.2, 55), null],

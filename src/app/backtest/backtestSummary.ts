@@ -84,7 +84,8 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
 function orderSteps(market: MarketSpec, metrics: BacktestMetrics, unrounded: BacktestMetrics | undefined) {
   const steps = exchangeSteps(market);
   if (steps === null || unrounded === undefined) return {};
-  const policies = Object.keys(metrics.policies);
+  // The policies of the unrounded run: those that plan schedules (auto, on scenarios, is left out there).
+  const policies = Object.keys(metrics.policies).filter((p) => p in unrounded.policies);
   const without = (p: string) => (unrounded.policies[p] as PolicyMetrics).profit;
   return {
     orderSteps: {

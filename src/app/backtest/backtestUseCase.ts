@@ -3,19 +3,23 @@ import { batteryModel } from '../../battery/batterySpec.js';
 import { backtestMetrics, type BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import { exchangeSteps, withoutExchangeSteps } from '../../plan/exchangeRounding.js';
 import type { UnacceptedRule } from '../../settle/settleDay.js';
-import { BACKTEST_POLICIES, DEFAULT_BACKTEST_POLICIES, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
+import { BACKTEST_POLICIES, DEFAULT_BACKTEST_POLICIES, usesScenarios, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
 import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay, type BacktestInput } from '../../backtest/runBacktest.js';
 import { daysBetween } from '../../market/calendar.js';
-import { LEDGER_COLUMNS, daysCsv, ledgerRows } from '../../io/backtestOutputs.js';
+import { LEDGER_COLUMNS, daysCsv, ledgerRowBytes } from '../../io/backtestOutputs.js';
 import { jsonText } from '../../io/planOutputs.js';
+import type { OutputLock } from '../../io/outputLock.js';
+import type { BacktestInputPaths } from '../../io/readBacktestInputs.js';
 import { checkOutputFolder, OutputStage } from '../../io/writeOutputs.js';
 import { backtestReport } from '../../report/backtestReport.js';
 import type { Done } from '../commandResult.js';
+import { runInputFiles } from '../inputFiles.js';
+import { lockedRun } from '../lockedRun.js';
 import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { requireCurvesOffered, requireScenarioSettings, scenarioPlanningOf, type ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
 import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
-import { readRunInputs, runInputPaths } from '../runInputs.js';
+import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { backtestSummary, backtestSummaryText } from './backtestSummary.js';
 
@@ -66,22 +70,29 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
   requireScenarioSettings(s.policies, s.scenarios, '--policies');
   const paths = runInputPaths(s.inputs, s.model);
   const outputs = s.report ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
-  checkOutputFolder(s.out, outputs, s.force);
+  checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
+  return lockedRun(s.out, 'backtest', (lock) => backtestRun(s, paths, outputs, lock as OutputLock, hooks, tools));
+}
+
+/** The backtest of the checked settings, from reading the inputs to the outputs, under the output folder's lock. */
+function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: BacktestInputPaths, outputs: readonly string[], lock: OutputLock, hooks: RunHooks, tools: ScenarioTools): Done<BacktestSummary> {
   // With --model the forecasts are made here, day by day from the history (through the forecast cache).
   const maker = forecastMaker(s.model, paths.history, s, hooks);
   const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
   requireCurvesOffered(s.policies, data.market, paths.market);
   const model = maker?.made();
+  // A span without a covered day is bad input, as for sweep and size: an all-zero table would look like a result.
+  requireCoveredDay(data, paths, s.from, s.to);
   const { market, history, forecast } = data;
   const battery = batteryModel(data.batterySpec);
   const progress = hooks.progress('backtest', daysBetween(s.from, s.to).length);
   const onDay = ({ done }: { done: number }): void => progress.update(done);
   // ledger.csv goes into the output stage day by day (writeOutputs.ts): ten years keep no ledger in memory.
-  const stage = OutputStage.begin(s.out, outputs, s.force, ['report.html']);
+  const stage = OutputStage.begin(s.out, outputs, s.force, ['report.html'], lock);
   try {
     const ledger = stage.open('ledger.csv');
     ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
-    const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRows(day));
+    const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRowBytes(day));
     const scenarioPlanning = s.scenarios === undefined ? null : scenarioPlanningOf(s.scenarios, { market, history, forecast, tools });
     const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay, scenarioPlanning });
     progress.finish();
@@ -111,11 +122,13 @@ function unroundedMetrics(
   data: Omit<BacktestInput, 'from' | 'to'>,
   hooks: RunHooks,
 ): BacktestMetrics | undefined {
-  if (exchangeSteps(data.market) === null) return undefined;
+  // Auto would choose among other candidates (curves too) on the unrounded market: only the schedule policies compare.
+  const policies = s.policies.filter((p) => !usesScenarios(p));
+  if (exchangeSteps(data.market) === null || policies.length === 0) return undefined;
   const progress = hooks.progress('backtest without rounding', daysBetween(s.from, s.to).length);
   const result = runBacktest(
     { ...data, market: withoutExchangeSteps(data.market), from: s.from, to: s.to },
-    { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, keepLedger: false, onDay: ({ done }) => progress.update(done) },
+    { alpha: s.alpha, unaccepted: s.unaccepted, policies, keepLedger: false, onDay: ({ done }) => progress.update(done) },
   );
   progress.finish();
   return backtestMetrics(result, data.battery);

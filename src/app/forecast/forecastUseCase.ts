@@ -1,25 +1,27 @@
 import { basename, dirname } from 'node:path';
 import { z } from 'zod';
 import { gatherProblems, InputError, type InputProblem } from '../../errors/inputError.js';
-import { DEFAULT_METHOD, DEFAULTS, FORECAST_METHODS } from '../../forecast/forecaster.js';
+import { DEFAULTS, FORECAST_METHODS } from '../../forecast/forecaster.js';
 import { forecastRange, type ForecastRangeResult } from '../../forecast/forecastRange.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import { jsonText } from '../../io/planOutputs.js';
 import { quantileForecastCsv, scenarioPathsCsv } from '../../io/quantileForecastCsv.js';
 import { readPriceHistory } from '../../io/readPriceHistory.js';
 import { readMarketSpec } from '../../io/readSpecs.js';
+import type { OutputLock } from '../../io/outputLock.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { daysBetween } from '../../market/calendar.js';
 import { DayCalendar } from '../../market/dayCalendar.js';
+import { FORECAST_DEFAULTS } from '../commandDefaults.js';
 import type { Done } from '../commandResult.js';
-import { inputFiles } from '../inputFiles.js';
+import { inputFiles, runInputFiles } from '../inputFiles.js';
+import { lockedRun } from '../lockedRun.js';
 import { defaultLevels } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { outFolderProblem } from '../settingRules.js';
 import { checkSpan, daySchema, inputSourcesSchema, levelsSchema, validSettings } from '../settingSchemas.js';
 
-/** Defaults of `quantbid forecast`: the method of docs/forecast-quality.md, 19 levels, no paths. */
-export const FORECAST_DEFAULTS = Object.freeze({ method: DEFAULT_METHOD, paths: 0 });
+export { FORECAST_DEFAULTS } from '../commandDefaults.js';
 
 /** The settings of `quantbid forecast`, checked once when it starts. */
 export const forecastSettingsSchema = z
@@ -64,7 +66,18 @@ export function forecastUseCase(settings: ForecastSettings, hooks: RunHooks = QU
   const target = outputTarget(s.out);
   const out = target.dir;
   const outputs = [target.quantiles, ...(s.scenarioPaths > 0 ? [target.paths] : []), target.summary];
-  checkOutputFolder(out, outputs, s.force);
+  checkOutputFolder(out, outputs, s.force, runInputFiles(s.inputs, paths));
+  return lockedRun(out, 'forecast', (lock) => forecastRun(s, paths, { out, outputs, target, lock: lock as OutputLock }, hooks));
+}
+
+/** The forecasts of the checked settings, from reading the inputs to the outputs, under the output folder's lock. */
+function forecastRun(
+  s: CheckedSettings,
+  paths: Record<(typeof INPUTS)[number], string>,
+  run: { readonly out: string; readonly outputs: readonly string[]; readonly target: ReturnType<typeof outputTarget>; readonly lock: OutputLock },
+  hooks: RunHooks,
+): Done<ForecastSummary> {
+  const { out, outputs, target } = run;
   const problems: InputProblem[] = [];
   const note = (text: string): void => hooks.note(text);
   const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
@@ -92,6 +105,8 @@ export function forecastUseCase(settings: ForecastSettings, hooks: RunHooks = QU
       { name: target.summary, text: jsonText(summary) },
     ],
     s.force,
+    [],
+    run.lock,
   );
   return { status: 'done', summary, text: forecastSummaryText(summary, out, elapsedSeconds) };
 }

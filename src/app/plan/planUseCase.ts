@@ -5,29 +5,27 @@ import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
 import { readQuantileForecast, type QuantileForecastFile } from '../../io/readQuantileForecast.js';
 import { readPriceHistory } from '../../io/readPriceHistory.js';
 import { readBatterySpec, readMarketSpec } from '../../io/readSpecs.js';
+import type { OutputLock } from '../../io/outputLock.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
-import { PLAN_POLICIES } from '../../plan/alpha.js';
 import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
+import { isSkippedDay } from '../../market/calendar.js';
 import { planDay, type PlanResult } from '../../plan/planDay.js';
 import { planReport } from '../../report/planReport.js';
-import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
-import type { UnacceptedRule } from '../../settle/unacceptedRule.js';
+import type { BatteryModel, MarketSpec, QuantileDay } from '../../types.js';
+import { PLAN_COMMAND_POLICIES, PLAN_DEFAULTS, type PlanCommandPolicy } from '../commandDefaults.js';
 import type { Done } from '../commandResult.js';
 import { forecastLevelProblems } from '../forecastLevels.js';
-import { inputFiles } from '../inputFiles.js';
+import { inputFiles, runInputFiles } from '../inputFiles.js';
+import { lockedRun } from '../lockedRun.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import type { ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
 import { scenarioSettingsSchema, type ScenarioSettings } from '../scenarios/scenarioSettings.js';
-import { alphaSchema, daySchema, inputSourcesSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { RUN_LIMITS } from '../settingRules.js';
+import { alphaSchema, boundedNumber, daySchema, inputSourcesSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { SCENARIO_PLAN_OUTPUTS, scenarioPlan, type ScenarioPlanSummary } from './scenarioPlan.js';
 import { planSummary, planSummaryText, planWarnings, planWorth, type PlanWorth } from './planSummary.js';
 
-/** The policies of `quantbid plan`: the schedule policies, and curve and auto on whole-day scenarios. */
-export const PLAN_COMMAND_POLICIES = Object.freeze([...PLAN_POLICIES, 'curve', 'auto'] as const);
-export type PlanCommandPolicy = PlanPolicy | 'curve' | 'auto';
-
-/** Defaults of `quantbid plan`: the quantile policy at alpha 0.1. */
-export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanCommandPolicy, unaccepted: 'follow-plan' as UnacceptedRule });
+export { PLAN_COMMAND_POLICIES, PLAN_DEFAULTS, type PlanCommandPolicy } from '../commandDefaults.js';
 
 /** The settings of `quantbid plan`, checked once when the plan starts. */
 export const planSettingsSchema = z.strictObject({
@@ -48,7 +46,7 @@ export const planSettingsSchema = z.strictObject({
    * battery's window it is accepted with a warning, and the plan first comes back into the window
    * (not with curve or auto, which start inside it).
    */
-  socStartMwh: z.number().finite().min(0).optional(),
+  socStartMwh: boundedNumber(RUN_LIMITS.socStartMwh).optional(),
   /** Folder for orders.csv, schedule.csv, plan.json (and report.html); none: nothing is written. */
   out: outFolderSchema.optional(),
   /** Overwrite existing outputs. */
@@ -87,9 +85,20 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
     throw new InputError([{ file: 'command line', field: '--report', message: 'report.html needs a folder to go to', fix: 'add --out DIR' }]);
   }
   const outputs = onScenarios ? [...SCENARIO_PLAN_OUTPUTS, ...(s.report ? ['report.html'] : [])] : s.report ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS;
-  if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force);
+  if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
+  return lockedRun(s.out, 'plan', (lock) => planDayRun(s, { paths, day, outputs, lock }, hooks, tools));
+}
+
+/** The plan of `day` from the checked settings, written under the output folder's lock (when there is a folder). */
+function planDayRun(
+  s: z.output<typeof planSettingsSchema>,
+  run: { readonly paths: Record<'market' | 'battery' | 'forecast', string> & { readonly history?: string }; readonly day: string; readonly outputs: readonly string[]; readonly lock: OutputLock | undefined },
+  hooks: RunHooks,
+  tools: PlanTools,
+): Done<PlanSummary> {
+  const { paths, day, outputs } = run;
   const { market, battery, forecastFile } = readPlanInputs(paths, (text) => hooks.note(text));
-  const forecast = forecastDay(forecastFile, day);
+  const forecast = forecastDay(forecastFile, day, market.timeZone);
   const socStartMwh = s.socStartMwh ?? battery.socInitialMwh;
   if (socStartMwh > battery.energyMwh) {
     throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is more than the battery's energy ${battery.energyMwh} MWh`, fix: 'give the energy in store now, at most energyMwh' }]);
@@ -102,7 +111,7 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
     if (tools.lpSolver === undefined) throw new Error(`planUseCase: the ${s.policy} policy needs tools.lpSolver (loadHighsSolver)`);
     const inputs: Record<string, string> = { ...paths };
     return scenarioPlan(
-      { day, policy: s.policy, scenarios: s.scenarios as ScenarioSettings, market, battery, forecastFile, forecast, socStartMwh, unaccepted: s.unaccepted, inputs, out: s.out, force: s.force, report: s.report, solver: tools.lpSolver },
+      { day, policy: s.policy, scenarios: s.scenarios as ScenarioSettings, market, battery, forecastFile, forecast, socStartMwh, unaccepted: s.unaccepted, inputs, out: s.out, force: s.force, report: s.report, solver: tools.lpSolver, lock: run.lock },
       hooks,
     );
   }
@@ -130,6 +139,7 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
       ],
       s.force,
       ['report.html'],
+      run.lock,
     );
   }
   // Repaired, not refused (docs/design.md section 6); a note, so that --json output stays clean.
@@ -161,9 +171,12 @@ function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>
   return { market, battery: batteryModel(spec), forecastFile };
 }
 
-function forecastDay(file: QuantileForecastFile, day: string): QuantileDay {
+function forecastDay(file: QuantileForecastFile, day: string, timeZone: string): QuantileDay {
   const found = file.days.get(day);
   if (found !== undefined) return found;
+  if (isSkippedDay(day, timeZone)) {
+    throw new InputError([{ file: 'command line', field: '--day', message: `${day} does not exist in ${timeZone}: the zone's clocks skipped the whole date`, fix: 'choose a delivery day the zone has, e.g. the day before or after' }]);
+  }
   const incomplete = file.incompleteDays.find((d) => d.day === day);
   const covered = [...file.days.keys()];
   throw new InputError([

@@ -10,6 +10,7 @@ import type { QuantileForecastFile } from '../../io/readQuantileForecast.js';
 import type { UnacceptedRule } from '../../settle/unacceptedRule.js';
 import { readScenarioPaths } from '../../io/readScenarioPaths.js';
 import { writeOutputs } from '../../io/writeOutputs.js';
+import type { OutputLock } from '../../io/outputLock.js';
 import { scenarioPlanReport } from '../../report/scenarioPlanReport.js';
 import type { Done } from '../commandResult.js';
 import type { RunHooks } from '../runHooks.js';
@@ -35,6 +36,8 @@ export interface ScenarioPlanRequest {
   readonly force: boolean;
   readonly report: boolean;
   readonly solver: SparseLpSolver;
+  /** The output folder's lock, held for the whole run (io/outputLock.ts). */
+  readonly lock: OutputLock | undefined;
 }
 
 export type ScenarioPlanSummary = ReturnType<typeof scenarioPlanSummary>;
@@ -87,6 +90,7 @@ export function scenarioPlan(request: ScenarioPlanRequest, hooks: RunHooks): Don
       ],
       request.force,
       ['report.html', 'schedule.csv'],
+      request.lock,
     );
   }
   const lines = [

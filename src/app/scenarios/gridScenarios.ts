@@ -32,12 +32,11 @@ export function gridScenarioInput(
 }
 
 /**
- * The scenario planning of a grid task's thread: HiGHS loaded here, once per thread, and only when a
- * policy of the grid plans on scenarios; null otherwise. `data` must hold the history before the span
+ * The scenario planning of a grid task's thread: HiGHS loaded here, once per thread; a task module
+ * imports this file only when a policy of its grid plans on scenarios. `data` must hold the history before the span
  * (the imbalance spread of each day is learnt from the 364 days before it).
  */
-export async function gridScenarioPlanning(input: GridScenarioInput | undefined, data: BacktestInputData): Promise<ScenarioPlanning | null> {
-  if (input === undefined) return null;
+export async function gridScenarioPlanning(input: GridScenarioInput, data: BacktestInputData): Promise<ScenarioPlanning> {
   const tools = { lpSolver: await loadHighsSolver() };
   return scenarioPlanningOf(input.settings, { market: data.market, history: data.history, forecast: data.forecast, tools, paths: input.paths });
 }

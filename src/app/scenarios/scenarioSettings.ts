@@ -1,16 +1,17 @@
 import { z } from 'zod';
 import { SCENARIO_DEFAULTS } from '../../backtest/scenarioPlanning.js';
 import { upperLevel } from '../../plan/alpha.js';
-import { pathSchema } from '../settingSchemas.js';
+import { RUN_LIMITS } from '../settingRules.js';
+import { boundedNumber, pathSchema } from '../settingSchemas.js';
 
 /** The settings of scenario planning shared by plan, backtest, sweep and size (policies curve and auto). */
 export const scenarioSettingsSchema = z.strictObject({
   /** Whole-day price paths per day, `period_start,path,price` (quantbid forecast --paths writes them). */
   paths: pathSchema,
   /** Paths planned on; the day's others are the fresh ones the candidates are scored on. Default 100. */
-  planningPaths: z.number().int().min(2, 'planningPaths must be at least 2').default(SCENARIO_DEFAULTS.planningPaths),
+  planningPaths: boundedNumber(RUN_LIMITS.planningPaths, true).default(SCENARIO_DEFAULTS.planningPaths),
   /** lambda of mean + lambda x CVaR 5 %, >= 0; default 0 (mean profit). */
-  riskWeight: z.number().finite().min(0, 'riskWeight must be >= 0').default(SCENARIO_DEFAULTS.riskWeight),
+  riskWeight: boundedNumber(RUN_LIMITS.riskWeight).default(SCENARIO_DEFAULTS.riskWeight),
 });
 
 export type ScenarioSettings = z.output<typeof scenarioSettingsSchema>;

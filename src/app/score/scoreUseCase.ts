@@ -6,11 +6,13 @@ import { jsonText } from '../../io/planOutputs.js';
 import { readPriceHistory } from '../../io/readPriceHistory.js';
 import { readQuantileForecast, type QuantileForecastFile } from '../../io/readQuantileForecast.js';
 import { readMarketSpec } from '../../io/readSpecs.js';
+import type { OutputLock } from '../../io/outputLock.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { scoreReport, type UnscoredDay } from '../../report/scoreReport.js';
 import type { PriceHistory } from '../../types.js';
 import type { Done } from '../commandResult.js';
-import { inputFiles } from '../inputFiles.js';
+import { inputFiles, runInputFiles } from '../inputFiles.js';
+import { lockedRun } from '../lockedRun.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { checkSpan, daySchema, inputSourcesSchema, outFolderSchema, pathSchema, validSettings } from '../settingSchemas.js';
 import { scoreSummary, scoreSummaryText } from './scoreSummary.js';
@@ -49,7 +51,12 @@ export function scoreUseCase(settings: ScoreSettings, hooks: RunHooks = QUIET_HO
   const s = validSettings(scoreSettingsSchema, settings, 'score');
   const { paths } = inputFiles(s.inputs, INPUTS);
   const outputs = s.report ? ['score.json', 'report.html'] : ['score.json'];
-  checkOutputFolder(s.out, outputs, s.force);
+  checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths, { 'the --against forecast': s.against }));
+  return lockedRun(s.out, 'score', (lock) => scoreRun(s, paths, outputs, lock as OutputLock, hooks));
+}
+
+/** The scores of the checked settings, from reading the inputs to score.json, under the output folder's lock. */
+function scoreRun(s: z.output<typeof scoreSettingsSchema>, paths: Record<(typeof INPUTS)[number], string>, outputs: readonly string[], lock: OutputLock, hooks: RunHooks): Done<ScoreSummary> {
   const problems: InputProblem[] = [];
   const note = (text: string): void => hooks.note(text);
   const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
@@ -73,7 +80,7 @@ export function scoreUseCase(settings: ScoreSettings, hooks: RunHooks = QUIET_HO
   };
   const summary = scoreSummary(scored);
   const report = s.report ? [{ name: 'report.html', text: scoreReport({ ...scored, timeZone: market.timeZone, periodMinutes: market.periodMinutes }) }] : [];
-  writeOutputs(s.out, [{ name: 'score.json', text: jsonText(summary) }, ...report], s.force, ['report.html']);
+  writeOutputs(s.out, [{ name: 'score.json', text: jsonText(summary) }, ...report], s.force, ['report.html'], lock);
   // Crossing quantiles are repaired by the reader, not refused (docs/design.md section 6): a note.
   for (const file of [forecast, ...(against === null ? [] : [against])]) {
     if (file.repairedPeriods > 0) {

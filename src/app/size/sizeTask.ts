@@ -6,19 +6,20 @@
  * the project economics (sizing/sizeSettingRow.ts). With curve or auto on the policy axis, each thread
  * loads HiGHS once (app/scenarios/gridScenarios.ts).
  */
-import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type GivenForecast } from '../../io/readBacktestInputs.js';
+import type { BacktestInputPaths, GivenForecast } from '../../io/readBacktestInputs.js';
+import { sharedInputData, type SharedInputs } from '../../io/sharedInputs.js';
 import type { UnacceptedRule } from '../../settle/settleDay.js';
 import { RunMemo, type PolicyRun } from '../../backtest/policyRun.js';
 import type { AlphaMode } from '../../sizing/alphaChoice.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
 import { sizeSettingRow, type SizeGridSetting, type SizeRow, type SizeStudy } from '../../sizing/sizeSettingRow.js';
-import { gridScenarioPlanning, type GridScenarioInput } from '../scenarios/gridScenarios.js';
+import type { GridScenarioInput } from '../scenarios/gridScenarios.js';
 
-/** The sizing's contextInput: plain data, copied into every worker. */
+/** The sizing's contextInput: plain data, copied into every worker (the inputs' prices shared, not copied). */
 export interface SizeTaskInput {
   readonly paths: BacktestInputPaths;
-  /** The inputs already read and checked by the parent, cut to from..to (inputDataSpan.ts); when given, no file is read. */
-  readonly data?: BacktestInputData;
+  /** The inputs already read and checked by the parent, cut to from..to (inputDataSpan.ts), shared with the workers; when given, no file is read. */
+  readonly shared?: SharedInputs;
   /** The forecasts of --model, made once in the parent (CSV text: cheap to copy, parsed once per worker); else paths.forecast is read. */
   readonly forecast?: GivenForecast;
   readonly from: string;
@@ -40,7 +41,8 @@ export interface SizeTaskContext {
 }
 
 export async function loadContext(task: SizeTaskInput): Promise<SizeTaskContext> {
-  const data = task.data ?? readBacktestInputsOnce(task.paths, task.forecast);
+  // The readers (and their schemas) load only where the inputs were not handed over.
+  const data = task.shared !== undefined ? sharedInputData(task.shared) : (await import('../../io/readBacktestInputs.js')).readBacktestInputsOnce(task.paths, task.forecast);
   const study: SizeStudy = {
     market: data.market,
     batterySpec: data.batterySpec,
@@ -51,7 +53,7 @@ export async function loadContext(task: SizeTaskInput): Promise<SizeTaskContext>
     alpha: task.alpha,
     unaccepted: task.unaccepted,
     costs: task.costs,
-    scenarioPlanning: await gridScenarioPlanning(task.scenarios, data),
+    scenarioPlanning: task.scenarios === undefined ? null : await (await import('../scenarios/gridScenarios.js')).gridScenarioPlanning(task.scenarios, data),
   };
   return { study, efficiencyGiven: task.efficiencyGiven, memo: new RunMemo() };
 }

@@ -7,34 +7,37 @@ import type { SizeResult } from '../../sizing/bestSizes.js';
 import { specRoundTripEfficiency } from '../../sizing/scaledBattery.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
 import { SIZE_POLICIES, type SizePolicy } from '../../sizing/sizeSettingRow.js';
+import { SIZE_DEFAULTS } from '../commandDefaults.js';
 import type { Done, Interrupted } from '../commandResult.js';
-import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { lockedGridRun, runGridCommand } from '../gridRun.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
+import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { alphaSchema, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { BATTERY_LIMITS } from '../../battery/batterySpec.js';
+import { RUN_LIMITS } from '../settingRules.js';
+import { alphaSchema, boundedNumber, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { gridScenarioInput } from '../scenarios/gridScenarios.js';
 import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { sizeSummary, sizeSummaryText } from './sizeSummary.js';
 import type { SizeTaskInput } from './sizeTask.js';
 
-/** Defaults: the quantile policy at alpha 0.1, the grid of `--alpha best`, follow-plan, no fixed O&M. */
-export const SIZE_DEFAULTS = Object.freeze({
-  policies: 'quantile',
-  alpha: 0.1,
-  alphas: '0.05:0.45:0.05',
-  unaccepted: 'follow-plan' as const,
-  fixedOmPerMwYear: 0,
-});
+export { SIZE_DEFAULTS } from '../commandDefaults.js';
+
+/** Whether a number lies in [lo, hi]. */
+const within =
+  ([lo, hi]: readonly [number, number]) =>
+  (x: number): boolean =>
+    x >= lo && x <= hi;
 
 /** The size axes and the alphas of `--alpha best` from their text, every problem listed together; an axis whose text is undefined is left out. */
 export function sizeAxesFromText(text: { readonly energyMwh?: string; readonly powerMw?: string; readonly efficiency?: string; readonly alphas?: string; readonly policies: string; readonly policiesOption?: string }) {
   const numbers = (name: string, option: string, spec: string | undefined, accept: (x: number) => boolean, expected: string) =>
     spec === undefined ? [] : [() => parseNumberAxis(name, option, spec, { accept, expected })];
   const axes = parseAxes([
-    ...numbers('energy_mwh', '--energy-mwh', text.energyMwh, (x) => x > 0, 'a number > 0'),
-    ...numbers('power_mw', '--power-mw', text.powerMw, (x) => x > 0, 'a number > 0'),
-    ...numbers('round_trip_efficiency', '--efficiency', text.efficiency, (x) => x > 0 && x <= 1, 'an efficiency in (0, 1]'),
+    ...numbers('energy_mwh', '--energy-mwh', text.energyMwh, within(BATTERY_LIMITS.energyMwh), `an energy in [${BATTERY_LIMITS.energyMwh.join(', ')}] MWh`),
+    ...numbers('power_mw', '--power-mw', text.powerMw, within(BATTERY_LIMITS.powerMw), `a power in [${BATTERY_LIMITS.powerMw.join(', ')}] MW`),
+    ...numbers('round_trip_efficiency', '--efficiency', text.efficiency, within(BATTERY_LIMITS.efficiency), `an efficiency in [${BATTERY_LIMITS.efficiency.join(', ')}]`),
     ...numbers('alpha', '--alphas', text.alphas, isAlpha, `an alpha in ${ALPHA_RANGE}`),
     () => parseWordAxis('policy', text.policiesOption ?? '--policies', text.policies, SIZE_POLICIES),
   ]);
@@ -69,12 +72,12 @@ export function alphaBestSpanProblem(from: string, to: string): string | null {
 
 /** Costs and finance of the project, the same for every size (sizing/sizeEconomics.ts). */
 export const sizeCostsSchema = z.strictObject({
-  capexPerMwh: z.number().finite().min(0),
-  capexPerMw: z.number().finite().min(0),
-  fixedOmPerMwYear: z.number().finite().min(0).default(SIZE_DEFAULTS.fixedOmPerMwYear),
-  lifeYears: z.number().int().min(1),
-  lifeCycles: z.number().finite().gt(0).nullable().default(null),
-  discountRate: z.number().finite().gt(-1),
+  capexPerMwh: boundedNumber(RUN_LIMITS.capexPerMwh),
+  capexPerMw: boundedNumber(RUN_LIMITS.capexPerMw),
+  fixedOmPerMwYear: boundedNumber(RUN_LIMITS.fixedOmPerMwYear).default(SIZE_DEFAULTS.fixedOmPerMwYear),
+  lifeYears: boundedNumber(RUN_LIMITS.lifeYears, true),
+  lifeCycles: boundedNumber(RUN_LIMITS.lifeCycles).nullable().default(null),
+  discountRate: boundedNumber(RUN_LIMITS.discountRate),
 });
 
 /** The settings of `quantbid size`, checked once when the sizing starts; worker threads get them typed. */
@@ -84,12 +87,12 @@ export const sizeSettingsSchema = z
     /** First and last delivery day, YYYY-MM-DD, both included. */
     from: daySchema,
     to: daySchema,
-    /** The energy axis [MWh], each > 0. */
-    energiesMwh: eachOnce(z.number().finite().gt(0)),
-    /** The power axis [MW], charge = discharge, each > 0. */
-    powersMw: eachOnce(z.number().finite().gt(0)),
-    /** Round-trip efficiencies in (0, 1]; default the battery spec's. */
-    efficiencies: eachOnce(z.number().gt(0).lte(1)).optional(),
+    /** The energy axis [MWh], each in BATTERY_LIMITS.energyMwh. */
+    energiesMwh: eachOnce(boundedNumber(BATTERY_LIMITS.energyMwh)),
+    /** The power axis [MW], charge = discharge, each in BATTERY_LIMITS.powerMw. */
+    powersMw: eachOnce(boundedNumber(BATTERY_LIMITS.powerMw)),
+    /** Round-trip efficiencies in BATTERY_LIMITS.efficiency; default the battery spec's. */
+    efficiencies: eachOnce(boundedNumber(BATTERY_LIMITS.efficiency)).optional(),
     /** Policies scored; price-taking and perfect-foresight rows are always added (the baselines every size is read against). */
     policies: eachOnce(z.enum(SIZE_POLICIES)),
     /** Alpha of the quantile and median policies, or `best`: chosen per size on the first half of the days. */
@@ -124,39 +127,42 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
   const costs: SizeCosts = s.costs;
   const alpha: AlphaMode = s.alpha === 'best' ? { method: 'best', alphas: s.alphas ?? defaultBestAlphas() } : { method: 'fixed', alpha: s.alpha };
   const alphas = alpha.method === 'fixed' ? [alpha.alpha] : alpha.alphas;
-  const { paths, data, model } = readGridInputs(s, 'size.csv', { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policies' }, hooks);
-  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  const axes = [
-    { name: 'energy_mwh', option: '--energy-mwh', values: s.energiesMwh },
-    { name: 'power_mw', option: '--power-mw', values: s.powersMw },
-    { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
-    { name: 'policy', option: '--policies', values: sizePolicyAxis(s.policies) },
-  ] as const;
-  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
-  // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
-  // spread is learnt from the history before each day): none reads or parses a file again.
-  const contextInput: SizeTaskInput = {
-    paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined,
-    data: scenarios === undefined ? inputDataSpan(data, from, to) : data,
-    ...(scenarios === undefined ? {} : { scenarios }),
-  };
-  const outcome = await runGridCommand(
-    {
-      command: 'size',
-      run: s,
-      axes,
-      taskModule: new URL('./sizeTask.js', import.meta.url),
-      contextInput,
-      identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
-      paths,
-      moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
-      model,
-      summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
-      report: (results, summary) => sizeReport({ results, summary }),
-      summaryText: sizeSummaryText,
-    },
-    hooks,
-  );
+  const use = { policies: s.policies, alphas, alphaOption: alpha.method === 'fixed' ? '--alpha' : '--alphas', policyOption: '--policies' };
+  const outcome = await lockedGridRun(s, 'size', use, hooks, ({ paths, data, model }, lock) => {
+    const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+    const axes = [
+      { name: 'energy_mwh', option: '--energy-mwh', values: s.energiesMwh },
+      { name: 'power_mw', option: '--power-mw', values: s.powersMw },
+      { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
+      { name: 'policy', option: '--policies', values: sizePolicyAxis(s.policies) },
+    ] as const;
+    const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
+    // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
+    // spread is learnt from the history before each day) and shared: none reads or parses a file again.
+    const contextInput: SizeTaskInput = {
+      paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined,
+      shared: shareInputs(scenarios === undefined ? inputDataSpan(data, from, to) : data),
+      ...(scenarios === undefined ? {} : { scenarios }),
+    };
+    return runGridCommand(
+      {
+        command: 'size',
+        run: s,
+        lock,
+        axes,
+        taskModule: new URL('./sizeTask.js', import.meta.url),
+        contextInput,
+        identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
+        paths,
+        moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
+        model,
+        summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
+        report: (results, summary) => sizeReport({ results, summary }),
+        summaryText: sizeSummaryText,
+      },
+      hooks,
+    );
+  });
   if (outcome.status === 'done' && outcome.summary.yearlyFigures.warning !== null) hooks.note(`warning: ${outcome.summary.yearlyFigures.warning}\n`);
   return outcome;
 }

@@ -5,19 +5,20 @@
  * checked when the sweep's settings were, and returns its row (backtest/sweepSettingRow.ts). With curve
  * or auto on the policy axis, each thread loads HiGHS once (app/scenarios/gridScenarios.ts).
  */
-import { batteryModel } from '../../battery/batterySpec.js';
+import { batteryModel } from '../../battery/batteryModel.js';
 import { RunMemo, type PolicyRun } from '../../backtest/policyRun.js';
 import type { BacktestInput } from '../../backtest/runBacktest.js';
 import type { ScenarioPlanning } from '../../backtest/scenarioPlanning.js';
 import { sweepSettingRow, type SweepRow, type SweepSetting } from '../../backtest/sweepSettingRow.js';
-import { readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths, type GivenForecast } from '../../io/readBacktestInputs.js';
-import { gridScenarioPlanning, type GridScenarioInput } from '../scenarios/gridScenarios.js';
+import type { BacktestInputPaths, GivenForecast } from '../../io/readBacktestInputs.js';
+import { sharedInputData, type SharedInputs } from '../../io/sharedInputs.js';
+import type { GridScenarioInput } from '../scenarios/gridScenarios.js';
 
-/** The sweep's contextInput: plain data, copied into every worker. */
+/** The sweep's contextInput: plain data, copied into every worker (the inputs' prices shared, not copied). */
 export interface SweepTaskInput {
   readonly paths: BacktestInputPaths;
-  /** The inputs already read and checked by the parent, cut to from..to (inputDataSpan.ts); when given, no file is read. */
-  readonly data?: BacktestInputData;
+  /** The inputs already read and checked by the parent, cut to from..to (inputDataSpan.ts), shared with the workers; when given, no file is read. */
+  readonly shared?: SharedInputs;
   /** The forecasts of --model, made once in the parent (CSV text: cheap to copy, parsed once per worker); else paths.forecast is read. */
   readonly forecast?: GivenForecast;
   /** First and last delivery day, YYYY-MM-DD, both included. */
@@ -35,9 +36,10 @@ export interface SweepTaskContext {
 }
 
 export async function loadContext(task: SweepTaskInput): Promise<SweepTaskContext> {
-  const data = task.data ?? readBacktestInputsOnce(task.paths, task.forecast);
+  // The readers (and their schemas) load only where the inputs were not handed over.
+  const data = task.shared !== undefined ? sharedInputData(task.shared) : (await import('../../io/readBacktestInputs.js')).readBacktestInputsOnce(task.paths, task.forecast);
   const input: BacktestInput = { market: data.market, battery: batteryModel(data.batterySpec), history: data.history, forecast: data.forecast, from: task.from, to: task.to };
-  return { input, memo: new RunMemo(), scenarioPlanning: await gridScenarioPlanning(task.scenarios, data) };
+  return { input, memo: new RunMemo(), scenarioPlanning: task.scenarios === undefined ? null : await (await import('../scenarios/gridScenarios.js')).gridScenarioPlanning(task.scenarios, data) };
 }
 
 export function run(setting: SweepSetting, context: SweepTaskContext): SweepRow {

@@ -4,7 +4,8 @@ import { SWEEP_POLICIES, sweepReferenceRows, type SweepReferenceRow, type SweepR
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
-import { readGridInputs, runGridCommand } from '../gridRun.js';
+import { lockedGridRun, runGridCommand } from '../gridRun.js';
+import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
@@ -15,8 +16,7 @@ import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
 import type { SweepTaskInput } from './sweepTask.js';
 
-/** Defaults of the axes as written in the help: alphas the demo forecast's levels (0.05 to 0.95) allow, both alpha policies, follow-plan. */
-export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: 'quantile,median', unaccepted: 'follow-plan' });
+export { SWEEP_DEFAULTS } from '../commandDefaults.js';
 
 /** The axes of a sweep from their text (`--alphas 0.05:0.45:0.05`, `--policies quantile,median`, ...), every problem listed together. */
 export function sweepAxesFromText(text: { readonly alphas: string; readonly policies: string; readonly unaccepted: string }) {
@@ -63,33 +63,36 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
     { name: 'policy', option: '--policies', values: s.policies },
     { name: 'unaccepted', option: '--unaccepted', values: s.unaccepted },
   ] as const;
-  const { paths, data, model } = readGridInputs(s, 'sweep.csv', { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' }, hooks);
-  const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-  const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
-  // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
-  // spread is learnt from the history before each day): none reads or parses a file again.
-  const span = inputDataSpan(data, from, to);
-  const contextInput: SweepTaskInput = { paths, from, to, data: scenarios === undefined ? span : data, ...(scenarios === undefined ? {} : { scenarios }) };
-  // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
-  let references: SweepReferenceRow[] | undefined;
-  const referenceRows = (): SweepReferenceRow[] =>
-    (references ??= sweepReferenceRows({ market: span.market, battery: batteryModel(span.batterySpec), history: span.history, forecast: span.forecast, from, to }, s.unaccepted));
-  return runGridCommand(
-    {
-      command: 'sweep',
-      run: s,
-      axes,
-      taskModule: new URL('./sweepTask.js', import.meta.url),
-      contextInput,
-      identity: { from, to, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
-      paths,
-      moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
-      model,
-      summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext }),
-      moreRows: () => referenceRows(),
-      report: (results, summary) => sweepReport({ results, summary }),
-      summaryText: sweepSummaryText,
-    },
-    hooks,
-  );
+  const use = { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' };
+  return lockedGridRun(s, 'sweep', use, hooks, ({ paths, data, model }, lock) => {
+    const modelContext = model === undefined ? {} : { forecastModel: model.summary };
+    const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
+    // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
+    // spread is learnt from the history before each day) and shared: none reads or parses a file again.
+    const span = inputDataSpan(data, from, to);
+    const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(scenarios === undefined ? span : data), ...(scenarios === undefined ? {} : { scenarios }) };
+    // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
+    let references: SweepReferenceRow[] | undefined;
+    const referenceRows = (): SweepReferenceRow[] =>
+      (references ??= sweepReferenceRows({ market: span.market, battery: batteryModel(span.batterySpec), history: span.history, forecast: span.forecast, from, to }, s.unaccepted));
+    return runGridCommand(
+      {
+        command: 'sweep',
+        run: s,
+        lock,
+        axes,
+        taskModule: new URL('./sweepTask.js', import.meta.url),
+        contextInput,
+        identity: { from, to, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
+        paths,
+        moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
+        model,
+        summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext }),
+        moreRows: () => referenceRows(),
+        report: (results, summary) => sweepReport({ results, summary }),
+        summaryText: sweepSummaryText,
+      },
+      hooks,
+    );
+  });
 }

@@ -1,5 +1,5 @@
 import type { LinearModel } from './linearModel.js';
-import { fromStandardised } from './linearModel.js';
+import { fromStandardised, predictStandardised } from './linearModel.js';
 import type { StandardisedGram } from './standardisedGram.js';
 
 /**
@@ -22,43 +22,76 @@ import type { StandardisedGram } from './standardisedGram.js';
  * @param dropTolerance smallest accepted pivot 1 - R_j^2 [-], default 1e-10
  */
 export function choleskyLeastSquares(gram: StandardisedGram, dropTolerance = 1e-10): LinearModel {
+  return fromStandardised(gram, choleskyCoefficients(gram, dropTolerance));
+}
+
+/**
+ * predictLinear(choleskyLeastSquares(gram, dropTolerance), row), the same number, without making the
+ * model: the many per-slot fits of a forecast each predict once and keep nothing.
+ */
+export function choleskyPrediction(gram: StandardisedGram, row: ArrayLike<number>, dropTolerance = 1e-10): number {
+  return predictStandardised(gram, choleskyCoefficients(gram, dropTolerance), row, scratch.coefficients);
+}
+
+/**
+ * The coefficients beta of the standardised columns (0 for a column left out), in scratch space that
+ * the next call overwrites.
+ */
+function choleskyCoefficients(gram: StandardisedGram, dropTolerance: number): Float64Array {
   const { k, gram: g, zty, scales } = gram;
-  const l = new Float64Array(k * k);
-  const kept: number[] = [];
+  const { l, w, beta, kept } = scratchFor(k);
+  beta.fill(0, 0, k);
+  let keptCount = 0;
   for (let j = 0; j < k; j++) {
     if ((scales[j] as number) === 0) continue;
     let d = g[j * k + j] as number;
-    for (const p of kept) d -= (l[j * k + p] as number) ** 2;
+    for (let q = 0; q < keptCount; q++) d -= (l[j * k + (kept[q] as number)] as number) ** 2;
     if (d <= dropTolerance) continue;
     const ljj = Math.sqrt(d);
     l[j * k + j] = ljj;
     for (let i = j + 1; i < k; i++) {
       if ((scales[i] as number) === 0) continue;
       let s = g[i * k + j] as number;
-      for (const p of kept) s -= (l[i * k + p] as number) * (l[j * k + p] as number);
+      for (let q = 0; q < keptCount; q++) {
+        const p = kept[q] as number;
+        s -= (l[i * k + p] as number) * (l[j * k + p] as number);
+      }
       l[i * k + j] = s / ljj;
     }
-    kept.push(j);
+    kept[keptCount++] = j;
   }
   // L w = zty (forward), L' beta = w (backward), over the kept columns only.
-  const w = new Float64Array(k);
-  for (const j of kept) {
+  for (let q = 0; q < keptCount; q++) {
+    const j = kept[q] as number;
     let s = zty[j] as number;
-    for (const p of kept) {
-      if (p >= j) break;
+    for (let r = 0; r < q; r++) {
+      const p = kept[r] as number;
       s -= (l[j * k + p] as number) * (w[p] as number);
     }
     w[j] = s / (l[j * k + j] as number);
   }
-  const beta = new Float64Array(k);
-  for (let q = kept.length - 1; q >= 0; q--) {
+  for (let q = keptCount - 1; q >= 0; q--) {
     const j = kept[q] as number;
     let s = w[j] as number;
-    for (let r = q + 1; r < kept.length; r++) {
+    for (let r = q + 1; r < keptCount; r++) {
       const i = kept[r] as number;
       s -= (l[i * k + j] as number) * (beta[i] as number);
     }
     beta[j] = s / (l[j * k + j] as number);
   }
-  return fromStandardised(gram, beta);
+  return beta;
+}
+
+/**
+ * Scratch space of the factorisation, kept between calls and grown as needed (the solver is
+ * synchronous, so never shared). An entry of L or w is read only after this call wrote it; beta is
+ * cleared, since a column left out keeps coefficient 0.
+ */
+let scratch = { k: 0, l: new Float64Array(0), w: new Float64Array(0), beta: new Float64Array(0), coefficients: new Float64Array(0), kept: new Int32Array(0) };
+
+function scratchFor(k: number): typeof scratch {
+  if (scratch.k < k) {
+    scratch = { k, l: new Float64Array(k * k), w: new Float64Array(k), beta: new Float64Array(k), coefficients: new Float64Array(k), kept: new Int32Array(k) };
+  }
+  return scratch;
 }

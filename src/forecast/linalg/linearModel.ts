@@ -20,6 +20,21 @@ export function predictLinear(model: LinearModel, row: ArrayLike<number>): numbe
  */
 export function fromStandardised(gram: StandardisedGram, beta: ArrayLike<number>): LinearModel {
   const coefficients = new Float64Array(gram.k);
+  return { intercept: originalScale(gram, beta, coefficients), coefficients };
+}
+
+/**
+ * predictLinear(fromStandardised(gram, beta), row), the same number, with the coefficients written
+ * into `scratch` (at least gram.k long) instead of a new model.
+ */
+export function predictStandardised(gram: StandardisedGram, beta: ArrayLike<number>, row: ArrayLike<number>, scratch: Float64Array): number {
+  let s = originalScale(gram, beta, scratch);
+  for (let j = 0; j < gram.k; j++) s += (scratch[j] as number) * (row[j] as number);
+  return s;
+}
+
+/** The coefficients b_j of fromStandardised into `coefficients`; returns the intercept. */
+function originalScale(gram: StandardisedGram, beta: ArrayLike<number>, coefficients: Float64Array): number {
   let intercept = gram.yMean;
   for (let j = 0; j < gram.k; j++) {
     const s = gram.scales[j] as number;
@@ -27,5 +42,5 @@ export function fromStandardised(gram: StandardisedGram, beta: ArrayLike<number>
     coefficients[j] = b;
     intercept -= b * (gram.means[j] as number);
   }
-  return { intercept, coefficients };
+  return intercept;
 }

@@ -123,16 +123,25 @@ export function nestedStandardisedGrams(x: Matrix, y: ArrayLike<number>, counts:
  * Scales centred sums into the standardised form: `gram` holds sum (x_j - m_j)(x_l - m_l) on and above
  * the diagonal (it is overwritten with the full correlation matrix), `cy` sum (x_j - m_j)(y - ybar),
  * `ySquares` sum (y - ybar)^2; all are divided by n and by the standard deviations, and constant
- * columns are marked. For callers that accumulate the sums their own way.
+ * columns are marked. For callers that accumulate the sums their own way; `into` (arrays of length k)
+ * takes the scales and zty instead of new arrays, for a caller that uses each result before the next.
  */
-export function standardiseCentredSums(n: number, means: Float64Array, yMean: number, gram: Float64Array, cy: Float64Array, ySquares: number): StandardisedGram {
+export function standardiseCentredSums(
+  n: number,
+  means: Float64Array,
+  yMean: number,
+  gram: Float64Array,
+  cy: Float64Array,
+  ySquares: number,
+  into?: { readonly scales: Float64Array; readonly zty: Float64Array },
+): StandardisedGram {
   const k = means.length;
-  const scales = new Float64Array(k);
+  const scales = into?.scales ?? new Float64Array(k);
   for (let j = 0; j < k; j++) {
     const sd = Math.sqrt(Math.max(gram[j * k + j] as number, 0) / n);
     scales[j] = sd <= 1e-12 * (1 + Math.abs(means[j] as number)) ? 0 : sd;
   }
-  const zty = new Float64Array(k);
+  const zty = into?.zty ?? new Float64Array(k);
   for (let j = 0; j < k; j++) {
     const sj = scales[j] as number;
     zty[j] = sj === 0 ? 0 : (cy[j] as number) / (n * sj);

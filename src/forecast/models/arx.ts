@@ -1,7 +1,6 @@
-import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
+import { choleskyPrediction } from '../linalg/choleskyLeastSquares.js';
 import type { LassoOptions } from '../linalg/lasso.js';
 import { lassoBic } from '../linalg/lasso.js';
-import type { LinearModel } from '../linalg/linearModel.js';
 import { predictLinear } from '../linalg/linearModel.js';
 import type { FitStopwatch } from '../fitStopwatch.js';
 import { timedFits } from '../fitStopwatch.js';
@@ -110,7 +109,9 @@ function usableTrainingDays(view: HistoryView, first: number): number[] {
   const out: number[] = [];
   for (let i = view.indexAtOrBefore(first - 1) + 1; i < view.pastCount; i++) {
     const dn = view.dayNumber(i);
-    if (LAGS.every((lag) => view.indexOf(dn - lag) >= 0)) out.push(i);
+    let usable = true;
+    for (const lag of LAGS) usable &&= view.indexOf(dn - lag) >= 0;
+    if (usable) out.push(i);
   }
   return out;
 }
@@ -127,113 +128,169 @@ function fitWindows(
   settings: ArxSettings,
 ): Map<number, Float64Array> {
   const S = view.slotsPerDay;
+  const names = view.exogenousNames.length;
   // The exogenous columns of the day itself, then those of the day before.
-  const exo = 2 * view.exogenousNames.length;
-  const withDayBefore = (own: readonly Float64Array[], dayBefore: number): readonly Float64Array[] => [...own, ...view.past(dayBefore).exogenous];
+  const exo = 2 * names;
   const k = ARX_COLUMNS.length + exo;
   const a = 4 + exo;
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rowsUsed = training.slice(0, n);
   const scale = windowScale(view, rowsUsed);
-  const z = new Map<number, Float64Array>();
-  const transformed = (i: number): Float64Array => {
-    let grid = z.get(i);
-    if (grid === undefined) {
-      const prices = view.past(i).prices;
-      grid = new Float64Array(prices.length);
-      for (let s = 0; s < prices.length; s++) grid[s] = toAsinhScale(prices[s] as number, scale);
-      z.set(i, grid);
-    }
-    return grid;
-  };
-  const rows = rowsUsed.map((i) => {
+  // The past days the forecast reads, each transformed once: by row, the positions of its own day
+  // (the response, its exogenous columns) and of its lag days (lag 1 also gives the day before's
+  // exogenous columns and the min, max and last).
+  const days = new PastDays(view.pastCount);
+  const own = new Int32Array(n);
+  const lag1 = new Int32Array(n);
+  const lag2 = new Int32Array(n);
+  const lag7 = new Int32Array(n);
+  const weekdays = new Int8Array(n);
+  for (let r = 0; r < n; r++) {
+    const i = rowsUsed[r] as number;
     const dn = view.dayNumber(i);
-    return dayRegressors(LAGS.map((lag) => transformed(view.indexOf(dn - lag))), view.past(i).weekday, withDayBefore(view.past(i).exogenous, view.indexOf(dn - 1)));
-  });
-  const responses = rowsUsed.map(transformed);
-  const target = dayRegressors(targetLags.map(transformed), view.target.weekday, withDayBefore(view.target.exogenous, targetLags[0] as number));
-  const dayLevel = {
-    minMaxLast: Float64Array.from(rows.flatMap((r) => [r.min, r.max, r.last])),
-    weekdays: Int8Array.from(rows, (r) => r.weekday),
-  };
+    own[r] = days.use(i);
+    lag1[r] = days.use(view.indexOf(dn - 1));
+    lag2[r] = days.use(view.indexOf(dn - 2));
+    lag7[r] = days.use(view.indexOf(dn - 7));
+    weekdays[r] = view.past(i).weekday;
+  }
+  const [t1, t2, t7] = targetLags.map((i) => days.use(i)) as [number, number, number];
+  const grids = days.transform(view, S, scale);
+  const { z, exogenous, min, max, last } = grids;
+  const D = days.count;
+  const minMaxLast = new Float64Array(3 * n);
+  for (let r = 0; r < n; r++) {
+    const d = lag1[r] as number;
+    minMaxLast[3 * r] = min[d] as number;
+    minMaxLast[3 * r + 1] = max[d] as number;
+    minMaxLast[3 * r + 2] = last[d] as number;
+  }
   const watch = settings.stopwatch;
-  const builder = timedFits(watch, 0, () => new ArxGramBuilder(dayLevel, counts));
-  const slotValues = new Float64Array(n * a);
+  const builder = timedFits(watch, 0, () => new ArxGramBuilder({ minMaxLast, weekdays }, counts));
+  const columns = new Float64Array(n * a);
   const features = new Float64Array(k);
-  const forecasts = new Map<number, Float64Array>(counts.map((c) => [c, new Float64Array(S)]));
+  const targetExogenous = view.target.exogenous;
+  const byCount = counts.map(() => new Float64Array(S));
   for (let s = 0; s < S; s++) {
+    // The slot's columns, each over the training rows: lag1, lag2, lag7, the exogenous columns of the
+    // day and of the day before, the response.
+    const zs = s * D;
     for (let r = 0; r < n; r++) {
-      const row = rows[r] as DayRegressors;
-      const base = r * a;
-      slotValues[base] = row.lag1[s] as number;
-      slotValues[base + 1] = row.lag2[s] as number;
-      slotValues[base + 2] = row.lag7[s] as number;
-      for (let j = 0; j < exo; j++) slotValues[base + 3 + j] = (row.exogenous[j] as Float64Array)[s] as number;
-      slotValues[base + a - 1] = (responses[r] as Float64Array)[s] as number;
+      columns[r] = z[zs + (lag1[r] as number)] as number;
+      columns[n + r] = z[zs + (lag2[r] as number)] as number;
+      columns[2 * n + r] = z[zs + (lag7[r] as number)] as number;
+      columns[(a - 1) * n + r] = z[zs + (own[r] as number)] as number;
     }
-    target.fill(features, s);
+    for (let j = 0; j < names; j++) {
+      const xs = (j * S + s) * D;
+      const ownAt = (3 + j) * n;
+      const beforeAt = (3 + names + j) * n;
+      for (let r = 0; r < n; r++) {
+        columns[ownAt + r] = exogenous[xs + (own[r] as number)] as number;
+        columns[beforeAt + r] = exogenous[xs + (lag1[r] as number)] as number;
+      }
+    }
+    // The delivery day's regressors, in the column order of ARX_COLUMNS; in the last slot `last`
+    // equals price(d-1,s) and is left out (see ArxGramBuilder).
+    features[0] = z[zs + t1] as number;
+    features[1] = z[zs + t2] as number;
+    features[2] = z[zs + t7] as number;
+    features[3] = min[t1] as number;
+    features[4] = max[t1] as number;
+    features[5] = s === S - 1 ? 0 : (last[t1] as number);
+    for (let w = 1; w <= 6; w++) features[5 + w] = view.target.weekday === w ? 1 : 0;
+    for (let j = 0; j < names; j++) {
+      features[12 + j] = (targetExogenous[j] as Float64Array)[s] as number;
+      features[12 + names + j] = exogenous[(j * S + s) * D + t1] as number;
+    }
     // One model per window; the timed stretch also holds its prediction, a k-term dot product.
     timedFits(watch, counts.length, () =>
-      builder.forEachGram(slotValues, a, s === S - 1, (gram, w) => {
-        const model: LinearModel = settings.estimator === 'lasso' ? lassoBic(gram, settings.lasso).model : choleskyLeastSquares(gram);
-        (forecasts.get(counts[w] as number) as Float64Array)[s] = fromAsinhScale(predictLinear(model, features), scale);
+      builder.forEachGram(columns, a, s === S - 1, (gram, w) => {
+        const value = settings.estimator === 'lasso' ? predictLinear(lassoBic(gram, settings.lasso).model, features) : choleskyPrediction(gram, features);
+        (byCount[w] as Float64Array)[s] = fromAsinhScale(value, scale);
       }),
     );
   }
-  return forecasts;
+  return new Map(counts.map((c, w) => [c, byCount[w] as Float64Array]));
+}
+
+/**
+ * The past days a forecast reads, numbered in the order first used, and their grids laid out slot by
+ * slot (z[s D + d] for day d of D): the transformed prices, the exogenous columns (exogenous[(j S + s)
+ * D + d]) and each day's min, max and last transformed price. The grids are scratch space kept between
+ * forecasts: a forecast reads some 370 days.
+ */
+class PastDays {
+  private readonly position: Int32Array;
+  private readonly order: number[] = [];
+
+  constructor(pastCount: number) {
+    this.position = new Int32Array(pastCount).fill(-1);
+  }
+
+  /** The number of past day i among the days used (numbered on first use). */
+  use(i: number): number {
+    let d = this.position[i] as number;
+    if (d < 0) {
+      d = this.order.length;
+      this.position[i] = d;
+      this.order.push(i);
+    }
+    return d;
+  }
+
+  get count(): number {
+    return this.order.length;
+  }
+
+  /** The grids of the days used, transformed with `scale` (asinh, robustAsinh.ts). */
+  transform(view: HistoryView, S: number, scale: RobustScale): { z: Float64Array; exogenous: Float64Array; min: Float64Array; max: Float64Array; last: Float64Array } {
+    const D = this.order.length;
+    const names = view.exogenousNames.length;
+    const z = scratch(0, S * D);
+    const exogenous = scratch(1, names * S * D);
+    const min = new Float64Array(D);
+    const max = new Float64Array(D);
+    const last = new Float64Array(D);
+    for (let d = 0; d < D; d++) {
+      const past = view.past(this.order[d] as number);
+      const prices = past.prices;
+      let low = Infinity;
+      let high = -Infinity;
+      for (let s = 0; s < prices.length; s++) {
+        const value = toAsinhScale(prices[s] as number, scale);
+        z[s * D + d] = value;
+        low = Math.min(low, value);
+        high = Math.max(high, value);
+      }
+      min[d] = low;
+      max[d] = high;
+      last[d] = z[(prices.length - 1) * D + d] as number;
+      for (let j = 0; j < names; j++) {
+        const column = past.exogenous[j] as Float64Array;
+        for (let s = 0; s < S; s++) exogenous[(j * S + s) * D + d] = column[s] as number;
+      }
+    }
+    return { z, exogenous, min, max, last };
+  }
+}
+
+/** Scratch buffers of the slot-by-slot grids, kept between forecasts and grown as needed. */
+const scratchBuffers = [new Float64Array(0), new Float64Array(0)];
+
+function scratch(which: 0 | 1, length: number): Float64Array {
+  if ((scratchBuffers[which] as Float64Array).length < length) scratchBuffers[which] = new Float64Array(length);
+  return scratchBuffers[which] as Float64Array;
 }
 
 /** Median and MAD of all prices of the training days. */
 function windowScale(view: HistoryView, training: readonly number[]): RobustScale {
   const S = view.slotsPerDay;
-  const all = new Float64Array(training.length * S);
+  if (scaleScratch.length < training.length * S) scaleScratch = new Float64Array(training.length * S);
+  const all = scaleScratch.subarray(0, training.length * S);
   training.forEach((i, r) => all.set(view.past(i).prices, r * S));
   return robustScale(all);
 }
 
-/** The regressors of one day (lag grids already transformed). */
-interface DayRegressors {
-  readonly lag1: Float64Array;
-  readonly lag2: Float64Array;
-  readonly lag7: Float64Array;
-  readonly min: number;
-  readonly max: number;
-  readonly last: number;
-  readonly weekday: number;
-  readonly exogenous: readonly Float64Array[];
-  /** Writes the day's row of slot s, in the column order of ARX_COLUMNS. */
-  fill(out: Float64Array, s: number): void;
-}
-
-function dayRegressors(lags: readonly Float64Array[], weekday: number, exogenous: readonly Float64Array[]): DayRegressors {
-  const [lag1, lag2, lag7] = lags as [Float64Array, Float64Array, Float64Array];
-  let min = Infinity;
-  let max = -Infinity;
-  for (let s = 0; s < lag1.length; s++) {
-    min = Math.min(min, lag1[s] as number);
-    max = Math.max(max, lag1[s] as number);
-  }
-  const last = lag1[lag1.length - 1] as number;
-  return {
-    lag1,
-    lag2,
-    lag7,
-    min,
-    max,
-    last,
-    weekday,
-    exogenous,
-    fill(out: Float64Array, s: number): void {
-      out[0] = lag1[s] as number;
-      out[1] = lag2[s] as number;
-      out[2] = lag7[s] as number;
-      out[3] = min;
-      out[4] = max;
-      // In the last slot this regressor equals price(d-1,s): left out there (see ArxGramBuilder).
-      out[5] = s === lag1.length - 1 ? 0 : last;
-      for (let w = 1; w <= 6; w++) out[5 + w] = weekday === w ? 1 : 0;
-      for (let j = 0; j < exogenous.length; j++) out[12 + j] = (exogenous[j] as Float64Array)[s] as number;
-    },
-  };
-}
+let scaleScratch = new Float64Array(0);

@@ -32,6 +32,8 @@ export class ArxGramBuilder {
   /** Per count: sums of the 9 shifted day-level columns and their products (9 x 9). */
   private readonly sharedSums: Float64Array[] = [];
   private readonly sharedProducts: Float64Array[] = [];
+  /** The shifted min, max and last of every row, column by column: rb[j n + i]. */
+  private readonly rb: Float64Array;
 
   constructor(
     private readonly day: ArxDayLevel,
@@ -59,47 +61,96 @@ export class ArxGramBuilder {
       this.sharedSums.push(Float64Array.from(sums));
       this.sharedProducts.push(Float64Array.from(products));
     }
+    this.rb = new Float64Array(B * this.n);
+    for (let j = 0; j < B; j++) for (let r = 0; r < this.n; r++) this.rb[j * this.n + r] = (minMaxLast[r * B + j] as number) - (this.shiftB[j] as number);
   }
 
   /**
    * The Grams of one slot, one per count, handed to `use` in order of the counts. The Gram passed is
    * overwritten by the next one: copy what must be kept.
    *
-   * @param slotValues n x a, row-major, per training row: lag1, lag2, lag7, the exogenous columns and,
-   *   last, the response
+   * Each sum is taken over the rows in row order, one sum at a time (the shifted slot columns are laid
+   * out column by column first), and read off at every count: the same additions in the same order as
+   * row by row, so the same bits, with the running sum in a register instead of in memory.
+   *
+   * @param columns the a slot columns of the n training rows, column by column (columns[p n + i]):
+   *   lag1, lag2, lag7, the exogenous columns and, last, the response
    * @param lastSlot true in the last slot of the day, where `last` duplicates lag1 and is left out
    */
-  forEachGram(slotValues: Float64Array, a: number, lastSlot: boolean, use: (gram: StandardisedGram, index: number) => void): void {
-    const { n, day, counts } = this;
+  forEachGram(columns: Float64Array, a: number, lastSlot: boolean, use: (gram: StandardisedGram, index: number) => void): void {
+    const { n, counts, rb } = this;
+    const weekdays = this.day.weekdays;
     const work = this.workspace(a);
-    const { sumA, prodAA, prodAB, buckets, ra } = work;
-    sumA.fill(0);
-    prodAA.fill(0);
-    prodAB.fill(0);
-    buckets.fill(0);
-    work.shiftA.set(slotValues.subarray(0, a));
-    const shiftA = work.shiftA;
-    let i = 0;
-    counts.forEach((count, w) => {
-      for (; i < count && i < n; i++) {
-        const base = i * a;
-        for (let p = 0; p < a; p++) ra[p] = (slotValues[base + p] as number) - (shiftA[p] as number);
-        const bucket = ((day.weekdays[i] as number) - 1) * a;
-        const rb0 = (day.minMaxLast[i * B] as number) - (this.shiftB[0] as number);
-        const rb1 = (day.minMaxLast[i * B + 1] as number) - (this.shiftB[1] as number);
-        const rb2 = (day.minMaxLast[i * B + 2] as number) - (this.shiftB[2] as number);
-        for (let p = 0; p < a; p++) {
-          const rp = ra[p] as number;
-          sumA[p] = (sumA[p] as number) + rp;
-          buckets[bucket + p] = (buckets[bucket + p] as number) + rp;
-          prodAB[p * B] = (prodAB[p * B] as number) + rp * rb0;
-          prodAB[p * B + 1] = (prodAB[p * B + 1] as number) + rp * rb1;
-          prodAB[p * B + 2] = (prodAB[p * B + 2] as number) + rp * rb2;
-          for (let q = p; q < a; q++) prodAA[p * a + q] = (prodAA[p * a + q] as number) + rp * (ra[q] as number);
+    const { cols, shiftA, sumA, prodAA, prodAB, buckets, bucket } = work;
+    const W = counts.length;
+    const zeros = a * n;
+    for (let p = 0; p < a; p++) {
+      const base = p * n;
+      const shift = columns[base] as number;
+      shiftA[p] = shift;
+      for (let i = 0; i < n; i++) cols[base + i] = (columns[base + i] as number) - shift;
+    }
+    for (let p = 0; p < a; p++) {
+      const pn = p * n;
+      // Products with the columns q >= p, four per pass over the rows (past the last column, with a
+      // column of zeros whose products are dropped); the first pass also takes the column's sum, its
+      // sums by weekday and its products with min, max and last.
+      for (let q = p; q < a; q += 4) {
+        const first = q === p;
+        const q0 = q * n;
+        const q1 = q + 1 < a ? q0 + n : zeros;
+        const q2 = q + 2 < a ? q0 + 2 * n : zeros;
+        const q3 = q + 3 < a ? q0 + 3 * n : zeros;
+        let s0 = 0;
+        let s1 = 0;
+        let s2 = 0;
+        let s3 = 0;
+        let sum = 0;
+        let ab0 = 0;
+        let ab1 = 0;
+        let ab2 = 0;
+        if (first) bucket.fill(0);
+        let i = 0;
+        for (let w = 0; w < W; w++) {
+          const end = counts[w] as number;
+          if (first) {
+            for (; i < end; i++) {
+              const v = cols[pn + i] as number;
+              sum += v;
+              const d = (weekdays[i] as number) - 1;
+              bucket[d] = (bucket[d] as number) + v;
+              ab0 += v * (rb[i] as number);
+              ab1 += v * (rb[n + i] as number);
+              ab2 += v * (rb[2 * n + i] as number);
+              s0 += v * (cols[q0 + i] as number);
+              s1 += v * (cols[q1 + i] as number);
+              s2 += v * (cols[q2 + i] as number);
+              s3 += v * (cols[q3 + i] as number);
+            }
+            sumA[w * a + p] = sum;
+            for (let d = 0; d < 7; d++) buckets[(w * 7 + d) * a + p] = bucket[d] as number;
+            const at = (w * a + p) * B;
+            prodAB[at] = ab0;
+            prodAB[at + 1] = ab1;
+            prodAB[at + 2] = ab2;
+          } else {
+            for (; i < end; i++) {
+              const v = cols[pn + i] as number;
+              s0 += v * (cols[q0 + i] as number);
+              s1 += v * (cols[q1 + i] as number);
+              s2 += v * (cols[q2 + i] as number);
+              s3 += v * (cols[q3 + i] as number);
+            }
+          }
+          const at = w * a * a + p * a + q;
+          prodAA[at] = s0;
+          if (q + 1 < a) prodAA[at + 1] = s1;
+          if (q + 2 < a) prodAA[at + 2] = s2;
+          if (q + 3 < a) prodAA[at + 3] = s3;
         }
       }
-      use(this.assemble(count, w, work, lastSlot), w);
-    });
+    }
+    for (let w = 0; w < W; w++) use(this.assemble(counts[w] as number, w, work, lastSlot), w);
   }
 
   private work: SlotWork | undefined;
@@ -107,67 +158,72 @@ export class ArxGramBuilder {
   private workspace(a: number): SlotWork {
     if (this.work === undefined || this.work.a !== a) {
       const k = 12 + a - 4;
+      const W = this.counts.length;
       this.work = {
         a,
         k,
+        cols: new Float64Array((a + 1) * this.n),
         shiftA: new Float64Array(a),
-        sumA: new Float64Array(a),
-        prodAA: new Float64Array(a * a),
-        prodAB: new Float64Array(a * B),
-        buckets: new Float64Array(7 * a),
-        ra: new Float64Array(a),
+        sumA: new Float64Array(W * a),
+        prodAA: new Float64Array(W * a * a),
+        prodAB: new Float64Array(W * a * B),
+        buckets: new Float64Array(W * 7 * a),
+        bucket: new Float64Array(7),
         means: new Float64Array(k),
         gram: new Float64Array(k * k),
         cy: new Float64Array(k),
         shift: new Float64Array(k),
         sums: new Float64Array(k),
+        standardised: { scales: new Float64Array(k), zty: new Float64Array(k) },
       };
     }
     return this.work;
   }
 
-  /** Centred sums of all columns at one count, standardised (into the workspace's arrays). */
+  /** Centred sums of all columns at count w, standardised (into the workspace's arrays). */
   private assemble(count: number, w: number, work: SlotWork, lastSlot: boolean): StandardisedGram {
     const { a, k, shiftA, sumA, means, gram, cy, shift, sums } = work;
     const sharedSums = this.sharedSums[w] as Float64Array;
     const y = a - 1;
+    const sumAt = w * a;
     // Final column c: lags 0..2 and exogenous 12.. come from the slot (A index c or c - 9); min, max,
     // last (3..5) and the dummies (6..11) from the day-level block (index c - 3).
     for (let c = 0; c < k; c++) {
       const p = sourceA(c);
       shift[c] = p >= 0 ? (shiftA[p] as number) : c < 6 ? (this.shiftB[c - 3] as number) : (this.shiftD[c - 6] as number);
-      sums[c] = p >= 0 ? (sumA[p] as number) : (sharedSums[c - 3] as number);
+      sums[c] = p >= 0 ? (sumA[sumAt + p] as number) : (sharedSums[c - 3] as number);
     }
-    const sy = sumA[y] as number;
+    const sy = sumA[sumAt + y] as number;
     for (let u = 0; u < k; u++) {
       const dropped = lastSlot && u === 5;
       const su = dropped ? 0 : (sums[u] as number);
       means[u] = dropped ? 0 : (shift[u] as number) + su / count;
-      cy[u] = dropped ? 0 : this.productWithA(work, y, u) - (su * sy) / count;
+      cy[u] = dropped ? 0 : this.productWithA(work, w, y, u) - (su * sy) / count;
       for (let v = u; v < k; v++) {
         gram[u * k + v] = dropped || (lastSlot && v === 5) ? 0 : this.product(work, w, u, v) - (su * (sums[v] as number)) / count;
       }
     }
-    const ySquares = (work.prodAA[y * a + y] as number) - (sy * sy) / count;
-    return standardiseCentredSums(count, means, (shiftA[y] as number) + sy / count, gram, cy, ySquares);
+    const ySquares = (work.prodAA[w * a * a + y * a + y] as number) - (sy * sy) / count;
+    return standardiseCentredSums(count, means, (shiftA[y] as number) + sy / count, gram, cy, ySquares, work.standardised);
   }
 
-  /** Shifted product sum of slot column p with final column c. */
-  private productWithA(work: SlotWork, p: number, c: number): number {
+  /** Shifted product sum, at count w, of slot column p with final column c. */
+  private productWithA(work: SlotWork, w: number, p: number, c: number): number {
     const { a, prodAA, prodAB, buckets, sumA } = work;
     const q = sourceA(c);
-    if (q >= 0) return p <= q ? (prodAA[p * a + q] as number) : (prodAA[q * a + p] as number);
-    if (c < 6) return prodAB[p * B + (c - 3)] as number;
+    const aa = w * a * a;
+    if (q >= 0) return p <= q ? (prodAA[aa + p * a + q] as number) : (prodAA[aa + q * a + p] as number);
+    if (c < 6) return prodAB[(w * a + p) * B + (c - 3)] as number;
     const dummy = c - 6;
-    return (buckets[dummy * a + p] as number) - (this.shiftD[dummy] as number) * (sumA[p] as number);
+    return (buckets[(w * 7 + dummy) * a + p] as number) - (this.shiftD[dummy] as number) * (sumA[w * a + p] as number);
   }
 
-  /** Shifted product sum of final columns u and v. */
+  /** Shifted product sum, at count w, of final columns u and v. */
   private product(work: SlotWork, w: number, u: number, v: number): number {
     const p = sourceA(u);
-    if (p >= 0) return this.productWithA(work, p, v);
+    if (p >= 0) return this.productWithA(work, w, p, v);
     const q = sourceA(v);
-    if (q >= 0) return this.productWithA(work, q, u);
+    if (q >= 0) return this.productWithA(work, w, q, u);
     const m = B + D;
     const su = u - 3;
     const sv = v - 3;
@@ -181,19 +237,28 @@ function sourceA(c: number): number {
   return c < 3 ? c : c >= 12 ? c - 9 : -1;
 }
 
-/** Per-slot sums and scratch arrays, reused from slot to slot. */
+/** Per-slot sums (one set per count) and scratch arrays, reused from slot to slot. */
 interface SlotWork {
   readonly a: number;
   readonly k: number;
+  /** The shifted slot columns, column by column: cols[p n + i], then a column of zeros. */
+  readonly cols: Float64Array;
   readonly shiftA: Float64Array;
+  /** Per count w: sums of the shifted slot columns, sumA[w a + p]. */
   readonly sumA: Float64Array;
+  /** Per count w: products of slot columns, prodAA[w a^2 + p a + q], q >= p. */
   readonly prodAA: Float64Array;
+  /** Per count w: products of slot columns with min, max and last, prodAB[(w a + p) B + j]. */
   readonly prodAB: Float64Array;
+  /** Per count w: sums of the shifted slot columns by weekday, buckets[(w 7 + weekday - 1) a + p]. */
   readonly buckets: Float64Array;
-  readonly ra: Float64Array;
+  /** The running sums by weekday of one column. */
+  readonly bucket: Float64Array;
   readonly means: Float64Array;
   readonly gram: Float64Array;
   readonly cy: Float64Array;
   readonly shift: Float64Array;
   readonly sums: Float64Array;
+  /** The scales and zty of the Gram handed out (overwritten by the next, as its gram is). */
+  readonly standardised: { readonly scales: Float64Array; readonly zty: Float64Array };
 }

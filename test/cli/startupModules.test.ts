@@ -1,0 +1,66 @@
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { afterAll, describe, expect, it } from 'vitest';
+import { COMMANDS } from './runMain.js';
+
+// What a user waits for before `quantbid --version` or `quantbid COMMAND --help` answers is Node
+// loading modules: the help needs commander and the options' words, never the validation library, the
+// zone library, the LP solver, the readers, the use cases or the report code (they load when a command
+// runs). The compiled CLI is run with a module hook that lists every module the process loads.
+const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
+const folder = mkdtempSync(join(tmpdir(), 'quantbid-startup-'));
+const hooks = join(folder, 'hooks.mjs');
+writeFileSync(hooks, "export async function load(url, context, next) { process.stderr.write(`loaded ${url}\\n`); return next(url, context); }\n");
+const register = join(folder, 'register.mjs');
+writeFileSync(register, `import { register } from 'node:module';\nregister(${JSON.stringify(pathToFileURL(hooks).href)});\n`);
+afterAll(() => rmSync(folder, { recursive: true, force: true }));
+
+/** The modules `quantbid ...args` loads, as paths relative to the package root (or node: names). */
+function loadedModules(args: readonly string[]): string[] {
+  const result = spawnSync(process.execPath, ['--import', pathToFileURL(register).href, 'bin/quantbid.js', ...args], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
+  expect(result.status, result.stderr).toBe(0);
+  const root = pathToFileURL(ROOT).href;
+  return result.stderr
+    .split('\n')
+    .filter((line) => line.startsWith('loaded '))
+    .map((line) => line.slice('loaded '.length).replace(`${root}/`, ''));
+}
+
+/**
+ * Heavy modules: a package other than commander, or a file of dist/ outside the CLI's own light modules
+ * (the forecasting layer's error classes are light: the levels' words that the help prints use them).
+ */
+function heavy(modules: readonly string[]): string[] {
+  return modules.filter(
+    (m) =>
+      /node_modules\/(zod|luxon|javascript-lp-solver|highs)\//.test(m) ||
+      // The forecasting layer's error classes are light: the levels' words that the help prints use them.
+      /^dist\/(report|plan\/warehouse|forecast\/models\/(?!errors\.js$)|io\/read)/.test(m) ||
+      /UseCase\.js$/.test(m) ||
+      m === 'node:zlib' ||
+      m === 'node:worker_threads',
+  );
+}
+
+describe('start-up: what --version and --help load', () => {
+  it('--version and --help load commander and no heavy module', () => {
+    for (const args of [['--version'], ['--help']]) {
+      const modules = loadedModules(args);
+      expect(modules.some((m) => m.includes('node_modules/commander/')), args.join(' ')).toBe(true);
+      expect(heavy(modules), args.join(' ')).toEqual([]);
+    }
+  });
+
+  it('every command\'s --help loads no heavy module', () => {
+    for (const command of COMMANDS) expect(heavy(loadedModules([command, '--help'])), command).toEqual([]);
+  });
+
+  it('a command that runs loads its use case (the hook sees what a run loads)', () => {
+    const modules = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--json']);
+    expect(modules).toContain('dist/app/plan/planUseCase.js');
+    expect(modules.some((m) => m.includes('node_modules/zod/'))).toBe(true);
+  });
+});
