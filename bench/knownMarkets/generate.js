@@ -1,7 +1,8 @@
 // Writes the known-distribution markets of bench/knownMarkets/ as quantbid input files, one folder per
-// setting: market.json, battery.json, history.csv (price, fallback price, load and renewables forecast
+// setting: market.json, battery.json, history.csv (price, imbalance price, load and renewables forecast
 // columns, three years), truth.csv (the TRUE predictive quantiles of the last year at the 19 levels
-// 0.05..0.95, in the wide layout quantbid reads) and scenario.json. Any forecast can then be scored
+// 0.05..0.95, in the wide layout quantbid reads), truth-mean.csv (the true mean price of each period of
+// that year, for the expected profit of a plan) and scenario.json. Any forecast can then be scored
 // against the truth, e.g.
 //
 //   npm run build && node bench/knownMarkets/generate.js --out runs/known
@@ -43,11 +44,13 @@ export async function settingFiles(setting, simulation) {
     currency: 'KNW',
     gateClosure: '12:00',
   };
-  const history = ['period_start,price,fallback_price,load_forecast_mw,renewables_forecast_mw'];
+  const history = ['period_start,price,imbalance_price,load_forecast_mw,renewables_forecast_mw'];
   for (const d of simulation.days) {
-    d.periods.forEach((p, t) => history.push(`${p.start},${formatNumber(d.price[t], 2)},${formatNumber(d.fallback[t], 2)},${formatNumber(d.load[t], 1)},${formatNumber(d.renewables[t], 1)}`));
+    d.periods.forEach((p, t) => history.push(`${p.start},${formatNumber(d.price[t], 2)},${formatNumber(d.imbalance[t], 2)},${formatNumber(d.load[t], 1)},${formatNumber(d.renewables[t], 1)}`));
   }
   const truth = simulation.days.filter((d) => d.truth !== null).map((d) => ({ day: d.day, levels: LEVELS, periods: d.periods, prices: d.truth }));
+  const means = ['period_start,mean_price'];
+  for (const d of simulation.days.filter((x) => x.mean !== null)) d.periods.forEach((p, t) => means.push(`${p.start},${formatNumber(d.mean[t], 4)}`));
   const scenario = {
     name: `known-distribution market "${setting.name}" (bench, invented)`,
     description: `${setting.summary}. Seeded synthetic history ${SPAN.from} to ${SPAN.to}; truth.csv holds the true predictive quantiles from ${SPAN.truthFrom}. No real market, place or data.`,
@@ -62,6 +65,7 @@ export async function settingFiles(setting, simulation) {
     'battery.json': json(BATTERY),
     'history.csv': `${history.join('\n')}\n`,
     'truth.csv': quantileForecastCsv(truth),
+    'truth-mean.csv': `${means.join('\n')}\n`,
     'scenario.json': json(scenario),
   };
 }

@@ -27,7 +27,7 @@
 //   pDown = down.p0 logistic((R / L - down.shareCentre) / down.shareWidth).
 //   An up-spike price is cap - (cap - up.low) V^up.shape, V ~ U(0, 1) (towards the cap for shape > 1);
 //   a down-spike price is uniform on [down.low, down.high]. The price is clamped into [floor, cap].
-// Fallback (imbalance) price: clamp(P + kappa (P - median of B) + sd N(0, 1)).
+// Imbalance price: clamp(P + kappa (P - median of B) + sd N(0, 1)): it moves against whoever was surprised.
 //
 // Exact predictive distribution given F_{d-1} (every price and driver before day d, and the drivers of
 // day d): m_d is known, eta_d + s u_t ~ N(0, S^2) with S^2 = sdDay^2 + s^2 (a sum of independent normals),
@@ -182,14 +182,43 @@ export function periodQuantiles(law, setting, levels, normal) {
 }
 
 /**
+ * The mean price of one period under its exact law (for the expected profit of a plan):
+ *   E[P] = (1 - pUp - pDown) E[B] + pUp (cap - (cap - up.low) / (up.shape + 1)) + pDown (down.low + down.high) / 2,
+ *   E[B] = c + beta (mu - y0) + gamma E[(Y - knee)_+^2],  E[(Y - k)_+^2] = S^2 ((1 + a^2)(1 - Phi(a)) - a phi(a)),
+ * a = (k - mu) / S for Y ~ N(mu, S^2) (the truncated second moment of the normal), mixed over the
+ * volatile-day regime. The base price B is not clamped here: the function throws when B would lie beyond
+ * the floor or cap with a probability above 1e-9 (it never does in the settings), so the clamp cannot
+ * move the mean.
+ */
+export function periodMean(law, setting, normal) {
+  const { beta, y0, gamma, knee } = setting.price;
+  const { floor, cap } = setting.market;
+  const { pv, kv } = regime(setting);
+  const merit = meritOrder(setting.price);
+  const phi = (z) => Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);
+  const baseMean = (sd) => {
+    const a = (knee - law.mu) / sd;
+    const tail = gamma === 0 ? 0 : gamma * sd * sd * ((1 + a * a) * (1 - normal.cdf(a)) - a * phi(a));
+    const outside = normal.cdf((merit.inverse(floor - law.c) - law.mu) / sd) + 1 - normal.cdf((merit.inverse(cap - law.c) - law.mu) / sd);
+    if (outside > 1e-9) throw new Error(`the base price reaches the floor or cap with probability ${outside}: its mean would need the clamp`);
+    return law.c + beta * (law.mu - y0) + tail;
+  };
+  const base = (1 - pv) * baseMean(law.sd) + (pv > 0 ? pv * baseMean(kv * law.sd) : 0);
+  const up = setting.market.cap - (setting.market.cap - setting.spikes.up.low) / (setting.spikes.up.shape + 1);
+  const down = (setting.spikes.down.low + setting.spikes.down.high) / 2;
+  return (1 - law.pUp - law.pDown) * base + law.pUp * up + law.pDown * down;
+}
+
+/**
  * Simulates a setting over [from, to] and computes the true quantiles of the days from truthFrom on.
  * @param {object} setting see settings.js
  * @param {object} tools { deliveryPeriods(day, zone, minutes), normal: { cdf, quantile }, days(from, to) }
  * @param {{ from: string, to: string, truthFrom: string, levels: number[] }} span
- * @returns {{ days: object[] }} per day: day, periods, price, fallback, load, renewables, truth (or null)
+ * @returns {{ days: object[] }} per day: day, periods, price, imbalance, load, renewables, laws, and from
+ *   truthFrom on truth (quantiles per period at the levels) and mean (the mean price per period); else null
  */
 export function simulateMarket(setting, tools, span) {
-  const { name, market, load, wind, solar, price, noise, spikes, fallback } = setting;
+  const { name, market, load, wind, solar, price, noise, spikes, imbalance } = setting;
   const stream = (process) => new Stream(`${name}/${process}`);
   const weatherStream = stream('load-weather');
   const windStream = stream('wind');
@@ -199,7 +228,7 @@ export function simulateMarket(setting, tools, span) {
   const periodStream = stream('period-noise');
   const spikeStream = stream('spikes');
   const spikeSizeStream = stream('spike-size');
-  const fallbackStream = stream('fallback');
+  const imbalanceStream = stream('imbalance');
   const merit = meritOrder(price);
   const rhoNoise = noise.rhoHour ** (market.periodMinutes / 60);
   const rhoSpike = spikes.rhoHour ** (market.periodMinutes / 60);
@@ -239,11 +268,12 @@ export function simulateMarket(setting, tools, span) {
       day,
       periods,
       price: new Float64Array(T),
-      fallback: new Float64Array(T),
+      imbalance: new Float64Array(T),
       load: new Float64Array(T),
       renewables: new Float64Array(T),
       laws: [],
       truth: null,
+      mean: null,
     };
     let u = periodStream.normal();
     let v = spikeStream.normal();
@@ -279,9 +309,9 @@ export function simulateMarket(setting, tools, span) {
       else if (U < pDown) clearing = spikes.down.low + (spikes.down.high - spikes.down.low) * size;
       clearing = clamp(clearing, market.floor, market.cap);
       const median = c + merit.g(x + m);
-      const fb = clamp(clearing + fallback.kappa * (clearing - median) + fallback.sd * fallbackStream.normal(), market.floor, market.cap);
+      const imbalancePrice = clamp(clearing + imbalance.kappa * (clearing - median) + imbalance.sd * imbalanceStream.normal(), market.floor, market.cap);
       record.price[t] = round2(clearing);
-      record.fallback[t] = round2(fb);
+      record.imbalance[t] = round2(imbalancePrice);
       record.load[t] = loadMw;
       record.renewables[t] = renewablesMw;
       record.laws.push({ c, mu: x + m, sd: sdTotal, pUp, pDown });
@@ -289,7 +319,10 @@ export function simulateMarket(setting, tools, span) {
     }
     // The persistent component of tomorrow, from today's (rounded, published) prices and drivers.
     dayLevelNext = noise.phi * (dSum / T);
-    if (day >= span.truthFrom) record.truth = record.laws.map((law) => periodQuantiles(law, setting, span.levels, tools.normal));
+    if (day >= span.truthFrom) {
+      record.truth = record.laws.map((law) => periodQuantiles(law, setting, span.levels, tools.normal));
+      record.mean = record.laws.map((law) => periodMean(law, setting, tools.normal));
+    }
     out.push(record);
   }
   return { days: out };

@@ -28,7 +28,7 @@ export const SETTINGS = Object.freeze([
     price: { beta: 10, y0: 2, gamma: 0, knee: 0, profile: { ...PROFILE, base: 15 } },
     noise: { sdDay: 0.5, phi: 0.8, clipGw: 3, sd0: 0.4, sdRenewables: 0, sdPeak: 0, rhoHour: 0.8 },
     spikes: NO_SPIKES,
-    fallback: { kappa: 0.5, sd: 3 },
+    imbalance: { kappa: 0.5, sd: 3 },
   },
   {
     name: 'convex-hetero',
@@ -43,7 +43,7 @@ export const SETTINGS = Object.freeze([
     price: { beta: 8, y0: 1, gamma: 5, knee: 4.5, profile: { ...PROFILE, base: 30 } },
     noise: { sdDay: 0.35, phi: 0.9, clipGw: 3, sd0: 0.15, sdRenewables: 0.5, sdPeak: 0.1, rhoHour: 0.85 },
     spikes: { rhoHour: 0.9, up: { p0: 0.0005, p1: 0.03, centreGw: 7.5, widthGw: 0.3, low: 300, shape: 1.5 }, down: NO_SPIKES.down },
-    fallback: { kappa: 0.5, sd: 5 },
+    imbalance: { kappa: 0.5, sd: 5 },
   },
   {
     name: 'outage-spikes',
@@ -58,7 +58,7 @@ export const SETTINGS = Object.freeze([
     price: { beta: 12, y0: 2, gamma: 1.5, knee: 6, profile: { ...PROFILE, base: 40 } },
     noise: { sdDay: 0.4, phi: 0.85, clipGw: 3, sd0: 0.25, sdRenewables: 0.3, sdPeak: 0.1, rhoHour: 0.8 },
     spikes: { rhoHour: 0.95, up: { p0: 0.012, p1: 0, centreGw: 0, widthGw: 1, low: 1000, shape: 3 }, down: { p0: 0.01, shareCentre: 0.5, shareWidth: 0.08, low: -400, high: -50 } },
-    fallback: { kappa: 0.8, sd: 10 },
+    imbalance: { kappa: 0.8, sd: 10 },
   },
   {
     name: 'renewables-negative',
@@ -73,7 +73,7 @@ export const SETTINGS = Object.freeze([
     price: { beta: 9, y0: 0.5, gamma: 3, knee: 4.5, profile: { ...PROFILE, base: 25 } },
     noise: { sdDay: 0.3, phi: 0.85, clipGw: 3, sd0: 0.2, sdRenewables: 0.8, sdPeak: 0, rhoHour: 0.85 },
     spikes: { rhoHour: 0.9, up: { p0: 0, p1: 0.02, centreGw: 5, widthGw: 0.3, low: 200, shape: 1.2 }, down: { p0: 0.08, shareCentre: 0.85, shareWidth: 0.08, low: -250, high: -10 } },
-    fallback: { kappa: 0.5, sd: 4 },
+    imbalance: { kappa: 0.5, sd: 4 },
   },
   {
     name: 'weekly-volatile',
@@ -88,7 +88,7 @@ export const SETTINGS = Object.freeze([
     price: { beta: 7, y0: 3, gamma: 2, knee: 9, profile: { ...PROFILE, base: 20, weekendPeaks: 0.3, saturday: -8, sunday: -15 } },
     noise: { sdDay: 0.45, phi: 0.6, clipGw: 3, sd0: 0.3, sdRenewables: 0.2, sdPeak: 0.35, rhoHour: 0.75, volatileProbability: 0.12, volatileFactor: 2.5 },
     spikes: NO_SPIKES,
-    fallback: { kappa: 0.5, sd: 4 },
+    imbalance: { kappa: 0.5, sd: 4 },
   },
   {
     name: 'persistent-level',
@@ -103,7 +103,7 @@ export const SETTINGS = Object.freeze([
     price: { beta: 6, y0: 3, gamma: 4, knee: 8.5, profile: { ...PROFILE, base: 30 } },
     noise: { sdDay: 0.3, phi: 0.95, clipGw: 3, sd0: 0.2, sdRenewables: 0.4, sdPeak: 0.05, rhoHour: 0.9 },
     spikes: { rhoHour: 0.9, up: { p0: 0.001, p1: 0.01, centreGw: 10, widthGw: 0.4, low: 400, shape: 2 }, down: { p0: 0.01, shareCentre: 0.45, shareWidth: 0.06, low: -100, high: 0 } },
-    fallback: { kappa: 0.5, sd: 4 },
+    imbalance: { kappa: 0.5, sd: 4 },
   },
 ]);
 

@@ -47,14 +47,14 @@ export async function loadKnownMarket(name) {
     gateClosure: '12:00',
   }).data;
   const history = {
-    days: simulation.days.map((d) => ({ day: d.day, periods: d.periods, pricePerMwh: Array.from(d.price), imbalancePricePerMwh: Array.from(d.fallback), exogenous: {} })),
+    days: simulation.days.map((d) => ({ day: d.day, periods: d.periods, pricePerMwh: Array.from(d.price), imbalancePricePerMwh: Array.from(d.imbalance), exogenous: {} })),
     exogenousNames: [],
     incompleteDays: [],
   };
   const forecastDays = new Map(simulation.days.filter((d) => d.truth !== null).map((d) => [d.day, { day: d.day, levels: LEVELS, periods: d.periods, prices: d.truth }]));
   const byDay = new Map(simulation.days.map((d) => [d.day, d]));
   const merit = meritOrder(setting.price);
-  const { noise, spikes, fallback } = setting;
+  const { noise, spikes, imbalance: imbalanceLaw } = setting;
   const { floor, cap, periodMinutes } = setting.market;
   const rhoNoise = noise.rhoHour ** (periodMinutes / 60);
   const rhoSpike = spikes.rhoHour ** (periodMinutes / 60);
@@ -88,7 +88,7 @@ export async function loadKnownMarket(name) {
         price = round2(clamp(price, floor, cap));
         const median = law.c + merit.g(law.mu);
         c.push(price);
-        f.push(round2(clamp(price + fallback.kappa * (price - median) + fallback.sd * stream.normal(), floor, cap)));
+        f.push(round2(clamp(price + imbalanceLaw.kappa * (price - median) + imbalanceLaw.sd * stream.normal(), floor, cap)));
       });
       clearing.push(c);
       imbalance.push(f);
