@@ -34,11 +34,11 @@ export interface ScenarioPlanning {
 
 /**
  * Defaults of scenario planning, measured on the known-distribution bench across all its settings
- * (docs/scenario-bids.md, bench/scenarioBids/dayTrials.js): the curves' value on the true law did not
- * change with the steps (2, 4, 8) and rose slowly with the planning paths (50 to 400) at a cost in time
- * proportional to both, so 100 paths (the timing goal's) and 4 steps; z = 2, the switching threshold of
- * the grid 0 .. 3 whose worst true advantage over price-taking across settings and rules is highest
- * (no setting loses), ties to the highest total.
+ * (docs/scenario-bids.md, bench/scenarioBids/dayTrials.js): the curves' value did not change with the
+ * steps (2, 4, 8) and came closer to price-taking's with more planning paths (50 to 400) at a cost in
+ * time about proportional to them, so 100 paths (the timing goal's) and 4 steps; z = 2: on the bench
+ * days no setting or rule loses against price-taking at z = 1.5 or 2, some do below 1.5, and 2 is the
+ * more cautious of the two.
  */
 export const SCENARIO_DEFAULTS = Object.freeze({
   planningPaths: 100,
