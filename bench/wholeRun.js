@@ -10,14 +10,15 @@
 //   plan             `quantbid plan` of the demo day, cold (a new process), against `node -e 0`
 //                                                                                          goal: at most 3x
 //
-//   npm run build && node bench/wholeRun.js [--year 2026] [--rounds 7] [--baseline DIR]
+//   npm run build && node bench/wholeRun.js [--year 2026] [--rounds 7] [--baseline DIR] [--only plan,version]
 //
 // Each figure is a median wall time over --rounds rounds; each ratio is the median over the rounds of
 // the ratio within a round, with the lowest and highest round. Where Linux's /proc tells, the CPU time
 // of each process (user + system, 10 ms ticks) is given too, with the ratio of the medians: on a busy
 // machine wall times swing more than CPU times. --baseline DIR (another built checkout,
 // e.g. a worktree of the previous commit) times the same quantbid commands of DIR in the same rounds,
-// so that a change is measured before and after on the same machine at the same time.
+// so that a change is measured before and after on the same machine at the same time. --only times
+// some of the four (year, version, help, plan) and their references, nothing else.
 import { mkdtempSync, rmSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
@@ -30,6 +31,11 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const YEAR = option('year', '2026');
 const ROUNDS = Number(option('rounds', 7));
 const BASELINE = option('baseline', null);
+const ONLY = option('only', 'year,version,help,plan').split(',');
+const KEYS = { 'year backtest': 'year', '--version': 'version', 'backtest --help': 'help', plan: 'plan' };
+for (const key of ONLY) if (!Object.values(KEYS).includes(key)) throw new Error(`--only: ${key} is none of ${Object.values(KEYS).join(', ')}`);
+/** Whether the run `name` (a baseline's too) is timed. */
+const wanted = (name) => ONLY.includes(KEYS[name.replace(' (baseline)', '')] ?? '');
 
 /** Wall and CPU time of one process [ms] (CPU null where unknown); throws when it fails. */
 function timed(args) {
@@ -39,21 +45,23 @@ function timed(args) {
 
 const folder = mkdtempSync(join(tmpdir(), 'quantbid-whole-'));
 try {
-  const inputs = writeYearInputs(folder, YEAR);
+  // The year's inputs are written only when the year backtest is timed.
+  const inputs = ONLY.includes('year') ? writeYearInputs(folder, YEAR) : null;
   const out = join(folder, 'out');
   /** The quantbid processes of the checkout at `checkout`, named with `suffix`, writing into folders named with `tag`. */
   const quantbidRuns = (checkout, suffix, tag) => {
     const quantbid = join(checkout, 'bin', 'quantbid.js');
-    return {
-      [`year backtest${suffix}`]: [quantbid, 'backtest', '--scenario', inputs.scenarioPath, '--from', `${YEAR}-01-01`, '--to', `${YEAR}-12-31`, '--out', `${out}${tag}`, '--force', '--quiet'],
+    const all = {
+      [`year backtest${suffix}`]: inputs === null ? null : [quantbid, 'backtest', '--scenario', inputs.scenarioPath, '--from', `${YEAR}-01-01`, '--to', `${YEAR}-12-31`, '--out', `${out}${tag}`, '--force', '--quiet'],
       [`--version${suffix}`]: [quantbid, '--version'],
       [`backtest --help${suffix}`]: [quantbid, 'backtest', '--help'],
       [`plan${suffix}`]: [quantbid, 'plan', '--scenario', join(demoFolder, 'scenario.json'), '--out', join(folder, `plan${tag}`), '--force'],
     };
+    return Object.fromEntries(Object.entries(all).filter(([name]) => wanted(name)));
   };
   const runs = {
     'node -e 0': ['-e', '0'],
-    'plain read': [join(root, 'bench', 'lib', 'plainRead.js'), inputs.historyPath, inputs.forecastPath],
+    ...(ONLY.includes('year') ? { 'plain read': [join(root, 'bench', 'lib', 'plainRead.js'), inputs.historyPath, inputs.forecastPath] } : {}),
     ...quantbidRuns(root, '', ''),
     ...(BASELINE === null ? {} : quantbidRuns(BASELINE, ' (baseline)', '-baseline')),
   };
@@ -79,12 +87,12 @@ try {
     ['--version', 'node -e 0', 2],
     ['backtest --help', 'node -e 0', 2],
     ['plan', 'node -e 0', 3],
-  ].flatMap(([name, reference, goal]) => [[name, reference, goal], ...(BASELINE === null ? [] : [[`${name} (baseline)`, reference, goal]])]);
+  ].filter(([name]) => wanted(name)).flatMap(([name, reference, goal]) => [[name, reference, goal], ...(BASELINE === null ? [] : [[`${name} (baseline)`, reference, goal]])]);
   const mib = (path) => (statSync(path).size / 1048576).toFixed(1);
   console.log(`whole processes, Node start-up included, ${ROUNDS} interleaved rounds; year ${YEAR} of the demo market at 15 minutes,`);
-  console.log(`history ${mib(inputs.historyPath)} MiB, forecast ${mib(inputs.forecastPath)} MiB (19 levels); ledger.csv ${mib(join(out, 'ledger.csv'))} MiB written`);
+  if (ONLY.includes('year')) console.log(`history ${mib(inputs.historyPath)} MiB, forecast ${mib(inputs.forecastPath)} MiB (19 levels); ledger.csv ${mib(join(out, 'ledger.csv'))} MiB written`);
   if (BASELINE !== null) console.log(`baseline: the same commands of ${BASELINE}`);
-  for (const name of ['node -e 0', 'plain read']) console.log(`  ${name.padEnd(BASELINE === null ? 16 : 27)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall (reference${cpuNote(name)})`);
+  for (const name of ['node -e 0', 'plain read'].filter((n) => n in runs)) console.log(`  ${name.padEnd(BASELINE === null ? 16 : 27)} median ${median(times[name]).toFixed(0).padStart(6)} ms wall (reference${cpuNote(name)})`);
   for (const [name, reference, goal] of comparisons) {
     const ratios = times[name].map((ms, i) => ms / times[reference][i]);
     const ratio = median(ratios);

@@ -29,6 +29,18 @@ export interface ReadInputOptions {
  * errors that say what to do; only the first SNIFF_BYTES are read to tell.
  */
 export function readInputFile(path: string, options: ReadInputOptions = {}): string {
+  return checkedBytes(path, options).toString('utf8');
+}
+
+/**
+ * The bytes of a text input file after every check of readInputFile (UTF-8 included), not yet made a
+ * string: for a reader that looks at a small part of a large file (the rows of one day).
+ */
+export function readInputBytes(path: string, options: ReadInputOptions = {}): Uint8Array {
+  return checkedBytes(path, options);
+}
+
+function checkedBytes(path: string, options: ReadInputOptions): Buffer {
   const maxBytes = options.maxBytes ?? MAX_INPUT_BYTES;
   const size = checkedSize(path, maxBytes);
   const gzip = path.endsWith('.gz');
@@ -49,7 +61,7 @@ export function readInputFile(path: string, options: ReadInputOptions = {}): str
   const bytes = attempt(path, () => readFileSync(path));
   const plain = gzip ? gunzipBytes(path, bytes, maxBytes) : bytes;
   if (!isUtf8(plain)) throw new InputError([notUtf8Problem(path, plain)]);
-  return plain.toString('utf8');
+  return plain;
 }
 
 /**
@@ -142,11 +154,15 @@ export const MAX_INFLATION_RATIO = 100;
 /** Inflated size always allowed [bytes], whatever the ratio: a small file is cheap however it compresses. */
 export const INFLATION_FLOOR_BYTES = 16 * 1024 * 1024;
 
+/** Output chunk of the gzip decompression [bytes]. */
+const GUNZIP_CHUNK_BYTES = 1024 * 1024;
+
 function gunzipBytes(path: string, bytes: Buffer, maxBytes: number): Buffer {
   const byRatio = Math.max(INFLATION_FLOOR_BYTES, bytes.length * MAX_INFLATION_RATIO);
   const limit = Math.min(maxBytes, byRatio);
   try {
-    return gunzipSync(bytes, { maxOutputLength: limit });
+    // Output in chunks of a MiB, not 16 KiB: a tenth less work and far fewer buffers to join.
+    return gunzipSync(bytes, { maxOutputLength: limit, chunkSize: GUNZIP_CHUNK_BYTES });
   } catch (err) {
     if ((err as NodeJS.ErrnoException).code === 'ERR_BUFFER_TOO_LARGE' || err instanceof RangeError) {
       if (limit < maxBytes) {

@@ -2,7 +2,7 @@ import type { MarketSpec, QuantileDay } from '../types.js';
 import { DayCalendar, locatePeriod, type LocatedPeriod } from '../market/dayCalendar.js';
 import { rearrange } from '../forecast/quantileSet.js';
 import { isLevel, LEVEL_RANGE_TEXT } from '../forecast/quantiles/levels.js';
-import { ProblemList } from '../errors/inputError.js';
+import { ProblemList, type InputProblem } from '../errors/inputError.js';
 import { fieldCountProblem, hasOpenQuote, openQuoteProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
 import { PeriodLocator } from './periodLocator.js';
 import { PlainRow } from './plainRow.js';
@@ -32,11 +32,15 @@ export interface QuantileForecastFile {
  * from the first bytes, before the file is read whole.
  */
 export function readQuantileForecast(path: string, market: MarketSpec): QuantileForecastFile {
-  const firstLine = (line: string, lineNumber: number) => {
+  return parseQuantileForecast(readInputFile(path, { firstLine: quantileHeaderCheck(path) }), path, market);
+}
+
+/** The check of a forecast's header line from the file's first bytes (readInputFile's `firstLine`). */
+export function quantileHeaderCheck(path: string): (line: string, lineNumber: number) => readonly InputProblem[] {
+  return (line, lineNumber) => {
     const separator = separatorProblem(line, path, lineNumber);
     return separator === null ? readQuantileHeader(splitCsvLine(line), path, lineNumber).problems : [separator];
   };
-  return parseQuantileForecast(readInputFile(path, { firstLine }), path, market);
 }
 
 /**

@@ -145,9 +145,32 @@ describe('quantbid plan', () => {
     const args = ['plan', '--market', join(dir, 'market.json'), '--battery', join(dir, 'battery.json'), '--forecast', file];
     const clean = await run([...args, '--day', day, '--json']);
     expect(clean.stderr).not.toMatch(/crossing/);
-    expect((JSON.parse(clean.stdout) as { forecast: { repairedPeriodsInDay: number; repairedPeriodsInFile: number } }).forecast).toMatchObject({ repairedPeriodsInDay: 0, repairedPeriodsInFile: 2 });
+    // Only the planned day's rows are parsed (docs/design.md, plan.json): the other day's repairs are not counted.
+    const cleanForecast = (JSON.parse(clean.stdout) as { forecast: Record<string, unknown> }).forecast;
+    expect(Object.keys(cleanForecast)).toEqual(['levels', 'rowsChecked', 'checks', 'repairedPeriodsInDay', 'repairedExamples']);
+    expect(cleanForecast).toMatchObject({ rowsChecked: 'day', repairedPeriodsInDay: 0, repairedExamples: [] });
+    expect(cleanForecast.checks).toMatch(/the rows of 2027-03-28 \(the lines that hold its date\): .*; the rows of other days are not parsed$/);
     const crossed = await run([...args, '--day', next, '--json']);
     expect(crossed.stderr).toMatch(/note: .*two-days.csv: 2 of the 96 periods of 2027-03-29 had crossing quantiles, sorted into order/);
+    const crossedStarts = deliveryPeriods(next, 'Europe/Berlin', 15).slice(0, 2).map((p) => p.start);
+    expect((JSON.parse(crossed.stdout) as { forecast: unknown }).forecast).toMatchObject({ rowsChecked: 'day', repairedPeriodsInDay: 2, repairedExamples: crossedStarts });
+  });
+
+  it('parses only the planned day\'s rows: a bad row of another day does not stop the plan, a bad row of the day does, named by its line', async () => {
+    const next = '2027-03-29';
+    const rows = (d: string) => deliveryPeriods(d, 'Europe/Berlin', 15).map((p) => [p.start, 30, 40, 60, 70, 80].join(','));
+    const nextRows = rows(next);
+    nextRows[5] = (nextRows[5] as string).replace(',60,', ',sixty,');
+    const file = join(dir, 'bad-other-day.csv');
+    writeFileSync(file, `${['period_start,q0.05,q0.1,q0.5,q0.9,q0.95', ...rows(day), ...nextRows].join('\n')}\n`);
+    const args = ['plan', '--market', join(dir, 'market.json'), '--battery', join(dir, 'battery.json'), '--forecast', file];
+    const planned = await run([...args, '--day', day, '--json']);
+    expect(planned.code).toBe(0);
+    expect((JSON.parse(planned.stdout) as { forecast: { rowsChecked: string } }).forecast.rowsChecked).toBe('day');
+    // The bad row is line 1 (header) + 92 rows of the spring day + 6: line 99.
+    const refused = await run([...args, '--day', next]);
+    expect(refused.code).toBe(2);
+    expect(refused.stderr).toContain(`${file}:99: q0.5: "sixty" is not a number; give a decimal number with a dot, e.g. 42.5`);
   });
 });
 

@@ -1,4 +1,4 @@
-import type { QuantileForecastFile } from '../../io/readQuantileForecast.js';
+import type { QuantileForecastForDay } from '../../io/readQuantileForecastDay.js';
 import type { BatteryModel, MarketSpec, Order, PlanPolicy, QuantileDay } from '../../types.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import { imbalanceExpectationText } from '../../plan/imbalanceExpectation.js';
@@ -83,7 +83,7 @@ export interface PlanSummaryContext {
   readonly alpha: number;
   readonly paths: Record<'market' | 'battery' | 'forecast', string> & { readonly history?: string };
   readonly market: MarketSpec;
-  readonly forecastFile: QuantileForecastFile;
+  readonly forecastFile: QuantileForecastForDay;
   readonly worth: PlanWorth;
   /** The price-taking plan of the same day, valued the same way; null for price-taking itself. */
   readonly baseline: PlanWorth | null;
@@ -134,12 +134,23 @@ export function planSummary(result: OptimalPlan, context: PlanSummaryContext) {
     ...roundingPart(result),
     forecast: {
       levels: context.forecastFile.levels,
+      rowsChecked: context.forecastFile.rowsChecked,
+      checks: forecastChecks(context.forecastFile.rowsChecked, context.day),
       repairedPeriodsInDay: context.forecastFile.repairedByDay.get(context.day)?.periods ?? 0,
-      repairedPeriodsInFile: context.forecastFile.repairedPeriods,
-      repairedExamples: context.forecastFile.repairedExamples,
+      // The day's first repaired periods (up to five); the rows of other days are not read.
+      repairedExamples: context.forecastFile.repairedExamples.filter((start) => start.startsWith(context.day)),
     },
     valueConventions: { ...PLAN_VALUE_CONVENTIONS },
   };
+}
+
+/** What plan.json's `forecast.checks` says was checked of the forecast file, by `rowsChecked`. */
+function forecastChecks(rowsChecked: QuantileForecastForDay['rowsChecked'], day: string): string {
+  const file = 'the file as a file (size, compression, UTF-8 text) and its header';
+  const row = "every price a number inside the market's [priceFloor, priceCap], every period_start a period start with the zone's offset, each period once";
+  return rowsChecked === 'day'
+    ? `${file}; the rows of ${day} (the lines that hold its date): ${row}; the rows of other days are not parsed`
+    : `${file}; every row: ${row}`;
 }
 
 /** plan.json's `rounding` when the market has order steps (no key without them, so plan.json is as before). */

@@ -2,7 +2,7 @@ import { z } from 'zod';
 import { batteryModel } from '../../battery/batterySpec.js';
 import { gatherProblems, InputError, throwIfProblems, type InputProblem } from '../../errors/inputError.js';
 import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
-import { readQuantileForecast, type QuantileForecastFile } from '../../io/readQuantileForecast.js';
+import { readQuantileForecastDay, type QuantileForecastForDay } from '../../io/readQuantileForecastDay.js';
 import { readPriceHistory } from '../../io/readPriceHistory.js';
 import { readBatterySpec, readMarketSpec } from '../../io/readSpecs.js';
 import type { OutputLock } from '../../io/outputLock.js';
@@ -97,7 +97,7 @@ function planDayRun(
   tools: PlanTools,
 ): Done<PlanSummary> {
   const { paths, day, outputs } = run;
-  const { market, battery, forecastFile } = readPlanInputs(paths, (text) => hooks.note(text));
+  const { market, battery, forecastFile } = readPlanInputs(paths, day, (text) => hooks.note(text));
   const forecast = forecastDay(forecastFile, day, market.timeZone);
   const socStartMwh = s.socStartMwh ?? battery.socInitialMwh;
   if (socStartMwh > battery.energyMwh) {
@@ -158,20 +158,20 @@ function baselineWorth(request: Omit<Parameters<typeof planDay>[0], 'policy'>, i
 }
 
 /**
- * The market spec, the battery and the forecast (which needs the market). Every file is read even when
- * one before it has problems, and all problems are thrown together. `note` hears of an old field name
- * read under its new one.
+ * The market spec, the battery and the forecast of `day` (which needs the market; only the day's rows
+ * are parsed when they are sound). Every file is read even when one before it has problems, and all
+ * problems are thrown together. `note` hears of an old field name read under its new one.
  */
-function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>, note: (text: string) => void): { market: MarketSpec; battery: BatteryModel; forecastFile: QuantileForecastFile } {
+function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>, day: string, note: (text: string) => void): { market: MarketSpec; battery: BatteryModel; forecastFile: QuantileForecastForDay } {
   const problems: InputProblem[] = [];
   const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
   const spec = gatherProblems(problems, () => readBatterySpec(paths.battery));
-  const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecast(paths.forecast, market));
+  const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecastDay(paths.forecast, market, day));
   if (market === undefined || spec === undefined || forecastFile === undefined) throw new InputError(problems);
   return { market, battery: batteryModel(spec), forecastFile };
 }
 
-function forecastDay(file: QuantileForecastFile, day: string, timeZone: string): QuantileDay {
+function forecastDay(file: QuantileForecastForDay, day: string, timeZone: string): QuantileDay {
   const found = file.days.get(day);
   if (found !== undefined) return found;
   if (isSkippedDay(day, timeZone)) {
