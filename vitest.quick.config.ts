@@ -18,6 +18,8 @@ export const SLOW_OR_SPAWNING = [
   'test/cli/sweepCommand.test.ts',
   'test/cli/sizeCommand.test.ts',
   'test/cli/modelForecast.test.ts',
+  'test/cli/scenarioPolicies.test.ts',
+  'test/cli/forecastPathsToAuto.test.ts',
   'test/grid/runGrid.test.ts',
   'test/grid/killResume.test.ts',
   'test/hardening/killedRuns.test.ts',

@@ -6,10 +6,16 @@
 import { join } from 'node:path';
 import { SWEEP_POLICIES } from '../backtest/backtestPolicy.js';
 import { DEFAULT_METHOD, DEFAULT_PATH_SEED } from '../forecast/forecastMethods.js';
+import { PLAN_POLICIES } from '../plan/alpha.js';
+import type { UnacceptedRule } from '../settle/unacceptedRule.js';
 import type { PlanPolicy } from '../types.js';
 
-/** Defaults of `quantbid plan`: the quantile policy at alpha 0.1. */
-export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanPolicy });
+/** The policies of `quantbid plan`: the schedule policies, and curve and auto on whole-day scenarios. */
+export const PLAN_COMMAND_POLICIES = Object.freeze([...PLAN_POLICIES, 'curve', 'auto'] as const);
+export type PlanCommandPolicy = PlanPolicy | 'curve' | 'auto';
+
+/** Defaults of `quantbid plan`: the quantile policy at alpha 0.1; curve and auto score their candidates under follow-plan. */
+export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanCommandPolicy, unaccepted: 'follow-plan' as UnacceptedRule });
 
 /** Defaults of `quantbid forecast`: the method of docs/forecast-quality.md, 19 levels, no paths, path seed 1. */
 export const FORECAST_DEFAULTS = Object.freeze({ method: DEFAULT_METHOD, paths: 0, pathSeed: DEFAULT_PATH_SEED });
@@ -24,7 +30,7 @@ export const DEFAULT_FORECAST_CACHE_DIR = join('.quantbid-cache', 'forecasts');
 export const MODEL_DEFAULTS = Object.freeze({ levels: DEFAULT_LEVELS_TEXT, cacheDir: DEFAULT_FORECAST_CACHE_DIR });
 
 /** Defaults of the axes as written in the help: alphas the demo forecast's levels (0.05 to 0.95) allow, both alpha policies, follow-plan. */
-export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: SWEEP_POLICIES.join(','), unaccepted: 'follow-plan' });
+export const SWEEP_DEFAULTS = Object.freeze({ alphas: '0.05:0.45:0.05', policies: SWEEP_POLICIES.filter((p) => p === 'quantile' || p === 'median').join(','), unaccepted: 'follow-plan' });
 
 /** Defaults of `quantbid size`: the quantile policy at alpha 0.1, the grid of `--alpha best`, follow-plan, no fixed O&M. */
 export const SIZE_DEFAULTS = Object.freeze({

@@ -56,6 +56,8 @@ export interface GridCommand<Axes extends readonly GridAxis[], Input, Row extend
   /** What decides the rows besides the axes, inputs and task (fingerprinted with the command and version). */
   readonly identity: Readonly<Record<string, unknown>>;
   readonly paths: BacktestInputPaths;
+  /** Input files besides those of `paths` whose bytes decide the rows (the paths file of curve and auto). */
+  readonly moreInputFiles?: readonly string[];
   /** The forecasts --model made, or undefined. */
   readonly model: ModelForecast | undefined;
   readonly summary: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => Summary;
@@ -87,7 +89,7 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
     taskModule: spec.taskModule,
     contextInput: spec.contextInput,
     identity: { command: spec.command, version: packageVersion(), ...spec.identity, ...(model === undefined ? {} : { forecastModel: model.identity }) },
-    inputFiles: gridInputFiles(spec.paths),
+    inputFiles: [...gridInputFiles(spec.paths), ...(spec.moreInputFiles ?? [])],
     ...(run.threads === undefined ? {} : { threads: run.threads }),
     restart: run.restart,
     force: run.force,

@@ -108,6 +108,10 @@ export const RUN_LIMITS = Object.freeze({
   lifeCycles: [100, 1_000_000],
   discountRate: [-0.5, 1],
   threads: [1, 1024],
+  /** Paths the curves are planned on (curve, auto). */
+  planningPaths: [2, 10_000],
+  /** lambda of mean + lambda x CVaR 5 % (curve, auto). */
+  riskWeight: [0, 1000],
 } as const satisfies Record<string, readonly [number, number]>);
 
 /** Longest span of delivery days a run may cover [years]: ten years of quarter-hours are 350,000 periods. */

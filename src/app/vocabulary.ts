@@ -8,6 +8,7 @@ export { BACKTEST_DEFAULTS } from '../backtest/backtestOptions.js';
 export { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, FORECAST_METHODS, MAX_PATHS, type ForecastMethod } from '../forecast/forecastMethods.js';
 export { isValidDay } from '../market/civilDays.js';
 export { LEVEL_RANGE_TEXT } from '../forecast/quantiles/levels.js';
+export { SCENARIO_DEFAULTS } from '../backtest/scenarioPlanning.js';
 export { ALPHA_RANGE, ALPHA_RULE, isAlpha, PLAN_POLICIES } from '../plan/alpha.js';
 export { UNACCEPTED_RULES, type UnacceptedRule } from '../settle/unacceptedRule.js';
 export { SIZE_POLICIES } from '../sizing/sizePolicy.js';

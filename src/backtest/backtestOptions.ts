@@ -1,7 +1,8 @@
 import type { SolveDayOptions } from '../plan/solveDay.js';
 import type { UnacceptedRule } from '../settle/unacceptedRule.js';
-import { BACKTEST_POLICIES, type BacktestPolicy } from './backtestPolicy.js';
+import { DEFAULT_BACKTEST_POLICIES, type BacktestPolicy } from './backtestPolicy.js';
 import type { BacktestDay } from './runBacktest.js';
+import type { ScenarioPlanning } from './scenarioPlanning.js';
 
 /** Options of runBacktest, merged over BACKTEST_DEFAULTS. */
 export interface BacktestOptions {
@@ -9,7 +10,7 @@ export interface BacktestOptions {
   readonly alpha: number;
   /** What the battery does about unaccepted orders. Default `follow-plan`. */
   readonly unaccepted: UnacceptedRule;
-  /** Policies to run side by side, in this order. Default all five. */
+  /** Policies to run side by side, in this order. Default the five that need no scenarios (DEFAULT_BACKTEST_POLICIES). */
   readonly policies: readonly BacktestPolicy[];
   /** Keep every period's orders and settlement (for ledger.csv); a sweep turns it off. Default true. */
   readonly keepLedger: boolean;
@@ -26,14 +27,17 @@ export interface BacktestOptions {
    * quarter-hours and five policies are 1.75 million settled periods). Default none.
    */
   readonly onLedgerDay: ((day: BacktestDay) => void) | null;
+  /** Paths, solver and settings of the `curve` and `auto` policies; null when neither runs. Default null. */
+  readonly scenarioPlanning: ScenarioPlanning | null;
 }
 
 export const BACKTEST_DEFAULTS: BacktestOptions = Object.freeze({
   alpha: 0.1,
   unaccepted: 'follow-plan',
-  policies: BACKTEST_POLICIES,
+  policies: DEFAULT_BACKTEST_POLICIES,
   keepLedger: true,
   solveOptions: Object.freeze({}),
   onDay: null,
   onLedgerDay: null,
+  scenarioPlanning: null,
 });

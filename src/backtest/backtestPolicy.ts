@@ -5,14 +5,22 @@
  * - `point`: schedule and limits on the median;
  * - `price-taking`: schedule on the median, buy limits at the price cap and sell limits at the floor, so
  *   every order is accepted;
- * - `perfect-foresight`: schedule on the realised prices, every order accepted: the upper bound.
+ * - `perfect-foresight`: schedule on the realised prices, every order accepted: the upper bound;
+ * - `curve`: per period a monotone bid curve chosen on whole-day scenarios by the two-stage program
+ *   (curves/planCurves.ts), or price-taking's flat bids where the curves do not do better on them;
+ * - `auto`: each day, every candidate (price-taking, point, quantile and median over an alpha grid,
+ *   curve) scored on fresh scenarios, the best submitted (autoChoice.ts).
  */
-export type BacktestPolicy = 'quantile' | 'median' | 'point' | 'price-taking' | 'perfect-foresight';
+export type BacktestPolicy = 'quantile' | 'median' | 'point' | 'price-taking' | 'perfect-foresight' | 'curve' | 'auto';
 
-export const BACKTEST_POLICIES: readonly BacktestPolicy[] = Object.freeze(['quantile', 'median', 'point', 'price-taking', 'perfect-foresight']);
+/** Every policy, in the order outputs list them. */
+export const BACKTEST_POLICIES: readonly BacktestPolicy[] = Object.freeze(['quantile', 'median', 'point', 'price-taking', 'perfect-foresight', 'curve', 'auto']);
+
+/** The policies a backtest runs when none are named: those that need no scenarios. */
+export const DEFAULT_BACKTEST_POLICIES: readonly BacktestPolicy[] = Object.freeze(['quantile', 'median', 'point', 'price-taking', 'perfect-foresight']);
 
 /** Policies a sweep varies alpha for: the two whose orders depend on it. */
-export const SWEEP_POLICIES = Object.freeze(['quantile', 'median'] as const);
+export const SWEEP_POLICIES = Object.freeze(['quantile', 'median', 'curve', 'auto'] as const);
 export type SweepPolicy = (typeof SWEEP_POLICIES)[number];
 
 /**
@@ -23,7 +31,12 @@ export function readsAlpha(policy: BacktestPolicy): policy is 'quantile' | 'medi
   return policy === 'quantile' || policy === 'median';
 }
 
-/** Whether a policy reads the forecast's median: median, point and price-taking schedule on it. */
+/** Whether a policy reads the forecast's median: median, point, price-taking, curve and auto do. */
 export function readsMedian(policy: BacktestPolicy): boolean {
-  return policy === 'median' || policy === 'point' || policy === 'price-taking';
+  return policy === 'median' || policy === 'point' || policy === 'price-taking' || usesScenarios(policy);
+}
+
+/** Whether a policy plans on whole-day scenarios (and so needs paths and the LP solver). */
+export function usesScenarios(policy: BacktestPolicy): policy is 'curve' | 'auto' {
+  return policy === 'curve' || policy === 'auto';
 }

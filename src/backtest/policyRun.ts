@@ -1,6 +1,7 @@
 import type { UnacceptedRule } from '../settle/settleDay.js';
 import type { BacktestPolicy } from './backtestPolicy.js';
 import { runBacktest, type BacktestInput, type PolicyDay } from './runBacktest.js';
+import type { ScenarioPlanning } from './scenarioPlanning.js';
 
 /** One policy replayed alone over a backtest's days, without a ledger. */
 export interface PolicyRun {
@@ -20,6 +21,8 @@ export interface PolicyRunOptions {
   /** Tail level of the quantile and median policies, in (0, 0.5); ignored by the others. */
   readonly alpha: number;
   readonly unaccepted: UnacceptedRule;
+  /** Paths, solver and settings of the `curve` and `auto` policies; needed by them alone. */
+  readonly scenarioPlanning?: ScenarioPlanning | null;
 }
 
 /**
@@ -29,7 +32,7 @@ export interface PolicyRunOptions {
  * days: their daily profits pair up day by day.
  */
 export function runPolicy(input: BacktestInput, policy: BacktestPolicy, options: PolicyRunOptions): PolicyRun {
-  const result = runBacktest(input, { policies: [policy], alpha: options.alpha, unaccepted: options.unaccepted, keepLedger: false });
+  const result = runBacktest(input, { policies: [policy], alpha: options.alpha, unaccepted: options.unaccepted, keepLedger: false, scenarioPlanning: options.scenarioPlanning ?? null });
   const runs = result.days.map((day) => day.runs[0] as PolicyDay);
   const dailyProfit = runs.map((run) => run.totals.profit);
   return {

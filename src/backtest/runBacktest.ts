@@ -1,11 +1,13 @@
-import type { BatteryModel, DeliveryPeriod, HistoryDay, MarketSpec, Order, PriceHistory, QuantileDay } from '../types.js';
+import type { BatteryModel, DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory, QuantileDay } from '../types.js';
 import { daysBetween } from '../market/calendar.js';
 import { chooseImbalanceSource, dayImbalancePrices, NoImbalancePriceError, type ImbalancePrices, type ImbalanceSource } from '../settle/imbalancePrices.js';
 import { settleDay, type SettledPeriod, type UnacceptedRule } from '../settle/settleDay.js';
 import type { SettlementTotals } from '../settle/settlementTotals.js';
 import type { BacktestPolicy } from './backtestPolicy.js';
 import { BACKTEST_DEFAULTS, type BacktestOptions } from './backtestOptions.js';
-import { planPolicyDay, type PlanFailure } from './planPolicyDay.js';
+import type { DayBid } from './dayBid.js';
+import { planPolicyDay, type PlanFailure, type ScenarioReport } from './planPolicyDay.js';
+import type { DayScenarios } from './scenarioPlanning.js';
 
 export { BACKTEST_DEFAULTS, type BacktestOptions } from './backtestOptions.js';
 
@@ -33,11 +35,15 @@ export interface PolicyDay {
   readonly planReason: string | null;
   /** Objective of the plan at the prices it was scheduled on [currency]; null without a plan. */
   readonly plannedValue: number | null;
+  /** `curves` when the day's bids were curves (settled by what cleared); null without a plan. */
+  readonly bidKind: 'schedule' | 'curves' | null;
+  /** What `curve` and `auto` saw on the day's scenarios; null for the other policies. */
+  readonly scenarioReport: ScenarioReport | null;
   readonly socStartMwh: number;
   readonly socEndMwh: number;
   readonly totals: SettlementTotals;
   /** Orders and per-period settlement, when the ledger is kept. */
-  readonly ledger: { readonly orders: readonly (Order | null)[]; readonly periods: readonly SettledPeriod[] } | null;
+  readonly ledger: { readonly orders: readonly DayBid[]; readonly periods: readonly SettledPeriod[] } | null;
 }
 
 /** One covered delivery day: realised prices and every policy's result, in the options' policy order. */
@@ -127,9 +133,17 @@ function runDay(
     throw new RangeError(`day ${realised.day}: the forecast has ${forecast.periods.length} periods, the history ${realised.periods.length}`);
   }
   const imbalance = dayImbalancePrices(realised, imbalanceSource);
+  // One set of scenarios per day, made when the first policy asks, shared by curve and auto.
+  const planning = settings.scenarioPlanning;
+  let made: DayScenarios | undefined;
+  const scenarios = planning === null ? null : (): DayScenarios => (made ??= planning.scenarios(forecast));
   const runs = settings.policies.map((policy): PolicyDay => {
     const socStartMwh = soc.get(policy) as number;
-    const plan = planPolicyDay({ policy, forecast, realised, market, battery, alpha: settings.alpha, socStartMwh, solveOptions: settings.solveOptions });
+    const plan = planPolicyDay({
+      policy, forecast, realised, market, battery, alpha: settings.alpha, socStartMwh, solveOptions: settings.solveOptions,
+      unaccepted: settings.unaccepted, scenarioPlanning: planning, scenarios,
+    });
+    const optimal = plan.status === 'optimal';
     const keepLedger = settings.keepLedger || settings.onLedgerDay !== null;
     const settled = settleDay({
       keepPeriods: keepLedger,
@@ -139,14 +153,17 @@ function runDay(
       orders: plan.orders,
       clearingPricePerMwh: realised.pricePerMwh,
       imbalance,
-      unaccepted: settings.unaccepted,
+      // A curve has no schedule apart from what clears: it is settled by what cleared under either rule.
+      unaccepted: optimal && plan.kind === 'curves' ? 'follow-accepted' : settings.unaccepted,
     });
     soc.set(policy, settled.socEndMwh);
     return {
       policy,
       planStatus: plan.status,
       planReason: plan.status === 'optimal' ? null : plan.reason,
-      plannedValue: plan.status === 'optimal' ? plan.plannedValue : null,
+      plannedValue: optimal ? plan.plannedValue : null,
+      bidKind: optimal ? plan.kind : null,
+      scenarioReport: optimal ? plan.scenarioReport : null,
       socStartMwh,
       socEndMwh: settled.socEndMwh,
       totals: settled.totals,

@@ -1,10 +1,11 @@
 import type { UnacceptedRule } from '../settle/settleDay.js';
 import { smallPValueText } from '../stats/smallPValue.js';
-import type { BacktestPolicy } from './backtestPolicy.js';
+import { readsAlpha, type BacktestPolicy } from './backtestPolicy.js';
 import { edgeTest, type EdgeTest } from './edgeTest.js';
 import { policyMetrics } from './policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from './policyRun.js';
 import type { BacktestInput } from './runBacktest.js';
+import type { ScenarioPlanning } from './scenarioPlanning.js';
 import type { SweepPolicy } from './backtestPolicy.js';
 
 export { SWEEP_POLICIES, type SweepPolicy } from './backtestPolicy.js';
@@ -76,10 +77,15 @@ const UNUSED_ALPHA = 0.1;
  * The row of one sweep setting. The setting's policy is run on its own; the references (perfect
  * foresight, point, price-taking) do not depend on alpha or on the swept policy, so they are run once
  * per `unaccepted` rule and kept in `memo` (the task's context), which changes no value
- * (runPolicy.ts: policies do not interact).
+ * (runPolicy.ts: policies do not interact); so are curve and auto, which ignore alpha.
+ * `scenarioPlanning` is needed by curve and auto alone.
  */
-export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, memo: RunMemo<PolicyRun>): SweepRow {
-  return rowOf(input, runPolicy(input, setting.policy, setting), setting.unaccepted, memo);
+export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, memo: RunMemo<PolicyRun>, scenarioPlanning: ScenarioPlanning | null = null): SweepRow {
+  const { policy, unaccepted } = setting;
+  const run = readsAlpha(policy)
+    ? runPolicy(input, policy, setting)
+    : memo.get(`${policy}|${unaccepted}`, () => runPolicy(input, policy, { alpha: UNUSED_ALPHA, unaccepted, scenarioPlanning }));
+  return rowOf(input, run, unaccepted, memo);
 }
 
 /**

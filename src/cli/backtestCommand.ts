@@ -16,12 +16,15 @@ import {
   requireSpanAndOut,
   spanOptions,
   unacceptedOption,
+  addScenarioOptions,
+  scenarioSettings,
   type InputFlags,
   type ModelFlags,
+  type ScenarioFlags,
 } from './options.js';
 import { printResult } from './printResult.js';
 
-export interface BacktestFlags extends InputFlags, ModelFlags {
+export interface BacktestFlags extends InputFlags, ModelFlags, ScenarioFlags {
   readonly from?: string;
   readonly to?: string;
   readonly alpha: number;
@@ -52,7 +55,8 @@ export function backtestCommand(io: CliIo): Command {
     .addOption(to)
     .addOption(alphaOption('tail level of the quantile and median policies: buys limited at q(1-alpha), sells at q(alpha); [q(alpha), q(1-alpha)] covers 1 - 2 alpha', BACKTEST_DEFAULTS.alpha))
     .addOption(unacceptedOption('unaccepted orders: follow-plan (close them at the imbalance price) | follow-accepted (move only with accepted orders)', BACKTEST_DEFAULTS.unaccepted))
-    .addOption(new Option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}; the first other than perfect-foresight is the one tested`).argParser(parsePoliciesArg).default([...BACKTEST_DEFAULTS.policies], 'all five'))
+    .addOption(new Option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}; the first other than perfect-foresight is the one tested; curve and auto plan on --paths`).argParser(parsePoliciesArg).default([...BACKTEST_DEFAULTS.policies], 'all five'))
+  addScenarioOptions(command)
     .addOption(outOption('folder for ledger.csv, days.csv and summary.json (required)'))
     .addOption(reportOption('also write report.html into --out: cumulative profit, daily profit, acceptance, imbalance energy, month table'))
     .addOption(quietOption())
@@ -81,11 +85,16 @@ Examples:
                     --out runs/june --json
   quantbid backtest --scenario scenarios/halvorn/scenario.json \\
                     --from 2026-03-01 --to 2026-03-31 \\
-                    --model arx-hs --levels 0.05:0.95:0.05 --out runs/march-arx`,
+                    --model arx-hs --levels 0.05:0.95:0.05 --out runs/march-arx
+  quantbid backtest --scenario scenarios/halvorn/scenario.json \\
+                    --from 2026-12-01 --to 2026-12-07 \\
+                    --policies price-taking,auto --paths runs/fc/paths.csv \\
+                    --out runs/auto`,
   );
   command.action(async (flags: BacktestFlags) => {
     const span = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'ledger.csv, days.csv and summary.json' });
     const model = modelSettings(flags);
+    const scenarios = scenarioSettings(flags);
     const settings = {
       inputs: inputSources(flags),
       ...(model === undefined ? {} : { model }),
@@ -93,11 +102,15 @@ Examples:
       alpha: flags.alpha,
       unaccepted: flags.unaccepted,
       policies: [...flags.policies],
+      ...(scenarios === undefined ? {} : { scenarios }),
       force: flags.force === true,
       report: flags.report === true,
     };
     const { backtestUseCase } = await import('../app/backtest/backtestUseCase.js');
-    printResult(io, backtestUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
+    // HiGHS is loaded only when a policy plans on scenarios.
+    const onScenarios = scenarios !== undefined && flags.policies.some((p) => p === 'curve' || p === 'auto');
+    const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
+    printResult(io, backtestUseCase(settings, cliHooks(io, flags.quiet === true), tools), flags.json === true);
   });
   return command;
 }

@@ -11,7 +11,8 @@ import type { InputName } from '../app/inputFiles.js';
 import { MODEL_DEFAULTS } from '../app/commandDefaults.js';
 import { decimalOf, levelsFromText, outFolderProblem, pathProblem, rangeProblem, RUN_LIMITS, spanProblem } from '../app/settingRules.js';
 import type { InputSources, ModelSettings } from '../app/settingSchemas.js';
-import { ALPHA_RULE, FORECAST_METHODS, isAlpha, isValidDay, UNACCEPTED_RULES, type ForecastMethod, type UnacceptedRule } from '../app/vocabulary.js';
+import type { ScenarioSettingsInput } from '../app/scenarios/scenarioSettings.js';
+import { ALPHA_RULE, FORECAST_METHODS, isAlpha, isValidDay, SCENARIO_DEFAULTS, UNACCEPTED_RULES, type ForecastMethod, type UnacceptedRule } from '../app/vocabulary.js';
 
 // ---- value parsers ----
 
@@ -210,4 +211,32 @@ export function requireSpanAndOut(
   if (span !== null) problems.push({ file: 'command line', field: '--to', message: span, fix: from > to ? 'give a --to on or after --from' : 'give --from and --to within the data and closer together' });
   if (problems.length > 0) throw new InputError(problems);
   return { from, to, out };
+}
+
+/** The options of the curve and auto policies. */
+export interface ScenarioFlags {
+  /** `--paths FILE`: whole-day price paths per day. */
+  readonly paths?: string;
+  /** `--planning-paths N`. */
+  readonly planningPaths?: number;
+  /** `--risk-weight X`. */
+  readonly riskWeight?: number;
+}
+
+/** Adds --paths, --planning-paths and --risk-weight (the policies curve and auto). */
+export function addScenarioOptions(command: Command): Command {
+  return command
+    .option('--paths <file>', 'with --policy curve or auto: whole-day price paths per day, period_start,path,price (quantbid forecast --paths 364 writes them)', pathArg)
+    .option('--planning-paths <n>', `paths the curves are planned on; the day's other paths score every candidate (default ${SCENARIO_DEFAULTS.planningPaths})`, rangeArg(RUN_LIMITS.planningPaths, '100', true))
+    .option('--risk-weight <x>', `lambda >= 0: choose by mean profit + lambda x CVaR 5 % (the mean of the worst 5 % of paths) (default ${SCENARIO_DEFAULTS.riskWeight})`, rangeArg(RUN_LIMITS.riskWeight, '0.5'));
+}
+
+/** The scenario settings of the flags; options without --paths are a problem. */
+export function scenarioSettings(flags: ScenarioFlags): ScenarioSettingsInput | undefined {
+  if (flags.paths === undefined) {
+    const stray = flags.planningPaths !== undefined ? '--planning-paths' : flags.riskWeight !== undefined ? '--risk-weight' : null;
+    if (stray !== null) throw new InputError([{ file: 'command line', field: stray, message: 'is used only with --paths (the policies curve and auto)', fix: 'add --paths FILE, or leave the option out' }]);
+    return undefined;
+  }
+  return { paths: flags.paths, ...(flags.planningPaths === undefined ? {} : { planningPaths: flags.planningPaths }), ...(flags.riskWeight === undefined ? {} : { riskWeight: flags.riskWeight }) };
 }

@@ -1,16 +1,33 @@
 import { Command } from 'commander';
-import { PLAN_DEFAULTS } from '../app/commandDefaults.js';
-import { PLAN_POLICIES, type PlanPolicy } from '../app/vocabulary.js';
+import { PLAN_COMMAND_POLICIES, PLAN_DEFAULTS, type PlanCommandPolicy } from '../app/commandDefaults.js';
+import type { UnacceptedRule } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { RUN_LIMITS } from '../app/settingRules.js';
-import { addInputOptions, alphaOption, dayArg, forceOption, inputSources, jsonOption, oneOf, outOption, rangeArg, reportOption, type InputFlags } from './options.js';
+import {
+  addInputOptions,
+  addScenarioOptions,
+  alphaOption,
+  dayArg,
+  forceOption,
+  inputSources,
+  jsonOption,
+  oneOf,
+  outOption,
+  rangeArg,
+  reportOption,
+  scenarioSettings,
+  unacceptedOption,
+  type InputFlags,
+  type ScenarioFlags,
+} from './options.js';
 import { printResult } from './printResult.js';
 
-export interface PlanFlags extends InputFlags {
+export interface PlanFlags extends InputFlags, ScenarioFlags {
   readonly day?: string;
   readonly alpha: number;
-  readonly policy: PlanPolicy;
+  readonly policy: PlanCommandPolicy;
+  readonly unaccepted: UnacceptedRule;
   readonly socStart?: number;
   readonly out?: string;
   readonly force?: boolean;
@@ -23,8 +40,10 @@ export function planCommand(io: CliIo): Command {
     .description('plan one delivery day: orders (buy/sell, quantity, limit price) and a schedule from a quantile forecast')
     .option('--day <YYYY-MM-DD>', 'delivery day to plan (default: the scenario\'s demoDay)', dayArg)
     .addOption(alphaOption('tail level: buys limited at q(1-alpha), sells at q(alpha); the interval [q(alpha), q(1-alpha)] covers 1 - 2 alpha', PLAN_DEFAULTS.alpha))
-    .option('--policy <name>', `${PLAN_POLICIES.join(' | ')} (price-taking: the median schedule with limits at the price cap and floor, the baseline every plan is compared with)`, oneOf<PlanPolicy>(PLAN_POLICIES), PLAN_DEFAULTS.policy)
-    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh); outside the window: a warning, and the plan comes back into it at full power', rangeArg(RUN_LIMITS.socStartMwh, '5'))
+    .option('--policy <name>', `${PLAN_COMMAND_POLICIES.join(' | ')} (price-taking: the median schedule with limits at the price cap and floor, the baseline every plan is compared with; curve and auto plan on --paths)`, oneOf<PlanCommandPolicy>(PLAN_COMMAND_POLICIES), PLAN_DEFAULTS.policy)
+    .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh); outside the window: a warning, and the plan comes back into it at full power', rangeArg(RUN_LIMITS.socStartMwh, '5'));
+  addScenarioOptions(command)
+    .addOption(unacceptedOption('with curve or auto: what the battery does about unaccepted orders, follow-plan | follow-accepted', PLAN_DEFAULTS.unaccepted))
     .addOption(outOption('folder for orders.csv, schedule.csv and plan.json'))
     .addOption(reportOption('also write report.html into --out: forecast fan with the limit prices, schedule charts, orders table'))
     .addOption(forceOption())
@@ -46,21 +65,30 @@ Examples:
                 --forecast quantiles.csv --day 2027-03-28 --alpha 0.1 \\
                 --out plans/2027-03-28
   quantbid plan --scenario scenarios/halvorn/scenario.json --policy median \\
-                --alpha 0.2 --json`,
+                --alpha 0.2 --json
+  quantbid plan --scenario scenarios/halvorn/scenario.json --day 2027-01-01 \\
+                --policy auto --paths runs/fc/paths.csv \\
+                --unaccepted follow-accepted --out plans/auto`,
   );
   command.action(async (flags: PlanFlags) => {
+    const scenarios = scenarioSettings(flags);
     const settings = {
       inputs: inputSources(flags),
       ...(flags.day === undefined ? {} : { day: flags.day }),
       alpha: flags.alpha,
       policy: flags.policy,
+      unaccepted: flags.unaccepted,
+      ...(scenarios === undefined ? {} : { scenarios }),
       ...(flags.socStart === undefined ? {} : { socStartMwh: flags.socStart }),
       ...(flags.out === undefined ? {} : { out: flags.out }),
       force: flags.force === true,
       report: flags.report === true,
     };
     const { planUseCase } = await import('../app/plan/planUseCase.js');
-    printResult(io, planUseCase(settings, cliHooks(io, false)), flags.json === true);
+    // HiGHS is loaded only for the policies that plan on scenarios: other plans never pay its start-up.
+    const onScenarios = (flags.policy === 'curve' || flags.policy === 'auto') && scenarios !== undefined;
+    const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
+    printResult(io, planUseCase(settings, cliHooks(io, false), tools), flags.json === true);
   });
   return command;
 }

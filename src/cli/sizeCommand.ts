@@ -7,11 +7,11 @@ import { ALPHA_RANGE, SIZE_POLICIES, UNACCEPTED_RULES, type UnacceptedRule } fro
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { RUN_LIMITS } from '../app/settingRules.js';
-import { addGridOptions, addInputOptions, addModelOptions, alphaArg, oneOf, rangeArg, reportOption, requireSpanAndOut, type InputFlags, type ModelFlags } from './options.js';
+import { addGridOptions, addInputOptions, addModelOptions, addScenarioOptions, alphaArg, oneOf, rangeArg, reportOption, requireSpanAndOut, scenarioSettings, type InputFlags, type ModelFlags, type ScenarioFlags } from './options.js';
 import { printResult } from './printResult.js';
 import { gridRunSettings, type GridFlags } from './sweepCommand.js';
 
-export interface SizeFlags extends InputFlags, GridFlags, ModelFlags {
+export interface SizeFlags extends InputFlags, GridFlags, ModelFlags, ScenarioFlags {
   readonly energyMwh?: string;
   readonly powerMw?: string;
   readonly efficiency?: string;
@@ -45,7 +45,7 @@ export function sizeCommand(io: CliIo): Command {
     .option('--energy-mwh <list>', 'energies [MWh]: values and ranges start:end:step, e.g. 5:60:5 (required)')
     .option('--power-mw <list>', 'powers [MW], charge = discharge, e.g. 2.5:30:2.5 (required)')
     .option('--efficiency <list>', 'round-trip efficiencies, e.g. 0.82,0.88 (default: the battery spec\'s)')
-    .option('--policies <list>', `policies to score, from ${SIZE_POLICIES.join(', ')} (default: ${SIZE_DEFAULTS.policies}); price-taking and perfect-foresight rows are always added`)
+    .option('--policies <list>', `policies to score, from ${SIZE_POLICIES.join(', ')} (default: ${SIZE_DEFAULTS.policies}; curve and auto plan on --paths); price-taking and perfect-foresight rows are always added`)
     .option('--policy <list>', 'the former name of --policies, still read (with a note)')
     .option('--alpha <a|best>', 'tail level of the quantile and median policies, or best: chosen per size on the first half of the days, scored on the second', parseAlphaOrBest, SIZE_DEFAULTS.alpha)
     .option('--alphas <list>', `the alphas --alpha best chooses from (default ${SIZE_DEFAULTS.alphas})`)
@@ -56,6 +56,7 @@ export function sizeCommand(io: CliIo): Command {
     .option('--life-years <n>', 'project life [years], a whole number from 1 to 100 (required)', rangeArg(RUN_LIMITS.lifeYears, '15', true))
     .option('--life-cycles <n>', 'equivalent full cycles one set of cells lasts; the cells are bought again when they run out before the end of life (default: no limit)', rangeArg(RUN_LIMITS.lifeCycles, '6000'))
     .option('--discount-rate <r>', 'discount rate per year as a fraction, e.g. 0.07 (required)', rangeArg(RUN_LIMITS.discountRate, '0.07 for 7%'));
+  addScenarioOptions(command);
   addGridOptions(command, 'size.csv');
   command.addOption(reportOption('also write report.html into --out: heat maps of NPV and profit per MWh over energy x power, best sizes'));
   addInputOptions(command, ['market', 'battery', 'forecast', 'history']);
@@ -134,8 +135,10 @@ function sizeFlagSettings(flags: SizeFlags, from: string, to: string, rules: Pic
   }
   const best = flags.alpha === 'best' ? rules.alphaBestSpanProblem(from, to) : null;
   if (best !== null) problems.push({ file: 'command line', field: '--alpha', message: best, fix: 'give a longer span from --from to --to, or a fixed --alpha' });
+  const scenarios = gatherProblems(problems, () => scenarioSettings(flags));
   if (problems.length > 0 || axes === undefined) throw new InputError(problems);
   return {
+    ...(scenarios === undefined ? {} : { scenarios }),
     energiesMwh: axes.energiesMwh as number[],
     powersMw: axes.powersMw as number[],
     ...(axes.efficiencies === undefined ? {} : { efficiencies: axes.efficiencies }),

@@ -3,7 +3,20 @@ import { SWEEP_DEFAULTS } from '../app/commandDefaults.js';
 import { SWEEP_POLICIES, UNACCEPTED_RULES } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
-import { addGridOptions, addInputOptions, addModelOptions, inputSources, modelSettings, reportOption, requireSpanAndOut, type InputFlags, type ModelFlags } from './options.js';
+import {
+  addGridOptions,
+  addInputOptions,
+  addModelOptions,
+  addScenarioOptions,
+  inputSources,
+  modelSettings,
+  reportOption,
+  requireSpanAndOut,
+  scenarioSettings,
+  type InputFlags,
+  type ModelFlags,
+  type ScenarioFlags,
+} from './options.js';
 import { printResult } from './printResult.js';
 
 /** Flags that `quantbid sweep` and `quantbid size` share. */
@@ -19,7 +32,7 @@ export interface GridFlags {
   readonly report?: boolean;
 }
 
-export interface SweepFlags extends InputFlags, GridFlags, ModelFlags {
+export interface SweepFlags extends InputFlags, GridFlags, ModelFlags, ScenarioFlags {
   readonly alphas: string;
   readonly policies: string;
   readonly unaccepted: string;
@@ -43,8 +56,9 @@ export function sweepCommand(io: CliIo): Command {
   const command = new Command('sweep')
     .description('backtest every setting of a grid of alpha x policy x unaccepted rule, in parallel, into sweep.csv (one row per setting)')
     .option('--alphas <list>', 'tail levels alpha (buys limited at q(1-alpha), sells at q(alpha)): values and ranges start:end:step, e.g. 0.02:0.48:0.02 or 0.05,0.1,0.2', SWEEP_DEFAULTS.alphas)
-    .option('--policies <list>', `policies whose orders depend on alpha: ${SWEEP_POLICIES.join(', ')}`, SWEEP_DEFAULTS.policies)
+    .option('--policies <list>', `from ${SWEEP_POLICIES.join(', ')}: quantile and median depend on alpha; curve and auto plan on --paths and ignore it`, SWEEP_DEFAULTS.policies)
     .option('--unaccepted <list>', `rules for unaccepted orders: ${UNACCEPTED_RULES.join(', ')}`, SWEEP_DEFAULTS.unaccepted);
+  addScenarioOptions(command);
   addGridOptions(command, 'sweep.csv');
   command.addOption(reportOption('also write report.html into --out: profit and acceptance against alpha, best setting marked, top settings'));
   addInputOptions(command, ['market', 'battery', 'forecast', 'history']);
@@ -76,13 +90,18 @@ Examples:
                  --out runs/sweep-h1 --json --quiet
   quantbid sweep --scenario scenarios/halvorn/scenario.json \\
                  --from 2026-01-01 --to 2026-03-31 --model arx-hs \\
-                 --out runs/sweep-q1-arx   (forecasts made from the history)`,
+                 --out runs/sweep-q1-arx   (forecasts made from the history)
+  quantbid sweep --scenario scenarios/halvorn/scenario.json \\
+                 --from 2026-12-01 --to 2026-12-07 --alphas 0.1 \\
+                 --policies quantile,auto --paths runs/fc/paths.csv \\
+                 --unaccepted follow-plan,follow-accepted --out runs/sweep-auto`,
   );
   command.action(async (flags: SweepFlags) => {
     const { from, to, out } = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'sweep.csv and summary.json' });
     const { sweepAxesFromText, sweepUseCase } = await import('../app/sweep/sweepUseCase.js');
     const axes = sweepAxesFromText(flags);
-    const settings = { ...gridRunSettings(flags, out), from, to, ...axes };
+    const scenarios = scenarioSettings(flags);
+    const settings = { ...gridRunSettings(flags, out), from, to, ...axes, ...(scenarios === undefined ? {} : { scenarios }) };
     printResult(io, await sweepUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
   });
   return command;

@@ -1,14 +1,17 @@
 import type { DeliveryPeriod } from '../types.js';
 import type { BacktestDay, BacktestResult } from '../backtest/runBacktest.js';
+import { isCurve } from '../settle/periodBid.js';
 import { CsvBuilder } from './csvBuilder.js';
 import { csvLine, formatNumber } from './formatNumber.js';
 
 /**
  * `ledger.csv`: one row per covered day, policy and delivery period, in that order. The order columns
- * are empty in a period without an order. Energies at the grid [MWh]; cash + received, - paid
- * [currency]; `soc_mwh` is the state of charge at the end of the period; `deliberate_imbalance_mwh` is
- * the part of `bought_imbalance_mwh` + `sold_imbalance_mwh` that the store could not deliver or absorb
- * (SettlementTotals.deliberateImbalanceMwh), the rest being unaccepted orders closed under follow-plan.
+ * are empty in a period without an order; a period bid as a curve has side `curve` and empty quantity
+ * and limit (its steps are a stack of orders; what it cleared is in the energy columns). Energies at
+ * the grid [MWh]; cash + received, - paid [currency]; `soc_mwh` is the state of charge at the end of
+ * the period; `deliberate_imbalance_mwh` is the part of `bought_imbalance_mwh` + `sold_imbalance_mwh`
+ * that the store could not deliver or absorb (SettlementTotals.deliberateImbalanceMwh), the rest being
+ * unaccepted orders closed under follow-plan.
  */
 export const LEDGER_COLUMNS = Object.freeze([
   'day', 'policy', 'period_start', 'side', 'quantity_mw', 'limit_price', 'accepted',
@@ -83,7 +86,10 @@ function writeLedgerRows(day: BacktestDay): void {
       out.comma();
       out.text(period.start);
       out.comma();
-      if (order !== null) {
+      if (isCurve(order)) {
+        // A curve's steps are in orders.csv; the ledger shows what it cleared in the energy columns.
+        out.text('curve,,');
+      } else if (order !== null) {
         out.text(order.side);
         out.comma();
         out.number(order.quantityMw);

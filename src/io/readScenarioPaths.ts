@@ -1,116 +1,106 @@
-import type { DeliveryPeriod, MarketSpec } from '../types.js';
+import type { MarketSpec } from '../types.js';
 import { DayCalendar, locatePeriod } from '../market/dayCalendar.js';
-import { InputError, ProblemList } from '../errors/inputError.js';
-import { fieldCountProblem, parseDecimal, separatorProblem, splitCsv, splitCsvLine } from './csvText.js';
-import { readInputFile } from './readInputFile.js';
+import { ProblemList } from '../errors/inputError.js';
 import { shownText } from '../errors/shownText.js';
+import { parseDecimal, separatorProblem, splitCsv, splitCsvLine } from './csvText.js';
+import { readInputFile } from './readInputFile.js';
 
-/** One delivery day's whole-day paths: paths[j][t] for the day's periods, path j + 1 of the file. */
-export interface PathDay {
-  readonly day: string;
-  readonly periods: readonly DeliveryPeriod[];
-  readonly paths: readonly (readonly number[])[];
-}
-
-/** A scenario paths file, validated: complete days by day, and the days left out with the reason. */
+/** Whole-day price paths by day, validated: paths[j][t] [currency/MWh] for every period of each day. */
 export interface ScenarioPathsFile {
   readonly file: string;
-  readonly days: ReadonlyMap<string, PathDay>;
-  readonly incompleteDays: readonly { readonly day: string; readonly reason: string }[];
+  /** By day YYYY-MM-DD: the day's complete paths in path order (path numbers 1..n). */
+  readonly days: ReadonlyMap<string, readonly (readonly number[])[]>;
 }
 
-const HEADER = ['period_start', 'path', 'price'] as const;
+const HEADER = ['period_start', 'path', 'price'];
 
-/** Reads a scenario paths file (.csv or .csv.gz), the layout `quantbid forecast --paths` writes; see parseScenarioPaths. */
+/** Reads a paths file (.csv or .csv.gz); see parseScenarioPaths. */
 export function readScenarioPaths(path: string, market: MarketSpec): ScenarioPathsFile {
   const firstLine = (line: string, lineNumber: number) => {
     const separator = separatorProblem(line, path, lineNumber);
-    return separator === null ? headerProblems(splitCsvLine(line), path, lineNumber) : [separator];
+    if (separator !== null) return [separator];
+    return headerProblem(splitCsvLine(line), path, lineNumber);
   };
   return parseScenarioPaths(readInputFile(path, { firstLine }), path, market);
 }
 
 /**
- * Reads scenario paths from CSV text `period_start,path,price` (one row per period and path, any order).
- * Rules: `period_start` a period start of the market's calendar with the zone's offset; `path` a whole
- * number >= 1; `price` a finite decimal inside the market's [priceFloor, priceCap]; each (period, path)
- * once. A day is complete when its paths are numbered 1..n and each has every period of the day;
- * other days are listed with the reason and never filled in. All problems are thrown together.
+ * Reads whole-day scenario paths in the layout `quantbid forecast --paths` writes: `period_start,path,price`,
+ * path a whole number >= 1, price a finite decimal (not bound by the floor and cap: a path is a scenario,
+ * clamped into [floor, cap] where it is used). A day's paths must be numbered 1..n without a gap, each
+ * over every period of the day exactly once; rows may come in any order. Every problem is collected and
+ * thrown together as an InputError.
  */
 export function parseScenarioPaths(text: string, file: string, market: MarketSpec): ScenarioPathsFile {
-  const split = splitCsv(text, file);
-  if ('problems' in split) throw new InputError(split.problems);
   const problems = new ProblemList();
-  const { header, headerLine, rows } = split.table;
-  headerProblems(header, file, headerLine).forEach((p) => problems.add(p));
+  const split = splitCsv(text, file);
+  if ('problems' in split) {
+    split.problems.forEach((p) => problems.add(p));
+    problems.throwIfAny();
+    throw new Error('unreachable');
+  }
+  headerProblem(split.table.header, file, split.table.headerLine).forEach((p) => problems.add(p));
   problems.throwIfAny();
   const calendar = DayCalendar.of(market.timeZone, market.periodMinutes);
   const byDay = new Map<string, Map<number, (number | undefined)[]>>();
-  for (const row of rows) {
+  for (const row of split.table.rows) {
     if (problems.full) break;
-    if (row.cells.length !== HEADER.length) {
-      problems.add(fieldCountProblem(row, header, file, 'give period_start, path and price on every line'));
+    const [stamp = '', pathCell = '', priceCell = ''] = row.cells;
+    if (row.cells.length !== 3) {
+      problems.add({ file, line: row.line, message: `${row.cells.length} fields, the header has 3`, fix: 'give period_start, path and price on every line' });
       continue;
     }
-    const [stamp, pathCell, priceCell] = row.cells as [string, string, string];
     const located = locatePeriod(stamp, calendar);
     if (!located.ok) {
       problems.add({ file, line: row.line, field: 'period_start', message: located.message, fix: located.fix });
       continue;
     }
-    const path = Number(pathCell);
-    if (!/^\d+$/.test(pathCell) || !(path >= 1)) {
-      problems.add({ file, line: row.line, field: 'path', message: `"${shownText(pathCell)}" is not a path number`, fix: 'number the paths of a day 1, 2, 3, ...' });
+    const pathNumber = Number(pathCell);
+    if (!/^\d+$/.test(pathCell) || !(pathNumber >= 1)) {
+      problems.add({ file, line: row.line, field: 'path', message: `"${shownText(pathCell)}" is not a path number`, fix: 'number the paths of each day 1, 2, 3, ...' });
       continue;
     }
     const price = parseDecimal(priceCell);
-    if ('error' in price) {
+    if (!('value' in price)) {
       problems.add({ file, line: row.line, field: 'price', message: price.error, fix: price.fix });
       continue;
     }
-    if (!(price.value >= market.priceFloor && price.value <= market.priceCap)) {
-      problems.add({ file, line: row.line, field: 'price', message: `price ${price.value} is outside the market's [${market.priceFloor}, ${market.priceCap}]`, fix: "check the paths' unit and the market spec's priceFloor and priceCap" });
-      continue;
-    }
     let paths = byDay.get(located.day);
-    if (paths === undefined) {
-      paths = new Map();
-      byDay.set(located.day, paths);
-    }
-    let values = paths.get(path);
-    if (values === undefined) {
-      values = new Array<number | undefined>(calendar.periods(located.day).length).fill(undefined);
-      paths.set(path, values);
-    }
+    if (paths === undefined) byDay.set(located.day, (paths = new Map()));
+    let values = paths.get(pathNumber);
+    if (values === undefined) paths.set(pathNumber, (values = new Array<number | undefined>(calendar.periods(located.day).length)));
     if (values[located.index] !== undefined) {
-      problems.add({ file, line: row.line, field: 'period_start', message: `period ${stamp} of path ${path} appears twice`, fix: 'give each period of each path once' });
+      problems.add({ file, line: row.line, field: 'period_start', message: `path ${pathNumber} has ${stamp} twice`, fix: 'give each path one price per period' });
       continue;
     }
     values[located.index] = price.value;
   }
   problems.throwIfAny();
-  const days = new Map<string, PathDay>();
-  const incompleteDays: { day: string; reason: string }[] = [];
-  for (const day of [...byDay.keys()].sort()) {
-    const paths = byDay.get(day) as Map<number, (number | undefined)[]>;
-    const n = paths.size;
-    const numbers = [...paths.keys()].sort((a, b) => a - b);
-    if (numbers[n - 1] !== n) {
-      incompleteDays.push({ day, reason: `paths numbered ${numbers.slice(0, 5).join(', ')}${n > 5 ? ', ...' : ''}, not 1 to ${n}` });
-      continue;
+  const days = new Map<string, number[][]>();
+  for (const [day, paths] of [...byDay].sort(([a], [b]) => (a < b ? -1 : 1))) {
+    const count = paths.size;
+    const out: number[][] = [];
+    for (let j = 1; j <= count; j++) {
+      const values = paths.get(j);
+      if (values === undefined) {
+        problems.add({ file, field: 'path', message: `day ${day} has ${count} paths but no path ${j}`, fix: 'number the paths of each day 1..n without a gap' });
+        break;
+      }
+      const missing = values.findIndex((v) => v === undefined);
+      if (missing >= 0 || values.length === 0) {
+        problems.add({ file, field: 'period_start', message: `path ${j} of ${day} has no price for ${calendar.periods(day)[Math.max(0, missing)]?.start ?? day}`, fix: 'give every path a price in every period of its day' });
+        break;
+      }
+      out.push(values as number[]);
     }
-    const short = numbers.find((j) => (paths.get(j) as (number | undefined)[]).some((v) => v === undefined));
-    if (short !== undefined) {
-      const missing = (paths.get(short) as (number | undefined)[]).filter((v) => v === undefined).length;
-      incompleteDays.push({ day, reason: `path ${short} misses ${missing} of the day's ${calendar.periods(day).length} periods` });
-      continue;
-    }
-    days.set(day, { day, periods: calendar.periods(day), paths: numbers.map((j) => paths.get(j) as number[]) });
+    days.set(day, out);
   }
-  return { file, days, incompleteDays };
+  problems.throwIfAny();
+  return { file, days };
 }
 
-function headerProblems(header: readonly string[], file: string, line: number) {
-  if (header.length === HEADER.length && HEADER.every((name, i) => header[i] === name)) return [];
-  return [{ file, line, field: 'header', message: `the header is "${shownText(header.join(','))}"`, fix: `use the header ${HEADER.join(',')} (the layout quantbid forecast --paths writes)` }];
+function headerProblem(header: readonly string[], file: string, line: number) {
+  return header.length === HEADER.length && header.every((h, i) => h === HEADER[i])
+    ? []
+    : [{ file, line, message: `the header is "${shownText(header.join(','))}"`, fix: `write the header ${HEADER.join(',')} (the layout quantbid forecast --paths writes)` }];
 }

@@ -37,6 +37,22 @@ const ruleSchema = (key: string) =>
 export const imbalanceRuleSchema = ruleSchema('imbalance');
 
 /**
+ * How the exchange takes bid curves (docs/design.md section 8): their shape, and the most orders (price
+ * and quantity pairs) one period's curve may have. Only step curves, a stack of limit orders, are
+ * planned today.
+ */
+export const bidCurvesSchema = z.strictObject({
+  /** `steps`: the net quantity changes in steps at the limit prices. Default `steps`. */
+  shape: z.literal('steps', { error: 'bidCurves.shape must be "steps" (a stack of limit orders)' }).default('steps'),
+  /** The most orders of one period's curve [-], 2 or more; default: no limit. */
+  maxOrdersPerPeriod: z
+    .number({ error: 'bidCurves.maxOrdersPerPeriod must be a whole number' })
+    .int('bidCurves.maxOrdersPerPeriod must be a whole number')
+    .min(2, 'bidCurves.maxOrdersPerPeriod must be at least 2')
+    .optional(),
+});
+
+/**
  * Largest quantity step and minimum quantity accepted [MW]: exchanges trade in steps of 0.1 MW or 1 MW,
  * so a step above this is a unit mistake (kW for MW), not a market.
  */
@@ -88,6 +104,8 @@ export const marketSpecSchema = z
       .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'gateClosure must be a local time HH:MM'),
     /** Rule for the imbalance (balancing) price where a history has none. Default: none (required then). */
     imbalance: imbalanceRuleSchema.optional(),
+    /** How the exchange takes bid curves (the `curve` and `auto` policies). Default: step curves, no limit. */
+    bidCurves: bidCurvesSchema.optional(),
     /** The old name of `imbalance`, read as it; not both. */
     [OLD_IMBALANCE_FIELD]: ruleSchema(OLD_IMBALANCE_FIELD).optional(),
     /** Order quantities are whole multiples of this [MW], at least MIN_QUANTITY_STEP_MW. Default: none (quantities as planned). */
@@ -143,6 +161,8 @@ export const MARKET_FIELD_FIXES: Readonly<Record<string, string>> = {
   gateClosure: 'give the local time on the day before delivery, e.g. "12:00"',
   'imbalance.kind': 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
   'imbalance.penaltyPerMwh': 'give a penalty >= 0 in currency/MWh',
+  'bidCurves.shape': 'use "steps", or leave bidCurves out',
+  'bidCurves.maxOrdersPerPeriod': 'give the most orders the exchange takes in one period\'s curve, e.g. 10, or leave it out',
   [OLD_IMBALANCE_FIELD]: 'keep only "imbalance", the same rule under its new name',
   [`${OLD_IMBALANCE_FIELD}.kind`]: 'use {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15}',
   [`${OLD_IMBALANCE_FIELD}.penaltyPerMwh`]: 'give a penalty >= 0 in currency/MWh',

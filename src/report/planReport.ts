@@ -206,8 +206,9 @@ function mergeGuides(guides: readonly Guide[]): Guide[] {
   return merged;
 }
 
-function ordersBlocks(orders: readonly Order[], periodHours: number, unit: string): Markup[] {
-  if (orders.length === 0) return [paragraph('The plan has no orders: at the policy\'s prices no charge and later discharge pays for itself.')];
+/** The orders table of a plan report (as orders.csv), or `empty` when there are none. */
+export function ordersBlocks(orders: readonly Order[], periodHours: number, unit: string, empty = 'The plan has no orders: at the policy\'s prices no charge and later discharge pays for itself.'): Markup[] {
+  if (orders.length === 0) return [paragraph(empty)];
   const rows = orders.map((o) => {
     const start = localTime(o.periodStart);
     return [`${start.text}\u2013${localTime(o.periodEnd).text}`, start.offset, o.side, o.quantityMw, o.quantityMw * periodHours, o.limitPrice, o.quantileLevel];

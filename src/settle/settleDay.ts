@@ -1,14 +1,13 @@
-import type { BatteryModel, Order } from '../types.js';
+import type { BatteryModel } from '../types.js';
 import { isAccepted } from './acceptance.js';
 import type { ImbalancePrices } from './imbalancePrices.js';
+import { bidOrders, isCurve, type PeriodBid } from './periodBid.js';
+import { PeriodOutcome, settlePeriod, type PeriodContext } from './settlePeriod.js';
 import type { SettlementTotals } from './settlementTotals.js';
-
 import type { UnacceptedRule } from './unacceptedRule.js';
 
 export { UNACCEPTED_RULES, type UnacceptedRule } from './unacceptedRule.js';
-
-/** One period's order as settlement reads it (an Order has these fields and more). */
-export type PeriodOrder = Pick<Order, 'side' | 'quantityMw' | 'limitPrice'>;
+export type { PeriodBid, PeriodOrder } from './periodBid.js';
 
 export interface SettleDayInput {
   /** Period length dt [h]. */
@@ -16,8 +15,8 @@ export interface SettleDayInput {
   readonly battery: BatteryModel;
   /** State of charge at the start of the day [MWh], inside the battery's window. */
   readonly socStartMwh: number;
-  /** The order of each period, or null; at most one order (one side) per period. */
-  readonly orders: readonly (PeriodOrder | null)[];
+  /** The bid of each period: null, one order, or a curve (a stack of limit orders, periodBid.ts). */
+  readonly orders: readonly PeriodBid[];
   /** Realised clearing price per period [currency/MWh]. */
   readonly clearingPricePerMwh: readonly number[];
   readonly imbalance: ImbalancePrices;
@@ -55,33 +54,24 @@ export const SETTLE_TOLERANCE = 1e-6;
 /**
  * Settles one delivery day's orders against the realised prices (docs/design.md section 5).
  *
- * Periods are settled in time order; each starts from the state of charge the previous one left.
- * In period t with an order of q MW (energy E = q dt):
- * 1. acceptance: a buy iff clearing <= limit, a sell iff clearing >= limit (isAccepted);
- * 2. the auction: an accepted buy pays clearing x E, an accepted sell receives clearing x E;
- * 3. the intended flow: `follow-plan` moves E whether accepted or not, and an unaccepted order's E is
- *    closed at the imbalance price (a buy bought at the imbalance buy price, a sell sold at the imbalance
- *    sell price); `follow-accepted` moves E only when accepted;
- * 4. the store's limits: at most min(chargeMw dt, (socMax - s) / eta_c) can be charged and at most
- *    min(dischargeMw dt, (s - socMin) eta_d) discharged. Energy an accepted buy cannot store is sold back
- *    at the imbalance sell price; the part of a sell the store cannot cover is bought back at the imbalance
- *    buy price. A plan made from the same starting state never meets these limits, so under
- *    `follow-plan` step 4 only absorbs rounding; under `follow-accepted` it settles accepted orders the
- *    battery cannot honour: that energy is the deliberate imbalance, counted on its own;
- * 5. s_t = s_{t-1} + eta_c x charged - discharged / eta_d, clamped into [socMin, socMax] (the clamp and
- *    SETTLE_TOLERANCE only remove floating-point dust);
- * 6. degradation = degradationCostPerMwh x discharged (energy actually discharged at the grid, as in the
- *    planning LP).
+ * Periods are settled in time order; each starts from the state of charge the previous one left,
+ * by settlePeriod (settlePeriod.ts: acceptance, the auction, the flow the rule asks for, the store's
+ * limits, the state of charge, wear). A plan made from the same starting state never meets the store's
+ * limits, so under `follow-plan` they only absorb rounding; under `follow-accepted` they do real work,
+ * because the store then drifts from the plan. A period may carry a curve (a stack of limit orders,
+ * periodBid.ts), settled by what cleared: allowed under `follow-accepted` only. Energy an accepted
+ * order (or the net of a curve's accepted steps) asks for that the store cannot take or give is settled
+ * at the imbalance price: that is the deliberate imbalance, counted on its own.
  *
  * Signs of cash: + received, - paid. A negative clearing price makes an accepted buy earn money.
  * The cost of imbalance against the clearing price is (imbalance buy - clearing) x bought at the
  * imbalance price - (imbalance sell - clearing) x sold at it, + cost (SettlementTotals).
  *
- * @throws RangeError when the series differ in length, a quantity is negative, or the starting state is
- *   outside the window.
+ * @throws RangeError when the series differ in length, a quantity is negative, the starting state is
+ *   outside the window, or a curve is to be settled under follow-plan.
  */
 export function settleDay(input: SettleDayInput): SettledDay {
-  const { battery, periodHours: dt } = input;
+  const { battery } = input;
   const count = input.clearingPricePerMwh.length;
   checkInput(input, count);
   const tolMwh = SETTLE_TOLERANCE * Math.max(1, battery.energyMwh);
@@ -92,91 +82,61 @@ export function settleDay(input: SettleDayInput): SettledDay {
   let deliberateMwh = 0, deliberateCash = 0, deliberatePeriods = 0;
   let charged = 0, discharged = 0, buys = 0, buysAccepted = 0, sells = 0, sellsAccepted = 0;
   let soc = input.socStartMwh;
+  const context: PeriodContext = { battery, periodHours: input.periodHours, unaccepted: input.unaccepted, toleranceMwh: tolMwh };
+  const outcome = new PeriodOutcome();
   for (let t = 0; t < count; t++) {
-    const order = input.orders[t] ?? null;
+    const bid = input.orders[t] ?? null;
     const clearing = input.clearingPricePerMwh[t] as number;
-    // What the order does in the auction and at the imbalance price, and the flow it asks for [MWh].
-    let tradeBoughtAuction = 0;
-    let tradeSoldAuction = 0;
-    let tradeBoughtImbalance = 0;
-    let tradeSoldImbalance = 0;
-    let tradeCharge = 0;
-    let tradeDischarge = 0;
-    let accepted: boolean | null = null;
-    if (order !== null) {
-      accepted = isAccepted(order.side, order.limitPrice, clearing);
-      const energy = order.quantityMw * dt;
-      const moves = accepted || input.unaccepted === 'follow-plan';
-      if (order.side === 'buy') {
-        if (accepted) tradeBoughtAuction = energy;
-        else if (moves) tradeBoughtImbalance = energy;
-        if (moves) tradeCharge = energy;
-      } else {
-        if (accepted) tradeSoldAuction = energy;
-        else if (moves) tradeSoldImbalance = energy;
-        if (moves) tradeDischarge = energy;
-      }
-    }
-    const storable = Math.max(0, Math.min(battery.chargeMw * dt, (battery.socMaxMwh - soc) / battery.chargeEfficiency));
-    const deliverable = Math.max(0, Math.min(battery.dischargeMw * dt, (soc - battery.socMinMwh) * battery.dischargeEfficiency));
-    const chargedMwh = tradeCharge <= storable + tolMwh ? tradeCharge : storable;
-    const dischargedMwh = tradeDischarge <= deliverable + tolMwh ? tradeDischarge : deliverable;
-    // Step 4: energy the store cannot absorb is sold back, energy it cannot deliver is bought back.
-    const soldBackMwh = tradeCharge - chargedMwh;
-    const boughtBackMwh = tradeDischarge - dischargedMwh;
-    const soldImbalanceMwh = tradeSoldImbalance + soldBackMwh;
-    const boughtImbalanceMwh = tradeBoughtImbalance + boughtBackMwh;
-    soc += battery.chargeEfficiency * chargedMwh - dischargedMwh / battery.dischargeEfficiency;
-    soc = Math.min(battery.socMaxMwh, Math.max(battery.socMinMwh, soc));
-    const imbalanceSell = input.imbalance.sellPerMwh[t] as number;
     const imbalanceBuy = input.imbalance.buyPerMwh[t] as number;
-    const auctionCash = clearing * (tradeSoldAuction - tradeBoughtAuction);
-    const imbalanceCash = imbalanceSell * soldImbalanceMwh - imbalanceBuy * boughtImbalanceMwh;
-    const degradationCost = battery.degradationCostPerMwh * dischargedMwh;
-    const periodProfit = auctionCash + imbalanceCash - degradationCost;
-    const deliberateImbalanceMwh = soldBackMwh + boughtBackMwh;
+    const imbalanceSell = input.imbalance.sellPerMwh[t] as number;
+    const o = settlePeriod(bid, clearing, imbalanceBuy, imbalanceSell, soc, context, outcome);
+    soc = o.socMwh;
     if (keepPeriods) {
       periods[t] = new SettledPeriodRecord(
-        accepted,
-        tradeBoughtAuction,
-        tradeSoldAuction,
-        boughtImbalanceMwh,
-        soldImbalanceMwh,
-        chargedMwh,
-        dischargedMwh,
-        auctionCash,
-        imbalanceCash,
-        degradationCost,
-        periodProfit,
+        o.accepted,
+        o.boughtAuctionMwh,
+        o.soldAuctionMwh,
+        o.boughtImbalanceMwh,
+        o.soldImbalanceMwh,
+        o.chargedMwh,
+        o.dischargedMwh,
+        o.auctionCash,
+        o.imbalanceCash,
+        o.degradationCost,
+        o.profit,
         soc,
-        deliberateImbalanceMwh,
+        o.deliberateImbalanceMwh,
       );
     }
-    if (boughtImbalanceMwh !== 0 || soldImbalanceMwh !== 0) {
-      costVsClearing += (imbalanceBuy - clearing) * boughtImbalanceMwh - (imbalanceSell - clearing) * soldImbalanceMwh;
-      if (deliberateImbalanceMwh > 0) {
-        deliberateMwh += deliberateImbalanceMwh;
-        deliberateCash += imbalanceSell * soldBackMwh - imbalanceBuy * boughtBackMwh;
+    if (o.boughtImbalanceMwh !== 0 || o.soldImbalanceMwh !== 0) {
+      costVsClearing += (imbalanceBuy - clearing) * o.boughtImbalanceMwh - (imbalanceSell - clearing) * o.soldImbalanceMwh;
+      if (o.deliberateImbalanceMwh > 0) {
+        deliberateMwh += o.deliberateImbalanceMwh;
+        deliberateCash += o.deliberateImbalanceCash;
         deliberatePeriods++;
       }
     }
-    profit += periodProfit;
-    auction += auctionCash;
-    imbalanceSum += imbalanceCash;
-    degradation += degradationCost;
-    boughtAuction += tradeBoughtAuction;
-    soldAuction += tradeSoldAuction;
-    boughtImbalance += boughtImbalanceMwh;
-    soldImbalance += soldImbalanceMwh;
-    charged += chargedMwh;
-    discharged += dischargedMwh;
-    if (order !== null) {
-      if (order.side === 'buy') {
-        buys++;
-        if (accepted === true) buysAccepted++;
-      } else {
-        sells++;
-        if (accepted === true) sellsAccepted++;
+    profit += o.profit;
+    auction += o.auctionCash;
+    imbalanceSum += o.imbalanceCash;
+    degradation += o.degradationCost;
+    boughtAuction += o.boughtAuctionMwh;
+    soldAuction += o.soldAuctionMwh;
+    boughtImbalance += o.boughtImbalanceMwh;
+    soldImbalance += o.soldImbalanceMwh;
+    charged += o.chargedMwh;
+    discharged += o.dischargedMwh;
+    if (bid !== null) {
+      // Counts per order: a curve counts each of its steps.
+      for (const order of bidOrders(bid)) {
+        const stepAccepted = isAccepted(order.side, order.limitPrice, clearing);
+        if (order.side === 'buy') {
+          buys++;
+          if (stepAccepted) buysAccepted++;
+        } else {
+          sells++;
+          if (stepAccepted) sellsAccepted++;
+        }
       }
     }
   }
@@ -213,8 +173,11 @@ function checkInput(input: SettleDayInput, count: number): void {
   if (!(input.socStartMwh >= battery.socMinMwh - tol && input.socStartMwh <= battery.socMaxMwh + tol)) {
     throw new RangeError(`settleDay: starting state of charge ${input.socStartMwh} MWh is outside [${battery.socMinMwh}, ${battery.socMaxMwh}] MWh`);
   }
-  input.orders.forEach((order, t) => {
-    if (order !== null && !(order.quantityMw >= 0)) throw new RangeError(`settleDay: the order of period ${t} has quantity ${order.quantityMw} MW; quantities are >= 0`);
+  input.orders.forEach((bid, t) => {
+    if (isCurve(bid) && input.unaccepted === 'follow-plan') throw new RangeError(`settleDay: period ${t} carries a curve; a curve is settled by what cleared, under follow-accepted`);
+    for (const order of bidOrders(bid)) {
+      if (!(order.quantityMw >= 0)) throw new RangeError(`settleDay: an order of period ${t} has quantity ${order.quantityMw} MW; quantities are >= 0`);
+    }
   });
 }
 

@@ -5,6 +5,7 @@ import { readsAlpha } from '../backtest/backtestPolicy.js';
 import { policyMetrics } from '../backtest/policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from '../backtest/policyRun.js';
 import type { BacktestInput, ForecastDays } from '../backtest/runBacktest.js';
+import type { ScenarioPlanning } from '../backtest/scenarioPlanning.js';
 import { alphaSplit, chooseAlpha, type AlphaMode } from './alphaChoice.js';
 import { scaledBatterySpec, type BatterySize } from './scaledBattery.js';
 import { sizeEconomics, type SizeCosts } from './sizeEconomics.js';
@@ -26,6 +27,8 @@ export interface SizeStudy {
   readonly alpha: AlphaMode;
   readonly unaccepted: UnacceptedRule;
   readonly costs: SizeCosts;
+  /** Paths, solver and settings of the curve and auto policies (the battery is each size's); null when neither runs. */
+  readonly scenarioPlanning?: ScenarioPlanning | null;
 }
 
 /** One setting of `quantbid size`: a size (efficiency undefined: the spec's) and a policy. */
@@ -49,7 +52,7 @@ export type SizeGridSetting = {
  * this order; the first five are a contract. Money in the market's currency; "per year" annualised by
  * the covered days (sizeEconomics.ts).
  * - `alpha`: the alpha used (with `--alpha best` the one chosen for this size and policy); empty for
- *   point, price-taking and perfect-foresight, which do not use one;
+ *   point, price-taking, curve, auto and perfect-foresight, which do not use one;
  * - `profit`: profit over the scored days (all of [from, to], or its second half with `--alpha best`);
  * - `profit_per_year`, `npv`, `irr` (`none` when NPV has no root, e.g. flows without a sign change);
  * - `days`: days scored; `capture_ratio`: profit / perfect-foresight profit on those days;
@@ -98,7 +101,7 @@ export function sizeSettingRow(study: SizeStudy, setting: SizeSetting, memo: Run
     if (readsAlpha(setting.policy)) {
       alpha = mode.method === 'fixed' ? mode.alpha : chooseAlpha({ ...base, ...alphaSplit(study.from, study.to).choose }, setting.policy, mode.alphas, study.unaccepted).alpha;
     }
-    run = runPolicy(scored, setting.policy, { alpha: alpha ?? UNUSED_ALPHA, unaccepted: study.unaccepted });
+    run = runPolicy(scored, setting.policy, { alpha: alpha ?? UNUSED_ALPHA, unaccepted: study.unaccepted, scenarioPlanning: study.scenarioPlanning ?? null });
   }
   const m = policyMetrics(run.runs, battery, perfect.profit);
   const tradingCash = m.auctionCash + m.imbalanceCash;

@@ -9,7 +9,7 @@
 import { builtinModules } from 'node:module';
 import { dirname, join, normalize, relative } from 'node:path';
 import ts from 'typescript';
-import { DOMAIN, DOMAIN_PACKAGES, MAY_IMPORT, type Layer } from './layers.js';
+import { DOMAIN, DOMAIN_PACKAGES, LAZY_PACKAGES, MAY_IMPORT, type Layer } from './layers.js';
 
 /** One import of a source file. */
 export interface ImportUse {
@@ -18,6 +18,8 @@ export interface ImportUse {
   readonly line: number;
   /** The specifier as written, e.g. `../types.js` or `node:fs`. */
   readonly specifier: string;
+  /** `dynamic` for `import(...)` called at run time, `type` for an import of types alone (erased), `static` otherwise. */
+  readonly kind: 'static' | 'dynamic' | 'type';
 }
 
 /** What a file uses that the rule looks at: its imports and where it names the global `process`. */
@@ -33,14 +35,15 @@ export function fileUses(file: string, text: string): FileUses {
   const imports: ImportUse[] = [];
   const processLines: number[] = [];
   const lineOf = (node: ts.Node): number => source.getLineAndCharacterOfPosition(node.getStart(source)).line + 1;
-  const add = (node: ts.Node, literal: ts.Node | undefined): void => {
-    if (literal !== undefined && ts.isStringLiteralLike(literal)) imports.push({ file, line: lineOf(node), specifier: literal.text });
+  const add = (node: ts.Node, literal: ts.Node | undefined, kind: ImportUse['kind'] = 'static'): void => {
+    if (literal !== undefined && ts.isStringLiteralLike(literal)) imports.push({ file, line: lineOf(node), specifier: literal.text, kind });
   };
   const visit = (node: ts.Node): void => {
-    if (ts.isImportDeclaration(node) || ts.isExportDeclaration(node)) add(node, node.moduleSpecifier);
+    if (ts.isImportDeclaration(node)) add(node, node.moduleSpecifier, node.importClause?.isTypeOnly === true ? 'type' : 'static');
+    else if (ts.isExportDeclaration(node)) add(node, node.moduleSpecifier, node.isTypeOnly ? 'type' : 'static');
     else if (ts.isImportEqualsDeclaration(node) && ts.isExternalModuleReference(node.moduleReference)) add(node, node.moduleReference.expression);
-    else if (ts.isCallExpression(node) && node.expression.kind === ts.SyntaxKind.ImportKeyword) add(node, node.arguments[0]);
-    else if (ts.isImportTypeNode(node) && ts.isLiteralTypeNode(node.argument)) add(node, node.argument.literal);
+    else if (ts.isCallExpression(node) && node.expression.kind === ts.SyntaxKind.ImportKeyword) add(node, node.arguments[0], 'dynamic');
+    else if (ts.isImportTypeNode(node) && ts.isLiteralTypeNode(node.argument)) add(node, node.argument.literal, 'type');
     else if (ts.isNewExpression(node) && isModuleUrl(node)) add(node, node.arguments?.[0]);
     else if (ts.isIdentifier(node) && node.text === 'process' && isGlobalUse(node)) processLines.push(lineOf(node));
     ts.forEachChild(node, visit);
@@ -96,7 +99,8 @@ function isNodeBuiltin(specifier: string): boolean {
  * Every violation of the rule in a set of sources (path relative to the repository root -> text):
  * a file outside the table's folders, an import between folders the table does not allow, a
  * relative import that leaves src/, and in a domain folder a Node built-in other than the allowed
- * packages, a package not in DOMAIN_PACKAGES, or the global `process`. Folder cycles: folderCycles.
+ * packages, a package not in DOMAIN_PACKAGES, or the global `process`; a package of LAZY_PACKAGES
+ * loaded from another folder, or loaded by a static import. Folder cycles: folderCycles.
  */
 export function checkImports(sources: ReadonlyMap<string, string>): { readonly violations: Violation[]; readonly edges: Map<Layer, Set<Layer>> } {
   const violations: Violation[] = [];
@@ -122,6 +126,10 @@ export function checkImports(sources: ReadonlyMap<string, string>): { readonly v
         if (!edges.has(from)) edges.set(from, new Set());
         edges.get(from)?.add(to);
         if (!MAY_IMPORT[from].includes(to)) violations.push({ file, line: use.line, message: `${from} may not import ${to} (${specifier}); ${from} may import ${MAY_IMPORT[from].join(', ') || 'nothing'}` });
+      } else if (specifier in LAZY_PACKAGES) {
+        const allowed = LAZY_PACKAGES[specifier] as readonly Layer[];
+        if (!allowed.includes(from)) violations.push({ file, line: use.line, message: `${from} may not load the package ${specifier}; only ${allowed.join(', ')} may, by import() when it is needed` });
+        else if (use.kind === 'static') violations.push({ file, line: use.line, message: `${specifier} is loaded only when it is needed: use await import('${specifier}'), not a static import` });
       } else if (domain && !DOMAIN_PACKAGES.includes(specifier)) {
         const what = isNodeBuiltin(specifier) ? 'the Node built-in' : 'the package';
         violations.push({ file, line: use.line, message: `${from} is domain code and may not import ${what} ${specifier}; the domain may use ${DOMAIN_PACKAGES.join(', ')}` });

@@ -83,6 +83,16 @@ describe('the checker', () => {
     expect(checkImports(good).violations).toEqual([]);
   });
 
+  it('lets only the app layer load HiGHS, and only by import() when it is needed', () => {
+    const sources = new Map([
+      ['src/curves/solverHere.ts', "const { default: load } = await import('highs');\nexport { load };\n"],
+      ['src/app/solver/eager.ts', "import loadHighs from 'highs';\nexport { loadHighs };\n"],
+      ['src/app/solver/lazy.ts', "import type { Highs } from 'highs';\nexport const load = async (): Promise<unknown> => (await import('highs')).default;\nexport type H = Highs;\n"],
+    ]);
+    const messages = checkImports(sources).violations.map((v) => `${v.file}:${v.line}: ${v.message.split(';')[0]}`);
+    expect(messages).toEqual(['src/curves/solverHere.ts:1: curves may not load the package highs', 'src/app/solver/eager.ts:1: highs is loaded only when it is needed: use await import(\'highs\'), not a static import']);
+  });
+
   it('finds a cycle between folders, such as io importing backtest while backtest imports io', () => {
     const cycle = new Map([
       ['src/io/summary.ts', "import { bestResult } from '../backtest/bestResult.js';\n"],

@@ -17,6 +17,8 @@ export type Layer =
   | 'forecast'
   | 'plan'
   | 'settle'
+  | 'scenarios'
+  | 'curves'
   | 'backtest'
   | 'sizing'
   | 'io'
@@ -27,7 +29,7 @@ export type Layer =
   | 'index';
 
 /** The domain: pure and synchronous; no files, no paths, no process, no threads, no clock. */
-export const DOMAIN: readonly Layer[] = ['market', 'battery', 'stats', 'economics', 'forecast', 'plan', 'settle', 'backtest', 'sizing'];
+export const DOMAIN: readonly Layer[] = ['market', 'battery', 'stats', 'economics', 'forecast', 'plan', 'settle', 'scenarios', 'curves', 'backtest', 'sizing'];
 
 const domainAnd = (...more: Layer[]): Layer[] => ['types', ...DOMAIN, 'errors', ...more];
 
@@ -42,8 +44,10 @@ export const MAY_IMPORT: Readonly<Record<Layer, readonly Layer[]>> = {
   forecast: ['types', 'market', 'stats', 'errors'],
   plan: ['types', 'market', 'battery', 'forecast', 'errors'],
   settle: ['types', 'market', 'battery', 'errors'],
-  backtest: ['types', 'market', 'battery', 'forecast', 'plan', 'settle', 'stats', 'errors'],
-  sizing: ['types', 'market', 'battery', 'plan', 'settle', 'backtest', 'economics', 'stats', 'errors'],
+  scenarios: ['types', 'market', 'battery', 'forecast', 'settle', 'stats', 'errors'],
+  curves: ['types', 'market', 'battery', 'plan', 'settle', 'scenarios', 'stats', 'errors'],
+  backtest: ['types', 'market', 'battery', 'forecast', 'plan', 'settle', 'scenarios', 'curves', 'stats', 'errors'],
+  sizing: ['types', 'market', 'battery', 'plan', 'settle', 'scenarios', 'curves', 'backtest', 'economics', 'stats', 'errors'],
   io: domainAnd(),
   grid: ['io', 'errors'],
   report: domainAnd('io'),
@@ -54,3 +58,11 @@ export const MAY_IMPORT: Readonly<Record<Layer, readonly Layer[]>> = {
 
 /** Packages the domain may use besides its own folders: validation, time zones, the LP solver, hashing. */
 export const DOMAIN_PACKAGES: readonly string[] = ['zod', 'luxon', 'javascript-lp-solver', 'node:crypto'];
+
+/**
+ * Packages loaded only when a run needs them, by `await import(...)`, and only from these folders:
+ * HiGHS, the LP solver of the curve program, is loaded by app/solver/highsSolver.ts for the curve
+ * and auto policies alone (README: the solver dependency and why); every other command never pays
+ * its start-up.
+ */
+export const LAZY_PACKAGES: Readonly<Record<string, readonly Layer[]>> = { highs: ['app'] };

@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import type { HistoryDay, QuantileDay } from '../../src/types.js';
-import { BACKTEST_POLICIES, type BacktestPolicy } from '../../src/backtest/backtestPolicy.js';
+import { DEFAULT_BACKTEST_POLICIES, type BacktestPolicy } from '../../src/backtest/backtestPolicy.js';
 import { planPolicyDay } from '../../src/backtest/planPolicyDay.js';
 import { runBacktest } from '../../src/backtest/runBacktest.js';
 import { planDay } from '../../src/plan/planDay.js';
@@ -26,7 +26,7 @@ function firstDay(m: RandomMarket): { forecast: QuantileDay; realised: HistoryDa
 function settleFirstDay(m: RandomMarket, policy: BacktestPolicy, unaccepted: UnacceptedRule, penaltyPerMwh?: number): SettledDay {
   const { forecast, realised } = firstDay(m);
   const socStartMwh = m.battery.socInitialMwh;
-  const plan = planPolicyDay({ policy, forecast, realised, market: m.market, battery: m.battery, alpha: ALPHA, socStartMwh, solveOptions: {} });
+  const plan = planPolicyDay({ policy, forecast, realised, market: m.market, battery: m.battery, alpha: ALPHA, socStartMwh, solveOptions: {}, unaccepted, scenarioPlanning: null, scenarios: null });
   if (plan.status !== 'optimal') throw new Error(`${policy}: ${plan.reason}`);
   const penalty = penaltyPerMwh ?? m.market.imbalance?.penaltyPerMwh ?? 0;
   return settleDay({
@@ -160,7 +160,7 @@ describe('backtest laws on small random markets', () => {
     fc.assert(
       fc.property(randomMarketArb(2), (m) => {
         const result = runBacktest(m, { keepLedger: false });
-        for (const day of result.days) expect(day.runs.map((r) => r.policy)).toEqual(BACKTEST_POLICIES);
+        for (const day of result.days) expect(day.runs.map((r) => r.policy)).toEqual(DEFAULT_BACKTEST_POLICIES);
       }),
       { seed: SEED + 7, numRuns: 10 },
     );

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import type { BatteryModel, HistoryDay, PriceHistory, QuantileDay } from '../../src/types.js';
+import type { BatteryModel, HistoryDay, Order, PriceHistory, QuantileDay } from '../../src/types.js';
 import { backtestMetrics } from '../../src/backtest/backtestMetrics.js';
 import { runBacktest, type BacktestResult } from '../../src/backtest/runBacktest.js';
 import { planPolicyDay } from '../../src/backtest/planPolicyDay.js';
@@ -94,7 +94,7 @@ describe('planPolicyDay', () => {
   const forecast: QuantileDay = { day, levels: [0.1, 0.5, 0.9], periods: hourlyPeriods(day, 2), prices: [[-102, -100, -98], [48, 50, 52]] };
   const realised: HistoryDay = { day, periods: hourlyPeriods(day, 2), pricePerMwh: [-100, 50], imbalancePricePerMwh: null, exogenous: {} };
   const small: BatteryModel = { ...battery, energyMwh: 1, chargeMw: 1, dischargeMw: 1, chargeEfficiency: 0.9, dischargeEfficiency: 0.9, socMaxMwh: 0.45 };
-  const request = { forecast, realised, market, battery: small, alpha: 0.1, socStartMwh: 0, solveOptions: {} };
+  const request = { forecast, realised, market, battery: small, alpha: 0.1, socStartMwh: 0, solveOptions: {}, unaccepted: 'follow-plan' as const, scenarioPlanning: null, scenarios: null };
 
   it('without a proven optimum in the node budget the policy places no orders and says why', () => {
     const plan = planPolicyDay({ ...request, policy: 'point', solveOptions: { maxNodes: 0, solver: 'lp' } });
@@ -108,9 +108,10 @@ describe('planPolicyDay', () => {
     for (const policy of ['price-taking', 'perfect-foresight'] as const) {
       const plan = planPolicyDay({ ...request, policy });
       expect(plan.status).toBe('optimal');
-      expect(plan.orders.map((o) => [o?.side, o?.limitPrice, o?.quantileLevel])).toEqual([['buy', 1000, null], ['sell', -100, null]]);
-      expect(plan.orders[0]?.quantityMw).toBeCloseTo(0.5, 6);
-      expect(plan.orders[1]?.quantityMw).toBeCloseTo(0.405, 6);
+      const orders = plan.orders as readonly (Order | null)[]; // a schedule's orders, one per period
+      expect(orders.map((o) => [o?.side, o?.limitPrice, o?.quantileLevel])).toEqual([['buy', 1000, null], ['sell', -100, null]]);
+      expect(orders[0]?.quantityMw).toBeCloseTo(0.5, 6);
+      expect(orders[1]?.quantityMw).toBeCloseTo(0.405, 6);
     }
   });
 });

@@ -151,7 +151,7 @@ describe('quantbid score', () => {
     ['--against with other levels', ['--forecast', 'uniform.csv', '--against', 'fivelevels.csv'], /its levels \(0.05, 0.1, 0.5, 0.9, 0.95\) differ from the forecast's \(0.1, 0.5, 0.9\)/],
     ['--to before --from', ['--forecast', 'uniform.csv', '--from', '2031-02-05', '--to', '2031-02-04'], /--to 2031-02-04 is before --from 2031-02-05/],
     ['no forecast file', [], /--forecast: no forecast file given/],
-    ['a paths file with the wrong header', ['--forecast', 'uniform.csv', '--paths', 'uniform.csv'], /use the header period_start,path,price/],
+    ['a paths file with the wrong header', ['--forecast', 'uniform.csv', '--paths', 'uniform.csv'], /write the header period_start,path,price/],
   ])('exits 2 and writes nothing for %s', async (name, args, message) => {
     const out = join(dir, `bad-${name.replace(/\W+/g, '-')}`);
     const withPaths = args.map((a) => (a.endsWith('.csv') ? join(dir, a) : a));

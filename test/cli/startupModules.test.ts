@@ -36,7 +36,7 @@ function loadedModules(args: readonly string[]): string[] {
 function heavy(modules: readonly string[]): string[] {
   return modules.filter(
     (m) =>
-      /node_modules\/(zod|luxon|javascript-lp-solver)\//.test(m) ||
+      /node_modules\/(zod|luxon|javascript-lp-solver|highs)\//.test(m) ||
       // The forecasting layer's error classes are light: the levels' words that the help prints use them.
       /^dist\/(report|plan\/warehouse|forecast\/models\/(?!errors\.js$)|io\/read)/.test(m) ||
       /UseCase\.js$/.test(m) ||

@@ -1,6 +1,7 @@
 import type { BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import type { PolicyMetrics } from '../../backtest/policyMetrics.js';
 import type { BacktestResult } from '../../backtest/runBacktest.js';
+import { scenarioChoices } from '../../backtest/scenarioChoices.js';
 import { STRONGEST_BASELINE_RULE } from '../../backtest/backtestMetrics.js';
 import { extrapolationWarning, yearCoverage } from '../../economics/yearCoverage.js';
 import { formatNumber } from '../../io/formatNumber.js';
@@ -71,6 +72,7 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
     skippedDays: result.skippedDays,
     plansMissing: plansMissing(result),
     months: metrics.months,
+    ...(result.policies.some((p) => p === 'curve' || p === 'auto') ? { scenarioChoices: scenarioChoices(result) } : {}),
   };
 }
 
@@ -82,7 +84,8 @@ export function backtestSummary(result: BacktestResult, metrics: BacktestMetrics
 function orderSteps(market: MarketSpec, metrics: BacktestMetrics, unrounded: BacktestMetrics | undefined) {
   const steps = exchangeSteps(market);
   if (steps === null || unrounded === undefined) return {};
-  const policies = Object.keys(metrics.policies);
+  // The policies of the unrounded run: those that plan schedules (auto, on scenarios, is left out there).
+  const policies = Object.keys(metrics.policies).filter((p) => p in unrounded.policies);
   const without = (p: string) => (unrounded.policies[p] as PolicyMetrics).profit;
   return {
     orderSteps: {

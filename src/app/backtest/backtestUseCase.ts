@@ -3,7 +3,7 @@ import { batteryModel } from '../../battery/batterySpec.js';
 import { backtestMetrics, type BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import { exchangeSteps, withoutExchangeSteps } from '../../plan/exchangeRounding.js';
 import type { UnacceptedRule } from '../../settle/settleDay.js';
-import { BACKTEST_POLICIES, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
+import { BACKTEST_POLICIES, DEFAULT_BACKTEST_POLICIES, usesScenarios, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
 import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay, type BacktestInput } from '../../backtest/runBacktest.js';
 import { daysBetween } from '../../market/calendar.js';
 import { LEDGER_COLUMNS, daysCsv, ledgerRowBytes } from '../../io/backtestOutputs.js';
@@ -17,6 +17,8 @@ import { runInputFiles } from '../inputFiles.js';
 import { lockedRun } from '../lockedRun.js';
 import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
+import { requireCurvesOffered, requireScenarioSettings, scenarioPlanningOf, type ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
+import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { backtestSummary, backtestSummaryText } from './backtestSummary.js';
@@ -35,12 +37,14 @@ export const backtestSettingsSchema = z
     alpha: alphaSchema.default(BACKTEST_DEFAULTS.alpha),
     /** What the battery does about unaccepted orders; default follow-plan. */
     unaccepted: unacceptedRuleSchema.default(BACKTEST_DEFAULTS.unaccepted),
-    /** Policies replayed side by side, each once; default all five. */
+    /** Policies replayed side by side, each once; default the five that need no scenarios. */
     policies: z
       .array(z.enum(BACKTEST_POLICIES as readonly BacktestPolicy[] as [BacktestPolicy, ...BacktestPolicy[]]))
       .min(1)
       .refine((list) => new Set(list).size === list.length, 'each policy may appear once')
-      .default([...BACKTEST_POLICIES]),
+      .default([...DEFAULT_BACKTEST_POLICIES]),
+    /** Paths and settings of the curve and auto policies (required by them). */
+    scenarios: scenarioSettingsSchema.optional(),
     /** Folder for ledger.csv, days.csv, summary.json (and report.html). */
     out: outFolderSchema,
     /** Overwrite existing outputs. */
@@ -61,19 +65,21 @@ const BACKTEST_OUTPUTS = ['ledger.csv', 'days.csv', 'summary.json'] as const;
  * ledger.csv (day by day as the days are settled), days.csv, summary.json and, when asked, report.html
  * into `out` as one output set.
  */
-export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QUIET_HOOKS): Done<BacktestSummary> {
+export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QUIET_HOOKS, tools: ScenarioTools = {}): Done<BacktestSummary> {
   const s = validSettings(backtestSettingsSchema, settings, 'backtest');
+  requireScenarioSettings(s.policies, s.scenarios, '--policies');
   const paths = runInputPaths(s.inputs, s.model);
   const outputs = s.report ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
   checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
-  return lockedRun(s.out, 'backtest', (lock) => backtestRun(s, paths, outputs, lock as OutputLock, hooks));
+  return lockedRun(s.out, 'backtest', (lock) => backtestRun(s, paths, outputs, lock as OutputLock, hooks, tools));
 }
 
 /** The backtest of the checked settings, from reading the inputs to the outputs, under the output folder's lock. */
-function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: BacktestInputPaths, outputs: readonly string[], lock: OutputLock, hooks: RunHooks): Done<BacktestSummary> {
+function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: BacktestInputPaths, outputs: readonly string[], lock: OutputLock, hooks: RunHooks, tools: ScenarioTools): Done<BacktestSummary> {
   // With --model the forecasts are made here, day by day from the history (through the forecast cache).
   const maker = forecastMaker(s.model, paths.history, s, hooks);
   const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
+  requireCurvesOffered(s.policies, data.market, paths.market);
   const model = maker?.made();
   // A span without a covered day is bad input, as for sweep and size: an all-zero table would look like a result.
   requireCoveredDay(data, paths, s.from, s.to);
@@ -87,7 +93,8 @@ function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: Backtest
     const ledger = stage.open('ledger.csv');
     ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
     const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRowBytes(day));
-    const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay });
+    const scenarioPlanning = s.scenarios === undefined ? null : scenarioPlanningOf(s.scenarios, { market, history, forecast, tools });
+    const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay, scenarioPlanning });
     progress.finish();
     const metrics = backtestMetrics(result, battery);
     const unrounded = unroundedMetrics(s, { market, battery, history, forecast }, hooks);
@@ -115,11 +122,13 @@ function unroundedMetrics(
   data: Omit<BacktestInput, 'from' | 'to'>,
   hooks: RunHooks,
 ): BacktestMetrics | undefined {
-  if (exchangeSteps(data.market) === null) return undefined;
+  // Auto would choose among other candidates (curves too) on the unrounded market: only the schedule policies compare.
+  const policies = s.policies.filter((p) => !usesScenarios(p));
+  if (exchangeSteps(data.market) === null || policies.length === 0) return undefined;
   const progress = hooks.progress('backtest without rounding', daysBetween(s.from, s.to).length);
   const result = runBacktest(
     { ...data, market: withoutExchangeSteps(data.market), from: s.from, to: s.to },
-    { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, keepLedger: false, onDay: ({ done }) => progress.update(done) },
+    { alpha: s.alpha, unaccepted: s.unaccepted, policies, keepLedger: false, onDay: ({ done }) => progress.update(done) },
   );
   progress.finish();
   return backtestMetrics(result, data.battery);

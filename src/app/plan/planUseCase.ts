@@ -7,23 +7,25 @@ import { readPriceHistory } from '../../io/readPriceHistory.js';
 import { readBatterySpec, readMarketSpec } from '../../io/readSpecs.js';
 import type { OutputLock } from '../../io/outputLock.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
-import { PLAN_POLICIES } from '../../plan/alpha.js';
 import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
 import { isSkippedDay } from '../../market/calendar.js';
 import { planDay, type PlanResult } from '../../plan/planDay.js';
 import { planReport } from '../../report/planReport.js';
-import type { BatteryModel, MarketSpec, PlanPolicy, QuantileDay } from '../../types.js';
-import { PLAN_DEFAULTS } from '../commandDefaults.js';
+import type { BatteryModel, MarketSpec, QuantileDay } from '../../types.js';
+import { PLAN_COMMAND_POLICIES, PLAN_DEFAULTS, type PlanCommandPolicy } from '../commandDefaults.js';
 import type { Done } from '../commandResult.js';
 import { forecastLevelProblems } from '../forecastLevels.js';
 import { inputFiles, runInputFiles } from '../inputFiles.js';
 import { lockedRun } from '../lockedRun.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
+import type { ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
+import { scenarioSettingsSchema, type ScenarioSettings } from '../scenarios/scenarioSettings.js';
 import { RUN_LIMITS } from '../settingRules.js';
-import { alphaSchema, boundedNumber, daySchema, inputSourcesSchema, outFolderSchema, validSettings } from '../settingSchemas.js';
+import { alphaSchema, boundedNumber, daySchema, inputSourcesSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { SCENARIO_PLAN_OUTPUTS, scenarioPlan, type ScenarioPlanSummary } from './scenarioPlan.js';
 import { planSummary, planSummaryText, planWarnings, planWorth, type PlanWorth } from './planSummary.js';
 
-export { PLAN_DEFAULTS } from '../commandDefaults.js';
+export { PLAN_COMMAND_POLICIES, PLAN_DEFAULTS, type PlanCommandPolicy } from '../commandDefaults.js';
 
 /** The settings of `quantbid plan`, checked once when the plan starts. */
 export const planSettingsSchema = z.strictObject({
@@ -34,10 +36,15 @@ export const planSettingsSchema = z.strictObject({
   /** Tail level: buys limited at q(1 - alpha), sells at q(alpha); default 0.1. */
   alpha: alphaSchema.default(PLAN_DEFAULTS.alpha),
   /** Planning policy; default quantile. */
-  policy: z.enum(PLAN_POLICIES as readonly PlanPolicy[] as [PlanPolicy, ...PlanPolicy[]]).default(PLAN_DEFAULTS.policy),
+  policy: z.enum(PLAN_COMMAND_POLICIES as readonly PlanCommandPolicy[] as [PlanCommandPolicy, ...PlanCommandPolicy[]]).default(PLAN_DEFAULTS.policy),
+  /** Paths and settings of the curve and auto policies (required by them). */
+  scenarios: scenarioSettingsSchema.optional(),
+  /** What the battery does about unaccepted orders: auto scores its candidates under it. Default follow-plan. */
+  unaccepted: unacceptedRuleSchema.default(PLAN_DEFAULTS.unaccepted),
   /**
    * State of charge at the start of the day [MWh]; default socInitialFraction x energyMwh. Outside the
-   * battery's window it is accepted with a warning, and the plan first comes back into the window.
+   * battery's window it is accepted with a warning, and the plan first comes back into the window
+   * (not with curve or auto, which start inside it).
    */
   socStartMwh: boundedNumber(RUN_LIMITS.socStartMwh).optional(),
   /** Folder for orders.csv, schedule.csv, plan.json (and report.html); none: nothing is written. */
@@ -52,7 +59,10 @@ export const planSettingsSchema = z.strictObject({
 
 export type PlanSettings = z.input<typeof planSettingsSchema>;
 
-export type PlanSummary = ReturnType<typeof planSummary>;
+export type PlanSummary = ReturnType<typeof planSummary> | ScenarioPlanSummary;
+
+/** What a plan may need besides its settings: the LP solver of the curve and auto policies. */
+export type PlanTools = ScenarioTools;
 
 const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
 
@@ -60,8 +70,12 @@ const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
  * `quantbid plan`: one delivery day's orders and schedule from the quantile forecast (planDay), written
  * as orders.csv, schedule.csv, plan.json and, when asked, report.html into `out` as one output set.
  */
-export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOKS): Done<PlanSummary> {
+export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOKS, tools: PlanTools = {}): Done<PlanSummary> {
   const s = validSettings(planSettingsSchema, settings, 'plan');
+  const onScenarios = s.policy === 'curve' || s.policy === 'auto';
+  if (onScenarios && s.scenarios === undefined) {
+    throw new InputError([{ file: 'command line', field: '--paths', message: `the ${s.policy} policy plans on whole-day price paths and none were given`, fix: 'give --paths FILE (quantbid forecast --paths 364 writes one)' }]);
+  }
   const { paths, demoDay } = inputFiles(s.inputs, ['market', 'battery', 'forecast'], ['history']);
   const day = s.day ?? demoDay;
   if (day === undefined) {
@@ -70,9 +84,9 @@ export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOK
   if (s.report && s.out === undefined) {
     throw new InputError([{ file: 'command line', field: '--report', message: 'report.html needs a folder to go to', fix: 'add --out DIR' }]);
   }
-  const outputs = s.report ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS;
+  const outputs = onScenarios ? [...SCENARIO_PLAN_OUTPUTS, ...(s.report ? ['report.html'] : [])] : s.report ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS;
   if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
-  return lockedRun(s.out, 'plan', (lock) => planDayRun(s, { paths, day, outputs, lock }, hooks));
+  return lockedRun(s.out, 'plan', (lock) => planDayRun(s, { paths, day, outputs, lock }, hooks, tools));
 }
 
 /** The plan of `day` from the checked settings, written under the output folder's lock (when there is a folder). */
@@ -80,6 +94,7 @@ function planDayRun(
   s: z.output<typeof planSettingsSchema>,
   run: { readonly paths: Record<'market' | 'battery' | 'forecast', string> & { readonly history?: string }; readonly day: string; readonly outputs: readonly string[]; readonly lock: OutputLock | undefined },
   hooks: RunHooks,
+  tools: PlanTools,
 ): Done<PlanSummary> {
   const { paths, day, outputs } = run;
   const { market, battery, forecastFile } = readPlanInputs(paths, day, (text) => hooks.note(text));
@@ -89,6 +104,17 @@ function planDayRun(
     throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is more than the battery's energy ${battery.energyMwh} MWh`, fix: 'give the energy in store now, at most energyMwh' }]);
   }
   throwIfProblems(forecastLevelProblems(forecastFile.levels, forecastFile.file, { policies: [s.policy], alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policy' }));
+  if (s.policy === 'curve' || s.policy === 'auto') {
+    if (socStartMwh < battery.socMinMwh || socStartMwh > battery.socMaxMwh) {
+      throw new InputError([{ file: 'command line', field: '--soc-start', message: `${socStartMwh} MWh is outside the battery's window [${battery.socMinMwh}, ${battery.socMaxMwh}] MWh, where ${s.policy} plans`, fix: 'give a start inside the window, or plan the way back with another policy first' }]);
+    }
+    if (tools.lpSolver === undefined) throw new Error(`planUseCase: the ${s.policy} policy needs tools.lpSolver (loadHighsSolver)`);
+    const inputs: Record<string, string> = { ...paths };
+    return scenarioPlan(
+      { day, policy: s.policy, scenarios: s.scenarios as ScenarioSettings, market, battery, forecastFile, forecast, socStartMwh, unaccepted: s.unaccepted, inputs, out: s.out, force: s.force, report: s.report, solver: tools.lpSolver, lock: run.lock },
+      hooks,
+    );
+  }
   const result = planDay({ forecast, market, battery, policy: s.policy, alpha: s.alpha, socStartMwh });
   if (result.status !== 'optimal') {
     throw new InputError([{ file: paths.battery, message: `no feasible plan for ${day}: ${result.reason}`, fix: 'check the battery spec and --soc-start' }]);

@@ -151,12 +151,12 @@ function compareOnCommonDays(scored: readonly ScoredDay[], against: QuantileFore
 function scoreScenarioPaths(file: ScenarioPathsFile, history: PriceHistory, range: { from: string; to: string }): PathScoresInput {
   const realised = new Map(history.days.map((d) => [d.day, d.pricePerMwh]));
   const days: ScoredPathDay[] = [];
-  const unscoredDays: UnscoredDay[] = file.incompleteDays.filter((d) => d.day >= range.from && d.day <= range.to).map((d) => ({ day: d.day, reason: `incomplete in the paths file: ${d.reason}` }));
+  const unscoredDays: UnscoredDay[] = [];
   for (const [day, paths] of [...file.days].sort(([a], [b]) => (a < b ? -1 : 1))) {
     if (day < range.from || day > range.to) continue;
     const prices = realised.get(day);
     if (prices === undefined) unscoredDays.push({ day, reason: 'not in the history: no realised prices' });
-    else days.push({ day, paths: paths.paths, realised: prices });
+    else days.push({ day, paths, realised: prices });
   }
   if (days.length === 0) {
     throw new InputError([{ file: file.file, field: 'period_start', message: 'no day of the paths file has realised prices in the history (within --from/--to where given)', fix: 'score paths of days the history covers' }]);

@@ -3,7 +3,8 @@
  * dist/app/size/sizeTask.js. `loadContext` takes the inputs the parent read (or reads the four input
  * files once per thread); `run` backtests one typed setting `{ energy_mwh, power_mw,
  * round_trip_efficiency, policy }`, checked when the sizing's settings were, and returns its row with
- * the project economics (sizing/sizeSettingRow.ts).
+ * the project economics (sizing/sizeSettingRow.ts). With curve or auto on the policy axis, each thread
+ * loads HiGHS once (app/scenarios/gridScenarios.ts).
  */
 import type { BacktestInputPaths, GivenForecast } from '../../io/readBacktestInputs.js';
 import { sharedInputData, type SharedInputs } from '../../io/sharedInputs.js';
@@ -12,6 +13,7 @@ import { RunMemo, type PolicyRun } from '../../backtest/policyRun.js';
 import type { AlphaMode } from '../../sizing/alphaChoice.js';
 import type { SizeCosts } from '../../sizing/sizeEconomics.js';
 import { sizeSettingRow, type SizeGridSetting, type SizeRow, type SizeStudy } from '../../sizing/sizeSettingRow.js';
+import type { GridScenarioInput } from '../scenarios/gridScenarios.js';
 
 /** The sizing's contextInput: plain data, copied into every worker (the inputs' prices shared, not copied). */
 export interface SizeTaskInput {
@@ -27,6 +29,8 @@ export interface SizeTaskInput {
   readonly costs: SizeCosts;
   /** Whether the efficiency axis replaces the spec's efficiencies (--efficiency given). */
   readonly efficiencyGiven: boolean;
+  /** The paths and settings of curve and auto, when the policy axis holds either. */
+  readonly scenarios?: GridScenarioInput;
 }
 
 export interface SizeTaskContext {
@@ -49,6 +53,7 @@ export async function loadContext(task: SizeTaskInput): Promise<SizeTaskContext>
     alpha: task.alpha,
     unaccepted: task.unaccepted,
     costs: task.costs,
+    scenarioPlanning: task.scenarios === undefined ? null : await (await import('../scenarios/gridScenarios.js')).gridScenarioPlanning(task.scenarios, data),
   };
   return { study, efficiencyGiven: task.efficiencyGiven, memo: new RunMemo() };
 }

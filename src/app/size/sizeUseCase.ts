@@ -17,6 +17,8 @@ import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { BATTERY_LIMITS } from '../../battery/batterySpec.js';
 import { RUN_LIMITS } from '../settingRules.js';
 import { alphaSchema, boundedNumber, checkSpan, daySchema, spanProblem, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
+import { gridScenarioInput } from '../scenarios/gridScenarios.js';
+import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { sizeSummary, sizeSummaryText } from './sizeSummary.js';
 import type { SizeTaskInput } from './sizeTask.js';
 
@@ -100,6 +102,8 @@ export const sizeSettingsSchema = z
     /** What the battery does about unaccepted orders; default follow-plan. */
     unaccepted: unacceptedRuleSchema.default(SIZE_DEFAULTS.unaccepted),
     costs: sizeCostsSchema,
+    /** Paths and settings of curve and auto (required when the policy axis holds either). */
+    scenarios: scenarioSettingsSchema.optional(),
   })
   .superRefine((s, ctx) => {
     checkSpan(s, ctx);
@@ -132,8 +136,14 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
       { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
       { name: 'policy', option: '--policies', values: sizePolicyAxis(s.policies) },
     ] as const;
-    // The workers get the inputs as read here, cut to the span and shared: none reads or parses a file again.
-    const contextInput: SizeTaskInput = { paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined, shared: shareInputs(inputDataSpan(data, from, to)) };
+    const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
+    // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
+    // spread is learnt from the history before each day) and shared: none reads or parses a file again.
+    const contextInput: SizeTaskInput = {
+      paths, from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: s.efficiencies !== undefined,
+      shared: shareInputs(scenarios === undefined ? inputDataSpan(data, from, to) : data),
+      ...(scenarios === undefined ? {} : { scenarios }),
+    };
     return runGridCommand(
       {
         command: 'size',
@@ -142,8 +152,9 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
         axes,
         taskModule: new URL('./sizeTask.js', import.meta.url),
         contextInput,
-        identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven },
+        identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
         paths,
+        moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
         model,
         summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
         report: (results, summary) => sizeReport({ results, summary }),

@@ -2,14 +2,17 @@
  * The task module of `quantbid sweep` (contract: grid/workerPool.ts), run from its compiled copy
  * dist/app/sweep/sweepTask.js. `loadContext` takes the inputs the parent read (or reads the four
  * input files once per thread); `run` backtests one typed setting `{ alpha, policy, unaccepted }`,
- * checked when the sweep's settings were, and returns its row (backtest/sweepSettingRow.ts).
+ * checked when the sweep's settings were, and returns its row (backtest/sweepSettingRow.ts). With curve
+ * or auto on the policy axis, each thread loads HiGHS once (app/scenarios/gridScenarios.ts).
  */
 import { batteryModel } from '../../battery/batteryModel.js';
 import { RunMemo, type PolicyRun } from '../../backtest/policyRun.js';
 import type { BacktestInput } from '../../backtest/runBacktest.js';
+import type { ScenarioPlanning } from '../../backtest/scenarioPlanning.js';
 import { sweepSettingRow, type SweepRow, type SweepSetting } from '../../backtest/sweepSettingRow.js';
 import type { BacktestInputPaths, GivenForecast } from '../../io/readBacktestInputs.js';
 import { sharedInputData, type SharedInputs } from '../../io/sharedInputs.js';
+import type { GridScenarioInput } from '../scenarios/gridScenarios.js';
 
 /** The sweep's contextInput: plain data, copied into every worker (the inputs' prices shared, not copied). */
 export interface SweepTaskInput {
@@ -21,21 +24,24 @@ export interface SweepTaskInput {
   /** First and last delivery day, YYYY-MM-DD, both included. */
   readonly from: string;
   readonly to: string;
+  /** The paths and settings of curve and auto, when the policy axis holds either. */
+  readonly scenarios?: GridScenarioInput;
 }
 
 export interface SweepTaskContext {
   readonly input: BacktestInput;
   /** Reference runs (perfect foresight, point) made once per worker. */
   readonly memo: RunMemo<PolicyRun>;
+  readonly scenarioPlanning: ScenarioPlanning | null;
 }
 
 export async function loadContext(task: SweepTaskInput): Promise<SweepTaskContext> {
   // The readers (and their schemas) load only where the inputs were not handed over.
   const data = task.shared !== undefined ? sharedInputData(task.shared) : (await import('../../io/readBacktestInputs.js')).readBacktestInputsOnce(task.paths, task.forecast);
   const input: BacktestInput = { market: data.market, battery: batteryModel(data.batterySpec), history: data.history, forecast: data.forecast, from: task.from, to: task.to };
-  return { input, memo: new RunMemo() };
+  return { input, memo: new RunMemo(), scenarioPlanning: task.scenarios === undefined ? null : await (await import('../scenarios/gridScenarios.js')).gridScenarioPlanning(task.scenarios, data) };
 }
 
 export function run(setting: SweepSetting, context: SweepTaskContext): SweepRow {
-  return sweepSettingRow(context.input, setting, context.memo);
+  return sweepSettingRow(context.input, setting, context.memo, context.scenarioPlanning);
 }

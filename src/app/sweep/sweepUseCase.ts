@@ -11,6 +11,8 @@ import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { alphaSchema, checkSpan, daySchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { ALPHA_RANGE, isAlpha } from '../../plan/alpha.js';
 import { UNACCEPTED_RULES } from '../../settle/settleDay.js';
+import { gridScenarioInput } from '../scenarios/gridScenarios.js';
+import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { sweepSummary, sweepSummaryText } from './sweepSummary.js';
 import type { SweepTaskInput } from './sweepTask.js';
 
@@ -35,8 +37,10 @@ export const sweepSettingsSchema = z
     to: daySchema,
     /** The alpha axis: tail levels, each in (0, 0.5). */
     alphas: eachOnce(alphaSchema),
-    /** The policy axis: policies whose orders depend on alpha. */
+    /** The policy axis: quantile and median, whose orders depend on alpha, and curve and auto, which ignore it. */
     policies: eachOnce(z.enum(SWEEP_POLICIES)),
+    /** Paths and settings of curve and auto (required when the policy axis holds either). */
+    scenarios: scenarioSettingsSchema.optional(),
     /** The axis of rules for unaccepted orders. */
     unaccepted: eachOnce(unacceptedRuleSchema),
   })
@@ -62,9 +66,11 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
   const use = { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' };
   return lockedGridRun(s, 'sweep', use, hooks, ({ paths, data, model }, lock) => {
     const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-    // The workers get the inputs as read here, cut to the span and shared: none reads or parses a file again.
+    const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
+    // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
+    // spread is learnt from the history before each day) and shared: none reads or parses a file again.
     const span = inputDataSpan(data, from, to);
-    const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(span) };
+    const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(scenarios === undefined ? span : data), ...(scenarios === undefined ? {} : { scenarios }) };
     // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
     let references: SweepReferenceRow[] | undefined;
     const referenceRows = (): SweepReferenceRow[] =>
@@ -77,8 +83,9 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
         axes,
         taskModule: new URL('./sweepTask.js', import.meta.url),
         contextInput,
-        identity: { from, to },
+        identity: { from, to, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
         paths,
+        moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
         model,
         summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext }),
         moreRows: () => referenceRows(),

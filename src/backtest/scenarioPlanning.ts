@@ -1,0 +1,50 @@
+import type { QuantileDay } from '../types.js';
+import type { SparseLpSolver } from '../curves/linearProgram.js';
+import type { ScenarioSet } from '../scenarios/scenarioSet.js';
+
+/**
+ * A day's scenarios: planning paths, on which curves are chosen, and fresh paths, drawn apart from them,
+ * on which every candidate is scored (docs/design.md section 4.7). Scoring on the planning paths would
+ * flatter whatever was fitted to them.
+ */
+export interface DayScenarios {
+  readonly planning: ScenarioSet;
+  readonly fresh: ScenarioSet;
+}
+
+/** Makes the scenarios of a delivery day from its quantile forecast (the app decides how: paths and seeds). */
+export type DayScenarioSource = (forecast: QuantileDay) => DayScenarios;
+
+/** What the `curve` and `auto` policies need besides a day's forecast. */
+export interface ScenarioPlanning {
+  readonly scenarios: DayScenarioSource;
+  readonly solver: SparseLpSolver;
+  /** Most steps of a period's curve [-]. */
+  readonly curveSteps: number;
+  /** lambda >= 0 of the criterion mean + lambda x CVaR 5 % (scenarios/criterion.ts). */
+  readonly riskWeight: number;
+  /** The alphas of the quantile and median candidates of `auto` (each with 1 - alpha in the forecast's levels). */
+  readonly alphas: readonly number[];
+  /**
+   * z [-]: `auto` leaves price-taking only for a candidate whose advantage over it on the fresh paths
+   * exceeds z standard errors of the paired difference (winner's-curse control).
+   */
+  readonly switchStandardErrors: number;
+}
+
+/**
+ * Defaults of scenario planning, measured on the known-distribution bench across all its settings
+ * (docs/scenario-bids.md, bench/scenarioBids/dayTrials.js): the curves' value did not change with the
+ * steps (2, 4, 8) and came closer to price-taking's with more planning paths (50 to 400) at a cost in
+ * time about proportional to them, so 100 paths (the timing goal's) and 4 steps; z = 2: on the bench
+ * days no setting or rule loses against price-taking at z = 1.5 or 2, some do below 1.5, and 2 is the
+ * more cautious of the two.
+ */
+export const SCENARIO_DEFAULTS = Object.freeze({
+  planningPaths: 100,
+  freshPaths: 1000,
+  curveSteps: 4,
+  riskWeight: 0,
+  alphas: Object.freeze([0.05, 0.1, 0.2, 0.3, 0.4]),
+  switchStandardErrors: 2,
+});
