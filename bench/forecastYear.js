@@ -1,19 +1,21 @@
 // A year of daily quantile forecasts at 15 minutes on the fictional demo market (scenarios/halvorn),
-// 19 levels 0.05..0.95, default options, by the default method (or --method), through forecastRange as
-// `quantbid forecast` calls it: one fresh Forecaster, so the time includes the point forecasts of the
-// calibration days before the first day. Prints the median wall time per day, the total, the share of
-// it spent fitting models (least squares / LASSO per slot and window, QRA's quantile regressions; the
-// forecaster's fit stopwatch, src/forecast/fitStopwatch.ts), and both against the time to read and
-// validate that year's history CSV (cut to the year, uncompressed), measured in the same process.
+// 19 levels 0.05..0.95, default options, by each method of --methods (default: arx-hs, the default
+// before auto, and the default method), through forecastRange as `quantbid forecast` calls it: one
+// fresh Forecaster per method, so the time includes the point forecasts of the calibration days before
+// the first day. Prints per method the median wall time per day, the total, the share of it spent
+// fitting models (least squares / LASSO per slot and window, QRA's quantile regressions; the
+// forecaster's fit stopwatch, src/forecast/fitStopwatch.ts), all against the time to read and validate
+// that year's history CSV (cut to the year, uncompressed), and each method's year against the first
+// method's, measured in the same process.
 //
-//   npm run build && node bench/forecastYear.js [--year 2026] [--method arx-hs] [--reads 3]
+//   npm run build && node bench/forecastYear.js [--year 2026] [--methods arx-hs,auto] [--reads 3]
 //
 // The day times are the gaps between forecastRange's per-day callbacks; the first day carries the
 // calibration days' point forecasts, so it is shown apart and the median is over all days.
 //
-//   node bench/forecastYear.js --baseline DIR [--rounds 3]
+//   node bench/forecastYear.js --baseline DIR [--rounds 3] [--method NAME]
 //
-// times the same year with the dist/ of DIR (another built checkout, e.g. of main) in separate
+// times the same year of one method (--method, default the default method) with the dist/ of DIR (another built checkout, e.g. of main) in separate
 // processes, interleaved round by round with this checkout's, and prints the median CPU and wall time
 // of each, the ratio of the medians, and whether both made the same forecasts (a SHA-256 of every
 // quantile, point and path price, bit for bit).
@@ -69,12 +71,16 @@ const { readPriceHistory } = await loadDist('io/readPriceHistory.js');
 const { DayCalendar } = await loadDist('market/dayCalendar.js');
 
 const YEAR = arg('year', '2026');
-const METHOD = arg('method', DEFAULT_METHOD);
+const METHODS = (arg('methods', null) ?? arg('method', null) ?? [...new Set(['arx-hs', DEFAULT_METHOD])].join(',')).split(',');
 const READS = Number(arg('reads', 3));
-if (!FORECAST_METHODS.includes(METHOD)) {
-  console.error(`--method ${METHOD}: expected one of ${FORECAST_METHODS.join(', ')}`);
-  process.exit(2);
+for (const method of METHODS) {
+  if (!FORECAST_METHODS.includes(method)) {
+    console.error(`--methods ${method}: expected one of ${FORECAST_METHODS.join(', ')}`);
+    process.exit(2);
+  }
 }
+/** --json (one process of a --baseline comparison): the first method only. */
+const JSON_OUT = process.argv.includes('--json');
 const LEVELS = Array.from({ length: 19 }, (_, i) => Number(((i + 1) * 0.05).toFixed(2)));
 
 /** The CSV's header and the rows whose local timestamp starts with the year. */
@@ -99,40 +105,47 @@ try {
   // The forecaster reads the whole history: the year before gives the calibration days.
   const history = readPriceHistory(join(demo, 'history.csv.gz'), market);
   const calendar = new DayCalendar(market.timeZone, market.periodMinutes);
-  const request = {
-    from: `${YEAR}-01-01`, to: `${YEAR}-12-31`, method: METHOD, levels: LEVELS,
-    priceFloor: market.priceFloor, priceCap: market.priceCap, periodsOf: (d) => calendar.periods(d),
-  };
-  const stopwatch = { now: () => performance.now(), spentMs: 0, calls: 0 };
-  const dayMs = [];
-  const cpuStarted = process.cpuUsage();
-  const started = performance.now();
-  let last = started;
-  const run = forecastRange(history, request, { stopwatch }, () => {
-    const now = performance.now();
-    dayMs.push(now - last);
-    last = now;
-  });
-  const totalMs = performance.now() - started;
-  const cpu = process.cpuUsage(cpuStarted);
-  const cpuMs = (cpu.user + cpu.system) / 1000;
-  const perDay = median(dayMs);
-  const days = run.forecasts.length;
-  if (process.argv.includes('--json')) {
-    const digest = createHash('sha256');
-    for (const f of run.forecasts) {
-      for (const row of f.quantiles.prices) digest.update(new Float64Array(row));
-      digest.update(new Float64Array(f.point));
-      for (const path of f.paths) digest.update(new Float64Array(path));
-    }
-    console.log(JSON.stringify({ method: METHOD, days, cpuMs, totalMs, perDay, digest: digest.digest('hex') }));
-  } else {
-    console.log(`year ${YEAR} of the demo market at 15 minutes, method ${METHOD}${METHOD === DEFAULT_METHOD ? ' (default)' : ''}, 19 levels, default options`);
-    console.log(`days forecast                      ${days} (${run.skipped.length} skipped)`);
+  if (!JSON_OUT) {
+    console.log(`year ${YEAR} of the demo market at 15 minutes, 19 levels, default options (default method ${DEFAULT_METHOD})`);
     console.log(`read and validate the year's CSV   median ${(read / 1000).toFixed(3)} s over ${READS} reads (the reference)`);
+  }
+  let firstMs = null;
+  for (const METHOD of JSON_OUT ? METHODS.slice(0, 1) : METHODS) {
+    const request = {
+      from: `${YEAR}-01-01`, to: `${YEAR}-12-31`, method: METHOD, levels: LEVELS,
+      priceFloor: market.priceFloor, priceCap: market.priceCap, periodsOf: (d) => calendar.periods(d),
+    };
+    const stopwatch = { now: () => performance.now(), spentMs: 0, calls: 0 };
+    const dayMs = [];
+    const cpuStarted = process.cpuUsage();
+    const started = performance.now();
+    let last = started;
+    const run = forecastRange(history, request, { stopwatch }, () => {
+      const now = performance.now();
+      dayMs.push(now - last);
+      last = now;
+    });
+    const totalMs = performance.now() - started;
+    const cpu = process.cpuUsage(cpuStarted);
+    const cpuMs = (cpu.user + cpu.system) / 1000;
+    const perDay = median(dayMs);
+    const days = run.forecasts.length;
+    if (JSON_OUT) {
+      const digest = createHash('sha256');
+      for (const f of run.forecasts) {
+        for (const row of f.quantiles.prices) digest.update(new Float64Array(row));
+        digest.update(new Float64Array(f.point));
+        for (const path of f.paths) digest.update(new Float64Array(path));
+      }
+      console.log(JSON.stringify({ method: METHOD, days, cpuMs, totalMs, perDay, digest: digest.digest('hex') }));
+      continue;
+    }
+    firstMs ??= totalMs;
+    console.log(`\nmethod ${METHOD}${METHOD === DEFAULT_METHOD ? ' (default)' : ''}`);
+    console.log(`days forecast                      ${days} (${run.skipped.length} skipped)`);
     console.log(`forecast, median per day           ${(perDay / 1000).toFixed(3)} s = ${(perDay / read).toFixed(2)} x the read`);
     console.log(`forecast, first day                ${((dayMs[0] ?? 0) / 1000).toFixed(1)} s (the calibration days' point forecasts)`);
-    console.log(`forecast, the whole year           ${(totalMs / 1000).toFixed(1)} s wall, ${(cpuMs / 1000).toFixed(1)} s CPU = ${(totalMs / read).toFixed(1)} x the read`);
+    console.log(`forecast, the whole year           ${(totalMs / 1000).toFixed(1)} s wall, ${(cpuMs / 1000).toFixed(1)} s CPU = ${(totalMs / read).toFixed(1)} x the read = ${(totalMs / firstMs).toFixed(2)} x ${METHODS[0]}'s year`);
     console.log(`share of the time fitting models   ${(100 * stopwatch.spentMs / totalMs).toFixed(1)} % (${stopwatch.calls} models fitted, ${(1000 * stopwatch.spentMs / stopwatch.calls).toFixed(1)} us each)`);
   }
 } finally {

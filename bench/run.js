@@ -16,7 +16,7 @@ const benches = [
   ['one year backtest against reading its CSVs', 'yearBacktest.js', []],
   ['whole processes against plain Node: the year backtest, --version, --help, plan', 'wholeRun.js', []],
   ['one year sweep on 1 and 2 threads', 'sweepYear.js', []],
-  ['one year of daily forecasts by the default method, share fitting, against reading the year', 'forecastYear.js', []],
+  ['one year of daily forecasts by arx-hs and the default method, share fitting, against reading the year', 'forecastYear.js', []],
   ['curve planning of a 96-period day on 100 paths against the extensive form (goal: at most 1.5 s, a tenth of 13.7 s)', 'scenarioBids/curveTiming.js', ['--days', '3']],
   ...(all
     ? [

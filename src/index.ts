@@ -61,6 +61,10 @@ export { meanPrice, orderExpectation, type OrderExpectation } from './forecast/q
 export { compareForecasts, type ForecastComparison } from './forecast/scoring/compareForecasts.js';
 export { pinballLoss } from './forecast/scoring/pinball.js';
 export { scoreForecasts, type ScoreTable, type ScoredDay } from './forecast/scoring/scoreForecasts.js';
+export { energyScore } from './forecast/scoring/energyScore.js';
+export { variogramScore } from './forecast/scoring/variogramScore.js';
+export { scenarioPaths, type ScenarioPathsRequest } from './forecast/paths/scenarioPaths.js';
+export { forecastFileScenarioPaths, naiveErrorTemplate, pitTemplate, type ForecastFilePathsRequest, type PastForecastDay } from './forecast/paths/dependenceTemplate.js';
 
 // ---- size a battery: scaled batteries, alpha chosen out of sample, project economics ----
 export { alphaSplit, chooseAlpha, type AlphaMode } from './sizing/alphaChoice.js';

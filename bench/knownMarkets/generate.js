@@ -10,7 +10,9 @@
 //   quantbid score --scenario runs/known/convex-hetero/scenario.json --forecast runs/fc/quantiles.csv \
 //                  --against runs/known/convex-hetero/truth.csv --out runs/fc-score
 //
-// Options: --out DIR (default bench/.cache/knownMarkets), --settings name,name (default all).
+// Options: --out DIR (default bench/.cache/knownMarkets), --settings name,name (default all), --draw N
+// (default 0, the bench's own draw; another whole number draws every stream afresh: the same settings,
+// independent data, for a check that nothing was fitted to one draw).
 // Same seed streams, same files, byte for byte.
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
@@ -24,12 +26,12 @@ const dist = (path) => import(pathToFileURL(join(root, 'dist', path)).href);
 /** The 19 levels 0.05, 0.10, ..., 0.95. */
 export const LEVELS = Object.freeze(Array.from({ length: 19 }, (_, i) => Number(((i + 1) * 0.05).toFixed(2))));
 
-/** Simulates one setting (the project's calendar and normal distribution functions from dist/). */
-export async function simulateSetting(setting) {
+/** Simulates one setting (the project's calendar and normal distribution functions from dist/); draw 0 is the bench's own. */
+export async function simulateSetting(setting, draw = 0) {
   const { deliveryPeriods, daysBetween } = await dist('market/calendar.js');
   const { normalCdf } = await dist('stats/normalCdf.js');
   const { normalQuantile } = await dist('stats/normalQuantile.js');
-  return simulateMarket(setting, { deliveryPeriods, days: daysBetween, normal: { cdf: normalCdf, quantile: normalQuantile } }, { ...SPAN, levels: LEVELS });
+  return simulateMarket(setting, { deliveryPeriods, days: daysBetween, normal: { cdf: normalCdf, quantile: normalQuantile } }, { ...SPAN, levels: LEVELS, draw });
 }
 
 /** The files of one setting, as { name: text }. */
@@ -71,14 +73,14 @@ export async function settingFiles(setting, simulation) {
 }
 
 /** Simulates and writes the settings named (all by default) into `out`/<name>/; returns the folders. */
-export async function writeSettings(out, names = SETTINGS.map((s) => s.name)) {
+export async function writeSettings(out, names = SETTINGS.map((s) => s.name), draw = 0) {
   const folders = [];
   for (const name of names) {
     const setting = SETTINGS.find((s) => s.name === name);
     if (setting === undefined) throw new Error(`no setting "${name}"; the settings are ${SETTINGS.map((s) => s.name).join(', ')}`);
     const folder = join(out, name);
     mkdirSync(folder, { recursive: true });
-    const files = await settingFiles(setting, await simulateSetting(setting));
+    const files = await settingFiles(setting, await simulateSetting(setting, draw));
     for (const [file, text] of Object.entries(files)) writeFileSync(join(folder, file), text);
     folders.push(folder);
   }
@@ -92,6 +94,6 @@ if (import.meta.url === pathToFileURL(process.argv[1] ?? '').href) {
   };
   const out = resolve(arg('out', join(root, 'bench', '.cache', 'knownMarkets')));
   const names = arg('settings', SETTINGS.map((s) => s.name).join(',')).split(',');
-  const folders = await writeSettings(out, names);
+  const folders = await writeSettings(out, names, Number(arg('draw', 0)));
   for (const folder of folders) console.log(`wrote ${folder}`);
 }

@@ -213,13 +213,15 @@ export function periodMean(law, setting, normal) {
  * Simulates a setting over [from, to] and computes the true quantiles of the days from truthFrom on.
  * @param {object} setting see settings.js
  * @param {object} tools { deliveryPeriods(day, zone, minutes), normal: { cdf, quantile }, days(from, to) }
- * @param {{ from: string, to: string, truthFrom: string, levels: number[] }} span
+ * @param {{ from: string, to: string, truthFrom: string, levels: number[], draw?: number }} span draw: 0 (the
+ *   default) the bench's own draw; another whole number a fresh, independent draw of the same setting
  * @returns {{ days: object[] }} per day: day, periods, price, imbalance, load, renewables, laws, and from
  *   truthFrom on truth (quantiles per period at the levels) and mean (the mean price per period); else null
  */
 export function simulateMarket(setting, tools, span) {
   const { name, market, load, wind, solar, price, noise, spikes, imbalance } = setting;
-  const stream = (process) => new Stream(`${name}/${process}`);
+  const draw = span.draw ?? 0;
+  const stream = (process) => new Stream(draw === 0 ? `${name}/${process}` : `${name}#${draw}/${process}`);
   const weatherStream = stream('load-weather');
   const windStream = stream('wind');
   const clearnessStream = stream('clearness');

@@ -6,6 +6,7 @@
 // both hemispheres. The zones are only clocks; the currency label is invented.
 //
 // Units: loads and capacities [MW]; residual-load parameters [GW]; prices [currency/MWh].
+import { readFileSync } from 'node:fs';
 
 const NO_SPIKES = Object.freeze({ rhoHour: 0.9, up: { p0: 0, p1: 0, centreGw: 0, widthGw: 1, low: 0, shape: 1 }, down: { p0: 0, shareCentre: 0, shareWidth: 1, low: 0, high: 0 } });
 
@@ -110,15 +111,5 @@ export const SETTINGS = Object.freeze([
 /** History span (three years) and the year the bench scores (the last one). */
 export const SPAN = Object.freeze({ from: '2029-01-01', to: '2031-12-31', truthFrom: '2031-01-01' });
 
-/** The battery every setting is planned with (the demo's). */
-export const BATTERY = Object.freeze({
-  energyMwh: 10,
-  chargeMw: 5,
-  dischargeMw: 5,
-  roundTripEfficiency: 0.88,
-  socMinFraction: 0.05,
-  socMaxFraction: 0.95,
-  socInitialFraction: 0.5,
-  maxCyclesPerDay: 2,
-  degradationCostPerMwh: 4,
-});
+/** The battery every setting is planned with: the demo's own (scenarios/halvorn/battery.json). */
+export const BATTERY = Object.freeze(JSON.parse(readFileSync(new URL('../../scenarios/halvorn/battery.json', import.meta.url), 'utf8')));

@@ -5,7 +5,7 @@
  */
 import { join } from 'node:path';
 import { SWEEP_POLICIES } from '../backtest/backtestPolicy.js';
-import { DEFAULT_METHOD } from '../forecast/forecastMethods.js';
+import { DEFAULT_METHOD, DEFAULT_PATH_SEED } from '../forecast/forecastMethods.js';
 import { PLAN_POLICIES } from '../plan/alpha.js';
 import type { UnacceptedRule } from '../settle/unacceptedRule.js';
 import type { PlanPolicy } from '../types.js';
@@ -17,8 +17,8 @@ export type PlanCommandPolicy = PlanPolicy | 'curve' | 'auto';
 /** Defaults of `quantbid plan`: the quantile policy at alpha 0.1; curve and auto score their candidates under follow-plan. */
 export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanCommandPolicy, unaccepted: 'follow-plan' as UnacceptedRule });
 
-/** Defaults of `quantbid forecast`: the method of docs/forecast-quality.md, 19 levels, no paths. */
-export const FORECAST_DEFAULTS = Object.freeze({ method: DEFAULT_METHOD, paths: 0 });
+/** Defaults of `quantbid forecast`: the method of docs/forecast-quality.md, 19 levels, no paths, path seed 1. */
+export const FORECAST_DEFAULTS = Object.freeze({ method: DEFAULT_METHOD, paths: 0, pathSeed: DEFAULT_PATH_SEED });
 
 /** The levels `quantbid forecast` and --model forecast by default, as written in the help. */
 export const DEFAULT_LEVELS_TEXT = '0.05:0.95:0.05';

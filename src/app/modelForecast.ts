@@ -1,4 +1,5 @@
 import { InputError } from '../errors/inputError.js';
+import { chosenMethodsRecord } from '../forecast/autoChoices.js';
 import { DEFAULTS, type ForecastMethod } from '../forecast/forecaster.js';
 import { NO_STORE, storedForecastRange } from '../forecast/storedForecastRange.js';
 import { ForecastCache } from '../io/forecastCache.js';
@@ -44,6 +45,8 @@ export interface ModelForecastSummary {
   readonly options: typeof DEFAULTS;
   readonly daysForecast: number;
   readonly skippedDays: readonly { readonly day: string; readonly reason: string }[];
+  /** With --model auto: the method and calibration window chosen each day, and how often each; else null. */
+  readonly chosenMethods: ReturnType<typeof chosenMethodsRecord>;
 }
 
 /** The levels --model forecasts: the settings', else the default. */
@@ -97,7 +100,7 @@ export function makeModelForecast(model: ModelSettings, market: MarketSpec, hist
     csv,
     label,
     file: parseQuantileForecast(csv, label, market),
-    summary: { method, levels: [...levels], options: DEFAULTS, daysForecast: result.forecasts.length, skippedDays: result.skipped },
+    summary: { method, levels: [...levels], options: DEFAULTS, daysForecast: result.forecasts.length, skippedDays: result.skipped, chosenMethods: chosenMethodsRecord(result.chosen) },
     identity: { method, levels: [...levels], options: DEFAULTS, version: packageVersion() },
     note: `forecasts: ${method} at ${levels.length} levels, ${count(result.forecasts.length, 'day')} forecast, ${result.skipped.length} skipped; ${count(result.daysFitted, 'day')} fitted, ${cacheText}\n`,
   };

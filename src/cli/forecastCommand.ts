@@ -1,7 +1,7 @@
 import { Command, InvalidArgumentError, Option } from 'commander';
 import { shownText } from '../errors/shownText.js';
 import { DEFAULT_LEVELS_TEXT, FORECAST_DEFAULTS } from '../app/commandDefaults.js';
-import { DEFAULT_CALIBRATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, type ForecastMethod } from '../app/vocabulary.js';
+import { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, MAX_PATHS, type ForecastMethod } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addInputOptions, forceOption, inputSources, jsonOption, levelsArg, oneOf, outOption, quietOption, requireSpanAndOut, spanOptions, type InputFlags } from './options.js';
@@ -13,19 +13,27 @@ export interface ForecastFlags extends InputFlags {
   readonly method: ForecastMethod;
   readonly levels: readonly number[];
   readonly paths: number;
+  readonly pathSeed: number;
   readonly out?: string;
   readonly force?: boolean;
   readonly json?: boolean;
   readonly quiet?: boolean;
 }
 
-/** `--paths S`: a whole number of scenario paths per day, 0 to calibrationDays. */
+/** `--paths S`: a whole number of scenario paths per day, 0 to MAX_PATHS. */
 export function parsePathCountArg(value: string): number {
   const count = Number(value);
-  if (!/^\d+$/.test(value.trim()) || count > DEFAULT_CALIBRATION_DAYS) {
-    throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number of paths from 0 to ${DEFAULT_CALIBRATION_DAYS} (one per calibration day at most)`);
+  if (!/^\d+$/.test(value.trim()) || count > MAX_PATHS) {
+    throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number of paths from 0 to ${MAX_PATHS}`);
   }
   return count;
+}
+
+/** `--path-seed N`: a whole number from 0 to 2^32 - 1. */
+export function parseSeedArg(value: string): number {
+  const seed = Number(value);
+  if (!/^\d+$/.test(value.trim()) || seed > 2 ** 32 - 1) throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number from 0 to 4294967295`);
+  return seed;
 }
 
 export function forecastCommand(io: CliIo): Command {
@@ -34,9 +42,10 @@ export function forecastCommand(io: CliIo): Command {
     .description('quantile forecasts of day-ahead prices from price history, day by day, each from the days before it only')
     .addOption(from)
     .addOption(to)
-    .option('--method <name>', `${FORECAST_METHODS.join(' | ')} (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
+    .option('--method <name>', `${FORECAST_METHODS.join(' | ')}; auto chooses each day among ${[...new Set(AUTO_CANDIDATES.map((c) => c.method))].join(', ')} by their pinball loss on the ${AUTO_VALIDATION_DAYS} days before (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
     .addOption(new Option('--levels <list>', `quantile levels in ${LEVEL_RANGE_TEXT}: a range start:end:step or a list 0.1,0.5,0.9`).argParser(levelsArg).default(levelsArg(DEFAULT_LEVELS_TEXT), DEFAULT_LEVELS_TEXT))
     .option('--paths <S>', 'also write S whole-day scenario paths per day to paths.csv', parsePathCountArg, FORECAST_DEFAULTS.paths)
+    .option('--path-seed <N>', 'seed of the paths: the same seed and inputs give the same paths', parseSeedArg, FORECAST_DEFAULTS.pathSeed)
     .addOption(outOption('folder for quantiles.csv, forecast.json and (with --paths) paths.csv, or the quantile file itself, NAME.json and NAME.paths.csv going beside it (required)', 'folder-or-csv-file'))
     .addOption(quietOption())
     .addOption(forceOption())
@@ -51,12 +60,14 @@ and NAME.paths.csv in DIR):
                  layout --forecast reads); days that could not be forecast are
                  left out and listed in forecast.json
   paths.csv      with --paths S: period_start,path,price, per day S whole-day
-                 price curves (the day's point forecast plus the errors of one
-                 calibration day, period by period, most recent day first:
-                 paths keep the dependence between periods)
+                 price curves: in every period the S values are the day's own
+                 quantiles at (j - 1/2)/S, ordered across the periods like the
+                 whole-day errors of S past days (Schaake shuffle), so paths
+                 keep the dependence between periods; seeded by --path-seed
   forecast.json  method, levels, options, days forecast and skipped with the
-                 reason; the same inputs give byte-identical files (the time
-                 spent is printed, not written)
+                 reason, and with auto the method chosen each day; the same
+                 inputs give byte-identical files (the time spent is printed,
+                 not written)
 
 Examples:
   quantbid forecast --scenario scenarios/halvorn/scenario.json \\
@@ -69,7 +80,7 @@ Examples:
   );
   command.action(async (flags: ForecastFlags) => {
     const span = requireSpanAndOut(flags, { days: 'delivery day to forecast', outFolder: 'quantiles.csv and forecast.json' });
-    const settings = { inputs: inputSources(flags), ...span, method: flags.method, levels: [...flags.levels], scenarioPaths: flags.paths, force: flags.force === true };
+    const settings = { inputs: inputSources(flags), ...span, method: flags.method, levels: [...flags.levels], scenarioPaths: flags.paths, pathSeed: flags.pathSeed, force: flags.force === true };
     const { forecastUseCase } = await import('../app/forecast/forecastUseCase.js');
     printResult(io, forecastUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
   });

@@ -8,6 +8,7 @@ import { printResult } from './printResult.js';
 
 export interface ScoreFlags extends InputFlags {
   readonly against?: string;
+  readonly paths?: string;
   readonly from?: string;
   readonly to?: string;
   readonly out?: string;
@@ -20,6 +21,7 @@ export function scoreCommand(io: CliIo): Command {
   const command = new Command('score')
     .description('score a quantile forecast against the realised prices of a history: pinball, CRPS, coverage, calibration and their tests, per period of the day and overall')
     .option('--against <file>', 'a second quantile forecast (same levels): Diebold-Mariano test of the two on their common days', pathArg)
+    .option('--paths <file>', 'whole-day scenario paths (paths.csv of quantbid forecast --paths): energy and variogram scores', pathArg)
     .option('--from <YYYY-MM-DD>', 'score only days from this one (default: the first forecast day)', dayArg)
     .option('--to <YYYY-MM-DD>', 'score only days up to this one, included (default: the last forecast day)', dayArg)
     .addOption(outOption('folder for score.json (required)'))
@@ -40,7 +42,11 @@ calibration.<level> (share of prices below the quantile), Kupiec and
 Christoffersen tests of each central interval, all overall and per period of
 the day (byPeriod), and with --against the Diebold-Mariano test (HLN-corrected,
 h = 1, on the days both forecast; each day's loss weighs its periods, so the
-mean of the daily losses is the crps of those days).
+mean of the daily losses is the crps of those days). With --paths, score.json
+also holds paths.energyScore and paths.variogramScore (order 0.5), the means
+over the days the history has, beside the same scores with each period's values
+shuffled across the paths (the marginals without the dependence between
+periods).
 
 Examples:
   quantbid score --scenario scenarios/halvorn/scenario.json \\
@@ -50,6 +56,9 @@ Examples:
                  --forecast runs/fc/quantiles.csv \\
                  --against scenarios/halvorn/quantiles.csv.gz \\
                  --out runs/fc-score
+  quantbid score --scenario scenarios/halvorn/scenario.json \\
+                 --forecast runs/fc/quantiles.csv \\
+                 --paths runs/fc/paths.csv --out runs/fc-score
   quantbid score --market market.json --history history.csv \\
                  --forecast quantiles.csv --out runs/score --json`,
   );
@@ -58,6 +67,7 @@ Examples:
     const settings = {
       inputs: inputSources(flags),
       ...(flags.against === undefined ? {} : { against: flags.against }),
+      ...(flags.paths === undefined ? {} : { paths: flags.paths }),
       ...(flags.from === undefined ? {} : { from: flags.from }),
       ...(flags.to === undefined ? {} : { to: flags.to }),
       out,

@@ -6,7 +6,7 @@ import type { HistoryDay, PriceHistory } from '../types.js';
  * defaults or the clamping changes the prices it makes for the same inputs: every stored day then
  * gets a new key and is made again.
  */
-export const FORECAST_STORE_VERSION = 1;
+export const FORECAST_STORE_VERSION = 2;
 
 /** Everything besides the history that a day's stored forecast depends on. */
 export interface DayForecastSetup {

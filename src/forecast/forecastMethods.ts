@@ -1,17 +1,42 @@
 /** Method names, for the CLI's `--method`. */
-export const FORECAST_METHODS = ['naive-hs', 'arx-hs', 'lasso-hs', 'arx-conformal', 'qra'] as const;
+export const FORECAST_METHODS = ['auto', 'naive-hs', 'arx-hs', 'lasso-hs', 'arx-conformal', 'qra', 'driver-hs', 'driver-fhs', 'driver-qr'] as const;
 export type ForecastMethod = (typeof FORECAST_METHODS)[number];
+/** The methods `auto` chooses among (every method but itself). */
+export type SingleMethod = Exclude<ForecastMethod, 'auto'>;
+
+/** One candidate of `auto`: a method and its calibration window [calendar days]. */
+export interface AutoCandidate {
+  readonly method: SingleMethod;
+  readonly calibrationDays: number;
+}
 
 /**
- * The method `quantbid forecast` uses when none is named: of the methods that met every quality
- * target on a year of the demo market (coverage of the 80% and 90% intervals within 3 points, Kupiec
- * not rejected at 5%, CRPS at least 25% below naive-hs), the one with the lowest CRPS
- * (docs/forecast-quality.md, bench/forecastQuality.js).
+ * The method `quantbid forecast` uses when none is named: `auto`, which chooses each day among
+ * AUTO_CANDIDATES by their pinball loss on the days just before (docs/forecast-quality.md: on the
+ * known-distribution bench markets and the demo, bench/forecastKnownMarkets.js and
+ * bench/forecastQuality.js).
  */
-export const DEFAULT_METHOD: ForecastMethod = 'arx-hs';
+export const DEFAULT_METHOD: ForecastMethod = 'auto';
 
-/**
- * Calibration days of the forecaster's DEFAULTS [calendar days]: also the most whole-day scenario
- * paths a day can have (one per calibration day).
- */
+/** Calibration days of the forecaster's DEFAULTS [calendar days]. */
 export const DEFAULT_CALIBRATION_DAYS = 364;
+
+/**
+ * Candidates of `auto`, in order of preference (a tie or a day without validation days goes to the
+ * first that can forecast); those needing residual-load columns are left out for a history without them.
+ */
+export const AUTO_CANDIDATES: readonly AutoCandidate[] = Object.freeze([
+  Object.freeze({ method: 'driver-hs', calibrationDays: 364 }),
+  Object.freeze({ method: 'arx-hs', calibrationDays: 364 }),
+  Object.freeze({ method: 'driver-hs', calibrationDays: 91 }),
+  Object.freeze({ method: 'driver-fhs', calibrationDays: 364 }),
+] as const);
+
+/** Validation days of `auto`: the most recent days before the delivery day it scores the candidates on [days]. */
+export const AUTO_VALIDATION_DAYS = 28;
+
+/** Most whole-day paths per day [-]. */
+export const MAX_PATHS = 10_000;
+
+/** Seed of the whole-day paths when none is given. */
+export const DEFAULT_PATH_SEED = 1;

@@ -25,24 +25,58 @@ import type { LassoOptions } from './linalg/lasso.js';
 import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';
 import { arxForecast } from './models/arx.js';
+import { driverForecast } from './models/driverRegression.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { GridCache, HistoryView } from './models/historyView.js';
 import type { PointForecast } from './models/pointForecast.js';
 import { seasonalNaive } from './models/seasonalNaive.js';
 import { fromSlotGrid, slotLayout } from './models/slotGrid.js';
-import { errorPaths } from './quantiles/errorPaths.js';
 import { asinhErrorScale, PRICE_SCALE, type ErrorScale } from './quantiles/errorScale.js';
+import { driverSpreadQuantiles, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
 import { historicalSimulation } from './quantiles/historicalSimulation.js';
 import { requireLevels } from './quantiles/levels.js';
 import { QraWarmStarts, quantileRegressionAveraging } from './quantiles/quantileRegressionAveraging.js';
 import { rearrangeDay } from './quantiles/rearrangeDay.js';
+import { scenarioPaths } from './paths/scenarioPaths.js';
+import { daySeed } from './paths/seededStream.js';
+import { crpsFromQuantiles } from './scoring/crps.js';
+import { residualLoadColumns } from './models/residualLoad.js';
 import { conformalQuantiles } from './quantiles/splitConformal.js';
-import { DEFAULT_CALIBRATION_DAYS, FORECAST_METHODS, type ForecastMethod } from './forecastMethods.js';
+import { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_CALIBRATION_DAYS, DEFAULT_PATH_SEED, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
-export { DEFAULT_METHOD, FORECAST_METHODS, type ForecastMethod } from './forecastMethods.js';
+export { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_METHOD, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
+
+/** What `auto` chose for a day, and on what evidence. */
+export interface AutoChoice extends AutoCandidate {
+  /** Validation days the candidates were compared on [-] (0: none yet, the first candidate that could forecast was taken). */
+  readonly validationDays: number;
+  /** Mean pinball loss of the chosen candidate over the validation days [currency/MWh], or null without any. */
+  readonly validationLoss: number | null;
+}
+
+/** A calibration day: its point forecast (made from the days before it), realised prices and drivers. */
+interface CalibrationDay {
+  readonly dayNumber: number;
+  readonly forecast: PointForecast;
+  readonly realised: Float64Array;
+  readonly exogenous: readonly Float64Array[];
+}
+
+/** What the methods of one point model and calibration window share for a delivery day. */
+interface CalibrationState {
+  readonly calibration: readonly CalibrationDay[];
+  readonly scale: ErrorScale;
+  /** The point forecast on the error scale, per slot. */
+  readonly centre: Float64Array;
+  /** errors[d][s] of the calibration days on the error scale. */
+  readonly errors: readonly Float64Array[];
+}
+
+/** Levels added to the asked ones for the paths' marginals (their tails). */
+const PATH_TAIL_LEVELS: readonly number[] = Object.freeze([0.001, 0.005, 0.01, 0.02, 0.03, 0.04, 0.96, 0.97, 0.98, 0.99, 0.995, 0.999]);
 
 /** Point models the methods are built on. */
-export type PointModelName = 'naive' | 'arx' | 'lasso';
+export type PointModelName = 'naive' | 'arx' | 'lasso' | 'drivers';
 
 /** Settings of the forecaster; see {@link DEFAULTS}. */
 export interface ForecastOptions {
@@ -54,12 +88,33 @@ export interface ForecastOptions {
   readonly calibrationDays: number;
   /** Fewest calibration days that could be forecast for a quantile forecast to be made [days], >= 2. */
   readonly minCalibrationDays: number;
+  /** Calibration window lengths of the driver regression [calendar days]; their forecasts are averaged. */
+  readonly driverWindowsDays: readonly number[];
+  /** Hinge knots of the residual load in the driver regression [-]. */
+  readonly driverKnots: number;
+  /** Scale the driver regression is fitted on (and its errors measured on, with errorScale 'model'). */
+  readonly driverScale: 'asinh' | 'price';
+  /**
+   * Candidates of `auto`, in order of preference (a tie or a day without validation days goes to the
+   * first that can forecast). Candidates needing residual-load columns are left out for a history
+   * without them.
+   */
+  readonly autoCandidates: readonly AutoCandidate[];
+  /** Validation days of `auto`: the most recent days before the delivery day it scores the candidates on [days], >= 1. */
+  readonly autoValidationDays: number;
+  /** How `driver-fhs` pools the standardised errors: per clock slot, or over all slots. */
+  readonly spreadPool: SpreadPool;
   /** Lag of the seasonal naive model of `naive-hs` [days], >= 1 (7: same weekday last week). */
   readonly naiveLagDays: number;
   /** Point model whose per-window forecasts `qra` averages. */
   readonly qraModel: 'arx' | 'lasso';
-  /** Whole-day scenario paths per delivery day [-], 0 for none, at most calibrationDays. */
+  /**
+   * Whole-day scenario paths per delivery day [-], 0 for none (at most MAX_PATHS): the Schaake shuffle
+   * of the method's quantiles by the calibration days' whole-day errors (paths/scenarioPaths.ts).
+   */
   readonly scenarioPaths: number;
+  /** Seed of the paths [-], an integer; each day's paths are drawn with daySeed(pathSeed, day). */
+  readonly pathSeed: number;
   /** LASSO path settings of `lasso-hs` (and of `qra` with qraModel 'lasso'). */
   readonly lasso: LassoOptions;
   /**
@@ -97,9 +152,16 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   minTrainingDays: 28,
   calibrationDays: DEFAULT_CALIBRATION_DAYS,
   minCalibrationDays: 28,
+  driverWindowsDays: Object.freeze([182, 364]),
+  driverKnots: 3,
+  driverScale: 'asinh',
+  spreadPool: 'slot',
+  autoCandidates: AUTO_CANDIDATES,
+  autoValidationDays: AUTO_VALIDATION_DAYS,
   naiveLagDays: 7,
   qraModel: 'arx',
   scenarioPaths: 0,
+  pathSeed: DEFAULT_PATH_SEED,
   lasso: LASSO_DEFAULTS,
   errorScale: 'model',
 });
@@ -118,6 +180,8 @@ export interface DayForecast {
   readonly crossedSlots: number;
   /** Remarks a report should show, e.g. conformal intervals widened to the largest error. */
   readonly notes: readonly string[];
+  /** With method `auto`: the candidate chosen for this day; otherwise null. */
+  readonly chosen: AutoChoice | null;
 }
 
 /**
@@ -134,6 +198,11 @@ export class Forecaster {
   private readonly grids: GridCache | undefined;
   private readonly points = new Map<PointModelName, (PointForecast | null | undefined)[]>();
   private readonly warmStarts = new QraWarmStarts();
+  private readonly driverWarmStarts = new QraWarmStarts();
+  private readonly losses = new Map<string, number | null>();
+  /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
+  private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
+  private readonly states = new Map<string, CalibrationState>();
 
   constructor(
     private readonly history: PriceHistory,
@@ -155,44 +224,124 @@ export class Forecaster {
     if (!(FORECAST_METHODS as readonly string[]).includes(method)) {
       throw new ArgumentError('method', `one of ${FORECAST_METHODS.join(', ')}`, method);
     }
+    if (method === 'auto') return this.autoForecast(dayIndex, levels);
+    return this.forecastWith(dayIndex, levels, method, this.options.calibrationDays);
+  }
+
+  /**
+   * `auto`: rolling-origin validation (Tashman 2000). Each candidate forecasts every one of the
+   * `autoValidationDays` most recent history days before the delivery day, each from the days before
+   * that day only, and is scored by the mean pinball loss of those forecasts against the realised prices
+   * (the days every candidate could forecast); the candidate with the lowest loss forecasts the delivery
+   * day. Nothing of the delivery day or after it is read. A candidate's forecast of a past day is the
+   * same whatever day it is validated for, so it is scored once and kept.
+   *
+   * Reference: L. J. Tashman (2000), Out-of-sample tests of forecasting accuracy: an analysis and review,
+   * Int. J. Forecast. 16(4), 437-450, doi:10.1016/S0169-2070(00)00065-0.
+   */
+  private autoForecast(dayIndex: number, levels: readonly number[]): DayForecast {
+    const candidates = this.autoCandidates();
+    const levelsKey = levels.join(',');
+    const validation: number[] = [];
+    for (let j = dayIndex - 1; j >= 0 && validation.length < this.options.autoValidationDays; j--) validation.push(j);
+    const losses = candidates.map((c) => validation.map((j) => this.validationLoss(c, j, levels, levelsKey)));
+    const common = validation.flatMap((_, v) => (losses.every((l) => l[v] !== null) ? [v] : []));
+    const totals = losses.map((l) => common.reduce((sum, v) => sum + (l[v] as number), 0));
+    const order = candidates.map((_, i) => i).sort((p, q) => (common.length === 0 ? p - q : (totals[p] as number) - (totals[q] as number) || p - q));
+    // Every candidate forecasts the delivery day now: the chosen one's forecast is the answer, and all of
+    // them are scored when this day becomes a validation day (its prices are then known).
+    const made = candidates.map((c) => this.candidateForecast(c, dayIndex, levels, levelsKey));
+    const chosen = order.find((i) => !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
+    if (chosen === undefined) throw made[0] as InsufficientHistoryError;
+    const candidate = candidates[chosen] as AutoCandidate;
+    const validationLoss = common.length === 0 ? null : (totals[chosen] as number) / common.length;
+    return { ...(made[chosen] as DayForecast), chosen: { ...candidate, validationDays: common.length, validationLoss } };
+  }
+
+  /** A candidate's forecast of day j (kept until its loss is scored), or the reason it has none. */
+  private candidateForecast(candidate: AutoCandidate, j: number, levels: readonly number[], levelsKey: string): DayForecast | InsufficientHistoryError {
+    const key = `${candidate.method}|${candidate.calibrationDays}|${levelsKey}|${j}`;
+    const kept = this.pending.get(key);
+    if (kept !== undefined) return kept;
+    let made: DayForecast | InsufficientHistoryError;
+    try {
+      made = this.forecastWith(j, levels, candidate.method, candidate.calibrationDays);
+    } catch (err) {
+      if (!(err instanceof InsufficientHistoryError)) throw err;
+      made = err;
+    }
+    this.pending.set(key, made);
+    return made;
+  }
+
+  /** The candidates of `auto` this history can serve (those on residual load need its columns). */
+  private autoCandidates(): readonly AutoCandidate[] {
+    const drivers = residualLoadColumns(this.history.exogenousNames) !== null;
+    return this.options.autoCandidates.filter((c) => drivers || pointModelOf(c.method, this.options) !== 'drivers');
+  }
+
+  /** Mean pinball loss of a candidate's forecast of past day j, or null when it cannot forecast it (kept). */
+  private validationLoss(candidate: AutoCandidate, j: number, levels: readonly number[], levelsKey: string): number | null {
+    const key = `${candidate.method}|${candidate.calibrationDays}|${levelsKey}|${j}`;
+    const kept = this.losses.get(key);
+    if (kept !== undefined) return kept;
+    const made = this.candidateForecast(candidate, j, levels, levelsKey);
+    this.pending.delete(key);
+    let loss: number | null = null;
+    if (!(made instanceof InsufficientHistoryError)) {
+      const realised = (this.history.days[j] as PriceHistory['days'][number]).pricePerMwh;
+      let sum = 0;
+      made.quantiles.prices.forEach((row, t) => (sum += crpsFromQuantiles(realised[t] as number, row, levels)));
+      loss = sum / realised.length;
+    }
+    this.losses.set(key, loss);
+    return loss;
+  }
+
+  /** The forecast of day `dayIndex` by one method with a calibration window of `calibrationDays`. */
+  private forecastWith(dayIndex: number, levels: readonly number[], method: SingleMethod, calibrationDays: number): DayForecast {
     const view = HistoryView.before(this.history, dayIndex, this.grids);
     const model = pointModelOf(method, this.options);
     const point = this.pointFor(model, dayIndex, view);
     if (point === null) {
       throw new InsufficientHistoryError(view.target.day, `the ${model} point forecast`, this.historyNeeded(model), view.pastCount);
     }
-    const calibration = this.calibrationSet(model, view);
+    const { calibration, scale, centre, errors } = this.calibrationState(model, view, point, calibrationDays);
     if (calibration.length < this.options.minCalibrationDays) {
       throw new InsufficientHistoryError(view.target.day, `${method} calibration`, this.options.minCalibrationDays, calibration.length);
     }
-    const scale = this.errorScaleOf(model, calibration);
-    const centre = point.mean.map(scale.to);
-    const errors = calibration.map((c) => Float64Array.from(c.realised, (p, s) => scale.to(p) - scale.to(c.forecast.mean[s] as number)));
     const notes: string[] = [];
-    let grid: number[][];
-    if (method === 'qra') {
-      grid = quantileRegressionAveraging(
-        point.members,
-        {
-          members: calibration.map((c) => c.forecast.members),
-          realised: calibration.map((c) => c.realised),
-          dayIds: Int32Array.from(calibration, (c) => c.dayNumber),
-        },
-        levels,
-        this.warmStarts,
-        this.options.stopwatch,
-      );
-    } else if (method === 'arx-conformal') {
-      const conformal = conformalQuantiles(centre, errors, levels);
-      if (conformal.clamped) notes.push(`too few calibration days (${calibration.length}) for the outermost levels: the largest absolute error was used`);
-      grid = conformal.prices;
-    } else {
-      grid = historicalSimulation(centre, errors, levels);
-    }
-    if (method !== 'qra') grid = grid.map((row) => row.map(scale.from));
-    const { prices, crossedRows } = rearrangeDay(grid);
+    /** The method's quantiles at levels `at`, per slot, on the price scale, before rearrangement. */
+    const quantileStep = (at: readonly number[]): number[][] => {
+      /** Quantile regression of the realised prices on `regressors` of the calibration days (QRA's solver). */
+      const regressionQuantiles = (target: readonly ArrayLike<number>[], regressors: (c: CalibrationDay) => readonly ArrayLike<number>[], warmStarts: QraWarmStarts) =>
+        quantileRegressionAveraging(
+          target,
+          { members: calibration.map(regressors), realised: calibration.map((c) => c.realised), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) },
+          at,
+          warmStarts,
+          this.options.stopwatch,
+        );
+      let grid: number[][];
+      if (method === 'qra') {
+        grid = regressionQuantiles(point.members, (c) => c.forecast.members, this.warmStarts);
+      } else if (method === 'arx-conformal') {
+        const conformal = conformalQuantiles(centre, errors, at);
+        if (conformal.clamped && at === levels) notes.push(`too few calibration days (${calibration.length}) for the outermost levels: the largest absolute error was used`);
+        grid = conformal.prices;
+      } else if (method === 'driver-qr') {
+        grid = regressionQuantiles([point.mean, ...view.target.exogenous], (c) => [c.forecast.mean, ...c.exogenous], this.driverWarmStarts);
+      } else if (method === 'driver-fhs') {
+        const features = calibration.map((c) => spreadFeatures(c.exogenous, Float64Array.from(c.forecast.mean, scale.to)));
+        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool);
+      } else {
+        grid = historicalSimulation(centre, errors, at);
+      }
+      return method === 'qra' || method === 'driver-qr' ? grid : grid.map((row) => row.map(scale.from));
+    };
+    const { prices, crossedRows } = rearrangeDay(quantileStep(levels));
     const layout = view.target.layout;
-    const paths = errorPaths(centre, errors, this.options.scenarioPaths).map((path) => fromSlotGrid(path.map(scale.from), layout));
+    const paths = this.options.scenarioPaths === 0 ? [] : this.dayPaths(view, levels, quantileStep, errors);
     return {
       quantiles: {
         day: view.target.day,
@@ -205,7 +354,44 @@ export class Forecaster {
       calibrationDays: calibration.length,
       crossedSlots: crossedRows,
       notes,
+      chosen: null,
     };
+  }
+
+  /**
+   * Whole-day paths of the delivery day: the Schaake shuffle (paths/scenarioPaths.ts) of the method's
+   * own quantiles, at the asked levels and at tail levels down to 0.001 and up to 0.999 (so that the
+   * paths carry the method's tails, not a straight continuation of its outermost levels), reordered by
+   * the ranks of the calibration days' whole-day errors. Seeded per day by options.pathSeed.
+   */
+  private dayPaths(view: HistoryView, levels: readonly number[], quantileStep: (at: readonly number[]) => number[][], errors: readonly Float64Array[]): number[][] {
+    const pathLevels = [...new Set([...PATH_TAIL_LEVELS, ...levels])].sort((a, b) => a - b);
+    const grid = rearrangeDay(quantileStep(pathLevels)).prices;
+    const layout = view.target.layout;
+    const quantileDay = { day: view.target.day, levels: pathLevels, periods: view.target.periods, prices: Array.from(layout.slots, (s) => grid[s] as number[]) };
+    return scenarioPaths({ quantileDay, template: errors, n: this.options.scenarioPaths, seed: daySeed(this.options.pathSeed, view.target.dayNumber) });
+  }
+
+  /**
+   * The calibration days, error scale, centre and errors of a delivery day for a point model and window,
+   * kept for the methods that share them (e.g. driver-hs and driver-fhs under auto) until another day asks.
+   */
+  private calibrationState(model: PointModelName, view: HistoryView, point: PointForecast, calibrationDays: number): CalibrationState {
+    const key = `${model}|${calibrationDays}|${view.target.dayNumber}`;
+    const kept = this.states.get(key);
+    if (kept !== undefined) return kept;
+    const calibration = this.calibrationSet(model, view, calibrationDays);
+    const scale = calibration.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, calibration);
+    const centre = point.mean.map(scale.to);
+    const errors = calibration.map((c) => {
+      const e = new Float64Array(c.realised.length);
+      for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - scale.to(c.forecast.mean[s] as number);
+      return e;
+    });
+    const state = { calibration, scale, centre, errors };
+    if (this.states.size >= 8) this.states.clear();
+    this.states.set(key, state);
+    return state;
   }
 
   /** The point forecast of past or delivery day `dayIndex`, made from the days before it, memoised. */
@@ -225,18 +411,19 @@ export class Forecaster {
 
   /** The scale of the calibration errors: the point model's own for 'model', else prices. */
   private errorScaleOf(model: PointModelName, calibration: readonly { realised: Float64Array }[]): ErrorScale {
-    if (this.options.errorScale === 'price' || model === 'naive') return PRICE_SCALE;
+    if (this.options.errorScale === 'price' || model === 'naive' || (model === 'drivers' && this.options.driverScale === 'price')) return PRICE_SCALE;
     return asinhErrorScale(concatenate(calibration.map((c) => c.realised)));
   }
 
   /** The calibration days before the delivery day that could be forecast, oldest first. */
-  private calibrationSet(model: PointModelName, view: HistoryView) {
-    const first = view.target.dayNumber - this.options.calibrationDays;
-    const out: { dayNumber: number; forecast: PointForecast; realised: Float64Array }[] = [];
+  private calibrationSet(model: PointModelName, view: HistoryView, calibrationDays: number) {
+    const first = view.target.dayNumber - calibrationDays;
+    const out: CalibrationDay[] = [];
     for (let i = view.indexAtOrBefore(first - 1) + 1; i < view.pastCount; i++) {
       const forecast = this.pointFor(model, i);
       if (forecast === null) continue;
-      out.push({ dayNumber: view.dayNumber(i), forecast, realised: view.past(i).prices });
+      const past = view.past(i);
+      out.push({ dayNumber: view.dayNumber(i), forecast, realised: past.prices, exogenous: past.exogenous });
     }
     return out;
   }
@@ -260,7 +447,7 @@ export function forecastDay(
   return new Forecaster(history, options).forecast(dayIndex, levels, method);
 }
 
-function pointModelOf(method: ForecastMethod, options: ForecastOptions): PointModelName {
+function pointModelOf(method: SingleMethod, options: ForecastOptions): PointModelName {
   switch (method) {
     case 'naive-hs':
       return 'naive';
@@ -271,11 +458,24 @@ function pointModelOf(method: ForecastMethod, options: ForecastOptions): PointMo
     case 'arx-hs':
     case 'arx-conformal':
       return 'arx';
+    case 'driver-hs':
+    case 'driver-fhs':
+    case 'driver-qr':
+      return 'drivers';
   }
 }
 
 function makePointForecast(view: HistoryView, model: PointModelName, options: ForecastOptions): PointForecast | null {
   if (model === 'naive') return seasonalNaive(view, options.naiveLagDays);
+  if (model === 'drivers') {
+    return driverForecast(view, {
+      windowsDays: options.driverWindowsDays,
+      minTrainingDays: options.minTrainingDays,
+      knots: options.driverKnots,
+      scale: options.driverScale,
+      stopwatch: options.stopwatch,
+    });
+  }
   return arxForecast(view, {
     windowsDays: options.windowsDays,
     estimator: model === 'lasso' ? 'lasso' : 'least-squares',
@@ -296,9 +496,21 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   positiveInteger('calibrationDays', o.calibrationDays, o.minCalibrationDays);
   positiveInteger('naiveLagDays', o.naiveLagDays);
   positiveInteger('scenarioPaths', o.scenarioPaths, 0);
-  if (o.scenarioPaths > o.calibrationDays) {
-    throw new ArgumentError('options.scenarioPaths', `at most calibrationDays = ${o.calibrationDays}`, o.scenarioPaths);
-  }
+  if (o.scenarioPaths > MAX_PATHS) throw new ArgumentError('options.scenarioPaths', `at most ${MAX_PATHS}`, o.scenarioPaths);
+  if (!Number.isInteger(o.pathSeed)) throw new ArgumentError('options.pathSeed', 'an integer', o.pathSeed);
+  if (!(o.autoCandidates.length > 0)) throw new ArgumentError('options.autoCandidates', 'at least one candidate', o.autoCandidates);
+  o.autoCandidates.forEach((c, i) => {
+    if (c.method === ('auto' as string) || !(FORECAST_METHODS as readonly string[]).includes(c.method)) {
+      throw new ArgumentError(`options.autoCandidates[${i}].method`, `one of ${FORECAST_METHODS.filter((m) => m !== 'auto').join(', ')}`, c.method);
+    }
+    positiveInteger(`autoCandidates[${i}].calibrationDays`, c.calibrationDays, o.minCalibrationDays);
+  });
+  positiveInteger('autoValidationDays', o.autoValidationDays);
+  positiveInteger('driverKnots', o.driverKnots, 0);
+  if (o.driverWindowsDays.length === 0) throw new ArgumentError('options.driverWindowsDays', 'at least one window length', o.driverWindowsDays);
+  o.driverWindowsDays.forEach((w, i) => positiveInteger(`driverWindowsDays[${i}]`, w, o.minTrainingDays));
+  if (o.driverScale !== 'asinh' && o.driverScale !== 'price') throw new ArgumentError('options.driverScale', "'asinh' or 'price'", o.driverScale);
+  if (o.spreadPool !== 'slot' && o.spreadPool !== 'all') throw new ArgumentError('options.spreadPool', "'slot' or 'all'", o.spreadPool);
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;

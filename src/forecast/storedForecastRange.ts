@@ -1,6 +1,7 @@
 import type { PriceHistory, QuantileDay } from '../types.js';
 import { dayForecastKey, historyDigests, type DayForecastSetup } from './dayForecastKey.js';
 import { DEFAULTS, forecastSettings, type ForecastOptions } from './forecaster.js';
+import type { DayChoice } from './autoChoices.js';
 import { forecastRange, type ForecastRangeRequest, type SkippedDay } from './forecastRange.js';
 
 /** What is stored of one delivery day: its clamped quantile prices, or why it could not be forecast. */
@@ -9,6 +10,8 @@ export type StoredDayForecast =
       readonly outcome: 'forecast';
       /** prices[t][k] at the setup's levels [currency/MWh], clamped into [floor, cap]. */
       readonly prices: readonly (readonly number[])[];
+      /** With method `auto`: the method and calibration window it chose for the day. */
+      readonly chosen?: { readonly method: string; readonly calibrationDays: number };
     }
   | { readonly outcome: 'skipped'; readonly reason: string };
 
@@ -31,6 +34,8 @@ export interface StoredForecastRangeResult {
   readonly daysFitted: number;
   /** Days taken from the store [-]. */
   readonly daysFromStore: number;
+  /** With method `auto`: what it chose for each day forecast, in day order; otherwise empty. */
+  readonly chosen: readonly DayChoice[];
 }
 
 /**
@@ -81,7 +86,7 @@ export function storedForecastRange(
     const before = outcomes.size;
     const made = forecastRange(history, { ...request, from: first, to: last }, options, (done) => onDay?.(before + done, indices.length));
     const byDay = new Map<string, StoredDayForecast>([
-      ...made.forecasts.map((f) => [f.quantiles.day, { outcome: 'forecast', prices: f.quantiles.prices }] as const),
+      ...made.forecasts.map((f) => [f.quantiles.day, { outcome: 'forecast', prices: f.quantiles.prices, ...(f.chosen === null ? {} : { chosen: { method: f.chosen.method, calibrationDays: f.chosen.calibrationDays } }) }] as const),
       ...made.skipped.map((s) => [s.day, { outcome: 'skipped', reason: s.reason }] as const),
     ]);
     for (const i of run) {
@@ -94,21 +99,26 @@ export function storedForecastRange(
   }
   const forecasts: QuantileDay[] = [];
   const skipped: SkippedDay[] = [];
+  const chosen: DayChoice[] = [];
   for (const i of indices) {
     const day = history.days[i] as (typeof history.days)[number];
     const outcome = outcomes.get(i) as StoredDayForecast;
-    if (outcome.outcome === 'forecast') forecasts.push({ day: day.day, levels: [...request.levels], periods: day.periods, prices: outcome.prices });
-    else skipped.push({ day: day.day, reason: outcome.reason });
+    if (outcome.outcome === 'forecast') {
+      forecasts.push({ day: day.day, levels: [...request.levels], periods: day.periods, prices: outcome.prices });
+      if (outcome.chosen !== undefined) chosen.push({ day: day.day, ...outcome.chosen });
+    } else skipped.push({ day: day.day, reason: outcome.reason });
   }
-  return { forecasts, skipped, daysFitted: indices.length - daysFromStore, daysFromStore };
+  return { forecasts, skipped, daysFitted: indices.length - daysFromStore, daysFromStore, chosen };
 }
 
 /** A store that holds nothing: every day is forecast. */
 export const NO_STORE: DayForecastStore = Object.freeze({ recall: () => undefined, keep: () => undefined });
 
-/** Whether a stored value has one row of `levels` finite, non-decreasing prices per period. */
+/** Whether a stored value has one row of `levels` finite, non-decreasing prices per period (and a well-formed choice, if any). */
 function fits(stored: StoredDayForecast, periods: number, levels: number): boolean {
   if (stored.outcome === 'skipped') return typeof stored.reason === 'string';
+  const chosen = stored.chosen;
+  if (chosen !== undefined && !(typeof chosen === 'object' && chosen !== null && typeof chosen.method === 'string' && Number.isInteger(chosen.calibrationDays))) return false;
   return (
     Array.isArray(stored.prices) &&
     stored.prices.length === periods &&

@@ -62,6 +62,18 @@ describe('quantbid forecast', () => {
     for (const s of summary.days.skippedDays) expect(s.reason).toMatch(/calibration needs at least 28 days, found \d+/);
   });
 
+  it('records the method auto chose each day, and how often each was chosen', async () => {
+    const out = join(dir, 'auto');
+    expect((await runCli(['forecast', ...inputs(), '--from', day(90), '--to', day(92), '--method', 'auto', '--out', out])).code).toBe(0);
+    const summary = JSON.parse(read(out, 'forecast.json')) as { chosenMethods: { perDay: { day: string; method: string; calibrationDays: number }[]; counts: { days: number }[] } };
+    expect(summary.chosenMethods.perDay.map((c) => c.day)).toEqual([90, 91, 92].map(day));
+    for (const c of summary.chosenMethods.perDay) expect(FORECAST_METHODS).toContain(c.method);
+    expect(summary.chosenMethods.counts.reduce((n, c) => n + c.days, 0)).toBe(3);
+    const single = join(dir, 'single');
+    expect((await runCli(['forecast', ...inputs(), '--from', day(90), '--to', day(90), '--method', 'arx-hs', '--out', single])).code).toBe(0);
+    expect((JSON.parse(read(single, 'forecast.json')) as { chosenMethods: unknown }).chosenMethods).toBeNull();
+  });
+
   it('is deterministic: the same inputs give the same bytes in every file; the time spent is only printed', async () => {
     const args = ['forecast', ...inputs(), '--from', day(70), '--to', day(72), '--paths', '4'];
     const first = await runCli([...args, '--out', join(dir, 'det1')]);
@@ -119,7 +131,7 @@ describe('quantbid forecast', () => {
     ['a level of 1.2 in a list', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0.5,1.2'], /level 1.2 outside \[0.001, 0.999\]/],
     ['levels not increasing', ['--from', '2031-03-10', '--to', '2031-03-10', '--levels', '0.5,0.1'], /do not increase strictly/],
     ['no day that can be forecast', ['--from', '2030-01-01', '--to', '2030-01-31'], /no day from 2030-01-01 to 2030-01-31 could be forecast/],
-    ['--paths beyond the calibration days', ['--from', '2031-03-10', '--to', '2031-03-10', '--paths', '400'], /whole number of paths from 0 to 364/],
+    ['--paths beyond the most paths', ['--from', '2031-03-10', '--to', '2031-03-10', '--paths', '10001'], /whole number of paths from 0 to 10000/],
   ])('exits 2 and writes nothing for %s', async (_name, args, message) => {
     const out = join(dir, `bad-${_name.replace(/\W+/g, '-')}`);
     const run = await runCli(['forecast', ...inputs(), '--out', out, ...args]);

@@ -43,6 +43,20 @@ beforeAll(async () => {
 }, 120_000);
 
 describe('quantbid backtest --model', () => {
+  it('--model auto records the method chosen each day, as quantbid forecast does, and equals the backtest of its file', async () => {
+    const fc = join(work, 'fc-auto');
+    const viaAuto = join(work, 'via-auto');
+    const viaFile = join(work, 'via-auto-file');
+    expect((await runCli(['backtest', '--scenario', SCENARIO, ...SPAN, '--model', 'auto', '--no-forecast-cache', '--out', viaAuto])).code).toBe(0);
+    expect((await runCli(['forecast', '--scenario', SCENARIO, ...SPAN, '--out', fc])).code).toBe(0);
+    expect((await runCli(['backtest', '--scenario', SCENARIO, ...SPAN, '--forecast', join(fc, 'quantiles.csv'), '--out', viaFile])).code).toBe(0);
+    expect(read(viaAuto, 'days.csv')).toBe(read(viaFile, 'days.csv'));
+    const chosen = JSON.parse(read(viaAuto, 'summary.json')).forecastModel.chosenMethods;
+    expect(chosen).toEqual(JSON.parse(read(fc, 'forecast.json')).chosenMethods);
+    expect(chosen.perDay.map((c: { day: string }) => c.day)).toEqual(['2025-03-05', '2025-03-06', '2025-03-07', '2025-03-08', '2025-03-09']);
+    for (const c of chosen.perDay) expect(['driver-hs', 'arx-hs', 'driver-fhs']).toContain(c.method);
+  }, 300_000);
+
   it('equals quantbid forecast followed by backtest --forecast of its file: days.csv and ledger.csv byte for byte', async () => {
     const fc = join(work, 'fc');
     const viaFile = join(work, 'via-file');
@@ -99,7 +113,7 @@ describe('quantbid backtest --model', () => {
 
   it.each([
     ['--model with --forecast', ['--model', 'arx-hs', '--forecast', join(ROOT, 'scenarios/halvorn/quantiles.csv.gz')], /--model: --model arx-hs and --forecast .* were both given; give --forecast FILE .*, or --model NAME .*, not both/],
-    ['an unknown model, with the list', ['--model', 'magic'], /"magic" must be one of naive-hs, arx-hs, lasso-hs, arx-conformal, qra/],
+    ['an unknown model, with the list', ['--model', 'magic'], /"magic" must be one of auto, naive-hs, arx-hs, lasso-hs, arx-conformal, qra, driver-hs, driver-fhs, driver-qr/],
     ['--levels without --model', ['--levels', '0.1,0.9'], /--levels: is used only with --model/],
     ['--no-forecast-cache without --model', ['--no-forecast-cache'], /--no-forecast-cache: is used only with --model/],
     ['levels that do not hold the alpha, before any fitting', ['--model', 'naive-hs', '--levels', '0.2,0.5,0.8'], /--model naive-hs: --alpha: alpha 0.1 needs the levels 0.1 and 0.9, outside the forecast's levels \[0.2, 0.8\]/],
@@ -137,7 +151,7 @@ describe('the compiled CLI with --model', () => {
     expect(first).toMatchObject({ code: 0, stderr: '' });
     expect(noteOf(first.stdout)).toBe(`forecasts: arx-hs at 19 levels, 5 days forecast, 0 skipped; 5 days fitted, 0 from the cache ${sweepCache}`);
     const fc = join(work, 'sweep-fc');
-    expect(quantbid(['forecast', '--scenario', SCENARIO, '--from', '2025-03-05', '--to', '2025-03-09', '--out', fc]).code).toBe(0);
+    expect(quantbid(['forecast', '--scenario', SCENARIO, '--from', '2025-03-05', '--to', '2025-03-09', '--method', 'arx-hs', '--out', fc]).code).toBe(0);
     const viaFile = quantbid(['sweep', '--scenario', SCENARIO, ...span, '--forecast', join(fc, 'quantiles.csv'), '--threads', '2', '--out', join(work, 'sweep-file')]);
     expect(viaFile.code).toBe(0);
     expect(read(join(work, 'sweep-model'), 'sweep.csv')).toBe(read(join(work, 'sweep-file'), 'sweep.csv'));

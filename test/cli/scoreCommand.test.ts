@@ -124,11 +124,34 @@ describe('quantbid score', () => {
     expect(text.stdout).toMatch(/--against: crps 12.5 HLV\/MWh, this forecast's 7.1667 HLV\/MWh, on 10 common days: this forecast is better \(lower crps\); Diebold-Mariano \(HLN\) -3.748, one-sided p = 0.0023 that it is/);
   });
 
+  it('--paths: energy and variogram scores of whole-day paths, as worked by hand', async () => {
+    // Two constant paths, y - 10 and y + 10, on each day whose 24 prices all equal y. Energy score with
+    // ||v|| over the 24 periods (Gneiting and Raftery 2007): (1/2)(10 sqrt 24 + 10 sqrt 24)
+    // - (1/8)(2 * 20 sqrt 24) = 5 sqrt 24 = 24.494897... Variogram score: every difference between two
+    // periods is 0, for the paths and for y, so 0. Shuffled across the paths period by period, the two
+    // paths still lie 10 from y and 20 apart in every period (energy score again 5 sqrt 24), but now differ
+    // between periods where the shuffle swapped them: a variogram score above 0.
+    const lines = ['period_start,path,price'];
+    DAYS.forEach((day, k) => {
+      for (const [path, shift] of [[1, -10], [2, 10]] as const) deliveryPeriods(day, MARKET.timeZone, 60).forEach((p) => lines.push(`${p.start},${path},${5 + 10 * k + shift}`));
+    });
+    writeFileSync(join(dir, 'paths.csv'), `${lines.join('\n')}\n`);
+    const run = await runCli(['score', ...inputs(), '--forecast', join(dir, 'uniform.csv'), '--paths', join(dir, 'paths.csv'), '--out', join(dir, 'paths-score'), '--json']);
+    expect(run.code).toBe(0);
+    const paths = (JSON.parse(run.stdout) as { paths: { days: number; energyScore: number; variogramScore: number; periodsIndependent: { energyScore: number; variogramScore: number } } }).paths;
+    expect(paths.days).toBe(10);
+    expect(paths.energyScore).toBeCloseTo(5 * Math.sqrt(24), 10);
+    expect(paths.variogramScore).toBe(0);
+    expect(paths.periodsIndependent.energyScore).toBeCloseTo(5 * Math.sqrt(24), 10);
+    expect(paths.periodsIndependent.variogramScore).toBeGreaterThan(0);
+  });
+
   it.each([
     ['a forecast whose days all lie outside the history', ['--forecast', 'later.csv'], /no day to score: the forecast covers 2031-03-01 to 2031-03-02, the history .* 2031-02-01 to 2031-02-10/],
     ['--against with other levels', ['--forecast', 'uniform.csv', '--against', 'fivelevels.csv'], /its levels \(0.05, 0.1, 0.5, 0.9, 0.95\) differ from the forecast's \(0.1, 0.5, 0.9\)/],
     ['--to before --from', ['--forecast', 'uniform.csv', '--from', '2031-02-05', '--to', '2031-02-04'], /--to 2031-02-04 is before --from 2031-02-05/],
     ['no forecast file', [], /--forecast: no forecast file given/],
+    ['a paths file with the wrong header', ['--forecast', 'uniform.csv', '--paths', 'uniform.csv'], /write the header period_start,path,price/],
   ])('exits 2 and writes nothing for %s', async (name, args, message) => {
     const out = join(dir, `bad-${name.replace(/\W+/g, '-')}`);
     const withPaths = args.map((a) => (a.endsWith('.csv') ? join(dir, a) : a));

@@ -68,13 +68,15 @@ describe('the fit stopwatch', () => {
     expect(bytesOf(timed).equals(bytesOf(plainRun))).toBe(true);
   });
 
-  it('qra: adds one quantile regression per slot and level of each delivery day to the ARX fits', () => {
+  it('qra: adds one quantile regression per slot and level of each delivery day to the ARX fits, for the quantiles and for the paths', () => {
     const watch = tickingStopwatch();
     const timed = forecastRange(history, request('qra'), { ...SMALL, stopwatch: watch });
     const plainRun = runWithout('qra');
     const pointForecasts = timed.forecasts[0]!.calibrationDays + DAYS;
-    expect(watch.calls).toBe(pointForecasts * SLOTS * 2 + DAYS * SLOTS * LEVELS.length);
-    expect(watch.spentMs).toBe(pointForecasts * (1 + SLOTS) + DAYS * SLOTS);
+    // The paths' marginals are the method's quantiles at the asked levels and 12 tail levels (forecaster.ts).
+    const pathLevels = LEVELS.length + 12;
+    expect(watch.calls).toBe(pointForecasts * SLOTS * 2 + DAYS * SLOTS * (LEVELS.length + pathLevels));
+    expect(watch.spentMs).toBe(pointForecasts * (1 + SLOTS) + 2 * DAYS * SLOTS);
     expect(timed).toEqual(plainRun);
     expect(bytesOf(timed).equals(bytesOf(plainRun))).toBe(true);
   });

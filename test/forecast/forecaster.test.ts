@@ -38,7 +38,7 @@ function mapAll(h: PriceHistory, price: (p: number) => number): PriceHistory {
 
 describe('Forecaster', () => {
   it('exports its methods and defaults', () => {
-    expect(FORECAST_METHODS).toEqual(['naive-hs', 'arx-hs', 'lasso-hs', 'arx-conformal', 'qra']);
+    expect(FORECAST_METHODS).toEqual(['auto', 'naive-hs', 'arx-hs', 'lasso-hs', 'arx-conformal', 'qra', 'driver-hs', 'driver-fhs', 'driver-qr']);
     expect(DEFAULTS.windowsDays).toEqual([56, 91, 182, 364]);
     expect(Object.isFrozen(DEFAULTS)).toBe(true);
   });
@@ -98,13 +98,19 @@ describe('Forecaster', () => {
     }
   });
 
-  it('returns whole-day scenario paths: the point forecast plus past days\' error vectors', () => {
-    const day = forecastDay(history, 110, LEVELS, 'arx-hs', { ...SMALL, scenarioPaths: 5 });
-    expect(day.paths).toHaveLength(5);
+  it('returns whole-day scenario paths whose values in every period follow the day\'s quantiles (Schaake shuffle)', () => {
+    const day = forecastDay(history, 110, LEVELS, 'arx-hs', { ...SMALL, scenarioPaths: 40 });
+    expect(day.paths).toHaveLength(40);
     for (const path of day.paths) expect(path).toHaveLength(24);
-    // The median of the HS quantiles is the point plus the median error; the paths spread around it.
-    const spread = day.paths.map((path) => path.reduce((s, v, t) => s + Math.abs(v - day.point[t]!), 0));
-    expect(Math.min(...spread)).toBeGreaterThan(0);
+    // The r-th smallest of n path values is the quantile at (r + 1/2)/n: below q(tau) lie tau n of them, give or take one.
+    day.quantiles.prices.forEach((row, t) => {
+      LEVELS.forEach((tau, k) => {
+        const below = day.paths.filter((p) => p[t]! < row[k]!).length;
+        expect(Math.abs(below - tau * 40)).toBeLessThanOrEqual(1);
+      });
+    });
+    expect(forecastDay(history, 110, LEVELS, 'arx-hs', { ...SMALL, scenarioPaths: 40 }).paths).toEqual(day.paths);
+    expect(forecastDay(history, 110, LEVELS, 'arx-hs', { ...SMALL, scenarioPaths: 40, pathSeed: 2 }).paths).not.toEqual(day.paths);
   });
 
   it('throws typed errors for bad levels, unknown methods and too short a history', () => {

@@ -2,7 +2,6 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { matrixFromRows } from '../../src/forecast/linalg/matrix.js';
 import { quantileRegression } from '../../src/forecast/linalg/quantileRegression.js';
-import { errorPaths } from '../../src/forecast/quantiles/errorPaths.js';
 import { historicalSimulation } from '../../src/forecast/quantiles/historicalSimulation.js';
 import { QraWarmStarts, quantileRegressionAveraging } from '../../src/forecast/quantiles/quantileRegressionAveraging.js';
 import { rearrangeDay } from '../../src/forecast/quantiles/rearrangeDay.js';
@@ -113,16 +112,5 @@ describe('quantile regression averaging', () => {
     const warm = new QraWarmStarts();
     quantileRegressionAveraging(target, { ...calibration, members: members.slice(1), realised: realised.slice(1), dayIds: calibration.dayIds.slice(1) }, levels, warm);
     expect(quantileRegressionAveraging(target, calibration, levels, warm)).toEqual(plain);
-  });
-});
-
-describe('whole-day error paths', () => {
-  it('adds the error vector of the most recent days, one path per day', () => {
-    const paths = errorPaths([10, 20, 30], [[1, 2, 3], [4, 5, 6], [-1, -2, -3]], 2);
-    expect(paths).toEqual([
-      [9, 18, 27],
-      [14, 25, 36],
-    ]);
-    expect(errorPaths([1], [[1]], 5)).toHaveLength(1);
   });
 });

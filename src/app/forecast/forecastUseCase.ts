@@ -1,7 +1,8 @@
 import { basename, dirname } from 'node:path';
 import { z } from 'zod';
 import { gatherProblems, InputError, type InputProblem } from '../../errors/inputError.js';
-import { DEFAULTS, FORECAST_METHODS } from '../../forecast/forecaster.js';
+import { chosenMethodsRecord } from '../../forecast/autoChoices.js';
+import { DEFAULTS, FORECAST_METHODS, MAX_PATHS } from '../../forecast/forecaster.js';
 import { forecastRange, type ForecastRangeResult } from '../../forecast/forecastRange.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import { jsonText } from '../../io/planOutputs.js';
@@ -31,12 +32,14 @@ export const forecastSettingsSchema = z
     /** First and last delivery day to forecast, YYYY-MM-DD, both included. */
     from: daySchema,
     to: daySchema,
-    /** Forecast method; default arx-hs. */
+    /** Forecast method; default auto. */
     method: z.enum(FORECAST_METHODS).default(FORECAST_DEFAULTS.method),
     /** Quantile levels; default 0.05 to 0.95 in steps of 0.05. */
     levels: levelsSchema.optional(),
-    /** Whole-day scenario paths per day written to paths.csv, 0 to calibrationDays; default 0. */
-    scenarioPaths: z.number().int().min(0).max(DEFAULTS.calibrationDays).default(FORECAST_DEFAULTS.paths),
+    /** Whole-day scenario paths per day written to paths.csv, 0 to MAX_PATHS; default 0. */
+    scenarioPaths: z.number().int().min(0).max(MAX_PATHS).default(FORECAST_DEFAULTS.paths),
+    /** Seed of the paths (each day draws with its own seed made from it); default 1. */
+    pathSeed: z.number().int().min(0).max(2 ** 32 - 1).default(FORECAST_DEFAULTS.pathSeed),
     /** Folder for quantiles.csv and forecast.json, or the quantile file itself (NAME.csv). */
     out: z.string().superRefine((out, ctx) => {
       const problem = outFolderProblem(out, 'folder-or-csv-file');
@@ -90,7 +93,7 @@ function forecastRun(
   const result = forecastRange(
     history,
     { from: s.from, to: s.to, method: s.method, levels: s.levels, priceFloor: market.priceFloor, priceCap: market.priceCap, periodsOf: (day) => calendar.periods(day) },
-    { scenarioPaths: s.scenarioPaths },
+    { scenarioPaths: s.scenarioPaths, pathSeed: s.pathSeed },
     (done) => progress.update(done),
   );
   progress.finish();
@@ -135,10 +138,11 @@ function forecastSummary(s: CheckedSettings, context: SummaryContext) {
     method: s.method,
     levels: [...s.levels],
     paths: s.scenarioPaths,
+    pathSeed: s.pathSeed,
     from: s.from,
     to: s.to,
     inputs: { ...context.inputs },
-    options: { ...DEFAULTS, scenarioPaths: s.scenarioPaths },
+    options: { ...DEFAULTS, scenarioPaths: s.scenarioPaths, pathSeed: s.pathSeed },
     days: {
       forecast: forecasts.length,
       first: forecasts[0]?.quantiles.day ?? null,
@@ -146,6 +150,7 @@ function forecastSummary(s: CheckedSettings, context: SummaryContext) {
       skipped: skipped.length,
       skippedDays: skipped,
     },
+    chosenMethods: chosenMethodsRecord(forecasts.flatMap((f) => (f.chosen === null ? [] : [{ day: f.quantiles.day, method: f.chosen.method, calibrationDays: f.chosen.calibrationDays }]))),
     crossedPeriodsSorted: forecasts.reduce((sum, f) => sum + f.crossedSlots, 0),
     pricesClampedToFloorOrCap: clampedValues,
     notes: [...new Set(forecasts.flatMap((f) => f.notes))],
@@ -158,6 +163,7 @@ function forecastSummaryText(summary: ForecastSummary, out: string, elapsedSecon
   const { days } = summary;
   const lines = [
     `forecast ${summary.method} at ${summary.levels.length} levels (${summary.levels[0]}..${summary.levels[summary.levels.length - 1]}), ${summary.from} to ${summary.to}: ${days.forecast} days forecast (${days.first} to ${days.last}), ${days.skipped} skipped, ${formatNumber(elapsedSeconds, 1)} s`,
+    ...(summary.chosenMethods === null ? [] : [`  chosen: ${summary.chosenMethods.counts.map((c) => `${c.method} (${c.calibrationDays} calibration days) ${c.days} ${c.days === 1 ? 'day' : 'days'}`).join(', ')}`]),
     ...days.skippedDays.slice(0, 5).map((d) => `  skipped ${d.day}: ${d.reason}`),
     ...(days.skipped > 5 ? [`  ... and ${days.skipped - 5} more (see forecast.json)`] : []),
     `  wrote ${summary.outputs.map((name, i) => (i === 0 ? `${out}/${name}` : name)).join(', ')}`,

@@ -1,6 +1,7 @@
 import type { ForecastComparison } from '../../forecast/scoring/compareForecasts.js';
 import type { IntervalCoverage, ScoreTable, Scores } from '../../forecast/scoring/scoreForecasts.js';
-import type { ScoreSummaryInput } from '../../report/scoreReport.js';
+import type { PathScores } from '../../forecast/scoring/scorePaths.js';
+import type { ScoreSummaryInput, UnscoredDay } from '../../report/scoreReport.js';
 import { formatNumber, formatPValue } from '../../io/formatNumber.js';
 import { studentTCdf } from '../../stats/studentTCdf.js';
 import { levelText } from '../../io/quantileForecastCsv.js';
@@ -18,11 +19,24 @@ const NOTES = [
   'periods of the day are local clock times: on a 25-hour day both periods of the repeated hour count for its clock time, on a 23-hour day the skipped hour has one observation less',
 ];
 
+/** Scores of a paths file (--paths), for score.json. */
+export interface PathScoresInput {
+  readonly file: string;
+  readonly scores: PathScores;
+  readonly unscoredDays: readonly UnscoredDay[];
+}
+
+const PATH_NOTES = [
+  'paths.energyScore: mean over the days of the energy score of the day\'s paths, (1/n) sum_j ||x_j - y|| - (1/(2 n^2)) sum_{j,k} ||x_j - x_k|| over the periods (Gneiting and Raftery 2007) [currency/MWh]; lower is better',
+  'paths.variogramScore: mean over the days of the variogram score of order 0.5, sum over ordered pairs of periods (|y_i - y_j|^0.5 - mean_m |x_mi - x_mj|^0.5)^2 (Scheuerer and Hamill 2015); lower is better',
+  'paths.periodsIndependent: the same scores of the same paths with each period\'s values shuffled across the paths (seeded): the marginals without the dependence; scores above the paths\' own mean their dependence between periods helps',
+];
+
 /** The content of score.json (and of `quantbid score --json`). */
-export function scoreSummary(input: ScoreSummaryInput) {
+export function scoreSummary(input: ScoreSummaryInput, paths: PathScoresInput | null = null) {
   const { table } = input;
   return {
-    notes: input.comparison === null ? NOTES : [...NOTES, 'dieboldMariano: on the days both forecast, d = daily loss of --forecast minus that of --against, a day\'s loss being its crps summed over its periods divided by the mean number of periods per day, so that crpsForecast and crpsAgainst (the means of the daily losses) are the crps of those days as defined above; HLN-corrected DM with h = 1 referred to t(n - 1); pValueAgainstBetter tests E[d] > 0, pValueForecastBetter E[d] < 0; better names the forecast with the lower crps'],
+    notes: [...(input.comparison === null ? NOTES : [...NOTES, 'dieboldMariano: on the days both forecast, d = daily loss of --forecast minus that of --against, a day\'s loss being its crps summed over its periods divided by the mean number of periods per day, so that crpsForecast and crpsAgainst (the means of the daily losses) are the crps of those days as defined above; HLN-corrected DM with h = 1 referred to t(n - 1); pValueAgainstBetter tests E[d] > 0, pValueForecastBetter E[d] < 0; better names the forecast with the lower crps']), ...(paths === null ? [] : PATH_NOTES)],
     inputs: { ...input.inputs },
     currency: input.currency,
     levels: [...table.levels],
@@ -39,6 +53,18 @@ export function scoreSummary(input: ScoreSummaryInput) {
     periodsRejectedAt5pct: periodsRejected(table),
     byPeriod: table.bySlot.map((slot) => ({ periodStart: slot.slotStart, periods: slot.count, ...scoresJson(table.levels, slot) })),
     dieboldMariano: input.comparison === null ? null : comparisonJson(input.comparison),
+    paths:
+      paths === null
+        ? null
+        : {
+            file: paths.file,
+            days: paths.scores.days,
+            energyScore: paths.scores.energyScore,
+            variogramScore: paths.scores.variogramScore,
+            periodsIndependent: { ...paths.scores.periodsIndependent },
+            unscored: paths.unscoredDays.length,
+            unscoredDays: paths.unscoredDays,
+          },
   };
 }
 
@@ -114,6 +140,13 @@ export function scoreSummaryText(summary: ReturnType<typeof scoreSummary>, out: 
     lines.push(
       `  --against: crps ${money(dm.crpsAgainst)}, this forecast's ${money(dm.crpsForecast)}, on ${dm.days} common days: ${which}; ` +
         ('hln' in dm ? `Diebold-Mariano (HLN) ${formatNumber(dm.hln, 3)}, one-sided p = ${p(oneSided as number)} that it is, two-sided ${p(dm.pValueTwoSided)}` : `Diebold-Mariano not defined: ${dm.reason}`),
+    );
+  }
+  const paths = summary.paths;
+  if (paths !== null) {
+    lines.push(
+      `  paths (${paths.days} days): energy score ${money(paths.energyScore)} (${money(paths.periodsIndependent.energyScore)} with the periods independent), ` +
+        `variogram score ${formatNumber(paths.variogramScore, 4)} (${formatNumber(paths.periodsIndependent.variogramScore, 4)})`,
     );
   }
   lines.push(`  wrote ${out}/${written.join(', ')}`);

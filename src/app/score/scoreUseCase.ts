@@ -5,6 +5,8 @@ import { scoreForecasts, type ScoredDay } from '../../forecast/scoring/scoreFore
 import { jsonText } from '../../io/planOutputs.js';
 import { readPriceHistory } from '../../io/readPriceHistory.js';
 import { readQuantileForecast, type QuantileForecastFile } from '../../io/readQuantileForecast.js';
+import { readScenarioPaths, type ScenarioPathsFile } from '../../io/readScenarioPaths.js';
+import { scorePaths, type ScoredPathDay } from '../../forecast/scoring/scorePaths.js';
 import { readMarketSpec } from '../../io/readSpecs.js';
 import type { OutputLock } from '../../io/outputLock.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
@@ -15,7 +17,7 @@ import { inputFiles, runInputFiles } from '../inputFiles.js';
 import { lockedRun } from '../lockedRun.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import { checkSpan, daySchema, inputSourcesSchema, outFolderSchema, pathSchema, validSettings } from '../settingSchemas.js';
-import { scoreSummary, scoreSummaryText } from './scoreSummary.js';
+import { scoreSummary, scoreSummaryText, type PathScoresInput } from './scoreSummary.js';
 
 /** The settings of `quantbid score`, checked once when it starts. */
 export const scoreSettingsSchema = z
@@ -24,6 +26,8 @@ export const scoreSettingsSchema = z
     inputs: inputSourcesSchema,
     /** A second quantile forecast at the same levels, compared with the first (Diebold-Mariano). */
     against: pathSchema.optional(),
+    /** Whole-day scenario paths (paths.csv of `quantbid forecast --paths`), scored by the energy and variogram scores. */
+    paths: pathSchema.optional(),
     /** Score only days from `from` to `to`, both included; default every forecast day. */
     from: daySchema.optional(),
     to: daySchema.optional(),
@@ -64,21 +68,22 @@ function scoreRun(s: z.output<typeof scoreSettingsSchema>, paths: Record<(typeof
   const history = read((m) => readPriceHistory(paths.history, m, note));
   const forecast = read((m) => readQuantileForecast(paths.forecast, m));
   const against = s.against === undefined ? null : read((m) => readQuantileForecast(s.against as string, m));
-  if (market === undefined || history === undefined || forecast === undefined || against === undefined) throw new InputError(problems);
+  const pathsFile = s.paths === undefined ? null : read((m) => readScenarioPaths(s.paths as string, m));
+  if (market === undefined || history === undefined || forecast === undefined || against === undefined || pathsFile === undefined) throw new InputError(problems);
 
   const range = { from: s.from ?? '0000-01-01', to: s.to ?? '9999-12-31' };
   const matched = matchDays(forecast, history, range);
   if (matched.scored.length === 0) throw noCommonDays(forecast, history, paths.history);
   const comparison = against === null ? null : compareOnCommonDays(matched.scored, against, history, range);
   const scored = {
-    inputs: { ...paths, ...(against === null ? {} : { against: against.file }) },
+    inputs: { ...paths, ...(against === null ? {} : { against: against.file }), ...(pathsFile === null ? {} : { paths: pathsFile.file }) },
     currency: market.currency,
     table: scoreForecasts(matched.scored),
     days: matched.scored.map((d) => d.forecast.day),
     unscored: matched.unscored,
     comparison,
   };
-  const summary = scoreSummary(scored);
+  const summary = scoreSummary(scored, pathsFile === null ? null : scoreScenarioPaths(pathsFile, history, range));
   const report = s.report ? [{ name: 'report.html', text: scoreReport({ ...scored, timeZone: market.timeZone, periodMinutes: market.periodMinutes }) }] : [];
   writeOutputs(s.out, [{ name: 'score.json', text: jsonText(summary) }, ...report], s.force, ['report.html'], lock);
   // Crossing quantiles are repaired by the reader, not refused (docs/design.md section 6): a note.
@@ -140,4 +145,22 @@ function compareOnCommonDays(scored: readonly ScoredDay[], against: QuantileFore
     throw new InputError([{ file: against.file, field: 'period_start', message: `only ${first.length} scored day in common with the forecast`, fix: 'compare forecasts of at least two common days of the history' }]);
   }
   return compareForecasts(first, first.map((d) => other.get(d.forecast.day) as ScoredDay));
+}
+
+/** Energy and variogram scores of the paths file's complete days within the range that the history has. */
+function scoreScenarioPaths(file: ScenarioPathsFile, history: PriceHistory, range: { from: string; to: string }): PathScoresInput {
+  const realised = new Map(history.days.map((d) => [d.day, d.pricePerMwh]));
+  const days: ScoredPathDay[] = [];
+  const unscoredDays: UnscoredDay[] = [];
+  for (const [day, paths] of [...file.days].sort(([a], [b]) => (a < b ? -1 : 1))) {
+    if (day < range.from || day > range.to) continue;
+    const prices = realised.get(day);
+    if (prices === undefined) unscoredDays.push({ day, reason: 'not in the history: no realised prices' });
+    else days.push({ day, paths, realised: prices });
+  }
+  if (days.length === 0) {
+    throw new InputError([{ file: file.file, field: 'period_start', message: 'no day of the paths file has realised prices in the history (within --from/--to where given)', fix: 'score paths of days the history covers' }]);
+  }
+  unscoredDays.sort((a, b) => (a.day < b.day ? -1 : a.day > b.day ? 1 : 0));
+  return { file: file.file, scores: scorePaths(days), unscoredDays };
 }

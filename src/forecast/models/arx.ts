@@ -31,20 +31,12 @@ export interface ArxSettings {
  * Names of the ARX regressors, in column order, before the exogenous columns (those of the day
  * itself, then those of the day before, each in the history's order).
  */
-export const ARX_COLUMNS: readonly string[] = Object.freeze([
-  'price(d-1,s)',
-  'price(d-2,s)',
-  'price(d-7,s)',
-  'min price(d-1)',
-  'max price(d-1)',
-  'price(d-1,last)',
-  'monday',
-  'tuesday',
-  'wednesday',
-  'thursday',
-  'friday',
-  'saturday',
-]);
+export const ARX_COLUMNS: readonly string[] = Object.freeze(['price(d-1,s)', 'price(d-2,s)', 'price(d-7,s)', 'min price(d-1)', 'max price(d-1)', 'price(d-1,last)', ...weekdayColumns()]);
+
+/** Names of the weekday dummies, Monday to Saturday (Sunday is the reference). */
+export function weekdayColumns(): string[] {
+  return ['monday', 'tuesday', 'wednesday', 'thursday', 'friday', 'saturday'];
+}
 
 const LAGS = [1, 2, 7] as const;
 

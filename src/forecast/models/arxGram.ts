@@ -1,4 +1,5 @@
 import type { StandardisedGram } from '../linalg/standardisedGram.js';
+import { nestedShiftedSums } from '../linalg/nestedShiftedSums.js';
 import { standardiseCentredSums } from '../linalg/standardisedGram.js';
 
 /** Day-level ARX regressors, the same for every slot of a training day. */
@@ -30,8 +31,8 @@ export class ArxGramBuilder {
   private readonly shiftB: Float64Array;
   private readonly shiftD: Float64Array;
   /** Per count: sums of the 9 shifted day-level columns and their products (9 x 9). */
-  private readonly sharedSums: Float64Array[] = [];
-  private readonly sharedProducts: Float64Array[] = [];
+  private readonly sharedSums: Float64Array[];
+  private readonly sharedProducts: Float64Array[];
   /** The shifted min, max and last of every row, column by column: rb[j n + i]. */
   private readonly rb: Float64Array;
 
@@ -43,24 +44,12 @@ export class ArxGramBuilder {
     const { minMaxLast, weekdays } = day;
     this.shiftB = Float64Array.from({ length: B }, (_, j) => minMaxLast[j] as number);
     this.shiftD = Float64Array.from({ length: D }, (_, w) => ((weekdays[0] as number) === w + 1 ? 1 : 0));
-    const m = B + D;
-    const sums = new Float64Array(m);
-    const products = new Float64Array(m * m);
-    const row = new Float64Array(m);
-    let i = 0;
-    for (const count of counts) {
-      for (; i < count; i++) {
-        for (let j = 0; j < B; j++) row[j] = (minMaxLast[i * B + j] as number) - (this.shiftB[j] as number);
-        for (let w = 0; w < D; w++) row[B + w] = ((weekdays[i] as number) === w + 1 ? 1 : 0) - (this.shiftD[w] as number);
-        for (let j = 0; j < m; j++) {
-          const rj = row[j] as number;
-          sums[j] = (sums[j] as number) + rj;
-          for (let l = j; l < m; l++) products[j * m + l] = (products[j * m + l] as number) + rj * (row[l] as number);
-        }
-      }
-      this.sharedSums.push(Float64Array.from(sums));
-      this.sharedProducts.push(Float64Array.from(products));
-    }
+    const shared = nestedShiftedSums(counts, B + D, (i, row) => {
+      for (let j = 0; j < B; j++) row[j] = (minMaxLast[i * B + j] as number) - (this.shiftB[j] as number);
+      for (let w = 0; w < D; w++) row[B + w] = ((weekdays[i] as number) === w + 1 ? 1 : 0) - (this.shiftD[w] as number);
+    });
+    this.sharedSums = shared.sums;
+    this.sharedProducts = shared.products;
     this.rb = new Float64Array(B * this.n);
     for (let j = 0; j < B; j++) for (let r = 0; r < this.n; r++) this.rb[j * this.n + r] = (minMaxLast[r * B + j] as number) - (this.shiftB[j] as number);
   }

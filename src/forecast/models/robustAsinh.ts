@@ -63,7 +63,7 @@ export function fromAsinhScale(z: number, s: RobustScale): number {
 /** Median of `work` (reordered in place) by quickselect: O(n) expected (Hoare 1961). */
 function medianInPlace(work: Float64Array): number {
   const n = work.length;
-  const upper = select(work, n >> 1);
+  const upper = selectInPlace(work, n >> 1);
   if (n % 2 === 1) return upper;
   // The lower middle is the largest value left of position n/2 after selection.
   let lower = -Infinity;
@@ -72,7 +72,7 @@ function medianInPlace(work: Float64Array): number {
 }
 
 /** k-th smallest (0-based) of `a`, partially sorting it (Hoare's FIND with a middle pivot). */
-function select(a: Float64Array, k: number): number {
+export function selectInPlace(a: Float64Array, k: number): number {
   let lo = 0;
   let hi = a.length - 1;
   while (lo < hi) {

@@ -1,3 +1,5 @@
+import { sortedQuantile } from './sortedQuantile.js';
+
 /**
  * Quantiles by historical simulation: the point forecast plus the empirical quantiles of the recent
  * out-of-sample errors of the same clock slot,
@@ -27,12 +29,6 @@ export function historicalSimulation(
   return Array.from({ length: point.length }, (_, s) => {
     for (let d = 0; d < n; d++) sorted[d] = (errors[d] as ArrayLike<number>)[s] as number;
     sorted.sort();
-    return levels.map((tau) => {
-      const h = (n - 1) * tau;
-      const j = Math.floor(h);
-      const lower = sorted[j] as number;
-      const upper = sorted[Math.min(j + 1, n - 1)] as number;
-      return (point[s] as number) + lower + (h - j) * (upper - lower);
-    });
+    return levels.map((tau) => (point[s] as number) + sortedQuantile(sorted, tau));
   });
 }

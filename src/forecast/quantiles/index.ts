@@ -1,5 +1,4 @@
 /** Quantiles from point forecasts: historical simulation, split conformal, QRA; rearrangement; paths. */
-export { errorPaths } from './errorPaths.js';
 export { historicalSimulation } from './historicalSimulation.js';
 export { requireLevels } from './levels.js';
 export { QraWarmStarts, quantileRegressionAveraging } from './quantileRegressionAveraging.js';

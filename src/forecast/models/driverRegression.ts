@@ -1,0 +1,379 @@
+import { sortedQuantile } from '../quantiles/sortedQuantile.js';
+import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
+import { predictLinear, type LinearModel } from '../linalg/linearModel.js';
+import { SlotDayGramBuilder } from './slotDayGram.js';
+import type { FitStopwatch } from '../fitStopwatch.js';
+import { timedFits } from '../fitStopwatch.js';
+import type { GriddedDay, HistoryView } from './historyView.js';
+import type { PointForecast } from './pointForecast.js';
+import { averageMembers } from './pointForecast.js';
+import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
+import { fromAsinhScale, robustScale, selectInPlace, toAsinhScale, type RobustScale } from './robustAsinh.js';
+import { weekdayColumns } from './arx.js';
+
+/** Settings of the driver regression; see {@link driverForecast}. */
+export interface DriverSettings {
+  /** Calibration window lengths [calendar days before the delivery day]; one fit per window, averaged. */
+  readonly windowsDays: readonly number[];
+  /** Fewest usable training days in every window for a forecast to be made [days]. */
+  readonly minTrainingDays: number;
+  /** Hinge knots of the residual load [-], >= 0: per slot at its 1/(J+1), ..., J/(J+1) quantiles over the longest window's days. */
+  readonly knots: number;
+  /** Scale the model is fitted on: asinh-transformed prices, or prices. */
+  readonly scale: 'asinh' | 'price';
+  /** Adds the time spent fitting (Grams and solves, per slot and window) to this counter. Default none. */
+  readonly stopwatch?: FitStopwatch;
+}
+
+/** Names of the driver regression's columns for J knots, in column order. */
+export function driverColumns(knots: number): string[] {
+  return [
+    'residual load(d,s)',
+    ...Array.from({ length: knots }, (_, j) => `max(0, residual load(d,s) - knot ${j + 1})`),
+    'mean price(d-1)',
+    'mean residual load(d-1)',
+    'price(d-1,s)',
+    'price(d-7,s)',
+    ...weekdayColumns(),
+  ];
+}
+
+const LAGS = [1, 7] as const;
+
+/**
+ * Per-slot regression of the price on its drivers, averaged over calibration windows.
+ *
+ * Model, one per clock slot s and window, fitted on the days d' of the window:
+ *   Z(d',s) = b0 + c0 x(d',s) + sum_j c_j max(0, x(d',s) - k_j)
+ *             + a1 mean_t Z(d'-1,t) + a2 mean_t x(d'-1,t) + a3 Z(d'-1,s) + a4 Z(d'-7,s)
+ *             + sum_{w = Mon..Sat} g_w D_w(d') + e(d',s),
+ * with x the residual load (load minus renewables, from the exogenous columns known before gate closure;
+ * residualLoad.ts), Z the price on the model's scale, D_w weekday dummies (Sunday the reference).
+ * - The residual load enters through a linear spline in the truncated power basis, hinges at the knots
+ *   k_j = the j/(J+1) quantiles of the slot's x over the longest window's days (Hastie, Tibshirani
+ *   and Friedman 2009, section 5.2; the hinge functions of Friedman 1991): the merit order is convex
+ *   near scarcity and flat in surplus, which one slope cannot follow. A hinge that fewer than 20 days
+ *   (or 10% of a window's days) reach is left out of that window's fit: its slope would rest on a few
+ *   days and the delivery day might extrapolate it far.
+ * - One model per slot lets every coefficient vary with the period of the day, so the effect of
+ *   residual load interacts fully with the time of day.
+ * - Yesterday's mean price is the persistent day-level component: with yesterday's mean residual load
+ *   beside it, the regression can tell the part of yesterday's level that yesterday's drivers explain
+ *   from the part that persists (as the LEAR model of Lago et al. 2021 reads the exogenous columns of
+ *   the day before). The same slot yesterday and a week ago carry the slot's own persistence and the
+ *   weekly profile with the dummies. The prices these regressors read are clipped at the day's far-out
+ *   fences (farOutFences), so that a spike hour does not move tomorrow's level.
+ * - Estimation: least squares (standardised normal equations, Cholesky), then once more on Huber's
+ *   pseudo-observations y* = y_hat + psi(y - y_hat) of the longest window's fit (psi clips residuals
+ *   at 1.345 robust standard deviations): Bickel's (1975) one-step Huber estimate. Spike periods in the
+ *   response then count no more than a residual of 1.345 sigma, so the fit follows the bulk of the
+ *   prices, where a plan's median schedule lives, rather than the mean that spikes pull.
+ * On the 'asinh' scale Z = asinh((P - a) / b) with a, b the median and normalised MAD of the prices of
+ * the longest window's days (Uniejewski, Weron and Ziel 2018), mapped back by P = a + b sinh(Z); on the
+ * 'price' scale Z = P. Windows and averaging as for the ARX (Hubicka, Marcjasz and Weron 2019). A
+ * training day is used when its days d'-1 and d'-7 are in the history; for the delivery day a missing
+ * lag day is replaced by the latest earlier day.
+ *
+ * References: P. J. Bickel (1975), One-step Huber estimates in the linear model, JASA 70(350), 428-434,
+ * doi:10.1080/01621459.1975.10479884; P. J. Huber (1964), Robust estimation of a location parameter,
+ * Ann. Math. Stat. 35(1), 73-101; P. W. Holland and R. E. Welsch (1977), Robust regression using
+ * iteratively reweighted least-squares, Commun. Stat. Theory Methods 6(9), 813-827 (c = 1.345);
+ * J. H. Friedman (1991), Multivariate adaptive regression splines, Ann. Stat. 19(1), 1-67,
+ * doi:10.1214/aos/1176347963; T. Hastie, R. Tibshirani and J. Friedman (2009), The Elements of
+ * Statistical Learning, 2nd ed., Springer, section 5.2; J. Lago, G. Marcjasz, B. De Schutter and
+ * R. Weron (2021), Applied Energy 293, 116983, doi:10.1016/j.apenergy.2021.116983; B. Uniejewski,
+ * R. Weron and F. Ziel (2018), IEEE Trans. Power Syst. 33(2), 2219-2229, doi:10.1109/TPWRS.2017.2734563;
+ * K. Hubicka, G. Marcjasz and R. Weron (2019), IEEE Trans. Sustain. Energy 10(1), 321-323,
+ * doi:10.1109/TSTE.2018.2869557.
+ *
+ * @returns the forecast (members = one per window, in the order of windowsDays), or null when the
+ *   history has no residual-load column, a window has fewer than minTrainingDays usable days, or no
+ *   past day lies 7 days before the delivery day or earlier
+ */
+export function driverForecast(view: HistoryView, settings: DriverSettings): PointForecast | null {
+  const columns = residualLoadColumns(view.exogenousNames);
+  if (columns === null) return null;
+  const targetLags = LAGS.map((lag) => view.indexAtOrBefore(view.target.dayNumber - lag));
+  if (targetLags.some((i) => i < 0)) return null;
+  const longest = Math.max(...settings.windowsDays);
+  const first = view.target.dayNumber - longest;
+  const training: number[] = [];
+  for (let i = view.pastCount - 1; i >= 0 && view.dayNumber(i) >= first; i--) {
+    const dn = view.dayNumber(i);
+    if (LAGS.every((lag) => view.indexOf(dn - lag) >= 0)) training.push(i);
+  }
+  const sizes = settings.windowsDays.map((w) => {
+    let count = 0;
+    while (count < training.length && view.dayNumber(training[count] as number) >= view.target.dayNumber - w) count++;
+    return count;
+  });
+  if (sizes.some((size) => size < settings.minTrainingDays)) return null;
+  const counts = [...new Set(sizes)].sort((p, q) => p - q);
+  const n = counts[counts.length - 1] as number;
+  const rows = training.slice(0, n);
+  const days = new DriverDays(view, columns, settings.scale === 'asinh' ? priceScale(view, rows) : null);
+  const S = view.slotsPerDay;
+  const J = settings.knots;
+  // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
+  // residual load of the day before, and the weekday dummies (Sunday, category 7, the reference).
+  const a = J + 4;
+  const k = a - 1 + 2 + 6;
+  const slotValues = new Float64Array(n * a);
+  const target = new Float64Array(k);
+  const slotX = new Float64Array(n);
+  const forecasts = new Map<number, Float64Array>(counts.map((c) => [c, new Float64Array(S)]));
+  const targetDay = days.regressors(targetLags[0] as number, targetLags[1] as number, view.target.weekday);
+  const trainingDays = rows.map((i) => {
+    const dn = view.dayNumber(i);
+    return { own: days.of(i), regressors: days.regressors(view.indexOf(dn - 1), view.indexOf(dn - 7), view.past(i).weekday) };
+  });
+  const builder = timedFits(settings.stopwatch, 0, () => new SlotDayGramBuilder(
+    {
+      continuous: Float64Array.from(trainingDays.flatMap((d) => [d.regressors.meanZ, d.regressors.meanX])),
+      width: 2,
+      categories: Int8Array.from(trainingDays, (d) => d.regressors.weekday),
+      dummies: 6,
+    },
+    counts,
+  ));
+  const xOf = trainingDays.map((d) => d.own.x);
+  const zOf = trainingDays.map((d) => d.own.z);
+  const lag1Of = trainingDays.map((d) => d.regressors.lag1);
+  const lag7Of = trainingDays.map((d) => d.regressors.lag7);
+  const knots = new Float64Array(J);
+  const scratch = new Float64Array(n);
+  const residuals = new Float64Array(n);
+  for (let s = 0; s < S; s++) {
+    for (let r = 0; r < n; r++) slotX[r] = (xOf[r] as Float64Array)[s] as number;
+    scratch.set(slotX);
+    slotQuantiles(scratch, J, knots);
+    for (let r = 0; r < n; r++) {
+      const base = r * a;
+      const xv = slotX[r] as number;
+      slotValues[base] = xv;
+      for (let j = 0; j < J; j++) {
+        const knot = knots[j] as number;
+        slotValues[base + 1 + j] = xv > knot ? xv - knot : 0;
+      }
+      slotValues[base + J + 1] = (lag1Of[r] as Float64Array)[s] as number;
+      slotValues[base + J + 2] = (lag7Of[r] as Float64Array)[s] as number;
+      slotValues[base + a - 1] = (zOf[r] as Float64Array)[s] as number;
+    }
+    const xt = days.targetX[s] as number;
+    target[0] = xt;
+    for (let j = 0; j < J; j++) target[1 + j] = xt > (knots[j] as number) ? xt - (knots[j] as number) : 0;
+    target[J + 1] = targetDay.lag1[s] as number;
+    target[J + 2] = targetDay.lag7[s] as number;
+    target[a - 1] = targetDay.meanZ;
+    target[a] = targetDay.meanX;
+    for (let w = 1; w <= 6; w++) target[a + w] = targetDay.weekday === w ? 1 : 0;
+    timedFits(settings.stopwatch, 2 * counts.length, () => {
+      // Least squares, then once more on Huber's pseudo-observations of the longest window's fit.
+      let longest: LinearModel | undefined;
+      builder.forEachGram(slotValues, a, (gram) => {
+        for (const j of thinHinges(slotValues, a, J, gram.n)) gram.scales[j] = 0;
+        longest = choleskyLeastSquares(gram);
+      });
+      pseudoObservations(slotValues, a, trainingDays, longest as LinearModel, residuals);
+      builder.forEachGram(
+        slotValues,
+        a,
+        (gram, w) => {
+          for (const j of thinHinges(slotValues, a, J, gram.n)) gram.scales[j] = 0;
+          (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(predictLinear(choleskyLeastSquares(gram), target));
+        },
+        true,
+      );
+    });
+  }
+  const members = sizes.map((size) => forecasts.get(size) as Float64Array);
+  return { mean: averageMembers(members), members };
+}
+
+/** Regressors of a day that come from the days before it (and its weekday). */
+interface DayRegressors {
+  /** Mean of the day before's prices on the model's scale, clipped at the far-out fences. */
+  readonly meanZ: number;
+  /** Mean residual load of the day before. */
+  readonly meanX: number;
+  /** The day before's and the week before's prices per slot on the model's scale, clipped at the far-out fences. */
+  readonly lag1: Float64Array;
+  readonly lag7: Float64Array;
+  readonly weekday: number;
+}
+
+/**
+ * Fewest training days on which a hinge column must be non-zero for it to enter a window's fit [-], and
+ * the same as a share of the window's days. A hinge that only a handful of days reach has a slope fixed
+ * by those few days, which the delivery day may then extrapolate far: such a column is left out.
+ */
+const HINGE_SUPPORT_DAYS = 20;
+const HINGE_SUPPORT_SHARE = 0.1;
+
+/** The hinge columns (1..J) that fewer than the support's days of the first `count` rows reach. */
+function thinHinges(rows: Float64Array, width: number, hinges: number, count: number): number[] {
+  const needed = Math.max(HINGE_SUPPORT_DAYS, HINGE_SUPPORT_SHARE * count);
+  const out: number[] = [];
+  for (let j = 1; j <= hinges; j++) {
+    let support = 0;
+    for (let r = 0; r < count; r++) if ((rows[r * width + j] as number) > 0) support++;
+    if (support < needed) out.push(j);
+  }
+  return out;
+}
+
+/**
+ * The knots of a slot: the j/(J+1) sample quantiles (j = 1..J, Hyndman and Fan's definition 7) of its
+ * residual loads, into `out`; `values` is reordered (selection, O(n) per knot).
+ */
+export function slotQuantiles(values: Float64Array, count: number, out: Float64Array): void {
+  const n = values.length;
+  for (let j = 0; j < count; j++) {
+    const h = (n - 1) * ((j + 1) / (count + 1));
+    const lo = Math.floor(h);
+    const lower = selectInPlace(values, lo);
+    const upper = lo + 1 < n ? selectInPlace(values, lo + 1) : lower;
+    out[j] = lower + (h - lo) * (upper - lower);
+  }
+}
+
+function priceScale(view: HistoryView, rows: readonly number[]): RobustScale {
+  const S = view.slotsPerDay;
+  const all = new Float64Array(rows.length * S);
+  rows.forEach((i, r) => all.set(view.past(i).prices, r * S));
+  return robustScale(all);
+}
+
+/** A past day on the model's scale: prices (z), prices clipped at the day's fences, residual load, means. */
+interface DriverDay {
+  readonly z: Float64Array;
+  readonly clipped: Float64Array;
+  readonly x: Float64Array;
+  readonly meanZ: number;
+  readonly meanX: number;
+}
+
+/** What does not depend on the delivery day, kept per gridded past day: fences of its prices, residual load. */
+const dayInputs = new WeakMap<GriddedDay, { readonly low: number; readonly high: number; readonly x: Float64Array; readonly columns: string }>();
+
+/** Per past day, the prices on the delivery day's scale and the residual load (computed once per delivery day). */
+class DriverDays {
+  private readonly cache = new Map<number, DriverDay>();
+  private readonly signature: string;
+  readonly targetX: Float64Array;
+
+  constructor(
+    private readonly view: HistoryView,
+    private readonly columns: ResidualLoadColumns,
+    private readonly scale: RobustScale | null,
+  ) {
+    this.targetX = residualLoad(view.target, columns);
+    this.signature = `${columns.added.join(',')}-${columns.subtracted.join(',')}`;
+  }
+
+  of(i: number): DriverDay {
+    let day = this.cache.get(i);
+    if (day === undefined) {
+      const past = this.view.past(i);
+      let inputs = dayInputs.get(past);
+      if (inputs === undefined || inputs.columns !== this.signature) {
+        inputs = { ...farOutFences(past.prices), x: residualLoad(past, this.columns), columns: this.signature };
+        dayInputs.set(past, inputs);
+      }
+      const prices = past.prices;
+      const S = prices.length;
+      const z = new Float64Array(S);
+      const clipped = new Float64Array(S);
+      const scale = this.scale;
+      // The transformation is increasing, so clipping at the transformed fences equals transforming the clipped prices.
+      const low = scale === null ? inputs.low : toAsinhScale(inputs.low, scale);
+      const high = scale === null ? inputs.high : toAsinhScale(inputs.high, scale);
+      let sum = 0;
+      for (let s = 0; s < S; s++) {
+        const v = scale === null ? (prices[s] as number) : toAsinhScale(prices[s] as number, scale);
+        z[s] = v;
+        const c = v < low ? low : v > high ? high : v;
+        clipped[s] = c;
+        sum += c;
+      }
+      day = { z, clipped, x: inputs.x, meanZ: sum / S, meanX: meanOf(inputs.x) };
+      this.cache.set(i, day);
+    }
+    return day;
+  }
+
+  /** The regressors of a day whose day before is past day `lag1` and week before `lag7`. */
+  regressors(lag1: number, lag7: number, weekday: number): DayRegressors {
+    const yesterday = this.of(lag1);
+    return { meanZ: yesterday.meanZ, meanX: yesterday.meanX, lag1: yesterday.clipped, lag7: this.of(lag7).clipped, weekday };
+  }
+
+  toPrice(z: number): number {
+    return this.scale === null ? z : fromAsinhScale(z, this.scale);
+  }
+}
+
+/**
+ * Tukey's far-out fences of a day's prices, [Q1 - 3 IQR, Q3 + 3 IQR] with the day's quartiles: clipped
+ * at them, a few spike periods cannot move the day's mean or a lag far, while ordinary days are left as
+ * they are (Tukey 1977, Exploratory Data Analysis, Addison-Wesley, section 2H).
+ */
+export function farOutFences(values: ArrayLike<number>): { low: number; high: number } {
+  const sorted = Float64Array.from(values).sort();
+  const q1 = sortedQuantile(sorted, 0.25);
+  const q3 = sortedQuantile(sorted, 0.75);
+  return { low: q1 - 3 * (q3 - q1), high: q3 + 3 * (q3 - q1) };
+}
+
+function meanOf(values: Float64Array): number {
+  let sum = 0;
+  for (let i = 0; i < values.length; i++) sum += values[i] as number;
+  return sum / values.length;
+}
+
+
+/** Huber's tuning constant: 95% efficiency at the normal (Holland and Welsch 1977). */
+const HUBER_C = 1.345;
+/** 1 / Phi^-1(3/4): the MAD times this estimates sigma for normal data. */
+const MAD_TO_SIGMA = 1.482602218505602;
+
+/**
+ * Huber's clipping point c sigma of residuals r_1..r_n: c = 1.345, sigma = MAD / Phi^-1(3/4) with
+ * MAD = med |r_i - med r| (the median is the order statistic n >> 1 counted from 0: the middle one for odd
+ * n, the upper of the two middle ones for even n).
+ */
+export function huberClipLimit(residuals: Float64Array): number {
+  const n = residuals.length;
+  const work = Float64Array.from(residuals);
+  const n2 = n >> 1;
+  const med = selectInPlace(work, n2);
+  for (let r = 0; r < n; r++) work[r] = Math.abs((residuals[r] as number) - med);
+  const sigma = selectInPlace(work, n2) * MAD_TO_SIGMA;
+  return HUBER_C * sigma;
+}
+
+/**
+ * Replaces the response column of `slotValues` (rows of slot columns, response last) by Huber's
+ * pseudo-observations of the fit `model`: y* = y_hat + psi(y - y_hat), psi(r) = max(-c sigma, min(c sigma, r)),
+ * sigma = MAD of the residuals / Phi^-1(3/4). Least squares on them is Bickel's one-step Huber estimate.
+ */
+function pseudoObservations(slotValues: Float64Array, a: number, trainingDays: readonly { regressors: DayRegressors }[], model: LinearModel, residuals: Float64Array): void {
+  const n = trainingDays.length;
+  const b = model.coefficients;
+  const p = a - 1;
+  for (let r = 0; r < n; r++) {
+    const base = r * a;
+    let f = model.intercept;
+    for (let q = 0; q < p; q++) f += (b[q] as number) * (slotValues[base + q] as number);
+    const d = (trainingDays[r] as { regressors: DayRegressors }).regressors;
+    f += (b[p] as number) * d.meanZ + (b[p + 1] as number) * d.meanX;
+    if (d.weekday <= 6) f += b[p + 1 + d.weekday] as number;
+    residuals[r] = (slotValues[base + p] as number) - f;
+  }
+  const limit = huberClipLimit(residuals.subarray(0, n));
+  for (let r = 0; r < n; r++) {
+    const e = residuals[r] as number;
+    if (e > limit) slotValues[r * a + p] = (slotValues[r * a + p] as number) - (e - limit);
+    else if (e < -limit) slotValues[r * a + p] = (slotValues[r * a + p] as number) - (e + limit);
+  }
+}

@@ -1,0 +1,52 @@
+import { describe, expect, it } from 'vitest';
+import { driverSpreadQuantiles, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
+
+// Invented inputs (formulas shared with test/forecast/driverSpreadReference.py); the check values come from
+// that script (NumPy 2.4.6: lstsq for Harvey's (1976) regression of log |e|, np.quantile for definition 7).
+const S = 6;
+const DAYS = 8;
+const LEVELS = [0.1, 0.5, 0.9];
+const error = (d: number, s: number) => (((d * 7 + s * 3) % 11) - 5) * (1 + 0.3 * s) + 0.1 * d;
+const exog = (d: number, s: number) => 20 + ((d * 5 + s * 2) % 9) * 1.5;
+const centre = (d: number, s: number) => 40 + 3 * s - 0.5 * d;
+const slots = (f: (s: number) => number) => Float64Array.from({ length: S }, (_, s) => f(s));
+
+const calibration = {
+  errors: Array.from({ length: DAYS }, (_, d) => slots((s) => error(d, s))),
+  features: Array.from({ length: DAYS }, (_, d) => spreadFeatures([slots((s) => exog(d, s))], slots((s) => centre(d, s)))),
+};
+const targetCentre = slots((s) => 50 + s);
+const targetFeatures = spreadFeatures([slots((s) => 26 + s)], targetCentre);
+
+const REFERENCE = {
+  all: [
+    [44.399690804041114, 50.4910675551633, 56.41749828641091],
+    [44.64240510493196, 51.55747075252426, 58.285286029248994],
+    [45.42889514053681, 52.57619254315221, 59.529951061605814],
+    [46.732052670626, 53.549609934599516, 60.182557219268716],
+    [41.412531468109904, 55.10374216518448, 68.424213897323],
+    [41.823444717342454, 56.15539670431014, 70.0992593423719],
+  ],
+  slot: [
+    [46.06125017151404, 51.278334956645146, 55.80511729389003],
+    [46.87810115088161, 52.28637946492244, 57.73465404124895],
+    [44.58750018657774, 51.67080062775323, 59.127868213798],
+    [44.39514280826191, 52.31154004830262, 60.63707456392553],
+    [44.368088518021914, 54.14877027593686, 64.09525691831475],
+    [45.25175015872349, 54.86104990486756, 70.61512666160888],
+  ],
+} as const;
+
+describe('driver spread quantiles (Harvey 1976 spread regression; filtered historical simulation, Barone-Adesi et al. 1999)', () => {
+  it.each(['all', 'slot'] as const)('pool %s matches NumPy (driverSpreadReference.py)', (pool) => {
+    const got = driverSpreadQuantiles(targetCentre, targetFeatures, calibration, LEVELS, pool);
+    got.forEach((row, s) => row.forEach((v, k) => expect(v).toBeCloseTo(REFERENCE[pool][s]![k]!, 8)));
+  });
+
+  it('scales with the errors: doubling every error doubles the distance of each quantile from the centre (log-linear spread)', () => {
+    const doubled = { ...calibration, errors: calibration.errors.map((e) => e.map((v) => 2 * v)) };
+    const base = driverSpreadQuantiles(targetCentre, targetFeatures, calibration, LEVELS, 'all');
+    const twice = driverSpreadQuantiles(targetCentre, targetFeatures, doubled, LEVELS, 'all');
+    twice.forEach((row, s) => row.forEach((v, k) => expect(v - targetCentre[s]!).toBeCloseTo(2 * (base[s]![k]! - targetCentre[s]!), 9)));
+  });
+});
