@@ -12,6 +12,8 @@ export interface GridSummaryContext {
   readonly axes: readonly GridAxis[];
   /** With --model: what made the forecasts (method, levels, options, days forecast and skipped). */
   readonly forecastModel?: { readonly method: string };
+  /** With curve or auto: where the whole-day paths came from (app/scenarios/quantilePaths.ts). */
+  readonly scenarioPaths?: string;
 }
 
 /** The parts every grid summary starts with: span, days covered and skipped, currency, inputs, axes. */
@@ -28,6 +30,7 @@ export function gridSummaryHead(command: string, context: GridSummaryContext) {
     inputs: { ...context.paths, ...(context.forecastModel === undefined ? {} : { model: context.forecastModel.method }) },
     axes: Object.fromEntries(context.axes.map((axis) => [axis.name, axis.values])),
     ...(context.forecastModel === undefined ? {} : { forecastModel: context.forecastModel }),
+    ...(context.scenarioPaths === undefined ? {} : { scenarioPaths: context.scenarioPaths }),
   };
 }
 

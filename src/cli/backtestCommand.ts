@@ -55,7 +55,7 @@ export function backtestCommand(io: CliIo): Command {
     .addOption(to)
     .addOption(alphaOption('tail level of the quantile and median policies: buys limited at q(1-alpha), sells at q(alpha); [q(alpha), q(1-alpha)] covers 1 - 2 alpha', BACKTEST_DEFAULTS.alpha))
     .addOption(unacceptedOption('unaccepted orders: follow-plan (close them at the imbalance price) | follow-accepted (move only with accepted orders)', BACKTEST_DEFAULTS.unaccepted))
-    .addOption(new Option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}; the first other than perfect-foresight is the one tested; curve and auto plan on --paths`).argParser(parsePoliciesArg).default([...BACKTEST_DEFAULTS.policies], 'all five'))
+    .addOption(new Option('--policies <list>', `comma-separated, from ${BACKTEST_POLICIES.join(', ')}; the first other than perfect-foresight is the one tested; curve and auto plan on whole-day paths: --paths, else made from the forecast and the history`).argParser(parsePoliciesArg).default([...BACKTEST_DEFAULTS.policies], 'all five'))
   addScenarioOptions(command)
     .addOption(outOption('folder for ledger.csv, days.csv and summary.json (required)'))
     .addOption(reportOption('also write report.html into --out: cumulative profit, daily profit, acceptance, imbalance energy, month table'))
@@ -108,7 +108,7 @@ Examples:
     };
     const { backtestUseCase } = await import('../app/backtest/backtestUseCase.js');
     // HiGHS is loaded only when a policy plans on scenarios.
-    const onScenarios = scenarios !== undefined && flags.policies.some((p) => p === 'curve' || p === 'auto');
+    const onScenarios = flags.policies.some((p) => p === 'curve' || p === 'auto');
     const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
     printResult(io, backtestUseCase(settings, cliHooks(io, flags.quiet === true), tools), flags.json === true);
   });

@@ -4,7 +4,7 @@ import { DEFAULT_LEVELS_TEXT, FORECAST_DEFAULTS } from '../app/commandDefaults.j
 import { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, MAX_PATHS, type ForecastMethod } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
-import { addInputOptions, forceOption, inputSources, jsonOption, levelsArg, oneOf, outOption, quietOption, requireSpanAndOut, spanOptions, type InputFlags } from './options.js';
+import { addInputOptions, forceOption, parseSeedArg, inputSources, jsonOption, levelsArg, oneOf, outOption, quietOption, requireSpanAndOut, spanOptions, type InputFlags } from './options.js';
 import { printResult } from './printResult.js';
 
 export interface ForecastFlags extends InputFlags {
@@ -27,13 +27,6 @@ export function parsePathCountArg(value: string): number {
     throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number of paths from 0 to ${MAX_PATHS}`);
   }
   return count;
-}
-
-/** `--path-seed N`: a whole number from 0 to 2^32 - 1. */
-export function parseSeedArg(value: string): number {
-  const seed = Number(value);
-  if (!/^\d+$/.test(value.trim()) || seed > 2 ** 32 - 1) throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number from 0 to 4294967295`);
-  return seed;
 }
 
 export function forecastCommand(io: CliIo): Command {

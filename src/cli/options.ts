@@ -8,7 +8,7 @@ import { InvalidArgumentError, Option, type Command } from 'commander';
 import { InputError, throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { shownText } from '../errors/shownText.js';
 import type { InputName } from '../app/inputFiles.js';
-import { MODEL_DEFAULTS } from '../app/commandDefaults.js';
+import { FORECAST_DEFAULTS, MODEL_DEFAULTS } from '../app/commandDefaults.js';
 import { decimalOf, levelsFromText, outFolderProblem, pathProblem, rangeProblem, RUN_LIMITS, spanProblem } from '../app/settingRules.js';
 import type { InputSources, ModelSettings } from '../app/settingSchemas.js';
 import type { ScenarioSettingsInput } from '../app/scenarios/scenarioSettings.js';
@@ -213,6 +213,13 @@ export function requireSpanAndOut(
   return { from, to, out };
 }
 
+/** `--path-seed N`: a whole number from 0 to 2^32 - 1. */
+export function parseSeedArg(value: string): number {
+  const seed = Number(value);
+  if (!/^\d+$/.test(value.trim()) || seed > 2 ** 32 - 1) throw new InvalidArgumentError(`"${shownText(value)}" must be a whole number from 0 to 4294967295`);
+  return seed;
+}
+
 /** The options of the curve and auto policies. */
 export interface ScenarioFlags {
   /** `--paths FILE`: whole-day price paths per day. */
@@ -221,22 +228,29 @@ export interface ScenarioFlags {
   readonly planningPaths?: number;
   /** `--risk-weight X`. */
   readonly riskWeight?: number;
+  /** `--path-seed N`: seed of the paths made from the quantile file (without --paths). */
+  readonly pathSeed?: number;
 }
 
-/** Adds --paths, --planning-paths and --risk-weight (the policies curve and auto). */
+/** Adds --paths, --path-seed, --planning-paths and --risk-weight (the policies curve and auto). */
 export function addScenarioOptions(command: Command): Command {
   return command
-    .option('--paths <file>', 'with --policy curve or auto: whole-day price paths per day, period_start,path,price (quantbid forecast --paths 364 writes them)', pathArg)
-    .option('--planning-paths <n>', `paths the curves are planned on; the day's other paths score every candidate (default ${SCENARIO_DEFAULTS.planningPaths})`, rangeArg(RUN_LIMITS.planningPaths, '100', true))
+    .option('--paths <file>', 'with --policy curve or auto: whole-day price paths per day, period_start,path,price (quantbid forecast --paths 364 writes them); without it they are made from the quantile file and the history (Schaake shuffle)', pathArg)
+    .option('--path-seed <N>', `without --paths: seed of the paths made from the quantile file; the same seed and inputs give the same paths (default ${FORECAST_DEFAULTS.pathSeed})`, parseSeedArg)
+    .option('--planning-paths <n>', `paths the curves are planned on; the day's other paths score every candidate (default ${SCENARIO_DEFAULTS.planningPaths}; made from the quantile file: twice as many per day)`, rangeArg(RUN_LIMITS.planningPaths, '100', true))
     .option('--risk-weight <x>', `lambda >= 0: choose by mean profit + lambda x CVaR 5 % (the mean of the worst 5 % of paths) (default ${SCENARIO_DEFAULTS.riskWeight})`, rangeArg(RUN_LIMITS.riskWeight, '0.5'));
 }
 
-/** The scenario settings of the flags; options without --paths are a problem. */
+/** The scenario settings of the flags, undefined when none is given; --path-seed with --paths is a problem (a paths file is not drawn here). */
 export function scenarioSettings(flags: ScenarioFlags): ScenarioSettingsInput | undefined {
-  if (flags.paths === undefined) {
-    const stray = flags.planningPaths !== undefined ? '--planning-paths' : flags.riskWeight !== undefined ? '--risk-weight' : null;
-    if (stray !== null) throw new InputError([{ file: 'command line', field: stray, message: 'is used only with --paths (the policies curve and auto)', fix: 'add --paths FILE, or leave the option out' }]);
-    return undefined;
+  if (flags.paths !== undefined && flags.pathSeed !== undefined) {
+    throw new InputError([{ file: 'command line', field: '--path-seed', message: 'is used only without --paths (it seeds the paths made from the quantile file)', fix: 'leave out --path-seed, or --paths' }]);
   }
-  return { paths: flags.paths, ...(flags.planningPaths === undefined ? {} : { planningPaths: flags.planningPaths }), ...(flags.riskWeight === undefined ? {} : { riskWeight: flags.riskWeight }) };
+  if (flags.paths === undefined && flags.pathSeed === undefined && flags.planningPaths === undefined && flags.riskWeight === undefined) return undefined;
+  return {
+    ...(flags.paths === undefined ? {} : { paths: flags.paths }),
+    ...(flags.pathSeed === undefined ? {} : { pathSeed: flags.pathSeed }),
+    ...(flags.planningPaths === undefined ? {} : { planningPaths: flags.planningPaths }),
+    ...(flags.riskWeight === undefined ? {} : { riskWeight: flags.riskWeight }),
+  };
 }

@@ -40,7 +40,7 @@ export function planCommand(io: CliIo): Command {
     .description('plan one delivery day: orders (buy/sell, quantity, limit price) and a schedule from a quantile forecast')
     .option('--day <YYYY-MM-DD>', 'delivery day to plan (default: the scenario\'s demoDay)', dayArg)
     .addOption(alphaOption('tail level: buys limited at q(1-alpha), sells at q(alpha); the interval [q(alpha), q(1-alpha)] covers 1 - 2 alpha', PLAN_DEFAULTS.alpha))
-    .option('--policy <name>', `${PLAN_COMMAND_POLICIES.join(' | ')} (price-taking: the median schedule with limits at the price cap and floor, the baseline every plan is compared with; curve and auto plan on --paths)`, oneOf<PlanCommandPolicy>(PLAN_COMMAND_POLICIES), PLAN_DEFAULTS.policy)
+    .option('--policy <name>', `${PLAN_COMMAND_POLICIES.join(' | ')} (price-taking: the median schedule with limits at the price cap and floor, the baseline every plan is compared with; curve and auto plan on whole-day paths: --paths, else made from the forecast and the history)`, oneOf<PlanCommandPolicy>(PLAN_COMMAND_POLICIES), PLAN_DEFAULTS.policy)
     .option('--soc-start <MWh>', 'state of charge at the start of the day [MWh] (default: socInitialFraction x energyMwh); outside the window: a warning, and the plan comes back into it at full power', rangeArg(RUN_LIMITS.socStartMwh, '5'));
   addScenarioOptions(command)
     .addOption(unacceptedOption('with curve or auto: what the battery does about unaccepted orders, follow-plan | follow-accepted', PLAN_DEFAULTS.unaccepted))
@@ -68,7 +68,10 @@ Examples:
                 --alpha 0.2 --json
   quantbid plan --scenario scenarios/halvorn/scenario.json --day 2027-01-01 \\
                 --policy auto --paths runs/fc/paths.csv \\
-                --unaccepted follow-accepted --out plans/auto`,
+                --unaccepted follow-accepted --out plans/auto
+  quantbid plan --scenario scenarios/halvorn/scenario.json --policy auto \\
+                --out plans/auto-quantiles    (paths from the quantile file
+                                               and the history)`,
   );
   command.action(async (flags: PlanFlags) => {
     const scenarios = scenarioSettings(flags);
@@ -86,7 +89,7 @@ Examples:
     };
     const { planUseCase } = await import('../app/plan/planUseCase.js');
     // HiGHS is loaded only for the policies that plan on scenarios: other plans never pay its start-up.
-    const onScenarios = (flags.policy === 'curve' || flags.policy === 'auto') && scenarios !== undefined;
+    const onScenarios = flags.policy === 'curve' || flags.policy === 'auto';
     const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
     printResult(io, planUseCase(settings, cliHooks(io, false), tools), flags.json === true);
   });

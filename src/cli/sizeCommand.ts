@@ -45,7 +45,7 @@ export function sizeCommand(io: CliIo): Command {
     .option('--energy-mwh <list>', 'energies [MWh]: values and ranges start:end:step, e.g. 5:60:5 (required)')
     .option('--power-mw <list>', 'powers [MW], charge = discharge, e.g. 2.5:30:2.5 (required)')
     .option('--efficiency <list>', 'round-trip efficiencies, e.g. 0.82,0.88 (default: the battery spec\'s)')
-    .option('--policies <list>', `policies to score, from ${SIZE_POLICIES.join(', ')} (default: ${SIZE_DEFAULTS.policies}; curve and auto plan on --paths); price-taking and perfect-foresight rows are always added`)
+    .option('--policies <list>', `policies to score, from ${SIZE_POLICIES.join(', ')} (default: ${SIZE_DEFAULTS.policies}; curve and auto plan on --paths, else on paths made from the forecast and the history); price-taking and perfect-foresight rows are always added`)
     .option('--policy <list>', 'the former name of --policies, still read (with a note)')
     .option('--alpha <a|best>', 'tail level of the quantile and median policies, or best: chosen per size on the first half of the days, scored on the second', parseAlphaOrBest, SIZE_DEFAULTS.alpha)
     .option('--alphas <list>', `the alphas --alpha best chooses from (default ${SIZE_DEFAULTS.alphas})`)

@@ -56,7 +56,7 @@ export function sweepCommand(io: CliIo): Command {
   const command = new Command('sweep')
     .description('backtest every setting of a grid of alpha x policy x unaccepted rule, in parallel, into sweep.csv (one row per setting)')
     .option('--alphas <list>', 'tail levels alpha (buys limited at q(1-alpha), sells at q(alpha)): values and ranges start:end:step, e.g. 0.02:0.48:0.02 or 0.05,0.1,0.2', SWEEP_DEFAULTS.alphas)
-    .option('--policies <list>', `from ${SWEEP_POLICIES.join(', ')}: quantile and median depend on alpha; curve and auto plan on --paths and ignore it`, SWEEP_DEFAULTS.policies)
+    .option('--policies <list>', `from ${SWEEP_POLICIES.join(', ')}: quantile and median depend on alpha; curve and auto plan on --paths (else on paths made from the forecast and the history) and ignore it`, SWEEP_DEFAULTS.policies)
     .option('--unaccepted <list>', `rules for unaccepted orders: ${UNACCEPTED_RULES.join(', ')}`, SWEEP_DEFAULTS.unaccepted);
   addScenarioOptions(command);
   addGridOptions(command, 'sweep.csv');

@@ -126,9 +126,39 @@ describe('curve and auto in sweep and size', () => {
     expect(JSON.parse(auto.stdout).candidates.map((c: { name: string }) => c.name)).not.toContain('curve');
   });
 
-  it('without --paths, a sweep of auto is refused with exit code 2 and names the option to give', () => {
+  it('without --paths on a history too short to learn the dependence from, a sweep of auto is refused with exit code 2 and names the option to give', () => {
     const run = quantbid(['sweep', '--scenario', scenario.scenario, '--from', scenario.from, '--to', scenario.to, '--policies', 'auto', '--out', join(scenario.dir, 'none')]);
     expect(run.code).toBe(2);
     expect(run.stderr).toContain('--paths');
   });
+
+  it('without --paths, sweep and size plan auto on paths made from the quantile file and the history, earning what backtest reports on them', () => {
+    const longer = writeScenario('scenario-policies-quantile-paths', { days: 10 });
+    const span = ['--from', '2026-03-10', '--to', '2026-03-11'];
+    const backtestOut = join(longer.dir, 'backtest');
+    expectDone(quantbid(['backtest', '--scenario', longer.scenario, ...span, '--policies', 'price-taking,auto', '--planning-paths', '10', '--out', backtestOut, '--quiet']));
+    const backtestSummary = JSON.parse(readFileSync(join(backtestOut, 'summary.json'), 'utf8'));
+    // 8 and 9 history days before the two days, of which 1 and 2 have a day 7 days before them.
+    const source = 'quantile file + history, Schaake shuffle with the seasonal naive errors template of 1 to 2 past days on 2 days, 20 paths per day, seed 1';
+    expect(backtestSummary.scenarioPaths).toBe(source);
+    const sweepOut = join(longer.dir, 'sweep');
+    const sweep = quantbid(['sweep', '--scenario', longer.scenario, ...span, '--alphas', '0.1', '--policies', 'auto', '--planning-paths', '10', '--threads', '1', '--out', sweepOut, '--quiet']);
+    expectDone(sweep);
+    expect(sweep.stdout).toContain(`paths of curve and auto: ${source}`);
+    expect(JSON.parse(readFileSync(join(sweepOut, 'summary.json'), 'utf8')).scenarioPaths).toBe(source);
+    const rows = csvRows(readFileSync(join(sweepOut, 'sweep.csv'), 'utf8'));
+    const header = rows[0] as string[];
+    const auto = rows.find((r) => r[1] === 'auto') as string[];
+    expect(Number(auto[header.indexOf('profit')])).toBeCloseTo(backtestSummary.policies.auto.profit as number, 5);
+    const sizeOut = join(longer.dir, 'size');
+    const size = quantbid([
+      'size', '--scenario', longer.scenario, ...span, '--energy-mwh', '10', '--power-mw', '5', '--policy', 'auto',
+      '--capex-per-mwh', '100000', '--capex-per-mw', '50000', '--life-years', '10', '--discount-rate', '0.07', '--planning-paths', '10', '--threads', '1', '--out', sizeOut, '--quiet',
+    ]);
+    expectDone(size);
+    expect(JSON.parse(readFileSync(join(sizeOut, 'summary.json'), 'utf8')).scenarioPaths).toBe(source);
+    const sizeRows = csvRows(readFileSync(join(sizeOut, 'size.csv'), 'utf8'));
+    const sizeAuto = sizeRows.find((r) => r[3] === 'auto') as string[];
+    expect(Number(sizeAuto[(sizeRows[0] as string[]).indexOf('profit')])).toBeCloseTo(backtestSummary.policies.auto.profit as number, 5);
+  }, 300_000);
 });

@@ -17,7 +17,8 @@ import { runInputFiles } from '../inputFiles.js';
 import { lockedRun } from '../lockedRun.js';
 import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { requireCurvesOffered, requireScenarioSettings, scenarioPlanningOf, type ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
+import { runScenarioPaths } from '../scenarios/quantilePaths.js';
+import { requireCurvesOffered, scenarioPlanningOf, type ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
 import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
@@ -56,7 +57,11 @@ export const backtestSettingsSchema = z
 
 export type BacktestSettings = z.input<typeof backtestSettingsSchema>;
 
-export type BacktestSummary = ReturnType<typeof backtestSummary> & { readonly forecastModel?: ModelForecastSummary };
+export type BacktestSummary = ReturnType<typeof backtestSummary> & {
+  readonly forecastModel?: ModelForecastSummary;
+  /** With curve or auto: where the whole-day paths came from (app/scenarios/quantilePaths.ts). */
+  readonly scenarioPaths?: string;
+};
 
 const BACKTEST_OUTPUTS = ['ledger.csv', 'days.csv', 'summary.json'] as const;
 
@@ -67,7 +72,6 @@ const BACKTEST_OUTPUTS = ['ledger.csv', 'days.csv', 'summary.json'] as const;
  */
 export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QUIET_HOOKS, tools: ScenarioTools = {}): Done<BacktestSummary> {
   const s = validSettings(backtestSettingsSchema, settings, 'backtest');
-  requireScenarioSettings(s.policies, s.scenarios, '--policies');
   const paths = runInputPaths(s.inputs, s.model);
   const outputs = s.report ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
   checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
@@ -93,20 +97,24 @@ function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: Backtest
     const ledger = stage.open('ledger.csv');
     ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
     const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRowBytes(day));
-    const scenarioPlanning = s.scenarios === undefined ? null : scenarioPlanningOf(s.scenarios, { market, history, forecast, tools });
+    // curve and auto: the --paths file, or paths made from the quantile file and the history (quantilePaths.ts).
+    const needing = s.policies.filter(usesScenarios);
+    const settings = needing.length === 0 ? null : (s.scenarios ?? scenarioSettingsSchema.parse({}));
+    const scenarioPaths = settings === null ? null : runScenarioPaths(settings, { market, history, forecastDays: forecast.days, days: daysBetween(s.from, s.to), policies: needing });
+    const scenarioPlanning = settings === null || scenarioPaths === null ? null : scenarioPlanningOf(settings, { market, history, forecast, tools, paths: scenarioPaths.paths });
     const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay, scenarioPlanning });
     progress.finish();
     const metrics = backtestMetrics(result, battery);
     const unrounded = unroundedMetrics(s, { market, battery, history, forecast }, hooks);
     const inputs = inputsShown(paths, s.model);
     const context = { market, battery, inputs, ...(unrounded === undefined ? {} : { unrounded }) };
-    const summary: BacktestSummary = { ...backtestSummary(result, metrics, context), ...(model === undefined ? {} : { forecastModel: model.summary }) };
+    const summary: BacktestSummary = { ...backtestSummary(result, metrics, context), ...(model === undefined ? {} : { forecastModel: model.summary }), ...(scenarioPaths === null ? {} : { scenarioPaths: scenarioPaths.source }) };
     stage.write('days.csv', daysCsv(result));
     stage.write('summary.json', jsonText(summary));
     if (s.report) stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
     stage.commit();
     if (summary.yearlyFigures.warning !== null) hooks.note(`warning: ${summary.yearlyFigures.warning}\n`);
-    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded)}${model?.note ?? ''}` };
+    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded)}${scenarioPaths === null ? '' : `  paths: ${scenarioPaths.source}\n`}${model?.note ?? ''}` };
   } finally {
     stage.discard();
   }

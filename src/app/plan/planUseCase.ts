@@ -19,7 +19,8 @@ import { inputFiles, runInputFiles } from '../inputFiles.js';
 import { lockedRun } from '../lockedRun.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import type { ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
-import { scenarioSettingsSchema, type ScenarioSettings } from '../scenarios/scenarioSettings.js';
+import { noPathsProblem } from '../scenarios/quantilePaths.js';
+import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { RUN_LIMITS } from '../settingRules.js';
 import { alphaSchema, boundedNumber, daySchema, inputSourcesSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
 import { SCENARIO_PLAN_OUTPUTS, scenarioPlan, type ScenarioPlanSummary } from './scenarioPlan.js';
@@ -37,7 +38,7 @@ export const planSettingsSchema = z.strictObject({
   alpha: alphaSchema.default(PLAN_DEFAULTS.alpha),
   /** Planning policy; default quantile. */
   policy: z.enum(PLAN_COMMAND_POLICIES as readonly PlanCommandPolicy[] as [PlanCommandPolicy, ...PlanCommandPolicy[]]).default(PLAN_DEFAULTS.policy),
-  /** Paths and settings of the curve and auto policies (required by them). */
+  /** Paths and settings of the curve and auto policies; without paths they are made from the forecast file and the history. */
   scenarios: scenarioSettingsSchema.optional(),
   /** What the battery does about unaccepted orders: auto scores its candidates under it. Default follow-plan. */
   unaccepted: unacceptedRuleSchema.default(PLAN_DEFAULTS.unaccepted),
@@ -73,10 +74,9 @@ const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
 export function planUseCase(settings: PlanSettings, hooks: RunHooks = QUIET_HOOKS, tools: PlanTools = {}): Done<PlanSummary> {
   const s = validSettings(planSettingsSchema, settings, 'plan');
   const onScenarios = s.policy === 'curve' || s.policy === 'auto';
-  if (onScenarios && s.scenarios === undefined) {
-    throw new InputError([{ file: 'command line', field: '--paths', message: `the ${s.policy} policy plans on whole-day price paths and none were given`, fix: 'give --paths FILE (quantbid forecast --paths 364 writes one)' }]);
-  }
   const { paths, demoDay } = inputFiles(s.inputs, ['market', 'battery', 'forecast'], ['history']);
+  // Without --paths the paths are made from the quantile file and the history: one of the two is needed.
+  if (onScenarios && s.scenarios?.paths === undefined && paths.history === undefined) throw noPathsProblem([s.policy]);
   const day = s.day ?? demoDay;
   if (day === undefined) {
     throw new InputError([{ file: 'command line', field: '--day', message: 'no delivery day given', fix: 'give --day YYYY-MM-DD' }]);
@@ -111,7 +111,7 @@ function planDayRun(
     if (tools.lpSolver === undefined) throw new Error(`planUseCase: the ${s.policy} policy needs tools.lpSolver (loadHighsSolver)`);
     const inputs: Record<string, string> = { ...paths };
     return scenarioPlan(
-      { day, policy: s.policy, scenarios: s.scenarios as ScenarioSettings, market, battery, forecastFile, forecast, socStartMwh, unaccepted: s.unaccepted, inputs, out: s.out, force: s.force, report: s.report, solver: tools.lpSolver, lock: run.lock },
+      { day, policy: s.policy, scenarios: s.scenarios ?? scenarioSettingsSchema.parse({}), market, battery, forecastFile, forecast, socStartMwh, unaccepted: s.unaccepted, inputs, out: s.out, force: s.force, report: s.report, solver: tools.lpSolver, lock: run.lock },
       hooks,
     );
   }

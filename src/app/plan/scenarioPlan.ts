@@ -6,15 +6,15 @@ import type { SparseLpSolver } from '../../curves/linearProgram.js';
 import { gatherProblems, InputError, type InputProblem } from '../../errors/inputError.js';
 import { jsonText, ordersCsv } from '../../io/planOutputs.js';
 import { readPriceHistory } from '../../io/readPriceHistory.js';
-import type { QuantileForecastFile } from '../../io/readQuantileForecast.js';
+import { readQuantileForecast, type QuantileForecastFile } from '../../io/readQuantileForecast.js';
 import type { UnacceptedRule } from '../../settle/unacceptedRule.js';
-import { readScenarioPaths } from '../../io/readScenarioPaths.js';
 import { writeOutputs } from '../../io/writeOutputs.js';
 import type { OutputLock } from '../../io/outputLock.js';
 import { scenarioPlanReport } from '../../report/scenarioPlanReport.js';
 import type { Done } from '../commandResult.js';
 import type { RunHooks } from '../runHooks.js';
 import { imbalancePathSource } from '../scenarios/pathScenarios.js';
+import { runScenarioPaths } from '../scenarios/quantilePaths.js';
 import { requireCurvesOffered, scenarioPlanningOf } from '../scenarios/scenarioPlanningOf.js';
 import type { ScenarioSettings } from '../scenarios/scenarioSettings.js';
 import { candidateTableText, scenarioPlanSummary, whyText } from './scenarioPlanSummary.js';
@@ -46,7 +46,7 @@ export type ScenarioPlanSummary = ReturnType<typeof scenarioPlanSummary>;
 export const SCENARIO_PLAN_OUTPUTS = ['orders.csv', 'plan.json'] as const;
 
 /**
- * `quantbid plan --policy curve|auto`: the day's paths (readScenarioPaths) split into planning and fresh
+ * `quantbid plan --policy curve|auto`: the day's paths (runScenarioPaths: the --paths file, or made from the quantile file and the history) split into planning and fresh
  * paths with their imbalance prices (pathScenarioSource), the candidates planned and scored
  * (backtest/planPolicyDay.ts), the submitted bids written as orders.csv (a curve as one row per step),
  * plan.json with the table of candidates, and report.html when asked.
@@ -55,12 +55,15 @@ export function scenarioPlan(request: ScenarioPlanRequest, hooks: RunHooks): Don
   const { day, policy, market, battery, forecast, socStartMwh, scenarios } = request;
   requireCurvesOffered([policy], market, request.inputs['market'] ?? 'market');
   const problems: InputProblem[] = [];
-  const pathsFile = gatherProblems(problems, () => readScenarioPaths(scenarios.paths, market));
   const historyPath = request.inputs['history'];
   const history = historyPath === undefined ? null : (gatherProblems(problems, () => readPriceHistory(historyPath, market, (text) => hooks.note(text))) ?? null);
-  if (pathsFile === undefined || (historyPath !== undefined && history === null)) throw new InputError(problems);
+  // Paths made from the quantile file need its past days too: the whole file is read only then.
+  const forecastPath = request.inputs['forecast'];
+  const pastForecast = scenarios.paths !== undefined || forecastPath === undefined ? request.forecastFile : gatherProblems(problems, () => readQuantileForecast(forecastPath, market));
+  if ((historyPath !== undefined && history === null) || pastForecast === undefined) throw new InputError(problems);
+  const runPaths = runScenarioPaths(scenarios, { market, history, forecastDays: pastForecast.days, days: [day], policies: [policy] });
   const imbalance = imbalancePathSource(day, { market, history, forecastDays: request.forecastFile.days });
-  const planning = scenarioPlanningOf(scenarios, { market, history, forecast: request.forecastFile, tools: { lpSolver: request.solver }, paths: pathsFile });
+  const planning = scenarioPlanningOf(scenarios, { market, history, forecast: request.forecastFile, tools: { lpSolver: request.solver }, paths: runPaths.paths });
   const made = planning.scenarios(forecast);
   const socEndMinMwh = battery.socFinalMinMwh ?? socStartMwh;
   const plan = planPolicyDay({
@@ -73,7 +76,7 @@ export function scenarioPlan(request: ScenarioPlanRequest, hooks: RunHooks): Don
   const { choice } = plan.scenarioReport;
   const orders = dayBidOrders(forecast.periods, plan.orders);
   const context = {
-    day, policy, market, inputs: { ...request.inputs, paths: scenarios.paths }, periods: forecast.periods, socStartMwh, socEndMinMwh, unaccepted: request.unaccepted,
+    day, policy, market, inputs: { ...request.inputs, ...(scenarios.paths === undefined ? {} : { paths: scenarios.paths }) }, scenarioPaths: runPaths.source, periods: forecast.periods, socStartMwh, socEndMinMwh, unaccepted: request.unaccepted,
     riskWeight: scenarios.riskWeight, switchStandardErrors: planning.switchStandardErrors,
     planningPaths: made.planning.pathCount, freshPaths: made.fresh.pathCount, curveSteps: planning.curveSteps,
     imbalance: imbalance.description, solver: request.solver.name,
@@ -95,7 +98,8 @@ export function scenarioPlan(request: ScenarioPlanRequest, hooks: RunHooks): Don
   }
   const lines = [
     `plan for ${day} (${forecast.periods.length} periods of ${market.periodMinutes} min), policy ${policy}, risk weight ${scenarios.riskWeight}, unaccepted orders ${request.unaccepted}`,
-    `  scenarios: ${made.planning.pathCount} planning and ${made.fresh.pathCount} fresh paths from ${scenarios.paths}; imbalance: ${imbalance.description}`,
+    `  scenarios: ${made.planning.pathCount} planning and ${made.fresh.pathCount} fresh paths; imbalance: ${imbalance.description}`,
+    `  paths: ${runPaths.source}`,
     ...candidateTableText(choice, market.currency),
     `  submitted: ${summary.submitted} (${whyText(choice, planning.switchStandardErrors)})`,
     `  orders: ${summary.orders.rows} rows, ${summary.orders.buys} buys, ${summary.orders.sells} sells; a proposal for the exchange, not a control signal`,

@@ -1,34 +1,39 @@
-import type { MarketSpec } from '../../types.js';
 import { usesScenarios, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
 import type { ScenarioPlanning } from '../../backtest/scenarioPlanning.js';
 import type { BacktestInputData } from '../../io/readBacktestInputs.js';
-import { readScenarioPaths, type ScenarioPathsFile } from '../../io/readScenarioPaths.js';
+import type { ScenarioPathsFile } from '../../io/readScenarioPaths.js';
+import { daysBetween } from '../../market/calendar.js';
 import { loadHighsSolver } from '../solver/highsSolver.js';
-import { requireCurvesOffered, requireScenarioSettings, scenarioPlanningOf } from './scenarioPlanningOf.js';
-import type { ScenarioSettings } from './scenarioSettings.js';
+import { runScenarioPaths } from './quantilePaths.js';
+import { requireCurvesOffered, scenarioPlanningOf } from './scenarioPlanningOf.js';
+import { scenarioSettingsSchema, type ScenarioSettings } from './scenarioSettings.js';
 
 /** What a grid task (sweep, size) needs to plan the curve and auto policies in its thread: plain data, copied into every worker. */
 export interface GridScenarioInput {
   readonly settings: ScenarioSettings;
-  /** The paths file as the parent read and checked it, cut to the grid's days. */
+  /** The paths as the parent read and checked them (or made them from the quantile file), cut to the grid's days. */
   readonly paths: ScenarioPathsFile;
+  /** Where the paths came from (runScenarioPaths). */
+  readonly source: string;
 }
 
 /**
  * The scenario input of a grid whose policy axis holds curve or auto: --paths read and checked once in
- * the parent, its days cut to [from, to]; undefined when no policy of the axis plans on scenarios.
+ * the parent, or the paths made there from the quantile file and the history (runScenarioPaths), for
+ * the days of [from, to]; undefined when no policy of the axis plans on scenarios.
  */
 export function gridScenarioInput(
   policies: readonly BacktestPolicy[],
   scenarios: ScenarioSettings | undefined,
-  run: { readonly market: MarketSpec; readonly marketFile: string; readonly from: string; readonly to: string; readonly policyOption: string },
+  run: { readonly data: BacktestInputData; readonly marketFile: string; readonly from: string; readonly to: string },
 ): GridScenarioInput | undefined {
-  requireScenarioSettings(policies, scenarios, run.policyOption);
-  requireCurvesOffered(policies, run.market, run.marketFile);
-  if (scenarios === undefined || !policies.some(usesScenarios)) return undefined;
-  const file = readScenarioPaths(scenarios.paths, run.market);
-  const days = new Map([...file.days].filter(([day]) => day >= run.from && day <= run.to));
-  return { settings: scenarios, paths: { file: file.file, days } };
+  const { market, history, forecast } = run.data;
+  requireCurvesOffered(policies, market, run.marketFile);
+  const needing = policies.filter(usesScenarios);
+  if (needing.length === 0) return undefined;
+  const settings = scenarios ?? scenarioSettingsSchema.parse({});
+  const made = runScenarioPaths(settings, { market, history, forecastDays: forecast.days, days: daysBetween(run.from, run.to), policies: needing });
+  return { settings, ...made };
 }
 
 /**

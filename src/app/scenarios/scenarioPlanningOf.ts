@@ -1,24 +1,16 @@
 import type { MarketSpec, PriceHistory, QuantileDay } from '../../types.js';
-import { usesScenarios, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
+import type { BacktestPolicy } from '../../backtest/backtestPolicy.js';
 import { SCENARIO_DEFAULTS, type ScenarioPlanning } from '../../backtest/scenarioPlanning.js';
 import type { SparseLpSolver } from '../../curves/linearProgram.js';
 import { InputError } from '../../errors/inputError.js';
 import { exchangeSteps } from '../../plan/exchangeRounding.js';
-import { readScenarioPaths, type ScenarioPathsFile } from '../../io/readScenarioPaths.js';
+import type { ScenarioPathsFile } from '../../io/readScenarioPaths.js';
 import { pathScenarioSource } from './pathScenarios.js';
 import { autoAlphas, curveSteps, type ScenarioSettings } from './scenarioSettings.js';
 
 /** What a run of the curve or auto policy needs besides its settings: the LP solver (app/solver/highsSolver.ts). */
 export interface ScenarioTools {
   readonly lpSolver?: SparseLpSolver;
-}
-
-/** The curve and auto policies need --paths: a problem of `option` (the option that named them) otherwise. */
-export function requireScenarioSettings(policies: readonly BacktestPolicy[], scenarios: ScenarioSettings | undefined, option: string): void {
-  const needing = policies.filter(usesScenarios);
-  if (needing.length > 0 && scenarios === undefined) {
-    throw new InputError([{ file: 'command line', field: option, message: `${needing.join(' and ')} plan on whole-day price paths and none were given`, fix: 'give --paths FILE (quantbid forecast --paths 364 writes one)' }]);
-  }
 }
 
 /**
@@ -31,17 +23,17 @@ export function requireCurvesOffered(policies: readonly BacktestPolicy[], market
 }
 
 /**
- * Scenario planning for a run: the paths file read once (or `run.paths`, already read), each day's planning and fresh paths with their
+ * Scenario planning for a run: the run's paths (runScenarioPaths: the --paths file or paths made from the quantile file), each day's planning and fresh paths with their
  * imbalance prices (pathScenarioSource), the curve steps from the market's bidCurves, auto's alphas within
  * the forecast's levels, the defaults of SCENARIO_DEFAULTS, and the solver handed in.
  */
 export function scenarioPlanningOf(
   settings: ScenarioSettings,
-  run: { readonly market: MarketSpec; readonly history: PriceHistory | null; readonly forecast: { readonly days: ReadonlyMap<string, QuantileDay>; readonly levels?: readonly number[] }; readonly tools: ScenarioTools; readonly paths?: ScenarioPathsFile },
+  run: { readonly market: MarketSpec; readonly history: PriceHistory | null; readonly forecast: { readonly days: ReadonlyMap<string, QuantileDay>; readonly levels?: readonly number[] }; readonly tools: ScenarioTools; readonly paths: ScenarioPathsFile },
 ): ScenarioPlanning {
   const { market, history, forecast, tools } = run;
   if (tools.lpSolver === undefined) throw new Error('scenarioPlanningOf: the curve and auto policies need tools.lpSolver (loadHighsSolver)');
-  const paths = run.paths ?? readScenarioPaths(settings.paths, market);
+  const { paths } = run;
   const levels = forecast.levels ?? [...forecast.days.values()][0]?.levels ?? [];
   return {
     scenarios: pathScenarioSource({ paths, market, history, forecastDays: forecast.days, planningPaths: settings.planningPaths }),

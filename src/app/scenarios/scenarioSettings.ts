@@ -1,13 +1,19 @@
 import { z } from 'zod';
 import { SCENARIO_DEFAULTS } from '../../backtest/scenarioPlanning.js';
 import { upperLevel } from '../../plan/alpha.js';
+import { FORECAST_DEFAULTS } from '../commandDefaults.js';
 import { RUN_LIMITS } from '../settingRules.js';
 import { boundedNumber, pathSchema } from '../settingSchemas.js';
 
 /** The settings of scenario planning shared by plan, backtest, sweep and size (policies curve and auto). */
 export const scenarioSettingsSchema = z.strictObject({
-  /** Whole-day price paths per day, `period_start,path,price` (quantbid forecast --paths writes them). */
-  paths: pathSchema,
+  /**
+   * Whole-day price paths per day, `period_start,path,price` (quantbid forecast --paths writes them).
+   * Without it the paths are made from the quantile file and the history (quantilePaths.ts).
+   */
+  paths: pathSchema.optional(),
+  /** Seed of the paths made without `paths`; each day's from daySeed(pathSeed, day). Default as forecast's --path-seed. */
+  pathSeed: z.number().int().min(0).max(2 ** 32 - 1).default(FORECAST_DEFAULTS.pathSeed),
   /** Paths planned on; the day's others are the fresh ones the candidates are scored on. Default 100. */
   planningPaths: boundedNumber(RUN_LIMITS.planningPaths, true).default(SCENARIO_DEFAULTS.planningPaths),
   /** lambda of mean + lambda x CVaR 5 %, >= 0; default 0 (mean profit). */

@@ -78,6 +78,7 @@ export function sizeSummaryText(summary: ReturnType<typeof sizeSummary>, resumed
   const scored = summary.alpha.scored;
   const how = summary.alpha.method === 'best' ? `alpha chosen per size on ${summary.alpha.choose.from} to ${summary.alpha.choose.to}` : `alpha ${String(summary.alpha.alpha)}`;
   const lines = [`size ${summary.from} to ${summary.to}: ${summary.settings} settings (${resumed} resumed from the journal); ${scored.days.length} days scored from ${scored.from}, ${how}`];
+  if ('scenarioPaths' in summary) lines.push(`  paths of curve and auto: ${summary.scenarioPaths}`);
   const at = (pick: SizePick) => `${formatNumber(pick.energyMwh)} MWh / ${formatNumber(pick.powerMw)} MW, efficiency ${formatNumber(pick.roundTripEfficiency, 4)}`;
   for (const policy of summary.best) {
     const npv = policy.highestNpv;

@@ -136,7 +136,7 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
       { name: 'round_trip_efficiency', option: '--efficiency', values: s.efficiencies ?? [specRoundTripEfficiency(data.batterySpec)] },
       { name: 'policy', option: '--policies', values: sizePolicyAxis(s.policies) },
     ] as const;
-    const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
+    const scenarios = gridScenarioInput(s.policies, s.scenarios, { data, marketFile: paths.market, from, to });
     // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
     // spread is learnt from the history before each day) and shared: none reads or parses a file again.
     const contextInput: SizeTaskInput = {
@@ -154,9 +154,9 @@ export async function sizeUseCase(settings: SizeSettings, hooks: RunHooks = QUIE
         contextInput,
         identity: { from, to, alpha, unaccepted: s.unaccepted, costs, efficiencyGiven: contextInput.efficiencyGiven, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
         paths,
-        moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
+        moreInputFiles: scenarios?.settings.paths === undefined ? [] : [scenarios.settings.paths],
         model,
-        summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext }),
+        summary: (results: readonly SizeResult[]) => sizeSummary(results, { from, to, data, paths, axes, alpha, unaccepted: s.unaccepted, costs, ...modelContext, ...(scenarios === undefined ? {} : { scenarioPaths: scenarios.source }) }),
         report: (results, summary) => sizeReport({ results, summary }),
         summaryText: sizeSummaryText,
       },

@@ -106,6 +106,7 @@ export function sweepSummaryText(summary: ReturnType<typeof sweepSummary>, resum
   const money = (x: unknown) => (typeof x === 'number' ? `${formatNumber(x, 0)} ${c}` : '-');
   const capture = (x: unknown) => (typeof x === 'number' ? ` (capture ${formatNumber(100 * x, 1)}%)` : '');
   const lines = [`sweep ${summary.from} to ${summary.to}: ${summary.settings} settings (${resumed} resumed from the journal), ${summary.daysCovered} days covered, ${summary.skippedDays.length} skipped`];
+  if ('scenarioPaths' in summary) lines.push(`  paths of curve and auto: ${summary.scenarioPaths}`);
   for (const rule of summary.bestByRule) {
     const refs = summary.references.filter((r) => r.unaccepted === rule.unaccepted);
     const ref = (policy: string) => refs.find((r) => r.policy === policy)?.row;

@@ -66,7 +66,7 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
   const use = { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' };
   return lockedGridRun(s, 'sweep', use, hooks, ({ paths, data, model }, lock) => {
     const modelContext = model === undefined ? {} : { forecastModel: model.summary };
-    const scenarios = gridScenarioInput(s.policies, s.scenarios, { market: data.market, marketFile: paths.market, from, to, policyOption: '--policies' });
+    const scenarios = gridScenarioInput(s.policies, s.scenarios, { data, marketFile: paths.market, from, to });
     // The workers get the inputs as read here, cut to the span (whole with curve or auto, whose imbalance
     // spread is learnt from the history before each day) and shared: none reads or parses a file again.
     const span = inputDataSpan(data, from, to);
@@ -85,9 +85,9 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
         contextInput,
         identity: { from, to, ...(scenarios === undefined ? {} : { scenarios: scenarios.settings }) },
         paths,
-        moreInputFiles: scenarios === undefined ? [] : [scenarios.settings.paths],
+        moreInputFiles: scenarios?.settings.paths === undefined ? [] : [scenarios.settings.paths],
         model,
-        summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext }),
+        summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext, ...(scenarios === undefined ? {} : { scenarioPaths: scenarios.source }) }),
         moreRows: () => referenceRows(),
         report: (results, summary) => sweepReport({ results, summary }),
         summaryText: sweepSummaryText,
