@@ -36,7 +36,8 @@ export function baselineHeadline(metrics: BacktestMetrics, currency: string, wri
   const b = metrics.baseline;
   if (b === null || metrics.tested === null) return null;
   const profit = (p: string) => write(metrics.policies[p]?.profit ?? 0, 0);
-  const outcome = b.testedLoses ? 'LOSES' : 'beats it';
+  // Not behind and equal as written (e.g. auto that kept price-taking's bids every day) is a tie, not a win.
+  const outcome = b.testedLoses ? 'LOSES' : profit(metrics.tested) === profit(b.policy) ? 'ties with it' : 'beats it';
   return {
     verdict: `against the strongest simple baseline, ${b.policy} (${STRONGEST_BASELINE_RULE}): ${metrics.tested} ${outcome}, ${profit(metrics.tested)} against ${profit(b.policy)} ${currency} over the run`,
     test: edgeSentence(b.edge, currency, write),
