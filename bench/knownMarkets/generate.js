@@ -34,11 +34,9 @@ export async function simulateSetting(setting, draw = 0) {
   return simulateMarket(setting, { deliveryPeriods, days: daysBetween, normal: { cdf: normalCdf, quantile: normalQuantile } }, { ...SPAN, levels: LEVELS, draw });
 }
 
-/** The files of one setting, as { name: text }. */
-export async function settingFiles(setting, simulation) {
-  const { quantileForecastCsv } = await dist('io/quantileForecastCsv.js');
-  const { formatNumber } = await dist('io/formatNumber.js');
-  const market = {
+/** The market.json of one setting (as an object). */
+export function marketSpecOf(setting) {
+  return {
     timeZone: setting.market.timeZone,
     periodMinutes: setting.market.periodMinutes,
     priceFloor: setting.market.floor,
@@ -46,6 +44,13 @@ export async function settingFiles(setting, simulation) {
     currency: 'KNW',
     gateClosure: '12:00',
   };
+}
+
+/** The files of one setting, as { name: text }. */
+export async function settingFiles(setting, simulation) {
+  const { quantileForecastCsv } = await dist('io/quantileForecastCsv.js');
+  const { formatNumber } = await dist('io/formatNumber.js');
+  const market = marketSpecOf(setting);
   const history = ['period_start,price,imbalance_price,load_forecast_mw,renewables_forecast_mw'];
   for (const d of simulation.days) {
     d.periods.forEach((p, t) => history.push(`${p.start},${formatNumber(d.price[t], 2)},${formatNumber(d.imbalance[t], 2)},${formatNumber(d.load[t], 1)},${formatNumber(d.renewables[t], 1)}`));

@@ -10,7 +10,7 @@
 // which the "true quantiles" figures were measured.
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { LEVELS, simulateSetting } from '../knownMarkets/generate.js';
+import { LEVELS, marketSpecOf, simulateSetting } from '../knownMarkets/generate.js';
 import { meritOrder } from '../knownMarkets/process.js';
 import { Stream } from '../knownMarkets/random.js';
 import { BATTERY, SETTINGS, SPAN } from '../knownMarkets/settings.js';
@@ -38,14 +38,7 @@ export async function loadKnownMarket(name) {
   const { parseMarketSpec } = await dist('index.js');
   const { normalCdf } = await dist('stats/normalCdf.js');
   const simulation = await simulateSetting(setting);
-  const market = parseMarketSpec({
-    timeZone: setting.market.timeZone,
-    periodMinutes: setting.market.periodMinutes,
-    priceFloor: setting.market.floor,
-    priceCap: setting.market.cap,
-    currency: 'KNW',
-    gateClosure: '12:00',
-  }).data;
+  const market = parseMarketSpec(marketSpecOf(setting)).data;
   const history = {
     days: simulation.days.map((d) => ({ day: d.day, periods: d.periods, pricePerMwh: Array.from(d.price), imbalancePricePerMwh: Array.from(d.imbalance), exogenous: {} })),
     exogenousNames: [],
