@@ -136,6 +136,9 @@ const TARGETS: readonly Target[] = [
   flag('--discount-rate', ['size']),
   flag('--levels', ['forecast']),
   flag('--paths', ['forecast']),
+  flag('--planning-paths', ['plan'], ['--policy', 'auto']),
+  flag('--risk-weight', ['plan'], ['--policy', 'auto']),
+  flag('--path-seed', ['plan'], ['--policy', 'auto']),
 ];
 
 /** The spellings no number should be, and the ends of the doubles, each tried in every place. */
