@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -59,8 +59,30 @@ describe('start-up: what --version and --help load', () => {
   });
 
   it('a command that runs loads its use case (the hook sees what a run loads)', () => {
-    const modules = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--json']);
-    expect(modules).toContain('dist/app/plan/planUseCase.js');
+    const modules = loadedModules(['backtest', '--scenario', 'scenarios/halvorn/scenario.json', '--from', '2026-03-01', '--to', '2026-03-01', '--out', join(folder, 'backtest'), '--quiet']);
+    expect(modules).toContain('dist/app/backtest/backtestUseCase.js');
     expect(modules.some((m) => m.includes('node_modules/zod/'))).toBe(true);
+  });
+});
+
+describe('start-up: what a plan loads', () => {
+  // The demo day's plan is checked by the hand-written checks (app/plan/planFastPath.ts): no validation
+  // library, no report code, no LP library (the day solver does not need it), no history reader.
+  it('the demo day\'s plan loads its run and none of the validation library, the report, the LP library or the history reader', () => {
+    const modules = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--json']);
+    expect(modules).toContain('dist/app/plan/planRun.js');
+    expect(modules.filter((m) => /node_modules\/(zod|javascript-lp-solver)\/|^dist\/report\/|readPriceHistory|planUseCase/.test(m))).toEqual([]);
+  });
+
+  it('a plan whose market.json has a problem loads the schemas to word it', () => {
+    const bad = join(folder, 'bad');
+    mkdirSync(bad);
+    const demo = join(ROOT, 'scenarios', 'halvorn');
+    writeFileSync(join(bad, 'market.json'), readFileSync(join(demo, 'market.json'), 'utf8').replace('"priceCap"', '"priceCapp"'));
+    const result = spawnSync(process.execPath, ['--import', pathToFileURL(register).href, 'bin/quantbid.js', 'plan', '--market', join(bad, 'market.json'), '--battery', join(demo, 'battery.json'), '--forecast', join(demo, 'quantiles.csv.gz'), '--day', '2027-01-01'], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
+    expect(result.status).toBe(2);
+    expect(result.stderr).toContain('priceCapp: unknown field');
+    expect(result.stderr).toContain('dist/app/plan/planUseCase.js');
+    expect(result.stderr).toMatch(/node_modules\/zod\//);
   });
 });

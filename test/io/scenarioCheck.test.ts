@@ -1,0 +1,35 @@
+import fc from 'fast-check';
+import { describe, expect, it } from 'vitest';
+import { scenarioSchema } from '../../src/io/readScenario.js';
+import { checkedScenarioFields } from '../../src/io/scenarioCheck.js';
+import { expectAgreement, mutated, mutation, oddValue, type Tally } from './schemaAgreement.js';
+
+// checkedScenarioFields against the reference it stands in for: the scenario file's schema run by zod.
+
+const KEYS = ['name', 'description', 'market', 'battery', 'history', 'forecast', 'demoDay'];
+const text = fc.constantFrom('a.json', 'halvorn/market.json', '', ' ', 'ä b.csv.gz');
+const scenario = fc.record(
+  { name: text, description: text, market: text, battery: text, history: text, forecast: text, demoDay: fc.constantFrom('2027-01-01', '2024-02-29', '2027-02-29', '2027-1-1', '', '9999-12-31') },
+  { requiredKeys: [] },
+);
+
+describe('checkedScenarioFields: the same answer as the scenario schema', () => {
+  it('on generated scenario files and mutations of them', () => {
+    const tally: Tally = { accepted: 0, refused: 0 };
+    fc.assert(
+      fc.property(scenario, fc.array(mutation(KEYS), { maxLength: 3 }), (value, mutations) => {
+        expectAgreement(checkedScenarioFields, scenarioSchema, value, tally);
+        expectAgreement(checkedScenarioFields, scenarioSchema, mutated(value, mutations), tally);
+      }),
+      { seed: 1721, numRuns: 1500 },
+    );
+    expect(tally.accepted).toBeGreaterThan(300);
+    expect(tally.refused).toBeGreaterThan(300);
+  });
+
+  it('on values of any kind', () => {
+    const tally: Tally = { accepted: 0, refused: 0 };
+    fc.assert(fc.property(oddValue, (value) => expectAgreement(checkedScenarioFields, scenarioSchema, value, tally)), { seed: 1722, numRuns: 500 });
+    expect(tally.accepted + tally.refused).toBe(500);
+  });
+});
