@@ -1,5 +1,5 @@
-import { FAILED, numberIn, onlyKeys, plainRecord } from '../io/plainChecks.js';
-import type { BatterySpec } from '../types.js';
+import { FAILED, numberIn, onlyKeys, plainRecord } from '../errors/plainChecks.js';
+import type { BatterySpec } from './batterySpec.js';
 import { BATTERY_DEFAULTS, BATTERY_LIMITS } from './batteryLimits.js';
 
 type Range = readonly [number, number];

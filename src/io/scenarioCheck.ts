@@ -1,5 +1,5 @@
 import { isValidDay } from '../market/civilDays.js';
-import { onlyKeys, plainRecord } from './plainChecks.js';
+import { onlyKeys, plainRecord } from '../errors/plainChecks.js';
 import type { ScenarioFields } from './scenarioOf.js';
 
 /** The fields of a scenario file in the schema's order (readScenario.ts), and whether each is a path. */

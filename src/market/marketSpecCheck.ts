@@ -1,6 +1,6 @@
 import { hasInvisible } from '../errors/shownText.js';
-import { FAILED, numberIn, onlyKeys, plainRecord } from '../io/plainChecks.js';
-import type { MarketSpec } from '../types.js';
+import { FAILED, numberIn, onlyKeys, plainRecord } from '../errors/plainChecks.js';
+import type { MarketSpec } from './marketSpec.js';
 import { isValidTimeZone } from './calendar.js';
 import { unevenClockShift } from './clockShifts.js';
 import {

@@ -3,7 +3,7 @@ import fc from 'fast-check';
 import { expect } from 'vitest';
 import type { z } from 'zod';
 
-// The hand-written checks of the plan's success path (io/plainChecks.ts) stand in for zod schemas:
+// The hand-written checks of the plan's success path (errors/plainChecks.ts) stand in for zod schemas:
 // they must accept exactly what the schema accepts and return what it returns, key order included.
 // The reference each is held to is its schema, run by zod (the validation library).
 

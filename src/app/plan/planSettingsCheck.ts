@@ -1,7 +1,7 @@
 import { isValidDay } from '../../market/civilDays.js';
 import { isAlpha } from '../../plan/alpha.js';
 import { UNACCEPTED_RULES } from '../../settle/unacceptedRule.js';
-import { numberIn, onlyKeys, plainRecord } from '../../io/plainChecks.js';
+import { numberIn, onlyKeys, plainRecord } from '../../errors/plainChecks.js';
 import { PLAN_COMMAND_POLICIES, PLAN_DEFAULTS } from '../commandDefaults.js';
 import { outFolderProblem, pathProblem, rangeProblem, RUN_LIMITS } from '../settingRules.js';
 import type { CheckedPlanSettings } from './planRun.js';
