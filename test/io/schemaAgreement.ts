@@ -80,3 +80,31 @@ export function mutated(value: Record<string, unknown>, mutations: readonly Muta
   }
   return copy;
 }
+
+/**
+ * The agreement over generated values and mutations of them (up to `mutations` each), with at least
+ * `least` answers of each kind so that neither side of it is empty.
+ */
+export function expectAgreementOnMutations(
+  check: (value: unknown) => unknown,
+  schema: z.ZodType,
+  run: { readonly values: fc.Arbitrary<Record<string, unknown>>; readonly keys: readonly string[]; readonly seed: number; readonly numRuns: number; readonly mutations: number; readonly least: Tally; readonly onlyZod?: (value: unknown) => boolean },
+): void {
+  const tally: Tally = { accepted: 0, refused: 0 };
+  fc.assert(
+    fc.property(run.values, fc.array(mutation(run.keys), { maxLength: run.mutations }), (value, mutations) => {
+      expectAgreement(check, schema, value, tally, run.onlyZod);
+      expectAgreement(check, schema, mutated(value, mutations), tally, run.onlyZod);
+    }),
+    { seed: run.seed, numRuns: run.numRuns },
+  );
+  expect(tally.accepted).toBeGreaterThan(run.least.accepted);
+  expect(tally.refused).toBeGreaterThan(run.least.refused);
+}
+
+/** The agreement over values of any kind; the tally of answers. */
+export function agreementOnAnyValue(check: (value: unknown) => unknown, schema: z.ZodType, seed: number, numRuns: number): Tally {
+  const tally: Tally = { accepted: 0, refused: 0 };
+  fc.assert(fc.property(oddValue, (value) => expectAgreement(check, schema, value, tally)), { seed, numRuns });
+  return tally;
+}
