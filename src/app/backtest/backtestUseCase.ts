@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { batteryModel } from '../../battery/batterySpec.js';
+import { batteryModel } from '../../battery/batteryModel.js';
 import { backtestMetrics, type BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import { exchangeSteps, withoutExchangeSteps } from '../../plan/exchangeRounding.js';
 import type { UnacceptedRule } from '../../settle/settleDay.js';
