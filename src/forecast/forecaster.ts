@@ -31,9 +31,10 @@ import { GridCache, HistoryView } from './models/historyView.js';
 import type { PointForecast } from './models/pointForecast.js';
 import { seasonalNaive } from './models/seasonalNaive.js';
 import { fromSlotGrid, slotLayout } from './models/slotGrid.js';
-import { asinhErrorScale, PRICE_SCALE, type ErrorScale } from './quantiles/errorScale.js';
+import { asinhErrorScaleOf, PRICE_SCALE, type ErrorScale } from './quantiles/errorScale.js';
 import { driverSpreadQuantiles, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
 import { historicalSimulation } from './quantiles/historicalSimulation.js';
+import { PoolOrder } from './quantiles/poolOrder.js';
 import { requireLevels } from './quantiles/levels.js';
 import { QraWarmStarts, quantileRegressionAveraging } from './quantiles/quantileRegressionAveraging.js';
 import { rearrangeDay } from './quantiles/rearrangeDay.js';
@@ -203,6 +204,8 @@ export class Forecaster {
   /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
   private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
   private readonly states = new Map<string, CalibrationState>();
+  /** The error pools' order at the last historical simulation, by point model and calibration window (speed only). */
+  private readonly poolOrders = new Map<string, PoolOrder>();
 
   constructor(
     private readonly history: PriceHistory,
@@ -335,7 +338,7 @@ export class Forecaster {
         const features = calibration.map((c) => spreadFeatures(c.exogenous, Float64Array.from(c.forecast.mean, scale.to)));
         grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool);
       } else {
-        grid = historicalSimulation(centre, errors, at);
+        grid = historicalSimulation(centre, errors, at, { order: this.poolOrder(model, calibrationDays), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) });
       }
       return method === 'qra' || method === 'driver-qr' ? grid : grid.map((row) => row.map(scale.from));
     };
@@ -394,6 +397,17 @@ export class Forecaster {
     return state;
   }
 
+  /** The kept order of the historical-simulation pools of a point model and calibration window. */
+  private poolOrder(model: PointModelName, calibrationDays: number): PoolOrder {
+    const key = `${model}|${calibrationDays}`;
+    let order = this.poolOrders.get(key);
+    if (order === undefined) {
+      order = new PoolOrder();
+      this.poolOrders.set(key, order);
+    }
+    return order;
+  }
+
   /** The point forecast of past or delivery day `dayIndex`, made from the days before it, memoised. */
   private pointFor(model: PointModelName, dayIndex: number, view?: HistoryView): PointForecast | null {
     let cache = this.points.get(model);
@@ -412,7 +426,7 @@ export class Forecaster {
   /** The scale of the calibration errors: the point model's own for 'model', else prices. */
   private errorScaleOf(model: PointModelName, calibration: readonly { realised: Float64Array }[]): ErrorScale {
     if (this.options.errorScale === 'price' || model === 'naive' || (model === 'drivers' && this.options.driverScale === 'price')) return PRICE_SCALE;
-    return asinhErrorScale(concatenate(calibration.map((c) => c.realised)));
+    return asinhErrorScaleOf((this.grids as GridCache).scales.of(calibration.map((c) => c.realised)));
   }
 
   /** The calibration days before the delivery day that could be forecast, oldest first. */
@@ -514,15 +528,4 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;
-}
-
-/** The arrays one after the other in one array. */
-function concatenate(arrays: readonly Float64Array[]): Float64Array {
-  const out = new Float64Array(arrays.reduce((n, a) => n + a.length, 0));
-  let at = 0;
-  for (const a of arrays) {
-    out.set(a, at);
-    at += a.length;
-  }
-  return out;
 }

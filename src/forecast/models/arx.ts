@@ -9,7 +9,7 @@ import type { HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import type { RobustScale } from './robustAsinh.js';
-import { fromAsinhScale, robustScale, toAsinhScale } from './robustAsinh.js';
+import { fromAsinhScale, toAsinhScale } from './robustAsinh.js';
 
 /** How the ARX coefficients are estimated. */
 export type ArxEstimator = 'least-squares' | 'lasso';
@@ -276,13 +276,7 @@ function scratch(which: 0 | 1, length: number): Float64Array {
   return scratchBuffers[which] as Float64Array;
 }
 
-/** Median and MAD of all prices of the training days. */
+/** Median and MAD of all prices of the training days (robustScale, kept sorted from one window to the next). */
 function windowScale(view: HistoryView, training: readonly number[]): RobustScale {
-  const S = view.slotsPerDay;
-  if (scaleScratch.length < training.length * S) scaleScratch = new Float64Array(training.length * S);
-  const all = scaleScratch.subarray(0, training.length * S);
-  training.forEach((i, r) => all.set(view.past(i).prices, r * S));
-  return robustScale(all);
+  return view.robustScaleOf(training);
 }
-
-let scaleScratch = new Float64Array(0);

@@ -1,3 +1,4 @@
+import type { RobustScale } from '../models/robustAsinh.js';
 import { fromAsinhScale, robustScale, toAsinhScale } from '../models/robustAsinh.js';
 
 /** A monotone increasing map of prices onto the scale on which forecast errors are measured, and back. */
@@ -29,6 +30,10 @@ export const PRICE_SCALE: ErrorScale = Object.freeze({ name: 'price', to: (p: nu
  * @param prices the realised prices the scale is fitted on (the calibration days'), at least one
  */
 export function asinhErrorScale(prices: ArrayLike<number>): ErrorScale {
-  const scale = robustScale(prices);
+  return asinhErrorScaleOf(robustScale(prices));
+}
+
+/** {@link asinhErrorScale} with a and b given (robustScale of the calibration prices, computed by the caller). */
+export function asinhErrorScaleOf(scale: RobustScale): ErrorScale {
   return { name: 'asinh', to: (p) => toAsinhScale(p, scale), from: (z) => fromAsinhScale(z, scale) };
 }
