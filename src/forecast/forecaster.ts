@@ -24,7 +24,7 @@ import { ArgumentError } from '../stats/argumentError.js';
 import type { LassoOptions } from './linalg/lasso.js';
 import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';
-import { arxForecast } from './models/arx.js';
+import { arxForecast, keptAsinhDay } from './models/arx.js';
 import { driverForecast } from './models/driverRegression.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { GridCache, HistoryView } from './models/historyView.js';
@@ -388,7 +388,12 @@ export class Forecaster {
     const centre = point.mean.map(scale.to);
     const errors = calibration.map((c) => {
       const e = new Float64Array(c.realised.length);
-      for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - scale.to(c.forecast.mean[s] as number);
+      // The realised prices on the asinh scale, from the delivery day's ARX fit when it made them with this scale.
+      if (scale.robust !== undefined && keptAsinhDay(scale.robust, c.realised, e)) {
+        for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - scale.to(c.forecast.mean[s] as number);
+      } else {
+        for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - scale.to(c.forecast.mean[s] as number);
+      }
       return e;
     });
     const state = { calibration, scale, centre, errors };

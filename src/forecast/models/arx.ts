@@ -264,8 +264,33 @@ class PastDays {
         for (let s = 0; s < S; s++) exogenous[(j * S + s) * D + d] = column[s] as number;
       }
     }
+    keptTransform = { scale, z, D, S, order: this.order, view, index: null };
     return { z, exogenous, min, max, last };
   }
+}
+
+/**
+ * The grid of transformed prices of the last ARX fit (in the scratch buffer, until the next fit), to
+ * be read once more: the calibration errors of the same delivery day are measured with the same scale
+ * (robustScale of the same days, the same object from daySetScale.ts).
+ */
+let keptTransform: { scale: RobustScale; z: Float64Array; D: number; S: number; order: readonly number[]; view: HistoryView; index: Map<Float64Array, number> | null } | null = null;
+
+/**
+ * Writes asinh((p_s - a) / b) of a past day's prices into `out` from the last ARX fit's grid, when that
+ * fit transformed this day (the same price array) with this very scale object: the same numbers as
+ * toAsinhScale, without computing them again.
+ *
+ * @returns false (and `out` untouched) when the last fit did not transform this day with `scale`
+ */
+export function keptAsinhDay(scale: RobustScale, prices: Float64Array, out: Float64Array): boolean {
+  const kept = keptTransform;
+  if (kept === null || kept.scale !== scale || prices.length !== kept.S) return false;
+  if (kept.index === null) kept.index = new Map(kept.order.map((i, d) => [kept.view.past(i).prices, d]));
+  const d = kept.index.get(prices);
+  if (d === undefined) return false;
+  for (let s = 0; s < kept.S; s++) out[s] = kept.z[s * kept.D + d] as number;
+  return true;
 }
 
 /** Scratch buffers of the slot-by-slot grids, kept between forecasts and grown as needed. */

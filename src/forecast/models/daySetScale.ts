@@ -29,32 +29,39 @@ export class DaySetScale {
   private length = 0;
 
   /**
-   * robustScale of the prices of `days` one after the other (the arrays must not change while kept).
+   * robustScale of the prices of `days` one after the other (the arrays must not change while kept);
+   * for the same set as the last call, the same object as that call returned (unless robustScale's own
+   * answer was taken), so that a scale can be recognised by identity.
    *
    * @param days price arrays of the days, each finite, at least one value in all, no array twice
    */
   of(days: readonly Float64Array[]): RobustScale {
     const next = new Set(days);
     if (next.size !== days.length) return robustScale(concatenate(days));
-    this.update(days, next);
+    if (this.update(days, next) && this.last !== null) return this.last;
+    this.last = null;
     const sorted = this.sorted;
     const n = this.length;
     const half = n >> 1;
     const median = n % 2 === 1 ? (sorted[half] as number) : ((sorted[half - 1] as number) + (sorted[half] as number)) / 2;
     const mad = median === 0 ? 0 : sortedMad(sorted, n, median);
     if (mad === 0) return robustScale(concatenate(days));
-    return { median, scale: mad * MAD_TO_SIGMA };
+    this.last = { median, scale: mad * MAD_TO_SIGMA };
+    return this.last;
   }
 
-  /** Makes `sorted` hold the values of `days`: merged from the last set's, or sorted afresh. */
-  private update(days: readonly Float64Array[], next: Set<Float64Array>): void {
+  /** The answer for the last set, when it did not depend on the days' order (asked again: the same object). */
+  private last: RobustScale | null = null;
+
+  /** Makes `sorted` hold the values of `days`: merged from the last set's, or sorted afresh; true when the set is the last one. */
+  private update(days: readonly Float64Array[], next: Set<Float64Array>): boolean {
     const left: Float64Array[] = [];
     for (const day of this.members) if (!next.has(day)) left.push(day);
     const came = days.filter((day) => !this.members.has(day));
     const total = days.reduce((sum, day) => sum + day.length, 0);
     const changed = left.reduce((sum, day) => sum + day.length, 0) + came.reduce((sum, day) => sum + day.length, 0);
     this.members = next;
-    if (changed === 0) return;
+    if (changed === 0) return true;
     if (2 * changed > total || !this.merge(concatenate(left).sort(), concatenate(came).sort(), total)) {
       this.sorted = growTo(this.sorted, total);
       let at = 0;
@@ -65,6 +72,7 @@ export class DaySetScale {
       this.sorted.subarray(0, total).sort();
       this.length = total;
     }
+    return false;
   }
 
   /**

@@ -8,6 +8,8 @@ export interface ErrorScale {
   to(price: number): number;
   /** Scale value -> price [currency/MWh]. */
   from(value: number): number;
+  /** The a and b of an asinh scale (robustAsinh.ts). */
+  readonly robust?: RobustScale;
 }
 
 /** Errors in currency/MWh: e = P - P_hat. */
@@ -35,5 +37,5 @@ export function asinhErrorScale(prices: ArrayLike<number>): ErrorScale {
 
 /** {@link asinhErrorScale} with a and b given (robustScale of the calibration prices, computed by the caller). */
 export function asinhErrorScaleOf(scale: RobustScale): ErrorScale {
-  return { name: 'asinh', to: (p) => toAsinhScale(p, scale), from: (z) => fromAsinhScale(z, scale) };
+  return { name: 'asinh', to: (p) => toAsinhScale(p, scale), from: (z) => fromAsinhScale(z, scale), robust: scale };
 }
