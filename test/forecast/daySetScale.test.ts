@@ -25,13 +25,7 @@ function dayPrices(random: () => number, slots: number, level: number): Float64A
 }
 
 function concat(days: readonly Float64Array[]): Float64Array {
-  const out = new Float64Array(days.reduce((n, d) => n + d.length, 0));
-  let at = 0;
-  for (const d of days) {
-    out.set(d, at);
-    at += d.length;
-  }
-  return out;
+  return Float64Array.from(days.flatMap((d) => [...d]));
 }
 
 describe('sortedMad: the median absolute deviation of a sorted sample in O(log n)', () => {
