@@ -246,9 +246,11 @@ class PastDays {
     const min = new Float64Array(D);
     const max = new Float64Array(D);
     const last = new Float64Array(D);
+    const index = new Map<Float64Array, number>();
     for (let d = 0; d < D; d++) {
       const past = view.past(this.order[d] as number);
       const prices = past.prices;
+      index.set(prices, d);
       let low = Infinity;
       let high = -Infinity;
       for (let s = 0; s < prices.length; s++) {
@@ -262,17 +264,17 @@ class PastDays {
       last[d] = z[d * S + prices.length - 1] as number;
       for (let j = 0; j < names; j++) exogenous.set(past.exogenous[j] as Float64Array, (d * names + j) * S);
     }
-    keptTransform = { scale, z, S, order: this.order, view, index: null };
+    keptTransform = { scale, z, S, index };
     return { z, exogenous, min, max, last };
   }
 }
 
 /**
- * The grid of transformed prices of the last ARX fit (in the scratch buffer, until the next fit), to
- * be read once more: the calibration errors of the same delivery day are measured with the same scale
+ * The grid of transformed prices of the last ARX fit (in the scratch buffer, until the next fit) and
+ * the row of each day's price array, to be read once more: the calibration errors of the same delivery day are measured with the same scale
  * (robustScale of the same days, the same object from daySetScale.ts).
  */
-let keptTransform: { scale: RobustScale; z: Float64Array; S: number; order: readonly number[]; view: HistoryView; index: Map<Float64Array, number> | null } | null = null;
+let keptTransform: { scale: RobustScale; z: Float64Array; S: number; index: Map<Float64Array, number> } | null = null;
 
 /**
  * Writes asinh((p_s - a) / b) of a past day's prices into `out` from the last ARX fit's grid, when that
@@ -284,7 +286,6 @@ let keptTransform: { scale: RobustScale; z: Float64Array; S: number; order: read
 export function keptAsinhDay(scale: RobustScale, prices: Float64Array, out: Float64Array): boolean {
   const kept = keptTransform;
   if (kept === null || kept.scale !== scale || prices.length !== kept.S) return false;
-  if (kept.index === null) kept.index = new Map(kept.order.map((i, d) => [kept.view.past(i).prices, d]));
   const d = kept.index.get(prices);
   if (d === undefined) return false;
   out.set(kept.z.subarray(d * kept.S, (d + 1) * kept.S));
