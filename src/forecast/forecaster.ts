@@ -24,16 +24,17 @@ import { ArgumentError } from '../stats/argumentError.js';
 import type { LassoOptions } from './linalg/lasso.js';
 import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';
-import { arxForecast } from './models/arx.js';
+import { arxForecast, keptAsinhDay } from './models/arx.js';
 import { driverForecast } from './models/driverRegression.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { GridCache, HistoryView } from './models/historyView.js';
 import type { PointForecast } from './models/pointForecast.js';
 import { seasonalNaive } from './models/seasonalNaive.js';
 import { fromSlotGrid, slotLayout } from './models/slotGrid.js';
-import { asinhErrorScale, PRICE_SCALE, type ErrorScale } from './quantiles/errorScale.js';
+import { asinhErrorScaleOf, PRICE_SCALE, type ErrorScale } from './quantiles/errorScale.js';
 import { driverSpreadQuantiles, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
 import { historicalSimulation } from './quantiles/historicalSimulation.js';
+import { PoolOrder } from './quantiles/poolOrder.js';
 import { requireLevels } from './quantiles/levels.js';
 import { QraWarmStarts, quantileRegressionAveraging } from './quantiles/quantileRegressionAveraging.js';
 import { rearrangeDay } from './quantiles/rearrangeDay.js';
@@ -203,6 +204,8 @@ export class Forecaster {
   /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
   private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
   private readonly states = new Map<string, CalibrationState>();
+  /** The error pools' order at the last historical simulation, by point model and calibration window (speed only). */
+  private readonly poolOrders = new Map<string, PoolOrder>();
 
   constructor(
     private readonly history: PriceHistory,
@@ -335,7 +338,7 @@ export class Forecaster {
         const features = calibration.map((c) => spreadFeatures(c.exogenous, Float64Array.from(c.forecast.mean, scale.to)));
         grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool);
       } else {
-        grid = historicalSimulation(centre, errors, at);
+        grid = historicalSimulation(centre, errors, at, { order: this.poolOrder(model, calibrationDays), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) });
       }
       return method === 'qra' || method === 'driver-qr' ? grid : grid.map((row) => row.map(scale.from));
     };
@@ -385,13 +388,29 @@ export class Forecaster {
     const centre = point.mean.map(scale.to);
     const errors = calibration.map((c) => {
       const e = new Float64Array(c.realised.length);
-      for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - scale.to(c.forecast.mean[s] as number);
+      // The realised prices on the asinh scale, from the delivery day's ARX fit when it made them with this scale.
+      if (scale.robust !== undefined && keptAsinhDay(scale.robust, c.realised, e)) {
+        for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - scale.to(c.forecast.mean[s] as number);
+      } else {
+        for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - scale.to(c.forecast.mean[s] as number);
+      }
       return e;
     });
     const state = { calibration, scale, centre, errors };
     if (this.states.size >= 8) this.states.clear();
     this.states.set(key, state);
     return state;
+  }
+
+  /** The kept order of the historical-simulation pools of a point model and calibration window. */
+  private poolOrder(model: PointModelName, calibrationDays: number): PoolOrder {
+    const key = `${model}|${calibrationDays}`;
+    let order = this.poolOrders.get(key);
+    if (order === undefined) {
+      order = new PoolOrder();
+      this.poolOrders.set(key, order);
+    }
+    return order;
   }
 
   /** The point forecast of past or delivery day `dayIndex`, made from the days before it, memoised. */
@@ -412,7 +431,7 @@ export class Forecaster {
   /** The scale of the calibration errors: the point model's own for 'model', else prices. */
   private errorScaleOf(model: PointModelName, calibration: readonly { realised: Float64Array }[]): ErrorScale {
     if (this.options.errorScale === 'price' || model === 'naive' || (model === 'drivers' && this.options.driverScale === 'price')) return PRICE_SCALE;
-    return asinhErrorScale(concatenate(calibration.map((c) => c.realised)));
+    return asinhErrorScaleOf((this.grids as GridCache).scales.of(calibration.map((c) => c.realised)));
   }
 
   /** The calibration days before the delivery day that could be forecast, oldest first. */
@@ -514,15 +533,4 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;
-}
-
-/** The arrays one after the other in one array. */
-function concatenate(arrays: readonly Float64Array[]): Float64Array {
-  const out = new Float64Array(arrays.reduce((n, a) => n + a.length, 0));
-  let at = 0;
-  for (const a of arrays) {
-    out.set(a, at);
-    at += a.length;
-  }
-  return out;
 }

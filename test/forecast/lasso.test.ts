@@ -104,6 +104,18 @@ describe('least squares on the normal equations of standardised columns (Cholesk
     const plain = choleskyLeastSquares(standardisedGram(matrixFromRows(rows), y));
     rows.forEach((r, i) => expect(predictLinear(chol, extended[i]!)).toBeCloseTo(predictLinear(plain, r), 9));
   });
+
+  it('after a column left out in the middle, still agrees with Householder QR on the columns kept', () => {
+    const { rows, y } = correlatedProblem(5, 120, 4);
+    // Column 1 repeats column 0 and is dropped; columns 2.. are factored over the kept columns 0, 2, 3, ...
+    const extended = rows.map((r) => [r[0]!, r[0]!, ...r.slice(1)]);
+    const chol = choleskyLeastSquares(standardisedGram(matrixFromRows(extended), y));
+    const qr = leastSquaresQr(matrixFromRows(rows.map((r) => [1, ...r])), y).coefficients;
+    expect(chol.coefficients[1]).toBe(0);
+    expect(chol.intercept).toBeCloseTo(qr[0]!, 9);
+    expect(chol.coefficients[0]).toBeCloseTo(qr[1]!, 9);
+    rows[0]!.slice(1).forEach((_, j) => expect(chol.coefficients[j + 2]).toBeCloseTo(qr[j + 2]!, 9));
+  });
 });
 
 describe('standardised Gram matrices', () => {

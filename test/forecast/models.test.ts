@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { arxForecast } from '../../src/forecast/models/arx.js';
+import { arxForecast, keptAsinhDay } from '../../src/forecast/models/arx.js';
 import type { ArxSettings } from '../../src/forecast/models/arx.js';
 import { ForecastInputError } from '../../src/forecast/models/errors.js';
 import { HistoryView, dayNumberOf, weekdayOf } from '../../src/forecast/models/historyView.js';
@@ -153,10 +153,10 @@ describe('point models', () => {
 });
 
 describe('ArxGramBuilder', () => {
-  it('equals the plain nested Gram of the explicitly built ARX design (structure used, same sums)', () => {
+  // exo 1 and 3 give an odd number of slot columns (the builder takes them two at a time).
+  it.each([1, 2, 3])('equals the plain nested Gram of the explicitly built ARX design (structure used, same sums), %i exogenous columns', (exo) => {
     const z = seededNormal(41);
     const n = 50;
-    const exo = 2;
     const a = 4 + exo;
     const minMaxLast = Float64Array.from({ length: n * 3 }, () => z());
     const weekdays = Int8Array.from({ length: n }, (_, i) => ((i + 3) % 7) + 1);
@@ -191,5 +191,26 @@ describe('ArxGramBuilder', () => {
         g.zty.forEach((m, j) => expect(m).toBeCloseTo(p.zty[j]!, 12));
       });
     }
+  });
+});
+
+describe('keptAsinhDay: the last ARX fit\'s transformed prices, read again', () => {
+  it('gives toAsinhScale of a day the fit transformed, bit for bit, only for the very scale object it used', () => {
+    const history = syntheticHistory({ days: 90, periodMinutes: 60, seed: 5 });
+    const view = HistoryView.before(history, 80);
+    const settings: ArxSettings = { windowsDays: [28, 42], estimator: 'least-squares', lasso: LASSO_DEFAULTS, minTrainingDays: 21 };
+    expect(arxForecast(view, settings)).not.toBeNull();
+    // The training days of the longest window (a gapless history: every day 42 or fewer days back).
+    const training = Array.from({ length: view.pastCount }, (_, i) => i).filter((i) => view.dayNumber(i) >= view.target.dayNumber - 42);
+    const scale = view.robustScaleOf([...training].reverse());
+    const out = new Float64Array(view.slotsPerDay);
+    for (const i of [training[0]!, training[training.length - 1]!]) {
+      const prices = view.past(i).prices;
+      expect(keptAsinhDay(scale, prices, out)).toBe(true);
+      expect([...out].every((z, s) => Object.is(z, toAsinhScale(prices[s]!, scale)))).toBe(true);
+    }
+    // An equal scale that is another object, or a day the fit did not read, is not served.
+    expect(keptAsinhDay({ ...scale }, view.past(training[0]!).prices, out)).toBe(false);
+    expect(keptAsinhDay(scale, view.past(0).prices, out)).toBe(false);
   });
 });

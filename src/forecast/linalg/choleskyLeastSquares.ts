@@ -44,19 +44,28 @@ function choleskyCoefficients(gram: StandardisedGram, dropTolerance: number): Fl
   let keptCount = 0;
   for (let j = 0; j < k; j++) {
     if ((scales[j] as number) === 0) continue;
-    let d = g[j * k + j] as number;
-    for (let q = 0; q < keptCount; q++) d -= (l[j * k + (kept[q] as number)] as number) ** 2;
+    const jk = j * k;
+    // While no column was left out, the kept columns are 0..j-1: the same sums without the index list.
+    const contiguous = keptCount === j;
+    let d = g[jk + j] as number;
+    if (contiguous) for (let p = 0; p < j; p++) d -= (l[jk + p] as number) ** 2;
+    else for (let q = 0; q < keptCount; q++) d -= (l[jk + (kept[q] as number)] as number) ** 2;
     if (d <= dropTolerance) continue;
     const ljj = Math.sqrt(d);
-    l[j * k + j] = ljj;
+    l[jk + j] = ljj;
     for (let i = j + 1; i < k; i++) {
       if ((scales[i] as number) === 0) continue;
-      let s = g[i * k + j] as number;
-      for (let q = 0; q < keptCount; q++) {
-        const p = kept[q] as number;
-        s -= (l[i * k + p] as number) * (l[j * k + p] as number);
+      const ik = i * k;
+      let s = g[ik + j] as number;
+      if (contiguous) {
+        for (let p = 0; p < j; p++) s -= (l[ik + p] as number) * (l[jk + p] as number);
+      } else {
+        for (let q = 0; q < keptCount; q++) {
+          const p = kept[q] as number;
+          s -= (l[ik + p] as number) * (l[jk + p] as number);
+        }
       }
-      l[i * k + j] = s / ljj;
+      l[ik + j] = s / ljj;
     }
     kept[keptCount++] = j;
   }

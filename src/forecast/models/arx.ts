@@ -9,7 +9,7 @@ import type { HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import type { RobustScale } from './robustAsinh.js';
-import { fromAsinhScale, robustScale, toAsinhScale } from './robustAsinh.js';
+import { fromAsinhScale, toAsinhScale } from './robustAsinh.js';
 
 /** How the ARX coefficients are estimated. */
 export type ArxEstimator = 'least-squares' | 'lasso';
@@ -150,7 +150,6 @@ function fitWindows(
   const [t1, t2, t7] = targetLags.map((i) => days.use(i)) as [number, number, number];
   const grids = days.transform(view, S, scale);
   const { z, exogenous, min, max, last } = grids;
-  const D = days.count;
   const minMaxLast = new Float64Array(3 * n);
   for (let r = 0; r < n; r++) {
     const d = lag1[r] as number;
@@ -167,34 +166,34 @@ function fitWindows(
   for (let s = 0; s < S; s++) {
     // The slot's columns, each over the training rows: lag1, lag2, lag7, the exogenous columns of the
     // day and of the day before, the response.
-    const zs = s * D;
     for (let r = 0; r < n; r++) {
-      columns[r] = z[zs + (lag1[r] as number)] as number;
-      columns[n + r] = z[zs + (lag2[r] as number)] as number;
-      columns[2 * n + r] = z[zs + (lag7[r] as number)] as number;
-      columns[(a - 1) * n + r] = z[zs + (own[r] as number)] as number;
+      columns[r] = z[(lag1[r] as number) * S + s] as number;
+      columns[n + r] = z[(lag2[r] as number) * S + s] as number;
+      columns[2 * n + r] = z[(lag7[r] as number) * S + s] as number;
+      columns[(a - 1) * n + r] = z[(own[r] as number) * S + s] as number;
     }
     for (let j = 0; j < names; j++) {
-      const xs = (j * S + s) * D;
+      const xs = j * S + s;
+      const dayStride = names * S;
       const ownAt = (3 + j) * n;
       const beforeAt = (3 + names + j) * n;
       for (let r = 0; r < n; r++) {
-        columns[ownAt + r] = exogenous[xs + (own[r] as number)] as number;
-        columns[beforeAt + r] = exogenous[xs + (lag1[r] as number)] as number;
+        columns[ownAt + r] = exogenous[(own[r] as number) * dayStride + xs] as number;
+        columns[beforeAt + r] = exogenous[(lag1[r] as number) * dayStride + xs] as number;
       }
     }
     // The delivery day's regressors, in the column order of ARX_COLUMNS; in the last slot `last`
     // equals price(d-1,s) and is left out (see ArxGramBuilder).
-    features[0] = z[zs + t1] as number;
-    features[1] = z[zs + t2] as number;
-    features[2] = z[zs + t7] as number;
+    features[0] = z[t1 * S + s] as number;
+    features[1] = z[t2 * S + s] as number;
+    features[2] = z[t7 * S + s] as number;
     features[3] = min[t1] as number;
     features[4] = max[t1] as number;
     features[5] = s === S - 1 ? 0 : (last[t1] as number);
     for (let w = 1; w <= 6; w++) features[5 + w] = view.target.weekday === w ? 1 : 0;
     for (let j = 0; j < names; j++) {
       features[12 + j] = (targetExogenous[j] as Float64Array)[s] as number;
-      features[12 + names + j] = exogenous[(j * S + s) * D + t1] as number;
+      features[12 + names + j] = exogenous[(t1 * names + j) * S + s] as number;
     }
     // One model per window; the timed stretch also holds its prediction, a k-term dot product.
     timedFits(watch, counts.length, () =>
@@ -208,9 +207,11 @@ function fitWindows(
 }
 
 /**
- * The past days a forecast reads, numbered in the order first used, and their grids laid out slot by
- * slot (z[s D + d] for day d of D): the transformed prices, the exogenous columns (exogenous[(j S + s)
- * D + d]) and each day's min, max and last transformed price. The grids are scratch space kept between
+ * The past days a forecast reads, numbered in the order first used, and their grids laid out day by
+ * day (z[d S + s] for slot s of S): the transformed prices, the exogenous columns (exogenous[(d J + j)
+ * S + s] for column j of J) and each day's min, max and last transformed price. Day by day, each day is
+ * written in one run (its exogenous columns copied whole), and the slot-by-slot reads of the fits step
+ * through the same few cache lines from one slot to the next. The grids are scratch space kept between
  * forecasts: a forecast reads some 370 days.
  */
 class PastDays {
@@ -245,27 +246,50 @@ class PastDays {
     const min = new Float64Array(D);
     const max = new Float64Array(D);
     const last = new Float64Array(D);
+    const index = new Map<Float64Array, number>();
     for (let d = 0; d < D; d++) {
       const past = view.past(this.order[d] as number);
       const prices = past.prices;
+      index.set(prices, d);
       let low = Infinity;
       let high = -Infinity;
       for (let s = 0; s < prices.length; s++) {
         const value = toAsinhScale(prices[s] as number, scale);
-        z[s * D + d] = value;
+        z[d * S + s] = value;
         low = Math.min(low, value);
         high = Math.max(high, value);
       }
       min[d] = low;
       max[d] = high;
-      last[d] = z[(prices.length - 1) * D + d] as number;
-      for (let j = 0; j < names; j++) {
-        const column = past.exogenous[j] as Float64Array;
-        for (let s = 0; s < S; s++) exogenous[(j * S + s) * D + d] = column[s] as number;
-      }
+      last[d] = z[d * S + prices.length - 1] as number;
+      for (let j = 0; j < names; j++) exogenous.set(past.exogenous[j] as Float64Array, (d * names + j) * S);
     }
+    keptTransform = { scale, z, S, index };
     return { z, exogenous, min, max, last };
   }
+}
+
+/**
+ * The grid of transformed prices of the last ARX fit (in the scratch buffer, until the next fit) and
+ * the row of each day's price array, to be read once more: the calibration errors of the same delivery day are measured with the same scale
+ * (robustScale of the same days, the same object from daySetScale.ts).
+ */
+let keptTransform: { scale: RobustScale; z: Float64Array; S: number; index: Map<Float64Array, number> } | null = null;
+
+/**
+ * Writes asinh((p_s - a) / b) of a past day's prices into `out` from the last ARX fit's grid, when that
+ * fit transformed this day (the same price array) with this very scale object: the same numbers as
+ * toAsinhScale, without computing them again.
+ *
+ * @returns false (and `out` untouched) when the last fit did not transform this day with `scale`
+ */
+export function keptAsinhDay(scale: RobustScale, prices: Float64Array, out: Float64Array): boolean {
+  const kept = keptTransform;
+  if (kept === null || kept.scale !== scale || prices.length !== kept.S) return false;
+  const d = kept.index.get(prices);
+  if (d === undefined) return false;
+  out.set(kept.z.subarray(d * kept.S, (d + 1) * kept.S));
+  return true;
 }
 
 /** Scratch buffers of the slot-by-slot grids, kept between forecasts and grown as needed. */
@@ -276,13 +300,7 @@ function scratch(which: 0 | 1, length: number): Float64Array {
   return scratchBuffers[which] as Float64Array;
 }
 
-/** Median and MAD of all prices of the training days. */
+/** Median and MAD of all prices of the training days (robustScale, kept sorted from one window to the next). */
 function windowScale(view: HistoryView, training: readonly number[]): RobustScale {
-  const S = view.slotsPerDay;
-  if (scaleScratch.length < training.length * S) scaleScratch = new Float64Array(training.length * S);
-  const all = scaleScratch.subarray(0, training.length * S);
-  training.forEach((i, r) => all.set(view.past(i).prices, r * S));
-  return robustScale(all);
+  return view.robustScaleOf(training);
 }
-
-let scaleScratch = new Float64Array(0);

@@ -67,10 +67,9 @@ export class ArxGramBuilder {
    * @param lastSlot true in the last slot of the day, where `last` duplicates lag1 and is left out
    */
   forEachGram(columns: Float64Array, a: number, lastSlot: boolean, use: (gram: StandardisedGram, index: number) => void): void {
-    const { n, counts, rb } = this;
-    const weekdays = this.day.weekdays;
+    const { n, counts } = this;
     const work = this.workspace(a);
-    const { cols, shiftA, sumA, prodAA, prodAB, buckets, bucket } = work;
+    const { cols, shiftA, prodAA } = work;
     const W = counts.length;
     const zeros = a * n;
     for (let p = 0; p < a; p++) {
@@ -79,67 +78,118 @@ export class ArxGramBuilder {
       shiftA[p] = shift;
       for (let i = 0; i < n; i++) cols[base + i] = (columns[base + i] as number) - shift;
     }
-    for (let p = 0; p < a; p++) {
+    // Two slot columns p, p + 1 at a time (past the last column, the column of zeros, whose sums are
+    // dropped): first their sums, sums by weekday and products with min, max and last, then their
+    // products with the columns q >= p, four per pass over the rows.
+    for (let p = 0; p < a; p += 2) {
+      const two = p + 1 < a;
       const pn = p * n;
-      // Products with the columns q >= p, four per pass over the rows (past the last column, with a
-      // column of zeros whose products are dropped); the first pass also takes the column's sum, its
-      // sums by weekday and its products with min, max and last.
+      const pn1 = two ? pn + n : zeros;
+      this.rowSums(work, p, pn, pn1, two);
       for (let q = p; q < a; q += 4) {
-        const first = q === p;
         const q0 = q * n;
         const q1 = q + 1 < a ? q0 + n : zeros;
         const q2 = q + 2 < a ? q0 + 2 * n : zeros;
         const q3 = q + 3 < a ? q0 + 3 * n : zeros;
-        let s0 = 0;
-        let s1 = 0;
-        let s2 = 0;
-        let s3 = 0;
-        let sum = 0;
-        let ab0 = 0;
-        let ab1 = 0;
-        let ab2 = 0;
-        if (first) bucket.fill(0);
+        let s00 = 0;
+        let s01 = 0;
+        let s02 = 0;
+        let s03 = 0;
+        let s10 = 0;
+        let s11 = 0;
+        let s12 = 0;
+        let s13 = 0;
         let i = 0;
         for (let w = 0; w < W; w++) {
           const end = counts[w] as number;
-          if (first) {
-            for (; i < end; i++) {
-              const v = cols[pn + i] as number;
-              sum += v;
-              const d = (weekdays[i] as number) - 1;
-              bucket[d] = (bucket[d] as number) + v;
-              ab0 += v * (rb[i] as number);
-              ab1 += v * (rb[n + i] as number);
-              ab2 += v * (rb[2 * n + i] as number);
-              s0 += v * (cols[q0 + i] as number);
-              s1 += v * (cols[q1 + i] as number);
-              s2 += v * (cols[q2 + i] as number);
-              s3 += v * (cols[q3 + i] as number);
-            }
-            sumA[w * a + p] = sum;
-            for (let d = 0; d < 7; d++) buckets[(w * 7 + d) * a + p] = bucket[d] as number;
-            const at = (w * a + p) * B;
-            prodAB[at] = ab0;
-            prodAB[at + 1] = ab1;
-            prodAB[at + 2] = ab2;
-          } else {
-            for (; i < end; i++) {
-              const v = cols[pn + i] as number;
-              s0 += v * (cols[q0 + i] as number);
-              s1 += v * (cols[q1 + i] as number);
-              s2 += v * (cols[q2 + i] as number);
-              s3 += v * (cols[q3 + i] as number);
-            }
+          for (; i < end; i++) {
+            const v0 = cols[pn + i] as number;
+            const v1 = cols[pn1 + i] as number;
+            const c0 = cols[q0 + i] as number;
+            const c1 = cols[q1 + i] as number;
+            const c2 = cols[q2 + i] as number;
+            const c3 = cols[q3 + i] as number;
+            s00 += v0 * c0;
+            s01 += v0 * c1;
+            s02 += v0 * c2;
+            s03 += v0 * c3;
+            s10 += v1 * c0;
+            s11 += v1 * c1;
+            s12 += v1 * c2;
+            s13 += v1 * c3;
           }
           const at = w * a * a + p * a + q;
-          prodAA[at] = s0;
-          if (q + 1 < a) prodAA[at + 1] = s1;
-          if (q + 2 < a) prodAA[at + 2] = s2;
-          if (q + 3 < a) prodAA[at + 3] = s3;
+          prodAA[at] = s00;
+          if (q + 1 < a) prodAA[at + 1] = s01;
+          if (q + 2 < a) prodAA[at + 2] = s02;
+          if (q + 3 < a) prodAA[at + 3] = s03;
+          if (two) {
+            // Row p + 1 keeps only its columns q' >= p + 1 (s10 is the product with column p, kept in row p).
+            const at1 = at + a;
+            if (q > p) prodAA[at1] = s10;
+            if (q + 1 < a) prodAA[at1 + 1] = s11;
+            if (q + 2 < a) prodAA[at1 + 2] = s12;
+            if (q + 3 < a) prodAA[at1 + 3] = s13;
+          }
         }
       }
     }
     for (let w = 0; w < W; w++) use(this.assemble(counts[w] as number, w, work, lastSlot), w);
+  }
+
+  /**
+   * The sums, sums by weekday and products with min, max and last of slot columns p and p + 1 (rows at
+   * pn and pn1; pn1 the column of zeros when p is the last), read off at every count.
+   */
+  private rowSums(work: SlotWork, p: number, pn: number, pn1: number, two: boolean): void {
+    const { n, counts, rb } = this;
+    const weekdays = this.day.weekdays;
+    const { a, cols, sumA, prodAB, buckets, bucket, bucket1 } = work;
+    let sum0 = 0;
+    let sum1 = 0;
+    let ab00 = 0;
+    let ab01 = 0;
+    let ab02 = 0;
+    let ab10 = 0;
+    let ab11 = 0;
+    let ab12 = 0;
+    bucket.fill(0);
+    bucket1.fill(0);
+    let i = 0;
+    for (let w = 0; w < counts.length; w++) {
+      const end = counts[w] as number;
+      for (; i < end; i++) {
+        const v0 = cols[pn + i] as number;
+        const v1 = cols[pn1 + i] as number;
+        const d = (weekdays[i] as number) - 1;
+        const r0 = rb[i] as number;
+        const r1 = rb[n + i] as number;
+        const r2 = rb[2 * n + i] as number;
+        sum0 += v0;
+        sum1 += v1;
+        bucket[d] = (bucket[d] as number) + v0;
+        bucket1[d] = (bucket1[d] as number) + v1;
+        ab00 += v0 * r0;
+        ab01 += v0 * r1;
+        ab02 += v0 * r2;
+        ab10 += v1 * r0;
+        ab11 += v1 * r1;
+        ab12 += v1 * r2;
+      }
+      sumA[w * a + p] = sum0;
+      for (let d = 0; d < 7; d++) buckets[(w * 7 + d) * a + p] = bucket[d] as number;
+      const at = (w * a + p) * B;
+      prodAB[at] = ab00;
+      prodAB[at + 1] = ab01;
+      prodAB[at + 2] = ab02;
+      if (two) {
+        sumA[w * a + p + 1] = sum1;
+        for (let d = 0; d < 7; d++) buckets[(w * 7 + d) * a + p + 1] = bucket1[d] as number;
+        prodAB[at + B] = ab10;
+        prodAB[at + B + 1] = ab11;
+        prodAB[at + B + 2] = ab12;
+      }
+    }
   }
 
   private work: SlotWork | undefined;
@@ -158,6 +208,7 @@ export class ArxGramBuilder {
         prodAB: new Float64Array(W * a * B),
         buckets: new Float64Array(W * 7 * a),
         bucket: new Float64Array(7),
+        bucket1: new Float64Array(7),
         means: new Float64Array(k),
         gram: new Float64Array(k * k),
         cy: new Float64Array(k),
@@ -241,8 +292,9 @@ interface SlotWork {
   readonly prodAB: Float64Array;
   /** Per count w: sums of the shifted slot columns by weekday, buckets[(w 7 + weekday - 1) a + p]. */
   readonly buckets: Float64Array;
-  /** The running sums by weekday of one column. */
+  /** The running sums by weekday of one column, and of the next. */
   readonly bucket: Float64Array;
+  readonly bucket1: Float64Array;
   readonly means: Float64Array;
   readonly gram: Float64Array;
   readonly cy: Float64Array;

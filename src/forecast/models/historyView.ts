@@ -1,5 +1,7 @@
 import type { DeliveryPeriod, HistoryDay, PriceHistory } from '../../types.js';
+import { DaySetScale } from './daySetScale.js';
 import { ForecastInputError } from './errors.js';
+import type { RobustScale } from './robustAsinh.js';
 import type { SlotLayout } from './slotGrid.js';
 import { slotLayout, toSlotGrid } from './slotGrid.js';
 
@@ -49,6 +51,8 @@ export function weekdayOf(dayNumber: number): number {
 export class GridCache {
   private readonly days = new WeakMap<HistoryDay, GriddedDay>();
   private readonly dayNumbers = new WeakMap<HistoryDay, number>();
+  /** robustScale of sets of gridded days' prices, kept sorted from one window to the next. */
+  readonly scales = new DaySetScale();
 
   constructor(
     readonly exogenousNames: readonly string[],
@@ -181,6 +185,14 @@ export class HistoryView {
     const source = this.pastDays[i];
     if (source === undefined) throw new RangeError(`past day ${i} is not before the delivery day (${this.pastDays.length} days are)`);
     return this.grids.past(source, `history.days[${i}]`);
+  }
+
+  /**
+   * robustScale (robustAsinh.ts) of the prices of past days `days` one after the other, the same
+   * numbers bit for bit, from the sorted prices of the last set asked (daySetScale.ts).
+   */
+  robustScaleOf(days: readonly number[]): RobustScale {
+    return this.grids.scales.of(days.map((i) => this.past(i).prices));
   }
 
   /** Day number of past day i. */

@@ -9,7 +9,7 @@ export interface RobustScale {
 }
 
 /** 1 / Phi^-1(3/4) = 1.4826...: makes the MAD a consistent estimate of sigma for normal data. */
-const MAD_TO_SIGMA = 1 / normalQuantile(0.75);
+export const MAD_TO_SIGMA = 1 / normalQuantile(0.75);
 /** sqrt(pi / 2): the same for the mean absolute deviation, used when the MAD is 0. */
 const MEAN_ABS_TO_SIGMA = Math.sqrt(Math.PI / 2);
 

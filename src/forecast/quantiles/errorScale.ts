@@ -1,3 +1,4 @@
+import type { RobustScale } from '../models/robustAsinh.js';
 import { fromAsinhScale, robustScale, toAsinhScale } from '../models/robustAsinh.js';
 
 /** A monotone increasing map of prices onto the scale on which forecast errors are measured, and back. */
@@ -7,6 +8,8 @@ export interface ErrorScale {
   to(price: number): number;
   /** Scale value -> price [currency/MWh]. */
   from(value: number): number;
+  /** The a and b of an asinh scale (robustAsinh.ts). */
+  readonly robust?: RobustScale;
 }
 
 /** Errors in currency/MWh: e = P - P_hat. */
@@ -29,6 +32,10 @@ export const PRICE_SCALE: ErrorScale = Object.freeze({ name: 'price', to: (p: nu
  * @param prices the realised prices the scale is fitted on (the calibration days'), at least one
  */
 export function asinhErrorScale(prices: ArrayLike<number>): ErrorScale {
-  const scale = robustScale(prices);
-  return { name: 'asinh', to: (p) => toAsinhScale(p, scale), from: (z) => fromAsinhScale(z, scale) };
+  return asinhErrorScaleOf(robustScale(prices));
+}
+
+/** {@link asinhErrorScale} with a and b given (robustScale of the calibration prices, computed by the caller). */
+export function asinhErrorScaleOf(scale: RobustScale): ErrorScale {
+  return { name: 'asinh', to: (p) => toAsinhScale(p, scale), from: (z) => fromAsinhScale(z, scale), robust: scale };
 }

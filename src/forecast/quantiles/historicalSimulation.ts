@@ -1,3 +1,4 @@
+import type { PoolOrder } from './poolOrder.js';
 import { sortedQuantile } from './sortedQuantile.js';
 
 /**
@@ -17,18 +18,26 @@ import { sortedQuantile } from './sortedQuantile.js';
  * @param point point forecast per slot [currency/MWh]
  * @param errors errors per calibration day and slot, errors[d][s] [currency/MWh], at least one day
  * @param levels strictly increasing levels in (0, 1)
+ * @param kept the pools' order from the last call and the day ids of `errors` (ascending), to sort the
+ *   pools from that order (poolOrder.ts; the same quantiles, faster for a window that moved a day)
  * @returns prices[s][k] at levels[k]
  */
 export function historicalSimulation(
   point: ArrayLike<number>,
   errors: readonly ArrayLike<number>[],
   levels: readonly number[],
+  kept?: { readonly order: PoolOrder; readonly dayIds: ArrayLike<number> },
 ): number[][] {
   const n = errors.length;
   const sorted = new Float64Array(n);
+  kept?.order.begin(kept.dayIds);
   return Array.from({ length: point.length }, (_, s) => {
-    for (let d = 0; d < n; d++) sorted[d] = (errors[d] as ArrayLike<number>)[s] as number;
-    sorted.sort();
+    if (kept === undefined) {
+      for (let d = 0; d < n; d++) sorted[d] = (errors[d] as ArrayLike<number>)[s] as number;
+      sorted.sort();
+    } else {
+      kept.order.sortSlot(errors, s, sorted);
+    }
     return levels.map((tau) => (point[s] as number) + sortedQuantile(sorted, tau));
   });
 }
