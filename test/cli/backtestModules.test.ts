@@ -1,0 +1,51 @@
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { afterAll, describe, expect, it } from 'vitest';
+
+// A backtest of schedule policies from a forecast file loads neither the forecast models (--model),
+// nor the scenario paths of curve and auto, nor the report code (--report): each loads when a run asks
+// for it. Module loading is a large part of a short run's time (README, Speed). The demo scenario,
+// fictional, two days; a module hook lists every module the process loads.
+const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
+const folder = mkdtempSync(join(tmpdir(), 'quantbid-backtest-modules-'));
+const listing = join(folder, 'listing.mjs');
+writeFileSync(listing, "export async function load(url, context, next) { process.stderr.write(`module ${url}\\n`); return next(url, context); }\n");
+const setup = join(folder, 'setup.mjs');
+writeFileSync(setup, `import { register } from 'node:module';\nregister(${JSON.stringify(pathToFileURL(listing).href)});\n`);
+afterAll(() => rmSync(folder, { recursive: true, force: true }));
+
+/** The dist/ modules a backtest of the demo's first two February days loads, with `extra` options; its output folder. */
+function backtestModules(name: string, extra: readonly string[]): { modules: string[]; out: string } {
+  const out = join(folder, name);
+  const args = ['backtest', '--scenario', 'scenarios/halvorn/scenario.json', '--from', '2026-02-01', '--to', '2026-02-02', '--out', out, '--quiet', ...extra];
+  const run = spawnSync(process.execPath, ['--import', pathToFileURL(setup).href, 'bin/quantbid.js', ...args], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
+  expect(run.status, run.stderr).toBe(0);
+  const dist = `${pathToFileURL(ROOT).href}/dist/`;
+  const modules = run.stderr
+    .split('\n')
+    .filter((line) => line.startsWith(`module ${dist}`))
+    .map((line) => line.slice(`module ${dist}`.length));
+  return { modules, out };
+}
+
+// The summary's sentences (report/edgeText.js, report/imbalanceDescription.js) are printed by every run.
+const LAZY = /^(report\/(?!edgeText\.js$|imbalanceDescription\.js$)|app\/modelForecast\.js$|app\/scenarios\/(quantilePaths|scenarioPlanningOf)\.js$|forecast\/models\/(?!errors\.js$))/;
+
+describe('backtest loads what the run needs', () => {
+  it('schedule policies from a forecast file: no forecast model, scenario path or report module', () => {
+    const { modules, out } = backtestModules('plain', []);
+    expect(modules).toContain('app/backtest/backtestUseCase.js');
+    expect(modules.filter((m) => LAZY.test(m))).toEqual([]);
+    expect(existsSync(join(out, 'ledger.csv'))).toBe(true);
+    expect(existsSync(join(out, 'report.html'))).toBe(false);
+  });
+
+  it('--report loads the report code and writes report.html', () => {
+    const { modules, out } = backtestModules('report', ['--report']);
+    expect(modules).toContain('report/backtestReport.js');
+    expect(existsSync(join(out, 'report.html'))).toBe(true);
+  });
+});
