@@ -1,4 +1,17 @@
-import solver, { type SolveResult } from 'javascript-lp-solver';
+import { createRequire } from 'node:module';
+import type solverInstance from 'javascript-lp-solver';
+import type { SolveResult } from 'javascript-lp-solver';
+
+/**
+ * javascript-lp-solver, loaded (its CommonJS build, synchronously) when a day first needs the LP path:
+ * the warehouse solver covers nearly every day, and loading the package's 170 kB costs a short run more
+ * than its days do.
+ */
+function lpSolverPackage(): typeof solverInstance {
+  return (loadedPackage ??= createRequire(import.meta.url)('javascript-lp-solver') as typeof solverInstance);
+}
+
+let loadedPackage: typeof solverInstance | undefined;
 
 /**
  * A linear program in the row form javascript-lp-solver reads: each variable lists its coefficient
@@ -30,7 +43,7 @@ export interface LpSolver {
 export const javascriptLpSolver: LpSolver = {
   name: 'javascript-lp-solver',
   solve(model: LpModel): LpResult {
-    const raw = solver.Solve({
+    const raw = lpSolverPackage().Solve({
       optimize: model.objectiveRow,
       opType: model.direction,
       constraints: model.constraints as Record<string, { max?: number; min?: number; equal?: number }>,
