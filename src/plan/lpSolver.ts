@@ -1,17 +1,16 @@
 import { createRequire } from 'node:module';
-import type solverInstance from 'javascript-lp-solver';
+import type solverModule from 'javascript-lp-solver';
 import type { SolveResult } from 'javascript-lp-solver';
 
 /**
- * javascript-lp-solver, loaded (its CommonJS build, synchronously) when a day first needs the LP path:
- * the warehouse solver covers nearly every day, and loading the package's 170 kB costs a short run more
- * than its days do.
+ * javascript-lp-solver, loaded the first time an LP is solved (through its CommonJS build, which loads
+ * synchronously): the day solver seldom needs it, and a plan should not pay its start-up.
  */
-function lpSolverPackage(): typeof solverInstance {
-  return (loadedPackage ??= createRequire(import.meta.url)('javascript-lp-solver') as typeof solverInstance);
+let loadedSolver: typeof solverModule | undefined;
+function solver(): typeof solverModule {
+  loadedSolver ??= createRequire(import.meta.url)('javascript-lp-solver') as typeof solverModule;
+  return loadedSolver;
 }
-
-let loadedPackage: typeof solverInstance | undefined;
 
 /**
  * A linear program in the row form javascript-lp-solver reads: each variable lists its coefficient
@@ -43,7 +42,7 @@ export interface LpSolver {
 export const javascriptLpSolver: LpSolver = {
   name: 'javascript-lp-solver',
   solve(model: LpModel): LpResult {
-    const raw = lpSolverPackage().Solve({
+    const raw = solver().Solve({
       optimize: model.objectiveRow,
       opType: model.direction,
       constraints: model.constraints as Record<string, { max?: number; min?: number; equal?: number }>,

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { batteryModel } from '../../battery/batterySpec.js';
+import { batteryModel } from '../../battery/batteryModel.js';
 import { backtestMetrics, type BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import { exchangeSteps, withoutExchangeSteps } from '../../plan/exchangeRounding.js';
 import type { UnacceptedRule } from '../../settle/settleDay.js';
@@ -117,7 +117,7 @@ async function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: Ba
     }
     stage.commit();
     if (summary.yearlyFigures.warning !== null) hooks.note(`warning: ${summary.yearlyFigures.warning}\n`);
-    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded)}${scenarioPaths === null ? '' : `  paths: ${scenarioPaths.source}\n`}${model?.note ?? ''}` };
+    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded, scenarioPaths === null ? [] : [`  paths: ${scenarioPaths.source}`])}${model?.note ?? ''}` };
   } finally {
     stage.discard();
   }

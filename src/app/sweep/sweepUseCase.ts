@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { batteryModel } from '../../battery/batterySpec.js';
+import { batteryModel } from '../../battery/batteryModel.js';
 import { SWEEP_POLICIES, sweepReferenceRows, type SweepReferenceRow, type SweepResult } from '../../backtest/sweepSettingRow.js';
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
