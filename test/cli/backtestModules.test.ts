@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -27,7 +27,10 @@ function backtestModules(name: string, extra: readonly string[]): { modules: str
   const modules = run.stderr
     .split('\n')
     .filter((line) => line.startsWith(`module ${root}`))
-    .map((line) => line.slice(`module ${root}`.length).replace(/^dist\//, ''));
+    .map((line) => line.slice(`module ${root}`.length))
+    // A file of the bundle the launcher starts backtest from (dist/bundle/) names the modules it joins in `// dist/...js` lines.
+    .flatMap((file) => (file.startsWith('dist/bundle/') ? [file, ...[...readFileSync(join(ROOT, file), 'utf8').matchAll(/^\/\/ (dist\/\S+\.js)$/gm)].map((m) => m[1] as string)] : [file]))
+    .map((file) => file.replace(/^dist\//, ''));
   return { modules, out };
 }
 
