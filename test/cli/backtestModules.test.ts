@@ -1,36 +1,21 @@
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { existsSync } from 'node:fs';
+import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
+import { bundledModules, moduleListing } from './moduleListing.js';
 
 // A backtest of schedule policies from a forecast file loads neither the forecast models (--model),
 // nor the scenario paths of curve and auto, nor the report code (--report): each loads when a run asks
 // for it. Module loading is a large part of a short run's time (README, Speed). The demo scenario,
 // fictional, two days; a module hook lists every module the process loads.
-const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
-const folder = mkdtempSync(join(tmpdir(), 'quantbid-backtest-modules-'));
-const listing = join(folder, 'listing.mjs');
-writeFileSync(listing, "export async function load(url, context, next) { process.stderr.write(`module ${url}\\n`); return next(url, context); }\n");
-const setup = join(folder, 'setup.mjs');
-writeFileSync(setup, `import { register } from 'node:module';\nregister(${JSON.stringify(pathToFileURL(listing).href)});\n`);
-afterAll(() => rmSync(folder, { recursive: true, force: true }));
+const listing = moduleListing();
+afterAll(() => listing.remove());
 
 /** The modules (dist/ ones without the dist/) a backtest of the demo's first two February days loads, with `extra` options; its output folder. */
 function backtestModules(name: string, extra: readonly string[]): { modules: string[]; out: string } {
-  const out = join(folder, name);
-  const args = ['backtest', '--scenario', 'scenarios/halvorn/scenario.json', '--from', '2026-02-01', '--to', '2026-02-02', '--out', out, '--quiet', ...extra];
-  const run = spawnSync(process.execPath, ['--import', pathToFileURL(setup).href, 'bin/quantbid.js', ...args], { cwd: ROOT, encoding: 'utf8', timeout: 120_000 });
+  const out = join(listing.folder, name);
+  const run = listing.run(['backtest', '--scenario', 'scenarios/halvorn/scenario.json', '--from', '2026-02-01', '--to', '2026-02-02', '--out', out, '--quiet', ...extra]);
   expect(run.status, run.stderr).toBe(0);
-  const root = `${pathToFileURL(ROOT).href}/`;
-  const modules = run.stderr
-    .split('\n')
-    .filter((line) => line.startsWith(`module ${root}`))
-    .map((line) => line.slice(`module ${root}`.length))
-    // A file of the bundle the launcher starts backtest from (dist/bundle/) names the modules it joins in `// dist/...js` lines.
-    .flatMap((file) => (file.startsWith('dist/bundle/') ? [file, ...[...readFileSync(join(ROOT, file), 'utf8').matchAll(/^\/\/ (dist\/\S+\.js)$/gm)].map((m) => m[1] as string)] : [file]))
-    .map((file) => file.replace(/^dist\//, ''));
+  const modules = bundledModules(run.files).map((file) => file.replace(/^dist\//, ''));
   return { modules, out };
 }
 
