@@ -7,10 +7,10 @@ process.stdout.on('error', (err) => {
   throw err;
 });
 
-// `quantbid plan` starts from the bundled CLI (dist/bundle/, scripts/bundlePlanCli.mjs): the same compiled
-// code in a few files instead of a hundred modules, which Node 20 loads one by one. The other commands
-// start from dist/cli/ (sweep and size start worker threads from files beside their modules there).
-const { main } = await import(process.argv[2] === 'plan' ? '../dist/bundle/main.js' : '../dist/cli/main.js');
+// `quantbid plan` and `quantbid backtest` start from the bundled CLI (dist/bundle/, scripts/bundlePlanCli.mjs):
+// the same compiled code in a few files instead of a hundred modules, which Node 20 loads one by one. The
+// other commands start from dist/cli/ (sweep and size start worker threads from files beside their modules there).
+const { main } = await import(process.argv[2] === 'plan' || process.argv[2] === 'backtest' ? '../dist/bundle/main.js' : '../dist/cli/main.js');
 
 main(process.argv).then(
   (code) => {

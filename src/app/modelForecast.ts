@@ -133,12 +133,6 @@ export function forecastMaker(model: ModelSettings | undefined, historyFile: str
   };
 }
 
-/** The inputs a summary lists: the files given, and with --model the method in place of a forecast file. */
-export function inputsShown(paths: BacktestInputPaths, model: ModelSettings | undefined): Record<string, string> {
-  const files = Object.fromEntries(Object.entries(paths).filter((entry): entry is [string, string] => entry[1] !== undefined));
-  return model === undefined ? files : { ...files, model: model.method };
-}
-
 /** The input files a grid's resume fingerprint covers: the forecast file only when one is read. */
 export function gridInputFiles(paths: BacktestInputPaths): string[] {
   return [paths.market, paths.battery, paths.history, ...(paths.forecast === undefined ? [] : [paths.forecast])];

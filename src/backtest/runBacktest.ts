@@ -8,6 +8,7 @@ import { BACKTEST_DEFAULTS, type BacktestOptions } from './backtestOptions.js';
 import type { DayBid } from './dayBid.js';
 import { planPolicyDay, type PlanFailure, type ScenarioReport } from './planPolicyDay.js';
 import type { DayScenarios } from './scenarioPlanning.js';
+import { DaySolveMemo } from '../plan/daySolveMemo.js';
 
 export { BACKTEST_DEFAULTS, type BacktestOptions } from './backtestOptions.js';
 
@@ -137,10 +138,12 @@ function runDay(
   const planning = settings.scenarioPlanning;
   let made: DayScenarios | undefined;
   const scenarios = planning === null ? null : (): DayScenarios => (made ??= planning.scenarios(forecast));
+  // Policies that schedule on the same prices from the same state solve the day once (daySolveMemo.ts).
+  const solveOptions = { ...settings.solveOptions, memo: new DaySolveMemo() };
   const runs = settings.policies.map((policy): PolicyDay => {
     const socStartMwh = soc.get(policy) as number;
     const plan = planPolicyDay({
-      policy, forecast, realised, market, battery, alpha: settings.alpha, socStartMwh, solveOptions: settings.solveOptions,
+      policy, forecast, realised, market, battery, alpha: settings.alpha, socStartMwh, solveOptions,
       unaccepted: settings.unaccepted, scenarioPlanning: planning, scenarios,
     });
     const optimal = plan.status === 'optimal';

@@ -110,7 +110,7 @@ Examples:
     // HiGHS is loaded only when a policy plans on scenarios.
     const onScenarios = flags.policies.some((p) => p === 'curve' || p === 'auto');
     const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
-    printResult(io, backtestUseCase(settings, cliHooks(io, flags.quiet === true), tools), flags.json === true);
+    printResult(io, await backtestUseCase(settings, cliHooks(io, flags.quiet === true), tools), flags.json === true);
   });
   return command;
 }

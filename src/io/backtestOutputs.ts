@@ -63,15 +63,20 @@ export function ledgerRowBytes(day: BacktestDay): Uint8Array {
 function writeLedgerRows(day: BacktestDay): void {
   const out = ledgerBuilder;
   const count = day.periods.length;
-  // Where the prices of period t (clearing, imbalance buy, imbalance sell) were written in this text.
-  const priceFrom = new Int32Array(count).fill(-1);
-  const priceTo = new Int32Array(count);
+  // Where the start of period t and where its prices (clearing, imbalance buy, imbalance sell) were
+  // written in this text: the first policy's rows write them, the others copy them.
+  const marks = ledgerMarks(count);
+  const { startFrom, startTo, priceFrom, priceTo } = marks;
+  let first = true;
   for (const run of day.runs) {
     if (run.ledger === null) {
       out.take();
       throw new RangeError('ledgerCsv: the backtest was run without keepLedger');
     }
     const { orders, periods } = run.ledger;
+    // The row's first cells, day and policy, written once per policy and copied.
+    let leadFrom = -1;
+    let leadTo = -1;
     for (let t = 0; t < count; t++) {
       const period = day.periods[t] as DeliveryPeriod;
       const order = orders[t] ?? null;
@@ -80,11 +85,19 @@ function writeLedgerRows(day: BacktestDay): void {
         out.take();
         throw new RangeError(`ledgerCsv: no settlement for ${period.start}`);
       }
-      out.text(day.day);
-      out.comma();
-      out.text(run.policy);
-      out.comma();
-      out.text(period.start);
+      if (leadFrom < 0) {
+        leadFrom = out.position;
+        out.text(day.day);
+        out.comma();
+        out.text(run.policy);
+        out.comma();
+        leadTo = out.position;
+      } else out.copy(leadFrom, leadTo);
+      if (first) {
+        startFrom[t] = out.position;
+        out.text(period.start);
+        startTo[t] = out.position;
+      } else out.copy(startFrom[t] as number, startTo[t] as number);
       out.comma();
       if (isCurve(order)) {
         // A curve's steps are in orders.csv; the ledger shows what it cleared in the energy columns.
@@ -99,8 +112,7 @@ function writeLedgerRows(day: BacktestDay): void {
       out.comma();
       if (s.accepted !== null) out.text(s.accepted ? 'true' : 'false');
       out.comma();
-      const from = priceFrom[t] as number;
-      if (from < 0) {
+      if (first) {
         priceFrom[t] = out.position;
         out.number(day.clearingPricePerMwh[t] as number);
         out.comma();
@@ -108,7 +120,7 @@ function writeLedgerRows(day: BacktestDay): void {
         out.comma();
         out.number(day.imbalance.sellPerMwh[t] as number);
         priceTo[t] = out.position;
-      } else out.copy(from, priceTo[t] as number);
+      } else out.copy(priceFrom[t] as number, priceTo[t] as number);
       out.comma();
       out.number(s.boughtAuctionMwh);
       out.comma();
@@ -135,7 +147,27 @@ function writeLedgerRows(day: BacktestDay): void {
       out.number(s.deliberateImbalanceMwh);
       out.newline();
     }
+    first = false;
   }
+}
+
+/** Positions in the ledger text of a day's period starts and prices, kept from day to day (ledgerMarks). */
+interface LedgerMarks {
+  readonly startFrom: Int32Array;
+  readonly startTo: Int32Array;
+  readonly priceFrom: Int32Array;
+  readonly priceTo: Int32Array;
+}
+
+let kept: LedgerMarks | null = null;
+
+/** Room for the marks of a day of `count` periods (every mark is written before it is read). */
+function ledgerMarks(count: number): LedgerMarks {
+  if (kept === null || kept.startFrom.length < count) {
+    const size = Math.max(count, 128);
+    kept = { startFrom: new Int32Array(size), startTo: new Int32Array(size), priceFrom: new Int32Array(size), priceTo: new Int32Array(size) };
+  }
+  return kept;
 }
 
 /** One builder for every day's ledger rows: its buffer is kept from day to day. */

@@ -72,9 +72,19 @@ export class CsvBuilder {
     this.digits(whole, digitCount(whole));
     if (fraction === 0) return;
     let width = digits;
-    while (fraction % 10 === 0) {
-      fraction /= 10;
-      width--;
+    if (fraction < 2147483648) {
+      // Small integer arithmetic for the usual few decimals (the same digits as below).
+      let small = fraction | 0;
+      while (small % 10 === 0) {
+        small = (small / 10) | 0;
+        width--;
+      }
+      fraction = small;
+    } else {
+      while (fraction % 10 === 0) {
+        fraction /= 10;
+        width--;
+      }
     }
     this.bytes[this.length++] = POINT;
     this.digits(fraction, width);
@@ -82,9 +92,14 @@ export class CsvBuilder {
 
   /** Appends a copy of the bytes written at [from, to). */
   copy(from: number, to: number): void {
-    this.reserve(to - from);
-    this.bytes.copyWithin(this.length, from, to);
-    this.length += to - from;
+    const count = to - from;
+    this.reserve(count);
+    const bytes = this.bytes;
+    let at = this.length;
+    // A short stretch (a timestamp, a few prices) is copied faster byte by byte than through a call.
+    if (count <= 64) for (let i = from; i < to; i++) bytes[at++] = bytes[i] as number;
+    else bytes.copyWithin(at, from, to);
+    this.length += count;
   }
 
   /**

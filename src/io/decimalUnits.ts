@@ -25,8 +25,17 @@ export function roundedUnits(magnitude: number, scale: number, scaled: number): 
   // Exact product below 1/4 (1 + 2^-52): it rounds to 0.
   if (scaled < 0.25) return 0;
   const floor = Math.floor(scaled);
-  return scaled - floor - 0.5 + productError(magnitude, scale, scaled) >= 0 ? floor + 1 : floor;
+  const fromHalf = scaled - floor - 0.5;
+  // The product's rounding error is at most 2^-53 x scaled (round to nearest, scaled normal): beyond
+  // that distance from the half the sign of fromHalf decides, and the exact error is not needed.
+  const errorBound = scaled * HALF_ULP_OF_ONE;
+  if (fromHalf > errorBound) return floor + 1;
+  if (fromHalf < -errorBound) return floor;
+  return fromHalf + productError(magnitude, scale, scaled) >= 0 ? floor + 1 : floor;
 }
+
+/** 2^-53: the largest relative rounding error of one operation on doubles (round to nearest). */
+const HALF_ULP_OF_ONE = 2 ** -53;
 
 /** Veltkamp's splitting constant 2^27 + 1 (Dekker 1971). */
 const SPLITTER = 134217729;

@@ -27,12 +27,11 @@ export class PlainRow {
     this.stampTo = at;
     const values = this.values;
     for (let k = 0; k < values.length; k++) {
-      const start = at + 1;
-      at = start;
-      while (at < to && text.charCodeAt(at) !== COMMA) at++;
+      // One pass over the cell: its number, and where it ends (cellEnd).
+      const value = scanCell(text, at + 1, to);
+      at = cellEnd;
       // The last cell ends the line; every other cell ends at a comma.
       if ((at === to) !== (k === values.length - 1)) return false;
-      const value = scanDecimal(text, start, at);
       if (Number.isNaN(value)) return false;
       values[k] = value;
     }
@@ -78,6 +77,19 @@ const EXACT_DIGITS = 15;
  * longer digit strings and exponents are passed to Number itself.
  */
 export function scanDecimal(text: string, from: number, to: number): number {
+  const value = scanCell(text, from, to);
+  return cellEnd === to ? value : Number.NaN;
+}
+
+/** Where the cell scanCell read last ends: the comma after it, or `to`. */
+let cellEnd = 0;
+
+/**
+ * The number of the cell that starts at `from` and ends at the first comma or at `to` (cellEnd is
+ * set to that end), as scanDecimal reads it; NaN when the cell is not of the decimal form (cellEnd is
+ * then where reading stopped, not necessarily the cell's end).
+ */
+function scanCell(text: string, from: number, to: number): number {
   let at = from;
   const first = text.charCodeAt(at);
   const negative = first === MINUS;
@@ -87,8 +99,9 @@ export function scanDecimal(text: string, from: number, to: number): number {
   let decimals = 0;
   let digits = 0;
   let point = false;
+  let code = 0;
   for (; at < to; at++) {
-    const code = text.charCodeAt(at);
+    code = text.charCodeAt(at);
     const digit = code - ZERO;
     if (digit >= 0 && digit <= 9) {
       digits++;
@@ -100,22 +113,28 @@ export function scanDecimal(text: string, from: number, to: number): number {
     } else if (code === POINT && !point) point = true;
     else break;
   }
+  cellEnd = at;
   if (digits === 0) return Number.NaN;
-  if (at < to) {
-    // What is left must be an exponent; Number reads such a cell.
-    const code = text.charCodeAt(at);
+  if (at < to && code !== COMMA) {
+    // What is left of the cell must be an exponent; Number reads such a cell.
     if (code !== 0x65 && code !== 0x45) return Number.NaN;
     at++;
     const sign = text.charCodeAt(at);
     if (sign === PLUS || sign === MINUS) at++;
-    if (at === to) return Number.NaN;
+    const exponentFrom = at;
     for (; at < to; at++) {
-      const digit = text.charCodeAt(at) - ZERO;
-      if (digit < 0 || digit > 9) return Number.NaN;
+      const c = text.charCodeAt(at);
+      if (c === COMMA) break;
+      if (c < ZERO || c > ZERO + 9) {
+        cellEnd = at;
+        return Number.NaN;
+      }
     }
-    return Number(text.slice(from, to));
+    cellEnd = at;
+    if (at === exponentFrom) return Number.NaN;
+    return Number(text.slice(from, at));
   }
-  if (significant > EXACT_DIGITS || decimals >= POWERS_OF_TEN.length) return Number(text.slice(from, to));
+  if (significant > EXACT_DIGITS || decimals >= POWERS_OF_TEN.length) return Number(text.slice(from, at));
   const magnitude = decimals === 0 ? mantissa : mantissa / (POWERS_OF_TEN[decimals] as number);
   return negative ? -magnitude : magnitude;
 }

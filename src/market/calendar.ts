@@ -55,6 +55,7 @@ function fixedOffsetFormatter(offsetMin: number): (ms: number) => string {
   const suffix = `${offsetMin < 0 ? '-' : '+'}${pad2(Math.floor(abs / 60))}:${pad2(abs % 60)}`;
   let lastDay = Number.NaN;
   let lastDate: string | null = null;
+  const clocks = clockTexts(suffix);
   return (ms) => {
     // Whole milliseconds, as Date keeps them (offsets of local mean time are not whole minutes).
     const local = Math.trunc(ms + offsetMin * 60_000);
@@ -65,8 +66,30 @@ function fixedOffsetFormatter(offsetMin: number): (ms: number) => string {
     }
     if (lastDate === null) return formatWithOffset(ms, offsetMin);
     const inDay = local - day * DAY_MS;
-    return `${lastDate}T${pad2(Math.floor(inDay / 3_600_000))}:${pad2(Math.floor((inDay % 3_600_000) / 60_000))}:${pad2(Math.floor((inDay % 60_000) / 1000))}${suffix}`;
+    if (inDay % 60_000 === 0) {
+      // A whole minute (every period start): its clock text is the same on every day with this offset.
+      const minute = inDay / 60_000;
+      return lastDate + (clocks[minute] ??= clockText(inDay, suffix));
+    }
+    return lastDate + clockText(inDay, suffix);
   };
+}
+
+/** `THH:MM:SS` and the offset suffix, for `inDay` milliseconds after local midnight. */
+function clockText(inDay: number, suffix: string): string {
+  return `T${pad2(Math.floor(inDay / 3_600_000))}:${pad2(Math.floor((inDay % 3_600_000) / 60_000))}:${pad2(Math.floor((inDay % 60_000) / 1000))}${suffix}`;
+}
+
+/** The clock texts of whole minutes of the day (index: minute of the day) by offset suffix, made as they are first asked. */
+const CLOCK_TEXTS = new Map<string, (string | undefined)[]>();
+
+function clockTexts(suffix: string): (string | undefined)[] {
+  let texts = CLOCK_TEXTS.get(suffix);
+  if (texts === undefined) {
+    texts = new Array<string | undefined>(24 * 60).fill(undefined);
+    CLOCK_TEXTS.set(suffix, texts);
+  }
+  return texts;
 }
 
 const DAY_MS = 86_400_000;

@@ -51,11 +51,16 @@ class ZoneOffsets {
   private readonly recentOffset = [0, 0, 0, 0];
   private next = 0;
 
-  constructor(private readonly zone: Zone) {}
+  /** The engine's formatter of the zone's offset at an instant, e.g. `2026, GMT+02:00` (null where it cannot make one). */
+  private readonly offsetText: Intl.DateTimeFormat | null;
+
+  constructor(private readonly zone: Zone) {
+    this.offsetText = offsetFormatter(zone.name);
+  }
 
   offset(ms: number): number {
     for (let k = 0; k < 4; k++) if (this.recentMs[k] === ms) return this.recentOffset[k] as number;
-    const offset = this.zone.offset(ms);
+    const offset = this.offsetText === null ? this.zone.offset(ms) : (formattedOffset(this.offsetText.format(ms)) ?? this.zone.offset(ms));
     this.recentMs[this.next] = ms;
     this.recentOffset[this.next] = offset;
     this.next = (this.next + 1) & 3;
@@ -72,4 +77,34 @@ function zoneOf(timeZone: string): ZoneOffsets {
     zones.set(timeZone, zone);
   }
   return zone;
+}
+
+/**
+ * A formatter of a zone's UTC offset in the engine's own time-zone data, the data the zone library
+ * reads too: one formatted text per instant instead of the library's parts of a local date and time
+ * turned back into an instant (some 20 times slower). Null when the engine cannot make one.
+ */
+function offsetFormatter(timeZone: string): Intl.DateTimeFormat | null {
+  try {
+    return new Intl.DateTimeFormat('en-US', { timeZone, timeZoneName: 'longOffset', year: 'numeric' });
+  } catch {
+    return null;
+  }
+}
+
+const GMT_OFFSET = /GMT(?:([+\-\u2212])(\d{2}):(\d{2})(?::(\d{2}))?)?$/;
+
+/**
+ * The offset [min] in a text ending `GMT+HH:MM`, `GMT-HH:MM:SS` or `GMT` (zero), as the zone library
+ * computes it: whole seconds of local time less whole seconds of UTC, divided by 60,000 ms (so
+ * seconds / 60, the same correctly rounded quotient); null for any other text (the caller then asks the
+ * zone library).
+ */
+export function formattedOffset(text: string): number | null {
+  const match = GMT_OFFSET.exec(text);
+  if (match === null) return null;
+  if (match[1] === undefined) return 0;
+  const seconds = Number(match[2]) * 3600 + Number(match[3]) * 60 + (match[4] === undefined ? 0 : Number(match[4]));
+  if (seconds === 0) return 0;
+  return match[1] === '+' ? seconds / 60 : -seconds / 60;
 }

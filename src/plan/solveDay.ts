@@ -7,6 +7,7 @@ import { scheduleValue, socPath } from './scheduleValue.js';
 import { isArbitragePeriod, netPeriod } from './simultaneousFlows.js';
 import { solveWarehouseDay } from './warehouse/solveWarehouseDay.js';
 import type { DayWorkspace } from './warehouse/workspace.js';
+import type { DaySolveMemo } from './daySolveMemo.js';
 
 /** Options of solveDay, merged over SOLVE_DAY_DEFAULTS. */
 export interface SolveDayOptions {
@@ -25,6 +26,8 @@ export interface SolveDayOptions {
   readonly solver: DaySolverChoice;
   /** Scratch arrays of the warehouse solver; a loop over days passes one to skip allocating (src/plan/warehouse/workspace.ts). Default: a shared one. */
   readonly workspace?: DayWorkspace;
+  /** Outcomes of problems solved before, reused for an equal problem (daySolveMemo.ts); a backtest keeps one per day. Default none. */
+  readonly memo?: DaySolveMemo;
   /** Adds the time spent in solveDay to this counter (benchmarks); the caller hands in the clock. Default none. */
   readonly stopwatch?: SolveStopwatch;
 }
@@ -81,6 +84,17 @@ interface Candidate {
  */
 export function solveDay(problem: DayProblem, options: Partial<SolveDayOptions> = {}): DayOutcome {
   const settings: SolveDayOptions = { ...SOLVE_DAY_DEFAULTS, ...options };
+  const memo = settings.memo;
+  if (memo === undefined) return timedSolve(problem, settings);
+  const kept = memo.find(problem, settings);
+  if (kept !== undefined) return kept;
+  const outcome = timedSolve(problem, settings);
+  memo.keep(problem, settings, outcome);
+  return outcome;
+}
+
+/** solveDayWith, its time added to the settings' stopwatch when there is one. */
+function timedSolve(problem: DayProblem, settings: SolveDayOptions): DayOutcome {
   const watch = settings.stopwatch;
   if (watch === undefined) return solveDayWith(problem, settings);
   const started = watch.now();

@@ -1,48 +1,22 @@
-import { spawnSync } from 'node:child_process';
-import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath, pathToFileURL } from 'node:url';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
+import { bundledModules, moduleListing, ROOT } from './moduleListing.js';
 import { COMMANDS } from './runMain.js';
 
 // What a user waits for before `quantbid --version` or `quantbid COMMAND --help` answers is Node
 // loading modules: the help needs commander and the options' words, never the validation library, the
 // zone library, the LP solver, the readers, the use cases or the report code (they load when a command
 // runs). The compiled CLI is run with a module hook that lists every module the process loads.
-const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
-const folder = mkdtempSync(join(tmpdir(), 'quantbid-startup-'));
-const hooks = join(folder, 'hooks.mjs');
-writeFileSync(hooks, "export async function load(url, context, next) { process.stderr.write(`loaded ${url}\\n`); return next(url, context); }\n");
-const register = join(folder, 'register.mjs');
-writeFileSync(register, `import { register } from 'node:module';\nregister(${JSON.stringify(pathToFileURL(hooks).href)});\n`);
-afterAll(() => rmSync(folder, { recursive: true, force: true }));
+const listing = moduleListing();
+const folder = listing.folder;
+afterAll(() => listing.remove());
 
-/**
- * The modules `quantbid ...args` loads, as paths relative to the package root (or node: names). A file
- * of the bundle that `quantbid plan` starts from (dist/bundle/) stands for the compiled modules it
- * joins, which the bundler names in a comment line `// dist/...js` at the start of each; `files` keeps
- * the bundle's files as they are.
- */
+/** The modules `quantbid ...args` loads (moduleListing.ts); `files` keeps the bundle's files as they are. */
 function loadedModules(args: readonly string[], files: 'modules' | 'files' = 'modules'): string[] {
-  const result = spawnSync(process.execPath, ['--import', pathToFileURL(register).href, 'bin/quantbid.js', ...args], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
+  const result = listing.run(args);
   expect(result.status, result.stderr).toBe(0);
-  const loaded = loadedLines(result.stderr);
-  return files === 'files' ? loaded : loaded.flatMap((m) => (m.startsWith('dist/bundle/') ? bundledModules(m) : [m]));
-}
-
-function loadedLines(stderr: string): string[] {
-  const root = pathToFileURL(ROOT).href;
-  return stderr
-    .split('\n')
-    .filter((line) => line.startsWith('loaded '))
-    .map((line) => line.slice('loaded '.length).replace(`${root}/`, ''));
-}
-
-function bundledModules(file: string): string[] {
-  const joined = [...readFileSync(join(ROOT, file), 'utf8').matchAll(/^\/\/ (dist\/\S+\.js)$/gm)].map((match) => match[1] as string);
-  // A bundle file that joins no module is the bundler's own helper.
-  return joined.length > 0 ? joined : [file];
+  return files === 'files' ? result.files : bundledModules(result.files);
 }
 
 /**
@@ -101,10 +75,10 @@ describe('start-up: what a plan loads', () => {
     mkdirSync(bad);
     const demo = join(ROOT, 'scenarios', 'halvorn');
     writeFileSync(join(bad, 'market.json'), readFileSync(join(demo, 'market.json'), 'utf8').replace('"priceCap"', '"priceCapp"'));
-    const result = spawnSync(process.execPath, ['--import', pathToFileURL(register).href, 'bin/quantbid.js', 'plan', '--market', join(bad, 'market.json'), '--battery', join(demo, 'battery.json'), '--forecast', join(demo, 'quantiles.csv.gz'), '--day', '2027-01-01'], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
+    const result = listing.run(['plan', '--market', join(bad, 'market.json'), '--battery', join(demo, 'battery.json'), '--forecast', join(demo, 'quantiles.csv.gz'), '--day', '2027-01-01']);
     expect(result.status).toBe(2);
     expect(result.stderr).toContain('priceCapp: unknown field');
-    const modules = loadedLines(result.stderr).flatMap((m) => (m.startsWith('dist/bundle/') ? bundledModules(m) : [m]));
+    const modules = bundledModules(result.files);
     expect(modules).toContain('dist/app/plan/planUseCase.js');
     expect(modules.some((m) => m.includes('node_modules/zod/'))).toBe(true);
   });

@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { runBacktest } from '../../src/backtest/runBacktest.js';
 import { daysCsv, DAYS_COLUMNS, LEDGER_COLUMNS, ledgerCsv, ledgerRowBytes, ledgerRows } from '../../src/io/backtestOutputs.js';
+import { csvLine } from '../../src/io/formatNumber.js';
+import { isCurve } from '../../src/settle/periodBid.js';
 import { input } from '../backtest/handWorkedWeek.js';
 
 // Output files of the hand-worked week (test/backtest/handWorkedWeek.ts): 3 covered days of 4 periods.
@@ -45,6 +47,33 @@ describe('backtest output files', () => {
     // Each day's bytes are a view that the next day overwrites: copied as they come, as a file write does.
     runBacktest(input, { policies: ['quantile', 'perfect-foresight'], keepLedger: false, onLedgerDay: (day) => void pieces.push(Buffer.from(ledgerRowBytes(day))) });
     expect(Buffer.concat(pieces).toString('utf8')).toBe(ledgerCsv(result));
+  });
+
+  it('every row, cell by cell, as the column list says (five policies, so that later policies copy the period starts and prices of the first)', () => {
+    const all = runBacktest(input, { unaccepted: 'follow-accepted' });
+    // Built one row at a time from the documented columns with csvLine (formatNumber: toFixed's digits,
+    // test/io/formatNumber.test.ts), independently of the byte builder.
+    const expected = [LEDGER_COLUMNS.join(',')];
+    for (const day of all.days) {
+      for (const run of day.runs) {
+        day.periods.forEach((period, t) => {
+          const order = run.ledger?.orders[t] ?? null;
+          const s = run.ledger?.periods[t];
+          if (s === undefined) throw new Error('no settlement');
+          const orderCells = isCurve(order) ? ['curve', '', ''] : order === null ? ['', '', ''] : [order.side, order.quantityMw, order.limitPrice];
+          expected.push(
+            csvLine([
+              day.day, run.policy, period.start, ...orderCells, s.accepted === null ? '' : String(s.accepted),
+              day.clearingPricePerMwh[t] as number, day.imbalance.buyPerMwh[t] as number, day.imbalance.sellPerMwh[t] as number,
+              s.boughtAuctionMwh, s.soldAuctionMwh, s.boughtImbalanceMwh, s.soldImbalanceMwh, s.chargedMwh, s.dischargedMwh,
+              s.auctionCash, s.imbalanceCash, s.degradationCost, s.profit, s.socMwh, s.deliberateImbalanceMwh,
+            ]),
+          );
+        });
+      }
+    }
+    expect(all.policies.length).toBe(5);
+    expect(ledgerCsv(all)).toBe(`${expected.join('\n')}\n`);
   });
 
   it('refuses to write a ledger for a backtest run without one', () => {

@@ -52,6 +52,19 @@ describe('PlainRow', () => {
     expect([...row.values]).toEqual([42.5, -3, 100]);
   });
 
+  it('random rows: read exactly when split(",") gives four cells, a plain timestamp and three of the decimal form, with their Number values', () => {
+    fc.assert(
+      fc.property(fc.array(cells, { minLength: 1, maxLength: 5 }), (numbers) => {
+        const line = ['2027-06-15T10:00:00+02:00', ...numbers].join(',');
+        const parts = line.split(',');
+        const plain = parts.length === 4 && parts.slice(1).every((cell) => DECIMAL.test(cell));
+        expect(read(line), line).toBe(plain);
+        if (plain) parts.slice(1).forEach((cell, k) => expect(Object.is(row.values[k], Number(cell)), line).toBe(true));
+      }),
+      { seed: 170202, numRuns: 50_000 },
+    );
+  });
+
   it('leaves every other row to the general reader: a field too many or too few, an empty, quoted, spaced or junk cell', () => {
     for (const line of [
       '2027-06-15T10:00:00+02:00,42.5,-3',

@@ -11,14 +11,12 @@ import { jsonText } from '../../io/planOutputs.js';
 import type { OutputLock } from '../../io/outputLock.js';
 import type { BacktestInputPaths } from '../../io/readBacktestInputs.js';
 import { checkOutputFolder, OutputStage } from '../../io/writeOutputs.js';
-import { backtestReport } from '../../report/backtestReport.js';
 import type { Done } from '../commandResult.js';
-import { runInputFiles } from '../inputFiles.js';
+import { inputsShown, runInputFiles } from '../inputFiles.js';
 import { lockedRun } from '../lockedRun.js';
-import { forecastMaker, inputsShown, type ModelForecastSummary } from '../modelForecast.js';
+import type { ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
-import { runScenarioPaths } from '../scenarios/quantilePaths.js';
-import { requireCurvesOffered, scenarioPlanningOf, type ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
+import type { ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
 import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
 import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
@@ -68,9 +66,10 @@ const BACKTEST_OUTPUTS = ['ledger.csv', 'days.csv', 'summary.json'] as const;
 /**
  * `quantbid backtest`: replays the policies day by day over the span (runBacktest) and writes
  * ledger.csv (day by day as the days are settled), days.csv, summary.json and, when asked, report.html
- * into `out` as one output set.
+ * into `out` as one output set. What only some runs need (the forecast models of --model, the
+ * scenario paths of curve and auto, the report) is loaded when the run needs it.
  */
-export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QUIET_HOOKS, tools: ScenarioTools = {}): Done<BacktestSummary> {
+export async function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QUIET_HOOKS, tools: ScenarioTools = {}): Promise<Done<BacktestSummary>> {
   const s = validSettings(backtestSettingsSchema, settings, 'backtest');
   const paths = runInputPaths(s.inputs, s.model);
   const outputs = s.report ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
@@ -79,11 +78,13 @@ export function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QU
 }
 
 /** The backtest of the checked settings, from reading the inputs to the outputs, under the output folder's lock. */
-function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: BacktestInputPaths, outputs: readonly string[], lock: OutputLock, hooks: RunHooks, tools: ScenarioTools): Done<BacktestSummary> {
+async function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: BacktestInputPaths, outputs: readonly string[], lock: OutputLock, hooks: RunHooks, tools: ScenarioTools): Promise<Done<BacktestSummary>> {
   // With --model the forecasts are made here, day by day from the history (through the forecast cache).
-  const maker = forecastMaker(s.model, paths.history, s, hooks);
+  const maker = s.model === undefined ? undefined : (await import('../modelForecast.js')).forecastMaker(s.model, paths.history, s, hooks);
   const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
-  requireCurvesOffered(s.policies, data.market, paths.market);
+  const needing = s.policies.filter(usesScenarios);
+  const scenarioModules = needing.length === 0 ? null : await scenarioCode();
+  scenarioModules?.requireCurvesOffered(s.policies, data.market, paths.market);
   const model = maker?.made();
   // A span without a covered day is bad input, as for sweep and size: an all-zero table would look like a result.
   requireCoveredDay(data, paths, s.from, s.to);
@@ -98,10 +99,9 @@ function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: Backtest
     ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
     const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRowBytes(day));
     // curve and auto: the --paths file, or paths made from the quantile file and the history (quantilePaths.ts).
-    const needing = s.policies.filter(usesScenarios);
-    const settings = needing.length === 0 ? null : (s.scenarios ?? scenarioSettingsSchema.parse({}));
-    const scenarioPaths = settings === null ? null : runScenarioPaths(settings, { market, history, forecastDays: forecast.days, days: daysBetween(s.from, s.to), policies: needing });
-    const scenarioPlanning = settings === null || scenarioPaths === null ? null : scenarioPlanningOf(settings, { market, history, forecast, tools, paths: scenarioPaths.paths });
+    const settings = scenarioModules === null ? null : (s.scenarios ?? scenarioSettingsSchema.parse({}));
+    const scenarioPaths = settings === null || scenarioModules === null ? null : scenarioModules.runScenarioPaths(settings, { market, history, forecastDays: forecast.days, days: daysBetween(s.from, s.to), policies: needing });
+    const scenarioPlanning = settings === null || scenarioPaths === null || scenarioModules === null ? null : scenarioModules.scenarioPlanningOf(settings, { market, history, forecast, tools, paths: scenarioPaths.paths });
     const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay, scenarioPlanning });
     progress.finish();
     const metrics = backtestMetrics(result, battery);
@@ -111,13 +111,22 @@ function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: Backtest
     const summary: BacktestSummary = { ...backtestSummary(result, metrics, context), ...(model === undefined ? {} : { forecastModel: model.summary }), ...(scenarioPaths === null ? {} : { scenarioPaths: scenarioPaths.source }) };
     stage.write('days.csv', daysCsv(result));
     stage.write('summary.json', jsonText(summary));
-    if (s.report) stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
+    if (s.report) {
+      const { backtestReport } = await import('../../report/backtestReport.js');
+      stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
+    }
     stage.commit();
     if (summary.yearlyFigures.warning !== null) hooks.note(`warning: ${summary.yearlyFigures.warning}\n`);
     return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded, scenarioPaths === null ? [] : [`  paths: ${scenarioPaths.source}`])}${model?.note ?? ''}` };
   } finally {
     stage.discard();
   }
+}
+
+/** The scenario planning code of curve and auto, loaded only for them. */
+async function scenarioCode(): Promise<typeof import('../scenarios/quantilePaths.js') & typeof import('../scenarios/scenarioPlanningOf.js')> {
+  const [paths, planning] = await Promise.all([import('../scenarios/quantilePaths.js'), import('../scenarios/scenarioPlanningOf.js')]);
+  return { ...paths, ...planning };
 }
 
 /**
