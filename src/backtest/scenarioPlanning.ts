@@ -3,12 +3,14 @@ import type { SparseLpSolver } from '../curves/linearProgram.js';
 import type { ScenarioSet } from '../scenarios/scenarioSet.js';
 
 /**
- * A day's scenarios: planning paths, on which curves are chosen, and fresh paths, drawn apart from them,
- * on which every candidate is scored (docs/design.md section 4.7). Scoring on the planning paths would
+ * A day's scenarios: planning paths, on which curves are fitted; validation paths, drawn apart from
+ * them, on which the curves' strength is chosen; and fresh paths, drawn apart from both, on which every
+ * candidate is scored (docs/design.md section 4.7). Scoring on the paths a choice was made on would
  * flatter whatever was fitted to them.
  */
 export interface DayScenarios {
   readonly planning: ScenarioSet;
+  readonly validation: ScenarioSet;
   readonly fresh: ScenarioSet;
 }
 

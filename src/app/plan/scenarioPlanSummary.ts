@@ -1,5 +1,5 @@
 import type { DeliveryPeriod, MarketSpec, Order } from '../../types.js';
-import type { AutoChoice, CandidateScore } from '../../backtest/autoChoice.js';
+import { onBothHalves, type AutoChoice, type CandidateScore } from '../../backtest/autoChoice.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import type { ProfitDistribution } from '../../scenarios/profitDistribution.js';
 
@@ -87,9 +87,12 @@ export function whyText(choice: AutoChoice, z: number): string {
   const { mean, standardError } = best.advantage;
   if (choice.best === 0) return 'price-taking has the highest value on the fresh paths';
   const numbers = `${formatNumber(mean, 2)} over price-taking, standard error ${formatNumber(standardError, 2)}`;
-  return choice.chosen === choice.best
-    ? `${best.candidate.name} has the highest value, ${numbers}: more than ${formatNumber(z, 2)} standard errors`
-    : `${best.candidate.name} has the highest value, ${numbers}: not more than ${formatNumber(z, 2)} standard errors, so price-taking`;
+  if (choice.chosen === choice.best) return `${best.candidate.name} has the highest value, ${numbers}: more than ${formatNumber(z, 2)} standard errors, and ahead on both halves of the fresh paths`;
+  if (mean > z * standardError && !onBothHalves(best)) {
+    const halves = best.halfAdvantages.map((h) => formatNumber(h, 2)).join(' and ');
+    return `${best.candidate.name} has the highest value, ${numbers}: more than ${formatNumber(z, 2)} standard errors, but not ahead on both halves of the fresh paths (${halves}), so price-taking`;
+  }
+  return `${best.candidate.name} has the highest value, ${numbers}: not more than ${formatNumber(z, 2)} standard errors, so price-taking`;
 }
 
 /** The candidate table as console text, one line per candidate. */
