@@ -60,6 +60,8 @@ export type CurvePlan =
       /** The curves at the chosen penalty (the program's own, rho = 0, when the flat bids were chosen), and the same as stacks of limit orders. */
       readonly curves: readonly StepCurve[];
       readonly curveBids: readonly (readonly PeriodOrder[])[];
+      /** The program's own curves (rho = 0, before validation) as stacks of limit orders: what overfitting looks like. */
+      readonly programCurveBids: readonly (readonly PeriodOrder[])[];
       /** These curves and the flat bids settled on the planning paths. */
       readonly plannedCurves: ProfitDistribution;
       readonly plannedFlat: ProfitDistribution;
@@ -140,6 +142,7 @@ export function planCurves(request: CurvePlanRequest): CurvePlan {
     validated,
     curves,
     curveBids: stacks,
+    programCurveBids: curvesOf((outcome.family[0] as (typeof outcome.family)[number]).storedMwh).map((c) => curveStack(c, market)),
     plannedCurves: settle(stacks),
     plannedFlat: settle(request.flatBids),
     program: { objective: outcome.objective, rounds: outcome.rounds, lazyRows: outcome.lazyRows },
