@@ -16,6 +16,8 @@ export interface ScenarioPlanContext {
   readonly riskWeight: number;
   readonly switchStandardErrors: number;
   readonly planningPaths: number;
+  /** Paths the curves' penalty was chosen on (apart from the planning and the fresh ones). */
+  readonly validationPaths: number;
   readonly freshPaths: number;
   /** Where the paths came from: the --paths file, or the quantile file and the history (quantilePaths.ts). */
   readonly scenarioPaths: string;
@@ -75,7 +77,7 @@ export function scenarioPlanSummary(choice: AutoChoice, orders: readonly Order[]
     why: whyText(choice, context.switchStandardErrors),
     unaccepted: context.unaccepted,
     criterion: { riskWeight: context.riskWeight, cvarShare: 0.05, switchStandardErrors: context.switchStandardErrors },
-    scenarios: { paths: context.scenarioPaths, planningPaths: context.planningPaths, freshPaths: context.freshPaths, curveSteps: context.curveSteps, imbalance: context.imbalance, solver: context.solver },
+    scenarios: { paths: context.scenarioPaths, planningPaths: context.planningPaths, validationPaths: context.validationPaths, freshPaths: context.freshPaths, curveSteps: context.curveSteps, imbalance: context.imbalance, solver: context.solver },
     candidates: choice.scores.map(candidateRow),
     orders: { rows: orders.length, buys: buys.length, sells: sells.length, boughtMwhIfAllAccepted: mwh(buys), soldMwhIfAllAccepted: mwh(sells) },
   };

@@ -8,7 +8,7 @@ import { fitImbalanceSpread, type SpreadDay } from '../../scenarios/imbalanceSpr
 import { formatNumber } from '../../io/formatNumber.js';
 import { chooseImbalanceSource } from '../../settle/imbalancePrices.js';
 
-/** Fewest paths a day must have: a planning, a validation and a fresh set of at least 6 each [-]. */
+/** Fewest paths a day must have: a planning set of at least 10 and a validation and a fresh set of at least 5 each [-]. */
 export const MIN_DAY_PATHS = 20;
 
 /** Most past days the imbalance spread model learns from [days] (a year, as the forecasters use). */
@@ -64,7 +64,7 @@ export function imbalancePathSource(day: string, inputs: Pick<ScenarioInputs, 'm
 }
 
 /**
- * Scenarios from a paths file: the day's paths clamped into [floor, cap], P = min(planning paths, n / 3)
+ * Scenarios from a paths file: the day's paths clamped into [floor, cap], P = min(planning paths, n / 2)
  * of them (evenly spread over the file's order, path indices floor(k n / P)) for planning, and of the
  * others alternately one for fresh and one for validation (the curves' strength); each with its
  * imbalance prices (imbalancePathSource).
@@ -80,7 +80,7 @@ export function pathScenarioSource(inputs: ScenarioInputs): DayScenarioSource {
     const { priceFloor, priceCap } = inputs.market;
     const clamped = paths.map((path) => path.map((p) => Math.min(priceCap, Math.max(priceFloor, p))));
     const n = clamped.length;
-    const planningCount = Math.min(inputs.planningPaths, Math.floor(n / 3));
+    const planningCount = Math.min(inputs.planningPaths, Math.floor(n / 2));
     const planningIndex = new Set(Array.from({ length: planningCount }, (_, k) => Math.floor((k * n) / planningCount)));
     const planning = clamped.filter((_, j) => planningIndex.has(j));
     const others = clamped.filter((_, j) => !planningIndex.has(j));
