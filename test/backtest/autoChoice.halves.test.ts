@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import type { BatteryModel, Order } from '../../src/types.js';
+import type { Order } from '../../src/types.js';
+import { LOSSLESS_BATTERY } from '../reference/losslessBattery.js';
 import { chooseAuto, type Candidate } from '../../src/backtest/autoChoice.js';
 import { whyText } from '../../src/app/plan/scenarioPlanSummary.js';
 import { scenarioSet } from '../../src/scenarios/scenarioSet.js';
@@ -17,19 +18,7 @@ import { scenarioSet } from '../../src/scenarios/scenarioSet.js';
 // same values spread three even and two odd, the halves' means are (300 - 497 x 0.01) / 500 = 0.59006 and
 // (200 - 498 x 0.01) / 500 = 0.39004, both positive, and the candidate is submitted.
 
-const battery: BatteryModel = {
-  energyMwh: 4,
-  chargeMw: 2,
-  dischargeMw: 2,
-  chargeEfficiency: 1,
-  dischargeEfficiency: 1,
-  socMinMwh: 0,
-  socMaxMwh: 4,
-  socInitialMwh: 2,
-  socFinalMinMwh: undefined,
-  maxFromStoreMwhPerDay: undefined,
-  degradationCostPerMwh: 0,
-};
+const battery = LOSSLESS_BATTERY;
 const sell: Order = { periodStart: '2026-01-01T00:00:00Z', periodEnd: '2026-01-01T01:00:00Z', side: 'sell', quantityMw: 1, limitPrice: -500, quantileLevel: null };
 const candidates: Candidate[] = [
   { name: 'price-taking', policy: 'price-taking', alpha: null, bids: [null], kind: 'schedule', planned: null },

@@ -11,7 +11,7 @@ import { evaluateBids } from '../../src/scenarios/evaluateBids.js';
 import { profitDistribution } from '../../src/scenarios/profitDistribution.js';
 import { scenarioSet } from '../../src/scenarios/scenarioSet.js';
 import { loadHighsSolver as loadHighs } from '../reference/highsDayModel.js';
-import { solveExtensiveCurveMip } from '../reference/extensiveCurveMip.js';
+import { solveExtensiveCurveMip, type ExtensiveCurveDay } from '../reference/extensiveCurveMip.js';
 import { SeededRandom } from '../reference/randomDays.js';
 
 // The stored-energy LP of a day of step curves (src/curves/curveProgram.ts), solved with lazy rows,
@@ -64,6 +64,22 @@ function randomCase(i: number) {
   return { battery, socStartMwh, socEndMinMwh, prices, steps, riskWeight, T, S };
 }
 
+/** The extensive form of a case, on the steps the program's price points give each path. */
+function extensiveDay(c: ReturnType<typeof randomCase>, points: ReturnType<typeof curvePricePoints>): ExtensiveCurveDay {
+  return {
+    battery: c.battery,
+    periodHours: 1,
+    socStartMwh: c.socStartMwh,
+    socEndMinMwh: c.socEndMinMwh,
+    prices: c.prices,
+    steps: points.map((p) => p.breakpoints.length + 1),
+    stepOf: c.prices.map((_, w) => points.map((p) => p.stepOfPath[w] as number)),
+    sellable: points.map((p) => Array.from(p.sellable, (v) => v === 1)),
+    riskWeight: c.riskWeight,
+    cvarShare: 0.05,
+  };
+}
+
 describe('the curve program against the extensive form (HiGHS MIP)', () => {
   it(`agrees on ${CASES} seeded tiny days, and its curves earn the optimum on the planning paths`, () => {
     let optimal = 0;
@@ -73,18 +89,7 @@ describe('the curve program against the extensive form (HiGHS MIP)', () => {
       const scenarios = scenarioSet(c.prices, c.prices, c.prices);
       const points = curvePricePoints(scenarios, c.steps);
       const lp = solveCurveProgram({ scenarios, points, battery: c.battery, periodHours: 1, socStartMwh: c.socStartMwh, socEndMinMwh: c.socEndMinMwh, riskWeight: c.riskWeight, cvarShare: 0.05, solver });
-      const mip = solveExtensiveCurveMip(highs, {
-        battery: c.battery,
-        periodHours: 1,
-        socStartMwh: c.socStartMwh,
-        socEndMinMwh: c.socEndMinMwh,
-        prices: c.prices,
-        steps: points.map((p) => p.breakpoints.length + 1),
-        stepOf: c.prices.map((_, w) => points.map((p) => p.stepOfPath[w] as number)),
-        sellable: points.map((p) => Array.from(p.sellable, (v) => v === 1)),
-        riskWeight: c.riskWeight,
-        cvarShare: 0.05,
-      });
+      const mip = solveExtensiveCurveMip(highs, extensiveDay(c, points));
       expect(mip.status, `case ${i}`).not.toBe('other');
       expect(lp.status, `case ${i}`).toBe(mip.status);
       if (lp.status !== 'optimal' || mip.status !== 'optimal') {
@@ -124,18 +129,7 @@ describe('the curve program against the extensive form (HiGHS MIP)', () => {
       const scenarios = scenarioSet(c.prices, c.prices, c.prices);
       const points = curvePricePoints(scenarios, c.steps);
       const lp = solveCurveProgram({ scenarios, points, battery: c.battery, periodHours: 1, socStartMwh: c.socStartMwh, socEndMinMwh: c.socEndMinMwh, riskWeight: c.riskWeight, cvarShare: 0.05, solver, proximal: { towardsStoredMwh, penaltiesPerMwh } });
-      const day = {
-        battery: c.battery,
-        periodHours: 1,
-        socStartMwh: c.socStartMwh,
-        socEndMinMwh: c.socEndMinMwh,
-        prices: c.prices,
-        steps: points.map((p) => p.breakpoints.length + 1),
-        stepOf: c.prices.map((_, w) => points.map((p) => p.stepOfPath[w] as number)),
-        sellable: points.map((p) => Array.from(p.sellable, (v) => v === 1)),
-        riskWeight: c.riskWeight,
-        cvarShare: 0.05,
-      };
+      const day = extensiveDay(c, points);
       if (lp.status !== 'optimal') {
         expect(solveExtensiveCurveMip(highs, day).status, `case ${i}`).toBe(lp.status);
         continue;

@@ -1,5 +1,6 @@
 import { beforeAll, describe, expect, it } from 'vitest';
-import type { BatteryModel, MarketSpec } from '../../src/types.js';
+import type { MarketSpec } from '../../src/types.js';
+import { LOSSLESS_BATTERY } from '../reference/losslessBattery.js';
 import { loadHighsSolver } from '../../src/app/solver/highsSolver.js';
 import type { SparseLpSolver } from '../../src/curves/linearProgram.js';
 import { planCurves, PROXIMAL_MULTIPLES } from '../../src/curves/planCurves.js';
@@ -16,19 +17,7 @@ import { scenarioSet } from '../../src/scenarios/scenarioSet.js';
 // - Validation paths that reverse the hours (90 then 10): the curves lose 160 a path there, so the flat
 //   bids are chosen, although on the planning paths the curves look 160 better.
 
-const battery: BatteryModel = {
-  energyMwh: 4,
-  chargeMw: 2,
-  dischargeMw: 2,
-  chargeEfficiency: 1,
-  dischargeEfficiency: 1,
-  socMinMwh: 0,
-  socMaxMwh: 4,
-  socInitialMwh: 2,
-  socFinalMinMwh: undefined,
-  maxFromStoreMwhPerDay: undefined,
-  degradationCostPerMwh: 0,
-};
+const battery = LOSSLESS_BATTERY;
 const market = { priceFloor: -500, priceCap: 3000, periodMinutes: 60 } as MarketSpec;
 let solver: SparseLpSolver;
 beforeAll(async () => {
