@@ -31,6 +31,7 @@ const dayLimit = option('days', undefined);
 const solver = await loadHighsSolver();
 const battery = await benchBattery();
 const RULES = ['follow-plan', 'follow-accepted'];
+const json = option('json', undefined);
 const results = [];
 for (const name of settings) {
   const known = await loadKnownMarket(name);
@@ -105,7 +106,7 @@ for (const name of settings) {
       `${name.padEnd(20)} ${rule.padEnd(16)} days ${row.days}  realised: price-taking ${row.priceTaking.toFixed(0).padStart(9)}  auto ${row.auto.toFixed(0).padStart(9)}  ratio ${row.ratio.toFixed(3)}  expected: ${row.expectedPriceTaking.toFixed(0)} / ${row.expectedAuto.toFixed(0)} ratio ${row.expectedRatio.toFixed(3)}  worst 5% ${row.worst5PriceTaking.toFixed(0)} / ${row.worst5Auto.toFixed(0)}  switched ${row.daysSwitched}  curve fresh < -1 se on ${curveBelow}/${curveDays} days  cpu ${row.cpuSeconds.toFixed(0)} s`,
     );
     console.log(`    submitted: ${Object.entries(submitted).map(([k, v]) => `${k} ${v}`).join(', ')}`);
+    // Written after every setting and rule, so that a long run that is stopped keeps what it finished.
+    if (json !== undefined) writeFileSync(json, `${JSON.stringify(results, null, 2)}\n`);
   }
 }
-const json = option('json', undefined);
-if (json !== undefined) writeFileSync(json, `${JSON.stringify(results, null, 2)}\n`);
