@@ -9,7 +9,7 @@
 // prints the EXPECTED profit: each day's submitted bids settled, from the state of charge the policy
 // was in, on 2,000 further true paths of the day (the mean over the true law, up to its sampling error).
 //
-//   npm run build && node bench/scenarioBids/yearAuto.js [--settings a,b] [--json out.json] [--days N]
+//   npm run build && node bench/scenarioBids/yearAuto.js [--settings a,b] [--rules follow-plan,follow-accepted] [--json out.json] [--days N]
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -30,7 +30,7 @@ const settings = option('settings', SETTING_NAMES.join(',')).split(',');
 const dayLimit = option('days', undefined);
 const solver = await loadHighsSolver();
 const battery = await benchBattery();
-const RULES = ['follow-plan', 'follow-accepted'];
+const RULES = option('rules', 'follow-plan,follow-accepted').split(',');
 const json = option('json', undefined);
 const results = [];
 for (const name of settings) {
