@@ -159,7 +159,8 @@ for (const day of days) {
   const forecast = known.forecastDays.get(day);
   const planning = set(known.paths(day, pathCount, `planning-${pathCount}`));
   const flat = planPolicyDay({ forecast, realised: null, market, battery, alpha: 0.1, socStartMwh: start, solveOptions: {}, scenarioPlanning: null, scenarios: null, policy: 'price-taking', unaccepted: 'follow-plan' });
-  const mine = cpu(() => planCurves({ planning, market, battery, socStartMwh: start, socEndMinMwh: start, steps: STEPS, riskWeight: 0, flatBids: flat.orders, solver }));
+  const validation = set(known.paths(day, pathCount, `validation-${pathCount}`));
+  const mine = cpu(() => planCurves({ planning, validation, switchStandardErrors: 2, market, battery, socStartMwh: start, socEndMinMwh: start, steps: STEPS, riskWeight: 0, flatBids: flat.orders, solver }));
   if (mine.value.status !== 'optimal') throw new Error(`${day}: ${mine.value.reason}`);
   const points = curvePricePoints(planning, STEPS);
   const other = cpu(() => solveExtensiveHighs(extensiveForm(planning, points, start)));

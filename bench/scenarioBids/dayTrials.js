@@ -25,6 +25,8 @@ const { planPolicyDay } = await dist('backtest/planPolicyDay.js');
 const { planCurves } = await dist('curves/planCurves.js');
 const { pairedDifference } = await dist('stats/pairedDifference.js');
 const { settleDay } = await dist('settle/settleDay.js');
+const { SCENARIO_DEFAULTS } = await dist('backtest/scenarioPlanning.js');
+const { onBothHalves } = await dist('backtest/autoChoice.js');
 
 export const PLAN_GRID = Object.freeze([
   { paths: 50, steps: 4 },
@@ -54,7 +56,7 @@ for (const name of settings) {
   const step = Math.floor(known.truthDays.length / dayCount);
   const days = known.truthDays.filter((_, i) => i % step === 0).slice(0, dayCount);
   const set = (p) => scenarioSet(p.clearing, p.imbalance, p.imbalance);
-  const planRows = PLAN_GRID.map((g) => ({ ...g, planned: [], fresh: [], freshSe: [], truth: [], freshBelow: 0, seconds: [] }));
+  const planRows = PLAN_GRID.map((g) => ({ ...g, planned: [], fresh: [], freshSe: [], truth: [], freshBelow: 0, kept: 0, seconds: [], programPlanned: [], programFresh: [], programBelow: 0 }));
   const zRows = Object.fromEntries(RULES.map((rule) => [rule, Z_GRID.map((z) => ({ z, truth: [], switched: 0 }))]));
   const start = battery.socInitialMwh;
   for (const day of days) {
@@ -69,13 +71,20 @@ for (const name of settings) {
     const flatTest = settleOn(test, flat.orders, 'follow-accepted');
     for (const row of planRows) {
       const planning = set(known.paths(day, row.paths, `planning-${row.paths}`));
+      const validation = set(known.paths(day, row.paths, `validation-${row.paths}`));
       const t0 = process.cpuUsage();
-      const plan = planCurves({ planning, market, battery, socStartMwh: start, socEndMinMwh: start, steps: row.steps, riskWeight: 0, flatBids: flat.orders, solver });
+      const plan = planCurves({ planning, validation, switchStandardErrors: SCENARIO_DEFAULTS.switchStandardErrors, market, battery, socStartMwh: start, socEndMinMwh: start, steps: row.steps, riskWeight: 0, flatBids: flat.orders, solver });
       const cpu = process.cpuUsage(t0);
       row.seconds.push((cpu.user + cpu.system) / 1e6);
       if (plan.status !== 'optimal') throw new Error(`${name} ${day}: ${plan.reason}`);
+      if (plan.chosen === 'curves') row.kept++;
       const bids = plan.chosen === 'curves' ? plan.curveBids : flat.orders;
       row.planned.push((plan.chosen === 'curves' ? plan.plannedCurves.mean : plan.plannedFlat.mean) - plan.plannedFlat.mean);
+      // The program's own curves, before validation chose a penalty: planned-on and fresh.
+      const programFresh = pairedDifference(settleOn(fresh, plan.programCurveBids, 'follow-accepted'), flatFresh);
+      row.programPlanned.push(mean(Array.from(settleOn(planning, plan.programCurveBids, 'follow-accepted'))) - plan.plannedFlat.mean);
+      row.programFresh.push(programFresh.mean);
+      if (programFresh.mean < -programFresh.standardError) row.programBelow++;
       const diff = pairedDifference(settleOn(fresh, bids, 'follow-accepted'), flatFresh);
       row.fresh.push(diff.mean);
       row.freshSe.push(diff.standardError);
@@ -84,7 +93,7 @@ for (const name of settings) {
     }
     for (const rule of RULES) {
       const planning = {
-        scenarios: () => ({ planning: set(known.paths(day, 100, 'planning-100')), fresh }),
+        scenarios: () => ({ planning: set(known.paths(day, 100, 'planning-100')), validation: set(known.paths(day, 100, 'validation-100')), fresh }),
         solver, curveSteps: 4, riskWeight: 0, alphas: [0.05, 0.1, 0.2, 0.3, 0.4], switchStandardErrors: 0,
       };
       const auto = planPolicyDay({ ...base, policy: 'auto', unaccepted: rule, scenarioPlanning: planning, scenarios: planning.scenarios });
@@ -94,7 +103,8 @@ for (const name of settings) {
       scores.forEach((s, i) => { if (s.value > scores[best].value) best = i; });
       for (const zr of zRows[rule]) {
         const w = scores[best];
-        const chosen = best !== 0 && w.advantage.mean > zr.z * w.advantage.standardError ? best : 0;
+        // auto's rule (backtest/autoChoice.ts) at this z: more than z standard errors, and ahead on both halves.
+        const chosen = best !== 0 && w.advantage.mean > zr.z * w.advantage.standardError && onBothHalves(w) ? best : 0;
         if (chosen !== 0) zr.switched++;
         zr.truth.push(truthOf[chosen] - truthOf[0]);
       }
@@ -106,13 +116,13 @@ for (const name of settings) {
     setting: name,
     days: days.length,
     periods: known.forecastDays.get(days[0]).periods.length,
-    plan: planRows.map((r) => ({ paths: r.paths, steps: r.steps, planned: mean(r.planned), fresh: mean(r.fresh), freshSe: mean(r.freshSe), truth: mean(r.truth), truthSe: se(r.truth), freshBelowOneSe: r.freshBelow, cpuSeconds: mean(r.seconds) })),
+    plan: planRows.map((r) => ({ paths: r.paths, steps: r.steps, planned: mean(r.planned), fresh: mean(r.fresh), freshSe: mean(r.freshSe), truth: mean(r.truth), truthSe: se(r.truth), freshBelowOneSe: r.freshBelow, curvesKept: r.kept, programPlanned: mean(r.programPlanned), programFresh: mean(r.programFresh), programFreshBelowOneSe: r.programBelow, cpuSeconds: mean(r.seconds) })),
     z: Object.fromEntries(RULES.map((rule) => [rule, zRows[rule].map((r) => ({ z: r.z, truth: mean(r.truth), truthSe: se(r.truth), switched: r.switched }))])),
   };
   results.push(summary);
   console.log(`\n${name} (${summary.days} days, ${summary.periods} periods): curve advantage over price-taking per day [KNW]`);
-  console.log('  paths steps   planned     fresh (se)      truth (se over days)   fresh < -1 se   cpu s');
-  for (const r of summary.plan) console.log(`  ${String(r.paths).padStart(5)} ${String(r.steps).padStart(5)} ${r.planned.toFixed(2).padStart(9)} ${r.fresh.toFixed(2).padStart(9)} (${r.freshSe.toFixed(2)}) ${r.truth.toFixed(2).padStart(9)} (${r.truthSe.toFixed(2)})   ${String(r.freshBelowOneSe).padStart(6)}        ${r.cpuSeconds.toFixed(2)}`);
+  console.log('  paths steps  program: planned  fresh  < -1 se | validated: planned     fresh (se)      truth (se over days)   fresh < -1 se   curves kept   cpu s');
+  for (const r of summary.plan) console.log(`  ${String(r.paths).padStart(5)} ${String(r.steps).padStart(5)} ${r.programPlanned.toFixed(2).padStart(9)} ${r.programFresh.toFixed(2).padStart(9)} ${String(r.programFreshBelowOneSe).padStart(4)}  | ${r.planned.toFixed(2).padStart(9)} ${r.fresh.toFixed(2).padStart(9)} (${r.freshSe.toFixed(2)}) ${r.truth.toFixed(2).padStart(9)} (${r.truthSe.toFixed(2)})   ${String(r.freshBelowOneSe).padStart(6)}   ${String(r.curvesKept).padStart(6)}        ${r.cpuSeconds.toFixed(2)}`);
   for (const rule of RULES) console.log(`  auto, ${rule}: true advantage per day by z: ${summary.z[rule].map((r) => `z ${r.z}: ${r.truth.toFixed(2)} (${r.switched} switched)`).join('; ')}`);
 }
 const json = option('json', undefined);

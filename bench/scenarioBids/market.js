@@ -92,11 +92,15 @@ export async function loadKnownMarket(name) {
   return { setting, market, history, forecastDays, truthDays: [...forecastDays.keys()], paths, span: SPAN };
 }
 
-/** A DayScenarioSource of true paths: planning and fresh paths from separate streams. */
+/** A DayScenarioSource of true paths: planning, validation (as many as planning) and fresh paths from separate streams. */
 export async function trueScenarioSource(known, planningPaths, freshPaths) {
   const { scenarioSet } = await dist('scenarios/scenarioSet.js');
   const set = (p) => scenarioSet(p.clearing, p.imbalance, p.imbalance);
-  return (forecast) => ({ planning: set(known.paths(forecast.day, planningPaths, 'planning')), fresh: set(known.paths(forecast.day, freshPaths, 'fresh')) });
+  return (forecast) => ({
+    planning: set(known.paths(forecast.day, planningPaths, 'planning')),
+    validation: set(known.paths(forecast.day, planningPaths, 'validation')),
+    fresh: set(known.paths(forecast.day, freshPaths, 'fresh')),
+  });
 }
 
 /** The names of the settings, in the bench's order. */

@@ -23,11 +23,11 @@ if (year !== null) {
   }
 }
 if (trials !== null) {
-  console.log('\n| setting | periods | paths | steps | planned-on | fresh (se) | true (se over days) | days fresh < -1 se | CPU s per day |');
-  console.log('|---|---|---|---|---|---|---|---|---|');
+  console.log('\n| setting | periods | paths | steps | program\'s curves: planned-on | fresh | days fresh < -1 se | validated: days curves kept | planned-on | fresh (se) | true (se over days) | days fresh < -1 se | CPU s per day |');
+  console.log('|---|---|---|---|---|---|---|---|---|---|---|---|---|');
   for (const s of trials) {
     for (const r of s.plan) {
-      console.log(`| ${s.setting} | ${s.periods} | ${r.paths} | ${r.steps} | ${f2(r.planned)} | ${f2(r.fresh)} (${f2(r.freshSe)}) | ${f2(r.truth)} (${f2(r.truthSe)}) | ${r.freshBelowOneSe} of ${s.days} | ${f2(r.cpuSeconds)} |`);
+      console.log(`| ${s.setting} | ${s.periods} | ${r.paths} | ${r.steps} | ${f2(r.programPlanned)} | ${f2(r.programFresh)} | ${r.programFreshBelowOneSe} of ${s.days} | ${r.curvesKept} of ${s.days} | ${f2(r.planned)} | ${f2(r.fresh)} (${f2(r.freshSe)}) | ${f2(r.truth)} (${f2(r.truthSe)}) | ${r.freshBelowOneSe} of ${s.days} | ${f2(r.cpuSeconds)} |`);
     }
   }
   console.log('\n| setting | rule | true advantage of auto over price-taking per day, by z (days switched) |');

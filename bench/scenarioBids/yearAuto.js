@@ -9,7 +9,7 @@
 // prints the EXPECTED profit: each day's submitted bids settled, from the state of charge the policy
 // was in, on 2,000 further true paths of the day (the mean over the true law, up to its sampling error).
 //
-//   npm run build && node bench/scenarioBids/yearAuto.js [--settings a,b] [--json out.json] [--days N]
+//   npm run build && node bench/scenarioBids/yearAuto.js [--settings a,b] [--rules follow-plan,follow-accepted] [--json out.json] [--days N]
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -30,7 +30,8 @@ const settings = option('settings', SETTING_NAMES.join(',')).split(',');
 const dayLimit = option('days', undefined);
 const solver = await loadHighsSolver();
 const battery = await benchBattery();
-const RULES = ['follow-plan', 'follow-accepted'];
+const RULES = option('rules', 'follow-plan,follow-accepted').split(',');
+const json = option('json', undefined);
 const results = [];
 for (const name of settings) {
   const known = await loadKnownMarket(name);
@@ -105,7 +106,7 @@ for (const name of settings) {
       `${name.padEnd(20)} ${rule.padEnd(16)} days ${row.days}  realised: price-taking ${row.priceTaking.toFixed(0).padStart(9)}  auto ${row.auto.toFixed(0).padStart(9)}  ratio ${row.ratio.toFixed(3)}  expected: ${row.expectedPriceTaking.toFixed(0)} / ${row.expectedAuto.toFixed(0)} ratio ${row.expectedRatio.toFixed(3)}  worst 5% ${row.worst5PriceTaking.toFixed(0)} / ${row.worst5Auto.toFixed(0)}  switched ${row.daysSwitched}  curve fresh < -1 se on ${curveBelow}/${curveDays} days  cpu ${row.cpuSeconds.toFixed(0)} s`,
     );
     console.log(`    submitted: ${Object.entries(submitted).map(([k, v]) => `${k} ${v}`).join(', ')}`);
+    // Written after every setting and rule, so that a long run that is stopped keeps what it finished.
+    if (json !== undefined) writeFileSync(json, `${JSON.stringify(results, null, 2)}\n`);
   }
 }
-const json = option('json', undefined);
-if (json !== undefined) writeFileSync(json, `${JSON.stringify(results, null, 2)}\n`);

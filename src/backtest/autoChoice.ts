@@ -2,8 +2,9 @@ import type { BatteryModel } from '../types.js';
 import type { UnacceptedRule } from '../settle/unacceptedRule.js';
 import { VALUE_TOLERANCE } from '../curves/planCurves.js';
 import { riskAdjustedValue } from '../scenarios/criterion.js';
-import { evaluateBids, type PathOutcomes } from '../scenarios/evaluateBids.js';
-import { CVAR_SHARE, profitDistribution, type ProfitDistribution } from '../scenarios/profitDistribution.js';
+import { evaluateBids } from '../scenarios/evaluateBids.js';
+import { criterionTerms, pathMeanPrices, valuesLessShortfall } from '../scenarios/pathValues.js';
+import { profitDistribution, type ProfitDistribution } from '../scenarios/profitDistribution.js';
 import type { ScenarioSet } from '../scenarios/scenarioSet.js';
 import { pairedDifference, type PairedDifference } from '../stats/pairedDifference.js';
 import type { DayBid } from './dayBid.js';
@@ -32,6 +33,8 @@ export interface CandidateScore {
   readonly value: number;
   /** Paired difference of the criterion's per-path terms against price-taking on the same paths. */
   readonly advantage: PairedDifference;
+  /** The same advantage's mean on each of two independent halves of the fresh paths (even and odd paths). */
+  readonly halfAdvantages: readonly [number, number];
 }
 
 export interface AutoChoice {
@@ -66,8 +69,14 @@ export interface AutoRequest {
  * 5 % of these values (scenarios/criterion.ts).
  *
  * Winner's-curse control: the best candidate by the criterion is submitted only if its advantage over
- * price-taking on the same paths exceeds z standard errors of the paired difference; otherwise
- * price-taking is. The paired difference is taken of the per-path terms
+ * price-taking on the same paths exceeds z standard errors of the paired difference, and is positive on
+ * each of two independent halves of the fresh paths (even and odd paths); otherwise price-taking is.
+ * The halves guard against heavy tails: where a few paths of extreme prices decide the mean, the
+ * standard error of 1,000 paths understates the uncertainty (it is itself estimated from those few
+ * paths), and an advantage that one half of the paths does not show is not taken. A replication
+ * requirement of this kind asks nothing of the distribution; on light-tailed differences an advantage
+ * of z = 2 standard errors is positive on both halves with high probability (each half's mean is
+ * about z / sqrt(2) of its standard errors above 0), so it costs little there. The paired difference is taken of the per-path terms
  *   g_w = x_w + lambda (v - max(0, v - x_w) / beta),   v = the beta-quantile x_(ceil(beta n)),
  * whose mean is exactly mean + lambda CVaR (Rockafellar and Uryasev 2000, Theorem 1, at its optimal
  * eta = v); with lambda = 0 it is the plain paired difference of the values.
@@ -92,7 +101,7 @@ export function chooseAuto(request: AutoRequest): AutoChoice {
     return { candidate, fresh: profitDistribution(outcomes), shortfallMwh, value: riskAdjustedValue(adjusted, riskWeight) };
   });
   const reference = terms[0] as Float64Array;
-  const scores: CandidateScore[] = partial.map((p, i) => ({ ...p, advantage: pairedDifference(terms[i] as Float64Array, reference) }));
+  const scores: CandidateScore[] = partial.map((p, i) => ({ ...p, advantage: pairedDifference(terms[i] as Float64Array, reference), halfAdvantages: halfMeans(terms[i] as Float64Array, reference) }));
   // Ties and differences of rounding go to the earlier candidate, price-taking first.
   const tolerance = (value: number): number => VALUE_TOLERANCE * Math.max(1, Math.abs(value));
   let best = 0;
@@ -102,34 +111,22 @@ export function chooseAuto(request: AutoRequest): AutoChoice {
   });
   const winner = scores[best] as CandidateScore;
   const { mean, standardError } = winner.advantage;
-  const significant = best !== 0 && mean > request.switchStandardErrors * standardError && mean > tolerance((scores[0] as CandidateScore).value);
+  const significant = best !== 0 && mean > request.switchStandardErrors * standardError && mean > tolerance((scores[0] as CandidateScore).value) && onBothHalves(winner);
   return { scores, chosen: significant ? best : 0, best };
 }
 
-/** Mean clearing price of each path over the day [currency/MWh]. */
-function pathMeanPrices(set: ScenarioSet): Float64Array {
-  const out = new Float64Array(set.pathCount);
-  for (let t = 0; t < set.periodCount; t++) for (let w = 0; w < set.pathCount; w++) out[w] = (out[w] as number) + (set.clearingPricePerMwh[t * set.pathCount + w] as number);
-  return out.map((v) => v / set.periodCount);
+/** Whether a candidate's advantage over price-taking is positive on each half of the fresh paths (see chooseAuto). */
+export function onBothHalves(score: CandidateScore): boolean {
+  return score.halfAdvantages[0] > 0 && score.halfAdvantages[1] > 0;
 }
 
-function valuesLessShortfall(outcomes: PathOutcomes, meanPrice: Float64Array, floorMwh: number, etaC: number): { values: Float64Array; shortfallMwh: number } {
-  const n = outcomes.profit.length;
-  const values = new Float64Array(n);
-  let shortfall = 0;
-  for (let w = 0; w < n; w++) {
-    const short = Math.max(0, floorMwh - (outcomes.socEndMwh[w] as number));
-    shortfall += short;
-    values[w] = (outcomes.profit[w] as number) - (short * Math.max(0, meanPrice[w] as number)) / etaC;
+/** Mean of a - b over the even and over the odd indices. */
+function halfMeans(a: Float64Array, b: Float64Array): [number, number] {
+  const sums = [0, 0];
+  const counts = [0, 0];
+  for (let w = 0; w < a.length; w++) {
+    sums[w % 2] = (sums[w % 2] as number) + (a[w] as number) - (b[w] as number);
+    counts[w % 2] = (counts[w % 2] as number) + 1;
   }
-  return { values, shortfallMwh: shortfall / n };
-}
-
-/** g_w = x_w + lambda (v - max(0, v - x_w) / beta), v the beta-quantile of x (see chooseAuto). */
-function criterionTerms(x: Float64Array, riskWeight: number): Float64Array {
-  if (riskWeight === 0) return x;
-  const n = x.length;
-  const sorted = Float64Array.from(x).sort();
-  const v = sorted[Math.max(0, Math.ceil(CVAR_SHARE * n) - 1)] as number;
-  return x.map((xw) => xw + riskWeight * (v - Math.max(0, v - xw) / CVAR_SHARE));
+  return [(sums[0] as number) / Math.max(1, counts[0] as number), (sums[1] as number) / Math.max(1, counts[1] as number)];
 }

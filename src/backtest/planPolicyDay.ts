@@ -138,6 +138,8 @@ function scenarioPolicy(request: PolicyDayRequest, policy: 'curve' | 'auto'): Po
       ? null
       : planCurves({
           planning: scenarios.planning,
+          validation: scenarios.validation,
+          switchStandardErrors: planning.switchStandardErrors,
           market,
           battery,
           socStartMwh,

@@ -3,12 +3,14 @@ import type { SparseLpSolver } from '../curves/linearProgram.js';
 import type { ScenarioSet } from '../scenarios/scenarioSet.js';
 
 /**
- * A day's scenarios: planning paths, on which curves are chosen, and fresh paths, drawn apart from them,
- * on which every candidate is scored (docs/design.md section 4.7). Scoring on the planning paths would
+ * A day's scenarios: planning paths, on which curves are fitted; validation paths, drawn apart from
+ * them, on which the curves' strength is chosen; and fresh paths, drawn apart from both, on which every
+ * candidate is scored (docs/design.md section 4.7). Scoring on the paths a choice was made on would
  * flatter whatever was fitted to them.
  */
 export interface DayScenarios {
   readonly planning: ScenarioSet;
+  readonly validation: ScenarioSet;
   readonly fresh: ScenarioSet;
 }
 
@@ -38,7 +40,8 @@ export interface ScenarioPlanning {
  * steps (2, 4, 8) and came closer to price-taking's with more planning paths (50 to 400) at a cost in
  * time about proportional to them, so 100 paths (the timing goal's) and 4 steps; z = 2: on the bench
  * days no setting or rule loses against price-taking at z = 1.5 or 2, some do below 1.5, and 2 is the
- * more cautious of the two.
+ * more cautious of the two. The same z decides whether the curves' validation keeps a penalty's curves
+ * (curves/planCurves.ts).
  */
 export const SCENARIO_DEFAULTS = Object.freeze({
   planningPaths: 100,

@@ -237,7 +237,7 @@ export function addScenarioOptions(command: Command): Command {
   return command
     .option('--paths <file>', 'with --policy curve or auto: whole-day price paths per day, period_start,path,price (quantbid forecast --paths 364 writes them); without it they are made from the quantile file and the history (Schaake shuffle)', pathArg)
     .option('--path-seed <N>', `without --paths: seed of the paths made from the quantile file; the same seed and inputs give the same paths (default ${FORECAST_DEFAULTS.pathSeed})`, parseSeedArg)
-    .option('--planning-paths <n>', `paths the curves are planned on; the day's other paths score every candidate (default ${SCENARIO_DEFAULTS.planningPaths}; made from the quantile file: twice as many per day)`, rangeArg(RUN_LIMITS.planningPaths, '100', true))
+    .option('--planning-paths <n>', `paths the curves are planned on; the day's other paths, half and half, check the curves and score every candidate (default ${SCENARIO_DEFAULTS.planningPaths}; made from the quantile file: three times as many per day)`, rangeArg(RUN_LIMITS.planningPaths, '100', true))
     .option('--risk-weight <x>', `lambda >= 0: choose by mean profit + lambda x CVaR 5 % (the mean of the worst 5 % of paths) (default ${SCENARIO_DEFAULTS.riskWeight})`, rangeArg(RUN_LIMITS.riskWeight, '0.5'));
 }
 

@@ -20,8 +20,24 @@ export interface CurveProgramRequest {
   /** beta in (0, 1], e.g. 0.05. */
   readonly cvarShare: number;
   readonly solver: SparseLpSolver;
-  /** Most solves before giving up [-]. Default 100. */
+  /** Most solves before giving up [-]. Default 100 (for each penalty). */
   readonly maxRounds?: number;
+  /**
+   * A proximal term towards fixed stored energies f_t (the flat bids'): the objective less
+   * rho sum_{t,k} (n_{t,k} / S) |e_{t,k} - f_t| (n_{t,k}: planning paths in step k), solved for each
+   * rho in turn, from the last basis. Without it the program is solved once, as written.
+   */
+  readonly proximal?: { readonly towardsStoredMwh: ArrayLike<number>; readonly penaltiesPerMwh: readonly number[] };
+}
+
+/** One solution of the program: the curves' stored energy per period and step, and the optimum. */
+export interface CurveSolution {
+  /** rho of the proximal term [currency/MWh] (0 without one). */
+  readonly penaltyPerMwh: number;
+  /** Net change of stored energy e_{t,k} in each period t and step k [MWh], non-increasing in k. */
+  readonly storedMwh: readonly Float64Array[];
+  /** Optimal objective: mean planned profit + lambda x CVaR over the planning paths, less the proximal term [currency]. */
+  readonly objective: number;
 }
 
 export type CurveProgramOutcome =
@@ -34,6 +50,8 @@ export type CurveProgramOutcome =
       /** Solves, and rows added lazily (state of charge and cycle cap) [-]. */
       readonly rounds: number;
       readonly lazyRows: number;
+      /** The solution at each penalty of the proximal term, in its order (one, at 0, without it); the first is storedMwh. */
+      readonly family: readonly CurveSolution[];
     }
   | { readonly status: 'infeasible' | 'unbounded' | 'failed'; readonly reason: string };
 
@@ -68,6 +86,12 @@ export type CurveProgramOutcome =
  * grid units with a binary per path and period against simultaneous flows (test/curves, against HiGHS
  * as a MIP). The one-sided rule em = 0 where planning prices are negative is the one restriction.
  *
+ * With a proximal term (request.proximal) the objective also subtracts rho sum_{t,k} (n_{t,k}/S) u_{t,k},
+ * u_{t,k} >= |e_{t,k} - f_t| (two rows each): the curves are pulled towards the flat bids' stored
+ * energies f_t, as much as the paths that fall in each step; rho = 0 is the program above, rho large
+ * the flat bids. The netting argument holds as it stands (netting ep and em keeps e, hence u). The
+ * program is solved for each rho of the list in turn, keeping every lazy row and the last basis.
+ *
  * Solved with lazy rows: first the monotonicity, end-of-day and risk rows; after each solve every path's
  * states of charge are simulated (cheap), and for each path the prefix row at its most violated time
  * (both bounds in one row: socMin - s_0 <= sum <= socMax - s_0) and, when violated, its cycle-cap row are
@@ -91,7 +115,10 @@ export function solveCurveProgram(request: CurveProgramRequest): CurveProgramOut
   const curveColumns = offset[T] as number;
   const withRisk = riskWeight > 0;
   const etaColumn = curveColumns;
-  const columns = curveColumns + (withRisk ? 1 + S : 0);
+  const proximal = request.proximal;
+  const distanceColumn = curveColumns + (withRisk ? 1 + S : 0);
+  const distanceColumns = proximal === undefined ? 0 : curveColumns / 2;
+  const columns = distanceColumn + distanceColumns;
   const cost = new Float64Array(columns);
   const lower = new Float64Array(columns);
   const upper = new Float64Array(columns);
@@ -123,7 +150,28 @@ export function solveCurveProgram(request: CurveProgramRequest): CurveProgramOut
       cost[etaColumn + 1 + w] = -riskWeight / (cvarShare * S);
     }
   }
+  // The share of the planning paths in each step, n_{t,k} / S, by distance column (the proximal weights).
+  const stepShare = new Float64Array(distanceColumns);
+  if (proximal !== undefined) {
+    for (let t = 0; t < T; t++) for (let w = 0; w < S; w++) {
+      const u = ((offset[t] as number) >> 1) + ((points[t] as PeriodPricePoints).stepOfPath[w] as number);
+      stepShare[u] = (stepShare[u] as number) + 1 / S;
+    }
+    for (let u = 0; u < distanceColumns; u++) upper[distanceColumn + u] = Infinity;
+  }
   const rows = new RowBuilder();
+  if (proximal !== undefined) {
+    // u_{t,k} >= e_{t,k} - f_t and u_{t,k} >= f_t - e_{t,k}.
+    for (let t = 0; t < T; t++) {
+      const f = proximal.towardsStoredMwh[t] as number;
+      for (let k = 0; k <= (points[t] as PeriodPricePoints).breakpoints.length; k++) {
+        const ep = (offset[t] as number) + 2 * k;
+        const u = distanceColumn + (ep >> 1);
+        rows.add([ep, ep + 1, u], [1, -1, -1], -Infinity, f);
+        rows.add([ep, ep + 1, u], [1, -1, 1], f, Infinity);
+      }
+    }
+  }
   for (let t = 0; t < T; t++) {
     const m = (points[t] as PeriodPricePoints).breakpoints.length;
     for (let k = 0; k < m; k++) {
@@ -167,6 +215,10 @@ export function solveCurveProgram(request: CurveProgramRequest): CurveProgramOut
     }
   }
 
+  const penalties = proximal === undefined ? [0] : proximal.penaltiesPerMwh;
+  if (penalties.length === 0 || !penalties.every((rho) => rho >= 0 && Number.isFinite(rho))) throw new RangeError(`solveCurveProgram: penalties ${penalties.join(', ')}; give finite numbers >= 0`);
+  const distanceCost = (rho: number): Float64Array => stepShare.map((share) => -rho * share);
+  if (proximal !== undefined) cost.set(distanceCost(penalties[0] as number), distanceColumn);
   const session = solver.open({ columnCost: cost, columnLower: lower, columnUpper: upper, rows: rows.build() });
   try {
     const tol = 1e-7 * Math.max(1, battery.energyMwh);
@@ -174,7 +226,21 @@ export function solveCurveProgram(request: CurveProgramRequest): CurveProgramOut
     const cap = battery.maxFromStoreMwhPerDay;
     const maxRounds = request.maxRounds ?? 100;
     let lazyRows = 0;
+    let rounds = 0;
+    const family: CurveSolution[] = [];
+    for (const [index, rho] of penalties.entries()) {
+      if (index > 0) session.changeCosts(distanceColumn, distanceCost(rho));
+      const solved = solveLazily(rho);
+      if (!('storedMwh' in solved)) return solved;
+      family.push(solved);
+    }
+    const first = family[0] as CurveSolution;
+    return { status: 'optimal', storedMwh: first.storedMwh, objective: first.objective, rounds, lazyRows, family };
+
+    /** The lazy-row loop at one penalty: solve, add the violated rows, again, until none is violated. */
+    function solveLazily(rho: number): CurveSolution | { status: 'infeasible' | 'unbounded' | 'failed'; reason: string } {
     for (let round = 1; round <= maxRounds; round++) {
+      rounds++;
       const outcome: LpOutcome = session.solve();
       if (outcome.status !== 'optimal') return { status: outcome.status, reason: outcome.detail };
       const x = outcome.columns;
@@ -228,12 +294,13 @@ export function solveCurveProgram(request: CurveProgramRequest): CurveProgramOut
           }
           storedMwh.push(e);
         }
-        return { status: 'optimal', storedMwh, objective: outcome.objective, rounds: round, lazyRows };
+        return { penaltyPerMwh: rho, storedMwh, objective: outcome.objective };
       }
       lazyRows += more.count;
       session.addRows(more.build());
     }
     return { status: 'failed', reason: `no solution within ${maxRounds} solves` };
+    }
   } finally {
     session.close();
   }

@@ -36,6 +36,8 @@ export interface LpSession {
   solve(): LpOutcome;
   /** Adds rows over the existing columns. */
   addRows(rows: SparseRows): void;
+  /** Sets the costs of the columns from..from + costs.length - 1 (the next solve starts from the last basis). */
+  changeCosts(from: number, costs: Float64Array): void;
   /** Frees what the solver holds for this model. */
   close(): void;
 }

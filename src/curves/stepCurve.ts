@@ -27,6 +27,12 @@ export function netSoldFromStored(storedMwh: number, battery: BatteryModel, peri
   return storedMwh < 0 ? (-storedMwh * battery.dischargeEfficiency) / periodHours : 0;
 }
 
+/** The inverse of netSoldFromStored: the change of stored energy [MWh] of a net sale of y MW for dt hours. */
+export function storedFromNetSold(netSoldMw: number, battery: BatteryModel, periodHours: number): number {
+  if (netSoldMw < 0) return -netSoldMw * battery.chargeEfficiency * periodHours;
+  return netSoldMw > 0 ? (-netSoldMw * periodHours) / battery.dischargeEfficiency : 0;
+}
+
 /**
  * A step curve as a stack of limit orders that the auction settles to the curve (settle/periodBid.ts):
  * - a sell of max(y_0, 0) limited at the price floor and a buy of max(-y_m, 0) limited at the price

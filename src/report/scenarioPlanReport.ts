@@ -44,7 +44,7 @@ export function scenarioPlanReport(input: ScenarioPlanReportInput): string {
   const facts: [string, string][] = [
     ['submitted', summary.submitted],
     ['why', summary.why],
-    ['criterion', `mean profit + ${numberText(summary.criterion.riskWeight, 3)} x CVaR 5 %, on ${sc.freshPaths} fresh paths; price-taking is left only for an advantage above ${numberText(summary.criterion.switchStandardErrors, 2)} standard errors`],
+    ['criterion', `mean profit + ${numberText(summary.criterion.riskWeight, 3)} x CVaR 5 %, on ${sc.freshPaths} fresh paths; price-taking is left only for an advantage above ${numberText(summary.criterion.switchStandardErrors, 2)} standard errors, seen on both halves of the fresh paths`],
     ['curves', `planned on ${sc.planningPaths} paths, at most ${sc.curveSteps} steps per period, solver ${sc.solver}`],
     ['imbalance prices', sc.imbalance],
   ];

@@ -12,7 +12,7 @@ const SCENARIO = 'scenarios/halvorn/scenario.json';
 const DAY = '2026-12-07';
 
 describe('quantbid forecast --paths into quantbid plan --policy auto', () => {
-  it('plans the day on the forecast\'s own paths: 20 planning and 20 fresh of 40, every candidate scored, orders written', () => {
+  it('plans the day on the forecast\'s own paths: 20 planning, 10 validation and 10 fresh of 40, every candidate scored, orders written', () => {
     checkBuild();
     const dir = mkdtempSync(join(tmpdir(), 'quantbid-paths-auto-'));
     const forecast = quantbid(['forecast', '--scenario', SCENARIO, '--from', DAY, '--to', DAY, '--paths', '40', '--out', join(dir, 'fc'), '--quiet']);
@@ -26,7 +26,7 @@ describe('quantbid forecast --paths into quantbid plan --policy auto', () => {
     ]);
     expect(plan.code, plan.stderr).toBe(0);
     const summary = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8'));
-    expect(summary.scenarios).toMatchObject({ planningPaths: 20, freshPaths: 20 });
+    expect(summary.scenarios).toMatchObject({ planningPaths: 20, validationPaths: 10, freshPaths: 10 });
     expect(summary.candidates.map((c: { name: string }) => c.name)).toEqual(expect.arrayContaining(['price-taking', 'point', 'curve']));
     expect(summary.inputs.paths).toBe(join(dir, 'fc', 'paths.csv'));
     expect(csvRows(readFileSync(join(out, 'orders.csv'), 'utf8')).length - 1).toBe(summary.orders.rows);

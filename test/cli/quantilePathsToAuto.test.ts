@@ -9,7 +9,7 @@ import { checkBuild, csvRows, quantbid } from './sweepScenario.js';
 // a child process; few paths and days to stay quick.
 
 const SCENARIO = 'scenarios/halvorn/scenario.json';
-const SOURCE = /^quantile file \+ history, Schaake shuffle with the PIT template of \d+ past days, 40 paths per day, seed 1$/;
+const SOURCE = /^quantile file \+ history, Schaake shuffle with the PIT template of \d+ past days, 60 paths per day, seed 1$/;
 
 let dir = '';
 beforeAll(() => {
@@ -27,7 +27,7 @@ describe('curve and auto without --paths', () => {
     expect(second.code, second.stderr).toBe(0);
     for (const name of ['orders.csv', 'plan.json']) expect(readFileSync(join(dir, 'b', name), 'utf8')).toBe(readFileSync(join(dir, 'a', name), 'utf8'));
     const summary = JSON.parse(readFileSync(join(dir, 'a', 'plan.json'), 'utf8'));
-    expect(summary.scenarios).toMatchObject({ planningPaths: 20, freshPaths: 20 });
+    expect(summary.scenarios).toMatchObject({ planningPaths: 20, validationPaths: 20, freshPaths: 20 });
     expect(summary.scenarios.paths).toMatch(SOURCE);
     expect(summary.inputs.paths).toBeUndefined();
     expect(first.stdout).toContain(`  paths: ${summary.scenarios.paths}\n`);
@@ -56,7 +56,7 @@ describe('curve and auto without --paths', () => {
     const run = quantbid(['backtest', '--scenario', SCENARIO, '--from', '2026-06-01', '--to', '2026-06-03', '--policies', 'auto,price-taking', '--planning-paths', '20', '--out', out, '--quiet']);
     expect(run.code, run.stderr).toBe(0);
     const summary = JSON.parse(readFileSync(join(out, 'summary.json'), 'utf8'));
-    expect(summary.scenarioPaths).toMatch(/^quantile file \+ history, Schaake shuffle with the PIT template of \d+ past days on 3 days, 40 paths per day, seed 1$/);
+    expect(summary.scenarioPaths).toMatch(/^quantile file \+ history, Schaake shuffle with the PIT template of \d+ past days on 3 days, 60 paths per day, seed 1$/);
     expect(run.stdout).toContain(`paths: ${summary.scenarioPaths}`);
     const days = csvRows(readFileSync(join(out, 'days.csv'), 'utf8'));
     const policy = (days[0] as string[]).indexOf('policy');

@@ -103,7 +103,7 @@ describe('curve and auto in sweep and size', () => {
     const run = quantbid(['plan', '--scenario', scenario.scenario, '--day', scenario.to, '--policy', 'auto', '--paths', pathsFile, '--planning-paths', '20', '--unaccepted', 'follow-accepted', '--out', out]);
     expectDone(run);
     const plan = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8'));
-    expect(plan.scenarios).toMatchObject({ planningPaths: 20, freshPaths: PATHS_PER_DAY - 20 });
+    expect(plan.scenarios).toMatchObject({ planningPaths: 20, validationPaths: (PATHS_PER_DAY - 20) / 2, freshPaths: (PATHS_PER_DAY - 20) / 2 });
     expect(plan.candidates[0]).toMatchObject({ name: 'price-taking', advantageOverPriceTaking: 0 });
     expect(plan.candidates.map((c: { name: string }) => c.name)).toEqual(expect.arrayContaining(['point', 'quantile 0.1', 'median 0.1', 'curve']));
     expect(plan.candidates.map((c: { name: string }) => c.name)).toContain(plan.submitted);
@@ -139,7 +139,7 @@ describe('curve and auto in sweep and size', () => {
     expectDone(quantbid(['backtest', '--scenario', longer.scenario, ...span, '--policies', 'price-taking,auto', '--planning-paths', '10', '--out', backtestOut, '--quiet']));
     const backtestSummary = JSON.parse(readFileSync(join(backtestOut, 'summary.json'), 'utf8'));
     // 8 and 9 history days before the two days, of which 1 and 2 have a day 7 days before them.
-    const source = 'quantile file + history, Schaake shuffle with the seasonal naive errors template of 1 to 2 past days on 2 days, 20 paths per day, seed 1';
+    const source = 'quantile file + history, Schaake shuffle with the seasonal naive errors template of 1 to 2 past days on 2 days, 30 paths per day, seed 1';
     expect(backtestSummary.scenarioPaths).toBe(source);
     const sweepOut = join(longer.dir, 'sweep');
     const sweep = quantbid(['sweep', '--scenario', longer.scenario, ...span, '--alphas', '0.1', '--policies', 'auto', '--planning-paths', '10', '--threads', '1', '--out', sweepOut, '--quiet']);

@@ -11,7 +11,7 @@ import { evaluateBids } from '../../src/scenarios/evaluateBids.js';
 import { profitDistribution } from '../../src/scenarios/profitDistribution.js';
 import { scenarioSet } from '../../src/scenarios/scenarioSet.js';
 import { loadHighsSolver as loadHighs } from '../reference/highsDayModel.js';
-import { solveExtensiveCurveMip } from '../reference/extensiveCurveMip.js';
+import { solveExtensiveCurveMip, type ExtensiveCurveDay } from '../reference/extensiveCurveMip.js';
 import { SeededRandom } from '../reference/randomDays.js';
 
 // The stored-energy LP of a day of step curves (src/curves/curveProgram.ts), solved with lazy rows,
@@ -24,6 +24,7 @@ import { SeededRandom } from '../reference/randomDays.js';
 // optimum.
 
 const CASES = 250;
+const PROXIMAL_CASES = 60;
 const market = { priceFloor: -500, priceCap: 3000, periodMinutes: 60 } as MarketSpec;
 
 let highs: Highs;
@@ -63,6 +64,22 @@ function randomCase(i: number) {
   return { battery, socStartMwh, socEndMinMwh, prices, steps, riskWeight, T, S };
 }
 
+/** The extensive form of a case, on the steps the program's price points give each path. */
+function extensiveDay(c: ReturnType<typeof randomCase>, points: ReturnType<typeof curvePricePoints>): ExtensiveCurveDay {
+  return {
+    battery: c.battery,
+    periodHours: 1,
+    socStartMwh: c.socStartMwh,
+    socEndMinMwh: c.socEndMinMwh,
+    prices: c.prices,
+    steps: points.map((p) => p.breakpoints.length + 1),
+    stepOf: c.prices.map((_, w) => points.map((p) => p.stepOfPath[w] as number)),
+    sellable: points.map((p) => Array.from(p.sellable, (v) => v === 1)),
+    riskWeight: c.riskWeight,
+    cvarShare: 0.05,
+  };
+}
+
 describe('the curve program against the extensive form (HiGHS MIP)', () => {
   it(`agrees on ${CASES} seeded tiny days, and its curves earn the optimum on the planning paths`, () => {
     let optimal = 0;
@@ -72,18 +89,7 @@ describe('the curve program against the extensive form (HiGHS MIP)', () => {
       const scenarios = scenarioSet(c.prices, c.prices, c.prices);
       const points = curvePricePoints(scenarios, c.steps);
       const lp = solveCurveProgram({ scenarios, points, battery: c.battery, periodHours: 1, socStartMwh: c.socStartMwh, socEndMinMwh: c.socEndMinMwh, riskWeight: c.riskWeight, cvarShare: 0.05, solver });
-      const mip = solveExtensiveCurveMip(highs, {
-        battery: c.battery,
-        periodHours: 1,
-        socStartMwh: c.socStartMwh,
-        socEndMinMwh: c.socEndMinMwh,
-        prices: c.prices,
-        steps: points.map((p) => p.breakpoints.length + 1),
-        stepOf: c.prices.map((_, w) => points.map((p) => p.stepOfPath[w] as number)),
-        sellable: points.map((p) => Array.from(p.sellable, (v) => v === 1)),
-        riskWeight: c.riskWeight,
-        cvarShare: 0.05,
-      });
+      const mip = solveExtensiveCurveMip(highs, extensiveDay(c, points));
       expect(mip.status, `case ${i}`).not.toBe('other');
       expect(lp.status, `case ${i}`).toBe(mip.status);
       if (lp.status !== 'optimal' || mip.status !== 'optimal') {
@@ -106,5 +112,41 @@ describe('the curve program against the extensive form (HiGHS MIP)', () => {
     // The seeded cases cover both outcomes.
     expect(optimal).toBeGreaterThan(CASES / 2);
     expect(infeasible).toBeGreaterThan(0);
+  }, 120_000);
+
+  // The proximal term towards fixed stored energies f_t (the flat bids'), solved for a list of penalties
+  // in turn from the last basis: each member's optimum against the extensive form with the same term,
+  // written in grid units with a binary per step (test/reference/extensiveCurveMip.ts).
+  it(`with the proximal term: every penalty's optimum agrees with the extensive form on ${PROXIMAL_CASES} seeded tiny days`, () => {
+    let compared = 0;
+    let moved = 0;
+    for (let i = 0; i < PROXIMAL_CASES; i++) {
+      const c = randomCase(i);
+      const rng = SeededRandom.fromName(`curve-program-proximal-${i}`);
+      const usable = c.battery.socMaxMwh - c.battery.socMinMwh;
+      const towardsStoredMwh = Array.from({ length: c.T }, () => rng.uniform(-usable / 3, usable / 3));
+      const penaltiesPerMwh = [0, rng.uniform(0.5, 10), rng.uniform(10, 80)];
+      const scenarios = scenarioSet(c.prices, c.prices, c.prices);
+      const points = curvePricePoints(scenarios, c.steps);
+      const lp = solveCurveProgram({ scenarios, points, battery: c.battery, periodHours: 1, socStartMwh: c.socStartMwh, socEndMinMwh: c.socEndMinMwh, riskWeight: c.riskWeight, cvarShare: 0.05, solver, proximal: { towardsStoredMwh, penaltiesPerMwh } });
+      const day = extensiveDay(c, points);
+      if (lp.status !== 'optimal') {
+        expect(solveExtensiveCurveMip(highs, day).status, `case ${i}`).toBe(lp.status);
+        continue;
+      }
+      expect(lp.family.map((m) => m.penaltyPerMwh)).toEqual(penaltiesPerMwh);
+      for (const member of lp.family) {
+        const mip = solveExtensiveCurveMip(highs, { ...day, proximal: { towardsStoredMwh, penaltyPerMwh: member.penaltyPerMwh } });
+        expect(mip.status, `case ${i} rho ${member.penaltyPerMwh}`).toBe('optimal');
+        if (mip.status !== 'optimal') continue;
+        expect(Math.abs(member.objective - mip.objective), `case ${i} rho ${member.penaltyPerMwh}: LP ${member.objective}, MIP ${mip.objective}`).toBeLessThanOrEqual(1e-6 * Math.max(1, Math.abs(mip.objective)));
+        for (const e of member.storedMwh) for (let k = 1; k < e.length; k++) expect(e[k] as number).toBeLessThanOrEqual(e[k - 1] as number);
+        compared++;
+      }
+      // A penalty changes the optimum in some cases (the term is not idle).
+      if (Math.abs((lp.family[2] as (typeof lp.family)[number]).objective - lp.objective) > 1e-6) moved++;
+    }
+    expect(compared).toBeGreaterThan(PROXIMAL_CASES);
+    expect(moved).toBeGreaterThan(PROXIMAL_CASES / 4);
   }, 120_000);
 });

@@ -16,6 +16,12 @@ import { HIGHS_EXACT_OPTIONS } from './highsDayModel.js';
  *   sum_t dt d_{w,t} / eta_d <= maxFromStoreMwhPerDay (energy out of the store)
  *   P_w = sum_t dt ( (pi - deg) d - pi c )
  * Objective, maximised: (1/S) sum_w P_w + lambda (eta - (1/(beta S)) sum_w z_w), z_w >= eta - P_w, z >= 0.
+ *
+ * With a proximal term (towards f_t [MWh] at penalty rho): the objective also subtracts
+ * rho sum_{t,k} (n_{t,k}/S) |e_{t,k} - f_t|, e_{t,k} the change of stored energy of step k's quantity,
+ * written here from its grid quantity: y = yp - ym, yp <= dischargeMw g, ym <= chargeMw (1 - g), g binary,
+ * e = eta_c dt ym - dt yp / eta_d (a discharge of yp MW takes yp dt / eta_d out of the store, a charge of
+ * ym MW puts eta_c ym dt in), u >= e - f, u >= f - e.
  */
 export interface ExtensiveCurveDay {
   readonly battery: BatteryModel;
@@ -30,6 +36,7 @@ export interface ExtensiveCurveDay {
   readonly sellable: readonly (readonly boolean[])[];
   readonly riskWeight: number;
   readonly cvarShare: number;
+  readonly proximal?: { readonly towardsStoredMwh: readonly number[]; readonly penaltyPerMwh: number };
 }
 
 export function solveExtensiveCurveMip(highs: Highs, day: ExtensiveCurveDay): { status: 'optimal'; objective: number } | { status: 'infeasible' | 'other' } {
@@ -50,6 +57,11 @@ export function solveExtensiveCurveMip(highs: Highs, day: ExtensiveCurveDay): { 
   const zCol = n + 1;
   const withRisk = day.riskWeight > 0;
   if (withRisk) n += 1 + S;
+  // Proximal term: per step yp, ym, g, u.
+  const proximalBase = n;
+  let stepCount = 0;
+  for (let t = 0; t < T; t++) stepCount += day.steps[t] as number;
+  if (day.proximal !== undefined) n += 4 * stepCount;
   const cost = new Float64Array(n);
   const lower = new Float64Array(n);
   const upper = new Float64Array(n);
@@ -88,6 +100,21 @@ export function solveExtensiveCurveMip(highs: Highs, day: ExtensiveCurveDay): { 
       cost[zCol + w] = -day.riskWeight / (day.cvarShare * S);
     }
   }
+  const proximalColumn = (t: number, k: number, part: number) => proximalBase + 4 * ((yOffset[t] as number) + k) + part; // 0 yp, 1 ym, 2 g, 3 u
+  if (day.proximal !== undefined) {
+    for (let t = 0; t < T; t++) {
+      for (let k = 0; k < (day.steps[t] as number); k++) {
+        let share = 0;
+        for (let w = 0; w < S; w++) if ((day.stepOf[w] as readonly number[])[t] === k) share += 1 / S;
+        upper[proximalColumn(t, k, 0)] = b.dischargeMw;
+        upper[proximalColumn(t, k, 1)] = b.chargeMw;
+        upper[proximalColumn(t, k, 2)] = 1;
+        integrality[proximalColumn(t, k, 2)] = 1;
+        upper[proximalColumn(t, k, 3)] = inf;
+        cost[proximalColumn(t, k, 3)] = -day.proximal.penaltyPerMwh * share;
+      }
+    }
+  }
   const starts = [0];
   const indices: number[] = [];
   const values: number[] = [];
@@ -101,6 +128,20 @@ export function solveExtensiveCurveMip(highs: Highs, day: ExtensiveCurveDay): { 
     rowUpper.push(hi);
   };
   for (let t = 0; t < T; t++) for (let k = 0; k + 1 < (day.steps[t] as number); k++) row([(yOffset[t] as number) + k, (yOffset[t] as number) + k + 1], [1, -1], -inf, 0);
+  if (day.proximal !== undefined) {
+    for (let t = 0; t < T; t++) {
+      const f = day.proximal.towardsStoredMwh[t] as number;
+      for (let k = 0; k < (day.steps[t] as number); k++) {
+        const [yp, ym, g, u] = [0, 1, 2, 3].map((part) => proximalColumn(t, k, part)) as [number, number, number, number];
+        row([(yOffset[t] as number) + k, yp, ym], [1, -1, 1], 0, 0);
+        row([yp, g], [1, -b.dischargeMw], -inf, 0);
+        row([ym, g], [1, b.chargeMw], -inf, b.chargeMw);
+        // e = eta_c dt ym - dt yp / eta_d; u >= e - f and u >= f - e.
+        row([u, ym, yp], [1, -b.chargeEfficiency * dt, dt / b.dischargeEfficiency], -f, inf);
+        row([u, ym, yp], [1, b.chargeEfficiency * dt, -dt / b.dischargeEfficiency], f, inf);
+      }
+    }
+  }
   for (let w = 0; w < S; w++) {
     for (let t = 0; t < T; t++) {
       const j = (day.stepOf[w] as readonly number[])[t] as number;

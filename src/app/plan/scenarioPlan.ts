@@ -80,7 +80,7 @@ export function scenarioPlan(request: ScenarioPlanRequest, hooks: RunHooks): Don
   const context = {
     day, policy, market, inputs: { ...request.inputs, ...(scenarios.paths === undefined ? {} : { paths: scenarios.paths }) }, scenarioPaths: runPaths.source, periods: forecast.periods, socStartMwh, socEndMinMwh, unaccepted: request.unaccepted,
     riskWeight: scenarios.riskWeight, switchStandardErrors: planning.switchStandardErrors,
-    planningPaths: made.planning.pathCount, freshPaths: made.fresh.pathCount, curveSteps: planning.curveSteps,
+    planningPaths: made.planning.pathCount, validationPaths: made.validation.pathCount, freshPaths: made.fresh.pathCount, curveSteps: planning.curveSteps,
     imbalance: imbalance.description, solver: request.solver.name,
   };
   const summary = scenarioPlanSummary(choice, orders, context);

@@ -1,5 +1,5 @@
 import type { DeliveryPeriod, MarketSpec, Order } from '../../types.js';
-import type { AutoChoice, CandidateScore } from '../../backtest/autoChoice.js';
+import { onBothHalves, type AutoChoice, type CandidateScore } from '../../backtest/autoChoice.js';
 import { formatNumber } from '../../io/formatNumber.js';
 import type { ProfitDistribution } from '../../scenarios/profitDistribution.js';
 
@@ -16,6 +16,8 @@ export interface ScenarioPlanContext {
   readonly riskWeight: number;
   readonly switchStandardErrors: number;
   readonly planningPaths: number;
+  /** Paths the curves' penalty was chosen on (apart from the planning and the fresh ones). */
+  readonly validationPaths: number;
   readonly freshPaths: number;
   /** Where the paths came from: the --paths file, or the quantile file and the history (quantilePaths.ts). */
   readonly scenarioPaths: string;
@@ -75,7 +77,7 @@ export function scenarioPlanSummary(choice: AutoChoice, orders: readonly Order[]
     why: whyText(choice, context.switchStandardErrors),
     unaccepted: context.unaccepted,
     criterion: { riskWeight: context.riskWeight, cvarShare: 0.05, switchStandardErrors: context.switchStandardErrors },
-    scenarios: { paths: context.scenarioPaths, planningPaths: context.planningPaths, freshPaths: context.freshPaths, curveSteps: context.curveSteps, imbalance: context.imbalance, solver: context.solver },
+    scenarios: { paths: context.scenarioPaths, planningPaths: context.planningPaths, validationPaths: context.validationPaths, freshPaths: context.freshPaths, curveSteps: context.curveSteps, imbalance: context.imbalance, solver: context.solver },
     candidates: choice.scores.map(candidateRow),
     orders: { rows: orders.length, buys: buys.length, sells: sells.length, boughtMwhIfAllAccepted: mwh(buys), soldMwhIfAllAccepted: mwh(sells) },
   };
@@ -87,9 +89,12 @@ export function whyText(choice: AutoChoice, z: number): string {
   const { mean, standardError } = best.advantage;
   if (choice.best === 0) return 'price-taking has the highest value on the fresh paths';
   const numbers = `${formatNumber(mean, 2)} over price-taking, standard error ${formatNumber(standardError, 2)}`;
-  return choice.chosen === choice.best
-    ? `${best.candidate.name} has the highest value, ${numbers}: more than ${formatNumber(z, 2)} standard errors`
-    : `${best.candidate.name} has the highest value, ${numbers}: not more than ${formatNumber(z, 2)} standard errors, so price-taking`;
+  if (choice.chosen === choice.best) return `${best.candidate.name} has the highest value, ${numbers}: more than ${formatNumber(z, 2)} standard errors, and ahead on both halves of the fresh paths`;
+  if (mean > z * standardError && !onBothHalves(best)) {
+    const halves = best.halfAdvantages.map((h) => formatNumber(h, 2)).join(' and ');
+    return `${best.candidate.name} has the highest value, ${numbers}: more than ${formatNumber(z, 2)} standard errors, but not ahead on both halves of the fresh paths (${halves}), so price-taking`;
+  }
+  return `${best.candidate.name} has the highest value, ${numbers}: not more than ${formatNumber(z, 2)} standard errors, so price-taking`;
 }
 
 /** The candidate table as console text, one line per candidate. */

@@ -8,7 +8,7 @@ import { fitImbalanceSpread, type SpreadDay } from '../../scenarios/imbalanceSpr
 import { formatNumber } from '../../io/formatNumber.js';
 import { chooseImbalanceSource } from '../../settle/imbalancePrices.js';
 
-/** Fewest paths a day must have: a planning set and a fresh set of at least 10 each [-]. */
+/** Fewest paths a day must have: a planning set of at least 10 and a validation and a fresh set of at least 5 each [-]. */
 export const MIN_DAY_PATHS = 20;
 
 /** Most past days the imbalance spread model learns from [days] (a year, as the forecasters use). */
@@ -64,8 +64,9 @@ export function imbalancePathSource(day: string, inputs: Pick<ScenarioInputs, 'm
 }
 
 /**
- * Scenarios from a paths file: the day's paths clamped into [floor, cap], P of them (evenly spread over
- * the file's order, path indices floor(k n / P)) for planning and the others fresh; each with its
+ * Scenarios from a paths file: the day's paths clamped into [floor, cap], P = min(planning paths, n / 2)
+ * of them (evenly spread over the file's order, path indices floor(k n / P)) for planning, and of the
+ * others alternately one for fresh and one for validation (the curves' strength); each with its
  * imbalance prices (imbalancePathSource).
  *
  * @throws InputError for a day without paths or with fewer than MIN_DAY_PATHS
@@ -82,10 +83,13 @@ export function pathScenarioSource(inputs: ScenarioInputs): DayScenarioSource {
     const planningCount = Math.min(inputs.planningPaths, Math.floor(n / 2));
     const planningIndex = new Set(Array.from({ length: planningCount }, (_, k) => Math.floor((k * n) / planningCount)));
     const planning = clamped.filter((_, j) => planningIndex.has(j));
-    const fresh = clamped.filter((_, j) => !planningIndex.has(j));
+    const others = clamped.filter((_, j) => !planningIndex.has(j));
+    const validation = others.filter((_, j) => j % 2 === 1);
+    const fresh = others.filter((_, j) => j % 2 === 0);
     const median = forecast.prices.map((row) => priceAtLevel(forecast.levels, row, 0.5));
     const { source } = imbalancePathSource(forecast.day, inputs);
-    return { planning: dayScenarios(planning, forecast.periods, median, source), fresh: dayScenarios(fresh, forecast.periods, median, source) };
+    const set = (chosen: number[][]) => dayScenarios(chosen, forecast.periods, median, source);
+    return { planning: set(planning), validation: set(validation), fresh: set(fresh) };
   };
 }
 

@@ -23,8 +23,8 @@ export interface RunScenarioPaths {
  * dependence from the PIT template of the file's past days, or the history's seasonal naive errors
  * when it has fewer than 28) given only forecast days before D and history days before D: at gate
  * closure, the day before delivery, nothing of D is known. Each day is drawn with daySeed(seed, D), so a
- * day's paths do not depend on the span around it. n per day: twice the planning paths (the planning
- * set and as many fresh), at least MIN_DAY_PATHS.
+ * day's paths do not depend on the span around it. n per day: three times the planning paths (the
+ * planning set, and as many validation and fresh paths), at least MIN_DAY_PATHS.
  */
 export function quantileScenarioPaths(request: {
   readonly forecastDays: ReadonlyMap<string, QuantileDay>;
@@ -69,9 +69,9 @@ function madeOrNoTemplate<T>(day: string, make: () => T): T {
   }
 }
 
-/** Paths per day made from a quantile file: a planning set and a fresh set as large, at least MIN_DAY_PATHS [-]. */
+/** Paths per day made from a quantile file: a planning set and a validation and a fresh set as large, at least MIN_DAY_PATHS [-]. */
 export function quantilePathCount(planningPaths: number): number {
-  return Math.max(MIN_DAY_PATHS, 2 * planningPaths);
+  return Math.max(MIN_DAY_PATHS, 3 * planningPaths);
 }
 
 /**

@@ -50,6 +50,9 @@ export async function loadHighsSolver(): Promise<SparseLpSolver> {
             matrix: { format: 'csr', numRows: more.lower.length, numCols: n, starts: more.starts, indices: more.indices, values: more.values },
           });
         },
+        changeCosts(from: number, costs: Float64Array): void {
+          if (costs.length > 0) model.changeColsCost({ kind: 'range', from, to: from + costs.length - 1 }, costs);
+        },
         close(): void {
           model.dispose();
         },

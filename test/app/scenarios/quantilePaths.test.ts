@@ -56,13 +56,13 @@ function pathsOf(text: { forecast: string; history: string }, options: { days?: 
 const bytes = (made: ReturnType<typeof pathsOf>, day = DAY): string => JSON.stringify(made.paths.days.get(day));
 
 describe('paths made from the quantile file and the history', () => {
-  it('gives each planned day twice the planning paths, over every period, with the source and seed named', () => {
+  it('gives each planned day three times the planning paths, over every period, with the source and seed named', () => {
     const made = pathsOf(inputs());
     const paths = made.paths.days.get(DAY) as readonly (readonly number[])[];
     expect(paths).toHaveLength(quantilePathCount(15));
     expect(paths.every((p) => p.length === 24 && p.every(Number.isFinite))).toBe(true);
     // 32 forecast days before 2026-04-02 with their prices: the PIT template (at least 28 of them).
-    expect(made.source).toBe('quantile file + history, Schaake shuffle with the PIT template of 32 past days, 30 paths per day, seed 1');
+    expect(made.source).toBe('quantile file + history, Schaake shuffle with the PIT template of 32 past days, 45 paths per day, seed 1');
   });
 
   it('are deterministic for a seed, and another seed gives other paths', () => {
@@ -87,7 +87,7 @@ describe('paths made from the quantile file and the history', () => {
   it('fall back to the seasonal naive errors of the history with fewer than 28 past forecast days', () => {
     const made = pathsOf(inputs(), { days: ['2026-03-20'] });
     // 19 days before 2026-03-20, of which the 12 from 2026-03-08 have a day 7 days before them.
-    expect(made.source).toBe('quantile file + history, Schaake shuffle with the seasonal naive errors template of 12 past days, 30 paths per day, seed 1');
+    expect(made.source).toBe('quantile file + history, Schaake shuffle with the seasonal naive errors template of 12 past days, 45 paths per day, seed 1');
   });
 
   it('are refused without a paths file and without a history, naming both ways out', () => {
