@@ -1,7 +1,8 @@
 import type { GridAxis } from '../grid/gridAxis.js';
 import type { TableRow } from '../grid/gridCsv.js';
 import type { SettingOf } from '../grid/expandGrid.js';
-import { interruptedMessage, runGrid, type GridOptions, type GridOutcome, type GridResult } from '../grid/runGrid.js';
+import { interruptedMessage, runGrid, type GridOptions, type GridOutcome, type GridResult, type MoreSetting } from '../grid/runGrid.js';
+import type { PoolWorkers } from '../grid/workerPool.js';
 import { stopOnSignals } from '../grid/stopOnSignals.js';
 import type { GridRow } from '../grid/taskModule.js';
 import type { BacktestInputData, BacktestInputPaths } from '../io/readBacktestInputs.js';
@@ -28,7 +29,7 @@ export async function runCommandGrid<const Axes extends readonly GridAxis[], Inp
   label: string,
   options: Omit<GridOptions<Axes, Input, Row>, 'signal' | 'onProgress'>,
 ): Promise<Extract<GridOutcome<SettingOf<Axes>, Row>, { status: 'complete' }> | Interrupted> {
-  const total = options.axes.reduce((product, axis) => product * axis.values.length, 1);
+  const total = options.axes.reduce((product, axis) => product * axis.values.length, 1) + (options.moreSettings?.length ?? 0);
   const progress = hooks.progress(label, total);
   const stop = stopOnSignals((text) => hooks.warn(text));
   let outcome: GridOutcome<SettingOf<Axes>, Row>;
@@ -60,9 +61,14 @@ export interface GridCommand<Axes extends readonly GridAxis[], Input, Row extend
   readonly moreInputFiles?: readonly string[];
   /** The forecasts --model made, or undefined. */
   readonly model: ModelForecast | undefined;
-  readonly summary: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => Summary;
-  /** Lines of the table after the settings (runGrid's moreRows), e.g. the sweep's reference policies. */
-  readonly moreRows?: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => readonly TableRow[];
+  /** The summary of the finished grid and of the rows of moreSettings. */
+  readonly summary: (results: readonly GridResult<SettingOf<Axes>, Row>[], more: readonly TableRow[]) => Summary;
+  /** Settings besides the grid's (runGrid's moreSettings), e.g. the sweep's reference policies. */
+  readonly moreSettings?: readonly MoreSetting[];
+  /** The group of a setting (runGrid's groupOf), e.g. the sweep's unaccepted rule. */
+  readonly groupOf?: (setting: MoreSetting) => string;
+  /** Workers started ahead (startPoolWorkers), which runGrid runs on and stops. */
+  readonly workers?: PoolWorkers;
   readonly report: (results: readonly GridResult<SettingOf<Axes>, Row>[], summary: Summary) => string;
   readonly summaryText: (summary: Summary, resumed: number, files: readonly string[]) => string;
 }
@@ -78,8 +84,8 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
 ): Promise<Done<Summary> | Interrupted> {
   type Results = readonly GridResult<SettingOf<Axes>, Row>[];
   let made: { readonly results: Results; readonly summary: Summary } | undefined;
-  const summaryOf = (results: Results): Summary => {
-    if (made?.results !== results) made = { results, summary: spec.summary(results) };
+  const summaryOf = (results: Results, more: readonly TableRow[]): Summary => {
+    if (made?.results !== results) made = { results, summary: spec.summary(results, more) };
     return made.summary;
   };
   const { run, model } = spec;
@@ -96,14 +102,16 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
     lock: spec.lock,
     csvName: `${spec.command}.csv`,
     optionalOutputs: ['report.html'],
-    ...(spec.moreRows === undefined ? {} : { moreRows: spec.moreRows }),
-    moreOutputs: (results) => [
-      { name: 'summary.json', text: jsonText(summaryOf(results)) },
-      ...(run.report ? [{ name: 'report.html', text: spec.report(results, summaryOf(results)) }] : []),
+    ...(spec.moreSettings === undefined ? {} : { moreSettings: spec.moreSettings }),
+    ...(spec.groupOf === undefined ? {} : { groupOf: spec.groupOf }),
+    ...(spec.workers === undefined ? {} : { workers: spec.workers }),
+    moreOutputs: (results, more) => [
+      { name: 'summary.json', text: jsonText(summaryOf(results, more)) },
+      ...(run.report ? [{ name: 'report.html', text: spec.report(results, summaryOf(results, more)) }] : []),
     ],
   });
   if (outcome.status === 'interrupted') return outcome;
-  const summary = summaryOf(outcome.results);
+  const summary = summaryOf(outcome.results, outcome.more);
   return { status: 'done', summary, text: `${spec.summaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}` };
 }
 

@@ -88,14 +88,23 @@ export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, mem
   return rowOf(input, run, unaccepted, memo);
 }
 
+/** A reference setting of a sweep: a reference policy under a rule, alpha empty. */
+export type SweepReferenceSetting = SweepReferenceRow['setting'];
+
 /**
- * The reference rows of a sweep, in the order of the rules and then SWEEP_REFERENCE_POLICIES: each
- * reference policy run under each rule, with the same columns as a setting's row.
+ * The reference settings of a sweep, in the order of their rows: the rules, and within each
+ * SWEEP_REFERENCE_POLICIES.
  */
-export function sweepReferenceRows(input: BacktestInput, rules: readonly UnacceptedRule[], memo: RunMemo<PolicyRun> = new RunMemo()): SweepReferenceRow[] {
-  return rules.flatMap((unaccepted) =>
-    SWEEP_REFERENCE_POLICIES.map((policy) => ({ setting: { alpha: null, policy, unaccepted }, row: rowOf(input, reference(input, policy, unaccepted, memo), unaccepted, memo) })),
-  );
+export function sweepReferenceSettings(rules: readonly UnacceptedRule[]): SweepReferenceSetting[] {
+  return rules.flatMap((unaccepted) => SWEEP_REFERENCE_POLICIES.map((policy) => ({ alpha: null, policy, unaccepted })));
+}
+
+/**
+ * The row of a reference policy under a rule, with the same columns as a setting's; its run, and the
+ * other references of the rule, are kept in `memo` for the settings of that rule.
+ */
+export function sweepReferenceRow(input: BacktestInput, setting: SweepReferenceSetting, memo: RunMemo<PolicyRun>): SweepRow {
+  return rowOf(input, reference(input, setting.policy, setting.unaccepted, memo), setting.unaccepted, memo);
 }
 
 function reference(input: BacktestInput, policy: BacktestPolicy, unaccepted: UnacceptedRule, memo: RunMemo<PolicyRun>): PolicyRun {

@@ -1,6 +1,5 @@
 import { z } from 'zod';
-import { batteryModel } from '../../battery/batterySpec.js';
-import { SWEEP_POLICIES, sweepReferenceRows, type SweepReferenceRow, type SweepResult } from '../../backtest/sweepSettingRow.js';
+import { SWEEP_POLICIES, sweepReferenceSettings, type SweepReferenceRow, type SweepResult } from '../../backtest/sweepSettingRow.js';
 import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
@@ -71,10 +70,6 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
     // spread is learnt from the history before each day) and shared: none reads or parses a file again.
     const span = inputDataSpan(data, from, to);
     const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(scenarios === undefined ? span : data), ...(scenarios === undefined ? {} : { scenarios }) };
-    // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
-    let references: SweepReferenceRow[] | undefined;
-    const referenceRows = (): SweepReferenceRow[] =>
-      (references ??= sweepReferenceRows({ market: span.market, battery: batteryModel(span.batterySpec), history: span.history, forecast: span.forecast, from, to }, s.unaccepted));
     return runGridCommand(
       {
         command: 'sweep',
@@ -87,8 +82,12 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
         paths,
         moreInputFiles: scenarios?.settings.paths === undefined ? [] : [scenarios.settings.paths],
         model,
-        summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext, ...(scenarios === undefined ? {} : { scenarioPaths: scenarios.source }) }),
-        moreRows: () => referenceRows(),
+        summary: (results: readonly SweepResult[], references) =>
+          sweepSummary(results, { from, to, data, paths, axes, references: references as readonly SweepReferenceRow[], ...modelContext, ...(scenarios === undefined ? {} : { scenarioPaths: scenarios.source }) }),
+        // The reference rows (point, price-taking, perfect foresight per rule) run as settings; a thread
+        // keeps to one rule while it can, so that it runs that rule's references once for all its settings.
+        moreSettings: sweepReferenceSettings(s.unaccepted),
+        groupOf: (setting) => String(setting.unaccepted),
         report: (results, summary) => sweepReport({ results, summary }),
         summaryText: sweepSummaryText,
       },
