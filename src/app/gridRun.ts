@@ -29,7 +29,7 @@ export async function runCommandGrid<const Axes extends readonly GridAxis[], Inp
   label: string,
   options: Omit<GridOptions<Axes, Input, Row>, 'signal' | 'onProgress'>,
 ): Promise<Extract<GridOutcome<SettingOf<Axes>, Row>, { status: 'complete' }> | Interrupted> {
-  const total = options.axes.reduce((product, axis) => product * axis.values.length, 1) + (options.moreSettings?.length ?? 0);
+  const total = options.axes.reduce((product, axis) => product * axis.values.length, 1);
   const progress = hooks.progress(label, total);
   const stop = stopOnSignals((text) => hooks.warn(text));
   let outcome: GridOutcome<SettingOf<Axes>, Row>;

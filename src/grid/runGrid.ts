@@ -76,7 +76,7 @@ export interface GridOptions<Axes extends readonly GridAxis[] = readonly GridAxi
   readonly lock?: OutputLock;
   /** Abort (e.g. on SIGINT) to stop starting settings; the running ones finish and are kept. */
   readonly signal?: AbortSignal;
-  /** Called with the settings done (resumed ones included) once before work and after each one. */
+  /** Called with the grid's settings done (resumed ones included; the more settings not counted) once before work and after each one. */
   readonly onProgress?: (done: number, total: number) => void;
   /** The clock for the journal header's start time. Default `() => new Date()`. */
   readonly now?: () => Date;
@@ -202,13 +202,13 @@ async function runLockedGrid<const Axes extends readonly GridAxis[], Input, Row 
       throw damagedJournal(journal, err instanceof Error ? err.message.replace(/^the sweep task returned /, 'a row with ') : String(err), entry.line);
     }
   }
-  // Settings of the grid taken from the journal (the more settings are not counted).
-  const resumed = entries.filter((entry) => (indexOf.get(entry.key) as number) < grid.length).length;
-  let done = entries.length;
-  o.onProgress?.(done, points.length);
+  // Progress, resumes and messages count the grid's settings; the more settings run after them.
+  const inGrid = (key: string): boolean => (indexOf.get(key) as number) < grid.length;
+  const resumed = entries.filter((entry) => inGrid(entry.key)).length;
+  let done = resumed;
+  o.onProgress?.(done, grid.length);
 
-  // The more settings first: a sweep's reference rows are where its threads do their groups' shared work.
-  const jobs: PoolJob[] = [...more, ...grid]
+  const jobs: PoolJob[] = points
     .filter((point) => rows[point.index] === undefined)
     .map((point) => ({ id: point.index, key: point.key, setting: point.setting as GridPoint['setting'], ...(o.groupOf === undefined ? {} : { group: o.groupOf(point.setting) }) }));
   let status: PoolStatus;
@@ -220,13 +220,14 @@ async function runLockedGrid<const Axes extends readonly GridAxis[], Input, Row 
       diskStep(o.outDir, journal, done, () => writer.append(line));
       // Kept as the journal holds it, so a resumed run writes the same bytes as an uninterrupted one.
       keep(job.key, (JSON.parse(line) as JournalLineEntry).row);
+      if (!inGrid(job.key)) return;
       done++;
-      o.onProgress?.(done, points.length);
+      o.onProgress?.(done, grid.length);
     });
   } finally {
     writer.close();
   }
-  if (status === 'stopped') return { status: 'interrupted', total: points.length, done, journal };
+  if (status === 'stopped') return { status: 'interrupted', total: grid.length, done, journal };
 
   // Every row passed checkRow; that it has the columns of `Row` is the task module's contract with the caller.
   const complete = rows as Row[];
