@@ -4,6 +4,7 @@ import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
 import { lockedGridRun, runGridCommand } from '../gridRun.js';
+import type { PoolWorkers } from '../../grid/workerPool.js';
 import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
@@ -52,9 +53,18 @@ export type SweepSummary = ReturnType<typeof sweepSummary>;
 /**
  * `quantbid sweep`: a backtest of every setting of the grid alpha x policy x unaccepted rule on the
  * grid engine (this thread and worker threads, resumable), into sweep.csv, summary.json and, when
- * asked, report.html.
+ * asked, report.html. `workers`, started ahead with startSweepWorkers(settings.threads), boot while
+ * the inputs are read; they are stopped however the sweep ends.
  */
-export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QUIET_HOOKS): Promise<Done<SweepSummary> | Interrupted> {
+export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QUIET_HOOKS, workers?: PoolWorkers): Promise<Done<SweepSummary> | Interrupted> {
+  try {
+    return await sweepOnWorkers(settings, hooks, workers);
+  } finally {
+    await workers?.stop();
+  }
+}
+
+async function sweepOnWorkers(settings: SweepSettings, hooks: RunHooks, workers: PoolWorkers | undefined): Promise<Done<SweepSummary> | Interrupted> {
   const s = validSettings(sweepSettingsSchema, settings, 'sweep');
   const { from, to } = s;
   const axes = [
@@ -88,6 +98,7 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
         // keeps to one rule while it can, so that it runs that rule's references once for all its settings.
         moreSettings: sweepReferenceSettings(s.unaccepted),
         groupOf: (setting) => String(setting.unaccepted),
+        ...(workers === undefined ? {} : { workers }),
         report: (results, summary) => sweepReport({ results, summary }),
         summaryText: sweepSummaryText,
       },
