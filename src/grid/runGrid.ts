@@ -225,7 +225,7 @@ async function runLockedGrid<const Axes extends readonly GridAxis[], Input, Row 
       o.onProgress?.(done, grid.length);
     });
   } finally {
-    writer.close();
+    await writer.close();
   }
   if (status === 'stopped') return { status: 'interrupted', total: grid.length, done, journal };
 
