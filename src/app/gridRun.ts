@@ -13,7 +13,7 @@ import { runInputFiles } from './inputFiles.js';
 import { lockedRun } from './lockedRun.js';
 import type { LevelUse } from './forecastLevels.js';
 import type { Done, Interrupted } from './commandResult.js';
-import { forecastMaker, gridInputFiles, type ModelForecast } from './modelForecast.js';
+import type { ModelForecast } from './modelForecast.js';
 import { packageVersion } from './packageInfo.js';
 import type { RunHooks } from './runHooks.js';
 import { readRunInputs, requireCoveredDay, runInputPaths } from './runInputs.js';
@@ -95,7 +95,7 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
     taskModule: spec.taskModule,
     contextInput: spec.contextInput,
     identity: { command: spec.command, version: packageVersion(), ...spec.identity, ...(model === undefined ? {} : { forecastModel: model.identity }) },
-    inputFiles: [...gridInputFiles(spec.paths), ...(spec.moreInputFiles ?? [])],
+    inputFiles: [...inputFilesOf(spec.paths), ...(spec.moreInputFiles ?? [])],
     ...(run.threads === undefined ? {} : { threads: run.threads }),
     restart: run.restart,
     force: run.force,
@@ -134,7 +134,12 @@ type GridInputSettings = { readonly inputs: InputSources; readonly model?: Model
 export function lockedGridRun<R>(settings: GridInputSettings, command: 'sweep' | 'size', use: LevelUse, hooks: RunHooks, body: (inputs: GridInputs, lock: OutputLock) => Promise<R>): Promise<R> {
   const paths = runInputPaths(settings.inputs, settings.model);
   checkOutputFolder(settings.out, [`${command}.csv`, 'summary.json', ...(settings.report ? ['report.html'] : [])], settings.force, runInputFiles(settings.inputs, paths));
-  return lockedRun(settings.out, command, (lock) => body(readGridInputs(settings, paths, use, hooks), lock as OutputLock));
+  return lockedRun(settings.out, command, async (lock) => body(await readGridInputs(settings, paths, use, hooks), lock as OutputLock));
+}
+
+/** The input files a grid's resume fingerprint covers: the forecast file only when one is read. */
+function inputFilesOf(paths: BacktestInputPaths): string[] {
+  return [paths.market, paths.battery, paths.history, ...(paths.forecast === undefined ? [] : [paths.forecast])];
 }
 
 /**
@@ -143,8 +148,9 @@ export function lockedGridRun<R>(settings: GridInputSettings, command: 'sweep' |
  * with at least one covered day; with --model the forecasts are made here, once, before the workers
  * start.
  */
-function readGridInputs(settings: GridInputSettings, paths: BacktestInputPaths, use: LevelUse, hooks: RunHooks): GridInputs {
-  const maker = forecastMaker(settings.model, paths.history, settings, hooks);
+async function readGridInputs(settings: GridInputSettings, paths: BacktestInputPaths, use: LevelUse, hooks: RunHooks): Promise<GridInputs> {
+  // The forecasting code loads only for --model: a grid on a forecast file starts without it.
+  const maker = settings.model === undefined ? undefined : (await import('./modelForecast.js')).forecastMaker(settings.model, paths.history, settings, hooks);
   const data = readRunInputs(paths, use, maker, hooks, true);
   requireCoveredDay(data, paths, settings.from, settings.to);
   return { paths, data, model: maker?.made() };

@@ -139,7 +139,3 @@ export function inputsShown(paths: BacktestInputPaths, model: ModelSettings | un
   return model === undefined ? files : { ...files, model: model.method };
 }
 
-/** The input files a grid's resume fingerprint covers: the forecast file only when one is read. */
-export function gridInputFiles(paths: BacktestInputPaths): string[] {
-  return [paths.market, paths.battery, paths.history, ...(paths.forecast === undefined ? [] : [paths.forecast])];
-}

@@ -1,6 +1,5 @@
 import { z } from 'zod';
 import { SWEEP_POLICIES, sweepReferenceSettings, type SweepReferenceRow, type SweepResult } from '../../backtest/sweepSettingRow.js';
-import { sweepReport } from '../../report/sweepReport.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
 import { lockedGridRun, runGridCommand } from '../gridRun.js';
@@ -73,6 +72,8 @@ async function sweepOnWorkers(settings: SweepSettings, hooks: RunHooks, workers:
     { name: 'unaccepted', option: '--unaccepted', values: s.unaccepted },
   ] as const;
   const use = { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' };
+  // The report's code loads only when report.html is asked for.
+  const { sweepReport } = s.report ? await import('../../report/sweepReport.js') : { sweepReport: undefined };
   return lockedGridRun(s, 'sweep', use, hooks, ({ paths, data, model }, lock) => {
     const modelContext = model === undefined ? {} : { forecastModel: model.summary };
     const scenarios = gridScenarioInput(s.policies, s.scenarios, { data, marketFile: paths.market, from, to });
@@ -99,7 +100,10 @@ async function sweepOnWorkers(settings: SweepSettings, hooks: RunHooks, workers:
         moreSettings: sweepReferenceSettings(s.unaccepted),
         groupOf: (setting) => String(setting.unaccepted),
         ...(workers === undefined ? {} : { workers }),
-        report: (results, summary) => sweepReport({ results, summary }),
+        report: (results, summary) => {
+          if (sweepReport === undefined) throw new Error('sweep: report.html asked for without its code loaded');
+          return sweepReport({ results, summary });
+        },
         summaryText: sweepSummaryText,
       },
       hooks,
