@@ -129,6 +129,11 @@ export class PoolWorkers {
     this.threads = Array.from({ length: count }, () => new PoolThread(taskModuleUrl));
   }
 
+  /** Workers started and neither taken by a pool nor stopped. */
+  get waiting(): number {
+    return this.threads.length;
+  }
+
   /** Up to `count` of the workers for a pool, started more where too few; the rest are stopped. */
   take(count: number): PoolThread[] {
     const taken = this.threads.splice(0, count);
