@@ -139,6 +139,8 @@ export function journalName(csvName: string): string {
 export async function runGrid<const Axes extends readonly GridAxis[], Input = unknown, Row extends GridRow = GridRow>(options: GridOptions<Axes, Input, Row>): Promise<GridOutcome<SettingOf<Axes>, Row>> {
   try {
     const o = { ...GRID_RUN_DEFAULTS, ...options };
+    // Workers started ahead build their context while this thread checks the folder and the journal.
+    o.workers?.sendContext(o.contextInput);
     const threads = checkedThreads(o.threads ?? defaultThreads());
     const grid = expandGrid(o.axes, { maxSettings: o.maxSettings });
     const more = morePoints(o.axes, grid.length, o.moreSettings ?? []);

@@ -90,6 +90,8 @@ class PoolThread {
   private lostReason: string | undefined;
   private onLost: ((reason: string) => void) | undefined;
   private onResult: ((message: ResultMessage) => void) | undefined;
+  private contextSent = false;
+  private contextInput: unknown;
 
   constructor(taskModuleUrl: string) {
     this.worker = new Worker(new URL('./poolWorker.js', import.meta.url), { workerData: { taskModuleUrl } satisfies WorkerInit });
@@ -100,12 +102,23 @@ class PoolThread {
     this.worker.on('exit', (code) => this.lose(`stopped with exit code ${code}`));
   }
 
-  /** Hands the worker to a pool: its context, and where its results and its loss go. */
+  /** Sends the context input, once: the worker builds its context while the pool is made ready. */
+  sendContext(contextInput: unknown): void {
+    if (this.contextSent) {
+      if (contextInput !== this.contextInput) throw new Error('a pool worker was given two context inputs');
+      return;
+    }
+    this.contextSent = true;
+    this.contextInput = contextInput;
+    this.worker.postMessage({ type: 'context', contextInput } satisfies ToWorkerMessage);
+  }
+
+  /** Hands the worker to a pool: its context (unless sent already), and where its results and its loss go. */
   attach(contextInput: unknown, onResult: (message: ResultMessage) => void, onLost: (reason: string) => void): void {
     this.worker.ref();
     this.onResult = onResult;
     this.onLost = onLost;
-    this.worker.postMessage({ type: 'context', contextInput } satisfies ToWorkerMessage);
+    this.sendContext(contextInput);
     if (this.lostReason !== undefined) onLost(this.lostReason);
   }
 
@@ -132,6 +145,14 @@ export class PoolWorkers {
   /** Workers started and neither taken by a pool nor stopped. */
   get waiting(): number {
     return this.threads.length;
+  }
+
+  /**
+   * Sends the workers their context input before their pool runs (runGrid does so as it starts, before
+   * it fingerprints the inputs and opens the journal); the pool must run with the same input.
+   */
+  sendContext(contextInput: unknown): void {
+    for (const thread of this.threads) thread.sendContext(contextInput);
   }
 
   /** Up to `count` of the workers for a pool, started more where too few; the rest are stopped. */
