@@ -1,21 +1,13 @@
 import type { UnacceptedRule } from '../settle/settleDay.js';
 import { smallPValueText } from '../stats/smallPValue.js';
-import { readsAlpha, type BacktestPolicy } from './backtestPolicy.js';
+import { readsAlpha, SWEEP_REFERENCE_POLICIES, type BacktestPolicy, type SweepPolicy, type SweepReferencePolicy } from './backtestPolicy.js';
 import { edgeTest, type EdgeTest } from './edgeTest.js';
 import { policyMetrics } from './policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from './policyRun.js';
 import type { BacktestInput } from './runBacktest.js';
 import type { ScenarioPlanning } from './scenarioPlanning.js';
-import type { SweepPolicy } from './backtestPolicy.js';
 
-export { SWEEP_POLICIES, type SweepPolicy } from './backtestPolicy.js';
-
-/**
- * The reference policies whose rows sweep.csv carries after the grid, once per rule: they do not
- * depend on alpha, and every setting is read against them.
- */
-export const SWEEP_REFERENCE_POLICIES = Object.freeze(['point', 'price-taking', 'perfect-foresight'] as const);
-export type SweepReferencePolicy = (typeof SWEEP_REFERENCE_POLICIES)[number];
+export { SWEEP_POLICIES, SWEEP_REFERENCE_POLICIES, type SweepPolicy, type SweepReferencePolicy } from './backtestPolicy.js';
 
 /** One setting of `quantbid sweep`. */
 export type SweepSetting = {

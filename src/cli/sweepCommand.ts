@@ -99,7 +99,7 @@ Examples:
   command.action(async (flags: SweepFlags) => {
     const { from, to, out } = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'sweep.csv and summary.json' });
     // The workers boot while the use case loads and reads the inputs.
-    const workers = (await import('../app/sweep/sweepWorkers.js')).startSweepWorkers(flags.threads);
+    const workers = (await import('../app/sweep/sweepWorkers.js')).startSweepWorkers(flags);
     try {
       const { sweepAxesFromText, sweepUseCase } = await import('../app/sweep/sweepUseCase.js');
       const axes = sweepAxesFromText(flags);

@@ -258,8 +258,8 @@ function runOnThreads(jobs: readonly PoolJob[], url: string, threads: number, op
       const positions = queued[w] as number[];
       const position = positions[0];
       positions.length = 0;
-      // Lost between settings, it may have been on a group whose jobs no other thread would join.
-      if (position === undefined) fail(jobs.length, new Error(`a sweep worker thread ${reason} between settings`));
+      // Lost between settings (or before its first): no new setting starts, and the loss is what the pool reports.
+      if (position === undefined) fail(-1, new Error(`a sweep worker thread ${reason} between settings`));
       else fail(position, new Error(`a sweep worker thread ${reason} while running setting ${jobs[position]?.key}`));
       settleIfIdle();
     };

@@ -322,6 +322,16 @@ describe('runGrid refusals and failures', () => {
     expect(grouped.message).toBe(single.message);
   });
 
+  it('a worker thread that exits before its first setting stops the grid, and the loss is reported', async () => {
+    const c = exampleCase('worker-exit');
+    const module = join(c.dir, 'exitInWorker.mjs');
+    writeFileSync(module, `import { isMainThread } from 'node:worker_threads';\nif (!isMainThread) process.exit(3);\nexport { run, loadContext } from ${JSON.stringify(pathToFileURL(EXAMPLE_TASK).href)};\n`);
+    const workers = sweep.startPoolWorkers(module, 2);
+    const err = await rejection(sweep.runGrid(c.options('out', { threads: 2, taskModule: module, workers, context: { spinMs: 20 } })));
+    expect(err.message).toMatch(/^a sweep worker thread stopped with exit code 3 (between settings|while running setting alpha=)/);
+    expect(existsSync(join(c.dir, 'out', 'sweep.csv'))).toBe(false);
+  });
+
   it.each([1, 2])('a module without run is refused (%s threads)', async (threads) => {
     const c = exampleCase(`no-run-${threads}`);
     const module = join(c.dir, 'noRun.mjs');
