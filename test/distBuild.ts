@@ -22,5 +22,12 @@ export function checkBuild(): void {
       stale.push(relative(ROOT, source));
     }
   }
+  // The launcher starts `quantbid plan` from the bundle of the compiled CLI (scripts/bundlePlanCli.mjs).
+  const bundle = join(ROOT, 'dist', 'bundle', 'main.js');
+  try {
+    if (statSync(bundle).mtimeMs < statSync(join(ROOT, 'dist', 'cli', 'main.js')).mtimeMs) stale.push('dist/bundle (older than dist/cli)');
+  } catch {
+    stale.push('dist/bundle (missing)');
+  }
   if (stale.length > 0) throw new Error(`dist/ is missing or older than ${stale.slice(0, 5).join(', ')}${stale.length > 5 ? ` and ${stale.length - 5} more` : ''}: run \`npm run build\` first`);
 }

@@ -87,11 +87,12 @@ Examples:
       force: flags.force === true,
       report: flags.report === true,
     };
-    const { planUseCase } = await import('../app/plan/planUseCase.js');
+    // The plan without the validation library when nothing is wrong (planFastPath.ts).
+    const { planFastPath } = await import('../app/plan/planFastPath.js');
     // HiGHS is loaded only for the policies that plan on scenarios: other plans never pay its start-up.
     const onScenarios = flags.policy === 'curve' || flags.policy === 'auto';
     const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
-    printResult(io, planUseCase(settings, cliHooks(io, false), tools), flags.json === true);
+    printResult(io, await planFastPath(settings, cliHooks(io, false), tools), flags.json === true);
   });
   return command;
 }

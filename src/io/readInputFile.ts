@@ -154,15 +154,31 @@ export const MAX_INFLATION_RATIO = 100;
 /** Inflated size always allowed [bytes], whatever the ratio: a small file is cheap however it compresses. */
 export const INFLATION_FLOOR_BYTES = 16 * 1024 * 1024;
 
-/** Output chunk of the gzip decompression [bytes]. */
+/** Output chunk of the gzip decompression [bytes] when the file does not tell its inflated size. */
 const GUNZIP_CHUNK_BYTES = 1024 * 1024;
+/** Largest single output chunk [bytes]: a file that says it inflates to more is inflated in chunks of this. */
+const MAX_GUNZIP_CHUNK_BYTES = 64 * 1024 * 1024;
+
+/**
+ * The output chunk for inflating `bytes` [bytes]: the inflated size the gzip trailer gives (ISIZE, the
+ * size modulo 2^32 of the last member: RFC 1952 section 2.3.1) plus one byte, so that the whole output
+ * lands in one buffer and is never copied into another; at most `limit` + 1 and MAX_GUNZIP_CHUNK_BYTES.
+ * The trailer only sizes the buffer: a wrong or forged one costs more chunks or a larger allocation
+ * within those bounds, never a different result.
+ */
+function gunzipChunkBytes(bytes: Buffer, limit: number): number {
+  if (bytes.length < 18) return GUNZIP_CHUNK_BYTES;
+  const inflated = bytes.readUInt32LE(bytes.length - 4);
+  return Math.max(GUNZIP_CHUNK_BYTES, Math.min(inflated + 1, limit + 1, MAX_GUNZIP_CHUNK_BYTES));
+}
 
 function gunzipBytes(path: string, bytes: Buffer, maxBytes: number): Buffer {
   const byRatio = Math.max(INFLATION_FLOOR_BYTES, bytes.length * MAX_INFLATION_RATIO);
   const limit = Math.min(maxBytes, byRatio);
   try {
-    // Output in chunks of a MiB, not 16 KiB: a tenth less work and far fewer buffers to join.
-    return gunzipSync(bytes, { maxOutputLength: limit, chunkSize: GUNZIP_CHUNK_BYTES });
+    // Output in one chunk of the inflated size where the trailer tells it (else a MiB, not 16 KiB): no
+    // buffers to join, a quarter less work than in chunks of a MiB.
+    return gunzipSync(bytes, { maxOutputLength: limit, chunkSize: gunzipChunkBytes(bytes, limit) });
   } catch (err) {
     if ((err as NodeJS.ErrnoException).code === 'ERR_BUFFER_TOO_LARGE' || err instanceof RangeError) {
       if (limit < maxBytes) {

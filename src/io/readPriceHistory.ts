@@ -2,7 +2,7 @@ import type { DeliveryPeriod, HistoryDay, MarketSpec, PriceHistory } from '../ty
 import { DayCalendar } from '../market/dayCalendar.js';
 import { InputError, ProblemList } from '../errors/inputError.js';
 import { shownText } from '../errors/shownText.js';
-import { PRICE_LIMIT_PER_MWH } from '../market/marketSpec.js';
+import { PRICE_LIMIT_PER_MWH } from '../market/marketLimits.js';
 import { hasOpenQuote, openQuoteProblem, parseDecimal, splitCsv, splitCsvLine, type CsvRow, type CsvTable } from './csvText.js';
 import { PeriodLocator } from './periodLocator.js';
 import { PlainRow } from './plainRow.js';

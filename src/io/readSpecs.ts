@@ -1,10 +1,13 @@
 import { z } from 'zod';
 import type { BatterySpec, MarketSpec } from '../types.js';
 import { BATTERY_FIELD_FIXES, parseBatterySpec } from '../battery/batterySpec.js';
-import { MARKET_FIELD_FIXES, OLD_IMBALANCE_FIELD, parseMarketSpec } from '../market/marketSpec.js';
+import { MARKET_FIELD_FIXES, parseMarketSpec } from '../market/marketSpec.js';
 import { InputError } from '../errors/inputError.js';
-import { lineOfJsonPath, parseJsonText, stripBom, zodProblems } from './jsonProblems.js';
+import { parseJsonText, zodProblems } from './jsonProblems.js';
 import { readInputFile } from './readInputFile.js';
+import { MAX_SPEC_BYTES, oldFieldNote } from './specFile.js';
+
+export { MAX_SPEC_BYTES } from './specFile.js';
 
 /**
  * Parses JSON text with a zod-checked parser; every problem (with line and field) goes into one
@@ -25,9 +28,6 @@ export function parseJsonSpec<T>(
   return result.data;
 }
 
-/** Largest spec file [bytes]: a spec holds a dozen numbers, so anything bigger is the wrong file. */
-export const MAX_SPEC_BYTES = 1024 * 1024;
-
 /**
  * Reads `market.json`. The rule under its old name `fallback` is read as `imbalance`, and `note` (when
  * given) hears one line saying so and asking to rename the field.
@@ -35,10 +35,8 @@ export const MAX_SPEC_BYTES = 1024 * 1024;
 export function readMarketSpec(path: string, note?: (text: string) => void): MarketSpec {
   const text = readInputFile(path, { maxBytes: MAX_SPEC_BYTES });
   const spec = parseJsonSpec(text, path, parseMarketSpec, MARKET_FIELD_FIXES);
-  if (note !== undefined && Object.hasOwn(JSON.parse(stripBom(text)) as object, OLD_IMBALANCE_FIELD)) {
-    const line = lineOfJsonPath(text, [OLD_IMBALANCE_FIELD]);
-    note(`note: ${path}${line === undefined ? '' : `:${line}`}: the field "${OLD_IMBALANCE_FIELD}" is read as "imbalance"; rename it to "imbalance"\n`);
-  }
+  const said = note === undefined ? undefined : oldFieldNote(path, text);
+  if (said !== undefined) note?.(said);
   return spec;
 }
 

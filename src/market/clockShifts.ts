@@ -1,4 +1,4 @@
-import { DateTime } from 'luxon';
+import { Info, Settings, type Zone } from 'luxon';
 
 /**
  * Years over which a market spec's zone is checked for clock shifts (inclusive): recent and coming
@@ -29,7 +29,18 @@ export function unevenClockShift(timeZone: string, periodMinutes: number): numbe
 }
 
 function firstUnevenShift(timeZone: string, periodMinutes: number): number | null {
-  const offset = (year: number, month: number) => DateTime.fromObject({ year, month, day: 1 }, { zone: timeZone }).offset;
+  const zone = Info.normalizeZone(timeZone);
+  const nowOffset = zone.offset(Settings.now());
+  const offsets = new Map<number, number>();
+  const offset = (year: number, month: number): number => {
+    const key = year * 12 + month;
+    let found = offsets.get(key);
+    if (found === undefined) {
+      found = wallClockOffset(zone, Date.UTC(year, month - 1, 1), nowOffset);
+      offsets.set(key, found);
+    }
+    return found;
+  };
   let uneven: number | null = null;
   const consider = (shift: number) => {
     const size = Math.abs(shift);
@@ -41,4 +52,28 @@ function firstUnevenShift(timeZone: string, periodMinutes: number): number | nul
     if (year < CLOCK_SHIFT_YEARS.to) consider(offset(year + 1, 1) - january);
   }
   return uneven;
+}
+
+/**
+ * The offset [min] of `timeZone` at the wall-clock time `localMs` (epoch ms of that local time read as
+ * if it were UTC), as the zone library gives it for a date built from its fields:
+ * `DateTime.fromObject({ year, month, day, hour, minute }, { zone }).offset`, without building the date
+ * (test/market/clockShifts.test.ts compares the two).
+ */
+export function localTimeOffset(timeZone: string, localMs: number): number {
+  const zone = Info.normalizeZone(timeZone);
+  return wallClockOffset(zone, localMs, zone.offset(Settings.now()));
+}
+
+/**
+ * luxon's own search (fixOffset): from the offset now, at most two lookups; in a skipped hour, the
+ * offset after it.
+ */
+function wallClockOffset(zone: Zone, localMs: number, nowOffset: number): number {
+  let utcGuess = localMs - nowOffset * 60_000;
+  const second = zone.offset(utcGuess);
+  if (second === nowOffset) return nowOffset;
+  utcGuess -= (second - nowOffset) * 60_000;
+  const third = zone.offset(utcGuess);
+  return second === third ? second : Math.max(second, third);
 }

@@ -2,13 +2,9 @@ import { z } from 'zod';
 import { hasInvisible } from '../errors/shownText.js';
 import { isValidTimeZone } from './calendar.js';
 import { unevenClockShift } from './clockShifts.js';
+import { GATE_CLOSURE_PATTERN, IMBALANCE_RULE_KIND, isMultipleOf, MAX_CURRENCY_LENGTH, MAX_QUANTITY_STEP_MW, MIN_PRICE_TICK_PER_MWH, MIN_QUANTITY_STEP_MW, OLD_IMBALANCE_FIELD, PRICE_LIMIT_PER_MWH } from './marketLimits.js';
 
-/**
- * Largest size of a price a market spec or a price history may give [currency/MWh]: 1,000,000 is above
- * every day-ahead market's cap in its own currency (4000 EUR, 17,500 AUD, 251,000 JPY when converted
- * from JEPX's 251 JPY/kWh; common practice), and keeps sums over decades of periods far from overflow.
- */
-export const PRICE_LIMIT_PER_MWH = 1_000_000;
+export { isMultipleOf, MAX_QUANTITY_STEP_MW, MIN_PRICE_TICK_PER_MWH, MIN_QUANTITY_STEP_MW, OLD_IMBALANCE_FIELD, PRICE_LIMIT_PER_MWH } from './marketLimits.js';
 
 /** A number of a spec in [lo, hi]; Infinity (JSON's 1e999) and NaN are out of that range too. */
 const bounded = (what: string, lo: number, hi: number) =>
@@ -29,7 +25,7 @@ const text = (what: string) =>
  */
 const ruleSchema = (key: string) =>
   z.strictObject({
-    kind: z.literal('clearing-plus-penalty', { error: `${key}.kind must be "clearing-plus-penalty"` }),
+    kind: z.literal(IMBALANCE_RULE_KIND, { error: `${key}.kind must be "${IMBALANCE_RULE_KIND}"` }),
     /** Penalty added against the operator [currency/MWh], >= 0. */
     penaltyPerMwh: bounded('penaltyPerMwh', 0, PRICE_LIMIT_PER_MWH),
   });
@@ -52,34 +48,9 @@ export const bidCurvesSchema = z.strictObject({
     .optional(),
 });
 
-/**
- * Largest quantity step and minimum quantity accepted [MW]: exchanges trade in steps of 0.1 MW or 1 MW,
- * so a step above this is a unit mistake (kW for MW), not a market.
- */
-export const MAX_QUANTITY_STEP_MW = 1000;
-
-/**
- * Smallest quantity step and minimum quantity accepted [MW]: 1 kW, far below any exchange's step, and
- * large enough that a day's energy divided by it stays a modest whole number (a step of 1e-320 MW
- * overflows the rounding arithmetic).
- */
-export const MIN_QUANTITY_STEP_MW = 0.001;
-
-/** Smallest price tick accepted [currency/MWh]: 0.0001, below any exchange's tick (0.01 is common practice). */
-export const MIN_PRICE_TICK_PER_MWH = 0.0001;
-
 /** A number in [min, max], with messages that name the field. */
 const stepField = (what: string, min: number, max: number, unit: string) =>
   finite(what).min(min, `${what} must be at least ${min} ${unit}`).max(max, `${what} must be at most ${max} ${unit}; check the unit`);
-
-/** Whether x is a whole multiple of step, up to floating-point dust (1e-9 of a step). */
-export function isMultipleOf(x: number, step: number): boolean {
-  const k = x / step;
-  return Math.abs(k - Math.round(k)) <= 1e-9 * Math.max(1, Math.abs(k));
-}
-
-/** The old name of the field `imbalance`, still read (docs/design.md section 2). */
-export const OLD_IMBALANCE_FIELD = 'fallback';
 
 /** Schema of `market.json` (docs/design.md section 8), with sanity checks that say what to fix. */
 export const marketSpecSchema = z
@@ -97,11 +68,11 @@ export const marketSpecSchema = z
     /** Currency label printed beside prices, e.g. `EUR` or an invented one. Required. */
     currency: text('currency')
       .min(1, 'currency must not be empty')
-      .max(16, 'currency must be a short label of at most 16 characters')
+      .max(MAX_CURRENCY_LENGTH, `currency must be a short label of at most ${MAX_CURRENCY_LENGTH} characters`)
       .refine((label) => !hasInvisible(label) && label.trim() === label, 'currency must be printable text without control characters or blanks around it'),
     /** Gate closure, local time of day on the day before delivery, `HH:MM`. Required. */
     gateClosure: text('gateClosure')
-      .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'gateClosure must be a local time HH:MM'),
+      .regex(GATE_CLOSURE_PATTERN, 'gateClosure must be a local time HH:MM'),
     /** Rule for the imbalance (balancing) price where a history has none. Default: none (required then). */
     imbalance: imbalanceRuleSchema.optional(),
     /** How the exchange takes bid curves (the `curve` and `auto` policies). Default: step curves, no limit. */

@@ -1,4 +1,16 @@
-import solver, { type SolveResult } from 'javascript-lp-solver';
+import { createRequire } from 'node:module';
+import type solverModule from 'javascript-lp-solver';
+import type { SolveResult } from 'javascript-lp-solver';
+
+/**
+ * javascript-lp-solver, loaded the first time an LP is solved (through its CommonJS build, which loads
+ * synchronously): the day solver seldom needs it, and a plan should not pay its start-up.
+ */
+let loadedSolver: typeof solverModule | undefined;
+function solver(): typeof solverModule {
+  loadedSolver ??= createRequire(import.meta.url)('javascript-lp-solver') as typeof solverModule;
+  return loadedSolver;
+}
 
 /**
  * A linear program in the row form javascript-lp-solver reads: each variable lists its coefficient
@@ -30,7 +42,7 @@ export interface LpSolver {
 export const javascriptLpSolver: LpSolver = {
   name: 'javascript-lp-solver',
   solve(model: LpModel): LpResult {
-    const raw = solver.Solve({
+    const raw = solver().Solve({
       optimize: model.objectiveRow,
       opType: model.direction,
       constraints: model.constraints as Record<string, { max?: number; min?: number; equal?: number }>,

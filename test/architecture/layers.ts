@@ -56,8 +56,12 @@ export const MAY_IMPORT: Readonly<Record<Layer, readonly Layer[]>> = {
   index: domainAnd('io', 'grid', 'report', 'app'),
 };
 
-/** Packages the domain may use besides its own folders: validation, time zones, the LP solver, hashing. */
-export const DOMAIN_PACKAGES: readonly string[] = ['zod', 'luxon', 'javascript-lp-solver', 'node:crypto'];
+/**
+ * Packages the domain may use besides its own folders: validation, time zones, the LP solver, hashing,
+ * and node:module's createRequire, with which plan/lpSolver.ts loads the LP solver (its CommonJS build,
+ * synchronously) on the first LP instead of at start-up: a plan seldom needs it.
+ */
+export const DOMAIN_PACKAGES: readonly string[] = ['zod', 'luxon', 'javascript-lp-solver', 'node:crypto', 'node:module'];
 
 /**
  * Packages loaded only when a run needs them, by `await import(...)`, and only from these folders:

@@ -30,5 +30,15 @@ describe('quantbid forecast --paths into quantbid plan --policy auto', () => {
     expect(summary.candidates.map((c: { name: string }) => c.name)).toEqual(expect.arrayContaining(['price-taking', 'point', 'curve']));
     expect(summary.inputs.paths).toBe(join(dir, 'fc', 'paths.csv'));
     expect(csvRows(readFileSync(join(out, 'orders.csv'), 'utf8')).length - 1).toBe(summary.orders.rows);
+    // That forecast file holds the planned day only, so no past day has a forecast to measure the
+    // surprise from: the imbalance spread is resampled without it.
+    expect(summary.scenarios.imbalance).toMatch(/resampled whole \(too few past forecast days/);
+    // With the scenario's own two-year quantile file, its past days give the surprise the spread is fitted on.
+    const withPast = quantbid([
+      'plan', '--scenario', SCENARIO, '--day', DAY, '--policy', 'auto', '--paths', join(dir, 'fc', 'paths.csv'),
+      '--planning-paths', '20', '--unaccepted', 'follow-accepted', '--json',
+    ]);
+    expect(withPast.code, withPast.stderr).toBe(0);
+    expect(JSON.parse(withPast.stdout).scenarios.imbalance).toMatch(/^history's imbalance - clearing spread on the surprise, fitted on \d+ days/);
   }, 300_000);
 });

@@ -1,5 +1,5 @@
 import { spawnSync } from 'node:child_process';
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -18,15 +18,31 @@ const register = join(folder, 'register.mjs');
 writeFileSync(register, `import { register } from 'node:module';\nregister(${JSON.stringify(pathToFileURL(hooks).href)});\n`);
 afterAll(() => rmSync(folder, { recursive: true, force: true }));
 
-/** The modules `quantbid ...args` loads, as paths relative to the package root (or node: names). */
-function loadedModules(args: readonly string[]): string[] {
+/**
+ * The modules `quantbid ...args` loads, as paths relative to the package root (or node: names). A file
+ * of the bundle that `quantbid plan` starts from (dist/bundle/) stands for the compiled modules it
+ * joins, which the bundler names in a comment line `// dist/...js` at the start of each; `files` keeps
+ * the bundle's files as they are.
+ */
+function loadedModules(args: readonly string[], files: 'modules' | 'files' = 'modules'): string[] {
   const result = spawnSync(process.execPath, ['--import', pathToFileURL(register).href, 'bin/quantbid.js', ...args], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
   expect(result.status, result.stderr).toBe(0);
+  const loaded = loadedLines(result.stderr);
+  return files === 'files' ? loaded : loaded.flatMap((m) => (m.startsWith('dist/bundle/') ? bundledModules(m) : [m]));
+}
+
+function loadedLines(stderr: string): string[] {
   const root = pathToFileURL(ROOT).href;
-  return result.stderr
+  return stderr
     .split('\n')
     .filter((line) => line.startsWith('loaded '))
     .map((line) => line.slice('loaded '.length).replace(`${root}/`, ''));
+}
+
+function bundledModules(file: string): string[] {
+  const joined = [...readFileSync(join(ROOT, file), 'utf8').matchAll(/^\/\/ (dist\/\S+\.js)$/gm)].map((match) => match[1] as string);
+  // A bundle file that joins no module is the bundler's own helper.
+  return joined.length > 0 ? joined : [file];
 }
 
 /**
@@ -59,7 +75,36 @@ describe('start-up: what --version and --help load', () => {
   });
 
   it('a command that runs loads its use case (the hook sees what a run loads)', () => {
+    const modules = loadedModules(['backtest', '--scenario', 'scenarios/halvorn/scenario.json', '--from', '2026-03-01', '--to', '2026-03-01', '--out', join(folder, 'backtest'), '--quiet']);
+    expect(modules).toContain('dist/app/backtest/backtestUseCase.js');
+    expect(modules.some((m) => m.includes('node_modules/zod/'))).toBe(true);
+  });
+});
+
+describe('start-up: what a plan loads', () => {
+  // `quantbid plan` starts from the bundle of the compiled CLI (dist/bundle/), and the demo day's plan
+  // is checked by the hand-written checks (app/plan/planFastPath.ts): no module of dist/cli or the rest
+  // of dist/, no validation library, no report code, no LP library (the day solver does not need it),
+  // no history reader.
+  it('the demo day\'s plan loads the bundle\'s run and none of the validation library, the report, the LP library or the history reader', () => {
+    const files = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--json'], 'files');
+    expect(files).toContain('dist/bundle/main.js');
+    expect(files.filter((m) => /^dist\/(?!bundle\/)/.test(m))).toEqual([]);
     const modules = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--json']);
+    expect(modules).toContain('dist/app/plan/planRun.js');
+    expect(modules).toContain('dist/io/readQuantileForecastDay.js');
+    expect(modules.filter((m) => /node_modules\/(zod|javascript-lp-solver)\/|^dist\/report\/|readPriceHistory|planUseCase/.test(m))).toEqual([]);
+  });
+
+  it('a plan whose market.json has a problem loads the schemas to word it', () => {
+    const bad = join(folder, 'bad');
+    mkdirSync(bad);
+    const demo = join(ROOT, 'scenarios', 'halvorn');
+    writeFileSync(join(bad, 'market.json'), readFileSync(join(demo, 'market.json'), 'utf8').replace('"priceCap"', '"priceCapp"'));
+    const result = spawnSync(process.execPath, ['--import', pathToFileURL(register).href, 'bin/quantbid.js', 'plan', '--market', join(bad, 'market.json'), '--battery', join(demo, 'battery.json'), '--forecast', join(demo, 'quantiles.csv.gz'), '--day', '2027-01-01'], { cwd: ROOT, encoding: 'utf8', timeout: 60_000 });
+    expect(result.status).toBe(2);
+    expect(result.stderr).toContain('priceCapp: unknown field');
+    const modules = loadedLines(result.stderr).flatMap((m) => (m.startsWith('dist/bundle/') ? bundledModules(m) : [m]));
     expect(modules).toContain('dist/app/plan/planUseCase.js');
     expect(modules.some((m) => m.includes('node_modules/zod/'))).toBe(true);
   });

@@ -124,7 +124,7 @@ function plansMissing(result: BacktestResult): { day: string; policy: string; st
   );
 }
 
-/** The short human summary printed on stdout. */
+/** The short human summary printed on stdout; `sourceLines` (where the scenario paths came from) go just before the files written. */
 export function backtestSummaryText(
   result: BacktestResult,
   metrics: BacktestMetrics,
@@ -132,6 +132,7 @@ export function backtestSummaryText(
   outDir: string,
   written: readonly string[] = ['ledger.csv', 'days.csv', 'summary.json'],
   unrounded?: BacktestMetrics,
+  sourceLines: readonly string[] = [],
 ): string {
   const money = (x: number | null) => (x === null ? '-' : formatNumber(x, 0));
   const share = (x: number | null) => (x === null ? '-' : `${formatNumber(100 * x, 1)}%`);
@@ -152,6 +153,7 @@ export function backtestSummaryText(
     ...roundingLine(market, metrics, unrounded),
     ...edgeLines(metrics, market.currency),
     ...missingLine(result),
+    ...sourceLines,
     `  wrote ${outDir}/${written.join(', ')}`,
   ];
   return `${lines.join('\n')}\n`;

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { batteryModel } from '../../battery/batterySpec.js';
+import { batteryModel } from '../../battery/batteryModel.js';
 import { backtestMetrics, type BacktestMetrics } from '../../backtest/backtestMetrics.js';
 import { exchangeSteps, withoutExchangeSteps } from '../../plan/exchangeRounding.js';
 import type { UnacceptedRule } from '../../settle/settleDay.js';
@@ -114,7 +114,7 @@ function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: Backtest
     if (s.report) stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
     stage.commit();
     if (summary.yearlyFigures.warning !== null) hooks.note(`warning: ${summary.yearlyFigures.warning}\n`);
-    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded)}${scenarioPaths === null ? '' : `  paths: ${scenarioPaths.source}\n`}${model?.note ?? ''}` };
+    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded, scenarioPaths === null ? [] : [`  paths: ${scenarioPaths.source}`])}${model?.note ?? ''}` };
   } finally {
     stage.discard();
   }

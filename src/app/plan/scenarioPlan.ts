@@ -57,13 +57,15 @@ export function scenarioPlan(request: ScenarioPlanRequest, hooks: RunHooks): Don
   const problems: InputProblem[] = [];
   const historyPath = request.inputs['history'];
   const history = historyPath === undefined ? null : (gatherProblems(problems, () => readPriceHistory(historyPath, market, (text) => hooks.note(text))) ?? null);
-  // Paths made from the quantile file need its past days too: the whole file is read only then.
+  // Paths made from the quantile file, and the imbalance spread on the surprise (fitted on the history's
+  // days that have a forecast), need the file's past days: the whole file is read only then.
   const forecastPath = request.inputs['forecast'];
-  const pastForecast = scenarios.paths !== undefined || forecastPath === undefined ? request.forecastFile : gatherProblems(problems, () => readQuantileForecast(forecastPath, market));
+  const needsPast = forecastPath !== undefined && (scenarios.paths === undefined || history !== null);
+  const pastForecast = needsPast ? gatherProblems(problems, () => readQuantileForecast(forecastPath, market)) : request.forecastFile;
   if ((historyPath !== undefined && history === null) || pastForecast === undefined) throw new InputError(problems);
   const runPaths = runScenarioPaths(scenarios, { market, history, forecastDays: pastForecast.days, days: [day], policies: [policy] });
-  const imbalance = imbalancePathSource(day, { market, history, forecastDays: request.forecastFile.days });
-  const planning = scenarioPlanningOf(scenarios, { market, history, forecast: request.forecastFile, tools: { lpSolver: request.solver }, paths: runPaths.paths });
+  const imbalance = imbalancePathSource(day, { market, history, forecastDays: pastForecast.days });
+  const planning = scenarioPlanningOf(scenarios, { market, history, forecast: pastForecast, tools: { lpSolver: request.solver }, paths: runPaths.paths });
   const made = planning.scenarios(forecast);
   const socEndMinMwh = battery.socFinalMinMwh ?? socStartMwh;
   const plan = planPolicyDay({

@@ -28,6 +28,11 @@ describe('backtest summary', () => {
     expect(summary.policies.quantile?.profit).toBeCloseTo(856, 6);
     expect(backtestSummaryText(result, metrics, market, 'out')).toMatch(/3 days covered, 2 skipped[\s\S]*quantile +856 /);
   });
+
+  it('the line naming the scenario paths comes before the files written, which end the summary', () => {
+    const text = backtestSummaryText(result, metrics, market, 'out', undefined, undefined, ['  paths: from --paths p.csv']);
+    expect(text.endsWith('  paths: from --paths p.csv\n  wrote out/ledger.csv, days.csv, summary.json\n')).toBe(true);
+  });
 });
 
 describe('yearly figures from three days are flagged as extrapolated', () => {
