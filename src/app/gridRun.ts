@@ -1,7 +1,8 @@
 import type { GridAxis } from '../grid/gridAxis.js';
 import type { TableRow } from '../grid/gridCsv.js';
 import type { SettingOf } from '../grid/expandGrid.js';
-import { interruptedMessage, runGrid, type GridOptions, type GridOutcome, type GridResult } from '../grid/runGrid.js';
+import { interruptedMessage, runGrid, type GridOptions, type GridOutcome, type GridResult, type MoreSetting } from '../grid/runGrid.js';
+import type { PoolWorkers } from '../grid/workerPool.js';
 import { stopOnSignals } from '../grid/stopOnSignals.js';
 import type { GridRow } from '../grid/taskModule.js';
 import type { BacktestInputData, BacktestInputPaths } from '../io/readBacktestInputs.js';
@@ -12,7 +13,7 @@ import { runInputFiles } from './inputFiles.js';
 import { lockedRun } from './lockedRun.js';
 import type { LevelUse } from './forecastLevels.js';
 import type { Done, Interrupted } from './commandResult.js';
-import { forecastMaker, gridInputFiles, type ModelForecast } from './modelForecast.js';
+import type { ModelForecast } from './modelForecast.js';
 import { packageVersion } from './packageInfo.js';
 import type { RunHooks } from './runHooks.js';
 import { readRunInputs, requireCoveredDay, runInputPaths } from './runInputs.js';
@@ -60,9 +61,14 @@ export interface GridCommand<Axes extends readonly GridAxis[], Input, Row extend
   readonly moreInputFiles?: readonly string[];
   /** The forecasts --model made, or undefined. */
   readonly model: ModelForecast | undefined;
-  readonly summary: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => Summary;
-  /** Lines of the table after the settings (runGrid's moreRows), e.g. the sweep's reference policies. */
-  readonly moreRows?: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => readonly TableRow[];
+  /** The summary of the finished grid and of the rows of moreSettings. */
+  readonly summary: (results: readonly GridResult<SettingOf<Axes>, Row>[], more: readonly TableRow[]) => Summary;
+  /** Settings besides the grid's (runGrid's moreSettings), e.g. the sweep's reference policies. */
+  readonly moreSettings?: readonly MoreSetting[];
+  /** The group of a setting (runGrid's groupOf), e.g. the sweep's unaccepted rule. */
+  readonly groupOf?: (setting: MoreSetting) => string;
+  /** Workers started ahead (startPoolWorkers), which runGrid runs on and stops. */
+  readonly workers?: PoolWorkers;
   readonly report: (results: readonly GridResult<SettingOf<Axes>, Row>[], summary: Summary) => string;
   readonly summaryText: (summary: Summary, resumed: number, files: readonly string[]) => string;
 }
@@ -78,8 +84,8 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
 ): Promise<Done<Summary> | Interrupted> {
   type Results = readonly GridResult<SettingOf<Axes>, Row>[];
   let made: { readonly results: Results; readonly summary: Summary } | undefined;
-  const summaryOf = (results: Results): Summary => {
-    if (made?.results !== results) made = { results, summary: spec.summary(results) };
+  const summaryOf = (results: Results, more: readonly TableRow[]): Summary => {
+    if (made?.results !== results) made = { results, summary: spec.summary(results, more) };
     return made.summary;
   };
   const { run, model } = spec;
@@ -89,21 +95,23 @@ export async function runGridCommand<const Axes extends readonly GridAxis[], Inp
     taskModule: spec.taskModule,
     contextInput: spec.contextInput,
     identity: { command: spec.command, version: packageVersion(), ...spec.identity, ...(model === undefined ? {} : { forecastModel: model.identity }) },
-    inputFiles: [...gridInputFiles(spec.paths), ...(spec.moreInputFiles ?? [])],
+    inputFiles: [...inputFilesOf(spec.paths), ...(spec.moreInputFiles ?? [])],
     ...(run.threads === undefined ? {} : { threads: run.threads }),
     restart: run.restart,
     force: run.force,
     lock: spec.lock,
     csvName: `${spec.command}.csv`,
     optionalOutputs: ['report.html'],
-    ...(spec.moreRows === undefined ? {} : { moreRows: spec.moreRows }),
-    moreOutputs: (results) => [
-      { name: 'summary.json', text: jsonText(summaryOf(results)) },
-      ...(run.report ? [{ name: 'report.html', text: spec.report(results, summaryOf(results)) }] : []),
+    ...(spec.moreSettings === undefined ? {} : { moreSettings: spec.moreSettings }),
+    ...(spec.groupOf === undefined ? {} : { groupOf: spec.groupOf }),
+    ...(spec.workers === undefined ? {} : { workers: spec.workers }),
+    moreOutputs: (results, more) => [
+      { name: 'summary.json', text: jsonText(summaryOf(results, more)) },
+      ...(run.report ? [{ name: 'report.html', text: spec.report(results, summaryOf(results, more)) }] : []),
     ],
   });
   if (outcome.status === 'interrupted') return outcome;
-  const summary = summaryOf(outcome.results);
+  const summary = summaryOf(outcome.results, outcome.more);
   return { status: 'done', summary, text: `${spec.summaryText(summary, outcome.resumed, outcome.files)}${model?.note ?? ''}` };
 }
 
@@ -126,7 +134,12 @@ type GridInputSettings = { readonly inputs: InputSources; readonly model?: Model
 export function lockedGridRun<R>(settings: GridInputSettings, command: 'sweep' | 'size', use: LevelUse, hooks: RunHooks, body: (inputs: GridInputs, lock: OutputLock) => Promise<R>): Promise<R> {
   const paths = runInputPaths(settings.inputs, settings.model);
   checkOutputFolder(settings.out, [`${command}.csv`, 'summary.json', ...(settings.report ? ['report.html'] : [])], settings.force, runInputFiles(settings.inputs, paths));
-  return lockedRun(settings.out, command, (lock) => body(readGridInputs(settings, paths, use, hooks), lock as OutputLock));
+  return lockedRun(settings.out, command, async (lock) => body(await readGridInputs(settings, paths, use, hooks), lock as OutputLock));
+}
+
+/** The input files a grid's resume fingerprint covers: the forecast file only when one is read. */
+function inputFilesOf(paths: BacktestInputPaths): string[] {
+  return [paths.market, paths.battery, paths.history, ...(paths.forecast === undefined ? [] : [paths.forecast])];
 }
 
 /**
@@ -135,8 +148,9 @@ export function lockedGridRun<R>(settings: GridInputSettings, command: 'sweep' |
  * with at least one covered day; with --model the forecasts are made here, once, before the workers
  * start.
  */
-function readGridInputs(settings: GridInputSettings, paths: BacktestInputPaths, use: LevelUse, hooks: RunHooks): GridInputs {
-  const maker = forecastMaker(settings.model, paths.history, settings, hooks);
+async function readGridInputs(settings: GridInputSettings, paths: BacktestInputPaths, use: LevelUse, hooks: RunHooks): Promise<GridInputs> {
+  // The forecasting code loads only for --model: a grid on a forecast file starts without it.
+  const maker = settings.model === undefined ? undefined : (await import('./modelForecast.js')).forecastMaker(settings.model, paths.history, settings, hooks);
   const data = readRunInputs(paths, use, maker, hooks, true);
   requireCoveredDay(data, paths, settings.from, settings.to);
   return { paths, data, model: maker?.made() };

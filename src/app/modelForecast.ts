@@ -133,7 +133,3 @@ export function forecastMaker(model: ModelSettings | undefined, historyFile: str
   };
 }
 
-/** The input files a grid's resume fingerprint covers: the forecast file only when one is read. */
-export function gridInputFiles(paths: BacktestInputPaths): string[] {
-  return [paths.market, paths.battery, paths.history, ...(paths.forecast === undefined ? [] : [paths.forecast])];
-}

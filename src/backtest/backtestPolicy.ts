@@ -24,6 +24,13 @@ export const SWEEP_POLICIES = Object.freeze(['quantile', 'median', 'curve', 'aut
 export type SweepPolicy = (typeof SWEEP_POLICIES)[number];
 
 /**
+ * The reference policies whose rows sweep.csv carries after the grid, once per rule: they do not
+ * depend on alpha, and every setting is read against them.
+ */
+export const SWEEP_REFERENCE_POLICIES = Object.freeze(['point', 'price-taking', 'perfect-foresight'] as const);
+export type SweepReferencePolicy = (typeof SWEEP_REFERENCE_POLICIES)[number];
+
+/**
  * Whether a policy reads the forecast at alpha and 1 - alpha: quantile and median do (their limits,
  * and for quantile the schedule, come from q(alpha) and q(1 - alpha)); the others ignore alpha.
  */

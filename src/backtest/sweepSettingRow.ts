@@ -1,21 +1,13 @@
 import type { UnacceptedRule } from '../settle/settleDay.js';
 import { smallPValueText } from '../stats/smallPValue.js';
-import { readsAlpha, type BacktestPolicy } from './backtestPolicy.js';
+import { readsAlpha, SWEEP_REFERENCE_POLICIES, type BacktestPolicy, type SweepPolicy, type SweepReferencePolicy } from './backtestPolicy.js';
 import { edgeTest, type EdgeTest } from './edgeTest.js';
 import { policyMetrics } from './policyMetrics.js';
 import { RunMemo, runPolicy, type PolicyRun } from './policyRun.js';
 import type { BacktestInput } from './runBacktest.js';
 import type { ScenarioPlanning } from './scenarioPlanning.js';
-import type { SweepPolicy } from './backtestPolicy.js';
 
-export { SWEEP_POLICIES, type SweepPolicy } from './backtestPolicy.js';
-
-/**
- * The reference policies whose rows sweep.csv carries after the grid, once per rule: they do not
- * depend on alpha, and every setting is read against them.
- */
-export const SWEEP_REFERENCE_POLICIES = Object.freeze(['point', 'price-taking', 'perfect-foresight'] as const);
-export type SweepReferencePolicy = (typeof SWEEP_REFERENCE_POLICIES)[number];
+export { SWEEP_POLICIES, SWEEP_REFERENCE_POLICIES, type SweepPolicy, type SweepReferencePolicy } from './backtestPolicy.js';
 
 /** One setting of `quantbid sweep`. */
 export type SweepSetting = {
@@ -88,14 +80,23 @@ export function sweepSettingRow(input: BacktestInput, setting: SweepSetting, mem
   return rowOf(input, run, unaccepted, memo);
 }
 
+/** A reference setting of a sweep: a reference policy under a rule, alpha empty. */
+export type SweepReferenceSetting = SweepReferenceRow['setting'];
+
 /**
- * The reference rows of a sweep, in the order of the rules and then SWEEP_REFERENCE_POLICIES: each
- * reference policy run under each rule, with the same columns as a setting's row.
+ * The reference settings of a sweep, in the order of their rows: the rules, and within each
+ * SWEEP_REFERENCE_POLICIES.
  */
-export function sweepReferenceRows(input: BacktestInput, rules: readonly UnacceptedRule[], memo: RunMemo<PolicyRun> = new RunMemo()): SweepReferenceRow[] {
-  return rules.flatMap((unaccepted) =>
-    SWEEP_REFERENCE_POLICIES.map((policy) => ({ setting: { alpha: null, policy, unaccepted }, row: rowOf(input, reference(input, policy, unaccepted, memo), unaccepted, memo) })),
-  );
+export function sweepReferenceSettings(rules: readonly UnacceptedRule[]): SweepReferenceSetting[] {
+  return rules.flatMap((unaccepted) => SWEEP_REFERENCE_POLICIES.map((policy) => ({ alpha: null, policy, unaccepted })));
+}
+
+/**
+ * The row of a reference policy under a rule, with the same columns as a setting's; its run, and the
+ * other references of the rule, are kept in `memo` for the settings of that rule.
+ */
+export function sweepReferenceRow(input: BacktestInput, setting: SweepReferenceSetting, memo: RunMemo<PolicyRun>): SweepRow {
+  return rowOf(input, reference(input, setting.policy, setting.unaccepted, memo), setting.unaccepted, memo);
 }
 
 function reference(input: BacktestInput, policy: BacktestPolicy, unaccepted: UnacceptedRule, memo: RunMemo<PolicyRun>): PolicyRun {

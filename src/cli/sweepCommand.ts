@@ -98,11 +98,17 @@ Examples:
   );
   command.action(async (flags: SweepFlags) => {
     const { from, to, out } = requireSpanAndOut(flags, { days: 'delivery day', outFolder: 'sweep.csv and summary.json' });
-    const { sweepAxesFromText, sweepUseCase } = await import('../app/sweep/sweepUseCase.js');
-    const axes = sweepAxesFromText(flags);
-    const scenarios = scenarioSettings(flags);
-    const settings = { ...gridRunSettings(flags, out), from, to, ...axes, ...(scenarios === undefined ? {} : { scenarios }) };
-    printResult(io, await sweepUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
+    // The workers boot while the use case loads and reads the inputs.
+    const workers = (await import('../app/sweep/sweepWorkers.js')).startSweepWorkers(flags);
+    try {
+      const { sweepAxesFromText, sweepUseCase } = await import('../app/sweep/sweepUseCase.js');
+      const axes = sweepAxesFromText(flags);
+      const scenarios = scenarioSettings(flags);
+      const settings = { ...gridRunSettings(flags, out), from, to, ...axes, ...(scenarios === undefined ? {} : { scenarios }) };
+      printResult(io, await sweepUseCase(settings, cliHooks(io, flags.quiet === true), workers), flags.json === true);
+    } finally {
+      await workers.stop();
+    }
   });
   return command;
 }

@@ -2,9 +2,11 @@
  * The resume journal of a grid (a sweep or a sizing): a JSON Lines file in the output folder. The first
  * line is a header naming the grid by a hash of its fingerprint (the arguments and inputs,
  * gridFingerprint.ts); each further line is one finished setting, `{"key":...,"row":{...},"digest":...}`,
- * written in one call and flushed to disk (fsync) before the next setting is recorded. A process
- * killed mid-write leaves at most a torn last line without its line break: reading ignores it, and
- * resuming cuts it off before appending.
+ * written in one call as the setting finishes and flushed to disk (fsync) in the background, the lines
+ * written meanwhile together by the next flush, and all of them before the journal is closed. A
+ * process killed mid-write leaves at most a torn last line without its line break: reading ignores it,
+ * and resuming cuts it off before appending. A crash of the machine may lose the lines of the flush
+ * in progress, which a resume computes again.
  *
  * The journal is an input like any other: a run reads it back, so a line that is not a header or an
  * entry, a row whose digest does not match, or a file that is not a plain file of sane size is
@@ -13,7 +15,7 @@
  * not match, so no value reaches the table that the task did not compute for these arguments and inputs.
  */
 import { createHash, createHmac } from 'node:crypto';
-import { closeSync, fsyncSync, lstatSync, openSync, readFileSync, renameSync, truncateSync, writeFileSync, writeSync } from 'node:fs';
+import { closeSync, fsync, fsyncSync, lstatSync, openSync, readFileSync, renameSync, truncateSync, writeFileSync, writeSync } from 'node:fs';
 import { InputError } from '../errors/inputError.js';
 import type { GridRow } from './taskModule.js';
 
@@ -122,8 +124,18 @@ export function checkJournalEntry(path: string, fingerprint: string, entry: Jour
   }
 }
 
-/** Appends lines to a journal, each written whole and flushed to disk before append returns. */
+/**
+ * Appends lines to a journal, each written whole before append returns, and flushed to disk (fsync)
+ * on the thread pool: a flush takes milliseconds (some 5 ms on a shared virtual disk), which one per
+ * setting spent on this thread, beside the settings it runs. At most one flush is in flight; the lines
+ * written meanwhile go with the next one.
+ */
 export class JournalWriter {
+  private flushing: Promise<void> | null = null;
+  /** Lines written since the last flush began. */
+  private unflushed = false;
+  private flushError: Error | null = null;
+
   private constructor(private readonly fd: number) {}
 
   /** Starts a new journal holding only `header` (written beside it first, then renamed into place). */
@@ -140,15 +152,37 @@ export class JournalWriter {
     return new JournalWriter(openSync(path, 'a'));
   }
 
+  /** Writes `line` whole; throws the error of a write, or of a background flush since the last append. */
   append(line: string): void {
+    if (this.flushError !== null) throw this.flushError;
     const bytes = Buffer.from(line, 'utf8');
     let written = 0;
     while (written < bytes.length) written += writeSync(this.fd, bytes, written, bytes.length - written);
-    fsyncSync(this.fd);
+    this.unflushed = true;
+    this.flush();
   }
 
-  close(): void {
-    closeSync(this.fd);
+  /** Waits for the flush in flight, flushes what is left, and closes the file. */
+  async close(): Promise<void> {
+    try {
+      while (this.flushing !== null) await this.flushing;
+      if (this.unflushed || this.flushError !== null) fsyncSync(this.fd);
+    } finally {
+      closeSync(this.fd);
+    }
+  }
+
+  private flush(): void {
+    if (this.flushing !== null || !this.unflushed) return;
+    this.unflushed = false;
+    this.flushing = new Promise((resolve) => {
+      fsync(this.fd, (err) => {
+        if (err !== null) this.flushError ??= err;
+        this.flushing = null;
+        resolve();
+        this.flush();
+      });
+    });
   }
 }
 

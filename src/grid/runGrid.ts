@@ -10,8 +10,8 @@ import { gridFingerprint } from './gridFingerprint.js';
 import { expandGrid, GRID_DEFAULTS, type GridPoint, type Setting, type SettingOf } from './expandGrid.js';
 import { checkJournalEntry, damagedJournal, entryLine, JOURNAL_FORMAT, JOURNAL_VERSION, journalGridId, JournalWriter, MAX_JOURNAL_LINE_BYTES, readJournal, type JournalLineEntry } from './gridJournal.js';
 import { taskModuleUrl, type GridRow } from './taskModule.js';
-import { defaultThreads, runPool, type PoolJob, type PoolStatus } from './workerPool.js';
-import type { GridAxis } from './gridAxis.js';
+import { defaultThreads, runPool, type PoolJob, type PoolStatus, type PoolWorkers } from './workerPool.js';
+import { axisValueText, type AxisValue, type GridAxis } from './gridAxis.js';
 
 /**
  * The options of runGrid. `Axes` gives the settings' type (SettingOf), `Input` the contextInput's and
@@ -47,12 +47,24 @@ export interface GridOptions<Axes extends readonly GridAxis[] = readonly GridAxi
    * Further outputs made from the finished results (e.g. `summary.json`), written in one set with the
    * table, so that a run killed while writing leaves the old outputs or all the new ones. Default none.
    */
-  readonly moreOutputs?: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => readonly OutputFile[];
+  readonly moreOutputs?: (results: readonly GridResult<SettingOf<Axes>, Row>[], more: readonly TableRow[]) => readonly OutputFile[];
   /**
-   * Lines of the table after the grid's settings, made from the finished results (e.g. a sweep's
-   * reference policies, which no setting varies); each row checked like a setting's. Default none.
+   * Settings besides the grid's, e.g. a sweep's reference policies (which no axis varies: alpha null,
+   * an empty cell): run by the task like the grid's (on any thread, journalled, resumed), their lines
+   * after the grid's in this order, each row checked like a setting's. Default none.
    */
-  readonly moreRows?: (results: readonly GridResult<SettingOf<Axes>, Row>[]) => readonly TableRow[];
+  readonly moreSettings?: readonly MoreSetting[];
+  /**
+   * The group of a setting (grid's or more): settings of one group share work that a thread does once
+   * and keeps, e.g. a sweep's reference runs of one unaccepted rule, and the pool keeps each thread on
+   * one group while it can (jobSchedule.ts). Default: all settings one group.
+   */
+  readonly groupOf?: (setting: MoreSetting) => string;
+  /**
+   * Workers started ahead for the task module (startPoolWorkers, workerPool.ts), booting while the
+   * caller read the inputs; runGrid runs on them and stops them however it ends. Default none.
+   */
+  readonly workers?: PoolWorkers;
   /** Outputs the command writes only on request (e.g. report.html): removed with --force when not written. */
   readonly optionalOutputs?: readonly string[];
   /** Most settings a grid may have [-]. Default 100,000. */
@@ -64,7 +76,7 @@ export interface GridOptions<Axes extends readonly GridAxis[] = readonly GridAxi
   readonly lock?: OutputLock;
   /** Abort (e.g. on SIGINT) to stop starting settings; the running ones finish and are kept. */
   readonly signal?: AbortSignal;
-  /** Called with the settings done (resumed ones included) once before work and after each one. */
+  /** Called with the grid's settings done (resumed ones included; the more settings not counted) once before work and after each one. */
   readonly onProgress?: (done: number, total: number) => void;
   /** The clock for the journal header's start time. Default `() => new Date()`. */
   readonly now?: () => Date;
@@ -80,6 +92,9 @@ export const GRID_RUN_DEFAULTS = Object.freeze({
   now: (): Date => new Date(),
 });
 
+/** A setting outside the grid's product: a value or null (an empty cell) per axis. */
+export type MoreSetting = Readonly<Record<string, AxisValue | null>>;
+
 /** A setting with its row, in grid order. */
 export interface GridResult<S extends Setting = Setting, Row extends GridRow = GridRow> extends GridPoint<S> {
   readonly row: Row;
@@ -92,6 +107,8 @@ export type GridOutcome<S extends Setting = Setting, Row extends GridRow = GridR
       /** Settings taken from a journal of an earlier, interrupted run [-]. */
       readonly resumed: number;
       readonly results: readonly GridResult<S, Row>[];
+      /** The rows of the more settings, in their order. */
+      readonly more: readonly TableRow[];
       /** Paths written (the table, then the further outputs). */
       readonly files: readonly string[];
     }
@@ -120,37 +137,66 @@ export function journalName(csvName: string): string {
  * uninterrupted one. Interrupted by `signal`, it returns `interrupted` and keeps the journal.
  */
 export async function runGrid<const Axes extends readonly GridAxis[], Input = unknown, Row extends GridRow = GridRow>(options: GridOptions<Axes, Input, Row>): Promise<GridOutcome<SettingOf<Axes>, Row>> {
-  const o = { ...GRID_RUN_DEFAULTS, ...options };
-  const threads = checkedThreads(o.threads ?? defaultThreads());
-  const grid = expandGrid(o.axes, { maxSettings: o.maxSettings });
-  checkOutputFolder(o.outDir, [o.csvName], o.force);
-  const taskUrl = taskModuleUrl(o.taskModule);
-  const fingerprint = gridFingerprint({ identity: o.identity, axes: o.axes, inputFiles: o.inputFiles, taskModuleUrl: taskUrl });
-  const lock = options.lock ?? OutputLock.take(o.outDir, o.csvName.replace(/\.csv$/, ''));
   try {
-    if (options.lock !== undefined) lock.verify();
-    return await runLockedGrid(o, { grid, threads, taskUrl, fingerprint, lock });
+    const o = { ...GRID_RUN_DEFAULTS, ...options };
+    // Workers started ahead build their context while this thread checks the folder and the journal.
+    o.workers?.sendContext(o.contextInput);
+    const threads = checkedThreads(o.threads ?? defaultThreads());
+    const grid = expandGrid(o.axes, { maxSettings: o.maxSettings });
+    const more = morePoints(o.axes, grid.length, o.moreSettings ?? []);
+    checkOutputFolder(o.outDir, [o.csvName], o.force);
+    const taskUrl = taskModuleUrl(o.taskModule);
+    // The more settings count only where there are some, so that a grid without them keeps its fingerprint.
+    const identity = more.length === 0 ? o.identity : { grid: o.identity, moreSettings: more.map((point) => point.key) };
+    const fingerprint = gridFingerprint({ identity, axes: o.axes, inputFiles: o.inputFiles, taskModuleUrl: taskUrl });
+    const lock = options.lock ?? OutputLock.take(o.outDir, o.csvName.replace(/\.csv$/, ''));
+    try {
+      if (options.lock !== undefined) lock.verify();
+      return await runLockedGrid(o, { grid, more, threads, taskUrl, fingerprint, lock });
+    } finally {
+      if (options.lock === undefined) lock.release();
+    }
   } finally {
-    if (options.lock === undefined) lock.release();
+    await options.workers?.stop();
   }
+}
+
+/** A more setting with its place after the grid's settings and its key (`alpha=|policy=point|...`: empty for null). */
+interface MorePoint {
+  readonly index: number;
+  readonly key: string;
+  readonly setting: MoreSetting;
+}
+
+function morePoints(axes: readonly GridAxis[], gridSize: number, settings: readonly MoreSetting[]): MorePoint[] {
+  const points = settings.map((setting, i) => ({
+    index: gridSize + i,
+    key: axes.map((axis) => `${axis.name}=${setting[axis.name] === null || setting[axis.name] === undefined ? '' : axisValueText(setting[axis.name] as AxisValue)}`).join('|'),
+    setting,
+  }));
+  const keys = points.map((point) => point.key);
+  const twice = keys.find((key, i) => keys.indexOf(key) !== i);
+  if (twice !== undefined) throw new Error(`runGrid: the more setting ${twice} is given twice`);
+  return points;
 }
 
 /** runGrid's work once the folder is locked: the journal, the pool, the outputs. */
 async function runLockedGrid<const Axes extends readonly GridAxis[], Input, Row extends GridRow>(
   o: GridOptions<Axes, Input, Row> & { readonly restart: boolean; readonly force: boolean; readonly csvName: string; readonly now: () => Date },
-  run: { readonly grid: readonly GridPoint<SettingOf<Axes>>[]; readonly threads: number; readonly taskUrl: string; readonly fingerprint: string; readonly lock: OutputLock },
+  run: { readonly grid: readonly GridPoint<SettingOf<Axes>>[]; readonly more: readonly MorePoint[]; readonly threads: number; readonly taskUrl: string; readonly fingerprint: string; readonly lock: OutputLock },
 ): Promise<GridOutcome<SettingOf<Axes>, Row>> {
-  const { grid, fingerprint } = run;
+  const { grid, more, fingerprint } = run;
+  const points: readonly (GridPoint | MorePoint)[] = [...grid, ...more];
   const journal = join(o.outDir, journalName(o.csvName));
-  const rows: (GridRow | undefined)[] = new Array<GridRow | undefined>(grid.length);
-  const indexOf = new Map(grid.map((point) => [point.key, point.index]));
+  const rows: (GridRow | undefined)[] = new Array<GridRow | undefined>(points.length);
+  const indexOf = new Map(points.map((point) => [point.key, point.index]));
   let columns: readonly string[] | undefined;
   const keep = (key: string, row: GridRow): void => {
     checkRow(row, key, o.axes, columns);
     columns ??= Object.keys(row);
     rows[indexOf.get(key) as number] = row;
   };
-  const { writer, entries } = diskStep(o.outDir, journal, 0, () => openJournal(journal, fingerprint, grid, o));
+  const { writer, entries } = diskStep(o.outDir, journal, 0, () => openJournal(journal, fingerprint, points, o));
   for (const entry of entries) {
     try {
       keep(entry.key, entry.row);
@@ -158,37 +204,42 @@ async function runLockedGrid<const Axes extends readonly GridAxis[], Input, Row 
       throw damagedJournal(journal, err instanceof Error ? err.message.replace(/^the sweep task returned /, 'a row with ') : String(err), entry.line);
     }
   }
-  const resumed = entries.length;
+  // Progress, resumes and messages count the grid's settings; the more settings run after them.
+  const inGrid = (key: string): boolean => (indexOf.get(key) as number) < grid.length;
+  const resumed = entries.filter((entry) => inGrid(entry.key)).length;
   let done = resumed;
   o.onProgress?.(done, grid.length);
 
-  const jobs: PoolJob[] = grid.filter((point) => rows[point.index] === undefined).map((point) => ({ id: point.index, key: point.key, setting: point.setting }));
+  const jobs: PoolJob[] = points
+    .filter((point) => rows[point.index] === undefined)
+    .map((point) => ({ id: point.index, key: point.key, setting: point.setting as GridPoint['setting'], ...(o.groupOf === undefined ? {} : { group: o.groupOf(point.setting) }) }));
   let status: PoolStatus;
   try {
-    status = await runPool(jobs, { taskModule: run.taskUrl, contextInput: o.contextInput, threads: run.threads, signal: o.signal }, (job, row) => {
+    const pool = { taskModule: run.taskUrl, contextInput: o.contextInput, threads: run.threads, signal: o.signal, ...(o.workers === undefined ? {} : { workers: o.workers }) };
+    status = await runPool(jobs, pool, (job, row) => {
       checkRow(row, job.key, o.axes, columns);
       const line = entryLine(fingerprint, job.key, row);
       diskStep(o.outDir, journal, done, () => writer.append(line));
       // Kept as the journal holds it, so a resumed run writes the same bytes as an uninterrupted one.
       keep(job.key, (JSON.parse(line) as JournalLineEntry).row);
+      if (!inGrid(job.key)) return;
       done++;
       o.onProgress?.(done, grid.length);
     });
   } finally {
-    writer.close();
+    await writer.close();
   }
   if (status === 'stopped') return { status: 'interrupted', total: grid.length, done, journal };
 
   // Every row passed checkRow; that it has the columns of `Row` is the task module's contract with the caller.
   const complete = rows as Row[];
   const results = grid.map((point) => ({ ...point, row: complete[point.index] as Row }));
-  const more = o.moreRows?.(results) ?? [];
-  more.forEach((extra, i) => checkRow(extra.row, `table row ${i + 1} after the grid`, o.axes, columns));
-  const outputs = [{ name: o.csvName, text: gridCsv(o.axes, grid, complete, more) }, ...(o.moreOutputs?.(results) ?? [])];
+  const moreRows: TableRow[] = more.map((point) => ({ setting: point.setting, row: complete[point.index] as Row }));
+  const outputs = [{ name: o.csvName, text: gridCsv(o.axes, grid, complete, moreRows) }, ...(o.moreOutputs?.(results, moreRows) ?? [])];
   const files = diskStep(o.outDir, journal, done, () => writeOutputs(o.outDir, outputs, o.force, o.optionalOutputs ?? [], run.lock));
   // Killed before this line, a re-run finds every setting in the journal and writes the same bytes.
   rmSync(journal, { force: true });
-  return { status: 'complete', total: grid.length, resumed, results, files };
+  return { status: 'complete', total: grid.length, resumed, results, more: moreRows, files };
 }
 
 /**
@@ -216,7 +267,7 @@ export function interruptedMessage(outcome: Extract<GridOutcome, { status: 'inte
   return `stopped after ${outcome.done} of ${outcome.total} settings; the finished ones are kept in ${outcome.journal}.\nRun the same command again to resume (or add --restart to start over).\n`;
 }
 
-function openJournal(path: string, fingerprint: string, grid: readonly GridPoint<Setting>[], o: { readonly restart: boolean; readonly now: () => Date }): { writer: JournalWriter; entries: JournalLineEntry[] } {
+function openJournal(path: string, fingerprint: string, grid: readonly { readonly key: string }[], o: { readonly restart: boolean; readonly now: () => Date }): { writer: JournalWriter; entries: JournalLineEntry[] } {
   const found = o.restart ? ({ status: 'absent' } as const) : readJournal(path, (grid.length + 1) * MAX_JOURNAL_LINE_BYTES);
   if (found.status === 'absent') {
     const header = { format: JOURNAL_FORMAT, version: JOURNAL_VERSION, grid: journalGridId(fingerprint), settings: grid.length, started: o.now().toISOString() } as const;

@@ -33,11 +33,21 @@ export function taskModuleUrl(taskModule: string | URL): string {
 
 /** Imports the task module, checks its exports and builds its context once. */
 export async function loadTask(url: string, contextInput: unknown): Promise<LoadedTask> {
+  return withContext(await importTask(url), contextInput);
+}
+
+/** Imports the task module and checks its exports (a worker does this as it starts, before its context comes). */
+export async function importTask(url: string): Promise<TaskModule> {
   const module = (await import(url)) as Partial<TaskModule>;
   if (typeof module.run !== 'function') throw new Error(`task module ${url} does not export a function run(setting, context)`);
   if (module.loadContext !== undefined && typeof module.loadContext !== 'function') {
     throw new Error(`task module ${url} exports loadContext, but not as a function`);
   }
+  return module as TaskModule;
+}
+
+/** The task ready to run settings: its context built once from `contextInput`. */
+export async function withContext(module: TaskModule, contextInput: unknown): Promise<LoadedTask> {
   const run = module.run;
   const context = module.loadContext === undefined ? contextInput : await module.loadContext(contextInput);
   return { run: async (setting) => run(setting, context) };

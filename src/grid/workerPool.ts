@@ -21,12 +21,18 @@
  *   InputError: it reaches the CLI as such (exit code 2). Any other throw is a fault naming the setting.
  *   Either stops the grid: no new settings start, running ones finish and are kept.
  *
+ * A job may name a `group`: jobs of one group share work that a thread does once and keeps in its
+ * context (a sweep's reference runs of one unaccepted rule), and the pool keeps each thread on one
+ * group while it can (jobSchedule.ts). Workers may be started ahead (startPoolWorkers), so that they
+ * boot and import the task module while this thread still reads the inputs.
+ *
  * Results are handed to `onResult` in the order the settings finish (not grid order), one at a time,
  * in this thread. After `signal` aborts, no new setting starts; the running ones finish and are handed
  * over, then the pool reports `stopped`.
  */
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
+import { JobSchedule } from './jobSchedule.js';
 import { loadTask, taskModuleUrl, type GridRow } from './taskModule.js';
 import { serialiseError, settingError, type SerialisedError } from './taskError.js';
 import type { Setting } from './expandGrid.js';
@@ -36,6 +42,8 @@ export interface PoolJob {
   readonly id: number;
   readonly key: string;
   readonly setting: Setting;
+  /** Jobs of one group share work a thread does once (jobSchedule.ts); without one, all jobs are one group. */
+  readonly group?: string;
 }
 
 export interface PoolOptions {
@@ -47,6 +55,11 @@ export interface PoolOptions {
   readonly threads?: number;
   /** Abort to stop handing out settings. */
   readonly signal?: AbortSignal;
+  /**
+   * Workers started ahead for this task module (startPoolWorkers): the pool runs on them (starting more
+   * when they are too few) and stops them all when it ends. Default none: the pool starts its own.
+   */
+  readonly workers?: PoolWorkers;
 }
 
 export type PoolStatus = 'finished' | 'stopped';
@@ -54,11 +67,12 @@ export type PoolStatus = 'finished' | 'stopped';
 /** Data a worker thread starts with. */
 export interface WorkerInit {
   readonly taskModuleUrl: string;
-  readonly contextInput: unknown;
 }
 
-/** Messages between this thread and a worker. */
+/** Messages from this thread to a worker: its context input once, then settings. */
+export type ToWorkerMessage = { readonly type: 'context'; readonly contextInput: unknown } | RunMessage;
 export interface RunMessage {
+  readonly type: 'run';
   readonly id: number;
   readonly setting: Setting;
 }
@@ -70,54 +84,155 @@ export function defaultThreads(): number {
   return availableParallelism();
 }
 
+/** A worker thread of the pool; a failure or exit is kept until the pool listens. */
+class PoolThread {
+  readonly worker: Worker;
+  private lostReason: string | undefined;
+  private onLost: ((reason: string) => void) | undefined;
+  private onResult: ((message: ResultMessage) => void) | undefined;
+  private contextSent = false;
+  private contextInput: unknown;
+
+  constructor(taskModuleUrl: string) {
+    this.worker = new Worker(new URL('./poolWorker.js', import.meta.url), { workerData: { taskModuleUrl } satisfies WorkerInit });
+    // Until a pool runs on it, a worker does not keep the process alive (a run may end before its grid starts).
+    this.worker.unref();
+    this.worker.on('message', (message: ResultMessage) => this.onResult?.(message));
+    this.worker.on('error', (err) => this.lose(`failed (${err.message})`));
+    this.worker.on('exit', (code) => this.lose(`stopped with exit code ${code}`));
+  }
+
+  /** Sends the context input, once: the worker builds its context while the pool is made ready. */
+  sendContext(contextInput: unknown): void {
+    if (this.contextSent) {
+      if (contextInput !== this.contextInput) throw new Error('a pool worker was given two context inputs');
+      return;
+    }
+    this.contextSent = true;
+    this.contextInput = contextInput;
+    this.worker.postMessage({ type: 'context', contextInput } satisfies ToWorkerMessage);
+  }
+
+  /** Hands the worker to a pool: its context (unless sent already), and where its results and its loss go. */
+  attach(contextInput: unknown, onResult: (message: ResultMessage) => void, onLost: (reason: string) => void): void {
+    this.worker.ref();
+    this.onResult = onResult;
+    this.onLost = onLost;
+    this.sendContext(contextInput);
+    if (this.lostReason !== undefined) onLost(this.lostReason);
+  }
+
+  /** Whether the worker failed or exited. */
+  get lost(): boolean {
+    return this.lostReason !== undefined;
+  }
+
+  private lose(reason: string): void {
+    if (this.lostReason !== undefined) return;
+    this.lostReason = reason;
+    this.onLost?.(reason);
+  }
+}
+
+/** Worker threads started ahead of their pool (startPoolWorkers). */
+export class PoolWorkers {
+  private readonly threads: PoolThread[];
+
+  constructor(readonly taskModuleUrl: string, count: number) {
+    this.threads = Array.from({ length: count }, () => new PoolThread(taskModuleUrl));
+  }
+
+  /** Workers started and neither taken by a pool nor stopped. */
+  get waiting(): number {
+    return this.threads.length;
+  }
+
+  /**
+   * Sends the workers their context input before their pool runs (runGrid does so as it starts, before
+   * it fingerprints the inputs and opens the journal); the pool must run with the same input.
+   */
+  sendContext(contextInput: unknown): void {
+    for (const thread of this.threads) thread.sendContext(contextInput);
+  }
+
+  /** Up to `count` of the workers for a pool, started more where too few; the rest are stopped. */
+  take(count: number): PoolThread[] {
+    const taken = this.threads.splice(0, count);
+    while (taken.length < count) taken.push(new PoolThread(this.taskModuleUrl));
+    void this.stop();
+    return taken;
+  }
+
+  /** Stops the workers no pool has taken (a run that ends before its grid). */
+  async stop(): Promise<void> {
+    const idle = this.threads.splice(0);
+    await Promise.all(idle.map((thread) => thread.worker.terminate()));
+  }
+}
+
 /**
- * Runs `jobs` (in the order given) and hands each result to `onResult` as it finishes. Resolves
- * `finished` when all ran, `stopped` when the signal stopped it first. On a failure (a task error, a
- * worker that died, or an error thrown by onResult) it starts no more jobs, lets the running ones
- * finish, and rejects with the failure of the earliest job in `jobs` order.
+ * Starts the workers of a pool of `threads` threads (threads - 1 workers) for `taskModule` at once:
+ * each boots and imports the task module while this thread goes on (reads the inputs, say); the pool
+ * then hands them their context. None for one thread, or for a thread count that is not a whole number
+ * >= 2 (the grid refuses it later). Pass them to runPool (or runGrid), or stop them.
+ */
+export function startPoolWorkers(taskModule: string | URL, threads: number): PoolWorkers {
+  return new PoolWorkers(taskModuleUrl(taskModule), Number.isInteger(threads) && threads >= 2 ? threads - 1 : 0);
+}
+
+/**
+ * Runs `jobs` and hands each result to `onResult` as it finishes: in the order given, kept to groups
+ * where the jobs have them. Resolves `finished` when all ran, `stopped` when the signal stopped it
+ * first. On a failure (a task error, a worker that died, or an error thrown by onResult) it starts
+ * only the jobs before the failed one that have not started, lets the running ones finish, and rejects
+ * with the failure of the earliest job in `jobs` order.
  */
 export async function runPool(jobs: readonly PoolJob[], options: PoolOptions, onResult: (job: PoolJob, row: GridRow) => void): Promise<PoolStatus> {
   const url = taskModuleUrl(options.taskModule);
-  const threads = Math.min(options.threads ?? defaultThreads(), jobs.length);
-  if (jobs.length === 0) return 'finished';
-  return runOnThreads(jobs, url, Math.max(1, threads), options, onResult);
+  if (options.workers !== undefined && options.workers.taskModuleUrl !== url) throw new Error(`runPool: the workers were started for ${options.workers.taskModuleUrl}, not ${url}`);
+  const threads = Math.max(1, Math.min(options.threads ?? defaultThreads(), jobs.length));
+  if (jobs.length === 0) {
+    await options.workers?.stop();
+    return 'finished';
+  }
+  return runOnThreads(jobs, url, threads, options, onResult);
 }
 
 /**
  * This thread runs settings, beside threads - 1 workers (none for one thread), so the first rows
- * come while the workers start (each boots, copies the context input and warms up, about a second on
- * a year of 15-minute data). A worker is handed its next setting ahead while more settings remain than
- * threads, so that it never waits for this thread to finish a setting before it gets more work.
+ * come while the workers start (each boots, imports the task module and builds its context from the
+ * input). A worker is handed its next setting ahead while more settings remain than threads, so that
+ * it never waits for this thread to finish a setting before it gets more work.
  */
 function runOnThreads(jobs: readonly PoolJob[], url: string, threads: number, options: PoolOptions, onResult: (job: PoolJob, row: GridRow) => void): Promise<PoolStatus> {
   return new Promise((resolvePool, rejectPool) => {
-    const init: WorkerInit = { taskModuleUrl: url, contextInput: options.contextInput };
-    const queued = new Map<Worker, number[]>(); // worker -> positions in jobs handed to it, oldest first
-    let next = 0;
+    const schedule = new JobSchedule(jobs.map((job) => job.group), threads);
+    const queued: number[][] = []; // per worker: positions in jobs handed to it, oldest first
     let failure: { readonly position: number; readonly error: Error } | undefined;
     let settled = false;
     let hereBusy = false;
     let hereDone = false;
-    const workers: Worker[] = [];
+    const workers = (options.workers ?? new PoolWorkers(url, 0)).take(threads - 1);
 
-    const mayStart = (): boolean => failure === undefined && options.signal?.aborted !== true && next < jobs.length;
+    // After a failure only the jobs before it start: the earliest failure is then the one a single thread meets first.
+    const limit = (): number => (options.signal?.aborted === true ? 0 : (failure?.position ?? jobs.length));
+    const next = (thread: number): number | undefined => schedule.take(thread, limit());
     const settleIfIdle = (): void => {
       if (settled || hereBusy || !hereDone) return;
-      for (const positions of queued.values()) if (positions.length > 0) return;
-      if (mayStart()) return;
+      if (queued.some((positions) => positions.length > 0)) return;
+      // Every thread is idle; a job left before the limit would be a fault of the schedule, not a hang.
+      if (schedule.anyBefore(limit())) fail(jobs.length, new Error('the grid pool stopped with settings that no thread would run'));
       settled = true;
-      void Promise.all(workers.map((w) => w.terminate())).then(() => {
+      void Promise.all(workers.map((thread) => thread.worker.terminate())).then(() => {
         if (failure !== undefined) rejectPool(failure.error);
-        else resolvePool(next < jobs.length ? 'stopped' : 'finished');
+        else resolvePool(schedule.left > 0 ? 'stopped' : 'finished');
       });
     };
-    // Jobs start in order, so every job before a failed one has started by then; keeping the earliest
-    // failure reports the one a single thread meets first, for any number of threads.
     const fail = (position: number, error: Error): void => {
       if (failure === undefined || position < failure.position) failure = { position, error };
     };
-    const hand = (worker: Worker, result: ResultMessage | null): void => {
-      const positions = queued.get(worker) as number[];
+    const hand = (w: number, result: ResultMessage | null): void => {
+      const positions = queued[w] as number[];
       if (result !== null) {
         const position = positions.shift() as number;
         const job = jobs[position] as PoolJob;
@@ -128,32 +243,32 @@ function runOnThreads(jobs: readonly PoolJob[], url: string, threads: number, op
           fail(position, err instanceof Error ? err : new Error(String(err)));
         }
       }
-      const depth = jobs.length - next > threads ? 2 : 1;
-      while (positions.length < depth && mayStart()) {
-        const job = jobs[next] as PoolJob;
-        positions.push(next++);
-        worker.postMessage({ id: job.id, setting: job.setting } satisfies RunMessage);
+      const depth = schedule.left > threads ? 2 : 1;
+      while (positions.length < depth && workers[w]?.lost !== true) {
+        const position = next(w + 1);
+        if (position === undefined) break;
+        positions.push(position);
+        const job = jobs[position] as PoolJob;
+        workers[w]?.worker.postMessage({ type: 'run', id: job.id, setting: job.setting } satisfies ToWorkerMessage);
       }
       settleIfIdle();
     };
-    const lost = (worker: Worker, reason: string): void => {
-      const positions = queued.get(worker) as number[];
+    const lost = (w: number, reason: string): void => {
+      if (settled) return; // stopped by the pool itself
+      const positions = queued[w] as number[];
       const position = positions[0];
-      if (position === undefined) return;
       positions.length = 0;
-      fail(position, new Error(`a sweep worker thread ${reason} while running setting ${jobs[position]?.key}`));
+      // Lost between settings (or before its first): no new setting starts, and the loss is what the pool reports.
+      if (position === undefined) fail(-1, new Error(`a sweep worker thread ${reason} between settings`));
+      else fail(position, new Error(`a sweep worker thread ${reason} while running setting ${jobs[position]?.key}`));
       settleIfIdle();
     };
 
-    for (let i = 1; i < threads; i++) {
-      const worker = new Worker(new URL('./poolWorker.js', import.meta.url), { workerData: init });
-      workers.push(worker);
-      queued.set(worker, []);
-      worker.on('message', (message: ResultMessage) => hand(worker, message));
-      worker.on('error', (err) => lost(worker, `failed (${err.message})`));
-      worker.on('exit', (code) => lost(worker, `stopped with exit code ${code}`));
-      hand(worker, null);
-    }
+    workers.forEach((thread, w) => {
+      queued.push([]);
+      thread.attach(options.contextInput, (message) => hand(w, message), (reason) => lost(w, reason));
+      hand(w, null);
+    });
 
     // This thread: one setting at a time, letting the workers' messages in between.
     const task = loadTask(url, options.contextInput);
@@ -162,8 +277,8 @@ function runOnThreads(jobs: readonly PoolJob[], url: string, threads: number, op
     void (async (): Promise<void> => {
       for (;;) {
         await new Promise((resolve) => setImmediate(resolve));
-        if (!mayStart()) break;
-        const position = next++;
+        const position = next(0);
+        if (position === undefined) break;
         const job = jobs[position] as PoolJob;
         hereBusy = true;
         let row: GridRow | undefined;

@@ -100,18 +100,18 @@ describe('the digest of a journal row', () => {
 });
 
 describe('JournalWriter', () => {
-  it('creates a journal holding the header, appends whole lines, and cuts a torn tail before appending', () => {
+  it('creates a journal holding the header, appends whole lines, and cuts a torn tail before appending', async () => {
     const path = journalPath();
     const writer = JournalWriter.create(path, HEADER);
     writer.append(journalLine(ENTRY));
-    writer.close();
+    await writer.close();
     appendFileSync(path, '{"key":"alpha=0.3","ro');
     const found = readJournal(path);
     if (found.status !== 'found') throw new Error('journal not found');
     const resumed = JournalWriter.resume(path, found.wholeBytes);
     const second = entry('alpha=0.2', { profit: -1, note: null });
     resumed.append(journalLine(second));
-    resumed.close();
+    await resumed.close();
     expect(readFileSync(path, 'utf8')).toBe(journalLine(HEADER) + journalLine(ENTRY) + journalLine(second));
   });
 });

@@ -104,6 +104,47 @@ describe('runGrid output', () => {
     expect(bytes[2]).toBe(bytes[0]);
   });
 
+  it('settings besides the grid run as tasks; their lines follow the grid\'s in their order, a null axis empty; grouped, 1, 2 and 3 threads write the same bytes', async () => {
+    const c = exampleCase('more');
+    const moreSettings = [{ alpha: null, policy: 'median' }, { alpha: null, policy: 'quantile' }];
+    const bytes: string[] = [];
+    for (const threads of [1, 2, 3]) {
+      const outcome = await complete(c.options(`t${threads}`, { threads, moreSettings, groupOf: (setting) => String(setting.policy), context: { spinMs: 1 } }));
+      expect(outcome.resumed).toBe(0);
+      expect(outcome.results).toHaveLength(20);
+      expect(outcome.more.map((m) => m.setting)).toEqual(moreSettings);
+      bytes.push(csvOf(c.dir, `t${threads}`));
+    }
+    const lines = (bytes[0] as string).split('\n');
+    expect(lines).toHaveLength(1 + 20 + 2 + 1);
+    // The whole range of the prices: the 0 and 1 quantiles of the example task's sorted prices.
+    const grid = lines.slice(1, 21).map((line) => line.split(','));
+    expect(lines[21]?.split(',').slice(0, 2)).toEqual(['', 'median']);
+    expect(lines[22]?.split(',').slice(0, 2)).toEqual(['', 'quantile']);
+    expect(lines[21]?.split(',')[5]).toBe('whole');
+    expect(Number(lines[21]?.split(',')[2])).toBeGreaterThan(Math.max(...grid.map((cells) => Number(cells[2]))));
+    expect(bytes[1]).toBe(bytes[0]);
+    expect(bytes[2]).toBe(bytes[0]);
+  });
+
+  it('workers started ahead run the grid, each loading the context once, and are stopped however the grid ends', async () => {
+    const c = exampleCase('ahead');
+    const loadLog = join(c.dir, 'loads.txt');
+    const workers = sweep.startPoolWorkers(EXAMPLE_TASK, 3);
+    expect(workers.waiting).toBe(2);
+    await complete(c.options('out', { threads: 3, workers, context: { spinMs: 1, loadLog } }));
+    expect(new Set(wholeLines(readFileSync(loadLog, 'utf8'))).size).toBe(3);
+    expect(workers.waiting).toBe(0);
+    await complete(c.options('plain', { threads: 1 }));
+    expect(csvOf(c.dir, 'out')).toBe(csvOf(c.dir, 'plain'));
+    // A grid refused before it runs (the table exists) stops the workers it was given.
+    const unused = sweep.startPoolWorkers(EXAMPLE_TASK, 2);
+    const err = await rejection(sweep.runGrid(c.options('out', { threads: 2, workers: unused })));
+    expect(err.message).toContain('the output already exists');
+    expect(unused.waiting).toBe(0);
+    expect(sweep.startPoolWorkers(EXAMPLE_TASK, 1).waiting).toBe(0);
+  });
+
   it('hands results over in the order they finish, not grid order', async () => {
     const c = exampleCase('completion');
     const jobs = [0.1, 0.2].map((alpha, id) => ({ id, key: `alpha=${alpha}`, setting: { alpha, policy: 'quantile' } }));
@@ -276,6 +317,19 @@ describe('runGrid refusals and failures', () => {
     const several = await rejection(sweep.runGrid(c.options('three', { threads: 3, context })));
     expect(single.message).toBe('the sweep task returned column spread = NaN, which is not a finite number, a plain string, a boolean or null for setting alpha=0.04|policy=quantile');
     expect(several.message).toBe(single.message);
+    // Grouped, jobs no longer start in grid order; the jobs before a failure still run, so the earliest is found.
+    const grouped = await rejection(sweep.runGrid(c.options('grouped', { threads: 3, context, groupOf: (setting) => String(setting.policy) })));
+    expect(grouped.message).toBe(single.message);
+  });
+
+  it('a worker thread that exits before its first setting stops the grid, and the loss is reported', async () => {
+    const c = exampleCase('worker-exit');
+    const module = join(c.dir, 'exitInWorker.mjs');
+    writeFileSync(module, `import { isMainThread } from 'node:worker_threads';\nif (!isMainThread) process.exit(3);\nexport { run, loadContext } from ${JSON.stringify(pathToFileURL(EXAMPLE_TASK).href)};\n`);
+    const workers = sweep.startPoolWorkers(module, 2);
+    const err = await rejection(sweep.runGrid(c.options('out', { threads: 2, taskModule: module, workers, context: { spinMs: 20 } })));
+    expect(err.message).toMatch(/^a sweep worker thread stopped with exit code 3 (between settings|while running setting alpha=)/);
+    expect(existsSync(join(c.dir, 'out', 'sweep.csv'))).toBe(false);
   });
 
   it.each([1, 2])('a module without run is refused (%s threads)', async (threads) => {

@@ -2,14 +2,15 @@
  * The task module of `quantbid sweep` (contract: grid/workerPool.ts), run from its compiled copy
  * dist/app/sweep/sweepTask.js. `loadContext` takes the inputs the parent read (or reads the four
  * input files once per thread); `run` backtests one typed setting `{ alpha, policy, unaccepted }`,
- * checked when the sweep's settings were, and returns its row (backtest/sweepSettingRow.ts). With curve
+ * checked when the sweep's settings were, and returns its row (backtest/sweepSettingRow.ts), or, for a
+ * reference setting `{ alpha: null, policy: 'point', unaccepted }`, the reference's row. With curve
  * or auto on the policy axis, each thread loads HiGHS once (app/scenarios/gridScenarios.ts).
  */
 import { batteryModel } from '../../battery/batteryModel.js';
 import { RunMemo, type PolicyRun } from '../../backtest/policyRun.js';
 import type { BacktestInput } from '../../backtest/runBacktest.js';
 import type { ScenarioPlanning } from '../../backtest/scenarioPlanning.js';
-import { sweepSettingRow, type SweepRow, type SweepSetting } from '../../backtest/sweepSettingRow.js';
+import { sweepReferenceRow, sweepSettingRow, type SweepReferenceSetting, type SweepRow, type SweepSetting } from '../../backtest/sweepSettingRow.js';
 import type { BacktestInputPaths, GivenForecast } from '../../io/readBacktestInputs.js';
 import { sharedInputData, type SharedInputs } from '../../io/sharedInputs.js';
 import type { GridScenarioInput } from '../scenarios/gridScenarios.js';
@@ -30,7 +31,7 @@ export interface SweepTaskInput {
 
 export interface SweepTaskContext {
   readonly input: BacktestInput;
-  /** Reference runs (perfect foresight, point) made once per worker. */
+  /** Reference runs (perfect foresight, point, price-taking) made once per thread and rule. */
   readonly memo: RunMemo<PolicyRun>;
   readonly scenarioPlanning: ScenarioPlanning | null;
 }
@@ -42,6 +43,7 @@ export async function loadContext(task: SweepTaskInput): Promise<SweepTaskContex
   return { input, memo: new RunMemo(), scenarioPlanning: task.scenarios === undefined ? null : await (await import('../scenarios/gridScenarios.js')).gridScenarioPlanning(task.scenarios, data) };
 }
 
-export function run(setting: SweepSetting, context: SweepTaskContext): SweepRow {
-  return sweepSettingRow(context.input, setting, context.memo, context.scenarioPlanning);
+export function run(setting: SweepSetting | SweepReferenceSetting, context: SweepTaskContext): SweepRow {
+  if (setting.alpha === null) return sweepReferenceRow(context.input, setting as SweepReferenceSetting, context.memo);
+  return sweepSettingRow(context.input, setting as SweepSetting, context.memo, context.scenarioPlanning);
 }

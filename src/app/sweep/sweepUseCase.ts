@@ -1,10 +1,9 @@
 import { z } from 'zod';
-import { batteryModel } from '../../battery/batteryModel.js';
-import { SWEEP_POLICIES, sweepReferenceRows, type SweepReferenceRow, type SweepResult } from '../../backtest/sweepSettingRow.js';
-import { sweepReport } from '../../report/sweepReport.js';
+import { SWEEP_POLICIES, sweepReferenceSettings, type SweepReferenceRow, type SweepResult } from '../../backtest/sweepSettingRow.js';
 import type { Done, Interrupted } from '../commandResult.js';
 import { eachOnce, gridRunSettings, parseAxes, parseNumberAxis, parseWordAxis } from '../gridSettings.js';
 import { lockedGridRun, runGridCommand } from '../gridRun.js';
+import type { PoolWorkers } from '../../grid/workerPool.js';
 import { shareInputs } from '../../io/sharedInputs.js';
 import { inputDataSpan } from '../inputDataSpan.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
@@ -53,9 +52,18 @@ export type SweepSummary = ReturnType<typeof sweepSummary>;
 /**
  * `quantbid sweep`: a backtest of every setting of the grid alpha x policy x unaccepted rule on the
  * grid engine (this thread and worker threads, resumable), into sweep.csv, summary.json and, when
- * asked, report.html.
+ * asked, report.html. `workers`, started ahead with startSweepWorkers(settings.threads), boot while
+ * the inputs are read; they are stopped however the sweep ends.
  */
-export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QUIET_HOOKS): Promise<Done<SweepSummary> | Interrupted> {
+export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QUIET_HOOKS, workers?: PoolWorkers): Promise<Done<SweepSummary> | Interrupted> {
+  try {
+    return await sweepOnWorkers(settings, hooks, workers);
+  } finally {
+    await workers?.stop();
+  }
+}
+
+async function sweepOnWorkers(settings: SweepSettings, hooks: RunHooks, workers: PoolWorkers | undefined): Promise<Done<SweepSummary> | Interrupted> {
   const s = validSettings(sweepSettingsSchema, settings, 'sweep');
   const { from, to } = s;
   const axes = [
@@ -64,6 +72,8 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
     { name: 'unaccepted', option: '--unaccepted', values: s.unaccepted },
   ] as const;
   const use = { policies: s.policies, alphas: s.alphas, alphaOption: '--alphas', policyOption: '--policies' };
+  // The report's code loads only when report.html is asked for.
+  const { sweepReport } = s.report ? await import('../../report/sweepReport.js') : { sweepReport: undefined };
   return lockedGridRun(s, 'sweep', use, hooks, ({ paths, data, model }, lock) => {
     const modelContext = model === undefined ? {} : { forecastModel: model.summary };
     const scenarios = gridScenarioInput(s.policies, s.scenarios, { data, marketFile: paths.market, from, to });
@@ -71,10 +81,6 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
     // spread is learnt from the history before each day) and shared: none reads or parses a file again.
     const span = inputDataSpan(data, from, to);
     const contextInput: SweepTaskInput = { paths, from, to, shared: shareInputs(scenarios === undefined ? span : data), ...(scenarios === undefined ? {} : { scenarios }) };
-    // The reference rows (point, price-taking, perfect foresight per rule), made here once the grid is done.
-    let references: SweepReferenceRow[] | undefined;
-    const referenceRows = (): SweepReferenceRow[] =>
-      (references ??= sweepReferenceRows({ market: span.market, battery: batteryModel(span.batterySpec), history: span.history, forecast: span.forecast, from, to }, s.unaccepted));
     return runGridCommand(
       {
         command: 'sweep',
@@ -87,9 +93,17 @@ export async function sweepUseCase(settings: SweepSettings, hooks: RunHooks = QU
         paths,
         moreInputFiles: scenarios?.settings.paths === undefined ? [] : [scenarios.settings.paths],
         model,
-        summary: (results: readonly SweepResult[]) => sweepSummary(results, { from, to, data, paths, axes, references: referenceRows(), ...modelContext, ...(scenarios === undefined ? {} : { scenarioPaths: scenarios.source }) }),
-        moreRows: () => referenceRows(),
-        report: (results, summary) => sweepReport({ results, summary }),
+        summary: (results: readonly SweepResult[], references) =>
+          sweepSummary(results, { from, to, data, paths, axes, references: references as readonly SweepReferenceRow[], ...modelContext, ...(scenarios === undefined ? {} : { scenarioPaths: scenarios.source }) }),
+        // The reference rows (point, price-taking, perfect foresight per rule) run as settings; a thread
+        // keeps to one rule while it can, so that it runs that rule's references once for all its settings.
+        moreSettings: sweepReferenceSettings(s.unaccepted),
+        groupOf: (setting) => String(setting.unaccepted),
+        ...(workers === undefined ? {} : { workers }),
+        report: (results, summary) => {
+          if (sweepReport === undefined) throw new Error('sweep: report.html asked for without its code loaded');
+          return sweepReport({ results, summary });
+        },
         summaryText: sweepSummaryText,
       },
       hooks,
