@@ -86,7 +86,9 @@ export function defaultThreads(): number {
 
 /** A worker thread of the pool; a failure or exit is kept until the pool listens. */
 class PoolThread {
-  readonly worker: Worker;
+  // Private, so that the package's declarations do not name node:worker_threads (a typed use of the
+  // library must not need Node's types).
+  private readonly worker: Worker;
   private lostReason: string | undefined;
   private onLost: ((reason: string) => void) | undefined;
   private onResult: ((message: ResultMessage) => void) | undefined;
@@ -120,6 +122,16 @@ class PoolThread {
     this.onLost = onLost;
     this.sendContext(contextInput);
     if (this.lostReason !== undefined) onLost(this.lostReason);
+  }
+
+  /** Hands the worker a message. */
+  post(message: ToWorkerMessage): void {
+    this.worker.postMessage(message);
+  }
+
+  /** Stops the worker. */
+  terminate(): Promise<number> {
+    return this.worker.terminate();
   }
 
   /** Whether the worker failed or exited. */
@@ -166,7 +178,7 @@ export class PoolWorkers {
   /** Stops the workers no pool has taken (a run that ends before its grid). */
   async stop(): Promise<void> {
     const idle = this.threads.splice(0);
-    await Promise.all(idle.map((thread) => thread.worker.terminate()));
+    await Promise.all(idle.map((thread) => thread.terminate()));
   }
 }
 
@@ -223,7 +235,7 @@ function runOnThreads(jobs: readonly PoolJob[], url: string, threads: number, op
       // Every thread is idle; a job left before the limit would be a fault of the schedule, not a hang.
       if (schedule.anyBefore(limit())) fail(jobs.length, new Error('the grid pool stopped with settings that no thread would run'));
       settled = true;
-      void Promise.all(workers.map((thread) => thread.worker.terminate())).then(() => {
+      void Promise.all(workers.map((thread) => thread.terminate())).then(() => {
         if (failure !== undefined) rejectPool(failure.error);
         else resolvePool(schedule.left > 0 ? 'stopped' : 'finished');
       });
@@ -249,7 +261,7 @@ function runOnThreads(jobs: readonly PoolJob[], url: string, threads: number, op
         if (position === undefined) break;
         positions.push(position);
         const job = jobs[position] as PoolJob;
-        workers[w]?.worker.postMessage({ type: 'run', id: job.id, setting: job.setting } satisfies ToWorkerMessage);
+        workers[w]?.post({ type: 'run', id: job.id, setting: job.setting } satisfies ToWorkerMessage);
       }
       settleIfIdle();
     };
