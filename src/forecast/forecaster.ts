@@ -42,26 +42,17 @@ import { daySeed } from './paths/seededStream.js';
 import { crpsFromQuantiles } from './scoring/crps.js';
 import { residualLoadColumns } from './models/residualLoad.js';
 import { conformalQuantiles } from './quantiles/splitConformal.js';
-import { averageForecast } from './quantileAverage.js';
 import { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_CALIBRATION_DAYS, DEFAULT_PATH_SEED, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
 export { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_METHOD, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
 /** What `auto` chose for a day, and on what evidence. */
-export interface AutoChoice {
-  /** The chosen candidate's method, or {@link QUANTILE_AVERAGE} for the average of every candidate's quantiles. */
-  readonly method: SingleMethod | typeof QUANTILE_AVERAGE;
-  /** The chosen candidate's calibration window [calendar days]; 0 for the quantile average (each member keeps its own). */
-  readonly calibrationDays: number;
+export interface AutoChoice extends AutoCandidate {
   /** Validation days the candidates were compared on [-] (0: none yet, the first candidate that could forecast was taken). */
   readonly validationDays: number;
   /** Mean pinball loss of the chosen candidate over the validation days [currency/MWh], or null without any. */
   readonly validationLoss: number | null;
 }
-
-/** The name `auto` records when it chose the average of its candidates' quantiles. */
-export const QUANTILE_AVERAGE = 'quantile-average';
-const AVERAGE_CHOICE = Object.freeze({ method: QUANTILE_AVERAGE, calibrationDays: 0 });
 
 /** A calibration day: its point forecast (made from the days before it), realised prices and drivers. */
 interface CalibrationDay {
@@ -213,7 +204,7 @@ export class Forecaster {
   private readonly points = new Map<PointModelName, (PointForecast | null | undefined)[]>();
   private readonly warmStarts = new QraWarmStarts();
   private readonly driverWarmStarts = new QraWarmStarts();
-  private readonly losses = new Map<string, (number | null)[]>();
+  private readonly losses = new Map<string, number | null>();
   /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
   private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
   private readonly states = new Map<string, CalibrationState>();
@@ -258,48 +249,18 @@ export class Forecaster {
     const levelsKey = levels.join(',');
     const validation: number[] = [];
     for (let j = dayIndex - 1; j >= 0 && validation.length < this.options.autoValidationDays; j--) validation.push(j);
-    // One entry per candidate, and with two or more candidates one more for their quantile average.
-    const entries = candidates.length > 1 ? candidates.length + 1 : candidates.length;
-    const perDay = validation.map((j) => this.validationLosses(candidates, j, levels, levelsKey));
-    const common = validation.flatMap((_, v) => ((perDay[v] as (number | null)[]).every((l) => l !== null) ? [v] : []));
-    const totals = Array.from({ length: entries }, (_, i) => common.reduce((sum, v) => sum + ((perDay[v] as (number | null)[])[i] as number), 0));
-    const order = totals.map((_, i) => i).sort((p, q) => (common.length === 0 ? p - q : (totals[p] as number) - (totals[q] as number) || p - q));
+    const losses = candidates.map((c) => validation.map((j) => this.validationLoss(c, j, levels, levelsKey)));
+    const common = validation.flatMap((_, v) => (losses.every((l) => l[v] !== null) ? [v] : []));
+    const totals = losses.map((l) => common.reduce((sum, v) => sum + (l[v] as number), 0));
+    const order = candidates.map((_, i) => i).sort((p, q) => (common.length === 0 ? p - q : (totals[p] as number) - (totals[q] as number) || p - q));
     // Every candidate forecasts the delivery day now: the chosen one's forecast is the answer, and all of
     // them are scored when this day becomes a validation day (its prices are then known).
     const made = candidates.map((c) => this.candidateForecast(c, dayIndex, levels, levelsKey));
-    if (entries > candidates.length) {
-      const best = order.find((i) => i < candidates.length && !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
-      made.push(averageForecast(made, best === undefined ? null : (made[best] as DayForecast)));
-    }
     const chosen = order.find((i) => !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
     if (chosen === undefined) throw made[0] as InsufficientHistoryError;
-    const candidate: Pick<AutoChoice, 'method' | 'calibrationDays'> = chosen < candidates.length ? (candidates[chosen] as AutoCandidate) : AVERAGE_CHOICE;
+    const candidate = candidates[chosen] as AutoCandidate;
     const validationLoss = common.length === 0 ? null : (totals[chosen] as number) / common.length;
     return { ...(made[chosen] as DayForecast), chosen: { ...candidate, validationDays: common.length, validationLoss } };
-  }
-
-  /**
-   * Mean pinball losses of the candidates' forecasts of past day j (null where a candidate cannot forecast
-   * it) and, with two or more candidates, of their quantile average (null unless every candidate can),
-   * kept; the candidates' forecasts of day j are then dropped.
-   */
-  private validationLosses(candidates: readonly AutoCandidate[], j: number, levels: readonly number[], levelsKey: string): (number | null)[] {
-    const key = `${candidates.map((c) => `${c.method}:${c.calibrationDays}`).join(',')}|${levelsKey}|${j}`;
-    const kept = this.losses.get(key);
-    if (kept !== undefined) return kept;
-    const made = candidates.map((c) => this.candidateForecast(c, j, levels, levelsKey));
-    const realised = (this.history.days[j] as PriceHistory['days'][number]).pricePerMwh;
-    const lossOf = (f: DayForecast | InsufficientHistoryError): number | null => {
-      if (f instanceof InsufficientHistoryError) return null;
-      let sum = 0;
-      f.quantiles.prices.forEach((row, t) => (sum += crpsFromQuantiles(realised[t] as number, row, levels)));
-      return sum / realised.length;
-    };
-    const losses = made.map(lossOf);
-    if (candidates.length > 1) losses.push(lossOf(averageForecast(made, null)));
-    candidates.forEach((c) => this.pending.delete(`${c.method}|${c.calibrationDays}|${levelsKey}|${j}`));
-    this.losses.set(key, losses);
-    return losses;
   }
 
   /** A candidate's forecast of day j (kept until its loss is scored), or the reason it has none. */
@@ -322,6 +283,24 @@ export class Forecaster {
   private autoCandidates(): readonly AutoCandidate[] {
     const drivers = residualLoadColumns(this.history.exogenousNames) !== null;
     return this.options.autoCandidates.filter((c) => drivers || pointModelOf(c.method, this.options) !== 'drivers');
+  }
+
+  /** Mean pinball loss of a candidate's forecast of past day j, or null when it cannot forecast it (kept). */
+  private validationLoss(candidate: AutoCandidate, j: number, levels: readonly number[], levelsKey: string): number | null {
+    const key = `${candidate.method}|${candidate.calibrationDays}|${levelsKey}|${j}`;
+    const kept = this.losses.get(key);
+    if (kept !== undefined) return kept;
+    const made = this.candidateForecast(candidate, j, levels, levelsKey);
+    this.pending.delete(key);
+    let loss: number | null = null;
+    if (!(made instanceof InsufficientHistoryError)) {
+      const realised = (this.history.days[j] as PriceHistory['days'][number]).pricePerMwh;
+      let sum = 0;
+      made.quantiles.prices.forEach((row, t) => (sum += crpsFromQuantiles(realised[t] as number, row, levels)));
+      loss = sum / realised.length;
+    }
+    this.losses.set(key, loss);
+    return loss;
   }
 
   /** The forecast of day `dayIndex` by one method with a calibration window of `calibrationDays`. */

@@ -2,7 +2,7 @@ import { existsSync, readdirSync, mkdtempSync, readFileSync, writeFileSync } fro
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { FORECAST_METHODS, QUANTILE_AVERAGE } from '../../src/forecast/forecaster.js';
+import { FORECAST_METHODS } from '../../src/forecast/forecaster.js';
 import { parseQuantileForecast } from '../../src/io/readQuantileForecast.js';
 import type { MarketSpec, PriceHistory } from '../../src/types.js';
 import { syntheticHistory } from '../forecast/syntheticHistory.js';
@@ -67,7 +67,7 @@ describe('quantbid forecast', () => {
     expect((await runCli(['forecast', ...inputs(), '--from', day(90), '--to', day(92), '--method', 'auto', '--out', out])).code).toBe(0);
     const summary = JSON.parse(read(out, 'forecast.json')) as { chosenMethods: { perDay: { day: string; method: string; calibrationDays: number }[]; counts: { days: number }[] } };
     expect(summary.chosenMethods.perDay.map((c) => c.day)).toEqual([90, 91, 92].map(day));
-    for (const c of summary.chosenMethods.perDay) expect([...FORECAST_METHODS, QUANTILE_AVERAGE]).toContain(c.method);
+    for (const c of summary.chosenMethods.perDay) expect(FORECAST_METHODS).toContain(c.method);
     expect(summary.chosenMethods.counts.reduce((n, c) => n + c.days, 0)).toBe(3);
     const single = join(dir, 'single');
     expect((await runCli(['forecast', ...inputs(), '--from', day(90), '--to', day(90), '--method', 'arx-hs', '--out', single])).code).toBe(0);

@@ -163,7 +163,7 @@ function forecastSummaryText(summary: ForecastSummary, out: string, elapsedSecon
   const { days } = summary;
   const lines = [
     `forecast ${summary.method} at ${summary.levels.length} levels (${summary.levels[0]}..${summary.levels[summary.levels.length - 1]}), ${summary.from} to ${summary.to}: ${days.forecast} days forecast (${days.first} to ${days.last}), ${days.skipped} skipped, ${formatNumber(elapsedSeconds, 1)} s`,
-    ...(summary.chosenMethods === null ? [] : [`  chosen: ${summary.chosenMethods.counts.map((c) => `${c.calibrationDays === 0 ? `${c.method} (of the candidates)` : `${c.method} (${c.calibrationDays} calibration days)`} ${c.days} ${c.days === 1 ? 'day' : 'days'}`).join(', ')}`]),
+    ...(summary.chosenMethods === null ? [] : [`  chosen: ${summary.chosenMethods.counts.map((c) => `${c.method} (${c.calibrationDays} calibration days) ${c.days} ${c.days === 1 ? 'day' : 'days'}`).join(', ')}`]),
     ...days.skippedDays.slice(0, 5).map((d) => `  skipped ${d.day}: ${d.reason}`),
     ...(days.skipped > 5 ? [`  ... and ${days.skipped - 5} more (see forecast.json)`] : []),
     `  wrote ${summary.outputs.map((name, i) => (i === 0 ? `${out}/${name}` : name)).join(', ')}`,
