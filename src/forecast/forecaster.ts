@@ -90,9 +90,10 @@ export interface ForecastOptions {
   readonly minCalibrationDays: number;
   /**
    * Calibration window lengths of the driver regression [calendar days]; their forecasts are averaged.
-   * Default 364 and 728: one model per clock slot with 15 coefficients rests on one observation a day, and
-   * on the known-distribution bench its estimation noise, not the windows' staleness, was what the
-   * shorter 182-day window added (docs/forecast-quality.md). A window longer than the history uses all of it.
+   * Default 182, 364 and 728: one model per clock slot with 15 coefficients rests on one observation a
+   * day, and on the known-distribution bench adding the 728-day window's lower estimation noise helped
+   * every setting of its own draw; without the 182-day window one setting of a fresh draw lost
+   * (docs/forecast-quality.md). A window longer than the history uses all of it.
    */
   readonly driverWindowsDays: readonly number[];
   /** Hinge knots of the residual load in the driver regression [-]. */
@@ -157,7 +158,7 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   minTrainingDays: 28,
   calibrationDays: DEFAULT_CALIBRATION_DAYS,
   minCalibrationDays: 28,
-  driverWindowsDays: Object.freeze([364, 728]),
+  driverWindowsDays: Object.freeze([182, 364, 728]),
   driverKnots: 3,
   driverScale: 'asinh',
   spreadPool: 'slot',
