@@ -46,8 +46,8 @@ describe('Forecaster', () => {
 
   it('driver-hs: driver windows longer than the history use all of it (the default 182, 364 and 728 days on 130 days of history)', () => {
     const byDefault = forecastDay(history, 110, LEVELS, 'driver-hs', SMALL);
-    const longer = forecastDay(history, 110, LEVELS, 'driver-hs', { ...SMALL, driverWindowsDays: [500, 2000] });
-    const shorter = forecastDay(history, 110, LEVELS, 'driver-hs', { ...SMALL, driverWindowsDays: [56, 728] });
+    const longer = forecastDay(history, 110, LEVELS, 'driver-hs', { ...SMALL, driverWindowsDays: [500, 1000, 2000] });
+    const shorter = forecastDay(history, 110, LEVELS, 'driver-hs', { ...SMALL, driverWindowsDays: [56, 364, 728] });
     expect(longer.quantiles.prices).toEqual(byDefault.quantiles.prices);
     expect(longer.point).toEqual(byDefault.point);
     expect(shorter.point).not.toEqual(byDefault.point);
