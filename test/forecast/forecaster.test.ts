@@ -40,7 +40,17 @@ describe('Forecaster', () => {
   it('exports its methods and defaults', () => {
     expect(FORECAST_METHODS).toEqual(['auto', 'naive-hs', 'arx-hs', 'lasso-hs', 'arx-conformal', 'qra', 'driver-hs', 'driver-fhs', 'driver-qr']);
     expect(DEFAULTS.windowsDays).toEqual([56, 91, 182, 364]);
+    expect(DEFAULTS.driverWindowsDays).toEqual([182, 364, 728]);
     expect(Object.isFrozen(DEFAULTS)).toBe(true);
+  });
+
+  it('driver-hs: driver windows longer than the history use all of it (the default 182, 364 and 728 days on 130 days of history)', () => {
+    const byDefault = forecastDay(history, 110, LEVELS, 'driver-hs', SMALL);
+    const longer = forecastDay(history, 110, LEVELS, 'driver-hs', { ...SMALL, driverWindowsDays: [500, 1000, 2000] });
+    const shorter = forecastDay(history, 110, LEVELS, 'driver-hs', { ...SMALL, driverWindowsDays: [56, 364, 728] });
+    expect(longer.quantiles.prices).toEqual(byDefault.quantiles.prices);
+    expect(longer.point).toEqual(byDefault.point);
+    expect(shorter.point).not.toEqual(byDefault.point);
   });
 
   for (const method of FORECAST_METHODS) {
