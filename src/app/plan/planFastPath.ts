@@ -8,7 +8,7 @@ import type { BatterySpec, MarketSpec } from '../../types.js';
 import type { Done } from '../commandResult.js';
 import { inputPathsOf } from '../inputPaths.js';
 import type { RunHooks } from '../runHooks.js';
-import { planRun, type CheckedPlanSettings, type PlanParts, type PlanSummary } from './planRun.js';
+import { planPolicy, planRun, type CheckedPlanSettings, type PlanParts, type PlanSummary } from './planRun.js';
 import { checkedPlanSettings } from './planSettingsCheck.js';
 import type { PlanSettings, PlanTools } from './planUseCase.js';
 
@@ -56,7 +56,7 @@ interface CheckedPlanInputs {
 /** The settings and the files planRun reads first, when every hand-written check accepts them; else undefined. */
 function checkedPlanInputs(settings: PlanSettings): CheckedPlanInputs | undefined {
   const s = checkedPlanSettings(settings);
-  if (s === undefined || s.policy === 'curve' || s.policy === 'auto') return undefined;
+  if (s === undefined || onScenarios(s.policy)) return undefined;
   let scenario: Scenario | undefined;
   if (s.inputs.scenario !== undefined) {
     const read = readCheckedSpec(s.inputs.scenario, checkedScenarioFields);
@@ -70,6 +70,8 @@ function checkedPlanInputs(settings: PlanSettings): CheckedPlanInputs | undefine
     if (err instanceof InputError) return undefined;
     throw err;
   }
+  // The default policy plans on scenarios when there is a history (no --paths here: `scenarios` is unset).
+  if (onScenarios(planPolicy(s.policy, false, paths.history !== undefined))) return undefined;
   const market = readCheckedSpec(paths.market, checkedMarketSpec);
   const battery = readCheckedSpec(paths.battery, checkedBatterySpec);
   if (market === undefined || battery === undefined) return undefined;
@@ -80,6 +82,11 @@ function checkedPlanInputs(settings: PlanSettings): CheckedPlanInputs | undefine
     battery: { path: paths.battery, value: battery.value },
     history: market.value.imbalance === undefined && paths.history !== undefined,
   };
+}
+
+/** Whether the policy plans on whole-day scenarios (scenarioPlan.ts), which the schema path runs. */
+function onScenarios(policy: PlanSettings['policy']): boolean {
+  return policy === 'curve' || policy === 'auto';
 }
 
 /** What was read for `expected`, asked for as `path`: planRun asks for the files the checks read. */
