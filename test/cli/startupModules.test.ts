@@ -57,14 +57,15 @@ describe('start-up: what --version and --help load', () => {
 
 describe('start-up: what a plan loads', () => {
   // `quantbid plan` starts from the bundle of the compiled CLI (dist/bundle/), and the demo day's plan
-  // is checked by the hand-written checks (app/plan/planFastPath.ts): no module of dist/cli or the rest
-  // of dist/, no validation library, no report code, no LP library (the day solver does not need it),
-  // no history reader.
-  it('the demo day\'s plan loads the bundle\'s run and none of the validation library, the report, the LP library or the history reader', () => {
-    const files = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--json'], 'files');
+  // with a schedule policy is checked by the hand-written checks (app/plan/planFastPath.ts): no module
+  // of dist/cli or the rest of dist/, no validation library, no report code, no LP library (the day
+  // solver does not need it), no history reader. (The default, auto, plans on scenarios: HiGHS and the
+  // schemas.)
+  it('the demo day\'s plan with a schedule policy loads the bundle\'s run and none of the validation library, the report, the LP library or the history reader', () => {
+    const files = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--policy', 'quantile', '--json'], 'files');
     expect(files).toContain('dist/bundle/main.js');
     expect(files.filter((m) => /^dist\/(?!bundle\/)/.test(m))).toEqual([]);
-    const modules = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--json']);
+    const modules = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--policy', 'quantile', '--json']);
     expect(modules).toContain('dist/app/plan/planRun.js');
     expect(modules).toContain('dist/io/readQuantileForecastDay.js');
     expect(modules.filter((m) => /node_modules\/(zod|javascript-lp-solver)\/|^dist\/report\/|readPriceHistory|planUseCase/.test(m))).toEqual([]);

@@ -1,7 +1,7 @@
 import type { Done } from '../commandResult.js';
 import { checkedInputFiles, checkedReaders, type CheckedInputFiles } from '../checkedInputFiles.js';
 import type { RunHooks } from '../runHooks.js';
-import { planRun, type CheckedPlanSettings, type PlanParts, type PlanSummary } from './planRun.js';
+import { planPolicy, planRun, type CheckedPlanSettings, type PlanParts, type PlanSummary } from './planRun.js';
 import { checkedPlanSettings } from './planSettingsCheck.js';
 import type { PlanSettings, PlanTools } from './planUseCase.js';
 
@@ -34,7 +34,14 @@ export async function planFastPath(settings: PlanSettings, hooks: RunHooks, tool
 /** The settings and the files planRun reads first, when every hand-written check accepts them; else undefined. */
 function checkedPlanInputs(settings: PlanSettings): { readonly s: CheckedPlanSettings; readonly files: CheckedInputFiles<'market' | 'battery' | 'forecast', 'history'> } | undefined {
   const s = checkedPlanSettings(settings);
-  if (s === undefined || s.policy === 'curve' || s.policy === 'auto') return undefined;
+  if (s === undefined || onScenarios(s.policy)) return undefined;
   const files = checkedInputFiles(s.inputs, ['market', 'battery', 'forecast'], ['history']);
-  return files === undefined ? undefined : { s, files };
+  // The default policy plans on scenarios when there is a history (no --paths here: `scenarios` is unset).
+  if (files === undefined || onScenarios(planPolicy(s.policy, false, files.paths.history !== undefined))) return undefined;
+  return { s, files };
+}
+
+/** Whether the policy plans on whole-day scenarios (scenarioPlan.ts), which the schema path runs. */
+function onScenarios(policy: PlanSettings['policy']): boolean {
+  return policy === 'curve' || policy === 'auto';
 }

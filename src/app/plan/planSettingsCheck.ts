@@ -21,10 +21,10 @@ export function checkedPlanSettings(value: unknown): CheckedPlanSettings | undef
   if (settings === undefined || !onlyKeys(settings, PLAN_KEYS) || settings.scenarios !== undefined) return undefined;
   const inputs = checkedInputSources(settings.inputs);
   if (inputs === undefined) return undefined;
-  const { day, alpha = PLAN_DEFAULTS.alpha, policy = PLAN_DEFAULTS.policy, unaccepted = PLAN_DEFAULTS.unaccepted, socStartMwh, out, force = false, report = false, listOrders = false } = settings;
+  const { day, alpha = PLAN_DEFAULTS.alpha, policy, unaccepted = PLAN_DEFAULTS.unaccepted, socStartMwh, out, force = false, report = false, listOrders = false } = settings;
   if (day !== undefined && (typeof day !== 'string' || !isValidDay(day))) return undefined;
   if (!numberIn(alpha, -Infinity, Infinity) || !isAlpha(alpha)) return undefined;
-  if (!(PLAN_COMMAND_POLICIES as readonly unknown[]).includes(policy) || !(UNACCEPTED_RULES as readonly unknown[]).includes(unaccepted)) return undefined;
+  if ((policy !== undefined && !(PLAN_COMMAND_POLICIES as readonly unknown[]).includes(policy)) || !(UNACCEPTED_RULES as readonly unknown[]).includes(unaccepted)) return undefined;
   if (socStartMwh !== undefined && (!numberIn(socStartMwh, -Infinity, Infinity) || rangeProblem(socStartMwh, RUN_LIMITS.socStartMwh) !== null)) return undefined;
   if (out !== undefined && (typeof out !== 'string' || outFolderProblem(out) !== null)) return undefined;
   if (typeof force !== 'boolean' || typeof report !== 'boolean' || typeof listOrders !== 'boolean') return undefined;
@@ -33,7 +33,7 @@ export function checkedPlanSettings(value: unknown): CheckedPlanSettings | undef
     inputs,
     ...optional('day', day),
     alpha,
-    policy,
+    ...optional('policy', policy),
     ...optional('scenarios', undefined),
     unaccepted,
     ...optional('socStartMwh', socStartMwh),
