@@ -55,7 +55,7 @@ export function planCommand(io: CliIo): Command {
 By default (auto) the day's candidates (price-taking, the quantile and median
 policies over a grid of alphas, point, bid curves) are scored on whole-day
 price paths and the table of their mean, CVaR and loss probability is shown;
-price-taking is submitted unless another is ahead by more than 2 standard
+price-taking is submitted unless another is ahead by more than 3 standard
 errors. Without --history and --paths there are no paths: the plan is then
 price-taking's, with a note.
 
