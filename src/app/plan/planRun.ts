@@ -5,6 +5,7 @@ import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
 import { readQuantileForecastDay, type QuantileForecastForDay } from '../../io/readQuantileForecastDay.js';
 import type { readPriceHistory } from '../../io/readPriceHistory.js';
 import type { OutputLock } from '../../io/outputLock.js';
+import type { ReadAhead } from '../../io/readInputFile.js';
 import type { Scenario } from '../../io/scenarioOf.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
@@ -48,6 +49,8 @@ export interface PlanParts {
   };
   readonly planReport?: typeof planReport;
   readonly readPriceHistory?: typeof readPriceHistory;
+  /** The forecast file read ahead (readAhead.ts), taken when it is still the file's content. */
+  readonly forecastReadAhead?: ReadAhead;
 }
 
 export const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
@@ -158,7 +161,7 @@ function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>
   const problems: InputProblem[] = [];
   const market = gatherProblems(problems, () => parts.readMarketSpec(paths.market, note));
   const spec = gatherProblems(problems, () => parts.readBatterySpec(paths.battery));
-  const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecastDay(paths.forecast, market, day));
+  const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecastDay(paths.forecast, market, day, parts.forecastReadAhead));
   if (market === undefined || spec === undefined || forecastFile === undefined) throw new InputError(problems);
   return { market, battery: batteryModel(spec), forecastFile };
 }
