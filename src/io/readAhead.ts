@@ -1,6 +1,16 @@
 import { readFileSync, statSync } from 'node:fs';
 import { gunzip } from 'node:zlib';
-import { fileIdentity, gunzipOptions, MAX_INPUT_BYTES, type ReadAhead } from './readInputFile.js';
+import { fileIdentity, gunzipOptions, MAX_INPUT_BYTES } from './readInputFile.js';
+
+/** A file's content as readInputFile reads it (inflated when gzip), read earlier: see its `readAhead` option. */
+export interface ReadAhead {
+  readonly path: string;
+  /** The file's identity when it was read (fileIdentity). */
+  readonly identity: string;
+  /** The size limit it was inflated under [bytes]. */
+  readonly maxBytes: number;
+  readonly plain: Uint8Array;
+}
 
 /**
  * Largest gzip file read ahead [bytes, compressed]. A read ahead that turns out not to be needed (the

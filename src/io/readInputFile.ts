@@ -2,6 +2,7 @@ import { closeSync, openSync, readFileSync, readSync, statSync, type Stats } fro
 import { isUtf8 } from 'node:buffer';
 import { constants, gunzipSync } from 'node:zlib';
 import { InputError, type InputProblem } from '../errors/inputError.js';
+import type { ReadAhead } from './readAhead.js';
 import { SNIFF_BYTES, sniffText, type FirstLineCheck } from './sniffText.js';
 
 /**
@@ -27,18 +28,8 @@ export interface ReadInputOptions {
   readonly readAhead?: ReadAhead;
 }
 
-/** A file's content as checkedBytes reads it (inflated when gzip), read earlier: see ReadInputOptions.readAhead. */
-export interface ReadAhead {
-  readonly path: string;
-  /** The file's identity when it was read (fileIdentity). */
-  readonly identity: string;
-  /** The size limit it was inflated under [bytes]. */
-  readonly maxBytes: number;
-  readonly plain: Buffer;
-}
-
 /** What tells one state of a file from another: device, inode, size, and modification and change times. */
-export function fileIdentity(stat: Stats): string {
+export function fileIdentity(stat: { readonly dev: number; readonly ino: number; readonly size: number; readonly mtimeMs: number; readonly ctimeMs: number }): string {
   return `${stat.dev}:${stat.ino}:${stat.size}:${stat.mtimeMs}:${stat.ctimeMs}`;
 }
 
@@ -83,7 +74,7 @@ function checkedBytes(path: string, options: ReadInputOptions): Buffer {
   const ahead = options.readAhead;
   const plain =
     ahead !== undefined && ahead.path === path && ahead.maxBytes === maxBytes && ahead.identity === fileIdentity(stat)
-      ? ahead.plain
+      ? Buffer.from(ahead.plain.buffer, ahead.plain.byteOffset, ahead.plain.byteLength)
       : readPlain(path, gzip, maxBytes);
   if (!isUtf8(plain)) throw new InputError([notUtf8Problem(path, plain)]);
   return plain;
@@ -209,7 +200,8 @@ function gunzipChunkBytes(bytes: Buffer, limit: number): number {
  * inflated size where the trailer tells it (else a MiB, not 16 KiB): no buffers to join, a quarter less
  * work than in chunks of a MiB.
  */
-export function gunzipOptions(bytes: Buffer, maxBytes: number): { readonly maxOutputLength: number; readonly chunkSize: number } {
+export function gunzipOptions(compressed: Uint8Array, maxBytes: number): { readonly maxOutputLength: number; readonly chunkSize: number } {
+  const bytes = Buffer.from(compressed.buffer, compressed.byteOffset, compressed.byteLength);
   const byRatio = Math.max(INFLATION_FLOOR_BYTES, bytes.length * MAX_INFLATION_RATIO);
   const limit = Math.min(maxBytes, byRatio);
   return { maxOutputLength: limit, chunkSize: gunzipChunkBytes(bytes, limit) };

@@ -1,7 +1,8 @@
 import { InputError } from '../errors/inputError.js';
 import type { MarketSpec } from '../types.js';
 import { parseQuantileForecast, quantileHeaderCheck, type QuantileForecastFile } from './readQuantileForecast.js';
-import { readInputBytes, type ReadAhead } from './readInputFile.js';
+import type { ReadAhead } from './readAhead.js';
+import { readInputBytes } from './readInputFile.js';
 
 /** A forecast read for one delivery day, and which of its rows were parsed and checked. */
 export interface QuantileForecastForDay extends QuantileForecastFile {

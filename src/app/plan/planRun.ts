@@ -5,7 +5,7 @@ import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
 import { readQuantileForecastDay, type QuantileForecastForDay } from '../../io/readQuantileForecastDay.js';
 import type { readPriceHistory } from '../../io/readPriceHistory.js';
 import type { OutputLock } from '../../io/outputLock.js';
-import type { ReadAhead } from '../../io/readInputFile.js';
+import type { ReadAhead } from '../../io/readAhead.js';
 import type { Scenario } from '../../io/scenarioOf.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
