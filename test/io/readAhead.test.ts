@@ -90,6 +90,18 @@ describe('readInputFile with a read ahead', () => {
     expect(withAhead).toBe(problemsOf(() => readInputFile(path)));
   });
 
+  it('refuses a gzip forecast cut short after the planned day, with the read ahead and without (the whole file is checked: docs/design.md)', async () => {
+    const market: MarketSpec = Object.freeze({ timeZone: 'Europe/Berlin', periodMinutes: 60, priceFloor: -500, priceCap: 4000, currency: 'HLV', gateClosure: '12:00' });
+    const rows: string[] = [];
+    for (let h = 0; h < 24; h++) rows.push(`2027-01-01T${String(h).padStart(2, '0')}:00:00+01:00,${h},${h + 1},${h + 2}`);
+    // The planned day first, then a long tail of later rows; the compressed file loses its last bytes.
+    const tail = csvText(20000).split('\n').slice(1).join('\n').replaceAll('2027-01-01T00', '2027-01-02T00');
+    const whole = gzipSync(Buffer.from(`period_start,q0.1,q0.5,q0.9\n${rows.join('\n')}\n${tail}`));
+    const path = write(whole.subarray(0, whole.length - 2000));
+    expect(await readAheadGzip(path)).toBeUndefined();
+    expect(problemsOf(() => readQuantileForecastDay(path, market, '2027-01-01'))).toContain('is named .gz but is not a readable gzip file (damaged or cut short)');
+  });
+
   it('gives the day reader the same day and the same problems as without it', async () => {
     const market: MarketSpec = Object.freeze({ timeZone: 'Europe/Berlin', periodMinutes: 60, priceFloor: -500, priceCap: 4000, currency: 'HLV', gateClosure: '12:00' });
     const rows: string[] = [];
