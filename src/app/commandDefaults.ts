@@ -25,6 +25,16 @@ export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'auto' as PlanC
 /** The default policy's fallback when the day has no paths to score candidates on: auto's own fallback. */
 export const PLAN_FALLBACK_POLICY = 'price-taking' as const satisfies PlanCommandPolicy;
 
+/**
+ * The policy of a plan: the one given; else the default (auto), which scores its candidates on the
+ * day's paths (the --paths file, or made from the quantile file and the history); with neither there
+ * is nothing to score on and the plan is auto's own fallback, price-taking.
+ */
+export function planPolicy(given: PlanCommandPolicy | undefined, hasPaths: boolean, hasHistory: boolean): PlanCommandPolicy {
+  if (given !== undefined) return given;
+  return hasPaths || hasHistory ? PLAN_DEFAULTS.policy : PLAN_FALLBACK_POLICY;
+}
+
 /** Defaults of `quantbid forecast`: the method of docs/forecast-quality.md, 19 levels, no paths, path seed 1. */
 export const FORECAST_DEFAULTS = Object.freeze({ method: DEFAULT_METHOD, paths: 0, pathSeed: DEFAULT_PATH_SEED });
 

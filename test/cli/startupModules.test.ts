@@ -65,6 +65,11 @@ describe('start-up: what a plan loads', () => {
     const files = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--policy', 'quantile', '--json'], 'files');
     expect(files).toContain('dist/bundle/main.js');
     expect(files.filter((m) => /^dist\/(?!bundle\/)/.test(m))).toEqual([]);
+    // Five files (scripts/bundlePlanCli.mjs): the entry, what it imports at once, the plan's checks, its
+    // run and the bundler's helpers; commander and luxon are joined in, not loaded file by file.
+    expect(files.filter((m) => m.startsWith('dist/bundle/')).sort()).toEqual(['dist/bundle/main.js', 'dist/bundle/planRunning.js', 'dist/bundle/planStart.js', 'dist/bundle/rolldown-runtime.js', 'dist/bundle/start.js']);
+    expect(files.filter((m) => m.includes('node_modules/'))).toEqual([]);
+    expect(files).not.toContain('node:crypto');
     const modules = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--policy', 'quantile', '--json']);
     expect(modules).toContain('dist/app/plan/planRun.js');
     expect(modules).toContain('dist/io/readQuantileForecastDay.js');

@@ -5,6 +5,7 @@ import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
 import { readQuantileForecastDay, type QuantileForecastForDay } from '../../io/readQuantileForecastDay.js';
 import type { readPriceHistory } from '../../io/readPriceHistory.js';
 import type { OutputLock } from '../../io/outputLock.js';
+import type { ReadAhead } from '../../io/readAhead.js';
 import type { Scenario } from '../../io/scenarioOf.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
@@ -21,7 +22,7 @@ import type { PlanSettingsSchema, PlanTools } from './planUseCase.js';
 import type { scenarioPlan, ScenarioPlanSummary } from './scenarioPlan.js';
 import { planSummary, planSummaryText, planWarnings, planWorth, type PlanWorth } from './planSummary.js';
 import type { z } from 'zod';
-import { PLAN_DEFAULTS, PLAN_FALLBACK_POLICY, type PlanCommandPolicy } from '../commandDefaults.js';
+import { PLAN_DEFAULTS, planPolicy, type PlanCommandPolicy } from '../commandDefaults.js';
 
 /** The plan's settings as planSettingsSchema returns them (defaults filled in, the policy when given). */
 export type CheckedPlanSettings = z.output<PlanSettingsSchema>;
@@ -29,15 +30,6 @@ export type CheckedPlanSettings = z.output<PlanSettingsSchema>;
 /** The settings with the policy settled: the one given, else the default or its fallback (planPolicy). */
 type PlanRunSettings = CheckedPlanSettings & { readonly policy: PlanCommandPolicy };
 
-/**
- * The policy of a plan: the one given; else the default (auto), which scores its candidates on the
- * day's paths (the --paths file, or made from the quantile file and the history); with neither there
- * is nothing to score on and the plan is auto's own fallback, price-taking.
- */
-export function planPolicy(given: PlanCommandPolicy | undefined, hasPaths: boolean, hasHistory: boolean): PlanCommandPolicy {
-  if (given !== undefined) return given;
-  return hasPaths || hasHistory ? PLAN_DEFAULTS.policy : PLAN_FALLBACK_POLICY;
-}
 
 export type PlanSummary = ReturnType<typeof planSummary> | ScenarioPlanSummary;
 
@@ -62,6 +54,8 @@ export interface PlanParts {
   };
   readonly planReport?: typeof planReport;
   readonly readPriceHistory?: typeof readPriceHistory;
+  /** The forecast file read ahead (readAhead.ts), taken when it is still the file's content. */
+  readonly forecastReadAhead?: ReadAhead;
 }
 
 export const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
@@ -178,7 +172,7 @@ function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>
   const problems: InputProblem[] = [];
   const market = gatherProblems(problems, () => parts.readMarketSpec(paths.market, note));
   const spec = gatherProblems(problems, () => parts.readBatterySpec(paths.battery));
-  const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecastDay(paths.forecast, market, day));
+  const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecastDay(paths.forecast, market, day, parts.forecastReadAhead));
   if (market === undefined || spec === undefined || forecastFile === undefined) throw new InputError(problems);
   return { market, battery: batteryModel(spec), forecastFile };
 }
