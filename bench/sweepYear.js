@@ -65,11 +65,17 @@ try {
       (cpuKnown ? `; CPU on 2 threads ${(median(cpu[two]) / median(cpu[one])).toFixed(2)}x that on 1` : ''));
     if (cpuKnown) {
       // A run that takes C of CPU cannot end sooner than C / cores on the machine's cores: whatever the
-      // threads wait for, the speed-up is at most the 1-thread wall time over that.
+      // threads wait for, the speed-up is at most the 1-thread wall time over that. On busy cores the
+      // wall times hold waits for the cores, and the ceiling says nothing.
       const cores = cpus().length;
-      const ceiling = median(wall[one]) / (median(cpu[two]) / cores);
-      const cpuFor17 = (cores * median(wall[one])) / 1.7;
-      console.log(`  ${`ceiling${suffix}`.padEnd(22)} at most ${ceiling.toFixed(2)}x from the CPU alone (1-thread wall / (2-thread CPU / ${cores} cores)); 1.7x needs the 2-thread run under ${(cpuFor17 / 1000).toFixed(1)} s of CPU`);
+      const label = `  ${`ceiling${suffix}`.padEnd(22)} `;
+      if (median(loads) >= cores) {
+        console.log(`${label}not shown: at a load average above ${cores} the wall times are mostly waits for the cores`);
+      } else {
+        const ceiling = median(wall[one]) / (median(cpu[two]) / cores);
+        const cpuFor17 = (cores * median(wall[one])) / 1.7;
+        console.log(`${label}at most ${ceiling.toFixed(2)}x from the CPU alone (1-thread wall / (2-thread CPU / ${cores} cores)); 1.7x needs the 2-thread run under ${(cpuFor17 / 1000).toFixed(1)} s of CPU`);
+      }
     }
   }
   const same = runs.every((run) => csv[run.name].equals(csv[runs[0].name]));
