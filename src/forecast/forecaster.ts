@@ -71,6 +71,8 @@ interface CalibrationState {
   readonly centre: Float64Array;
   /** errors[d][s] of the calibration days on the error scale. */
   readonly errors: readonly Float64Array[];
+  /** The calibration days' point forecasts on the error scale, [d][s] (what their errors were taken from). */
+  readonly forecastsOnScale: readonly Float64Array[];
 }
 
 /** Levels added to the asked ones for the paths' marginals (their tails). */
@@ -315,7 +317,7 @@ export class Forecaster {
     if (point === null) {
       throw new InsufficientHistoryError(view.target.day, `the ${model} point forecast`, this.historyNeeded(model), view.pastCount);
     }
-    const { calibration, scale, centre, errors } = this.calibrationState(model, view, point, calibrationDays);
+    const { calibration, scale, centre, errors, forecastsOnScale } = this.calibrationState(model, view, point, calibrationDays);
     if (calibration.length < this.options.minCalibrationDays) {
       throw new InsufficientHistoryError(view.target.day, `${method} calibration`, this.options.minCalibrationDays, calibration.length);
     }
@@ -341,7 +343,7 @@ export class Forecaster {
       } else if (method === 'driver-qr') {
         grid = regressionQuantiles([point.mean, ...view.target.exogenous], (c) => [c.forecast.mean, ...c.exogenous], this.driverWarmStarts);
       } else if (method === 'driver-fhs') {
-        const features = calibration.map((c) => spreadFeatures(c.exogenous, Float64Array.from(c.forecast.mean, scale.to)));
+        const features = calibration.map((c, d) => spreadFeatures(c.exogenous, forecastsOnScale[d] as Float64Array));
         grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool);
       } else {
         grid = historicalSimulation(centre, errors, at, { order: this.poolOrder(model, calibrationDays), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) });
@@ -390,19 +392,21 @@ export class Forecaster {
     const kept = this.states.get(key);
     if (kept !== undefined) return kept;
     const calibration = this.calibrationSet(model, view, calibrationDays);
-    const scale = calibration.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, calibration);
+    const scale = calibration.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, calibration, calibrationDays);
     const centre = point.mean.map(scale.to);
-    const errors = calibration.map((c) => {
+    const forecastsOnScale = calibration.map((c) => Float64Array.from(c.forecast.mean, scale.to));
+    const errors = calibration.map((c, d) => {
       const e = new Float64Array(c.realised.length);
+      const f = forecastsOnScale[d] as Float64Array;
       // The realised prices on the asinh scale, from the delivery day's ARX fit when it made them with this scale.
       if (scale.robust !== undefined && keptAsinhDay(scale.robust, c.realised, e)) {
-        for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - scale.to(c.forecast.mean[s] as number);
+        for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
       } else {
-        for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - scale.to(c.forecast.mean[s] as number);
+        for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - (f[s] as number);
       }
       return e;
     });
-    const state = { calibration, scale, centre, errors };
+    const state = { calibration, scale, centre, errors, forecastsOnScale };
     if (this.states.size >= 8) this.states.clear();
     this.states.set(key, state);
     return state;
@@ -435,9 +439,9 @@ export class Forecaster {
   }
 
   /** The scale of the calibration errors: the point model's own for 'model', else prices. */
-  private errorScaleOf(model: PointModelName, calibration: readonly { realised: Float64Array }[]): ErrorScale {
+  private errorScaleOf(model: PointModelName, calibration: readonly { realised: Float64Array }[], calibrationDays: number): ErrorScale {
     if (this.options.errorScale === 'price' || model === 'naive' || (model === 'drivers' && this.options.driverScale === 'price')) return PRICE_SCALE;
-    return asinhErrorScaleOf((this.grids as GridCache).scales.of(calibration.map((c) => c.realised)));
+    return asinhErrorScaleOf((this.grids as GridCache).scales(calibrationDays).of(calibration.map((c) => c.realised)));
   }
 
   /** The calibration days before the delivery day that could be forecast, oldest first. */

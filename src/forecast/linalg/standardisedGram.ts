@@ -40,33 +40,102 @@ export interface StandardisedGram {
   readonly yVariance: number;
 }
 
-/** Builds the {@link StandardisedGram} of `x` (n x k, no column of ones) and `y` (length n >= 1). */
+/**
+ * Builds the {@link StandardisedGram} of `x` (n x k, no column of ones) and `y` (length n >= 1).
+ *
+ * Each sum is taken over the rows in row order, one sum at a time, with the centred columns laid out
+ * column by column (two columns against four per pass over the rows, as arxGram.ts): the same
+ * additions in the same order as row by row, so the same bits, with the running sums in registers.
+ */
 export function standardisedGram(x: Matrix, y: ArrayLike<number>): StandardisedGram {
   requireResponse(x, y);
   const { rows: n, cols: k, data } = x;
   const means = new Float64Array(k);
   let yMean = 0;
-  for (let i = 0; i < n; i++) {
-    yMean += y[i] as number;
-    for (let j = 0; j < k; j++) means[j] = (means[j] as number) + (data[i * k + j] as number);
+  for (let i = 0; i < n; i++) yMean += y[i] as number;
+  for (let j = 0; j < k; j++) {
+    let sum = 0;
+    for (let i = 0; i < n; i++) sum += data[i * k + j] as number;
+    means[j] = sum;
   }
   yMean /= n;
   for (let j = 0; j < k; j++) means[j] = (means[j] as number) / n;
+  // Centred columns 0..k-1, then y - ybar (column k), then a column of zeros (column k + 1).
+  const width = k + 1;
+  const cols = centredScratch((width + 1) * n);
+  for (let j = 0; j < k; j++) {
+    const m = means[j] as number;
+    for (let i = 0; i < n; i++) cols[j * n + i] = (data[i * k + j] as number) - m;
+  }
+  for (let i = 0; i < n; i++) cols[k * n + i] = (y[i] as number) - yMean;
+  cols.fill(0, width * n, (width + 1) * n);
+  // products[j width + l], l >= j: sum_i c_ij c_il over the centred columns and y.
+  const products = new Float64Array(width * width);
+  for (let j = 0; j < width; j += 2) {
+    for (let l = j; l < width; l += 4) crossProducts(cols, n, width, j, l, products);
+  }
   const gram = new Float64Array(k * k);
   const cy = new Float64Array(k);
-  const row = new Float64Array(k);
-  let ySquares = 0;
+  for (let j = 0; j < k; j++) {
+    cy[j] = products[j * width + k] as number;
+    for (let l = j; l < k; l++) gram[j * k + l] = products[j * width + l] as number;
+  }
+  return standardiseCentredSums(n, means, yMean, gram, cy, products[k * width + k] as number);
+}
+
+/**
+ * Sums over the n rows of columns j, j + 1 times columns l..l + 3 (columns at or past `width` read as
+ * the column of zeros at width n, their sums dropped), into products[r width + c] for c >= r.
+ */
+function crossProducts(cols: Float64Array, n: number, width: number, j: number, l: number, products: Float64Array): void {
+  const zeros = width * n;
+  const at = (c: number): number => (c < width ? c * n : zeros);
+  const p0 = at(j);
+  const p1 = at(j + 1);
+  const q0 = at(l);
+  const q1 = at(l + 1);
+  const q2 = at(l + 2);
+  const q3 = at(l + 3);
+  let s00 = 0;
+  let s01 = 0;
+  let s02 = 0;
+  let s03 = 0;
+  let s10 = 0;
+  let s11 = 0;
+  let s12 = 0;
+  let s13 = 0;
   for (let i = 0; i < n; i++) {
-    const dy = (y[i] as number) - yMean;
-    ySquares += dy * dy;
-    for (let j = 0; j < k; j++) row[j] = (data[i * k + j] as number) - (means[j] as number);
-    for (let j = 0; j < k; j++) {
-      const rj = row[j] as number;
-      cy[j] = (cy[j] as number) + rj * dy;
-      for (let l = j; l < k; l++) gram[j * k + l] = (gram[j * k + l] as number) + rj * (row[l] as number);
+    const v0 = cols[p0 + i] as number;
+    const v1 = cols[p1 + i] as number;
+    const c0 = cols[q0 + i] as number;
+    const c1 = cols[q1 + i] as number;
+    const c2 = cols[q2 + i] as number;
+    const c3 = cols[q3 + i] as number;
+    s00 += v0 * c0;
+    s01 += v0 * c1;
+    s02 += v0 * c2;
+    s03 += v0 * c3;
+    s10 += v1 * c0;
+    s11 += v1 * c1;
+    s12 += v1 * c2;
+    s13 += v1 * c3;
+  }
+  const sums = [s00, s01, s02, s03, s10, s11, s12, s13];
+  for (let r = 0; r < 2; r++) {
+    for (let t = 0; t < 4; t++) {
+      const row = j + r;
+      const column = l + t;
+      if (row < width && column < width && column >= row) products[row * width + column] = sums[4 * r + t] as number;
     }
   }
-  return standardiseCentredSums(n, means, yMean, gram, cy, ySquares);
+}
+
+/** Scratch space of the centred columns, reused from call to call (each call overwrites what it reads). */
+let centredColumns = new Float64Array(0);
+
+function centredScratch(length: number): Float64Array {
+  if (centredColumns.length < length) centredColumns = new Float64Array(length);
+  return centredColumns;
 }
 
 /**

@@ -8,7 +8,7 @@ import type { GriddedDay, HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
-import { fromAsinhScale, robustScale, selectInPlace, toAsinhScale, type RobustScale } from './robustAsinh.js';
+import { fromAsinhScale, selectInPlace, toAsinhScale, type RobustScale } from './robustAsinh.js';
 import { weekdayColumns } from './arx.js';
 
 /** Settings of the driver regression; see {@link driverForecast}. */
@@ -111,7 +111,7 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rows = training.slice(0, n);
-  const days = new DriverDays(view, columns, settings.scale === 'asinh' ? priceScale(view, rows) : null);
+  const days = new DriverDays(view, columns, settings.scale === 'asinh' ? view.robustScaleOf(rows, longest) : null);
   const S = view.slotsPerDay;
   const J = settings.knots;
   // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
@@ -147,18 +147,22 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     for (let r = 0; r < n; r++) slotX[r] = (xOf[r] as Float64Array)[s] as number;
     scratch.set(slotX);
     slotQuantiles(scratch, J, knots);
-    for (let r = 0; r < n; r++) {
-      const base = r * a;
-      const xv = slotX[r] as number;
-      slotValues[base] = xv;
-      for (let j = 0; j < J; j++) {
-        const knot = knots[j] as number;
-        slotValues[base + 1 + j] = xv > knot ? xv - knot : 0;
+    // The slot columns column by column (slotValues[q n + r]): x, the hinges, lag 1, lag 7, the response.
+    slotValues.set(slotX, 0);
+    for (let j = 0; j < J; j++) {
+      const knot = knots[j] as number;
+      const base = (1 + j) * n;
+      for (let r = 0; r < n; r++) {
+        const xv = slotX[r] as number;
+        slotValues[base + r] = xv > knot ? xv - knot : 0;
       }
-      slotValues[base + J + 1] = (lag1Of[r] as Float64Array)[s] as number;
-      slotValues[base + J + 2] = (lag7Of[r] as Float64Array)[s] as number;
-      slotValues[base + a - 1] = (zOf[r] as Float64Array)[s] as number;
     }
+    for (let r = 0; r < n; r++) {
+      slotValues[(J + 1) * n + r] = (lag1Of[r] as Float64Array)[s] as number;
+      slotValues[(J + 2) * n + r] = (lag7Of[r] as Float64Array)[s] as number;
+      slotValues[(a - 1) * n + r] = (zOf[r] as Float64Array)[s] as number;
+    }
+    const thin = counts.map((count) => thinHinges(slotValues, n, J, count));
     const xt = days.targetX[s] as number;
     target[0] = xt;
     for (let j = 0; j < J; j++) target[1 + j] = xt > (knots[j] as number) ? xt - (knots[j] as number) : 0;
@@ -170,16 +174,16 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     timedFits(settings.stopwatch, 2 * counts.length, () => {
       // Least squares, then once more on Huber's pseudo-observations of the longest window's fit.
       let longest: LinearModel | undefined;
-      builder.forEachGram(slotValues, a, (gram) => {
-        for (const j of thinHinges(slotValues, a, J, gram.n)) gram.scales[j] = 0;
+      builder.forEachGram(slotValues, a, (gram, w) => {
+        for (const j of thin[w] as number[]) gram.scales[j] = 0;
         longest = choleskyLeastSquares(gram);
       });
-      pseudoObservations(slotValues, a, trainingDays, longest as LinearModel, residuals);
+      pseudoObservations(slotValues, n, a, trainingDays, longest as LinearModel, residuals);
       builder.forEachGram(
         slotValues,
         a,
         (gram, w) => {
-          for (const j of thinHinges(slotValues, a, J, gram.n)) gram.scales[j] = 0;
+          for (const j of thin[w] as number[]) gram.scales[j] = 0;
           (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(predictLinear(choleskyLeastSquares(gram), target));
         },
         true,
@@ -210,13 +214,13 @@ interface DayRegressors {
 const HINGE_SUPPORT_DAYS = 20;
 const HINGE_SUPPORT_SHARE = 0.1;
 
-/** The hinge columns (1..J) that fewer than the support's days of the first `count` rows reach. */
-function thinHinges(rows: Float64Array, width: number, hinges: number, count: number): number[] {
+/** The hinge columns (1..J; columns[j n + r]) that fewer than the support's days of the first `count` rows reach. */
+function thinHinges(columns: Float64Array, n: number, hinges: number, count: number): number[] {
   const needed = Math.max(HINGE_SUPPORT_DAYS, HINGE_SUPPORT_SHARE * count);
   const out: number[] = [];
   for (let j = 1; j <= hinges; j++) {
     let support = 0;
-    for (let r = 0; r < count; r++) if ((rows[r * width + j] as number) > 0) support++;
+    for (let r = 0; r < count; r++) if ((columns[j * n + r] as number) > 0) support++;
     if (support < needed) out.push(j);
   }
   return out;
@@ -235,13 +239,6 @@ export function slotQuantiles(values: Float64Array, count: number, out: Float64A
     const upper = lo + 1 < n ? selectInPlace(values, lo + 1) : lower;
     out[j] = lower + (h - lo) * (upper - lower);
   }
-}
-
-function priceScale(view: HistoryView, rows: readonly number[]): RobustScale {
-  const S = view.slotsPerDay;
-  const all = new Float64Array(rows.length * S);
-  rows.forEach((i, r) => all.set(view.past(i).prices, r * S));
-  return robustScale(all);
 }
 
 /** A past day on the model's scale: prices (z), prices clipped at the day's fences, residual load, means. */
@@ -353,27 +350,26 @@ export function huberClipLimit(residuals: Float64Array): number {
 }
 
 /**
- * Replaces the response column of `slotValues` (rows of slot columns, response last) by Huber's
+ * Replaces the response column of `columns` (the slot columns column by column, n rows each, response last) by Huber's
  * pseudo-observations of the fit `model`: y* = y_hat + psi(y - y_hat), psi(r) = max(-c sigma, min(c sigma, r)),
  * sigma = MAD of the residuals / Phi^-1(3/4). Least squares on them is Bickel's one-step Huber estimate.
  */
-function pseudoObservations(slotValues: Float64Array, a: number, trainingDays: readonly { regressors: DayRegressors }[], model: LinearModel, residuals: Float64Array): void {
-  const n = trainingDays.length;
+function pseudoObservations(columns: Float64Array, n: number, a: number, trainingDays: readonly { regressors: DayRegressors }[], model: LinearModel, residuals: Float64Array): void {
   const b = model.coefficients;
   const p = a - 1;
+  const y = p * n;
   for (let r = 0; r < n; r++) {
-    const base = r * a;
     let f = model.intercept;
-    for (let q = 0; q < p; q++) f += (b[q] as number) * (slotValues[base + q] as number);
+    for (let q = 0; q < p; q++) f += (b[q] as number) * (columns[q * n + r] as number);
     const d = (trainingDays[r] as { regressors: DayRegressors }).regressors;
     f += (b[p] as number) * d.meanZ + (b[p + 1] as number) * d.meanX;
     if (d.weekday <= 6) f += b[p + 1 + d.weekday] as number;
-    residuals[r] = (slotValues[base + p] as number) - f;
+    residuals[r] = (columns[y + r] as number) - f;
   }
   const limit = huberClipLimit(residuals.subarray(0, n));
   for (let r = 0; r < n; r++) {
     const e = residuals[r] as number;
-    if (e > limit) slotValues[r * a + p] = (slotValues[r * a + p] as number) - (e - limit);
-    else if (e < -limit) slotValues[r * a + p] = (slotValues[r * a + p] as number) - (e + limit);
+    if (e > limit) columns[y + r] = (columns[y + r] as number) - (e - limit);
+    else if (e < -limit) columns[y + r] = (columns[y + r] as number) - (e + limit);
   }
 }

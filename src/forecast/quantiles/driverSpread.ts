@@ -1,7 +1,7 @@
 import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
-import { predictLinear } from '../linalg/linearModel.js';
 import { standardisedGram } from '../linalg/standardisedGram.js';
+import { selectInPlace } from '../models/robustAsinh.js';
 import { sortedQuantile } from './sortedQuantile.js';
 
 /** Calibration data of {@link driverSpreadQuantiles}: per calibration day, its errors and spread features. */
@@ -24,15 +24,28 @@ export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: 
   const S = centre.length;
   const m = 5 + exogenous.length;
   const out = new Float64Array(S * m);
+  const harmonics = timeOfDayHarmonics(S);
   for (let s = 0; s < S; s++) {
-    const angle = (2 * Math.PI * s) / S;
     let c = s * m;
-    out[c++] = Math.cos(angle);
-    out[c++] = Math.sin(angle);
-    out[c++] = Math.cos(2 * angle);
-    out[c++] = Math.sin(2 * angle);
+    for (let h = 0; h < 4; h++) out[c++] = harmonics[4 * s + h] as number;
     for (const column of exogenous) out[c++] = column[s] as number;
     out[c] = centre[s] as number;
+  }
+  return out;
+}
+
+/** Per S, cos and sin of 2 pi s / S and of twice that angle, 4 S values (computed once: the same for every day). */
+const harmonicsBySlots = new Map<number, Float64Array>();
+
+function timeOfDayHarmonics(S: number): Float64Array {
+  let out = harmonicsBySlots.get(S);
+  if (out === undefined) {
+    out = new Float64Array(4 * S);
+    for (let s = 0; s < S; s++) {
+      const angle = (2 * Math.PI * s) / S;
+      out.set([Math.cos(angle), Math.sin(angle), Math.cos(2 * angle), Math.sin(2 * angle)], 4 * s);
+    }
+    harmonicsBySlots.set(S, out);
   }
   return out;
 }
@@ -85,7 +98,7 @@ export function driverSpreadQuantiles(
     const e = calibration.errors[d] as ArrayLike<number>;
     for (let s = 0; s < S; s++) absolute[d * S + s] = Math.abs(e[s] as number);
   }
-  const floor = 1e-3 * sortedQuantile(Float64Array.from(absolute).sort(), 0.5);
+  const floor = 1e-3 * medianBySelection(Float64Array.from(absolute));
   for (let i = 0; i < n; i++) logAbs[i] = Math.log(Math.max(absolute[i] as number, floor, Number.MIN_VALUE));
   const model = choleskyLeastSquares(standardisedGram({ rows: n, cols: m, data: design }, logAbs));
   const fitted = new Float64Array(n);
@@ -116,6 +129,31 @@ export function driverSpreadQuantiles(
   });
 }
 
+/** predictLinear(model, data[at .. at + m - 1]), the same sum in the same order, without a view of the row. */
 function predictRow(model: LinearModel, data: Float64Array, at: number, m: number): number {
-  return predictLinear(model, data.subarray(at, at + m));
+  let s = model.intercept;
+  const b = model.coefficients;
+  for (let j = 0; j < m; j++) s += (b[j] as number) * (data[at + j] as number);
+  return s;
+}
+
+/**
+ * sortedQuantile(sorted values, 0.5) without sorting: the order statistics floor(h) and the next one
+ * (h = (n - 1) / 2) by selection (Hoare 1961), the same two numbers whatever their order, combined
+ * as sortedQuantile does. `work` (at least one value) is reordered.
+ *
+ * Reference: C. A. R. Hoare (1961), Algorithm 65: Find, Commun. ACM 4(7), 321-322.
+ */
+export function medianBySelection(work: Float64Array): number {
+  const n = work.length;
+  const h = (n - 1) * 0.5;
+  const j = Math.floor(h);
+  const lower = selectInPlace(work, j);
+  // After selection every value right of position j is at least the j-th: the next order statistic is their least.
+  let upper = lower;
+  if (j + 1 < n) {
+    upper = Infinity;
+    for (let i = j + 1; i < n; i++) upper = Math.min(upper, work[i] as number);
+  }
+  return lower + (h - j) * (upper - lower);
 }

@@ -1,0 +1,67 @@
+import { describe, expect, it } from 'vitest';
+import { standardiseCentredSums, standardisedGram, type StandardisedGram } from '../../src/forecast/linalg/standardisedGram.js';
+import { medianBySelection } from '../../src/forecast/quantiles/driverSpread.js';
+import { sortedQuantile } from '../../src/forecast/quantiles/sortedQuantile.js';
+import { seededNormal, seededRandom } from './seededRandom.js';
+
+/**
+ * The plain reference: means in a first pass, then the centred products added row by row, one row at a
+ * time into every sum (Chan, Golub and LeVeque 1983's two-pass algorithm written out).
+ */
+function referenceGram(data: Float64Array, n: number, k: number, y: Float64Array): StandardisedGram {
+  const means = new Float64Array(k);
+  let yMean = 0;
+  for (let i = 0; i < n; i++) {
+    yMean += y[i] as number;
+    for (let j = 0; j < k; j++) means[j] = (means[j] as number) + (data[i * k + j] as number);
+  }
+  yMean /= n;
+  for (let j = 0; j < k; j++) means[j] = (means[j] as number) / n;
+  const gram = new Float64Array(k * k);
+  const cy = new Float64Array(k);
+  let ySquares = 0;
+  for (let i = 0; i < n; i++) {
+    const dy = (y[i] as number) - yMean;
+    ySquares += dy * dy;
+    const row = Array.from({ length: k }, (_, j) => (data[i * k + j] as number) - (means[j] as number));
+    for (let j = 0; j < k; j++) {
+      cy[j] = (cy[j] as number) + (row[j] as number) * dy;
+      for (let l = j; l < k; l++) gram[j * k + l] = (gram[j * k + l] as number) + (row[j] as number) * (row[l] as number);
+    }
+  }
+  return standardiseCentredSums(n, means, yMean, gram, cy, ySquares);
+}
+
+const sameBits = (a: ArrayLike<number>, b: ArrayLike<number>) => a.length === b.length && Array.from(a).every((v, i) => Object.is(v, b[i]));
+
+describe('standardisedGram', () => {
+  // Odd and even column counts (two columns against four per pass), a constant column, wide spreads of scale.
+  it.each([
+    [1, 7],
+    [2, 40],
+    [5, 333],
+    [7, 1000],
+    [8, 64],
+  ])('gives the plain row-by-row sums bit for bit, k = %i columns, n = %i rows', (k, n) => {
+    const z = seededNormal(10 + k);
+    const data = Float64Array.from({ length: n * k }, (_, c) => (c % k === 1 ? 4.25 : 100 * (c % k) + (1 + (c % k)) * z()));
+    const y = Float64Array.from({ length: n }, () => 50 + 5 * z());
+    const got = standardisedGram({ rows: n, cols: k, data }, y);
+    const want = referenceGram(data, n, k, y);
+    for (const field of ['means', 'scales', 'gram', 'zty'] as const) expect(sameBits(got[field], want[field]), field).toBe(true);
+    expect(Object.is(got.yMean, want.yMean) && Object.is(got.yVariance, want.yVariance)).toBe(true);
+  });
+});
+
+describe('medianBySelection', () => {
+  it('equals sortedQuantile(sorted, 0.5) (Hyndman and Fan 1996, definition 7) bit for bit, odd and even n, with ties', () => {
+    const u = seededRandom(4);
+    for (const n of [1, 2, 3, 10, 11, 200, 201]) {
+      const values = Float64Array.from({ length: n }, () => Math.round(20 * u()) / 4);
+      const want = sortedQuantile(Float64Array.from(values).sort(), 0.5);
+      expect(Object.is(medianBySelection(Float64Array.from(values)), want), `n = ${n}`).toBe(true);
+    }
+    // A worked value: the median of 1, 2, 3, 4 is 2.5 (as R's median(1:4)).
+    expect(medianBySelection(Float64Array.of(4, 1, 3, 2))).toBe(2.5);
+  });
+});
