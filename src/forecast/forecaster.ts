@@ -394,7 +394,12 @@ export class Forecaster {
     const calibration = this.calibrationSet(model, view, calibrationDays);
     const scale = calibration.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, calibration, calibrationDays);
     const centre = point.mean.map(scale.to);
-    const forecastsOnScale = calibration.map((c) => Float64Array.from(c.forecast.mean, scale.to));
+    const forecastsOnScale = calibration.map((c) => {
+      const mean = c.forecast.mean;
+      const f = new Float64Array(mean.length);
+      for (let s = 0; s < f.length; s++) f[s] = scale.to(mean[s] as number);
+      return f;
+    });
     const errors = calibration.map((c, d) => {
       const e = new Float64Array(c.realised.length);
       const f = forecastsOnScale[d] as Float64Array;

@@ -25,7 +25,7 @@ function byColumn(rows: Float64Array, n: number, a: number): Float64Array {
 
 function gramsOf(builder: SlotDayGramBuilder, rows: Float64Array, n: number, a: number, newResponseOnly = false): StandardisedGram[] {
   const out: StandardisedGram[] = [];
-  builder.forEachGram(byColumn(rows, n, a), a, (gram) => out.push(structuredClone(gram)), newResponseOnly);
+  builder.forEachGram(byColumn(rows, n, a), a, (gram) => out.push(structuredClone(gram)), { newResponseOnly });
   return out;
 }
 
@@ -133,6 +133,20 @@ describe('SlotDayGramBuilder', () => {
     const normal = seededNormal(300 + a);
     for (let i = 0; i < n; i++) next[i * a + a - 1] = 40 + 8 * normal();
     expectSameBits(gramsOf(builder, next, n, a, true), referenceGrams(day, counts, next, a));
+  });
+
+  it('hands out only the longest window\'s Gram when asked, and keeps every window\'s sums for a new response', () => {
+    const { day, rows } = design(9);
+    const builder = new SlotDayGramBuilder(day, COUNTS);
+    const longest: [StandardisedGram, number][] = [];
+    builder.forEachGram(byColumn(rows, N, A), A, (gram, w) => longest.push([structuredClone(gram), w]), { longestOnly: true });
+    const reference = referenceGrams(day, COUNTS, rows, A);
+    expect(longest.map(([, w]) => w)).toEqual([COUNTS.length - 1]);
+    expectSameBits([longest[0]![0]], [reference[COUNTS.length - 1]!]);
+    const next = Float64Array.from(rows);
+    const normal = seededNormal(13);
+    for (let i = 0; i < N; i++) next[i * A + A - 1] = 35 + 6 * normal();
+    expectSameBits(gramsOf(builder, next, N, A, true), referenceGrams(day, COUNTS, next, A));
   });
 
   it('a first pass asked with only a new response forms every sum (nothing to keep yet)', () => {

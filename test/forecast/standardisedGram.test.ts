@@ -1,8 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { standardiseCentredSums, standardisedGram, type StandardisedGram } from '../../src/forecast/linalg/standardisedGram.js';
-import { medianBySelection } from '../../src/forecast/quantiles/driverSpread.js';
-import { sortedQuantile } from '../../src/forecast/quantiles/sortedQuantile.js';
-import { seededNormal, seededRandom } from './seededRandom.js';
+import { seededNormal } from './seededRandom.js';
 
 /**
  * The plain reference: means in a first pass, then the centred products added row by row, one row at a
@@ -50,18 +48,5 @@ describe('standardisedGram', () => {
     const want = referenceGram(data, n, k, y);
     for (const field of ['means', 'scales', 'gram', 'zty'] as const) expect(sameBits(got[field], want[field]), field).toBe(true);
     expect(Object.is(got.yMean, want.yMean) && Object.is(got.yVariance, want.yVariance)).toBe(true);
-  });
-});
-
-describe('medianBySelection', () => {
-  it('equals sortedQuantile(sorted, 0.5) (Hyndman and Fan 1996, definition 7) bit for bit, odd and even n, with ties', () => {
-    const u = seededRandom(4);
-    for (const n of [1, 2, 3, 10, 11, 200, 201]) {
-      const values = Float64Array.from({ length: n }, () => Math.round(20 * u()) / 4);
-      const want = sortedQuantile(Float64Array.from(values).sort(), 0.5);
-      expect(Object.is(medianBySelection(Float64Array.from(values)), want), `n = ${n}`).toBe(true);
-    }
-    // A worked value: the median of 1, 2, 3, 4 is 2.5 (as R's median(1:4)).
-    expect(medianBySelection(Float64Array.of(4, 1, 3, 2))).toBe(2.5);
   });
 });

@@ -1,6 +1,6 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
-import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
-import { predictLinear, type LinearModel } from '../linalg/linearModel.js';
+import { choleskyLeastSquares, choleskyPrediction } from '../linalg/choleskyLeastSquares.js';
+import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
 import type { FitStopwatch } from '../fitStopwatch.js';
 import { timedFits } from '../fitStopwatch.js';
@@ -120,31 +120,34 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const k = a - 1 + 2 + 6;
   const slotValues = new Float64Array(n * a);
   const target = new Float64Array(k);
-  const slotX = new Float64Array(n);
   const forecasts = new Map<number, Float64Array>(counts.map((c) => [c, new Float64Array(S)]));
   const targetDay = days.regressors(targetLags[0] as number, targetLags[1] as number, view.target.weekday);
   const trainingDays = rows.map((i) => {
     const dn = view.dayNumber(i);
     return { own: days.of(i), regressors: days.regressors(view.indexOf(dn - 1), view.indexOf(dn - 7), view.past(i).weekday) };
   });
+  const meanZ = Float64Array.from(trainingDays, (d) => d.regressors.meanZ);
+  const meanX = Float64Array.from(trainingDays, (d) => d.regressors.meanX);
+  const weekdays = Int8Array.from(trainingDays, (d) => d.regressors.weekday);
   const builder = timedFits(settings.stopwatch, 0, () => new SlotDayGramBuilder(
     {
       continuous: Float64Array.from(trainingDays.flatMap((d) => [d.regressors.meanZ, d.regressors.meanX])),
       width: 2,
-      categories: Int8Array.from(trainingDays, (d) => d.regressors.weekday),
+      categories: weekdays,
       dummies: 6,
     },
     counts,
   ));
-  const xOf = trainingDays.map((d) => d.own.x);
-  const zOf = trainingDays.map((d) => d.own.z);
-  const lag1Of = trainingDays.map((d) => d.regressors.lag1);
-  const lag7Of = trainingDays.map((d) => d.regressors.lag7);
+  // The days' slot values slot by slot (bySlot[s n + r]), laid out once for all slots.
+  const xBySlot = bySlot(trainingDays.map((d) => d.own.x), S);
+  const zBySlot = bySlot(trainingDays.map((d) => d.own.z), S);
+  const lag1BySlot = bySlot(trainingDays.map((d) => d.regressors.lag1), S);
+  const lag7BySlot = bySlot(trainingDays.map((d) => d.regressors.lag7), S);
   const knots = new Float64Array(J);
   const scratch = new Float64Array(n);
-  const residuals = new Float64Array(n);
+  const fitted = new Float64Array(n);
   for (let s = 0; s < S; s++) {
-    for (let r = 0; r < n; r++) slotX[r] = (xOf[r] as Float64Array)[s] as number;
+    const slotX = xBySlot.subarray(s * n, (s + 1) * n);
     scratch.set(slotX);
     slotQuantiles(scratch, J, knots);
     // The slot columns column by column (slotValues[q n + r]): x, the hinges, lag 1, lag 7, the response.
@@ -157,12 +160,10 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
         slotValues[base + r] = xv > knot ? xv - knot : 0;
       }
     }
-    for (let r = 0; r < n; r++) {
-      slotValues[(J + 1) * n + r] = (lag1Of[r] as Float64Array)[s] as number;
-      slotValues[(J + 2) * n + r] = (lag7Of[r] as Float64Array)[s] as number;
-      slotValues[(a - 1) * n + r] = (zOf[r] as Float64Array)[s] as number;
-    }
-    const thin = counts.map((count) => thinHinges(slotValues, n, J, count));
+    slotValues.set(lag1BySlot.subarray(s * n, (s + 1) * n), (J + 1) * n);
+    slotValues.set(lag7BySlot.subarray(s * n, (s + 1) * n), (J + 2) * n);
+    slotValues.set(zBySlot.subarray(s * n, (s + 1) * n), (a - 1) * n);
+    const thin = thinHinges(slotValues, n, J, counts);
     const xt = days.targetX[s] as number;
     target[0] = xt;
     for (let j = 0; j < J; j++) target[1 + j] = xt > (knots[j] as number) ? xt - (knots[j] as number) : 0;
@@ -171,22 +172,27 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     target[a - 1] = targetDay.meanZ;
     target[a] = targetDay.meanX;
     for (let w = 1; w <= 6; w++) target[a + w] = targetDay.weekday === w ? 1 : 0;
-    timedFits(settings.stopwatch, 2 * counts.length, () => {
-      // Least squares, then once more on Huber's pseudo-observations of the longest window's fit.
+    timedFits(settings.stopwatch, counts.length + 1, () => {
+      // Least squares on the longest window, then on Huber's pseudo-observations of that fit in every window.
       let longest: LinearModel | undefined;
-      builder.forEachGram(slotValues, a, (gram, w) => {
-        for (const j of thin[w] as number[]) gram.scales[j] = 0;
-        longest = choleskyLeastSquares(gram);
-      });
-      pseudoObservations(slotValues, n, a, trainingDays, longest as LinearModel, residuals);
       builder.forEachGram(
         slotValues,
         a,
         (gram, w) => {
           for (const j of thin[w] as number[]) gram.scales[j] = 0;
-          (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(predictLinear(choleskyLeastSquares(gram), target));
+          longest = choleskyLeastSquares(gram);
         },
-        true,
+        { longestOnly: true },
+      );
+      pseudoObservations(slotValues, n, a, { meanZ, meanX, weekdays }, longest as LinearModel, fitted);
+      builder.forEachGram(
+        slotValues,
+        a,
+        (gram, w) => {
+          for (const j of thin[w] as number[]) gram.scales[j] = 0;
+          (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(choleskyPrediction(gram, target));
+        },
+        { newResponseOnly: true },
       );
     });
   }
@@ -214,30 +220,53 @@ interface DayRegressors {
 const HINGE_SUPPORT_DAYS = 20;
 const HINGE_SUPPORT_SHARE = 0.1;
 
-/** The hinge columns (1..J; columns[j n + r]) that fewer than the support's days of the first `count` rows reach. */
-function thinHinges(columns: Float64Array, n: number, hinges: number, count: number): number[] {
-  const needed = Math.max(HINGE_SUPPORT_DAYS, HINGE_SUPPORT_SHARE * count);
-  const out: number[] = [];
+/**
+ * Per count (the first counts[w] rows), the hinge columns (1..J; columns[j n + r]) that fewer than the
+ * support's days of those rows reach: one pass over the rows per hinge, read off at every count.
+ */
+function thinHinges(columns: Float64Array, n: number, hinges: number, counts: readonly number[]): number[][] {
+  const out = counts.map((): number[] => []);
   for (let j = 1; j <= hinges; j++) {
     let support = 0;
-    for (let r = 0; r < count; r++) if ((columns[j * n + r] as number) > 0) support++;
-    if (support < needed) out.push(j);
+    let r = 0;
+    counts.forEach((count, w) => {
+      for (; r < count; r++) if ((columns[j * n + r] as number) > 0) support++;
+      if (support < Math.max(HINGE_SUPPORT_DAYS, HINGE_SUPPORT_SHARE * count)) (out[w] as number[]).push(j);
+    });
   }
+  return out;
+}
+
+/** Per-day arrays of S slot values, slot by slot: out[s n + r] = days[r][s]. */
+function bySlot(days: readonly Float64Array[], S: number): Float64Array {
+  const n = days.length;
+  const out = new Float64Array(S * n);
+  days.forEach((day, r) => {
+    for (let s = 0; s < S; s++) out[s * n + r] = day[s] as number;
+  });
   return out;
 }
 
 /**
  * The knots of a slot: the j/(J+1) sample quantiles (j = 1..J, Hyndman and Fan's definition 7) of its
- * residual loads, into `out`; `values` is reordered (selection, O(n) per knot).
+ * residual loads, into `out`; `values` is reordered. The order statistics by selection (Hoare 1961),
+ * each knot's among the values right of the last one's (ranks only grow with j), and the next order
+ * statistic as the least value right of a selected one.
  */
 export function slotQuantiles(values: Float64Array, count: number, out: Float64Array): void {
   const n = values.length;
+  let from = 0;
   for (let j = 0; j < count; j++) {
     const h = (n - 1) * ((j + 1) / (count + 1));
     const lo = Math.floor(h);
-    const lower = selectInPlace(values, lo);
-    const upper = lo + 1 < n ? selectInPlace(values, lo + 1) : lower;
+    const lower = selectInPlace(values, lo, from);
+    let upper = lower;
+    if (lo + 1 < n) {
+      upper = Infinity;
+      for (let i = lo + 1; i < n; i++) upper = Math.min(upper, values[i] as number);
+    }
     out[j] = lower + (h - lo) * (upper - lower);
+    from = lo;
   }
 }
 
@@ -354,18 +383,32 @@ export function huberClipLimit(residuals: Float64Array): number {
  * pseudo-observations of the fit `model`: y* = y_hat + psi(y - y_hat), psi(r) = max(-c sigma, min(c sigma, r)),
  * sigma = MAD of the residuals / Phi^-1(3/4). Least squares on them is Bickel's one-step Huber estimate.
  */
-function pseudoObservations(columns: Float64Array, n: number, a: number, trainingDays: readonly { regressors: DayRegressors }[], model: LinearModel, residuals: Float64Array): void {
+function pseudoObservations(
+  columns: Float64Array,
+  n: number,
+  a: number,
+  day: { readonly meanZ: Float64Array; readonly meanX: Float64Array; readonly weekdays: Int8Array },
+  model: LinearModel,
+  fitted: Float64Array,
+): void {
   const b = model.coefficients;
   const p = a - 1;
   const y = p * n;
-  for (let r = 0; r < n; r++) {
-    let f = model.intercept;
-    for (let q = 0; q < p; q++) f += (b[q] as number) * (columns[q * n + r] as number);
-    const d = (trainingDays[r] as { regressors: DayRegressors }).regressors;
-    f += (b[p] as number) * d.meanZ + (b[p + 1] as number) * d.meanX;
-    if (d.weekday <= 6) f += b[p + 1 + d.weekday] as number;
-    residuals[r] = (columns[y + r] as number) - f;
+  // The fitted values column by column: per row the same additions in the same order as row by row.
+  fitted.fill(model.intercept, 0, n);
+  for (let q = 0; q < p; q++) {
+    const bq = b[q] as number;
+    for (let r = 0; r < n; r++) fitted[r] = (fitted[r] as number) + bq * (columns[q * n + r] as number);
   }
+  const bz = b[p] as number;
+  const bx = b[p + 1] as number;
+  for (let r = 0; r < n; r++) {
+    let f = (fitted[r] as number) + (bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number));
+    const weekday = day.weekdays[r] as number;
+    if (weekday <= 6) f += b[p + 1 + weekday] as number;
+    fitted[r] = (columns[y + r] as number) - f;
+  }
+  const residuals = fitted;
   const limit = huberClipLimit(residuals.subarray(0, n));
   for (let r = 0; r < n; r++) {
     const e = residuals[r] as number;

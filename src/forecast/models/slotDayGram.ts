@@ -70,12 +70,20 @@ export class SlotDayGramBuilder {
    * With `newResponseOnly`, the slot columns must be those of the previous call and only the response
    * (the last column) new: the sums of the slot columns are then kept from that call and only the
    * response's are formed, O(a + B) per row instead of O(a (a + B)) (a refit on modified responses).
+   * With `longestOnly`, only the last count's Gram is handed to `use` (the sums of every count are
+   * still formed, for a later pass with a new response).
    *
    * @param columns the a slot columns of the n training rows, column by column (columns[q n + i]): the
    *   a - 1 slot regressors and, last, the response
    */
-  forEachGram(columns: Float64Array, a: number, use: (gram: StandardisedGram, index: number) => void, newResponseOnly = false): void {
+  forEachGram(
+    columns: Float64Array,
+    a: number,
+    use: (gram: StandardisedGram, index: number) => void,
+    options: { readonly newResponseOnly?: boolean; readonly longestOnly?: boolean } = {},
+  ): void {
     const { n } = this;
+    const newResponseOnly = options.newResponseOnly ?? false;
     const work = this.workspace(a);
     const y = a - 1;
     const reuse = newResponseOnly && work.filled;
@@ -98,7 +106,8 @@ export class SlotDayGramBuilder {
       }
       work.filled = true;
     }
-    this.counts.forEach((count, w) => use(this.assemble(work, count, w), w));
+    const W = this.counts.length;
+    for (let w = options.longestOnly === true ? W - 1 : 0; w < W; w++) use(this.assemble(work, this.counts[w] as number, w), w);
   }
 
   /** Sums and sums by category of slot columns p and p + 1 (when `two`), read off at every count. */
