@@ -255,18 +255,36 @@ export class Forecaster {
     const levelsKey = levels.join(',');
     const validation: number[] = [];
     for (let j = dayIndex - 1; j >= 0 && validation.length < this.options.autoValidationDays; j--) validation.push(j);
-    const losses = candidates.map((c) => validation.map((j) => this.validationLoss(c, j, levels, levelsKey)));
+    // Day by day, each day's candidates in evaluation order (speed only; see evaluationOrder).
+    const evaluation = this.evaluationOrder(candidates);
+    const losses = candidates.map((): (number | null)[] => []);
+    validation.forEach((j, v) => {
+      for (const i of evaluation) (losses[i] as (number | null)[])[v] = this.validationLoss(candidates[i] as AutoCandidate, j, levels, levelsKey);
+    });
     const common = validation.flatMap((_, v) => (losses.every((l) => l[v] !== null) ? [v] : []));
     const totals = losses.map((l) => common.reduce((sum, v) => sum + (l[v] as number), 0));
     const order = candidates.map((_, i) => i).sort((p, q) => (common.length === 0 ? p - q : (totals[p] as number) - (totals[q] as number) || p - q));
     // Every candidate forecasts the delivery day now: the chosen one's forecast is the answer, and all of
     // them are scored when this day becomes a validation day (its prices are then known).
-    const made = candidates.map((c) => this.candidateForecast(c, dayIndex, levels, levelsKey));
+    const made: (DayForecast | InsufficientHistoryError)[] = [];
+    for (const i of evaluation) made[i] = this.candidateForecast(candidates[i] as AutoCandidate, dayIndex, levels, levelsKey);
     const chosen = order.find((i) => !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
     if (chosen === undefined) throw made[0] as InsufficientHistoryError;
     const candidate = candidates[chosen] as AutoCandidate;
     const validationLoss = common.length === 0 ? null : (totals[chosen] as number) / common.length;
     return { ...(made[chosen] as DayForecast), chosen: { ...candidate, validationDays: common.length, validationLoss } };
+  }
+
+  /**
+   * The indices of the candidates in the order their forecasts of a day are made: those on the ARX
+   * first, then the others in their order. Only the speed depends on it (each forecast is the same
+   * whatever was made before): the ARX fit of a day keeps its training days' prices on the asinh
+   * scale of its window (keptAsinhDay), and another candidate's calibration on a window of the same
+   * days then reads them instead of computing them again.
+   */
+  private evaluationOrder(candidates: readonly AutoCandidate[]): number[] {
+    const onArx = (c: AutoCandidate) => (pointModelOf(c.method, this.options) === 'arx' ? 0 : 1);
+    return candidates.map((_, i) => i).sort((p, q) => onArx(candidates[p] as AutoCandidate) - onArx(candidates[q] as AutoCandidate) || p - q);
   }
 
   /** A candidate's forecast of day j (kept until its loss is scored), or the reason it has none. */
@@ -344,7 +362,8 @@ export class Forecaster {
         grid = regressionQuantiles([point.mean, ...view.target.exogenous], (c) => [c.forecast.mean, ...c.exogenous], this.driverWarmStarts);
       } else if (method === 'driver-fhs') {
         const features = calibration.map((c, d) => spreadFeatures(c.exogenous, forecastsOnScale[d] as Float64Array));
-        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool);
+        const kept = { order: this.poolOrder(model, calibrationDays, 'standardised'), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) };
+        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool, kept);
       } else {
         grid = historicalSimulation(centre, errors, at, { order: this.poolOrder(model, calibrationDays), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) });
       }
@@ -417,9 +436,9 @@ export class Forecaster {
     return state;
   }
 
-  /** The kept order of the historical-simulation pools of a point model and calibration window. */
-  private poolOrder(model: PointModelName, calibrationDays: number): PoolOrder {
-    const key = `${model}|${calibrationDays}`;
+  /** The kept order of the historical-simulation pools of a point model and calibration window (of its errors, or of driver-fhs's standardised ones). */
+  private poolOrder(model: PointModelName, calibrationDays: number, errors: 'errors' | 'standardised' = 'errors'): PoolOrder {
+    const key = `${model}|${calibrationDays}|${errors}`;
     let order = this.poolOrders.get(key);
     if (order === undefined) {
       order = new PoolOrder();

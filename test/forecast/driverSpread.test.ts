@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { driverSpreadQuantiles, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
+import { PoolOrder } from '../../src/forecast/quantiles/poolOrder.js';
 
 // Invented inputs (formulas shared with test/forecast/driverSpreadReference.py); the check values come from
 // that script (NumPy 2.4.6: lstsq for Harvey's (1976) regression of log |e|, np.quantile for definition 7).
@@ -41,6 +42,18 @@ describe('driver spread quantiles (Harvey 1976 spread regression; filtered histo
   it.each(['all', 'slot'] as const)('pool %s matches NumPy (driverSpreadReference.py)', (pool) => {
     const got = driverSpreadQuantiles(targetCentre, targetFeatures, calibration, LEVELS, pool);
     got.forEach((row, s) => row.forEach((v, k) => expect(v).toBeCloseTo(REFERENCE[pool][s]![k]!, 8)));
+  });
+
+  it('with the pools\' order kept from the day before (poolOrder.ts), the same quantiles bit for bit as sorting afresh', () => {
+    const order = new PoolOrder();
+    // A window of DAYS - 2 days that moves a day at a time over the calibration days.
+    for (const first of [0, 1, 2]) {
+      const window = { errors: calibration.errors.slice(first, first + DAYS - 2), features: calibration.features.slice(first, first + DAYS - 2) };
+      const dayIds = Int32Array.from({ length: DAYS - 2 }, (_, d) => 100 + first + d);
+      const kept = driverSpreadQuantiles(targetCentre, targetFeatures, window, LEVELS, 'slot', { order, dayIds });
+      const fresh = driverSpreadQuantiles(targetCentre, targetFeatures, window, LEVELS, 'slot');
+      expect(kept.every((row, s) => row.every((v, k) => Object.is(v, fresh[s]![k])))).toBe(true);
+    }
   });
 
   it('scales with the errors: doubling every error doubles the distance of each quantile from the centre (log-linear spread)', () => {

@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { slotQuantiles } from '../../src/forecast/models/driverRegression.js';
-import { selectInPlace } from '../../src/forecast/models/robustAsinh.js';
+import { SlotSortedValues } from '../../src/forecast/models/slotSortedValues.js';
 import { medianBySelection } from '../../src/forecast/quantiles/driverSpread.js';
 import { sortedQuantile } from '../../src/forecast/quantiles/sortedQuantile.js';
 import { seededRandom } from './seededRandom.js';
@@ -11,20 +10,7 @@ function samples(seed: number): Float64Array[] {
   return [1, 2, 3, 10, 11, 200, 201, 729].map((n) => Float64Array.from({ length: n }, () => Math.round(40 * u() - 10) / 4));
 }
 
-describe('order statistics by selection (Hoare 1961) against the sorted sample', () => {
-  it('selectInPlace from a position: the k-th smallest of the whole sample once the values before are its smallest', () => {
-    for (const values of samples(1)) {
-      const sorted = Float64Array.from(values).sort();
-      const work = Float64Array.from(values);
-      const first = Math.floor(values.length / 3);
-      selectInPlace(work, first);
-      for (const k of [first, Math.floor((2 * values.length) / 3), values.length - 1]) {
-        if (k < first) continue;
-        expect(selectInPlace(work, k, first)).toBe(sorted[k]);
-      }
-    }
-  });
-
+describe('order statistics without sorting afresh, against the sorted sample', () => {
   it('medianBySelection equals sortedQuantile(sorted, 0.5) (Hyndman and Fan 1996, definition 7) bit for bit', () => {
     for (const values of samples(2)) {
       const want = sortedQuantile(Float64Array.from(values).sort(), 0.5);
@@ -34,19 +20,23 @@ describe('order statistics by selection (Hoare 1961) against the sorted sample',
     expect(medianBySelection(Float64Array.of(4, 1, 3, 2))).toBe(2.5);
   });
 
-  it('slotQuantiles gives the j/(J+1) quantiles of definition 7 of the sorted sample, bit for bit', () => {
-    for (const values of samples(3)) {
-      for (const J of [1, 2, 3, 5]) {
-        const sorted = Float64Array.from(values).sort();
-        const out = new Float64Array(J);
-        slotQuantiles(Float64Array.from(values), J, out);
-        const want = Array.from({ length: J }, (_, j) => sortedQuantile(sorted, (j + 1) / (J + 1)));
-        expect(Array.from(out).every((v, j) => Object.is(v, want[j])), `n = ${values.length}, J = ${J}`).toBe(true);
+  it('SlotSortedValues keeps each slot\'s values in the order of sorting them afresh, bit for bit, as the set of days moves, grows and jumps', () => {
+    const u = seededRandom(3);
+    const S = 5;
+    // Invented days of S values with ties (a grid of 1/4), some -0 and +0.
+    const days = Array.from({ length: 120 }, (_, d) => Float64Array.from({ length: S }, (_, s) => (d % 17 === 0 && s === 2 ? (d % 2 === 0 ? -0 : 0) : Math.round(40 * u() - 10) / 4)));
+    const kept = new SlotSortedValues();
+    const windows: [number, number][] = [[0, 30], [1, 31], [1, 33], [3, 33], [3, 34], [50, 110], [51, 111], [0, 120], [10, 12], [10, 13]];
+    for (const [from, to] of windows) {
+      const set = days.slice(from, to).reverse();
+      const sorted = kept.of(set);
+      for (let s = 0; s < S; s++) {
+        const fresh = Float64Array.from(set, (day) => day[s] as number).sort();
+        // Values equal as numbers (a kept -0 and +0 may trade places), and the quantiles of definition 7 the same bits.
+        expect(sorted[s]!.length).toBe(fresh.length);
+        expect(Array.from(sorted[s]!).every((v, i) => v === fresh[i])).toBe(true);
+        for (const tau of [0.25, 0.5, 0.75]) expect(sortedQuantile(sorted[s]!, tau) === sortedQuantile(fresh, tau)).toBe(true);
       }
     }
-    // A worked value: the quartiles of 1..5 by definition 7 are 2, 3 and 4 (R: quantile(1:5, c(.25, .5, .75))).
-    const out = new Float64Array(3);
-    slotQuantiles(Float64Array.of(5, 3, 1, 4, 2), 3, out);
-    expect([...out]).toEqual([2, 3, 4]);
   });
 });

@@ -2,6 +2,7 @@ import { sortedQuantile } from '../quantiles/sortedQuantile.js';
 import { choleskyLeastSquares, choleskyPrediction } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
+import { SlotSortedValues } from './slotSortedValues.js';
 import type { FitStopwatch } from '../fitStopwatch.js';
 import { timedFits } from '../fitStopwatch.js';
 import type { GriddedDay, HistoryView } from './historyView.js';
@@ -144,12 +145,12 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const lag1BySlot = bySlot(trainingDays.map((d) => d.regressors.lag1), S);
   const lag7BySlot = bySlot(trainingDays.map((d) => d.regressors.lag7), S);
   const knots = new Float64Array(J);
-  const scratch = new Float64Array(n);
   const fitted = new Float64Array(n);
+  // Per slot, the residual loads of the longest window's days in order, kept from the last delivery day's.
+  const sortedX = keptResidualLoads.of(trainingDays.map((d) => d.own.x));
   for (let s = 0; s < S; s++) {
     const slotX = xBySlot.subarray(s * n, (s + 1) * n);
-    scratch.set(slotX);
-    slotQuantiles(scratch, J, knots);
+    for (let j = 0; j < J; j++) knots[j] = sortedQuantile(sortedX[s] as Float64Array, (j + 1) / (J + 1));
     // The slot columns column by column (slotValues[q n + r]): x, the hinges, lag 1, lag 7, the response.
     slotValues.set(slotX, 0);
     for (let j = 0; j < J; j++) {
@@ -248,27 +249,12 @@ function bySlot(days: readonly Float64Array[], S: number): Float64Array {
 }
 
 /**
- * The knots of a slot: the j/(J+1) sample quantiles (j = 1..J, Hyndman and Fan's definition 7) of its
- * residual loads, into `out`; `values` is reordered. The order statistics by selection (Hoare 1961),
- * each knot's among the values right of the last one's (ranks only grow with j), and the next order
- * statistic as the least value right of a selected one.
+ * The residual loads of the last delivery day's longest window, sorted per slot, for the knots (the
+ * j/(J+1) sample quantiles of definition 7 read off the sorted values with sortedQuantile): the next
+ * day's window differs by a day or two, so they are updated rather than sorted again
+ * (slotSortedValues.ts; the same numbers whatever was kept).
  */
-export function slotQuantiles(values: Float64Array, count: number, out: Float64Array): void {
-  const n = values.length;
-  let from = 0;
-  for (let j = 0; j < count; j++) {
-    const h = (n - 1) * ((j + 1) / (count + 1));
-    const lo = Math.floor(h);
-    const lower = selectInPlace(values, lo, from);
-    let upper = lower;
-    if (lo + 1 < n) {
-      upper = Infinity;
-      for (let i = lo + 1; i < n; i++) upper = Math.min(upper, values[i] as number);
-    }
-    out[j] = lower + (h - lo) * (upper - lower);
-    from = lo;
-  }
-}
+const keptResidualLoads = new SlotSortedValues();
 
 /** A past day on the model's scale: prices (z), prices clipped at the day's fences, residual load, means. */
 interface DriverDay {
@@ -280,7 +266,7 @@ interface DriverDay {
 }
 
 /** What does not depend on the delivery day, kept per gridded past day: fences of its prices, residual load. */
-const dayInputs = new WeakMap<GriddedDay, { readonly low: number; readonly high: number; readonly x: Float64Array; readonly columns: string }>();
+const dayInputs = new WeakMap<GriddedDay, { readonly low: number; readonly high: number; readonly x: Float64Array; readonly meanX: number; readonly columns: string }>();
 
 /** Per past day, the prices on the delivery day's scale and the residual load (computed once per delivery day). */
 class DriverDays {
@@ -303,7 +289,8 @@ class DriverDays {
       const past = this.view.past(i);
       let inputs = dayInputs.get(past);
       if (inputs === undefined || inputs.columns !== this.signature) {
-        inputs = { ...farOutFences(past.prices), x: residualLoad(past, this.columns), columns: this.signature };
+        const x = residualLoad(past, this.columns);
+        inputs = { ...farOutFences(past.prices), x, meanX: meanOf(x), columns: this.signature };
         dayInputs.set(past, inputs);
       }
       const prices = past.prices;
@@ -322,7 +309,7 @@ class DriverDays {
         clipped[s] = c;
         sum += c;
       }
-      day = { z, clipped, x: inputs.x, meanZ: sum / S, meanX: meanOf(inputs.x) };
+      day = { z, clipped, x: inputs.x, meanZ: sum / S, meanX: inputs.meanX };
       this.cache.set(i, day);
     }
     return day;

@@ -2,6 +2,7 @@ import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { standardisedGram } from '../linalg/standardisedGram.js';
 import { selectInPlace } from '../models/robustAsinh.js';
+import type { PoolOrder } from './poolOrder.js';
 import { sortedQuantile } from './sortedQuantile.js';
 
 /** Calibration data of {@link driverSpreadQuantiles}: per calibration day, its errors and spread features. */
@@ -77,6 +78,9 @@ function timeOfDayHarmonics(S: number): Float64Array {
  * @param targetFeatures the delivery day's spread features (S x m)
  * @param calibration errors and features of the calibration days (at least two)
  * @param levels strictly increasing levels in (0, 1)
+ * @param kept with pool 'slot': the pools' order from the last call and the day ids of the calibration
+ *   days (ascending), to sort each slot's standardised errors from that order (poolOrder.ts; the same
+ *   quantiles, faster for a window that moved a day)
  * @returns values[s][k] on the model's scale
  */
 export function driverSpreadQuantiles(
@@ -85,6 +89,7 @@ export function driverSpreadQuantiles(
   calibration: SpreadCalibration,
   levels: readonly number[],
   pool: SpreadPool,
+  kept?: { readonly order: PoolOrder; readonly dayIds: ArrayLike<number> },
 ): number[][] {
   const S = centre.length;
   const days = calibration.errors.length;
@@ -119,11 +124,18 @@ export function driverSpreadQuantiles(
   const quantilesOf = (sorted: Float64Array): number[] => levels.map((tau) => sortedQuantile(sorted, tau));
   const pooled = pool === 'all' ? quantilesOf(Float64Array.from(standardised).sort()) : null;
   const slotSample = new Float64Array(days);
+  const byDay = kept === undefined || pooled !== null ? [] : Array.from({ length: days }, (_, d) => standardised.subarray(d * S, (d + 1) * S));
+  if (byDay.length > 0) kept?.order.begin(kept.dayIds);
   return Array.from({ length: S }, (_, s) => {
     let q = pooled;
     if (q === null) {
-      for (let d = 0; d < days; d++) slotSample[d] = standardised[d * S + s] as number;
-      q = quantilesOf(slotSample.sort());
+      if (kept === undefined) {
+        for (let d = 0; d < days; d++) slotSample[d] = standardised[d * S + s] as number;
+        slotSample.sort();
+      } else {
+        kept.order.sortSlot(byDay, s, slotSample);
+      }
+      q = quantilesOf(slotSample);
     }
     return q.map((v) => (centre[s] as number) + (spread[s] as number) * v);
   });
