@@ -3,6 +3,7 @@ import { choleskyLeastSquares, choleskyPrediction } from '../linalg/choleskyLeas
 import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
 import { SlotSortedValues } from './slotSortedValues.js';
+import { ScratchBuffers } from '../scratchBuffers.js';
 import type { FitStopwatch } from '../fitStopwatch.js';
 import { timedFits } from '../fitStopwatch.js';
 import type { GriddedDay, HistoryView } from './historyView.js';
@@ -140,10 +141,10 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     counts,
   ));
   // The days' slot values slot by slot (bySlot[s n + r]), laid out once for all slots.
-  const xBySlot = bySlot(trainingDays.map((d) => d.own.x), S);
-  const zBySlot = bySlot(trainingDays.map((d) => d.own.z), S);
-  const lag1BySlot = bySlot(trainingDays.map((d) => d.regressors.lag1), S);
-  const lag7BySlot = bySlot(trainingDays.map((d) => d.regressors.lag7), S);
+  const xBySlot = bySlot(trainingDays.map((d) => d.own.x), S, scratchBuffers.get(0, S * n));
+  const zBySlot = bySlot(trainingDays.map((d) => d.own.z), S, scratchBuffers.get(1, S * n));
+  const lag1BySlot = bySlot(trainingDays.map((d) => d.regressors.lag1), S, scratchBuffers.get(2, S * n));
+  const lag7BySlot = bySlot(trainingDays.map((d) => d.regressors.lag7), S, scratchBuffers.get(3, S * n));
   const knots = new Float64Array(J);
   const fitted = new Float64Array(n);
   // Per slot, the residual loads of the longest window's days in order, kept from the last delivery day's.
@@ -158,7 +159,8 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
       const base = (1 + j) * n;
       for (let r = 0; r < n; r++) {
         const xv = slotX[r] as number;
-        slotValues[base + r] = xv > knot ? xv - knot : 0;
+        // max(0, x - k): the same number as x > k ? x - k : 0 (+0 when x <= k), without a branch.
+        slotValues[base + r] = Math.max(xv - knot, 0);
       }
     }
     slotValues.set(lag1BySlot.subarray(s * n, (s + 1) * n), (J + 1) * n);
@@ -231,17 +233,19 @@ function thinHinges(columns: Float64Array, n: number, hinges: number, counts: re
     let support = 0;
     let r = 0;
     counts.forEach((count, w) => {
-      for (; r < count; r++) if ((columns[j * n + r] as number) > 0) support++;
+      for (; r < count; r++) support += (columns[j * n + r] as number) > 0 ? 1 : 0;
       if (support < Math.max(HINGE_SUPPORT_DAYS, HINGE_SUPPORT_SHARE * count)) (out[w] as number[]).push(j);
     });
   }
   return out;
 }
 
-/** Per-day arrays of S slot values, slot by slot: out[s n + r] = days[r][s]. */
-function bySlot(days: readonly Float64Array[], S: number): Float64Array {
+/** Scratch space of the slot-by-slot layouts, reused from one delivery day to the next. */
+const scratchBuffers = new ScratchBuffers();
+
+/** Per-day arrays of S slot values, slot by slot into `out` (S n long): out[s n + r] = days[r][s]. */
+function bySlot(days: readonly Float64Array[], S: number, out: Float64Array): Float64Array {
   const n = days.length;
-  const out = new Float64Array(S * n);
   days.forEach((day, r) => {
     for (let s = 0; s < S; s++) out[s * n + r] = day[s] as number;
   });
@@ -295,8 +299,8 @@ class DriverDays {
       }
       const prices = past.prices;
       const S = prices.length;
-      const z = new Float64Array(S);
-      const clipped = new Float64Array(S);
+      const z = this.take(S);
+      const clipped = this.take(S);
       const scale = this.scale;
       // The transformation is increasing, so clipping at the transformed fences equals transforming the clipped prices.
       const low = scale === null ? inputs.low : toAsinhScale(inputs.low, scale);
@@ -313,6 +317,21 @@ class DriverDays {
       this.cache.set(i, day);
     }
     return day;
+  }
+
+  /** Room for the days' arrays, taken a block at a time (fewer, larger allocations). */
+  private block = new Float64Array(0);
+  private used = 0;
+
+  /** A fresh array of `length` zeros, a view of the current block. */
+  private take(length: number): Float64Array {
+    if (this.used + length > this.block.length) {
+      this.block = new Float64Array(Math.max(length, 128 * length));
+      this.used = 0;
+    }
+    const out = this.block.subarray(this.used, this.used + length);
+    this.used += length;
+    return out;
   }
 
   /** The regressors of a day whose day before is past day `lag1` and week before `lag7`. */

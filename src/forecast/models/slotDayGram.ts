@@ -87,11 +87,12 @@ export class SlotDayGramBuilder {
     const work = this.workspace(a);
     const y = a - 1;
     const reuse = newResponseOnly && work.filled;
+    const cols = work.cols;
     for (let q = reuse ? y : 0; q < a; q++) {
       const base = q * n;
       const shift = columns[base] as number;
       work.shiftA[q] = shift;
-      for (let i = 0; i < n; i++) work.cols[base + i] = (columns[base + i] as number) - shift;
+      for (let i = 0; i < n; i++) cols[base + i] = (columns[base + i] as number) - shift;
     }
     if (reuse) {
       // The response's sums, and its products with every column (stored where the full pass keeps the

@@ -1,6 +1,7 @@
 import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { standardisedGram } from '../linalg/standardisedGram.js';
+import { ScratchBuffers } from '../scratchBuffers.js';
 import { selectInPlace } from '../models/robustAsinh.js';
 import type { PoolOrder } from './poolOrder.js';
 import { sortedQuantile } from './sortedQuantile.js';
@@ -95,18 +96,22 @@ export function driverSpreadQuantiles(
   const days = calibration.errors.length;
   const m = targetFeatures.length / S;
   const n = days * S;
-  const design = new Float64Array(n * m);
-  const logAbs = new Float64Array(n);
-  const absolute = new Float64Array(n);
+  // Scratch space reused from call to call (every value read is written first): the design, log |e|, |e| and its copy.
+  const design = scratchBuffers.get(0, n * m);
+  const logAbs = scratchBuffers.get(1, n);
+  const absolute = scratchBuffers.get(2, n);
+  const work = scratchBuffers.get(3, n);
   for (let d = 0; d < days; d++) {
     design.set(calibration.features[d] as Float64Array, d * S * m);
     const e = calibration.errors[d] as ArrayLike<number>;
     for (let s = 0; s < S; s++) absolute[d * S + s] = Math.abs(e[s] as number);
   }
-  const floor = 1e-3 * medianBySelection(Float64Array.from(absolute));
+  work.set(absolute);
+  const floor = 1e-3 * medianBySelection(work);
   for (let i = 0; i < n; i++) logAbs[i] = Math.log(Math.max(absolute[i] as number, floor, Number.MIN_VALUE));
   const model = choleskyLeastSquares(standardisedGram({ rows: n, cols: m, data: design }, logAbs));
-  const fitted = new Float64Array(n);
+  // |e| and its copy are read no more: their room takes the fitted log spreads and the standardised errors.
+  const fitted = absolute;
   let low = Infinity;
   let high = -Infinity;
   for (let i = 0; i < n; i++) {
@@ -115,7 +120,7 @@ export function driverSpreadQuantiles(
     low = Math.min(low, v);
     high = Math.max(high, v);
   }
-  const standardised = new Float64Array(n);
+  const standardised = work;
   for (let d = 0; d < days; d++) {
     const e = calibration.errors[d] as ArrayLike<number>;
     for (let s = 0; s < S; s++) standardised[d * S + s] = (e[s] as number) / Math.exp(fitted[d * S + s] as number);
@@ -140,6 +145,8 @@ export function driverSpreadQuantiles(
     return q.map((v) => (centre[s] as number) + (spread[s] as number) * v);
   });
 }
+
+const scratchBuffers = new ScratchBuffers();
 
 /** predictLinear(model, data[at .. at + m - 1]), the same sum in the same order, without a view of the row. */
 function predictRow(model: LinearModel, data: Float64Array, at: number, m: number): number {
