@@ -32,7 +32,7 @@ import type { PointForecast } from './models/pointForecast.js';
 import { seasonalNaive } from './models/seasonalNaive.js';
 import { fromSlotGrid, slotLayout } from './models/slotGrid.js';
 import { asinhErrorScaleOf, PRICE_SCALE, type ErrorScale } from './quantiles/errorScale.js';
-import { driverSpreadQuantiles, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
+import { driverSpreadQuantiles, SpreadFeatureRows, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
 import { historicalSimulation } from './quantiles/historicalSimulation.js';
 import { PoolOrder } from './quantiles/poolOrder.js';
 import { requireLevels } from './quantiles/levels.js';
@@ -214,6 +214,8 @@ export class Forecaster {
   private readonly states = new Map<string, CalibrationState>();
   /** The error pools' order at the last historical simulation, by point model and calibration window (speed only). */
   private readonly poolOrders = new Map<string, PoolOrder>();
+  /** driver-fhs's spread features of the calibration days, kept between delivery days (speed only). */
+  private readonly spreadFeatureRows = new SpreadFeatureRows();
 
   constructor(
     private readonly history: PriceHistory,
@@ -361,7 +363,7 @@ export class Forecaster {
       } else if (method === 'driver-qr') {
         grid = regressionQuantiles([point.mean, ...view.target.exogenous], (c) => [c.forecast.mean, ...c.exogenous], this.driverWarmStarts);
       } else if (method === 'driver-fhs') {
-        const features = calibration.map((c, d) => spreadFeatures(c.exogenous, forecastsOnScale[d] as Float64Array));
+        const features = calibration.map((c, d) => this.spreadFeatureRows.of(c.exogenous, forecastsOnScale[d] as Float64Array));
         const kept = { order: this.poolOrder(model, calibrationDays, 'standardised'), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) };
         grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool, kept);
       } else {

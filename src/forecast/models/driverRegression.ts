@@ -400,16 +400,12 @@ function pseudoObservations(
   const b = model.coefficients;
   const p = a - 1;
   const y = p * n;
-  // The fitted values column by column: per row the same additions in the same order as row by row.
-  fitted.fill(model.intercept, 0, n);
-  for (let q = 0; q < p; q++) {
-    const bq = b[q] as number;
-    for (let r = 0; r < n; r++) fitted[r] = (fitted[r] as number) + bq * (columns[q * n + r] as number);
-  }
   const bz = b[p] as number;
   const bx = b[p + 1] as number;
   for (let r = 0; r < n; r++) {
-    let f = (fitted[r] as number) + (bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number));
+    let f = model.intercept;
+    for (let q = 0; q < p; q++) f += (b[q] as number) * (columns[q * n + r] as number);
+    f += bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number);
     const weekday = day.weekdays[r] as number;
     if (weekday <= 6) f += b[p + 1 + weekday] as number;
     fitted[r] = (columns[y + r] as number) - f;

@@ -36,6 +36,30 @@ export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: 
   return out;
 }
 
+/**
+ * The spread features of past days, kept per day (by the identity of its exogenous columns): the time
+ * of day and the drivers do not change from one delivery day to the next, only the point forecast on
+ * the delivery day's scale does, so a kept day's array has just that column written again. The array
+ * handed out is overwritten by the next call for the same day: use it before asking again.
+ */
+export class SpreadFeatureRows {
+  private readonly kept = new WeakMap<readonly ArrayLike<number>[], Float64Array>();
+
+  /** spreadFeatures(exogenous, centre), the same numbers. */
+  of(exogenous: readonly ArrayLike<number>[], centre: ArrayLike<number>): Float64Array {
+    const S = centre.length;
+    const m = 5 + exogenous.length;
+    let out = this.kept.get(exogenous);
+    if (out === undefined || out.length !== S * m) {
+      out = spreadFeatures(exogenous, centre);
+      this.kept.set(exogenous, out);
+      return out;
+    }
+    for (let s = 0; s < S; s++) out[s * m + m - 1] = centre[s] as number;
+    return out;
+  }
+}
+
 /** Per S, cos and sin of 2 pi s / S and of twice that angle, 4 S values (computed once: the same for every day). */
 const harmonicsBySlots = new Map<number, Float64Array>();
 
