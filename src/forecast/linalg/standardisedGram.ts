@@ -52,22 +52,20 @@ export function standardisedGram(x: Matrix, y: ArrayLike<number>): StandardisedG
   const { rows: n, cols: k, data } = x;
   const means = new Float64Array(k);
   let yMean = 0;
-  for (let i = 0; i < n; i++) yMean += y[i] as number;
-  for (let j = 0; j < k; j++) {
-    let sum = 0;
-    for (let i = 0; i < n; i++) sum += data[i * k + j] as number;
-    means[j] = sum;
+  // Row by row (the data are row-major): each column's sum still adds its values in row order.
+  for (let i = 0; i < n; i++) {
+    yMean += y[i] as number;
+    for (let j = 0; j < k; j++) means[j] = (means[j] as number) + (data[i * k + j] as number);
   }
   yMean /= n;
   for (let j = 0; j < k; j++) means[j] = (means[j] as number) / n;
   // Centred columns 0..k-1, then y - ybar (column k), then a column of zeros (column k + 1).
   const width = k + 1;
   const cols = centredScratch((width + 1) * n);
-  for (let j = 0; j < k; j++) {
-    const m = means[j] as number;
-    for (let i = 0; i < n; i++) cols[j * n + i] = (data[i * k + j] as number) - m;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < k; j++) cols[j * n + i] = (data[i * k + j] as number) - (means[j] as number);
+    cols[k * n + i] = (y[i] as number) - yMean;
   }
-  for (let i = 0; i < n; i++) cols[k * n + i] = (y[i] as number) - yMean;
   cols.fill(0, width * n, (width + 1) * n);
   // products[j width + l], l >= j: sum_i c_ij c_il over the centred columns and y.
   const products = new Float64Array(width * width);

@@ -71,13 +71,9 @@ function medianInPlace(work: Float64Array): number {
   return (lower + upper) / 2;
 }
 
-/**
- * k-th smallest (0-based) of `a`, partially sorting it (Hoare's FIND with a middle pivot); with `from`,
- * of a[from..] only, k counted from the start of `a` (from <= k): afterwards no value left of k (from
- * `from` on) is larger and none right of it smaller.
- */
-export function selectInPlace(a: Float64Array, k: number, from = 0): number {
-  let lo = from;
+/** k-th smallest (0-based) of `a`, partially sorting it (Hoare's FIND with a middle pivot). */
+export function selectInPlace(a: Float64Array, k: number): number {
+  let lo = 0;
   let hi = a.length - 1;
   while (lo < hi) {
     const pivot = a[(lo + hi) >> 1] as number;
