@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { standardiseCentredSums, standardisedGram, type StandardisedGram } from '../../src/forecast/linalg/standardisedGram.js';
+import { twoByFourProducts } from '../../src/forecast/linalg/twoByFourProducts.js';
 import { seededNormal } from './seededRandom.js';
 
 /**
@@ -48,5 +49,26 @@ describe('standardisedGram', () => {
     const want = referenceGram(data, n, k, y);
     for (const field of ['means', 'scales', 'gram', 'zty'] as const) expect(sameBits(got[field], want[field]), field).toBe(true);
     expect(Object.is(got.yMean, want.yMean) && Object.is(got.yVariance, want.yVariance)).toBe(true);
+  });
+});
+
+describe('twoByFourProducts', () => {
+  it('gives every sum of products over the leading rows, added in row order (the plain sum), bit for bit at every count', () => {
+    const z = seededNormal(77);
+    const n = 301;
+    const cols = Float64Array.from({ length: 7 * n }, (_, c) => 1e3 * Math.floor(c / n) + z());
+    const offsets = { p: [0, 3 * n], q: [n, 2 * n, 5 * n, 6 * n] };
+    const counts = [1, 150, 299, 301];
+    const out = new Float64Array(8 * counts.length);
+    twoByFourProducts(cols, offsets.p[0]!, offsets.p[1]!, offsets.q[0]!, offsets.q[1]!, offsets.q[2]!, offsets.q[3]!, counts, out);
+    counts.forEach((count, w) => {
+      for (let r = 0; r < 2; r++) {
+        for (let t = 0; t < 4; t++) {
+          let plain = 0;
+          for (let i = 0; i < count; i++) plain += cols[offsets.p[r]! + i]! * cols[offsets.q[t]! + i]!;
+          expect(Object.is(out[8 * w + 4 * r + t], plain), `window ${w}, row ${r}, column ${t}`).toBe(true);
+        }
+      }
+    });
   });
 });

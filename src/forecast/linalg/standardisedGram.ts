@@ -1,5 +1,6 @@
 import type { Matrix } from './matrix.js';
 import { requireResponse } from './matrix.js';
+import { twoByFourProducts } from './twoByFourProducts.js';
 
 /**
  * Cross products of a design whose columns are centred and scaled, for models with a free intercept
@@ -88,45 +89,17 @@ export function standardisedGram(x: Matrix, y: ArrayLike<number>): StandardisedG
 function crossProducts(cols: Float64Array, n: number, width: number, j: number, l: number, products: Float64Array): void {
   const zeros = width * n;
   const at = (c: number): number => (c < width ? c * n : zeros);
-  const p0 = at(j);
-  const p1 = at(j + 1);
-  const q0 = at(l);
-  const q1 = at(l + 1);
-  const q2 = at(l + 2);
-  const q3 = at(l + 3);
-  let s00 = 0;
-  let s01 = 0;
-  let s02 = 0;
-  let s03 = 0;
-  let s10 = 0;
-  let s11 = 0;
-  let s12 = 0;
-  let s13 = 0;
-  for (let i = 0; i < n; i++) {
-    const v0 = cols[p0 + i] as number;
-    const v1 = cols[p1 + i] as number;
-    const c0 = cols[q0 + i] as number;
-    const c1 = cols[q1 + i] as number;
-    const c2 = cols[q2 + i] as number;
-    const c3 = cols[q3 + i] as number;
-    s00 += v0 * c0;
-    s01 += v0 * c1;
-    s02 += v0 * c2;
-    s03 += v0 * c3;
-    s10 += v1 * c0;
-    s11 += v1 * c1;
-    s12 += v1 * c2;
-    s13 += v1 * c3;
-  }
-  const sums = [s00, s01, s02, s03, s10, s11, s12, s13];
+  twoByFourProducts(cols, at(j), at(j + 1), at(l), at(l + 1), at(l + 2), at(l + 3), [n], blockSums);
   for (let r = 0; r < 2; r++) {
     for (let t = 0; t < 4; t++) {
       const row = j + r;
       const column = l + t;
-      if (row < width && column < width && column >= row) products[row * width + column] = sums[4 * r + t] as number;
+      if (row < width && column < width && column >= row) products[row * width + column] = blockSums[4 * r + t] as number;
     }
   }
 }
+
+const blockSums = new Float64Array(8);
 
 /** Scratch space of the centred columns, reused from call to call (each call overwrites what it reads). */
 let centredColumns = new Float64Array(0);

@@ -1,6 +1,7 @@
 import type { StandardisedGram } from '../linalg/standardisedGram.js';
 import { nestedShiftedSums } from '../linalg/nestedShiftedSums.js';
 import { standardiseCentredSums } from '../linalg/standardisedGram.js';
+import { twoByFourProducts } from '../linalg/twoByFourProducts.js';
 
 /** Day-level ARX regressors, the same for every slot of a training day. */
 export interface ArxDayLevel {
@@ -91,33 +92,17 @@ export class ArxGramBuilder {
         const q1 = q + 1 < a ? q0 + n : zeros;
         const q2 = q + 2 < a ? q0 + 2 * n : zeros;
         const q3 = q + 3 < a ? q0 + 3 * n : zeros;
-        let s00 = 0;
-        let s01 = 0;
-        let s02 = 0;
-        let s03 = 0;
-        let s10 = 0;
-        let s11 = 0;
-        let s12 = 0;
-        let s13 = 0;
-        let i = 0;
+        const sums = work.blockSums;
+        twoByFourProducts(cols, pn, pn1, q0, q1, q2, q3, counts, sums);
         for (let w = 0; w < W; w++) {
-          const end = counts[w] as number;
-          for (; i < end; i++) {
-            const v0 = cols[pn + i] as number;
-            const v1 = cols[pn1 + i] as number;
-            const c0 = cols[q0 + i] as number;
-            const c1 = cols[q1 + i] as number;
-            const c2 = cols[q2 + i] as number;
-            const c3 = cols[q3 + i] as number;
-            s00 += v0 * c0;
-            s01 += v0 * c1;
-            s02 += v0 * c2;
-            s03 += v0 * c3;
-            s10 += v1 * c0;
-            s11 += v1 * c1;
-            s12 += v1 * c2;
-            s13 += v1 * c3;
-          }
+          const s00 = sums[8 * w] as number;
+          const s01 = sums[8 * w + 1] as number;
+          const s02 = sums[8 * w + 2] as number;
+          const s03 = sums[8 * w + 3] as number;
+          const s10 = sums[8 * w + 4] as number;
+          const s11 = sums[8 * w + 5] as number;
+          const s12 = sums[8 * w + 6] as number;
+          const s13 = sums[8 * w + 7] as number;
           const at = w * a * a + p * a + q;
           prodAA[at] = s00;
           if (q + 1 < a) prodAA[at + 1] = s01;
@@ -209,6 +194,7 @@ export class ArxGramBuilder {
         buckets: new Float64Array(W * 7 * a),
         bucket: new Float64Array(7),
         bucket1: new Float64Array(7),
+        blockSums: new Float64Array(8 * W),
         means: new Float64Array(k),
         gram: new Float64Array(k * k),
         cy: new Float64Array(k),
@@ -295,6 +281,8 @@ interface SlotWork {
   /** The running sums by weekday of one column, and of the next. */
   readonly bucket: Float64Array;
   readonly bucket1: Float64Array;
+  /** The eight sums of one block of products per count (twoByFourProducts). */
+  readonly blockSums: Float64Array;
   readonly means: Float64Array;
   readonly gram: Float64Array;
   readonly cy: Float64Array;

@@ -1,6 +1,7 @@
 import type { StandardisedGram } from '../linalg/standardisedGram.js';
 import { nestedShiftedSums } from '../linalg/nestedShiftedSums.js';
 import { standardiseCentredSums } from '../linalg/standardisedGram.js';
+import { twoByFourProducts } from '../linalg/twoByFourProducts.js';
 
 /** Day-level regressors of a per-slot design: the same in every slot of a training day. */
 export interface DayLevelColumns {
@@ -151,7 +152,7 @@ export class SlotDayGramBuilder {
    */
   private products(work: SlotWork, p: number, two: boolean, q: number): void {
     const { n, counts } = this;
-    const { a, cols, prodAA, prodAB, zeros } = work;
+    const { a, cols, zeros } = work;
     const B = this.day.width;
     const end = a + B;
     const pn = p * n;
@@ -160,42 +161,11 @@ export class SlotDayGramBuilder {
     const q1 = q + 1 < end ? q0 + n : zeros;
     const q2 = q + 2 < end ? q0 + 2 * n : zeros;
     const q3 = q + 3 < end ? q0 + 3 * n : zeros;
-    let s00 = 0;
-    let s01 = 0;
-    let s02 = 0;
-    let s03 = 0;
-    let s10 = 0;
-    let s11 = 0;
-    let s12 = 0;
-    let s13 = 0;
-    let i = 0;
+    const sums = work.blockSums;
+    twoByFourProducts(cols, pn, pn1, q0, q1, q2, q3, counts, sums);
     for (let w = 0; w < counts.length; w++) {
-      const stop = counts[w] as number;
-      for (; i < stop; i++) {
-        const v0 = cols[pn + i] as number;
-        const v1 = cols[pn1 + i] as number;
-        const c0 = cols[q0 + i] as number;
-        const c1 = cols[q1 + i] as number;
-        const c2 = cols[q2 + i] as number;
-        const c3 = cols[q3 + i] as number;
-        s00 += v0 * c0;
-        s01 += v0 * c1;
-        s02 += v0 * c2;
-        s03 += v0 * c3;
-        s10 += v1 * c0;
-        s11 += v1 * c1;
-        s12 += v1 * c2;
-        s13 += v1 * c3;
-      }
-      store(work, B, w, p, q, s00);
-      store(work, B, w, p, q + 1, s01);
-      store(work, B, w, p, q + 2, s02);
-      store(work, B, w, p, q + 3, s03);
-      if (two) {
-        store(work, B, w, p + 1, q, s10);
-        store(work, B, w, p + 1, q + 1, s11);
-        store(work, B, w, p + 1, q + 2, s12);
-        store(work, B, w, p + 1, q + 3, s13);
+      for (let r = 0; r < (two ? 2 : 1); r++) {
+        for (let t = 0; t < 4; t++) store(work, B, w, p + r, q + t, sums[8 * w + 4 * r + t] as number);
       }
     }
   }
@@ -225,6 +195,7 @@ export class SlotDayGramBuilder {
         buckets: new Float64Array(W * (D + 1) * a),
         bucket: new Float64Array(D + 1),
         bucket1: new Float64Array(D + 1),
+        blockSums: new Float64Array(8 * W),
         means: new Float64Array(k),
         gram: new Float64Array(k * k),
         cy: new Float64Array(k),
@@ -320,6 +291,8 @@ interface SlotWork {
   /** The running sums by category of one column, and of the next. */
   readonly bucket: Float64Array;
   readonly bucket1: Float64Array;
+  /** The eight sums of one block of products per count (twoByFourProducts). */
+  readonly blockSums: Float64Array;
   readonly means: Float64Array;
   readonly gram: Float64Array;
   readonly cy: Float64Array;
