@@ -2,6 +2,7 @@ import type { StandardisedGram } from '../linalg/standardisedGram.js';
 import { nestedShiftedSums } from '../linalg/nestedShiftedSums.js';
 import { standardiseCentredSums } from '../linalg/standardisedGram.js';
 import { twoByFourProducts } from '../linalg/twoByFourProducts.js';
+import { gramWorkspace, type GramWorkspace } from './gramWorkspace.js';
 
 /** Day-level regressors of a per-slot design: the same in every slot of a training day. */
 export interface DayLevelColumns {
@@ -176,33 +177,13 @@ export class SlotDayGramBuilder {
       const { width: B, dummies: D } = day;
       const k = a - 1 + B + D;
       const W = this.counts.length;
-      // The slot columns, the continuous day-level columns (shifted, the same for every slot) and zeros.
-      const cols = new Float64Array((a + B + 1) * n);
+      const work = { ...gramWorkspace({ a, k, W, B, C: D + 1, n, extraColumns: B }), filled: false };
+      // The continuous day-level columns after the slot columns (shifted, the same for every slot).
       for (let j = 0; j < B; j++) {
         const shift = this.shiftDay[j] as number;
-        for (let i = 0; i < n; i++) cols[(a + j) * n + i] = (day.continuous[i * B + j] as number) - shift;
+        for (let i = 0; i < n; i++) work.cols[(a + j) * n + i] = (day.continuous[i * B + j] as number) - shift;
       }
-      this.work = {
-        a,
-        k,
-        filled: false,
-        cols,
-        zeros: (a + B) * n,
-        shiftA: new Float64Array(a),
-        sumA: new Float64Array(W * a),
-        prodAA: new Float64Array(W * a * a),
-        prodAB: new Float64Array(W * a * B),
-        buckets: new Float64Array(W * (D + 1) * a),
-        bucket: new Float64Array(D + 1),
-        bucket1: new Float64Array(D + 1),
-        blockSums: new Float64Array(8 * W),
-        means: new Float64Array(k),
-        gram: new Float64Array(k * k),
-        cy: new Float64Array(k),
-        shift: new Float64Array(k),
-        sums: new Float64Array(k),
-        standardised: { scales: new Float64Array(k), zty: new Float64Array(k) },
-      };
+      this.work = work;
     }
     return this.work;
   }
@@ -269,35 +250,7 @@ function store(work: SlotWork, B: number, w: number, row: number, column: number
   }
 }
 
-/** Per-slot sums (one set per count) and scratch arrays, reused from slot to slot. */
-interface SlotWork {
-  readonly a: number;
-  readonly k: number;
-  /** True once a full pass has filled the sums of the slot columns. */
+/** The workspace, and whether a full pass has filled the sums of the slot columns. */
+interface SlotWork extends GramWorkspace {
   filled: boolean;
-  /** The shifted columns, column by column: the a slot columns, the B day-level ones, then zeros. */
-  readonly cols: Float64Array;
-  /** Where the column of zeros starts in `cols`. */
-  readonly zeros: number;
-  readonly shiftA: Float64Array;
-  /** Per count w: sums of the shifted slot columns, sumA[w a + q]. */
-  readonly sumA: Float64Array;
-  /** Per count w: products of slot columns, prodAA[w a^2 + q a + r], r >= q. */
-  readonly prodAA: Float64Array;
-  /** Per count w: products of slot columns with the continuous day-level columns, prodAB[(w a + q) B + j]. */
-  readonly prodAB: Float64Array;
-  /** Per count w: sums of the shifted slot columns by category, buckets[(w (D + 1) + category - 1) a + q]. */
-  readonly buckets: Float64Array;
-  /** The running sums by category of one column, and of the next. */
-  readonly bucket: Float64Array;
-  readonly bucket1: Float64Array;
-  /** The eight sums of one block of products per count (twoByFourProducts). */
-  readonly blockSums: Float64Array;
-  readonly means: Float64Array;
-  readonly gram: Float64Array;
-  readonly cy: Float64Array;
-  readonly shift: Float64Array;
-  readonly sums: Float64Array;
-  /** The scales and zty of the Gram handed out (overwritten by the next, as its gram is). */
-  readonly standardised: { readonly scales: Float64Array; readonly zty: Float64Array };
 }
