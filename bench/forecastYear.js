@@ -13,12 +13,12 @@
 // The day times are the gaps between forecastRange's per-day callbacks; the first day carries the
 // calibration days' point forecasts, so it is shown apart and the median is over all days.
 //
-//   node bench/forecastYear.js --methods arx-hs,auto --rounds 3
+//   node bench/forecastYear.js --methods arx-hs,auto --rounds 3 [--root DIR]
 //
 // with --rounds and without --baseline: each method's year in a process of its own, the methods
 // interleaved round by round, and prints per method the median CPU and wall time and their ratios to
 // the first method's (the goal of `auto`: at most 3x `arx-hs`'s year), and whether every round of a
-// method made the same forecasts.
+// method made the same forecasts; with --root, of the dist/ of another built checkout.
 //
 //   node bench/forecastYear.js --baseline DIR [--rounds 3] [--method NAME]
 //
@@ -57,7 +57,7 @@ if (arg('rounds', null) !== null && !process.argv.includes('--json')) {
 /** Times each method of --methods (default arx-hs,auto) in its own processes, interleaved round by round. */
 function compareMethods(rounds) {
   const methods = (arg('methods', null) ?? arg('method', null) ?? 'arx-hs,auto').split(',');
-  const passOn = ['year', 'reads'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
+  const passOn = ['year', 'reads', 'root'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
   const results = new Map(methods.map((m) => [m, []]));
   for (let round = 0; round < rounds; round++) {
     for (const method of methods) {
