@@ -147,7 +147,7 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const lag7BySlot = bySlot(trainingDays.map((d) => d.regressors.lag7), S, scratchBuffers.get(3, S * n));
   const knots = new Float64Array(J);
   const fitted = new Float64Array(n);
-  // Per slot, the residual loads of the longest window's days in order, kept from the last delivery day's.
+  // Per slot, the residual loads of the longest window's days in ascending order, kept from the last delivery day's.
   const sortedX = keptResidualLoads.of(trainingDays.map((d) => d.own.x));
   for (let s = 0; s < S; s++) {
     const slotX = xBySlot.subarray(s * n, (s + 1) * n);
