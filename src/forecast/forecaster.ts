@@ -341,8 +341,9 @@ export class Forecaster {
       } else if (method === 'driver-qr') {
         grid = regressionQuantiles([point.mean, ...view.target.exogenous], (c) => [c.forecast.mean, ...c.exogenous], this.driverWarmStarts);
       } else if (method === 'driver-fhs') {
-        const features = calibration.map((c) => spreadFeatures(c.exogenous, Float64Array.from(c.forecast.mean, scale.to)));
-        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool);
+        const asinh = scale.robust !== undefined;
+        const features = calibration.map((c) => spreadFeatures(c.exogenous, Float64Array.from(c.forecast.mean, scale.to), asinh));
+        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre, asinh), { errors, features }, at, this.options.spreadPool);
       } else {
         grid = historicalSimulation(centre, errors, at, { order: this.poolOrder(model, calibrationDays), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) });
       }

@@ -17,12 +17,26 @@ export type SpreadPool = 'slot' | 'all';
 
 /**
  * The spread features of one day, S x m row-major: the time of day as two harmonics
- * (cos and sin of 2 pi s / S and 4 pi s / S), the drivers (the exogenous columns), and the point
- * forecast on the model's scale: m = 4 + (number of exogenous columns) + 1.
+ * (cos and sin of 2 pi s / S and 4 pi s / S), the drivers (the exogenous columns), the point
+ * forecast on the model's scale, and, for errors on an asinh scale, log cosh of that point forecast
+ * (else 0, a constant column the spread regression leaves out): m = 4 + (number of exogenous columns) + 2.
+ *
+ * Why log cosh: on the scale Z = asinh((P - a) / b), dZ/dP = 1 / (b cosh Z), so by the delta method a
+ * price error of spread sigma_P near the level Z has the spread sigma_P / (b cosh Z) on Z, and
+ * log sigma_Z = log sigma_P - log b - log cosh Z. With log cosh of the centre among the features the fitted
+ * log spread can follow the transform itself (coefficient -1), so that a spread that is even in prices
+ * is not pooled over levels whose spreads on Z differ by the factor cosh Z; the centre's own column
+ * carries a spread that grows with the price level. Computed as |z| + log(1 + exp(-2|z|)) - log 2,
+ * finite for any z.
+ *
+ * Reference: G. W. Oehlert (1992), A note on the delta method, Am. Stat. 46(1), 27-29,
+ * doi:10.1080/00031305.1992.10475842.
+ *
+ * @param asinhScale whether `centre` (and the errors the features will explain) are on an asinh scale
  */
-export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: ArrayLike<number>): Float64Array {
+export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: ArrayLike<number>, asinhScale: boolean): Float64Array {
   const S = centre.length;
-  const m = 5 + exogenous.length;
+  const m = 6 + exogenous.length;
   const out = new Float64Array(S * m);
   for (let s = 0; s < S; s++) {
     const angle = (2 * Math.PI * s) / S;
@@ -32,9 +46,17 @@ export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: 
     out[c++] = Math.cos(2 * angle);
     out[c++] = Math.sin(2 * angle);
     for (const column of exogenous) out[c++] = column[s] as number;
-    out[c] = centre[s] as number;
+    const z = centre[s] as number;
+    out[c++] = z;
+    out[c] = asinhScale ? logCosh(z) : 0;
   }
   return out;
+}
+
+/** log cosh z without overflow: |z| + log(1 + exp(-2|z|)) - log 2. */
+export function logCosh(z: number): number {
+  const x = Math.abs(z);
+  return x + Math.log1p(Math.exp(-2 * x)) - Math.LN2;
 }
 
 /**
@@ -44,7 +66,8 @@ export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: 
  *   log |e(d', s)| = g0 + g' f(d', s) + v(d', s)   (least squares over every calibration day and slot),
  *   sigma(d, s) = exp(g0 + g' f(d, s)),   u(d', s) = e(d', s) / sigma(d', s),
  *   q_tau(d, s) = centre(s) + sigma(d, s) Q_tau({u}),
- * with f the spread features (time of day, drivers, the point forecast's level) and Q_tau the sample
+ * with f the spread features (time of day, drivers, the point forecast's level and, on an asinh scale, its
+ * log cosh) and Q_tau the sample
  * quantile (Hyndman and Fan's definition 7) of the standardised errors of the same slot ('slot') or of
  * every slot ('all'). The regression of log |e| is Harvey's (1976) estimator of a multiplicative
  * heteroscedasticity sigma^2 = exp(2 g' f): E log |e| = log sigma + E log |u|, so its intercept also
