@@ -13,6 +13,13 @@
 // The day times are the gaps between forecastRange's per-day callbacks; the first day carries the
 // calibration days' point forecasts, so it is shown apart and the median is over all days.
 //
+//   node bench/forecastYear.js --methods arx-hs,auto --rounds 3 [--root DIR]
+//
+// with --rounds and without --baseline: each method's year in a process of its own, the methods
+// interleaved round by round, and prints per method the median CPU and wall time and their ratios to
+// the first method's (the goal of `auto`: at most 3x `arx-hs`'s year), and whether every round of a
+// method made the same forecasts; with --root, of the dist/ of another built checkout.
+//
 //   node bench/forecastYear.js --baseline DIR [--rounds 3] [--method NAME]
 //
 // times the same year of one method (--method, default the default method) with the dist/ of DIR (another built checkout, e.g. of main) in separate
@@ -41,6 +48,36 @@ const BASELINE = arg('baseline', null);
 if (BASELINE !== null) {
   compareWithBaseline(BASELINE, Number(arg('rounds', 3)));
   process.exit(process.exitCode ?? 0);
+}
+if (arg('rounds', null) !== null && !process.argv.includes('--json')) {
+  compareMethods(Number(arg('rounds', null)));
+  process.exit(process.exitCode ?? 0);
+}
+
+/** Times each method of --methods (default arx-hs,auto) in its own processes, interleaved round by round. */
+function compareMethods(rounds) {
+  const methods = (arg('methods', null) ?? arg('method', null) ?? 'arx-hs,auto').split(',');
+  const passOn = ['year', 'reads', 'root'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
+  const results = new Map(methods.map((m) => [m, []]));
+  for (let round = 0; round < rounds; round++) {
+    for (const method of methods) {
+      const { stdout } = timedNode([fileURLToPath(import.meta.url), '--json', '--method', method, ...passOn]);
+      results.get(method).push(JSON.parse(stdout));
+    }
+  }
+  const cpu = (m) => median(results.get(m).map((r) => r.cpuMs));
+  const wall = (m) => median(results.get(m).map((r) => r.totalMs));
+  const first = methods[0];
+  console.log(`a year of daily forecasts of the demo (${arg('year', '2026')}), ${methods.join(', ')} each in its own process, ${rounds} interleaved rounds`);
+  for (const m of methods) {
+    const same = new Set(results.get(m).map((r) => r.digest)).size === 1;
+    console.log(
+      `  ${m.padEnd(14)} median ${(cpu(m) / 1000).toFixed(1)} s CPU, ${(wall(m) / 1000).toFixed(1)} s wall = ` +
+        `${(cpu(m) / cpu(first)).toFixed(2)}x ${first}'s CPU, ${(wall(m) / wall(first)).toFixed(2)}x its wall` +
+        `${m === 'auto' && first === 'arx-hs' ? ' (goal: at most 3x)' : ''}; forecasts ${same ? 'the same in every round' : 'DIFFER between rounds'}`,
+    );
+    if (!same) process.exitCode = 1;
+  }
 }
 
 /** Times this checkout and `baseline` in interleaved rounds (each a process of this script with --json). */

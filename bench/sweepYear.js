@@ -2,8 +2,9 @@
 // market at 15 minutes, through the CLI (whole processes, Node start-up included), on 1 thread and on
 // 2 threads (this one and a worker), in interleaved rounds so that the machine's drift hits both alike:
 // the median wall time of each, the median over the rounds of the speed-up within a round, and the
-// CPU time of each (user + system of the process and its worker, from Linux's /proc). Also checks that
-// both give the same sweep.csv bytes.
+// CPU time of each (user + system of the process and its worker, from Linux's /proc), with the ceiling
+// that CPU puts on the speed-up (the 2-thread run's CPU spread over all cores). Also checks that both
+// give the same sweep.csv bytes.
 //
 //   npm run build && node bench/sweepYear.js [--year 2026] [--rounds 3] [--baseline DIR]
 //
@@ -62,6 +63,20 @@ try {
     console.log(`  ${two.padEnd(22)} median wall ${(median(wall[two]) / 1000).toFixed(1)} s${cpuNote(two)} (goal: under 60 s)`);
     console.log(`  ${`speed-up${suffix}`.padEnd(22)} ${median(speedups).toFixed(2)}x on 2 threads (rounds ${Math.min(...speedups).toFixed(2)} to ${Math.max(...speedups).toFixed(2)}; goal at least 1.7x)` +
       (cpuKnown ? `; CPU on 2 threads ${(median(cpu[two]) / median(cpu[one])).toFixed(2)}x that on 1` : ''));
+    if (cpuKnown) {
+      // A run that takes C of CPU cannot end sooner than C / cores on the machine's cores: whatever the
+      // threads wait for, the speed-up is at most the 1-thread wall time over that. On busy cores the
+      // wall times hold waits for the cores, and the ceiling says nothing.
+      const cores = cpus().length;
+      const label = `  ${`ceiling${suffix}`.padEnd(22)} `;
+      if (median(loads) >= cores) {
+        console.log(`${label}not shown: at a load average above ${cores} the wall times are mostly waits for the cores`);
+      } else {
+        const ceiling = median(wall[one]) / (median(cpu[two]) / cores);
+        const cpuFor17 = (cores * median(wall[one])) / 1.7;
+        console.log(`${label}at most ${ceiling.toFixed(2)}x from the CPU alone (1-thread wall / (2-thread CPU / ${cores} cores)); 1.7x needs the 2-thread run under ${(cpuFor17 / 1000).toFixed(1)} s of CPU`);
+      }
+    }
   }
   const same = runs.every((run) => csv[run.name].equals(csv[runs[0].name]));
   console.log(`  sweep.csv              ${same ? 'byte-identical on 1 and 2 threads' : 'DIFFERS between runs'}${BASELINE === null ? '' : ' (and with the baseline)'}`);

@@ -30,14 +30,16 @@ export async function benchBattery() {
 /**
  * One setting loaded: market spec, history (all three years), the true forecast days of the scored year,
  * the days' laws, and `paths(day, count, purpose)` giving true paths { clearing, imbalance } (arrays of
- * paths over the day's periods) from a seeded stream named by setting, day and purpose.
+ * paths over the day's periods) from a seeded stream named by setting, day and purpose. `draw` 0 is the
+ * bench's own data; another whole number is an independent draw of the same setting (generate.js --draw),
+ * its paths from streams named by the draw as well.
  */
-export async function loadKnownMarket(name) {
+export async function loadKnownMarket(name, draw = 0) {
   const setting = SETTINGS.find((s) => s.name === name);
   if (setting === undefined) throw new Error(`no setting ${name}`);
   const { parseMarketSpec } = await dist('index.js');
   const { normalCdf } = await dist('stats/normalCdf.js');
-  const simulation = await simulateSetting(setting);
+  const simulation = await simulateSetting(setting, draw);
   const market = parseMarketSpec(marketSpecOf(setting)).data;
   const history = {
     days: simulation.days.map((d) => ({ day: d.day, periods: d.periods, pricePerMwh: Array.from(d.price), imbalancePricePerMwh: Array.from(d.imbalance), exogenous: {} })),
@@ -57,7 +59,7 @@ export async function loadKnownMarket(name) {
   function paths(day, count, purpose) {
     const record = byDay.get(day);
     if (record === undefined) throw new Error(`no day ${day}`);
-    const stream = new Stream(`${setting.name}/true-paths/${day}/${purpose}`);
+    const stream = new Stream(draw === 0 ? `${setting.name}/true-paths/${day}/${purpose}` : `${setting.name}/draw-${draw}/true-paths/${day}/${purpose}`);
     const clearing = [];
     const imbalance = [];
     for (let w = 0; w < count; w++) {

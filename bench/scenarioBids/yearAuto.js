@@ -9,7 +9,11 @@
 // prints the EXPECTED profit: each day's submitted bids settled, from the state of charge the policy
 // was in, on 2,000 further true paths of the day (the mean over the true law, up to its sampling error).
 //
-//   npm run build && node bench/scenarioBids/yearAuto.js [--settings a,b] [--rules follow-plan,follow-accepted] [--json out.json] [--days N]
+//   npm run build && node bench/scenarioBids/yearAuto.js [--settings a,b] [--rules follow-plan,follow-accepted] [--json out.json] [--days N] [--draw N]
+//
+// --draw N (N > 0) runs on an independent draw of every setting (the same laws, other data: history,
+// realised year and paths), so that one realised year, where a few spikes can decide the profit, is not
+// the only sample of "over a year".
 import { writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
@@ -32,9 +36,10 @@ const solver = await loadHighsSolver();
 const battery = await benchBattery();
 const RULES = option('rules', 'follow-plan,follow-accepted').split(',');
 const json = option('json', undefined);
+const draw = Number(option('draw', 0));
 const results = [];
 for (const name of settings) {
-  const known = await loadKnownMarket(name);
+  const known = await loadKnownMarket(name, draw);
   const days = dayLimit === undefined ? known.truthDays : known.truthDays.slice(0, Number(dayLimit));
   const source = await trueScenarioSource(known, SCENARIO_DEFAULTS.planningPaths, SCENARIO_DEFAULTS.freshPaths);
   for (const rule of RULES) {
@@ -84,6 +89,7 @@ for (const name of settings) {
     }
     const row = {
       setting: name,
+      draw,
       rule,
       days: result.days.length,
       priceTaking: sum(taking),

@@ -14,8 +14,26 @@ import type { PlanPolicy } from '../types.js';
 export const PLAN_COMMAND_POLICIES = Object.freeze([...PLAN_POLICIES, 'curve', 'auto'] as const);
 export type PlanCommandPolicy = PlanPolicy | 'curve' | 'auto';
 
-/** Defaults of `quantbid plan`: the quantile policy at alpha 0.1; curve and auto score their candidates under follow-plan. */
-export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'quantile' as PlanCommandPolicy, unaccepted: 'follow-plan' as UnacceptedRule });
+/**
+ * Defaults of `quantbid plan`: the auto policy (the day's candidates scored on whole-day paths, the
+ * best submitted, price-taking unless another is clearly ahead); without --paths and without a history
+ * there are no paths to score on, and the plan is price-taking's (PLAN_FALLBACK_POLICY, said in a note).
+ * Alpha 0.1 for the quantile and median policies; candidates are scored under follow-plan.
+ */
+export const PLAN_DEFAULTS = Object.freeze({ alpha: 0.1, policy: 'auto' as PlanCommandPolicy, unaccepted: 'follow-plan' as UnacceptedRule });
+
+/** The default policy's fallback when the day has no paths to score candidates on: auto's own fallback. */
+export const PLAN_FALLBACK_POLICY = 'price-taking' as const satisfies PlanCommandPolicy;
+
+/**
+ * The policy of a plan: the one given; else the default (auto), which scores its candidates on the
+ * day's paths (the --paths file, or made from the quantile file and the history); with neither there
+ * is nothing to score on and the plan is auto's own fallback, price-taking.
+ */
+export function planPolicy(given: PlanCommandPolicy | undefined, hasPaths: boolean, hasHistory: boolean): PlanCommandPolicy {
+  if (given !== undefined) return given;
+  return hasPaths || hasHistory ? PLAN_DEFAULTS.policy : PLAN_FALLBACK_POLICY;
+}
 
 /** Defaults of `quantbid forecast`: the method of docs/forecast-quality.md, 19 levels, no paths, path seed 1. */
 export const FORECAST_DEFAULTS = Object.freeze({ method: DEFAULT_METHOD, paths: 0, pathSeed: DEFAULT_PATH_SEED });

@@ -3,7 +3,8 @@ import { throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { pathKind } from '../io/pathKind.js';
 import type { RunInputFile } from '../io/writeOutputs.js';
 import type { Scenario } from '../io/scenarioOf.js';
-import type { InputSources } from './settingSchemas.js';
+import type { BacktestInputPaths } from '../io/backtestInputData.js';
+import type { InputSources, ModelSettings } from './settingSchemas.js';
 
 /** The input files a command may read. */
 export type InputName = 'market' | 'battery' | 'forecast' | 'history';
@@ -46,4 +47,10 @@ export function runInputFiles(sources: InputSources, paths: Partial<Record<Input
   for (const [name, path] of Object.entries(paths)) if (path !== undefined) files.push({ path, what: `the ${name} file` });
   for (const [what, path] of Object.entries(more)) if (path !== undefined) files.push({ path, what });
   return files;
+}
+
+/** The inputs a summary lists: the files given, and with --model the method in place of a forecast file. */
+export function inputsShown(paths: BacktestInputPaths, model: ModelSettings | undefined): Record<string, string> {
+  const files = Object.fromEntries(Object.entries(paths).filter((entry): entry is [string, string] => entry[1] !== undefined));
+  return model === undefined ? files : { ...files, model: model.method };
 }

@@ -1,54 +1,22 @@
-import { coveredDays } from '../backtest/coveredDays.js';
-import { InputError, throwIfProblems, type InputProblem } from '../errors/inputError.js';
 import { readBacktestInputs, readBacktestInputsOnce, type BacktestInputData, type BacktestInputPaths } from '../io/readBacktestInputs.js';
-import { forecastLevelProblems, type LevelUse } from './forecastLevels.js';
-import { inputFiles, type InputName } from './inputFiles.js';
+import { readScenario } from '../io/readScenario.js';
+import type { LevelUse } from './forecastLevels.js';
 import type { ForecastMaker } from './modelForecast.js';
 import type { RunHooks } from './runHooks.js';
+import { readRunInputsWith, runInputPathsWith } from './runInputsWith.js';
 import type { InputSources, ModelSettings } from './settingSchemas.js';
 
-/** The inputs of backtest, sweep and size. */
-export const RUN_INPUTS: readonly InputName[] = Object.freeze(['market', 'battery', 'forecast', 'history']);
+export { RUN_INPUTS, requireCoveredDay } from './runInputsWith.js';
 
-/**
- * The input paths of a run that may make its forecasts (--model): --model with a forecast file named on
- * its own is a problem; with --model the forecast file is not looked for (a scenario's is not read).
- */
+/** runInputPathsWith with the scenario file read and checked by its schema (readScenario). */
 export function runInputPaths(inputs: InputSources, model: ModelSettings | undefined): BacktestInputPaths {
-  const problems: InputProblem[] = [];
-  if (model !== undefined && inputs.forecast !== undefined) {
-    problems.push({ file: 'command line', field: '--model', message: `--model ${model.method} and --forecast ${inputs.forecast} were both given`, fix: 'give --forecast FILE to read a forecast file, or --model NAME to make the forecasts from the history, not both' });
-  }
-  throwIfProblems(problems);
-  return inputFiles(inputs, model === undefined ? RUN_INPUTS : RUN_INPUTS.filter((name) => name !== 'forecast')).paths as BacktestInputPaths;
+  return runInputPathsWith(readScenario, inputs, model);
 }
 
 /**
- * Reads and checks the inputs of a run before it starts: every file problem, a history without
- * imbalance prices (readBacktestInputs), and levels the run would read outside the forecast's (a
- * quantile is never extrapolated). With `maker` (--model) the forecast is made from the market and
- * history instead of read, and its levels are checked before any fitting. `once` remembers the inputs
- * for the life of this thread (a one-thread grid's task then reads nothing again). An old column or
- * field name read under its new one is a note through `hooks`.
+ * readRunInputsWith with the files read and checked by their schemas (readBacktestInputs); `once`
+ * remembers the inputs for the life of this thread (a one-thread grid's task then reads nothing again).
  */
 export function readRunInputs(paths: BacktestInputPaths, use: LevelUse, maker: ForecastMaker | undefined, hooks: RunHooks, once = false): BacktestInputData {
-  if (maker !== undefined) throwIfProblems(forecastLevelProblems(maker.levels, maker.label, use));
-  const data = (once ? readBacktestInputsOnce : readBacktestInputs)(paths, maker?.make, (text) => hooks.note(text));
-  throwIfProblems(forecastLevelProblems(data.forecast.levels, data.forecast.file, use));
-  return data;
-}
-
-/**
- * A run over a span without a day that has both a complete history and a complete forecast is bad
- * input (backtest, sweep, size): the message says which days each file has.
- */
-export function requireCoveredDay(data: BacktestInputData, paths: BacktestInputPaths, from: string, to: string): void {
-  if (coveredDays(data.history, data.forecast, from, to).length === 0) {
-    const span = (days: readonly string[]): string => (days.length === 0 ? 'no complete day' : `complete days from ${days[0]} to ${days[days.length - 1]}`);
-    const forecastDays = [...data.forecast.days.keys()].sort();
-    const has = `the history has ${span(data.history.days.map((d) => d.day))}, the forecast ${span(forecastDays)}`;
-    throw new InputError([
-      { file: paths.history, field: '--from', message: `no day from ${from} to ${to} has both a complete history and a complete forecast (${has})`, fix: 'choose days that both files cover' },
-    ]);
-  }
+  return readRunInputsWith(once ? readBacktestInputsOnce : readBacktestInputs, paths, use, maker, hooks);
 }

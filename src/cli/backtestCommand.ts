@@ -106,11 +106,12 @@ Examples:
       force: flags.force === true,
       report: flags.report === true,
     };
-    const { backtestUseCase } = await import('../app/backtest/backtestUseCase.js');
+    // The backtest without the validation library when nothing is wrong (backtestFastPath.ts).
+    const { backtestFastPath } = await import('../app/backtest/backtestFastPath.js');
     // HiGHS is loaded only when a policy plans on scenarios.
     const onScenarios = flags.policies.some((p) => p === 'curve' || p === 'auto');
     const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
-    printResult(io, await backtestUseCase(settings, cliHooks(io, flags.quiet === true), tools), flags.json === true);
+    printResult(io, await backtestFastPath(settings, cliHooks(io, flags.quiet === true), tools), flags.json === true);
   });
   return command;
 }

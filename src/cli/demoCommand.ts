@@ -14,6 +14,7 @@ export function demoCommand(io: CliIo): Command {
     .action(async (flags: { out?: string; force?: boolean; json?: boolean }) => {
       const settings = { ...(flags.out === undefined ? {} : { out: flags.out }), force: flags.force === true };
       const { demoUseCase } = await import('../app/plan/demoUseCase.js');
-      printResult(io, demoUseCase(settings, cliHooks(io, false)), flags.json === true);
+      const { loadHighsSolver } = await import('../app/solver/highsSolver.js');
+      printResult(io, demoUseCase(settings, cliHooks(io, false), { lpSolver: await loadHighsSolver() }), flags.json === true);
     });
 }

@@ -32,7 +32,7 @@ import type { PointForecast } from './models/pointForecast.js';
 import { seasonalNaive } from './models/seasonalNaive.js';
 import { fromSlotGrid, slotLayout } from './models/slotGrid.js';
 import { asinhErrorScaleOf, PRICE_SCALE, type ErrorScale } from './quantiles/errorScale.js';
-import { driverSpreadQuantiles, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
+import { driverSpreadQuantiles, SpreadFeatureRows, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
 import { historicalSimulation } from './quantiles/historicalSimulation.js';
 import { PoolOrder } from './quantiles/poolOrder.js';
 import { requireLevels } from './quantiles/levels.js';
@@ -72,6 +72,8 @@ interface CalibrationState {
   readonly centre: Float64Array;
   /** errors[d][s] of the calibration days on the error scale. */
   readonly errors: readonly Float64Array[];
+  /** The calibration days' point forecasts on the error scale, [d][s] (what their errors were taken from). */
+  readonly forecastsOnScale: readonly Float64Array[];
 }
 
 /** Levels added to the asked ones for the paths' marginals (their tails). */
@@ -215,6 +217,8 @@ export class Forecaster {
   private readonly poolOrders = new Map<string, PoolOrder>();
   /** Per history day, the price range beyond which `auto` passes a candidate's forecast over (made when first needed). */
   private ranges: (PriceRange | null)[] | undefined;
+  /** driver-fhs's spread features of the calibration days, kept between delivery days (speed only). */
+  private readonly spreadFeatureRows = new SpreadFeatureRows();
 
   constructor(
     private readonly history: PriceHistory,
@@ -258,14 +262,20 @@ export class Forecaster {
     const levelsKey = levels.join(',');
     const validation: number[] = [];
     for (let j = dayIndex - 1; j >= 0 && validation.length < this.options.autoValidationDays; j--) validation.push(j);
-    const losses = candidates.map((c) => validation.map((j) => this.validationLoss(c, j, levels, levelsKey)));
+    // Day by day, each day's candidates in evaluation order (speed only; see evaluationOrder).
+    const evaluation = this.evaluationOrder(candidates);
+    const losses = candidates.map((): (number | null)[] => []);
+    validation.forEach((j, v) => {
+      for (const i of evaluation) (losses[i] as (number | null)[])[v] = this.validationLoss(candidates[i] as AutoCandidate, j, levels, levelsKey);
+    });
     const common = validation.flatMap((_, v) => (losses.every((l) => l[v] !== null) ? [v] : []));
     const totals = losses.map((l) => common.reduce((sum, v) => sum + (l[v] as number), 0));
     const order = candidates.map((_, i) => i).sort((p, q) => (common.length === 0 ? p - q : (totals[p] as number) - (totals[q] as number) || p - q));
     // Every candidate forecasts the delivery day now: the chosen one's forecast is the answer, and all of
     // them are scored when this day becomes a validation day (its prices are then known).
-    const made = candidates.map((c) => this.candidateForecast(c, dayIndex, levels, levelsKey));
-    const able = order.filter((i) => !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
+    const made: (DayForecast | InsufficientHistoryError)[] = [];
+    for (const i of evaluation) made[i] = this.candidateForecast(candidates[i] as AutoCandidate, dayIndex, levels, levelsKey);
+    const able = order.filter((i) => made[i] !== undefined && !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
     // A candidate whose forecast runs far beyond every price seen before is passed over (plausibleRange.ts).
     this.ranges ??= plausibleRanges(this.history);
     const range = this.ranges[dayIndex] ?? null;
@@ -274,6 +284,18 @@ export class Forecaster {
     const candidate = candidates[chosen] as AutoCandidate;
     const validationLoss = common.length === 0 ? null : (totals[chosen] as number) / common.length;
     return { ...(made[chosen] as DayForecast), chosen: { ...candidate, validationDays: common.length, validationLoss } };
+  }
+
+  /**
+   * The indices of the candidates in the order their forecasts of a day are made: those on the ARX
+   * first, then the others in their order. Only the speed depends on it (each forecast is the same
+   * whatever was made before): the ARX fit of a day keeps its training days' prices on the asinh
+   * scale of its window (keptAsinhDay), and another candidate's calibration on a window of the same
+   * days then reads them instead of computing them again.
+   */
+  private evaluationOrder(candidates: readonly AutoCandidate[]): number[] {
+    const onArx = (c: AutoCandidate) => (pointModelOf(c.method, this.options) === 'arx' ? 0 : 1);
+    return candidates.map((_, i) => i).sort((p, q) => onArx(candidates[p] as AutoCandidate) - onArx(candidates[q] as AutoCandidate) || p - q);
   }
 
   /** A candidate's forecast of day j (kept until its loss is scored), or the reason it has none. */
@@ -324,7 +346,7 @@ export class Forecaster {
     if (point === null) {
       throw new InsufficientHistoryError(view.target.day, `the ${model} point forecast`, this.historyNeeded(model), view.pastCount);
     }
-    const { calibration, scale, centre, errors } = this.calibrationState(model, view, point, calibrationDays);
+    const { calibration, scale, centre, errors, forecastsOnScale } = this.calibrationState(model, view, point, calibrationDays);
     if (calibration.length < this.options.minCalibrationDays) {
       throw new InsufficientHistoryError(view.target.day, `${method} calibration`, this.options.minCalibrationDays, calibration.length);
     }
@@ -351,8 +373,9 @@ export class Forecaster {
         grid = regressionQuantiles([point.mean, ...view.target.exogenous], (c) => [c.forecast.mean, ...c.exogenous], this.driverWarmStarts);
       } else if (method === 'driver-fhs') {
         const asinh = scale.robust !== undefined;
-        const features = calibration.map((c) => spreadFeatures(c.exogenous, Float64Array.from(c.forecast.mean, scale.to), asinh));
-        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre, asinh), { errors, features }, at, this.options.spreadPool);
+        const features = calibration.map((c, d) => this.spreadFeatureRows.of(c.exogenous, forecastsOnScale[d] as Float64Array, asinh));
+        const kept = { order: this.poolOrder(model, calibrationDays, 'standardised'), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) };
+        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre, asinh), { errors, features }, at, this.options.spreadPool, kept);
       } else {
         grid = historicalSimulation(centre, errors, at, { order: this.poolOrder(model, calibrationDays), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) });
       }
@@ -400,27 +423,34 @@ export class Forecaster {
     const kept = this.states.get(key);
     if (kept !== undefined) return kept;
     const calibration = this.calibrationSet(model, view, calibrationDays);
-    const scale = calibration.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, calibration);
+    const scale = calibration.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, calibration, calibrationDays);
     const centre = point.mean.map(scale.to);
-    const errors = calibration.map((c) => {
+    const forecastsOnScale = calibration.map((c) => {
+      const mean = c.forecast.mean;
+      const f = new Float64Array(mean.length);
+      for (let s = 0; s < f.length; s++) f[s] = scale.to(mean[s] as number);
+      return f;
+    });
+    const errors = calibration.map((c, d) => {
       const e = new Float64Array(c.realised.length);
+      const f = forecastsOnScale[d] as Float64Array;
       // The realised prices on the asinh scale, from the delivery day's ARX fit when it made them with this scale.
       if (scale.robust !== undefined && keptAsinhDay(scale.robust, c.realised, e)) {
-        for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - scale.to(c.forecast.mean[s] as number);
+        for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
       } else {
-        for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - scale.to(c.forecast.mean[s] as number);
+        for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - (f[s] as number);
       }
       return e;
     });
-    const state = { calibration, scale, centre, errors };
+    const state = { calibration, scale, centre, errors, forecastsOnScale };
     if (this.states.size >= 8) this.states.clear();
     this.states.set(key, state);
     return state;
   }
 
-  /** The kept order of the historical-simulation pools of a point model and calibration window. */
-  private poolOrder(model: PointModelName, calibrationDays: number): PoolOrder {
-    const key = `${model}|${calibrationDays}`;
+  /** The kept order of the historical-simulation pools of a point model and calibration window (of its errors, or of driver-fhs's standardised ones). */
+  private poolOrder(model: PointModelName, calibrationDays: number, errors: 'errors' | 'standardised' = 'errors'): PoolOrder {
+    const key = `${model}|${calibrationDays}|${errors}`;
     let order = this.poolOrders.get(key);
     if (order === undefined) {
       order = new PoolOrder();
@@ -445,9 +475,9 @@ export class Forecaster {
   }
 
   /** The scale of the calibration errors: the point model's own for 'model', else prices. */
-  private errorScaleOf(model: PointModelName, calibration: readonly { realised: Float64Array }[]): ErrorScale {
+  private errorScaleOf(model: PointModelName, calibration: readonly { realised: Float64Array }[], calibrationDays: number): ErrorScale {
     if (this.options.errorScale === 'price' || model === 'naive' || (model === 'drivers' && this.options.driverScale === 'price')) return PRICE_SCALE;
-    return asinhErrorScaleOf((this.grids as GridCache).scales.of(calibration.map((c) => c.realised)));
+    return asinhErrorScaleOf((this.grids as GridCache).scales(calibrationDays).of(calibration.map((c) => c.realised)));
   }
 
   /** The calibration days before the delivery day that could be forecast, oldest first. */

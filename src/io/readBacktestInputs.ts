@@ -1,77 +1,12 @@
 import { createHash } from 'node:crypto';
-import type { BatterySpec, MarketSpec, PriceHistory } from '../types.js';
-import { chooseImbalanceSource } from '../settle/imbalancePrices.js';
-import { gatherProblems, InputError, throwIfProblems, type InputProblem } from '../errors/inputError.js';
-import { readPriceHistory } from './readPriceHistory.js';
-import { parseQuantileForecast, readQuantileForecast, type QuantileForecastFile } from './readQuantileForecast.js';
+import { readInputDataWith, requiredForecastPath, type BacktestInputData, type BacktestInputPaths, type GivenForecast, type MakeForecast } from './backtestInputData.js';
 import { readBatterySpec, readMarketSpec } from './readSpecs.js';
 
-/** Paths of the four input files of a backtest, as the user named them (relative to the working folder). */
-export interface BacktestInputPaths {
-  readonly market: string;
-  readonly battery: string;
-  readonly history: string;
-  /** The quantile forecast file; absent when the forecasts are made from the history (--model) and handed over as text. */
-  readonly forecast?: string;
-}
+export type { BacktestInputData, BacktestInputPaths, GivenForecast, MakeForecast, ReadInputData, SpecReaders } from './backtestInputData.js';
 
-/**
- * A quantile forecast given as CSV text instead of a file (the forecasts of --model), its name in
- * messages, and, where the giver has parsed it already, the parsed file.
- */
-export interface GivenForecast {
-  readonly csv: string;
-  readonly label: string;
-  readonly file?: QuantileForecastFile;
-}
-
-/** Makes the forecast from the market and the history once both are read and checked (--model). */
-export type MakeForecast = (market: MarketSpec, history: PriceHistory) => GivenForecast;
-
-/** The four inputs of a backtest, read and checked; the battery as its spec, so that a sizing can scale it. */
-export interface BacktestInputData {
-  readonly market: MarketSpec;
-  readonly batterySpec: BatterySpec;
-  readonly history: PriceHistory;
-  readonly forecast: QuantileForecastFile;
-}
-
-/**
- * Reads the market and battery specs, the price history and the quantile forecast: from the file
- * `paths.forecast`, or from `given` text, or made by `given` from the market and history once every
- * file problem is known to be absent. Every problem of every file is listed together in one
- * InputError; so is a history without imbalance prices when the market spec has no imbalance rule either.
- * `note` hears of an old field or column name read under its new one (readMarketSpec, readPriceHistory).
- */
+/** readInputDataWith (backtestInputData.ts) with the spec files read and checked by their schemas (readSpecs.ts). */
 export function readBacktestInputs(paths: BacktestInputPaths, given?: GivenForecast | MakeForecast, note?: (text: string) => void): BacktestInputData {
-  const problems: InputProblem[] = [];
-  const market = gatherProblems(problems, () => readMarketSpec(paths.market, note));
-  const batterySpec = gatherProblems(problems, () => readBatterySpec(paths.battery));
-  if (market === undefined || batterySpec === undefined) throw new InputError(problems);
-  const history = gatherProblems(problems, () => readPriceHistory(paths.history, market, note));
-  const read = (g: GivenForecast): QuantileForecastFile => g.file ?? parseQuantileForecast(g.csv, g.label, market);
-  let forecast: QuantileForecastFile | undefined;
-  if (given === undefined) forecast = gatherProblems(problems, () => readQuantileForecast(requiredForecastPath(paths), market));
-  else if (typeof given !== 'function') forecast = gatherProblems(problems, () => read(given));
-  if (history !== undefined && history.days.length === 0) {
-    // Without a complete day nothing can be backtested, and whether the imbalance column is there cannot be told from days.
-    const first = history.incompleteDays[0];
-    problems.push({
-      file: paths.history,
-      message: `the history holds no complete day${first === undefined ? ' (only a header)' : ` (${history.incompleteDays.length} incomplete, e.g. ${first.day}: ${first.reason})`}`,
-      fix: 'give every delivery period of the days to backtest; a day is used only when it is complete',
-    });
-  } else if (history !== undefined && chooseImbalanceSource(history, market) === null) {
-    problems.push({
-      file: paths.history,
-      field: 'imbalance_price',
-      message: 'the history has no imbalance_price column and the market spec has no imbalance rule',
-      fix: `add an imbalance_price column to the history, or an "imbalance" rule such as {"kind": "clearing-plus-penalty", "penaltyPerMwh": 15} to ${paths.market}`,
-    });
-  }
-  throwIfProblems(problems);
-  if (typeof given === 'function') forecast = read(given(market, history as PriceHistory));
-  return { market, batterySpec, history: history as PriceHistory, forecast: forecast as QuantileForecastFile };
+  return readInputDataWith({ readMarketSpec, readBatterySpec }, paths, given, note);
 }
 
 const cache = new Map<string, BacktestInputData>();
@@ -98,9 +33,4 @@ export function readBacktestInputsOnce(paths: BacktestInputPaths, given?: GivenF
   const data = readBacktestInputs(paths, given, note);
   cache.set(key, data);
   return data;
-}
-
-function requiredForecastPath(paths: BacktestInputPaths): string {
-  if (paths.forecast === undefined) throw new Error('readBacktestInputs: neither a forecast file nor a given forecast');
-  return paths.forecast;
 }

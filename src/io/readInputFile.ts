@@ -1,7 +1,8 @@
-import { closeSync, openSync, readFileSync, readSync, statSync } from 'node:fs';
+import { closeSync, openSync, readFileSync, readSync, statSync, type Stats } from 'node:fs';
 import { isUtf8 } from 'node:buffer';
 import { constants, gunzipSync } from 'node:zlib';
 import { InputError, type InputProblem } from '../errors/inputError.js';
+import type { ReadAhead } from './readAhead.js';
 import { SNIFF_BYTES, sniffText, type FirstLineCheck } from './sniffText.js';
 
 /**
@@ -19,6 +20,17 @@ export interface ReadInputOptions {
    * fails in milliseconds whatever its size. Returns the problems found (none: go on).
    */
   readonly firstLine?: FirstLineCheck;
+  /**
+   * The file's content read and inflated ahead, on a thread of the pool (readAhead.ts): taken instead of
+   * reading and inflating the file again when it was read from the file as it is now (same device,
+   * inode, size and times) under the same size limit. Every other check runs as without it.
+   */
+  readonly readAhead?: ReadAhead;
+}
+
+/** What tells one state of a file from another: device, inode, size, and modification and change times. */
+export function fileIdentity(stat: { readonly dev: number; readonly ino: number; readonly size: number; readonly mtimeMs: number; readonly ctimeMs: number }): string {
+  return `${stat.dev}:${stat.ino}:${stat.size}:${stat.mtimeMs}:${stat.ctimeMs}`;
 }
 
 /**
@@ -42,7 +54,8 @@ export function readInputBytes(path: string, options: ReadInputOptions = {}): Ui
 
 function checkedBytes(path: string, options: ReadInputOptions): Buffer {
   const maxBytes = options.maxBytes ?? MAX_INPUT_BYTES;
-  const size = checkedSize(path, maxBytes);
+  const stat = checkedStat(path, maxBytes);
+  const size = stat.size;
   const gzip = path.endsWith('.gz');
   const head = readHead(path, SNIFF_BYTES);
   if (head.length > size) {
@@ -58,10 +71,19 @@ function checkedBytes(path: string, options: ReadInputOptions): Buffer {
   } else {
     sniff(path, head, size > head.length, options);
   }
-  const bytes = attempt(path, () => readFileSync(path));
-  const plain = gzip ? gunzipBytes(path, bytes, maxBytes) : bytes;
+  const ahead = options.readAhead;
+  const plain =
+    ahead !== undefined && ahead.path === path && ahead.maxBytes === maxBytes && ahead.identity === fileIdentity(stat)
+      ? Buffer.from(ahead.plain.buffer, ahead.plain.byteOffset, ahead.plain.byteLength)
+      : readPlain(path, gzip, maxBytes);
   if (!isUtf8(plain)) throw new InputError([notUtf8Problem(path, plain)]);
   return plain;
+}
+
+/** The file's bytes, inflated when gzip. */
+function readPlain(path: string, gzip: boolean, maxBytes: number): Buffer {
+  const bytes = attempt(path, () => readFileSync(path));
+  return gzip ? gunzipBytes(path, bytes, maxBytes) : bytes;
 }
 
 /**
@@ -122,15 +144,15 @@ function sniff(path: string, head: Buffer, more: boolean, options: ReadInputOpti
   if (problems.length > 0) throw new InputError(problems);
 }
 
-/** Size of a regular file, or the input error that says why it cannot be read. */
-function checkedSize(path: string, maxBytes: number): number {
+/** The status of a regular file within the size limit, or the input error that says why it cannot be read. */
+function checkedStat(path: string, maxBytes: number): Stats {
   const stat = attempt(path, () => statSync(path));
   if (stat.isDirectory()) throw new InputError([{ file: path, message: 'is a folder, not a file', fix: 'give the path of the file inside it' }]);
   if (!stat.isFile()) throw new InputError([{ file: path, message: 'is not a regular file (a device, pipe or socket)', fix: 'save the input to a file and give its path' }]);
   if (stat.size > maxBytes) {
     throw new InputError([{ file: path, message: `is ${mebibytes(stat.size)}, more than the ${mebibytes(maxBytes)} this input may have`, fix: 'check that this is the right file; split a long history by year' }]);
   }
-  return stat.size;
+  return stat;
 }
 
 function readHead(path: string, length: number): Buffer {
@@ -172,13 +194,24 @@ function gunzipChunkBytes(bytes: Buffer, limit: number): number {
   return Math.max(GUNZIP_CHUNK_BYTES, Math.min(inflated + 1, limit + 1, MAX_GUNZIP_CHUNK_BYTES));
 }
 
-function gunzipBytes(path: string, bytes: Buffer, maxBytes: number): Buffer {
+/**
+ * The options `bytes` (gzip) are inflated with, under the size limit `maxBytes` [bytes]: at most
+ * MAX_INFLATION_RATIO times their size (above INFLATION_FLOOR_BYTES), output in one chunk of the
+ * inflated size where the trailer tells it (else a MiB, not 16 KiB): no buffers to join, a quarter less
+ * work than in chunks of a MiB.
+ */
+export function gunzipOptions(compressed: Uint8Array, maxBytes: number): { readonly maxOutputLength: number; readonly chunkSize: number } {
+  const bytes = Buffer.from(compressed.buffer, compressed.byteOffset, compressed.byteLength);
   const byRatio = Math.max(INFLATION_FLOOR_BYTES, bytes.length * MAX_INFLATION_RATIO);
   const limit = Math.min(maxBytes, byRatio);
+  return { maxOutputLength: limit, chunkSize: gunzipChunkBytes(bytes, limit) };
+}
+
+function gunzipBytes(path: string, bytes: Buffer, maxBytes: number): Buffer {
+  const options = gunzipOptions(bytes, maxBytes);
+  const limit = options.maxOutputLength;
   try {
-    // Output in one chunk of the inflated size where the trailer tells it (else a MiB, not 16 KiB): no
-    // buffers to join, a quarter less work than in chunks of a MiB.
-    return gunzipSync(bytes, { maxOutputLength: limit, chunkSize: gunzipChunkBytes(bytes, limit) });
+    return gunzipSync(bytes, options);
   } catch (err) {
     if ((err as NodeJS.ErrnoException).code === 'ERR_BUFFER_TOO_LARGE' || err instanceof RangeError) {
       if (limit < maxBytes) {

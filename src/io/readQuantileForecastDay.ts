@@ -1,6 +1,7 @@
 import { InputError } from '../errors/inputError.js';
 import type { MarketSpec } from '../types.js';
 import { parseQuantileForecast, quantileHeaderCheck, type QuantileForecastFile } from './readQuantileForecast.js';
+import type { ReadAhead } from './readAhead.js';
 import { readInputBytes } from './readInputFile.js';
 
 /** A forecast read for one delivery day, and which of its rows were parsed and checked. */
@@ -24,10 +25,10 @@ export interface QuantileForecastForDay extends QuantileForecastFile {
  * parseQuantileForecast parses a file. When that finds the day complete and without a problem, it is
  * the answer. Otherwise the whole file is parsed as readQuantileForecast does, so that every problem
  * is reported with its line, and a missing or incomplete day is described against what the file
- * covers.
+ * covers. `readAhead`: the file read ahead (readAhead.ts), taken when it is still the file's content.
  */
-export function readQuantileForecastDay(path: string, market: MarketSpec, day: string): QuantileForecastForDay {
-  const read = readInputBytes(path, { firstLine: quantileHeaderCheck(path) });
+export function readQuantileForecastDay(path: string, market: MarketSpec, day: string, readAhead?: ReadAhead): QuantileForecastForDay {
+  const read = readInputBytes(path, { firstLine: quantileHeaderCheck(path), ...(readAhead === undefined ? {} : { readAhead }) });
   const bytes = Buffer.from(read.buffer, read.byteOffset, read.byteLength);
   const dayRows = dayLinesText(bytes, day);
   if (dayRows !== null) {

@@ -43,9 +43,9 @@ describe('settings checked once by the use case', () => {
   });
 
   it('plan of the demo day: the summary the use case returns is the one `quantbid plan --json` prints', async () => {
-    const done = planUseCase({ inputs: { scenario: S } });
+    const done = planUseCase({ inputs: { scenario: S }, policy: 'quantile' });
     let stdout = '';
-    const code = await main(['node', 'quantbid', 'plan', '--scenario', S, '--json'], { stdout: (s) => void (stdout += s), stderr: () => undefined, stderrIsTerminal: false });
+    const code = await main(['node', 'quantbid', 'plan', '--scenario', S, '--policy', 'quantile', '--json'], { stdout: (s) => void (stdout += s), stderr: () => undefined, stderrIsTerminal: false });
     expect(code).toBe(0);
     expect(stdout).toBe(jsonText(done.summary));
     expect(done.summary.day).toBe('2027-01-01');

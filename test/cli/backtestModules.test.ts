@@ -1,7 +1,7 @@
-import { existsSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
-import { bundledModules, moduleListing } from './moduleListing.js';
+import { bundledModules, moduleListing, ROOT } from './moduleListing.js';
 
 // A backtest of schedule policies from a forecast file loads neither the forecast models (--model),
 // nor the scenario paths of curve and auto, nor the report code (--report): each loads when a run asks
@@ -24,9 +24,11 @@ function backtestModules(name: string, extra: readonly string[]): { modules: str
 const LAZY = /^(node_modules\/javascript-lp-solver\/|report\/(?!edgeText\.js$|imbalanceDescription\.js$)|app\/modelForecast\.js$|app\/scenarios\/(quantilePaths|scenarioPlanningOf)\.js$|forecast\/models\/(?!errors\.js$))/;
 
 describe('backtest loads what the run needs', () => {
-  it('schedule policies from a forecast file: no forecast model, scenario path, report or LP solver module', () => {
+  it('schedule policies from a forecast file: no forecast model, scenario path, report or LP solver module, and no validation library', () => {
     const { modules, out } = backtestModules('plain', []);
-    expect(modules).toContain('app/backtest/backtestUseCase.js');
+    // Checked by the hand-written checks of the fast path (app/backtest/backtestFastPath.ts): zod and the schemas load only to word a problem.
+    expect(modules).toContain('app/backtest/backtestRun.js');
+    expect(modules.filter((m) => /node_modules\/zod\/|backtestUseCase\.js$|readSpecs\.js$|readScenario\.js$|settingSchemas\.js$/.test(m))).toEqual([]);
     expect(modules.filter((m) => LAZY.test(m))).toEqual([]);
     expect(existsSync(join(out, 'ledger.csv'))).toBe(true);
     expect(existsSync(join(out, 'report.html'))).toBe(false);
@@ -36,5 +38,16 @@ describe('backtest loads what the run needs', () => {
     const { modules, out } = backtestModules('report', ['--report']);
     expect(modules).toContain('report/backtestReport.js');
     expect(existsSync(join(out, 'report.html'))).toBe(true);
+  });
+
+  it('a market.json with a problem loads the schemas to word it', () => {
+    const bad = join(listing.folder, 'bad-market');
+    mkdirSync(bad);
+    const demo = join(ROOT, 'scenarios', 'halvorn');
+    writeFileSync(join(bad, 'market.json'), readFileSync(join(demo, 'market.json'), 'utf8').replace('"priceCap"', '"priceCapp"'));
+    const run = listing.run(['backtest', '--scenario', 'scenarios/halvorn/scenario.json', '--market', join(bad, 'market.json'), '--from', '2026-02-01', '--to', '2026-02-02', '--out', join(bad, 'out'), '--quiet']);
+    expect(run.status).toBe(2);
+    expect(run.stderr).toContain('priceCapp: unknown field');
+    expect(bundledModules(run.files).map((file) => file.replace(/^dist\//, ''))).toContain('app/backtest/backtestUseCase.js');
   });
 });

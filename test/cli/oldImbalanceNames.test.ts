@@ -95,7 +95,8 @@ describe('the old names of the imbalance price', () => {
   it('plan, forecast and score: the note of each old name they read', async () => {
     const plan = await runMain(['plan', '--scenario', old.scenario]);
     expect(plan.code).toBe(0);
-    expect(plan.stderr).toBe(marketNote(old.market));
+    // The default policy (auto) reads the history for the day's paths and its imbalance spread.
+    expect(plan.stderr).toBe(`${marketNote(old.market)}${historyNote(old.history)}`);
     const forecast = await runMain(['forecast', '--scenario', old.scenario, '--from', TO, '--to', TO, '--method', 'naive-hs', '--out', join(work, 'fc-old')]);
     expect(forecast.code, forecast.stderr).toBe(0);
     expect(forecast.stderr).toBe(`${marketNote(old.market)}${historyNote(old.history)}`);

@@ -35,7 +35,9 @@ beforeAll(() => {
   writeFileSync(join(dir, 'quantiles.csv'), `${lines.join('\n')}\n`);
 });
 
-const inputs = () => ['--market', join(dir, 'market.json'), '--battery', join(dir, 'battery.json'), '--forecast', join(dir, 'quantiles.csv')];
+// The quantile policy, named: the default (auto) needs paths or a history, which these inputs lack.
+const inputs = () => ['--market', join(dir, 'market.json'), '--battery', join(dir, 'battery.json'), '--forecast', join(dir, 'quantiles.csv'), '--policy', 'quantile'];
+const inputFiles = () => inputs().slice(0, 6);
 
 describe('quantbid plan', () => {
   it('writes orders.csv, schedule.csv and plan.json for a 92-period day', async () => {
@@ -54,6 +56,21 @@ describe('quantbid plan', () => {
     expect(plan.objective).toBeGreaterThan(0);
     // A buy's limit is q(0.9) and a sell's q(0.1), as the quantile policy says.
     for (const line of orders.slice(1)) expect(line).toMatch(/,(buy,[\d.]+,[\d.-]+,0\.9|sell,[\d.]+,[\d.-]+,0\.1)$/);
+  });
+
+  it('without --policy, --paths or a history: the plan is price-taking\'s (auto\'s fallback), said in a note', async () => {
+    const out = join(dir, 'plan-default');
+    const result = await run(['plan', ...inputFiles(), '--day', day, '--out', out, '--json']);
+    expect(result.code).toBe(0);
+    expect(result.stderr).toBe("note: the default policy, auto, scores its candidates on whole-day paths made from the forecast and a history; with no --history and no --paths this plan is price-taking's, its fallback\n");
+    const plan = JSON.parse(readFileSync(join(out, 'plan.json'), 'utf8')) as { policy: string };
+    expect(plan.policy).toBe('price-taking');
+    expect(JSON.parse(result.stdout)).toEqual(plan);
+    // Price-taking: buys limited at the cap, sells at the floor, so that every order is accepted
+    // whatever the clearing price (an order at the cap or floor always clears: common practice).
+    const orders = readFileSync(join(out, 'orders.csv'), 'utf8').trimEnd().split('\n').slice(1);
+    expect(orders.length).toBeGreaterThan(0);
+    for (const line of orders) expect(line).toMatch(/,(buy,[\d.]+,4000|sell,[\d.]+,-500),$/);
   });
 
   it('writes the same bytes twice (determinism)', async () => {

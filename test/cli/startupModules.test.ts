@@ -50,21 +50,27 @@ describe('start-up: what --version and --help load', () => {
 
   it('a command that runs loads its use case (the hook sees what a run loads)', () => {
     const modules = loadedModules(['backtest', '--scenario', 'scenarios/halvorn/scenario.json', '--from', '2026-03-01', '--to', '2026-03-01', '--out', join(folder, 'backtest'), '--quiet']);
-    expect(modules).toContain('dist/app/backtest/backtestUseCase.js');
-    expect(modules.some((m) => m.includes('node_modules/zod/'))).toBe(true);
+    expect(modules).toContain('dist/app/backtest/backtestRun.js');
+    expect(modules).toContain('dist/io/readPriceHistory.js');
   });
 });
 
 describe('start-up: what a plan loads', () => {
   // `quantbid plan` starts from the bundle of the compiled CLI (dist/bundle/), and the demo day's plan
-  // is checked by the hand-written checks (app/plan/planFastPath.ts): no module of dist/cli or the rest
-  // of dist/, no validation library, no report code, no LP library (the day solver does not need it),
-  // no history reader.
-  it('the demo day\'s plan loads the bundle\'s run and none of the validation library, the report, the LP library or the history reader', () => {
-    const files = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--json'], 'files');
+  // with a schedule policy is checked by the hand-written checks (app/plan/planFastPath.ts): no module
+  // of dist/cli or the rest of dist/, no validation library, no report code, no LP library (the day
+  // solver does not need it), no history reader. (The default, auto, plans on scenarios: HiGHS and the
+  // schemas.)
+  it('the demo day\'s plan with a schedule policy loads the bundle\'s run and none of the validation library, the report, the LP library or the history reader', () => {
+    const files = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--policy', 'quantile', '--json'], 'files');
     expect(files).toContain('dist/bundle/main.js');
     expect(files.filter((m) => /^dist\/(?!bundle\/)/.test(m))).toEqual([]);
-    const modules = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--json']);
+    // Five files (scripts/bundlePlanCli.mjs): the entry, what it imports at once, the plan's checks, its
+    // run and the bundler's helpers; commander and luxon are joined in, not loaded file by file.
+    expect(files.filter((m) => m.startsWith('dist/bundle/')).sort()).toEqual(['dist/bundle/main.js', 'dist/bundle/planRunning.js', 'dist/bundle/planStart.js', 'dist/bundle/rolldown-runtime.js', 'dist/bundle/start.js']);
+    expect(files.filter((m) => m.includes('node_modules/'))).toEqual([]);
+    expect(files).not.toContain('node:crypto');
+    const modules = loadedModules(['plan', '--scenario', 'scenarios/halvorn/scenario.json', '--policy', 'quantile', '--json']);
     expect(modules).toContain('dist/app/plan/planRun.js');
     expect(modules).toContain('dist/io/readQuantileForecastDay.js');
     expect(modules.filter((m) => /node_modules\/(zod|javascript-lp-solver)\/|^dist\/report\/|readPriceHistory|planUseCase/.test(m))).toEqual([]);

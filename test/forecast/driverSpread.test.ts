@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { driverSpreadQuantiles, logCosh, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
+import { driverSpreadQuantiles, logCosh, SpreadFeatureRows, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
+import { PoolOrder } from '../../src/forecast/quantiles/poolOrder.js';
 
 // Invented inputs (formulas shared with test/forecast/driverSpreadReference.py); the check values come from
 // that script (NumPy 2.4.6: lstsq for Harvey's (1976) regression of log |e|, np.quantile for definition 7).
@@ -94,6 +95,35 @@ describe('driver spread quantiles (Harvey 1976 spread regression; filtered histo
     for (const z of [0, 0.3, -1.7, 5, -20]) expect(logCosh(z)).toBeCloseTo(Math.log(Math.cosh(z)), 12);
     expect(logCosh(800)).toBeCloseTo(800 - Math.LN2, 9);
     expect(logCosh(-800)).toBe(logCosh(800));
+  });
+
+  it('with the pools\' order kept from the day before (poolOrder.ts), the same quantiles bit for bit as sorting afresh', () => {
+    const order = new PoolOrder();
+    // A window of DAYS - 2 days that moves a day at a time over the calibration days.
+    for (const first of [0, 1, 2]) {
+      const window = { errors: calibration.errors.slice(first, first + DAYS - 2), features: calibration.features.slice(first, first + DAYS - 2) };
+      const dayIds = Int32Array.from({ length: DAYS - 2 }, (_, d) => 100 + first + d);
+      const kept = driverSpreadQuantiles(targetCentre, targetFeatures, window, LEVELS, 'slot', { order, dayIds });
+      const fresh = driverSpreadQuantiles(targetCentre, targetFeatures, window, LEVELS, 'slot');
+      expect(kept.every((row, s) => row.every((v, k) => Object.is(v, fresh[s]![k])))).toBe(true);
+    }
+  });
+
+  it('SpreadFeatureRows: a day kept from an earlier call gives spreadFeatures of its new centre, bit for bit', () => {
+    for (const asinh of [false, true]) {
+      const rows = new SpreadFeatureRows();
+      const exogenous = [slots((s) => exog(3, s)), slots((s) => 2 * s - 1)];
+      for (const shift of [0, 1.5, -2.25]) {
+        const centreNow = slots((s) => (asinh ? centreZ(3, s) : centre(3, s)) + shift);
+        const got = rows.of(exogenous, centreNow, asinh);
+        const want = spreadFeatures(exogenous, centreNow, asinh);
+        expect(got.length === want.length && got.every((v, i) => Object.is(v, want[i]))).toBe(true);
+      }
+    }
+    // The time-of-day columns are cos and sin of 2 pi s / S and of twice that angle (6 columns without drivers).
+    const first = spreadFeatures([], slots(() => 0), true);
+    expect(first[6 * 1 + 0]).toBeCloseTo(Math.cos((2 * Math.PI) / S), 15);
+    expect(first[6 * 1 + 3]).toBeCloseTo(Math.sin((4 * Math.PI) / S), 15);
   });
 
   it('scales with the errors: doubling every error doubles the distance of each quantile from the centre (log-linear spread)', () => {

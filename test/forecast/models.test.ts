@@ -202,7 +202,7 @@ describe('keptAsinhDay: the last ARX fit\'s transformed prices, read again', () 
     expect(arxForecast(view, settings)).not.toBeNull();
     // The training days of the longest window (a gapless history: every day 42 or fewer days back).
     const training = Array.from({ length: view.pastCount }, (_, i) => i).filter((i) => view.dayNumber(i) >= view.target.dayNumber - 42);
-    const scale = view.robustScaleOf([...training].reverse());
+    const scale = view.robustScaleOf([...training].reverse(), 42);
     const out = new Float64Array(view.slotsPerDay);
     for (const i of [training[0]!, training[training.length - 1]!]) {
       const prices = view.past(i).prices;

@@ -98,7 +98,10 @@ export function caseArgv(manifest: Manifest, c: CorpusCase, out: string): string
   for (const [name, file] of Object.entries(inputs)) if (file !== null) argv.push(`--${name}`, join(FIXTURES, file));
   const day = c.day === undefined ? manifest.defaults.day : c.day;
   if (day !== null) argv.push('--day', day);
-  argv.push(...(c.args ?? []).map(fill));
+  // The quantile policy unless a case names one: the default (auto) needs a history, which the corpus lacks.
+  const args = (c.args ?? []).map(fill);
+  if (!args.includes('--policy')) argv.push('--policy', 'quantile');
+  argv.push(...args);
   const mode = c.out ?? 'fresh';
   if (mode !== 'none') argv.push('--out', out);
   if (mode === 'existing-force') argv.push('--force');

@@ -45,9 +45,11 @@ const SCENARIO = ['--scenario', DEMO_SCENARIO];
 const SHORT = ['--from', '2026-06-01', '--to', '2026-06-04'];
 
 describe('the demo gives byte-identical outputs', () => {
-  it('plan: two runs', async () => {
+  it('plan: two runs, with the default policy (auto, on seeded paths) and with the quantile policy', async () => {
     const args = ['plan', ...SCENARIO, '--day', '2026-06-02'];
-    expectSameBytes(await outputs('plan-a', args), await outputs('plan-b', args), ['orders.csv', 'plan.json', 'schedule.csv']);
+    expectSameBytes(await outputs('plan-a', args), await outputs('plan-b', args), ['orders.csv', 'plan.json']);
+    const quantile = [...args, '--policy', 'quantile'];
+    expectSameBytes(await outputs('plan-q-a', quantile), await outputs('plan-q-b', quantile), ['orders.csv', 'plan.json', 'schedule.csv']);
   }, 300_000);
 
   it('backtest: two runs', async () => {

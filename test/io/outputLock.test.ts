@@ -38,6 +38,25 @@ function refusal(take: () => unknown): string {
 }
 
 describe('OutputLock', () => {
+  it('gives every holder its own token, safe in a file name, in this process and in others', () => {
+    const tokens = new Set<string>();
+    const out = folder();
+    for (let i = 0; i < 200; i++) {
+      const lock = OutputLock.take(out, 'plan');
+      expect(lock.holder.token).toMatch(/^[0-9a-z-]+$/);
+      tokens.add(lock.holder.token);
+      lock.release();
+    }
+    // Other processes started at once: each takes the lock of a folder of its own and prints its token.
+    const script = `import { OutputLock } from ${JSON.stringify(join(process.cwd(), 'dist', 'io', 'outputLock.js'))}; const lock = OutputLock.take(process.argv[1], 'plan'); console.log(lock.holder.token); lock.release();`;
+    for (let i = 0; i < 4; i++) {
+      const child = spawnSync(process.execPath, ['--input-type=module', '-e', script, folder()], { encoding: 'utf8' });
+      expect(child.status, child.stderr).toBe(0);
+      tokens.add(child.stdout.trim());
+    }
+    expect(tokens.size).toBe(204);
+  });
+
   it('writes the holder (pid, command, start, token), and release removes it and the folder it made', () => {
     const out = join(folder(), 'deeper');
     const lock = OutputLock.take(out, 'plan', () => new Date('2027-06-15T10:00:00Z'));

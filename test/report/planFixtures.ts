@@ -50,7 +50,8 @@ export function clockChangeInputs(currency = 'HLV'): { readonly dir: string; rea
     lines.push([p.start, ...[-30, -20, -9, 0, 9, 20, 30].map((d) => (mid + d).toFixed(2))].join(','));
   });
   writeFileSync(join(dir, 'quantiles.csv'), `${lines.join('\n')}\n`);
-  const args = ['--market', join(dir, 'market.json'), '--battery', join(dir, 'battery.json'), '--forecast', join(dir, 'quantiles.csv'), '--day', day];
+  // The quantile policy, named: its limits are what the report's markers show.
+  const args = ['--market', join(dir, 'market.json'), '--battery', join(dir, 'battery.json'), '--forecast', join(dir, 'quantiles.csv'), '--day', day, '--policy', 'quantile'];
   return { dir, args, day };
 }
 

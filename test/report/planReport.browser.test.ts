@@ -8,7 +8,7 @@ describe.skipIf(!chromiumAvailable)(browserSuiteName('plan report.html'), () => 
   let clockChangeOut = '';
 
   beforeAll(async () => {
-    demoOut = await planWithReport(['--scenario', HALVORN_SCENARIO]);
+    demoOut = await planWithReport(['--scenario', HALVORN_SCENARIO, '--policy', 'quantile']);
     clockChangeOut = await planWithReport(clockChangeInputs('HLV <&> "test"').args);
   });
 

@@ -1,26 +1,16 @@
 import { z } from 'zod';
-import { batteryModel } from '../../battery/batteryModel.js';
-import { backtestMetrics, type BacktestMetrics } from '../../backtest/backtestMetrics.js';
-import { exchangeSteps, withoutExchangeSteps } from '../../plan/exchangeRounding.js';
-import type { UnacceptedRule } from '../../settle/settleDay.js';
-import { BACKTEST_POLICIES, DEFAULT_BACKTEST_POLICIES, usesScenarios, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
-import { BACKTEST_DEFAULTS, runBacktest, type BacktestDay, type BacktestInput } from '../../backtest/runBacktest.js';
-import { daysBetween } from '../../market/calendar.js';
-import { LEDGER_COLUMNS, daysCsv, ledgerRowBytes } from '../../io/backtestOutputs.js';
-import { jsonText } from '../../io/planOutputs.js';
-import type { OutputLock } from '../../io/outputLock.js';
-import type { BacktestInputPaths } from '../../io/readBacktestInputs.js';
-import { checkOutputFolder, OutputStage } from '../../io/writeOutputs.js';
+import { BACKTEST_POLICIES, DEFAULT_BACKTEST_POLICIES, type BacktestPolicy } from '../../backtest/backtestPolicy.js';
+import { BACKTEST_DEFAULTS } from '../../backtest/backtestOptions.js';
+import { readScenario } from '../../io/readScenario.js';
+import { readBatterySpec, readMarketSpec } from '../../io/readSpecs.js';
 import type { Done } from '../commandResult.js';
-import { inputsShown, runInputFiles } from '../inputFiles.js';
-import { lockedRun } from '../lockedRun.js';
-import type { ModelForecastSummary } from '../modelForecast.js';
 import { QUIET_HOOKS, type RunHooks } from '../runHooks.js';
 import type { ScenarioTools } from '../scenarios/scenarioPlanningOf.js';
 import { scenarioSettingsSchema } from '../scenarios/scenarioSettings.js';
-import { readRunInputs, requireCoveredDay, runInputPaths } from '../runInputs.js';
 import { alphaSchema, checkSpan, daySchema, inputSourcesSchema, modelSettingsSchema, outFolderSchema, unacceptedRuleSchema, validSettings } from '../settingSchemas.js';
-import { backtestSummary, backtestSummaryText } from './backtestSummary.js';
+import { backtestRun, type BacktestParts, type BacktestSummary } from './backtestRun.js';
+
+export type { BacktestSummary } from './backtestRun.js';
 
 /** The settings of `quantbid backtest`, checked once when the backtest starts. */
 export const backtestSettingsSchema = z
@@ -55,98 +45,22 @@ export const backtestSettingsSchema = z
 
 export type BacktestSettings = z.input<typeof backtestSettingsSchema>;
 
-export type BacktestSummary = ReturnType<typeof backtestSummary> & {
-  readonly forecastModel?: ModelForecastSummary;
-  /** With curve or auto: where the whole-day paths came from (app/scenarios/quantilePaths.ts). */
-  readonly scenarioPaths?: string;
+/** The schema's type, for backtestRun's checked settings. */
+export type BacktestSettingsSchema = typeof backtestSettingsSchema;
+
+/** Every part a backtest may need, with the schemas of the files read. */
+export const BACKTEST_PARTS: BacktestParts = {
+  readScenario,
+  readMarketSpec,
+  readBatterySpec,
+  defaultScenarioSettings: () => scenarioSettingsSchema.parse({}),
 };
 
-const BACKTEST_OUTPUTS = ['ledger.csv', 'days.csv', 'summary.json'] as const;
-
 /**
- * `quantbid backtest`: replays the policies day by day over the span (runBacktest) and writes
- * ledger.csv (day by day as the days are settled), days.csv, summary.json and, when asked, report.html
- * into `out` as one output set. What only some runs need (the forecast models of --model, the
- * scenario paths of curve and auto, the report) is loaded when the run needs it.
+ * `quantbid backtest`: the settings checked with their schema, the scenario and spec files with theirs,
+ * then backtestRun (replays the policies day by day over the span and writes ledger.csv, days.csv,
+ * summary.json and, when asked, report.html into `out` as one output set).
  */
 export async function backtestUseCase(settings: BacktestSettings, hooks: RunHooks = QUIET_HOOKS, tools: ScenarioTools = {}): Promise<Done<BacktestSummary>> {
-  const s = validSettings(backtestSettingsSchema, settings, 'backtest');
-  const paths = runInputPaths(s.inputs, s.model);
-  const outputs = s.report ? [...BACKTEST_OUTPUTS, 'report.html'] : BACKTEST_OUTPUTS;
-  checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
-  return lockedRun(s.out, 'backtest', (lock) => backtestRun(s, paths, outputs, lock as OutputLock, hooks, tools));
-}
-
-/** The backtest of the checked settings, from reading the inputs to the outputs, under the output folder's lock. */
-async function backtestRun(s: z.output<typeof backtestSettingsSchema>, paths: BacktestInputPaths, outputs: readonly string[], lock: OutputLock, hooks: RunHooks, tools: ScenarioTools): Promise<Done<BacktestSummary>> {
-  // With --model the forecasts are made here, day by day from the history (through the forecast cache).
-  const maker = s.model === undefined ? undefined : (await import('../modelForecast.js')).forecastMaker(s.model, paths.history, s, hooks);
-  const data = readRunInputs(paths, { policies: s.policies, alphas: [s.alpha], alphaOption: '--alpha', policyOption: '--policies' }, maker, hooks);
-  const needing = s.policies.filter(usesScenarios);
-  const scenarioModules = needing.length === 0 ? null : await scenarioCode();
-  scenarioModules?.requireCurvesOffered(s.policies, data.market, paths.market);
-  const model = maker?.made();
-  // A span without a covered day is bad input, as for sweep and size: an all-zero table would look like a result.
-  requireCoveredDay(data, paths, s.from, s.to);
-  const { market, history, forecast } = data;
-  const battery = batteryModel(data.batterySpec);
-  const progress = hooks.progress('backtest', daysBetween(s.from, s.to).length);
-  const onDay = ({ done }: { done: number }): void => progress.update(done);
-  // ledger.csv goes into the output stage day by day (writeOutputs.ts): ten years keep no ledger in memory.
-  const stage = OutputStage.begin(s.out, outputs, s.force, ['report.html'], lock);
-  try {
-    const ledger = stage.open('ledger.csv');
-    ledger.append(`${LEDGER_COLUMNS.join(',')}\n`);
-    const onLedgerDay = (day: BacktestDay): void => ledger.append(ledgerRowBytes(day));
-    // curve and auto: the --paths file, or paths made from the quantile file and the history (quantilePaths.ts).
-    const settings = scenarioModules === null ? null : (s.scenarios ?? scenarioSettingsSchema.parse({}));
-    const scenarioPaths = settings === null || scenarioModules === null ? null : scenarioModules.runScenarioPaths(settings, { market, history, forecastDays: forecast.days, days: daysBetween(s.from, s.to), policies: needing });
-    const scenarioPlanning = settings === null || scenarioPaths === null || scenarioModules === null ? null : scenarioModules.scenarioPlanningOf(settings, { market, history, forecast, tools, paths: scenarioPaths.paths });
-    const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay, scenarioPlanning });
-    progress.finish();
-    const metrics = backtestMetrics(result, battery);
-    const unrounded = unroundedMetrics(s, { market, battery, history, forecast }, hooks);
-    const inputs = inputsShown(paths, s.model);
-    const context = { market, battery, inputs, ...(unrounded === undefined ? {} : { unrounded }) };
-    const summary: BacktestSummary = { ...backtestSummary(result, metrics, context), ...(model === undefined ? {} : { forecastModel: model.summary }), ...(scenarioPaths === null ? {} : { scenarioPaths: scenarioPaths.source }) };
-    stage.write('days.csv', daysCsv(result));
-    stage.write('summary.json', jsonText(summary));
-    if (s.report) {
-      const { backtestReport } = await import('../../report/backtestReport.js');
-      stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
-    }
-    stage.commit();
-    if (summary.yearlyFigures.warning !== null) hooks.note(`warning: ${summary.yearlyFigures.warning}\n`);
-    return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded, scenarioPaths === null ? [] : [`  paths: ${scenarioPaths.source}`])}${model?.note ?? ''}` };
-  } finally {
-    stage.discard();
-  }
-}
-
-/** The scenario planning code of curve and auto, loaded only for them. */
-async function scenarioCode(): Promise<typeof import('../scenarios/quantilePaths.js') & typeof import('../scenarios/scenarioPlanningOf.js')> {
-  const [paths, planning] = await Promise.all([import('../scenarios/quantilePaths.js'), import('../scenarios/scenarioPlanningOf.js')]);
-  return { ...paths, ...planning };
-}
-
-/**
- * With order steps in the market spec the backtest's orders are rounded to them; the same backtest on the
- * market spec without the steps (orders as planned) gives the reference for the loss from rounding. None
- * without steps (nothing is run twice).
- */
-function unroundedMetrics(
-  s: { readonly from: string; readonly to: string; readonly alpha: number; readonly unaccepted: UnacceptedRule; readonly policies: readonly BacktestPolicy[] },
-  data: Omit<BacktestInput, 'from' | 'to'>,
-  hooks: RunHooks,
-): BacktestMetrics | undefined {
-  // Auto would choose among other candidates (curves too) on the unrounded market: only the schedule policies compare.
-  const policies = s.policies.filter((p) => !usesScenarios(p));
-  if (exchangeSteps(data.market) === null || policies.length === 0) return undefined;
-  const progress = hooks.progress('backtest without rounding', daysBetween(s.from, s.to).length);
-  const result = runBacktest(
-    { ...data, market: withoutExchangeSteps(data.market), from: s.from, to: s.to },
-    { alpha: s.alpha, unaccepted: s.unaccepted, policies, keepLedger: false, onDay: ({ done }) => progress.update(done) },
-  );
-  progress.finish();
-  return backtestMetrics(result, data.battery);
+  return backtestRun(validSettings(backtestSettingsSchema, settings, 'backtest'), BACKTEST_PARTS, hooks, tools);
 }

@@ -1,14 +1,9 @@
-import { checkedBatterySpec } from '../../battery/batterySpecCheck.js';
-import { InputError } from '../../errors/inputError.js';
-import { scenarioOf, type Scenario } from '../../io/scenarioOf.js';
-import { checkedScenarioFields } from '../../io/scenarioCheck.js';
-import { oldFieldNote, readCheckedSpec } from '../../io/specFile.js';
-import { checkedMarketSpec } from '../../market/marketSpecCheck.js';
-import type { BatterySpec, MarketSpec } from '../../types.js';
+import { readAheadGzip } from '../../io/readAhead.js';
+import { planPolicy } from '../commandDefaults.js';
 import type { Done } from '../commandResult.js';
-import { inputPathsOf } from '../inputPaths.js';
+import { checkedInputPaths, checkedReaders } from '../checkedInputPaths.js';
 import type { RunHooks } from '../runHooks.js';
-import { planRun, type CheckedPlanSettings, type PlanParts, type PlanSummary } from './planRun.js';
+import type { PlanParts, PlanSummary } from './planRun.js';
 import { checkedPlanSettings } from './planSettingsCheck.js';
 import type { PlanSettings, PlanTools } from './planUseCase.js';
 
@@ -16,74 +11,48 @@ import type { PlanSettings, PlanTools } from './planUseCase.js';
  * planUseCase as the CLI runs it, without loading the validation library when nothing is wrong: the
  * settings, the scenario file and the two spec files are checked by hand-written checks that accept
  * only what their schemas accept and return what the schemas return (planSettingsCheck.ts,
- * scenarioCheck.ts, marketSpecCheck.ts, batterySpecCheck.ts); the report and the history reader are
- * loaded only when this plan needs them. Anything a check leaves to its schema (a problem to word, or
- * scenario planning) runs planUseCase itself, from the start, so its answer and every message are
- * the schema path's. The checks read the files before planUseCase would (nothing is written before):
- * the plan then runs on what they read, and the market's note is given where planUseCase gives it.
+ * checkedInputPaths.ts, checkedSpecFiles.ts); the report and the history reader are loaded only when
+ * this plan needs them. Anything a check leaves to its schema (a problem to word, or scenario planning,
+ * the default policy's too) runs planUseCase itself, from the start, so its answer and every message
+ * are the schema path's. The checks read the files before planUseCase would (nothing is written
+ * before): the plan then runs on what they read, and the market's note is given where planUseCase
+ * gives it.
+ *
+ * Once the input paths are known, the forecast file is read and inflated on a thread of the pool
+ * (readAhead.ts) while this thread loads the planning code (this module loads only the checks of
+ * the settings and the scenario) and checks the spec files; the reader takes what was read ahead when
+ * it is still the file's content, and checks it as it checks what it reads itself.
  */
 export async function planFastPath(settings: PlanSettings, hooks: RunHooks, tools: PlanTools): Promise<Done<PlanSummary>> {
-  const checked = checkedPlanInputs(settings);
-  if (checked === undefined) {
-    const { planUseCase } = await import('./planUseCase.js');
-    return planUseCase(settings, hooks, tools);
-  }
-  const { s, scenario, market, battery, history } = checked;
+  const s = checkedPlanSettings(settings);
+  if (s === undefined || onScenarios(s.policy)) return planOnSchemas(settings, hooks, tools);
+  const start = checkedInputPaths(s.inputs, ['market', 'battery', 'forecast'], ['history']);
+  // The default policy plans on scenarios when there is a history (no --paths here: `scenarios` is unset).
+  if (start === undefined || onScenarios(planPolicy(s.policy, false, start.paths.history !== undefined))) return planOnSchemas(settings, hooks, tools);
+  const { paths } = start;
+  const forecastReadAhead = readAheadGzip(paths.forecast);
+  const [{ checkedSpecFiles }, { planRun }] = await Promise.all([import('../checkedSpecFiles.js'), import('./planRun.js')]);
+  const specs = checkedSpecFiles(paths);
+  if (specs === undefined) return planOnSchemas(settings, hooks, tools);
+  // The history is read only when the market has no imbalance rule and a history is given.
+  const history = specs.market.value.imbalance === undefined && paths.history !== undefined;
   const parts: PlanParts = {
-    // Asked for only when the settings name a scenario file, which was then read.
-    readScenario: (file) => same(file, s.inputs.scenario, scenario as Scenario),
-    readMarketSpec: (path, note) => {
-      const said = oldFieldNote(path, same(path, market.path, market.text));
-      if (said !== undefined) note(said);
-      return market.value;
-    },
-    readBatterySpec: (path) => same(path, battery.path, battery.value),
+    // The scenario is asked for only when the settings name a scenario file, which was then read.
+    ...checkedReaders({ scenario: start.scenario, ...specs }),
     ...(s.report ? { planReport: (await import('../../report/planReport.js')).planReport } : {}),
     ...(history ? { readPriceHistory: (await import('../../io/readPriceHistory.js')).readPriceHistory } : {}),
   };
-  return planRun(s, parts, hooks, tools);
+  const readAhead = await forecastReadAhead;
+  return planRun(s, readAhead === undefined ? parts : { ...parts, forecastReadAhead: readAhead }, hooks, tools);
 }
 
-interface CheckedPlanInputs {
-  readonly s: CheckedPlanSettings;
-  readonly scenario: Scenario | undefined;
-  readonly market: { readonly path: string; readonly value: MarketSpec; readonly text: string };
-  readonly battery: { readonly path: string; readonly value: BatterySpec };
-  /** Whether the plan reads the history: the market has no imbalance rule and a history is given. */
-  readonly history: boolean;
+/** The plan with the settings and files checked by their schemas (planUseCase), from the start. */
+async function planOnSchemas(settings: PlanSettings, hooks: RunHooks, tools: PlanTools): Promise<Done<PlanSummary>> {
+  const { planUseCase } = await import('./planUseCase.js');
+  return planUseCase(settings, hooks, tools);
 }
 
-/** The settings and the files planRun reads first, when every hand-written check accepts them; else undefined. */
-function checkedPlanInputs(settings: PlanSettings): CheckedPlanInputs | undefined {
-  const s = checkedPlanSettings(settings);
-  if (s === undefined || s.policy === 'curve' || s.policy === 'auto') return undefined;
-  let scenario: Scenario | undefined;
-  if (s.inputs.scenario !== undefined) {
-    const read = readCheckedSpec(s.inputs.scenario, checkedScenarioFields);
-    if (read === undefined) return undefined;
-    scenario = scenarioOf(read.value, read.text, s.inputs.scenario);
-  }
-  let paths;
-  try {
-    paths = inputPathsOf(scenario, s.inputs, ['market', 'battery', 'forecast'], ['history']).paths;
-  } catch (err) {
-    if (err instanceof InputError) return undefined;
-    throw err;
-  }
-  const market = readCheckedSpec(paths.market, checkedMarketSpec);
-  const battery = readCheckedSpec(paths.battery, checkedBatterySpec);
-  if (market === undefined || battery === undefined) return undefined;
-  return {
-    s,
-    scenario,
-    market: { path: paths.market, ...market },
-    battery: { path: paths.battery, value: battery.value },
-    history: market.value.imbalance === undefined && paths.history !== undefined,
-  };
-}
-
-/** What was read for `expected`, asked for as `path`: planRun asks for the files the checks read. */
-function same<T>(path: string, expected: string | undefined, value: T): T {
-  if (path !== expected) throw new Error(`planFastPath: ${path} was asked for, ${expected ?? 'nothing'} was read`);
-  return value;
+/** Whether the policy plans on whole-day scenarios (scenarioPlan.ts), which the schema path runs. */
+function onScenarios(policy: PlanSettings['policy']): boolean {
+  return policy === 'curve' || policy === 'auto';
 }

@@ -5,6 +5,7 @@ import { jsonText, ordersCsv, scheduleCsv } from '../../io/planOutputs.js';
 import { readQuantileForecastDay, type QuantileForecastForDay } from '../../io/readQuantileForecastDay.js';
 import type { readPriceHistory } from '../../io/readPriceHistory.js';
 import type { OutputLock } from '../../io/outputLock.js';
+import type { ReadAhead } from '../../io/readAhead.js';
 import type { Scenario } from '../../io/scenarioOf.js';
 import { checkOutputFolder, writeOutputs } from '../../io/writeOutputs.js';
 import { imbalanceExpectation } from '../../plan/imbalanceExpectation.js';
@@ -21,9 +22,14 @@ import type { PlanSettingsSchema, PlanTools } from './planUseCase.js';
 import type { scenarioPlan, ScenarioPlanSummary } from './scenarioPlan.js';
 import { planSummary, planSummaryText, planWarnings, planWorth, type PlanWorth } from './planSummary.js';
 import type { z } from 'zod';
+import { PLAN_DEFAULTS, planPolicy, type PlanCommandPolicy } from '../commandDefaults.js';
 
-/** The plan's settings as planSettingsSchema returns them (defaults filled in). */
+/** The plan's settings as planSettingsSchema returns them (defaults filled in, the policy when given). */
 export type CheckedPlanSettings = z.output<PlanSettingsSchema>;
+
+/** The settings with the policy settled: the one given, else the default or its fallback (planPolicy). */
+type PlanRunSettings = CheckedPlanSettings & { readonly policy: PlanCommandPolicy };
+
 
 export type PlanSummary = ReturnType<typeof planSummary> | ScenarioPlanSummary;
 
@@ -48,6 +54,8 @@ export interface PlanParts {
   };
   readonly planReport?: typeof planReport;
   readonly readPriceHistory?: typeof readPriceHistory;
+  /** The forecast file read ahead (readAhead.ts), taken when it is still the file's content. */
+  readonly forecastReadAhead?: ReadAhead;
 }
 
 export const PLAN_OUTPUTS = ['orders.csv', 'schedule.csv', 'plan.json'] as const;
@@ -63,9 +71,10 @@ function needed<T>(part: T | undefined, what: string): T {
  * forecast (planDay), written as orders.csv, schedule.csv, plan.json and, when asked, report.html into
  * `out` as one output set.
  */
-export function planRun(s: CheckedPlanSettings, parts: PlanParts, hooks: RunHooks, tools: PlanTools): Done<PlanSummary> {
+export function planRun(checked: CheckedPlanSettings, parts: PlanParts, hooks: RunHooks, tools: PlanTools): Done<PlanSummary> {
+  const { paths, demoDay } = inputPathsOf(checked.inputs.scenario === undefined ? undefined : parts.readScenario(checked.inputs.scenario), checked.inputs, ['market', 'battery', 'forecast'], ['history']);
+  const s: PlanRunSettings = { ...checked, policy: planPolicy(checked.policy, checked.scenarios?.paths !== undefined, paths.history !== undefined) };
   const onScenarios = s.policy === 'curve' || s.policy === 'auto';
-  const { paths, demoDay } = inputPathsOf(s.inputs.scenario === undefined ? undefined : parts.readScenario(s.inputs.scenario), s.inputs, ['market', 'battery', 'forecast'], ['history']);
   // Without --paths the paths are made from the quantile file and the history: one of the two is needed.
   if (onScenarios && s.scenarios?.paths === undefined && paths.history === undefined) throw needed(parts.scenarioPlanning, 'scenario planning').noPathsProblem([s.policy]);
   const day = s.day ?? demoDay;
@@ -77,12 +86,17 @@ export function planRun(s: CheckedPlanSettings, parts: PlanParts, hooks: RunHook
   }
   const outputs = onScenarios ? [...needed(parts.scenarioPlanning, 'scenario planning').outputs, ...(s.report ? ['report.html'] : [])] : s.report ? [...PLAN_OUTPUTS, 'report.html'] : PLAN_OUTPUTS;
   if (s.out !== undefined) checkOutputFolder(s.out, outputs, s.force, runInputFiles(s.inputs, paths));
-  return lockedRun(s.out, 'plan', (lock) => planDayRun(s, { paths, day, outputs, lock }, parts, hooks, tools));
+  const done = lockedRun(s.out, 'plan', (lock) => planDayRun(s, { paths, day, outputs, lock }, parts, hooks, tools));
+  // Said once the plan is made (a plan refused for its inputs needs no word on the policy).
+  if (checked.policy === undefined && s.policy !== PLAN_DEFAULTS.policy) {
+    hooks.note(`note: the default policy, ${PLAN_DEFAULTS.policy}, scores its candidates on whole-day paths made from the forecast and a history; with no --history and no --paths this plan is ${s.policy}'s, its fallback\n`);
+  }
+  return done;
 }
 
 /** The plan of `day` from the checked settings, written under the output folder's lock (when there is a folder). */
 function planDayRun(
-  s: CheckedPlanSettings,
+  s: PlanRunSettings,
   run: { readonly paths: Record<'market' | 'battery' | 'forecast', string> & { readonly history?: string }; readonly day: string; readonly outputs: readonly string[]; readonly lock: OutputLock | undefined },
   parts: PlanParts,
   hooks: RunHooks,
@@ -103,7 +117,7 @@ function planDayRun(
     if (tools.lpSolver === undefined) throw new Error(`planUseCase: the ${s.policy} policy needs tools.lpSolver (loadHighsSolver)`);
     const inputs: Record<string, string> = { ...paths };
     return needed(parts.scenarioPlanning, 'scenario planning').plan(
-      { day, policy: s.policy, scenarios: s.scenarios, market, battery, forecastFile, forecast, socStartMwh, unaccepted: s.unaccepted, inputs, out: s.out, force: s.force, report: s.report, solver: tools.lpSolver, lock: run.lock },
+      { day, policy: s.policy, scenarios: s.scenarios, market, battery, forecastFile, forecast, socStartMwh, unaccepted: s.unaccepted, inputs, out: s.out, force: s.force, report: s.report, listOrders: s.listOrders, solver: tools.lpSolver, lock: run.lock },
       hooks,
     );
   }
@@ -158,7 +172,7 @@ function readPlanInputs(paths: Record<'market' | 'battery' | 'forecast', string>
   const problems: InputProblem[] = [];
   const market = gatherProblems(problems, () => parts.readMarketSpec(paths.market, note));
   const spec = gatherProblems(problems, () => parts.readBatterySpec(paths.battery));
-  const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecastDay(paths.forecast, market, day));
+  const forecastFile = market === undefined ? undefined : gatherProblems(problems, () => readQuantileForecastDay(paths.forecast, market, day, parts.forecastReadAhead));
   if (market === undefined || spec === undefined || forecastFile === undefined) throw new InputError(problems);
   return { market, battery: batteryModel(spec), forecastFile };
 }

@@ -3,12 +3,12 @@ import { isAlpha } from '../../plan/alpha.js';
 import { UNACCEPTED_RULES } from '../../settle/unacceptedRule.js';
 import { numberIn, onlyKeys, plainRecord } from '../../errors/plainChecks.js';
 import { PLAN_COMMAND_POLICIES, PLAN_DEFAULTS } from '../commandDefaults.js';
-import { outFolderProblem, pathProblem, rangeProblem, RUN_LIMITS } from '../settingRules.js';
+import { checkedInputSources } from '../inputSourcesCheck.js';
+import { outFolderProblem, rangeProblem, RUN_LIMITS } from '../settingRules.js';
 import type { CheckedPlanSettings } from './planRun.js';
 
 /** The fields of the plan's settings in the schema's order (planSettingsSchema, planUseCase.ts). */
 const PLAN_KEYS = ['inputs', 'day', 'alpha', 'policy', 'scenarios', 'unaccepted', 'socStartMwh', 'out', 'force', 'report', 'listOrders'] as const;
-const INPUT_KEYS = ['scenario', 'market', 'battery', 'forecast', 'history'] as const;
 
 /**
  * The settings of `quantbid plan` as planSettingsSchema returns them, checked by hand without loading
@@ -19,19 +19,12 @@ const INPUT_KEYS = ['scenario', 'market', 'battery', 'forecast', 'history'] as c
 export function checkedPlanSettings(value: unknown): CheckedPlanSettings | undefined {
   const settings = plainRecord(value);
   if (settings === undefined || !onlyKeys(settings, PLAN_KEYS) || settings.scenarios !== undefined) return undefined;
-  const sources = plainRecord(settings.inputs);
-  if (sources === undefined || !onlyKeys(sources, INPUT_KEYS)) return undefined;
-  const inputs: Record<string, string | undefined> = {};
-  for (const key of INPUT_KEYS) {
-    if (!Object.hasOwn(sources, key)) continue;
-    const path = sources[key];
-    if (path !== undefined && (typeof path !== 'string' || pathProblem(path) !== null)) return undefined;
-    inputs[key] = path;
-  }
-  const { day, alpha = PLAN_DEFAULTS.alpha, policy = PLAN_DEFAULTS.policy, unaccepted = PLAN_DEFAULTS.unaccepted, socStartMwh, out, force = false, report = false, listOrders = false } = settings;
+  const inputs = checkedInputSources(settings.inputs);
+  if (inputs === undefined) return undefined;
+  const { day, alpha = PLAN_DEFAULTS.alpha, policy, unaccepted = PLAN_DEFAULTS.unaccepted, socStartMwh, out, force = false, report = false, listOrders = false } = settings;
   if (day !== undefined && (typeof day !== 'string' || !isValidDay(day))) return undefined;
   if (!numberIn(alpha, -Infinity, Infinity) || !isAlpha(alpha)) return undefined;
-  if (!(PLAN_COMMAND_POLICIES as readonly unknown[]).includes(policy) || !(UNACCEPTED_RULES as readonly unknown[]).includes(unaccepted)) return undefined;
+  if ((policy !== undefined && !(PLAN_COMMAND_POLICIES as readonly unknown[]).includes(policy)) || !(UNACCEPTED_RULES as readonly unknown[]).includes(unaccepted)) return undefined;
   if (socStartMwh !== undefined && (!numberIn(socStartMwh, -Infinity, Infinity) || rangeProblem(socStartMwh, RUN_LIMITS.socStartMwh) !== null)) return undefined;
   if (out !== undefined && (typeof out !== 'string' || outFolderProblem(out) !== null)) return undefined;
   if (typeof force !== 'boolean' || typeof report !== 'boolean' || typeof listOrders !== 'boolean') return undefined;
@@ -40,7 +33,7 @@ export function checkedPlanSettings(value: unknown): CheckedPlanSettings | undef
     inputs,
     ...optional('day', day),
     alpha,
-    policy,
+    ...optional('policy', policy),
     ...optional('scenarios', undefined),
     unaccepted,
     ...optional('socStartMwh', socStartMwh),

@@ -234,7 +234,7 @@ export function planSummaryText(
     `  value at the policy's prices: ${money(result.outcome.objective)}; at the median forecast: ${money(result.expectedValueAtMedian)}`,
     ...roundingLines(result, market.currency),
   ];
-  if (extras?.listOrders === true) lines.push(...orderLines(result.orders, extras.worth, market));
+  if (extras?.listOrders === true) lines.push(...orderLines(result.orders, extras.worth.expected?.orderAcceptance, market));
   if (extras !== undefined) lines.push(...worthLines(extras, money));
   lines.push(`  state of charge [MWh] from ${formatNumber(result.problem.socStartMwh, 2)}, at the end of each hour:`, `    ${hourlySoc(forecast, result.outcome.schedule.socMwh).join(' ')}`);
   if (outDir !== undefined) lines.push(`  wrote ${written.map((name, i) => (i === 0 ? `${outDir}/${name}` : name)).join(', ')}`);
@@ -263,14 +263,16 @@ function worthLines(extras: PlanTextExtras, money: (x: number) => string): strin
   return lines;
 }
 
-/** Every order: delivery period (local time), side, quantity, limit and the level it was read at, P(accepted). */
-function orderLines(orders: readonly Order[], worth: PlanWorth, market: MarketSpec): string[] {
+/**
+ * Every order: delivery period (local time), side, quantity, limit and the level it was read at (the
+ * cap or floor, or a curve's step), and P(accepted) under the forecast when it is known.
+ */
+export function orderLines(orders: readonly Order[], acceptance: readonly number[] | undefined, market: MarketSpec): string[] {
   if (orders.length === 0) return ['  no orders: at the policy\'s prices no charge and later discharge pays for itself'];
-  const acceptance = worth.expected?.orderAcceptance;
   // Fixed decimals, so that the column lines up; never "-0.00".
   const fixed = (x: number, d: number) => (Number(x.toFixed(d)) === 0 ? (0).toFixed(d) : x.toFixed(d));
   const rows = orders.map((o, i) => {
-    const level = o.quantileLevel === null ? (o.side === 'buy' ? 'cap' : 'floor') : `q${o.quantileLevel}`;
+    const level = o.quantileLevel !== null ? `q${o.quantileLevel}` : o.limitPrice === market.priceCap ? 'cap' : o.limitPrice === market.priceFloor ? 'floor' : 'step';
     const p = acceptance?.[i];
     return [
       `${o.periodStart.slice(11, 16)}-${o.periodEnd.slice(11, 16)}`,
@@ -282,7 +284,8 @@ function orderLines(orders: readonly Order[], worth: PlanWorth, market: MarketSp
   });
   const widths = rows[0]!.map((_, k) => Math.max(...rows.map((r) => r[k]!.length)));
   const line = (r: readonly string[]) => `    ${r.map((c, k) => (k === 2 || k === 3 ? c.padStart(widths[k]!) : c.padEnd(widths[k]!))).join('  ').trimEnd()}`;
-  return [`  orders (local time; limit in ${market.currency}/MWh, the level it was read at; P(accepted) under the forecast):`, ...rows.map(line)];
+  const said = acceptance === undefined ? 'the level it was read at, or a curve\'s step' : 'the level it was read at; P(accepted) under the forecast';
+  return [`  orders (local time; limit in ${market.currency}/MWh, ${said}):`, ...rows.map(line)];
 }
 
 function hourlySoc(forecast: QuantileDay, soc: readonly number[]): string[] {

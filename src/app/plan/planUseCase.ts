@@ -24,8 +24,8 @@ export const planSettingsSchema = z.strictObject({
   day: daySchema.optional(),
   /** Tail level: buys limited at q(1 - alpha), sells at q(alpha); default 0.1. */
   alpha: alphaSchema.default(PLAN_DEFAULTS.alpha),
-  /** Planning policy; default quantile. */
-  policy: z.enum(PLAN_COMMAND_POLICIES as readonly PlanCommandPolicy[] as [PlanCommandPolicy, ...PlanCommandPolicy[]]).default(PLAN_DEFAULTS.policy),
+  /** Planning policy; default auto, or price-taking when there are neither --paths nor a history (planRun.ts). */
+  policy: z.enum(PLAN_COMMAND_POLICIES as readonly PlanCommandPolicy[] as [PlanCommandPolicy, ...PlanCommandPolicy[]]).optional(),
   /** Paths and settings of the curve and auto policies; without paths they are made from the forecast file and the history. */
   scenarios: scenarioSettingsSchema.optional(),
   /** What the battery does about unaccepted orders: auto scores its candidates under it. Default follow-plan. */

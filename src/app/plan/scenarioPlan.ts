@@ -17,6 +17,7 @@ import { imbalancePathSource } from '../scenarios/pathScenarios.js';
 import { runScenarioPaths } from '../scenarios/quantilePaths.js';
 import { requireCurvesOffered, scenarioPlanningOf } from '../scenarios/scenarioPlanningOf.js';
 import type { ScenarioSettings } from '../scenarios/scenarioSettings.js';
+import { orderLines } from './planSummary.js';
 import { candidateTableText, scenarioPlanSummary, whyText } from './scenarioPlanSummary.js';
 
 export interface ScenarioPlanRequest {
@@ -35,6 +36,8 @@ export interface ScenarioPlanRequest {
   readonly out: string | undefined;
   readonly force: boolean;
   readonly report: boolean;
+  /** List every submitted order in the printed summary (the demo does). */
+  readonly listOrders: boolean;
   readonly solver: SparseLpSolver;
   /** The output folder's lock, held for the whole run (io/outputLock.ts). */
   readonly lock: OutputLock | undefined;
@@ -105,6 +108,7 @@ export function scenarioPlan(request: ScenarioPlanRequest, hooks: RunHooks): Don
     ...candidateTableText(choice, market.currency),
     `  submitted: ${summary.submitted} (${whyText(choice, planning.switchStandardErrors)})`,
     `  orders: ${summary.orders.rows} rows, ${summary.orders.buys} buys, ${summary.orders.sells} sells; a proposal for the exchange, not a control signal`,
+    ...(request.listOrders ? orderLines(orders, undefined, market) : []),
   ];
   if (request.out !== undefined) lines.push(`  wrote ${outputs.map((name, i) => (i === 0 ? `${request.out}/${name}` : name)).join(', ')}`);
   return { status: 'done', summary, text: `${lines.join('\n')}\n` };

@@ -1,5 +1,6 @@
 import type { Matrix } from './matrix.js';
 import { requireResponse } from './matrix.js';
+import { twoByFourProducts } from './twoByFourProducts.js';
 
 /**
  * Cross products of a design whose columns are centred and scaled, for models with a free intercept
@@ -40,33 +41,72 @@ export interface StandardisedGram {
   readonly yVariance: number;
 }
 
-/** Builds the {@link StandardisedGram} of `x` (n x k, no column of ones) and `y` (length n >= 1). */
+/**
+ * Builds the {@link StandardisedGram} of `x` (n x k, no column of ones) and `y` (length n >= 1).
+ *
+ * Each sum is taken over the rows in row order, one sum at a time, with the centred columns laid out
+ * column by column (two columns against four per pass over the rows, as arxGram.ts): the same
+ * additions in the same order as row by row, so the same bits, with the running sums in registers.
+ */
 export function standardisedGram(x: Matrix, y: ArrayLike<number>): StandardisedGram {
   requireResponse(x, y);
   const { rows: n, cols: k, data } = x;
   const means = new Float64Array(k);
   let yMean = 0;
+  // Row by row (the data are row-major): each column's sum still adds its values in row order.
   for (let i = 0; i < n; i++) {
     yMean += y[i] as number;
     for (let j = 0; j < k; j++) means[j] = (means[j] as number) + (data[i * k + j] as number);
   }
   yMean /= n;
   for (let j = 0; j < k; j++) means[j] = (means[j] as number) / n;
+  // Centred columns 0..k-1, then y - ybar (column k), then a column of zeros (column k + 1).
+  const width = k + 1;
+  const cols = centredScratch((width + 1) * n);
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < k; j++) cols[j * n + i] = (data[i * k + j] as number) - (means[j] as number);
+    cols[k * n + i] = (y[i] as number) - yMean;
+  }
+  cols.fill(0, width * n, (width + 1) * n);
+  // products[j width + l], l >= j: sum_i c_ij c_il over the centred columns and y.
+  const products = new Float64Array(width * width);
+  for (let j = 0; j < width; j += 2) {
+    for (let l = j; l < width; l += 4) crossProducts(cols, n, width, j, l, products);
+  }
   const gram = new Float64Array(k * k);
   const cy = new Float64Array(k);
-  const row = new Float64Array(k);
-  let ySquares = 0;
-  for (let i = 0; i < n; i++) {
-    const dy = (y[i] as number) - yMean;
-    ySquares += dy * dy;
-    for (let j = 0; j < k; j++) row[j] = (data[i * k + j] as number) - (means[j] as number);
-    for (let j = 0; j < k; j++) {
-      const rj = row[j] as number;
-      cy[j] = (cy[j] as number) + rj * dy;
-      for (let l = j; l < k; l++) gram[j * k + l] = (gram[j * k + l] as number) + rj * (row[l] as number);
+  for (let j = 0; j < k; j++) {
+    cy[j] = products[j * width + k] as number;
+    for (let l = j; l < k; l++) gram[j * k + l] = products[j * width + l] as number;
+  }
+  return standardiseCentredSums(n, means, yMean, gram, cy, products[k * width + k] as number);
+}
+
+/**
+ * Sums over the n rows of columns j, j + 1 times columns l..l + 3 (columns at or past `width` read as
+ * the column of zeros at width n, their sums dropped), into products[r width + c] for c >= r.
+ */
+function crossProducts(cols: Float64Array, n: number, width: number, j: number, l: number, products: Float64Array): void {
+  const zeros = width * n;
+  const at = (c: number): number => (c < width ? c * n : zeros);
+  twoByFourProducts(cols, at(j), at(j + 1), at(l), at(l + 1), at(l + 2), at(l + 3), [n], blockSums);
+  for (let r = 0; r < 2; r++) {
+    for (let t = 0; t < 4; t++) {
+      const row = j + r;
+      const column = l + t;
+      if (row < width && column < width && column >= row) products[row * width + column] = blockSums[4 * r + t] as number;
     }
   }
-  return standardiseCentredSums(n, means, yMean, gram, cy, ySquares);
+}
+
+const blockSums = new Float64Array(8);
+
+/** Scratch space of the centred columns, reused from call to call (each call overwrites what it reads). */
+let centredColumns = new Float64Array(0);
+
+function centredScratch(length: number): Float64Array {
+  if (centredColumns.length < length) centredColumns = new Float64Array(length);
+  return centredColumns;
 }
 
 /**

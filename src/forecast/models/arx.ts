@@ -128,7 +128,7 @@ function fitWindows(
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rowsUsed = training.slice(0, n);
-  const scale = windowScale(view, rowsUsed);
+  const scale = windowScale(view, rowsUsed, Math.max(...settings.windowsDays));
   // The past days the forecast reads, each transformed once: by row, the positions of its own day
   // (the response, its exogenous columns) and of its lag days (lag 1 also gives the day before's
   // exogenous columns and the min, max and last).
@@ -301,6 +301,6 @@ function scratch(which: 0 | 1, length: number): Float64Array {
 }
 
 /** Median and MAD of all prices of the training days (robustScale, kept sorted from one window to the next). */
-function windowScale(view: HistoryView, training: readonly number[]): RobustScale {
-  return view.robustScaleOf(training);
+function windowScale(view: HistoryView, training: readonly number[], windowDays: number): RobustScale {
+  return view.robustScaleOf(training, windowDays);
 }

@@ -1,6 +1,8 @@
 import type { StandardisedGram } from '../linalg/standardisedGram.js';
 import { nestedShiftedSums } from '../linalg/nestedShiftedSums.js';
 import { standardiseCentredSums } from '../linalg/standardisedGram.js';
+import { twoByFourProducts } from '../linalg/twoByFourProducts.js';
+import { gramWorkspace, type GramWorkspace } from './gramWorkspace.js';
 
 /** Day-level ARX regressors, the same for every slot of a training day. */
 export interface ArxDayLevel {
@@ -91,33 +93,17 @@ export class ArxGramBuilder {
         const q1 = q + 1 < a ? q0 + n : zeros;
         const q2 = q + 2 < a ? q0 + 2 * n : zeros;
         const q3 = q + 3 < a ? q0 + 3 * n : zeros;
-        let s00 = 0;
-        let s01 = 0;
-        let s02 = 0;
-        let s03 = 0;
-        let s10 = 0;
-        let s11 = 0;
-        let s12 = 0;
-        let s13 = 0;
-        let i = 0;
+        const sums = work.blockSums;
+        twoByFourProducts(cols, pn, pn1, q0, q1, q2, q3, counts, sums);
         for (let w = 0; w < W; w++) {
-          const end = counts[w] as number;
-          for (; i < end; i++) {
-            const v0 = cols[pn + i] as number;
-            const v1 = cols[pn1 + i] as number;
-            const c0 = cols[q0 + i] as number;
-            const c1 = cols[q1 + i] as number;
-            const c2 = cols[q2 + i] as number;
-            const c3 = cols[q3 + i] as number;
-            s00 += v0 * c0;
-            s01 += v0 * c1;
-            s02 += v0 * c2;
-            s03 += v0 * c3;
-            s10 += v1 * c0;
-            s11 += v1 * c1;
-            s12 += v1 * c2;
-            s13 += v1 * c3;
-          }
+          const s00 = sums[8 * w] as number;
+          const s01 = sums[8 * w + 1] as number;
+          const s02 = sums[8 * w + 2] as number;
+          const s03 = sums[8 * w + 3] as number;
+          const s10 = sums[8 * w + 4] as number;
+          const s11 = sums[8 * w + 5] as number;
+          const s12 = sums[8 * w + 6] as number;
+          const s13 = sums[8 * w + 7] as number;
           const at = w * a * a + p * a + q;
           prodAA[at] = s00;
           if (q + 1 < a) prodAA[at + 1] = s01;
@@ -141,7 +127,7 @@ export class ArxGramBuilder {
    * The sums, sums by weekday and products with min, max and last of slot columns p and p + 1 (rows at
    * pn and pn1; pn1 the column of zeros when p is the last), read off at every count.
    */
-  private rowSums(work: SlotWork, p: number, pn: number, pn1: number, two: boolean): void {
+  private rowSums(work: GramWorkspace, p: number, pn: number, pn1: number, two: boolean): void {
     const { n, counts, rb } = this;
     const weekdays = this.day.weekdays;
     const { a, cols, sumA, prodAB, buckets, bucket, bucket1 } = work;
@@ -192,36 +178,19 @@ export class ArxGramBuilder {
     }
   }
 
-  private work: SlotWork | undefined;
+  private work: GramWorkspace | undefined;
 
-  private workspace(a: number): SlotWork {
+  private workspace(a: number): GramWorkspace {
     if (this.work === undefined || this.work.a !== a) {
       const k = 12 + a - 4;
       const W = this.counts.length;
-      this.work = {
-        a,
-        k,
-        cols: new Float64Array((a + 1) * this.n),
-        shiftA: new Float64Array(a),
-        sumA: new Float64Array(W * a),
-        prodAA: new Float64Array(W * a * a),
-        prodAB: new Float64Array(W * a * B),
-        buckets: new Float64Array(W * 7 * a),
-        bucket: new Float64Array(7),
-        bucket1: new Float64Array(7),
-        means: new Float64Array(k),
-        gram: new Float64Array(k * k),
-        cy: new Float64Array(k),
-        shift: new Float64Array(k),
-        sums: new Float64Array(k),
-        standardised: { scales: new Float64Array(k), zty: new Float64Array(k) },
-      };
+      this.work = gramWorkspace({ a, k, W, B, C: 7, n: this.n, extraColumns: 0 });
     }
     return this.work;
   }
 
   /** Centred sums of all columns at count w, standardised (into the workspace's arrays). */
-  private assemble(count: number, w: number, work: SlotWork, lastSlot: boolean): StandardisedGram {
+  private assemble(count: number, w: number, work: GramWorkspace, lastSlot: boolean): StandardisedGram {
     const { a, k, shiftA, sumA, means, gram, cy, shift, sums } = work;
     const sharedSums = this.sharedSums[w] as Float64Array;
     const y = a - 1;
@@ -248,7 +217,7 @@ export class ArxGramBuilder {
   }
 
   /** Shifted product sum, at count w, of slot column p with final column c. */
-  private productWithA(work: SlotWork, w: number, p: number, c: number): number {
+  private productWithA(work: GramWorkspace, w: number, p: number, c: number): number {
     const { a, prodAA, prodAB, buckets, sumA } = work;
     const q = sourceA(c);
     const aa = w * a * a;
@@ -259,7 +228,7 @@ export class ArxGramBuilder {
   }
 
   /** Shifted product sum, at count w, of final columns u and v. */
-  private product(work: SlotWork, w: number, u: number, v: number): number {
+  private product(work: GramWorkspace, w: number, u: number, v: number): number {
     const p = sourceA(u);
     if (p >= 0) return this.productWithA(work, w, p, v);
     const q = sourceA(v);
@@ -275,31 +244,4 @@ export class ArxGramBuilder {
 /** Index among the slot columns (lag1, lag2, lag7, exogenous...) of final column c, or -1. */
 function sourceA(c: number): number {
   return c < 3 ? c : c >= 12 ? c - 9 : -1;
-}
-
-/** Per-slot sums (one set per count) and scratch arrays, reused from slot to slot. */
-interface SlotWork {
-  readonly a: number;
-  readonly k: number;
-  /** The shifted slot columns, column by column: cols[p n + i], then a column of zeros. */
-  readonly cols: Float64Array;
-  readonly shiftA: Float64Array;
-  /** Per count w: sums of the shifted slot columns, sumA[w a + p]. */
-  readonly sumA: Float64Array;
-  /** Per count w: products of slot columns, prodAA[w a^2 + p a + q], q >= p. */
-  readonly prodAA: Float64Array;
-  /** Per count w: products of slot columns with min, max and last, prodAB[(w a + p) B + j]. */
-  readonly prodAB: Float64Array;
-  /** Per count w: sums of the shifted slot columns by weekday, buckets[(w 7 + weekday - 1) a + p]. */
-  readonly buckets: Float64Array;
-  /** The running sums by weekday of one column, and of the next. */
-  readonly bucket: Float64Array;
-  readonly bucket1: Float64Array;
-  readonly means: Float64Array;
-  readonly gram: Float64Array;
-  readonly cy: Float64Array;
-  readonly shift: Float64Array;
-  readonly sums: Float64Array;
-  /** The scales and zty of the Gram handed out (overwritten by the next, as its gram is). */
-  readonly standardised: { readonly scales: Float64Array; readonly zty: Float64Array };
 }

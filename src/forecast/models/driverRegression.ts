@@ -1,14 +1,16 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
-import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
-import { predictLinear, type LinearModel } from '../linalg/linearModel.js';
+import { choleskyLeastSquares, choleskyPrediction } from '../linalg/choleskyLeastSquares.js';
+import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
+import { SlotSortedValues } from './slotSortedValues.js';
+import { ScratchBuffers } from '../scratchBuffers.js';
 import type { FitStopwatch } from '../fitStopwatch.js';
 import { timedFits } from '../fitStopwatch.js';
 import type { GriddedDay, HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
-import { fromAsinhScale, robustScale, selectInPlace, toAsinhScale, type RobustScale } from './robustAsinh.js';
+import { fromAsinhScale, selectInPlace, toAsinhScale, type RobustScale } from './robustAsinh.js';
 import { weekdayColumns } from './arx.js';
 
 /** Settings of the driver regression; see {@link driverForecast}. */
@@ -111,7 +113,7 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rows = training.slice(0, n);
-  const days = new DriverDays(view, columns, settings.scale === 'asinh' ? priceScale(view, rows) : null);
+  const days = new DriverDays(view, columns, settings.scale === 'asinh' ? view.robustScaleOf(rows, longest) : null);
   const S = view.slotsPerDay;
   const J = settings.knots;
   // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
@@ -120,45 +122,51 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const k = a - 1 + 2 + 6;
   const slotValues = new Float64Array(n * a);
   const target = new Float64Array(k);
-  const slotX = new Float64Array(n);
   const forecasts = new Map<number, Float64Array>(counts.map((c) => [c, new Float64Array(S)]));
   const targetDay = days.regressors(targetLags[0] as number, targetLags[1] as number, view.target.weekday);
   const trainingDays = rows.map((i) => {
     const dn = view.dayNumber(i);
     return { own: days.of(i), regressors: days.regressors(view.indexOf(dn - 1), view.indexOf(dn - 7), view.past(i).weekday) };
   });
+  const meanZ = Float64Array.from(trainingDays, (d) => d.regressors.meanZ);
+  const meanX = Float64Array.from(trainingDays, (d) => d.regressors.meanX);
+  const weekdays = Int8Array.from(trainingDays, (d) => d.regressors.weekday);
   const builder = timedFits(settings.stopwatch, 0, () => new SlotDayGramBuilder(
     {
       continuous: Float64Array.from(trainingDays.flatMap((d) => [d.regressors.meanZ, d.regressors.meanX])),
       width: 2,
-      categories: Int8Array.from(trainingDays, (d) => d.regressors.weekday),
+      categories: weekdays,
       dummies: 6,
     },
     counts,
   ));
-  const xOf = trainingDays.map((d) => d.own.x);
-  const zOf = trainingDays.map((d) => d.own.z);
-  const lag1Of = trainingDays.map((d) => d.regressors.lag1);
-  const lag7Of = trainingDays.map((d) => d.regressors.lag7);
+  // The days' slot values slot by slot (bySlot[s n + r]), laid out once for all slots.
+  const xBySlot = bySlot(trainingDays.map((d) => d.own.x), S, scratchBuffers.get(0, S * n));
+  const zBySlot = bySlot(trainingDays.map((d) => d.own.z), S, scratchBuffers.get(1, S * n));
+  const lag1BySlot = bySlot(trainingDays.map((d) => d.regressors.lag1), S, scratchBuffers.get(2, S * n));
+  const lag7BySlot = bySlot(trainingDays.map((d) => d.regressors.lag7), S, scratchBuffers.get(3, S * n));
   const knots = new Float64Array(J);
-  const scratch = new Float64Array(n);
-  const residuals = new Float64Array(n);
+  const fitted = new Float64Array(n);
+  // Per slot, the residual loads of the longest window's days in ascending order, kept from the last delivery day's.
+  const sortedX = keptResidualLoads.of(trainingDays.map((d) => d.own.x));
   for (let s = 0; s < S; s++) {
-    for (let r = 0; r < n; r++) slotX[r] = (xOf[r] as Float64Array)[s] as number;
-    scratch.set(slotX);
-    slotQuantiles(scratch, J, knots);
-    for (let r = 0; r < n; r++) {
-      const base = r * a;
-      const xv = slotX[r] as number;
-      slotValues[base] = xv;
-      for (let j = 0; j < J; j++) {
-        const knot = knots[j] as number;
-        slotValues[base + 1 + j] = xv > knot ? xv - knot : 0;
+    const slotX = xBySlot.subarray(s * n, (s + 1) * n);
+    for (let j = 0; j < J; j++) knots[j] = sortedQuantile(sortedX[s] as Float64Array, (j + 1) / (J + 1));
+    // The slot columns column by column (slotValues[q n + r]): x, the hinges, lag 1, lag 7, the response.
+    slotValues.set(slotX, 0);
+    for (let j = 0; j < J; j++) {
+      const knot = knots[j] as number;
+      const base = (1 + j) * n;
+      for (let r = 0; r < n; r++) {
+        const xv = slotX[r] as number;
+        // max(0, x - k): the same number as x > k ? x - k : 0 (+0 when x <= k), without a branch.
+        slotValues[base + r] = Math.max(xv - knot, 0);
       }
-      slotValues[base + J + 1] = (lag1Of[r] as Float64Array)[s] as number;
-      slotValues[base + J + 2] = (lag7Of[r] as Float64Array)[s] as number;
-      slotValues[base + a - 1] = (zOf[r] as Float64Array)[s] as number;
     }
+    slotValues.set(lag1BySlot.subarray(s * n, (s + 1) * n), (J + 1) * n);
+    slotValues.set(lag7BySlot.subarray(s * n, (s + 1) * n), (J + 2) * n);
+    slotValues.set(zBySlot.subarray(s * n, (s + 1) * n), (a - 1) * n);
+    const thin = thinHinges(slotValues, n, J, counts);
     const xt = days.targetX[s] as number;
     target[0] = xt;
     for (let j = 0; j < J; j++) target[1 + j] = xt > (knots[j] as number) ? xt - (knots[j] as number) : 0;
@@ -167,22 +175,27 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     target[a - 1] = targetDay.meanZ;
     target[a] = targetDay.meanX;
     for (let w = 1; w <= 6; w++) target[a + w] = targetDay.weekday === w ? 1 : 0;
-    timedFits(settings.stopwatch, 2 * counts.length, () => {
-      // Least squares, then once more on Huber's pseudo-observations of the longest window's fit.
+    timedFits(settings.stopwatch, counts.length + 1, () => {
+      // Least squares on the longest window, then on Huber's pseudo-observations of that fit in every window.
       let longest: LinearModel | undefined;
-      builder.forEachGram(slotValues, a, (gram) => {
-        for (const j of thinHinges(slotValues, a, J, gram.n)) gram.scales[j] = 0;
-        longest = choleskyLeastSquares(gram);
-      });
-      pseudoObservations(slotValues, a, trainingDays, longest as LinearModel, residuals);
       builder.forEachGram(
         slotValues,
         a,
         (gram, w) => {
-          for (const j of thinHinges(slotValues, a, J, gram.n)) gram.scales[j] = 0;
-          (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(predictLinear(choleskyLeastSquares(gram), target));
+          for (const j of thin[w] as number[]) gram.scales[j] = 0;
+          longest = choleskyLeastSquares(gram);
         },
-        true,
+        { longestOnly: true },
+      );
+      pseudoObservations(slotValues, n, a, { meanZ, meanX, weekdays }, longest as LinearModel, fitted);
+      builder.forEachGram(
+        slotValues,
+        a,
+        (gram, w) => {
+          for (const j of thin[w] as number[]) gram.scales[j] = 0;
+          (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(choleskyPrediction(gram, target));
+        },
+        { newResponseOnly: true },
       );
     });
   }
@@ -210,39 +223,42 @@ interface DayRegressors {
 const HINGE_SUPPORT_DAYS = 20;
 const HINGE_SUPPORT_SHARE = 0.1;
 
-/** The hinge columns (1..J) that fewer than the support's days of the first `count` rows reach. */
-function thinHinges(rows: Float64Array, width: number, hinges: number, count: number): number[] {
-  const needed = Math.max(HINGE_SUPPORT_DAYS, HINGE_SUPPORT_SHARE * count);
-  const out: number[] = [];
+/**
+ * Per count (the first counts[w] rows), the hinge columns (1..J; columns[j n + r]) that fewer than the
+ * support's days of those rows reach: one pass over the rows per hinge, read off at every count.
+ */
+function thinHinges(columns: Float64Array, n: number, hinges: number, counts: readonly number[]): number[][] {
+  const out = counts.map((): number[] => []);
   for (let j = 1; j <= hinges; j++) {
     let support = 0;
-    for (let r = 0; r < count; r++) if ((rows[r * width + j] as number) > 0) support++;
-    if (support < needed) out.push(j);
+    let r = 0;
+    counts.forEach((count, w) => {
+      for (; r < count; r++) support += (columns[j * n + r] as number) > 0 ? 1 : 0;
+      if (support < Math.max(HINGE_SUPPORT_DAYS, HINGE_SUPPORT_SHARE * count)) (out[w] as number[]).push(j);
+    });
   }
   return out;
 }
 
-/**
- * The knots of a slot: the j/(J+1) sample quantiles (j = 1..J, Hyndman and Fan's definition 7) of its
- * residual loads, into `out`; `values` is reordered (selection, O(n) per knot).
- */
-export function slotQuantiles(values: Float64Array, count: number, out: Float64Array): void {
-  const n = values.length;
-  for (let j = 0; j < count; j++) {
-    const h = (n - 1) * ((j + 1) / (count + 1));
-    const lo = Math.floor(h);
-    const lower = selectInPlace(values, lo);
-    const upper = lo + 1 < n ? selectInPlace(values, lo + 1) : lower;
-    out[j] = lower + (h - lo) * (upper - lower);
-  }
+/** Scratch space of the slot-by-slot layouts, reused from one delivery day to the next. */
+const scratchBuffers = new ScratchBuffers();
+
+/** Per-day arrays of S slot values, slot by slot into `out` (S n long): out[s n + r] = days[r][s]. */
+function bySlot(days: readonly Float64Array[], S: number, out: Float64Array): Float64Array {
+  const n = days.length;
+  days.forEach((day, r) => {
+    for (let s = 0; s < S; s++) out[s * n + r] = day[s] as number;
+  });
+  return out;
 }
 
-function priceScale(view: HistoryView, rows: readonly number[]): RobustScale {
-  const S = view.slotsPerDay;
-  const all = new Float64Array(rows.length * S);
-  rows.forEach((i, r) => all.set(view.past(i).prices, r * S));
-  return robustScale(all);
-}
+/**
+ * The residual loads of the last delivery day's longest window, sorted per slot, for the knots (the
+ * j/(J+1) sample quantiles of definition 7 read off the sorted values with sortedQuantile): the next
+ * day's window differs by a day or two, so they are updated rather than sorted again
+ * (slotSortedValues.ts; the same numbers whatever was kept).
+ */
+const keptResidualLoads = new SlotSortedValues();
 
 /** A past day on the model's scale: prices (z), prices clipped at the day's fences, residual load, means. */
 interface DriverDay {
@@ -254,7 +270,7 @@ interface DriverDay {
 }
 
 /** What does not depend on the delivery day, kept per gridded past day: fences of its prices, residual load. */
-const dayInputs = new WeakMap<GriddedDay, { readonly low: number; readonly high: number; readonly x: Float64Array; readonly columns: string }>();
+const dayInputs = new WeakMap<GriddedDay, { readonly low: number; readonly high: number; readonly x: Float64Array; readonly meanX: number; readonly columns: string }>();
 
 /** Per past day, the prices on the delivery day's scale and the residual load (computed once per delivery day). */
 class DriverDays {
@@ -277,13 +293,14 @@ class DriverDays {
       const past = this.view.past(i);
       let inputs = dayInputs.get(past);
       if (inputs === undefined || inputs.columns !== this.signature) {
-        inputs = { ...farOutFences(past.prices), x: residualLoad(past, this.columns), columns: this.signature };
+        const x = residualLoad(past, this.columns);
+        inputs = { ...farOutFences(past.prices), x, meanX: meanOf(x), columns: this.signature };
         dayInputs.set(past, inputs);
       }
       const prices = past.prices;
       const S = prices.length;
-      const z = new Float64Array(S);
-      const clipped = new Float64Array(S);
+      const z = this.take(S);
+      const clipped = this.take(S);
       const scale = this.scale;
       // The transformation is increasing, so clipping at the transformed fences equals transforming the clipped prices.
       const low = scale === null ? inputs.low : toAsinhScale(inputs.low, scale);
@@ -296,10 +313,25 @@ class DriverDays {
         clipped[s] = c;
         sum += c;
       }
-      day = { z, clipped, x: inputs.x, meanZ: sum / S, meanX: meanOf(inputs.x) };
+      day = { z, clipped, x: inputs.x, meanZ: sum / S, meanX: inputs.meanX };
       this.cache.set(i, day);
     }
     return day;
+  }
+
+  /** Room for the days' arrays, taken a block at a time (fewer, larger allocations). */
+  private block = new Float64Array(0);
+  private used = 0;
+
+  /** A fresh array of `length` zeros, a view of the current block. */
+  private take(length: number): Float64Array {
+    if (this.used + length > this.block.length) {
+      this.block = new Float64Array(Math.max(length, 128 * length));
+      this.used = 0;
+    }
+    const out = this.block.subarray(this.used, this.used + length);
+    this.used += length;
+    return out;
   }
 
   /** The regressors of a day whose day before is past day `lag1` and week before `lag7`. */
@@ -353,27 +385,36 @@ export function huberClipLimit(residuals: Float64Array): number {
 }
 
 /**
- * Replaces the response column of `slotValues` (rows of slot columns, response last) by Huber's
+ * Replaces the response column of `columns` (the slot columns column by column, n rows each, response last) by Huber's
  * pseudo-observations of the fit `model`: y* = y_hat + psi(y - y_hat), psi(r) = max(-c sigma, min(c sigma, r)),
  * sigma = MAD of the residuals / Phi^-1(3/4). Least squares on them is Bickel's one-step Huber estimate.
  */
-function pseudoObservations(slotValues: Float64Array, a: number, trainingDays: readonly { regressors: DayRegressors }[], model: LinearModel, residuals: Float64Array): void {
-  const n = trainingDays.length;
+function pseudoObservations(
+  columns: Float64Array,
+  n: number,
+  a: number,
+  day: { readonly meanZ: Float64Array; readonly meanX: Float64Array; readonly weekdays: Int8Array },
+  model: LinearModel,
+  fitted: Float64Array,
+): void {
   const b = model.coefficients;
   const p = a - 1;
+  const y = p * n;
+  const bz = b[p] as number;
+  const bx = b[p + 1] as number;
   for (let r = 0; r < n; r++) {
-    const base = r * a;
     let f = model.intercept;
-    for (let q = 0; q < p; q++) f += (b[q] as number) * (slotValues[base + q] as number);
-    const d = (trainingDays[r] as { regressors: DayRegressors }).regressors;
-    f += (b[p] as number) * d.meanZ + (b[p + 1] as number) * d.meanX;
-    if (d.weekday <= 6) f += b[p + 1 + d.weekday] as number;
-    residuals[r] = (slotValues[base + p] as number) - f;
+    for (let q = 0; q < p; q++) f += (b[q] as number) * (columns[q * n + r] as number);
+    f += bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number);
+    const weekday = day.weekdays[r] as number;
+    if (weekday <= 6) f += b[p + 1 + weekday] as number;
+    fitted[r] = (columns[y + r] as number) - f;
   }
+  const residuals = fitted;
   const limit = huberClipLimit(residuals.subarray(0, n));
   for (let r = 0; r < n; r++) {
     const e = residuals[r] as number;
-    if (e > limit) slotValues[r * a + p] = (slotValues[r * a + p] as number) - (e - limit);
-    else if (e < -limit) slotValues[r * a + p] = (slotValues[r * a + p] as number) - (e + limit);
+    if (e > limit) columns[y + r] = (columns[y + r] as number) - (e - limit);
+    else if (e < -limit) columns[y + r] = (columns[y + r] as number) - (e + limit);
   }
 }

@@ -51,8 +51,22 @@ export function weekdayOf(dayNumber: number): number {
 export class GridCache {
   private readonly days = new WeakMap<HistoryDay, GriddedDay>();
   private readonly dayNumbers = new WeakMap<HistoryDay, number>();
-  /** robustScale of sets of gridded days' prices, kept sorted from one window to the next. */
-  readonly scales = new DaySetScale();
+  /**
+   * robustScale of sets of gridded days' prices, kept sorted from one window to the next: one kept set
+   * per window length, so that windows of different lengths asked in turn (the candidates of `auto`)
+   * each move from their own last set by a day instead of being sorted afresh.
+   */
+  private readonly scaleSets = new Map<number, DaySetScale>();
+
+  /** The kept sorted set of the windows of `windowDays` calendar days (daySetScale.ts). */
+  scales(windowDays: number): DaySetScale {
+    let scales = this.scaleSets.get(windowDays);
+    if (scales === undefined) {
+      scales = new DaySetScale();
+      this.scaleSets.set(windowDays, scales);
+    }
+    return scales;
+  }
 
   constructor(
     readonly exogenousNames: readonly string[],
@@ -189,10 +203,11 @@ export class HistoryView {
 
   /**
    * robustScale (robustAsinh.ts) of the prices of past days `days` one after the other, the same
-   * numbers bit for bit, from the sorted prices of the last set asked (daySetScale.ts).
+   * numbers bit for bit, from the sorted prices of the last set asked for a window of `windowDays`
+   * calendar days (daySetScale.ts; the window's length only picks the kept set to start from).
    */
-  robustScaleOf(days: readonly number[]): RobustScale {
-    return this.grids.scales.of(days.map((i) => this.past(i).prices));
+  robustScaleOf(days: readonly number[], windowDays: number): RobustScale {
+    return this.grids.scales(windowDays).of(days.map((i) => this.past(i).prices));
   }
 
   /** Day number of past day i. */

@@ -1,7 +1,9 @@
 import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
-import { predictLinear } from '../linalg/linearModel.js';
 import { standardisedGram } from '../linalg/standardisedGram.js';
+import { ScratchBuffers } from '../scratchBuffers.js';
+import { selectInPlace } from '../models/robustAsinh.js';
+import type { PoolOrder } from './poolOrder.js';
 import { sortedQuantile } from './sortedQuantile.js';
 
 /** Calibration data of {@link driverSpreadQuantiles}: per calibration day, its errors and spread features. */
@@ -38,13 +40,10 @@ export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: 
   const S = centre.length;
   const m = 6 + exogenous.length;
   const out = new Float64Array(S * m);
+  const harmonics = timeOfDayHarmonics(S);
   for (let s = 0; s < S; s++) {
-    const angle = (2 * Math.PI * s) / S;
     let c = s * m;
-    out[c++] = Math.cos(angle);
-    out[c++] = Math.sin(angle);
-    out[c++] = Math.cos(2 * angle);
-    out[c++] = Math.sin(2 * angle);
+    for (let h = 0; h < 4; h++) out[c++] = harmonics[4 * s + h] as number;
     for (const column of exogenous) out[c++] = column[s] as number;
     const z = centre[s] as number;
     out[c++] = z;
@@ -57,6 +56,50 @@ export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: 
 export function logCosh(z: number): number {
   const x = Math.abs(z);
   return x + Math.log1p(Math.exp(-2 * x)) - Math.LN2;
+}
+
+/**
+ * The spread features of past days, kept per day (by the identity of its exogenous columns): the time
+ * of day and the drivers do not change from one delivery day to the next, only the point forecast on
+ * the delivery day's scale does, so a kept day's array has just that column (and its log cosh) written again. The array
+ * handed out is overwritten by the next call for the same day: use it before asking again.
+ */
+export class SpreadFeatureRows {
+  private readonly kept = new WeakMap<readonly ArrayLike<number>[], Float64Array>();
+
+  /** spreadFeatures(exogenous, centre, asinhScale), the same numbers. */
+  of(exogenous: readonly ArrayLike<number>[], centre: ArrayLike<number>, asinhScale: boolean): Float64Array {
+    const S = centre.length;
+    const m = 6 + exogenous.length;
+    let out = this.kept.get(exogenous);
+    if (out === undefined || out.length !== S * m) {
+      out = spreadFeatures(exogenous, centre, asinhScale);
+      this.kept.set(exogenous, out);
+      return out;
+    }
+    for (let s = 0; s < S; s++) {
+      const z = centre[s] as number;
+      out[s * m + m - 2] = z;
+      out[s * m + m - 1] = asinhScale ? logCosh(z) : 0;
+    }
+    return out;
+  }
+}
+
+/** Per S, cos and sin of 2 pi s / S and of twice that angle, 4 S values (computed once: the same for every day). */
+const harmonicsBySlots = new Map<number, Float64Array>();
+
+function timeOfDayHarmonics(S: number): Float64Array {
+  let out = harmonicsBySlots.get(S);
+  if (out === undefined) {
+    out = new Float64Array(4 * S);
+    for (let s = 0; s < S; s++) {
+      const angle = (2 * Math.PI * s) / S;
+      out.set([Math.cos(angle), Math.sin(angle), Math.cos(2 * angle), Math.sin(2 * angle)], 4 * s);
+    }
+    harmonicsBySlots.set(S, out);
+  }
+  return out;
 }
 
 /**
@@ -87,6 +130,9 @@ export function logCosh(z: number): number {
  * @param targetFeatures the delivery day's spread features (S x m)
  * @param calibration errors and features of the calibration days (at least two)
  * @param levels strictly increasing levels in (0, 1)
+ * @param kept with pool 'slot': the pools' order from the last call and the day ids of the calibration
+ *   days (ascending), to sort each slot's standardised errors from that order (poolOrder.ts; the same
+ *   quantiles, faster for a window that moved a day)
  * @returns values[s][k] on the model's scale
  */
 export function driverSpreadQuantiles(
@@ -95,23 +141,28 @@ export function driverSpreadQuantiles(
   calibration: SpreadCalibration,
   levels: readonly number[],
   pool: SpreadPool,
+  kept?: { readonly order: PoolOrder; readonly dayIds: ArrayLike<number> },
 ): number[][] {
   const S = centre.length;
   const days = calibration.errors.length;
   const m = targetFeatures.length / S;
   const n = days * S;
-  const design = new Float64Array(n * m);
-  const logAbs = new Float64Array(n);
-  const absolute = new Float64Array(n);
+  // Scratch space reused from call to call (every value read is written first): the design, log |e|, |e| and its copy.
+  const design = scratchBuffers.get(0, n * m);
+  const logAbs = scratchBuffers.get(1, n);
+  const absolute = scratchBuffers.get(2, n);
+  const work = scratchBuffers.get(3, n);
   for (let d = 0; d < days; d++) {
     design.set(calibration.features[d] as Float64Array, d * S * m);
     const e = calibration.errors[d] as ArrayLike<number>;
     for (let s = 0; s < S; s++) absolute[d * S + s] = Math.abs(e[s] as number);
   }
-  const floor = 1e-3 * sortedQuantile(Float64Array.from(absolute).sort(), 0.5);
+  work.set(absolute);
+  const floor = 1e-3 * medianBySelection(work);
   for (let i = 0; i < n; i++) logAbs[i] = Math.log(Math.max(absolute[i] as number, floor, Number.MIN_VALUE));
   const model = choleskyLeastSquares(standardisedGram({ rows: n, cols: m, data: design }, logAbs));
-  const fitted = new Float64Array(n);
+  // |e| and its copy are read no more: their room takes the fitted log spreads and the standardised errors.
+  const fitted = absolute;
   let low = Infinity;
   let high = -Infinity;
   for (let i = 0; i < n; i++) {
@@ -120,7 +171,7 @@ export function driverSpreadQuantiles(
     low = Math.min(low, v);
     high = Math.max(high, v);
   }
-  const standardised = new Float64Array(n);
+  const standardised = work;
   for (let d = 0; d < days; d++) {
     const e = calibration.errors[d] as ArrayLike<number>;
     for (let s = 0; s < S; s++) standardised[d * S + s] = (e[s] as number) / Math.exp(fitted[d * S + s] as number);
@@ -129,16 +180,50 @@ export function driverSpreadQuantiles(
   const quantilesOf = (sorted: Float64Array): number[] => levels.map((tau) => sortedQuantile(sorted, tau));
   const pooled = pool === 'all' ? quantilesOf(Float64Array.from(standardised).sort()) : null;
   const slotSample = new Float64Array(days);
+  const byDay = kept === undefined || pooled !== null ? [] : Array.from({ length: days }, (_, d) => standardised.subarray(d * S, (d + 1) * S));
+  if (byDay.length > 0) kept?.order.begin(kept.dayIds);
   return Array.from({ length: S }, (_, s) => {
     let q = pooled;
     if (q === null) {
-      for (let d = 0; d < days; d++) slotSample[d] = standardised[d * S + s] as number;
-      q = quantilesOf(slotSample.sort());
+      if (kept === undefined) {
+        for (let d = 0; d < days; d++) slotSample[d] = standardised[d * S + s] as number;
+        slotSample.sort();
+      } else {
+        kept.order.sortSlot(byDay, s, slotSample);
+      }
+      q = quantilesOf(slotSample);
     }
     return q.map((v) => (centre[s] as number) + (spread[s] as number) * v);
   });
 }
 
+const scratchBuffers = new ScratchBuffers();
+
+/** predictLinear(model, data[at .. at + m - 1]), the same sum in the same order, without a view of the row. */
 function predictRow(model: LinearModel, data: Float64Array, at: number, m: number): number {
-  return predictLinear(model, data.subarray(at, at + m));
+  let s = model.intercept;
+  const b = model.coefficients;
+  for (let j = 0; j < m; j++) s += (b[j] as number) * (data[at + j] as number);
+  return s;
+}
+
+/**
+ * sortedQuantile(sorted values, 0.5) without sorting: the order statistics floor(h) and the next one
+ * (h = (n - 1) / 2) by selection (Hoare 1961), the same two numbers whatever their order, combined
+ * as sortedQuantile does. `work` (at least one value) is reordered.
+ *
+ * Reference: C. A. R. Hoare (1961), Algorithm 65: Find, Commun. ACM 4(7), 321-322.
+ */
+export function medianBySelection(work: Float64Array): number {
+  const n = work.length;
+  const h = (n - 1) * 0.5;
+  const j = Math.floor(h);
+  const lower = selectInPlace(work, j);
+  // After selection every value right of position j is at least the j-th: the next order statistic is their least.
+  let upper = lower;
+  if (j + 1 < n) {
+    upper = Infinity;
+    for (let i = j + 1; i < n; i++) upper = Math.min(upper, work[i] as number);
+  }
+  return lower + (h - j) * (upper - lower);
 }

@@ -1,0 +1,18 @@
+/**
+ * Numbered scratch arrays reused from call to call, for a function that writes every value before it
+ * reads it and hands none of them out: the large per-call arrays of the daily fits then cost no
+ * allocation (nor zero-filling, nor garbage collection) after the first call.
+ */
+export class ScratchBuffers {
+  private readonly buffers: Float64Array[] = [];
+
+  /** Array `which`, a view exactly `length` long, grown (its contents not kept) when too short. */
+  get(which: number, length: number): Float64Array {
+    let buffer = this.buffers[which];
+    if (buffer === undefined || buffer.length < length) {
+      buffer = new Float64Array(length);
+      this.buffers[which] = buffer;
+    }
+    return buffer.subarray(0, length);
+  }
+}
