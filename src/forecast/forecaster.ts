@@ -42,6 +42,7 @@ import { scenarioPaths } from './paths/scenarioPaths.js';
 import { daySeed } from './paths/seededStream.js';
 import { crpsFromQuantiles } from './scoring/crps.js';
 import { residualLoadColumns } from './models/residualLoad.js';
+import { plausibleRanges, withinRange, type PriceRange } from './plausibleRange.js';
 import { conformalQuantiles } from './quantiles/splitConformal.js';
 import { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_CALIBRATION_DAYS, DEFAULT_PATH_SEED, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
@@ -214,6 +215,8 @@ export class Forecaster {
   private readonly states = new Map<string, CalibrationState>();
   /** The error pools' order at the last historical simulation, by point model and calibration window (speed only). */
   private readonly poolOrders = new Map<string, PoolOrder>();
+  /** Per history day, the price range beyond which `auto` passes a candidate's forecast over (made when first needed). */
+  private ranges: (PriceRange | null)[] | undefined;
   /** driver-fhs's spread features of the calibration days, kept between delivery days (speed only). */
   private readonly spreadFeatureRows = new SpreadFeatureRows();
 
@@ -247,7 +250,9 @@ export class Forecaster {
    * that day only, and is scored by the mean pinball loss of those forecasts against the realised prices
    * (the days every candidate could forecast); the candidate with the lowest loss forecasts the delivery
    * day. Nothing of the delivery day or after it is read. A candidate's forecast of a past day is the
-   * same whatever day it is validated for, so it is scored once and kept.
+   * same whatever day it is validated for, so it is scored once and kept. A candidate whose delivery-day
+   * forecast leaves the plausible range (plausibleRange.ts: beyond the prices of the days before by
+   * their own span) is passed over for the next best, unless every candidate's does.
    *
    * Reference: L. J. Tashman (2000), Out-of-sample tests of forecasting accuracy: an analysis and review,
    * Int. J. Forecast. 16(4), 437-450, doi:10.1016/S0169-2070(00)00065-0.
@@ -270,7 +275,11 @@ export class Forecaster {
     // them are scored when this day becomes a validation day (its prices are then known).
     const made: (DayForecast | InsufficientHistoryError)[] = [];
     for (const i of evaluation) made[i] = this.candidateForecast(candidates[i] as AutoCandidate, dayIndex, levels, levelsKey);
-    const chosen = order.find((i) => !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
+    const able = order.filter((i) => made[i] !== undefined && !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
+    // A candidate whose forecast runs far beyond every price seen before is passed over (plausibleRange.ts).
+    this.ranges ??= plausibleRanges(this.history);
+    const range = this.ranges[dayIndex] ?? null;
+    const chosen = able.find((i) => withinRange((made[i] as DayForecast).quantiles.prices, range)) ?? able[0];
     if (chosen === undefined) throw made[0] as InsufficientHistoryError;
     const candidate = candidates[chosen] as AutoCandidate;
     const validationLoss = common.length === 0 ? null : (totals[chosen] as number) / common.length;
@@ -363,9 +372,10 @@ export class Forecaster {
       } else if (method === 'driver-qr') {
         grid = regressionQuantiles([point.mean, ...view.target.exogenous], (c) => [c.forecast.mean, ...c.exogenous], this.driverWarmStarts);
       } else if (method === 'driver-fhs') {
-        const features = calibration.map((c, d) => this.spreadFeatureRows.of(c.exogenous, forecastsOnScale[d] as Float64Array));
+        const asinh = scale.robust !== undefined;
+        const features = calibration.map((c, d) => this.spreadFeatureRows.of(c.exogenous, forecastsOnScale[d] as Float64Array, asinh));
         const kept = { order: this.poolOrder(model, calibrationDays, 'standardised'), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) };
-        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre), { errors, features }, at, this.options.spreadPool, kept);
+        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre, asinh), { errors, features }, at, this.options.spreadPool, kept);
       } else {
         grid = historicalSimulation(centre, errors, at, { order: this.poolOrder(model, calibrationDays), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) });
       }

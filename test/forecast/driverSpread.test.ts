@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { driverSpreadQuantiles, SpreadFeatureRows, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
+import { driverSpreadQuantiles, logCosh, SpreadFeatureRows, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
 import { PoolOrder } from '../../src/forecast/quantiles/poolOrder.js';
 
 // Invented inputs (formulas shared with test/forecast/driverSpreadReference.py); the check values come from
@@ -14,10 +14,19 @@ const slots = (f: (s: number) => number) => Float64Array.from({ length: S }, (_,
 
 const calibration = {
   errors: Array.from({ length: DAYS }, (_, d) => slots((s) => error(d, s))),
-  features: Array.from({ length: DAYS }, (_, d) => spreadFeatures([slots((s) => exog(d, s))], slots((s) => centre(d, s)))),
+  features: Array.from({ length: DAYS }, (_, d) => spreadFeatures([slots((s) => exog(d, s))], slots((s) => centre(d, s)), false)),
 };
 const targetCentre = slots((s) => 50 + s);
-const targetFeatures = spreadFeatures([slots((s) => 26 + s)], targetCentre);
+const targetFeatures = spreadFeatures([slots((s) => 26 + s)], targetCentre, false);
+
+// The same errors around centres on an asinh scale, with the log cosh column (the script's second case).
+const centreZ = (d: number, s: number) => -2 + 0.7 * s - 0.15 * d;
+const calibrationZ = {
+  errors: calibration.errors,
+  features: Array.from({ length: DAYS }, (_, d) => spreadFeatures([slots((s) => exog(d, s))], slots((s) => centreZ(d, s)), true)),
+};
+const targetCentreZ = slots((s) => -1.5 + 0.6 * s);
+const targetFeaturesZ = spreadFeatures([slots((s) => 26 + s)], targetCentreZ, true);
 
 const REFERENCE = {
   all: [
@@ -38,10 +47,54 @@ const REFERENCE = {
   ],
 } as const;
 
+const REFERENCE_ASINH = {
+  all: [
+    [-7.742918678646596, -0.9502061231271983, 5.324632253966882],
+    [-7.738647149290961, -0.2977422224585331, 6.575870552052046],
+    [-7.079540408209389, 0.2970524359374338, 7.111256259863379],
+    [-5.447793724331079, 0.8061898060556222, 6.583371682285351],
+    [-9.929683657432717, 1.8537355954501629, 12.738790827369229],
+    [-9.66554267569301, 2.4833136247721868, 13.705945103564567],
+  ],
+  slot: [
+    [-5.60516476122268, -0.06770854618482569, 4.798532187052825],
+    [-5.285779085102584, 0.43568506318750366, 6.38126280860142],
+    [-7.892485023202253, -0.6527313506171017, 6.833886919924586],
+    [-7.321970721227708, -0.300733534791757, 7.142634516946823],
+    [-7.722118474495748, 0.8462984361040986, 9.408074045705085],
+    [-6.439907822954915, 0.9405778899597075, 12.91880811101465],
+  ],
+} as const;
+
 describe('driver spread quantiles (Harvey 1976 spread regression; filtered historical simulation, Barone-Adesi et al. 1999)', () => {
   it.each(['all', 'slot'] as const)('pool %s matches NumPy (driverSpreadReference.py)', (pool) => {
     const got = driverSpreadQuantiles(targetCentre, targetFeatures, calibration, LEVELS, pool);
     got.forEach((row, s) => row.forEach((v, k) => expect(v).toBeCloseTo(REFERENCE[pool][s]![k]!, 8)));
+  });
+
+  it.each(['all', 'slot'] as const)('on an asinh scale, with the log cosh column, pool %s matches NumPy (driverSpreadReference.py)', (pool) => {
+    const got = driverSpreadQuantiles(targetCentreZ, targetFeaturesZ, calibrationZ, LEVELS, pool);
+    got.forEach((row, s) => row.forEach((v, k) => expect(v).toBeCloseTo(REFERENCE_ASINH[pool][s]![k]!, 8)));
+  });
+
+  it('follows the asinh transform by the delta method: errors of spread k / cosh Z give quantiles whose distance from the centre times cosh Z is the same in every slot (Oehlert 1992)', () => {
+    // |e| = 2 / cosh(centre) exactly, signs alternating: log |e| = log 2 - log cosh(centre), which the
+    // regression fits without residual, so every standardised error is +-1 times one constant.
+    const zc = (d: number, s: number) => -2.5 + 0.9 * s + 0.05 * d;
+    const exact = {
+      errors: Array.from({ length: DAYS }, (_, d) => slots((s) => ((d + s) % 2 === 0 ? 2 : -2) / Math.cosh(zc(d, s)))),
+      features: Array.from({ length: DAYS }, (_, d) => spreadFeatures([slots((s) => exog(d, s))], slots((s) => zc(d, s)), true)),
+    };
+    const target = slots((s) => -2.2 + 0.9 * s);
+    const got = driverSpreadQuantiles(target, spreadFeatures([slots((s) => exog(3, s))], target, true), exact, [0.1, 0.9], 'all');
+    const widths = got.map((row, s) => (row[1]! - target[s]!) * Math.cosh(target[s]!));
+    widths.forEach((w) => expect(w).toBeCloseTo(2, 9));
+  });
+
+  it('log cosh is finite and even far out, and equals log(cosh z) where cosh does not overflow', () => {
+    for (const z of [0, 0.3, -1.7, 5, -20]) expect(logCosh(z)).toBeCloseTo(Math.log(Math.cosh(z)), 12);
+    expect(logCosh(800)).toBeCloseTo(800 - Math.LN2, 9);
+    expect(logCosh(-800)).toBe(logCosh(800));
   });
 
   it('with the pools\' order kept from the day before (poolOrder.ts), the same quantiles bit for bit as sorting afresh', () => {
@@ -57,18 +110,20 @@ describe('driver spread quantiles (Harvey 1976 spread regression; filtered histo
   });
 
   it('SpreadFeatureRows: a day kept from an earlier call gives spreadFeatures of its new centre, bit for bit', () => {
-    const rows = new SpreadFeatureRows();
-    const exogenous = [slots((s) => exog(3, s)), slots((s) => 2 * s - 1)];
-    for (const shift of [0, 1.5, -2.25]) {
-      const centreNow = slots((s) => centre(3, s) + shift);
-      const got = rows.of(exogenous, centreNow);
-      const want = spreadFeatures(exogenous, centreNow);
-      expect(got.length === want.length && got.every((v, i) => Object.is(v, want[i]))).toBe(true);
+    for (const asinh of [false, true]) {
+      const rows = new SpreadFeatureRows();
+      const exogenous = [slots((s) => exog(3, s)), slots((s) => 2 * s - 1)];
+      for (const shift of [0, 1.5, -2.25]) {
+        const centreNow = slots((s) => (asinh ? centreZ(3, s) : centre(3, s)) + shift);
+        const got = rows.of(exogenous, centreNow, asinh);
+        const want = spreadFeatures(exogenous, centreNow, asinh);
+        expect(got.length === want.length && got.every((v, i) => Object.is(v, want[i]))).toBe(true);
+      }
     }
-    // The time-of-day columns are cos and sin of 2 pi s / S and of twice that angle.
-    const first = spreadFeatures([], slots(() => 0));
-    expect(first[5 * 1 + 0]).toBeCloseTo(Math.cos((2 * Math.PI) / S), 15);
-    expect(first[5 * 1 + 3]).toBeCloseTo(Math.sin((4 * Math.PI) / S), 15);
+    // The time-of-day columns are cos and sin of 2 pi s / S and of twice that angle (6 columns without drivers).
+    const first = spreadFeatures([], slots(() => 0), true);
+    expect(first[6 * 1 + 0]).toBeCloseTo(Math.cos((2 * Math.PI) / S), 15);
+    expect(first[6 * 1 + 3]).toBeCloseTo(Math.sin((4 * Math.PI) / S), 15);
   });
 
   it('scales with the errors: doubling every error doubles the distance of each quantile from the centre (log-linear spread)', () => {

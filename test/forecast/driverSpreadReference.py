@@ -6,7 +6,8 @@
 #   u = e / sigma;  q_tau(s) = centre(s) + sigma(s) Q_tau({u})   (filtered historical simulation,
 #                                                Barone-Adesi, Giannopoulos and Vosper 1999)
 #   Q_tau: NumPy's default quantile, Hyndman and Fan's (1996) definition 7
-#   f(d, s): cos and sin of 2 pi s / S and 4 pi s / S, the exogenous columns, the centre
+#   f(d, s): cos and sin of 2 pi s / S and 4 pi s / S, the exogenous columns, the centre, and (errors on an
+#            asinh scale) log cosh of the centre, from NumPy's cosh
 #   python3 test/forecast/driverSpreadReference.py
 import math
 import numpy as np
@@ -20,28 +21,38 @@ def error(d, s): return ((d * 7 + s * 3) % 11 - 5) * (1 + 0.3 * s) + 0.1 * d
 def exog(d, s): return 20 + ((d * 5 + s * 2) % 9) * 1.5
 def centre(d, s): return 40 + 3 * s - 0.5 * d
 
-def features(ex, ce):
+def features(ex, ce, asinh):
     rows = []
     for s in range(S):
         a = 2 * math.pi * s / S
-        rows.append([math.cos(a), math.sin(a), math.cos(2 * a), math.sin(2 * a), ex[s], ce[s]])
+        row = [math.cos(a), math.sin(a), math.cos(2 * a), math.sin(2 * a), ex[s], ce[s]]
+        if asinh:
+            row.append(float(np.log(np.cosh(ce[s]))))
+        rows.append(row)
     return np.array(rows)
 
-X = np.vstack([features([exog(d, s) for s in range(S)], [centre(d, s) for s in range(S)]) for d in range(DAYS)])
-e = np.array([error(d, s) for d in range(DAYS) for s in range(S)])
-absolute = np.abs(e)
-floor = 1e-3 * np.quantile(absolute, 0.5)
-y = np.log(np.maximum(absolute, floor))
-design = np.hstack([np.ones((X.shape[0], 1)), X])
-g, *_ = np.linalg.lstsq(design, y, rcond=None)
-fitted = design @ g
-u = e / np.exp(fitted)
-target_centre = [50 + s for s in range(S)]
-target = np.hstack([np.ones((S, 1)), features([26 + s for s in range(S)], target_centre)])
-spread = np.exp(np.clip(target @ g, fitted.min(), fitted.max()))
-for pool in ("all", "slot"):
-    print(pool)
-    for s in range(S):
-        sample = u if pool == "all" else u.reshape(DAYS, S)[:, s]
-        q = [target_centre[s] + spread[s] * np.quantile(sample, tau) for tau in LEVELS]
-        print("  [" + ", ".join(repr(float(v)) for v in q) + "],")
+def quantiles(centre, target_centre, asinh):
+    X = np.vstack([features([exog(d, s) for s in range(S)], [centre(d, s) for s in range(S)], asinh) for d in range(DAYS)])
+    e = np.array([error(d, s) for d in range(DAYS) for s in range(S)])
+    absolute = np.abs(e)
+    floor = 1e-3 * np.quantile(absolute, 0.5)
+    y = np.log(np.maximum(absolute, floor))
+    design = np.hstack([np.ones((X.shape[0], 1)), X])
+    g, *_ = np.linalg.lstsq(design, y, rcond=None)
+    fitted = design @ g
+    u = e / np.exp(fitted)
+    target = np.hstack([np.ones((S, 1)), features([26 + s for s in range(S)], target_centre, asinh)])
+    spread = np.exp(np.clip(target @ g, fitted.min(), fitted.max()))
+    for pool in ("all", "slot"):
+        print(pool)
+        for s in range(S):
+            sample = u if pool == "all" else u.reshape(DAYS, S)[:, s]
+            q = [target_centre[s] + spread[s] * np.quantile(sample, tau) for tau in LEVELS]
+            print("  [" + ", ".join(repr(float(v)) for v in q) + "],")
+
+print("prices (no log cosh column)")
+quantiles(centre, [50 + s for s in range(S)], False)
+# Centres on an asinh scale, with the log cosh column.
+def centre_z(d, s): return -2 + 0.7 * s - 0.15 * d
+print("asinh scale (log cosh column)")
+quantiles(centre_z, [-1.5 + 0.6 * s for s in range(S)], True)

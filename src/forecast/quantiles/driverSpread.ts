@@ -19,43 +19,69 @@ export type SpreadPool = 'slot' | 'all';
 
 /**
  * The spread features of one day, S x m row-major: the time of day as two harmonics
- * (cos and sin of 2 pi s / S and 4 pi s / S), the drivers (the exogenous columns), and the point
- * forecast on the model's scale: m = 4 + (number of exogenous columns) + 1.
+ * (cos and sin of 2 pi s / S and 4 pi s / S), the drivers (the exogenous columns), the point
+ * forecast on the model's scale, and, for errors on an asinh scale, log cosh of that point forecast
+ * (else 0, a constant column the spread regression leaves out): m = 4 + (number of exogenous columns) + 2.
+ *
+ * Why log cosh: on the scale Z = asinh((P - a) / b), dZ/dP = 1 / (b cosh Z), so by the delta method a
+ * price error of spread sigma_P near the level Z has the spread sigma_P / (b cosh Z) on Z, and
+ * log sigma_Z = log sigma_P - log b - log cosh Z. With log cosh of the centre among the features the fitted
+ * log spread can follow the transform itself (coefficient -1), so that a spread that is even in prices
+ * is not pooled over levels whose spreads on Z differ by the factor cosh Z; the centre's own column
+ * carries a spread that grows with the price level. Computed as |z| + log(1 + exp(-2|z|)) - log 2,
+ * finite for any z.
+ *
+ * Reference: G. W. Oehlert (1992), A note on the delta method, Am. Stat. 46(1), 27-29,
+ * doi:10.1080/00031305.1992.10475842.
+ *
+ * @param asinhScale whether `centre` (and the errors the features will explain) are on an asinh scale
  */
-export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: ArrayLike<number>): Float64Array {
+export function spreadFeatures(exogenous: readonly ArrayLike<number>[], centre: ArrayLike<number>, asinhScale: boolean): Float64Array {
   const S = centre.length;
-  const m = 5 + exogenous.length;
+  const m = 6 + exogenous.length;
   const out = new Float64Array(S * m);
   const harmonics = timeOfDayHarmonics(S);
   for (let s = 0; s < S; s++) {
     let c = s * m;
     for (let h = 0; h < 4; h++) out[c++] = harmonics[4 * s + h] as number;
     for (const column of exogenous) out[c++] = column[s] as number;
-    out[c] = centre[s] as number;
+    const z = centre[s] as number;
+    out[c++] = z;
+    out[c] = asinhScale ? logCosh(z) : 0;
   }
   return out;
+}
+
+/** log cosh z without overflow: |z| + log(1 + exp(-2|z|)) - log 2. */
+export function logCosh(z: number): number {
+  const x = Math.abs(z);
+  return x + Math.log1p(Math.exp(-2 * x)) - Math.LN2;
 }
 
 /**
  * The spread features of past days, kept per day (by the identity of its exogenous columns): the time
  * of day and the drivers do not change from one delivery day to the next, only the point forecast on
- * the delivery day's scale does, so a kept day's array has just that column written again. The array
+ * the delivery day's scale does, so a kept day's array has just that column (and its log cosh) written again. The array
  * handed out is overwritten by the next call for the same day: use it before asking again.
  */
 export class SpreadFeatureRows {
   private readonly kept = new WeakMap<readonly ArrayLike<number>[], Float64Array>();
 
-  /** spreadFeatures(exogenous, centre), the same numbers. */
-  of(exogenous: readonly ArrayLike<number>[], centre: ArrayLike<number>): Float64Array {
+  /** spreadFeatures(exogenous, centre, asinhScale), the same numbers. */
+  of(exogenous: readonly ArrayLike<number>[], centre: ArrayLike<number>, asinhScale: boolean): Float64Array {
     const S = centre.length;
-    const m = 5 + exogenous.length;
+    const m = 6 + exogenous.length;
     let out = this.kept.get(exogenous);
     if (out === undefined || out.length !== S * m) {
-      out = spreadFeatures(exogenous, centre);
+      out = spreadFeatures(exogenous, centre, asinhScale);
       this.kept.set(exogenous, out);
       return out;
     }
-    for (let s = 0; s < S; s++) out[s * m + m - 1] = centre[s] as number;
+    for (let s = 0; s < S; s++) {
+      const z = centre[s] as number;
+      out[s * m + m - 2] = z;
+      out[s * m + m - 1] = asinhScale ? logCosh(z) : 0;
+    }
     return out;
   }
 }
@@ -83,7 +109,8 @@ function timeOfDayHarmonics(S: number): Float64Array {
  *   log |e(d', s)| = g0 + g' f(d', s) + v(d', s)   (least squares over every calibration day and slot),
  *   sigma(d, s) = exp(g0 + g' f(d, s)),   u(d', s) = e(d', s) / sigma(d', s),
  *   q_tau(d, s) = centre(s) + sigma(d, s) Q_tau({u}),
- * with f the spread features (time of day, drivers, the point forecast's level) and Q_tau the sample
+ * with f the spread features (time of day, drivers, the point forecast's level and, on an asinh scale, its
+ * log cosh) and Q_tau the sample
  * quantile (Hyndman and Fan's definition 7) of the standardised errors of the same slot ('slot') or of
  * every slot ('all'). The regression of log |e| is Harvey's (1976) estimator of a multiplicative
  * heteroscedasticity sigma^2 = exp(2 g' f): E log |e| = log sigma + E log |u|, so its intercept also
