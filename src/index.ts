@@ -75,7 +75,9 @@ export { irr, npv, projectCashFlows, type ProjectCashFlows, extrapolationWarning
 // ---- whole commands, as the CLI runs them: settings in, files written, summary out ----
 export { QUIET_HOOKS, type ProgressDisplay, type RunHooks } from './app/runHooks.js';
 export type { Done, Interrupted } from './app/commandResult.js';
-export { planUseCase, type PlanSettings, type PlanSummary } from './app/plan/planUseCase.js';
+export { planUseCase, type PlanSettings, type PlanSummary, type PlanTools } from './app/plan/planUseCase.js';
+// The LP solver the default plan policy (auto) and curve need: planUseCase(settings, hooks, { lpSolver: await loadHighsSolver() }).
+export { loadHighsSolver } from './app/solver/highsSolver.js';
 export { backtestUseCase, type BacktestSettings, type BacktestSummary } from './app/backtest/backtestUseCase.js';
 export { sweepUseCase, type SweepSettings, type SweepSummary } from './app/sweep/sweepUseCase.js';
 export { sizeUseCase, type SizeSettings, type SizeSummary } from './app/size/sizeUseCase.js';

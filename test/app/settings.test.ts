@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { planUseCase } from '../../src/app/plan/planUseCase.js';
+import { loadHighsSolver, planUseCase, QUIET_HOOKS } from '../../src/index.js';
 import { sizeUseCase } from '../../src/app/size/sizeUseCase.js';
 import { sweepUseCase } from '../../src/app/sweep/sweepUseCase.js';
 import { InputError, type InputProblem } from '../../src/errors/inputError.js';
@@ -49,5 +49,16 @@ describe('settings checked once by the use case', () => {
     expect(code).toBe(0);
     expect(stdout).toBe(jsonText(done.summary));
     expect(done.summary.day).toBe('2027-01-01');
+  });
+
+  it('plan of the demo day with the default policy (auto): the use case, given the LP solver, returns what `quantbid plan --json` prints', async () => {
+    const done = planUseCase({ inputs: { scenario: S } }, QUIET_HOOKS, { lpSolver: await loadHighsSolver() });
+    let stdout = '';
+    const code = await main(['node', 'quantbid', 'plan', '--scenario', S, '--json'], { stdout: (s) => void (stdout += s), stderr: () => undefined, stderrIsTerminal: false });
+    expect(code).toBe(0);
+    expect(stdout).toBe(jsonText(done.summary));
+    expect(done.summary.policy).toBe('auto');
+    // Without the solver the default cannot plan: a fault of the caller, named.
+    expect(() => planUseCase({ inputs: { scenario: S } })).toThrow(/needs tools\.lpSolver \(loadHighsSolver\)/);
   });
 });
