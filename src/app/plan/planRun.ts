@@ -30,7 +30,6 @@ export type CheckedPlanSettings = z.output<PlanSettingsSchema>;
 /** The settings with the policy settled: the one given, else the default or its fallback (planPolicy). */
 type PlanRunSettings = CheckedPlanSettings & { readonly policy: PlanCommandPolicy };
 
-
 export type PlanSummary = ReturnType<typeof planSummary> | ScenarioPlanSummary;
 
 /**
