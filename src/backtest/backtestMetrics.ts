@@ -1,6 +1,6 @@
 import type { BatteryModel } from '../types.js';
 import type { BacktestPolicy } from './backtestPolicy.js';
-import { edgeTest, type DailyProfits, type EdgeTest } from './edgeTest.js';
+import { edgeTest, profitDifference, type DailyProfits, type EdgeTest } from './edgeTest.js';
 import { policyMetrics, type PolicyMetrics } from './policyMetrics.js';
 import type { BacktestDay, BacktestResult, PolicyDay } from './runBacktest.js';
 
@@ -68,7 +68,7 @@ function strongestBaseline(tested: BacktestPolicy, policies: Readonly<Record<str
   if (candidates.length === 0) return null;
   const best = candidates.reduce((a, b) => ((policies[b] as PolicyMetrics).profit > (policies[a] as PolicyMetrics).profit ? b : a));
   const edge = edges.find((e) => e.reference === best) as EdgeTest;
-  return { policy: best, edge, testedLoses: (policies[tested] as PolicyMetrics).profit < (policies[best] as PolicyMetrics).profit };
+  return { policy: best, edge, testedLoses: profitDifference((policies[tested] as PolicyMetrics).profit, (policies[best] as PolicyMetrics).profit) < 0 };
 }
 
 function metricsByPolicy(days: readonly BacktestDay[], policies: readonly BacktestPolicy[], battery: BatteryModel): Record<string, PolicyMetrics> {

@@ -32,12 +32,22 @@ export interface DailyProfits {
   readonly dailyProfit: readonly number[];
 }
 
-/** Diebold-Mariano / HLN test (h = 1) of d_t = tested_t - reference_t, one-sided H1: E[d] > 0. */
+/**
+ * a - b, or 0 when the two differ by no more than floating-point rounding of sums of this size
+ * (relative 1e-9): two policies that made the same trades (auto that kept price-taking's bids, or a
+ * curve whose steps settle as price-taking's orders) must tie, not lose by 1e-14 and be tested on noise.
+ */
+export function profitDifference(a: number, b: number): number {
+  const d = a - b;
+  return Math.abs(d) <= 1e-9 * Math.max(1, Math.abs(a), Math.abs(b)) ? 0 : d;
+}
+
+/** Diebold-Mariano / HLN test (h = 1) of d_t = tested_t - reference_t (profitDifference), one-sided H1: E[d] > 0. */
 export function edgeTest(tested: DailyProfits, reference: DailyProfits): EdgeTest {
   const n = tested.dailyProfit.length;
   if (reference.dailyProfit.length !== n) throw new RangeError(`edgeTest: ${n} and ${reference.dailyProfit.length} days differ`);
   const names = { tested: tested.name, reference: reference.name };
-  const d = tested.dailyProfit.map((a, t) => a - (reference.dailyProfit[t] as number));
+  const d = tested.dailyProfit.map((a, t) => profitDifference(a, reference.dailyProfit[t] as number));
   if (n < 2) return { ...names, status: 'too-few-days', n, meanDifference: d[0] ?? null, reason: 'the test needs at least 2 days' };
   const test = dieboldMariano(d, 1);
   if (test.status !== 'ok') return { ...names, ...test };

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { dailyProfitStats } from '../../src/backtest/dailyProfitStats.js';
-import { edgeTest } from '../../src/backtest/edgeTest.js';
+import { edgeTest, profitDifference } from '../../src/backtest/edgeTest.js';
 
 describe('dailyProfitStats', () => {
   it('a five-day series worked by hand', () => {
@@ -74,5 +74,19 @@ describe('edgeTest (Diebold-Mariano with the HLN correction, h = 1)', () => {
   it('says why when the test cannot be made', () => {
     expect(edgeTest({ name: 'q', dailyProfit: [3] }, { name: 'p', dailyProfit: [1] })).toMatchObject({ status: 'too-few-days', n: 1, meanDifference: 2 });
     expect(edgeTest({ name: 'q', dailyProfit: [3, 4] }, { name: 'p', dailyProfit: [1, 2] })).toMatchObject({ status: 'zero-variance' });
+  });
+
+  it('the same trades summed in another order tie: differences of floating-point rounding are not tested as an edge', () => {
+    // In IEEE 754 binary64, 0.1 + 0.2 = 0.30000000000000004, not 0.3 (IEEE 754-2008; the classic
+    // example, e.g. Goldberg 1991, "What every computer scientist should know about floating-point
+    // arithmetic"): one day's cash summed in two orders differs by 5.6e-17.
+    expect(0.1 + 0.2 - 0.3).not.toBe(0);
+    const tested = { name: 'auto', dailyProfit: [0.1 + 0.2, 359.16, 405] };
+    const reference = { name: 'price-taking', dailyProfit: [0.3, 359.16, 405] };
+    expect(edgeTest(tested, reference)).toMatchObject({ status: 'zero-variance', meanDifference: 0 });
+    expect(profitDifference(0.1 + 0.2, 0.3)).toBe(0);
+    // A real difference, a millionth of the currency on a day of 405, is kept.
+    expect(profitDifference(405.000001, 405)).toBeCloseTo(1e-6, 12);
+    expect(edgeTest({ name: 'a', dailyProfit: [405.000001, 359.16, 405] }, { name: 'b', dailyProfit: [405, 359.16, 405] }).status).toBe('ok');
   });
 });
