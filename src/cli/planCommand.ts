@@ -99,10 +99,10 @@ Examples:
     };
     // The plan without the validation library when nothing is wrong (planFastPath.ts).
     const { planFastPath } = await import('../app/plan/planFastPath.js');
-    // HiGHS is loaded only for the policies that plan on scenarios (the default auto among them): other plans never pay its start-up.
-    const onScenarios = flags.policy === 'curve' || flags.policy === 'auto';
-    const tools = onScenarios ? { lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() } : {};
-    printResult(io, await planFastPath(settings, cliHooks(io, false), tools), flags.json === true);
+    // HiGHS is loaded only when the plan runs on scenarios (planFastPath asks): other plans, the default's
+    // fallback to price-taking among them, never pay its start-up.
+    const scenarioTools = async () => ({ lpSolver: await (await import('../app/solver/highsSolver.js')).loadHighsSolver() });
+    printResult(io, await planFastPath(settings, cliHooks(io, false), scenarioTools), flags.json === true);
   });
   return command;
 }

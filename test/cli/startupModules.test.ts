@@ -88,4 +88,13 @@ describe('start-up: what a plan loads', () => {
     expect(modules).toContain('dist/app/plan/planUseCase.js');
     expect(modules.some((m) => m.includes('node_modules/zod/'))).toBe(true);
   });
+
+  it('the default policy without a history or paths plans price-taking without loading HiGHS or the schemas', () => {
+    const demo = join(ROOT, 'scenarios', 'halvorn');
+    const result = listing.run(['plan', '--market', join(demo, 'market.json'), '--battery', join(demo, 'battery.json'), '--forecast', join(demo, 'quantiles.csv.gz'), '--day', '2027-01-01']);
+    expect(result.status).toBe(0);
+    expect(result.stderr).toContain("this plan is price-taking's, its fallback");
+    expect(result.files.filter((m) => /node_modules\/(highs|zod)\//.test(m))).toEqual([]);
+    expect(bundledModules(result.files).filter((m) => /highsSolver|planUseCase/.test(m))).toEqual([]);
+  });
 });

@@ -22,18 +22,21 @@ import type { PlanSettings, PlanTools } from './planUseCase.js';
  * (readAhead.ts) while this thread loads the planning code (this module loads only the checks of
  * the settings and the scenario) and checks the spec files; the reader takes what was read ahead when
  * it is still the file's content, and checks it as it checks what it reads itself.
+ *
+ * `scenarioTools` loads what a plan on scenarios needs (the LP solver): it is called only on the way to
+ * planUseCase with a policy that may plan on scenarios (curve, auto, or the default).
  */
-export async function planFastPath(settings: PlanSettings, hooks: RunHooks, tools: PlanTools): Promise<Done<PlanSummary>> {
+export async function planFastPath(settings: PlanSettings, hooks: RunHooks, scenarioTools: () => Promise<PlanTools>): Promise<Done<PlanSummary>> {
   const s = checkedPlanSettings(settings);
-  if (s === undefined || onScenarios(s.policy)) return planOnSchemas(settings, hooks, tools);
+  if (s === undefined || onScenarios(s.policy)) return planOnSchemas(settings, hooks, scenarioTools);
   const start = checkedInputPaths(s.inputs, ['market', 'battery', 'forecast'], ['history']);
   // The default policy plans on scenarios when there is a history (no --paths here: `scenarios` is unset).
-  if (start === undefined || onScenarios(planPolicy(s.policy, false, start.paths.history !== undefined))) return planOnSchemas(settings, hooks, tools);
+  if (start === undefined || onScenarios(planPolicy(s.policy, false, start.paths.history !== undefined))) return planOnSchemas(settings, hooks, scenarioTools);
   const { paths } = start;
   const forecastReadAhead = readAheadGzip(paths.forecast);
   const [{ checkedSpecFiles }, { planRun }] = await Promise.all([import('../checkedSpecFiles.js'), import('./planRun.js')]);
   const specs = checkedSpecFiles(paths);
-  if (specs === undefined) return planOnSchemas(settings, hooks, tools);
+  if (specs === undefined) return planOnSchemas(settings, hooks, scenarioTools);
   // The history is read only when the market has no imbalance rule and a history is given.
   const history = specs.market.value.imbalance === undefined && paths.history !== undefined;
   const parts: PlanParts = {
@@ -43,12 +46,14 @@ export async function planFastPath(settings: PlanSettings, hooks: RunHooks, tool
     ...(history ? { readPriceHistory: (await import('../../io/readPriceHistory.js')).readPriceHistory } : {}),
   };
   const readAhead = await forecastReadAhead;
-  return planRun(s, readAhead === undefined ? parts : { ...parts, forecastReadAhead: readAhead }, hooks, tools);
+  // A schedule policy here (scenario plans went to the schemas above): no tools.
+  return planRun(s, readAhead === undefined ? parts : { ...parts, forecastReadAhead: readAhead }, hooks, {});
 }
 
-/** The plan with the settings and files checked by their schemas (planUseCase), from the start. */
-async function planOnSchemas(settings: PlanSettings, hooks: RunHooks, tools: PlanTools): Promise<Done<PlanSummary>> {
+/** The plan with the settings and files checked by their schemas (planUseCase), from the start; the tools only for a policy that may plan on scenarios. */
+async function planOnSchemas(settings: PlanSettings, hooks: RunHooks, scenarioTools: () => Promise<PlanTools>): Promise<Done<PlanSummary>> {
   const { planUseCase } = await import('./planUseCase.js');
+  const tools = settings.policy === undefined || onScenarios(settings.policy) ? await scenarioTools() : {};
   return planUseCase(settings, hooks, tools);
 }
 
