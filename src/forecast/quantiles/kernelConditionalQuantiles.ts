@@ -87,8 +87,9 @@ export function kernelConditionalQuantiles(
     const value = sample.sorted[i] as number;
     while (k < levels.length && (levels[k] as number) <= level) {
       const tau = levels[k] as number;
-      // At or below the first level (0) the first value; else linear between the two levels around tau.
-      out[k++] = Number.isNaN(previousValue) || level === previousLevel ? value : previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue);
+      // At or below the first level (0) the first value; else linear between the two levels around tau,
+      // kept at most `value` (p + 1 (v - p) can round past v).
+      out[k++] = Number.isNaN(previousValue) || level === previousLevel ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
     }
     previousLevel = level;
     previousValue = value;
