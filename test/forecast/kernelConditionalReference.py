@@ -9,7 +9,8 @@
 #     (sum w)^2 / sum w^2 is below min(500, n); the value v_j of positive weight sits at the level
 #     (C_j - w_j) / (C_last - w_last) (C the cumulative weights), and the quantile is interpolated
 #     linearly in the level by np.interp (Hall, Wolff and Yao 1999; Hyndman and Fan 1996 definition 7
-#     when the weights are equal).
+#     when the weights are equal); computed at the states g h / 4 (g integer) and interpolated linearly
+#     between the two around the target.
 #   python3 test/forecast/kernelConditionalReference.py
 import math
 import numpy as np
@@ -66,7 +67,13 @@ def conditional(t):
     levels = (c - wk) / (c[-1] - wk[-1])
     return [float(np.interp(tau, levels, v)) for tau in LEVELS]
 
+# On the grid of states g * step (step = h / 4), linear in between.
+step = 0.5 * 0.25
 print("level pool")
 for s in range(S):
-    q = [target_centre[s] + spread[s] * v for v in conditional(target_centre[s] / sd)]
+    t = target_centre[s] / sd / step
+    g = math.floor(t)
+    lam = t - g
+    below, above = conditional(g * step), conditional((g + 1) * step)
+    q = [target_centre[s] + spread[s] * ((1 - lam) * b + lam * a) for b, a in zip(below, above)]
     print("  [" + ", ".join(repr(float(v)) for v in q) + "],")

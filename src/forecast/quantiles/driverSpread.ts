@@ -25,11 +25,14 @@ export type SpreadPool = 'slot' | 'all' | 'level';
 /**
  * The kernel of the 'level' pool: the bandwidth in standard deviations of the calibration days' point
  * forecasts (on the model's scale), and the fewest effective errors before it is widened
- * (kernelConditionalQuantiles.ts). 500 effective errors put 25 beyond each 5% level; the bandwidth was
+ * (kernelConditionalQuantiles.ts), and the grid the quantiles are computed on, in bandwidths: at the
+ * states 0, +-gridStep h, +-2 gridStep h, ... and linearly interpolated between the two around each
+ * delivery period's (a day's periods share a handful of grid states; one pass over every error per
+ * grid state instead of per period). 500 effective errors put 25 beyond each 5% level; the bandwidth was
  * chosen among 0.25, 0.5 and 1 on two settings of the known-distribution bench and then checked on all
  * six settings of two draws (docs/forecast-quality.md, the fifth wave).
  */
-export const LEVEL_POOL = Object.freeze({ bandwidthSd: 0.5, minEffective: 500 });
+export const LEVEL_POOL = Object.freeze({ bandwidthSd: 0.5, minEffective: 500, gridStep: 0.25 });
 
 /**
  * The spread features of one day, S x m row-major: the time of day as two harmonics
@@ -222,7 +225,8 @@ const scratchBuffers = new ScratchBuffers();
 /**
  * The grid of the 'level' pool: every standardised error in ascending order (ties by row), with its
  * point forecast (the design's centre column, m - 2) in standard deviations of those forecasts; per slot,
- * the kernel conditional quantiles at the slot's own centre, scaled by its spread.
+ * the kernel conditional quantiles at the slot's own centre (interpolated on the grid of LEVEL_POOL),
+ * scaled by its spread. A convex combination of two non-decreasing rows does not decrease.
  */
 function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standardised: Float64Array, design: Float64Array, m: number, levels: readonly number[]): number[][] {
   const n = standardised.length;
@@ -236,18 +240,44 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
   const mean = sum / n;
   const sd = Math.sqrt(Math.max(squares / n - mean * mean, 0));
   const perSd = sd > 0 ? 1 / sd : 1;
-  const rows = Int32Array.from({ length: n }, (_, i) => i).sort((a, b) => (standardised[a] as number) - (standardised[b] as number) || a - b);
-  const sorted = new Float64Array(n);
+  // Each row's place in ascending order, ties by row: the first free place at or after the first equal value of
+  // the natively sorted copy (the same order as sorting the rows by value, then by row, and faster).
+  const sorted = Float64Array.from(standardised).sort();
   const states = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    const row = rows[i] as number;
-    sorted[i] = standardised[row] as number;
-    states[i] = (design[row * m + m - 2] as number) * perSd;
+  const taken = new Uint8Array(n);
+  for (let row = 0; row < n; row++) {
+    const u = standardised[row] as number;
+    let low = 0;
+    let high = n;
+    while (low < high) {
+      const mid = (low + high) >>> 1;
+      if ((sorted[mid] as number) < u) low = mid + 1;
+      else high = mid;
+    }
+    while (taken[low] === 1) low++;
+    taken[low] = 1;
+    sorted[low] = u;
+    states[low] = (design[row * m + m - 2] as number) * perSd;
   }
   const weights = new Float64Array(n);
+  // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between.
+  const step = LEVEL_POOL.bandwidthSd * LEVEL_POOL.gridStep;
+  const atGrid = new Map<number, number[]>();
+  const gridQuantiles = (g: number): number[] => {
+    let q = atGrid.get(g);
+    if (q === undefined) {
+      q = kernelConditionalQuantiles({ sorted, states }, g * step, levels, LEVEL_POOL.bandwidthSd, LEVEL_POOL.minEffective, weights);
+      atGrid.set(g, q);
+    }
+    return q;
+  };
   return Array.from({ length: centre.length }, (_, s) => {
-    const q = kernelConditionalQuantiles({ sorted, states }, (centre[s] as number) * perSd, levels, LEVEL_POOL.bandwidthSd, LEVEL_POOL.minEffective, weights);
-    return q.map((v) => (centre[s] as number) + (spread[s] as number) * v);
+    const t = ((centre[s] as number) * perSd) / step;
+    const g = Math.floor(t);
+    const lambda = t - g;
+    const below = gridQuantiles(g);
+    const above = lambda > 0 ? gridQuantiles(g + 1) : below;
+    return below.map((v, k) => (centre[s] as number) + (spread[s] as number) * ((1 - lambda) * v + lambda * (above[k] as number)));
   });
 }
 

@@ -35,7 +35,8 @@
  * @param levels levels in [0, 1], ascending
  * @param bandwidth h > 0, on the scale of the states
  * @param minEffective the fewest effective values (>= 1) before the bandwidth is widened
- * @param weights scratch space of at least sample.sorted.length values (overwritten)
+ * @param weights scratch space of at least sample.sorted.length values (overwritten: the weights of the values
+ *   of positive weight, in order)
  * @returns one quantile per level, non-decreasing
  */
 export function kernelConditionalQuantiles(
@@ -48,53 +49,55 @@ export function kernelConditionalQuantiles(
 ): number[] {
   const n = sample.sorted.length;
   const enough = Math.min(minEffective, n);
+  if (positions.length < n) positions = new Int32Array(n);
+  // The values of positive weight, in ascending order: their positions in the sample and (in `weights`) their weights.
+  let count = 0;
   let h = bandwidth;
   let total = 0;
-  let last = -1;
   for (;;) {
     const inverse = 1 / (h * h);
     let squares = 0;
     total = 0;
-    last = -1;
+    count = 0;
     for (let i = 0; i < n; i++) {
       const d = (sample.states[i] as number) - target;
       const w = 1 - d * d * inverse;
       if (w > 0) {
-        weights[i] = w;
+        weights[count] = w;
+        positions[count++] = i;
         total += w;
         squares += w * w;
-        last = i;
-      } else {
-        weights[i] = 0;
       }
     }
     // A bandwidth of 2^40 times the first reaches every finite state: stop there whatever the count.
     if ((total > 0 && (total * total) / squares >= enough) || h > bandwidth * 2 ** 40) break;
     h *= 2;
   }
-  const span = total - (weights[last] as number);
+  const lastValue = sample.sorted[positions[count - 1] as number] as number;
+  const span = total - (weights[count - 1] as number);
   const out = new Array<number>(levels.length);
   // One value of positive weight: every quantile is that value.
-  if (span <= 0) return out.fill(sample.sorted[last] as number);
+  if (span <= 0) return out.fill(lastValue);
   let k = 0;
   let before = 0;
   let previousLevel = 0;
   let previousValue = NaN;
-  for (let i = 0; i <= last && k < levels.length; i++) {
-    const w = weights[i] as number;
-    if (w === 0) continue;
+  for (let j = 0; j < count && k < levels.length; j++) {
     const level = before / span;
-    const value = sample.sorted[i] as number;
+    const value = sample.sorted[positions[j] as number] as number;
     while (k < levels.length && (levels[k] as number) <= level) {
       const tau = levels[k] as number;
       // At or below the first level (0) the first value; else linear between the two levels around tau,
       // kept at most `value` (p + 1 (v - p) can round past v).
-      out[k++] = Number.isNaN(previousValue) || level === previousLevel ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
+      out[k++] = Number.isNaN(previousValue) ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
     }
     previousLevel = level;
     previousValue = value;
-    before += w;
+    before += weights[j] as number;
   }
-  while (k < levels.length) out[k++] = sample.sorted[last] as number;
+  while (k < levels.length) out[k++] = lastValue;
   return out;
 }
+
+/** Scratch space: positions of the values of positive weight (grown as needed, reused from call to call). */
+let positions = new Int32Array(0);
