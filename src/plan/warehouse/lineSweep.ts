@@ -209,42 +209,40 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
   live.tail = tail;
   const floor = day.socEndFloorMwh;
   if (hi < floor - eps) return 'end-unreachable';
-  if (lo < floor) takeSteepest(ws, floor - lo);
-  takeWhileProfitable(ws, -day.terminalValuePerMwh);
+  takeSteepest(ws, lo < floor ? floor - lo : 0, -day.terminalValuePerMwh);
   observer?.atEnd(ws);
   readSchedule(day, ws, out);
   return 'ok';
 }
 
-/** Takes `amount` MWh from the steepest open segments (they are forced into the solution). */
-function takeSteepest(ws: SweepWorkspace, amount: number): void {
+/**
+ * Takes `amount` MWh from the steepest open segments (they are forced into the solution), then every
+ * open segment steeper than `threshold` (= -V: keeping a MWh is worth V). One loop serves both, so
+ * that the optimised sweep has seen its steps before the first day whose segments are worth keeping.
+ */
+function takeSteepest(ws: SweepWorkspace, amount: number, threshold: number): void {
   const { live, remaining, taken } = ws;
-  const ids = live.ids;
+  const { ids, slopes } = live;
+  const head = live.head;
+  let tail = live.tail;
   let left = amount;
-  while (left > 0 && live.tail > live.head) {
-    const id = ids[live.tail - 1]!;
+  while (tail > head) {
+    const id = ids[tail - 1]!;
     const rest = remaining[id]!;
-    if (rest > left) {
+    const forced = left > 0;
+    if (forced && rest > left) {
       taken[id] = taken[id]! + left;
       remaining[id] = rest - left;
-      return;
+      left = 0;
+      continue;
     }
+    if (!forced && !(slopes[tail - 1]! > threshold)) break;
     left -= rest;
     taken[id] = taken[id]! + rest;
     remaining[id] = 0;
-    live.tail--;
+    tail--;
   }
-}
-
-/** Takes every open segment steeper than `threshold` (= -V: keeping a MWh is worth V). */
-function takeWhileProfitable(ws: SweepWorkspace, threshold: number): void {
-  const { live, remaining, taken } = ws;
-  while (live.tail > live.head && live.slopes[live.tail - 1]! > threshold) {
-    const id = live.ids[live.tail - 1]!;
-    taken[id] = taken[id]! + remaining[id]!;
-    remaining[id] = 0;
-    live.tail--;
-  }
+  live.tail = tail;
 }
 
 /** The schedule read off the taken parts of each period's segments (see the notes above). */
