@@ -544,7 +544,6 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
       minTrainingDays: options.minTrainingDays,
       knots: options.driverKnots,
       slotSpanMinutes: options.driverSlotSpanMinutes,
-      levelByDayType: (options as { driverLevelByDayType?: boolean }).driverLevelByDayType === true,
       scale: options.driverScale,
       stopwatch: options.stopwatch,
     });

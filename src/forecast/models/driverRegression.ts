@@ -30,8 +30,6 @@ export interface DriverSettings {
    * level. 0 (the default) fits every slot on its own rows.
    */
   readonly slotSpanMinutes?: number;
-  /** Yesterday's mean price also times the Monday, Saturday and Sunday dummies (see dayLevelRow). Default false. */
-  readonly levelByDayType?: boolean;
   /** Adds the time spent fitting (Grams and solves, per slot and window) to this counter. Default none. */
   readonly stopwatch?: FitStopwatch;
 }
@@ -128,11 +126,7 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
   // residual load of the day before, and the weekday dummies (Sunday, category 7, the reference).
   const a = J + 4;
-  // Day-level continuous columns: yesterday's mean price and mean residual load, and with levelByDayType
-  // yesterday's mean price times the Monday, Saturday and Sunday dummies of the day.
-  const byDayType = settings.levelByDayType === true;
-  const B = byDayType ? 5 : 2;
-  const k = a - 1 + B + 6;
+  const k = a - 1 + 2 + 6;
   const slotValues = new Float64Array(n * a);
   const target = new Float64Array(k);
   const forecasts = new Map<number, Float64Array>(counts.map((c) => [c, new Float64Array(S)]));
@@ -141,11 +135,13 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     const dn = view.dayNumber(i);
     return { own: days.of(i), regressors: days.regressors(view.indexOf(dn - 1), view.indexOf(dn - 7), view.past(i).weekday) };
   });
+  const meanZ = Float64Array.from(trainingDays, (d) => d.regressors.meanZ);
+  const meanX = Float64Array.from(trainingDays, (d) => d.regressors.meanX);
   const weekdays = Int8Array.from(trainingDays, (d) => d.regressors.weekday);
   const builder = timedFits(settings.stopwatch, 0, () => new SlotDayGramBuilder(
     {
-      continuous: Float64Array.from(trainingDays.flatMap((d) => dayLevelRow(d.regressors, byDayType))),
-      width: B,
+      continuous: Float64Array.from(trainingDays.flatMap((d) => [d.regressors.meanZ, d.regressors.meanX])),
+      width: 2,
       categories: weekdays,
       dummies: 6,
     },
@@ -178,8 +174,7 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     slotValues.set(lag7BySlot.subarray(source * n, (source + 1) * n), (J + 2) * n);
     slotValues.set(zBySlot.subarray(source * n, (source + 1) * n), (a - 1) * n);
   };
-  const continuous = Float64Array.from(trainingDays.flatMap((d) => dayLevelRow(d.regressors, byDayType)));
-  const dayColumns = { continuous, width: B, weekdays };
+  const dayColumns = { meanZ, meanX, weekdays };
   const neighbours = neighbourWeights(S, settings.slotSpanMinutes ?? 0);
   const pooled = neighbours.length > 1 ? new PooledGrams(k, counts.length, 2 * neighbours.length - 1) : null;
   for (let s = 0; s < S; s++) {
@@ -191,8 +186,9 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     for (let j = 0; j < J; j++) target[1 + j] = xt > (knots[j] as number) ? xt - (knots[j] as number) : 0;
     target[J + 1] = targetDay.lag1[s] as number;
     target[J + 2] = targetDay.lag7[s] as number;
-    target.set(dayLevelRow(targetDay, byDayType), a - 1);
-    for (let w = 1; w <= 6; w++) target[a - 1 + B + w - 1] = targetDay.weekday === w ? 1 : 0;
+    target[a - 1] = targetDay.meanZ;
+    target[a] = targetDay.meanX;
+    for (let w = 1; w <= 6; w++) target[a + w] = targetDay.weekday === w ? 1 : 0;
     if (pooled !== null) {
       timedFits(settings.stopwatch, counts.length + 1, () => {
         const lo = Math.max(0, s - (neighbours.length - 1));
@@ -258,18 +254,6 @@ export function neighbourWeights(slotsPerDay: number, spanMinutes: number): Floa
   const h = Math.floor(spanMinutes / slotMinutes + 1e-9);
   const bandwidth = spanMinutes + slotMinutes;
   return Float64Array.from({ length: h + 1 }, (_, d) => (1 - ((d * slotMinutes) / bandwidth) ** 3) ** 3);
-}
-
-/**
- * The day-level continuous columns of a day: yesterday's mean price and mean residual load, and with
- * `byDayType` yesterday's mean price times the day's Monday, Saturday and Sunday dummies (the day types
- * of the expert model's dummies, Ziel and Weron 2018), so that the day level's persistence may differ
- * where the weekly profile changes between yesterday and today.
- */
-function dayLevelRow(day: DayRegressors, byDayType: boolean): number[] {
-  if (!byDayType) return [day.meanZ, day.meanX];
-  const w = day.weekday;
-  return [day.meanZ, day.meanX, w === 1 ? day.meanZ : 0, w === 6 ? day.meanZ : 0, w === 7 ? day.meanZ : 0];
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
@@ -462,20 +446,21 @@ function pseudoObservations(
   columns: Float64Array,
   n: number,
   a: number,
-  day: { readonly continuous: Float64Array; readonly width: number; readonly weekdays: Int8Array },
+  day: { readonly meanZ: Float64Array; readonly meanX: Float64Array; readonly weekdays: Int8Array },
   model: LinearModel,
   fitted: Float64Array,
 ): void {
   const b = model.coefficients;
   const p = a - 1;
   const y = p * n;
-  const B = day.width;
+  const bz = b[p] as number;
+  const bx = b[p + 1] as number;
   for (let r = 0; r < n; r++) {
     let f = model.intercept;
     for (let q = 0; q < p; q++) f += (b[q] as number) * (columns[q * n + r] as number);
-    for (let j = 0; j < B; j++) f += (b[p + j] as number) * (day.continuous[r * B + j] as number);
+    f += bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number);
     const weekday = day.weekdays[r] as number;
-    if (weekday <= 6) f += b[p + B + weekday - 1] as number;
+    if (weekday <= 6) f += b[p + 1 + weekday] as number;
     fitted[r] = (columns[y + r] as number) - f;
   }
   const residuals = fitted;
