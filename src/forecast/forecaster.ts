@@ -102,11 +102,6 @@ export interface ForecastOptions {
   readonly driverWindowsDays: readonly number[];
   /** Hinge knots of the residual load in the driver regression [-]. */
   readonly driverKnots: number;
-  /**
-   * Clock span around each slot whose neighbouring slots' rows the driver regression shares [minutes],
-   * >= 0 (0: each slot on its own rows); see DriverSettings.slotSpanMinutes.
-   */
-  readonly driverSlotSpanMinutes: number;
   /** Scale the driver regression is fitted on (and its errors measured on, with errorScale 'model'). */
   readonly driverScale: 'asinh' | 'price';
   /**
@@ -169,7 +164,6 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   minCalibrationDays: 28,
   driverWindowsDays: Object.freeze([182, 364, 728]),
   driverKnots: 3,
-  driverSlotSpanMinutes: 0,
   driverScale: 'asinh',
   spreadPool: 'slot',
   autoCandidates: AUTO_CANDIDATES,
@@ -543,7 +537,6 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
       windowsDays: options.driverWindowsDays,
       minTrainingDays: options.minTrainingDays,
       knots: options.driverKnots,
-      slotSpanMinutes: options.driverSlotSpanMinutes,
       scale: options.driverScale,
       stopwatch: options.stopwatch,
     });
@@ -579,7 +572,6 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   });
   positiveInteger('autoValidationDays', o.autoValidationDays);
   positiveInteger('driverKnots', o.driverKnots, 0);
-  if (!(Number.isFinite(o.driverSlotSpanMinutes) && o.driverSlotSpanMinutes >= 0)) throw new ArgumentError('options.driverSlotSpanMinutes', 'a number of minutes >= 0', o.driverSlotSpanMinutes);
   if (o.driverWindowsDays.length === 0) throw new ArgumentError('options.driverWindowsDays', 'at least one window length', o.driverWindowsDays);
   o.driverWindowsDays.forEach((w, i) => positiveInteger(`driverWindowsDays[${i}]`, w, o.minTrainingDays));
   if (o.driverScale !== 'asinh' && o.driverScale !== 'price') throw new ArgumentError('options.driverScale', "'asinh' or 'price'", o.driverScale);

@@ -2,7 +2,6 @@ import { sortedQuantile } from '../quantiles/sortedQuantile.js';
 import { choleskyLeastSquares, choleskyPrediction } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
-import { PooledGrams } from './pooledGrams.js';
 import { SlotSortedValues } from './slotSortedValues.js';
 import { ScratchBuffers } from '../scratchBuffers.js';
 import type { FitStopwatch } from '../fitStopwatch.js';
@@ -24,12 +23,6 @@ export interface DriverSettings {
   readonly knots: number;
   /** Scale the model is fitted on: asinh-transformed prices, or prices. */
   readonly scale: 'asinh' | 'price';
-  /**
-   * Clock span around each slot whose slots' rows its regression shares [minutes], >= 0: slots up to this
-   * far from it, weighted by the tricube of their distance over (span + one slot), each with its own
-   * level. 0 (the default) fits every slot on its own rows.
-   */
-  readonly slotSpanMinutes?: number;
   /** Adds the time spent fitting (Grams and solves, per slot and window) to this counter. Default none. */
   readonly stopwatch?: FitStopwatch;
 }
@@ -156,10 +149,10 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const fitted = new Float64Array(n);
   // Per slot, the residual loads of the longest window's days in ascending order, kept from the last delivery day's.
   const sortedX = keptResidualLoads.of(trainingDays.map((d) => d.own.x));
-  // The slot columns of source slot `source` with the knots in `knots`, column by column
-  // (slotValues[q n + r]): x, the hinges, lag 1, lag 7, the response.
-  const fillSlotColumns = (source: number): void => {
-    const slotX = xBySlot.subarray(source * n, (source + 1) * n);
+  for (let s = 0; s < S; s++) {
+    const slotX = xBySlot.subarray(s * n, (s + 1) * n);
+    for (let j = 0; j < J; j++) knots[j] = sortedQuantile(sortedX[s] as Float64Array, (j + 1) / (J + 1));
+    // The slot columns column by column (slotValues[q n + r]): x, the hinges, lag 1, lag 7, the response.
     slotValues.set(slotX, 0);
     for (let j = 0; j < J; j++) {
       const knot = knots[j] as number;
@@ -170,16 +163,9 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
         slotValues[base + r] = Math.max(xv - knot, 0);
       }
     }
-    slotValues.set(lag1BySlot.subarray(source * n, (source + 1) * n), (J + 1) * n);
-    slotValues.set(lag7BySlot.subarray(source * n, (source + 1) * n), (J + 2) * n);
-    slotValues.set(zBySlot.subarray(source * n, (source + 1) * n), (a - 1) * n);
-  };
-  const dayColumns = { meanZ, meanX, weekdays };
-  const neighbours = neighbourWeights(S, settings.slotSpanMinutes ?? 0);
-  const pooled = neighbours.length > 1 ? new PooledGrams(k, counts.length, 2 * neighbours.length - 1) : null;
-  for (let s = 0; s < S; s++) {
-    for (let j = 0; j < J; j++) knots[j] = sortedQuantile(sortedX[s] as Float64Array, (j + 1) / (J + 1));
-    fillSlotColumns(s);
+    slotValues.set(lag1BySlot.subarray(s * n, (s + 1) * n), (J + 1) * n);
+    slotValues.set(lag7BySlot.subarray(s * n, (s + 1) * n), (J + 2) * n);
+    slotValues.set(zBySlot.subarray(s * n, (s + 1) * n), (a - 1) * n);
     const thin = thinHinges(slotValues, n, J, counts);
     const xt = days.targetX[s] as number;
     target[0] = xt;
@@ -189,33 +175,6 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     target[a - 1] = targetDay.meanZ;
     target[a] = targetDay.meanX;
     for (let w = 1; w <= 6; w++) target[a + w] = targetDay.weekday === w ? 1 : 0;
-    if (pooled !== null) {
-      timedFits(settings.stopwatch, counts.length + 1, () => {
-        const lo = Math.max(0, s - (neighbours.length - 1));
-        const hi = Math.min(S - 1, s + (neighbours.length - 1));
-        // Least squares on the longest window's rows of the neighbouring slots, each with its own level.
-        pooled.reset();
-        for (let source = lo; source <= hi; source++) {
-          fillSlotColumns(source);
-          builder.forEachGram(slotValues, a, (gram, w) => pooled.add(gram, w, neighbours[Math.abs(source - s)] as number, source - lo), { longestOnly: true });
-        }
-        const W = counts.length - 1;
-        const longest = choleskyLeastSquares(pooled.gram(W, s - lo, thin[W] as number[]));
-        const models = Array.from({ length: hi - lo + 1 }, (_, index) => pooled.withLevel(longest, index, W));
-        // Huber's pseudo-observations of every neighbour's rows (its own level, the shared slopes), then
-        // least squares on them in every window.
-        pooled.reset();
-        for (let source = lo; source <= hi; source++) {
-          fillSlotColumns(source);
-          pseudoObservations(slotValues, n, a, dayColumns, models[source - lo] as LinearModel, fitted);
-          builder.forEachGram(slotValues, a, (gram, w) => pooled.add(gram, w, neighbours[Math.abs(source - s)] as number, source - lo));
-        }
-        for (let w = 0; w < counts.length; w++) {
-          (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(choleskyPrediction(pooled.gram(w, s - lo, thin[w] as number[]), target));
-        }
-      });
-      continue;
-    }
     timedFits(settings.stopwatch, counts.length + 1, () => {
       // Least squares on the longest window, then on Huber's pseudo-observations of that fit in every window.
       let longest: LinearModel | undefined;
@@ -228,7 +187,7 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
         },
         { longestOnly: true },
       );
-      pseudoObservations(slotValues, n, a, dayColumns, longest as LinearModel, fitted);
+      pseudoObservations(slotValues, n, a, { meanZ, meanX, weekdays }, longest as LinearModel, fitted);
       builder.forEachGram(
         slotValues,
         a,
@@ -242,18 +201,6 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   }
   const members = sizes.map((size) => forecasts.get(size) as Float64Array);
   return { mean: averageMembers(members), members };
-}
-
-/**
- * Kernel weights of the neighbouring slots by distance 0, 1, ..., h slots: the tricube
- * (1 - (|t| / (span + slot))^3)^3 of the clock distance t (Cleveland and Devlin 1988), h the most slots
- * within the span. The span plus one slot as bandwidth keeps the farthest slot in with a positive weight.
- */
-export function neighbourWeights(slotsPerDay: number, spanMinutes: number): Float64Array {
-  const slotMinutes = 1440 / slotsPerDay;
-  const h = Math.floor(spanMinutes / slotMinutes + 1e-9);
-  const bandwidth = spanMinutes + slotMinutes;
-  return Float64Array.from({ length: h + 1 }, (_, d) => (1 - ((d * slotMinutes) / bandwidth) ** 3) ** 3);
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
