@@ -376,7 +376,8 @@ const MAD_TO_SIGMA = 1.482602218505602;
  */
 export function huberClipLimit(residuals: Float64Array): number {
   const n = residuals.length;
-  const work = Float64Array.from(residuals);
+  const work = scratchBuffers.get(4, n);
+  work.set(residuals);
   const n2 = n >> 1;
   const med = selectInPlace(work, n2);
   for (let r = 0; r < n; r++) work[r] = Math.abs((residuals[r] as number) - med);
