@@ -403,10 +403,15 @@ function pseudoObservations(
   const y = p * n;
   const bz = b[p] as number;
   const bx = b[p + 1] as number;
+  // Column by column: each row's fit adds the same terms in the same order as a row-by-row sum.
+  fitted.fill(model.intercept, 0, n);
+  for (let q = 0; q < p; q++) {
+    const bq = b[q] as number;
+    const base = q * n;
+    for (let r = 0; r < n; r++) fitted[r] = (fitted[r] as number) + bq * (columns[base + r] as number);
+  }
   for (let r = 0; r < n; r++) {
-    let f = model.intercept;
-    for (let q = 0; q < p; q++) f += (b[q] as number) * (columns[q * n + r] as number);
-    f += bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number);
+    let f = (fitted[r] as number) + (bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number));
     const weekday = day.weekdays[r] as number;
     if (weekday <= 6) f += b[p + 1 + weekday] as number;
     fitted[r] = (columns[y + r] as number) - f;
