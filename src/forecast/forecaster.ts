@@ -214,6 +214,8 @@ export class Forecaster {
   /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
   private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
   private readonly states = new Map<string, CalibrationState>();
+  /** The delivery day (day number) whose calibration states `states` holds. */
+  private statesDay = Number.NaN;
   /** The error pools' order at the last historical simulation, by point model and calibration window (speed only). */
   private readonly poolOrders = new Map<string, PoolOrder>();
   /** Per history day, the price range beyond which `auto` passes a candidate's forecast over (made when first needed). */
@@ -440,7 +442,10 @@ export class Forecaster {
       for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
     });
     const state = { calibration, scale, centre, errors, forecastsOnScale };
-    if (this.states.size >= 8) this.states.clear();
+    // Only one day's states are kept: its methods ask for them one after the other. (Clearing at a size
+    // instead dropped a day's driver state between driver-hs and driver-fhs every third day.)
+    if (this.statesDay !== view.target.dayNumber) this.states.clear();
+    this.statesDay = view.target.dayNumber;
     this.states.set(key, state);
     return state;
   }
