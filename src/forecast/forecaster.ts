@@ -216,6 +216,8 @@ export class Forecaster {
   private readonly states = new Map<string, CalibrationState>();
   /** The delivery day (day number) whose calibration states `states` holds. */
   private statesDay = Number.NaN;
+  /** The arrays of the kept states' grids, by point model, window and grid (see dayViews). */
+  private readonly stateBlocks = new Map<string, Float64Array>();
   /** The error pools' order at the last historical simulation, by point model and calibration window (speed only). */
   private readonly poolOrders = new Map<string, PoolOrder>();
   /** Per history day, the price range beyond which `auto` passes a candidate's forecast over (made when first needed). */
@@ -430,9 +432,10 @@ export class Forecaster {
     const calibration = this.calibrationSet(model, view, calibrationDays);
     const scale = calibration.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, calibration, calibrationDays);
     const centre = point.mean.map(scale.to);
-    // Both grids of the calibration days in one array each (views day by day): two allocations, not two per day.
-    const forecastsOnScale = dayViews(calibration.map((c) => c.forecast.mean.length));
-    const errors = dayViews(calibration.map((c) => c.realised.length));
+    // Only one day's states are kept (below), so the last day's arrays of this model and window take the new grids.
+    if (this.statesDay !== view.target.dayNumber) this.states.clear();
+    const forecastsOnScale = this.dayViews(`${model}|${calibrationDays}|forecasts`, calibration.map((c) => c.forecast.mean.length));
+    const errors = this.dayViews(`${model}|${calibrationDays}|errors`, calibration.map((c) => c.realised.length));
     calibration.forEach((c, d) => {
       const f = forecastsOnScale[d] as Float64Array;
       const e = errors[d] as Float64Array;
@@ -444,10 +447,25 @@ export class Forecaster {
     const state = { calibration, scale, centre, errors, forecastsOnScale };
     // Only one day's states are kept: its methods ask for them one after the other. (Clearing at a size
     // instead dropped a day's driver state between driver-hs and driver-fhs every third day.)
-    if (this.statesDay !== view.target.dayNumber) this.states.clear();
     this.statesDay = view.target.dayNumber;
     this.states.set(key, state);
     return state;
+  }
+
+  /**
+   * Arrays of the given lengths, views one after the other of the array kept under `key` (grown when
+   * short; values left by the last day, to be written): a state's grids reuse those of the last day's
+   * state, which nothing reads once that day's states are dropped (DayForecasts keep none of them).
+   */
+  private dayViews(key: string, lengths: readonly number[]): Float64Array[] {
+    const total = lengths.reduce((sum, length) => sum + length, 0);
+    let block = this.stateBlocks.get(key);
+    if (block === undefined || block.length < total) {
+      block = new Float64Array(total);
+      this.stateBlocks.set(key, block);
+    }
+    let at = 0;
+    return lengths.map((length) => (block as Float64Array).subarray(at, (at += length)));
   }
 
   /** The kept order of the historical-simulation pools of a point model and calibration window (of its errors, or of driver-fhs's standardised ones). */
@@ -589,12 +607,6 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   return o;
 }
 
-/** Fresh zeroed arrays of the given lengths, views of one array laid out one after the other. */
-function dayViews(lengths: readonly number[]): Float64Array[] {
-  const block = new Float64Array(lengths.reduce((sum, length) => sum + length, 0));
-  let at = 0;
-  return lengths.map((length) => block.subarray(at, (at += length)));
-}
 
 /** scale.to of every value into `out`, the same numbers (an asinh scale's loop written out: toAsinhScales). */
 function onErrorScale(values: ArrayLike<number>, scale: ErrorScale, out: Float64Array): void {

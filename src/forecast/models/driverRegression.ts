@@ -10,7 +10,7 @@ import type { GriddedDay, HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
-import { fromAsinhScale, selectInPlace, toAsinhScale, type RobustScale } from './robustAsinh.js';
+import { fromAsinhScale, selectInPlace, toAsinhScale, toAsinhScales, type RobustScale } from './robustAsinh.js';
 import { weekdayColumns } from './arx.js';
 
 /** Settings of the driver regression; see {@link driverForecast}. */
@@ -272,6 +272,12 @@ interface DriverDay {
 /** What does not depend on the delivery day, kept per gridded past day: fences of its prices, residual load. */
 const dayInputs = new WeakMap<GriddedDay, { readonly low: number; readonly high: number; readonly x: Float64Array; readonly meanX: number; readonly columns: string }>();
 
+/**
+ * Blocks of the past days' arrays of DriverDays, reused by every forecast (one forecast at a time uses
+ * them, and nothing it returns points into them): some 1.4 MB a forecast, no longer allocated afresh.
+ */
+const dayBlocks: Float64Array[] = [];
+
 /** Per past day, the prices on the delivery day's scale and the residual load (computed once per delivery day). */
 class DriverDays {
   private readonly cache = new Map<number, DriverDay>();
@@ -305,10 +311,11 @@ class DriverDays {
       // The transformation is increasing, so clipping at the transformed fences equals transforming the clipped prices.
       const low = scale === null ? inputs.low : toAsinhScale(inputs.low, scale);
       const high = scale === null ? inputs.high : toAsinhScale(inputs.high, scale);
+      if (scale === null) z.set(prices);
+      else toAsinhScales(prices, scale, z);
       let sum = 0;
       for (let s = 0; s < S; s++) {
-        const v = scale === null ? (prices[s] as number) : toAsinhScale(prices[s] as number, scale);
-        z[s] = v;
+        const v = z[s] as number;
         const c = v < low ? low : v > high ? high : v;
         clipped[s] = c;
         sum += c;
@@ -319,14 +326,21 @@ class DriverDays {
     return day;
   }
 
-  /** Room for the days' arrays, taken a block at a time (fewer, larger allocations). */
-  private block = new Float64Array(0);
+  /** Room for the days' arrays: the blocks of dayBlocks from the first, taken in turn (the last forecast's reused). */
+  private blockIndex = -1;
+  private block: Float64Array = new Float64Array(0);
   private used = 0;
 
-  /** A fresh array of `length` zeros, a view of the current block. */
+  /** An array of `length` values to be written (what an earlier forecast left there), a view of the current block. */
   private take(length: number): Float64Array {
     if (this.used + length > this.block.length) {
-      this.block = new Float64Array(Math.max(length, 128 * length));
+      this.blockIndex++;
+      let block = dayBlocks[this.blockIndex];
+      if (block === undefined || block.length < length) {
+        block = new Float64Array(Math.max(length, 128 * length));
+        dayBlocks[this.blockIndex] = block;
+      }
+      this.block = block;
       this.used = 0;
     }
     const out = this.block.subarray(this.used, this.used + length);
