@@ -147,6 +147,8 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const lag7BySlot = bySlot(trainingDays.map((d) => d.regressors.lag7), S, scratchBuffers.get(3, S * n));
   const knots = new Float64Array(J);
   const fitted = new Float64Array(n);
+  // The longest window's fit of each slot, read only by its Huber step: one array for all slots.
+  const longestCoefficients = new Float64Array(k);
   // Per slot, the residual loads of the longest window's days in ascending order, kept from the last delivery day's.
   const sortedX = keptResidualLoads.of(trainingDays.map((d) => d.own.x));
   for (let s = 0; s < S; s++) {
@@ -183,7 +185,7 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
         a,
         (gram, w) => {
           for (const j of thin[w] as number[]) gram.scales[j] = 0;
-          longest = choleskyLeastSquares(gram);
+          longest = choleskyLeastSquares(gram, undefined, longestCoefficients);
         },
         { longestOnly: true },
       );
