@@ -453,15 +453,15 @@ export class Forecaster {
   }
 
   /**
-   * Arrays of the given lengths, views one after the other of the array kept under `key` (grown when
-   * short; values left by the last day, to be written): a state's grids reuse those of the last day's
+   * Arrays of the given lengths, views one after the other of the array kept under `key` (grown by a
+   * quarter at least when short; values left by the last day, to be written): a state's grids reuse those of the last day's
    * state, which nothing reads once that day's states are dropped (DayForecasts keep none of them).
    */
   private dayViews(key: string, lengths: readonly number[]): Float64Array[] {
     const total = lengths.reduce((sum, length) => sum + length, 0);
     let block = this.stateBlocks.get(key);
     if (block === undefined || block.length < total) {
-      block = new Float64Array(total);
+      block = new Float64Array(Math.max(total, Math.ceil(1.25 * (block?.length ?? 0))));
       this.stateBlocks.set(key, block);
     }
     let at = 0;
