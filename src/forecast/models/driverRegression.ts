@@ -437,7 +437,14 @@ function pseudoObservations(
   const bx = b[p + 1] as number;
   // Column by column: each row's fit adds the same terms in the same order as a row-by-row sum.
   fitted.fill(model.intercept, 0, n);
-  for (let q = 0; q < p; q++) {
+  let q = 0;
+  for (; q + 1 < p; q += 2) {
+    const b0 = b[q] as number;
+    const b1 = b[q + 1] as number;
+    const base = q * n;
+    for (let r = 0; r < n; r++) fitted[r] = (fitted[r] as number) + b0 * (columns[base + r] as number) + b1 * (columns[base + n + r] as number);
+  }
+  for (; q < p; q++) {
     const bq = b[q] as number;
     const base = q * n;
     for (let r = 0; r < n; r++) fitted[r] = (fitted[r] as number) + bq * (columns[base + r] as number);
