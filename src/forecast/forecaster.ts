@@ -25,6 +25,7 @@ import type { LassoOptions } from './linalg/lasso.js';
 import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';
 import { arxForecast, keptAsinhDay } from './models/arx.js';
+import { toAsinhScales } from './models/robustAsinh.js';
 import { driverForecast } from './models/driverRegression.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { GridCache, HistoryView } from './models/historyView.js';
@@ -213,12 +214,18 @@ export class Forecaster {
   /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
   private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
   private readonly states = new Map<string, CalibrationState>();
+  /** The delivery day (day number) whose calibration states `states` holds. */
+  private statesDay = Number.NaN;
+  /** The arrays of the kept states' grids, by point model, window and grid (see dayViews). */
+  private readonly stateBlocks = new Map<string, Float64Array>();
   /** The error pools' order at the last historical simulation, by point model and calibration window (speed only). */
   private readonly poolOrders = new Map<string, PoolOrder>();
   /** Per history day, the price range beyond which `auto` passes a candidate's forecast over (made when first needed). */
   private ranges: (PriceRange | null)[] | undefined;
   /** driver-fhs's spread features of the calibration days, kept between delivery days (speed only). */
   private readonly spreadFeatureRows = new SpreadFeatureRows();
+  /** The view of the last day asked (its candidates and point models read the same one; speed only). */
+  private lastView: { readonly dayIndex: number; readonly view: HistoryView } | undefined;
 
   constructor(
     private readonly history: PriceHistory,
@@ -340,7 +347,7 @@ export class Forecaster {
 
   /** The forecast of day `dayIndex` by one method with a calibration window of `calibrationDays`. */
   private forecastWith(dayIndex: number, levels: readonly number[], method: SingleMethod, calibrationDays: number): DayForecast {
-    const view = HistoryView.before(this.history, dayIndex, this.grids);
+    const view = this.viewBefore(dayIndex);
     const model = pointModelOf(method, this.options);
     const point = this.pointFor(model, dayIndex, view);
     if (point === null) {
@@ -425,27 +432,40 @@ export class Forecaster {
     const calibration = this.calibrationSet(model, view, calibrationDays);
     const scale = calibration.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, calibration, calibrationDays);
     const centre = point.mean.map(scale.to);
-    const forecastsOnScale = calibration.map((c) => {
-      const mean = c.forecast.mean;
-      const f = new Float64Array(mean.length);
-      for (let s = 0; s < f.length; s++) f[s] = scale.to(mean[s] as number);
-      return f;
-    });
-    const errors = calibration.map((c, d) => {
-      const e = new Float64Array(c.realised.length);
+    // Only one day's states are kept (below), so the last day's arrays of this model and window take the new grids.
+    if (this.statesDay !== view.target.dayNumber) this.states.clear();
+    const forecastsOnScale = this.dayViews(`${model}|${calibrationDays}|forecasts`, calibration.map((c) => c.forecast.mean.length));
+    const errors = this.dayViews(`${model}|${calibrationDays}|errors`, calibration.map((c) => c.realised.length));
+    calibration.forEach((c, d) => {
       const f = forecastsOnScale[d] as Float64Array;
+      const e = errors[d] as Float64Array;
+      onErrorScale(c.forecast.mean, scale, f);
       // The realised prices on the asinh scale, from the delivery day's ARX fit when it made them with this scale.
-      if (scale.robust !== undefined && keptAsinhDay(scale.robust, c.realised, e)) {
-        for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
-      } else {
-        for (let s = 0; s < e.length; s++) e[s] = scale.to(c.realised[s] as number) - (f[s] as number);
-      }
-      return e;
+      if (scale.robust === undefined || !keptAsinhDay(scale.robust, c.realised, e)) onErrorScale(c.realised, scale, e);
+      for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
     });
     const state = { calibration, scale, centre, errors, forecastsOnScale };
-    if (this.states.size >= 8) this.states.clear();
+    // Only one day's states are kept: its methods ask for them one after the other. (Clearing at a size
+    // instead dropped a day's driver state between driver-hs and driver-fhs every third day.)
+    this.statesDay = view.target.dayNumber;
     this.states.set(key, state);
     return state;
+  }
+
+  /**
+   * Arrays of the given lengths, views one after the other of the array kept under `key` (grown by a
+   * quarter at least when short; values left by the last day, to be written): a state's grids reuse those of the last day's
+   * state, which nothing reads once that day's states are dropped (DayForecasts keep none of them).
+   */
+  private dayViews(key: string, lengths: readonly number[]): Float64Array[] {
+    const total = lengths.reduce((sum, length) => sum + length, 0);
+    let block = this.stateBlocks.get(key);
+    if (block === undefined || block.length < total) {
+      block = new Float64Array(Math.max(total, Math.ceil(1.25 * (block?.length ?? 0))));
+      this.stateBlocks.set(key, block);
+    }
+    let at = 0;
+    return lengths.map((length) => (block as Float64Array).subarray(at, (at += length)));
   }
 
   /** The kept order of the historical-simulation pools of a point model and calibration window (of its errors, or of driver-fhs's standardised ones). */
@@ -459,6 +479,12 @@ export class Forecaster {
     return order;
   }
 
+  /** HistoryView.before of day `dayIndex`, the same view again while the same day is asked (a view never changes). */
+  private viewBefore(dayIndex: number): HistoryView {
+    if (this.lastView?.dayIndex !== dayIndex) this.lastView = { dayIndex, view: HistoryView.before(this.history, dayIndex, this.grids) };
+    return this.lastView.view;
+  }
+
   /** The point forecast of past or delivery day `dayIndex`, made from the days before it, memoised. */
   private pointFor(model: PointModelName, dayIndex: number, view?: HistoryView): PointForecast | null {
     let cache = this.points.get(model);
@@ -468,7 +494,7 @@ export class Forecaster {
     }
     let forecast = cache[dayIndex];
     if (forecast === undefined) {
-      forecast = makePointForecast(view ?? HistoryView.before(this.history, dayIndex, this.grids), model, this.options);
+      forecast = makePointForecast(view ?? this.viewBefore(dayIndex), model, this.options);
       cache[dayIndex] = forecast;
     }
     return forecast;
@@ -579,4 +605,11 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;
+}
+
+
+/** scale.to of every value into `out`, the same numbers (an asinh scale's loop written out: toAsinhScales). */
+function onErrorScale(values: ArrayLike<number>, scale: ErrorScale, out: Float64Array): void {
+  if (scale.robust !== undefined) toAsinhScales(values, scale.robust, out);
+  else for (let s = 0; s < out.length; s++) out[s] = scale.to(values[s] as number);
 }

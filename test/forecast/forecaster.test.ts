@@ -101,6 +101,21 @@ describe('Forecaster', () => {
     }
   });
 
+  it('auto and driver-fhs: a day forecast again, or before and after others, is the fresh forecast (kept calibration arrays reused between days)', () => {
+    for (const method of ['auto', 'driver-fhs'] as ForecastMethod[]) {
+      const fresh = [115, 118].map((d) => forecastDay(history, d, LEVELS, method, SMALL));
+      const used = new Forecaster(history, SMALL);
+      const first = used.forecast(115, LEVELS, method);
+      const copy = structuredClone(first);
+      for (let d = 112; d <= 118; d++) used.forecast(d, LEVELS, method);
+      // The forecast handed out earlier is not touched by the days after it.
+      expect(first).toEqual(copy);
+      expect(first.quantiles.prices).toEqual(fresh[0]!.quantiles.prices);
+      expect(used.forecast(115, LEVELS, method).quantiles.prices).toEqual(fresh[0]!.quantiles.prices);
+      expect(used.forecast(118, LEVELS, method)).toEqual(fresh[1]);
+    }
+  });
+
   it('naive-hs centres on the same slot naiveLagDays back', () => {
     for (const lag of [1, 7]) {
       const day = forecastDay(history, 110, LEVELS, 'naive-hs', { ...SMALL, naiveLagDays: lag });

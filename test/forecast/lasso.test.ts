@@ -95,6 +95,17 @@ describe('least squares on the normal equations of standardised columns (Cholesk
     chol.coefficients.forEach((b, j) => expect(b).toBeCloseTo(qr[j + 1]!, 9));
   });
 
+  it('writes the coefficients into an array handed in, the same model (Householder QR the reference)', () => {
+    const { rows, y } = correlatedProblem(3, 200, 8);
+    const gram = standardisedGram(matrixFromRows(rows), y);
+    const into = new Float64Array(8).fill(99);
+    const chol = choleskyLeastSquares(gram, undefined, into);
+    expect(chol.coefficients).toBe(into);
+    expect(chol).toEqual(choleskyLeastSquares(gram));
+    const qr = leastSquaresQr(matrixFromRows(rows.map((r) => [1, ...r])), y).coefficients;
+    into.forEach((b, j) => expect(b).toBeCloseTo(qr[j + 1]!, 9));
+  });
+
   it('leaves out a constant column and a duplicated column (coefficient 0), fitting the same values', () => {
     const { rows, y } = correlatedProblem(4, 60, 3);
     const extended = rows.map((r) => [...r, 7, r[0]!]);

@@ -3,7 +3,7 @@ import { arxForecast, keptAsinhDay } from '../../src/forecast/models/arx.js';
 import type { ArxSettings } from '../../src/forecast/models/arx.js';
 import { ForecastInputError } from '../../src/forecast/models/errors.js';
 import { HistoryView, dayNumberOf, weekdayOf } from '../../src/forecast/models/historyView.js';
-import { fromAsinhScale, robustScale, toAsinhScale } from '../../src/forecast/models/robustAsinh.js';
+import { fromAsinhScale, robustScale, toAsinhScale, toAsinhScales } from '../../src/forecast/models/robustAsinh.js';
 import { seasonalNaive } from '../../src/forecast/models/seasonalNaive.js';
 import { fromSlotGrid, localMinuteOfDay, slotLayout, toSlotGrid } from '../../src/forecast/models/slotGrid.js';
 import { LASSO_DEFAULTS } from '../../src/forecast/linalg/lasso.js';
@@ -70,6 +70,27 @@ describe('robust scale and asinh transformation (Uniejewski, Weron and Ziel 2018
   it('is inverted by a + b sinh(z), including negative prices', () => {
     const s = robustScale([-20, 10, 35, 40, 300]);
     for (const p of [-500, -20, 0, 37.5, 3000]) expect(fromAsinhScale(toAsinhScale(p, s), s)).toBeCloseTo(p, 9);
+  });
+
+  it('toAsinhScales: asinh((p - a) / b) = ln(x + sqrt(x^2 + 1)) of each value, toAsinhScale bit for bit', () => {
+    // a = 3, b = 1 / Phi^-1(3/4) (first test): p = a gives asinh 0 = 0; p = a +- b gives
+    // +-asinh(1) = +-ln(1 + sqrt 2) (the closed form of asinh; Abramowitz and Stegun 1964, 4.6.20).
+    const s = robustScale([1, 2, 3, 4, 100]);
+    const prices = [3, 3 + s.scale, 3 - s.scale, -250, 0, 17.25, 1e4];
+    const out = new Float64Array(prices.length);
+    toAsinhScales(prices, s, out);
+    expect(out[0]).toBe(0);
+    expect(out[1]).toBeCloseTo(Math.log(1 + Math.SQRT2), 14);
+    expect(out[2]).toBeCloseTo(-Math.log(1 + Math.SQRT2), 14);
+    prices.forEach((p, i) => {
+      const x = (p - s.median) / s.scale;
+      expect(out[i]).toBeCloseTo(Math.log(x + Math.sqrt(x * x + 1)), 10);
+      expect(Object.is(out[i], toAsinhScale(p, s))).toBe(true);
+    });
+    // Only out.length values are written.
+    const short = new Float64Array(2);
+    toAsinhScales(prices, s, short);
+    expect([...short]).toEqual([...out.subarray(0, 2)]);
   });
 });
 

@@ -20,9 +20,11 @@ import type { StandardisedGram } from './standardisedGram.js';
  * section 2.2.
  *
  * @param dropTolerance smallest accepted pivot 1 - R_j^2 [-], default 1e-10
+ * @param coefficients where the model's coefficients are written (at least gram.k long), for a caller
+ *   that fits many models and keeps none; default a fresh array
  */
-export function choleskyLeastSquares(gram: StandardisedGram, dropTolerance = 1e-10): LinearModel {
-  return fromStandardised(gram, choleskyCoefficients(gram, dropTolerance));
+export function choleskyLeastSquares(gram: StandardisedGram, dropTolerance = 1e-10, coefficients?: Float64Array): LinearModel {
+  return fromStandardised(gram, choleskyCoefficients(gram, dropTolerance), coefficients);
 }
 
 /**

@@ -16,10 +16,10 @@ export function predictLinear(model: LinearModel, row: ArrayLike<number>): numbe
 
 /**
  * Maps coefficients beta of the standardised columns z_j = (x_j - m_j) / s_j back to the original
- * scale: b_j = beta_j / s_j (0 for a constant column), intercept = ybar - sum_j b_j m_j.
+ * scale: b_j = beta_j / s_j (0 for a constant column), intercept = ybar - sum_j b_j m_j. The coefficients
+ * are written into `coefficients` (at least gram.k long; a fresh array unless given).
  */
-export function fromStandardised(gram: StandardisedGram, beta: ArrayLike<number>): LinearModel {
-  const coefficients = new Float64Array(gram.k);
+export function fromStandardised(gram: StandardisedGram, beta: ArrayLike<number>, coefficients: Float64Array = new Float64Array(gram.k)): LinearModel {
   return { intercept: originalScale(gram, beta, coefficients), coefficients };
 }
 

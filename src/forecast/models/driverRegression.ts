@@ -10,7 +10,7 @@ import type { GriddedDay, HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
-import { fromAsinhScale, selectInPlace, toAsinhScale, type RobustScale } from './robustAsinh.js';
+import { fromAsinhScale, selectInPlace, toAsinhScale, toAsinhScales, type RobustScale } from './robustAsinh.js';
 import { weekdayColumns } from './arx.js';
 
 /** Settings of the driver regression; see {@link driverForecast}. */
@@ -147,6 +147,8 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const lag7BySlot = bySlot(trainingDays.map((d) => d.regressors.lag7), S, scratchBuffers.get(3, S * n));
   const knots = new Float64Array(J);
   const fitted = new Float64Array(n);
+  // The longest window's fit of each slot, read only by its Huber step: one array for all slots.
+  const longestCoefficients = new Float64Array(k);
   // Per slot, the residual loads of the longest window's days in ascending order, kept from the last delivery day's.
   const sortedX = keptResidualLoads.of(trainingDays.map((d) => d.own.x));
   for (let s = 0; s < S; s++) {
@@ -183,7 +185,7 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
         a,
         (gram, w) => {
           for (const j of thin[w] as number[]) gram.scales[j] = 0;
-          longest = choleskyLeastSquares(gram);
+          longest = choleskyLeastSquares(gram, undefined, longestCoefficients);
         },
         { longestOnly: true },
       );
@@ -246,9 +248,25 @@ const scratchBuffers = new ScratchBuffers();
 /** Per-day arrays of S slot values, slot by slot into `out` (S n long): out[s n + r] = days[r][s]. */
 function bySlot(days: readonly Float64Array[], S: number, out: Float64Array): Float64Array {
   const n = days.length;
-  days.forEach((day, r) => {
+  let r = 0;
+  // Four days at a time: each slot's four values go to one stretch of `out`, not each to a cache line of its own.
+  for (; r + 4 <= n; r += 4) {
+    const d0 = days[r] as Float64Array;
+    const d1 = days[r + 1] as Float64Array;
+    const d2 = days[r + 2] as Float64Array;
+    const d3 = days[r + 3] as Float64Array;
+    for (let s = 0; s < S; s++) {
+      const at = s * n + r;
+      out[at] = d0[s] as number;
+      out[at + 1] = d1[s] as number;
+      out[at + 2] = d2[s] as number;
+      out[at + 3] = d3[s] as number;
+    }
+  }
+  for (; r < n; r++) {
+    const day = days[r] as Float64Array;
     for (let s = 0; s < S; s++) out[s * n + r] = day[s] as number;
-  });
+  }
   return out;
 }
 
@@ -271,6 +289,12 @@ interface DriverDay {
 
 /** What does not depend on the delivery day, kept per gridded past day: fences of its prices, residual load. */
 const dayInputs = new WeakMap<GriddedDay, { readonly low: number; readonly high: number; readonly x: Float64Array; readonly meanX: number; readonly columns: string }>();
+
+/**
+ * Blocks of the past days' arrays of DriverDays, reused by every forecast (one forecast at a time uses
+ * them, and nothing it returns points into them): some 1.4 MB a forecast, no longer allocated afresh.
+ */
+const dayBlocks: Float64Array[] = [];
 
 /** Per past day, the prices on the delivery day's scale and the residual load (computed once per delivery day). */
 class DriverDays {
@@ -305,10 +329,11 @@ class DriverDays {
       // The transformation is increasing, so clipping at the transformed fences equals transforming the clipped prices.
       const low = scale === null ? inputs.low : toAsinhScale(inputs.low, scale);
       const high = scale === null ? inputs.high : toAsinhScale(inputs.high, scale);
+      if (scale === null) z.set(prices);
+      else toAsinhScales(prices, scale, z);
       let sum = 0;
       for (let s = 0; s < S; s++) {
-        const v = scale === null ? (prices[s] as number) : toAsinhScale(prices[s] as number, scale);
-        z[s] = v;
+        const v = z[s] as number;
         const c = v < low ? low : v > high ? high : v;
         clipped[s] = c;
         sum += c;
@@ -319,14 +344,21 @@ class DriverDays {
     return day;
   }
 
-  /** Room for the days' arrays, taken a block at a time (fewer, larger allocations). */
-  private block = new Float64Array(0);
+  /** Room for the days' arrays: the blocks of dayBlocks from the first, taken in turn (the last forecast's reused). */
+  private blockIndex = -1;
+  private block: Float64Array = new Float64Array(0);
   private used = 0;
 
-  /** A fresh array of `length` zeros, a view of the current block. */
+  /** An array of `length` values to be written (what an earlier forecast left there), a view of the current block. */
   private take(length: number): Float64Array {
     if (this.used + length > this.block.length) {
-      this.block = new Float64Array(Math.max(length, 128 * length));
+      this.blockIndex++;
+      let block = dayBlocks[this.blockIndex];
+      if (block === undefined || block.length < length) {
+        block = new Float64Array(Math.max(length, 128 * length));
+        dayBlocks[this.blockIndex] = block;
+      }
+      this.block = block;
       this.used = 0;
     }
     const out = this.block.subarray(this.used, this.used + length);
@@ -376,7 +408,8 @@ const MAD_TO_SIGMA = 1.482602218505602;
  */
 export function huberClipLimit(residuals: Float64Array): number {
   const n = residuals.length;
-  const work = Float64Array.from(residuals);
+  const work = scratchBuffers.get(4, n);
+  work.set(residuals);
   const n2 = n >> 1;
   const med = selectInPlace(work, n2);
   for (let r = 0; r < n; r++) work[r] = Math.abs((residuals[r] as number) - med);
@@ -402,10 +435,22 @@ function pseudoObservations(
   const y = p * n;
   const bz = b[p] as number;
   const bx = b[p + 1] as number;
+  // Column by column: each row's fit adds the same terms in the same order as a row-by-row sum.
+  fitted.fill(model.intercept, 0, n);
+  let q = 0;
+  for (; q + 1 < p; q += 2) {
+    const b0 = b[q] as number;
+    const b1 = b[q + 1] as number;
+    const base = q * n;
+    for (let r = 0; r < n; r++) fitted[r] = (fitted[r] as number) + b0 * (columns[base + r] as number) + b1 * (columns[base + n + r] as number);
+  }
+  for (; q < p; q++) {
+    const bq = b[q] as number;
+    const base = q * n;
+    for (let r = 0; r < n; r++) fitted[r] = (fitted[r] as number) + bq * (columns[base + r] as number);
+  }
   for (let r = 0; r < n; r++) {
-    let f = model.intercept;
-    for (let q = 0; q < p; q++) f += (b[q] as number) * (columns[q * n + r] as number);
-    f += bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number);
+    let f = (fitted[r] as number) + (bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number));
     const weekday = day.weekdays[r] as number;
     if (weekday <= 6) f += b[p + 1 + weekday] as number;
     fitted[r] = (columns[y + r] as number) - f;

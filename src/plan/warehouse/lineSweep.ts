@@ -33,6 +33,14 @@ import type { StoredSchedule } from './storedSchedule.js';
  * width of energy, so an insert moves few of them, and the ends are read in O(1).
  */
 
+const CONCAVE = PERIOD_SHAPE.concave;
+const CONVEX = PERIOD_SHAPE.convex;
+const CHARGE_ONLY = PERIOD_SHAPE.chargeOnly;
+const DISCHARGE_ONLY = PERIOD_SHAPE.dischargeOnly;
+const DISCHARGE = SEGMENT_KIND.discharge;
+const CHARGE = SEGMENT_KIND.charge;
+const CHORD = SEGMENT_KIND.chord;
+
 /** Scratch arrays for days of up to `capacity` periods, reused from sweep to sweep. */
 export class SweepWorkspace {
   /** Per segment id: the part still open, and the part taken (what is neither was dropped). */
@@ -86,39 +94,26 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
     const pt = p[t]!;
     const qm = q[t]! - mu;
     // The period's one or two segments: (id1, slope1, length1) and, for a concave period, the
-    // charge segment (id1 + 1, -p_t, X) after its discharge segment.
+    // charge segment (id1 + 1, -p_t, X) after its discharge segment. Every shape's values are
+    // computed and one is picked: arithmetic that ran only for a shape met late (the first
+    // negative price of a run, the first branching node) would stop the optimised sweep there and
+    // have it compiled again, which costs more than the few operations saved.
     const base = 3 * t;
-    let id1: number;
-    let slope1: number;
-    let length1: number;
-    const both = shape === PERIOD_SHAPE.concave;
-    if (both) {
-      id1 = base + SEGMENT_KIND.discharge;
-      slope1 = -qm;
-      length1 = Y;
-      lo -= Y;
-      hi += X;
-    } else if (shape === PERIOD_SHAPE.convex) {
-      id1 = base + SEGMENT_KIND.chord;
-      slope1 = -(pt * X + qm * Y) / L;
-      length1 = L;
-      lo -= Y;
-      hi += X;
-    } else if (shape === PERIOD_SHAPE.chargeOnly) {
-      id1 = base + SEGMENT_KIND.charge;
-      slope1 = -pt;
-      length1 = X;
-      hi += X;
-    } else {
-      id1 = base + SEGMENT_KIND.discharge;
-      slope1 = -qm;
-      length1 = Y;
-      lo -= Y;
-    }
+    const both = shape === CONCAVE;
+    const convex = shape === CONVEX;
+    const chargeOnly = shape === CHARGE_ONLY;
+    const dischargeSlope = -qm;
+    const chargeSlope = -pt;
+    const chordSlope = -(pt * X + qm * Y) / L;
+    const id1 = base + (convex ? CHORD : chargeOnly ? CHARGE : DISCHARGE);
+    const slope1 = convex ? chordSlope : chargeOnly ? chargeSlope : dischargeSlope;
+    const length1 = convex ? L : chargeOnly ? X : Y;
+    if (!chargeOnly) lo -= Y;
+    if (shape !== DISCHARGE_ONLY) hi += X;
     for (let k = both ? 2 : 1; k > 0; k--) {
       const second = k === 1 && both;
-      const id = second ? base + SEGMENT_KIND.charge : id1;
-      const slope = second ? -pt : slope1;
+      const id = second ? base + CHARGE : id1;
+      const slope = second ? chargeSlope : slope1;
       const size = second ? X : length1;
       remaining[id] = size;
       taken[id] = 0;
@@ -214,42 +209,40 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
   live.tail = tail;
   const floor = day.socEndFloorMwh;
   if (hi < floor - eps) return 'end-unreachable';
-  if (lo < floor) takeSteepest(ws, floor - lo);
-  takeWhileProfitable(ws, -day.terminalValuePerMwh);
+  takeSteepest(ws, lo < floor ? floor - lo : 0, -day.terminalValuePerMwh);
   observer?.atEnd(ws);
   readSchedule(day, ws, out);
   return 'ok';
 }
 
-/** Takes `amount` MWh from the steepest open segments (they are forced into the solution). */
-function takeSteepest(ws: SweepWorkspace, amount: number): void {
+/**
+ * Takes `amount` MWh from the steepest open segments (they are forced into the solution), then every
+ * open segment steeper than `threshold` (= -V: keeping a MWh is worth V). One loop serves both, so
+ * that the optimised sweep has seen its steps before the first day whose segments are worth keeping.
+ */
+function takeSteepest(ws: SweepWorkspace, amount: number, threshold: number): void {
   const { live, remaining, taken } = ws;
-  const ids = live.ids;
+  const { ids, slopes } = live;
+  const head = live.head;
+  let tail = live.tail;
   let left = amount;
-  while (left > 0 && live.tail > live.head) {
-    const id = ids[live.tail - 1]!;
+  while (tail > head) {
+    const id = ids[tail - 1]!;
     const rest = remaining[id]!;
-    if (rest > left) {
+    const forced = left > 0;
+    if (forced && rest > left) {
       taken[id] = taken[id]! + left;
       remaining[id] = rest - left;
-      return;
+      left = 0;
+      continue;
     }
+    if (!forced && !(slopes[tail - 1]! > threshold)) break;
     left -= rest;
     taken[id] = taken[id]! + rest;
     remaining[id] = 0;
-    live.tail--;
+    tail--;
   }
-}
-
-/** Takes every open segment steeper than `threshold` (= -V: keeping a MWh is worth V). */
-function takeWhileProfitable(ws: SweepWorkspace, threshold: number): void {
-  const { live, remaining, taken } = ws;
-  while (live.tail > live.head && live.slopes[live.tail - 1]! > threshold) {
-    const id = live.ids[live.tail - 1]!;
-    taken[id] = taken[id]! + remaining[id]!;
-    remaining[id] = 0;
-    live.tail--;
-  }
+  live.tail = tail;
 }
 
 /** The schedule read off the taken parts of each period's segments (see the notes above). */
@@ -266,20 +259,21 @@ function readSchedule(day: StoredDay, ws: SweepWorkspace, out: StoredSchedule): 
   for (let t = 0; t < day.periods; t++) {
     const base = 3 * t;
     const shape = shapes[t]!;
-    let x = 0;
-    let y = 0;
-    if (shape === PERIOD_SHAPE.concave) {
-      x = taken[base + SEGMENT_KIND.charge]!;
-      y = Y - taken[base + SEGMENT_KIND.discharge]!;
-    } else if (shape === PERIOD_SHAPE.convex) {
-      const tau = taken[base + SEGMENT_KIND.chord]!;
-      x = tau >= L ? X : (X * tau) / L;
-      y = tau <= 0 ? Y : tau >= L ? 0 : (Y * (L - tau)) / L;
-    } else if (shape === PERIOD_SHAPE.chargeOnly) {
-      x = taken[base + SEGMENT_KIND.charge]!;
-    } else {
-      y = Y - taken[base + SEGMENT_KIND.discharge]!;
-    }
+    // As in sweepLine: every shape's reading is computed (a segment id a period did not use holds a
+    // stale, finite part) and the period's own is picked.
+    const charged = taken[base + CHARGE]!;
+    const kept = Y - taken[base + DISCHARGE]!;
+    const tau = taken[base + CHORD]!;
+    const mixX = (X * tau) / L;
+    const mixY = (Y * (L - tau)) / L;
+    const whole = tau >= L;
+    const none = tau <= 0;
+    const chordX = whole ? X : mixX;
+    const chordY = none ? Y : whole ? 0 : mixY;
+    const convex = shape === CONVEX;
+    const chargeOnly = shape === CHARGE_ONLY;
+    const x = convex ? chordX : shape === DISCHARGE_ONLY ? 0 : charged;
+    const y = convex ? chordY : chargeOnly ? 0 : kept;
     out.x[t] = x;
     out.y[t] = y;
     value += q[t]! * y - p[t]! * x;

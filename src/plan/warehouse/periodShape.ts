@@ -19,10 +19,16 @@ export const PERIOD_SHAPE = { chargeOnly: PERIOD_MODE.chargeOnly, dischargeOnly:
 
 export type PeriodShape = (typeof PERIOD_SHAPE)[keyof typeof PERIOD_SHAPE];
 
+const CONVEX = PERIOD_SHAPE.convex;
+const CONCAVE = PERIOD_SHAPE.concave;
+
 /** The shape of period t at multiplier mu under `mode` (a PERIOD_MODE value). */
 export function periodShape(day: StoredDay, t: number, mu: number, mode: number): PeriodShape {
   if (mode !== PERIOD_MODE.free) return mode as PeriodShape;
-  return day.arbitrage[t] === 1 && day.dischargePrice[t]! - mu > day.chargePrice[t]! ? PERIOD_SHAPE.convex : PERIOD_SHAPE.concave;
+  // The prices are compared in every period, not only in arbitrage periods: a comparison first met
+  // at the first negative price of a run would stop the optimised callers there (lineSweep.ts).
+  const gains = day.dischargePrice[t]! - mu > day.chargePrice[t]!;
+  return day.arbitrage[t] === 1 && gains ? CONVEX : CONCAVE;
 }
 
 /** The loaded day at a multiplier mu on discharged energy with per-period modes: what one run of a stage solves. */
