@@ -113,7 +113,7 @@ export interface ForecastOptions {
   readonly autoCandidates: readonly AutoCandidate[];
   /** Validation days of `auto`: the most recent days before the delivery day it scores the candidates on [days], >= 1. */
   readonly autoValidationDays: number;
-  /** How `driver-fhs` pools the standardised errors: per clock slot, or over all slots. */
+  /** How `driver-fhs` pools the standardised errors: per clock slot, over all slots, or over all slots weighted by the point forecast's level. */
   readonly spreadPool: SpreadPool;
   /** Lag of the seasonal naive model of `naive-hs` [days], >= 1 (7: same weekday last week). */
   readonly naiveLagDays: number;
@@ -166,7 +166,7 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   driverWindowsDays: Object.freeze([182, 364, 728]),
   driverKnots: 3,
   driverScale: 'asinh',
-  spreadPool: 'slot',
+  spreadPool: 'level',
   autoCandidates: AUTO_CANDIDATES,
   autoValidationDays: AUTO_VALIDATION_DAYS,
   naiveLagDays: 7,
@@ -601,7 +601,7 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.driverWindowsDays.length === 0) throw new ArgumentError('options.driverWindowsDays', 'at least one window length', o.driverWindowsDays);
   o.driverWindowsDays.forEach((w, i) => positiveInteger(`driverWindowsDays[${i}]`, w, o.minTrainingDays));
   if (o.driverScale !== 'asinh' && o.driverScale !== 'price') throw new ArgumentError('options.driverScale', "'asinh' or 'price'", o.driverScale);
-  if (o.spreadPool !== 'slot' && o.spreadPool !== 'all') throw new ArgumentError('options.spreadPool', "'slot' or 'all'", o.spreadPool);
+  if (o.spreadPool !== 'slot' && o.spreadPool !== 'all' && o.spreadPool !== 'level') throw new ArgumentError('options.spreadPool', "'slot', 'all' or 'level'", o.spreadPool);
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;

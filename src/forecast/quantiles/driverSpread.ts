@@ -5,6 +5,7 @@ import { ScratchBuffers } from '../scratchBuffers.js';
 import { selectInPlace } from '../models/robustAsinh.js';
 import type { PoolOrder } from './poolOrder.js';
 import { sortedQuantile } from './sortedQuantile.js';
+import { kernelConditionalQuantiles } from './kernelConditionalQuantiles.js';
 
 /** Calibration data of {@link driverSpreadQuantiles}: per calibration day, its errors and spread features. */
 export interface SpreadCalibration {
@@ -14,8 +15,24 @@ export interface SpreadCalibration {
   readonly features: readonly Float64Array[];
 }
 
-/** How the standardised errors are pooled: per clock slot over the calibration days, or over every slot. */
-export type SpreadPool = 'slot' | 'all';
+/**
+ * How the standardised errors are pooled: per clock slot over the calibration days ('slot'), over every
+ * slot ('all'), or over every slot weighted by how near each error's point forecast was to the
+ * delivery period's ('level'; see {@link LEVEL_POOL}).
+ */
+export type SpreadPool = 'slot' | 'all' | 'level';
+
+/**
+ * The kernel of the 'level' pool: the bandwidth in standard deviations of the calibration days' point
+ * forecasts (on the model's scale), and the fewest effective errors before it is widened
+ * (kernelConditionalQuantiles.ts), and the grid the quantiles are computed on, in bandwidths: at the
+ * states 0, +-gridStep h, +-2 gridStep h, ... and linearly interpolated between the two around each
+ * delivery period's (a day's periods share a handful of grid states; one pass over every error per
+ * grid state instead of per period). 500 effective errors put 25 beyond each 5% level; the bandwidth was
+ * chosen among 0.25, 0.5 and 1 on two settings of the known-distribution bench and then checked on all
+ * six settings of two draws (docs/forecast-quality.md, the fifth wave).
+ */
+export const LEVEL_POOL = Object.freeze({ bandwidthSd: 0.5, minEffective: 500, gridStep: 0.25 });
 
 /**
  * The spread features of one day, S x m row-major: the time of day as two harmonics
@@ -112,7 +129,12 @@ function timeOfDayHarmonics(S: number): Float64Array {
  * with f the spread features (time of day, drivers, the point forecast's level and, on an asinh scale, its
  * log cosh) and Q_tau the sample
  * quantile (Hyndman and Fan's definition 7) of the standardised errors of the same slot ('slot') or of
- * every slot ('all'). The regression of log |e| is Harvey's (1976) estimator of a multiplicative
+ * every slot ('all'). With 'level', Q_tau is the kernel conditional quantile of every slot's standardised
+ * errors given the point forecast's level (kernelConditionalQuantiles.ts): an error counts the more, the
+ * nearer its own point forecast was to centre(s). The spread model moves the errors' scale with the
+ * drivers, but one pool gives every state the same shape; where the skew or the spike mass changes with
+ * the price level (a convex merit order, down-spikes at low prices), the level-weighted pool lets the
+ * shape and the median's offset follow it. The regression of log |e| is Harvey's (1976) estimator of a multiplicative
  * heteroscedasticity sigma^2 = exp(2 g' f): E log |e| = log sigma + E log |u|, so its intercept also
  * absorbs the constant E log |u|, which scales u and sigma in opposite ways and cancels in q. Scaling
  * past errors by their own spread before historical simulation is the filtered historical simulation
@@ -177,6 +199,7 @@ export function driverSpreadQuantiles(
     for (let s = 0; s < S; s++) standardised[d * S + s] = (e[s] as number) / Math.exp(fitted[d * S + s] as number);
   }
   const spread = Float64Array.from({ length: S }, (_, s) => Math.exp(Math.min(high, Math.max(low, predictRow(model, targetFeatures, s * m, m)))));
+  if (pool === 'level') return levelPoolGrid(centre, spread, standardised.subarray(0, n), design, m, levels);
   const quantilesOf = (sorted: Float64Array): number[] => levels.map((tau) => sortedQuantile(sorted, tau));
   const pooled = pool === 'all' ? quantilesOf(Float64Array.from(standardised).sort()) : null;
   const slotSample = new Float64Array(days);
@@ -198,6 +221,65 @@ export function driverSpreadQuantiles(
 }
 
 const scratchBuffers = new ScratchBuffers();
+
+/**
+ * The grid of the 'level' pool: every standardised error in ascending order (ties by row), with its
+ * point forecast (the design's centre column, m - 2) in standard deviations of those forecasts; per slot,
+ * the kernel conditional quantiles at the slot's own centre (interpolated on the grid of LEVEL_POOL),
+ * scaled by its spread. A convex combination of two non-decreasing rows does not decrease.
+ */
+function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standardised: Float64Array, design: Float64Array, m: number, levels: readonly number[]): number[][] {
+  const n = standardised.length;
+  let sum = 0;
+  let squares = 0;
+  for (let i = 0; i < n; i++) {
+    const x = design[i * m + m - 2] as number;
+    sum += x;
+    squares += x * x;
+  }
+  const mean = sum / n;
+  const sd = Math.sqrt(Math.max(squares / n - mean * mean, 0));
+  const perSd = sd > 0 ? 1 / sd : 1;
+  // Each row's place in ascending order, ties by row: the first free place at or after the first equal value of
+  // the natively sorted copy (the same order as sorting the rows by value, then by row, and faster).
+  const sorted = Float64Array.from(standardised).sort();
+  const states = new Float64Array(n);
+  const taken = new Uint8Array(n);
+  for (let row = 0; row < n; row++) {
+    const u = standardised[row] as number;
+    let low = 0;
+    let high = n;
+    while (low < high) {
+      const mid = (low + high) >>> 1;
+      if ((sorted[mid] as number) < u) low = mid + 1;
+      else high = mid;
+    }
+    while (taken[low] === 1) low++;
+    taken[low] = 1;
+    sorted[low] = u;
+    states[low] = (design[row * m + m - 2] as number) * perSd;
+  }
+  const weights = new Float64Array(n);
+  // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between.
+  const step = LEVEL_POOL.bandwidthSd * LEVEL_POOL.gridStep;
+  const atGrid = new Map<number, number[]>();
+  const gridQuantiles = (g: number): number[] => {
+    let q = atGrid.get(g);
+    if (q === undefined) {
+      q = kernelConditionalQuantiles({ sorted, states }, g * step, levels, LEVEL_POOL.bandwidthSd, LEVEL_POOL.minEffective, weights);
+      atGrid.set(g, q);
+    }
+    return q;
+  };
+  return Array.from({ length: centre.length }, (_, s) => {
+    const t = ((centre[s] as number) * perSd) / step;
+    const g = Math.floor(t);
+    const lambda = t - g;
+    const below = gridQuantiles(g);
+    const above = lambda > 0 ? gridQuantiles(g + 1) : below;
+    return below.map((v, k) => (centre[s] as number) + (spread[s] as number) * ((1 - lambda) * v + lambda * (above[k] as number)));
+  });
+}
 
 /** predictLinear(model, data[at .. at + m - 1]), the same sum in the same order, without a view of the row. */
 function predictRow(model: LinearModel, data: Float64Array, at: number, m: number): number {

@@ -1,0 +1,103 @@
+/**
+ * Quantiles of a sample conditional on a scalar state, by kernel weights: the value u_i observed in the
+ * state x_i gets the weight w_i = K((x_i - x) / h) for the target state x, with the Epanechnikov kernel
+ * K(r) = max(0, 1 - r^2), and the tau-quantile is read from the weighted empirical distribution. That is
+ * the inverse of the Nadaraya-Watson estimate of the conditional distribution function,
+ *   F(y | x) = sum_i w_i 1{u_i <= y} / sum_i w_i
+ * (Hall, Wolff and Yao 1999, their local-constant estimator), whose quantiles are the kernel conditional
+ * quantiles of Bhattacharya and Gangopadhyay (1990).
+ *
+ * The weighted quantile is Hyndman and Fan's definition 7 carried over to weights: with the values of
+ * positive weight in ascending order v_0 <= ... <= v_(n-1), their weights w_j and the cumulative sums
+ * C_j = w_0 + ... + w_j, the value v_j sits at the level p_j = (C_j - w_j) / (C_(n-1) - w_(n-1)), and
+ * the quantile is interpolated linearly between the two levels around tau. With equal weights p_j =
+ * j / (n - 1), which is definition 7 itself (sortedQuantile.ts): a bandwidth wider than every distance
+ * gives back the pooled sample quantiles.
+ *
+ * When the weights' effective sample size, (sum w)^2 / sum w^2 (Kish 1965), is below `minEffective`
+ * (or below the sample's size, if that is smaller), the bandwidth is doubled until it is not: a state
+ * seldom seen borrows from farther states instead of resting on a handful of values.
+ *
+ * References: P. Hall, R. C. L. Wolff and Q. Yao (1999), Methods for estimating a conditional
+ * distribution function, J. Am. Stat. Assoc. 94(445), 154-163, doi:10.1080/01621459.1999.10473832;
+ * P. K. Bhattacharya and A. K. Gangopadhyay (1990), Kernel and nearest-neighbor estimation of a
+ * conditional quantile, Ann. Stat. 18(3), 1400-1415, doi:10.1214/aos/1176347757; V. A. Epanechnikov
+ * (1969), Non-parametric estimation of a multivariate probability density, Theory Probab. Appl. 14(1),
+ * 153-158; L. Kish (1965), Survey Sampling, Wiley, New York (the effective sample size); R. J. Hyndman
+ * and Y. Fan (1996), Sample quantiles in statistical packages, Am. Stat. 50(4), 361-365.
+ *
+ * @example
+ * // far-apart states, a narrow bandwidth: the quantiles of the values observed near the target state
+ * kernelConditionalQuantiles({ sorted: [1, 2, 3, 10], states: [0, 0, 5, 0] }, 5, [0.5], 1, 1, new Float64Array(4)); // [3]
+ *
+ * @param sample values in ascending order, with the state each was observed in
+ * @param target the target state, on the scale of the states
+ * @param levels levels in [0, 1], ascending
+ * @param bandwidth h > 0, on the scale of the states
+ * @param minEffective the fewest effective values (>= 1) before the bandwidth is widened
+ * @param weights scratch space of at least sample.sorted.length values (overwritten: the weights of the values
+ *   of positive weight, in order)
+ * @returns one quantile per level, non-decreasing
+ */
+export function kernelConditionalQuantiles(
+  sample: { readonly sorted: ArrayLike<number>; readonly states: ArrayLike<number> },
+  target: number,
+  levels: readonly number[],
+  bandwidth: number,
+  minEffective: number,
+  weights: Float64Array,
+): number[] {
+  const n = sample.sorted.length;
+  const enough = Math.min(minEffective, n);
+  if (positions.length < n) positions = new Int32Array(n);
+  // The values of positive weight, in ascending order: their positions in the sample and (in `weights`) their weights.
+  let count = 0;
+  let h = bandwidth;
+  let total = 0;
+  for (;;) {
+    const inverse = 1 / (h * h);
+    let squares = 0;
+    total = 0;
+    count = 0;
+    for (let i = 0; i < n; i++) {
+      const d = (sample.states[i] as number) - target;
+      const w = 1 - d * d * inverse;
+      if (w > 0) {
+        weights[count] = w;
+        positions[count++] = i;
+        total += w;
+        squares += w * w;
+      }
+    }
+    // A bandwidth of 2^40 times the first reaches every finite state: stop there whatever the count.
+    if ((total > 0 && (total * total) / squares >= enough) || h > bandwidth * 2 ** 40) break;
+    h *= 2;
+  }
+  const lastValue = sample.sorted[positions[count - 1] as number] as number;
+  const span = total - (weights[count - 1] as number);
+  const out = new Array<number>(levels.length);
+  // One value of positive weight: every quantile is that value.
+  if (span <= 0) return out.fill(lastValue);
+  let k = 0;
+  let before = 0;
+  let previousLevel = 0;
+  let previousValue = NaN;
+  for (let j = 0; j < count && k < levels.length; j++) {
+    const level = before / span;
+    const value = sample.sorted[positions[j] as number] as number;
+    while (k < levels.length && (levels[k] as number) <= level) {
+      const tau = levels[k] as number;
+      // At or below the first level (0) the first value; else linear between the two levels around tau,
+      // kept at most `value` (p + 1 (v - p) can round past v).
+      out[k++] = Number.isNaN(previousValue) ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
+    }
+    previousLevel = level;
+    previousValue = value;
+    before += weights[j] as number;
+  }
+  while (k < levels.length) out[k++] = lastValue;
+  return out;
+}
+
+/** Scratch space: positions of the values of positive weight (grown as needed, reused from call to call). */
+let positions = new Int32Array(0);
