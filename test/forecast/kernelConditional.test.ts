@@ -156,4 +156,18 @@ describe("driver spread quantiles with the 'level' pool", () => {
     const all = driverSpreadQuantiles(target, targetFeatures, few, LEVELS, 'all');
     level.forEach((row, s) => row.forEach((v, k) => expect(v).toBeCloseTo(all[s]![k]!, 6)));
   });
+
+  it('places many equal errors without searching (400 days x 96 slots of one error): every quantile is the centre plus that error', () => {
+    // Closed form: every |e| = 0.5, so the log-spread regression fits its intercept log 0.5 exactly, every
+    // standardised error is 1 and every quantile at every level is centre + 0.5.
+    const days = 400;
+    const slots96 = (f: (s: number) => number) => Float64Array.from({ length: 96 }, (_, s) => f(s));
+    const tied = {
+      errors: Array.from({ length: days }, () => slots96(() => 0.5)),
+      features: Array.from({ length: days }, (_, d) => spreadFeatures([slots96((s) => exog(d, s))], slots96((s) => centre(d, s)), false)),
+    };
+    const centre96 = slots96((s) => Math.sin(0.1 * s));
+    const got = driverSpreadQuantiles(centre96, spreadFeatures([slots96((s) => 26 + (s % 7))], centre96, false), tied, LEVELS, 'level');
+    got.forEach((row, s) => row.forEach((v) => expect(v).toBeCloseTo((centre96[s] as number) + 0.5, 9)));
+  });
 });

@@ -241,10 +241,11 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
   const sd = Math.sqrt(Math.max(squares / n - mean * mean, 0));
   const perSd = sd > 0 ? 1 / sd : 1;
   // Each row's place in ascending order, ties by row: the first free place at or after the first equal value of
-  // the natively sorted copy (the same order as sorting the rows by value, then by row, and faster).
+  // the natively sorted copy (the same order as sorting the rows by value, then by row, and faster). Equal
+  // values share their first place, so the places taken there are counted, not searched (many ties stay linear).
   const sorted = Float64Array.from(standardised).sort();
   const states = new Float64Array(n);
-  const taken = new Uint8Array(n);
+  const placed = new Int32Array(n);
   for (let row = 0; row < n; row++) {
     const u = standardised[row] as number;
     let low = 0;
@@ -254,10 +255,10 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
       if ((sorted[mid] as number) < u) low = mid + 1;
       else high = mid;
     }
-    while (taken[low] === 1) low++;
-    taken[low] = 1;
-    sorted[low] = u;
-    states[low] = (design[row * m + m - 2] as number) * perSd;
+    const at = low + (placed[low] as number);
+    placed[low] = (placed[low] as number) + 1;
+    sorted[at] = u;
+    states[at] = (design[row * m + m - 2] as number) * perSd;
   }
   const weights = new Float64Array(n);
   // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between.
