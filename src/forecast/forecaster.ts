@@ -368,6 +368,7 @@ export class Forecaster {
           at,
           warmStarts,
           this.options.stopwatch,
+          at === levels ? notes : undefined,
         );
       let grid: number[][];
       if (method === 'qra') {

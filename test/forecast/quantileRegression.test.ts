@@ -5,6 +5,7 @@ import type { Matrix } from '../../src/forecast/linalg/matrix.js';
 import { quantileRegression } from '../../src/forecast/linalg/quantileRegression.js';
 import { SolverError } from '../../src/forecast/linalg/errors.js';
 import { readFixtureCsv } from './fixtures.js';
+import { highsQuantileRegression } from './highsQuantileRegression.js';
 import { seededRandom } from './seededRandom.js';
 
 function rel(a: number, b: number): number {
@@ -235,4 +236,37 @@ describe('quantileRegression: optimality', () => {
     ]);
     expect(() => quantileRegression(x, [1, 2, 3], 0.5)).toThrow(SolverError);
   });
+});
+
+describe('quantileRegression: columns of very different scales', () => {
+  // A full-rank design [1, x] whose x is ordinary on every row but one, where it is -1.9e14 (a point
+  // forecast whose back-transform overflowed on one spike day). Every basis through that row used to
+  // be judged singular (the pivot test was relative to the largest entry of the whole basis), so the
+  // simplex stopped with SolverError('singular-design') on a valid problem.
+  const z = seededRandom(2027);
+  const n = 30;
+  const outlier = 17;
+  const rows = Array.from({ length: n }, () => {
+    const level = 80 + 36 * (z() - 0.5);
+    return [1, level + 8 * (z() - 0.5), level + 5 * (z() - 0.5)];
+  });
+  rows[outlier]![1] = -1.9e14;
+  const x = matrixFromRows(rows.map((r) => [r[0]!, r[1]!]));
+  const y = rows.map((r) => r[2]!);
+  const others = y.filter((_, i) => i !== outlier).sort((a, b) => a - b);
+
+  for (const tau of [0.1, 0.5, 0.9]) {
+    it(`tau ${tau}: the optimum of the LP solved by HiGHS, and the sample quantile of the other rows`, async () => {
+      const fit = quantileRegression(x, y, tau);
+      const reference = await highsQuantileRegression(rows.map((r) => [r[0]!, r[1]!]), y, tau);
+      expect(rel(fit.objective, reference.objective)).toBeLessThan(1e-9);
+      expect(rel(fit.coefficients[0]!, reference.coefficients[0]!)).toBeLessThan(1e-9);
+      // Closed form: the huge row is fitted exactly by a slope of order 1e-13, which moves the other
+      // rows by less than 1e-10, so the intercept is the tau-quantile of the other 29 responses, the
+      // order statistic y_(ceil(29 tau)) as 29 tau is not an integer (Koenker and Bassett 1978,
+      // section 2: the intercept-only regression quantile is the sample quantile).
+      expect(fit.coefficients[0]).toBeCloseTo(others[Math.ceil(29 * tau) - 1]!, 8);
+      expect(Math.abs(fit.coefficients[1]!)).toBeLessThan(1e-11);
+    });
+  }
 });

@@ -6,6 +6,7 @@ import { historicalSimulation } from '../../src/forecast/quantiles/historicalSim
 import { QraWarmStarts, quantileRegressionAveraging } from '../../src/forecast/quantiles/quantileRegressionAveraging.js';
 import { rearrangeDay } from '../../src/forecast/quantiles/rearrangeDay.js';
 import { conformalHalfWidth, conformalQuantiles, conformalRank } from '../../src/forecast/quantiles/splitConformal.js';
+import { highsQuantileRegression } from './highsQuantileRegression.js';
 import { seededNormal, seededRandom } from './seededRandom.js';
 
 describe('split conformal', () => {
@@ -112,5 +113,66 @@ describe('quantile regression averaging', () => {
     const warm = new QraWarmStarts();
     quantileRegressionAveraging(target, { ...calibration, members: members.slice(1), realised: realised.slice(1), dayIds: calibration.dayIds.slice(1) }, levels, warm);
     expect(quantileRegressionAveraging(target, calibration, levels, warm)).toEqual(plain);
+  });
+  /** The QRA quantile of one slot from the HiGHS solution of the quantile-regression LP on `rows`. */
+  const highsQuantile = async (rows: number[][], y: number[], tau: number, features: number[]): Promise<number> => {
+    const { coefficients } = await highsQuantileRegression(rows, y, tau);
+    return coefficients.reduce((sum, b, j) => sum + b * features[j]!, 0);
+  };
+
+  it('keeps the intercept when one day\'s forecast is huge (an overflowed back-transform): the LP optimum by HiGHS', async () => {
+    // Two slots, three members; on day 17 member 1 is -1.9e14 and member 2 -4e5 in slot 0 (a spike
+    // day whose asinh-scale forecast was mapped back through sinh). The rank test used to judge the
+    // intercept dependent on that column (its tolerance grew with the largest column) and left it out.
+    const w = seededNormal(41);
+    const n = 40;
+    const truthDays = Array.from({ length: n }, () => [80 + 12 * w(), 60 + 9 * w()]);
+    const huge = truthDays.map((t) => [t.map((v) => v + 8 * w()), t.map((v) => v + 6 * w()), t.map((v) => v + 4 * w())]);
+    const realisedHuge = truthDays.map((t) => t.map((v) => v + 5 * w()));
+    huge[17]![0]![0] = -1.9e14;
+    huge[17]![1]![0] = -4.0e5;
+    const targetHuge = [
+      [92, 61],
+      [87, 63],
+      [83, 58],
+    ];
+    const notes: string[] = [];
+    const q = quantileRegressionAveraging(targetHuge, { members: huge, realised: realisedHuge, dayIds: Int32Array.from({ length: n }, (_, d) => d) }, levels, undefined, undefined, notes);
+    expect(notes).toEqual([]);
+    for (let s = 0; s < 2; s++) {
+      const rows = huge.map((m) => [1, m[0]![s]!, m[1]![s]!, m[2]![s]!]);
+      const y = realisedHuge.map((r) => r[s]!);
+      for (const [k, tau] of levels.entries()) {
+        const reference = await highsQuantile(rows, y, tau, [1, ...targetHuge.map((t) => t[s]!)]);
+        expect(Math.abs(q[s]![k]! - reference)).toBeLessThan(1e-7 * Math.abs(reference));
+      }
+    }
+  });
+
+  it('falls back to fewer forecasts, with a note, when two members agree to 1e-11 (numerically singular)', async () => {
+    // Member 2 = member 1 (1 + 1e-11 z): independent by the rank test, but the simplex meets a
+    // singular basis. It used to stop with SolverError('singular-design'); now the most nearly
+    // dependent column is left out and the slot refitted on the rest.
+    const w = seededNormal(1);
+    const n = 60;
+    const near: number[][][] = [];
+    const realisedNear: number[][] = [];
+    for (let d = 0; d < n; d++) {
+      const t = 80 + 12 * w();
+      const a = t + 8 * w();
+      near.push([[a], [a * (1 + 1e-11 * w())], [t + 4 * w()]]);
+      realisedNear.push([t + 5 * w()]);
+    }
+    const notes: string[] = [];
+    const q = quantileRegressionAveraging([[92], [92], [83]], { members: near, realised: realisedNear, dayIds: Int32Array.from({ length: n }, (_, d) => d) }, levels, undefined, undefined, notes);
+    expect(notes).toHaveLength(1);
+    expect(notes[0]).toMatch(/slot 1: point forecast [12] left out/);
+    // The reference keeps member 1 and member 3; leaving out member 1 instead changes the fit by ~1e-9.
+    const rows = near.map((m) => [1, m[0]![0]!, m[2]![0]!]);
+    const y = realisedNear.map((r) => r[0]!);
+    for (const [k, tau] of levels.entries()) {
+      const reference = await highsQuantile(rows, y, tau, [1, 92, 83]);
+      expect(Math.abs(q[0]![k]! - reference)).toBeLessThan(1e-7 * Math.abs(reference));
+    }
   });
 });

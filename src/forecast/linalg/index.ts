@@ -3,7 +3,7 @@ export { choleskyLeastSquares } from './choleskyLeastSquares.js';
 export { SolverError } from './errors.js';
 export { LASSO_DEFAULTS, lassoAt, lassoBic } from './lasso.js';
 export type { LassoFit, LassoOptions, LassoPathPoint } from './lasso.js';
-export { independentColumns, leastSquaresQr } from './leastSquaresQr.js';
+export { independentColumns, leastSquaresQr, pivotedColumns } from './leastSquaresQr.js';
 export type { LeastSquaresFit, LeastSquaresOptions } from './leastSquaresQr.js';
 export { fromStandardised, predictLinear } from './linearModel.js';
 export type { LinearModel } from './linearModel.js';

@@ -63,8 +63,18 @@ export function leastSquaresQr(x: Matrix, y: ArrayLike<number>, options: LeastSq
  * of the column-pivoted Householder QR above (the same rank rule as {@link leastSquaresQr}).
  */
 export function independentColumns(x: Matrix, rankTolerance = 1e-12): number[] {
+  return pivotedColumns(x, rankTolerance).sort((p, q) => p - q);
+}
+
+/**
+ * The same `rank` columns as {@link independentColumns}, in the order the column-pivoted QR chose
+ * them: each is the one farthest from the span of those before it, so the last is the most nearly
+ * dependent on the rest (the one a rank-revealing QR gives up first; Golub and Van Loan 2013, Matrix
+ * Computations, 4th ed., section 5.4.2).
+ */
+export function pivotedColumns(x: Matrix, rankTolerance = 1e-12): number[] {
   const qr = householderQr(x, rankTolerance);
-  return [...qr.perm.subarray(0, qr.rank)].sort((p, q) => p - q);
+  return [...qr.perm.subarray(0, qr.rank)];
 }
 
 /** Householder factors of X P: R (upper triangle, k x k), reflectors below the diagonal, pivots. */

@@ -137,6 +137,8 @@ export class QuantileRegressionProblem {
   private readonly scratch: Float64Array;
   private readonly direction: Float64Array;
   private readonly projection: Float64Array;
+  /** Largest |entry| of each column of X_h, for the singularity test. */
+  private readonly columnScale: Float64Array;
   private readonly candidate: Int32Array;
   /** The edge chosen by descentEdge: basis position, direction sign and slope. */
   private edgeColumn = 0;
@@ -175,6 +177,7 @@ export class QuantileRegressionProblem {
     this.scratch = new Float64Array(2 * k * k);
     this.direction = new Float64Array(k);
     this.projection = new Float64Array(k);
+    this.columnScale = new Float64Array(k);
     this.candidate = new Int32Array(k);
   }
 
@@ -233,18 +236,26 @@ export class QuantileRegressionProblem {
     return true;
   }
 
-  /** inverse <- X_h^{-1} by Gauss-Jordan elimination with partial pivoting; false when singular. */
+  /**
+   * inverse <- X_h^{-1} by Gauss-Jordan elimination with partial pivoting; false when singular. The
+   * singularity test compares each pivot with the largest entry of its own column of X_h, i.e. it is
+   * the test |pivot| > 1e-13 of X_h D with D the column equilibration (Golub and Van Loan 2013, Matrix
+   * Computations, 4th ed., section 3.5.2): the answer does not depend on the columns' units, so a
+   * column far larger than the others (one huge regressor value) no longer makes every basis through
+   * that row look singular. Pivot choices and the inverse are the same as without it.
+   */
   private invertBasis(rows: Int32Array): boolean {
     const { k, data } = this;
     const m = this.scratch.subarray(0, k * k);
     const inv = this.scratch.subarray(k * k, 2 * k * k);
-    let scale = 0;
+    const columnScale = this.columnScale;
+    columnScale.fill(0);
     for (let j = 0; j < k; j++) {
       const base = (rows[j] as number) * k;
       for (let c = 0; c < k; c++) {
         const value = data[base + c] as number;
         m[j * k + c] = value;
-        scale = Math.max(scale, Math.abs(value));
+        columnScale[c] = Math.max(columnScale[c] as number, Math.abs(value));
       }
     }
     inv.fill(0);
@@ -253,7 +264,7 @@ export class QuantileRegressionProblem {
       let p = c;
       for (let i = c + 1; i < k; i++) if (Math.abs(m[i * k + c] as number) > Math.abs(m[p * k + c] as number)) p = i;
       const pivot = m[p * k + c] as number;
-      if (!(Math.abs(pivot) > 1e-13 * scale)) return false;
+      if (!(Math.abs(pivot) > 1e-13 * (columnScale[c] as number))) return false;
       if (p !== c) {
         swapRows(m, k, p, c);
         swapRows(inv, k, p, c);
