@@ -5,7 +5,7 @@ import { ScratchBuffers } from '../scratchBuffers.js';
 import { selectInPlace } from '../models/robustAsinh.js';
 import type { PoolOrder } from './poolOrder.js';
 import { sortedQuantile } from './sortedQuantile.js';
-import { kernelConditionalQuantiles } from './kernelConditionalQuantiles.js';
+import { kernelConditionalQuantiles, StateCells } from './kernelConditionalQuantiles.js';
 import { AscendingRows } from './ascendingRows.js';
 
 /** Calibration data of {@link driverSpreadQuantiles}: per calibration day, its errors and spread features. */
@@ -223,6 +223,7 @@ export function driverSpreadQuantiles(
 
 const scratchBuffers = new ScratchBuffers();
 const ascendingRows = new AscendingRows();
+const stateCells = new StateCells();
 
 /**
  * The grid of the 'level' pool: every standardised error in ascending order (ties by row), with its
@@ -252,13 +253,15 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
     states[j] = (design[row * m + m - 2] as number) * perSd;
   }
   const weights = scratchBuffers.get(6, n);
+  // The positions grouped by their states, for the kernel to visit only those within its reach.
+  const byState = stateCells.build(states, LEVEL_POOL.bandwidthSd * LEVEL_POOL.gridStep);
   // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between.
   const step = LEVEL_POOL.bandwidthSd * LEVEL_POOL.gridStep;
   const atGrid = new Map<number, number[]>();
   const gridQuantiles = (g: number): number[] => {
     let q = atGrid.get(g);
     if (q === undefined) {
-      q = kernelConditionalQuantiles({ sorted, states }, g * step, levels, LEVEL_POOL.bandwidthSd, LEVEL_POOL.minEffective, weights);
+      q = kernelConditionalQuantiles({ sorted, states }, g * step, levels, LEVEL_POOL.bandwidthSd, LEVEL_POOL.minEffective, weights, byState);
       atGrid.set(g, q);
     }
     return q;
