@@ -62,27 +62,22 @@ export function kernelConditionalQuantiles(
     let squares = 0;
     total = 0;
     count = 0;
+    // The values that may have a positive weight are marked in a bit set over the positions (every value, or,
+    // with `byState`, those of the cells within the kernel's reach and a cell more on each side against
+    // rounding), then visited in ascending position: the weights are the same numbers, summed in the same
+    // order, whichever values were marked.
+    const words = (n + 31) >>> 5;
+    if (marks.length < words) marks = new Int32Array(words);
+    let firstWord = 0;
+    let lastWord = words - 1;
     if (byState === undefined) {
-      for (let i = 0; i < n; i++) {
-        const d = (sample.states[i] as number) - target;
-        const w = 1 - d * d * inverse;
-        if (w > 0) {
-          weights[count] = w;
-          positions[count++] = i;
-          total += w;
-          squares += w * w;
-        }
-      }
+      marks.fill(-1, 0, words);
+      if ((n & 31) !== 0) marks[words - 1] = (1 << (n & 31)) - 1;
     } else {
-      // Only the values of the cells within the kernel's reach (a cell more on each side against rounding) can
-      // have a positive weight: marked in a bit set over the positions, then visited in ascending position, so
-      // the weights are the same numbers, summed in the same order, as in the pass over every value above.
       const from = byState.starts[Math.max(0, byState.cellOf(target - h) - 1)] as number;
       const to = byState.starts[Math.min(2 * CELLS, byState.cellOf(target + h) + 2)] as number;
-      const words = (n + 31) >>> 5;
-      if (marks.length < words) marks = new Int32Array(words);
-      let firstWord = words;
-      let lastWord = -1;
+      firstWord = words;
+      lastWord = -1;
       for (let j = from; j < to; j++) {
         const i = byState.positions[j] as number;
         const word = i >>> 5;
@@ -90,20 +85,20 @@ export function kernelConditionalQuantiles(
         firstWord = Math.min(firstWord, word);
         lastWord = Math.max(lastWord, word);
       }
-      for (let word = firstWord; word <= lastWord; word++) {
-        let bits = marks[word] as number;
-        marks[word] = 0;
-        while (bits !== 0) {
-          const i = (word << 5) + 31 - Math.clz32(bits & -bits);
-          bits &= bits - 1;
-          const d = (sample.states[i] as number) - target;
-          const w = 1 - d * d * inverse;
-          if (w > 0) {
-            weights[count] = w;
-            positions[count++] = i;
-            total += w;
-            squares += w * w;
-          }
+    }
+    for (let word = firstWord; word <= lastWord; word++) {
+      let bits = marks[word] as number;
+      marks[word] = 0;
+      while (bits !== 0) {
+        const i = (word << 5) + 31 - Math.clz32(bits & -bits);
+        bits &= bits - 1;
+        const d = (sample.states[i] as number) - target;
+        const w = 1 - d * d * inverse;
+        if (w > 0) {
+          weights[count] = w;
+          positions[count++] = i;
+          total += w;
+          squares += w * w;
         }
       }
     }
