@@ -253,10 +253,10 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
     states[j] = (design[row * m + m - 2] as number) * perSd;
   }
   const weights = scratchBuffers.get(6, n);
-  // The positions grouped by their states, for the kernel to visit only those within its reach.
-  const byState = stateCells.build(states, LEVEL_POOL.bandwidthSd * LEVEL_POOL.gridStep);
-  // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between.
+  // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between;
+  // the positions grouped by their states in cells one step wide, for the kernel to visit only those within its reach.
   const step = LEVEL_POOL.bandwidthSd * LEVEL_POOL.gridStep;
+  const byState = stateCells.build(states, step);
   const atGrid = new Map<number, number[]>();
   const gridQuantiles = (g: number): number[] => {
     let q = atGrid.get(g);
