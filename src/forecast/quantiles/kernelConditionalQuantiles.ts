@@ -182,7 +182,7 @@ export class StateCells {
   }
 }
 
-/** Cells on either side of zero: at a width of 1/8 standard deviation, +-512 standard deviations. */
+/** Cells on either side of zero (driver-fhs's cells, 1/32 of a standard deviation wide, span +-128 standard deviations). */
 const CELLS = 4096;
 
 /** Scratch space: positions of the values of positive weight (grown as needed, reused from call to call). */
