@@ -1,7 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { driverSpreadQuantiles, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
-import { kernelConditionalQuantiles } from '../../src/forecast/quantiles/kernelConditionalQuantiles.js';
+import { kernelConditionalQuantiles, StateCells } from '../../src/forecast/quantiles/kernelConditionalQuantiles.js';
 import { sortedQuantile } from '../../src/forecast/quantiles/sortedQuantile.js';
 import { seededNormal, seededRandom } from './seededRandom.js';
 
@@ -169,5 +169,43 @@ describe("driver spread quantiles with the 'level' pool", () => {
     const centre96 = slots96((s) => Math.sin(0.1 * s));
     const got = driverSpreadQuantiles(centre96, spreadFeatures([slots96((s) => 26 + (s % 7))], centre96, false), tied, LEVELS, 'level');
     got.forEach((row, s) => row.forEach((v) => expect(v).toBeCloseTo((centre96[s] as number) + 0.5, 9)));
+  });
+});
+
+describe('kernelConditionalQuantiles over the cells of the states (StateCells)', () => {
+  it('gives the same numbers, bit for bit, as the pass over every value (fast-check: states far beyond the cells, equal states, any bandwidth)', () => {
+    const cells = new StateCells();
+    fc.assert(
+      fc.property(
+        fc.array(
+          fc.tuple(
+            fc.double({ min: -50, max: 50, noNaN: true }),
+            fc.oneof(fc.double({ min: -4, max: 4, noNaN: true }), fc.constantFrom(0, -0, 0.125, -0.125, 1e4, -1e4, Infinity, -Infinity, NaN)),
+          ),
+          { minLength: 1, maxLength: 80 },
+        ),
+        fc.integer({ min: -40, max: 40 }),
+        fc.double({ min: 0.01, max: 3, noNaN: true }),
+        fc.double({ min: 0.01, max: 1, noNaN: true }),
+        fc.integer({ min: 1, max: 100 }),
+        (pairs, g, h, width, minEffective) => {
+          const sample = statedSample(pairs.map((p) => p[0]), pairs.map((p) => p[1]));
+          const levels = [0, 0.05, 0.25, 0.5, 0.75, 0.95, 1];
+          const target = g * 0.125;
+          const plain = kernelConditionalQuantiles(sample, target, levels, h, minEffective, new Float64Array(pairs.length));
+          const byCells = kernelConditionalQuantiles(sample, target, levels, h, minEffective, new Float64Array(pairs.length), cells.build(sample.states, width));
+          expect(byCells).toEqual(plain);
+        },
+      ),
+      { seed: 16, numRuns: 400 },
+    );
+  });
+
+  it('groups the positions by cell: states 0.3, -0.1, 0.2, NaN, 5 in cells 0.25 wide', () => {
+    // floor(x / 0.25): 1, -1, 0, none, 20; so by cell: position 1 (cell -1), 2 (cell 0), 0 (cell 1), 4 (cell 20).
+    const cells = new StateCells().build([0.3, -0.1, 0.2, NaN, 5], 0.25);
+    const at = (x: number) => cells.starts[cells.cellOf(x)]!;
+    expect(Array.from(cells.positions.subarray(0, 4))).toEqual([1, 2, 0, 4]);
+    expect([at(-0.1), at(0.1), at(0.3), at(5)]).toEqual([0, 1, 2, 3]);
   });
 });

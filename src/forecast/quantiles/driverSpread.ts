@@ -5,7 +5,8 @@ import { ScratchBuffers } from '../scratchBuffers.js';
 import { selectInPlace } from '../models/robustAsinh.js';
 import type { PoolOrder } from './poolOrder.js';
 import { sortedQuantile } from './sortedQuantile.js';
-import { kernelConditionalQuantiles } from './kernelConditionalQuantiles.js';
+import { kernelConditionalQuantiles, StateCells } from './kernelConditionalQuantiles.js';
+import { AscendingRows } from './ascendingRows.js';
 
 /** Calibration data of {@link driverSpreadQuantiles}: per calibration day, its errors and spread features. */
 export interface SpreadCalibration {
@@ -221,6 +222,8 @@ export function driverSpreadQuantiles(
 }
 
 const scratchBuffers = new ScratchBuffers();
+const ascendingRows = new AscendingRows();
+const stateCells = new StateCells();
 
 /**
  * The grid of the 'level' pool: every standardised error in ascending order (ties by row), with its
@@ -240,34 +243,26 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
   const mean = sum / n;
   const sd = Math.sqrt(Math.max(squares / n - mean * mean, 0));
   const perSd = sd > 0 ? 1 / sd : 1;
-  // Each row's place in ascending order, ties by row: the first free place at or after the first equal value of
-  // the natively sorted copy (the same order as sorting the rows by value, then by row, and faster). Equal
-  // values share their first place, so the places taken there are counted, not searched (many ties stay linear).
-  const sorted = Float64Array.from(standardised).sort();
-  const states = new Float64Array(n);
-  const placed = new Int32Array(n);
-  for (let row = 0; row < n; row++) {
-    const u = standardised[row] as number;
-    let low = 0;
-    let high = n;
-    while (low < high) {
-      const mid = (low + high) >>> 1;
-      if ((sorted[mid] as number) < u) low = mid + 1;
-      else high = mid;
-    }
-    const at = low + (placed[low] as number);
-    placed[low] = (placed[low] as number) + 1;
-    sorted[at] = u;
-    states[at] = (design[row * m + m - 2] as number) * perSd;
+  // The rows in ascending order of their standardised errors, ties by row (a radix sort: linear in the rows).
+  const order = ascendingRows.of(standardised);
+  const sorted = scratchBuffers.get(4, n);
+  const states = scratchBuffers.get(5, n);
+  for (let j = 0; j < n; j++) {
+    const row = order[j] as number;
+    sorted[j] = standardised[row] as number;
+    states[j] = (design[row * m + m - 2] as number) * perSd;
   }
-  const weights = new Float64Array(n);
-  // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between.
+  const weights = scratchBuffers.get(6, n);
+  // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between;
+  // the positions grouped by their states in cells a quarter of a step wide, for the kernel to visit only those within
+  // its reach (narrower cells visit fewer values beyond it: 0.97x the CPU of a step's width over driver-fhs's year).
   const step = LEVEL_POOL.bandwidthSd * LEVEL_POOL.gridStep;
+  const byState = stateCells.build(states, step / 4);
   const atGrid = new Map<number, number[]>();
   const gridQuantiles = (g: number): number[] => {
     let q = atGrid.get(g);
     if (q === undefined) {
-      q = kernelConditionalQuantiles({ sorted, states }, g * step, levels, LEVEL_POOL.bandwidthSd, LEVEL_POOL.minEffective, weights);
+      q = kernelConditionalQuantiles({ sorted, states }, g * step, levels, LEVEL_POOL.bandwidthSd, LEVEL_POOL.minEffective, weights, byState);
       atGrid.set(g, q);
     }
     return q;
