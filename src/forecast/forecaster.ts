@@ -608,7 +608,6 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   return o;
 }
 
-
 /** scale.to of every value into `out`, the same numbers (an asinh scale's loop written out: toAsinhScales). */
 function onErrorScale(values: ArrayLike<number>, scale: ErrorScale, out: Float64Array): void {
   if (scale.robust !== undefined) toAsinhScales(values, scale.robust, out);

@@ -395,7 +395,6 @@ function meanOf(values: Float64Array): number {
   return sum / values.length;
 }
 
-
 /** Huber's tuning constant: 95% efficiency at the normal (Holland and Welsch 1977). */
 const HUBER_C = 1.345;
 /** 1 / Phi^-1(3/4): the MAD times this estimates sigma for normal data. */
