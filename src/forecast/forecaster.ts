@@ -26,7 +26,7 @@ import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';
 import { arxForecast, keptAsinhDay } from './models/arx.js';
 import { toAsinhScales } from './models/robustAsinh.js';
-import { DRIVER_INTERACTIONS, driverForecast, type DriverInteraction } from './models/driverRegression.js';
+import { driverForecast } from './models/driverRegression.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { GridCache, HistoryView } from './models/historyView.js';
 import type { PointForecast } from './models/pointForecast.js';
@@ -105,8 +105,6 @@ export interface ForecastOptions {
   readonly driverKnots: number;
   /** Scale the driver regression is fitted on (and its errors measured on, with errorScale 'model'). */
   readonly driverScale: 'asinh' | 'price';
-  /** Interaction columns of the residual load in the driver regression (driverRegression.ts, DriverInteraction). */
-  readonly driverInteractions: readonly DriverInteraction[];
   /**
    * Candidates of `auto`, in order of preference (a tie or a day without validation days goes to the
    * first that can forecast). Candidates needing residual-load columns are left out for a history
@@ -168,7 +166,6 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   driverWindowsDays: Object.freeze([182, 364, 728]),
   driverKnots: 3,
   driverScale: 'asinh',
-  driverInteractions: Object.freeze([]),
   spreadPool: 'level',
   autoCandidates: AUTO_CANDIDATES,
   autoValidationDays: AUTO_VALIDATION_DAYS,
@@ -568,7 +565,6 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
       minTrainingDays: options.minTrainingDays,
       knots: options.driverKnots,
       scale: options.driverScale,
-      interactions: options.driverInteractions,
       stopwatch: options.stopwatch,
     });
   }
@@ -606,9 +602,6 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.driverWindowsDays.length === 0) throw new ArgumentError('options.driverWindowsDays', 'at least one window length', o.driverWindowsDays);
   o.driverWindowsDays.forEach((w, i) => positiveInteger(`driverWindowsDays[${i}]`, w, o.minTrainingDays));
   if (o.driverScale !== 'asinh' && o.driverScale !== 'price') throw new ArgumentError('options.driverScale', "'asinh' or 'price'", o.driverScale);
-  o.driverInteractions.forEach((kind, i) => {
-    if (!DRIVER_INTERACTIONS.includes(kind)) throw new ArgumentError(`options.driverInteractions[${i}]`, `one of ${DRIVER_INTERACTIONS.join(', ')}`, kind);
-  });
   if (o.spreadPool !== 'slot' && o.spreadPool !== 'all' && o.spreadPool !== 'level') throw new ArgumentError('options.spreadPool', "'slot', 'all' or 'level'", o.spreadPool);
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);

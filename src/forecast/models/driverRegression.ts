@@ -23,25 +23,12 @@ export interface DriverSettings {
   readonly knots: number;
   /** Scale the model is fitted on: asinh-transformed prices, or prices. */
   readonly scale: 'asinh' | 'price';
-  /** Interactions of the residual load added as columns (see {@link DriverInteraction}); default none. */
-  readonly interactions?: readonly DriverInteraction[];
   /** Adds the time spent fitting (Grams and solves, per slot and window) to this counter. Default none. */
   readonly stopwatch?: FitStopwatch;
 }
 
-/**
- * Interaction columns of the residual load x(d,s) in the driver regression:
- * - 'level': x(d,s) times yesterday's mean price on the model's scale, so that the day level's effect
- *   may change along the merit order (a level shift moves the price more where the merit order is steep);
- * - 'weekend': x(d,s) times a Saturday-or-Sunday dummy, a slope of its own for the days whose additive
- *   price profile differs, as an additive shift in prices is not one on the asinh scale.
- */
-export type DriverInteraction = 'level' | 'weekend' | 'monday';
-
-export const DRIVER_INTERACTIONS: readonly DriverInteraction[] = Object.freeze(['level', 'weekend', 'monday']);
-
-/** Names of the driver regression's columns for J knots and the given interactions, in column order. */
-export function driverColumns(knots: number, interactions: readonly DriverInteraction[] = []): string[] {
+/** Names of the driver regression's columns for J knots, in column order. */
+export function driverColumns(knots: number): string[] {
   return [
     'residual load(d,s)',
     ...Array.from({ length: knots }, (_, j) => `max(0, residual load(d,s) - knot ${j + 1})`),
@@ -49,14 +36,8 @@ export function driverColumns(knots: number, interactions: readonly DriverIntera
     'mean residual load(d-1)',
     'price(d-1,s)',
     'price(d-7,s)',
-    ...interactionsInOrder(interactions).map((i) => (i === 'level' ? 'residual load(d,s) x mean price(d-1)' : i === 'weekend' ? 'residual load(d,s) x weekend(d)' : 'residual load(d,s) x monday(d)')),
     ...weekdayColumns(),
   ];
-}
-
-/** The interactions asked for, each once, in the column order of DRIVER_INTERACTIONS. */
-function interactionsInOrder(interactions: readonly DriverInteraction[]): DriverInteraction[] {
-  return DRIVER_INTERACTIONS.filter((i) => interactions.includes(i));
 }
 
 const LAGS = [1, 7] as const;
@@ -67,7 +48,7 @@ const LAGS = [1, 7] as const;
  * Model, one per clock slot s and window, fitted on the days d' of the window:
  *   Z(d',s) = b0 + c0 x(d',s) + sum_j c_j max(0, x(d',s) - k_j)
  *             + a1 mean_t Z(d'-1,t) + a2 mean_t x(d'-1,t) + a3 Z(d'-1,s) + a4 Z(d'-7,s)
- *             + sum_{w = Mon..Sat} g_w D_w(d') [+ the interactions] + e(d',s),
+ *             + sum_{w = Mon..Sat} g_w D_w(d') + e(d',s),
  * with x the residual load (load minus renewables, from the exogenous columns known before gate closure;
  * residualLoad.ts), Z the price on the model's scale, D_w weekday dummies (Sunday the reference).
  * - The residual load enters through a linear spline in the truncated power basis, hinges at the knots
@@ -84,9 +65,6 @@ const LAGS = [1, 7] as const;
  *   the day before). The same slot yesterday and a week ago carry the slot's own persistence and the
  *   weekly profile with the dummies. The prices these regressors read are clipped at the day's far-out
  *   fences (farOutFences), so that a spike hour does not move tomorrow's level.
- * - Optional interactions (settings.interactions, {@link DriverInteraction}): x(d',s) mean_t Z(d'-1,t) and
- *   x(d',s) (D_Sat(d') + D_Sun(d')), each one more slot column (interaction terms of a linear model,
- *   Hastie, Tibshirani and Friedman 2009, section 9.1.1 on the product of two inputs).
  * - Estimation: least squares (standardised normal equations, Cholesky), then once more on Huber's
  *   pseudo-observations y* = y_hat + psi(y - y_hat) of the longest window's fit (psi clips residuals
  *   at 1.345 robust standard deviations): Bickel's (1975) one-step Huber estimate. Spike periods in the
@@ -138,11 +116,9 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const days = new DriverDays(view, columns, settings.scale === 'asinh' ? view.robustScaleOf(rows, longest) : null);
   const S = view.slotsPerDay;
   const J = settings.knots;
-  const interactions = interactionsInOrder(settings.interactions ?? []);
-  const I = interactions.length;
-  // Slot columns x, hinges, lag 1, lag 7, the interactions and the response; day-level columns mean price
-  // and mean residual load of the day before, and the weekday dummies (Sunday, category 7, the reference).
-  const a = J + 4 + I;
+  // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
+  // residual load of the day before, and the weekday dummies (Sunday, category 7, the reference).
+  const a = J + 4;
   const k = a - 1 + 2 + 6;
   const slotValues = new Float64Array(n * a);
   const target = new Float64Array(k);
@@ -191,10 +167,6 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     }
     slotValues.set(lag1BySlot.subarray(s * n, (s + 1) * n), (J + 1) * n);
     slotValues.set(lag7BySlot.subarray(s * n, (s + 1) * n), (J + 2) * n);
-    interactions.forEach((kind, i) => {
-      const base = (J + 3 + i) * n;
-      for (let r = 0; r < n; r++) slotValues[base + r] = interactionValue(kind, slotX[r] as number, meanZ[r] as number, weekdays[r] as number);
-    });
     slotValues.set(zBySlot.subarray(s * n, (s + 1) * n), (a - 1) * n);
     const thin = thinHinges(slotValues, n, J, counts);
     const xt = days.targetX[s] as number;
@@ -202,7 +174,6 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     for (let j = 0; j < J; j++) target[1 + j] = xt > (knots[j] as number) ? xt - (knots[j] as number) : 0;
     target[J + 1] = targetDay.lag1[s] as number;
     target[J + 2] = targetDay.lag7[s] as number;
-    interactions.forEach((kind, i) => (target[J + 3 + i] = interactionValue(kind, xt, targetDay.meanZ, targetDay.weekday)));
     target[a - 1] = targetDay.meanZ;
     target[a] = targetDay.meanX;
     for (let w = 1; w <= 6; w++) target[a + w] = targetDay.weekday === w ? 1 : 0;
@@ -232,13 +203,6 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   }
   const members = sizes.map((size) => forecasts.get(size) as Float64Array);
   return { mean: averageMembers(members), members };
-}
-
-/** The value of an interaction column for residual load x, yesterday's mean price meanZ and ISO weekday (6 Saturday, 7 Sunday). */
-function interactionValue(kind: DriverInteraction, x: number, meanZ: number, weekday: number): number {
-  if (kind === 'level') return x * meanZ;
-  if (kind === 'monday') return weekday === 1 ? x : 0;
-  return weekday >= 6 ? x : 0;
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
