@@ -109,7 +109,9 @@ export interface ForecastOptions {
    * Refit cadence of the driver regression [days], >= 1: its coefficients are estimated on the day
    * numbers that are multiples of it, each from the days before, and every delivery day until the next
    * refit uses them with its own drivers and lags (driverRegression.ts, DriverSettings.refitDays). 1 fits
-   * every day afresh.
+   * every day afresh. Default 5: `auto`'s year takes 0.7x the CPU of daily refits, with pinball losses
+   * within 0.002 of theirs on every setting of two draws of the known-distribution bench
+   * (docs/forecast-quality.md, section "Speed of `auto`").
    */
   readonly driverRefitDays: number;
   /**
@@ -173,7 +175,7 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   driverWindowsDays: Object.freeze([182, 364, 728]),
   driverKnots: 3,
   driverScale: 'asinh',
-  driverRefitDays: 1,
+  driverRefitDays: 5,
   spreadPool: 'level',
   autoCandidates: AUTO_CANDIDATES,
   autoValidationDays: AUTO_VALIDATION_DAYS,
