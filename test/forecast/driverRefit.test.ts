@@ -19,9 +19,9 @@ function forecastOf(h: PriceHistory, i: number, settings: DriverSettings): numbe
   return Array.from(made.mean);
 }
 
-/** Index of the first day at or after `from` whose day number is a multiple of 7 plus `offset`. */
-function dayWithOffset(from: number, offset: number): number {
-  for (let i = from; i < base.days.length; i++) if (dayNumberOf(base.days[i]!.day) % 7 === offset) return i;
+/** Index of the first day at or after `from` whose day number is a multiple of 7 (a refit day of refitDays 7). */
+function refitDayFrom(from: number): number {
+  for (let i = from; i < base.days.length; i++) if (dayNumberOf(base.days[i]!.day) % 7 === 0) return i;
   throw new Error('no such day');
 }
 
@@ -30,7 +30,7 @@ describe('driver regression refit cadence (refitDays)', () => {
     // Prices exactly linear in the day's own load, P = 40 + 0.1 load before day index `change` and
     // P = 60 + 0.2 load from it on (closed form; least squares reproduces an exact linear relation). A
     // fit on days before the change predicts 40 + 0.1 load(d) for any day d: its own load, the old relation.
-    const refit = dayWithOffset(120, 0);
+    const refit = refitDayFrom(120);
     const change = refit;
     const h = pricedBy((l, d) => (d < change ? 40 + 0.1 * l : 60 + 0.2 * l));
     const d = refit + 3;
@@ -43,7 +43,7 @@ describe('driver regression refit cadence (refitDays)', () => {
   });
 
   it('no look-ahead: a weekly fit reads no day on or after its refit day (prices of those days other than the lags changed, the forecast is the same)', () => {
-    const refit = dayWithOffset(120, 0);
+    const refit = refitDayFrom(120);
     const d = refit + 3;
     // Days refit .. d - 2 are neither the day before d nor the week before it: changing them must not move d's forecast.
     const changed: PriceHistory = { ...base, days: base.days.map((day, i) => (i >= refit && i <= d - 2 ? { ...day, pricePerMwh: day.pricePerMwh.map((p) => p + 25) } : day)) };
@@ -53,7 +53,7 @@ describe('driver regression refit cadence (refitDays)', () => {
   });
 
   it('on a refit day, and with refitDays 1, the forecast is the daily fit bit for bit; kept fits give the fresh forecast whatever was asked before', () => {
-    const refit = dayWithOffset(120, 0);
+    const refit = refitDayFrom(120);
     expect(forecastOf(base, refit, { ...SETTINGS, refitDays: 7 })).toEqual(forecastOf(base, refit, SETTINGS));
     expect(forecastOf(base, refit + 2, { ...SETTINGS, refitDays: 1 })).toEqual(forecastOf(base, refit + 2, SETTINGS));
     const fits = new DriverFits();
