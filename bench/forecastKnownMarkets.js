@@ -109,7 +109,7 @@ for (const folder of folders) {
    * the truth's P(price <= forecast q0.5) (orderExpectation's acceptance of a buy limited there), which
    * the draw's sampling does not move: 0.5 for the truth itself.
    * Cluster-robust variance of a mean (Liang and Zeger 1986; Cameron and Miller 2015, J. Human
-   * Resources 50(2), 317-372, eq. 11 with the factor D / (D - 1)):
+   * Resources 50(2), 317-372, with the small-sample factor D / (D - 1)):
    *   Var(p) = D / (D - 1) sum_d (sum_t (b_dt - p))^2 / N^2,  b_dt = 1{y_dt < q0.5}, N periods, D days.
    */
   const centreShares = (forecasts) => {
