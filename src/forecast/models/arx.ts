@@ -128,7 +128,19 @@ function fitWindows(
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rowsUsed = training.slice(0, n);
-  const scale = windowScale(view, rowsUsed, Math.max(...settings.windowsDays));
+  const longest = Math.max(...settings.windowsDays);
+  const scale = windowScale(view, rowsUsed, longest);
+  // The price lags are clipped at the far-out fences of the training days' prices, on the model's scale
+  // (the transformation is increasing, so clipping at the transformed fences equals transforming the
+  // clipped prices), as the driver regression clips its lags (farOutFences.ts, Tukey 1977): Z is linear
+  // in the lags and P = a + b sinh(Z), so a lag far beyond what the fit saw (yesterday's spike) would be
+  // extrapolated and sent back exponentially (medians of 1e6 on a market capped at 4 000, of 1e9 on one
+  // capped at 15 000). The response is left as it is. Clipping is monotone: min, max and last of the
+  // clipped day are those of the day, clipped.
+  const fences = view.farOutFencesOf(rowsUsed, longest);
+  const low = toAsinhScale(fences.low, scale);
+  const high = toAsinhScale(fences.high, scale);
+  const clip = (v: number): number => (v < low ? low : v > high ? high : v);
   // The past days the forecast reads, each transformed once: by row, the positions of its own day
   // (the response, its exogenous columns) and of its lag days (lag 1 also gives the day before's
   // exogenous columns and the min, max and last).
@@ -153,9 +165,9 @@ function fitWindows(
   const minMaxLast = new Float64Array(3 * n);
   for (let r = 0; r < n; r++) {
     const d = lag1[r] as number;
-    minMaxLast[3 * r] = min[d] as number;
-    minMaxLast[3 * r + 1] = max[d] as number;
-    minMaxLast[3 * r + 2] = last[d] as number;
+    minMaxLast[3 * r] = clip(min[d] as number);
+    minMaxLast[3 * r + 1] = clip(max[d] as number);
+    minMaxLast[3 * r + 2] = clip(last[d] as number);
   }
   const watch = settings.stopwatch;
   const builder = timedFits(watch, 0, () => new ArxGramBuilder({ minMaxLast, weekdays }, counts));
@@ -167,9 +179,9 @@ function fitWindows(
     // The slot's columns, each over the training rows: lag1, lag2, lag7, the exogenous columns of the
     // day and of the day before, the response.
     for (let r = 0; r < n; r++) {
-      columns[r] = z[(lag1[r] as number) * S + s] as number;
-      columns[n + r] = z[(lag2[r] as number) * S + s] as number;
-      columns[2 * n + r] = z[(lag7[r] as number) * S + s] as number;
+      columns[r] = clip(z[(lag1[r] as number) * S + s] as number);
+      columns[n + r] = clip(z[(lag2[r] as number) * S + s] as number);
+      columns[2 * n + r] = clip(z[(lag7[r] as number) * S + s] as number);
       columns[(a - 1) * n + r] = z[(own[r] as number) * S + s] as number;
     }
     for (let j = 0; j < names; j++) {
@@ -184,12 +196,12 @@ function fitWindows(
     }
     // The delivery day's regressors, in the column order of ARX_COLUMNS; in the last slot `last`
     // equals price(d-1,s) and is left out (see ArxGramBuilder).
-    features[0] = z[t1 * S + s] as number;
-    features[1] = z[t2 * S + s] as number;
-    features[2] = z[t7 * S + s] as number;
-    features[3] = min[t1] as number;
-    features[4] = max[t1] as number;
-    features[5] = s === S - 1 ? 0 : (last[t1] as number);
+    features[0] = clip(z[t1 * S + s] as number);
+    features[1] = clip(z[t2 * S + s] as number);
+    features[2] = clip(z[t7 * S + s] as number);
+    features[3] = clip(min[t1] as number);
+    features[4] = clip(max[t1] as number);
+    features[5] = s === S - 1 ? 0 : clip(last[t1] as number);
     for (let w = 1; w <= 6; w++) features[5 + w] = view.target.weekday === w ? 1 : 0;
     for (let j = 0; j < names; j++) {
       features[12 + j] = (targetExogenous[j] as Float64Array)[s] as number;

@@ -1,5 +1,6 @@
 import type { RobustScale } from './robustAsinh.js';
 import { MAD_TO_SIGMA, robustScale } from './robustAsinh.js';
+import { farOutFences, sortedFarOutFences, type Fences } from './farOutFences.js';
 
 /**
  * robustScale of the prices of a set of days, kept sorted between calls: the same numbers, bit for
@@ -48,6 +49,19 @@ export class DaySetScale {
     if (mad === 0) return robustScale(concatenate(days));
     this.last = { median, scale: mad * MAD_TO_SIGMA };
     return this.last;
+  }
+
+  /**
+   * farOutFences (farOutFences.ts) of the prices of `days`, the same numbers, read off the kept sorted
+   * set (kept or moved to `days` as by {@link of}): O(1) when `of` was just asked for the same set.
+   *
+   * @param days as for {@link of}
+   */
+  fencesOf(days: readonly Float64Array[]): Fences {
+    const next = new Set(days);
+    if (next.size !== days.length) return farOutFences(concatenate(days));
+    if (!this.update(days, next)) this.last = null;
+    return sortedFarOutFences(this.sorted.subarray(0, this.length));
   }
 
   /** The answer for the last set, when it did not depend on the days' order (asked again: the same object). */

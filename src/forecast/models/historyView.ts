@@ -1,6 +1,7 @@
 import type { DeliveryPeriod, HistoryDay, PriceHistory } from '../../types.js';
 import { DaySetScale } from './daySetScale.js';
 import { ForecastInputError } from './errors.js';
+import type { Fences } from './farOutFences.js';
 import type { RobustScale } from './robustAsinh.js';
 import type { SlotLayout } from './slotGrid.js';
 import { slotLayout, toSlotGrid } from './slotGrid.js';
@@ -208,6 +209,14 @@ export class HistoryView {
    */
   robustScaleOf(days: readonly number[], windowDays: number): RobustScale {
     return this.grids.scales(windowDays).of(days.map((i) => this.past(i).prices));
+  }
+
+  /**
+   * farOutFences (farOutFences.ts) of the prices of past days `days` one after the other, read off the
+   * same kept sorted set as {@link robustScaleOf} (asked right after it for the same days: O(1)).
+   */
+  farOutFencesOf(days: readonly number[], windowDays: number): Fences {
+    return this.grids.scales(windowDays).fencesOf(days.map((i) => this.past(i).prices));
   }
 
   /** Day number of past day i. */
