@@ -7,13 +7,15 @@ import { LASSO_DEFAULTS } from '../../src/forecast/linalg/lasso.js';
 import type { PriceHistory } from '../../src/types.js';
 import { syntheticHistory } from './syntheticHistory.js';
 
-// The ARX's price lags are clipped at Tukey's far-out fences of the training days' prices (arx.ts).
+// The ARX's price lags are clipped at Tukey's far-out fences of the training days' prices and each
+// window's forecast is held within the training days' lowest and highest price (arx.ts).
 // Reference: the ARX written out by hand below, as its doc states it: Z = asinh((P - a) / b) with a the
 // median and b = MAD / Phi^-1(3/4) of the training days' prices (Hampel 1974; Uniejewski, Weron and
 // Ziel 2018), fences [Q1 - 3 IQR, Q3 + 3 IQR] of the same prices with quartiles of Hyndman and Fan's
 // (1996) definition 7 (J. W. Tukey 1977, Exploratory Data Analysis, section 2H), one ordinary least
 // squares fit per slot solved from the normal equations X'X beta = X'y by Gaussian elimination with
-// partial pivoting (the textbook closed form of OLS), and P = a + b sinh(x' beta). Nothing of the
+// partial pivoting (the textbook closed form of OLS), and P = a + b sinh(x' beta), x' beta held within
+// asinh((min - a) / b) and asinh((max - a) / b) of the training days' prices. Nothing of the
 // project's fitting code is used.
 
 const WINDOW = 42;
@@ -69,8 +71,11 @@ function olsPrediction(rows: number[][], y: number[], at: number[]): number {
   return beta[0]! + at.reduce((s, v, j) => s + beta[j + 1]! * ((v - mean[j]!) / sd[j]!), 0);
 }
 
-/** The ARX forecast of day `target` (one window of WINDOW days, a contiguous history), by hand; lags clipped or not. */
-function handArx(history: PriceHistory, target: number, clipLags: boolean): { forecast: number[]; fences: { low: number; high: number } } {
+/**
+ * The ARX forecast of day `target` (one window of WINDOW days, a contiguous history), by hand; guarded
+ * (lags clipped, forecast held within the training prices) or as the ARX was before.
+ */
+function handArx(history: PriceHistory, target: number, guarded: boolean): { forecast: number[]; fences: { low: number; high: number }; highest: number } {
   const days = history.days;
   const S = days[0]!.pricePerMwh.length;
   const training: number[] = [];
@@ -83,7 +88,9 @@ function handArx(history: PriceHistory, target: number, clipLags: boolean): { fo
   const q3 = quantile7(sorted, 0.75);
   const fences = { low: q1 - 3 * (q3 - q1), high: q3 + 3 * (q3 - q1) };
   const z = (p: number): number => Math.asinh((p - a) / b);
-  const lag = (p: number): number => z(clipLags ? Math.min(Math.max(p, fences.low), fences.high) : p);
+  const lag = (p: number): number => z(guarded ? Math.min(Math.max(p, fences.low), fences.high) : p);
+  const lowest = sorted[0]!;
+  const highest = sorted[sorted.length - 1]!;
   const weekday = (d: number): number => new Date(`${days[d]!.day}T12:00:00Z`).getUTCDay(); // 0 = Sunday
   const regressors = (d: number, s: number): number[] => {
     const before = days[d - 1]!.pricePerMwh;
@@ -99,9 +106,9 @@ function handArx(history: PriceHistory, target: number, clipLags: boolean): { fo
       training.map((d) => z(days[d]!.pricePerMwh[s]!)),
       regressors(target, s),
     );
-    return a + b * Math.sinh(zHat);
+    return a + b * Math.sinh(guarded ? Math.min(Math.max(zHat, z(lowest)), z(highest)) : zHat);
   });
-  return { forecast, fences };
+  return { forecast, fences, highest };
 }
 
 function withDayBefore(history: PriceHistory, target: number, price: (p: number, s: number) => number): PriceHistory {
@@ -145,14 +152,25 @@ describe('ARX lags clipped at far-out fences', () => {
     );
   });
 
-  it('on histories without far-out prices nothing is clipped: the forecast is the hand OLS on the unclipped design (fast-check, fixed seed)', () => {
+  it('a whole day of spikes (+1e6) the day before: the clipped fit still extrapolates, and the forecast is held at the highest training price (hand OLS)', () => {
+    const target = 60;
+    const history = withDayBefore(syntheticHistory({ days: 70, periodMinutes: 60, seed: 21 }), target, (p) => p + 1e6);
+    const guarded = handArx(history, target, true);
+    const forecast = arxForecast(HistoryView.before(history, target), settings)!.mean;
+    forecast.forEach((p, s) => expect(p).toBeCloseTo(guarded.forecast[s]!, 6));
+    // a + b sinh(asinh((max - a) / b)) = max, up to rounding.
+    expect(Math.max(...forecast) / guarded.highest).toBeCloseTo(1, 12);
+  });
+
+  it('on histories without far-out prices nothing is clipped or held: the forecast is the hand OLS of the ARX as it was (fast-check, fixed seed)', () => {
     fc.assert(
       fc.property(fc.integer({ min: 1, max: 10_000 }), (seed) => {
         const history = syntheticHistory({ days: 64, periodMinutes: 60, seed });
         const target = 63;
-        const { forecast: expected, fences } = handArx(history, target, false);
+        const { forecast: expected, fences, highest } = handArx(history, target, false);
         const read = history.days.slice(target - WINDOW - 7, target).flatMap((d) => d.pricePerMwh);
-        fc.pre(read.every((p) => p >= fences.low && p <= fences.high));
+        const sample = history.days.slice(target - WINDOW, target).flatMap((d) => d.pricePerMwh);
+        fc.pre(read.every((p) => p >= fences.low && p <= fences.high) && expected.every((p) => p >= Math.min(...sample) && p <= highest));
         const forecast = arxForecast(HistoryView.before(history, target), settings)!.mean;
         forecast.forEach((p, s) => expect(p).toBeCloseTo(expected[s]!, 6));
       }),

@@ -53,7 +53,11 @@ const LAGS = [1, 2, 7] as const;
  * day before (as in the LEAR model of Lago et al. 2021; with them the model can tell the part of
  * yesterday's price that yesterday's load and renewables explain from a persistent price level);
  * in the last slot, where Z(d'-1,S-1) is the lag-1 regressor itself, b6 is left out. Lags are
- * calendar days; a training day is used only when its three lag days are in the history.
+ * calendar days; a training day is used only when its three lag days are in the history. Every price
+ * regressor (the lags, min, max and last) is read clipped at Tukey's far-out fences [Q1 - 3 IQR,
+ * Q3 + 3 IQR] of the training days' prices, on the Z scale, in the fit and in the forecast alike (see
+ * fitWindows; Tukey 1977); the response is not clipped. Each window's forecast is held within the
+ * lowest and highest Z of the training days.
  * Z = asinh((P - a) / b) with a, b the median and normalised MAD of all prices of the training days
  * of the longest window (Uniejewski, Weron and Ziel 2018), one transformation per delivery day shared
  * by its windows, so that each shorter window is a prefix of the longest and one pass over the days
@@ -64,8 +68,9 @@ const LAGS = [1, 2, 7] as const;
  * missing from the history is replaced by the latest earlier day.
  *
  * References: G. E. P. Box and G. M. Jenkins (1970), Time Series Analysis: Forecasting and Control,
- * Holden-Day; B. Uniejewski, R. Weron and F. Ziel (2018), Variance stabilizing transformations for
- * electricity spot price forecasting, IEEE Trans. Power Syst. 33(2), 2219-2229,
+ * Holden-Day; J. W. Tukey (1977), Exploratory Data Analysis, Addison-Wesley, section 2H;
+ * B. Uniejewski, R. Weron and F. Ziel (2018), Variance stabilizing transformations for electricity
+ * spot price forecasting, IEEE Trans. Power Syst. 33(2), 2219-2229,
  * doi:10.1109/TPWRS.2017.2734563; K. Hubicka, G. Marcjasz and R. Weron (2019), A note on averaging
  * day-ahead electricity price forecasts across calibration windows, IEEE Trans. Sustain. Energy
  * 10(1), 321-323, doi:10.1109/TSTE.2018.2869557; J. Lago, G. Marcjasz, B. De Schutter and R. Weron
@@ -136,10 +141,15 @@ function fitWindows(
   // in the lags and P = a + b sinh(Z), so a lag far beyond what the fit saw (yesterday's spike) would be
   // extrapolated and sent back exponentially (medians of 1e6 on a market capped at 4 000, of 1e9 on one
   // capped at 15 000). The response is left as it is. Clipping is monotone: min, max and last of the
-  // clipped day are those of the day, clipped.
-  const fences = view.farOutFencesOf(rowsUsed, longest);
-  const low = toAsinhScale(fences.low, scale);
-  const high = toAsinhScale(fences.high, scale);
+  // clipped day are those of the day, clipped. A fit whose training days hold spikes in the response
+  // can still extrapolate from clipped lags (a point forecast of 27 120 on the market capped at 4 000),
+  // so each window's forecast is also held within the lowest and highest price of the training days:
+  // a centre beyond every price of the year is not a view of the market (docs/forecast-quality.md).
+  const bounds = view.priceBoundsOf(rowsUsed, longest);
+  const low = toAsinhScale(bounds.fences.low, scale);
+  const high = toAsinhScale(bounds.fences.high, scale);
+  const lowest = toAsinhScale(bounds.lowest, scale);
+  const highest = toAsinhScale(bounds.highest, scale);
   const clip = (v: number): number => (v < low ? low : v > high ? high : v);
   // The past days the forecast reads, each transformed once: by row, the positions of its own day
   // (the response, its exogenous columns) and of its lag days (lag 1 also gives the day before's
@@ -211,7 +221,7 @@ function fitWindows(
     timedFits(watch, counts.length, () =>
       builder.forEachGram(columns, a, s === S - 1, (gram, w) => {
         const value = settings.estimator === 'lasso' ? predictLinear(lassoBic(gram, settings.lasso).model, features) : choleskyPrediction(gram, features);
-        (byCount[w] as Float64Array)[s] = fromAsinhScale(value, scale);
+        (byCount[w] as Float64Array)[s] = fromAsinhScale(value < lowest ? lowest : value > highest ? highest : value, scale);
       }),
     );
   }

@@ -1,6 +1,6 @@
 import type { RobustScale } from './robustAsinh.js';
 import { MAD_TO_SIGMA, robustScale } from './robustAsinh.js';
-import { farOutFences, sortedFarOutFences, type Fences } from './farOutFences.js';
+import { sortedSampleBounds, type SampleBounds } from './farOutFences.js';
 
 /**
  * robustScale of the prices of a set of days, kept sorted between calls: the same numbers, bit for
@@ -52,16 +52,17 @@ export class DaySetScale {
   }
 
   /**
-   * farOutFences (farOutFences.ts) of the prices of `days`, the same numbers, read off the kept sorted
-   * set (kept or moved to `days` as by {@link of}): O(1) when `of` was just asked for the same set.
+   * Far-out fences, lowest and highest price of `days` (sortedSampleBounds, farOutFences.ts), the same
+   * numbers as of the days' prices sorted afresh, read off the kept sorted set (kept or moved to `days`
+   * as by {@link of}): O(1) when `of` was just asked for the same set.
    *
    * @param days as for {@link of}
    */
-  fencesOf(days: readonly Float64Array[]): Fences {
+  boundsOf(days: readonly Float64Array[]): SampleBounds {
     const next = new Set(days);
-    if (next.size !== days.length) return farOutFences(concatenate(days));
+    if (next.size !== days.length) return sortedSampleBounds(concatenate(days).sort());
     if (!this.update(days, next)) this.last = null;
-    return sortedFarOutFences(this.sorted.subarray(0, this.length));
+    return sortedSampleBounds(this.sorted.subarray(0, this.length));
   }
 
   /** The answer for the last set, when it did not depend on the days' order (asked again: the same object). */

@@ -24,3 +24,15 @@ export function sortedFarOutFences(sorted: ArrayLike<number>): Fences {
   const q3 = sortedQuantile(sorted, 0.75);
   return { low: q1 - 3 * (q3 - q1), high: q3 + 3 * (q3 - q1) };
 }
+
+/** A sample's far-out fences and its extremes. */
+export interface SampleBounds {
+  readonly fences: Fences;
+  readonly lowest: number;
+  readonly highest: number;
+}
+
+/** {@link sortedFarOutFences} and the first and last value of a sample in ascending order (at least one value). */
+export function sortedSampleBounds(sorted: ArrayLike<number>): SampleBounds {
+  return { fences: sortedFarOutFences(sorted), lowest: sorted[0] as number, highest: sorted[sorted.length - 1] as number };
+}

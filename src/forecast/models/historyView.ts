@@ -1,7 +1,7 @@
 import type { DeliveryPeriod, HistoryDay, PriceHistory } from '../../types.js';
 import { DaySetScale } from './daySetScale.js';
 import { ForecastInputError } from './errors.js';
-import type { Fences } from './farOutFences.js';
+import type { SampleBounds } from './farOutFences.js';
 import type { RobustScale } from './robustAsinh.js';
 import type { SlotLayout } from './slotGrid.js';
 import { slotLayout, toSlotGrid } from './slotGrid.js';
@@ -212,11 +212,11 @@ export class HistoryView {
   }
 
   /**
-   * farOutFences (farOutFences.ts) of the prices of past days `days` one after the other, read off the
-   * same kept sorted set as {@link robustScaleOf} (asked right after it for the same days: O(1)).
+   * Far-out fences, lowest and highest price of past days `days` (farOutFences.ts), read off the same
+   * kept sorted set as {@link robustScaleOf} (asked right after it for the same days: O(1)).
    */
-  farOutFencesOf(days: readonly number[], windowDays: number): Fences {
-    return this.grids.scales(windowDays).fencesOf(days.map((i) => this.past(i).prices));
+  priceBoundsOf(days: readonly number[], windowDays: number): SampleBounds {
+    return this.grids.scales(windowDays).boundsOf(days.map((i) => this.past(i).prices));
   }
 
   /** Day number of past day i. */
