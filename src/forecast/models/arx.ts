@@ -139,12 +139,12 @@ function fitWindows(
   // (the transformation is increasing, so clipping at the transformed fences equals transforming the
   // clipped prices), as the driver regression clips its lags (farOutFences.ts, Tukey 1977): Z is linear
   // in the lags and P = a + b sinh(Z), so a lag far beyond what the fit saw (yesterday's spike) would be
-  // extrapolated and sent back exponentially (medians of 1e6 on a market capped at 4 000, of 1e9 on one
-  // capped at 15 000). The response is left as it is. Clipping is monotone: min, max and last of the
-  // clipped day are those of the day, clipped. A fit whose training days hold spikes in the response
-  // can still extrapolate from clipped lags (a point forecast of 27 120 on the market capped at 4 000),
-  // so each window's forecast is also held within the lowest and highest price of the training days:
-  // a centre beyond every price of the year is not a view of the market (docs/forecast-quality.md).
+  // extrapolated and sent back exponentially (medians of 1e6 and 1e12 on a market capped at 4 000). The
+  // response is left as it is. Clipping is monotone: min, max and last of the clipped day are those of
+  // the day, clipped. A fit whose training days hold spikes in the response can still extrapolate from
+  // clipped lags (a point forecast of 27 120 on that market), so each window's forecast is also held
+  // within the lowest and highest price of the training days: a centre beyond every price the fit saw
+  // is an extrapolation, not a view of the market (the cases: docs/forecast-quality.md).
   const bounds = view.priceBoundsOf(rowsUsed, longest);
   const low = toAsinhScale(bounds.fences.low, scale);
   const high = toAsinhScale(bounds.fences.high, scale);

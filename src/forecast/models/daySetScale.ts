@@ -54,7 +54,7 @@ export class DaySetScale {
   /**
    * Far-out fences, lowest and highest price of `days` (sortedSampleBounds, farOutFences.ts), the same
    * numbers as of the days' prices sorted afresh, read off the kept sorted set (kept or moved to `days`
-   * as by {@link of}): O(1) when `of` was just asked for the same set.
+   * as by {@link of}): no sorting when `of` was just asked for the same set.
    *
    * @param days as for {@link of}
    */

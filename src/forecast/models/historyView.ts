@@ -213,7 +213,7 @@ export class HistoryView {
 
   /**
    * Far-out fences, lowest and highest price of past days `days` (farOutFences.ts), read off the same
-   * kept sorted set as {@link robustScaleOf} (asked right after it for the same days: O(1)).
+   * kept sorted set as {@link robustScaleOf} (asked right after it for the same days, nothing is sorted again).
    */
   priceBoundsOf(days: readonly number[], windowDays: number): SampleBounds {
     return this.grids.scales(windowDays).boundsOf(days.map((i) => this.past(i).prices));
