@@ -172,6 +172,7 @@ function fitWindows(
   const [t1, t2, t7] = targetLags.map((i) => days.use(i)) as [number, number, number];
   const grids = days.transform(view, S, scale);
   const { z, exogenous, min, max, last } = grids;
+  const lagZ = clippedLagGrid(z, min, max, days.count, S, low, high);
   const minMaxLast = new Float64Array(3 * n);
   for (let r = 0; r < n; r++) {
     const d = lag1[r] as number;
@@ -189,9 +190,9 @@ function fitWindows(
     // The slot's columns, each over the training rows: lag1, lag2, lag7, the exogenous columns of the
     // day and of the day before, the response.
     for (let r = 0; r < n; r++) {
-      columns[r] = clip(z[(lag1[r] as number) * S + s] as number);
-      columns[n + r] = clip(z[(lag2[r] as number) * S + s] as number);
-      columns[2 * n + r] = clip(z[(lag7[r] as number) * S + s] as number);
+      columns[r] = lagZ[(lag1[r] as number) * S + s] as number;
+      columns[n + r] = lagZ[(lag2[r] as number) * S + s] as number;
+      columns[2 * n + r] = lagZ[(lag7[r] as number) * S + s] as number;
       columns[(a - 1) * n + r] = z[(own[r] as number) * S + s] as number;
     }
     for (let j = 0; j < names; j++) {
@@ -206,9 +207,9 @@ function fitWindows(
     }
     // The delivery day's regressors, in the column order of ARX_COLUMNS; in the last slot `last`
     // equals price(d-1,s) and is left out (see ArxGramBuilder).
-    features[0] = clip(z[t1 * S + s] as number);
-    features[1] = clip(z[t2 * S + s] as number);
-    features[2] = clip(z[t7 * S + s] as number);
+    features[0] = lagZ[t1 * S + s] as number;
+    features[1] = lagZ[t2 * S + s] as number;
+    features[2] = lagZ[t7 * S + s] as number;
     features[3] = clip(min[t1] as number);
     features[4] = clip(max[t1] as number);
     features[5] = s === S - 1 ? 0 : clip(last[t1] as number);
@@ -314,10 +315,31 @@ export function keptAsinhDay(scale: RobustScale, prices: Float64Array, out: Floa
   return true;
 }
 
-/** Scratch buffers of the slot-by-slot grids, kept between forecasts and grown as needed. */
-const scratchBuffers = [new Float64Array(0), new Float64Array(0)];
+/**
+ * The grid of transformed prices `z` (D days of S slots) clipped at [low, high], for the lags: `z`
+ * itself when no day's min or max is beyond them (the common case), else a copy in scratch space with
+ * the days that are clipped; `z` is not changed (the responses and keptAsinhDay read it).
+ */
+function clippedLagGrid(z: Float64Array, min: Float64Array, max: Float64Array, D: number, S: number, low: number, high: number): Float64Array {
+  let out: Float64Array | null = null;
+  for (let d = 0; d < D; d++) {
+    if ((min[d] as number) >= low && (max[d] as number) <= high) continue;
+    if (out === null) {
+      out = scratch(2, S * D);
+      out.set(z.subarray(0, S * D));
+    }
+    for (let i = d * S; i < (d + 1) * S; i++) {
+      const v = out[i] as number;
+      out[i] = v < low ? low : v > high ? high : v;
+    }
+  }
+  return out ?? z;
+}
 
-function scratch(which: 0 | 1, length: number): Float64Array {
+/** Scratch buffers of the slot-by-slot grids (transformed prices, exogenous columns, clipped lags), kept between forecasts and grown as needed. */
+const scratchBuffers = [new Float64Array(0), new Float64Array(0), new Float64Array(0)];
+
+function scratch(which: 0 | 1 | 2, length: number): Float64Array {
   if ((scratchBuffers[which] as Float64Array).length < length) scratchBuffers[which] = new Float64Array(length);
   return scratchBuffers[which] as Float64Array;
 }
