@@ -134,7 +134,9 @@ function fitWindows(
   const n = counts[counts.length - 1] as number;
   const rowsUsed = training.slice(0, n);
   const longest = Math.max(...settings.windowsDays);
-  const scale = windowScale(view, rowsUsed, longest);
+  // Median and MAD of all prices of the training days (robustScale, kept sorted from one window to the
+  // next), and the far-out fences and ends of the same prices.
+  const { scale, bounds } = view.robustScaleWithBoundsOf(rowsUsed, longest);
   // The price lags are clipped at the far-out fences of the training days' prices, on the model's scale
   // (the transformation is increasing, so clipping at the transformed fences equals transforming the
   // clipped prices), as the driver regression clips its lags (farOutFences.ts, Tukey 1977): Z is linear
@@ -145,7 +147,6 @@ function fitWindows(
   // clipped lags (a point forecast of 27 120 on that market), so each window's forecast is also held
   // within the lowest and highest price of the training days: a centre beyond every price the fit saw
   // is an extrapolation, not a view of the market (the cases: docs/forecast-quality.md).
-  const bounds = view.priceBoundsOf(rowsUsed, longest);
   const low = toAsinhScale(bounds.fences.low, scale);
   const high = toAsinhScale(bounds.fences.high, scale);
   const lowest = toAsinhScale(bounds.lowest, scale);
@@ -172,7 +173,15 @@ function fitWindows(
   const [t1, t2, t7] = targetLags.map((i) => days.use(i)) as [number, number, number];
   const grids = days.transform(view, S, scale);
   const { z, exogenous, min, max, last } = grids;
-  const lagZ = clippedLagGrid(z, min, max, days.count, S, low, high);
+  // The entries of the lag columns (lag1, lag2, lag7 of each row) whose day has a price beyond the
+  // fences, the only ones clipping can change: clipped after each slot's columns are gathered.
+  const clipAt: number[] = [];
+  const farOut = (d: number): boolean => (min[d] as number) < low || (max[d] as number) > high;
+  for (let r = 0; r < n; r++) {
+    if (farOut(lag1[r] as number)) clipAt.push(r);
+    if (farOut(lag2[r] as number)) clipAt.push(n + r);
+    if (farOut(lag7[r] as number)) clipAt.push(2 * n + r);
+  }
   const minMaxLast = new Float64Array(3 * n);
   for (let r = 0; r < n; r++) {
     const d = lag1[r] as number;
@@ -190,11 +199,12 @@ function fitWindows(
     // The slot's columns, each over the training rows: lag1, lag2, lag7, the exogenous columns of the
     // day and of the day before, the response.
     for (let r = 0; r < n; r++) {
-      columns[r] = lagZ[(lag1[r] as number) * S + s] as number;
-      columns[n + r] = lagZ[(lag2[r] as number) * S + s] as number;
-      columns[2 * n + r] = lagZ[(lag7[r] as number) * S + s] as number;
+      columns[r] = z[(lag1[r] as number) * S + s] as number;
+      columns[n + r] = z[(lag2[r] as number) * S + s] as number;
+      columns[2 * n + r] = z[(lag7[r] as number) * S + s] as number;
       columns[(a - 1) * n + r] = z[(own[r] as number) * S + s] as number;
     }
+    for (const at of clipAt) columns[at] = clip(columns[at] as number);
     for (let j = 0; j < names; j++) {
       const xs = j * S + s;
       const dayStride = names * S;
@@ -207,9 +217,9 @@ function fitWindows(
     }
     // The delivery day's regressors, in the column order of ARX_COLUMNS; in the last slot `last`
     // equals price(d-1,s) and is left out (see ArxGramBuilder).
-    features[0] = lagZ[t1 * S + s] as number;
-    features[1] = lagZ[t2 * S + s] as number;
-    features[2] = lagZ[t7 * S + s] as number;
+    features[0] = clip(z[t1 * S + s] as number);
+    features[1] = clip(z[t2 * S + s] as number);
+    features[2] = clip(z[t7 * S + s] as number);
     features[3] = clip(min[t1] as number);
     features[4] = clip(max[t1] as number);
     features[5] = s === S - 1 ? 0 : clip(last[t1] as number);
@@ -315,36 +325,11 @@ export function keptAsinhDay(scale: RobustScale, prices: Float64Array, out: Floa
   return true;
 }
 
-/**
- * The grid of transformed prices `z` (D days of S slots) clipped at [low, high], for the lags: `z`
- * itself when no day's min or max is beyond them (the common case), else a copy in scratch space with
- * the days that are clipped; `z` is not changed (the responses and keptAsinhDay read it).
- */
-function clippedLagGrid(z: Float64Array, min: Float64Array, max: Float64Array, D: number, S: number, low: number, high: number): Float64Array {
-  let out: Float64Array | null = null;
-  for (let d = 0; d < D; d++) {
-    if ((min[d] as number) >= low && (max[d] as number) <= high) continue;
-    if (out === null) {
-      out = scratch(2, S * D);
-      out.set(z.subarray(0, S * D));
-    }
-    for (let i = d * S; i < (d + 1) * S; i++) {
-      const v = out[i] as number;
-      out[i] = v < low ? low : v > high ? high : v;
-    }
-  }
-  return out ?? z;
-}
+/** Scratch buffers of the slot-by-slot grids, kept between forecasts and grown as needed. */
+const scratchBuffers = [new Float64Array(0), new Float64Array(0)];
 
-/** Scratch buffers of the slot-by-slot grids (transformed prices, exogenous columns, clipped lags), kept between forecasts and grown as needed. */
-const scratchBuffers = [new Float64Array(0), new Float64Array(0), new Float64Array(0)];
-
-function scratch(which: 0 | 1 | 2, length: number): Float64Array {
+function scratch(which: 0 | 1, length: number): Float64Array {
   if ((scratchBuffers[which] as Float64Array).length < length) scratchBuffers[which] = new Float64Array(length);
   return scratchBuffers[which] as Float64Array;
 }
 
-/** Median and MAD of all prices of the training days (robustScale, kept sorted from one window to the next). */
-function windowScale(view: HistoryView, training: readonly number[], windowDays: number): RobustScale {
-  return view.robustScaleOf(training, windowDays);
-}

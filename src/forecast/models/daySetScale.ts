@@ -37,7 +37,24 @@ export class DaySetScale {
    * @param days price arrays of the days, each finite, at least one value in all, no array twice
    */
   of(days: readonly Float64Array[]): RobustScale {
+    return this.scaleOf(days, new Set(days));
+  }
+
+  /**
+   * {@link of} and, from the same sorted prices, their far-out fences, lowest and highest value
+   * (sortedSampleBounds, farOutFences.ts): the same numbers as of the days' prices sorted afresh.
+   *
+   * @param days as for {@link of}
+   */
+  withBounds(days: readonly Float64Array[]): { scale: RobustScale; bounds: SampleBounds } {
     const next = new Set(days);
+    const scale = this.scaleOf(days, next);
+    // A day given twice: `of` answers from the days themselves and the kept set is not moved.
+    const sorted = next.size === days.length ? this.sorted.subarray(0, this.length) : concatenate(days).sort();
+    return { scale, bounds: sortedSampleBounds(sorted) };
+  }
+
+  private scaleOf(days: readonly Float64Array[], next: Set<Float64Array>): RobustScale {
     if (next.size !== days.length) return robustScale(concatenate(days));
     if (this.update(days, next) && this.last !== null) return this.last;
     this.last = null;
@@ -49,20 +66,6 @@ export class DaySetScale {
     if (mad === 0) return robustScale(concatenate(days));
     this.last = { median, scale: mad * MAD_TO_SIGMA };
     return this.last;
-  }
-
-  /**
-   * Far-out fences, lowest and highest price of `days` (sortedSampleBounds, farOutFences.ts), the same
-   * numbers as of the days' prices sorted afresh, read off the kept sorted set (kept or moved to `days`
-   * as by {@link of}): no sorting when `of` was just asked for the same set.
-   *
-   * @param days as for {@link of}
-   */
-  boundsOf(days: readonly Float64Array[]): SampleBounds {
-    const next = new Set(days);
-    if (next.size !== days.length) return sortedSampleBounds(concatenate(days).sort());
-    if (!this.update(days, next)) this.last = null;
-    return sortedSampleBounds(this.sorted.subarray(0, this.length));
   }
 
   /** The answer for the last set, when it did not depend on the days' order (asked again: the same object). */

@@ -212,11 +212,11 @@ export class HistoryView {
   }
 
   /**
-   * Far-out fences, lowest and highest price of past days `days` (farOutFences.ts), read off the same
-   * kept sorted set as {@link robustScaleOf} (asked right after it for the same days, nothing is sorted again).
+   * {@link robustScaleOf} and, from the same sorted prices, their far-out fences, lowest and highest
+   * price (farOutFences.ts; DaySetScale.withBounds).
    */
-  priceBoundsOf(days: readonly number[], windowDays: number): SampleBounds {
-    return this.grids.scales(windowDays).boundsOf(days.map((i) => this.past(i).prices));
+  robustScaleWithBoundsOf(days: readonly number[], windowDays: number): { scale: RobustScale; bounds: SampleBounds } {
+    return this.grids.scales(windowDays).withBounds(days.map((i) => this.past(i).prices));
   }
 
   /** Day number of past day i. */
