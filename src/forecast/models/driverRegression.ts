@@ -1,4 +1,5 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
+import { farOutFences } from './farOutFences.js';
 import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
@@ -483,18 +484,6 @@ class DriverDays {
   toPrice(z: number): number {
     return this.scale === null ? z : fromAsinhScale(z, this.scale);
   }
-}
-
-/**
- * Tukey's far-out fences of a day's prices, [Q1 - 3 IQR, Q3 + 3 IQR] with the day's quartiles: clipped
- * at them, a few spike periods cannot move the day's mean or a lag far, while ordinary days are left as
- * they are (Tukey 1977, Exploratory Data Analysis, Addison-Wesley, section 2H).
- */
-export function farOutFences(values: ArrayLike<number>): { low: number; high: number } {
-  const sorted = Float64Array.from(values).sort();
-  const q1 = sortedQuantile(sorted, 0.25);
-  const q3 = sortedQuantile(sorted, 0.75);
-  return { low: q1 - 3 * (q3 - q1), high: q3 + 3 * (q3 - q1) };
 }
 
 function meanOf(values: Float64Array): number {
