@@ -10,7 +10,10 @@
 //     mean price instead of the realised one (truth-mean.csv). Realised profit in a market with rare
 //     spikes near the cap is a lottery (a plan that happens to charge in a spike hour loses what a year
 //     earns); the expected profit measures the plans, not the draw;
-//   - the seconds the method took.
+//   - the seconds the method took;
+//   - the centre: the share below q0.5 with its standard error, the days as clusters, and the share
+//     expected under the truth (the truth's probability below the forecast's q0.5, which one year's
+//     draw does not move).
 // The truth's own row shows what sampling alone does to coverage and the median share over one year.
 // Prints markdown tables (docs/forecast-quality.md holds them).
 //
@@ -44,6 +47,7 @@ const { readPriceHistory } = await loadDist('io/readPriceHistory.js');
 const { readQuantileForecast } = await loadDist('io/readQuantileForecast.js');
 const { batteryModel } = await loadDist('battery/batterySpec.js');
 const { DayCalendar } = await loadDist('market/dayCalendar.js');
+const { orderExpectation } = await loadDist('forecast/quantileDistribution.js');
 
 const FROM = arg('from', SPAN.truthFrom);
 const TO = arg('to', SPAN.to);
@@ -95,7 +99,42 @@ for (const folder of folders) {
       periods.forEach((p, t) => (surprise += (day.clearingPricePerMwh[t] - means[t]) * (p.soldAuctionMwh - p.boughtAuctionMwh)));
       return sum + day.runs[taking].totals.profit - surprise;
     }, 0);
-    return { days: kept.map((q) => q.day), table, profit };
+    return { days: kept.map((q) => q.day), table, profit, centre: centreShares(kept) };
+  };
+
+  /**
+   * The share of prices below the forecast's q0.5 two more ways: its standard error with the days as
+   * clusters (the periods of a day share the day's surprise, so a year's share varies as a mean of ~365
+   * day means, not of every period), and the share EXPECTED under the truth, the mean over periods of
+   * the truth's P(price <= forecast q0.5) (orderExpectation's acceptance of a buy limited there), which
+   * the draw's sampling does not move: 0.5 for the truth itself.
+   * Cluster-robust variance of a mean (Liang and Zeger 1986; Cameron and Miller 2015, J. Human
+   * Resources 50(2), 317-372, with the small-sample factor D / (D - 1)):
+   *   Var(p) = D / (D - 1) sum_d (sum_t (b_dt - p))^2 / N^2,  b_dt = 1{y_dt < q0.5}, N periods, D days.
+   */
+  const centreShares = (forecasts) => {
+    const bounds = { priceFloor: market.priceFloor, priceCap: market.priceCap };
+    let below = 0;
+    let expected = 0;
+    let count = 0;
+    const perDay = [];
+    for (const q of forecasts) {
+      const k = q.levels.indexOf(0.5);
+      const truthDay = truthFile.days.get(q.day);
+      const y = realised.get(q.day);
+      let dayBelow = 0;
+      q.prices.forEach((row, t) => {
+        dayBelow += y[t] < row[k] ? 1 : 0;
+        expected += orderExpectation(truthDay.levels, truthDay.prices[t], 'buy', row[k], bounds).acceptance;
+      });
+      perDay.push([dayBelow, q.prices.length]);
+      below += dayBelow;
+      count += q.prices.length;
+    }
+    const share = below / count;
+    const D = perDay.length;
+    const squares = perDay.reduce((sum, [b, n]) => sum + (b - n * share) ** 2, 0);
+    return { share, standardError: Math.sqrt((D / (D - 1)) * squares) / count, expected: expected / count };
   };
 
   const truthDays = [...truthFile.days.values()].sort((a, b) => (a.day < b.day ? -1 : 1));
@@ -129,12 +168,14 @@ for (const folder of folders) {
     const share = (p) => row.profit[p] / sameDays.profit[p];
     const label = row.name === DEFAULT_METHOD ? `**${row.name}** (default)` : row.name;
     lines.push(`| ${[label, row.days.length, fmt(ratio, 3), percent(cov(0.8)), percent(cov(0.9)), fmt(o.belowShare[LEVELS.indexOf(0.5)], 3), percent(share('price-taking')), percent(share('expected')), percent(share('median')), row.seconds === null ? '-' : fmt(row.seconds, 0)].join(' | ')} |`);
-    if (row !== rows[0]) summary.push({ setting: name, method: row.name, ratio, cov80: cov(0.8), cov90: cov(0.9), below: o.belowShare[LEVELS.indexOf(0.5)], priceTaking: share('price-taking'), expected: share('expected'), median: share('median'), chosen: row.chosen });
+    if (row !== rows[0]) summary.push({ setting: name, method: row.name, belowExpected: row.centre.expected, ratio, cov80: cov(0.8), cov90: cov(0.9), below: o.belowShare[LEVELS.indexOf(0.5)], priceTaking: share('price-taking'), expected: share('expected'), median: share('median'), chosen: row.chosen });
   }
   const setting = SETTINGS.find((s) => s.name === name);
   console.log(`\n### ${name}: ${setting.summary}\n`);
   console.log(`${truth.days.length} days ${FROM} to ${TO}; true pinball ${fmt(truth.table.overall.crps, 3)} ${market.currency}/MWh; profit on the true quantiles: price-taking ${fmt(truth.profit['price-taking'], 0)} (expected ${fmt(truth.profit.expected, 0)}), median ${fmt(truth.profit.median, 0)} ${market.currency}\n`);
   console.log(lines.join('\n'));
+  console.log(`\nThe centre: share below q0.5 with its standard error (days as clusters), and the share expected under the truth (0.5 for the truth itself)\n`);
+  console.log(['| method | below q0.5 | standard error | below q0.5, expected under the truth |', '|---|---|---|---|', ...rows.map((row) => `| ${row.name} | ${fmt(row.centre.share, 3)} | ${fmt(row.centre.standardError, 3)} | ${fmt(row.centre.expected, 3)} |`)].join('\n'));
   const autoRow = rows.find((r) => r.chosen !== null);
   if (autoRow !== undefined) console.log(`\n${autoRow.name} chose: ${Object.entries(autoRow.chosen).sort((a, b) => b[1] - a[1]).map(([m, n]) => `${m} ${n} days`).join(', ')}`);
 }
@@ -150,6 +191,10 @@ for (const method of methods) {
 }
 console.log(`\n### Across the ${folders.length} settings (worst or range over settings)\n`);
 console.log(lines.join('\n'));
+for (const method of methods) {
+  const shares = summary.filter((r) => r.method === method).map((r) => r.belowExpected);
+  console.log(`\n${method}: below q0.5 expected under the truth ${fmt(Math.min(...shares), 3)} - ${fmt(Math.max(...shares), 3)}`);
+}
 console.log(`\noptions ${JSON.stringify(OPTIONS)} over DEFAULTS; goals: pinball <= 1.08x the truth's, coverage within 2 points, below q0.5 in 0.48-0.52, price-taking >= 90% of the truth's`);
 
 /** Days per chosen method, for a method that records its choice (auto); else null. */

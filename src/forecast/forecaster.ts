@@ -26,7 +26,7 @@ import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';
 import { arxForecast, keptAsinhDay } from './models/arx.js';
 import { toAsinhScales } from './models/robustAsinh.js';
-import { driverForecast } from './models/driverRegression.js';
+import { DriverFits, driverForecast } from './models/driverRegression.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { GridCache, HistoryView } from './models/historyView.js';
 import type { PointForecast } from './models/pointForecast.js';
@@ -106,6 +106,15 @@ export interface ForecastOptions {
   /** Scale the driver regression is fitted on (and its errors measured on, with errorScale 'model'). */
   readonly driverScale: 'asinh' | 'price';
   /**
+   * Refit cadence of the driver regression [days], >= 1: its coefficients are estimated on the day
+   * numbers that are multiples of it, each from the days before, and every delivery day until the next
+   * refit uses them with its own drivers and lags (driverRegression.ts, DriverSettings.refitDays). 1 fits
+   * every day afresh. Default 5: `auto`'s year takes 0.7x the CPU of daily refits, with pinball losses
+   * within 0.002 of theirs on every setting of two draws of the known-distribution bench
+   * (docs/forecast-quality.md, section "Speed of `auto`").
+   */
+  readonly driverRefitDays: number;
+  /**
    * Candidates of `auto`, in order of preference (a tie or a day without validation days goes to the
    * first that can forecast). Candidates needing residual-load columns are left out for a history
    * without them.
@@ -166,6 +175,7 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   driverWindowsDays: Object.freeze([182, 364, 728]),
   driverKnots: 3,
   driverScale: 'asinh',
+  driverRefitDays: 5,
   spreadPool: 'level',
   autoCandidates: AUTO_CANDIDATES,
   autoValidationDays: AUTO_VALIDATION_DAYS,
@@ -210,6 +220,8 @@ export class Forecaster {
   private readonly points = new Map<PointModelName, (PointForecast | null | undefined)[]>();
   private readonly warmStarts = new QraWarmStarts();
   private readonly driverWarmStarts = new QraWarmStarts();
+  /** The driver regression's fits on its refit days (speed only: a fit depends only on the days before its day). */
+  private readonly driverFits = new DriverFits();
   private readonly losses = new Map<string, number | null>();
   /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
   private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
@@ -495,7 +507,7 @@ export class Forecaster {
     }
     let forecast = cache[dayIndex];
     if (forecast === undefined) {
-      forecast = makePointForecast(view ?? this.viewBefore(dayIndex), model, this.options);
+      forecast = makePointForecast(view ?? this.viewBefore(dayIndex), model, this.options, this.driverFits);
       cache[dayIndex] = forecast;
     }
     return forecast;
@@ -557,7 +569,7 @@ function pointModelOf(method: SingleMethod, options: ForecastOptions): PointMode
   }
 }
 
-function makePointForecast(view: HistoryView, model: PointModelName, options: ForecastOptions): PointForecast | null {
+function makePointForecast(view: HistoryView, model: PointModelName, options: ForecastOptions, driverFits: DriverFits): PointForecast | null {
   if (model === 'naive') return seasonalNaive(view, options.naiveLagDays);
   if (model === 'drivers') {
     return driverForecast(view, {
@@ -565,6 +577,8 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
       minTrainingDays: options.minTrainingDays,
       knots: options.driverKnots,
       scale: options.driverScale,
+      refitDays: options.driverRefitDays,
+      fits: driverFits,
       stopwatch: options.stopwatch,
     });
   }
@@ -599,6 +613,7 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   });
   positiveInteger('autoValidationDays', o.autoValidationDays);
   positiveInteger('driverKnots', o.driverKnots, 0);
+  positiveInteger('driverRefitDays', o.driverRefitDays);
   if (o.driverWindowsDays.length === 0) throw new ArgumentError('options.driverWindowsDays', 'at least one window length', o.driverWindowsDays);
   o.driverWindowsDays.forEach((w, i) => positiveInteger(`driverWindowsDays[${i}]`, w, o.minTrainingDays));
   if (o.driverScale !== 'asinh' && o.driverScale !== 'price') throw new ArgumentError('options.driverScale', "'asinh' or 'price'", o.driverScale);

@@ -1,4 +1,4 @@
-import { closeSync, existsSync, fsyncSync, lstatSync, mkdtempSync, openSync, readdirSync, readlinkSync, renameSync, rmdirSync, rmSync, statSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
+import { closeSync, existsSync, fdatasync, fsyncSync, lstatSync, mkdtempSync, openSync, readdirSync, readlinkSync, renameSync, rmdirSync, rmSync, statSync, unlinkSync, writeFileSync, writeSync } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { InputError, type InputProblem } from '../errors/inputError.js';
 import { LOCK_TEMP_PREFIX, OutputLock } from './outputLock.js';
@@ -71,6 +71,13 @@ export interface StagedFile {
    * Bytes are written as they are (UTF-8 text).
    */
   append(text: string | Uint8Array): void;
+  /**
+   * Starts flushing what was appended to disk on a thread of the pool, so that the disk works while
+   * this thread goes on (commit then has less left to wait for: a year's ledger is 18 MiB); resolves
+   * when it is flushed. Await it before the commit: a failure discards the stage and rejects with the
+   * input error naming --out, as a failed append does. Append nothing while it runs.
+   */
+  flush(): Promise<void>;
 }
 
 /**
@@ -131,6 +138,22 @@ export class OutputStage {
           else for (let written = 0; written < text.length; ) written += writeSync(fd, text, written, text.length - written);
         });
       },
+      flush: () =>
+        new Promise<void>((done, failed) => {
+          if (this.done) throw new RangeError(`OutputStage: ${name} is closed`);
+          fdatasync(fd, (err) => {
+            if (err === null) done();
+            else {
+              try {
+                this.guard(() => {
+                  throw err;
+                });
+              } catch (problem) {
+                failed(problem);
+              }
+            }
+          });
+        }),
     };
   }
 

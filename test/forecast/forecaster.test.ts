@@ -41,6 +41,7 @@ describe('Forecaster', () => {
     expect(FORECAST_METHODS).toEqual(['auto', 'naive-hs', 'arx-hs', 'lasso-hs', 'arx-conformal', 'qra', 'driver-hs', 'driver-fhs', 'driver-qr']);
     expect(DEFAULTS.windowsDays).toEqual([56, 91, 182, 364]);
     expect(DEFAULTS.driverWindowsDays).toEqual([182, 364, 728]);
+    expect(DEFAULTS.driverRefitDays).toBe(5);
     expect(Object.isFrozen(DEFAULTS)).toBe(true);
   });
 

@@ -1,6 +1,7 @@
 import { spawnSync } from 'node:child_process';
-import { existsSync, linkSync, lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync, writeFileSync } from 'node:fs';
+import fs, { existsSync, linkSync, lstatSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
+import { syncBuiltinESMExports } from 'node:module';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors/inputError.js';
@@ -174,6 +175,41 @@ describe('OutputStage', () => {
     const fresh = join(scratch, 'fresh', 'out');
     OutputStage.begin(fresh, ['a.csv'], false).discard();
     expect(existsSync(join(scratch, 'fresh'))).toBe(false);
+  });
+
+  it('flushes a file on a thread of the pool while the others are written, and commits every byte of it', async () => {
+    const dir = folder({});
+    const stage = OutputStage.begin(dir, ['a.csv', 'b.json'], false);
+    const a = stage.open('a.csv');
+    a.append('x,y\n');
+    a.append(new TextEncoder().encode('1,2\n'));
+    const flushed = a.flush();
+    stage.write('b.json', '{}');
+    await flushed;
+    stage.commit();
+    expect(contents(dir)).toEqual({ 'a.csv': 'x,y\n1,2\n', 'b.json': '{}' });
+  });
+
+  it('a flush that fails (a full disk) discards the stage and names --out, as a failed append does', async () => {
+    const dir = folder({ 'a.csv': 'old a' });
+    const stage = OutputStage.begin(dir, ['a.csv'], true);
+    const a = stage.open('a.csv');
+    a.append('half');
+    const real = fs.fdatasync;
+    // The disk fills up under the flush: fdatasync answers ENOSPC (ext4 reports delayed allocation's failures there).
+    fs.fdatasync = ((_fd: number, done: (err: NodeJS.ErrnoException | null) => void) => done(Object.assign(new Error('ENOSPC: no space left on device, fdatasync'), { code: 'ENOSPC' }))) as typeof fs.fdatasync;
+    syncBuiltinESMExports();
+    let failure: unknown;
+    try {
+      failure = await a.flush().catch((err: unknown) => err);
+    } finally {
+      fs.fdatasync = real;
+      syncBuiltinESMExports();
+    }
+    expect(failure).toBeInstanceOf(InputError);
+    expect((failure as InputError).message).toBe(`${dir}: --out: the disk is full; free some space or choose another folder`);
+    expect(contents(dir)).toEqual({ 'a.csv': 'old a' });
+    await expect(a.flush()).rejects.toThrow(/a\.csv is closed/);
   });
 
   it('refuses to commit a set with an output never written', () => {

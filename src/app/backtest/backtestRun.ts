@@ -91,6 +91,10 @@ async function lockedBacktest(s: CheckedBacktestSettings, parts: BacktestParts, 
     const scenarioPlanning = settings === null || scenarioPaths === null || scenarioModules === null ? null : scenarioModules.scenarioPlanningOf(settings, { market, history, forecast, tools, paths: scenarioPaths.paths });
     const result = runBacktest({ market, battery, history, forecast, from: s.from, to: s.to }, { alpha: s.alpha, unaccepted: s.unaccepted, policies: s.policies, onDay, keepLedger: false, onLedgerDay, scenarioPlanning });
     progress.finish();
+    // The disk writes the ledger while the summary is made.
+    const ledgerFlushed = ledger.flush();
+    // Looked at before the commit; a run that fails before it discards the stage without asking.
+    ledgerFlushed.catch(() => undefined);
     const metrics = backtestMetrics(result, battery);
     const unrounded = unroundedMetrics(s, { market, battery, history, forecast }, hooks);
     const inputs = inputsShown(paths, s.model);
@@ -102,6 +106,7 @@ async function lockedBacktest(s: CheckedBacktestSettings, parts: BacktestParts, 
       const { backtestReport } = await import('../../report/backtestReport.js');
       stage.write('report.html', backtestReport({ result, metrics, market, battery, inputs }));
     }
+    await ledgerFlushed;
     stage.commit();
     if (summary.yearlyFigures.warning !== null) hooks.note(`warning: ${summary.yearlyFigures.warning}\n`);
     return { status: 'done', summary, text: `${backtestSummaryText(result, metrics, market, s.out, outputs, unrounded, scenarioPaths === null ? [] : [`  paths: ${scenarioPaths.source}`])}${model?.note ?? ''}` };

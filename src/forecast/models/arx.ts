@@ -53,7 +53,11 @@ const LAGS = [1, 2, 7] as const;
  * day before (as in the LEAR model of Lago et al. 2021; with them the model can tell the part of
  * yesterday's price that yesterday's load and renewables explain from a persistent price level);
  * in the last slot, where Z(d'-1,S-1) is the lag-1 regressor itself, b6 is left out. Lags are
- * calendar days; a training day is used only when its three lag days are in the history.
+ * calendar days; a training day is used only when its three lag days are in the history. Every price
+ * regressor (the lags, min, max and last) is read clipped at Tukey's far-out fences [Q1 - 3 IQR,
+ * Q3 + 3 IQR] of the training days' prices, on the Z scale, in the fit and in the forecast alike (see
+ * fitWindows; Tukey 1977); the response is not clipped. Each window's forecast is held within the
+ * lowest and highest Z of the training days.
  * Z = asinh((P - a) / b) with a, b the median and normalised MAD of all prices of the training days
  * of the longest window (Uniejewski, Weron and Ziel 2018), one transformation per delivery day shared
  * by its windows, so that each shorter window is a prefix of the longest and one pass over the days
@@ -64,8 +68,9 @@ const LAGS = [1, 2, 7] as const;
  * missing from the history is replaced by the latest earlier day.
  *
  * References: G. E. P. Box and G. M. Jenkins (1970), Time Series Analysis: Forecasting and Control,
- * Holden-Day; B. Uniejewski, R. Weron and F. Ziel (2018), Variance stabilizing transformations for
- * electricity spot price forecasting, IEEE Trans. Power Syst. 33(2), 2219-2229,
+ * Holden-Day; J. W. Tukey (1977), Exploratory Data Analysis, Addison-Wesley, section 2H;
+ * B. Uniejewski, R. Weron and F. Ziel (2018), Variance stabilizing transformations for electricity
+ * spot price forecasting, IEEE Trans. Power Syst. 33(2), 2219-2229,
  * doi:10.1109/TPWRS.2017.2734563; K. Hubicka, G. Marcjasz and R. Weron (2019), A note on averaging
  * day-ahead electricity price forecasts across calibration windows, IEEE Trans. Sustain. Energy
  * 10(1), 321-323, doi:10.1109/TSTE.2018.2869557; J. Lago, G. Marcjasz, B. De Schutter and R. Weron
@@ -128,7 +133,25 @@ function fitWindows(
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rowsUsed = training.slice(0, n);
-  const scale = windowScale(view, rowsUsed, Math.max(...settings.windowsDays));
+  const longest = Math.max(...settings.windowsDays);
+  // Median and MAD of all prices of the training days (robustScale, kept sorted from one window to the
+  // next), and the far-out fences and ends of the same prices.
+  const { scale, bounds } = view.robustScaleWithBoundsOf(rowsUsed, longest);
+  // The price lags are clipped at the far-out fences of the training days' prices, on the model's scale
+  // (the transformation is increasing, so clipping at the transformed fences equals transforming the
+  // clipped prices), as the driver regression clips its lags (farOutFences.ts, Tukey 1977): Z is linear
+  // in the lags and P = a + b sinh(Z), so a lag far beyond what the fit saw (yesterday's spike) would be
+  // extrapolated and sent back exponentially (medians of 1e6 and 1e12 on a market capped at 4 000). The
+  // response is left as it is. Clipping is monotone: min, max and last of the clipped day are those of
+  // the day, clipped. A fit whose training days hold spikes in the response can still extrapolate from
+  // clipped lags (a point forecast of 27 120 on that market), so each window's forecast is also held
+  // within the lowest and highest price of the training days: a centre beyond every price the fit saw
+  // is an extrapolation, not a view of the market (the cases: docs/forecast-quality.md).
+  const low = toAsinhScale(bounds.fences.low, scale);
+  const high = toAsinhScale(bounds.fences.high, scale);
+  const lowest = toAsinhScale(bounds.lowest, scale);
+  const highest = toAsinhScale(bounds.highest, scale);
+  const clip = (v: number): number => (v < low ? low : v > high ? high : v);
   // The past days the forecast reads, each transformed once: by row, the positions of its own day
   // (the response, its exogenous columns) and of its lag days (lag 1 also gives the day before's
   // exogenous columns and the min, max and last).
@@ -150,12 +173,21 @@ function fitWindows(
   const [t1, t2, t7] = targetLags.map((i) => days.use(i)) as [number, number, number];
   const grids = days.transform(view, S, scale);
   const { z, exogenous, min, max, last } = grids;
+  // The entries of the lag columns (lag1, lag2, lag7 of each row) whose day has a price beyond the
+  // fences, the only ones clipping can change: clipped after each slot's columns are gathered.
+  const clipAt: number[] = [];
+  const farOut = (d: number): boolean => (min[d] as number) < low || (max[d] as number) > high;
+  for (let r = 0; r < n; r++) {
+    if (farOut(lag1[r] as number)) clipAt.push(r);
+    if (farOut(lag2[r] as number)) clipAt.push(n + r);
+    if (farOut(lag7[r] as number)) clipAt.push(2 * n + r);
+  }
   const minMaxLast = new Float64Array(3 * n);
   for (let r = 0; r < n; r++) {
     const d = lag1[r] as number;
-    minMaxLast[3 * r] = min[d] as number;
-    minMaxLast[3 * r + 1] = max[d] as number;
-    minMaxLast[3 * r + 2] = last[d] as number;
+    minMaxLast[3 * r] = clip(min[d] as number);
+    minMaxLast[3 * r + 1] = clip(max[d] as number);
+    minMaxLast[3 * r + 2] = clip(last[d] as number);
   }
   const watch = settings.stopwatch;
   const builder = timedFits(watch, 0, () => new ArxGramBuilder({ minMaxLast, weekdays }, counts));
@@ -172,6 +204,7 @@ function fitWindows(
       columns[2 * n + r] = z[(lag7[r] as number) * S + s] as number;
       columns[(a - 1) * n + r] = z[(own[r] as number) * S + s] as number;
     }
+    for (const at of clipAt) columns[at] = clip(columns[at] as number);
     for (let j = 0; j < names; j++) {
       const xs = j * S + s;
       const dayStride = names * S;
@@ -184,12 +217,12 @@ function fitWindows(
     }
     // The delivery day's regressors, in the column order of ARX_COLUMNS; in the last slot `last`
     // equals price(d-1,s) and is left out (see ArxGramBuilder).
-    features[0] = z[t1 * S + s] as number;
-    features[1] = z[t2 * S + s] as number;
-    features[2] = z[t7 * S + s] as number;
-    features[3] = min[t1] as number;
-    features[4] = max[t1] as number;
-    features[5] = s === S - 1 ? 0 : (last[t1] as number);
+    features[0] = clip(z[t1 * S + s] as number);
+    features[1] = clip(z[t2 * S + s] as number);
+    features[2] = clip(z[t7 * S + s] as number);
+    features[3] = clip(min[t1] as number);
+    features[4] = clip(max[t1] as number);
+    features[5] = s === S - 1 ? 0 : clip(last[t1] as number);
     for (let w = 1; w <= 6; w++) features[5 + w] = view.target.weekday === w ? 1 : 0;
     for (let j = 0; j < names; j++) {
       features[12 + j] = (targetExogenous[j] as Float64Array)[s] as number;
@@ -199,7 +232,7 @@ function fitWindows(
     timedFits(watch, counts.length, () =>
       builder.forEachGram(columns, a, s === S - 1, (gram, w) => {
         const value = settings.estimator === 'lasso' ? predictLinear(lassoBic(gram, settings.lasso).model, features) : choleskyPrediction(gram, features);
-        (byCount[w] as Float64Array)[s] = fromAsinhScale(value, scale);
+        (byCount[w] as Float64Array)[s] = fromAsinhScale(value < lowest ? lowest : value > highest ? highest : value, scale);
       }),
     );
   }
@@ -300,7 +333,3 @@ function scratch(which: 0 | 1, length: number): Float64Array {
   return scratchBuffers[which] as Float64Array;
 }
 
-/** Median and MAD of all prices of the training days (robustScale, kept sorted from one window to the next). */
-function windowScale(view: HistoryView, training: readonly number[], windowDays: number): RobustScale {
-  return view.robustScaleOf(training, windowDays);
-}

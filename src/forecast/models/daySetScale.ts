@@ -1,5 +1,6 @@
 import type { RobustScale } from './robustAsinh.js';
 import { MAD_TO_SIGMA, robustScale } from './robustAsinh.js';
+import { sortedSampleBounds, type SampleBounds } from './farOutFences.js';
 
 /**
  * robustScale of the prices of a set of days, kept sorted between calls: the same numbers, bit for
@@ -36,7 +37,24 @@ export class DaySetScale {
    * @param days price arrays of the days, each finite, at least one value in all, no array twice
    */
   of(days: readonly Float64Array[]): RobustScale {
+    return this.scaleOf(days, new Set(days));
+  }
+
+  /**
+   * {@link of} and, from the same sorted prices, their far-out fences, lowest and highest value
+   * (sortedSampleBounds, farOutFences.ts): the same numbers as of the days' prices sorted afresh.
+   *
+   * @param days as for {@link of}
+   */
+  withBounds(days: readonly Float64Array[]): { scale: RobustScale; bounds: SampleBounds } {
     const next = new Set(days);
+    const scale = this.scaleOf(days, next);
+    // A day given twice: `of` answers from the days themselves and the kept set is not moved.
+    const sorted = next.size === days.length ? this.sorted.subarray(0, this.length) : concatenate(days).sort();
+    return { scale, bounds: sortedSampleBounds(sorted) };
+  }
+
+  private scaleOf(days: readonly Float64Array[], next: Set<Float64Array>): RobustScale {
     if (next.size !== days.length) return robustScale(concatenate(days));
     if (this.update(days, next) && this.last !== null) return this.last;
     this.last = null;

@@ -1,5 +1,6 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
-import { choleskyLeastSquares, choleskyPrediction } from '../linalg/choleskyLeastSquares.js';
+import { farOutFences } from './farOutFences.js';
+import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
 import { SlotSortedValues } from './slotSortedValues.js';
@@ -23,8 +24,59 @@ export interface DriverSettings {
   readonly knots: number;
   /** Scale the model is fitted on: asinh-transformed prices, or prices. */
   readonly scale: 'asinh' | 'price';
+  /**
+   * Refit cadence [days], >= 1. Default 1: the models are fitted afresh for every delivery day. With k > 1
+   * they are fitted on the refit days only, the day numbers that are multiples of k, each on the days
+   * before it; a delivery day takes the fit of the latest refit day on or before it, with its own
+   * regressors (its residual load, the day before's and the week before's prices, its weekday) on that
+   * fit's scale. Nothing on or after the refit day is read by the fit, so nothing after gate closure
+   * either. When the days before the refit day are too few, the delivery day's own fit is used.
+   */
+  readonly refitDays?: number;
+  /** Where fits are kept between delivery days (by the day they were fitted for); default none (each forecast fits). */
+  readonly fits?: DriverFits;
   /** Adds the time spent fitting (Grams and solves, per slot and window) to this counter. Default none. */
   readonly stopwatch?: FitStopwatch;
+}
+
+/** The driver regression fitted for a day: every window's model of every slot, and what its regressors need. */
+export interface DriverFit {
+  /** The robust scale of the asinh transform (null on the price scale). */
+  readonly scale: RobustScale | null;
+  /** S, clock slots per day. */
+  readonly slots: number;
+  /** J, hinge knots per slot. */
+  readonly knots: number;
+  /** k, coefficients per model (without the intercept). */
+  readonly coefficients: number;
+  /** Knots per slot, knotValues[s J + j]. */
+  readonly knotValues: Float64Array;
+  /** The windows' distinct training-day counts, ascending (one model per count). */
+  readonly counts: readonly number[];
+  /** Per window of windowsDays, the index of its count in `counts`. */
+  readonly windowCount: readonly number[];
+  /** Per count w and slot s, the intercept then the k coefficients at models[(w S + s)(k + 1)]. */
+  readonly models: Float64Array;
+}
+
+/**
+ * Fits of the driver regression by the day they were fitted for (null: too few days), for one history
+ * and one set of settings. A fit depends only on the days before its day, so a kept one is the same as
+ * a new one: the store only saves time, and holds a bounded number.
+ */
+export class DriverFits {
+  private readonly kept = new Map<number, DriverFit | null>();
+
+  constructor(private readonly capacity = 16) {}
+
+  get(fitDay: number): DriverFit | null | undefined {
+    return this.kept.get(fitDay);
+  }
+
+  set(fitDay: number, fit: DriverFit | null): void {
+    if (this.kept.size >= this.capacity) this.kept.delete(this.kept.keys().next().value as number);
+    this.kept.set(fitDay, fit);
+  }
 }
 
 /** Names of the driver regression's columns for J knots, in column order. */
@@ -97,23 +149,90 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   if (columns === null) return null;
   const targetLags = LAGS.map((lag) => view.indexAtOrBefore(view.target.dayNumber - lag));
   if (targetLags.some((i) => i < 0)) return null;
+  const day = view.target.dayNumber;
+  const every = settings.refitDays ?? 1;
+  // The refit day: the latest day number on or before the delivery day that is a multiple of refitDays.
+  const refitDay = day - (((day % every) + every) % every);
+  let fit = fitOnDay(view, columns, settings, refitDay);
+  // Too few days before the refit day (the history's first days): the delivery day's own fit.
+  if (fit === null && refitDay < day) fit = fitOnDay(view, columns, settings, day);
+  if (fit === null) return null;
+  return predict(view, columns, fit, targetLags[0] as number, targetLags[1] as number);
+}
+
+/**
+ * The driver regression fitted on the days before `fitDay` (on or before the delivery day of `view`),
+ * kept in settings.fits when given: the fit of a day depends only on the days before it.
+ */
+function fitOnDay(view: HistoryView, columns: ResidualLoadColumns, settings: DriverSettings, fitDay: number): DriverFit | null {
+  const kept = settings.fits?.get(fitDay);
+  if (kept !== undefined) return kept;
+  const fit = fitDriverModel(view, columns, settings, fitDay);
+  settings.fits?.set(fitDay, fit);
+  return fit;
+}
+
+/**
+ * The day's forecast from a fit: its regressors (residual load and hinges at the fit's knots, the day
+ * before's and the week before's prices on the fit's scale, its weekday) through each window's model
+ * of each slot, mapped back to prices. With the delivery day's own fit, the same numbers as predicting
+ * from the Grams directly (predictLinear adds the same terms in the same order as choleskyPrediction).
+ */
+function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit, lag1: number, lag7: number): PointForecast {
+  const days = new DriverDays(view, columns, fit.scale);
+  const targetDay = days.regressors(lag1, lag7, view.target.weekday);
+  const targetX = residualLoad(view.target, columns);
+  const { slots: S, knots: J, coefficients: k } = fit;
+  const a = J + 4;
+  const row = new Float64Array(k);
+  const forecasts = fit.counts.map(() => new Float64Array(S));
+  for (let s = 0; s < S; s++) {
+    const xt = targetX[s] as number;
+    row[0] = xt;
+    for (let j = 0; j < J; j++) {
+      const knot = fit.knotValues[s * J + j] as number;
+      row[1 + j] = xt > knot ? xt - knot : 0;
+    }
+    row[J + 1] = targetDay.lag1[s] as number;
+    row[J + 2] = targetDay.lag7[s] as number;
+    row[a - 1] = targetDay.meanZ;
+    row[a] = targetDay.meanX;
+    for (let w = 1; w <= 6; w++) row[a + w] = targetDay.weekday === w ? 1 : 0;
+    fit.counts.forEach((_, w) => {
+      const at = (w * S + s) * (k + 1);
+      let z = fit.models[at] as number;
+      for (let j = 0; j < k; j++) z += (fit.models[at + 1 + j] as number) * (row[j] as number);
+      (forecasts[w] as Float64Array)[s] = days.toPrice(z);
+    });
+  }
+  const members = fit.windowCount.map((w) => forecasts[w] as Float64Array);
+  return { mean: averageMembers(members), members };
+}
+
+/**
+ * The per-slot models of every window, fitted on the days before `fitDay`: least squares on the
+ * longest window, then on Huber's pseudo-observations of that fit in every window (see driverForecast).
+ * Null when a window has fewer than minTrainingDays usable days.
+ */
+function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, settings: DriverSettings, fitDay: number): DriverFit | null {
   const longest = Math.max(...settings.windowsDays);
-  const first = view.target.dayNumber - longest;
+  const first = fitDay - longest;
   const training: number[] = [];
-  for (let i = view.pastCount - 1; i >= 0 && view.dayNumber(i) >= first; i--) {
+  for (let i = view.indexAtOrBefore(fitDay - 1); i >= 0 && view.dayNumber(i) >= first; i--) {
     const dn = view.dayNumber(i);
     if (LAGS.every((lag) => view.indexOf(dn - lag) >= 0)) training.push(i);
   }
   const sizes = settings.windowsDays.map((w) => {
     let count = 0;
-    while (count < training.length && view.dayNumber(training[count] as number) >= view.target.dayNumber - w) count++;
+    while (count < training.length && view.dayNumber(training[count] as number) >= fitDay - w) count++;
     return count;
   });
   if (sizes.some((size) => size < settings.minTrainingDays)) return null;
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rows = training.slice(0, n);
-  const days = new DriverDays(view, columns, settings.scale === 'asinh' ? view.robustScaleOf(rows, longest) : null);
+  const scale = settings.scale === 'asinh' ? view.robustScaleOf(rows, longest) : null;
+  const days = new DriverDays(view, columns, scale);
   const S = view.slotsPerDay;
   const J = settings.knots;
   // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
@@ -121,9 +240,8 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const a = J + 4;
   const k = a - 1 + 2 + 6;
   const slotValues = new Float64Array(n * a);
-  const target = new Float64Array(k);
-  const forecasts = new Map<number, Float64Array>(counts.map((c) => [c, new Float64Array(S)]));
-  const targetDay = days.regressors(targetLags[0] as number, targetLags[1] as number, view.target.weekday);
+  const models = new Float64Array(counts.length * S * (k + 1));
+  const knotValues = new Float64Array(S * J);
   const trainingDays = rows.map((i) => {
     const dn = view.dayNumber(i);
     return { own: days.of(i), regressors: days.regressors(view.indexOf(dn - 1), view.indexOf(dn - 7), view.past(i).weekday) };
@@ -145,14 +263,14 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const zBySlot = bySlot(trainingDays.map((d) => d.own.z), S, scratchBuffers.get(1, S * n));
   const lag1BySlot = bySlot(trainingDays.map((d) => d.regressors.lag1), S, scratchBuffers.get(2, S * n));
   const lag7BySlot = bySlot(trainingDays.map((d) => d.regressors.lag7), S, scratchBuffers.get(3, S * n));
-  const knots = new Float64Array(J);
   const fitted = new Float64Array(n);
   // The longest window's fit of each slot, read only by its Huber step: one array for all slots.
   const longestCoefficients = new Float64Array(k);
-  // Per slot, the residual loads of the longest window's days in ascending order, kept from the last delivery day's.
+  // Per slot, the residual loads of the longest window's days in ascending order, kept from the last fit's.
   const sortedX = keptResidualLoads.of(trainingDays.map((d) => d.own.x));
   for (let s = 0; s < S; s++) {
     const slotX = xBySlot.subarray(s * n, (s + 1) * n);
+    const knots = knotValues.subarray(s * J, (s + 1) * J);
     for (let j = 0; j < J; j++) knots[j] = sortedQuantile(sortedX[s] as Float64Array, (j + 1) / (J + 1));
     // The slot columns column by column (slotValues[q n + r]): x, the hinges, lag 1, lag 7, the response.
     slotValues.set(slotX, 0);
@@ -169,14 +287,6 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
     slotValues.set(lag7BySlot.subarray(s * n, (s + 1) * n), (J + 2) * n);
     slotValues.set(zBySlot.subarray(s * n, (s + 1) * n), (a - 1) * n);
     const thin = thinHinges(slotValues, n, J, counts);
-    const xt = days.targetX[s] as number;
-    target[0] = xt;
-    for (let j = 0; j < J; j++) target[1 + j] = xt > (knots[j] as number) ? xt - (knots[j] as number) : 0;
-    target[J + 1] = targetDay.lag1[s] as number;
-    target[J + 2] = targetDay.lag7[s] as number;
-    target[a - 1] = targetDay.meanZ;
-    target[a] = targetDay.meanX;
-    for (let w = 1; w <= 6; w++) target[a + w] = targetDay.weekday === w ? 1 : 0;
     timedFits(settings.stopwatch, counts.length + 1, () => {
       // Least squares on the longest window, then on Huber's pseudo-observations of that fit in every window.
       let longest: LinearModel | undefined;
@@ -195,14 +305,15 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
         a,
         (gram, w) => {
           for (const j of thin[w] as number[]) gram.scales[j] = 0;
-          (forecasts.get(counts[w] as number) as Float64Array)[s] = days.toPrice(choleskyPrediction(gram, target));
+          const at = (w * S + s) * (k + 1);
+          const model = choleskyLeastSquares(gram, undefined, models.subarray(at + 1, at + 1 + k));
+          models[at] = model.intercept;
         },
         { newResponseOnly: true },
       );
     });
   }
-  const members = sizes.map((size) => forecasts.get(size) as Float64Array);
-  return { mean: averageMembers(members), members };
+  return { scale, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
@@ -300,14 +411,12 @@ const dayBlocks: Float64Array[] = [];
 class DriverDays {
   private readonly cache = new Map<number, DriverDay>();
   private readonly signature: string;
-  readonly targetX: Float64Array;
 
   constructor(
     private readonly view: HistoryView,
     private readonly columns: ResidualLoadColumns,
     private readonly scale: RobustScale | null,
   ) {
-    this.targetX = residualLoad(view.target, columns);
     this.signature = `${columns.added.join(',')}-${columns.subtracted.join(',')}`;
   }
 
@@ -375,18 +484,6 @@ class DriverDays {
   toPrice(z: number): number {
     return this.scale === null ? z : fromAsinhScale(z, this.scale);
   }
-}
-
-/**
- * Tukey's far-out fences of a day's prices, [Q1 - 3 IQR, Q3 + 3 IQR] with the day's quartiles: clipped
- * at them, a few spike periods cannot move the day's mean or a lag far, while ordinary days are left as
- * they are (Tukey 1977, Exploratory Data Analysis, Addison-Wesley, section 2H).
- */
-export function farOutFences(values: ArrayLike<number>): { low: number; high: number } {
-  const sorted = Float64Array.from(values).sort();
-  const q1 = sortedQuantile(sorted, 0.25);
-  const q3 = sortedQuantile(sorted, 0.75);
-  return { low: q1 - 3 * (q3 - q1), high: q3 + 3 * (q3 - q1) };
 }
 
 function meanOf(values: Float64Array): number {

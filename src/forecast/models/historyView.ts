@@ -1,6 +1,7 @@
 import type { DeliveryPeriod, HistoryDay, PriceHistory } from '../../types.js';
 import { DaySetScale } from './daySetScale.js';
 import { ForecastInputError } from './errors.js';
+import type { SampleBounds } from './farOutFences.js';
 import type { RobustScale } from './robustAsinh.js';
 import type { SlotLayout } from './slotGrid.js';
 import { slotLayout, toSlotGrid } from './slotGrid.js';
@@ -208,6 +209,14 @@ export class HistoryView {
    */
   robustScaleOf(days: readonly number[], windowDays: number): RobustScale {
     return this.grids.scales(windowDays).of(days.map((i) => this.past(i).prices));
+  }
+
+  /**
+   * {@link robustScaleOf} and, from the same sorted prices, their far-out fences, lowest and highest
+   * price (farOutFences.ts; DaySetScale.withBounds).
+   */
+  robustScaleWithBoundsOf(days: readonly number[], windowDays: number): { scale: RobustScale; bounds: SampleBounds } {
+    return this.grids.scales(windowDays).withBounds(days.map((i) => this.past(i).prices));
   }
 
   /** Day number of past day i. */
