@@ -1,7 +1,7 @@
 import { Command, InvalidArgumentError, Option } from 'commander';
 import { shownText } from '../errors/shownText.js';
 import { DEFAULT_LEVELS_TEXT, FORECAST_DEFAULTS } from '../app/commandDefaults.js';
-import { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, MAX_PATHS, type ForecastMethod } from '../app/vocabulary.js';
+import { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_VALIDATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, MAX_PATHS, type ForecastMethod } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addInputOptions, forceOption, parseSeedArg, inputSources, jsonOption, levelsArg, oneOf, outOption, quietOption, requireSpanAndOut, spanOptions, type InputFlags } from './options.js';
@@ -35,7 +35,7 @@ export function forecastCommand(io: CliIo): Command {
     .description('quantile forecasts of day-ahead prices from price history, day by day, each from the days before it only')
     .addOption(from)
     .addOption(to)
-    .option('--method <name>', `${FORECAST_METHODS.join(' | ')}; auto chooses each day among ${[...new Set(AUTO_CANDIDATES.map((c) => c.method))].join(', ')} by their pinball loss on the ${AUTO_VALIDATION_DAYS} days before (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
+    .option('--method <name>', `${FORECAST_METHODS.join(' | ')}; auto chooses each day among ${[...new Set(AUTO_CANDIDATES.map((c) => c.method))].join(', ')} by their pinball loss on the ${AUTO_VALIDATION_DAYS} days before, ${AUTO_FALLBACK.method} for a history without load and renewables (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
     .addOption(new Option('--levels <list>', `quantile levels in ${LEVEL_RANGE_TEXT}: a range start:end:step or a list 0.1,0.5,0.9`).argParser(levelsArg).default(levelsArg(DEFAULT_LEVELS_TEXT), DEFAULT_LEVELS_TEXT))
     .option('--paths <S>', 'also write S whole-day scenario paths per day to paths.csv', parsePathCountArg, FORECAST_DEFAULTS.paths)
     .option('--path-seed <N>', 'seed of the paths: the same seed and inputs give the same paths', parseSeedArg, FORECAST_DEFAULTS.pathSeed)

@@ -24,13 +24,23 @@ export const DEFAULT_CALIBRATION_DAYS = 364;
 /**
  * Candidates of `auto`, in order of preference (a tie or a day without validation days goes to the
  * first that can forecast); those needing residual-load columns are left out for a history without them.
+ * `driver-fhs` twice, with a year's and two years' calibration days: the longer pool gives the level-weighted
+ * error pool more errors near each level, the shorter follows a change of regime sooner. `arx-hs` is not
+ * among them: where the drivers are known it was chosen on few days of the known-distribution markets and
+ * cost more than it brought (docs/forecast-quality.md, the sixth wave); it is AUTO_FALLBACK.
  */
 export const AUTO_CANDIDATES: readonly AutoCandidate[] = Object.freeze([
   Object.freeze({ method: 'driver-hs', calibrationDays: 364 }),
-  Object.freeze({ method: 'arx-hs', calibrationDays: 364 }),
   Object.freeze({ method: 'driver-hs', calibrationDays: 91 }),
   Object.freeze({ method: 'driver-fhs', calibrationDays: 364 }),
+  Object.freeze({ method: 'driver-fhs', calibrationDays: 728 }),
 ] as const);
+
+/**
+ * What `auto` forecasts with when the history has no residual-load columns (load and renewables),
+ * which every candidate of AUTO_CANDIDATES needs: the ARX on prices alone.
+ */
+export const AUTO_FALLBACK: AutoCandidate = Object.freeze({ method: 'arx-hs', calibrationDays: 364 });
 
 /** Validation days of `auto`: the most recent days before the delivery day it scores the candidates on [days]. */
 export const AUTO_VALIDATION_DAYS = 28;

@@ -45,9 +45,9 @@ import { crpsFromQuantiles } from './scoring/crps.js';
 import { residualLoadColumns } from './models/residualLoad.js';
 import { plausibleRanges, withinRange, type PriceRange } from './plausibleRange.js';
 import { conformalQuantiles } from './quantiles/splitConformal.js';
-import { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_CALIBRATION_DAYS, DEFAULT_PATH_SEED, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
+import { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_VALIDATION_DAYS, DEFAULT_CALIBRATION_DAYS, DEFAULT_PATH_SEED, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
-export { AUTO_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_METHOD, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
+export { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_VALIDATION_DAYS, DEFAULT_METHOD, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
 /** What `auto` chose for a day, and on what evidence. */
 export interface AutoChoice extends AutoCandidate {
@@ -120,6 +120,11 @@ export interface ForecastOptions {
    * without them.
    */
   readonly autoCandidates: readonly AutoCandidate[];
+  /**
+   * What `auto` forecasts with when the history cannot serve any of autoCandidates (it has no
+   * residual-load columns and every candidate needs them).
+   */
+  readonly autoFallback: AutoCandidate;
   /** Validation days of `auto`: the most recent days before the delivery day it scores the candidates on [days], >= 1. */
   readonly autoValidationDays: number;
   /** How `driver-fhs` pools the standardised errors: per clock slot, over all slots, or over all slots weighted by the point forecast's level. */
@@ -178,6 +183,7 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   driverRefitDays: 5,
   spreadPool: 'level',
   autoCandidates: AUTO_CANDIDATES,
+  autoFallback: AUTO_FALLBACK,
   autoValidationDays: AUTO_VALIDATION_DAYS,
   naiveLagDays: 7,
   qraModel: 'arx',
@@ -333,10 +339,11 @@ export class Forecaster {
     return made;
   }
 
-  /** The candidates of `auto` this history can serve (those on residual load need its columns). */
+  /** The candidates of `auto` this history can serve (those on residual load need its columns), else the fallback alone. */
   private autoCandidates(): readonly AutoCandidate[] {
     const drivers = residualLoadColumns(this.history.exogenousNames) !== null;
-    return this.options.autoCandidates.filter((c) => drivers || pointModelOf(c.method, this.options) !== 'drivers');
+    const served = this.options.autoCandidates.filter((c) => drivers || pointModelOf(c.method, this.options) !== 'drivers');
+    return served.length > 0 ? served : [this.options.autoFallback];
   }
 
   /** Mean pinball loss of a candidate's forecast of past day j, or null when it cannot forecast it (kept). */
@@ -611,6 +618,11 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
     }
     positiveInteger(`autoCandidates[${i}].calibrationDays`, c.calibrationDays, o.minCalibrationDays);
   });
+  const fallback = o.autoFallback;
+  if (fallback.method === ('auto' as string) || !(FORECAST_METHODS as readonly string[]).includes(fallback.method) || pointModelOf(fallback.method, o) === 'drivers') {
+    throw new ArgumentError('options.autoFallback.method', `a method on prices alone: one of ${FORECAST_METHODS.filter((m): m is SingleMethod => m !== 'auto').filter((m) => pointModelOf(m, o) !== 'drivers').join(', ')}`, fallback.method);
+  }
+  positiveInteger('autoFallback.calibrationDays', fallback.calibrationDays, o.minCalibrationDays);
   positiveInteger('autoValidationDays', o.autoValidationDays);
   positiveInteger('driverKnots', o.driverKnots, 0);
   positiveInteger('driverRefitDays', o.driverRefitDays);
