@@ -28,12 +28,13 @@ import { arxForecast, keptAsinhDay } from './models/arx.js';
 import { toAsinhScales } from './models/robustAsinh.js';
 import { DriverFits, driverForecast } from './models/driverRegression.js';
 import { InsufficientHistoryError } from './models/errors.js';
-import { GridCache, HistoryView } from './models/historyView.js';
+import { dayNumberOf, GridCache, HistoryView } from './models/historyView.js';
 import type { PointForecast } from './models/pointForecast.js';
 import { seasonalNaive } from './models/seasonalNaive.js';
 import { fromSlotGrid, slotLayout } from './models/slotGrid.js';
 import { asinhErrorScaleOf, PRICE_SCALE, type ErrorScale } from './quantiles/errorScale.js';
-import { driverSpreadQuantiles, SpreadFeatureRows, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
+import { driverSpreadQuantiles, fitSpreadModel, SpreadFeatureRows, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
+import type { LinearModel } from './linalg/linearModel.js';
 import { historicalSimulation } from './quantiles/historicalSimulation.js';
 import { PoolOrder } from './quantiles/poolOrder.js';
 import { requireLevels } from './quantiles/levels.js';
@@ -108,8 +109,9 @@ export interface ForecastOptions {
   /**
    * Refit cadence of the driver regression [days], >= 1: its coefficients are estimated on the day
    * numbers that are multiples of it, each from the days before, and every delivery day until the next
-   * refit uses them with its own drivers and lags (driverRegression.ts, DriverSettings.refitDays). 1 fits
-   * every day afresh. Default 5: `auto`'s year takes 0.7x the CPU of daily refits, with pinball losses
+   * refit uses them with its own drivers and lags (driverRegression.ts, DriverSettings.refitDays); so is
+   * driver-fhs's spread regression, fitted on the refit day's calibration days and applied to each
+   * delivery day's own errors and features (refitDaySpreadModel). 1 fits every day afresh. Default 5: `auto`'s year takes 0.7x the CPU of daily refits, with pinball losses
    * within 0.002 of theirs on every setting of two draws of the known-distribution bench
    * (docs/forecast-quality.md, section "Speed of `auto`").
    */
@@ -228,6 +230,8 @@ export class Forecaster {
   private readonly driverWarmStarts = new QraWarmStarts();
   /** The driver regression's fits on its refit days (speed only: a fit depends only on the days before its day). */
   private readonly driverFits = new DriverFits();
+  /** driver-fhs's spread regressions by calibration window and the refit day they were fitted on (speed only: see refitDaySpreadModel). */
+  private readonly spreadModels = new Map<string, LinearModel>();
   private readonly losses = new Map<string, number | null>();
   /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
   private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
@@ -366,6 +370,8 @@ export class Forecaster {
 
   /** The forecast of day `dayIndex` by one method with a calibration window of `calibrationDays`. */
   private forecastWith(dayIndex: number, levels: readonly number[], method: SingleMethod, calibrationDays: number): DayForecast {
+    // Before this day's view and states are built: the refit day's forecast may have to be made first.
+    const refitSpreadModel = method === 'driver-fhs' ? this.refitDaySpreadModel(dayIndex, levels, calibrationDays) : undefined;
     const view = this.viewBefore(dayIndex);
     const model = pointModelOf(method, this.options);
     const point = this.pointFor(model, dayIndex, view);
@@ -377,6 +383,8 @@ export class Forecaster {
       throw new InsufficientHistoryError(view.target.day, `${method} calibration`, this.options.minCalibrationDays, calibration.length);
     }
     const notes: string[] = [];
+    // driver-fhs's spread regression, fitted once for the day's levels and its paths' levels alike.
+    let spreadModel: LinearModel | undefined;
     /** The method's quantiles at levels `at`, per slot, on the price scale, before rearrangement. */
     const quantileStep = (at: readonly number[]): number[][] => {
       /** Quantile regression of the realised prices on `regressors` of the calibration days (QRA's solver). */
@@ -402,7 +410,8 @@ export class Forecaster {
         const asinh = scale.robust !== undefined;
         const features = calibration.map((c, d) => this.spreadFeatureRows.of(c.exogenous, forecastsOnScale[d] as Float64Array, asinh));
         const kept = { order: this.poolOrder(model, calibrationDays, 'standardised'), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) };
-        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre, asinh), { errors, features }, at, this.options.spreadPool, kept);
+        spreadModel ??= refitSpreadModel ?? this.keptSpreadModel(calibrationDays, view.target.dayNumber, fitSpreadModel({ errors, features }, centre.length));
+        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre, asinh), { errors, features }, at, this.options.spreadPool, kept, spreadModel);
       } else {
         grid = historicalSimulation(centre, errors, at, { order: this.poolOrder(model, calibrationDays), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) });
       }
@@ -497,6 +506,47 @@ export class Forecaster {
       this.poolOrders.set(key, order);
     }
     return order;
+  }
+
+  /**
+   * The spread regression of driver-fhs for day `dayIndex` under the refit cadence of the driver
+   * regression (options.driverRefitDays, k): the one fitted on the refit day, the latest day number on
+   * or before the delivery day that is a multiple of k, from that day's calibration days (all before
+   * it, so before the delivery day's gate closure); undefined when the delivery day fits its own (k = 1,
+   * a refit day itself, a refit day missing from the history or one that cannot be forecast). The refit
+   * day's forecast is made first when its fit is not kept, so a day's forecast does not depend on
+   * which days were asked before it.
+   */
+  private refitDaySpreadModel(dayIndex: number, levels: readonly number[], calibrationDays: number): LinearModel | undefined {
+    const every = this.options.driverRefitDays;
+    if (every === 1) return undefined;
+    const dayNumberAt = (i: number): number => dayNumberOf((this.history.days[i] as { readonly day: string }).day);
+    const dayNumber = dayNumberAt(dayIndex);
+    const refitDay = dayNumber - (((dayNumber % every) + every) % every);
+    if (refitDay === dayNumber) return undefined;
+    const key = `${calibrationDays}|${refitDay}`;
+    if (!this.spreadModels.has(key)) {
+      let i = dayIndex;
+      while (i > 0 && dayNumberAt(i) > refitDay) i--;
+      if (dayNumberAt(i) !== refitDay) return undefined;
+      try {
+        this.forecastWith(i, levels, 'driver-fhs', calibrationDays);
+      } catch (err) {
+        if (!(err instanceof InsufficientHistoryError)) throw err;
+        return undefined;
+      }
+    }
+    return this.spreadModels.get(key);
+  }
+
+  /** Keeps the spread regression a refit day fitted (a bounded number of them) and returns it. */
+  private keptSpreadModel(calibrationDays: number, dayNumber: number, model: LinearModel): LinearModel {
+    const every = this.options.driverRefitDays;
+    if (every > 1 && dayNumber % every === 0) {
+      if (this.spreadModels.size >= 16) this.spreadModels.delete(this.spreadModels.keys().next().value as string);
+      this.spreadModels.set(`${calibrationDays}|${dayNumber}`, model);
+    }
+    return model;
   }
 
   /** HistoryView.before of day `dayIndex`, the same view again while the same day is asked (a view never changes). */

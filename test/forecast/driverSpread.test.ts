@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { driverSpreadQuantiles, logCosh, SpreadFeatureRows, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
+import { driverSpreadQuantiles, fitSpreadModel, logCosh, SpreadFeatureRows, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
 import { PoolOrder } from '../../src/forecast/quantiles/poolOrder.js';
 
 // Invented inputs (formulas shared with test/forecast/driverSpreadReference.py); the check values come from
@@ -47,6 +47,16 @@ const REFERENCE = {
   ],
 } as const;
 
+/** `python3 test/forecast/driverSpreadReference.py`, "a refit day's regression (first 6 days), prices", pool 'all'. */
+const REFERENCE_REFIT = [
+  [45.9461338108171, 50.31638547731382, 55.64600079806324],
+  [46.52751304016474, 51.349056889283396, 57.2290326730412],
+  [46.06912803854218, 52.46287708297328, 60.26019070805866],
+  [47.442035264899246, 53.43377340137679, 60.74082613129154],
+  [41.12532722182941, 55.00480857090199, 71.93113274787342],
+  [39.51701206350816, 56.208375486492926, 76.56384995614675],
+] as const;
+
 const REFERENCE_ASINH = {
   all: [
     [-7.742918678646596, -0.9502061231271983, 5.324632253966882],
@@ -89,6 +99,16 @@ describe('driver spread quantiles (Harvey 1976 spread regression; filtered histo
     const got = driverSpreadQuantiles(target, spreadFeatures([slots((s) => exog(3, s))], target, true), exact, [0.1, 0.9], 'all');
     const widths = got.map((row, s) => (row[1]! - target[s]!) * Math.cosh(target[s]!));
     widths.forEach((w) => expect(w).toBeCloseTo(2, 9));
+  });
+
+  it('with the spread regression of a refit day (fitted on its own, earlier calibration days) the same as NumPy (script above, "a refit day\'s regression")', () => {
+    // The refit day's calibration: the first 6 of the 8 days; the delivery day standardises all 8 by that fit.
+    const refit = fitSpreadModel({ errors: calibration.errors.slice(0, 6), features: calibration.features.slice(0, 6) }, S);
+    const got = driverSpreadQuantiles(targetCentre, targetFeatures, calibration, LEVELS, 'all', undefined, refit);
+    got.forEach((row, s) => row.forEach((v, k) => expect(v).toBeCloseTo(REFERENCE_REFIT[s]![k]!, 8)));
+    // Its own fit, given or made inside, is the same numbers bit for bit.
+    const own = fitSpreadModel(calibration, S);
+    expect(driverSpreadQuantiles(targetCentre, targetFeatures, calibration, LEVELS, 'slot', undefined, own)).toEqual(driverSpreadQuantiles(targetCentre, targetFeatures, calibration, LEVELS, 'slot'));
   });
 
   it('log cosh is finite and even far out, and equals log(cosh z) where cosh does not overflow', () => {

@@ -56,3 +56,27 @@ quantiles(centre, [50 + s for s in range(S)], False)
 def centre_z(d, s): return -2 + 0.7 * s - 0.15 * d
 print("asinh scale (log cosh column)")
 quantiles(centre_z, [-1.5 + 0.6 * s for s in range(S)], True)
+
+# A refit day's regression: g fitted on the first REFIT_DAYS calibration days (those of an earlier day), then
+# applied to all DAYS days of the delivery day's calibration (fitted log spreads, their range, u) and to its features.
+REFIT_DAYS = 6
+def quantiles_refit(centre, target_centre, asinh):
+    X = np.vstack([features([exog(d, s) for s in range(S)], [centre(d, s) for s in range(S)], asinh) for d in range(DAYS)])
+    e = np.array([error(d, s) for d in range(DAYS) for s in range(S)])
+    n_refit = REFIT_DAYS * S
+    absolute = np.abs(e[:n_refit])
+    floor = 1e-3 * np.quantile(absolute, 0.5)
+    y = np.log(np.maximum(absolute, floor))
+    design = np.hstack([np.ones((X.shape[0], 1)), X])
+    g, *_ = np.linalg.lstsq(design[:n_refit], y, rcond=None)
+    fitted = design @ g
+    u = e / np.exp(fitted)
+    target = np.hstack([np.ones((S, 1)), features([26 + s for s in range(S)], target_centre, asinh)])
+    spread = np.exp(np.clip(target @ g, fitted.min(), fitted.max()))
+    print("all, refit")
+    for s in range(S):
+        q = [target_centre[s] + spread[s] * np.quantile(u, tau) for tau in LEVELS]
+        print("  [" + ", ".join(repr(float(v)) for v in q) + "],")
+
+print("a refit day's regression (first 6 days), prices")
+quantiles_refit(centre, [50 + s for s in range(S)], False)

@@ -156,6 +156,8 @@ function timeOfDayHarmonics(S: number): Float64Array {
  * @param kept with pool 'slot': the pools' order from the last call and the day ids of the calibration
  *   days (ascending), to sort each slot's standardised errors from that order (poolOrder.ts; the same
  *   quantiles, faster for a window that moved a day)
+ * @param spreadModel the spread regression to use instead of fitting it on `calibration` (a fit of an
+ *   earlier day, fitSpreadModel); default: fitted here
  * @returns values[s][k] on the model's scale
  */
 export function driverSpreadQuantiles(
@@ -165,27 +167,17 @@ export function driverSpreadQuantiles(
   levels: readonly number[],
   pool: SpreadPool,
   kept?: { readonly order: PoolOrder; readonly dayIds: ArrayLike<number> },
+  spreadModel?: LinearModel,
 ): number[][] {
   const S = centre.length;
   const days = calibration.errors.length;
   const m = targetFeatures.length / S;
   const n = days * S;
-  // Scratch space reused from call to call (every value read is written first): the design, log |e|, |e| and its copy.
-  const design = scratchBuffers.get(0, n * m);
-  const logAbs = scratchBuffers.get(1, n);
-  const absolute = scratchBuffers.get(2, n);
+  const design = calibrationDesign(calibration, S, m);
+  const model = spreadModel ?? fitOnDesign(calibration, design, S, m);
+  // Scratch space reused from call to call (every value read is written first): the fitted log spreads and the standardised errors.
+  const fitted = scratchBuffers.get(2, n);
   const work = scratchBuffers.get(3, n);
-  for (let d = 0; d < days; d++) {
-    design.set(calibration.features[d] as Float64Array, d * S * m);
-    const e = calibration.errors[d] as ArrayLike<number>;
-    for (let s = 0; s < S; s++) absolute[d * S + s] = Math.abs(e[s] as number);
-  }
-  work.set(absolute);
-  const floor = 1e-3 * medianBySelection(work);
-  for (let i = 0; i < n; i++) logAbs[i] = Math.log(Math.max(absolute[i] as number, floor, Number.MIN_VALUE));
-  const model = choleskyLeastSquares(standardisedGram({ rows: n, cols: m, data: design }, logAbs));
-  // |e| and its copy are read no more: their room takes the fitted log spreads and the standardised errors.
-  const fitted = absolute;
   let low = Infinity;
   let high = -Infinity;
   for (let i = 0; i < n; i++) {
@@ -219,6 +211,46 @@ export function driverSpreadQuantiles(
     }
     return q.map((v) => (centre[s] as number) + (spread[s] as number) * v);
   });
+}
+
+/**
+ * The regression of log |e| on the spread features of the calibration days (see driverSpreadQuantiles),
+ * for a later day's driverSpreadQuantiles to use instead of fitting its own.
+ *
+ * @param slots S, clock slots per day
+ */
+export function fitSpreadModel(calibration: SpreadCalibration, slots: number): LinearModel {
+  const m = (calibration.features[0] as Float64Array).length / slots;
+  return fitOnDesign(calibration, calibrationDesign(calibration, slots, m), slots, m);
+}
+
+/** The calibration days' spread features one after the other (n S x m, in scratch space). */
+function calibrationDesign(calibration: SpreadCalibration, S: number, m: number): Float64Array {
+  const days = calibration.errors.length;
+  const design = scratchBuffers.get(0, days * S * m);
+  for (let d = 0; d < days; d++) design.set(calibration.features[d] as Float64Array, d * S * m);
+  return design;
+}
+
+/**
+ * Least squares of log |e| on the design (Harvey 1976), a zero error counted at 1/1000 of the median
+ * absolute error (log 0 is not finite).
+ */
+function fitOnDesign(calibration: SpreadCalibration, design: Float64Array, S: number, m: number): LinearModel {
+  const days = calibration.errors.length;
+  const n = days * S;
+  // Scratch space reused from call to call (every value read is written first): log |e|, |e| and its copy.
+  const logAbs = scratchBuffers.get(1, n);
+  const absolute = scratchBuffers.get(2, n);
+  const work = scratchBuffers.get(3, n);
+  for (let d = 0; d < days; d++) {
+    const e = calibration.errors[d] as ArrayLike<number>;
+    for (let s = 0; s < S; s++) absolute[d * S + s] = Math.abs(e[s] as number);
+  }
+  work.set(absolute);
+  const floor = 1e-3 * medianBySelection(work);
+  for (let i = 0; i < n; i++) logAbs[i] = Math.log(Math.max(absolute[i] as number, floor, Number.MIN_VALUE));
+  return choleskyLeastSquares(standardisedGram({ rows: n, cols: m, data: design }, logAbs));
 }
 
 const scratchBuffers = new ScratchBuffers();
