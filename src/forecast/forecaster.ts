@@ -26,7 +26,8 @@ import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';
 import { arxForecast, keptAsinhDay } from './models/arx.js';
 import { toAsinhScales } from './models/robustAsinh.js';
-import { DriverFits, driverForecast } from './models/driverRegression.js';
+import { DriverFits, driverForecast, refitDayOf } from './models/driverRegression.js';
+import { KeptFits } from './keptFits.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { dayNumberOf, GridCache, HistoryView } from './models/historyView.js';
 import type { PointForecast } from './models/pointForecast.js';
@@ -231,7 +232,7 @@ export class Forecaster {
   /** The driver regression's fits on its refit days (speed only: a fit depends only on the days before its day). */
   private readonly driverFits = new DriverFits();
   /** driver-fhs's spread regressions by calibration window and the refit day they were fitted on (speed only: see refitDaySpreadModel). */
-  private readonly spreadModels = new Map<string, LinearModel>();
+  private readonly spreadModels = new KeptFits<string, LinearModel>();
   private readonly losses = new Map<string, number | null>();
   /** Candidates' forecasts of days not yet scored (the days `auto` forecast last), by candidate and day. */
   private readonly pending = new Map<string, DayForecast | InsufficientHistoryError>();
@@ -522,10 +523,10 @@ export class Forecaster {
     if (every === 1) return undefined;
     const dayNumberAt = (i: number): number => dayNumberOf((this.history.days[i] as { readonly day: string }).day);
     const dayNumber = dayNumberAt(dayIndex);
-    const refitDay = dayNumber - (((dayNumber % every) + every) % every);
+    const refitDay = refitDayOf(dayNumber, every);
     if (refitDay === dayNumber) return undefined;
     const key = `${calibrationDays}|${refitDay}`;
-    if (!this.spreadModels.has(key)) {
+    if (this.spreadModels.get(key) === undefined) {
       let i = dayIndex;
       while (i > 0 && dayNumberAt(i) > refitDay) i--;
       if (dayNumberAt(i) !== refitDay) return undefined;
@@ -542,10 +543,7 @@ export class Forecaster {
   /** Keeps the spread regression a refit day fitted (a bounded number of them) and returns it. */
   private keptSpreadModel(calibrationDays: number, dayNumber: number, model: LinearModel): LinearModel {
     const every = this.options.driverRefitDays;
-    if (every > 1 && dayNumber % every === 0) {
-      if (this.spreadModels.size >= 16) this.spreadModels.delete(this.spreadModels.keys().next().value as string);
-      this.spreadModels.set(`${calibrationDays}|${dayNumber}`, model);
-    }
+    if (every > 1 && refitDayOf(dayNumber, every) === dayNumber) this.spreadModels.set(`${calibrationDays}|${dayNumber}`, model);
     return model;
   }
 
@@ -662,17 +660,14 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.scenarioPaths > MAX_PATHS) throw new ArgumentError('options.scenarioPaths', `at most ${MAX_PATHS}`, o.scenarioPaths);
   if (!Number.isInteger(o.pathSeed)) throw new ArgumentError('options.pathSeed', 'an integer', o.pathSeed);
   if (!(o.autoCandidates.length > 0)) throw new ArgumentError('options.autoCandidates', 'at least one candidate', o.autoCandidates);
-  o.autoCandidates.forEach((c, i) => {
-    if (c.method === ('auto' as string) || !(FORECAST_METHODS as readonly string[]).includes(c.method)) {
-      throw new ArgumentError(`options.autoCandidates[${i}].method`, `one of ${FORECAST_METHODS.filter((m) => m !== 'auto').join(', ')}`, c.method);
-    }
-    positiveInteger(`autoCandidates[${i}].calibrationDays`, c.calibrationDays, o.minCalibrationDays);
-  });
-  const fallback = o.autoFallback;
-  if (fallback.method === ('auto' as string) || !(FORECAST_METHODS as readonly string[]).includes(fallback.method) || pointModelOf(fallback.method, o) === 'drivers') {
-    throw new ArgumentError('options.autoFallback.method', `a method on prices alone: one of ${FORECAST_METHODS.filter((m): m is SingleMethod => m !== 'auto').filter((m) => pointModelOf(m, o) !== 'drivers').join(', ')}`, fallback.method);
-  }
-  positiveInteger('autoFallback.calibrationDays', fallback.calibrationDays, o.minCalibrationDays);
+  /** A candidate of `auto` (or its fallback) names a single method, among `allowed`, and a calibration window. */
+  const candidate = (name: string, c: AutoCandidate, allowed: readonly SingleMethod[], what: string): void => {
+    if (!(allowed as readonly string[]).includes(c.method)) throw new ArgumentError(`options.${name}.method`, `${what}${allowed.join(', ')}`, c.method);
+    positiveInteger(`${name}.calibrationDays`, c.calibrationDays, o.minCalibrationDays);
+  };
+  const single = FORECAST_METHODS.filter((m): m is SingleMethod => m !== 'auto');
+  o.autoCandidates.forEach((c, i) => candidate(`autoCandidates[${i}]`, c, single, 'one of '));
+  candidate('autoFallback', o.autoFallback, single.filter((m) => pointModelOf(m, o) !== 'drivers'), 'a method on prices alone: one of ');
   positiveInteger('autoValidationDays', o.autoValidationDays);
   positiveInteger('driverKnots', o.driverKnots, 0);
   positiveInteger('driverRefitDays', o.driverRefitDays);

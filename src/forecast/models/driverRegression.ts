@@ -1,4 +1,5 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
+import { KeptFits } from '../keptFits.js';
 import { farOutFences } from './farOutFences.js';
 import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
@@ -59,24 +60,12 @@ export interface DriverFit {
   readonly models: Float64Array;
 }
 
-/**
- * Fits of the driver regression by the day they were fitted for (null: too few days), for one history
- * and one set of settings. A fit depends only on the days before its day, so a kept one is the same as
- * a new one: the store only saves time, and holds a bounded number.
- */
-export class DriverFits {
-  private readonly kept = new Map<number, DriverFit | null>();
+/** Fits of the driver regression by the day they were fitted for (null: too few days), for one history and one set of settings. */
+export class DriverFits extends KeptFits<number, DriverFit | null> {}
 
-  constructor(private readonly capacity = 16) {}
-
-  get(fitDay: number): DriverFit | null | undefined {
-    return this.kept.get(fitDay);
-  }
-
-  set(fitDay: number, fit: DriverFit | null): void {
-    if (this.kept.size >= this.capacity) this.kept.delete(this.kept.keys().next().value as number);
-    this.kept.set(fitDay, fit);
-  }
+/** The refit day of a delivery day under a cadence of `every` days: the latest day number on or before it that is a multiple of `every`. */
+export function refitDayOf(dayNumber: number, every: number): number {
+  return dayNumber - (((dayNumber % every) + every) % every);
 }
 
 /** Names of the driver regression's columns for J knots, in column order. */
@@ -152,7 +141,7 @@ export function driverForecast(view: HistoryView, settings: DriverSettings): Poi
   const day = view.target.dayNumber;
   const every = settings.refitDays ?? 1;
   // The refit day: the latest day number on or before the delivery day that is a multiple of refitDays.
-  const refitDay = day - (((day % every) + every) % every);
+  const refitDay = refitDayOf(day, every);
   let fit = fitOnDay(view, columns, settings, refitDay);
   // Too few days before the refit day (the history's first days): the delivery day's own fit.
   if (fit === null && refitDay < day) fit = fitOnDay(view, columns, settings, day);
