@@ -1,0 +1,90 @@
+import { describe, expect, it } from 'vitest';
+import { errorLevelShift, errorLevelShifts, fTestPValue } from '../../src/forecast/quantiles/errorLevel.js';
+import type { ForecastOptions } from '../../src/forecast/forecaster.js';
+import { DEFAULTS, forecastDay } from '../../src/forecast/forecaster.js';
+import type { PriceHistory } from '../../src/types.js';
+import { syntheticHistory } from './syntheticHistory.js';
+
+// Invented inputs (formulas shared with test/forecast/errorLevelReference.py); the check values come from
+// that script (NumPy 2.4.6: np.median for the slot and day medians, np.linalg.lstsq for the weights; SciPy
+// 1.17.1: scipy.stats.f.sf for the F test's p-value).
+const S = 5;
+const dayNumbers = Array.from({ length: 72 }, (_, i) => 100 + i).filter((t) => t !== 131 && t !== 150);
+const error = (t: number, s: number) => 0.6 * Math.sin(t / 9) + (0.25 * (((t * 7 + s * 3) % 11) - 5)) / 5 + 0.1 * s;
+const errors = dayNumbers.map((t) => Float64Array.from({ length: S }, (_, s) => error(t, s)));
+
+describe('errorLevelShifts (intercept correction by a heterogeneous autoregression of the day-level error)', () => {
+  it('gives the delivery day the shift NumPy computes (errorLevelReference.py, "delivery day shift")', () => {
+    expect(errorLevelShift(dayNumbers, errors, 172)).toBeCloseTo(0.14866107812973975, 10);
+  });
+
+  it('gives each calibration day the shift of the same weights from its own lookbacks, 0 when the day before is missing (script, "a slow wave": F 166.9, p 1.5e-21)', () => {
+    const { target, days } = errorLevelShifts(dayNumbers, errors, 172);
+    expect(target).toBeCloseTo(0.14866107812973975, 10);
+    const at = (t: number) => days[dayNumbers.indexOf(t)] as number;
+    expect(at(110)).toBeCloseTo(-0.11173703460019818, 10);
+    expect(at(128)).toBeCloseTo(0.6200886490372904, 10);
+    expect(at(132)).toBe(0);
+    expect(at(151)).toBe(0);
+    expect(at(171)).toBeCloseTo(0.07668718950496793, 10);
+  });
+
+  it('is 0 with fewer whole lookbacks than the longest lookback, or without the day before the delivery day', () => {
+    expect(errorLevelShift(dayNumbers.slice(0, 40), errors.slice(0, 40), 140)).toBe(0);
+    expect(errorLevelShift(dayNumbers, errors, 173)).toBe(0);
+  });
+
+  it('gives nothing when the F test of the weights does not reject at 5% (script, "scrambled": F 0.502, p 0.683)', () => {
+    const scrambled = dayNumbers.map((t) => Float64Array.from({ length: S }, (_, s) => (((t * 19) % 97) + s) / 97));
+    const { target, days } = errorLevelShifts(dayNumbers, scrambled, 172);
+    expect(target).toBe(0);
+    expect(days.every((v) => v === 0)).toBe(true);
+  });
+
+  it('computes the F test\'s p-value as SciPy does (scipy.stats.f.sf(F, 3, n - 3) with F from ESS and RSS)', () => {
+    // One weight vector, X'y and y'y chosen so that F = (ESS / 3) / (RSS / 37) = (3 / 3) / (37 / 37) = 1, and F = 2.5 with n = 43.
+    expect(fTestPValue([1, 1, 1], [1, 1, 1], 40, 40)).toBeCloseTo(0.4036703667252215, 10);
+    expect(fTestPValue([1, 1, 1], [2.5, 2.5, 2.5], 7.5 + 40, 43)).toBeCloseTo(0.07325435201794983, 10);
+    expect(fTestPValue([1, 1, 1], [1, 1, 1], 2, 3)).toBe(1);
+  });
+
+  it('adds nothing to errors whose day level has no run (a constant per slot: every y(d) is 0, the weights not estimable)', () => {
+    const flat = dayNumbers.map(() => Float64Array.from({ length: S }, (_, s) => 2 * s - 3));
+    const { target, days } = errorLevelShifts(dayNumbers, flat, 172);
+    expect(target).toBe(0);
+    expect(days.every((v) => v === 0)).toBe(true);
+  });
+
+  it('follows a level step that persists: errors 1 higher from day 144 on raise the delivery day\'s shift', () => {
+    // A property of the correction (a run of high errors predicts a high error), not a value check.
+    const stepped = dayNumbers.map((t, d) => Float64Array.from(errors[d] as Float64Array, (v) => (t >= 144 ? v + 1 : v)));
+    expect(errorLevelShift(dayNumbers, stepped, 172)).toBeGreaterThan(errorLevelShift(dayNumbers, errors, 172));
+  });
+});
+
+describe('Forecaster option driverCentre (driver-hs and driver-fhs)', () => {
+  // Invented history; every price carries a level that no driver explains, +50 and -50 in turns of 15 days:
+  // the point model follows a turn only partly, so its errors run the same way for days after each turn.
+  const base = syntheticHistory({ days: 130, periodMinutes: 60, seed: 7 });
+  const ramped: PriceHistory = { ...base, days: base.days.map((day, d) => ({ ...day, pricePerMwh: day.pricePerMwh.map((p) => p + (Math.floor(d / 15) % 2 === 0 ? 50 : -50)) })) };
+  const options: Partial<ForecastOptions> = { minTrainingDays: 21, calibrationDays: 84, minCalibrationDays: 21 };
+  const LEVELS = [0.1, 0.5, 0.9];
+  const mean = (values: readonly number[]) => values.reduce((a, b) => a + b, 0) / values.length;
+
+  it("is 'recent' by default, which raises the medians of a day five days into a high turn (the point forecast unchanged)", () => {
+    expect(DEFAULTS.driverCentre).toBe('recent');
+    for (const method of ['driver-hs', 'driver-fhs'] as const) {
+      const pool = forecastDay(ramped, 125, LEVELS, method, { ...options, driverCentre: 'pool' });
+      const byDefault = forecastDay(ramped, 125, LEVELS, method, options);
+      const recent = forecastDay(ramped, 125, LEVELS, method, { ...options, driverCentre: 'recent' });
+      expect(byDefault.quantiles.prices).toEqual(recent.quantiles.prices);
+      expect(recent.point).toEqual(pool.point);
+      const median = (f: typeof pool) => mean(f.quantiles.prices.map((row) => row[1] as number));
+      expect(median(recent)).toBeGreaterThan(median(pool));
+    }
+  });
+
+  it('rejects an unknown driverCentre', () => {
+    expect(() => forecastDay(ramped, 125, LEVELS, 'driver-hs', { ...options, driverCentre: 'mean' as ForecastOptions['driverCentre'] })).toThrow(/driverCentre/);
+  });
+});

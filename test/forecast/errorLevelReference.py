@@ -1,0 +1,72 @@
+# Reference shifts of the day-level error regression (test/forecast/errorLevel.test.ts), computed with NumPy
+# (an independent library; version printed) from the definitions in src/forecast/quantiles/errorLevel.ts:
+#   m_s  = np.median of slot s's errors over the calibration days
+#   y(d) = np.median over the slots of (e(d, s) - m_s)
+#   x_k(t) = mean of y over the calibration days in [t - k, t - 1], k = 1, 7, 28 (Corsi 2009's daily,
+#            weekly and monthly components)
+#   b    = np.linalg.lstsq, no intercept, over the calibration days d with d - 28 >= the first day
+#          (and every lookback non-empty): y(d) = sum_k b_k x_k(d) + v(d)
+#   shift(t) = sum_k b_k x_k(t), for the delivery day and for every calibration day with all lookbacks
+#   (an intercept correction, Clements and Hendry 1996, whose weights are estimated), used only when the
+#   F test of b = 0 rejects at 5%: p = scipy.stats.f.sf(F, 3, rows - 3), F = (ESS / 3) / (RSS / (rows - 3))
+#   python3 test/forecast/errorLevelReference.py
+import numpy as np
+import scipy
+from scipy import stats
+
+print(f"numpy {np.__version__}, scipy {scipy.__version__}")
+
+S = 5
+LOOKBACKS = [1, 7, 28]
+# Invented inputs (formulas shared with the test, evaluated the same way in both): 70 calibration days with
+# day numbers 100.. and two gaps (days 131 and 150 missing), a slow wave in the day level plus slot terms.
+DAY_NUMBERS = [100 + i for i in range(72) if 100 + i not in (131, 150)]
+TARGET = 172
+def error(t, s):
+    return 0.6 * np.sin(t / 9.0) + 0.25 * (((t * 7 + s * 3) % 11) - 5) / 5 + 0.1 * s
+
+days = np.array(DAY_NUMBERS)
+
+def run(error, label):
+  global y
+  E = np.array([[error(t, s) for s in range(S)] for t in DAY_NUMBERS])
+  m = np.median(E, axis=0)
+  y = np.median(E - m, axis=1)
+  rows, targets = [], []
+  for i, t in enumerate(DAY_NUMBERS):
+    if t - max(LOOKBACKS) < DAY_NUMBERS[0]:
+      continue
+    x = features(t)
+    if x is None:
+      continue
+    rows.append(x)
+    targets.append(y[i])
+  X, Y = np.array(rows), np.array(targets)
+  b, *_ = np.linalg.lstsq(X, Y, rcond=None)
+  ess = float(b @ X.T @ Y)
+  rss = float(Y @ Y) - ess
+  F = (ess / 3) / (rss / (len(rows) - 3))
+  p = stats.f.sf(F, 3, len(rows) - 3)
+  print(label, "rows", len(rows), "weights", [repr(float(v)) for v in b], "F", repr(F), "p", repr(float(p)))
+  used = p < 0.05
+  print("  delivery day shift", repr(float(np.dot(features(TARGET), b)) if used else 0.0))
+  for t in (110, 128, 132, 151, 171):
+    x = features(t)
+    print(f"  day {t} shift", repr(0.0 if x is None or not used else float(np.dot(x, b))))
+
+def features(t):
+    out = []
+    for k in LOOKBACKS:
+        inside = (days >= t - k) & (days <= t - 1)
+        if not inside.any():
+            return None
+        out.append(y[inside].mean())
+    return out
+
+run(error, "a slow wave in the day level")
+# Errors whose day level the lookbacks do not predict (F test not rejecting; the test's second case).
+def scrambled(t, s):
+    return (((t * 19) % 97) + s) / 97
+run(scrambled, "scrambled")
+# The F test's p-value alone (the test's fTestPValue cases): F = 1 with 3 and 37 degrees of freedom, F = 2.5 with 3 and 40.
+print("f.sf(1, 3, 37)", repr(float(stats.f.sf(1, 3, 37))), "f.sf(2.5, 3, 40)", repr(float(stats.f.sf(2.5, 3, 40))))
