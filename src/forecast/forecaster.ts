@@ -494,7 +494,7 @@ export class Forecaster {
     });
     let centreShift = 0;
     if (model === 'drivers' && this.options.driverCentre !== 'pool') {
-      const shifts = errorLevelShifts(Int32Array.from(calibration, (c) => c.dayNumber), errors, view.target.dayNumber);
+      const shifts = errorLevelShifts(Int32Array.from(calibration, (c) => c.dayNumber), errors, view.target.dayNumber, this.poolOrder(model, calibrationDays, 'unshifted'));
       centreShift = shifts.target;
       // The pool holds the errors of the shifted forecasts, as the delivery day's quantiles are made.
       errors.forEach((e, d) => {
@@ -526,8 +526,8 @@ export class Forecaster {
     return lengths.map((length) => (block as Float64Array).subarray(at, (at += length)));
   }
 
-  /** The kept order of the historical-simulation pools of a point model and calibration window (of its errors, or of driver-fhs's standardised ones). */
-  private poolOrder(model: PointModelName, calibrationDays: number, errors: 'errors' | 'standardised' = 'errors'): PoolOrder {
+  /** The kept order of the historical-simulation pools of a point model and calibration window (of its errors, driver-fhs's standardised ones, or the errors before driverCentre's shift). */
+  private poolOrder(model: PointModelName, calibrationDays: number, errors: 'errors' | 'standardised' | 'unshifted' = 'errors'): PoolOrder {
     const key = `${model}|${calibrationDays}|${errors}`;
     let order = this.poolOrders.get(key);
     if (order === undefined) {

@@ -1,4 +1,6 @@
+import { sortedQuantile } from './sortedQuantile.js';
 import { medianBySelection } from './driverSpread.js';
+import type { PoolOrder } from './poolOrder.js';
 import { regularizedBeta } from '../../stats/regularizedBeta.js';
 
 /** Lookbacks of the day-level error regression [days]: the day before, the week before, the four weeks before. */
@@ -60,27 +62,35 @@ export interface ErrorLevelShifts {
  * {@link errorLevelShift}, and the shift the same weights give each calibration day from the days before
  * it, so that the pool can hold the errors of the shifted forecasts, e(d, s) - shift(d): the pool then
  * holds the errors of the forecasts the delivery day's quantiles are made like.
+ *
+ * @param order the slots' order at the last call for the same calibration window (speed only; day ids = dayNumbers)
  */
-export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], targetDay: number): ErrorLevelShifts {
+export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], targetDay: number, order?: PoolOrder): ErrorLevelShifts {
   const n = errors.length;
   const none = { target: 0, days: new Float64Array(n) };
   if (n === 0) return none;
   const S = (errors[0] as ArrayLike<number>).length;
   const lookbacks = ERROR_LEVEL_LOOKBACK_DAYS;
   const longest = Math.max(...lookbacks);
-  // m_s, the slot's median error over the calibration days.
-  const work = new Float64Array(Math.max(n, S));
+  // m_s, the slot's median error over the calibration days (definition 7; with a kept order the pools
+  // are sorted from the last call's order, the same numbers at less CPU: poolOrder.ts).
+  const column = new Float64Array(n);
   const slotMedian = new Float64Array(S);
+  order?.begin(dayNumbers);
   for (let s = 0; s < S; s++) {
-    const column = work.subarray(0, n);
-    for (let d = 0; d < n; d++) column[d] = (errors[d] as ArrayLike<number>)[s] as number;
-    slotMedian[s] = medianBySelection(column);
+    if (order === undefined) {
+      for (let d = 0; d < n; d++) column[d] = (errors[d] as ArrayLike<number>)[s] as number;
+      slotMedian[s] = medianBySelection(column);
+    } else {
+      order.sortSlot(errors, s, column);
+      slotMedian[s] = sortedQuantile(column, 0.5);
+    }
   }
   // y(d), the day's median error beyond its slots' medians; prefix sums for the lookbacks' means.
   const prefix = new Float64Array(n + 1);
+  const day = new Float64Array(S);
   for (let d = 0; d < n; d++) {
     const row = errors[d] as ArrayLike<number>;
-    const day = work.subarray(0, S);
     for (let s = 0; s < S; s++) day[s] = (row[s] as number) - (slotMedian[s] as number);
     prefix[d + 1] = (prefix[d] as number) + medianBySelection(day);
   }
