@@ -121,8 +121,10 @@ export interface ForecastOptions {
   readonly driverRefitDays: number;
   /**
    * Candidates of `auto`, in order of preference (a tie or a day without validation days goes to the
-   * first that can forecast). Candidates needing residual-load columns are left out for a history
-   * without them.
+   * first that can forecast): single methods with their calibration windows, and `{ averageOf }`, the
+   * equal-weight quantile average of two or more of them (quantileAverage.ts). Candidates with a member
+   * needing residual-load columns are left out for a history without them. AUTO_SINGLE_CANDIDATES is
+   * `auto` before the seventh wave's average.
    */
   readonly autoCandidates: readonly AutoEntry[];
   /**
