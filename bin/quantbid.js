@@ -7,13 +7,6 @@ process.stdout.on('error', (err) => {
   throw err;
 });
 
-// A backtest spends its time in functions called once per row, period or day, each soon compiled by the
-// engine's optimising compiler on its own; compiling a long-running loop once more while it runs
-// (on-stack replacement) mostly compiled the same functions twice (sweepLine, writeLedgerRows, the
-// readers): without it the year's backtest takes about 5 % less CPU and the 10-year run as long
-// (README speed table). Set before the command's code is loaded; other commands keep the default.
-if (process.argv[2] === 'backtest') (await import('node:v8')).setFlagsFromString('--no-use-osr');
-
 // `quantbid plan` and `quantbid backtest` start from the bundled CLI (dist/bundle/, scripts/bundlePlanCli.mjs):
 // the same compiled code in a few files instead of a hundred modules, which Node 20 loads one by one. The
 // other commands start from dist/cli/ (sweep and size start worker threads from files beside their modules there).
