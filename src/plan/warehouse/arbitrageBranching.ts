@@ -96,11 +96,9 @@ function mostSimultaneous(ctx: DayContext, schedule: StoredSchedule): number {
   let largest = TINY_SHARE;
   let netted = false;
   for (let t = 0; t < day.periods; t++) {
-    // The share is computed for every period and used in arbitrage periods only: a day's first
-    // arbitrage period with both flows may come late, and a path first taken then throws the
-    // compiled search away.
+    if (day.arbitrage[t] === 0) continue;
     const share = Math.min(schedule.x[t]! / day.chargeStepMwh, schedule.y[t]! / day.dischargeStepMwh);
-    if (share <= 0 || day.arbitrage[t] === 0) continue;
+    if (share <= 0) continue;
     if (share <= TINY_SHARE) {
       netPeriod(schedule, t);
       netted = true;
