@@ -204,7 +204,7 @@ function countChosen(forecasts) {
   for (const f of forecasts) {
     if (f.chosen === null || f.chosen === undefined) continue;
     any = true;
-    const key = `${f.chosen.method} (${f.chosen.calibrationDays} d)`;
+    const key = f.chosen.averageOf === undefined ? `${f.chosen.method} (${f.chosen.calibrationDays} d)` : `quantile average of ${f.chosen.averageOf.map((m) => `${m.method} (${m.calibrationDays} d)`).join(' and ')}`;
     counts[key] = (counts[key] ?? 0) + 1;
   }
   return any ? counts : null;

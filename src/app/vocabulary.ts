@@ -5,7 +5,7 @@
  */
 export { BACKTEST_POLICIES, SWEEP_POLICIES, type BacktestPolicy, type SweepPolicy } from '../backtest/backtestPolicy.js';
 export { BACKTEST_DEFAULTS } from '../backtest/backtestOptions.js';
-export { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_VALIDATION_DAYS, FORECAST_METHODS, MAX_PATHS, type ForecastMethod } from '../forecast/forecastMethods.js';
+export { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_VALIDATION_DAYS, entryMembers, FORECAST_METHODS, MAX_PATHS, type ForecastMethod } from '../forecast/forecastMethods.js';
 export { isValidDay } from '../market/civilDays.js';
 export { LEVEL_RANGE_TEXT } from '../forecast/quantiles/levels.js';
 export { SCENARIO_DEFAULTS } from '../backtest/scenarioPlanning.js';

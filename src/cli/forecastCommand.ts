@@ -1,7 +1,7 @@
 import { Command, InvalidArgumentError, Option } from 'commander';
 import { shownText } from '../errors/shownText.js';
 import { DEFAULT_LEVELS_TEXT, FORECAST_DEFAULTS } from '../app/commandDefaults.js';
-import { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_VALIDATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, MAX_PATHS, type ForecastMethod } from '../app/vocabulary.js';
+import { AUTO_CANDIDATES, AUTO_FALLBACK, entryMembers, AUTO_VALIDATION_DAYS, FORECAST_METHODS, LEVEL_RANGE_TEXT, MAX_PATHS, type ForecastMethod } from '../app/vocabulary.js';
 import { cliHooks } from './cliHooks.js';
 import type { CliIo } from './cliIo.js';
 import { addInputOptions, forceOption, parseSeedArg, inputSources, jsonOption, levelsArg, oneOf, outOption, quietOption, requireSpanAndOut, spanOptions, type InputFlags } from './options.js';
@@ -35,7 +35,7 @@ export function forecastCommand(io: CliIo): Command {
     .description('quantile forecasts of day-ahead prices from price history, day by day, each from the days before it only')
     .addOption(from)
     .addOption(to)
-    .option('--method <name>', `${FORECAST_METHODS.join(' | ')}; auto chooses each day among ${[...new Set(AUTO_CANDIDATES.map((c) => c.method))].join(', ')} by their pinball loss on the ${AUTO_VALIDATION_DAYS} days before, ${AUTO_FALLBACK.method} for a history without load and renewables (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
+    .option('--method <name>', `${FORECAST_METHODS.join(' | ')}; auto chooses each day among ${autoCandidatesText()} by their pinball loss on the ${AUTO_VALIDATION_DAYS} days before, ${AUTO_FALLBACK.method} for a history without load and renewables (docs/forecast-quality.md compares them)`, oneOf<ForecastMethod>(FORECAST_METHODS), FORECAST_DEFAULTS.method)
     .addOption(new Option('--levels <list>', `quantile levels in ${LEVEL_RANGE_TEXT}: a range start:end:step or a list 0.1,0.5,0.9`).argParser(levelsArg).default(levelsArg(DEFAULT_LEVELS_TEXT), DEFAULT_LEVELS_TEXT))
     .option('--paths <S>', 'also write S whole-day scenario paths per day to paths.csv', parsePathCountArg, FORECAST_DEFAULTS.paths)
     .option('--path-seed <N>', 'seed of the paths: the same seed and inputs give the same paths', parseSeedArg, FORECAST_DEFAULTS.pathSeed)
@@ -78,4 +78,17 @@ Examples:
     printResult(io, forecastUseCase(settings, cliHooks(io, flags.quiet === true)), flags.json === true);
   });
   return command;
+}
+
+/** auto's candidates for --help: the methods, then each quantile average, e.g. "driver-hs, driver-fhs and the quantile average of driver-fhs's 364 and 728 calibration days". */
+function autoCandidatesText(): string {
+  const singles = [...new Set(AUTO_CANDIDATES.flatMap((e) => ('averageOf' in e ? [] : [e.method])))];
+  const averages = AUTO_CANDIDATES.flatMap((e) => {
+    if (!('averageOf' in e)) return [];
+    const members = entryMembers(e);
+    const methods = [...new Set(members.map((m) => m.method))];
+    return [methods.length === 1 ? `the quantile average of ${methods[0]}'s ${members.map((m) => m.calibrationDays).join(' and ')} calibration days` : `the quantile average of ${members.map((m) => `${m.method} (${m.calibrationDays})`).join(', ')}`];
+  });
+  const all = [...singles, ...averages];
+  return all.length === 1 ? (all[0] as string) : `${all.slice(0, -1).join(', ')} and ${all[all.length - 1]}`;
 }

@@ -48,12 +48,14 @@ import { crpsFromQuantiles } from './scoring/crps.js';
 import { residualLoadColumns } from './models/residualLoad.js';
 import { plausibleRanges, withinRange, type PriceRange } from './plausibleRange.js';
 import { conformalQuantiles } from './quantiles/splitConformal.js';
-import { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_VALIDATION_DAYS, DEFAULT_CALIBRATION_DAYS, DEFAULT_PATH_SEED, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
+import { averageForecast } from './quantileAverage.js';
+import { chosenCandidate, type ChosenCandidate } from './autoChoices.js';
+import { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_VALIDATION_DAYS, DEFAULT_CALIBRATION_DAYS, DEFAULT_PATH_SEED, entryMembers, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type AutoEntry, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
-export { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_VALIDATION_DAYS, DEFAULT_METHOD, FORECAST_METHODS, MAX_PATHS, type AutoCandidate, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
+export { AUTO_CANDIDATES, AUTO_FALLBACK, AUTO_SINGLE_CANDIDATES, AUTO_VALIDATION_DAYS, DEFAULT_METHOD, FORECAST_METHODS, MAX_PATHS, type AutoAverage, type AutoCandidate, type AutoEntry, type ForecastMethod, type SingleMethod } from './forecastMethods.js';
 
-/** What `auto` chose for a day, and on what evidence. */
-export interface AutoChoice extends AutoCandidate {
+/** What `auto` chose for a day (a method and window, or a quantile average of several), and on what evidence. */
+export interface AutoChoice extends ChosenCandidate {
   /** Validation days the candidates were compared on [-] (0: none yet, the first candidate that could forecast was taken). */
   readonly validationDays: number;
   /** Mean pinball loss of the chosen candidate over the validation days [currency/MWh], or null without any. */
@@ -122,10 +124,12 @@ export interface ForecastOptions {
   readonly driverRefitDays: number;
   /**
    * Candidates of `auto`, in order of preference (a tie or a day without validation days goes to the
-   * first that can forecast). Candidates needing residual-load columns are left out for a history
-   * without them.
+   * first that can forecast): single methods with their calibration windows, and `{ averageOf }`, the
+   * equal-weight quantile average of two or more of them (quantileAverage.ts). Candidates with a member
+   * needing residual-load columns are left out for a history without them. AUTO_SINGLE_CANDIDATES is
+   * `auto` before the seventh wave's average.
    */
-  readonly autoCandidates: readonly AutoCandidate[];
+  readonly autoCandidates: readonly AutoEntry[];
   /**
    * What `auto` forecasts with when the history cannot serve any of autoCandidates (it has no
    * residual-load columns and every candidate needs them).
@@ -136,15 +140,15 @@ export interface ForecastOptions {
   /** How `driver-fhs` pools the standardised errors: per clock slot, over all slots, or over all slots weighted by the point forecast's level. */
   readonly spreadPool: SpreadPool;
   /**
-   * The centre of `driver-hs` and `driver-fhs`: 'pool', the point forecast plus the error pool's
-   * quantiles as they are; 'recent', every quantile of the day shifted by the level of the recent
-   * calibration errors beyond the pool's, by weights estimated on the calibration days and used only
-   * where an F test at 1% finds the recent errors' level predictive, and the pool made of the errors
-   * of the forecasts shifted the same way (quantiles/errorLevel.ts: an intercept correction, Clements
-   * and Hendry 1996, by a heterogeneous autoregression of the errors' day level, Corsi 2009). Default
-   * 'recent': on the demo the share below the median 0.479 -> 0.493 and CRPS 5.016 -> 5.002; on the
-   * known-distribution bench every pinball ratio within 0.002 of 'pool''s (docs/forecast-quality.md,
-   * "the seventh wave: the demo's centre").
+   * The centre of `driver-hs` and `driver-fhs`: 'pool' (default), the point forecast plus the error
+   * pool's quantiles as they are; 'recent', every quantile of the day shifted by the level of the
+   * recent calibration errors beyond the pool's, by weights estimated on the calibration days and used
+   * only where an F test at 1% finds the recent errors' level predictive, and the pool made of the
+   * errors of the forecasts shifted the same way (quantiles/errorLevel.ts: an intercept correction,
+   * Clements and Hendry 1996, by a heterogeneous autoregression of the errors' day level, Corsi 2009).
+   * 'recent' brings the demo's share below the median from 0.479 to 0.493 and its CRPS from 5.007 to
+   * 4.995, but costs one known-distribution cell 0.003 and a year of `auto` about 0.5x `arx-hs`'s CPU
+   * (3.20x): not the default (docs/forecast-quality.md, "the seventh wave, the demo's centre").
    */
   readonly driverCentre: 'pool' | 'recent';
   /** Lag of the seasonal naive model of `naive-hs` [days], >= 1 (7: same weekday last week). */
@@ -200,7 +204,7 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   driverScale: 'asinh',
   driverRefitDays: 5,
   spreadPool: 'level',
-  driverCentre: 'recent',
+  driverCentre: 'pool',
   autoCandidates: AUTO_CANDIDATES,
   autoFallback: AUTO_FALLBACK,
   autoValidationDays: AUTO_VALIDATION_DAYS,
@@ -304,49 +308,60 @@ export class Forecaster {
    * Int. J. Forecast. 16(4), 437-450, doi:10.1016/S0169-2070(00)00065-0.
    */
   private autoForecast(dayIndex: number, levels: readonly number[]): DayForecast {
-    const candidates = this.autoCandidates();
+    const entries = this.autoCandidates();
     const levelsKey = levels.join(',');
     const validation: number[] = [];
     for (let j = dayIndex - 1; j >= 0 && validation.length < this.options.autoValidationDays; j--) validation.push(j);
-    // Day by day, each day's candidates in evaluation order (speed only; see evaluationOrder).
-    const evaluation = this.evaluationOrder(candidates);
-    const losses = candidates.map((): (number | null)[] => []);
-    validation.forEach((j, v) => {
-      for (const i of evaluation) (losses[i] as (number | null)[])[v] = this.validationLoss(candidates[i] as AutoCandidate, j, levels, levelsKey);
-    });
+    const losses = entries.map((): (number | null)[] => []);
+    validation.forEach((j, v) => this.validationLosses(entries, j, levels, levelsKey).forEach((l, i) => ((losses[i] as (number | null)[])[v] = l)));
     const common = validation.flatMap((_, v) => (losses.every((l) => l[v] !== null) ? [v] : []));
     const totals = losses.map((l) => common.reduce((sum, v) => sum + (l[v] as number), 0));
-    const order = candidates.map((_, i) => i).sort((p, q) => (common.length === 0 ? p - q : (totals[p] as number) - (totals[q] as number) || p - q));
+    const order = entries.map((_, i) => i).sort((p, q) => (common.length === 0 ? p - q : (totals[p] as number) - (totals[q] as number) || p - q));
     // Every candidate forecasts the delivery day now: the chosen one's forecast is the answer, and all of
     // them are scored when this day becomes a validation day (its prices are then known).
-    const made: (DayForecast | InsufficientHistoryError)[] = [];
-    for (const i of evaluation) made[i] = this.candidateForecast(candidates[i] as AutoCandidate, dayIndex, levels, levelsKey);
-    const able = order.filter((i) => made[i] !== undefined && !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
+    const made = this.entryForecasts(entries, dayIndex, levels, levelsKey);
+    const able = order.filter((i) => !((made[i] as DayForecast | InsufficientHistoryError) instanceof InsufficientHistoryError));
     // A candidate whose forecast runs far beyond every price seen before is passed over (plausibleRange.ts).
     this.ranges ??= plausibleRanges(this.history);
     const range = this.ranges[dayIndex] ?? null;
     const chosen = able.find((i) => withinRange((made[i] as DayForecast).quantiles.prices, range)) ?? able[0];
     if (chosen === undefined) throw made[0] as InsufficientHistoryError;
-    const candidate = candidates[chosen] as AutoCandidate;
     const validationLoss = common.length === 0 ? null : (totals[chosen] as number) / common.length;
-    return { ...(made[chosen] as DayForecast), chosen: { ...candidate, validationDays: common.length, validationLoss } };
+    return { ...(made[chosen] as DayForecast), chosen: { ...chosenCandidate(entries[chosen] as AutoEntry), validationDays: common.length, validationLoss } };
   }
 
   /**
-   * The indices of the candidates in the order their forecasts of a day are made: those on the ARX
+   * Each entry's forecast of day j: a single candidate's own, or the quantile average of its members'
+   * (quantileAverage.ts), or the reason it has none (a member's, when any member cannot forecast the
+   * day). Each single candidate forecasts the day once, those on the ARX first (evaluationOrder).
+   */
+  private entryForecasts(entries: readonly AutoEntry[], j: number, levels: readonly number[], levelsKey: string): (DayForecast | InsufficientHistoryError)[] {
+    const singles = new Map<string, DayForecast | InsufficientHistoryError>();
+    for (const c of this.evaluationOrder(entries.flatMap(entryMembers))) singles.set(candidateKey(c), this.candidateForecast(c, j, levels, levelsKey));
+    return entries.map((entry) => {
+      const members = entryMembers(entry).map((c) => singles.get(candidateKey(c)) as DayForecast | InsufficientHistoryError);
+      const failed = members.find((f) => f instanceof InsufficientHistoryError);
+      if (failed !== undefined || members.length === 1) return failed ?? (members[0] as DayForecast);
+      return averageForecast(members as DayForecast[]);
+    });
+  }
+
+  /**
+   * The single candidates in the order their forecasts of a day are made, each once: those on the ARX
    * first, then the others in their order. Only the speed depends on it (each forecast is the same
    * whatever was made before): the ARX fit of a day keeps its training days' prices on the asinh
    * scale of its window (keptAsinhDay), and another candidate's calibration on a window of the same
    * days then reads them instead of computing them again.
    */
-  private evaluationOrder(candidates: readonly AutoCandidate[]): number[] {
+  private evaluationOrder(candidates: readonly AutoCandidate[]): AutoCandidate[] {
+    const unique = [...new Map(candidates.map((c) => [candidateKey(c), c])).values()];
     const onArx = (c: AutoCandidate) => (pointModelOf(c.method, this.options) === 'arx' ? 0 : 1);
-    return candidates.map((_, i) => i).sort((p, q) => onArx(candidates[p] as AutoCandidate) - onArx(candidates[q] as AutoCandidate) || p - q);
+    return unique.map((c, i) => ({ c, i })).sort((p, q) => onArx(p.c) - onArx(q.c) || p.i - q.i).map(({ c }) => c);
   }
 
   /** A candidate's forecast of day j (kept until its loss is scored), or the reason it has none. */
   private candidateForecast(candidate: AutoCandidate, j: number, levels: readonly number[], levelsKey: string): DayForecast | InsufficientHistoryError {
-    const key = `${candidate.method}|${candidate.calibrationDays}|${levelsKey}|${j}`;
+    const key = `${candidateKey(candidate)}|${levelsKey}|${j}`;
     const kept = this.pending.get(key);
     if (kept !== undefined) return kept;
     let made: DayForecast | InsufficientHistoryError;
@@ -360,29 +375,37 @@ export class Forecaster {
     return made;
   }
 
-  /** The candidates of `auto` this history can serve (those on residual load need its columns), else the fallback alone. */
-  private autoCandidates(): readonly AutoCandidate[] {
+  /**
+   * The entries of `auto` this history can serve (those with a member on residual load need its
+   * columns), else the fallback alone.
+   */
+  private autoCandidates(): readonly AutoEntry[] {
     const drivers = residualLoadColumns(this.history.exogenousNames) !== null;
-    const served = this.options.autoCandidates.filter((c) => drivers || pointModelOf(c.method, this.options) !== 'drivers');
+    const served = this.options.autoCandidates.filter((e) => drivers || entryMembers(e).every((c) => pointModelOf(c.method, this.options) !== 'drivers'));
     return served.length > 0 ? served : [this.options.autoFallback];
   }
 
-  /** Mean pinball loss of a candidate's forecast of past day j, or null when it cannot forecast it (kept). */
-  private validationLoss(candidate: AutoCandidate, j: number, levels: readonly number[], levelsKey: string): number | null {
-    const key = `${candidate.method}|${candidate.calibrationDays}|${levelsKey}|${j}`;
-    const kept = this.losses.get(key);
-    if (kept !== undefined) return kept;
-    const made = this.candidateForecast(candidate, j, levels, levelsKey);
-    this.pending.delete(key);
-    let loss: number | null = null;
-    if (!(made instanceof InsufficientHistoryError)) {
-      const realised = (this.history.days[j] as PriceHistory['days'][number]).pricePerMwh;
-      let sum = 0;
-      made.quantiles.prices.forEach((row, t) => (sum += crpsFromQuantiles(realised[t] as number, row, levels)));
-      loss = sum / realised.length;
-    }
-    this.losses.set(key, loss);
-    return loss;
+  /**
+   * Mean pinball loss of each entry's forecast of past day j, or null where it cannot forecast it
+   * (kept by entry and day); the single candidates' forecasts of day j are then dropped.
+   */
+  private validationLosses(entries: readonly AutoEntry[], j: number, levels: readonly number[], levelsKey: string): (number | null)[] {
+    const keys = entries.map((e) => `${entryMembers(e).map(candidateKey).join('+')}|${levelsKey}|${j}`);
+    if (keys.every((k) => this.losses.has(k))) return keys.map((k) => this.losses.get(k) as number | null);
+    const made = this.entryForecasts(entries, j, levels, levelsKey);
+    const realised = (this.history.days[j] as PriceHistory['days'][number]).pricePerMwh;
+    const out = made.map((f, i) => {
+      let loss: number | null = null;
+      if (!(f instanceof InsufficientHistoryError)) {
+        let sum = 0;
+        f.quantiles.prices.forEach((row, t) => (sum += crpsFromQuantiles(realised[t] as number, row, levels)));
+        loss = sum / realised.length;
+      }
+      this.losses.set(keys[i] as string, loss);
+      return loss;
+    });
+    for (const c of entries.flatMap(entryMembers)) this.pending.delete(`${candidateKey(c)}|${levelsKey}|${j}`);
+    return out;
   }
 
   /** The forecast of day `dayIndex` by one method with a calibration window of `calibrationDays`. */
@@ -674,6 +697,11 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
   });
 }
 
+/** A single candidate's key in the Forecaster's kept forecasts and losses. */
+function candidateKey(c: AutoCandidate): string {
+  return `${c.method}|${c.calibrationDays}`;
+}
+
 function validateOptions(o: ForecastOptions): ForecastOptions {
   const positiveInteger = (name: string, v: number, min = 1): void => {
     if (!Number.isInteger(v) || v < min) throw new ArgumentError(`options.${name}`, `an integer >= ${min}`, v);
@@ -694,7 +722,13 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
     positiveInteger(`${name}.calibrationDays`, c.calibrationDays, o.minCalibrationDays);
   };
   const single = FORECAST_METHODS.filter((m): m is SingleMethod => m !== 'auto');
-  o.autoCandidates.forEach((c, i) => candidate(`autoCandidates[${i}]`, c, single, 'one of '));
+  o.autoCandidates.forEach((e, i) => {
+    if (!('averageOf' in e)) return candidate(`autoCandidates[${i}]`, e, single, 'one of ');
+    const members = e.averageOf as readonly AutoCandidate[] | unknown;
+    if (!Array.isArray(members) || members.length < 2) throw new ArgumentError(`options.autoCandidates[${i}].averageOf`, 'two or more candidates to average', members);
+    members.forEach((c: AutoCandidate, m) => candidate(`autoCandidates[${i}].averageOf[${m}]`, c, single, 'one of '));
+    if (new Set(members.map(candidateKey)).size < members.length) throw new ArgumentError(`options.autoCandidates[${i}].averageOf`, 'each candidate once', members);
+  });
   candidate('autoFallback', o.autoFallback, single.filter((m) => pointModelOf(m, o) !== 'drivers'), 'a method on prices alone: one of ');
   positiveInteger('autoValidationDays', o.autoValidationDays);
   positiveInteger('driverKnots', o.driverKnots, 0);

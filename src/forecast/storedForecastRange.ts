@@ -1,7 +1,7 @@
 import type { PriceHistory, QuantileDay } from '../types.js';
 import { dayForecastKey, historyDigests, type DayForecastSetup } from './dayForecastKey.js';
 import { DEFAULTS, forecastSettings, type ForecastOptions } from './forecaster.js';
-import type { DayChoice } from './autoChoices.js';
+import { choiceRecord, type ChosenCandidate, type DayChoice } from './autoChoices.js';
 import { forecastRange, type ForecastRangeRequest, type SkippedDay } from './forecastRange.js';
 
 /** What is stored of one delivery day: its clamped quantile prices, or why it could not be forecast. */
@@ -10,8 +10,8 @@ export type StoredDayForecast =
       readonly outcome: 'forecast';
       /** prices[t][k] at the setup's levels [currency/MWh], clamped into [floor, cap]. */
       readonly prices: readonly (readonly number[])[];
-      /** With method `auto`: the method and calibration window it chose for the day. */
-      readonly chosen?: { readonly method: string; readonly calibrationDays: number };
+      /** With method `auto`: the method and calibration window it chose for the day, or the quantile average and its members. */
+      readonly chosen?: ChosenCandidate;
     }
   | { readonly outcome: 'skipped'; readonly reason: string };
 
@@ -86,7 +86,7 @@ export function storedForecastRange(
     const before = outcomes.size;
     const made = forecastRange(history, { ...request, from: first, to: last }, options, (done) => onDay?.(before + done, indices.length));
     const byDay = new Map<string, StoredDayForecast>([
-      ...made.forecasts.map((f) => [f.quantiles.day, { outcome: 'forecast', prices: f.quantiles.prices, ...(f.chosen === null ? {} : { chosen: { method: f.chosen.method, calibrationDays: f.chosen.calibrationDays } }) }] as const),
+      ...made.forecasts.map((f) => [f.quantiles.day, { outcome: 'forecast', prices: f.quantiles.prices, ...(f.chosen === null ? {} : { chosen: choiceRecord(f.chosen) }) }] as const),
       ...made.skipped.map((s) => [s.day, { outcome: 'skipped', reason: s.reason }] as const),
     ]);
     for (const i of run) {
@@ -118,7 +118,7 @@ export const NO_STORE: DayForecastStore = Object.freeze({ recall: () => undefine
 function fits(stored: StoredDayForecast, periods: number, levels: number): boolean {
   if (stored.outcome === 'skipped') return typeof stored.reason === 'string';
   const chosen = stored.chosen;
-  if (chosen !== undefined && !(typeof chosen === 'object' && chosen !== null && typeof chosen.method === 'string' && Number.isInteger(chosen.calibrationDays))) return false;
+  if (chosen !== undefined && !isChoice(chosen)) return false;
   return (
     Array.isArray(stored.prices) &&
     stored.prices.length === periods &&
@@ -135,4 +135,13 @@ function consecutiveRuns(indices: readonly number[]): number[][] {
     else runs.push([i]);
   }
   return runs;
+}
+
+/** Whether a stored choice is well formed: a method and an integer window, and for an average, members that are. */
+function isChoice(c: unknown): boolean {
+  if (typeof c !== 'object' || c === null) return false;
+  const { method, calibrationDays, averageOf } = c as { method?: unknown; calibrationDays?: unknown; averageOf?: unknown };
+  if (typeof method !== 'string' || !Number.isInteger(calibrationDays)) return false;
+  if (averageOf === undefined) return true;
+  return Array.isArray(averageOf) && averageOf.every((m: unknown) => isChoice(m) && Number.isFinite((m as { weight?: unknown }).weight));
 }

@@ -49,19 +49,18 @@ export class CsvBuilder {
 
   /** The text formatNumber(value, digits) gives. */
   number(value: number, digits = 6): void {
-    if (value === 0) {
-      this.byte(ZERO);
-      return;
-    }
     const scale = DECIMAL_SCALES[digits];
     const magnitude = value < 0 ? -value : value;
     const scaled = scale === undefined ? Number.NaN : magnitude * scale;
-    if (scale === undefined || !(scaled < EXACT_SCALED_LIMIT)) {
+    if (value !== 0 && (scale === undefined || !(scaled < EXACT_SCALED_LIMIT))) {
       this.text(formatByToFixed(value, digits));
       return;
     }
-    const units = roundedUnits(magnitude, scale, scaled);
-    if (units === 0) {
+    // Zero and a value that rounds to zero (dust of a few 1e-9 MWh, met months into a ledger) are
+    // written on one path: a path of their own, first taken that late, would throw the compiled
+    // writer away.
+    const units = value === 0 || scale === undefined ? 0 : roundedUnits(magnitude, scale, scaled);
+    if (units === 0 || scale === undefined) {
       this.byte(ZERO);
       return;
     }

@@ -90,10 +90,11 @@ let cellEnd = 0;
  * then where reading stopped, not necessarily the cell's end).
  */
 function scanCell(text: string, from: number, to: number): number {
-  let at = from;
-  const first = text.charCodeAt(at);
+  const first = text.charCodeAt(from);
   const negative = first === MINUS;
-  if (negative || first === PLUS) at++;
+  // The sign is stepped over and applied by arithmetic rather than in branches: a file's first negative
+  // price may come months in, and a branch first taken then throws the compiled reader away.
+  let at = from + (negative || first === PLUS ? 1 : 0);
   let mantissa = 0;
   let significant = 0;
   let decimals = 0;
@@ -136,5 +137,6 @@ function scanCell(text: string, from: number, to: number): number {
   }
   if (significant > EXACT_DIGITS || decimals >= POWERS_OF_TEN.length) return Number(text.slice(from, at));
   const magnitude = decimals === 0 ? mantissa : mantissa / (POWERS_OF_TEN[decimals] as number);
-  return negative ? -magnitude : magnitude;
+  // x (-1) is exact: the same value as -magnitude, -0 included.
+  return magnitude * (negative ? -1 : 1);
 }

@@ -188,9 +188,14 @@ class ForecastDays {
     if (crossing) {
       this.repairedPeriods++;
       if (this.repairedExamples.length < 5) this.repairedExamples.push(ownCopy(text.slice(from, to)));
-      const repairs = this.repairedByDay.get(located.day);
-      if (repairs === undefined) this.repairedByDay.set(located.day, { periods: 1, example: ownCopy(text.slice(from, to)) });
-      else repairs.periods++;
+      let repairs = this.repairedByDay.get(located.day);
+      if (repairs === undefined) {
+        repairs = { periods: 0, example: ownCopy(text.slice(from, to)) };
+        this.repairedByDay.set(located.day, repairs);
+      }
+      // Counted on one path for a day's first repair and the next (a second path first taken later
+      // would throw the compiled reader away once more).
+      repairs.periods++;
     }
     day.prices[located.index] = crossing ? rearrange(row).prices : row;
   }

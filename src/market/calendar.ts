@@ -30,15 +30,31 @@ export function deliveryPeriods(day: string, timeZone: string, periodMinutes: nu
   // clock-change days) local time is UTC plus one fixed offset, so the text is built by arithmetic.
   const startOffset = offsetMinutes(startMs, timeZone);
   const fixed = startOffset === offsetMinutes(endMs, timeZone) && startOffset === offsetMinutes(endMs - 1, timeZone);
-  return cutPeriods(startMs, endMs, stepMs, fixed ? fixedOffsetFormatter(startOffset) : (ms: number) => formatInstant(ms, timeZone));
+  return fixed ? cutPeriods(startMs, endMs, stepMs, fixedOffsetFormatter(startOffset)) : cutPeriodsThroughZone(startMs, endMs, stepMs, timeZone);
 }
 
-/** The periods of [startMs, endMs) in steps of stepMs, named by `format`. */
+/**
+ * The periods of [startMs, endMs) in steps of stepMs, named by `format`, always a fixedOffsetFormatter:
+ * the compiled loop calls that one function; a clock-change day's other formatter, first passed in
+ * March, would throw the compiled loop away (cutPeriodsThroughZone has its own).
+ */
 function cutPeriods(startMs: number, endMs: number, stepMs: number, format: (ms: number) => string): DeliveryPeriod[] {
   const periods: DeliveryPeriod[] = [];
   let start = format(startMs);
   for (let ms = startMs; ms < endMs; ms += stepMs) {
     const end = format(ms + stepMs);
+    periods.push({ start, end, startMs: ms });
+    start = end;
+  }
+  return periods;
+}
+
+/** cutPeriods for a day whose offset changes: each period named through the zone database. */
+function cutPeriodsThroughZone(startMs: number, endMs: number, stepMs: number, timeZone: string): DeliveryPeriod[] {
+  const periods: DeliveryPeriod[] = [];
+  let start = formatInstant(startMs, timeZone);
+  for (let ms = startMs; ms < endMs; ms += stepMs) {
+    const end = formatInstant(ms + stepMs, timeZone);
     periods.push({ start, end, startMs: ms });
     start = end;
   }

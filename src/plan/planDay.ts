@@ -73,7 +73,11 @@ export function planDay(request: PlanRequest): PlanResult {
   if (solved.status !== 'optimal') return solved;
   const { outcome, orders: rounded, rounding } = roundForExchange(problem, solved, forecast.periods, prices, market);
   const atCapOrFloor = recovery === null ? 0 : Math.min(forecast.periods.length, recovery.forcedPeriods + (insideWindow(battery, recovery.socAfterMwh) ? 0 : 1));
-  const orders = rounded.map((o) => (recoveryOrder(o, forecast, atCapOrFloor) ? { ...o, limitPrice: o.side === 'buy' ? market.priceCap : market.priceFloor, quantileLevel: null } : o));
+  // Pushed into an array literal rather than made by map: the engine then gives a day without orders
+  // the same kind of array as a day with some (map makes an empty list an array of small integers,
+  // and code compiled on lists of orders is thrown away at the first day without one).
+  const orders: Order[] = [];
+  for (const o of rounded) orders.push(recoveryOrder(o, forecast, atCapOrFloor) ? { ...o, limitPrice: o.side === 'buy' ? market.priceCap : market.priceFloor, quantileLevel: null } : o);
   // The median and point policies schedule on the median already.
   const median = policy === 'median' || policy === 'point' ? prices.buyPricePerMwh : pricesAtLevel(forecast.levels, forecast.prices, 0.5);
   const expectedValueAtMedian = scheduleValue({ ...problem, buyPricePerMwh: median, sellPricePerMwh: median }, outcome.schedule);

@@ -3,6 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { FORECAST_METHODS } from '../../src/forecast/forecaster.js';
+import { QUANTILE_AVERAGE } from '../../src/forecast/autoChoices.js';
 import { parseQuantileForecast } from '../../src/io/readQuantileForecast.js';
 import type { MarketSpec, PriceHistory } from '../../src/types.js';
 import { syntheticHistory } from '../forecast/syntheticHistory.js';
@@ -65,9 +66,14 @@ describe('quantbid forecast', () => {
   it('records the method auto chose each day, and how often each was chosen', async () => {
     const out = join(dir, 'auto');
     expect((await runCli(['forecast', ...inputs(), '--from', day(90), '--to', day(92), '--method', 'auto', '--out', out])).code).toBe(0);
-    const summary = JSON.parse(read(out, 'forecast.json')) as { chosenMethods: { perDay: { day: string; method: string; calibrationDays: number }[]; counts: { days: number }[] } };
+    const summary = JSON.parse(read(out, 'forecast.json')) as { chosenMethods: { perDay: { day: string; method: string; calibrationDays: number; averageOf?: { method: string; weight: number }[] }[]; counts: { days: number }[] } };
     expect(summary.chosenMethods.perDay.map((c) => c.day)).toEqual([90, 91, 92].map(day));
-    for (const c of summary.chosenMethods.perDay) expect(FORECAST_METHODS).toContain(c.method);
+    for (const c of summary.chosenMethods.perDay) {
+      // A single method, or a quantile average that names its members and their weights (summing to 1).
+      if (c.method !== QUANTILE_AVERAGE) expect(FORECAST_METHODS).toContain(c.method);
+      else expect(c.averageOf!.reduce((sum, m) => sum + m.weight, 0)).toBeCloseTo(1, 12);
+      for (const m of c.averageOf ?? []) expect(FORECAST_METHODS).toContain(m.method);
+    }
     expect(summary.chosenMethods.counts.reduce((n, c) => n + c.days, 0)).toBe(3);
     const single = join(dir, 'single');
     expect((await runCli(['forecast', ...inputs(), '--from', day(90), '--to', day(90), '--method', 'arx-hs', '--out', single])).code).toBe(0);

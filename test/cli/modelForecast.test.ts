@@ -54,7 +54,7 @@ describe('quantbid backtest --model', () => {
     const chosen = JSON.parse(read(viaAuto, 'summary.json')).forecastModel.chosenMethods;
     expect(chosen).toEqual(JSON.parse(read(fc, 'forecast.json')).chosenMethods);
     expect(chosen.perDay.map((c: { day: string }) => c.day)).toEqual(['2025-03-05', '2025-03-06', '2025-03-07', '2025-03-08', '2025-03-09']);
-    for (const c of chosen.perDay) expect(['driver-hs', 'arx-hs', 'driver-fhs']).toContain(c.method);
+    for (const c of chosen.perDay) expect(['driver-hs', 'arx-hs', 'driver-fhs', 'quantile-average']).toContain(c.method);
   }, 300_000);
 
   it('equals quantbid forecast followed by backtest --forecast of its file: days.csv and ledger.csv byte for byte', async () => {

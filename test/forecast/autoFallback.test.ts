@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { ForecastOptions } from '../../src/forecast/forecaster.js';
 import { AUTO_CANDIDATES, AUTO_FALLBACK, DEFAULTS, Forecaster, forecastDay } from '../../src/forecast/forecaster.js';
+import { entryMembers } from '../../src/forecast/forecastMethods.js';
 import type { PriceHistory } from '../../src/types.js';
 import { syntheticHistory } from './syntheticHistory.js';
 
@@ -14,7 +15,7 @@ const pricesOnly: PriceHistory = { ...withDrivers, exogenousNames: [], days: wit
 
 describe('auto: candidates and fallback', () => {
   it('the default candidates all read the drivers; the fallback reads prices alone', () => {
-    expect(AUTO_CANDIDATES.every((c) => c.method.startsWith('driver-'))).toBe(true);
+    expect(AUTO_CANDIDATES.flatMap(entryMembers).every((c) => c.method.startsWith('driver-'))).toBe(true);
     expect(AUTO_FALLBACK).toEqual({ method: 'arx-hs', calibrationDays: 364 });
     expect(DEFAULTS.autoFallback).toBe(AUTO_FALLBACK);
   });

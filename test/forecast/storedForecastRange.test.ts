@@ -90,6 +90,21 @@ describe('storedForecastRange', () => {
     expect(again.forecasts).toEqual(first.forecasts);
   });
 
+  it("auto's choice of a quantile average is stored with its members and weights and given back from the store; a malformed one is made again", () => {
+    const options: Partial<ForecastOptions> = { ...SMALL, autoValidationDays: 5, autoCandidates: [{ averageOf: [{ method: 'driver-hs', calibrationDays: 42 }, { method: 'driver-fhs', calibrationDays: 42 }] }] };
+    const req = request({ method: 'auto', from: day(70), to: day(72) });
+    const store = new MemoryStore();
+    const first = storedForecastRange(history, req, SETUP, options, store);
+    expect(first.chosen.map((c) => c.averageOf?.map((m) => m.weight))).toEqual([[0.5, 0.5], [0.5, 0.5], [0.5, 0.5]]);
+    const [key] = [...store.entries.keys()];
+    const entry = store.entries.get(key!) as Extract<StoredDayForecast, { outcome: 'forecast' }>;
+    store.entries.set(key!, { ...entry, chosen: { ...entry.chosen!, averageOf: [{ method: 'driver-hs', calibrationDays: 42 } as never] } });
+    const second = storedForecastRange(history, req, SETUP, options, store);
+    expect(second).toMatchObject({ daysFitted: 1, daysFromStore: 2 });
+    expect(second.chosen).toEqual(first.chosen);
+    expect(second.forecasts).toEqual(first.forecasts);
+  });
+
   it('stores skipped days with their reason and gives them back from the store', () => {
     const store = new MemoryStore();
     const req = request({ from: day(40), to: day(50) });

@@ -1,7 +1,7 @@
 import { basename, dirname } from 'node:path';
 import { z } from 'zod';
 import { gatherProblems, InputError, type InputProblem } from '../../errors/inputError.js';
-import { chosenMethodsRecord } from '../../forecast/autoChoices.js';
+import { chosenMethodsRecord, choiceLabel } from '../../forecast/autoChoices.js';
 import { DEFAULTS, FORECAST_METHODS, MAX_PATHS } from '../../forecast/forecaster.js';
 import { forecastRange, type ForecastRangeResult } from '../../forecast/forecastRange.js';
 import { formatNumber } from '../../io/formatNumber.js';
@@ -150,7 +150,7 @@ function forecastSummary(s: CheckedSettings, context: SummaryContext) {
       skipped: skipped.length,
       skippedDays: skipped,
     },
-    chosenMethods: chosenMethodsRecord(forecasts.flatMap((f) => (f.chosen === null ? [] : [{ day: f.quantiles.day, method: f.chosen.method, calibrationDays: f.chosen.calibrationDays }]))),
+    chosenMethods: chosenMethodsRecord(forecasts.flatMap((f) => (f.chosen === null ? [] : [{ ...f.chosen, day: f.quantiles.day }]))),
     crossedPeriodsSorted: forecasts.reduce((sum, f) => sum + f.crossedSlots, 0),
     pricesClampedToFloorOrCap: clampedValues,
     notes: [...new Set(forecasts.flatMap((f) => f.notes))],
@@ -163,7 +163,7 @@ function forecastSummaryText(summary: ForecastSummary, out: string, elapsedSecon
   const { days } = summary;
   const lines = [
     `forecast ${summary.method} at ${summary.levels.length} levels (${summary.levels[0]}..${summary.levels[summary.levels.length - 1]}), ${summary.from} to ${summary.to}: ${days.forecast} days forecast (${days.first} to ${days.last}), ${days.skipped} skipped, ${formatNumber(elapsedSeconds, 1)} s`,
-    ...(summary.chosenMethods === null ? [] : [`  chosen: ${summary.chosenMethods.counts.map((c) => `${c.method} (${c.calibrationDays} calibration days) ${c.days} ${c.days === 1 ? 'day' : 'days'}`).join(', ')}`]),
+    ...(summary.chosenMethods === null ? [] : [`  chosen: ${summary.chosenMethods.counts.map((c) => `${choiceLabel(c)} ${c.days} ${c.days === 1 ? 'day' : 'days'}`).join('; ')}`]),
     ...days.skippedDays.slice(0, 5).map((d) => `  skipped ${d.day}: ${d.reason}`),
     ...(days.skipped > 5 ? [`  ... and ${days.skipped - 5} more (see forecast.json)`] : []),
     `  wrote ${summary.outputs.map((name, i) => (i === 0 ? `${out}/${name}` : name)).join(', ')}`,

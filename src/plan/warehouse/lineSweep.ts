@@ -83,9 +83,11 @@ export function sweepLine(day: StoredDay, mu: number, modes: Int8Array, ws: Swee
   const { lo: low, hi: high, eps } = day.window;
   const { live, remaining, taken, shapes } = ws;
   const { ids, slopes } = live;
-  live.clear();
-  let head = live.head;
-  let tail = live.tail;
+  // An empty array: both ends at the middle. Read here, not through a method: a method run once per
+  // sweep may have no type feedback yet when the sweep is first compiled, and its inlined loads then
+  // throw the compiled sweep away.
+  let head = live.middle;
+  let tail = head;
   let lo = day.socStartMwh;
   let hi = lo;
   for (let t = 0; t < day.periods; t++) {

@@ -25,7 +25,8 @@ export class LiveSegments {
   /** Segment ids and slopes in slots [head, tail), slope ascending: the flattest at head, the steepest at tail - 1. */
   readonly ids: Int32Array;
   readonly slopes: Float64Array;
-  private readonly middle: number;
+  /** The slot both ends start from (an empty array), with room on either side. */
+  readonly middle: number;
   /** The sweep removes segments by moving these two ends (head++ drops the flattest, tail-- takes the steepest). */
   head = 0;
   tail = 0;
@@ -36,10 +37,6 @@ export class LiveSegments {
     this.ids = new Int32Array(size);
     this.slopes = new Float64Array(size);
     this.middle = size >>> 1;
-  }
-
-  clear(): void {
-    this.head = this.tail = this.middle;
   }
 }
 

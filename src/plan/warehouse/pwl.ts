@@ -279,7 +279,11 @@ export function maxOf(f: Pwl, g: Pwl, out: Pwl): void {
         // The lines cross at the fraction d0 / (d0 - d1) of the interval; the value is taken on
         // the line that was on top before the crossing.
         const at = d0 / (d0 - d1);
-        out.push(e0 + at * (e1 - e0), d0 > 0 ? a0 + at * (a1 - a0) : b0 + at * (b1 - b0));
+        // The line on top picked first, then one formula: an arm of its own for g on top, first met
+        // late, would throw the compiled program away.
+        const top0 = d0 > 0 ? a0 : b0;
+        const top1 = d0 > 0 ? a1 : b1;
+        out.push(e0 + at * (e1 - e0), top0 + at * (top1 - top0));
       }
     } else if (inF) {
       out.push(e0, lerp(fx, f.vs, i, e0));

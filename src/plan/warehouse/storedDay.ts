@@ -94,12 +94,11 @@ export function toStoredDay(problem: DayProblem, arrays?: StoredDayArrays): Stor
     chargePrice[t] = problem.buyPricePerMwh[t]! / b.chargeEfficiency;
     dischargePrice[t] = (problem.sellPricePerMwh[t]! - b.degradationCostPerMwh) * b.dischargeEfficiency;
     priceSum += chargePrice[t]! + dischargePrice[t]!;
-    if (both && dischargePrice[t]! > chargePrice[t]!) {
-      arbitrage[t] = 1;
-      arbitrageCount++;
-    } else {
-      arbitrage[t] = 0;
-    }
+    // Stored and counted without a branch: the first days a solver sees may have no arbitrage period,
+    // and a branch first taken later throws the compiled function away.
+    const isArbitrage = both && dischargePrice[t]! > chargePrice[t]! ? 1 : 0;
+    arbitrage[t] = isArbitrage;
+    arbitrageCount += isArbitrage;
   }
   const cap = b.maxFromStoreMwhPerDay;
   const eps = 1e-12 * Math.max(1, Math.abs(b.socMaxMwh), Math.abs(b.socMinMwh), chargeStepMwh, dischargeStepMwh);

@@ -32,14 +32,12 @@ export class StoredSchedule {
 export function netPeriod(schedule: StoredSchedule, t: number): void {
   const x = schedule.x[t]!;
   const y = schedule.y[t]!;
-  if (x <= 0 || y <= 0) return;
-  if (x >= y) {
-    schedule.x[t] = x - y;
-    schedule.y[t] = 0;
-  } else {
-    schedule.x[t] = 0;
-    schedule.y[t] = y - x;
-  }
+  // Both flows lowered by the smaller, nothing when either is 0: one formula for every case (x - x
+  // and y - y are exactly 0), since a case of its own, first met late, would throw the compiled
+  // callers away.
+  const netted = Math.max(0, Math.min(x, y));
+  schedule.x[t] = x - netted;
+  schedule.y[t] = y - netted;
 }
 
 /** Periods netted before a schedule is revalued: none, those outside arbitrage periods (no loss), or every one. */

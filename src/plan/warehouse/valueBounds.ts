@@ -69,7 +69,12 @@ export class ValueBounds {
       if (xs[m]! <= lo) l = m + 1;
       else h = m;
     }
-    for (let i = l; i < from + n && xs[i]! < hi; i++) if (vs[i]! > best) best = vs[i]!;
+    for (let i = l; i < from + n && xs[i]! < hi; i++) {
+      // Read once, before the test: a second read in the rarely taken arm, first taken late, would
+      // throw the compiled program away.
+      const v = vs[i]!;
+      if (v > best) best = v;
+    }
     return best;
   }
 }
