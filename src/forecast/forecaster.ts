@@ -80,7 +80,7 @@ interface CalibrationState {
   readonly errors: readonly Float64Array[];
   /** The calibration days' point forecasts on the error scale, [d][s] (what their errors were taken from). */
   readonly forecastsOnScale: readonly Float64Array[];
-  /** What `driver-hs` and `driver-fhs` add to their quantiles on the error scale (options.driverErrorLevel; else 0). */
+  /** What `driver-hs` and `driver-fhs` add to their quantiles on the error scale (options.driverCentre 'recent'; else 0). */
   readonly centreShift: number;
 }
 
