@@ -52,7 +52,7 @@ export const WAREHOUSE_SOLVER_NAME = 'fast-warehouse-sweep';
  * when the first spends its budget: branching on the chord sweep (fast when the chord relaxation
  * is tight: wide windows, or a cycle cap) or the dynamic program over general piecewise-linear
  * value functions (valueProgram.ts; fast when the window is narrow against the power steps). The order
- * is chosen by programSuits; a last resort runs the program with far larger budgets.
+ * is chosen by methodOrder; a last resort runs the program with far larger budgets.
  *
  * Scratch arrays live in a DayWorkspace: the caller's (context.workspace), else one shared by the
  * calls that bring none (see sharedWorkspace). The result depends on the problem only.
@@ -73,12 +73,11 @@ export function solveWarehouseDay(problem: DayProblem, options: Partial<Warehous
   const b = problem.battery;
   if (b.socMinMwh > b.socMaxMwh) return { status: 'infeasible', reason: `the state-of-charge window [${fmt(b.socMinMwh)}, ${fmt(b.socMaxMwh)}] MWh is empty` };
   const { observer } = context;
-  const programFirst = day.arbitrageCount > 0 && programSuits(day);
   const attempts = settings === WAREHOUSE_SOLVER_DEFAULTS ? DEFAULT_ATTEMPTS : attemptsOf(settings);
   let incumbent: { value: number; discharged: number } | null = null;
   let nodes = 0;
   let outcome: BranchOutcome | null = null;
-  for (const attempt of programFirst ? attempts.programFirst : attempts.sweepFirst) {
+  for (const attempt of attempts[day.arbitrageCount > 0 ? methodOrder(day) : 'sweepFirst']) {
     const solver: MultiplierSolver = attempt.method === 'sweep' ? ws.sweep.load(day, observer?.sweep) : ws.program.load(day, { maxBreakpoints: attempt.maxBreakpoints, incumbent });
     outcome = branchOnArbitrage(ws.context.load(day, solver, observer), day.arbitrageCount === 0 ? Infinity : attempt.nodes, ws.best);
     nodes += outcome.nodes;
@@ -110,12 +109,21 @@ interface Attempt {
   readonly maxBreakpoints: number;
 }
 
-/** The passes in either order, each followed by the last resort: the exact program with budgets about a thousand times larger (seconds at worst). */
-function attemptsOf(settings: WarehouseSolverOptions): { readonly sweepFirst: readonly Attempt[]; readonly programFirst: readonly Attempt[] } {
+/** The orders of the passes (methodOrder picks one). */
+type MethodOrder = 'sweepFirst' | 'programFirst' | 'probeFirst';
+
+/**
+ * The passes in each order, each followed by the last resort: the exact program with budgets about a
+ * thousand times larger (seconds at worst). `probeFirst` is `programFirst` after one node of the chord
+ * sweep (its root; none when sweepNodes is 0): when the root is already complementary that is the
+ * optimum; otherwise its netted schedule goes to the program as the incumbent.
+ */
+function attemptsOf(settings: WarehouseSolverOptions): Readonly<Record<MethodOrder, readonly Attempt[]>> {
+  const probe: Attempt = { method: 'sweep', nodes: Math.min(1, settings.sweepNodes), maxBreakpoints: 0 };
   const sweep: Attempt = { method: 'sweep', nodes: settings.sweepNodes, maxBreakpoints: 0 };
   const program: Attempt = { method: 'program', nodes: settings.programNodes, maxBreakpoints: settings.maxBreakpoints };
   const lastResort: Attempt = { method: 'program', nodes: settings.lastResortNodes, maxBreakpoints: settings.lastResortBreakpoints };
-  return { sweepFirst: [sweep, program, lastResort], programFirst: [program, sweep, lastResort] };
+  return { sweepFirst: [sweep, program, lastResort], programFirst: [program, sweep, lastResort], probeFirst: [probe, program, sweep, lastResort] };
 }
 
 const NO_OPTIONS = Object.freeze({});
@@ -140,12 +148,14 @@ function workspaceFor(periods: number, own: DayWorkspace | undefined): DayWorksp
  * more than half the periods are arbitrage periods (the chord branching then has too many periods
  * to split), or when the window is at most 2.5 power steps wide (its value functions then have few
  * breakpoints) and there is no cycle cap (which would multiply its runs); the chord branching first
- * otherwise.
+ * otherwise. With a cycle cap, a day of mostly arbitrage periods first tries the chord sweep's root
+ * alone (`probeFirst`): the cap's mix is often complementary already there, in microseconds, where
+ * the program takes milliseconds (docs/day-solver.md section 7 has the figures).
  */
-function programSuits(day: StoredDay): boolean {
+function methodOrder(day: StoredDay): MethodOrder {
+  if (2 * day.arbitrageCount > day.periods) return day.dischargeCapMwh === Infinity ? 'programFirst' : 'probeFirst';
   const step = Math.min(day.chargeStepMwh, day.dischargeStepMwh);
-  if (2 * day.arbitrageCount > day.periods) return true;
-  return day.dischargeCapMwh === Infinity && day.socMaxMwh - day.socMinMwh <= 2.5 * step;
+  return day.dischargeCapMwh === Infinity && day.socMaxMwh - day.socMinMwh <= 2.5 * step ? 'programFirst' : 'sweepFirst';
 }
 
 /**

@@ -144,7 +144,7 @@ export function traceDay(problem: DayProblem): Trace {
       Array.from({ length: periods }, (_, t) => [String(t), fmt(day.chargePrice[t]!), fmt(day.dischargePrice[t]!), day.arbitrage[t] === 1 ? 'yes' : 'no']),
     ),
     '',
-    `X = ${fmt(day.chargeStepMwh)} MWh (eta_c dt chargeMw), Y = ${fmt(day.dischargeStepMwh)} MWh (dt dischargeMw / eta_d), window [${fmt(day.socMinMwh)}, ${fmt(day.socMaxMwh)}] MWh, end floor ${fmt(day.socEndFloorMwh)} MWh, V = ${fmt(day.terminalValuePerMwh)}, C = cap = ${fmt(day.dischargeCapMwh)} MWh stored. ${day.arbitrageCount} of ${periods} periods are arbitrage periods; by programSuits the ${firstMethod === 'sweep' ? 'branching on the chord sweep' : 'dynamic program'} runs first.`,
+    `X = ${fmt(day.chargeStepMwh)} MWh (eta_c dt chargeMw), Y = ${fmt(day.dischargeStepMwh)} MWh (dt dischargeMw / eta_d), window [${fmt(day.socMinMwh)}, ${fmt(day.socMaxMwh)}] MWh, end floor ${fmt(day.socEndFloorMwh)} MWh, V = ${fmt(day.terminalValuePerMwh)}, C = cap = ${fmt(day.dischargeCapMwh)} MWh stored. ${day.arbitrageCount} of ${periods} periods are arbitrage periods; by methodOrder the ${firstMethod === 'sweep' ? 'branching on the chord sweep' : 'dynamic program'} runs first.`,
   ].join('\n');
 
   const first = sweeps[0]!;

@@ -2,7 +2,8 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { uncoveredReason, solveWarehouseDay } from '../../../src/plan/warehouse/index.js';
+import { uncoveredReason, solveWarehouseDay, toStoredDay } from '../../../src/plan/warehouse/index.js';
+import type { SolveObserver } from '../../../src/plan/warehouse/dayContext.js';
 import type { BatteryModel, DayProblem } from '../../../src/types.js';
 import { checkSchedule, recomputedObjective } from '../../reference/checkSchedule.js';
 import { HIGHS_NPM_VERSION, loadHighsSolver, solveDayWithHighs } from '../../reference/highsDayModel.js';
@@ -98,6 +99,49 @@ describe('solveWarehouseDay against HiGHS', () => {
       failures.push(...checkSchedule(problem, outcome.schedule).map((v) => `${name}: ${v}`));
     }
     expect(failures).toEqual([]);
+  }, 900_000);
+
+  it('seeded days of mostly arbitrage periods with a cycle cap (the chord root first, then the program): the MIP optimum to 1e-9 relative', () => {
+    // Invented days: seeded random days with a cycle cap, every price lowered by 200 so that most periods
+    // are arbitrage periods (prices negative all day; days whose battery cannot both charge and discharge
+    // in a period have none and are passed over). methodOrder tries the chord sweep's root before the
+    // dynamic program on such days; both outcomes of that try must occur and agree with HiGHS.
+    const failures: string[] = [];
+    let atRoot = 0;
+    let programAfter = 0;
+    let days = 0;
+    for (let i = 0; i < 80; i++) {
+      const name = `fast-capped-arbitrage-${i}`;
+      const base = randomDay(name, { cycleCap: true, negativePrices: true });
+      const problem: DayProblem = Object.freeze({ ...base, buyPricePerMwh: base.buyPricePerMwh.map((p) => p - 200), sellPricePerMwh: base.sellPricePerMwh.map((p) => p - 200) });
+      const stored = toStoredDay(problem);
+      if (2 * stored.arbitrageCount <= stored.periods) continue;
+      days++;
+      let firstMethod: 'sweep' | 'program' | undefined;
+      let sweeps = 0;
+      const observer: SolveObserver = {
+        sweep: { afterPeriod: (t) => void (t === 0 && sweeps++), atEnd: () => {} },
+        multiplierStep: () => void (firstMethod ??= sweeps > 0 ? 'sweep' : 'program'),
+      };
+      const reference = solveDayWithHighs(highs, problem, true);
+      const outcome = solveWarehouseDay(problem, {}, { observer });
+      if (reference.status !== 'optimal' || outcome.status !== 'optimal') {
+        if (reference.status !== outcome.status) failures.push(`${name}: HiGHS ${reference.status}, fast ${outcome.status}`);
+        continue;
+      }
+      if (firstMethod !== 'sweep') failures.push(`${name}: the ${String(firstMethod)} ran first, not the chord sweep's root`);
+      if (outcome.nodes === 1) atRoot++;
+      else programAfter++;
+      if (relGap(outcome.objective, reference.objective) > 1e-9) failures.push(`${name}: objective ${outcome.objective}, HiGHS ${reference.objective}`);
+      failures.push(...checkSchedule(problem, outcome.schedule).map((v) => `${name}: ${v}`));
+      outcome.schedule.chargeMw.forEach((c, t) => {
+        if (c > 0 && (outcome.schedule.dischargeMw[t] as number) > 0) failures.push(`${name}: period ${t} charges and discharges`);
+      });
+    }
+    expect(failures).toEqual([]);
+    expect(days).toBeGreaterThanOrEqual(40);
+    expect(atRoot).toBeGreaterThan(0);
+    expect(programAfter).toBeGreaterThan(0);
   }, 900_000);
 
   it('60 seeded days starting outside the window (by up to two first-period steps): HiGHS agrees, through either exact method', () => {
