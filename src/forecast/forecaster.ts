@@ -566,11 +566,11 @@ export class Forecaster {
     let fit = this.errorLevelFits.get(key);
     if (fit === undefined) {
       if (refitDay === dayNumber) {
-        fit = { ...fitErrorLevel(Int32Array.from(calibration, (c) => c.dayNumber), errors), scale };
+        fit = { ...fitErrorLevel(Int32Array.from(calibration, (c) => c.dayNumber), errors, refitDay), scale };
       } else {
         const days = this.calibrationSet(model, view, calibrationDays, refitDay);
         const refitScale = days.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, days, calibrationDays);
-        fit = { ...fitErrorLevel(Int32Array.from(days, (c) => c.dayNumber), days.map((c) => errorsOn(c, refitScale))), scale: refitScale };
+        fit = { ...fitErrorLevel(Int32Array.from(days, (c) => c.dayNumber), days.map((c) => errorsOn(c, refitScale)), refitDay), scale: refitScale };
       }
       this.errorLevelFits.set(key, fit);
     }

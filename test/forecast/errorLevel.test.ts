@@ -44,7 +44,7 @@ describe('errorLevelShifts (intercept correction by a heterogeneous autoregressi
 
   it('keeps the refit day\'s weights and slot medians for the days after it: their levels and shifts as NumPy computes them (script, "refit cadence")', () => {
     // Fitted for refit day 172 on the days before it; days 172, 173 and 175 (174 missing) then come.
-    const fit = fitErrorLevel(dayNumbers, errors);
+    const fit = fitErrorLevel(dayNumbers, errors, 172);
     const b = fit.weights as Float64Array;
     expect(Array.from(b)).toEqual([-0.013562514210602861, 1.0632575970662763, -0.5586151762026125].map((v) => expect.closeTo(v, 10)));
     const work = new Float64Array(S);

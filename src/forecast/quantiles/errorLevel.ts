@@ -12,6 +12,14 @@ export const ERROR_LEVEL_LOOKBACK_DAYS: readonly number[] = Object.freeze([1, 7,
 export const ERROR_LEVEL_TEST_SIZE = 0.01;
 
 /**
+ * Calendar days before the fit's day whose calibration days are the rows of the weights' regression [days]:
+ * a year, the default calibration window; a longer window's older days still give slot medians, levels and
+ * lookbacks. (With the 728-day window's two years as rows the test rejected on runs that did not carry
+ * over, and cost a known-distribution setting 0.006: docs/forecast-quality.md, "the eighth wave".)
+ */
+export const ERROR_LEVEL_FIT_DAYS = 364;
+
+/**
  * The shift of a delivery day's centre that the level of the recent calibration errors predicts: an
  * intercept correction (Clements and Hendry 1996) whose weights are estimated from the calibration
  * errors themselves, by a heterogeneous autoregression of the errors' day level (Corsi 2009).
@@ -65,7 +73,7 @@ export interface ErrorLevelShifts {
 export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], targetDay: number): ErrorLevelShifts {
   const n = errors.length;
   const days = new Float64Array(n);
-  const fit = fitErrorLevel(dayNumbers, errors);
+  const fit = fitErrorLevel(dayNumbers, errors, targetDay);
   const target = fit.weights === null ? null : fit.levels.shift(fit.weights, targetDay);
   if (target === null) return { target: 0, days };
   for (let d = 0; d < n; d++) days[d] = fit.levels.shift(fit.weights as Float64Array, dayNumbers[d] as number) ?? 0;
@@ -84,7 +92,7 @@ export interface ErrorLevelFit {
  * days given (all before the day the fit is made for); weights null when fewer than the longest
  * lookback's days have a whole lookback, the normal equations are singular or the F test does not reject.
  */
-export function fitErrorLevel(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[]): ErrorLevelFit {
+export function fitErrorLevel(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], fitDay: number): ErrorLevelFit {
   const n = errors.length;
   const S = n === 0 ? 0 : (errors[0] as ArrayLike<number>).length;
   const lookbacks = ERROR_LEVEL_LOOKBACK_DAYS;
@@ -110,7 +118,7 @@ export function fitErrorLevel(dayNumbers: ArrayLike<number>, errors: readonly Ar
   let yy = 0;
   for (let d = 0; d < n; d++) {
     const t = dayNumbers[d] as number;
-    if (t - longest < first || !levels.features(t, x)) continue;
+    if (t - longest < first || t < fitDay - ERROR_LEVEL_FIT_DAYS || !levels.features(t, x)) continue;
     const y = levels.level(t);
     yy += y * y;
     for (let i = 0; i < p; i++) {
