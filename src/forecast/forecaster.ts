@@ -140,15 +140,16 @@ export interface ForecastOptions {
   /** How `driver-fhs` pools the standardised errors: per clock slot, over all slots, or over all slots weighted by the point forecast's level. */
   readonly spreadPool: SpreadPool;
   /**
-   * The centre of `driver-hs` and `driver-fhs`: 'pool' (default), the point forecast plus the error
-   * pool's quantiles as they are; 'recent', every quantile of the day shifted by the level of the
-   * recent calibration errors beyond the pool's, by weights estimated on the calibration days and used
-   * only where an F test at 1% finds the recent errors' level predictive, and the pool made of the
-   * errors of the forecasts shifted the same way (quantiles/errorLevel.ts: an intercept correction,
-   * Clements and Hendry 1996, by a heterogeneous autoregression of the errors' day level, Corsi 2009).
-   * 'recent' brings the demo's share below the median from 0.479 to 0.493 and its CRPS from 5.007 to
-   * 4.995, but costs one known-distribution cell 0.003 and a year of `auto` about 0.5x `arx-hs`'s CPU
-   * (3.20x): not the default (docs/forecast-quality.md, "the seventh wave, the demo's centre").
+   * The centre of `driver-hs` and `driver-fhs`: 'recent' (default), every quantile of the day shifted by
+   * the level of the recent calibration errors beyond the pool's, by weights estimated on the calibration
+   * days and used only where an F test at 1% finds the recent errors' level predictive, and the pool made
+   * of the errors of the forecasts shifted the same way (quantiles/errorLevel.ts: an intercept correction,
+   * Clements and Hendry 1996, by a heterogeneous autoregression of the errors' day level, Corsi 2009),
+   * the weights estimated on the refit days of driverRefitDays (errorLevelShiftsOf); 'pool', the point
+   * forecast plus the error pool's quantiles as they are (the default before the eighth wave). 'recent'
+   * brings the demo's share below the median from 0.479 to 0.492 and its CRPS from 5.007 to 4.977, every
+   * known-distribution cell within 0.002 of 'pool', at about the CPU of 'pool' (docs/forecast-quality.md,
+   * "the eighth wave: `recent` the default").
    */
   readonly driverCentre: 'pool' | 'recent';
   /** Lag of the seasonal naive model of `naive-hs` [days], >= 1 (7: same weekday last week). */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { dayLevel, errorLevelShift, errorLevelShifts, fitErrorLevel, fTestPValue } from '../../src/forecast/quantiles/errorLevel.js';
+import { dayLevel, ERROR_LEVEL_FIT_DAYS, errorLevelShift, errorLevelShifts, fitErrorLevel, fTestPValue } from '../../src/forecast/quantiles/errorLevel.js';
 import type { ForecastOptions } from '../../src/forecast/forecaster.js';
 import { DEFAULTS, forecastDay, Forecaster } from '../../src/forecast/forecaster.js';
 import { dayNumberOf } from '../../src/forecast/models/historyView.js';
@@ -62,6 +62,16 @@ describe('errorLevelShifts (intercept correction by a heterogeneous autoregressi
     expect(fit.levels.shift(b, 132)).toBeNull();
     // The delivery day 175 has no level of day 174 for its one-day lookback.
     expect(fit.levels.shift(b, 175)).toBeNull();
+  });
+
+  it('takes the rows of the weights\' regression from the last ERROR_LEVEL_FIT_DAYS days before the fit\'s day only: a run older than that sets no weights', () => {
+    // The slow wave of days 100..171, then errors constant per slot (day level 0) up to the fit's day.
+    const long = Array.from({ length: 500 }, (_, i) => 100 + i);
+    const waveThenFlat = long.map((t) => Float64Array.from({ length: S }, (_, s) => (t < 172 ? error(t, s) : 0.1 * s)));
+    expect(ERROR_LEVEL_FIT_DAYS).toBe(364);
+    // Fitted for day 300 every wave day is a row and the weights are used; for day 600 none is (rows from day 236 on).
+    expect(fitErrorLevel(long.slice(0, 200), waveThenFlat.slice(0, 200), 300).weights).not.toBeNull();
+    expect(fitErrorLevel(long, waveThenFlat, 600).weights).toBeNull();
   });
 
   it('computes the F test\'s p-value as SciPy does (scipy.stats.f.sf(F, 3, n - 3) with F from ESS and RSS)', () => {

@@ -9,7 +9,8 @@
 #   shift(t) = sum_k b_k x_k(t), for the delivery day and for every calibration day with all lookbacks
 #   (an intercept correction, Clements and Hendry 1996, whose weights are estimated), used only when the
 #   F test of b = 0 rejects at 5%: p = scipy.stats.f.sf(F, 3, rows - 3), F = (ESS / 3) / (RSS / (rows - 3))
-# and, for the refit cadence, the same weights and slot medians applied to days after the fit ("refit cadence").
+# (the rows are also limited to the days within 364 days of the fit's day: all of this script's days) and, for
+# the refit cadence, the same weights and slot medians applied to days after the fit ("refit cadence").
 #   python3 test/forecast/errorLevelReference.py
 import numpy as np
 import scipy

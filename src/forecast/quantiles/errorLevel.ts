@@ -36,11 +36,14 @@ export const ERROR_LEVEL_FIT_DAYS = 364;
  * the day level beyond the pool's centre, and x_k(t) the mean of y over the calibration days in
  * [t - k, t - 1] for the lookbacks k of ERROR_LEVEL_LOOKBACK_DAYS (a day, a week, four weeks, as the
  * daily, weekly and monthly components of Corsi's model), the weights b solve least squares without
- * an intercept over the calibration days whose longest lookback lies within the calibration days:
+ * an intercept over the calibration days whose longest lookback lies within the calibration days and
+ * that lie within ERROR_LEVEL_FIT_DAYS of the delivery day:
  *   y(d) = sum_k b_k x_k(d) + v(d),
  * and the delivery day's shift is sum_k b_k x_k(delivery day). Without an intercept a window whose
  * errors carry no run predicts a shift near 0 (b estimated near 0); the medians keep spike days from
  * setting the level. Nothing after the last calibration day is read (they all lie before the delivery day).
+ * The Forecaster fits this on the driver regression's refit days only and carries the fit to the days
+ * until the next ({@link fitErrorLevel}, {@link DayLevels}; forecaster.ts, errorLevelShiftsOf).
  *
  * References: M. P. Clements and D. F. Hendry (1996), Intercept corrections and structural change,
  * J. Appl. Econometrics 11(5), 475-494, doi:10.1002/(SICI)1099-1255(199609)11:5<475::AID-JAE409>3.0.CO;2-9;
