@@ -147,7 +147,7 @@ export interface ForecastOptions {
    * Clements and Hendry 1996, by a heterogeneous autoregression of the errors' day level, Corsi 2009),
    * the weights estimated on the refit days of driverRefitDays (errorLevelShiftsOf); 'pool', the point
    * forecast plus the error pool's quantiles as they are (the default before the eighth wave). 'recent'
-   * brings the demo's share below the median from 0.479 to 0.492 and its CRPS from 5.007 to 4.977, every
+   * brings the demo's share below the median from 0.479 to 0.492 and its CRPS from 5.007 to 4.978, every
    * known-distribution cell within 0.002 of 'pool', at about the CPU of 'pool' (docs/forecast-quality.md,
    * "the eighth wave: `recent` the default").
    */
