@@ -37,7 +37,7 @@ import { asinhErrorScaleOf, PRICE_SCALE, type ErrorScale } from './quantiles/err
 import { driverSpreadQuantiles, fitSpreadModel, SpreadFeatureRows, spreadFeatures, type SpreadPool } from './quantiles/driverSpread.js';
 import type { LinearModel } from './linalg/linearModel.js';
 import { historicalSimulation } from './quantiles/historicalSimulation.js';
-import { errorLevelShifts } from './quantiles/errorLevel.js';
+import { dayLevel, fitErrorLevel, type ErrorLevelFit, type ErrorLevelShifts } from './quantiles/errorLevel.js';
 import { PoolOrder } from './quantiles/poolOrder.js';
 import { requireLevels } from './quantiles/levels.js';
 import { QraWarmStarts, quantileRegressionAveraging } from './quantiles/quantileRegressionAveraging.js';
@@ -140,15 +140,16 @@ export interface ForecastOptions {
   /** How `driver-fhs` pools the standardised errors: per clock slot, over all slots, or over all slots weighted by the point forecast's level. */
   readonly spreadPool: SpreadPool;
   /**
-   * The centre of `driver-hs` and `driver-fhs`: 'pool' (default), the point forecast plus the error
-   * pool's quantiles as they are; 'recent', every quantile of the day shifted by the level of the
-   * recent calibration errors beyond the pool's, by weights estimated on the calibration days and used
-   * only where an F test at 1% finds the recent errors' level predictive, and the pool made of the
-   * errors of the forecasts shifted the same way (quantiles/errorLevel.ts: an intercept correction,
-   * Clements and Hendry 1996, by a heterogeneous autoregression of the errors' day level, Corsi 2009).
-   * 'recent' brings the demo's share below the median from 0.479 to 0.493 and its CRPS from 5.007 to
-   * 4.995, but costs one known-distribution cell 0.003 and a year of `auto` about 0.5x `arx-hs`'s CPU
-   * (3.20x): not the default (docs/forecast-quality.md, "the seventh wave, the demo's centre").
+   * The centre of `driver-hs` and `driver-fhs`: 'recent' (default), every quantile of the day shifted by
+   * the level of the recent calibration errors beyond the pool's, by weights estimated on the calibration
+   * days and used only where an F test at 1% finds the recent errors' level predictive, and the pool made
+   * of the errors of the forecasts shifted the same way (quantiles/errorLevel.ts: an intercept correction,
+   * Clements and Hendry 1996, by a heterogeneous autoregression of the errors' day level, Corsi 2009),
+   * the weights estimated on the refit days of driverRefitDays (errorLevelShiftsOf); 'pool', the point
+   * forecast plus the error pool's quantiles as they are (the default before the eighth wave). 'recent'
+   * brings the demo's share below the median from 0.479 to 0.492 and its CRPS from 5.007 to 4.978, every
+   * known-distribution cell within 0.002 of 'pool', at about the CPU of 'pool' (docs/forecast-quality.md,
+   * "the eighth wave: `recent` the default").
    */
   readonly driverCentre: 'pool' | 'recent';
   /** Lag of the seasonal naive model of `naive-hs` [days], >= 1 (7: same weekday last week). */
@@ -204,7 +205,7 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   driverScale: 'asinh',
   driverRefitDays: 5,
   spreadPool: 'level',
-  driverCentre: 'pool',
+  driverCentre: 'recent',
   autoCandidates: AUTO_CANDIDATES,
   autoFallback: AUTO_FALLBACK,
   autoValidationDays: AUTO_VALIDATION_DAYS,
@@ -261,6 +262,8 @@ export class Forecaster {
   private statesDay = Number.NaN;
   /** The arrays of the kept states' grids, by point model, window and grid (see dayViews). */
   private readonly stateBlocks = new Map<string, Float64Array>();
+  /** driverCentre 'recent': the day-level fits of the refit days and the scale of each (speed only: see errorLevelShiftsOf). */
+  private readonly errorLevelFits = new KeptFits<string, ErrorLevelFit & { readonly scale: ErrorScale }>();
   /** The error pools' order at the last historical simulation, by point model and calibration window (speed only). */
   private readonly poolOrders = new Map<string, PoolOrder>();
   /** Per history day, the price range beyond which `auto` passes a candidate's forecast over (made when first needed). */
@@ -517,13 +520,15 @@ export class Forecaster {
     });
     let centreShift = 0;
     if (model === 'drivers' && this.options.driverCentre !== 'pool') {
-      const shifts = errorLevelShifts(Int32Array.from(calibration, (c) => c.dayNumber), errors, view.target.dayNumber, this.poolOrder(model, calibrationDays, 'unshifted'));
-      centreShift = shifts.target;
-      // The pool holds the errors of the shifted forecasts, as the delivery day's quantiles are made.
-      errors.forEach((e, d) => {
-        const v = shifts.days[d] as number;
-        for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - v;
-      });
+      const shifts = this.errorLevelShiftsOf(model, view, calibration, scale, errors, calibrationDays);
+      if (shifts !== null) {
+        centreShift = shifts.target;
+        // The pool holds the errors of the shifted forecasts, as the delivery day's quantiles are made.
+        errors.forEach((e, d) => {
+          const v = shifts.days[d] as number;
+          for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - v;
+        });
+      }
     }
     const state = { calibration, scale, centre, errors, forecastsOnScale, centreShift };
     // Only one day's states are kept: its methods ask for them one after the other. (Clearing at a size
@@ -531,6 +536,56 @@ export class Forecaster {
     this.statesDay = view.target.dayNumber;
     this.states.set(key, state);
     return state;
+  }
+
+  /**
+   * driverCentre 'recent' under the refit cadence of the driver regression (options.driverRefitDays, k):
+   * the slot medians, the error scale and the weights of the day-level regression (errorLevel.ts) are
+   * those of the refit day R, the latest day number on or before the delivery day that is a multiple of
+   * k, estimated on R's calibration days (all before R); every day's level y(d) is measured on R's scale
+   * against R's slot medians, and each day's shift sum_k b_k x_k(d) from the levels of the days before it
+   * back to R's first calibration day, so that from R until the next refit a calibration day keeps its
+   * shift (its errors in the pool move only with the delivery day's scale). Null when R's weights are not
+   * used (too few days, singular, the F test does not reject) or the delivery day lacks a lookback: no
+   * shift at all. Nothing on or after the delivery day is read, and R's fit is the same whatever day
+   * asks for it first (made from the history before R alone), so a day's forecast does not depend on
+   * which days were asked before it.
+   *
+   * @param calibration the delivery day's calibration days, with `errors` on its scale `scale` (before any shift)
+   */
+  private errorLevelShiftsOf(
+    model: PointModelName,
+    view: HistoryView,
+    calibration: readonly CalibrationDay[],
+    scale: ErrorScale,
+    errors: readonly Float64Array[],
+    calibrationDays: number,
+  ): ErrorLevelShifts | null {
+    const dayNumber = view.target.dayNumber;
+    const refitDay = refitDayOf(dayNumber, this.options.driverRefitDays);
+    const key = `${model}|${calibrationDays}|${refitDay}`;
+    let fit = this.errorLevelFits.get(key);
+    if (fit === undefined) {
+      if (refitDay === dayNumber) {
+        fit = { ...fitErrorLevel(Int32Array.from(calibration, (c) => c.dayNumber), errors, refitDay), scale };
+      } else {
+        const days = this.calibrationSet(model, view, calibrationDays, refitDay);
+        const refitScale = days.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, days, calibrationDays);
+        fit = { ...fitErrorLevel(Int32Array.from(days, (c) => c.dayNumber), days.map((c) => errorsOn(c, refitScale)), refitDay), scale: refitScale };
+      }
+      this.errorLevelFits.set(key, fit);
+    }
+    const { weights, levels, slotMedians } = fit;
+    if (weights === null) return null;
+    // The days from R on not yet measured (those before the delivery day), each once, on R's scale, ascending.
+    if (levels.through < dayNumber - 1) {
+      const work = new Float64Array(slotMedians.length);
+      for (const c of this.calibrationSet(model, view, dayNumber - 1 - levels.through)) levels.append(c.dayNumber, dayLevel(errorsOn(c, fit.scale), slotMedians, work));
+      levels.coverThrough(dayNumber - 1);
+    }
+    const target = levels.shift(weights, dayNumber);
+    if (target === null) return null;
+    return { target, days: Float64Array.from(calibration, (c) => levels.shift(weights, c.dayNumber) ?? 0) };
   }
 
   /**
@@ -549,8 +604,8 @@ export class Forecaster {
     return lengths.map((length) => (block as Float64Array).subarray(at, (at += length)));
   }
 
-  /** The kept order of the historical-simulation pools of a point model and calibration window (of its errors, driver-fhs's standardised ones, or the errors before driverCentre's shift). */
-  private poolOrder(model: PointModelName, calibrationDays: number, errors: 'errors' | 'standardised' | 'unshifted' = 'errors'): PoolOrder {
+  /** The kept order of the historical-simulation pools of a point model and calibration window (of its errors or driver-fhs's standardised ones). */
+  private poolOrder(model: PointModelName, calibrationDays: number, errors: 'errors' | 'standardised' = 'errors'): PoolOrder {
     const key = `${model}|${calibrationDays}|${errors}`;
     let order = this.poolOrders.get(key);
     if (order === undefined) {
@@ -625,11 +680,14 @@ export class Forecaster {
     return asinhErrorScaleOf((this.grids as GridCache).scales(calibrationDays).of(calibration.map((c) => c.realised)));
   }
 
-  /** The calibration days before the delivery day that could be forecast, oldest first. */
-  private calibrationSet(model: PointModelName, view: HistoryView, calibrationDays: number) {
-    const first = view.target.dayNumber - calibrationDays;
+  /**
+   * The calibration days before the delivery day that could be forecast, oldest first; with `before`, those
+   * of a day `before` (<= the delivery day) instead: the days in [before - calibrationDays, before - 1].
+   */
+  private calibrationSet(model: PointModelName, view: HistoryView, calibrationDays: number, before = view.target.dayNumber) {
+    const first = before - calibrationDays;
     const out: CalibrationDay[] = [];
-    for (let i = view.indexAtOrBefore(first - 1) + 1; i < view.pastCount; i++) {
+    for (let i = view.indexAtOrBefore(first - 1) + 1; i < view.pastCount && view.dayNumber(i) < before; i++) {
       const forecast = this.pointFor(model, i);
       if (forecast === null) continue;
       const past = view.past(i);
@@ -741,6 +799,16 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;
+}
+
+/** A calibration day's errors on `scale`: realised less forecast. */
+function errorsOn(c: CalibrationDay, scale: ErrorScale): Float64Array {
+  const e = new Float64Array(c.realised.length);
+  const f = new Float64Array(c.realised.length);
+  onErrorScale(c.realised, scale, e);
+  onErrorScale(c.forecast.mean, scale, f);
+  for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
+  return e;
 }
 
 /** scale.to of every value into `out`, the same numbers (an asinh scale's loop written out: toAsinhScales). */

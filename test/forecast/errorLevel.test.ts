@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { errorLevelShift, errorLevelShifts, fTestPValue } from '../../src/forecast/quantiles/errorLevel.js';
+import { dayLevel, ERROR_LEVEL_FIT_DAYS, errorLevelShift, errorLevelShifts, fitErrorLevel, fTestPValue } from '../../src/forecast/quantiles/errorLevel.js';
 import type { ForecastOptions } from '../../src/forecast/forecaster.js';
-import { DEFAULTS, forecastDay } from '../../src/forecast/forecaster.js';
+import { DEFAULTS, forecastDay, Forecaster } from '../../src/forecast/forecaster.js';
+import { dayNumberOf } from '../../src/forecast/models/historyView.js';
 import type { PriceHistory } from '../../src/types.js';
 import { syntheticHistory } from './syntheticHistory.js';
 
@@ -41,6 +42,38 @@ describe('errorLevelShifts (intercept correction by a heterogeneous autoregressi
     expect(days.every((v) => v === 0)).toBe(true);
   });
 
+  it('keeps the refit day\'s weights and slot medians for the days after it: their levels and shifts as NumPy computes them (script, "refit cadence")', () => {
+    // Fitted for refit day 172 on the days before it; days 172, 173 and 175 (174 missing) then come.
+    const fit = fitErrorLevel(dayNumbers, errors, 172);
+    const b = fit.weights as Float64Array;
+    expect(Array.from(b)).toEqual([-0.013562514210602861, 1.0632575970662763, -0.5586151762026125].map((v) => expect.closeTo(v, 10)));
+    const work = new Float64Array(S);
+    const levels = [172, 173, 175].map((t) => {
+      const y = dayLevel(Float64Array.from({ length: S }, (_, s) => error(t, s)), fit.slotMedians, work);
+      fit.levels.append(t, y);
+      return y;
+    });
+    fit.levels.coverThrough(175);
+    [0.2728075361148517, 0.3060141837905585, 0.4587090249042479].forEach((v, i) => expect(levels[i]).toBeCloseTo(v, 10));
+    expect(fit.levels.shift(b, 173)).toBeCloseTo(0.22533510234848544, 10);
+    expect(fit.levels.shift(b, 176)).toBeCloseTo(0.37466526205856093, 10);
+    // A calibration day of the refit day keeps the shift it had there (the days after it do not enter its lookbacks).
+    expect(fit.levels.shift(b, 171)).toBeCloseTo(0.07668718950496793, 10);
+    expect(fit.levels.shift(b, 132)).toBeNull();
+    // The delivery day 175 has no level of day 174 for its one-day lookback.
+    expect(fit.levels.shift(b, 175)).toBeNull();
+  });
+
+  it('takes the rows of the weights\' regression from the last ERROR_LEVEL_FIT_DAYS days before the fit\'s day only: a run older than that sets no weights', () => {
+    // The slow wave of days 100..171, then errors constant per slot (day level 0) up to the fit's day.
+    const long = Array.from({ length: 500 }, (_, i) => 100 + i);
+    const waveThenFlat = long.map((t) => Float64Array.from({ length: S }, (_, s) => (t < 172 ? error(t, s) : 0.1 * s)));
+    expect(ERROR_LEVEL_FIT_DAYS).toBe(364);
+    // Fitted for day 300 every wave day is a row and the weights are used; for day 600 none is (rows from day 236 on).
+    expect(fitErrorLevel(long.slice(0, 200), waveThenFlat.slice(0, 200), 300).weights).not.toBeNull();
+    expect(fitErrorLevel(long, waveThenFlat, 600).weights).toBeNull();
+  });
+
   it('computes the F test\'s p-value as SciPy does (scipy.stats.f.sf(F, 3, n - 3) with F from ESS and RSS)', () => {
     // One weight vector, X'y and y'y chosen so that F = (ESS / 3) / (RSS / 37) = (3 / 3) / (37 / 37) = 1, and F = 2.5 with n = 43.
     expect(fTestPValue([1, 1, 1], [1, 1, 1], 40, 40)).toBeCloseTo(0.4036703667252215, 10);
@@ -71,16 +104,41 @@ describe('Forecaster option driverCentre (driver-hs and driver-fhs)', () => {
   const LEVELS = [0.1, 0.5, 0.9];
   const mean = (values: readonly number[]) => values.reduce((a, b) => a + b, 0) / values.length;
 
-  it("is 'pool' by default; 'recent' raises the medians of a day five days into a high turn (the point forecast unchanged)", () => {
-    expect(DEFAULTS.driverCentre).toBe('pool');
+  it("is 'recent' by default; 'recent' raises the medians of a day five days into a high turn (the point forecast unchanged)", () => {
+    expect(DEFAULTS.driverCentre).toBe('recent');
     for (const method of ['driver-hs', 'driver-fhs'] as const) {
       const pool = forecastDay(ramped, 125, LEVELS, method, { ...options, driverCentre: 'pool' });
       const byDefault = forecastDay(ramped, 125, LEVELS, method, options);
       const recent = forecastDay(ramped, 125, LEVELS, method, { ...options, driverCentre: 'recent' });
-      expect(byDefault.quantiles.prices).toEqual(pool.quantiles.prices);
+      expect(byDefault.quantiles.prices).toEqual(recent.quantiles.prices);
       expect(recent.point).toEqual(pool.point);
       const median = (f: typeof pool) => mean(f.quantiles.prices.map((row) => row[1] as number));
       expect(median(recent)).toBeGreaterThan(median(pool));
+    }
+  });
+
+  /** Index of the first day at or after index `from` whose day number is a multiple of the refit cadence 5. */
+  const refitIndexFrom = (from: number) => {
+    for (let i = from; i < ramped.days.length; i++) if (dayNumberOf(ramped.days[i]!.day) % 5 === 0) return i;
+    throw new Error('no refit day');
+  };
+
+  it('between refit days gives the same forecast whatever days were asked before (later days of the same refit period first: nothing of them is read)', () => {
+    const refit = refitIndexFrom(110);
+    const d = refit + 2;
+    for (const method of ['driver-hs', 'driver-fhs'] as const) {
+      const recent = { ...options, driverCentre: 'recent' as const };
+      const fresh = forecastDay(ramped, d, LEVELS, method, recent);
+      // The shift is at work on this day (the pool's forecast differs), so the check is not vacuous.
+      expect(fresh.quantiles.prices).not.toEqual(forecastDay(ramped, d, LEVELS, method, { ...options, driverCentre: 'pool' }).quantiles.prices);
+      const forecaster = new Forecaster(ramped, recent);
+      for (const i of [refit + 4, refit + 3, refit - 2, refit, d]) forecaster.forecast(i, LEVELS, method);
+      expect(forecaster.forecast(d, LEVELS, method).quantiles.prices).toEqual(fresh.quantiles.prices);
+      // Days after d, prices changed: d's forecast is the same (only days before it are read, through the kept fit too).
+      const changed: PriceHistory = { ...ramped, days: ramped.days.map((day, i) => (i > d ? { ...day, pricePerMwh: day.pricePerMwh.map((p) => p + 40) } : day)) };
+      const later = new Forecaster(changed, recent);
+      later.forecast(refit + 4, LEVELS, method);
+      expect(later.forecast(d, LEVELS, method).quantiles.prices).toEqual(fresh.quantiles.prices);
     }
   });
 

@@ -9,6 +9,8 @@
 #   shift(t) = sum_k b_k x_k(t), for the delivery day and for every calibration day with all lookbacks
 #   (an intercept correction, Clements and Hendry 1996, whose weights are estimated), used only when the
 #   F test of b = 0 rejects at 5%: p = scipy.stats.f.sf(F, 3, rows - 3), F = (ESS / 3) / (RSS / (rows - 3))
+# (the rows are also limited to the days within 364 days of the fit's day: all of this script's days) and, for
+# the refit cadence, the same weights and slot medians applied to days after the fit ("refit cadence").
 #   python3 test/forecast/errorLevelReference.py
 import numpy as np
 import scipy
@@ -53,6 +55,7 @@ def run(error, label):
   for t in (110, 128, 132, 151, 171):
     x = features(t)
     print(f"  day {t} shift", repr(0.0 if x is None or not used else float(np.dot(x, b))))
+  return b, m
 
 def features(t):
     out = []
@@ -63,7 +66,20 @@ def features(t):
         out.append(y[inside].mean())
     return out
 
-run(error, "a slow wave in the day level")
+b_refit, m_refit = run(error, "a slow wave in the day level")
+# The refit cadence (the Forecaster's driverCentre 'recent', driverRefitDays > 1): the weights and slot
+# medians fitted for refit day 172 above are kept; days 172, 173 and 175 (174 missing) are measured
+# against those slot medians, y(t) = median over s of (e(t, s) - m_s), and the shifts of days 173 and
+# 176 use the same weights with lookbacks over every day before them (the refit day's calibration days
+# and the days since).
+NEW_DAYS = [172, 173, 175]
+y_new = [float(np.median(np.array([error(t, s) for s in range(S)]) - m_refit)) for t in NEW_DAYS]
+days = np.array(DAY_NUMBERS + NEW_DAYS)
+y = np.concatenate([y, y_new])
+print("refit cadence: levels of days 172, 173, 175", [repr(v) for v in y_new])
+for t in (173, 176):
+    print(f"  day {t} shift with the refit day's weights", repr(float(np.dot(features(t), b_refit))))
+days = np.array(DAY_NUMBERS)
 # Errors whose day level the lookbacks do not predict (F test not rejecting; the test's second case).
 def scrambled(t, s):
     return (((t * 19) % 97) + s) / 97

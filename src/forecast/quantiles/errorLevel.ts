@@ -1,6 +1,4 @@
-import { sortedQuantile } from './sortedQuantile.js';
 import { medianBySelection } from './driverSpread.js';
-import type { PoolOrder } from './poolOrder.js';
 import { regularizedBeta } from '../../stats/regularizedBeta.js';
 
 /** Lookbacks of the day-level error regression [days]: the day before, the week before, the four weeks before. */
@@ -12,6 +10,14 @@ export const ERROR_LEVEL_LOOKBACK_DAYS: readonly number[] = Object.freeze([1, 7,
  * seventh wave, the demo's centre); otherwise the shift is 0.
  */
 export const ERROR_LEVEL_TEST_SIZE = 0.01;
+
+/**
+ * Calendar days before the fit's day whose calibration days are the rows of the weights' regression [days]:
+ * a year, the default calibration window; a longer window's older days still give slot medians, levels and
+ * lookbacks. (With the 728-day window's two years as rows the test rejected on runs that did not carry
+ * over, and cost a known-distribution setting 0.006: docs/forecast-quality.md, "the eighth wave".)
+ */
+export const ERROR_LEVEL_FIT_DAYS = 364;
 
 /**
  * The shift of a delivery day's centre that the level of the recent calibration errors predicts: an
@@ -30,11 +36,14 @@ export const ERROR_LEVEL_TEST_SIZE = 0.01;
  * the day level beyond the pool's centre, and x_k(t) the mean of y over the calibration days in
  * [t - k, t - 1] for the lookbacks k of ERROR_LEVEL_LOOKBACK_DAYS (a day, a week, four weeks, as the
  * daily, weekly and monthly components of Corsi's model), the weights b solve least squares without
- * an intercept over the calibration days whose longest lookback lies within the calibration days:
+ * an intercept over the calibration days whose longest lookback lies within the calibration days and
+ * that lie within ERROR_LEVEL_FIT_DAYS of the delivery day:
  *   y(d) = sum_k b_k x_k(d) + v(d),
  * and the delivery day's shift is sum_k b_k x_k(delivery day). Without an intercept a window whose
  * errors carry no run predicts a shift near 0 (b estimated near 0); the medians keep spike days from
  * setting the level. Nothing after the last calibration day is read (they all lie before the delivery day).
+ * The Forecaster fits this on the driver regression's refit days only and carries the fit to the days
+ * until the next ({@link fitErrorLevel}, {@link DayLevels}; forecaster.ts, errorLevelShiftsOf).
  *
  * References: M. P. Clements and D. F. Hendry (1996), Intercept corrections and structural change,
  * J. Appl. Econometrics 11(5), 475-494, doi:10.1002/(SICI)1099-1255(199609)11:5<475::AID-JAE409>3.0.CO;2-9;
@@ -63,49 +72,47 @@ export interface ErrorLevelShifts {
  * {@link errorLevelShift}, and the shift the same weights give each calibration day from the days before
  * it, so that the pool can hold the errors of the shifted forecasts, e(d, s) - shift(d): the pool then
  * holds the errors of the forecasts the delivery day's quantiles are made like.
- *
- * @param order the slots' order at the last call for the same calibration window (speed only; day ids = dayNumbers)
  */
-export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], targetDay: number, order?: PoolOrder): ErrorLevelShifts {
+export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], targetDay: number): ErrorLevelShifts {
   const n = errors.length;
-  const none = { target: 0, days: new Float64Array(n) };
-  if (n === 0) return none;
-  const S = (errors[0] as ArrayLike<number>).length;
+  const days = new Float64Array(n);
+  const fit = fitErrorLevel(dayNumbers, errors, targetDay);
+  const target = fit.weights === null ? null : fit.levels.shift(fit.weights, targetDay);
+  if (target === null) return { target: 0, days };
+  for (let d = 0; d < n; d++) days[d] = fit.levels.shift(fit.weights as Float64Array, dayNumbers[d] as number) ?? 0;
+  return { target, days };
+}
+
+/** What a fit of the day-level regression keeps: the slot medians m_s, the day levels y(d), the weights b (null: not used). */
+export interface ErrorLevelFit {
+  readonly slotMedians: Float64Array;
+  readonly levels: DayLevels;
+  readonly weights: Float64Array | null;
+}
+
+/**
+ * The slot medians m_s, day levels y(d) and weights b of {@link errorLevelShift} over the calibration
+ * days given (all before the day the fit is made for); weights null when fewer than the longest
+ * lookback's days have a whole lookback, the normal equations are singular or the F test does not reject.
+ */
+export function fitErrorLevel(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], fitDay: number): ErrorLevelFit {
+  const n = errors.length;
+  const S = n === 0 ? 0 : (errors[0] as ArrayLike<number>).length;
   const lookbacks = ERROR_LEVEL_LOOKBACK_DAYS;
   const longest = Math.max(...lookbacks);
-  // m_s, the slot's median error over the calibration days (definition 7; with a kept order the pools
-  // are sorted from the last call's order, the same numbers at less CPU: poolOrder.ts).
+  // m_s, the slot's median error over the calibration days.
   const column = new Float64Array(n);
-  const slotMedian = new Float64Array(S);
-  order?.begin(dayNumbers);
+  const slotMedians = new Float64Array(S);
   for (let s = 0; s < S; s++) {
-    if (order === undefined) {
-      for (let d = 0; d < n; d++) column[d] = (errors[d] as ArrayLike<number>)[s] as number;
-      slotMedian[s] = medianBySelection(column);
-    } else {
-      order.sortSlot(errors, s, column);
-      slotMedian[s] = sortedQuantile(column, 0.5);
-    }
+    for (let d = 0; d < n; d++) column[d] = (errors[d] as ArrayLike<number>)[s] as number;
+    slotMedians[s] = medianBySelection(column);
   }
-  // y(d), the day's median error beyond its slots' medians; prefix sums for the lookbacks' means.
-  const prefix = new Float64Array(n + 1);
-  const day = new Float64Array(S);
-  for (let d = 0; d < n; d++) {
-    const row = errors[d] as ArrayLike<number>;
-    for (let s = 0; s < S; s++) day[s] = (row[s] as number) - (slotMedian[s] as number);
-    prefix[d + 1] = (prefix[d] as number) + medianBySelection(day);
-  }
+  // y(d), the day's median error beyond its slots' medians.
+  const levels = new DayLevels(n === 0 ? 0 : (dayNumbers[0] as number));
+  const work = new Float64Array(S);
+  for (let d = 0; d < n; d++) levels.append(dayNumbers[d] as number, dayLevel(errors[d] as ArrayLike<number>, slotMedians, work));
+  if (n === 0) return { slotMedians, levels, weights: null };
   const first = dayNumbers[0] as number;
-  /** x_k(t) for every lookback into `out`, false when a lookback holds no calibration day. */
-  const features = (t: number, end: number, out: Float64Array): boolean => {
-    for (let k = 0; k < lookbacks.length; k++) {
-      let from = end;
-      while (from > 0 && (dayNumbers[from - 1] as number) >= t - (lookbacks[k] as number)) from--;
-      if (from === end) return false;
-      out[k] = ((prefix[end] as number) - (prefix[from] as number)) / (end - from);
-    }
-    return true;
-  };
   const p = lookbacks.length;
   const gram = new Float64Array(p * p);
   const rhs = new Float64Array(p);
@@ -114,8 +121,8 @@ export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly
   let yy = 0;
   for (let d = 0; d < n; d++) {
     const t = dayNumbers[d] as number;
-    if (t - longest < first || !features(t, d, x)) continue;
-    const y = (prefix[d + 1] as number) - (prefix[d] as number);
+    if (t - longest < first || t < fitDay - ERROR_LEVEL_FIT_DAYS || !levels.features(t, x)) continue;
+    const y = levels.level(t);
     yy += y * y;
     for (let i = 0; i < p; i++) {
       rhs[i] = (rhs[i] as number) + (x[i] as number) * y;
@@ -123,19 +130,104 @@ export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly
     }
     rows++;
   }
-  if (rows < longest || !features(targetDay, n, x)) return none;
+  if (rows < longest) return { slotMedians, levels, weights: null };
   const b = solveSymmetric(gram, rhs, p);
-  if (b === null) return none;
-  if (!(fTestPValue(b, rhs, yy, rows) < ERROR_LEVEL_TEST_SIZE)) return none;
-  const predict = (): number => {
+  if (b === null || !(fTestPValue(b, rhs, yy, rows) < ERROR_LEVEL_TEST_SIZE)) return { slotMedians, levels, weights: null };
+  return { slotMedians, levels, weights: b };
+}
+
+/** y = median over the slots s of (row[s] - slotMedians[s]); `work` holds S values. */
+export function dayLevel(row: ArrayLike<number>, slotMedians: Float64Array, work: Float64Array): number {
+  for (let s = 0; s < work.length; s++) work[s] = (row[s] as number) - (slotMedians[s] as number);
+  return medianBySelection(work);
+}
+
+/**
+ * The day levels y(d) of the calibration days by day number, appended in ascending order, with running
+ * sums over the calendar days from the first (0 for a day without a level, which adds nothing), so that
+ * each lookback's mean costs two subtractions.
+ */
+export class DayLevels {
+  /** sums[i] = the sum of y over the days first .. first + i - 1; counts likewise the days with a level. */
+  private sums = new Float64Array(65);
+  private counts = new Int32Array(65);
+  /** Calendar days covered [-]: every day from `first` to first + span - 1 has been appended or has no level. */
+  private span = 0;
+
+  constructor(readonly first: number) {}
+
+  /** The last day number whose level (or its absence) is known. */
+  get through(): number {
+    return this.first + this.span - 1;
+  }
+
+  /** Appends day `dayNumber`'s level y (days between the last one and it have none). */
+  append(dayNumber: number, y: number): void {
+    this.coverThrough(dayNumber - 1);
+    this.grow(this.span + 1);
+    const i = this.span;
+    this.sums[i + 1] = (this.sums[i] as number) + y;
+    this.counts[i + 1] = (this.counts[i] as number) + 1;
+    this.span++;
+  }
+
+  /** States that the days up to `dayNumber` not appended have no level. */
+  coverThrough(dayNumber: number): void {
+    const upTo = dayNumber - this.first + 1;
+    if (upTo <= this.span) return;
+    this.grow(upTo);
+    for (let i = this.span; i < upTo; i++) {
+      this.sums[i + 1] = this.sums[i] as number;
+      this.counts[i + 1] = this.counts[i] as number;
+    }
+    this.span = upTo;
+  }
+
+  /** y of an appended day, as the difference of the running sums (the rounding the lookbacks' means see). */
+  level(dayNumber: number): number {
+    const i = dayNumber - this.first;
+    return (this.sums[i + 1] as number) - (this.sums[i] as number);
+  }
+
+  /**
+   * x_k(t), the mean of y over the days with a level in [t - k, t - 1] (from `first` on), for the
+   * lookbacks k into `out`; false when a lookback holds no such day. Days up to t - 1 must be covered.
+   */
+  features(t: number, out: Float64Array): boolean {
+    const lookbacks = ERROR_LEVEL_LOOKBACK_DAYS;
+    const end = t - this.first;
+    if (end > this.span || end <= 0) return false;
+    for (let k = 0; k < lookbacks.length; k++) {
+      const from = Math.max(0, end - (lookbacks[k] as number));
+      const count = (this.counts[end] as number) - (this.counts[from] as number);
+      if (count === 0) return false;
+      out[k] = ((this.sums[end] as number) - (this.sums[from] as number)) / count;
+    }
+    return true;
+  }
+
+  /** sum_k b_k x_k(t), or null when a lookback of t holds no day. */
+  shift(b: Float64Array, t: number): number | null {
+    const x = this.scratch;
+    if (!this.features(t, x)) return null;
     let shift = 0;
-    for (let k = 0; k < p; k++) shift += (b[k] as number) * (x[k] as number);
+    for (let k = 0; k < b.length; k++) shift += (b[k] as number) * (x[k] as number);
     return shift;
-  };
-  const target = predict();
-  const days = none.days;
-  for (let d = 0; d < n; d++) if (features(dayNumbers[d] as number, d, x)) days[d] = predict();
-  return { target, days };
+  }
+
+  private readonly scratch = new Float64Array(ERROR_LEVEL_LOOKBACK_DAYS.length);
+
+  /** Room for `length` days. */
+  private grow(length: number): void {
+    if (this.sums.length > length) return;
+    const size = Math.max(length, 2 * (this.sums.length - 1));
+    const sums = new Float64Array(size + 1);
+    const counts = new Int32Array(size + 1);
+    sums.set(this.sums);
+    counts.set(this.counts);
+    this.sums = sums;
+    this.counts = counts;
+  }
 }
 
 /**
