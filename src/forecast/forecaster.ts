@@ -803,7 +803,7 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.driverScale !== 'asinh' && o.driverScale !== 'price') throw new ArgumentError('options.driverScale', "'asinh' or 'price'", o.driverScale);
   if (o.spreadPool !== 'slot' && o.spreadPool !== 'all' && o.spreadPool !== 'level') throw new ArgumentError('options.spreadPool', "'slot', 'all' or 'level'", o.spreadPool);
   if (o.driverCentre !== 'pool' && o.driverCentre !== 'recent') throw new ArgumentError('options.driverCentre', "'pool' or 'recent'", o.driverCentre);
-  if (o.driverLevelSlope !== 'off' && o.driverLevelSlope !== 'level' && o.driverLevelSlope !== 'surprise') {
+  if (!['off', 'level', 'surprise', 'level-step', 'surprise-step'].includes(o.driverLevelSlope)) {
     throw new ArgumentError('options.driverLevelSlope', "'off', 'level' or 'surprise'", o.driverLevelSlope);
   }
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);

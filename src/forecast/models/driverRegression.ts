@@ -48,7 +48,7 @@ export interface DriverSettings {
 }
 
 /** Which level multiplies the hinge columns (DriverSettings.levelSlope). */
-export type LevelSlope = 'off' | 'level' | 'surprise';
+export type LevelSlope = 'off' | 'level' | 'surprise' | 'level-step' | 'surprise-step';
 
 /** The driver regression fitted for a day: every window's model of every slot, and what its regressors need. */
 export interface DriverFit {
@@ -99,7 +99,7 @@ export function driverColumns(knots: number, levelSlope: LevelSlope = 'off'): st
 
 /** The level that multiplies the hinges: yesterday's mean price, or its part that yesterday's mean residual load does not explain. */
 function levelOf(fit: Pick<DriverFit, 'levelSlope' | 'levelLine'>, meanZ: number, meanX: number): number {
-  return fit.levelSlope === 'surprise' ? meanZ - (fit.levelLine.intercept + fit.levelLine.slope * meanX) : meanZ;
+  return fit.levelSlope.startsWith('surprise') ? meanZ - (fit.levelLine.intercept + fit.levelLine.slope * meanX) : meanZ;
 }
 
 /** Least-squares line of y on x (centred sums); slope 0 when x does not vary. */
@@ -218,6 +218,7 @@ function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit
   const I = fit.levelSlope === 'off' ? 0 : J;
   const a = J + 4 + I;
   const level = levelOf(fit, targetDay.meanZ, targetDay.meanX);
+  const step = fit.levelSlope.endsWith('step');
   const row = new Float64Array(k);
   const forecasts = fit.counts.map(() => new Float64Array(S));
   for (let s = 0; s < S; s++) {
@@ -229,7 +230,7 @@ function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit
     }
     row[J + 1] = targetDay.lag1[s] as number;
     row[J + 2] = targetDay.lag7[s] as number;
-    for (let j = 0; j < I; j++) row[J + 3 + j] = (row[1 + j] as number) * level;
+    for (let j = 0; j < I; j++) row[J + 3 + j] = (step ? ((row[1 + j] as number) > 0 ? 1 : 0) : (row[1 + j] as number)) * level;
     row[a - 1] = targetDay.meanZ;
     row[a] = targetDay.meanX;
     for (let w = 1; w <= 6; w++) row[a + w] = targetDay.weekday === w ? 1 : 0;
@@ -287,7 +288,8 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const meanZ = Float64Array.from(trainingDays, (d) => d.regressors.meanZ);
   const meanX = Float64Array.from(trainingDays, (d) => d.regressors.meanX);
   const weekdays = Int8Array.from(trainingDays, (d) => d.regressors.weekday);
-  const levelLine = levelSlope === 'surprise' ? leastSquaresLine(meanX, meanZ) : { intercept: 0, slope: 0 };
+  const step = levelSlope.endsWith('step');
+  const levelLine = levelSlope.startsWith('surprise') ? leastSquaresLine(meanX, meanZ) : { intercept: 0, slope: 0 };
   const levels = Float64Array.from(trainingDays, (d) => levelOf({ levelSlope, levelLine }, d.regressors.meanZ, d.regressors.meanX));
   const builder = timedFits(settings.stopwatch, 0, () => new SlotDayGramBuilder(
     {
@@ -328,7 +330,10 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
     for (let j = 0; j < I; j++) {
       const hinge = (1 + j) * n;
       const base = (J + 3 + j) * n;
-      for (let r = 0; r < n; r++) slotValues[base + r] = (slotValues[hinge + r] as number) * (levels[r] as number);
+      for (let r = 0; r < n; r++) {
+        const h = slotValues[hinge + r] as number;
+        slotValues[base + r] = (step ? (h > 0 ? 1 : 0) : h) * (levels[r] as number);
+      }
     }
     slotValues.set(zBySlot.subarray(s * n, (s + 1) * n), (a - 1) * n);
     // A hinge left out takes its column times the level with it.
