@@ -26,7 +26,7 @@ import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';
 import { arxForecast, keptAsinhDay } from './models/arx.js';
 import { toAsinhScales } from './models/robustAsinh.js';
-import { DriverFits, driverForecast, refitDayOf, type LevelSlope } from './models/driverRegression.js';
+import { DriverFits, driverForecast, refitDayOf } from './models/driverRegression.js';
 import { KeptFits } from './keptFits.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { dayNumberOf, GridCache, HistoryView } from './models/historyView.js';
@@ -152,11 +152,6 @@ export interface ForecastOptions {
    * "the eighth wave: `recent` the default").
    */
   readonly driverCentre: 'pool' | 'recent';
-  /**
-   * Columns of the driver regression's hinges times yesterday's level (driverRegression.ts,
-   * DriverSettings.levelSlope): 'off' (default), 'level' or 'surprise'.
-   */
-  readonly driverLevelSlope: LevelSlope;
   /** Lag of the seasonal naive model of `naive-hs` [days], >= 1 (7: same weekday last week). */
   readonly naiveLagDays: number;
   /** Point model whose per-window forecasts `qra` averages. */
@@ -211,7 +206,6 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   driverRefitDays: 5,
   spreadPool: 'level',
   driverCentre: 'recent',
-  driverLevelSlope: 'off',
   autoCandidates: AUTO_CANDIDATES,
   autoFallback: AUTO_FALLBACK,
   autoValidationDays: AUTO_VALIDATION_DAYS,
@@ -747,7 +741,6 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
       minTrainingDays: options.minTrainingDays,
       knots: options.driverKnots,
       scale: options.driverScale,
-      levelSlope: options.driverLevelSlope,
       refitDays: options.driverRefitDays,
       fits: driverFits,
       stopwatch: options.stopwatch,
@@ -803,9 +796,6 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.driverScale !== 'asinh' && o.driverScale !== 'price') throw new ArgumentError('options.driverScale', "'asinh' or 'price'", o.driverScale);
   if (o.spreadPool !== 'slot' && o.spreadPool !== 'all' && o.spreadPool !== 'level') throw new ArgumentError('options.spreadPool', "'slot', 'all' or 'level'", o.spreadPool);
   if (o.driverCentre !== 'pool' && o.driverCentre !== 'recent') throw new ArgumentError('options.driverCentre', "'pool' or 'recent'", o.driverCentre);
-  if (!['off', 'level', 'surprise', 'level-step', 'surprise-step'].includes(o.driverLevelSlope)) {
-    throw new ArgumentError('options.driverLevelSlope', "'off', 'level' or 'surprise'", o.driverLevelSlope);
-  }
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;

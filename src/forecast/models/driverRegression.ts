@@ -26,13 +26,6 @@ export interface DriverSettings {
   /** Scale the model is fitted on: asinh-transformed prices, or prices. */
   readonly scale: 'asinh' | 'price';
   /**
-   * Columns of the hinges times yesterday's level (a slope of the merit order that varies with the level):
-   * 'off' (default) none; 'level' hinge_j(x) times yesterday's mean price on the model's scale; 'surprise'
-   * hinge_j(x) times the part of it that yesterday's mean residual load does not explain (the residual of
-   * a least-squares line of yesterday's mean price on yesterday's mean residual load over the training days).
-   */
-  readonly levelSlope?: LevelSlope;
-  /**
    * Refit cadence [days], >= 1. Default 1: the models are fitted afresh for every delivery day. With k > 1
    * they are fitted on the refit days only, the day numbers that are multiples of k, each on the days
    * before it; a delivery day takes the fit of the latest refit day on or before it, with its own
@@ -46,9 +39,6 @@ export interface DriverSettings {
   /** Adds the time spent fitting (Grams and solves, per slot and window) to this counter. Default none. */
   readonly stopwatch?: FitStopwatch;
 }
-
-/** Which level multiplies the hinge columns (DriverSettings.levelSlope). */
-export type LevelSlope = 'off' | 'level' | 'surprise' | 'level-step' | 'surprise-step';
 
 /** The driver regression fitted for a day: every window's model of every slot, and what its regressors need. */
 export interface DriverFit {
@@ -68,10 +58,6 @@ export interface DriverFit {
   readonly windowCount: readonly number[];
   /** Per count w and slot s, the intercept then the k coefficients at models[(w S + s)(k + 1)]. */
   readonly models: Float64Array;
-  /** The level the hinge-times-level columns read ('off': none). */
-  readonly levelSlope: LevelSlope;
-  /** 'surprise': the line of yesterday's mean price on yesterday's mean residual load, meanZ ~ intercept + slope meanX. */
-  readonly levelLine: { readonly intercept: number; readonly slope: number };
 }
 
 /** Fits of the driver regression by the day they were fitted for (null: too few days), for one history and one set of settings. */
@@ -83,45 +69,16 @@ export function refitDayOf(dayNumber: number, every: number): number {
 }
 
 /** Names of the driver regression's columns for J knots, in column order. */
-export function driverColumns(knots: number, levelSlope: LevelSlope = 'off'): string[] {
-  const level = levelSlope === 'surprise' ? 'level surprise(d-1)' : 'mean price(d-1)';
+export function driverColumns(knots: number): string[] {
   return [
     'residual load(d,s)',
     ...Array.from({ length: knots }, (_, j) => `max(0, residual load(d,s) - knot ${j + 1})`),
-    'price(d-1,s)',
-    'price(d-7,s)',
-    ...(levelSlope === 'off' ? [] : Array.from({ length: knots }, (_, j) => `max(0, residual load(d,s) - knot ${j + 1}) * ${level}`)),
     'mean price(d-1)',
     'mean residual load(d-1)',
+    'price(d-1,s)',
+    'price(d-7,s)',
     ...weekdayColumns(),
   ];
-}
-
-/** The level that multiplies the hinges: yesterday's mean price, or its part that yesterday's mean residual load does not explain. */
-function levelOf(fit: Pick<DriverFit, 'levelSlope' | 'levelLine'>, meanZ: number, meanX: number): number {
-  return fit.levelSlope.startsWith('surprise') ? meanZ - (fit.levelLine.intercept + fit.levelLine.slope * meanX) : meanZ;
-}
-
-/** Least-squares line of y on x (centred sums); slope 0 when x does not vary. */
-function leastSquaresLine(x: Float64Array, y: Float64Array): { intercept: number; slope: number } {
-  const n = x.length;
-  let mx = 0;
-  let my = 0;
-  for (let r = 0; r < n; r++) {
-    mx += x[r] as number;
-    my += y[r] as number;
-  }
-  mx /= n;
-  my /= n;
-  let sxx = 0;
-  let sxy = 0;
-  for (let r = 0; r < n; r++) {
-    const dx = (x[r] as number) - mx;
-    sxx += dx * dx;
-    sxy += dx * ((y[r] as number) - my);
-  }
-  const slope = sxx > 0 ? sxy / sxx : 0;
-  return { intercept: my - slope * mx, slope };
 }
 
 const LAGS = [1, 7] as const;
@@ -215,10 +172,7 @@ function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit
   const targetDay = days.regressors(lag1, lag7, view.target.weekday);
   const targetX = residualLoad(view.target, columns);
   const { slots: S, knots: J, coefficients: k } = fit;
-  const I = fit.levelSlope === 'off' ? 0 : J;
-  const a = J + 4 + I;
-  const level = levelOf(fit, targetDay.meanZ, targetDay.meanX);
-  const step = fit.levelSlope.endsWith('step');
+  const a = J + 4;
   const row = new Float64Array(k);
   const forecasts = fit.counts.map(() => new Float64Array(S));
   for (let s = 0; s < S; s++) {
@@ -230,7 +184,6 @@ function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit
     }
     row[J + 1] = targetDay.lag1[s] as number;
     row[J + 2] = targetDay.lag7[s] as number;
-    for (let j = 0; j < I; j++) row[J + 3 + j] = (step ? ((row[1 + j] as number) > 0 ? 1 : 0) : (row[1 + j] as number)) * level;
     row[a - 1] = targetDay.meanZ;
     row[a] = targetDay.meanX;
     for (let w = 1; w <= 6; w++) row[a + w] = targetDay.weekday === w ? 1 : 0;
@@ -271,12 +224,9 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const days = new DriverDays(view, columns, scale);
   const S = view.slotsPerDay;
   const J = settings.knots;
-  // Slot columns x, hinges, lag 1, lag 7, the hinges times the level (levelSlope) and the response;
-  // day-level columns mean price and mean residual load of the day before, and the weekday dummies
-  // (Sunday, category 7, the reference).
-  const levelSlope = settings.levelSlope ?? 'off';
-  const I = levelSlope === 'off' ? 0 : J;
-  const a = J + 4 + I;
+  // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
+  // residual load of the day before, and the weekday dummies (Sunday, category 7, the reference).
+  const a = J + 4;
   const k = a - 1 + 2 + 6;
   const slotValues = new Float64Array(n * a);
   const models = new Float64Array(counts.length * S * (k + 1));
@@ -288,9 +238,6 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const meanZ = Float64Array.from(trainingDays, (d) => d.regressors.meanZ);
   const meanX = Float64Array.from(trainingDays, (d) => d.regressors.meanX);
   const weekdays = Int8Array.from(trainingDays, (d) => d.regressors.weekday);
-  const step = levelSlope.endsWith('step');
-  const levelLine = levelSlope.startsWith('surprise') ? leastSquaresLine(meanX, meanZ) : { intercept: 0, slope: 0 };
-  const levels = Float64Array.from(trainingDays, (d) => levelOf({ levelSlope, levelLine }, d.regressors.meanZ, d.regressors.meanX));
   const builder = timedFits(settings.stopwatch, 0, () => new SlotDayGramBuilder(
     {
       continuous: Float64Array.from(trainingDays.flatMap((d) => [d.regressors.meanZ, d.regressors.meanX])),
@@ -327,17 +274,8 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
     }
     slotValues.set(lag1BySlot.subarray(s * n, (s + 1) * n), (J + 1) * n);
     slotValues.set(lag7BySlot.subarray(s * n, (s + 1) * n), (J + 2) * n);
-    for (let j = 0; j < I; j++) {
-      const hinge = (1 + j) * n;
-      const base = (J + 3 + j) * n;
-      for (let r = 0; r < n; r++) {
-        const h = slotValues[hinge + r] as number;
-        slotValues[base + r] = (step ? (h > 0 ? 1 : 0) : h) * (levels[r] as number);
-      }
-    }
     slotValues.set(zBySlot.subarray(s * n, (s + 1) * n), (a - 1) * n);
-    // A hinge left out takes its column times the level with it.
-    const thin = thinHinges(slotValues, n, J, counts).map((hinges) => (I === 0 ? hinges : [...hinges, ...hinges.map((j) => J + 2 + j)]));
+    const thin = thinHinges(slotValues, n, J, counts);
     timedFits(settings.stopwatch, counts.length + 1, () => {
       // Least squares on the longest window, then on Huber's pseudo-observations of that fit in every window.
       let longest: LinearModel | undefined;
@@ -364,7 +302,7 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
       );
     });
   }
-  return { scale, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models, levelSlope, levelLine };
+  return { scale, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
