@@ -13,7 +13,6 @@ import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
 import { fromAsinhScale, selectInPlace, toAsinhScale, toAsinhScales, type RobustScale } from './robustAsinh.js';
-import { weekdayColumns } from './arx.js';
 
 /** Settings of the driver regression; see {@link driverForecast}. */
 export interface DriverSettings {
@@ -66,19 +65,6 @@ export class DriverFits extends KeptFits<number, DriverFit | null> {}
 /** The refit day of a delivery day under a cadence of `every` days: the latest day number on or before it that is a multiple of `every`. */
 export function refitDayOf(dayNumber: number, every: number): number {
   return dayNumber - (((dayNumber % every) + every) % every);
-}
-
-/** Names of the driver regression's columns for J knots, in column order. */
-export function driverColumns(knots: number): string[] {
-  return [
-    'residual load(d,s)',
-    ...Array.from({ length: knots }, (_, j) => `max(0, residual load(d,s) - knot ${j + 1})`),
-    'mean price(d-1)',
-    'mean residual load(d-1)',
-    'price(d-1,s)',
-    'price(d-7,s)',
-    ...weekdayColumns(),
-  ];
 }
 
 const LAGS = [1, 7] as const;
