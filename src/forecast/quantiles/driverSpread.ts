@@ -173,26 +173,26 @@ export function driverSpreadQuantiles(
   const days = calibration.errors.length;
   const m = targetFeatures.length / S;
   const n = days * S;
-  const design = calibrationDesign(calibration, S, m);
-  const model = spreadModel ?? fitOnDesign(calibration, design, S, m);
-  // Scratch space reused from call to call (every value read is written first): the fitted log spreads and the standardised errors.
-  const fitted = scratchBuffers.get(2, n);
-  const work = scratchBuffers.get(3, n);
+  const model = spreadModel ?? fitOnDesign(calibration, calibrationDesign(calibration, S, m), S, m);
+  // Scratch space reused from call to call (every value read is written first): the standardised errors and
+  // the calibration days' point forecasts (the features' centre column, m - 2), read from each day's features.
+  const standardised = scratchBuffers.get(3, n);
+  const centres = scratchBuffers.get(2, n);
   let low = Infinity;
   let high = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const v = predictRow(model, design, i * m, m);
-    fitted[i] = v;
-    low = Math.min(low, v);
-    high = Math.max(high, v);
-  }
-  const standardised = work;
   for (let d = 0; d < days; d++) {
     const e = calibration.errors[d] as ArrayLike<number>;
-    for (let s = 0; s < S; s++) standardised[d * S + s] = (e[s] as number) / Math.exp(fitted[d * S + s] as number);
+    const features = calibration.features[d] as Float64Array;
+    for (let s = 0; s < S; s++) {
+      const v = predictRow(model, features, s * m, m);
+      low = Math.min(low, v);
+      high = Math.max(high, v);
+      standardised[d * S + s] = (e[s] as number) / Math.exp(v);
+      centres[d * S + s] = features[s * m + m - 2] as number;
+    }
   }
   const spread = Float64Array.from({ length: S }, (_, s) => Math.exp(Math.min(high, Math.max(low, predictRow(model, targetFeatures, s * m, m)))));
-  if (pool === 'level') return levelPoolGrid(centre, spread, standardised.subarray(0, n), design, m, levels);
+  if (pool === 'level') return levelPoolGrid(centre, spread, standardised, centres, levels);
   const quantilesOf = (sorted: Float64Array): number[] => levels.map((tau) => sortedQuantile(sorted, tau));
   const pooled = pool === 'all' ? quantilesOf(Float64Array.from(standardised).sort()) : null;
   const slotSample = new Float64Array(days);
@@ -259,22 +259,24 @@ const stateCells = new StateCells();
 
 /**
  * The grid of the 'level' pool: every standardised error in ascending order (ties by row), with its
- * point forecast (the design's centre column, m - 2) in standard deviations of those forecasts; per slot,
+ * point forecast (`centres`, the features' centre column m - 2, overwritten) in standard deviations of those forecasts; per slot,
  * the kernel conditional quantiles at the slot's own centre (interpolated on the grid of LEVEL_POOL),
  * scaled by its spread. A convex combination of two non-decreasing rows does not decrease.
  */
-function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standardised: Float64Array, design: Float64Array, m: number, levels: readonly number[]): number[][] {
+function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standardised: Float64Array, centres: Float64Array, levels: readonly number[]): number[][] {
   const n = standardised.length;
   let sum = 0;
   let squares = 0;
   for (let i = 0; i < n; i++) {
-    const x = design[i * m + m - 2] as number;
+    const x = centres[i] as number;
     sum += x;
     squares += x * x;
   }
   const mean = sum / n;
   const sd = Math.sqrt(Math.max(squares / n - mean * mean, 0));
   const perSd = sd > 0 ? 1 / sd : 1;
+  // In row order (read in sequence), then gathered in the errors' order from this compact array.
+  for (let i = 0; i < n; i++) centres[i] = (centres[i] as number) * perSd;
   // The rows in ascending order of their standardised errors, ties by row (a radix sort: linear in the rows).
   const order = ascendingRows.of(standardised);
   const sorted = scratchBuffers.get(4, n);
@@ -282,7 +284,7 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
   for (let j = 0; j < n; j++) {
     const row = order[j] as number;
     sorted[j] = standardised[row] as number;
-    states[j] = (design[row * m + m - 2] as number) * perSd;
+    states[j] = centres[row] as number;
   }
   const weights = scratchBuffers.get(6, n);
   // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between;
