@@ -111,21 +111,34 @@ export function kernelConditionalQuantiles(
   const out = new Array<number>(levels.length);
   // One value of positive weight: every quantile is that value.
   if (span <= 0) return out.fill(lastValue);
+  if (levels.length === 0) return out;
+  // The value v_j sits at the level p_j = C_(j-1) / span: the cumulative sums are added up in order, and a
+  // level is divided out only where it may reach the next tau. Below `reach` (tau span shrunk by 2^-50,
+  // more than the three roundings of the product, the shrinking and the division) C / span rounds below
+  // tau, so the quantiles are those of comparing every level.
+  const sorted = sample.sorted;
   let k = 0;
   let before = 0;
-  let previousLevel = 0;
-  let previousValue = NaN;
-  for (let j = 0; j < count && k < levels.length; j++) {
-    const level = before / span;
-    const value = sample.sorted[positions[j] as number] as number;
-    while (k < levels.length && (levels[k] as number) <= level) {
-      const tau = levels[k] as number;
-      // At or below the first level (0) the first value; else linear between the two levels around tau,
-      // kept at most `value` (p + 1 (v - p) can round past v).
-      out[k++] = Number.isNaN(previousValue) ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
+  let beforePrevious = 0;
+  let reach = (levels[0] as number) * span * SHRINK;
+  for (let j = 0; j < count; j++) {
+    if (before >= reach) {
+      const level = before / span;
+      if ((levels[k] as number) <= level) {
+        const value = sorted[positions[j] as number] as number;
+        // At or below the first level (0) the first value; else linear between the two levels around tau,
+        // kept at most `value` (p + 1 (v - p) can round past v).
+        const previousValue = j === 0 ? NaN : (sorted[positions[j - 1] as number] as number);
+        const previousLevel = j === 0 ? 0 : beforePrevious / span;
+        while (k < levels.length && (levels[k] as number) <= level) {
+          const tau = levels[k] as number;
+          out[k++] = Number.isNaN(previousValue) ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
+        }
+        if (k === levels.length) break;
+        reach = (levels[k] as number) * span * SHRINK;
+      }
     }
-    previousLevel = level;
-    previousValue = value;
+    beforePrevious = before;
     before += weights[j] as number;
   }
   while (k < levels.length) out[k++] = lastValue;
@@ -184,6 +197,9 @@ export class StateCells {
 
 /** Cells on either side of zero (driver-fhs's cells, 1/32 of a standard deviation wide, span +-128 standard deviations). */
 const CELLS = 4096;
+
+/** 1 - 2^-50: see kernelConditionalQuantiles' walk over the levels. */
+const SHRINK = 1 - 2 ** -50;
 
 /** Scratch space: positions of the values of positive weight (grown as needed, reused from call to call). */
 let positions = new Int32Array(0);
