@@ -14,6 +14,11 @@ export interface SpreadCalibration {
   readonly errors: readonly ArrayLike<number>[];
   /** features[d]: the day's spread features, S x m row-major (see {@link spreadFeatures}). */
   readonly features: readonly Float64Array[];
+  /**
+   * The SpreadFeatureRows that handed out every array of `features`, if one did: the sums of their columns that
+   * do not change between its calls are then kept per spread regression (speed only, the same quantiles).
+   */
+  readonly rows?: SpreadFeatureRows;
 }
 
 /**
@@ -102,6 +107,28 @@ export class SpreadFeatureRows {
     }
     return out;
   }
+
+  private readonly sums = new WeakMap<LinearModel, WeakMap<Float64Array, Float64Array>>();
+
+  /**
+   * Per slot of an array `of` handed out (S x m), the intercept of `model` plus its terms of the columns
+   * `of` never writes again (the time of day and the drivers, 0 .. m - 3), added in the order of
+   * predictLinear: the first part of that sum, the same number whatever the centre column holds now. Kept
+   * by model and array (a refit day's spread regression serves the days until the next refit).
+   */
+  fixedSums(model: LinearModel, features: Float64Array, m: number): Float64Array {
+    let byFeatures = this.sums.get(model);
+    if (byFeatures === undefined) {
+      byFeatures = new WeakMap();
+      this.sums.set(model, byFeatures);
+    }
+    let out = byFeatures.get(features);
+    if (out === undefined) {
+      out = Float64Array.from({ length: features.length / m }, (_, s) => rowSum(model, features, s * m, 0, m - 2, model.intercept));
+      byFeatures.set(features, out);
+    }
+    return out;
+  }
 }
 
 /** Per S, cos and sin of 2 pi s / S and of twice that angle, 4 S values (computed once: the same for every day). */
@@ -183,8 +210,9 @@ export function driverSpreadQuantiles(
   for (let d = 0; d < days; d++) {
     const e = calibration.errors[d] as ArrayLike<number>;
     const features = calibration.features[d] as Float64Array;
+    const fixed = calibration.rows?.fixedSums(model, features, m);
     for (let s = 0; s < S; s++) {
-      const v = predictRow(model, features, s * m, m);
+      const v = fixed === undefined ? predictRow(model, features, s * m, m) : rowSum(model, features, s * m, m - 2, m, fixed[s] as number);
       low = Math.min(low, v);
       high = Math.max(high, v);
       standardised[d * S + s] = (e[s] as number) / Math.exp(v);
@@ -313,9 +341,14 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
 
 /** predictLinear(model, data[at .. at + m - 1]), the same sum in the same order, without a view of the row. */
 function predictRow(model: LinearModel, data: Float64Array, at: number, m: number): number {
-  let s = model.intercept;
+  return rowSum(model, data, at, 0, m, model.intercept);
+}
+
+/** `start` plus the terms from..to - 1 of predictLinear's sum over the row at `at`, added in its order. */
+function rowSum(model: LinearModel, data: Float64Array, at: number, from: number, to: number, start: number): number {
+  let s = start;
   const b = model.coefficients;
-  for (let j = 0; j < m; j++) s += (b[j] as number) * (data[at + j] as number);
+  for (let j = from; j < to; j++) s += (b[j] as number) * (data[at + j] as number);
   return s;
 }
 
