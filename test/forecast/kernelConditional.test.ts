@@ -172,6 +172,62 @@ describe("driver spread quantiles with the 'level' pool", () => {
   });
 });
 
+/**
+ * The weighted definition 7 as the module's header states it (Hyndman and Fan 1996, carried over to
+ * weights), written out plainly: every value of positive weight at the level p_j = (C_j - w_j) / (C_(n-1) -
+ * w_(n-1)), each tau read between the two levels around it. No widening: the target state is among the
+ * states, so minEffective 1 is met at once.
+ */
+function definitionSeven(sample: { sorted: Float64Array; states: Float64Array }, target: number, levels: readonly number[], h: number): number[] {
+  const values: number[] = [];
+  const cumulative: number[] = [];
+  const weights: number[] = [];
+  let total = 0;
+  sample.states.forEach((x, i) => {
+    const w = 1 - (x - target) * (x - target) * (1 / (h * h));
+    if (!(w > 0)) return;
+    values.push(sample.sorted[i]!);
+    weights.push(w);
+    cumulative.push(total);
+    total += w;
+  });
+  const span = total - weights[weights.length - 1]!;
+  const last = values[values.length - 1]!;
+  if (span <= 0) return levels.map(() => last);
+  return levels.map((tau) => {
+    const j = cumulative.findIndex((c) => tau <= c / span);
+    if (j < 0) return last;
+    if (j === 0) return values[0]!;
+    const p = cumulative[j - 1]! / span;
+    const q = cumulative[j]! / span;
+    return Math.min(values[j]!, values[j - 1]! + ((tau - p) / (q - p)) * (values[j]! - values[j - 1]!));
+  });
+}
+
+describe('kernelConditionalQuantiles against the definition', () => {
+  it('gives the numbers of the weighted definition 7 written out, bit for bit, also at levels that are exactly a value\'s level (fast-check: ties, equal weights)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.oneof(fc.double({ min: -50, max: 50, noNaN: true }), fc.constantFrom(0, 1, 2)), fc.oneof(fc.double({ min: -2, max: 2, noNaN: true }), fc.constant(0))), { minLength: 1, maxLength: 60 }),
+        fc.double({ min: 0.05, max: 3, noNaN: true }),
+        fc.boolean(),
+        (pairs, h, equalWeights) => {
+          // Equal weights (every state at the target): the levels j / (n - 1) are hit exactly, and it is definition 7 itself.
+          const states = equalWeights ? pairs.map(() => 0) : [0, ...pairs.slice(1).map((p) => p[1])];
+          const sample = statedSample(pairs.map((p) => p[0]), states);
+          const n = pairs.length;
+          const onValues = Array.from({ length: n }, (_, j) => (n > 1 ? j / (n - 1) : 0));
+          const levels = [...new Set([0, 0.05, 0.25, 0.5, 0.75, 0.95, 1, ...onValues])].sort((a, b) => a - b);
+          const got = kernelConditionalQuantiles(sample, 0, levels, h, 1, new Float64Array(n));
+          expect(got).toEqual(definitionSeven(sample, 0, levels, h));
+          if (equalWeights) levels.forEach((tau, k) => expect(got[k]).toBeCloseTo(sortedQuantile(sample.sorted, tau), 9));
+        },
+      ),
+      { seed: 17, numRuns: 400 },
+    );
+  });
+});
+
 describe('kernelConditionalQuantiles over the cells of the states (StateCells)', () => {
   it('gives the same numbers, bit for bit, as the pass over every value (fast-check: states far beyond the cells, equal states, any bandwidth)', () => {
     const cells = new StateCells();

@@ -124,7 +124,8 @@ export class SpreadFeatureRows {
     }
     let out = byFeatures.get(features);
     if (out === undefined) {
-      out = Float64Array.from({ length: features.length / m }, (_, s) => rowSum(model, features, s * m, 0, m - 2, model.intercept));
+      out = new Float64Array(features.length / m);
+      for (let s = 0; s < out.length; s++) out[s] = rowSum(model, features, s * m, 0, m - 2, model.intercept);
       byFeatures.set(features, out);
     }
     return out;

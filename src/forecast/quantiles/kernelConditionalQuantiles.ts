@@ -35,8 +35,8 @@
  * @param levels levels in [0, 1], ascending
  * @param bandwidth h > 0, on the scale of the states
  * @param minEffective the fewest effective values (>= 1) before the bandwidth is widened
- * @param weights scratch space of at least sample.sorted.length values (overwritten: the weights of the values
- *   of positive weight, in order)
+ * @param weights scratch space of at least sample.sorted.length values (overwritten: the cumulative weights
+ *   C_(j-1) of the values of positive weight, in order)
  * @param byState optional, the same quantiles faster for many targets on one sample: its positions grouped by
  *   the cells of their states ({@link StateCells}, built on sample.states)
  * @returns one quantile per level, non-decreasing
@@ -53,10 +53,12 @@ export function kernelConditionalQuantiles(
   const n = sample.sorted.length;
   const enough = Math.min(minEffective, n);
   if (positions.length < n) positions = new Int32Array(n);
-  // The values of positive weight, in ascending order: their positions in the sample and (in `weights`) their weights.
+  // The values of positive weight, in ascending order: their positions in the sample and (in `weights`) the sums
+  // of the weights before each, C_(j-1), added up in that order; `last` is the last one's weight.
   let count = 0;
   let h = bandwidth;
   let total = 0;
+  let last = 0;
   for (;;) {
     const inverse = 1 / (h * h);
     let squares = 0;
@@ -95,10 +97,11 @@ export function kernelConditionalQuantiles(
         const d = (sample.states[i] as number) - target;
         const w = 1 - d * d * inverse;
         if (w > 0) {
-          weights[count] = w;
+          weights[count] = total;
           positions[count++] = i;
           total += w;
           squares += w * w;
+          last = w;
         }
       }
     }
@@ -107,39 +110,33 @@ export function kernelConditionalQuantiles(
     h *= 2;
   }
   const lastValue = sample.sorted[positions[count - 1] as number] as number;
-  const span = total - (weights[count - 1] as number);
+  const span = total - last;
   const out = new Array<number>(levels.length);
   // One value of positive weight: every quantile is that value.
   if (span <= 0) return out.fill(lastValue);
-  if (levels.length === 0) return out;
-  // The value v_j sits at the level p_j = C_(j-1) / span: the cumulative sums are added up in order, and a
-  // level is divided out only where it may reach the next tau. Below `reach` (tau span shrunk by 2^-50,
-  // more than the three roundings of the product, the shrinking and the division) C / span rounds below
-  // tau, so the quantiles are those of comparing every level.
+  // The value v_j sits at the level p_j = C_(j-1) / span, non-decreasing in j (so is rounding): each tau's first
+  // j with tau <= p_j, at or after the last tau's, is found by bisection, where a walk over every j finds the same.
   const sorted = sample.sorted;
   let k = 0;
-  let before = 0;
-  let beforePrevious = 0;
-  let reach = (levels[0] as number) * span * SHRINK;
-  for (let j = 0; j < count; j++) {
-    if (before >= reach) {
-      const level = before / span;
-      if ((levels[k] as number) <= level) {
-        const value = sorted[positions[j] as number] as number;
-        // At or below the first level (0) the first value; else linear between the two levels around tau,
-        // kept at most `value` (p + 1 (v - p) can round past v).
-        const previousValue = j === 0 ? NaN : (sorted[positions[j - 1] as number] as number);
-        const previousLevel = j === 0 ? 0 : beforePrevious / span;
-        while (k < levels.length && (levels[k] as number) <= level) {
-          const tau = levels[k] as number;
-          out[k++] = Number.isNaN(previousValue) ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
-        }
-        if (k === levels.length) break;
-        reach = (levels[k] as number) * span * SHRINK;
-      }
+  let from = 0;
+  for (; k < levels.length; k++) {
+    const tau = levels[k] as number;
+    let lo = from;
+    let hi = count;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (tau <= (weights[mid] as number) / span) hi = mid;
+      else lo = mid + 1;
     }
-    beforePrevious = before;
-    before += weights[j] as number;
+    if (lo === count) break;
+    const level = (weights[lo] as number) / span;
+    const value = sorted[positions[lo] as number] as number;
+    // At or below the first level (0) the first value; else linear between the two levels around tau,
+    // kept at most `value` (p + 1 (v - p) can round past v).
+    const previousValue = lo === 0 ? NaN : (sorted[positions[lo - 1] as number] as number);
+    const previousLevel = lo === 0 ? 0 : (weights[lo - 1] as number) / span;
+    out[k] = Number.isNaN(previousValue) ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
+    from = lo;
   }
   while (k < levels.length) out[k++] = lastValue;
   return out;
@@ -197,9 +194,6 @@ export class StateCells {
 
 /** Cells on either side of zero (driver-fhs's cells, 1/32 of a standard deviation wide, span +-128 standard deviations). */
 const CELLS = 4096;
-
-/** 1 - 2^-50: see kernelConditionalQuantiles' walk over the levels. */
-const SHRINK = 1 - 2 ** -50;
 
 /** Scratch space: positions of the values of positive weight (grown as needed, reused from call to call). */
 let positions = new Int32Array(0);
