@@ -257,6 +257,28 @@ describe('kernelConditionalQuantiles over the cells of the states (StateCells)',
     );
   });
 
+  it('gives the same numbers for target after target on one StateCells, the reach moving by any number of cells (fast-check)', () => {
+    const cells = new StateCells();
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.double({ min: -50, max: 50, noNaN: true }), fc.oneof(fc.double({ min: -4, max: 4, noNaN: true }), fc.constantFrom(0, 1e4, NaN))), { minLength: 1, maxLength: 80 }),
+        fc.array(fc.integer({ min: -60, max: 60 }), { minLength: 1, maxLength: 12 }),
+        fc.double({ min: 0.01, max: 3, noNaN: true }),
+        fc.integer({ min: 1, max: 100 }),
+        (pairs, grid, h, minEffective) => {
+          const sample = statedSample(pairs.map((p) => p[0]), pairs.map((p) => p[1]));
+          const levels = [0.05, 0.5, 0.95];
+          cells.build(sample.states, 0.03125);
+          for (const g of grid) {
+            const plain = kernelConditionalQuantiles(sample, g * 0.125, levels, h, minEffective, new Float64Array(pairs.length));
+            expect(kernelConditionalQuantiles(sample, g * 0.125, levels, h, minEffective, new Float64Array(pairs.length), cells)).toEqual(plain);
+          }
+        },
+      ),
+      { seed: 18, numRuns: 300 },
+    );
+  });
+
   it('groups the positions by cell: states 0.3, -0.1, 0.2, NaN, 5 in cells 0.25 wide', () => {
     // floor(x / 0.25): 1, -1, 0, none, 20; so by cell: position 1 (cell -1), 2 (cell 0), 0 (cell 1), 4 (cell 20).
     const cells = new StateCells().build([0.3, -0.1, 0.2, NaN, 5], 0.25);

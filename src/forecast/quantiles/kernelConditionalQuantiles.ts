@@ -69,28 +69,17 @@ export function kernelConditionalQuantiles(
     // rounding), then visited in ascending position: the weights are the same numbers, summed in the same
     // order, whichever values were marked.
     const words = (n + 31) >>> 5;
-    if (marks.length < words) marks = new Int32Array(words);
-    let firstWord = 0;
-    let lastWord = words - 1;
+    let marked: Int32Array;
     if (byState === undefined) {
-      marks.fill(-1, 0, words);
-      if ((n & 31) !== 0) marks[words - 1] = (1 << (n & 31)) - 1;
+      if (everything.length < words) everything = new Int32Array(words);
+      everything.fill(-1, 0, words);
+      if ((n & 31) !== 0) everything[words - 1] = (1 << (n & 31)) - 1;
+      marked = everything;
     } else {
-      const from = byState.starts[Math.max(0, byState.cellOf(target - h) - 1)] as number;
-      const to = byState.starts[Math.min(2 * CELLS, byState.cellOf(target + h) + 2)] as number;
-      firstWord = words;
-      lastWord = -1;
-      for (let j = from; j < to; j++) {
-        const i = byState.positions[j] as number;
-        const word = i >>> 5;
-        marks[word] = (marks[word] as number) | (1 << (i & 31));
-        firstWord = Math.min(firstWord, word);
-        lastWord = Math.max(lastWord, word);
-      }
+      marked = byState.marked(Math.max(0, byState.cellOf(target - h) - 1), Math.min(2 * CELLS, byState.cellOf(target + h) + 2));
     }
-    for (let word = firstWord; word <= lastWord; word++) {
-      let bits = marks[word] as number;
-      marks[word] = 0;
+    for (let word = 0; word < words; word++) {
+      let bits = marked[word] as number;
       while (bits !== 0) {
         const i = (word << 5) + 31 - Math.clz32(bits & -bits);
         bits &= bits - 1;
@@ -155,6 +144,10 @@ export class StateCells {
   readonly starts = new Int32Array(2 * CELLS + 1);
   private cells = new Int32Array(0);
   width = 1;
+  /** One bit per position: those of the cells [markedFrom, markedTo) (see {@link marked}). */
+  private marks = new Int32Array(0);
+  private markedFrom = 0;
+  private markedTo = 0;
 
   /** Groups states[0 .. n - 1] into cells `width` wide (width > 0). */
   build(states: ArrayLike<number>, width: number): this {
@@ -183,7 +176,41 @@ export class StateCells {
     }
     for (let c = 2 * CELLS - 1; c > 0; c--) starts[c] = starts[c - 1] as number;
     starts[0] = 0;
+    const words = (n + 31) >>> 5;
+    if (this.marks.length < words) this.marks = new Int32Array(Math.max(words, Math.ceil(1.25 * this.marks.length)));
+    this.marks.fill(0, 0, words);
+    this.markedFrom = 0;
+    this.markedTo = 0;
     return this;
+  }
+
+  /**
+   * A bit set over the positions (bit i & 31 of word i >>> 5) with exactly those of the cells [from, to)
+   * marked: the last call's set with the cells that entered or left toggled, so that the kernel's reach
+   * moving a few cells from one target to the next marks only those (overwritten by the next call).
+   */
+  marked(from: number, to: number): Int32Array {
+    const [oldFrom, oldTo] = [this.markedFrom, this.markedTo];
+    if (!(from < to)) [from, to] = [0, 0];
+    if (oldFrom === oldTo || to <= oldFrom || oldTo <= from) {
+      this.toggle(oldFrom, oldTo);
+      this.toggle(from, to);
+    } else {
+      this.toggle(Math.min(from, oldFrom), Math.max(from, oldFrom));
+      this.toggle(Math.min(to, oldTo), Math.max(to, oldTo));
+    }
+    this.markedFrom = from;
+    this.markedTo = to;
+    return this.marks;
+  }
+
+  /** Flips the bits of the positions of the cells [from, to): each position is in one cell. */
+  private toggle(from: number, to: number): void {
+    const { marks, positions } = this;
+    for (let j = this.starts[from] as number, end = this.starts[to] as number; j < end; j++) {
+      const i = positions[j] as number;
+      marks[i >>> 5] = (marks[i >>> 5] as number) ^ (1 << (i & 31));
+    }
   }
 
   /** The index (0 .. 2 CELLS - 1) of the cell of a finite or infinite x. */
@@ -197,5 +224,5 @@ const CELLS = 4096;
 
 /** Scratch space: positions of the values of positive weight (grown as needed, reused from call to call). */
 let positions = new Int32Array(0);
-/** Scratch space: one bit per position, the values within reach (all zero between calls). */
-let marks = new Int32Array(0);
+/** Scratch space: one bit per position, every one set (the kernel's reach without StateCells). */
+let everything = new Int32Array(0);
