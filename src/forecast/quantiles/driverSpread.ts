@@ -288,7 +288,7 @@ const stateCells = new StateCells();
 
 /**
  * The grid of the 'level' pool: every standardised error in ascending order (ties by row), with its
- * point forecast (`centres`, the features' centre column m - 2, overwritten) in standard deviations of those forecasts; per slot,
+ * point forecast (`centres`, the features' centre column m - 2) in standard deviations of those forecasts; per slot,
  * the kernel conditional quantiles at the slot's own centre (interpolated on the grid of LEVEL_POOL),
  * scaled by its spread. A convex combination of two non-decreasing rows does not decrease.
  */
@@ -304,8 +304,6 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
   const mean = sum / n;
   const sd = Math.sqrt(Math.max(squares / n - mean * mean, 0));
   const perSd = sd > 0 ? 1 / sd : 1;
-  // In row order (read in sequence), then gathered in the errors' order from this compact array.
-  for (let i = 0; i < n; i++) centres[i] = (centres[i] as number) * perSd;
   // The rows in ascending order of their standardised errors, ties by row (a radix sort: linear in the rows).
   const order = ascendingRows.of(standardised);
   const sorted = scratchBuffers.get(4, n);
@@ -313,7 +311,7 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
   for (let j = 0; j < n; j++) {
     const row = order[j] as number;
     sorted[j] = standardised[row] as number;
-    states[j] = centres[row] as number;
+    states[j] = (centres[row] as number) * perSd;
   }
   const weights = scratchBuffers.get(6, n);
   // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between;
