@@ -124,12 +124,24 @@ export class SpreadFeatureRows {
     }
     let out = byFeatures.get(features);
     if (out === undefined) {
-      out = new Float64Array(features.length / m);
+      out = this.place(features.length / m);
       for (let s = 0; s < out.length; s++) out[s] = rowSum(model, features, s * m, 0, m - 2, model.intercept);
       byFeatures.set(features, out);
     }
     return out;
   }
+
+  /** A view of `length` values of a block shared by many (a typed array of its own per day costs an allocation outside the heap each). */
+  private place(length: number): Float64Array {
+    if (this.block.length - this.used < length) {
+      this.block = new Float64Array(256 * length);
+      this.used = 0;
+    }
+    return this.block.subarray(this.used, (this.used += length));
+  }
+
+  private block = new Float64Array(0);
+  private used = 0;
 }
 
 /** Per S, cos and sin of 2 pi s / S and of twice that angle, 4 S values (computed once: the same for every day). */
