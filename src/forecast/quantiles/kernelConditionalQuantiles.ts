@@ -53,6 +53,8 @@ export function kernelConditionalQuantiles(
   const n = sample.sorted.length;
   const enough = Math.min(minEffective, n);
   if (positions.length < n) positions = new Int32Array(n);
+  const at = positions;
+  const states = sample.states;
   // The values of positive weight, in ascending order: their positions in the sample and (in `weights`) the sums
   // of the weights before each, C_(j-1), added up in that order; `last` is the last one's weight.
   let count = 0;
@@ -83,11 +85,11 @@ export function kernelConditionalQuantiles(
       while (bits !== 0) {
         const i = (word << 5) + 31 - Math.clz32(bits & -bits);
         bits &= bits - 1;
-        const d = (sample.states[i] as number) - target;
+        const d = (states[i] as number) - target;
         const w = 1 - d * d * inverse;
         if (w > 0) {
           weights[count] = total;
-          positions[count++] = i;
+          at[count++] = i;
           total += w;
           squares += w * w;
           last = w;
