@@ -158,12 +158,13 @@ export class StateCells {
       this.cells = new Int32Array(Math.max(n, Math.ceil(1.25 * this.cells.length)));
       this.positions = new Int32Array(this.cells.length);
     }
-    const { cells, starts } = this;
+    const { cells, starts, positions } = this;
     this.width = width;
     starts.fill(0);
     for (let i = 0; i < n; i++) {
       const x = states[i] as number;
-      const c = Number.isFinite(x) ? this.cellOf(x) : -1;
+      // cellOf(x), written out
+      const c = Number.isFinite(x) ? Math.max(0, Math.min(2 * CELLS - 1, Math.floor(x / width) + CELLS)) : -1;
       cells[i] = c;
       if (c >= 0) starts[c + 1] = (starts[c + 1] as number) + 1;
     }
@@ -173,7 +174,7 @@ export class StateCells {
       const c = cells[i] as number;
       if (c < 0) continue;
       const at = starts[c] as number;
-      this.positions[at] = i;
+      positions[at] = i;
       starts[c] = at + 1;
     }
     for (let c = 2 * CELLS - 1; c > 0; c--) starts[c] = starts[c - 1] as number;
