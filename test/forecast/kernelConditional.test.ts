@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { driverSpreadQuantiles, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
+import { driverSpreadQuantiles, fitSpreadModel, spreadFeatures, type SpreadCalibration } from '../../src/forecast/quantiles/driverSpread.js';
+import { predictLinear, type LinearModel } from '../../src/forecast/linalg/linearModel.js';
 import { kernelConditionalQuantiles, StateCells } from '../../src/forecast/quantiles/kernelConditionalQuantiles.js';
 import { sortedQuantile } from '../../src/forecast/quantiles/sortedQuantile.js';
 import { seededNormal, seededRandom } from './seededRandom.js';
@@ -169,6 +170,68 @@ describe("driver spread quantiles with the 'level' pool", () => {
     const centre96 = slots96((s) => Math.sin(0.1 * s));
     const got = driverSpreadQuantiles(centre96, spreadFeatures([slots96((s) => 26 + (s % 7))], centre96, false), tied, LEVELS, 'level');
     got.forEach((row, s) => row.forEach((v) => expect(v).toBeCloseTo((centre96[s] as number) + 0.5, 9)));
+  });
+});
+
+/**
+ * The 'level' pool as driverSpreadQuantiles' header states it, over the whole pool: every error divided by
+ * exp of its fitted log spread (predictLinear on its features), sorted (ties by row), its state the centre
+ * column over the centres' standard deviation (population), kernel quantiles at the grid states g / 8 around
+ * each slot's centre interpolated linearly, scaled by the day's spread kept within the fitted range.
+ */
+function wholeLevelPool(centre: Float64Array, targetFeatures: Float64Array, calibration: SpreadCalibration, levels: readonly number[], model: LinearModel): number[][] {
+  const slotsPerDay = centre.length;
+  const m = targetFeatures.length / slotsPerDay;
+  const u: number[] = [];
+  const x: number[] = [];
+  let low = Infinity;
+  let high = -Infinity;
+  calibration.features.forEach((f, d) => {
+    for (let s = 0; s < slotsPerDay; s++) {
+      const v = predictLinear(model, f.subarray(s * m, (s + 1) * m));
+      low = Math.min(low, v);
+      high = Math.max(high, v);
+      u.push((calibration.errors[d]![s] as number) / Math.exp(v));
+      x.push(f[s * m + m - 2]!);
+    }
+  });
+  const mean = x.reduce((a, b) => a + b, 0) / x.length;
+  const sd = Math.sqrt(Math.max(x.reduce((a, b) => a + b * b, 0) / x.length - mean * mean, 0));
+  const perSd = sd > 0 ? 1 / sd : 1;
+  const sample = statedSample(u, x.map((v) => v * perSd));
+  const weights = new Float64Array(u.length);
+  const at = (g: number) => kernelConditionalQuantiles(sample, g * 0.125, levels, 0.5, 500, weights);
+  return Array.from(centre, (c, s) => {
+    const spread = Math.exp(Math.min(high, Math.max(low, predictLinear(model, targetFeatures.subarray(s * m, (s + 1) * m)))));
+    const t = (c * perSd) / 0.125;
+    const g = Math.floor(t);
+    const lambda = t - g;
+    const below = at(g);
+    const above = lambda > 0 ? at(g + 1) : below;
+    return below.map((v, k) => c + spread * ((1 - lambda) * v + lambda * above[k]!));
+  });
+}
+
+describe("the 'level' pool from the errors within the day's reach", () => {
+  it('gives the quantiles of the whole pool bit for bit: a day over part of the states, and one with a slot so far out that its kernel widens', () => {
+    const normal = seededNormal(23);
+    const days = 80;
+    const slots48 = (f: (s: number) => number) => Float64Array.from({ length: 48 }, (_, s) => f(s));
+    const level = (d: number, s: number) => 1.5 * Math.sin((2 * Math.PI * d) / 40) + 0.5 * Math.sin((2 * Math.PI * s) / 48);
+    const calibration = {
+      errors: Array.from({ length: days }, (_, d) => slots48((s) => normal() * (1 + 0.4 * Math.abs(level(d, s))))),
+      features: Array.from({ length: days }, (_, d) => spreadFeatures([slots48((s) => 20 + level(d, s) + 0.3 * normal())], slots48((s) => level(d, s)), true)),
+    };
+    const model = fitSpreadModel(calibration, 48);
+    // Centres over a quarter of the pool's span; then the same with one slot beyond every centre seen.
+    const narrow = slots48((s) => 0.6 + 0.2 * Math.sin((2 * Math.PI * s) / 48));
+    const far = narrow.map((v, s) => (s === 10 ? 4.5 : v));
+    for (const centre of [narrow, far]) {
+      const features = spreadFeatures([slots48(() => 21)], centre, true);
+      const got = driverSpreadQuantiles(centre, features, calibration, LEVELS, 'level', undefined, model);
+      const want = wholeLevelPool(centre, features, calibration, LEVELS, model);
+      expect(got.every((row, s) => row.every((v, k) => Object.is(v, want[s]![k])))).toBe(true);
+    }
   });
 });
 

@@ -5,7 +5,7 @@ import { ScratchBuffers } from '../scratchBuffers.js';
 import { selectInPlace } from '../models/robustAsinh.js';
 import type { PoolOrder } from './poolOrder.js';
 import { sortedQuantile } from './sortedQuantile.js';
-import { kernelConditionalQuantiles, StateCells } from './kernelConditionalQuantiles.js';
+import { kernelQuantilesWithin, StateCells } from './kernelConditionalQuantiles.js';
 import { AscendingRows } from './ascendingRows.js';
 
 /** Calibration data of {@link driverSpreadQuantiles}: per calibration day, its errors and spread features. */
@@ -214,26 +214,30 @@ export function driverSpreadQuantiles(
   const m = targetFeatures.length / S;
   const n = days * S;
   const model = spreadModel ?? fitOnDesign(calibration, calibrationDesign(calibration, S, m), S, m);
-  // Scratch space reused from call to call (every value read is written first): the standardised errors and
-  // the calibration days' point forecasts (the features' centre column, m - 2), read from each day's features.
-  const standardised = scratchBuffers.get(3, n);
+  // Scratch space reused from call to call (every value read is written first): the fitted log spreads and the
+  // calibration days' point forecasts (the features' centre column, m - 2), read from each day's features.
+  const fitted = scratchBuffers.get(7, n);
   const centres = scratchBuffers.get(2, n);
   let low = Infinity;
   let high = -Infinity;
   for (let d = 0; d < days; d++) {
-    const e = calibration.errors[d] as ArrayLike<number>;
     const features = calibration.features[d] as Float64Array;
     const fixed = calibration.rows?.fixedSums(model, features, m);
     for (let s = 0; s < S; s++) {
       const v = fixed === undefined ? predictRow(model, features, s * m, m) : rowSum(model, features, s * m, m - 2, m, fixed[s] as number);
       low = Math.min(low, v);
       high = Math.max(high, v);
-      standardised[d * S + s] = (e[s] as number) / Math.exp(v);
+      fitted[d * S + s] = v;
       centres[d * S + s] = features[s * m + m - 2] as number;
     }
   }
   const spread = Float64Array.from({ length: S }, (_, s) => Math.exp(Math.min(high, Math.max(low, predictRow(model, targetFeatures, s * m, m)))));
-  if (pool === 'level') return levelPoolGrid(centre, spread, standardised, centres, levels);
+  if (pool === 'level') return levelPoolGrid(centre, spread, calibration.errors, fitted, centres, levels);
+  const standardised = scratchBuffers.get(3, n);
+  for (let d = 0; d < days; d++) {
+    const e = calibration.errors[d] as ArrayLike<number>;
+    for (let s = 0; s < S; s++) standardised[d * S + s] = (e[s] as number) / Math.exp(fitted[d * S + s] as number);
+  }
   const quantilesOf = (sorted: Float64Array): number[] => levels.map((tau) => sortedQuantile(sorted, tau));
   const pooled = pool === 'all' ? quantilesOf(Float64Array.from(standardised).sort()) : null;
   const slotSample = new Float64Array(days);
@@ -299,13 +303,26 @@ const ascendingRows = new AscendingRows();
 const stateCells = new StateCells();
 
 /**
- * The grid of the 'level' pool: every standardised error in ascending order (ties by row), with its
+ * The grid of the 'level' pool: every standardised error e / exp(fitted) in ascending order (ties by row), with its
  * point forecast (`centres`, the features' centre column m - 2) in standard deviations of those forecasts; per slot,
  * the kernel conditional quantiles at the slot's own centre (interpolated on the grid of LEVEL_POOL),
  * scaled by its spread. A convex combination of two non-decreasing rows does not decrease.
+ *
+ * Errors whose state no grid state of the day reaches at the first bandwidth get no weight from any kernel
+ * unless one widens it: the grid is first made from the errors within that reach alone (their order and
+ * sums those of the whole pool without the terms of weight 0, so the same quantiles), and from every error
+ * when a grid state would widen. The reach is taken 2^-20 of a bandwidth wider against rounding.
  */
-function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standardised: Float64Array, centres: Float64Array, levels: readonly number[]): number[][] {
-  const n = standardised.length;
+function levelPoolGrid(
+  centre: ArrayLike<number>,
+  spread: Float64Array,
+  errors: readonly ArrayLike<number>[],
+  fitted: Float64Array,
+  centres: Float64Array,
+  levels: readonly number[],
+): number[][] {
+  const n = fitted.length;
+  const S = centre.length;
   let sum = 0;
   let squares = 0;
   for (let i = 0; i < n; i++) {
@@ -316,38 +333,89 @@ function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standard
   const mean = sum / n;
   const sd = Math.sqrt(Math.max(squares / n - mean * mean, 0));
   const perSd = sd > 0 ? 1 / sd : 1;
-  // The rows in ascending order of their standardised errors, ties by row (a radix sort: linear in the rows).
-  const order = ascendingRows.of(standardised);
-  const sorted = scratchBuffers.get(4, n);
-  const states = scratchBuffers.get(5, n);
-  for (let j = 0; j < n; j++) {
-    const row = order[j] as number;
-    sorted[j] = standardised[row] as number;
-    states[j] = (centres[row] as number) * perSd;
-  }
-  const weights = scratchBuffers.get(6, n);
-  // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between;
-  // the positions grouped by their states in cells a quarter of a step wide, for the kernel to visit only those within
-  // its reach (narrower cells visit fewer values beyond it: 0.97x the CPU of a step's width over driver-fhs's year).
-  const step = LEVEL_POOL.bandwidthSd * LEVEL_POOL.gridStep;
-  const byState = stateCells.build(states, step / 4);
-  const atGrid = new Map<number, number[]>();
-  const gridQuantiles = (g: number): number[] => {
-    let q = atGrid.get(g);
-    if (q === undefined) {
-      q = kernelConditionalQuantiles({ sorted, states }, g * step, levels, LEVEL_POOL.bandwidthSd, LEVEL_POOL.minEffective, weights, byState);
-      atGrid.set(g, q);
-    }
-    return q;
-  };
-  return Array.from({ length: centre.length }, (_, s) => {
+  // The grid states g * step, each computed once, interpolated linearly in between: per slot, the two around its centre.
+  const { bandwidthSd: h, minEffective, gridStep } = LEVEL_POOL;
+  const step = h * gridStep;
+  const cells = Array.from({ length: S }, (_, s) => {
     const t = ((centre[s] as number) * perSd) / step;
     const g = Math.floor(t);
-    const lambda = t - g;
-    const below = gridQuantiles(g);
-    const above = lambda > 0 ? gridQuantiles(g + 1) : below;
+    return { g, lambda: t - g };
+  });
+  let first = Infinity;
+  let last = -Infinity;
+  for (const { g, lambda } of cells) {
+    first = Math.min(first, g);
+    last = Math.max(last, lambda > 0 ? g + 1 : g);
+  }
+  const reach = h * (1 + 2 ** -20);
+  const atGrid = gridWithin(errors, fitted, centres, perSd, cells, first * step - reach, last * step + reach, Math.min(minEffective, n), levels) ??
+    (gridWithin(errors, fitted, centres, perSd, cells, -Infinity, Infinity, Math.min(minEffective, n), levels) as Map<number, number[]>);
+  return cells.map(({ g, lambda }, s) => {
+    const below = atGrid.get(g) as number[];
+    const above = lambda > 0 ? (atGrid.get(g + 1) as number[]) : below;
     return below.map((v, k) => (centre[s] as number) + (spread[s] as number) * ((1 - lambda) * v + lambda * (above[k] as number)));
   });
+}
+
+/**
+ * The kernel conditional quantiles at the grid states of `cells` (g and, where lambda > 0, g + 1), from the
+ * standardised errors whose state (centre / sd) lies in [from, to] (every error: -Infinity, Infinity); null when
+ * they are too few or a grid state would widen the bandwidth (then only the whole pool gives its quantiles).
+ */
+function gridWithin(
+  errors: readonly ArrayLike<number>[],
+  fitted: Float64Array,
+  centres: Float64Array,
+  perSd: number,
+  cells: readonly { readonly g: number; readonly lambda: number }[],
+  from: number,
+  to: number,
+  enough: number,
+  levels: readonly number[],
+): Map<number, number[]> | null {
+  const n = fitted.length;
+  const S = cells.length;
+  const whole = from === -Infinity && to === Infinity;
+  // The errors kept, in row order: their standardised values and states.
+  const values = scratchBuffers.get(3, n);
+  const rowStates = scratchBuffers.get(8, n);
+  let kept = 0;
+  for (let d = 0; d < errors.length; d++) {
+    const e = errors[d] as ArrayLike<number>;
+    for (let s = 0; s < S; s++) {
+      const i = d * S + s;
+      const x = (centres[i] as number) * perSd;
+      if (!whole && !(x >= from && x <= to)) continue;
+      values[kept] = (e[s] as number) / Math.exp(fitted[i] as number);
+      rowStates[kept++] = x;
+    }
+  }
+  if (kept < enough) return null;
+  // The rows in ascending order of their standardised errors, ties by row (a radix sort: linear in the rows).
+  const order = ascendingRows.of(values.subarray(0, kept));
+  const sorted = scratchBuffers.get(4, kept);
+  const states = scratchBuffers.get(5, kept);
+  for (let j = 0; j < kept; j++) {
+    const row = order[j] as number;
+    sorted[j] = values[row] as number;
+    states[j] = rowStates[row] as number;
+  }
+  const weights = scratchBuffers.get(6, kept);
+  // The positions grouped by their states in cells a quarter of a step wide, for the kernel to visit only those within
+  // its reach (narrower cells visit fewer values beyond it: 0.97x the CPU of a step's width over driver-fhs's year).
+  const { bandwidthSd: h, gridStep } = LEVEL_POOL;
+  const step = h * gridStep;
+  const byState = stateCells.build(states, step / 4);
+  const atGrid = new Map<number, number[]>();
+  for (const { g, lambda } of cells) {
+    for (const at of lambda > 0 ? [g, g + 1] : [g]) {
+      if (atGrid.has(at)) continue;
+      const q = kernelQuantilesWithin({ sorted, states }, at * step, levels, h, enough, weights, byState, whole ? Infinity : h);
+      if (q === null) return null;
+      atGrid.set(at, q);
+    }
+  }
+  return atGrid;
 }
 
 /** predictLinear(model, data[at .. at + m - 1]), the same sum in the same order, without a view of the row. */

@@ -50,6 +50,23 @@ export function kernelConditionalQuantiles(
   weights: Float64Array,
   byState?: StateCells,
 ): number[] {
+  return kernelQuantilesWithin(sample, target, levels, bandwidth, minEffective, weights, byState, Infinity) as number[];
+}
+
+/**
+ * {@link kernelConditionalQuantiles}, or null when the bandwidth would have to be widened past `widest`: for a
+ * sample that holds only the values within `widest` of the target (those beyond have no weight up to it).
+ */
+export function kernelQuantilesWithin(
+  sample: { readonly sorted: ArrayLike<number>; readonly states: ArrayLike<number> },
+  target: number,
+  levels: readonly number[],
+  bandwidth: number,
+  minEffective: number,
+  weights: Float64Array,
+  byState: StateCells | undefined,
+  widest: number,
+): number[] | null {
   const n = sample.sorted.length;
   const enough = Math.min(minEffective, n);
   if (positions.length < n) positions = new Int32Array(n);
@@ -98,6 +115,7 @@ export function kernelConditionalQuantiles(
     }
     // A bandwidth of 2^40 times the first reaches every finite state: stop there whatever the count.
     if ((total > 0 && (total * total) / squares >= enough) || h > bandwidth * 2 ** 40) break;
+    if (2 * h > widest) return null;
     h *= 2;
   }
   const lastValue = sample.sorted[positions[count - 1] as number] as number;
