@@ -410,7 +410,7 @@ function gridWithin(
   for (const { g, lambda } of cells) {
     for (const at of lambda > 0 ? [g, g + 1] : [g]) {
       if (atGrid.has(at)) continue;
-      const q = kernelQuantilesWithin({ sorted, states }, at * step, levels, h, enough, weights, byState, whole ? Infinity : h);
+      const q = kernelQuantilesWithin(whole ? Infinity : h, { sorted, states }, at * step, levels, h, enough, weights, byState);
       if (q === null) return null;
       atGrid.set(at, q);
     }

@@ -50,23 +50,15 @@ export function kernelConditionalQuantiles(
   weights: Float64Array,
   byState?: StateCells,
 ): number[] {
-  return kernelQuantilesWithin(sample, target, levels, bandwidth, minEffective, weights, byState, Infinity) as number[];
+  return kernelQuantilesWithin(Infinity, sample, target, levels, bandwidth, minEffective, weights, byState) as number[];
 }
 
 /**
  * {@link kernelConditionalQuantiles}, or null when the bandwidth would have to be widened past `widest`: for a
  * sample that holds only the values within `widest` of the target (those beyond have no weight up to it).
  */
-export function kernelQuantilesWithin(
-  sample: { readonly sorted: ArrayLike<number>; readonly states: ArrayLike<number> },
-  target: number,
-  levels: readonly number[],
-  bandwidth: number,
-  minEffective: number,
-  weights: Float64Array,
-  byState: StateCells | undefined,
-  widest: number,
-): number[] | null {
+export function kernelQuantilesWithin(widest: number, ...args: Parameters<typeof kernelConditionalQuantiles>): number[] | null {
+  const [sample, target, levels, bandwidth, minEffective, weights, byState] = args;
   const n = sample.sorted.length;
   const enough = Math.min(minEffective, n);
   if (positions.length < n) positions = new Int32Array(n);
