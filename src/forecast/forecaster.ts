@@ -454,7 +454,7 @@ export class Forecaster {
         const features = calibration.map((c, d) => this.spreadFeatureRows.of(c.exogenous, forecastsOnScale[d] as Float64Array, asinh));
         const kept = { order: this.poolOrder(model, calibrationDays, 'standardised'), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) };
         spreadModel ??= refitSpreadModel ?? this.keptSpreadModel(calibrationDays, view.target.dayNumber, fitSpreadModel({ errors, features }, centre.length));
-        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre, asinh), { errors, features }, at, this.options.spreadPool, kept, spreadModel);
+        grid = driverSpreadQuantiles(centre, spreadFeatures(view.target.exogenous, centre, asinh), { errors, features, rows: this.spreadFeatureRows }, at, this.options.spreadPool, kept, spreadModel);
       } else {
         grid = historicalSimulation(centre, errors, at, { order: this.poolOrder(model, calibrationDays), dayIds: Int32Array.from(calibration, (c) => c.dayNumber) });
       }

@@ -41,6 +41,25 @@ describe('AscendingRows', () => {
     );
   });
 
+  it('reads a Float64Array view in place as it reads a plain array of the same numbers: -0, tiny negatives, infinities, NaN, a view at an offset (fast-check)', () => {
+    const sorter = new AscendingRows();
+    const value = fc.oneof(
+      fc.double({ noNaN: true }),
+      fc.constantFrom(0, -0, -Number.MIN_VALUE, -(2 ** -1043), -(2 ** -1042), Infinity, -Infinity, NaN),
+      fc.integer({ min: -3, max: 3 }),
+    );
+    fc.assert(
+      fc.property(fc.array(value, { maxLength: 200 }), fc.integer({ min: 0, max: 5 }), (values, offset) => {
+        const holder = new Float64Array(offset + values.length + 2).fill(7);
+        holder.set(values, offset);
+        const view = holder.subarray(offset, offset + values.length);
+        const plain = Array.from(sorter.of(Array.from(view)));
+        expect(Array.from(sorter.of(view))).toEqual(plain);
+      }),
+      { seed: 42, numRuns: 400 },
+    );
+  });
+
   it('sorts 35,000 continuous values as the comparison sort does (the size of a 364-day pool at 15 minutes)', () => {
     let seed = 12345;
     const next = () => (seed = (seed * 48271) % 2147483647) / 2147483647;

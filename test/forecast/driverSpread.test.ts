@@ -146,6 +146,20 @@ describe('driver spread quantiles (Harvey 1976 spread regression; filtered histo
     expect(first[6 * 1 + 3]).toBeCloseTo(Math.sin((4 * Math.PI) / S), 15);
   });
 
+  it('SpreadFeatureRows.fixedSums: features handed out by one object, a regression kept over days whose centres move, the same quantiles bit for bit as without it (every pool)', () => {
+    const rows = new SpreadFeatureRows();
+    const exogenous = Array.from({ length: DAYS }, (_, d) => [slots((s) => exog(d, s))]);
+    const refit = fitSpreadModel(calibrationZ, S);
+    for (const pool of ['all', 'slot', 'level'] as const) {
+      for (const shift of [0, 0.4, -0.7, 0.4]) {
+        const features = exogenous.map((x, d) => rows.of(x, slots((s) => centreZ(d, s) + shift), true));
+        const kept = driverSpreadQuantiles(targetCentreZ, targetFeaturesZ, { errors: calibration.errors, features, rows }, LEVELS, pool, undefined, refit);
+        const fresh = driverSpreadQuantiles(targetCentreZ, targetFeaturesZ, { errors: calibration.errors, features }, LEVELS, pool, undefined, refit);
+        expect(kept.every((row, s) => row.every((v, k) => Object.is(v, fresh[s]![k])))).toBe(true);
+      }
+    }
+  });
+
   it('scales with the errors: doubling every error doubles the distance of each quantile from the centre (log-linear spread)', () => {
     const doubled = { ...calibration, errors: calibration.errors.map((e) => e.map((v) => 2 * v)) };
     const base = driverSpreadQuantiles(targetCentre, targetFeatures, calibration, LEVELS, 'all');

@@ -1,6 +1,7 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { driverSpreadQuantiles, spreadFeatures } from '../../src/forecast/quantiles/driverSpread.js';
+import { driverSpreadQuantiles, fitSpreadModel, spreadFeatures, type SpreadCalibration } from '../../src/forecast/quantiles/driverSpread.js';
+import { predictLinear, type LinearModel } from '../../src/forecast/linalg/linearModel.js';
 import { kernelConditionalQuantiles, StateCells } from '../../src/forecast/quantiles/kernelConditionalQuantiles.js';
 import { sortedQuantile } from '../../src/forecast/quantiles/sortedQuantile.js';
 import { seededNormal, seededRandom } from './seededRandom.js';
@@ -172,6 +173,124 @@ describe("driver spread quantiles with the 'level' pool", () => {
   });
 });
 
+/**
+ * The 'level' pool as driverSpreadQuantiles' header states it, over the whole pool: every error divided by
+ * exp of its fitted log spread (predictLinear on its features), sorted (ties by row), its state the centre
+ * column over the centres' standard deviation (population), kernel quantiles at the grid states g / 8 around
+ * each slot's centre interpolated linearly, scaled by the day's spread kept within the fitted range.
+ */
+function wholeLevelPool(centre: Float64Array, targetFeatures: Float64Array, calibration: SpreadCalibration, levels: readonly number[], model: LinearModel): number[][] {
+  const slotsPerDay = centre.length;
+  const m = targetFeatures.length / slotsPerDay;
+  const u: number[] = [];
+  const x: number[] = [];
+  let low = Infinity;
+  let high = -Infinity;
+  calibration.features.forEach((f, d) => {
+    for (let s = 0; s < slotsPerDay; s++) {
+      const v = predictLinear(model, f.subarray(s * m, (s + 1) * m));
+      low = Math.min(low, v);
+      high = Math.max(high, v);
+      u.push((calibration.errors[d]![s] as number) / Math.exp(v));
+      x.push(f[s * m + m - 2]!);
+    }
+  });
+  const mean = x.reduce((a, b) => a + b, 0) / x.length;
+  const sd = Math.sqrt(Math.max(x.reduce((a, b) => a + b * b, 0) / x.length - mean * mean, 0));
+  const perSd = sd > 0 ? 1 / sd : 1;
+  const sample = statedSample(u, x.map((v) => v * perSd));
+  const weights = new Float64Array(u.length);
+  const at = (g: number) => kernelConditionalQuantiles(sample, g * 0.125, levels, 0.5, 500, weights);
+  return Array.from(centre, (c, s) => {
+    const spread = Math.exp(Math.min(high, Math.max(low, predictLinear(model, targetFeatures.subarray(s * m, (s + 1) * m)))));
+    const t = (c * perSd) / 0.125;
+    const g = Math.floor(t);
+    const lambda = t - g;
+    const below = at(g);
+    const above = lambda > 0 ? at(g + 1) : below;
+    return below.map((v, k) => c + spread * ((1 - lambda) * v + lambda * above[k]!));
+  });
+}
+
+describe("the 'level' pool from the errors within the day's reach", () => {
+  it('gives the quantiles of the whole pool bit for bit: a day over part of the states, and one with a slot so far out that its kernel widens', () => {
+    const normal = seededNormal(23);
+    const days = 80;
+    const slots48 = (f: (s: number) => number) => Float64Array.from({ length: 48 }, (_, s) => f(s));
+    const level = (d: number, s: number) => 1.5 * Math.sin((2 * Math.PI * d) / 40) + 0.5 * Math.sin((2 * Math.PI * s) / 48);
+    const calibration = {
+      errors: Array.from({ length: days }, (_, d) => slots48((s) => normal() * (1 + 0.4 * Math.abs(level(d, s))))),
+      features: Array.from({ length: days }, (_, d) => spreadFeatures([slots48((s) => 20 + level(d, s) + 0.3 * normal())], slots48((s) => level(d, s)), true)),
+    };
+    const model = fitSpreadModel(calibration, 48);
+    // Centres over a quarter of the pool's span; then the same with one slot beyond every centre seen.
+    const narrow = slots48((s) => 0.6 + 0.2 * Math.sin((2 * Math.PI * s) / 48));
+    const far = narrow.map((v, s) => (s === 10 ? 4.5 : v));
+    for (const centre of [narrow, far]) {
+      const features = spreadFeatures([slots48(() => 21)], centre, true);
+      const got = driverSpreadQuantiles(centre, features, calibration, LEVELS, 'level', undefined, model);
+      const want = wholeLevelPool(centre, features, calibration, LEVELS, model);
+      expect(got.every((row, s) => row.every((v, k) => Object.is(v, want[s]![k])))).toBe(true);
+    }
+  });
+});
+
+/**
+ * The weighted definition 7 as the module's header states it (Hyndman and Fan 1996, carried over to
+ * weights), written out plainly: every value of positive weight at the level p_j = (C_j - w_j) / (C_(n-1) -
+ * w_(n-1)), each tau read between the two levels around it. No widening: the target state is among the
+ * states, so minEffective 1 is met at once.
+ */
+function definitionSeven(sample: { sorted: Float64Array; states: Float64Array }, target: number, levels: readonly number[], h: number): number[] {
+  const values: number[] = [];
+  const cumulative: number[] = [];
+  const weights: number[] = [];
+  let total = 0;
+  sample.states.forEach((x, i) => {
+    const w = 1 - (x - target) * (x - target) * (1 / (h * h));
+    if (!(w > 0)) return;
+    values.push(sample.sorted[i]!);
+    weights.push(w);
+    cumulative.push(total);
+    total += w;
+  });
+  const span = total - weights[weights.length - 1]!;
+  const last = values[values.length - 1]!;
+  if (span <= 0) return levels.map(() => last);
+  return levels.map((tau) => {
+    const j = cumulative.findIndex((c) => tau <= c / span);
+    if (j < 0) return last;
+    if (j === 0) return values[0]!;
+    const p = cumulative[j - 1]! / span;
+    const q = cumulative[j]! / span;
+    return Math.min(values[j]!, values[j - 1]! + ((tau - p) / (q - p)) * (values[j]! - values[j - 1]!));
+  });
+}
+
+describe('kernelConditionalQuantiles against the definition', () => {
+  it('gives the numbers of the weighted definition 7 written out, bit for bit, also at levels that are exactly a value\'s level (fast-check: ties, equal weights)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.oneof(fc.double({ min: -50, max: 50, noNaN: true }), fc.constantFrom(0, 1, 2)), fc.oneof(fc.double({ min: -2, max: 2, noNaN: true }), fc.constant(0))), { minLength: 1, maxLength: 60 }),
+        fc.double({ min: 0.05, max: 3, noNaN: true }),
+        fc.boolean(),
+        (pairs, h, equalWeights) => {
+          // Equal weights (every state at the target): the levels j / (n - 1) are hit exactly, and it is definition 7 itself.
+          const states = equalWeights ? pairs.map(() => 0) : [0, ...pairs.slice(1).map((p) => p[1])];
+          const sample = statedSample(pairs.map((p) => p[0]), states);
+          const n = pairs.length;
+          const onValues = Array.from({ length: n }, (_, j) => (n > 1 ? j / (n - 1) : 0));
+          const levels = [...new Set([0, 0.05, 0.25, 0.5, 0.75, 0.95, 1, ...onValues])].sort((a, b) => a - b);
+          const got = kernelConditionalQuantiles(sample, 0, levels, h, 1, new Float64Array(n));
+          expect(got).toEqual(definitionSeven(sample, 0, levels, h));
+          if (equalWeights) levels.forEach((tau, k) => expect(got[k]).toBeCloseTo(sortedQuantile(sample.sorted, tau), 9));
+        },
+      ),
+      { seed: 17, numRuns: 400 },
+    );
+  });
+});
+
 describe('kernelConditionalQuantiles over the cells of the states (StateCells)', () => {
   it('gives the same numbers, bit for bit, as the pass over every value (fast-check: states far beyond the cells, equal states, any bandwidth)', () => {
     const cells = new StateCells();
@@ -198,6 +317,28 @@ describe('kernelConditionalQuantiles over the cells of the states (StateCells)',
         },
       ),
       { seed: 16, numRuns: 400 },
+    );
+  });
+
+  it('gives the same numbers for target after target on one StateCells, the reach moving by any number of cells (fast-check)', () => {
+    const cells = new StateCells();
+    fc.assert(
+      fc.property(
+        fc.array(fc.tuple(fc.double({ min: -50, max: 50, noNaN: true }), fc.oneof(fc.double({ min: -4, max: 4, noNaN: true }), fc.constantFrom(0, 1e4, NaN))), { minLength: 1, maxLength: 80 }),
+        fc.array(fc.integer({ min: -60, max: 60 }), { minLength: 1, maxLength: 12 }),
+        fc.double({ min: 0.01, max: 3, noNaN: true }),
+        fc.integer({ min: 1, max: 100 }),
+        (pairs, grid, h, minEffective) => {
+          const sample = statedSample(pairs.map((p) => p[0]), pairs.map((p) => p[1]));
+          const levels = [0.05, 0.5, 0.95];
+          cells.build(sample.states, 0.03125);
+          for (const g of grid) {
+            const plain = kernelConditionalQuantiles(sample, g * 0.125, levels, h, minEffective, new Float64Array(pairs.length));
+            expect(kernelConditionalQuantiles(sample, g * 0.125, levels, h, minEffective, new Float64Array(pairs.length), cells)).toEqual(plain);
+          }
+        },
+      ),
+      { seed: 18, numRuns: 300 },
     );
   });
 

@@ -42,17 +42,24 @@ export class AscendingRows {
     let keys = this.keys;
     let rows = this.rows;
     // The keys (the high word of a Float64Array's two on a little-endian machine, as every platform Node
-    // runs on is) and the three digits' counts in one pass.
+    // runs on is) and the three digits' counts in one pass. A Float64Array's words are read in place, but
+    // for -0 (high word 0x80000000, as have the negative values below 2^-1042) and an infinity or NaN, which
+    // are taken through `bits` as any other array's values: -0 + 0 is +0, so the two zeros share a key.
+    const inPlace = values instanceof Float64Array ? new Uint32Array(values.buffer, values.byteOffset, 2 * n) : null;
     for (let row = 0; row < n; row++) {
-      bits[0] = (values[row] as number) + 0; // -0 + 0 is +0: the two zeros share a key
-      const high = words[HIGH] as number;
+      let high = inPlace === null ? SPECIAL : (inPlace[2 * row + HIGH] as number);
+      if (high === 0x80000000 || (high & 0x7ff00000) === 0x7ff00000) {
+        bits[0] = (values[row] as number) + 0;
+        high = words[HIGH] as number;
+      }
       const key = high >= 0x80000000 ? ~high >>> 0 : (high | 0x80000000) >>> 0;
       keys[row] = key;
-      rows[row] = row;
       bump(counts, key & 2047);
       bump(counts, RADIX + ((key >>> 11) & 2047));
       bump(counts, 2 * RADIX + (key >>> 22));
     }
+    // The rows are 0, 1, ... until the first pass that moves them (which reads them as such).
+    let identity = true;
     let keysOut = this.keysOut;
     let rowsOut = this.rowsOut;
     for (let p = 0; p < 3; p++) {
@@ -73,11 +80,13 @@ export class AscendingRows {
         const at = counts[b] as number;
         counts[b] = at + 1;
         keysOut[at] = key;
-        rowsOut[at] = rows[j] as number;
+        rowsOut[at] = identity ? j : (rows[j] as number);
       }
+      identity = false;
       [keys, keysOut] = [keysOut, keys];
       [rows, rowsOut] = [rowsOut, rows];
     }
+    if (identity) for (let row = 0; row < n; row++) rows[row] = row;
     // Straight insertion by (value, row) within each run of equal keys (runs are already in order).
     for (let j = 1; j < n; j++) {
       const key = keys[j] as number;
@@ -110,5 +119,7 @@ function bump(counts: Int32Array, at: number): void {
 }
 
 const RADIX = 2048;
+/** A high word that sends a value through `bits` (that of an infinity or NaN). */
+const SPECIAL = 0x7ff00000;
 /** Which of a Float64Array's two Uint32 words is the high one (little-endian: the second). */
 const HIGH = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0;

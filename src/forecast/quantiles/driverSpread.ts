@@ -5,7 +5,7 @@ import { ScratchBuffers } from '../scratchBuffers.js';
 import { selectInPlace } from '../models/robustAsinh.js';
 import type { PoolOrder } from './poolOrder.js';
 import { sortedQuantile } from './sortedQuantile.js';
-import { kernelConditionalQuantiles, StateCells } from './kernelConditionalQuantiles.js';
+import { kernelQuantilesWithin, StateCells } from './kernelConditionalQuantiles.js';
 import { AscendingRows } from './ascendingRows.js';
 
 /** Calibration data of {@link driverSpreadQuantiles}: per calibration day, its errors and spread features. */
@@ -14,6 +14,11 @@ export interface SpreadCalibration {
   readonly errors: readonly ArrayLike<number>[];
   /** features[d]: the day's spread features, S x m row-major (see {@link spreadFeatures}). */
   readonly features: readonly Float64Array[];
+  /**
+   * The SpreadFeatureRows that handed out every array of `features`, if one did: the sums of their columns that
+   * do not change between its calls are then kept per spread regression (speed only, the same quantiles).
+   */
+  readonly rows?: SpreadFeatureRows;
 }
 
 /**
@@ -102,6 +107,41 @@ export class SpreadFeatureRows {
     }
     return out;
   }
+
+  private readonly sums = new WeakMap<LinearModel, WeakMap<Float64Array, Float64Array>>();
+
+  /**
+   * Per slot of an array `of` handed out (S x m), the intercept of `model` plus its terms of the columns
+   * `of` never writes again (the time of day and the drivers, 0 .. m - 3), added in the order of
+   * predictLinear: the first part of that sum, the same number whatever the centre column holds now. Kept
+   * by model and array (a refit day's spread regression serves the days until the next refit).
+   */
+  fixedSums(model: LinearModel, features: Float64Array, m: number): Float64Array {
+    let byFeatures = this.sums.get(model);
+    if (byFeatures === undefined) {
+      byFeatures = new WeakMap();
+      this.sums.set(model, byFeatures);
+    }
+    let out = byFeatures.get(features);
+    if (out === undefined) {
+      out = this.place(features.length / m);
+      for (let s = 0; s < out.length; s++) out[s] = rowSum(model, features, s * m, 0, m - 2, model.intercept);
+      byFeatures.set(features, out);
+    }
+    return out;
+  }
+
+  /** A view of `length` values of a block shared by many (a typed array of its own per day costs an allocation outside the heap each). */
+  private place(length: number): Float64Array {
+    if (this.block.length - this.used < length) {
+      this.block = new Float64Array(256 * length);
+      this.used = 0;
+    }
+    return this.block.subarray(this.used, (this.used += length));
+  }
+
+  private block = new Float64Array(0);
+  private used = 0;
 }
 
 /** Per S, cos and sin of 2 pi s / S and of twice that angle, 4 S values (computed once: the same for every day). */
@@ -173,26 +213,31 @@ export function driverSpreadQuantiles(
   const days = calibration.errors.length;
   const m = targetFeatures.length / S;
   const n = days * S;
-  const design = calibrationDesign(calibration, S, m);
-  const model = spreadModel ?? fitOnDesign(calibration, design, S, m);
-  // Scratch space reused from call to call (every value read is written first): the fitted log spreads and the standardised errors.
-  const fitted = scratchBuffers.get(2, n);
-  const work = scratchBuffers.get(3, n);
+  const model = spreadModel ?? fitOnDesign(calibration, calibrationDesign(calibration, S, m), S, m);
+  // Scratch space reused from call to call (every value read is written first): the fitted log spreads and the
+  // calibration days' point forecasts (the features' centre column, m - 2), read from each day's features.
+  const fitted = scratchBuffers.get(7, n);
+  const centres = scratchBuffers.get(2, n);
   let low = Infinity;
   let high = -Infinity;
-  for (let i = 0; i < n; i++) {
-    const v = predictRow(model, design, i * m, m);
-    fitted[i] = v;
-    low = Math.min(low, v);
-    high = Math.max(high, v);
+  for (let d = 0; d < days; d++) {
+    const features = calibration.features[d] as Float64Array;
+    const fixed = calibration.rows?.fixedSums(model, features, m);
+    for (let s = 0; s < S; s++) {
+      const v = fixed === undefined ? predictRow(model, features, s * m, m) : rowSum(model, features, s * m, m - 2, m, fixed[s] as number);
+      low = Math.min(low, v);
+      high = Math.max(high, v);
+      fitted[d * S + s] = v;
+      centres[d * S + s] = features[s * m + m - 2] as number;
+    }
   }
-  const standardised = work;
+  const spread = Float64Array.from({ length: S }, (_, s) => Math.exp(Math.min(high, Math.max(low, predictRow(model, targetFeatures, s * m, m)))));
+  if (pool === 'level') return levelPoolGrid(centre, spread, calibration.errors, fitted, centres, levels);
+  const standardised = scratchBuffers.get(3, n);
   for (let d = 0; d < days; d++) {
     const e = calibration.errors[d] as ArrayLike<number>;
     for (let s = 0; s < S; s++) standardised[d * S + s] = (e[s] as number) / Math.exp(fitted[d * S + s] as number);
   }
-  const spread = Float64Array.from({ length: S }, (_, s) => Math.exp(Math.min(high, Math.max(low, predictRow(model, targetFeatures, s * m, m)))));
-  if (pool === 'level') return levelPoolGrid(centre, spread, standardised.subarray(0, n), design, m, levels);
   const quantilesOf = (sorted: Float64Array): number[] => levels.map((tau) => sortedQuantile(sorted, tau));
   const pooled = pool === 'all' ? quantilesOf(Float64Array.from(standardised).sort()) : null;
   const slotSample = new Float64Array(days);
@@ -258,62 +303,131 @@ const ascendingRows = new AscendingRows();
 const stateCells = new StateCells();
 
 /**
- * The grid of the 'level' pool: every standardised error in ascending order (ties by row), with its
- * point forecast (the design's centre column, m - 2) in standard deviations of those forecasts; per slot,
+ * The grid of the 'level' pool: every standardised error e / exp(fitted) in ascending order (ties by row), with its
+ * point forecast (`centres`, the features' centre column m - 2) in standard deviations of those forecasts; per slot,
  * the kernel conditional quantiles at the slot's own centre (interpolated on the grid of LEVEL_POOL),
  * scaled by its spread. A convex combination of two non-decreasing rows does not decrease.
+ *
+ * Errors whose state no grid state of the day reaches at the first bandwidth get no weight from any kernel
+ * unless one widens it: the grid is first made from the errors within that reach alone (their order and
+ * sums those of the whole pool without the terms of weight 0, so the same quantiles), and from every error
+ * when a grid state would widen. The reach is taken 2^-20 of a bandwidth wider against rounding.
  */
-function levelPoolGrid(centre: ArrayLike<number>, spread: Float64Array, standardised: Float64Array, design: Float64Array, m: number, levels: readonly number[]): number[][] {
-  const n = standardised.length;
+function levelPoolGrid(
+  centre: ArrayLike<number>,
+  spread: Float64Array,
+  errors: readonly ArrayLike<number>[],
+  fitted: Float64Array,
+  centres: Float64Array,
+  levels: readonly number[],
+): number[][] {
+  const n = fitted.length;
+  const S = centre.length;
   let sum = 0;
   let squares = 0;
   for (let i = 0; i < n; i++) {
-    const x = design[i * m + m - 2] as number;
+    const x = centres[i] as number;
     sum += x;
     squares += x * x;
   }
   const mean = sum / n;
   const sd = Math.sqrt(Math.max(squares / n - mean * mean, 0));
   const perSd = sd > 0 ? 1 / sd : 1;
-  // The rows in ascending order of their standardised errors, ties by row (a radix sort: linear in the rows).
-  const order = ascendingRows.of(standardised);
-  const sorted = scratchBuffers.get(4, n);
-  const states = scratchBuffers.get(5, n);
-  for (let j = 0; j < n; j++) {
-    const row = order[j] as number;
-    sorted[j] = standardised[row] as number;
-    states[j] = (design[row * m + m - 2] as number) * perSd;
-  }
-  const weights = scratchBuffers.get(6, n);
-  // The conditional quantiles at the grid states g * step, each computed once, interpolated linearly in between;
-  // the positions grouped by their states in cells a quarter of a step wide, for the kernel to visit only those within
-  // its reach (narrower cells visit fewer values beyond it: 0.97x the CPU of a step's width over driver-fhs's year).
-  const step = LEVEL_POOL.bandwidthSd * LEVEL_POOL.gridStep;
-  const byState = stateCells.build(states, step / 4);
-  const atGrid = new Map<number, number[]>();
-  const gridQuantiles = (g: number): number[] => {
-    let q = atGrid.get(g);
-    if (q === undefined) {
-      q = kernelConditionalQuantiles({ sorted, states }, g * step, levels, LEVEL_POOL.bandwidthSd, LEVEL_POOL.minEffective, weights, byState);
-      atGrid.set(g, q);
-    }
-    return q;
-  };
-  return Array.from({ length: centre.length }, (_, s) => {
+  // The grid states g * step, each computed once, interpolated linearly in between: per slot, the two around its centre.
+  const { bandwidthSd: h, minEffective, gridStep } = LEVEL_POOL;
+  const step = h * gridStep;
+  const cells = Array.from({ length: S }, (_, s) => {
     const t = ((centre[s] as number) * perSd) / step;
     const g = Math.floor(t);
-    const lambda = t - g;
-    const below = gridQuantiles(g);
-    const above = lambda > 0 ? gridQuantiles(g + 1) : below;
+    return { g, lambda: t - g };
+  });
+  let first = Infinity;
+  let last = -Infinity;
+  for (const { g, lambda } of cells) {
+    first = Math.min(first, g);
+    last = Math.max(last, lambda > 0 ? g + 1 : g);
+  }
+  const reach = h * (1 + 2 ** -20);
+  const atGrid = gridWithin(errors, fitted, centres, perSd, cells, first * step - reach, last * step + reach, Math.min(minEffective, n), levels) ??
+    (gridWithin(errors, fitted, centres, perSd, cells, -Infinity, Infinity, Math.min(minEffective, n), levels) as Map<number, number[]>);
+  return cells.map(({ g, lambda }, s) => {
+    const below = atGrid.get(g) as number[];
+    const above = lambda > 0 ? (atGrid.get(g + 1) as number[]) : below;
     return below.map((v, k) => (centre[s] as number) + (spread[s] as number) * ((1 - lambda) * v + lambda * (above[k] as number)));
   });
 }
 
+/**
+ * The kernel conditional quantiles at the grid states of `cells` (g and, where lambda > 0, g + 1), from the
+ * standardised errors whose state (centre / sd) lies in [from, to] (every error: -Infinity, Infinity); null when
+ * they are too few or a grid state would widen the bandwidth (then only the whole pool gives its quantiles).
+ */
+function gridWithin(
+  errors: readonly ArrayLike<number>[],
+  fitted: Float64Array,
+  centres: Float64Array,
+  perSd: number,
+  cells: readonly { readonly g: number; readonly lambda: number }[],
+  from: number,
+  to: number,
+  enough: number,
+  levels: readonly number[],
+): Map<number, number[]> | null {
+  const n = fitted.length;
+  const S = cells.length;
+  const whole = from === -Infinity && to === Infinity;
+  // The errors kept, in row order: their standardised values and states.
+  const values = scratchBuffers.get(3, n);
+  const rowStates = scratchBuffers.get(8, n);
+  let kept = 0;
+  for (let d = 0; d < errors.length; d++) {
+    const e = errors[d] as ArrayLike<number>;
+    for (let s = 0; s < S; s++) {
+      const i = d * S + s;
+      const x = (centres[i] as number) * perSd;
+      if (!whole && !(x >= from && x <= to)) continue;
+      values[kept] = (e[s] as number) / Math.exp(fitted[i] as number);
+      rowStates[kept++] = x;
+    }
+  }
+  if (kept < enough) return null;
+  // The rows in ascending order of their standardised errors, ties by row (a radix sort: linear in the rows).
+  const order = ascendingRows.of(values.subarray(0, kept));
+  const sorted = scratchBuffers.get(4, kept);
+  const states = scratchBuffers.get(5, kept);
+  for (let j = 0; j < kept; j++) {
+    const row = order[j] as number;
+    sorted[j] = values[row] as number;
+    states[j] = rowStates[row] as number;
+  }
+  const weights = scratchBuffers.get(6, kept);
+  // The positions grouped by their states in cells a quarter of a step wide, for the kernel to visit only those within
+  // its reach (narrower cells visit fewer values beyond it: 0.97x the CPU of a step's width over driver-fhs's year).
+  const { bandwidthSd: h, gridStep } = LEVEL_POOL;
+  const step = h * gridStep;
+  const byState = stateCells.build(states, step / 4);
+  const atGrid = new Map<number, number[]>();
+  for (const { g, lambda } of cells) {
+    for (const at of lambda > 0 ? [g, g + 1] : [g]) {
+      if (atGrid.has(at)) continue;
+      const q = kernelQuantilesWithin(whole ? Infinity : h, { sorted, states }, at * step, levels, h, enough, weights, byState);
+      if (q === null) return null;
+      atGrid.set(at, q);
+    }
+  }
+  return atGrid;
+}
+
 /** predictLinear(model, data[at .. at + m - 1]), the same sum in the same order, without a view of the row. */
 function predictRow(model: LinearModel, data: Float64Array, at: number, m: number): number {
-  let s = model.intercept;
+  return rowSum(model, data, at, 0, m, model.intercept);
+}
+
+/** `start` plus the terms from..to - 1 of predictLinear's sum over the row at `at`, added in its order. */
+function rowSum(model: LinearModel, data: Float64Array, at: number, from: number, to: number, start: number): number {
+  let s = start;
   const b = model.coefficients;
-  for (let j = 0; j < m; j++) s += (b[j] as number) * (data[at + j] as number);
+  for (let j = from; j < to; j++) s += (b[j] as number) * (data[at + j] as number);
   return s;
 }
 

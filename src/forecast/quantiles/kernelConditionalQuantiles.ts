@@ -35,8 +35,8 @@
  * @param levels levels in [0, 1], ascending
  * @param bandwidth h > 0, on the scale of the states
  * @param minEffective the fewest effective values (>= 1) before the bandwidth is widened
- * @param weights scratch space of at least sample.sorted.length values (overwritten: the weights of the values
- *   of positive weight, in order)
+ * @param weights scratch space of at least sample.sorted.length values (overwritten: the cumulative weights
+ *   C_(j-1) of the values of positive weight, in order)
  * @param byState optional, the same quantiles faster for many targets on one sample: its positions grouped by
  *   the cells of their states ({@link StateCells}, built on sample.states)
  * @returns one quantile per level, non-decreasing
@@ -50,13 +50,26 @@ export function kernelConditionalQuantiles(
   weights: Float64Array,
   byState?: StateCells,
 ): number[] {
+  return kernelQuantilesWithin(Infinity, sample, target, levels, bandwidth, minEffective, weights, byState) as number[];
+}
+
+/**
+ * {@link kernelConditionalQuantiles}, or null when the bandwidth would have to be widened past `widest`: for a
+ * sample that holds only the values within `widest` of the target (those beyond have no weight up to it).
+ */
+export function kernelQuantilesWithin(widest: number, ...args: Parameters<typeof kernelConditionalQuantiles>): number[] | null {
+  const [sample, target, levels, bandwidth, minEffective, weights, byState] = args;
   const n = sample.sorted.length;
   const enough = Math.min(minEffective, n);
   if (positions.length < n) positions = new Int32Array(n);
-  // The values of positive weight, in ascending order: their positions in the sample and (in `weights`) their weights.
+  const at = positions;
+  const states = sample.states;
+  // The values of positive weight, in ascending order: their positions in the sample and (in `weights`) the sums
+  // of the weights before each, C_(j-1), added up in that order; `last` is the last one's weight.
   let count = 0;
   let h = bandwidth;
   let total = 0;
+  let last = 0;
   for (;;) {
     const inverse = 1 / (h * h);
     let squares = 0;
@@ -67,66 +80,64 @@ export function kernelConditionalQuantiles(
     // rounding), then visited in ascending position: the weights are the same numbers, summed in the same
     // order, whichever values were marked.
     const words = (n + 31) >>> 5;
-    if (marks.length < words) marks = new Int32Array(words);
-    let firstWord = 0;
-    let lastWord = words - 1;
+    let marked: Int32Array;
     if (byState === undefined) {
-      marks.fill(-1, 0, words);
-      if ((n & 31) !== 0) marks[words - 1] = (1 << (n & 31)) - 1;
+      if (everything.length < words) everything = new Int32Array(words);
+      everything.fill(-1, 0, words);
+      if ((n & 31) !== 0) everything[words - 1] = (1 << (n & 31)) - 1;
+      marked = everything;
     } else {
-      const from = byState.starts[Math.max(0, byState.cellOf(target - h) - 1)] as number;
-      const to = byState.starts[Math.min(2 * CELLS, byState.cellOf(target + h) + 2)] as number;
-      firstWord = words;
-      lastWord = -1;
-      for (let j = from; j < to; j++) {
-        const i = byState.positions[j] as number;
-        const word = i >>> 5;
-        marks[word] = (marks[word] as number) | (1 << (i & 31));
-        firstWord = Math.min(firstWord, word);
-        lastWord = Math.max(lastWord, word);
-      }
+      marked = byState.marked(Math.max(0, byState.cellOf(target - h) - 1), Math.min(2 * CELLS, byState.cellOf(target + h) + 2));
     }
-    for (let word = firstWord; word <= lastWord; word++) {
-      let bits = marks[word] as number;
-      marks[word] = 0;
+    for (let word = 0; word < words; word++) {
+      let bits = marked[word] as number;
       while (bits !== 0) {
         const i = (word << 5) + 31 - Math.clz32(bits & -bits);
         bits &= bits - 1;
-        const d = (sample.states[i] as number) - target;
+        const d = (states[i] as number) - target;
         const w = 1 - d * d * inverse;
         if (w > 0) {
-          weights[count] = w;
-          positions[count++] = i;
+          weights[count] = total;
+          at[count++] = i;
           total += w;
           squares += w * w;
+          last = w;
         }
       }
     }
     // A bandwidth of 2^40 times the first reaches every finite state: stop there whatever the count.
     if ((total > 0 && (total * total) / squares >= enough) || h > bandwidth * 2 ** 40) break;
+    if (2 * h > widest) return null;
     h *= 2;
   }
   const lastValue = sample.sorted[positions[count - 1] as number] as number;
-  const span = total - (weights[count - 1] as number);
+  const span = total - last;
   const out = new Array<number>(levels.length);
   // One value of positive weight: every quantile is that value.
   if (span <= 0) return out.fill(lastValue);
+  // The value v_j sits at the level p_j = C_(j-1) / span, non-decreasing in j (so is rounding): each tau's first
+  // j with tau <= p_j, at or after the last tau's, is found by bisection, where a walk over every j finds the same.
+  const sorted = sample.sorted;
   let k = 0;
-  let before = 0;
-  let previousLevel = 0;
-  let previousValue = NaN;
-  for (let j = 0; j < count && k < levels.length; j++) {
-    const level = before / span;
-    const value = sample.sorted[positions[j] as number] as number;
-    while (k < levels.length && (levels[k] as number) <= level) {
-      const tau = levels[k] as number;
-      // At or below the first level (0) the first value; else linear between the two levels around tau,
-      // kept at most `value` (p + 1 (v - p) can round past v).
-      out[k++] = Number.isNaN(previousValue) ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
+  let from = 0;
+  for (; k < levels.length; k++) {
+    const tau = levels[k] as number;
+    let lo = from;
+    let hi = count;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      if (tau <= (weights[mid] as number) / span) hi = mid;
+      else lo = mid + 1;
     }
-    previousLevel = level;
-    previousValue = value;
-    before += weights[j] as number;
+    if (lo === count) break;
+    const level = (weights[lo] as number) / span;
+    const value = sorted[positions[lo] as number] as number;
+    // At or below the first level (0) the first value; else linear between the two levels around tau,
+    // kept at most `value` (p + 1 (v - p) can round past v).
+    const previousValue = lo === 0 ? NaN : (sorted[positions[lo - 1] as number] as number);
+    const previousLevel = lo === 0 ? 0 : (weights[lo - 1] as number) / span;
+    out[k] = Number.isNaN(previousValue) ? value : Math.min(value, previousValue + ((tau - previousLevel) / (level - previousLevel)) * (value - previousValue));
+    from = lo;
   }
   while (k < levels.length) out[k++] = lastValue;
   return out;
@@ -145,6 +156,10 @@ export class StateCells {
   readonly starts = new Int32Array(2 * CELLS + 1);
   private cells = new Int32Array(0);
   width = 1;
+  /** One bit per position: those of the cells [markedFrom, markedTo) (see {@link marked}). */
+  private marks = new Int32Array(0);
+  private markedFrom = 0;
+  private markedTo = 0;
 
   /** Groups states[0 .. n - 1] into cells `width` wide (width > 0). */
   build(states: ArrayLike<number>, width: number): this {
@@ -153,12 +168,13 @@ export class StateCells {
       this.cells = new Int32Array(Math.max(n, Math.ceil(1.25 * this.cells.length)));
       this.positions = new Int32Array(this.cells.length);
     }
-    const { cells, starts } = this;
+    const { cells, starts, positions } = this;
     this.width = width;
     starts.fill(0);
     for (let i = 0; i < n; i++) {
       const x = states[i] as number;
-      const c = Number.isFinite(x) ? this.cellOf(x) : -1;
+      // cellOf(x), written out
+      const c = Number.isFinite(x) ? Math.max(0, Math.min(2 * CELLS - 1, Math.floor(x / width) + CELLS)) : -1;
       cells[i] = c;
       if (c >= 0) starts[c + 1] = (starts[c + 1] as number) + 1;
     }
@@ -168,12 +184,46 @@ export class StateCells {
       const c = cells[i] as number;
       if (c < 0) continue;
       const at = starts[c] as number;
-      this.positions[at] = i;
+      positions[at] = i;
       starts[c] = at + 1;
     }
     for (let c = 2 * CELLS - 1; c > 0; c--) starts[c] = starts[c - 1] as number;
     starts[0] = 0;
+    const words = (n + 31) >>> 5;
+    if (this.marks.length < words) this.marks = new Int32Array(Math.max(words, Math.ceil(1.25 * this.marks.length)));
+    this.marks.fill(0, 0, words);
+    this.markedFrom = 0;
+    this.markedTo = 0;
     return this;
+  }
+
+  /**
+   * A bit set over the positions (bit i & 31 of word i >>> 5) with exactly those of the cells [from, to)
+   * marked: the last call's set with the cells that entered or left toggled, so that the kernel's reach
+   * moving a few cells from one target to the next marks only those (overwritten by the next call).
+   */
+  marked(from: number, to: number): Int32Array {
+    const [oldFrom, oldTo] = [this.markedFrom, this.markedTo];
+    if (!(from < to)) [from, to] = [0, 0];
+    if (oldFrom === oldTo || to <= oldFrom || oldTo <= from) {
+      this.toggle(oldFrom, oldTo);
+      this.toggle(from, to);
+    } else {
+      this.toggle(Math.min(from, oldFrom), Math.max(from, oldFrom));
+      this.toggle(Math.min(to, oldTo), Math.max(to, oldTo));
+    }
+    this.markedFrom = from;
+    this.markedTo = to;
+    return this.marks;
+  }
+
+  /** Flips the bits of the positions of the cells [from, to): each position is in one cell. */
+  private toggle(from: number, to: number): void {
+    const { marks, positions } = this;
+    for (let j = this.starts[from] as number, end = this.starts[to] as number; j < end; j++) {
+      const i = positions[j] as number;
+      marks[i >>> 5] = (marks[i >>> 5] as number) ^ (1 << (i & 31));
+    }
   }
 
   /** The index (0 .. 2 CELLS - 1) of the cell of a finite or infinite x. */
@@ -187,5 +237,5 @@ const CELLS = 4096;
 
 /** Scratch space: positions of the values of positive weight (grown as needed, reused from call to call). */
 let positions = new Int32Array(0);
-/** Scratch space: one bit per position, the values within reach (all zero between calls). */
-let marks = new Int32Array(0);
+/** Scratch space: one bit per position, every one set (the kernel's reach without StateCells). */
+let everything = new Int32Array(0);
