@@ -510,14 +510,7 @@ export class Forecaster {
     if (this.statesDay !== view.target.dayNumber) this.states.clear();
     const forecastsOnScale = this.dayViews(`${model}|${calibrationDays}|forecasts`, calibration.map((c) => c.forecast.mean.length));
     const errors = this.dayViews(`${model}|${calibrationDays}|errors`, calibration.map((c) => c.realised.length));
-    calibration.forEach((c, d) => {
-      const f = forecastsOnScale[d] as Float64Array;
-      const e = errors[d] as Float64Array;
-      onErrorScale(c.forecast.mean, scale, f);
-      // The realised prices on the asinh scale, from the delivery day's ARX fit when it made them with this scale.
-      if (scale.robust === undefined || !keptAsinhDay(scale.robust, c.realised, e)) onErrorScale(c.realised, scale, e);
-      for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
-    });
+    calibration.forEach((c, d) => errorsOn(c, scale, errors[d] as Float64Array, forecastsOnScale[d] as Float64Array));
     let centreShift = 0;
     if (model === 'drivers' && this.options.driverCentre !== 'pool') {
       const shifts = this.errorLevelShiftsOf(model, view, calibration, scale, errors, calibrationDays);
@@ -801,12 +794,14 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   return o;
 }
 
-/** A calibration day's errors on `scale`: realised less forecast. */
-function errorsOn(c: CalibrationDay, scale: ErrorScale): Float64Array {
-  const e = new Float64Array(c.realised.length);
-  const f = new Float64Array(c.realised.length);
-  onErrorScale(c.realised, scale, e);
+/**
+ * A calibration day's errors on `scale`, realised less forecast, into `e` (returned), with its point forecast on
+ * the scale into `f`. The realised prices on an asinh scale come from the delivery day's ARX fit when it made
+ * them with this scale (keptAsinhDay: the same numbers).
+ */
+function errorsOn(c: CalibrationDay, scale: ErrorScale, e: Float64Array = new Float64Array(c.realised.length), f: Float64Array = new Float64Array(c.realised.length)): Float64Array {
   onErrorScale(c.forecast.mean, scale, f);
+  if (scale.robust === undefined || !keptAsinhDay(scale.robust, c.realised, e)) onErrorScale(c.realised, scale, e);
   for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
   return e;
 }
