@@ -81,6 +81,33 @@ describe('errorLevelShifts (intercept correction by a heterogeneous autoregressi
     expect(fTestPValue([1, 1, 1], [1, 1, 1], 2, 3)).toBe(1);
   });
 
+  describe('with day means: the quadratic term in the day before\'s mean price (driverCentre \'recent-quadratic\')', () => {
+    // Invented day means and errors whose day level carries the square of the day before's mean (formulas
+    // shared with errorLevelReference.py, "quadratic term"; NumPy lstsq with a fourth column, SciPy f.sf(F, 4, n - 4)).
+    const zbar = (t: number) => 0.8 * Math.sin(t / 4) + 0.3 * Math.cos(t / 11);
+    const curved = dayNumbers.map((t) => Float64Array.from({ length: S }, (_, s) => error(t, s) - 0.7 * zbar(t - 1) ** 2));
+    const means = dayNumbers.map(zbar);
+
+    it('centres the square and fits the four weights as NumPy does (script: 40 rows, F 62.6, p 1.0e-15)', () => {
+      const fit = fitErrorLevel(dayNumbers, curved, 172, means);
+      expect(fit.curvature?.centre).toBeCloseTo(0.1070574279736302, 12);
+      expect(fit.curvature?.meanSquare).toBeCloseTo(0.3960845821075039, 12);
+      const expected = [0.8117292354068828, 0.09371421929623619, -0.0987783941061174, -0.0945158582974517];
+      expect(Array.from(fit.weights as Float64Array)).toEqual(expected.map((v) => expect.closeTo(v, 10)));
+    });
+
+    it('gives the delivery day and the calibration days the shifts NumPy computes', () => {
+      const { target, days } = errorLevelShifts(dayNumbers, curved, 172, means);
+      expect(target).toBeCloseTo(-0.35078567766250035, 10);
+      const at = (t: number) => days[dayNumbers.indexOf(t)] as number;
+      expect(at(110)).toBeCloseTo(-0.019572730623044335, 10);
+      expect(at(128)).toBeCloseTo(0.8730481432352607, 10);
+      expect(at(132)).toBe(0);
+      // Without day means: the 'recent' regression of the same errors (script: its delivery day shift).
+      expect(errorLevelShift(dayNumbers, curved, 172)).toBeCloseTo(-0.28558833311833126, 10);
+    });
+  });
+
   it('adds nothing to errors whose day level has no run (a constant per slot: every y(d) is 0, the weights not estimable)', () => {
     const flat = dayNumbers.map(() => Float64Array.from({ length: S }, (_, s) => 2 * s - 3));
     const { target, days } = errorLevelShifts(dayNumbers, flat, 172);
@@ -126,9 +153,11 @@ describe('Forecaster option driverCentre (driver-hs and driver-fhs)', () => {
   it('between refit days gives the same forecast whatever days were asked before (later days of the same refit period first: nothing of them is read)', () => {
     const refit = refitIndexFrom(110);
     const d = refit + 2;
-    for (const method of ['driver-hs', 'driver-fhs'] as const) {
-      const recent = { ...options, driverCentre: 'recent' as const };
+    for (const [method, centre] of [['driver-hs', 'recent'], ['driver-fhs', 'recent'], ['driver-fhs', 'recent-quadratic']] as const) {
+      const recent = { ...options, driverCentre: centre };
       const fresh = forecastDay(ramped, d, LEVELS, method, recent);
+      // The quadratic term is at work on this day too (its forecast differs from 'recent''s).
+      if (centre === 'recent-quadratic') expect(fresh.quantiles.prices).not.toEqual(forecastDay(ramped, d, LEVELS, method, { ...options, driverCentre: 'recent' }).quantiles.prices);
       // The shift is at work on this day (the pool's forecast differs), so the check is not vacuous.
       expect(fresh.quantiles.prices).not.toEqual(forecastDay(ramped, d, LEVELS, method, { ...options, driverCentre: 'pool' }).quantiles.prices);
       const forecaster = new Forecaster(ramped, recent);
@@ -142,7 +171,7 @@ describe('Forecaster option driverCentre (driver-hs and driver-fhs)', () => {
     }
   });
 
-  it('rejects an unknown driverCentre', () => {
-    expect(() => forecastDay(ramped, 125, LEVELS, 'driver-hs', { ...options, driverCentre: 'mean' as ForecastOptions['driverCentre'] })).toThrow(/driverCentre/);
+  it('rejects an unknown driverCentre, naming the field and the values it takes', () => {
+    expect(() => forecastDay(ramped, 125, LEVELS, 'driver-hs', { ...options, driverCentre: 'mean' as ForecastOptions['driverCentre'] })).toThrow(/options\.driverCentre.*'pool', 'recent' or 'recent-quadratic'/);
   });
 });

@@ -86,3 +86,49 @@ def scrambled(t, s):
 run(scrambled, "scrambled")
 # The F test's p-value alone (the test's fTestPValue cases): F = 1 with 3 and 37 degrees of freedom, F = 2.5 with 3 and 40.
 print("f.sf(1, 3, 37)", repr(float(stats.f.sf(1, 3, 37))), "f.sf(2.5, 3, 40)", repr(float(stats.f.sf(2.5, 3, 40))))
+
+# The quadratic term (driverCentre 'recent-quadratic'; fitErrorLevel with day means zbar(d)): a fourth column
+#   q(t) = (zbar(t - 1) - c)^2 - Q, c = mean of zbar(t - 1) over the rows, Q = mean of (zbar(t - 1) - c)^2 over them,
+# and the F test of all four weights at 1%: p = scipy.stats.f.sf(F, 4, rows - 4). Invented day means and errors
+# whose day level carries the square of the day before's mean (formulas shared with the test):
+def zbar(t):
+    return 0.8 * np.sin(t / 4.0) + 0.3 * np.cos(t / 11.0)
+def curved(t, s):
+    return error(t, s) - 0.7 * zbar(t - 1) ** 2
+E = np.array([[curved(t, s) for s in range(S)] for t in DAY_NUMBERS])
+m = np.median(E, axis=0)
+y = np.median(E - m, axis=1)
+days = np.array(DAY_NUMBERS)
+rows, targets, before = [], [], []
+for i, t in enumerate(DAY_NUMBERS):
+    x = features(t)
+    if t - max(LOOKBACKS) < DAY_NUMBERS[0] or x is None:
+        continue
+    rows.append(x)
+    targets.append(y[i])
+    before.append(zbar(t - 1))
+before = np.array(before)
+c = before.mean()
+Q = np.mean((before - c) ** 2)
+X = np.column_stack([np.array(rows), (before - c) ** 2 - Q])
+Y = np.array(targets)
+b, *_ = np.linalg.lstsq(X, Y, rcond=None)
+ess = float(b @ X.T @ Y)
+rss = float(Y @ Y) - ess
+F = (ess / 4) / (rss / (len(Y) - 4))
+p = stats.f.sf(F, 4, len(Y) - 4)
+print("quadratic term: rows", len(Y), "centre", repr(float(c)), "mean square", repr(float(Q)), "weights", [repr(float(v)) for v in b], "F", repr(F), "p", repr(float(p)))
+def quadratic_shift(t):
+    x = features(t)
+    if x is None:
+        return 0.0
+    return float(np.dot(x, b[:3]) + b[3] * ((zbar(t - 1) - c) ** 2 - Q))
+print("  delivery day shift", repr(quadratic_shift(TARGET)))
+for t in (110, 128, 171):
+    print(f"  day {t} shift", repr(quadratic_shift(t)))
+# Without the quadratic term the same errors' F test (3 weights, the 'recent' regression):
+Xh = np.array(rows)
+bh, *_ = np.linalg.lstsq(Xh, Y, rcond=None)
+essh = float(bh @ Xh.T @ Y)
+Fh = (essh / 3) / ((float(Y @ Y) - essh) / (len(Y) - 3))
+print("  the same errors without the quadratic term: F", repr(Fh), "p", repr(float(stats.f.sf(Fh, 3, len(Y) - 3))), "delivery day shift", repr(float(np.dot(features(TARGET), bh))))
