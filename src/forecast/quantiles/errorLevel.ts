@@ -92,6 +92,9 @@ export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly
 export interface LevelCurvature {
   readonly centre: number;
   readonly meanSquare: number;
+  /** The least and greatest zbar(t - 1) of the rows: a day's zbar(t - 1) is clamped into them (the square is not extrapolated). */
+  readonly low: number;
+  readonly high: number;
 }
 
 /**
@@ -113,7 +116,8 @@ export interface ErrorLevelFit {
  * With `dayMeans` (zbar(d), each calibration day's mean realised price on the error scale) the regression
  * gains a fourth column, a quadratic term in the day before's price level,
  *   y(d) = sum_k b_k x_k(d) + b_q q(d) + v(d),   q(d) = (zbar(d - 1) - c)^2 - Q  (LevelCurvature),
- * and the F test is of all four weights. Why: the driver regression reads the persistent day level
+ * and the F test is of all four weights; a day whose zbar(t - 1) lies beyond those of the rows takes the
+ * nearest of them (a polynomial term is not extrapolated beyond the data it was fitted on). Why: the driver regression reads the persistent day level
  * linearly from the day before's mean price; where the level's effect on the next day's prices is not
  * linear on the error scale (a convex merit order seen through the asinh scale), the errors' day level
  * varies with the square of the day before's level though not with the errors before it. A second-order
@@ -194,7 +198,7 @@ function fitWithCurvature(dayNumbers: ArrayLike<number>, fitDay: number, slotMed
   let meanSquare = 0;
   for (const v of before) meanSquare += (v - centre) ** 2;
   meanSquare /= rows;
-  const curvature = { centre, meanSquare };
+  const curvature = { centre, meanSquare, low: Math.min(...before), high: Math.max(...before) };
   const gram = new Float64Array(p * p);
   const rhs = new Float64Array(p);
   let yy = 0;
@@ -306,7 +310,8 @@ export class DayLevels {
     if (curvature === null) return shift;
     const previous = this.meanBefore(t);
     if (!Number.isFinite(previous)) return null;
-    return shift + (b[h] as number) * ((previous - curvature.centre) ** 2 - curvature.meanSquare);
+    const clamped = Math.min(Math.max(previous, curvature.low), curvature.high);
+    return shift + (b[h] as number) * ((clamped - curvature.centre) ** 2 - curvature.meanSquare);
   }
 
   private readonly scratch = new Float64Array(ERROR_LEVEL_LOOKBACK_DAYS.length);
