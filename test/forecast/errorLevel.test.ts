@@ -106,6 +106,11 @@ describe('errorLevelShifts (intercept correction by a heterogeneous autoregressi
       // Without day means: the 'recent' regression of the same errors (script: its delivery day shift).
       expect(errorLevelShift(dayNumbers, curved, 172)).toBeCloseTo(-0.28558833311833126, 10);
     });
+
+    it('does not extrapolate the square: a day before beyond every row\'s level takes the greatest of them (script, "clamped")', () => {
+      const extreme = means.map((v, d) => (dayNumbers[d] === 171 ? 5 : v));
+      expect(errorLevelShift(dayNumbers, curved, 172, extreme)).toBeCloseTo(-0.30869601621211673, 10);
+    });
   });
 
   it('adds nothing to errors whose day level has no run (a constant per slot: every y(d) is 0, the weights not estimable)', () => {

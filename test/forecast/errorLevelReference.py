@@ -124,6 +124,11 @@ def quadratic_shift(t):
         return 0.0
     return float(np.dot(x, b[:3]) + b[3] * ((zbar(t - 1) - c) ** 2 - Q))
 print("  delivery day shift", repr(quadratic_shift(TARGET)))
+# The day before the delivery day with a mean of 5 (beyond every row's zbar(t - 1)): it takes the rows' greatest,
+# before.max(), so the weights (fitted on rows whose day before is day 170 at the latest) and the shift are those
+# of that value.
+x = features(TARGET)
+print("  delivery day shift with zbar(171) = 5, clamped to", repr(float(before.max())), repr(float(np.dot(x, b[:3]) + b[3] * ((before.max() - c) ** 2 - Q))))
 for t in (110, 128, 171):
     print(f"  day {t} shift", repr(quadratic_shift(t)))
 # Without the quadratic term the same errors' F test (3 weights, the 'recent' regression):
