@@ -212,8 +212,28 @@ function fitWithCurvature(dayNumbers: ArrayLike<number>, fitDay: number, slotMed
       for (let j = 0; j < p; j++) gram[i * p + j] = (gram[i * p + j] as number) + (x[i] as number) * (x[j] as number);
     }
   }
-  const b = solveSymmetric(gram, rhs, p);
-  if (b === null || !(fTestPValue(b, rhs, yy, rows) < ERROR_LEVEL_TEST_SIZE)) return { slotMedians, levels, weights: null, curvature };
+  // The lookbacks' weights as 'recent' fits them (the Gram's leading h x h block, its own F test), then the
+  // quadratic term's weight on what they leave, with an F test of its own.
+  const gh = new Float64Array(h * h);
+  for (let i = 0; i < h; i++) for (let j = 0; j < h; j++) gh[i * h + j] = gram[i * p + j] as number;
+  const rh = rhs.subarray(0, h);
+  const har = solveSymmetric(gh, rh, h);
+  const b = new Float64Array(p);
+  if (har !== null && fTestPValue(har, rh, yy, rows) < ERROR_LEVEL_TEST_SIZE) b.set(har);
+  // u = y - sum_k b_k x_k: q'u = q'y - sum_k b_k q'x_k and u'u = y'y - 2 b'X'y + b'X'X b.
+  let qu = rhs[h] as number;
+  let uu = yy;
+  for (let i = 0; i < h; i++) {
+    qu -= (b[i] as number) * (gram[h * p + i] as number);
+    uu -= 2 * (b[i] as number) * (rhs[i] as number);
+    for (let j = 0; j < h; j++) uu += (b[i] as number) * (b[j] as number) * (gram[i * p + j] as number);
+  }
+  const qq = gram[h * p + h] as number;
+  if (qq > 0) {
+    const bq = qu / qq;
+    if (fTestPValue([bq], [qu], uu, rows) < ERROR_LEVEL_TEST_SIZE) b[h] = bq;
+  }
+  if (b.every((v) => v === 0)) return { slotMedians, levels, weights: null, curvature };
   return { slotMedians, levels, weights: b, curvature };
 }
 
