@@ -82,34 +82,43 @@ describe('errorLevelShifts (intercept correction by a heterogeneous autoregressi
   });
 
   describe('with day means: the quadratic term in the day before\'s mean price (driverCentre \'recent-quadratic\')', () => {
-    // Invented day means and errors whose day level carries the square of the day before's mean (formulas
-    // shared with errorLevelReference.py, "quadratic term"; NumPy lstsq with a fourth column, SciPy f.sf(F, 4, n - 4)).
-    const zbar = (t: number) => 0.8 * Math.sin(t / 4) + 0.3 * Math.cos(t / 11);
-    const curved = dayNumbers.map((t) => Float64Array.from({ length: S }, (_, s) => error(t, s) - 0.7 * zbar(t - 1) ** 2));
+    // Invented day means without persistence and errors whose day level carries their square the next day
+    // (formulas shared with errorLevelReference.py, "quadratic term"; NumPy lstsq for the lookbacks' weights,
+    // then q'u / q'q on what they leave; SciPy f.sf(F, 3, n - 3) and f.sf(F, 1, n - 1) for the two F tests).
+    const zbar = (t: number) => ((t * 37) % 23) / 11.5 - 1;
+    const curved = dayNumbers.map((t) => Float64Array.from({ length: S }, (_, s) => (0.25 * (((t * 7 + s * 3) % 11) - 5)) / 5 + 0.1 * s - 0.7 * zbar(t - 1) ** 2));
     const means = dayNumbers.map(zbar);
 
-    it('centres the square and fits the four weights as NumPy does (script: 40 rows, F 62.6, p 1.0e-15)', () => {
+    it('centres the square and fits the lookbacks\' weights, then the square\'s on what they leave, as NumPy does (script: 40 rows, p 1.7e-11 and 0.0025)', () => {
       const fit = fitErrorLevel(dayNumbers, curved, 172, means);
-      expect(fit.curvature?.centre).toBeCloseTo(0.1070574279736302, 12);
-      expect(fit.curvature?.meanSquare).toBeCloseTo(0.3960845821075039, 12);
-      const expected = [0.8117292354068828, 0.09371421929623619, -0.0987783941061174, -0.0945158582974517];
-      expect(Array.from(fit.weights as Float64Array)).toEqual(expected.map((v) => expect.closeTo(v, 10)));
+      expect(fit.curvature?.centre).toBeCloseTo(-0.032608695652173926, 12);
+      expect(fit.curvature?.meanSquare).toBeCloseTo(0.3357986767485822, 12);
+      expect(fit.curvature?.high).toBeCloseTo(0.9130434782608696, 12);
+      const expected = [-0.4354525676898244, -4.458619050650738, 6.003550271448418, -0.17307046633474907];
+      expect(Array.from(fit.weights as Float64Array)).toEqual(expected.map((v) => expect.closeTo(v, 9)));
     });
 
     it('gives the delivery day and the calibration days the shifts NumPy computes', () => {
       const { target, days } = errorLevelShifts(dayNumbers, curved, 172, means);
-      expect(target).toBeCloseTo(-0.35078567766250035, 10);
+      expect(target).toBeCloseTo(-0.31927511235994616, 9);
       const at = (t: number) => days[dayNumbers.indexOf(t)] as number;
-      expect(at(110)).toBeCloseTo(-0.019572730623044335, 10);
-      expect(at(128)).toBeCloseTo(0.8730481432352607, 10);
+      expect(at(110)).toBeCloseTo(0.11188200175679539, 9);
+      expect(at(128)).toBeCloseTo(0.028911865731257255, 9);
+      expect(at(171)).toBeCloseTo(0.2030062500254564, 9);
       expect(at(132)).toBe(0);
       // Without day means: the 'recent' regression of the same errors (script: its delivery day shift).
-      expect(errorLevelShift(dayNumbers, curved, 172)).toBeCloseTo(-0.28558833311833126, 10);
+      expect(errorLevelShift(dayNumbers, curved, 172)).toBeCloseTo(-0.2684254389571515, 9);
+    });
+
+    it('adds no quadratic weight where its F test on what the lookbacks leave does not reject: the \'recent\' shift (script, "the slow wave with the day means": p 0.347)', () => {
+      const withMeans = fitErrorLevel(dayNumbers, errors, 172, means);
+      expect((withMeans.weights as Float64Array)[3]).toBe(0);
+      expect(errorLevelShift(dayNumbers, errors, 172, means)).toBeCloseTo(0.14866107812973975, 10);
     });
 
     it('does not extrapolate the square: a day before beyond every row\'s level takes the greatest of them (script, "clamped")', () => {
       const extreme = means.map((v, d) => (dayNumbers[d] === 171 ? 5 : v));
-      expect(errorLevelShift(dayNumbers, curved, 172, extreme)).toBeCloseTo(-0.30869601621211673, 10);
+      expect(errorLevelShift(dayNumbers, curved, 172, extreme)).toBeCloseTo(-0.36507826035023894, 9);
     });
   });
 
@@ -133,6 +142,10 @@ describe('Forecaster option driverCentre (driver-hs and driver-fhs)', () => {
   const base = syntheticHistory({ days: 130, periodMinutes: 60, seed: 7 });
   const ramped: PriceHistory = { ...base, days: base.days.map((day, d) => ({ ...day, pricePerMwh: day.pricePerMwh.map((p) => p + (Math.floor(d / 15) % 2 === 0 ? 50 : -50)) })) };
   const options: Partial<ForecastOptions> = { minTrainingDays: 21, calibrationDays: 84, minCalibrationDays: 21 };
+  // Invented: a day level u(d) without persistence, and its square the next day (a level whose effect the
+  // point model, linear in the day before's mean price, cannot follow): what 'recent-quadratic' is for.
+  const u = (d: number) => (((d * 37) % 23) / 11.5 - 1) * 60;
+  const curved: PriceHistory = { ...base, days: base.days.map((day, d) => ({ ...day, pricePerMwh: day.pricePerMwh.map((p) => p + 0.3 * u(d) + (d > 0 ? u(d - 1) ** 2 / 8 : 0)) })) };
   const LEVELS = [0.1, 0.5, 0.9];
   const mean = (values: readonly number[]) => values.reduce((a, b) => a + b, 0) / values.length;
 
@@ -159,17 +172,18 @@ describe('Forecaster option driverCentre (driver-hs and driver-fhs)', () => {
     const refit = refitIndexFrom(110);
     const d = refit + 2;
     for (const [method, centre] of [['driver-hs', 'recent'], ['driver-fhs', 'recent'], ['driver-fhs', 'recent-quadratic']] as const) {
+      const history = centre === 'recent' ? ramped : curved;
       const recent = { ...options, driverCentre: centre };
-      const fresh = forecastDay(ramped, d, LEVELS, method, recent);
-      // The quadratic term is at work on this day too (its forecast differs from 'recent''s).
-      if (centre === 'recent-quadratic') expect(fresh.quantiles.prices).not.toEqual(forecastDay(ramped, d, LEVELS, method, { ...options, driverCentre: 'recent' }).quantiles.prices);
+      const fresh = forecastDay(history, d, LEVELS, method, recent);
+      // The quadratic term is at work on this day (its forecast differs from 'recent''s).
+      if (centre === 'recent-quadratic') expect(fresh.quantiles.prices).not.toEqual(forecastDay(history, d, LEVELS, method, { ...options, driverCentre: 'recent' }).quantiles.prices);
       // The shift is at work on this day (the pool's forecast differs), so the check is not vacuous.
-      expect(fresh.quantiles.prices).not.toEqual(forecastDay(ramped, d, LEVELS, method, { ...options, driverCentre: 'pool' }).quantiles.prices);
-      const forecaster = new Forecaster(ramped, recent);
+      expect(fresh.quantiles.prices).not.toEqual(forecastDay(history, d, LEVELS, method, { ...options, driverCentre: 'pool' }).quantiles.prices);
+      const forecaster = new Forecaster(history, recent);
       for (const i of [refit + 4, refit + 3, refit - 2, refit, d]) forecaster.forecast(i, LEVELS, method);
       expect(forecaster.forecast(d, LEVELS, method).quantiles.prices).toEqual(fresh.quantiles.prices);
       // Days after d, prices changed: d's forecast is the same (only days before it are read, through the kept fit too).
-      const changed: PriceHistory = { ...ramped, days: ramped.days.map((day, i) => (i > d ? { ...day, pricePerMwh: day.pricePerMwh.map((p) => p + 40) } : day)) };
+      const changed: PriceHistory = { ...history, days: history.days.map((day, i) => (i > d ? { ...day, pricePerMwh: day.pricePerMwh.map((p) => p + 40) } : day)) };
       const later = new Forecaster(changed, recent);
       later.forecast(refit + 4, LEVELS, method);
       expect(later.forecast(d, LEVELS, method).quantiles.prices).toEqual(fresh.quantiles.prices);
