@@ -149,13 +149,15 @@ describe('Forecaster option driverCentre (driver-hs and driver-fhs)', () => {
   const LEVELS = [0.1, 0.5, 0.9];
   const mean = (values: readonly number[]) => values.reduce((a, b) => a + b, 0) / values.length;
 
-  it("is 'recent' by default; 'recent' raises the medians of a day five days into a high turn (the point forecast unchanged)", () => {
-    expect(DEFAULTS.driverCentre).toBe('recent');
+  it("is 'recent-quadratic' by default; 'recent' raises the medians of a day five days into a high turn (the point forecast unchanged)", () => {
+    expect(DEFAULTS.driverCentre).toBe('recent-quadratic');
     for (const method of ['driver-hs', 'driver-fhs'] as const) {
       const pool = forecastDay(ramped, 125, LEVELS, method, { ...options, driverCentre: 'pool' });
       const byDefault = forecastDay(ramped, 125, LEVELS, method, options);
       const recent = forecastDay(ramped, 125, LEVELS, method, { ...options, driverCentre: 'recent' });
+      // The square of the day before's level carries nothing on this history: the default's forecast is 'recent''s.
       expect(byDefault.quantiles.prices).toEqual(recent.quantiles.prices);
+      expect(forecastDay(curved, 125, LEVELS, method, options).quantiles.prices).toEqual(forecastDay(curved, 125, LEVELS, method, { ...options, driverCentre: 'recent-quadratic' }).quantiles.prices);
       expect(recent.point).toEqual(pool.point);
       const median = (f: typeof pool) => mean(f.quantiles.prices.map((row) => row[1] as number));
       expect(median(recent)).toBeGreaterThan(median(pool));
