@@ -114,6 +114,8 @@ describe('errorLevelShifts (intercept correction by a heterogeneous autoregressi
       const withMeans = fitErrorLevel(dayNumbers, errors, 172, means);
       expect((withMeans.weights as Float64Array)[3]).toBe(0);
       expect(errorLevelShift(dayNumbers, errors, 172, means)).toBeCloseTo(0.14866107812973975, 10);
+      // Bit for bit the shifts without day means (the lookbacks' weights from the same sums).
+      expect(errorLevelShifts(dayNumbers, errors, 172, means)).toEqual(errorLevelShifts(dayNumbers, errors, 172));
     });
 
     it('does not extrapolate the square: a day before beyond every row\'s level takes the greatest of them (script, "clamped")', () => {

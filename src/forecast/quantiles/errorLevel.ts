@@ -113,16 +113,21 @@ export interface ErrorLevelFit {
  * days given (all before the day the fit is made for); weights null when fewer than the longest
  * lookback's days have a whole lookback, the normal equations are singular or the F test does not reject.
  *
- * With `dayMeans` (zbar(d), each calibration day's mean realised price on the error scale) the regression
- * gains a fourth column, a quadratic term in the day before's price level,
- *   y(d) = sum_k b_k x_k(d) + b_q q(d) + v(d),   q(d) = (zbar(d - 1) - c)^2 - Q  (LevelCurvature),
- * and the F test is of all four weights; a day whose zbar(t - 1) lies beyond those of the rows takes the
- * nearest of them (a polynomial term is not extrapolated beyond the data it was fitted on). Why: the driver regression reads the persistent day level
- * linearly from the day before's mean price; where the level's effect on the next day's prices is not
- * linear on the error scale (a convex merit order seen through the asinh scale), the errors' day level
- * varies with the square of the day before's level though not with the errors before it. A second-order
- * term is the first test of such a neglected nonlinearity (the powers of the regressors in Ramsey's 1969
- * specification test), and the F test keeps it out where the errors do not carry it.
+ * With `dayMeans` (zbar(d), each calibration day's mean realised price on the error scale) a quadratic
+ * term in the day before's price level follows the lookbacks:
+ *   y(d) = sum_k b_k x_k(d) + b_q q(d) + v(d),   q(d) = (zbar(d - 1) - c)^2 - Q  (LevelCurvature).
+ * The b_k are the ones above (the same rows, sums and F test: with b_q = 0 the shifts are those without
+ * day means, bit for bit); b_q is fitted on what they leave, u(d) = y(d) - sum_k b_k x_k(d), as
+ * b_q = sum q u / sum q^2, and used only where its own F test (1 and n - 1 degrees of freedom) rejects at
+ * ERROR_LEVEL_TEST_SIZE. A day whose zbar(t - 1) lies beyond those of the rows takes the nearest of them
+ * (a polynomial term is not extrapolated beyond the data it was fitted on). Why: the driver regression
+ * reads the persistent day level linearly from the day before's mean price; where the level's effect on
+ * the next day's prices is not linear on the error scale (a convex merit order seen through the asinh
+ * scale), the errors' day level varies with the square of the day before's level though not with the
+ * errors before it. A second-order term is the first test of such a neglected nonlinearity (the powers of
+ * the regressors in Ramsey's 1969 specification test), and its F test keeps it out where the errors do not
+ * carry it. (Fitted jointly with the b_k under one F test it moved them too, and cost the demo:
+ * docs/forecast-quality.md, "the ninth wave".)
  *
  * Reference: J. B. Ramsey (1969), Tests for specification errors in classical linear least-squares regression
  * analysis, J. R. Stat. Soc. B 31(2), 350-371, doi:10.1111/j.2517-6161.1969.tb00796.x.
