@@ -103,6 +103,11 @@ const LAGS = [1, 7] as const;
  *   near scarcity and flat in surplus, which one slope cannot follow. A hinge that fewer than 20 days
  *   (or 10% of a window's days) reach is left out of that window's fit: its slope would rest on a few
  *   days and the delivery day might extrapolate it far.
+ * - With basis 'natural-spline' the hinges give way to the K - 2 columns of a natural cubic spline with K
+ *   knots at Harrell's quantiles of the same values (naturalSplineBasis.ts; Hastie, Tibshirani and Friedman
+ *   2009, section 5.2.1): smooth between the knots and linear below the first and above the last, with the
+ *   slope the fit has there, so the sparse ends get no slope of their own. The support rule is the same
+ *   (a spline column is non-zero above its knot).
  * - One model per slot lets every coefficient vary with the period of the day, so the effect of
  *   residual load interacts fully with the time of day.
  * - Yesterday's mean price is the persistent day-level component: with yesterday's mean residual load
@@ -345,7 +350,7 @@ const HINGE_SUPPORT_DAYS = 20;
 const HINGE_SUPPORT_SHARE = 0.1;
 
 /**
- * Per count (the first counts[w] rows), the hinge columns (1..J; columns[j n + r]) that fewer than the
+ * Per count (the first counts[w] rows), the hinge (or spline) columns (1..J; columns[j n + r]) that fewer than the
  * support's days of those rows reach: one pass over the rows per hinge, read off at every count.
  */
 function thinHinges(columns: Float64Array, n: number, hinges: number, counts: readonly number[]): number[][] {
