@@ -26,8 +26,7 @@ import { LASSO_DEFAULTS } from './linalg/lasso.js';
 import type { FitStopwatch } from './fitStopwatch.js';
 import { arxForecast, keptAsinhDay } from './models/arx.js';
 import { toAsinhScales } from './models/robustAsinh.js';
-import { DriverFits, driverForecast, refitDayOf, type ResidualLoadBasis } from './models/driverRegression.js';
-import { MAX_SPLINE_KNOTS, MIN_SPLINE_KNOTS } from './models/naturalSplineBasis.js';
+import { DriverFits, driverForecast, refitDayOf } from './models/driverRegression.js';
 import { KeptFits } from './keptFits.js';
 import { InsufficientHistoryError } from './models/errors.js';
 import { dayNumberOf, GridCache, HistoryView } from './models/historyView.js';
@@ -109,16 +108,8 @@ export interface ForecastOptions {
    * (docs/forecast-quality.md). A window longer than the history uses all of it.
    */
   readonly driverWindowsDays: readonly number[];
-  /** Hinge knots of the residual load in the driver regression [-] (driverBasis 'hinges'). */
+  /** Hinge knots of the residual load in the driver regression [-]. */
   readonly driverKnots: number;
-  /**
-   * How the residual load enters the driver regression: 'hinges', x and driverKnots hinges at the slot's
-   * quartiles (a linear spline); 'natural-spline', a natural cubic spline with driverSplineKnots knots at
-   * Harrell's quantiles, linear beyond the outer knots (driverRegression.ts, naturalSplineBasis.ts).
-   */
-  readonly driverBasis: ResidualLoadBasis;
-  /** Knots of the natural cubic spline of driverBasis 'natural-spline' [-], 3 to 5 (K - 1 columns with x). */
-  readonly driverSplineKnots: number;
   /** Scale the driver regression is fitted on (and its errors measured on, with errorScale 'model'). */
   readonly driverScale: 'asinh' | 'price';
   /**
@@ -211,8 +202,6 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   minCalibrationDays: 28,
   driverWindowsDays: Object.freeze([182, 364, 728]),
   driverKnots: 3,
-  driverBasis: 'hinges',
-  driverSplineKnots: 4,
   driverScale: 'asinh',
   driverRefitDays: 5,
   spreadPool: 'level',
@@ -743,8 +732,7 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
     return driverForecast(view, {
       windowsDays: options.driverWindowsDays,
       minTrainingDays: options.minTrainingDays,
-      knots: options.driverBasis === 'natural-spline' ? options.driverSplineKnots : options.driverKnots,
-      basis: options.driverBasis,
+      knots: options.driverKnots,
       scale: options.driverScale,
       refitDays: options.driverRefitDays,
       fits: driverFits,
@@ -795,9 +783,6 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   candidate('autoFallback', o.autoFallback, single.filter((m) => pointModelOf(m, o) !== 'drivers'), 'a method on prices alone: one of ');
   positiveInteger('autoValidationDays', o.autoValidationDays);
   positiveInteger('driverKnots', o.driverKnots, 0);
-  if (o.driverBasis !== 'hinges' && o.driverBasis !== 'natural-spline') throw new ArgumentError('options.driverBasis', "'hinges' or 'natural-spline'", o.driverBasis);
-  positiveInteger('driverSplineKnots', o.driverSplineKnots, MIN_SPLINE_KNOTS);
-  if (o.driverSplineKnots > MAX_SPLINE_KNOTS) throw new ArgumentError('options.driverSplineKnots', `an integer from ${MIN_SPLINE_KNOTS} to ${MAX_SPLINE_KNOTS}`, o.driverSplineKnots);
   positiveInteger('driverRefitDays', o.driverRefitDays);
   if (o.driverWindowsDays.length === 0) throw new ArgumentError('options.driverWindowsDays', 'at least one window length', o.driverWindowsDays);
   o.driverWindowsDays.forEach((w, i) => positiveInteger(`driverWindowsDays[${i}]`, w, o.minTrainingDays));

@@ -2,7 +2,6 @@ import { describe, expect, it } from 'vitest';
 import { DriverFits, driverForecast, type DriverSettings } from '../../src/forecast/models/driverRegression.js';
 import { dayNumberOf, HistoryView } from '../../src/forecast/models/historyView.js';
 import type { PriceHistory } from '../../src/types.js';
-import { naturalSplineColumns } from '../../src/forecast/models/naturalSplineBasis.js';
 import { syntheticHistory } from './syntheticHistory.js';
 
 const base = syntheticHistory({ days: 160, periodMinutes: 60, seed: 11 });
@@ -73,52 +72,5 @@ describe('driver regression refit cadence (refitDays)', () => {
     expect(refitIndex).toBeLessThan(first);
     expect(driverForecast(HistoryView.before(base, refitIndex), SETTINGS)).toBeNull();
     expect(forecastOf(base, i, { ...SETTINGS, refitDays: 7 })).toEqual(forecastOf(base, i, SETTINGS));
-  });
-});
-
-describe("driver regression with driverBasis 'natural-spline'", () => {
-  const SPLINE: DriverSettings = { windowsDays: [56], minTrainingDays: 28, knots: 4, scale: 'price', basis: 'natural-spline' };
-  /** R's default sample quantile (type 7) of ascending values: linear between the order statistics at (n - 1) p (Hyndman and Fan 1996, definition 7). */
-  const type7 = (sorted: number[], p: number) => {
-    const h = (sorted.length - 1) * p;
-    const lo = Math.floor(h);
-    return sorted[lo]! + (h - lo) * (sorted[Math.min(lo + 1, sorted.length - 1)]! - sorted[lo]!);
-  };
-
-  it('forecasts prices that are exactly a natural cubic spline of the load with knots at Harrell\'s quantiles of each slot\'s window (closed form: least squares reproduces an exact relation; the hinge basis cannot)', () => {
-    const d = 140;
-    const target = dayNumberOf(base.days[d]!.day);
-    // The fit's training days: the 56 days before, each with its day before and week before in the history.
-    const first = dayNumberOf(base.days[0]!.day);
-    const training = base.days.filter((day) => {
-      const t = dayNumberOf(day.day);
-      return t >= target - 56 && t < target && t - 7 >= first;
-    });
-    const loadOf = (day: (typeof base.days)[number]) => day.exogenous.load_mw as number[];
-    const knots = loadOf(base.days[0]!).map((_, s) => {
-      const sorted = training.map((day) => loadOf(day)[s]!).sort((p, q) => p - q);
-      return [0.05, 0.35, 0.65, 0.95].map((p) => type7(sorted, p));
-    });
-    // A spline of each slot's own knots, curved between them: 40 + 0.05 l + 0.4 N_3(l) - 0.3 N_4(l).
-    const columns = new Float64Array(2);
-    const price = (l: number, s: number) => {
-      naturalSplineColumns(l, knots[s]!, columns);
-      return 40 + 0.05 * l + 0.4 * columns[0]! - 0.3 * columns[1]!;
-    };
-    const h: PriceHistory = { ...base, days: base.days.map((day) => ({ ...day, pricePerMwh: loadOf(day).map(price) })) };
-    const expected = loadOf(h.days[d]!).map(price);
-    forecastOf(h, d, SPLINE).forEach((p, s) => expect(p).toBeCloseTo(expected[s]!, 6));
-    const hinges = forecastOf(h, d, { ...SPLINE, basis: 'hinges', knots: 3 });
-    expect(Math.max(...hinges.map((p, s) => Math.abs(p - expected[s]!)))).toBeGreaterThan(1e-3);
-  });
-
-  it('kept fits under a refit cadence give the fresh forecast whatever was asked before, and differ from the hinges', () => {
-    const refit = refitDayFrom(120);
-    const fits = new DriverFits();
-    const kept = { ...SPLINE, refitDays: 7, fits };
-    const order = [refit + 5, refit + 1, refit - 3, refit + 6, refit];
-    const asked = order.map((i) => forecastOf(base, i, kept));
-    order.forEach((i, j) => expect(asked[j]).toEqual(forecastOf(base, i, { ...SPLINE, refitDays: 7 })));
-    expect(forecastOf(base, refit, SPLINE)).not.toEqual(forecastOf(base, refit, { ...SPLINE, basis: 'hinges', knots: 3 }));
   });
 });

@@ -54,21 +54,6 @@ describe('Forecaster', () => {
     expect(shorter.point).not.toEqual(byDefault.point);
   });
 
-  it("driverBasis 'natural-spline' reaches the driver regression (another point forecast); driverBasis and driverSplineKnots are checked with the field named", () => {
-    expect(DEFAULTS.driverBasis).toBe('hinges');
-    expect(DEFAULTS.driverSplineKnots).toBe(4);
-    const hinges = forecastDay(history, 110, LEVELS, 'driver-fhs', SMALL);
-    const spline = forecastDay(history, 110, LEVELS, 'driver-fhs', { ...SMALL, driverBasis: 'natural-spline' });
-    expect(spline.point).not.toEqual(hinges.point);
-    // driverSplineKnots is read only with the natural spline; driverKnots only with the hinges.
-    expect(forecastDay(history, 110, LEVELS, 'driver-fhs', { ...SMALL, driverSplineKnots: 5 }).point).toEqual(hinges.point);
-    expect(forecastDay(history, 110, LEVELS, 'driver-fhs', { ...SMALL, driverBasis: 'natural-spline', driverKnots: 5 }).point).toEqual(spline.point);
-    expect(() => forecastDay(history, 110, LEVELS, 'driver-fhs', { ...SMALL, driverBasis: 'cubic' as ForecastOptions['driverBasis'] })).toThrow(/options\.driverBasis/);
-    for (const knots of [2, 6, 4.5]) {
-      expect(() => forecastDay(history, 110, LEVELS, 'driver-fhs', { ...SMALL, driverSplineKnots: knots })).toThrow(/options\.driverSplineKnots/);
-    }
-  });
-
   for (const method of FORECAST_METHODS) {
     it(`${method}: one row per period, the levels asked for, non-decreasing rows`, () => {
       const day = forecastDay(history, 110, LEVELS, method, SMALL);

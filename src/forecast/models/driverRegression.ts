@@ -12,7 +12,6 @@ import type { GriddedDay, HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
-import { NATURAL_SPLINE_KNOT_LEVELS, naturalSplineColumns } from './naturalSplineBasis.js';
 import { fromAsinhScale, selectInPlace, toAsinhScale, toAsinhScales, type RobustScale } from './robustAsinh.js';
 
 /** Settings of the driver regression; see {@link driverForecast}. */
@@ -21,19 +20,8 @@ export interface DriverSettings {
   readonly windowsDays: readonly number[];
   /** Fewest usable training days in every window for a forecast to be made [days]. */
   readonly minTrainingDays: number;
-  /**
-   * Knots of the residual load's basis [-], per slot at quantiles of its residual load over the longest window's days:
-   * with basis 'hinges', J >= 0 hinge knots at the 1/(J+1), ..., J/(J+1) quantiles; with 'natural-spline', K knots,
-   * 3 <= K <= 5, at Harrell's quantiles (NATURAL_SPLINE_KNOT_LEVELS).
-   */
+  /** Hinge knots of the residual load [-], >= 0: per slot at its 1/(J+1), ..., J/(J+1) quantiles over the longest window's days. */
   readonly knots: number;
-  /**
-   * How the residual load enters each slot's model: 'hinges' (default), x and the hinges max(0, x - k_j); or
-   * 'natural-spline', x and the K - 2 columns of the natural cubic spline basis (naturalSplineBasis.ts): smooth
-   * between the knots and linear beyond the outer ones, so the sparse ends follow the fit's slope at the outer
-   * knots rather than a slope of their own.
-   */
-  readonly basis?: ResidualLoadBasis;
   /** Scale the model is fitted on: asinh-transformed prices, or prices. */
   readonly scale: 'asinh' | 'price';
   /**
@@ -51,24 +39,17 @@ export interface DriverSettings {
   readonly stopwatch?: FitStopwatch;
 }
 
-/** How the residual load enters the driver regression; see {@link DriverSettings.basis}. */
-export type ResidualLoadBasis = 'hinges' | 'natural-spline';
-
 /** The driver regression fitted for a day: every window's model of every slot, and what its regressors need. */
 export interface DriverFit {
   /** The robust scale of the asinh transform (null on the price scale). */
   readonly scale: RobustScale | null;
   /** S, clock slots per day. */
   readonly slots: number;
-  /** The residual load's basis. */
-  readonly basis: ResidualLoadBasis;
-  /** Knots per slot (J hinge knots, or K spline knots). */
+  /** J, hinge knots per slot. */
   readonly knots: number;
-  /** C, the residual load's columns after x: J hinges, or K - 2 spline columns. */
-  readonly curveColumns: number;
   /** k, coefficients per model (without the intercept). */
   readonly coefficients: number;
-  /** Knots per slot, knotValues[s knots + j]. */
+  /** Knots per slot, knotValues[s J + j]. */
   readonly knotValues: Float64Array;
   /** The windows' distinct training-day counts, ascending (one model per count). */
   readonly counts: readonly number[];
@@ -103,11 +84,6 @@ const LAGS = [1, 7] as const;
  *   near scarcity and flat in surplus, which one slope cannot follow. A hinge that fewer than 20 days
  *   (or 10% of a window's days) reach is left out of that window's fit: its slope would rest on a few
  *   days and the delivery day might extrapolate it far.
- * - With basis 'natural-spline' the hinges give way to the K - 2 columns of a natural cubic spline with K
- *   knots at Harrell's quantiles of the same values (naturalSplineBasis.ts; Hastie, Tibshirani and Friedman
- *   2009, section 5.2.1): smooth between the knots and linear below the first and above the last, with the
- *   slope the fit has there, so the sparse ends get no slope of their own. The support rule is the same
- *   (a spline column is non-zero above its knot).
  * - One model per slot lets every coefficient vary with the period of the day, so the effect of
  *   residual load interacts fully with the time of day.
  * - Yesterday's mean price is the persistent day-level component: with yesterday's mean residual load
@@ -181,19 +157,16 @@ function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit
   const days = new DriverDays(view, columns, fit.scale);
   const targetDay = days.regressors(lag1, lag7, view.target.weekday);
   const targetX = residualLoad(view.target, columns);
-  const { slots: S, knots: K, curveColumns: J, coefficients: k } = fit;
+  const { slots: S, knots: J, coefficients: k } = fit;
   const a = J + 4;
   const row = new Float64Array(k);
   const forecasts = fit.counts.map(() => new Float64Array(S));
   for (let s = 0; s < S; s++) {
     const xt = targetX[s] as number;
     row[0] = xt;
-    if (fit.basis === 'natural-spline') naturalSplineColumns(xt, fit.knotValues.subarray(s * K, (s + 1) * K), row, 1);
-    else {
-      for (let j = 0; j < J; j++) {
-        const knot = fit.knotValues[s * J + j] as number;
-        row[1 + j] = xt > knot ? xt - knot : 0;
-      }
+    for (let j = 0; j < J; j++) {
+      const knot = fit.knotValues[s * J + j] as number;
+      row[1 + j] = xt > knot ? xt - knot : 0;
     }
     row[J + 1] = targetDay.lag1[s] as number;
     row[J + 2] = targetDay.lag7[s] as number;
@@ -236,20 +209,14 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const scale = settings.scale === 'asinh' ? view.robustScaleOf(rows, longest) : null;
   const days = new DriverDays(view, columns, scale);
   const S = view.slotsPerDay;
-  const basis = settings.basis ?? 'hinges';
-  const K = settings.knots;
-  const spline = basis === 'natural-spline';
-  const levels = spline ? NATURAL_SPLINE_KNOT_LEVELS[K] : undefined;
-  if (spline && levels === undefined) throw new RangeError(`natural-spline knots must be 3 to 5, got ${K}`);
-  // J, the residual load's columns after x: the hinges, or the spline's K - 2.
-  const J = spline ? K - 2 : K;
-  // Slot columns x, hinges (or spline columns), lag 1, lag 7 and the response; day-level columns mean price and mean
+  const J = settings.knots;
+  // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
   // residual load of the day before, and the weekday dummies (Sunday, category 7, the reference).
   const a = J + 4;
   const k = a - 1 + 2 + 6;
   const slotValues = new Float64Array(n * a);
   const models = new Float64Array(counts.length * S * (k + 1));
-  const knotValues = new Float64Array(S * K);
+  const knotValues = new Float64Array(S * J);
   const trainingDays = rows.map((i) => {
     const dn = view.dayNumber(i);
     return { own: days.of(i), regressors: days.regressors(view.indexOf(dn - 1), view.indexOf(dn - 7), view.past(i).weekday) };
@@ -278,22 +245,17 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const sortedX = keptResidualLoads.of(trainingDays.map((d) => d.own.x));
   for (let s = 0; s < S; s++) {
     const slotX = xBySlot.subarray(s * n, (s + 1) * n);
-    const knots = knotValues.subarray(s * K, (s + 1) * K);
-    // The slot columns column by column (slotValues[q n + r]): x, the hinges (or spline columns), lag 1, lag 7, the response.
+    const knots = knotValues.subarray(s * J, (s + 1) * J);
+    for (let j = 0; j < J; j++) knots[j] = sortedQuantile(sortedX[s] as Float64Array, (j + 1) / (J + 1));
+    // The slot columns column by column (slotValues[q n + r]): x, the hinges, lag 1, lag 7, the response.
     slotValues.set(slotX, 0);
-    if (levels !== undefined) {
-      for (let j = 0; j < K; j++) knots[j] = sortedQuantile(sortedX[s] as Float64Array, levels[j] as number);
-      for (let r = 0; r < n; r++) naturalSplineColumns(slotX[r] as number, knots, slotValues, n + r, n);
-    } else {
-      for (let j = 0; j < J; j++) knots[j] = sortedQuantile(sortedX[s] as Float64Array, (j + 1) / (J + 1));
-      for (let j = 0; j < J; j++) {
-        const knot = knots[j] as number;
-        const base = (1 + j) * n;
-        for (let r = 0; r < n; r++) {
-          const xv = slotX[r] as number;
-          // max(0, x - k): the same number as x > k ? x - k : 0 (+0 when x <= k), without a branch.
-          slotValues[base + r] = Math.max(xv - knot, 0);
-        }
+    for (let j = 0; j < J; j++) {
+      const knot = knots[j] as number;
+      const base = (1 + j) * n;
+      for (let r = 0; r < n; r++) {
+        const xv = slotX[r] as number;
+        // max(0, x - k): the same number as x > k ? x - k : 0 (+0 when x <= k), without a branch.
+        slotValues[base + r] = Math.max(xv - knot, 0);
       }
     }
     slotValues.set(lag1BySlot.subarray(s * n, (s + 1) * n), (J + 1) * n);
@@ -326,7 +288,7 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
       );
     });
   }
-  return { scale, slots: S, basis, knots: K, curveColumns: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
+  return { scale, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
@@ -350,7 +312,7 @@ const HINGE_SUPPORT_DAYS = 20;
 const HINGE_SUPPORT_SHARE = 0.1;
 
 /**
- * Per count (the first counts[w] rows), the hinge (or spline) columns (1..J; columns[j n + r]) that fewer than the
+ * Per count (the first counts[w] rows), the hinge columns (1..J; columns[j n + r]) that fewer than the
  * support's days of those rows reach: one pass over the rows per hinge, read off at every count.
  */
 function thinHinges(columns: Float64Array, n: number, hinges: number, counts: readonly number[]): number[][] {
