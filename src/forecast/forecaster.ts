@@ -154,7 +154,7 @@ export interface ForecastOptions {
    * to 4.978 (docs/forecast-quality.md, "the eighth wave: `recent` the default"); 'recent-quadratic' takes
    * `auto` on convex-hetero from 1.076 / 1.092 / 1.094 the truth's pinball loss (own draw and two fresh
    * ones) to 1.067 / 1.082 / 1.076, every other known-distribution cell within 0.002 and the demo the
-   * same (docs/forecast-quality.md, "the ninth wave").
+   * same (docs/forecast-quality.md, "the ninth wave: the level read through the merit order's slope").
    */
   readonly driverCentre: 'pool' | 'recent' | 'recent-quadratic';
   /** Lag of the seasonal naive model of `naive-hs` [days], >= 1 (7: same weekday last week). */

@@ -127,7 +127,7 @@ export interface ErrorLevelFit {
  * errors before it. A second-order term is the first test of such a neglected nonlinearity (the powers of
  * the regressors in Ramsey's 1969 specification test), and its F test keeps it out where the errors do not
  * carry it. (Fitted jointly with the b_k under one F test it moved them too, and cost the demo:
- * docs/forecast-quality.md, "the ninth wave".)
+ * docs/forecast-quality.md, "the ninth wave: the level read through the merit order's slope".)
  *
  * Reference: J. B. Ramsey (1969), Tests for specification errors in classical linear least-squares regression
  * analysis, J. R. Stat. Soc. B 31(2), 350-371, doi:10.1111/j.2517-6161.1969.tb00796.x.
