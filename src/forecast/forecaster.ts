@@ -140,18 +140,23 @@ export interface ForecastOptions {
   /** How `driver-fhs` pools the standardised errors: per clock slot, over all slots, or over all slots weighted by the point forecast's level. */
   readonly spreadPool: SpreadPool;
   /**
-   * The centre of `driver-hs` and `driver-fhs`: 'recent' (default), every quantile of the day shifted by
-   * the level of the recent calibration errors beyond the pool's, by weights estimated on the calibration
-   * days and used only where an F test at 1% finds the recent errors' level predictive, and the pool made
-   * of the errors of the forecasts shifted the same way (quantiles/errorLevel.ts: an intercept correction,
+   * The centre of `driver-hs` and `driver-fhs`: 'recent', every quantile of the day shifted by the level
+   * of the recent calibration errors beyond the pool's, by weights estimated on the calibration days and
+   * used only where an F test at 1% finds the recent errors' level predictive, and the pool made of the
+   * errors of the forecasts shifted the same way (quantiles/errorLevel.ts: an intercept correction,
    * Clements and Hendry 1996, by a heterogeneous autoregression of the errors' day level, Corsi 2009),
-   * the weights estimated on the refit days of driverRefitDays (errorLevelShiftsOf); 'pool', the point
-   * forecast plus the error pool's quantiles as they are (the default before the eighth wave). 'recent'
-   * brings the demo's share below the median from 0.479 to 0.492 and its CRPS from 5.007 to 4.978, every
-   * known-distribution cell within 0.002 of 'pool', at about the CPU of 'pool' (docs/forecast-quality.md,
-   * "the eighth wave: `recent` the default").
+   * the weights estimated on the refit days of driverRefitDays (errorLevelShiftsOf); 'recent-quadratic'
+   * (default), 'recent' and then, on what its weights leave, a weight of the centred square of the day
+   * before's mean realised price on the error scale with an F test of its own (errorLevel.ts,
+   * fitErrorLevel with day means; the same forecasts as 'recent' where that test does not reject);
+   * 'pool', the point forecast plus the error pool's quantiles as they are (the default before the eighth
+   * wave). 'recent' brought the demo's share below the median from 0.479 to 0.492 and its CRPS from 5.007
+   * to 4.978 (docs/forecast-quality.md, "the eighth wave: `recent` the default"); 'recent-quadratic' takes
+   * `auto` on convex-hetero from 1.076 / 1.092 / 1.094 the truth's pinball loss (own draw and two fresh
+   * ones) to 1.067 / 1.082 / 1.076, every other known-distribution cell within 0.002 and the demo the
+   * same (docs/forecast-quality.md, "the ninth wave: the level read through the merit order's slope").
    */
-  readonly driverCentre: 'pool' | 'recent';
+  readonly driverCentre: 'pool' | 'recent' | 'recent-quadratic';
   /** Lag of the seasonal naive model of `naive-hs` [days], >= 1 (7: same weekday last week). */
   readonly naiveLagDays: number;
   /** Point model whose per-window forecasts `qra` averages. */
@@ -205,7 +210,7 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   driverScale: 'asinh',
   driverRefitDays: 5,
   spreadPool: 'level',
-  driverCentre: 'recent',
+  driverCentre: 'recent-quadratic',
   autoCandidates: AUTO_CANDIDATES,
   autoFallback: AUTO_FALLBACK,
   autoValidationDays: AUTO_VALIDATION_DAYS,
@@ -513,7 +518,7 @@ export class Forecaster {
     calibration.forEach((c, d) => errorsOn(c, scale, errors[d] as Float64Array, forecastsOnScale[d] as Float64Array));
     let centreShift = 0;
     if (model === 'drivers' && this.options.driverCentre !== 'pool') {
-      const shifts = this.errorLevelShiftsOf(model, view, calibration, scale, errors, calibrationDays);
+      const shifts = this.errorLevelShiftsOf(model, view, calibration, scale, errors, forecastsOnScale, calibrationDays);
       if (shifts !== null) {
         centreShift = shifts.target;
         // The pool holds the errors of the shifted forecasts, as the delivery day's quantiles are made.
@@ -544,7 +549,11 @@ export class Forecaster {
    * asks for it first (made from the history before R alone), so a day's forecast does not depend on
    * which days were asked before it.
    *
+   * With driverCentre 'recent-quadratic' every day's level comes with its mean realised price on the same
+   * scale (the quadratic term of fitErrorLevel).
+   *
    * @param calibration the delivery day's calibration days, with `errors` on its scale `scale` (before any shift)
+   *   and their point forecasts on it, `forecastsOnScale`
    */
   private errorLevelShiftsOf(
     model: PointModelName,
@@ -552,33 +561,46 @@ export class Forecaster {
     calibration: readonly CalibrationDay[],
     scale: ErrorScale,
     errors: readonly Float64Array[],
+    forecastsOnScale: readonly Float64Array[],
     calibrationDays: number,
   ): ErrorLevelShifts | null {
     const dayNumber = view.target.dayNumber;
     const refitDay = refitDayOf(dayNumber, this.options.driverRefitDays);
+    const quadratic = this.options.driverCentre === 'recent-quadratic';
     const key = `${model}|${calibrationDays}|${refitDay}`;
     let fit = this.errorLevelFits.get(key);
     if (fit === undefined) {
       if (refitDay === dayNumber) {
-        fit = { ...fitErrorLevel(Int32Array.from(calibration, (c) => c.dayNumber), errors, refitDay), scale };
+        const means = quadratic ? errors.map((e, d) => realisedMean(e, forecastsOnScale[d] as Float64Array)) : undefined;
+        fit = { ...fitErrorLevel(Int32Array.from(calibration, (c) => c.dayNumber), errors, refitDay, means), scale };
       } else {
         const days = this.calibrationSet(model, view, calibrationDays, refitDay);
         const refitScale = days.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, days, calibrationDays);
-        fit = { ...fitErrorLevel(Int32Array.from(days, (c) => c.dayNumber), days.map((c) => errorsOn(c, refitScale)), refitDay), scale: refitScale };
+        const onScale = days.map((c) => {
+          const f = new Float64Array(c.realised.length);
+          const e = errorsOn(c, refitScale, undefined, f);
+          return { e, mean: quadratic ? realisedMean(e, f) : Number.NaN };
+        });
+        const means = quadratic ? onScale.map((d) => d.mean) : undefined;
+        fit = { ...fitErrorLevel(Int32Array.from(days, (c) => c.dayNumber), onScale.map((d) => d.e), refitDay, means), scale: refitScale };
       }
       this.errorLevelFits.set(key, fit);
     }
-    const { weights, levels, slotMedians } = fit;
+    const { weights, levels, slotMedians, curvature } = fit;
     if (weights === null) return null;
     // The days from R on not yet measured (those before the delivery day), each once, on R's scale, ascending.
     if (levels.through < dayNumber - 1) {
       const work = new Float64Array(slotMedians.length);
-      for (const c of this.calibrationSet(model, view, dayNumber - 1 - levels.through)) levels.append(c.dayNumber, dayLevel(errorsOn(c, fit.scale), slotMedians, work));
+      for (const c of this.calibrationSet(model, view, dayNumber - 1 - levels.through)) {
+        const f = new Float64Array(c.realised.length);
+        const e = errorsOn(c, fit.scale, undefined, f);
+        levels.append(c.dayNumber, dayLevel(e, slotMedians, work), quadratic ? realisedMean(e, f) : Number.NaN);
+      }
       levels.coverThrough(dayNumber - 1);
     }
-    const target = levels.shift(weights, dayNumber);
+    const target = levels.shift(weights, dayNumber, curvature);
     if (target === null) return null;
-    return { target, days: Float64Array.from(calibration, (c) => levels.shift(weights, c.dayNumber) ?? 0) };
+    return { target, days: Float64Array.from(calibration, (c) => levels.shift(weights, c.dayNumber, curvature) ?? 0) };
   }
 
   /**
@@ -788,7 +810,9 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   o.driverWindowsDays.forEach((w, i) => positiveInteger(`driverWindowsDays[${i}]`, w, o.minTrainingDays));
   if (o.driverScale !== 'asinh' && o.driverScale !== 'price') throw new ArgumentError('options.driverScale', "'asinh' or 'price'", o.driverScale);
   if (o.spreadPool !== 'slot' && o.spreadPool !== 'all' && o.spreadPool !== 'level') throw new ArgumentError('options.spreadPool', "'slot', 'all' or 'level'", o.spreadPool);
-  if (o.driverCentre !== 'pool' && o.driverCentre !== 'recent') throw new ArgumentError('options.driverCentre', "'pool' or 'recent'", o.driverCentre);
+  if (o.driverCentre !== 'pool' && o.driverCentre !== 'recent' && o.driverCentre !== 'recent-quadratic') {
+    throw new ArgumentError('options.driverCentre', "'pool', 'recent' or 'recent-quadratic'", o.driverCentre);
+  }
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;
@@ -804,6 +828,13 @@ function errorsOn(c: CalibrationDay, scale: ErrorScale, e: Float64Array = new Fl
   if (scale.robust === undefined || !keptAsinhDay(scale.robust, c.realised, e)) onErrorScale(c.realised, scale, e);
   for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
   return e;
+}
+
+/** A day's mean realised price on the error scale from its errors e and point forecast f on it (e + f, the realised values). */
+function realisedMean(e: Float64Array, f: Float64Array): number {
+  let sum = 0;
+  for (let s = 0; s < e.length; s++) sum += (e[s] as number) + (f[s] as number);
+  return sum / e.length;
 }
 
 /** scale.to of every value into `out`, the same numbers (an asinh scale's loop written out: toAsinhScales). */

@@ -81,6 +81,49 @@ describe('errorLevelShifts (intercept correction by a heterogeneous autoregressi
     expect(fTestPValue([1, 1, 1], [1, 1, 1], 2, 3)).toBe(1);
   });
 
+  describe('with day means: the quadratic term in the day before\'s mean price (driverCentre \'recent-quadratic\')', () => {
+    // Invented day means without persistence and errors whose day level carries their square the next day
+    // (formulas shared with errorLevelReference.py, "quadratic term"; NumPy lstsq for the lookbacks' weights,
+    // then q'u / q'q on what they leave; SciPy f.sf(F, 3, n - 3) and f.sf(F, 1, n - 1) for the two F tests).
+    const zbar = (t: number) => ((t * 37) % 23) / 11.5 - 1;
+    const curved = dayNumbers.map((t) => Float64Array.from({ length: S }, (_, s) => (0.25 * (((t * 7 + s * 3) % 11) - 5)) / 5 + 0.1 * s - 0.7 * zbar(t - 1) ** 2));
+    const means = dayNumbers.map(zbar);
+
+    it('centres the square and fits the lookbacks\' weights, then the square\'s on what they leave, as NumPy does (script: 40 rows, p 1.7e-11 and 0.0025)', () => {
+      const fit = fitErrorLevel(dayNumbers, curved, 172, means);
+      expect(fit.curvature?.centre).toBeCloseTo(-0.032608695652173926, 12);
+      expect(fit.curvature?.meanSquare).toBeCloseTo(0.3357986767485822, 12);
+      expect(fit.curvature?.high).toBeCloseTo(0.9130434782608696, 12);
+      const expected = [-0.4354525676898244, -4.458619050650738, 6.003550271448418, -0.17307046633474907];
+      expect(Array.from(fit.weights as Float64Array)).toEqual(expected.map((v) => expect.closeTo(v, 9)));
+    });
+
+    it('gives the delivery day and the calibration days the shifts NumPy computes', () => {
+      const { target, days } = errorLevelShifts(dayNumbers, curved, 172, means);
+      expect(target).toBeCloseTo(-0.31927511235994616, 9);
+      const at = (t: number) => days[dayNumbers.indexOf(t)] as number;
+      expect(at(110)).toBeCloseTo(0.11188200175679539, 9);
+      expect(at(128)).toBeCloseTo(0.028911865731257255, 9);
+      expect(at(171)).toBeCloseTo(0.2030062500254564, 9);
+      expect(at(132)).toBe(0);
+      // Without day means: the 'recent' regression of the same errors (script: its delivery day shift).
+      expect(errorLevelShift(dayNumbers, curved, 172)).toBeCloseTo(-0.2684254389571515, 9);
+    });
+
+    it('adds no quadratic weight where its F test on what the lookbacks leave does not reject: the \'recent\' shift (script, "the slow wave with the day means": p 0.347)', () => {
+      const withMeans = fitErrorLevel(dayNumbers, errors, 172, means);
+      expect((withMeans.weights as Float64Array)[3]).toBe(0);
+      expect(errorLevelShift(dayNumbers, errors, 172, means)).toBeCloseTo(0.14866107812973975, 10);
+      // Bit for bit the shifts without day means (the lookbacks' weights from the same sums).
+      expect(errorLevelShifts(dayNumbers, errors, 172, means)).toEqual(errorLevelShifts(dayNumbers, errors, 172));
+    });
+
+    it('does not extrapolate the square: a day before beyond every row\'s level takes the greatest of them (script, "clamped")', () => {
+      const extreme = means.map((v, d) => (dayNumbers[d] === 171 ? 5 : v));
+      expect(errorLevelShift(dayNumbers, curved, 172, extreme)).toBeCloseTo(-0.36507826035023894, 9);
+    });
+  });
+
   it('adds nothing to errors whose day level has no run (a constant per slot: every y(d) is 0, the weights not estimable)', () => {
     const flat = dayNumbers.map(() => Float64Array.from({ length: S }, (_, s) => 2 * s - 3));
     const { target, days } = errorLevelShifts(dayNumbers, flat, 172);
@@ -101,16 +144,22 @@ describe('Forecaster option driverCentre (driver-hs and driver-fhs)', () => {
   const base = syntheticHistory({ days: 130, periodMinutes: 60, seed: 7 });
   const ramped: PriceHistory = { ...base, days: base.days.map((day, d) => ({ ...day, pricePerMwh: day.pricePerMwh.map((p) => p + (Math.floor(d / 15) % 2 === 0 ? 50 : -50)) })) };
   const options: Partial<ForecastOptions> = { minTrainingDays: 21, calibrationDays: 84, minCalibrationDays: 21 };
+  // Invented: a day level u(d) without persistence, and its square the next day (a level whose effect the
+  // point model, linear in the day before's mean price, cannot follow): what 'recent-quadratic' is for.
+  const u = (d: number) => (((d * 37) % 23) / 11.5 - 1) * 60;
+  const curved: PriceHistory = { ...base, days: base.days.map((day, d) => ({ ...day, pricePerMwh: day.pricePerMwh.map((p) => p + 0.3 * u(d) + (d > 0 ? u(d - 1) ** 2 / 8 : 0)) })) };
   const LEVELS = [0.1, 0.5, 0.9];
   const mean = (values: readonly number[]) => values.reduce((a, b) => a + b, 0) / values.length;
 
-  it("is 'recent' by default; 'recent' raises the medians of a day five days into a high turn (the point forecast unchanged)", () => {
-    expect(DEFAULTS.driverCentre).toBe('recent');
+  it("is 'recent-quadratic' by default; 'recent' raises the medians of a day five days into a high turn (the point forecast unchanged)", () => {
+    expect(DEFAULTS.driverCentre).toBe('recent-quadratic');
     for (const method of ['driver-hs', 'driver-fhs'] as const) {
       const pool = forecastDay(ramped, 125, LEVELS, method, { ...options, driverCentre: 'pool' });
       const byDefault = forecastDay(ramped, 125, LEVELS, method, options);
       const recent = forecastDay(ramped, 125, LEVELS, method, { ...options, driverCentre: 'recent' });
+      // The square of the day before's level carries nothing on this history: the default's forecast is 'recent''s.
       expect(byDefault.quantiles.prices).toEqual(recent.quantiles.prices);
+      expect(forecastDay(curved, 125, LEVELS, method, options).quantiles.prices).toEqual(forecastDay(curved, 125, LEVELS, method, { ...options, driverCentre: 'recent-quadratic' }).quantiles.prices);
       expect(recent.point).toEqual(pool.point);
       const median = (f: typeof pool) => mean(f.quantiles.prices.map((row) => row[1] as number));
       expect(median(recent)).toBeGreaterThan(median(pool));
@@ -126,23 +175,26 @@ describe('Forecaster option driverCentre (driver-hs and driver-fhs)', () => {
   it('between refit days gives the same forecast whatever days were asked before (later days of the same refit period first: nothing of them is read)', () => {
     const refit = refitIndexFrom(110);
     const d = refit + 2;
-    for (const method of ['driver-hs', 'driver-fhs'] as const) {
-      const recent = { ...options, driverCentre: 'recent' as const };
-      const fresh = forecastDay(ramped, d, LEVELS, method, recent);
+    for (const [method, centre] of [['driver-hs', 'recent'], ['driver-fhs', 'recent'], ['driver-fhs', 'recent-quadratic']] as const) {
+      const history = centre === 'recent' ? ramped : curved;
+      const recent = { ...options, driverCentre: centre };
+      const fresh = forecastDay(history, d, LEVELS, method, recent);
+      // The quadratic term is at work on this day (its forecast differs from 'recent''s).
+      if (centre === 'recent-quadratic') expect(fresh.quantiles.prices).not.toEqual(forecastDay(history, d, LEVELS, method, { ...options, driverCentre: 'recent' }).quantiles.prices);
       // The shift is at work on this day (the pool's forecast differs), so the check is not vacuous.
-      expect(fresh.quantiles.prices).not.toEqual(forecastDay(ramped, d, LEVELS, method, { ...options, driverCentre: 'pool' }).quantiles.prices);
-      const forecaster = new Forecaster(ramped, recent);
+      expect(fresh.quantiles.prices).not.toEqual(forecastDay(history, d, LEVELS, method, { ...options, driverCentre: 'pool' }).quantiles.prices);
+      const forecaster = new Forecaster(history, recent);
       for (const i of [refit + 4, refit + 3, refit - 2, refit, d]) forecaster.forecast(i, LEVELS, method);
       expect(forecaster.forecast(d, LEVELS, method).quantiles.prices).toEqual(fresh.quantiles.prices);
       // Days after d, prices changed: d's forecast is the same (only days before it are read, through the kept fit too).
-      const changed: PriceHistory = { ...ramped, days: ramped.days.map((day, i) => (i > d ? { ...day, pricePerMwh: day.pricePerMwh.map((p) => p + 40) } : day)) };
+      const changed: PriceHistory = { ...history, days: history.days.map((day, i) => (i > d ? { ...day, pricePerMwh: day.pricePerMwh.map((p) => p + 40) } : day)) };
       const later = new Forecaster(changed, recent);
       later.forecast(refit + 4, LEVELS, method);
       expect(later.forecast(d, LEVELS, method).quantiles.prices).toEqual(fresh.quantiles.prices);
     }
   });
 
-  it('rejects an unknown driverCentre', () => {
-    expect(() => forecastDay(ramped, 125, LEVELS, 'driver-hs', { ...options, driverCentre: 'mean' as ForecastOptions['driverCentre'] })).toThrow(/driverCentre/);
+  it('rejects an unknown driverCentre, naming the field and the values it takes', () => {
+    expect(() => forecastDay(ramped, 125, LEVELS, 'driver-hs', { ...options, driverCentre: 'mean' as ForecastOptions['driverCentre'] })).toThrow(/options\.driverCentre.*'pool', 'recent' or 'recent-quadratic'/);
   });
 });

@@ -86,3 +86,73 @@ def scrambled(t, s):
 run(scrambled, "scrambled")
 # The F test's p-value alone (the test's fTestPValue cases): F = 1 with 3 and 37 degrees of freedom, F = 2.5 with 3 and 40.
 print("f.sf(1, 3, 37)", repr(float(stats.f.sf(1, 3, 37))), "f.sf(2.5, 3, 40)", repr(float(stats.f.sf(2.5, 3, 40))))
+
+# The quadratic term (driverCentre 'recent-quadratic'; fitErrorLevel with day means zbar(d)):
+#   q(t) = (zbar(t - 1) - c)^2 - Q, c = mean of zbar(t - 1) over the rows, Q = mean of (zbar(t - 1) - c)^2 over them;
+# the lookbacks' weights b as above (np.linalg.lstsq on the three columns, used when scipy.stats.f.sf(F, 3, n - 3)
+# < 0.01, else 0), then the quadratic term's weight on what they leave, u = y - X b: b_q = q'u / q'q, used when
+# scipy.stats.f.sf(F, 1, n - 1) < 0.01 with F = b_q q'u / ((u'u - b_q q'u) / (n - 1)); a delivery day's zbar(t - 1)
+# beyond the rows' is clamped into [min, max] of them. Invented day means and errors whose day level carries the
+# square of the day before's mean (formulas shared with the test):
+def zbar(t):
+    return ((t * 37) % 23) / 11.5 - 1
+def curved(t, s):
+    return 0.25 * (((t * 7 + s * 3) % 11) - 5) / 5 + 0.1 * s - 0.7 * zbar(t - 1) ** 2
+E = np.array([[curved(t, s) for s in range(S)] for t in DAY_NUMBERS])
+m = np.median(E, axis=0)
+y = np.median(E - m, axis=1)
+days = np.array(DAY_NUMBERS)
+rows, targets, before = [], [], []
+for i, t in enumerate(DAY_NUMBERS):
+    x = features(t)
+    if t - max(LOOKBACKS) < DAY_NUMBERS[0] or x is None:
+        continue
+    rows.append(x)
+    targets.append(y[i])
+    before.append(zbar(t - 1))
+before = np.array(before)
+c = before.mean()
+Q = np.mean((before - c) ** 2)
+X = np.array(rows)
+Y = np.array(targets)
+n = len(Y)
+bh, *_ = np.linalg.lstsq(X, Y, rcond=None)
+essh = float(bh @ X.T @ Y)
+ph = stats.f.sf((essh / 3) / ((float(Y @ Y) - essh) / (n - 3)), 3, n - 3)
+if not ph < 0.01:
+    bh = np.zeros(3)
+q = (before - c) ** 2 - Q
+u = Y - X @ bh
+bq = float(q @ u) / float(q @ q)
+essq = bq * float(q @ u)
+Fq = essq / ((float(u @ u) - essq) / (n - 1))
+pq = stats.f.sf(Fq, 1, n - 1)
+if not pq < 0.01:
+    bq = 0.0
+print("quadratic term: rows", n, "centre", repr(float(c)), "mean square", repr(float(Q)), "lookbacks' p", repr(float(ph)), "weights", [repr(float(v)) for v in bh], "quadratic F", repr(Fq), "p", repr(float(pq)), "weight", repr(bq))
+def quadratic_shift(t, previous=None):
+    x = features(t)
+    if x is None:
+        return 0.0
+    z = zbar(t - 1) if previous is None else previous
+    z = min(max(z, before.min()), before.max())
+    return float(np.dot(x, bh) + bq * ((z - c) ** 2 - Q))
+print("  delivery day shift", repr(quadratic_shift(TARGET)))
+print("  delivery day shift with zbar(171) = 5, clamped to", repr(float(before.max())), repr(quadratic_shift(TARGET, 5.0)))
+for t in (110, 128, 171):
+    print(f"  day {t} shift", repr(quadratic_shift(t)))
+print("  the same errors without the quadratic term: delivery day shift", repr(float(np.dot(features(TARGET), bh))))
+# The slow wave's errors of the first case with the same day means: the quadratic term's F test on what the
+# lookbacks leave does not reject, so its weight is 0 and the shift is the 'recent' one ("a slow wave" above).
+E = np.array([[error(t, s) for s in range(S)] for t in DAY_NUMBERS])
+m = np.median(E, axis=0)
+y = np.median(E - m, axis=1)
+kept = [i for i, t in enumerate(DAY_NUMBERS) if t - max(LOOKBACKS) >= DAY_NUMBERS[0] and features(t) is not None]
+X = np.array([features(DAY_NUMBERS[i]) for i in kept])
+Y = np.array([y[i] for i in kept])
+bh, *_ = np.linalg.lstsq(X, Y, rcond=None)
+u = Y - X @ bh
+bq = float(q @ u) / float(q @ q)
+essq = bq * float(q @ u)
+Fq = essq / ((float(u @ u) - essq) / (n - 1))
+print("the slow wave with the day means: quadratic F", repr(Fq), "p", repr(float(stats.f.sf(Fq, 1, n - 1))), "delivery day shift", repr(float(np.dot(features(TARGET), bh))))

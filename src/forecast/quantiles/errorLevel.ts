@@ -57,8 +57,8 @@ export const ERROR_LEVEL_FIT_DAYS = 364;
  *   a whole lookback, when a lookback before the delivery day holds no calibration day, or when the
  *   normal equations are singular
  */
-export function errorLevelShift(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], targetDay: number): number {
-  return errorLevelShifts(dayNumbers, errors, targetDay).target;
+export function errorLevelShift(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], targetDay: number, dayMeans?: ArrayLike<number>): number {
+  return errorLevelShifts(dayNumbers, errors, targetDay, dayMeans).target;
 }
 
 /** The shifts of {@link errorLevelShift}: the delivery day's, and each calibration day's from its own lookbacks (0 without a whole lookback). */
@@ -73,29 +73,66 @@ export interface ErrorLevelShifts {
  * it, so that the pool can hold the errors of the shifted forecasts, e(d, s) - shift(d): the pool then
  * holds the errors of the forecasts the delivery day's quantiles are made like.
  */
-export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], targetDay: number): ErrorLevelShifts {
+export function errorLevelShifts(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], targetDay: number, dayMeans?: ArrayLike<number>): ErrorLevelShifts {
   const n = errors.length;
   const days = new Float64Array(n);
-  const fit = fitErrorLevel(dayNumbers, errors, targetDay);
-  const target = fit.weights === null ? null : fit.levels.shift(fit.weights, targetDay);
+  const fit = fitErrorLevel(dayNumbers, errors, targetDay, dayMeans);
+  const target = fit.weights === null ? null : fit.levels.shift(fit.weights, targetDay, fit.curvature);
   if (target === null) return { target: 0, days };
-  for (let d = 0; d < n; d++) days[d] = fit.levels.shift(fit.weights as Float64Array, dayNumbers[d] as number) ?? 0;
+  for (let d = 0; d < n; d++) days[d] = fit.levels.shift(fit.weights as Float64Array, dayNumbers[d] as number, fit.curvature) ?? 0;
   return { target, days };
 }
 
-/** What a fit of the day-level regression keeps: the slot medians m_s, the day levels y(d), the weights b (null: not used). */
+/**
+ * The centring of the quadratic term of {@link fitErrorLevel} with day means: q(t) = (zbar(t - 1) - centre)^2
+ * - meanSquare, with centre the mean of zbar(t - 1) over the regression's rows and meanSquare the mean of
+ * (zbar(t - 1) - centre)^2 over them (so that q has mean 0 over the rows: without an intercept, an
+ * uncentred square would act as one).
+ */
+export interface LevelCurvature {
+  readonly centre: number;
+  readonly meanSquare: number;
+  /** The least and greatest zbar(t - 1) of the rows: a day's zbar(t - 1) is clamped into them (the square is not extrapolated). */
+  readonly low: number;
+  readonly high: number;
+}
+
+/**
+ * What a fit of the day-level regression keeps: the slot medians m_s, the day levels y(d), the weights b (null:
+ * not used), and with day means the centring of the quadratic term (null without day means).
+ */
 export interface ErrorLevelFit {
   readonly slotMedians: Float64Array;
   readonly levels: DayLevels;
   readonly weights: Float64Array | null;
+  readonly curvature: LevelCurvature | null;
 }
 
 /**
  * The slot medians m_s, day levels y(d) and weights b of {@link errorLevelShift} over the calibration
  * days given (all before the day the fit is made for); weights null when fewer than the longest
  * lookback's days have a whole lookback, the normal equations are singular or the F test does not reject.
+ *
+ * With `dayMeans` (zbar(d), each calibration day's mean realised price on the error scale) a quadratic
+ * term in the day before's price level follows the lookbacks:
+ *   y(d) = sum_k b_k x_k(d) + b_q q(d) + v(d),   q(d) = (zbar(d - 1) - c)^2 - Q  (LevelCurvature).
+ * The b_k are the ones above (the same rows, sums and F test: with b_q = 0 the shifts are those without
+ * day means, bit for bit); b_q is fitted on what they leave, u(d) = y(d) - sum_k b_k x_k(d), as
+ * b_q = sum q u / sum q^2, and used only where its own F test (1 and n - 1 degrees of freedom) rejects at
+ * ERROR_LEVEL_TEST_SIZE. A day whose zbar(t - 1) lies beyond those of the rows takes the nearest of them
+ * (a polynomial term is not extrapolated beyond the data it was fitted on). Why: the driver regression
+ * reads the persistent day level linearly from the day before's mean price; where the level's effect on
+ * the next day's prices is not linear on the error scale (a convex merit order seen through the asinh
+ * scale), the errors' day level varies with the square of the day before's level though not with the
+ * errors before it. A second-order term is the first test of such a neglected nonlinearity (the powers of
+ * the regressors in Ramsey's 1969 specification test), and its F test keeps it out where the errors do not
+ * carry it. (Fitted jointly with the b_k under one F test it moved them too, and cost the demo:
+ * docs/forecast-quality.md, "the ninth wave: the level read through the merit order's slope".)
+ *
+ * Reference: J. B. Ramsey (1969), Tests for specification errors in classical linear least-squares regression
+ * analysis, J. R. Stat. Soc. B 31(2), 350-371, doi:10.1111/j.2517-6161.1969.tb00796.x.
  */
-export function fitErrorLevel(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], fitDay: number): ErrorLevelFit {
+export function fitErrorLevel(dayNumbers: ArrayLike<number>, errors: readonly ArrayLike<number>[], fitDay: number, dayMeans?: ArrayLike<number>): ErrorLevelFit {
   const n = errors.length;
   const S = n === 0 ? 0 : (errors[0] as ArrayLike<number>).length;
   const lookbacks = ERROR_LEVEL_LOOKBACK_DAYS;
@@ -110,8 +147,9 @@ export function fitErrorLevel(dayNumbers: ArrayLike<number>, errors: readonly Ar
   // y(d), the day's median error beyond its slots' medians.
   const levels = new DayLevels(n === 0 ? 0 : (dayNumbers[0] as number));
   const work = new Float64Array(S);
-  for (let d = 0; d < n; d++) levels.append(dayNumbers[d] as number, dayLevel(errors[d] as ArrayLike<number>, slotMedians, work));
-  if (n === 0) return { slotMedians, levels, weights: null };
+  for (let d = 0; d < n; d++) levels.append(dayNumbers[d] as number, dayLevel(errors[d] as ArrayLike<number>, slotMedians, work), dayMeans?.[d] as number);
+  if (n === 0) return { slotMedians, levels, weights: null, curvature: null };
+  if (dayMeans !== undefined) return fitWithCurvature(dayNumbers, fitDay, slotMedians, levels);
   const first = dayNumbers[0] as number;
   const p = lookbacks.length;
   const gram = new Float64Array(p * p);
@@ -130,10 +168,78 @@ export function fitErrorLevel(dayNumbers: ArrayLike<number>, errors: readonly Ar
     }
     rows++;
   }
-  if (rows < longest) return { slotMedians, levels, weights: null };
+  if (rows < longest) return { slotMedians, levels, weights: null, curvature: null };
   const b = solveSymmetric(gram, rhs, p);
-  if (b === null || !(fTestPValue(b, rhs, yy, rows) < ERROR_LEVEL_TEST_SIZE)) return { slotMedians, levels, weights: null };
-  return { slotMedians, levels, weights: b };
+  if (b === null || !(fTestPValue(b, rhs, yy, rows) < ERROR_LEVEL_TEST_SIZE)) return { slotMedians, levels, weights: null, curvature: null };
+  return { slotMedians, levels, weights: b, curvature: null };
+}
+
+/** {@link fitErrorLevel}'s regression with the quadratic term q(d) (levels appended with their day means). */
+function fitWithCurvature(dayNumbers: ArrayLike<number>, fitDay: number, slotMedians: Float64Array, levels: DayLevels): ErrorLevelFit {
+  const n = dayNumbers.length;
+  const longest = Math.max(...ERROR_LEVEL_LOOKBACK_DAYS);
+  const first = dayNumbers[0] as number;
+  const h = ERROR_LEVEL_LOOKBACK_DAYS.length;
+  const p = h + 1;
+  // The rows: their lookbacks' means and the day before's mean price (first pass), then the centring of q.
+  const features: Float64Array[] = [];
+  const before: number[] = [];
+  const targets: number[] = [];
+  for (let d = 0; d < n; d++) {
+    const t = dayNumbers[d] as number;
+    const x = new Float64Array(p);
+    if (t - longest < first || t < fitDay - ERROR_LEVEL_FIT_DAYS || !levels.features(t, x)) continue;
+    const previous = levels.meanBefore(t);
+    if (!Number.isFinite(previous)) continue;
+    features.push(x);
+    before.push(previous);
+    targets.push(levels.level(t));
+  }
+  const rows = features.length;
+  if (rows < longest) return { slotMedians, levels, weights: null, curvature: null };
+  let centre = 0;
+  for (const v of before) centre += v;
+  centre /= rows;
+  let meanSquare = 0;
+  for (const v of before) meanSquare += (v - centre) ** 2;
+  meanSquare /= rows;
+  const curvature = { centre, meanSquare, low: Math.min(...before), high: Math.max(...before) };
+  const gram = new Float64Array(p * p);
+  const rhs = new Float64Array(p);
+  let yy = 0;
+  for (let r = 0; r < rows; r++) {
+    const x = features[r] as Float64Array;
+    x[h] = ((before[r] as number) - centre) ** 2 - meanSquare;
+    const y = targets[r] as number;
+    yy += y * y;
+    for (let i = 0; i < p; i++) {
+      rhs[i] = (rhs[i] as number) + (x[i] as number) * y;
+      for (let j = 0; j < p; j++) gram[i * p + j] = (gram[i * p + j] as number) + (x[i] as number) * (x[j] as number);
+    }
+  }
+  // The lookbacks' weights as 'recent' fits them (the Gram's leading h x h block, its own F test), then the
+  // quadratic term's weight on what they leave, with an F test of its own.
+  const gh = new Float64Array(h * h);
+  for (let i = 0; i < h; i++) for (let j = 0; j < h; j++) gh[i * h + j] = gram[i * p + j] as number;
+  const rh = rhs.subarray(0, h);
+  const har = solveSymmetric(gh, rh, h);
+  const b = new Float64Array(p);
+  if (har !== null && fTestPValue(har, rh, yy, rows) < ERROR_LEVEL_TEST_SIZE) b.set(har);
+  // u = y - sum_k b_k x_k: q'u = q'y - sum_k b_k q'x_k and u'u = y'y - 2 b'X'y + b'X'X b.
+  let qu = rhs[h] as number;
+  let uu = yy;
+  for (let i = 0; i < h; i++) {
+    qu -= (b[i] as number) * (gram[h * p + i] as number);
+    uu -= 2 * (b[i] as number) * (rhs[i] as number);
+    for (let j = 0; j < h; j++) uu += (b[i] as number) * (b[j] as number) * (gram[i * p + j] as number);
+  }
+  const qq = gram[h * p + h] as number;
+  if (qq > 0) {
+    const bq = qu / qq;
+    if (fTestPValue([bq], [qu], uu, rows) < ERROR_LEVEL_TEST_SIZE) b[h] = bq;
+  }
+  if (b.every((v) => v === 0)) return { slotMedians, levels, weights: null, curvature };
+  return { slotMedians, levels, weights: b, curvature };
 }
 
 /** y = median over the slots s of (row[s] - slotMedians[s]); `work` holds S values. */
@@ -151,6 +257,8 @@ export class DayLevels {
   /** sums[i] = the sum of y over the days first .. first + i - 1; counts likewise the days with a level. */
   private sums = new Float64Array(65);
   private counts = new Int32Array(65);
+  /** means[i] = zbar of day first + i (NaN: none given, or the day has no level). */
+  private means = new Float64Array(65).fill(Number.NaN);
   /** Calendar days covered [-]: every day from `first` to first + span - 1 has been appended or has no level. */
   private span = 0;
 
@@ -161,14 +269,21 @@ export class DayLevels {
     return this.first + this.span - 1;
   }
 
-  /** Appends day `dayNumber`'s level y (days between the last one and it have none). */
-  append(dayNumber: number, y: number): void {
+  /** Appends day `dayNumber`'s level y, and its mean price zbar if given (days between the last one and it have none). */
+  append(dayNumber: number, y: number, mean = Number.NaN): void {
     this.coverThrough(dayNumber - 1);
     this.grow(this.span + 1);
     const i = this.span;
     this.sums[i + 1] = (this.sums[i] as number) + y;
     this.counts[i + 1] = (this.counts[i] as number) + 1;
+    this.means[i] = mean;
     this.span++;
+  }
+
+  /** zbar of day t - 1 as appended, NaN when that day has no level or no mean. */
+  meanBefore(t: number): number {
+    const i = t - 1 - this.first;
+    return i < 0 || i >= this.span ? Number.NaN : (this.means[i] as number);
   }
 
   /** States that the days up to `dayNumber` not appended have no level. */
@@ -179,6 +294,7 @@ export class DayLevels {
     for (let i = this.span; i < upTo; i++) {
       this.sums[i + 1] = this.sums[i] as number;
       this.counts[i + 1] = this.counts[i] as number;
+      this.means[i] = Number.NaN;
     }
     this.span = upTo;
   }
@@ -206,13 +322,21 @@ export class DayLevels {
     return true;
   }
 
-  /** sum_k b_k x_k(t), or null when a lookback of t holds no day. */
-  shift(b: Float64Array, t: number): number | null {
+  /**
+   * sum_k b_k x_k(t), plus b_q q(t) with `curvature` (fitErrorLevel with day means), or null when a lookback
+   * of t holds no day (or, with `curvature`, day t - 1 has no mean).
+   */
+  shift(b: Float64Array, t: number, curvature: LevelCurvature | null = null): number | null {
     const x = this.scratch;
     if (!this.features(t, x)) return null;
+    const h = ERROR_LEVEL_LOOKBACK_DAYS.length;
     let shift = 0;
-    for (let k = 0; k < b.length; k++) shift += (b[k] as number) * (x[k] as number);
-    return shift;
+    for (let k = 0; k < h; k++) shift += (b[k] as number) * (x[k] as number);
+    if (curvature === null) return shift;
+    const previous = this.meanBefore(t);
+    if (!Number.isFinite(previous)) return null;
+    const clamped = Math.min(Math.max(previous, curvature.low), curvature.high);
+    return shift + (b[h] as number) * ((clamped - curvature.centre) ** 2 - curvature.meanSquare);
   }
 
   private readonly scratch = new Float64Array(ERROR_LEVEL_LOOKBACK_DAYS.length);
@@ -223,10 +347,13 @@ export class DayLevels {
     const size = Math.max(length, 2 * (this.sums.length - 1));
     const sums = new Float64Array(size + 1);
     const counts = new Int32Array(size + 1);
+    const means = new Float64Array(size + 1).fill(Number.NaN);
     sums.set(this.sums);
     counts.set(this.counts);
+    means.set(this.means);
     this.sums = sums;
     this.counts = counts;
+    this.means = means;
   }
 }
 
