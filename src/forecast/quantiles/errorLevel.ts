@@ -149,74 +149,78 @@ export function fitErrorLevel(dayNumbers: ArrayLike<number>, errors: readonly Ar
   const work = new Float64Array(S);
   for (let d = 0; d < n; d++) levels.append(dayNumbers[d] as number, dayLevel(errors[d] as ArrayLike<number>, slotMedians, work), dayMeans?.[d] as number);
   if (n === 0) return { slotMedians, levels, weights: null, curvature: null };
-  if (dayMeans !== undefined) return fitWithCurvature(dayNumbers, fitDay, slotMedians, levels);
-  const first = dayNumbers[0] as number;
+  const rows = regressionRows(dayNumbers, fitDay, levels, dayMeans !== undefined);
+  if (rows.targets.length < longest) return { slotMedians, levels, weights: null, curvature: null };
+  if (dayMeans !== undefined) return fitWithCurvature(rows, slotMedians, levels);
   const p = lookbacks.length;
-  const gram = new Float64Array(p * p);
-  const rhs = new Float64Array(p);
-  const x = new Float64Array(p);
-  let rows = 0;
-  let yy = 0;
-  for (let d = 0; d < n; d++) {
-    const t = dayNumbers[d] as number;
-    if (t - longest < first || t < fitDay - ERROR_LEVEL_FIT_DAYS || !levels.features(t, x)) continue;
-    const y = levels.level(t);
-    yy += y * y;
-    for (let i = 0; i < p; i++) {
-      rhs[i] = (rhs[i] as number) + (x[i] as number) * y;
-      for (let j = 0; j < p; j++) gram[i * p + j] = (gram[i * p + j] as number) + (x[i] as number) * (x[j] as number);
-    }
-    rows++;
-  }
-  if (rows < longest) return { slotMedians, levels, weights: null, curvature: null };
+  const { gram, rhs, yy } = normalEquations(rows, p);
   const b = solveSymmetric(gram, rhs, p);
-  if (b === null || !(fTestPValue(b, rhs, yy, rows) < ERROR_LEVEL_TEST_SIZE)) return { slotMedians, levels, weights: null, curvature: null };
+  if (b === null || !(fTestPValue(b, rhs, yy, rows.targets.length) < ERROR_LEVEL_TEST_SIZE)) return { slotMedians, levels, weights: null, curvature: null };
   return { slotMedians, levels, weights: b, curvature: null };
 }
 
-/** {@link fitErrorLevel}'s regression with the quadratic term q(d) (levels appended with their day means). */
-function fitWithCurvature(dayNumbers: ArrayLike<number>, fitDay: number, slotMedians: Float64Array, levels: DayLevels): ErrorLevelFit {
-  const n = dayNumbers.length;
+/**
+ * The rows of the day-level regression, ascending: each calibration day whose longest lookback lies within the
+ * calibration days and that lies within ERROR_LEVEL_FIT_DAYS of the fit's day, with its lookbacks' means
+ * x_k(d) (and, `withMeans`, a last entry left for q(d) and the day before's mean price zbar(d - 1)) and its level y(d).
+ */
+interface RegressionRows {
+  readonly features: Float64Array[];
+  readonly before: number[];
+  readonly targets: number[];
+}
+
+function regressionRows(dayNumbers: ArrayLike<number>, fitDay: number, levels: DayLevels, withMeans: boolean): RegressionRows {
+  const h = ERROR_LEVEL_LOOKBACK_DAYS.length;
   const longest = Math.max(...ERROR_LEVEL_LOOKBACK_DAYS);
   const first = dayNumbers[0] as number;
-  const h = ERROR_LEVEL_LOOKBACK_DAYS.length;
-  const p = h + 1;
-  // The rows: their lookbacks' means and the day before's mean price (first pass), then the centring of q.
-  const features: Float64Array[] = [];
-  const before: number[] = [];
-  const targets: number[] = [];
-  for (let d = 0; d < n; d++) {
+  const rows: RegressionRows = { features: [], before: [], targets: [] };
+  for (let d = 0; d < dayNumbers.length; d++) {
     const t = dayNumbers[d] as number;
-    const x = new Float64Array(p);
+    const x = new Float64Array(withMeans ? h + 1 : h);
     if (t - longest < first || t < fitDay - ERROR_LEVEL_FIT_DAYS || !levels.features(t, x)) continue;
-    const previous = levels.meanBefore(t);
-    if (!Number.isFinite(previous)) continue;
-    features.push(x);
-    before.push(previous);
-    targets.push(levels.level(t));
+    const previous = withMeans ? levels.meanBefore(t) : Number.NaN;
+    if (withMeans && !Number.isFinite(previous)) continue;
+    rows.features.push(x);
+    rows.before.push(previous);
+    rows.targets.push(levels.level(t));
   }
-  const rows = features.length;
-  if (rows < longest) return { slotMedians, levels, weights: null, curvature: null };
-  let centre = 0;
-  for (const v of before) centre += v;
-  centre /= rows;
-  let meanSquare = 0;
-  for (const v of before) meanSquare += (v - centre) ** 2;
-  meanSquare /= rows;
-  const curvature = { centre, meanSquare, low: Math.min(...before), high: Math.max(...before) };
+  return rows;
+}
+
+/** X'X (p x p), X'y and y'y over the rows' first p features, summed in the rows' order. */
+function normalEquations(rows: RegressionRows, p: number): { gram: Float64Array; rhs: Float64Array; yy: number } {
   const gram = new Float64Array(p * p);
   const rhs = new Float64Array(p);
   let yy = 0;
-  for (let r = 0; r < rows; r++) {
-    const x = features[r] as Float64Array;
-    x[h] = ((before[r] as number) - centre) ** 2 - meanSquare;
-    const y = targets[r] as number;
+  for (let r = 0; r < rows.targets.length; r++) {
+    const x = rows.features[r] as Float64Array;
+    const y = rows.targets[r] as number;
     yy += y * y;
     for (let i = 0; i < p; i++) {
       rhs[i] = (rhs[i] as number) + (x[i] as number) * y;
       for (let j = 0; j < p; j++) gram[i * p + j] = (gram[i * p + j] as number) + (x[i] as number) * (x[j] as number);
     }
   }
+  return { gram, rhs, yy };
+}
+
+/** {@link fitErrorLevel}'s regression with the quadratic term q(d) (the rows with the day before's mean price). */
+function fitWithCurvature(rows: RegressionRows, slotMedians: Float64Array, levels: DayLevels): ErrorLevelFit {
+  const h = ERROR_LEVEL_LOOKBACK_DAYS.length;
+  const p = h + 1;
+  const { features, before } = rows;
+  const n = features.length;
+  // The centring of q over the rows, then q(d) as the rows' last feature.
+  let centre = 0;
+  for (const v of before) centre += v;
+  centre /= n;
+  let meanSquare = 0;
+  for (const v of before) meanSquare += (v - centre) ** 2;
+  meanSquare /= n;
+  const curvature = { centre, meanSquare, low: Math.min(...before), high: Math.max(...before) };
+  for (let r = 0; r < n; r++) (features[r] as Float64Array)[h] = ((before[r] as number) - centre) ** 2 - meanSquare;
+  const { gram, rhs, yy } = normalEquations(rows, p);
   // The lookbacks' weights as 'recent' fits them (the Gram's leading h x h block, its own F test), then the
   // quadratic term's weight on what they leave, with an F test of its own.
   const gh = new Float64Array(h * h);
@@ -224,7 +228,7 @@ function fitWithCurvature(dayNumbers: ArrayLike<number>, fitDay: number, slotMed
   const rh = rhs.subarray(0, h);
   const har = solveSymmetric(gh, rh, h);
   const b = new Float64Array(p);
-  if (har !== null && fTestPValue(har, rh, yy, rows) < ERROR_LEVEL_TEST_SIZE) b.set(har);
+  if (har !== null && fTestPValue(har, rh, yy, n) < ERROR_LEVEL_TEST_SIZE) b.set(har);
   // u = y - sum_k b_k x_k: q'u = q'y - sum_k b_k q'x_k and u'u = y'y - 2 b'X'y + b'X'X b.
   let qu = rhs[h] as number;
   let uu = yy;
@@ -236,7 +240,7 @@ function fitWithCurvature(dayNumbers: ArrayLike<number>, fitDay: number, slotMed
   const qq = gram[h * p + h] as number;
   if (qq > 0) {
     const bq = qu / qq;
-    if (fTestPValue([bq], [qu], uu, rows) < ERROR_LEVEL_TEST_SIZE) b[h] = bq;
+    if (fTestPValue([bq], [qu], uu, n) < ERROR_LEVEL_TEST_SIZE) b[h] = bq;
   }
   if (b.every((v) => v === 0)) return { slotMedians, levels, weights: null, curvature };
   return { slotMedians, levels, weights: b, curvature };
