@@ -1,6 +1,6 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
 import { KeptFits } from '../keptFits.js';
-import { farOutFences } from './farOutFences.js';
+import { farOutFences, sortedFarOutFences, type Fences } from './farOutFences.js';
 import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
@@ -43,6 +43,8 @@ export interface DriverSettings {
 export interface DriverFit {
   /** The robust scale of the asinh transform (null on the price scale). */
   readonly scale: RobustScale | null;
+  /** Far-out fences of all prices of the longest window's training days [currency/MWh]: the price regressors are clipped at them too. */
+  readonly fences: Fences;
   /** S, clock slots per day. */
   readonly slots: number;
   /** J, hinge knots per slot. */
@@ -154,7 +156,7 @@ function fitOnDay(view: HistoryView, columns: ResidualLoadColumns, settings: Dri
  * from the Grams directly (predictLinear adds the same terms in the same order as choleskyPrediction).
  */
 function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit, lag1: number, lag7: number): PointForecast {
-  const days = new DriverDays(view, columns, fit.scale);
+  const days = new DriverDays(view, columns, fit.scale, fit.fences);
   const targetDay = days.regressors(lag1, lag7, view.target.weekday);
   const targetX = residualLoad(view.target, columns);
   const { slots: S, knots: J, coefficients: k } = fit;
@@ -206,8 +208,9 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rows = training.slice(0, n);
-  const scale = settings.scale === 'asinh' ? view.robustScaleOf(rows, longest) : null;
-  const days = new DriverDays(view, columns, scale);
+  // The robust scale and the far-out fences of all prices of the training days (one sorted sample).
+  const { scale, fences } = scaleAndFences(view, rows, longest, settings.scale);
+  const days = new DriverDays(view, columns, scale, fences);
   const S = view.slotsPerDay;
   const J = settings.knots;
   // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
@@ -288,7 +291,7 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
       );
     });
   }
-  return { scale, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
+  return { scale, fences, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
@@ -391,6 +394,7 @@ class DriverDays {
     private readonly view: HistoryView,
     private readonly columns: ResidualLoadColumns,
     private readonly scale: RobustScale | null,
+    private readonly sampleFences: Fences,
   ) {
     this.signature = `${columns.added.join(',')}-${columns.subtracted.join(',')}`;
   }
@@ -413,12 +417,18 @@ class DriverDays {
       // The transformation is increasing, so clipping at the transformed fences equals transforming the clipped prices.
       const low = scale === null ? inputs.low : toAsinhScale(inputs.low, scale);
       const high = scale === null ? inputs.high : toAsinhScale(inputs.high, scale);
+      // Then at the training sample's fences: a day whose prices spiked in more than a quarter of its
+      // periods (an outage lasting the day) has day fences that hold its spikes (docs/forecast-quality.md,
+      // the ninth wave: outage-spikes' fresh draw 3).
+      const sampleLow = scale === null ? this.sampleFences.low : toAsinhScale(this.sampleFences.low, scale);
+      const sampleHigh = scale === null ? this.sampleFences.high : toAsinhScale(this.sampleFences.high, scale);
       if (scale === null) z.set(prices);
       else toAsinhScales(prices, scale, z);
       let sum = 0;
       for (let s = 0; s < S; s++) {
         const v = z[s] as number;
-        const c = v < low ? low : v > high ? high : v;
+        const d = v < low ? low : v > high ? high : v;
+        const c = d < sampleLow ? sampleLow : d > sampleHigh ? sampleHigh : d;
         clipped[s] = c;
         sum += c;
       }
@@ -459,6 +469,21 @@ class DriverDays {
   toPrice(z: number): number {
     return this.scale === null ? z : fromAsinhScale(z, this.scale);
   }
+}
+
+/** The robust scale (null on the price scale) and the far-out fences of all prices of the past days `rows`. */
+function scaleAndFences(view: HistoryView, rows: readonly number[], windowDays: number, scale: DriverSettings['scale']): { scale: RobustScale | null; fences: Fences } {
+  if (scale === 'asinh') {
+    const { scale: robust, bounds } = view.robustScaleWithBoundsOf(rows, windowDays);
+    return { scale: robust, fences: bounds.fences };
+  }
+  const prices = new Float64Array(rows.reduce((sum, i) => sum + view.past(i).prices.length, 0));
+  let at = 0;
+  for (const i of rows) {
+    prices.set(view.past(i).prices, at);
+    at += view.past(i).prices.length;
+  }
+  return { scale: null, fences: sortedFarOutFences(prices.sort()) };
 }
 
 function meanOf(values: Float64Array): number {
