@@ -93,7 +93,9 @@ const LAGS = [1, 7] as const;
  *   from the part that persists (as the LEAR model of Lago et al. 2021 reads the exogenous columns of
  *   the day before). The same slot yesterday and a week ago carry the slot's own persistence and the
  *   weekly profile with the dummies. The prices these regressors read are clipped at the day's far-out
- *   fences (farOutFences), so that a spike hour does not move tomorrow's level.
+ *   fences (farOutFences), so that a spike hour does not move tomorrow's level, then at the far-out
+ *   fences of the training days' prices on the model's scale, so that a day spiked in most of its
+ *   periods (whose own fences hold its spikes) does not either.
  * - Estimation: least squares (standardised normal equations, Cholesky), then once more on Huber's
  *   pseudo-observations y* = y_hat + psi(y - y_hat) of the longest window's fit (psi clips residuals
  *   at 1.345 robust standard deviations): Bickel's (1975) one-step Huber estimate. Spike periods in the
