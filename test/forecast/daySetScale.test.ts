@@ -2,7 +2,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { DaySetScale, sortedMad } from '../../src/forecast/models/daySetScale.js';
 import { robustScale } from '../../src/forecast/models/robustAsinh.js';
-import { farOutFences } from '../../src/forecast/models/farOutFences.js';
+import { farOutFences, sortedSampleBounds } from '../../src/forecast/models/farOutFences.js';
 import { seededRandom } from './seededRandom.js';
 
 /**
@@ -99,7 +99,7 @@ describe('DaySetScale: robustScale of a moving set of days, kept sorted', () => 
   it('withBounds: robustScale, and Tukey\'s far-out fences and the extremes of the same set read off the kept sorted prices, bit for bit, as sets are asked in turn', () => {
     // [1, 2, 3, 4, 100]: quartiles of definition 7 (Hyndman and Fan 1996) 2 and 4, fences 2 - 6 = -4
     // and 4 + 6 = 10 (Tukey 1977, section 2H), worked by hand.
-    expect(new DaySetScale().withBounds([Float64Array.of(1, 2, 3, 4, 100)]).bounds).toEqual({ fences: { low: -4, high: 10 }, lowest: 1, highest: 100 });
+    expect(new DaySetScale().withBounds([Float64Array.of(1, 2, 3, 4, 100)]).bounds).toEqual({ fences: { low: -4, high: 10 }, quartiles: { q1: 2, q3: 4 }, lowest: 1, highest: 100 });
     const random = seededRandom(31);
     const days = Array.from({ length: 60 }, () => dayPrices(random, 8, 50 * random()));
     fc.assert(
@@ -109,7 +109,7 @@ describe('DaySetScale: robustScale of a moving set of days, kept sorted', () => 
           const asked = days.slice(start, Math.min(days.length, start + size));
           if (scaleFirst) kept.of(asked);
           const got = kept.withBounds(asked);
-          expect(got.bounds).toEqual({ fences: farOutFences(concat(asked)), lowest: Math.min(...concat(asked)), highest: Math.max(...concat(asked)) });
+          expect(got.bounds).toEqual({ fences: farOutFences(concat(asked)), quartiles: sortedSampleBounds(concat(asked).sort()).quartiles, lowest: Math.min(...concat(asked)), highest: Math.max(...concat(asked)) });
           const want = robustScale(concat(asked));
           expect(Object.is(got.scale.scale, want.scale) && Object.is(got.scale.median, want.median)).toBe(true);
           expect(kept.of(asked)).toBe(got.scale);

@@ -1,6 +1,6 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
 import { KeptFits } from '../keptFits.js';
-import { farOutFences } from './farOutFences.js';
+import { farOutFences, sortedSampleBounds, type SampleBounds } from './farOutFences.js';
 import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
@@ -43,6 +43,8 @@ export interface DriverSettings {
 export interface DriverFit {
   /** The robust scale of the asinh transform (null on the price scale). */
   readonly scale: RobustScale | null;
+  /** Quartiles of all prices of the longest window's training days [currency/MWh]: the price regressors are also clipped at their far-out fences on the model's scale. */
+  readonly quartiles: SampleBounds['quartiles'];
   /** S, clock slots per day. */
   readonly slots: number;
   /** J, hinge knots per slot. */
@@ -91,7 +93,9 @@ const LAGS = [1, 7] as const;
  *   from the part that persists (as the LEAR model of Lago et al. 2021 reads the exogenous columns of
  *   the day before). The same slot yesterday and a week ago carry the slot's own persistence and the
  *   weekly profile with the dummies. The prices these regressors read are clipped at the day's far-out
- *   fences (farOutFences), so that a spike hour does not move tomorrow's level.
+ *   fences (farOutFences), so that a spike hour does not move tomorrow's level, then at the far-out
+ *   fences of the training days' prices on the model's scale, so that a day spiked in most of its
+ *   periods (whose own fences hold its spikes) does not either.
  * - Estimation: least squares (standardised normal equations, Cholesky), then once more on Huber's
  *   pseudo-observations y* = y_hat + psi(y - y_hat) of the longest window's fit (psi clips residuals
  *   at 1.345 robust standard deviations): Bickel's (1975) one-step Huber estimate. Spike periods in the
@@ -154,7 +158,7 @@ function fitOnDay(view: HistoryView, columns: ResidualLoadColumns, settings: Dri
  * from the Grams directly (predictLinear adds the same terms in the same order as choleskyPrediction).
  */
 function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit, lag1: number, lag7: number): PointForecast {
-  const days = new DriverDays(view, columns, fit.scale);
+  const days = new DriverDays(view, columns, fit.scale, fit.quartiles);
   const targetDay = days.regressors(lag1, lag7, view.target.weekday);
   const targetX = residualLoad(view.target, columns);
   const { slots: S, knots: J, coefficients: k } = fit;
@@ -206,8 +210,9 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rows = training.slice(0, n);
-  const scale = settings.scale === 'asinh' ? view.robustScaleOf(rows, longest) : null;
-  const days = new DriverDays(view, columns, scale);
+  // The robust scale and the quartiles of all prices of the training days (one sorted sample).
+  const { scale, quartiles } = scaleAndQuartiles(view, rows, longest, settings.scale);
+  const days = new DriverDays(view, columns, scale, quartiles);
   const S = view.slotsPerDay;
   const J = settings.knots;
   // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
@@ -288,7 +293,7 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
       );
     });
   }
-  return { scale, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
+  return { scale, quartiles, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
@@ -391,6 +396,7 @@ class DriverDays {
     private readonly view: HistoryView,
     private readonly columns: ResidualLoadColumns,
     private readonly scale: RobustScale | null,
+    private readonly sampleQuartiles: SampleBounds['quartiles'],
   ) {
     this.signature = `${columns.added.join(',')}-${columns.subtracted.join(',')}`;
   }
@@ -413,12 +419,22 @@ class DriverDays {
       // The transformation is increasing, so clipping at the transformed fences equals transforming the clipped prices.
       const low = scale === null ? inputs.low : toAsinhScale(inputs.low, scale);
       const high = scale === null ? inputs.high : toAsinhScale(inputs.high, scale);
+      // Then at the far-out fences of the training days' prices on the model's scale, from their quartiles
+      // transformed: a day whose prices spiked in more than a quarter of its periods (an outage lasting
+      // the day) has day fences that hold its spikes. On the asinh scale these fences lie far above a
+      // convex market's high-priced days, which fences on the price scale would clip (docs/forecast-quality.md,
+      // the ninth wave: outage-spikes' fresh draw 3).
+      const q1 = scale === null ? this.sampleQuartiles.q1 : toAsinhScale(this.sampleQuartiles.q1, scale);
+      const q3 = scale === null ? this.sampleQuartiles.q3 : toAsinhScale(this.sampleQuartiles.q3, scale);
+      const sampleLow = q1 - 3 * (q3 - q1);
+      const sampleHigh = q3 + 3 * (q3 - q1);
       if (scale === null) z.set(prices);
       else toAsinhScales(prices, scale, z);
       let sum = 0;
       for (let s = 0; s < S; s++) {
         const v = z[s] as number;
-        const c = v < low ? low : v > high ? high : v;
+        const d = v < low ? low : v > high ? high : v;
+        const c = d < sampleLow ? sampleLow : d > sampleHigh ? sampleHigh : d;
         clipped[s] = c;
         sum += c;
       }
@@ -459,6 +475,21 @@ class DriverDays {
   toPrice(z: number): number {
     return this.scale === null ? z : fromAsinhScale(z, this.scale);
   }
+}
+
+/** The robust scale (null on the price scale) and the quartiles of all prices of the past days `rows`. */
+function scaleAndQuartiles(view: HistoryView, rows: readonly number[], windowDays: number, scale: DriverSettings['scale']): { scale: RobustScale | null; quartiles: SampleBounds['quartiles'] } {
+  if (scale === 'asinh') {
+    const { scale: robust, bounds } = view.robustScaleWithBoundsOf(rows, windowDays);
+    return { scale: robust, quartiles: bounds.quartiles };
+  }
+  const prices = new Float64Array(rows.reduce((sum, i) => sum + view.past(i).prices.length, 0));
+  let at = 0;
+  for (const i of rows) {
+    prices.set(view.past(i).prices, at);
+    at += view.past(i).prices.length;
+  }
+  return { scale: null, quartiles: sortedSampleBounds(prices.sort()).quartiles };
 }
 
 function meanOf(values: Float64Array): number {

@@ -25,14 +25,18 @@ export function sortedFarOutFences(sorted: ArrayLike<number>): Fences {
   return { low: q1 - 3 * (q3 - q1), high: q3 + 3 * (q3 - q1) };
 }
 
-/** A sample's far-out fences and its extremes. */
+/** A sample's far-out fences, the quartiles they are made of, and its extremes. */
 export interface SampleBounds {
   readonly fences: Fences;
+  /** The first and third quartile (definition 7). */
+  readonly quartiles: { readonly q1: number; readonly q3: number };
   readonly lowest: number;
   readonly highest: number;
 }
 
 /** {@link sortedFarOutFences} and the first and last value of a sample in ascending order (at least one value). */
 export function sortedSampleBounds(sorted: ArrayLike<number>): SampleBounds {
-  return { fences: sortedFarOutFences(sorted), lowest: sorted[0] as number, highest: sorted[sorted.length - 1] as number };
+  const q1 = sortedQuantile(sorted, 0.25);
+  const q3 = sortedQuantile(sorted, 0.75);
+  return { fences: { low: q1 - 3 * (q3 - q1), high: q3 + 3 * (q3 - q1) }, quartiles: { q1, q3 }, lowest: sorted[0] as number, highest: sorted[sorted.length - 1] as number };
 }
