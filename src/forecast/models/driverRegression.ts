@@ -1,6 +1,6 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
 import { KeptFits } from '../keptFits.js';
-import { farOutFences, sortedSampleBounds, type SampleBounds } from './farOutFences.js';
+import { farOutFences, fencesOfQuartiles, sortedSampleBounds, type SampleBounds } from './farOutFences.js';
 import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
@@ -426,8 +426,7 @@ class DriverDays {
       // the ninth wave: outage-spikes' fresh draw 3).
       const q1 = scale === null ? this.sampleQuartiles.q1 : toAsinhScale(this.sampleQuartiles.q1, scale);
       const q3 = scale === null ? this.sampleQuartiles.q3 : toAsinhScale(this.sampleQuartiles.q3, scale);
-      const sampleLow = q1 - 3 * (q3 - q1);
-      const sampleHigh = q3 + 3 * (q3 - q1);
+      const { low: sampleLow, high: sampleHigh } = fencesOfQuartiles(q1, q3);
       if (scale === null) z.set(prices);
       else toAsinhScales(prices, scale, z);
       let sum = 0;

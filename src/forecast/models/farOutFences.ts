@@ -20,8 +20,11 @@ export function farOutFences(values: ArrayLike<number>): Fences {
 
 /** {@link farOutFences} of a sample already in ascending order (at least one value). */
 export function sortedFarOutFences(sorted: ArrayLike<number>): Fences {
-  const q1 = sortedQuantile(sorted, 0.25);
-  const q3 = sortedQuantile(sorted, 0.75);
+  return fencesOfQuartiles(sortedQuantile(sorted, 0.25), sortedQuantile(sorted, 0.75));
+}
+
+/** The far-out fences [Q1 - 3 IQR, Q3 + 3 IQR] of a sample with quartiles q1 <= q3 (Tukey 1977, as above). */
+export function fencesOfQuartiles(q1: number, q3: number): Fences {
   return { low: q1 - 3 * (q3 - q1), high: q3 + 3 * (q3 - q1) };
 }
 
@@ -38,5 +41,5 @@ export interface SampleBounds {
 export function sortedSampleBounds(sorted: ArrayLike<number>): SampleBounds {
   const q1 = sortedQuantile(sorted, 0.25);
   const q3 = sortedQuantile(sorted, 0.75);
-  return { fences: { low: q1 - 3 * (q3 - q1), high: q3 + 3 * (q3 - q1) }, quartiles: { q1, q3 }, lowest: sorted[0] as number, highest: sorted[sorted.length - 1] as number };
+  return { fences: fencesOfQuartiles(q1, q3), quartiles: { q1, q3 }, lowest: sorted[0] as number, highest: sorted[sorted.length - 1] as number };
 }
