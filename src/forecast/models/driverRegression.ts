@@ -1,6 +1,6 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
 import { KeptFits } from '../keptFits.js';
-import { farOutFences, fencesOfQuartiles, sortedSampleBounds, type SampleBounds } from './farOutFences.js';
+import { farOutFences, fencesOfQuartiles, sortedSampleBounds, type Fences, type SampleBounds } from './farOutFences.js';
 import { choleskyLeastSquares } from '../linalg/choleskyLeastSquares.js';
 import type { LinearModel } from '../linalg/linearModel.js';
 import { SlotDayGramBuilder } from './slotDayGram.js';
@@ -391,14 +391,24 @@ const dayBlocks: Float64Array[] = [];
 class DriverDays {
   private readonly cache = new Map<number, DriverDay>();
   private readonly signature: string;
+  /**
+   * The far-out fences of the training days' prices on the model's scale, from their quartiles transformed:
+   * a day whose prices spiked in more than a quarter of its periods (an outage lasting the day) has day
+   * fences that hold its spikes, so its regressors are clipped at these too. On the asinh scale they lie far
+   * above a convex market's high-priced days, which fences on the price scale would clip
+   * (docs/forecast-quality.md, the ninth wave: outage-spikes' fresh draw 3).
+   */
+  private readonly sampleFences: Fences;
 
   constructor(
     private readonly view: HistoryView,
     private readonly columns: ResidualLoadColumns,
     private readonly scale: RobustScale | null,
-    private readonly sampleQuartiles: SampleBounds['quartiles'],
+    sampleQuartiles: SampleBounds['quartiles'],
   ) {
     this.signature = `${columns.added.join(',')}-${columns.subtracted.join(',')}`;
+    const { q1, q3 } = sampleQuartiles;
+    this.sampleFences = scale === null ? fencesOfQuartiles(q1, q3) : fencesOfQuartiles(toAsinhScale(q1, scale), toAsinhScale(q3, scale));
   }
 
   of(i: number): DriverDay {
@@ -419,14 +429,8 @@ class DriverDays {
       // The transformation is increasing, so clipping at the transformed fences equals transforming the clipped prices.
       const low = scale === null ? inputs.low : toAsinhScale(inputs.low, scale);
       const high = scale === null ? inputs.high : toAsinhScale(inputs.high, scale);
-      // Then at the far-out fences of the training days' prices on the model's scale, from their quartiles
-      // transformed: a day whose prices spiked in more than a quarter of its periods (an outage lasting
-      // the day) has day fences that hold its spikes. On the asinh scale these fences lie far above a
-      // convex market's high-priced days, which fences on the price scale would clip (docs/forecast-quality.md,
-      // the ninth wave: outage-spikes' fresh draw 3).
-      const q1 = scale === null ? this.sampleQuartiles.q1 : toAsinhScale(this.sampleQuartiles.q1, scale);
-      const q3 = scale === null ? this.sampleQuartiles.q3 : toAsinhScale(this.sampleQuartiles.q3, scale);
-      const { low: sampleLow, high: sampleHigh } = fencesOfQuartiles(q1, q3);
+      // Then at the training days' fences (sampleFences).
+      const { low: sampleLow, high: sampleHigh } = this.sampleFences;
       if (scale === null) z.set(prices);
       else toAsinhScales(prices, scale, z);
       let sum = 0;
