@@ -576,11 +576,7 @@ export class Forecaster {
       } else {
         const days = this.calibrationSet(model, view, calibrationDays, refitDay);
         const refitScale = days.length === 0 ? PRICE_SCALE : this.errorScaleOf(model, days, calibrationDays);
-        const onScale = days.map((c) => {
-          const f = new Float64Array(c.realised.length);
-          const e = errorsOn(c, refitScale, undefined, f);
-          return { e, mean: quadratic ? realisedMean(e, f) : Number.NaN };
-        });
+        const onScale = days.map((c) => levelInputsOn(c, refitScale, quadratic));
         const means = quadratic ? onScale.map((d) => d.mean) : undefined;
         fit = { ...fitErrorLevel(Int32Array.from(days, (c) => c.dayNumber), onScale.map((d) => d.e), refitDay, means), scale: refitScale };
       }
@@ -592,9 +588,8 @@ export class Forecaster {
     if (levels.through < dayNumber - 1) {
       const work = new Float64Array(slotMedians.length);
       for (const c of this.calibrationSet(model, view, dayNumber - 1 - levels.through)) {
-        const f = new Float64Array(c.realised.length);
-        const e = errorsOn(c, fit.scale, undefined, f);
-        levels.append(c.dayNumber, dayLevel(e, slotMedians, work), quadratic ? realisedMean(e, f) : Number.NaN);
+        const { e, mean } = levelInputsOn(c, fit.scale, quadratic);
+        levels.append(c.dayNumber, dayLevel(e, slotMedians, work), mean);
       }
       levels.coverThrough(dayNumber - 1);
     }
@@ -828,6 +823,13 @@ function errorsOn(c: CalibrationDay, scale: ErrorScale, e: Float64Array = new Fl
   if (scale.robust === undefined || !keptAsinhDay(scale.robust, c.realised, e)) onErrorScale(c.realised, scale, e);
   for (let s = 0; s < e.length; s++) e[s] = (e[s] as number) - (f[s] as number);
   return e;
+}
+
+/** A calibration day's errors on `scale` and, `withMean`, its mean realised price on it (NaN otherwise): what the day-level regression reads. */
+function levelInputsOn(c: CalibrationDay, scale: ErrorScale, withMean: boolean): { e: Float64Array; mean: number } {
+  const f = new Float64Array(c.realised.length);
+  const e = errorsOn(c, scale, undefined, f);
+  return { e, mean: withMean ? realisedMean(e, f) : Number.NaN };
 }
 
 /** A day's mean realised price on the error scale from its errors e and point forecast f on it (e + f, the realised values). */
