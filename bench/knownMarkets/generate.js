@@ -77,15 +77,21 @@ export async function settingFiles(setting, simulation) {
   };
 }
 
-/** Simulates and writes the settings named (all by default) into `out`/<name>/; returns the folders. */
-export async function writeSettings(out, names = SETTINGS.map((s) => s.name), draw = 0) {
+/**
+ * Simulates and writes the settings named (all by default) into `out`/<name>/; returns the folders.
+ * With `simulations` (a Map), each setting's simulation is also kept there by its folder (the periods'
+ * laws, for the expected pinball loss of bench/forecastKnownMarkets.js).
+ */
+export async function writeSettings(out, names = SETTINGS.map((s) => s.name), draw = 0, simulations = null) {
   const folders = [];
   for (const name of names) {
     const setting = SETTINGS.find((s) => s.name === name);
     if (setting === undefined) throw new Error(`no setting "${name}"; the settings are ${SETTINGS.map((s) => s.name).join(', ')}`);
     const folder = join(out, name);
     mkdirSync(folder, { recursive: true });
-    const files = await settingFiles(setting, await simulateSetting(setting, draw));
+    const simulation = await simulateSetting(setting, draw);
+    simulations?.set(folder, simulation);
+    const files = await settingFiles(setting, simulation);
     for (const [file, text] of Object.entries(files)) writeFileSync(join(folder, file), text);
     folders.push(folder);
   }
