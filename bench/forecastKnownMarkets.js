@@ -6,6 +6,8 @@
 //     (knownMarkets/expectedPinball.js) instead of taken at the one price the year drew. The realised
 //     ratio of one year moves with the draw (a persistent market's year holds few independent days); the
 //     expected ratio keeps only what the forecast itself gets wrong (its history is still one draw);
+//     likewise the coverage of the 80% and 90% intervals in expectation (the exact law's probability
+//     between the forecast's q0.1 and q0.9, q0.05 and q0.95);
 //   - coverage of the central 80% and 90% intervals, and the share of prices below q0.5;
 //   - the profit over the year of a `price-taking` plan (schedule on the median, limits at the cap and
 //     floor) and of a `median` plan (schedule on the median, limits at q0.9 / q0.1) made on the forecast,
@@ -175,7 +177,7 @@ for (const folder of folders) {
     const set = new Set(days);
     return scoreForecasts(truthDays.filter((q) => set.has(q.day)).map((forecast) => ({ forecast, realised: realised.get(forecast.day) }))).overall.crps;
   };
-  const header = ['method', 'days', 'pinball / truth', 'pinball / truth, expected', 'cov. 80%', 'cov. 90%', 'below q0.5', 'price-taking / truth', 'price-taking / truth, expected', 'median / truth', 'time [s]'];
+  const header = ['method', 'days', 'pinball / truth', 'pinball / truth, expected', 'cov. 80% (expected)', 'cov. 90% (expected)', 'cov. 80%', 'cov. 90%', 'below q0.5', 'price-taking / truth', 'price-taking / truth, expected', 'median / truth', 'time [s]'];
   const lines = [`| ${header.join(' | ')} |`, `|${header.map(() => '---').join('|')}|`];
   for (const row of rows) {
     const o = row.table.overall;
@@ -185,26 +187,26 @@ for (const folder of folders) {
     const share = (p) => row.profit[p] / sameDays.profit[p];
     const label = row.name === DEFAULT_METHOD ? `**${row.name}** (default)` : row.name;
     const expectedRatio = row.expected.ratio;
-    lines.push(`| ${[label, row.days.length, fmt(ratio, 3), fmt(expectedRatio, 3), percent(cov(0.8)), percent(cov(0.9)), fmt(o.belowShare[LEVELS.indexOf(0.5)], 3), percent(share('price-taking')), percent(share('expected')), percent(share('median')), row.seconds === null ? '-' : fmt(row.seconds, 0)].join(' | ')} |`);
-    if (row !== rows[0]) summary.push({ setting: name, method: row.name, belowExpected: row.centre.expected, ratio, expectedRatio, cov80: cov(0.8), cov90: cov(0.9), below: o.belowShare[LEVELS.indexOf(0.5)], priceTaking: share('price-taking'), expected: share('expected'), median: share('median'), chosen: row.chosen });
+    lines.push(`| ${[label, row.days.length, fmt(ratio, 3), fmt(expectedRatio, 3), percent(row.expected.coverage80), percent(row.expected.coverage90), percent(cov(0.8)), percent(cov(0.9)), fmt(o.belowShare[LEVELS.indexOf(0.5)], 3), percent(share('price-taking')), percent(share('expected')), percent(share('median')), row.seconds === null ? '-' : fmt(row.seconds, 0)].join(' | ')} |`);
+    if (row !== rows[0]) summary.push({ setting: name, method: row.name, belowExpected: row.centre.expected, ratio, expectedRatio, cov80Expected: row.expected.coverage80, cov90Expected: row.expected.coverage90, cov80: cov(0.8), cov90: cov(0.9), below: o.belowShare[LEVELS.indexOf(0.5)], priceTaking: share('price-taking'), expected: share('expected'), median: share('median'), chosen: row.chosen });
   }
   console.log(`\n### ${name}: ${setting.summary}\n`);
   console.log(`${truth.days.length} days ${FROM} to ${TO}; true pinball ${fmt(truth.table.overall.crps, 3)} ${market.currency}/MWh (expected ${fmt(truth.expected.truth, 3)}); profit on the true quantiles: price-taking ${fmt(truth.profit['price-taking'], 0)} (expected ${fmt(truth.profit.expected, 0)}), median ${fmt(truth.profit.median, 0)} ${market.currency}\n`);
   console.log(lines.join('\n'));
-  console.log(`\nThe centre: share below q0.5 with its standard error (days as clusters), and the share expected under the truth (0.5 for the truth itself)\n`);
-  console.log(['| method | below q0.5 | standard error | below q0.5, expected under the truth |', '|---|---|---|---|', ...rows.map((row) => `| ${row.name} | ${fmt(row.centre.share, 3)} | ${fmt(row.centre.standardError, 3)} | ${fmt(row.centre.expected, 3)} |`)].join('\n'));
+  console.log(`\nThe centre: share below q0.5 with its standard error (days as clusters), and the share expected under the truth (0.5 for the truth itself): read between the truth's quantiles, and from the exact law\n`);
+  console.log(['| method | below q0.5 | standard error | below q0.5, expected under the truth | below q0.5, expected under the exact law |', '|---|---|---|---|---|', ...rows.map((row) => `| ${row.name} | ${fmt(row.centre.share, 3)} | ${fmt(row.centre.standardError, 3)} | ${fmt(row.centre.expected, 3)} | ${fmt(row.expected.belowMedian, 3)} |`)].join('\n'));
   const autoRow = rows.find((r) => r.chosen !== null);
   if (autoRow !== undefined) console.log(`\n${autoRow.name} chose: ${Object.entries(autoRow.chosen).sort((a, b) => b[1] - a[1]).map(([m, n]) => `${m} ${n} days`).join(', ')}`);
 }
 
 // Across settings: per method, the worst figure of every goal.
 const methods = [...new Set(summary.map((r) => r.method))];
-const header = ['method', 'worst pinball / truth', 'worst pinball / truth, expected', 'coverage 80% range', 'coverage 90% range', 'below q0.5 range', 'worst price-taking / truth', 'worst price-taking / truth, expected', 'worst median / truth'];
+const header = ['method', 'worst pinball / truth', 'worst pinball / truth, expected', 'expected coverage 80% range', 'expected coverage 90% range', 'coverage 80% range', 'coverage 90% range', 'below q0.5 range', 'worst price-taking / truth', 'worst price-taking / truth, expected', 'worst median / truth'];
 const lines = [`| ${header.join(' | ')} |`, `|${header.map(() => '---').join('|')}|`];
 for (const method of methods) {
   const rows = summary.filter((r) => r.method === method);
   const range = (key, scale, d) => `${fmt(scale * Math.min(...rows.map((r) => r[key])), d)} - ${fmt(scale * Math.max(...rows.map((r) => r[key])), d)}`;
-  lines.push(`| ${[method, fmt(Math.max(...rows.map((r) => r.ratio)), 3), fmt(Math.max(...rows.map((r) => r.expectedRatio)), 3), range('cov80', 100, 1), range('cov90', 100, 1), range('below', 1, 3), percent(Math.min(...rows.map((r) => r.priceTaking))), percent(Math.min(...rows.map((r) => r.expected))), percent(Math.min(...rows.map((r) => r.median)))].join(' | ')} |`);
+  lines.push(`| ${[method, fmt(Math.max(...rows.map((r) => r.ratio)), 3), fmt(Math.max(...rows.map((r) => r.expectedRatio)), 3), range('cov80Expected', 100, 1), range('cov90Expected', 100, 1), range('cov80', 100, 1), range('cov90', 100, 1), range('below', 1, 3), percent(Math.min(...rows.map((r) => r.priceTaking))), percent(Math.min(...rows.map((r) => r.expected))), percent(Math.min(...rows.map((r) => r.median)))].join(' | ')} |`);
 }
 console.log(`\n### Across the ${folders.length} settings (worst or range over settings)\n`);
 console.log(lines.join('\n'));

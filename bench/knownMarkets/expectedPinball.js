@@ -106,7 +106,9 @@ export function expectedPinballExcess(periodLawOf, tau, q, reference) {
 
 /**
  * The expected pinball loss (mean over levels and periods) of the truth's quantiles and of each forecast,
- * over the days both have.
+ * over the days both have; and the forecast's expected coverage of its central 80% and 90% intervals and
+ * share below its q0.5 (means over periods of F(q0.9) - F(q0.1), F(q0.95) - F(q0.05), F(q0.5)), which the
+ * year's draw does not move either (the truth's own are 0.8, 0.9 and 0.5 up to its file's rounding).
  * @param {Map<string, object[]>} lawsByDay per day, the periods' laws (process.js)
  * @param {Map<string, number[]>} meansByDay per day, the periods' true mean prices
  * @param {Map<string, { levels: number[], prices: number[][] }>} truthDays the true quantiles per day
@@ -139,11 +141,24 @@ export function expectedPinballScorer(lawsByDay, meansByDay, truthDays, setting,
     let truth = 0;
     let excess = 0;
     let count = 0;
+    // Expected coverage of the central 80% and 90% intervals and share below q0.5: F(upper) - F(lower), F(q0.5).
+    const levelsOf = days[0]?.levels ?? [];
+    const at = (level) => levelsOf.findIndex((l) => Math.abs(l - level) < 1e-9);
+    const [q05, q10, q50, q90, q95] = [0.05, 0.1, 0.5, 0.9, 0.95].map(at);
+    let cover80 = 0;
+    let cover90 = 0;
+    let below = 0;
+    let periods = 0;
     for (const forecast of days) {
       const reference = truthDays.get(forecast.day);
       const laws = lawsOf(forecast.day);
       truth += truthLossOf(forecast.day);
       forecast.prices.forEach((row, t) => {
+        const F = laws[t].cdf;
+        cover80 += F(row[q90]) - F(row[q10]);
+        cover90 += F(row[q95]) - F(row[q05]);
+        below += F(row[q50]);
+        periods++;
         row.forEach((q, k) => {
           const level = forecast.levels[k];
           const j = reference.levels.findIndex((l) => Math.abs(l - level) < 1e-9);
@@ -152,6 +167,13 @@ export function expectedPinballScorer(lawsByDay, meansByDay, truthDays, setting,
         });
       });
     }
-    return { forecast: (truth + excess) / count, truth: truth / count, ratio: (truth + excess) / truth };
+    return {
+      forecast: (truth + excess) / count,
+      truth: truth / count,
+      ratio: (truth + excess) / truth,
+      coverage80: cover80 / periods,
+      coverage90: cover90 / periods,
+      belowMedian: below / periods,
+    };
   };
 }
