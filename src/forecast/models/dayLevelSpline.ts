@@ -1,4 +1,5 @@
 import { sortedQuantile } from '../quantiles/sortedQuantile.js';
+import { leastSquaresQr } from '../linalg/leastSquaresQr.js';
 
 /**
  * How the driver regression's day-level columns carry the day before's mean price m = meanZ(d-1) beyond
@@ -8,7 +9,13 @@ import { sortedQuantile } from '../quantiles/sortedQuantile.js';
  *   and Friedman 2009, section 5.2); the delivery day's m is used as it is (the spline extrapolates
  *   linearly beyond the training days' range);
  * - 'hinge-clamped': the same, with the delivery day's m clamped into the training days' range [min m,
- *   max m] in the linear column and the hinges alike, so that the level is held flat beyond it;
+ *   max m] in the hinges (not in the linear column): beyond the range the level follows the linear
+ *   term's slope alone, the curvature not extrapolated;
+ * - 'shared': one column instead of K, the curve f(m) = sum_j c_j max(0, m' - k_j) (m' = m clamped
+ *   into the training range) with c_j from a least-squares regression of the day's mean price on
+ *   [1, m, meanX(d-1), the day's mean residual load, the hinges, weekday dummies] over the training
+ *   days: the curve's shape is estimated once from day means, and each slot's model only scales it
+ *   (K coefficients per day, not per slot: fewer to estimate where the level's effect is linear);
  * - 'surprise': hinges in u = m - (alpha + beta meanX(d-1)), the day before's mean price less its
  *   least-squares fit on the day before's mean residual load over the training days: the part of the
  *   level its drivers do not explain, knots at the quantiles of the training days' u;
@@ -22,9 +29,19 @@ import { sortedQuantile } from '../quantiles/sortedQuantile.js';
  * 2nd ed., Springer, section 5.2; F. E. Harrell (2015), Regression Modeling Strategies, 2nd ed.,
  * Springer, section 2.4.5; R. J. Hyndman and Y. Fan (1996), Am. Stat. 50(4), 361-365.
  */
-export type DayLevelBasis = 'hinge' | 'hinge-clamped' | 'surprise' | 'natural-cubic';
+export type DayLevelBasis = 'hinge' | 'hinge-clamped' | 'surprise' | 'natural-cubic' | 'shared';
 
-export const DAY_LEVEL_BASES: readonly DayLevelBasis[] = ['hinge', 'hinge-clamped', 'surprise', 'natural-cubic'];
+export const DAY_LEVEL_BASES: readonly DayLevelBasis[] = ['hinge', 'hinge-clamped', 'surprise', 'natural-cubic', 'shared'];
+
+/** What the 'shared' basis's day-mean regression reads of each training day (the rows of meanZ). */
+export interface DayMeans {
+  /** The day's own mean price on the model's scale (clipped as meanZ is). */
+  readonly meanZ: Float64Array;
+  /** The day's own mean residual load. */
+  readonly meanX: Float64Array;
+  /** ISO weekday 1..7 (7, Sunday, the reference). */
+  readonly weekdays: Int8Array;
+}
 
 /** A day-level spline fitted to the training days: its knots, range and (for 'surprise') the fit of m on meanX. */
 export interface DayLevelSpline {
@@ -39,6 +56,8 @@ export interface DayLevelSpline {
   /** 'surprise': u = m - (alpha + beta meanX). */
   readonly alpha: number;
   readonly beta: number;
+  /** 'shared': the hinges' weights c_j of the curve. */
+  readonly weights: Float64Array;
 }
 
 /** Harrell's (2015, table 2.3) knot quantiles of a restricted cubic spline with K knots. */
@@ -63,7 +82,7 @@ export function dayLevelKnotLevels(basis: DayLevelBasis, knots: number): readonl
  *
  * @param knots K >= 1 (3..5 for 'natural-cubic')
  */
-export function fitDayLevelSpline(basis: DayLevelBasis, knots: number, meanZ: Float64Array, meanX: Float64Array): DayLevelSpline {
+export function fitDayLevelSpline(basis: DayLevelBasis, knots: number, meanZ: Float64Array, meanX: Float64Array, dayMeans?: DayMeans): DayLevelSpline {
   const n = meanZ.length;
   let alpha = 0;
   let beta = 0;
@@ -99,12 +118,31 @@ export function fitDayLevelSpline(basis: DayLevelBasis, knots: number, meanZ: Fl
     if (m < low) low = m;
     if (m > high) high = m;
   }
-  return { basis, knots: knotValues, columns: basis === 'natural-cubic' ? knots - 2 : knots, low, high, alpha, beta };
+  const weights = new Float64Array(knots);
+  if (basis === 'shared' && dayMeans !== undefined) {
+    // Rows: 1, m, meanX(d-1), the day's mean residual load, the K hinges, Monday..Saturday dummies.
+    const cols = 4 + knots + 6;
+    const data = new Float64Array(n * cols);
+    for (let r = 0; r < n; r++) {
+      const m = meanZ[r] as number;
+      const at = r * cols;
+      data[at] = 1;
+      data[at + 1] = m;
+      data[at + 2] = meanX[r] as number;
+      data[at + 3] = dayMeans.meanX[r] as number;
+      for (let j = 0; j < knots; j++) data[at + 4 + j] = Math.max(0, m - (knotValues[j] as number));
+      const weekday = dayMeans.weekdays[r] as number;
+      if (weekday <= 6) data[at + 4 + knots + weekday - 1] = 1;
+    }
+    const fit = leastSquaresQr({ rows: n, cols, data }, dayMeans.meanZ);
+    for (let j = 0; j < knots; j++) weights[j] = fit.coefficients[4 + j] as number;
+  }
+  return { basis, knots: knotValues, columns: basis === 'natural-cubic' ? knots - 2 : basis === 'shared' ? 1 : knots, low, high, alpha, beta, weights };
 }
 
-/** The day's m as its day-level columns read it: clamped into the training range for 'hinge-clamped'. */
+/** The day's m as the spline's columns read it (not the linear column): clamped into the training range for 'hinge-clamped' and 'shared'. */
 export function dayLevelArgument(spline: DayLevelSpline, meanZ: number): number {
-  if (spline.basis !== 'hinge-clamped') return meanZ;
+  if (spline.basis !== 'hinge-clamped' && spline.basis !== 'shared') return meanZ;
   return meanZ < spline.low ? spline.low : meanZ > spline.high ? spline.high : meanZ;
 }
 
@@ -126,6 +164,12 @@ export function dayLevelColumns(spline: DayLevelSpline, m: number, meanX: number
       const tj = t[j] as number;
       out[at + j] = (cube(m - tj) - (cube(m - tK1) * (tK - tj)) / span + (cube(m - tK) * (tK1 - tj)) / span) / norm;
     }
+    return;
+  }
+  if (spline.basis === 'shared') {
+    let f = 0;
+    for (let j = 0; j < K; j++) f += (spline.weights[j] as number) * Math.max(0, m - (t[j] as number));
+    out[at] = f;
     return;
   }
   const u = spline.basis === 'surprise' ? m - (spline.alpha + spline.beta * meanX) : m;

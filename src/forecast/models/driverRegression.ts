@@ -177,8 +177,7 @@ function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit
   const row = new Float64Array(k);
   // The day-level spline's columns after meanZ and meanX, then the weekday dummies.
   const splineColumns = spline === null ? 0 : spline.columns;
-  const levelZ = spline === null ? targetDay.meanZ : dayLevelArgument(spline, targetDay.meanZ);
-  if (spline !== null) dayLevelColumns(spline, levelZ, targetDay.meanX, row, a + 1);
+  if (spline !== null) dayLevelColumns(spline, dayLevelArgument(spline, targetDay.meanZ), targetDay.meanX, row, a + 1);
   const d = a + splineColumns;
   const forecasts = fit.counts.map(() => new Float64Array(S));
   for (let s = 0; s < S; s++) {
@@ -190,7 +189,7 @@ function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit
     }
     row[J + 1] = targetDay.lag1[s] as number;
     row[J + 2] = targetDay.lag7[s] as number;
-    row[a - 1] = levelZ;
+    row[a - 1] = targetDay.meanZ;
     row[a] = targetDay.meanX;
     for (let w = 1; w <= 6; w++) row[d + w] = targetDay.weekday === w ? 1 : 0;
     fit.counts.forEach((_, w) => {
@@ -244,13 +243,15 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const meanZ = Float64Array.from(trainingDays, (d) => d.regressors.meanZ);
   const meanX = Float64Array.from(trainingDays, (d) => d.regressors.meanX);
   const weekdays = Int8Array.from(trainingDays, (d) => d.regressors.weekday);
-  const levelSpline = K > 0 ? fitDayLevelSpline(settings.levelBasis ?? 'hinge', K, meanZ, meanX) : null;
+  const basis = settings.levelBasis ?? 'hinge';
+  const dayMeans = basis === 'shared' ? { meanZ: Float64Array.from(trainingDays, (d) => d.own.meanZ), meanX: Float64Array.from(trainingDays, (d) => d.own.meanX), weekdays } : undefined;
+  const levelSpline = K > 0 ? fitDayLevelSpline(basis, K, meanZ, meanX, dayMeans) : null;
   // Day-level columns: meanZ, meanX, then the spline's (their Gram columns a - 1 + 2 + j).
   const B = 2 + (levelSpline === null ? 0 : levelSpline.columns);
   const k = a - 1 + B + 6;
   const models = new Float64Array(counts.length * S * (k + 1));
   const continuous = levelSpline === null ? Float64Array.from(trainingDays.flatMap((d) => [d.regressors.meanZ, d.regressors.meanX])) : splineDesign(levelSpline, meanZ, meanX);
-  const thinLevel = levelSpline === null || levelSpline.basis === 'natural-cubic' ? counts.map((): number[] => []) : thinLevelHinges(continuous, B, a - 1 + 2, counts);
+  const thinLevel = levelSpline === null || levelSpline.basis === 'natural-cubic' || levelSpline.basis === 'shared' ? counts.map((): number[] => []) : thinLevelHinges(continuous, B, a - 1 + 2, counts);
   const builder = timedFits(settings.stopwatch, 0, () => new SlotDayGramBuilder(
     {
       continuous,
