@@ -40,6 +40,25 @@ describe('day-level spline: knots at the training days\' quantiles', () => {
   });
 });
 
+describe("day-level spline: the 'shared' curve's weights", () => {
+  it('are the hinge coefficients of the least-squares regression of the day mean (np.linalg.lstsq), its column sum_j c_j max(0, m - k_j)', () => {
+    // The rows of dayLevelSplineReference.py, given by the same formulas there.
+    const r = Array.from({ length: 60 }, (_, i) => i);
+    const m = Float64Array.from(r, (i) => Math.sin(0.7 * i) + 0.3 * Math.cos(1.9 * i));
+    const before = Float64Array.from(r, (i) => 500 + 30 * Math.cos(0.45 * i));
+    const own = Float64Array.from(r, (i) => 500 + 25 * Math.sin(1.1 * i + 0.3));
+    const weekdays = Int8Array.from(r, (i) => (i % 7) + 1);
+    const y = Float64Array.from(r, (i) => 0.2 + 0.6 * m[i]! + 0.001 * before[i]! - 0.002 * own[i]! + 0.05 * Math.sin(3.7 * i) - 0.4 * m[i]! ** 2);
+    const spline = fitDayLevelSpline('shared', 2, m, before, { meanZ: y, meanX: own, weekdays });
+    expect(Array.from(spline.knots)).toEqual([-0.36043254246854045, 0.5184985983441571].map((v) => expect.closeTo(v, 13)));
+    expect(Array.from(spline.weights)).toEqual([-0.7806336361969791, -0.6945663898853394].map((v) => expect.closeTo(v, 10)));
+    expect(spline.columns).toBe(1);
+    const out = new Float64Array(1);
+    dayLevelColumns(spline, dayLevelArgument(spline, 0.9), 0, out, 0);
+    expect(out[0]).toBeCloseTo(-0.7806336361969791 * (0.9 + 0.36043254246854045) - 0.6945663898853394 * (0.9 - 0.5184985983441571), 10);
+  });
+});
+
 describe('day-level spline: columns in closed form', () => {
   it('hinges are max(0, m - k_j) (the truncated power basis of degree 1, Hastie et al. 2009, eq. 5.3), clamped into the training range for hinge-clamped', () => {
     const spline = fitDayLevelSpline('hinge', 2, M, X);
