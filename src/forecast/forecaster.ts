@@ -114,7 +114,10 @@ export interface ForecastOptions {
   /**
    * Knots of the driver regression's day-level spline in the day before's mean price [-], >= 0
    * (DriverSettings.levelKnots, dayLevelSpline.ts). Default 0: none, the day before's level enters
-   * linearly (docs/forecast-quality.md, "the tenth wave").
+   * linearly. With 2 knots every form took convex-hetero's `auto` down on draws 0-2 (1.067 / 1.080 / 1.076
+   * -> 1.056 / 1.068 / 1.069 with 'shared') but left other cells worse by more than 0.002, lost in sum on
+   * draws 3-5, and took the demo's coverage to 80.6% / 90.4% (Kupiec p < 0.05): not the default
+   * (docs/forecast-quality.md, "the tenth wave").
    */
   readonly driverLevelKnots: number;
   /** Basis of that spline: 'hinge', 'hinge-clamped', 'surprise' or 'natural-cubic' (3 to 5 knots); default 'hinge'. */

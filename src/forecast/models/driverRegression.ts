@@ -107,6 +107,12 @@ const LAGS = [1, 7] as const;
  *   fences (farOutFences), so that a spike hour does not move tomorrow's level, then at the far-out
  *   fences of the training days' prices on the model's scale, so that a day spiked in most of its
  *   periods (whose own fences hold its spikes) does not either.
+ * - Optionally (settings.levelKnots K > 0) the day before's mean price also enters through a spline,
+ *   its columns beside a1 and a2 and shared by all slots like them (dayLevelSpline.ts): hinges
+ *   max(0, mean_t Z(d'-1,t) - k_j) at the j/(K+1) quantiles of the training days' values (Hastie,
+ *   Tibshirani and Friedman 2009, section 5.2), with the residual load's hinges' support rule, or one of
+ *   the variants there. The day level's effect on the next day need not be linear: a market with a
+ *   convex merit order and a persistent level has one that is not (docs/forecast-quality.md, the tenth wave).
  * - Estimation: least squares (standardised normal equations, Cholesky), then once more on Huber's
  *   pseudo-observations y* = y_hat + psi(y - y_hat) of the longest window's fit (psi clips residuals
  *   at 1.345 robust standard deviations): Bickel's (1975) one-step Huber estimate. Spike periods in the
