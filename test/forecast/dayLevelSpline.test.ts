@@ -3,6 +3,7 @@ import { dayLevelArgument, dayLevelColumns, fitDayLevelSpline } from '../../src/
 import { DriverFits, driverForecast, type DriverSettings } from '../../src/forecast/models/driverRegression.js';
 import { dayNumberOf, HistoryView, weekdayOf } from '../../src/forecast/models/historyView.js';
 import type { PriceHistory } from '../../src/types.js';
+import { DEFAULTS, Forecaster } from '../../src/forecast/forecaster.js';
 import { seededRandom } from './seededRandom.js';
 import { syntheticHistory } from './syntheticHistory.js';
 
@@ -215,4 +216,15 @@ describe('driver regression: levelKnots 0 is the model without the spline', () =
       expect(Array.from(made.mean.subarray(0, 4))).toEqual(MAIN.mean);
     });
   }
+});
+
+describe('forecaster options of the day-level spline', () => {
+  const h = syntheticHistory({ days: 60, periodMinutes: 60, seed: 2 });
+  it('rejects an unknown basis, a negative knot count, and a natural cubic spline with other than 3 to 5 knots (Harrell 2015, table 2.3)', () => {
+    expect(() => new Forecaster(h, { driverLevelBasis: 'cubic' as never })).toThrow(/driverLevelBasis/);
+    expect(() => new Forecaster(h, { driverLevelKnots: -1 })).toThrow(/driverLevelKnots/);
+    expect(() => new Forecaster(h, { driverLevelKnots: 2, driverLevelBasis: 'natural-cubic' })).toThrow(/driverLevelKnots/);
+    expect(() => new Forecaster(h, { driverLevelKnots: 3, driverLevelBasis: 'natural-cubic' })).not.toThrow();
+    expect(DEFAULTS.driverLevelKnots).toBe(0);
+  });
 });
