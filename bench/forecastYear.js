@@ -13,13 +13,12 @@
 // The day times are the gaps between forecastRange's per-day callbacks; the first day carries the
 // calibration days' point forecasts, so it is shown apart and the median is over all days.
 //
-//   node bench/forecastYear.js --methods arx-hs,auto --rounds 3 [--root DIR] [--options '{"driverLevelKnots":2}']
+//   node bench/forecastYear.js --methods arx-hs,auto --rounds 3 [--root DIR]
 //
 // with --rounds and without --baseline: each method's year in a process of its own, the methods
 // interleaved round by round, and prints per method the median CPU and wall time and their ratios to
 // the first method's (the goal of `auto`: at most 3x `arx-hs`'s year), and whether every round of a
-// method made the same forecasts; with --root, of the dist/ of another built checkout; with --options,
-// Forecaster options over DEFAULTS for every method (as forecastKnownMarkets.js takes them).
+// method made the same forecasts; with --root, of the dist/ of another built checkout.
 //
 //   node bench/forecastYear.js --baseline DIR [--rounds 3] [--method NAME]
 //
@@ -58,7 +57,7 @@ if (arg('rounds', null) !== null && !process.argv.includes('--json')) {
 /** Times each method of --methods (default arx-hs,auto) in its own processes, interleaved round by round. */
 function compareMethods(rounds) {
   const methods = (arg('methods', null) ?? arg('method', null) ?? 'arx-hs,auto').split(',');
-  const passOn = ['year', 'reads', 'root', 'options'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
+  const passOn = ['year', 'reads', 'root'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
   const results = new Map(methods.map((m) => [m, []]));
   for (let round = 0; round < rounds; round++) {
     for (const method of methods) {
@@ -83,7 +82,7 @@ function compareMethods(rounds) {
 
 /** Times this checkout and `baseline` in interleaved rounds (each a process of this script with --json). */
 function compareWithBaseline(baseline, rounds) {
-  const passOn = ['year', 'method', 'reads', 'options'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
+  const passOn = ['year', 'method', 'reads'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
   const runs = { this: here, baseline };
   const results = { this: [], baseline: [] };
   for (let round = 0; round < rounds; round++) {
@@ -111,8 +110,6 @@ const { DayCalendar } = await loadDist('market/dayCalendar.js');
 const YEAR = arg('year', '2026');
 const METHODS = (arg('methods', null) ?? arg('method', null) ?? [...new Set(['arx-hs', DEFAULT_METHOD])].join(',')).split(',');
 const READS = Number(arg('reads', 3));
-/** --options: Forecaster options over DEFAULTS (JSON), e.g. '{"driverLevelKnots":2}'. */
-const OPTIONS = JSON.parse(arg('options', '{}'));
 for (const method of METHODS) {
   if (!FORECAST_METHODS.includes(method)) {
     console.error(`--methods ${method}: expected one of ${FORECAST_METHODS.join(', ')}`);
@@ -146,7 +143,7 @@ try {
   const history = readPriceHistory(join(demo, 'history.csv.gz'), market);
   const calendar = new DayCalendar(market.timeZone, market.periodMinutes);
   if (!JSON_OUT) {
-    console.log(`year ${YEAR} of the demo market at 15 minutes, 19 levels, options ${JSON.stringify(OPTIONS)} over DEFAULTS (default method ${DEFAULT_METHOD})`);
+    console.log(`year ${YEAR} of the demo market at 15 minutes, 19 levels, default options (default method ${DEFAULT_METHOD})`);
     console.log(`read and validate the year's CSV   median ${(read / 1000).toFixed(3)} s over ${READS} reads (the reference)`);
   }
   let firstMs = null;
@@ -160,7 +157,7 @@ try {
     const cpuStarted = process.cpuUsage();
     const started = performance.now();
     let last = started;
-    const run = forecastRange(history, request, { ...OPTIONS, stopwatch }, () => {
+    const run = forecastRange(history, request, { stopwatch }, () => {
       const now = performance.now();
       dayMs.push(now - last);
       last = now;

@@ -19,7 +19,6 @@
  * nothing of its prices, is ever read (HistoryView enforces it). Point forecasts of past days are
  * kept in the Forecaster, so a run over consecutive days fits each day's models once.
  */
-import { DAY_LEVEL_BASES, type DayLevelBasis } from './models/dayLevelSpline.js';
 import type { PriceHistory, QuantileDay } from '../types.js';
 import { ArgumentError } from '../stats/argumentError.js';
 import type { LassoOptions } from './linalg/lasso.js';
@@ -111,17 +110,6 @@ export interface ForecastOptions {
   readonly driverWindowsDays: readonly number[];
   /** Hinge knots of the residual load in the driver regression [-]. */
   readonly driverKnots: number;
-  /**
-   * Knots of the driver regression's day-level spline in the day before's mean price [-], >= 0
-   * (DriverSettings.levelKnots, dayLevelSpline.ts). Default 0: none, the day before's level enters
-   * linearly. With 2 knots every form took convex-hetero's `auto` down on draws 0-2 (1.067 / 1.080 / 1.076
-   * -> 1.056 / 1.068 / 1.069 with 'shared') but left other cells worse by more than 0.002, lost in sum on
-   * draws 3-5, and took the demo's coverage to 80.6% / 90.4% (Kupiec p < 0.05): not the default
-   * (docs/forecast-quality.md, "the tenth wave").
-   */
-  readonly driverLevelKnots: number;
-  /** Basis of that spline: 'hinge', 'hinge-clamped', 'surprise' or 'natural-cubic' (3 to 5 knots); default 'hinge'. */
-  readonly driverLevelBasis: DayLevelBasis;
   /** Scale the driver regression is fitted on (and its errors measured on, with errorScale 'model'). */
   readonly driverScale: 'asinh' | 'price';
   /**
@@ -219,8 +207,6 @@ export const DEFAULTS: ForecastOptions = Object.freeze({
   minCalibrationDays: 28,
   driverWindowsDays: Object.freeze([182, 364, 728]),
   driverKnots: 3,
-  driverLevelKnots: 0,
-  driverLevelBasis: 'hinge',
   driverScale: 'asinh',
   driverRefitDays: 5,
   spreadPool: 'level',
@@ -764,8 +750,6 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
       windowsDays: options.driverWindowsDays,
       minTrainingDays: options.minTrainingDays,
       knots: options.driverKnots,
-      levelKnots: options.driverLevelKnots,
-      levelBasis: options.driverLevelBasis,
       scale: options.driverScale,
       refitDays: options.driverRefitDays,
       fits: driverFits,
@@ -816,11 +800,6 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   candidate('autoFallback', o.autoFallback, single.filter((m) => pointModelOf(m, o) !== 'drivers'), 'a method on prices alone: one of ');
   positiveInteger('autoValidationDays', o.autoValidationDays);
   positiveInteger('driverKnots', o.driverKnots, 0);
-  positiveInteger('driverLevelKnots', o.driverLevelKnots, 0);
-  if (!DAY_LEVEL_BASES.includes(o.driverLevelBasis)) throw new ArgumentError('options.driverLevelBasis', DAY_LEVEL_BASES.map((b) => `'${b}'`).join(', '), o.driverLevelBasis);
-  if (o.driverLevelBasis === 'natural-cubic' && o.driverLevelKnots !== 0 && (o.driverLevelKnots < 3 || o.driverLevelKnots > 5)) {
-    throw new ArgumentError('options.driverLevelKnots', "0 or 3 to 5 with driverLevelBasis 'natural-cubic'", o.driverLevelKnots);
-  }
   positiveInteger('driverRefitDays', o.driverRefitDays);
   if (o.driverWindowsDays.length === 0) throw new ArgumentError('options.driverWindowsDays', 'at least one window length', o.driverWindowsDays);
   o.driverWindowsDays.forEach((w, i) => positiveInteger(`driverWindowsDays[${i}]`, w, o.minTrainingDays));

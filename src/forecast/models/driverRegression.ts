@@ -12,7 +12,6 @@ import type { GriddedDay, HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
-import { dayLevelArgument, dayLevelColumns, fitDayLevelSpline, type DayLevelBasis, type DayLevelSpline } from './dayLevelSpline.js';
 import { fromAsinhScale, selectInPlace, toAsinhScale, toAsinhScales, type RobustScale } from './robustAsinh.js';
 
 /** Settings of the driver regression; see {@link driverForecast}. */
@@ -25,14 +24,6 @@ export interface DriverSettings {
   readonly knots: number;
   /** Scale the model is fitted on: asinh-transformed prices, or prices. */
   readonly scale: 'asinh' | 'price';
-  /**
-   * Knots of the day-level spline in the day before's mean price [-], >= 0 (dayLevelSpline.ts): K > 0
-   * adds its columns beside the day before's mean price and mean residual load, shared by all slots.
-   * Default 0: none (the model of the header comment).
-   */
-  readonly levelKnots?: number;
-  /** Basis of the day-level spline (dayLevelSpline.ts); default 'hinge'. */
-  readonly levelBasis?: DayLevelBasis;
   /**
    * Refit cadence [days], >= 1. Default 1: the models are fitted afresh for every delivery day. With k > 1
    * they are fitted on the refit days only, the day numbers that are multiples of k, each on the days
@@ -68,8 +59,6 @@ export interface DriverFit {
   readonly windowCount: readonly number[];
   /** Per count w and slot s, the intercept then the k coefficients at models[(w S + s)(k + 1)]. */
   readonly models: Float64Array;
-  /** The day-level spline in the day before's mean price (settings.levelKnots > 0), else null. */
-  readonly levelSpline: DayLevelSpline | null;
 }
 
 /** Fits of the driver regression by the day they were fitted for (null: too few days), for one history and one set of settings. */
@@ -107,12 +96,6 @@ const LAGS = [1, 7] as const;
  *   fences (farOutFences), so that a spike hour does not move tomorrow's level, then at the far-out
  *   fences of the training days' prices on the model's scale, so that a day spiked in most of its
  *   periods (whose own fences hold its spikes) does not either.
- * - Optionally (settings.levelKnots K > 0) the day before's mean price also enters through a spline,
- *   its columns beside a1 and a2 and shared by all slots like them (dayLevelSpline.ts): hinges
- *   max(0, mean_t Z(d'-1,t) - k_j) at the j/(K+1) quantiles of the training days' values (Hastie,
- *   Tibshirani and Friedman 2009, section 5.2), with the residual load's hinges' support rule, or one of
- *   the variants there. The day level's effect on the next day need not be linear: a market with a
- *   convex merit order and a persistent level has one that is not (docs/forecast-quality.md, the tenth wave).
  * - Estimation: least squares (standardised normal equations, Cholesky), then once more on Huber's
  *   pseudo-observations y* = y_hat + psi(y - y_hat) of the longest window's fit (psi clips residuals
  *   at 1.345 robust standard deviations): Bickel's (1975) one-step Huber estimate. Spike periods in the
@@ -178,13 +161,9 @@ function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit
   const days = new DriverDays(view, columns, fit.scale, fit.quartiles);
   const targetDay = days.regressors(lag1, lag7, view.target.weekday);
   const targetX = residualLoad(view.target, columns);
-  const { slots: S, knots: J, coefficients: k, levelSpline: spline } = fit;
+  const { slots: S, knots: J, coefficients: k } = fit;
   const a = J + 4;
   const row = new Float64Array(k);
-  // The day-level spline's columns after meanZ and meanX, then the weekday dummies.
-  const splineColumns = spline === null ? 0 : spline.columns;
-  if (spline !== null) dayLevelColumns(spline, dayLevelArgument(spline, targetDay.meanZ), targetDay.meanX, row, a + 1);
-  const d = a + splineColumns;
   const forecasts = fit.counts.map(() => new Float64Array(S));
   for (let s = 0; s < S; s++) {
     const xt = targetX[s] as number;
@@ -197,7 +176,7 @@ function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit
     row[J + 2] = targetDay.lag7[s] as number;
     row[a - 1] = targetDay.meanZ;
     row[a] = targetDay.meanX;
-    for (let w = 1; w <= 6; w++) row[d + w] = targetDay.weekday === w ? 1 : 0;
+    for (let w = 1; w <= 6; w++) row[a + w] = targetDay.weekday === w ? 1 : 0;
     fit.counts.forEach((_, w) => {
       const at = (w * S + s) * (k + 1);
       let z = fit.models[at] as number;
@@ -239,8 +218,9 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   // Slot columns x, hinges, lag 1, lag 7 and the response; day-level columns mean price and mean
   // residual load of the day before, and the weekday dummies (Sunday, category 7, the reference).
   const a = J + 4;
-  const K = settings.levelKnots ?? 0;
+  const k = a - 1 + 2 + 6;
   const slotValues = new Float64Array(n * a);
+  const models = new Float64Array(counts.length * S * (k + 1));
   const knotValues = new Float64Array(S * J);
   const trainingDays = rows.map((i) => {
     const dn = view.dayNumber(i);
@@ -249,19 +229,10 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const meanZ = Float64Array.from(trainingDays, (d) => d.regressors.meanZ);
   const meanX = Float64Array.from(trainingDays, (d) => d.regressors.meanX);
   const weekdays = Int8Array.from(trainingDays, (d) => d.regressors.weekday);
-  const basis = settings.levelBasis ?? 'hinge';
-  const dayMeans = basis === 'shared' ? { meanZ: Float64Array.from(trainingDays, (d) => d.own.meanZ), meanX: Float64Array.from(trainingDays, (d) => d.own.meanX), weekdays } : undefined;
-  const levelSpline = K > 0 ? fitDayLevelSpline(basis, K, meanZ, meanX, dayMeans) : null;
-  // Day-level columns: meanZ, meanX, then the spline's (their Gram columns a - 1 + 2 + j).
-  const B = 2 + (levelSpline === null ? 0 : levelSpline.columns);
-  const k = a - 1 + B + 6;
-  const models = new Float64Array(counts.length * S * (k + 1));
-  const continuous = levelSpline === null ? Float64Array.from(trainingDays.flatMap((d) => [d.regressors.meanZ, d.regressors.meanX])) : splineDesign(levelSpline, meanZ, meanX);
-  const thinLevel = levelSpline === null || levelSpline.basis === 'natural-cubic' || levelSpline.basis === 'shared' ? counts.map((): number[] => []) : thinLevelHinges(continuous, B, a - 1 + 2, counts);
   const builder = timedFits(settings.stopwatch, 0, () => new SlotDayGramBuilder(
     {
-      continuous,
-      width: B,
+      continuous: Float64Array.from(trainingDays.flatMap((d) => [d.regressors.meanZ, d.regressors.meanX])),
+      width: 2,
       categories: weekdays,
       dummies: 6,
     },
@@ -304,18 +275,16 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
         a,
         (gram, w) => {
           for (const j of thin[w] as number[]) gram.scales[j] = 0;
-          for (const j of thinLevel[w] as number[]) gram.scales[j] = 0;
           longest = choleskyLeastSquares(gram, undefined, longestCoefficients);
         },
         { longestOnly: true },
       );
-      pseudoObservations(slotValues, n, a, { meanZ, meanX, weekdays, continuous, width: B }, longest as LinearModel, fitted);
+      pseudoObservations(slotValues, n, a, { meanZ, meanX, weekdays }, longest as LinearModel, fitted);
       builder.forEachGram(
         slotValues,
         a,
         (gram, w) => {
           for (const j of thin[w] as number[]) gram.scales[j] = 0;
-          for (const j of thinLevel[w] as number[]) gram.scales[j] = 0;
           const at = (w * S + s) * (k + 1);
           const model = choleskyLeastSquares(gram, undefined, models.subarray(at + 1, at + 1 + k));
           models[at] = model.intercept;
@@ -324,38 +293,7 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
       );
     });
   }
-  return { scale, quartiles, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models, levelSpline };
-}
-
-/** The day-level columns n x B row-major with the spline: meanZ, meanX, then the spline's columns of each row. */
-function splineDesign(spline: DayLevelSpline, meanZ: Float64Array, meanX: Float64Array): Float64Array {
-  const n = meanZ.length;
-  const B = 2 + spline.columns;
-  const out = new Float64Array(n * B);
-  for (let r = 0; r < n; r++) {
-    out[r * B] = meanZ[r] as number;
-    out[r * B + 1] = meanX[r] as number;
-    dayLevelColumns(spline, meanZ[r] as number, meanX[r] as number, out, r * B + 2);
-  }
-  return out;
-}
-
-/**
- * Per count (the first counts[w] rows), the Gram indices (first + j) of the day-level hinge columns
- * (continuous[r B + 2 + j]) that fewer than the support's days of those rows reach: the rule of the
- * residual load's hinges (thinHinges).
- */
-function thinLevelHinges(continuous: Float64Array, B: number, first: number, counts: readonly number[]): number[][] {
-  const out = counts.map((): number[] => []);
-  for (let j = 0; j < B - 2; j++) {
-    let support = 0;
-    let r = 0;
-    counts.forEach((count, w) => {
-      for (; r < count; r++) support += (continuous[r * B + 2 + j] as number) > 0 ? 1 : 0;
-      if (support < Math.max(HINGE_SUPPORT_DAYS, HINGE_SUPPORT_SHARE * count)) (out[w] as number[]).push(first + j);
-    });
-  }
-  return out;
+  return { scale, quartiles, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
@@ -593,7 +531,7 @@ function pseudoObservations(
   columns: Float64Array,
   n: number,
   a: number,
-  day: { readonly meanZ: Float64Array; readonly meanX: Float64Array; readonly weekdays: Int8Array; readonly continuous: Float64Array; readonly width: number },
+  day: { readonly meanZ: Float64Array; readonly meanX: Float64Array; readonly weekdays: Int8Array },
   model: LinearModel,
   fitted: Float64Array,
 ): void {
@@ -616,13 +554,10 @@ function pseudoObservations(
     const base = q * n;
     for (let r = 0; r < n; r++) fitted[r] = (fitted[r] as number) + bq * (columns[base + r] as number);
   }
-  const B = day.width;
   for (let r = 0; r < n; r++) {
-    let level = bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number);
-    for (let j = 2; j < B; j++) level += (b[p + j] as number) * (day.continuous[r * B + j] as number);
-    let f = (fitted[r] as number) + level;
+    let f = (fitted[r] as number) + (bz * (day.meanZ[r] as number) + bx * (day.meanX[r] as number));
     const weekday = day.weekdays[r] as number;
-    if (weekday <= 6) f += b[p + B - 1 + weekday] as number;
+    if (weekday <= 6) f += b[p + 1 + weekday] as number;
     fitted[r] = (columns[y + r] as number) - f;
   }
   const residuals = fitted;
