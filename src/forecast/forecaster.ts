@@ -157,6 +157,14 @@ export interface ForecastOptions {
    * same (docs/forecast-quality.md, "the ninth wave: the level read through the merit order's slope").
    */
   readonly driverCentre: 'pool' | 'recent' | 'recent-quadratic';
+  /**
+   * How the driver regression reads the day before's price level: 'mean' (the default), its mean price and
+   * mean residual load as linear columns; 'shift', besides those, as a shift of the residual load: the
+   * residual-load offset D the slot curves read off the day before's prices (inverse prediction), with the
+   * hinges evaluated at x + lambda D, lambda from {0, 0.5, 1} per fit (driverRegression.ts,
+   * residualLoadShift.ts; docs/forecast-quality.md, "the tenth wave").
+   */
+  readonly driverLevel?: 'mean' | 'shift';
   /** Lag of the seasonal naive model of `naive-hs` [days], >= 1 (7: same weekday last week). */
   readonly naiveLagDays: number;
   /** Point model whose per-window forecasts `qra` averages. */
@@ -752,6 +760,7 @@ function makePointForecast(view: HistoryView, model: PointModelName, options: Fo
       knots: options.driverKnots,
       scale: options.driverScale,
       refitDays: options.driverRefitDays,
+      ...(options.driverLevel === 'shift' ? { level: 'shift' as const } : {}),
       fits: driverFits,
       stopwatch: options.stopwatch,
     });
@@ -808,6 +817,7 @@ function validateOptions(o: ForecastOptions): ForecastOptions {
   if (o.driverCentre !== 'pool' && o.driverCentre !== 'recent' && o.driverCentre !== 'recent-quadratic') {
     throw new ArgumentError('options.driverCentre', "'pool', 'recent' or 'recent-quadratic'", o.driverCentre);
   }
+  if (o.driverLevel !== undefined && o.driverLevel !== 'mean' && o.driverLevel !== 'shift') throw new ArgumentError('options.driverLevel', "'mean' or 'shift'", o.driverLevel);
   if (o.qraModel !== 'arx' && o.qraModel !== 'lasso') throw new ArgumentError('options.qraModel', "'arx' or 'lasso'", o.qraModel);
   if (o.errorScale !== 'model' && o.errorScale !== 'price') throw new ArgumentError('options.errorScale', "'model' or 'price'", o.errorScale);
   return o;

@@ -12,6 +12,7 @@ import type { GriddedDay, HistoryView } from './historyView.js';
 import type { PointForecast } from './pointForecast.js';
 import { averageMembers } from './pointForecast.js';
 import { residualLoad, residualLoadColumns, type ResidualLoadColumns } from './residualLoad.js';
+import { clipToFences, dayOffset, monotoneHingeCurve, offsetFences, type MonotoneCurve } from './residualLoadShift.js';
 import { fromAsinhScale, selectInPlace, toAsinhScale, toAsinhScales, type RobustScale } from './robustAsinh.js';
 
 /** Settings of the driver regression; see {@link driverForecast}. */
@@ -33,6 +34,14 @@ export interface DriverSettings {
    * either. When the days before the refit day are too few, the delivery day's own fit is used.
    */
   readonly refitDays?: number;
+  /**
+   * How the day before's price level enters: 'mean' (default), as the linear columns mean_t Z(d'-1,t) and
+   * mean_t x(d'-1,t) only; 'shift', also as a shift of the residual load: x(d',s) + lambda D(d'-1) in the
+   * linear and hinge terms (see {@link ResidualLoadShift}).
+   */
+  readonly level?: 'mean' | 'shift';
+  /** lambda's grid for level 'shift' [-], each >= 0; default LAMBDAS (0, 0.5, 1). */
+  readonly shiftLambdas?: readonly number[];
   /** Where fits are kept between delivery days (by the day they were fitted for); default none (each forecast fits). */
   readonly fits?: DriverFits;
   /** Adds the time spent fitting (Grams and solves, per slot and window) to this counter. Default none. */
@@ -59,7 +68,32 @@ export interface DriverFit {
   readonly windowCount: readonly number[];
   /** Per count w and slot s, the intercept then the k coefficients at models[(w S + s)(k + 1)]. */
   readonly models: Float64Array;
+  /** The residual-load shift of the fit (settings.level 'shift' with lambda > 0), else null. */
+  readonly shift: ResidualLoadShift | null;
 }
+
+/**
+ * The day before's level read as a shift of the residual load (settings.level 'shift'). A supply-side
+ * shift (plants out, imports) moves the merit order sideways, so a persistent level acts on tomorrow's price
+ * through the curve's shape: inverse prediction (Osborne 1991; Brown 1993, residualLoadShift.ts) reads the
+ * day d's prices through each slot's fitted curve f_s (the longest window's least-squares fit with the
+ * level read as today, its other columns at their training means, slopes floored to be increasing) as
+ * the residual load that would have set them, D(d) = median_t (f_s^{-1}(Z(d,t)) - x(d,t)) [GW], clipped at
+ * the far-out fences of the training days' D. The model is then refitted with x(d',s) + lambda D(d'-1) in
+ * place of x(d',s) (knots on the shifted values), the linear columns as before; lambda in LAMBDAS by the
+ * longest window's residual sum of squares over all slots (the smallest on a tie, so 0 keeps today's fit).
+ */
+export interface ResidualLoadShift {
+  /** lambda [-], > 0. */
+  readonly lambda: number;
+  /** Per slot, the curve that reads a day's prices as a residual-load offset. */
+  readonly curves: readonly MonotoneCurve[];
+  /** The training days' far-out fences of D [GW]. */
+  readonly fences: { readonly low: number; readonly high: number };
+}
+
+/** The grid of lambda (residual-load shift per GW of the day before's offset) tried per fit. */
+const LAMBDAS = [0, 0.5, 1] as const;
 
 /** Fits of the driver regression by the day they were fitted for (null: too few days), for one history and one set of settings. */
 export class DriverFits extends KeptFits<number, DriverFit | null> {}
@@ -160,8 +194,14 @@ function fitOnDay(view: HistoryView, columns: ResidualLoadColumns, settings: Dri
 function predict(view: HistoryView, columns: ResidualLoadColumns, fit: DriverFit, lag1: number, lag7: number): PointForecast {
   const days = new DriverDays(view, columns, fit.scale, fit.quartiles);
   const targetDay = days.regressors(lag1, lag7, view.target.weekday);
-  const targetX = residualLoad(view.target, columns);
+  let targetX = residualLoad(view.target, columns);
   const { slots: S, knots: J, coefficients: k } = fit;
+  if (fit.shift !== null) {
+    // The delivery day's residual load shifted by lambda D(d - 1), D read through the fit's own curves.
+    const before = days.of(lag1);
+    const offset = clipToFences(dayOffset(fit.shift.curves, before.clipped, before.x, new Float64Array(S)), fit.shift.fences);
+    targetX = Float64Array.from(targetX, (x) => x + fit.shift!.lambda * offset);
+  }
   const a = J + 4;
   const row = new Float64Array(k);
   const forecasts = fit.counts.map(() => new Float64Array(S));
@@ -224,7 +264,7 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const knotValues = new Float64Array(S * J);
   const trainingDays = rows.map((i) => {
     const dn = view.dayNumber(i);
-    return { own: days.of(i), regressors: days.regressors(view.indexOf(dn - 1), view.indexOf(dn - 7), view.past(i).weekday) };
+    return { own: days.of(i), before: view.indexOf(dn - 1), regressors: days.regressors(view.indexOf(dn - 1), view.indexOf(dn - 7), view.past(i).weekday) };
   });
   const meanZ = Float64Array.from(trainingDays, (d) => d.regressors.meanZ);
   const meanX = Float64Array.from(trainingDays, (d) => d.regressors.meanX);
@@ -248,11 +288,11 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const longestCoefficients = new Float64Array(k);
   // Per slot, the residual loads of the longest window's days in ascending order, kept from the last fit's.
   const sortedX = keptResidualLoads.of(trainingDays.map((d) => d.own.x));
-  for (let s = 0; s < S; s++) {
-    const slotX = xBySlot.subarray(s * n, (s + 1) * n);
+  const dayColumns = { meanZ, meanX, weekdays };
+  /** The slot columns of slot s (slotValues[q n + r]: x, the hinges, lag 1, lag 7, the response) at residual loads slotX, knots from sorted. */
+  const fillSlot = (s: number, slotX: Float64Array, sorted: Float64Array): number[][] => {
     const knots = knotValues.subarray(s * J, (s + 1) * J);
-    for (let j = 0; j < J; j++) knots[j] = sortedQuantile(sortedX[s] as Float64Array, (j + 1) / (J + 1));
-    // The slot columns column by column (slotValues[q n + r]): x, the hinges, lag 1, lag 7, the response.
+    for (let j = 0; j < J; j++) knots[j] = sortedQuantile(sorted, (j + 1) / (J + 1));
     slotValues.set(slotX, 0);
     for (let j = 0; j < J; j++) {
       const knot = knots[j] as number;
@@ -266,7 +306,73 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
     slotValues.set(lag1BySlot.subarray(s * n, (s + 1) * n), (J + 1) * n);
     slotValues.set(lag7BySlot.subarray(s * n, (s + 1) * n), (J + 2) * n);
     slotValues.set(zBySlot.subarray(s * n, (s + 1) * n), (a - 1) * n);
-    const thin = thinHinges(slotValues, n, J, counts);
+    return thinHinges(slotValues, n, J, counts);
+  };
+  /** Least squares of slot s's columns on the longest window (thin hinges left out), into longestCoefficients. */
+  const fitLongest = (thin: number[][]): LinearModel => {
+    let longest: LinearModel | undefined;
+    builder.forEachGram(
+      slotValues,
+      a,
+      (gram, w) => {
+        for (const j of thin[w] as number[]) gram.scales[j] = 0;
+        longest = choleskyLeastSquares(gram, undefined, longestCoefficients);
+      },
+      { longestOnly: true },
+    );
+    return longest as LinearModel;
+  };
+  const chosen = settings.level === 'shift' ? chooseShift() : null;
+  const shift = chosen?.shift ?? null;
+  /** The fit's residual-load shift and each training row's clipped D(d' - 1): three longest-window fits per slot. */
+  function chooseShift(): { shift: ResidualLoadShift | null; offsets: Float64Array } {
+    const lambdas = settings.shiftLambdas ?? LAMBDAS;
+    return timedFits(settings.stopwatch, lambdas.length * S, () => {
+      // The curves: each slot's longest-window fit with the level read as today, its other columns at their means.
+      const curves: MonotoneCurve[] = [];
+      let rssAtZero = 0;
+      for (let s = 0; s < S; s++) {
+        const model = fitLongest(fillSlot(s, xBySlot.subarray(s * n, (s + 1) * n), sortedX[s] as Float64Array));
+        rssAtZero += residualSumOfSquares(slotValues, n, a, dayColumns, model, fitted);
+        const b = model.coefficients;
+        let level = model.intercept;
+        for (const q of [J + 1, J + 2]) level += (b[q] as number) * meanOfRange(slotValues, q * n, n);
+        level += (b[a - 1] as number) * meanOf(meanZ) + (b[a] as number) * meanOf(meanX);
+        for (let w = 1; w <= 6; w++) level += (b[a - 1 + 1 + w] as number) * weekdayShare(weekdays, w);
+        curves.push(monotoneHingeCurve(level, b[0] as number, b.subarray(1, 1 + J), knotValues.subarray(s * J, (s + 1) * J)));
+      }
+      // Each training row's D(d' - 1), clipped at the rows' far-out fences.
+      const work = new Float64Array(S);
+      const raw = Float64Array.from(trainingDays, (d) => {
+        const before = days.of(d.before);
+        return dayOffset(curves, before.clipped, before.x, work);
+      });
+      const fences = offsetFences(raw);
+      const offsets = Float64Array.from(raw, (v) => clipToFences(v, fences));
+      let best = { lambda: 0 as number, rss: rssAtZero };
+      const shifted = new Float64Array(n);
+      for (const lambda of lambdas) {
+        if (lambda === 0) continue;
+        let rss = 0;
+        for (let s = 0; s < S; s++) {
+          shiftedLoads(xBySlot.subarray(s * n, (s + 1) * n), offsets, lambda, shifted);
+          const model = fitLongest(fillSlot(s, shifted, Float64Array.from(shifted).sort()));
+          rss += residualSumOfSquares(slotValues, n, a, dayColumns, model, fitted);
+        }
+        if (rss < best.rss) best = { lambda, rss };
+      }
+      return { shift: best.lambda === 0 ? null : { lambda: best.lambda, curves, fences }, offsets };
+    });
+  }
+  const shiftedX = new Float64Array(n);
+  for (let s = 0; s < S; s++) {
+    let slotX = xBySlot.subarray(s * n, (s + 1) * n);
+    let sortedSlotX = sortedX[s] as Float64Array;
+    if (shift !== null) {
+      slotX = shiftedLoads(slotX, (chosen as { offsets: Float64Array }).offsets, shift.lambda, shiftedX);
+      sortedSlotX = Float64Array.from(slotX).sort();
+    }
+    const thin = fillSlot(s, slotX, sortedSlotX);
     timedFits(settings.stopwatch, counts.length + 1, () => {
       // Least squares on the longest window, then on Huber's pseudo-observations of that fit in every window.
       let longest: LinearModel | undefined;
@@ -293,7 +399,7 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
       );
     });
   }
-  return { scale, quartiles, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models };
+  return { scale, quartiles, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models, shift };
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
@@ -495,6 +601,23 @@ function scaleAndQuartiles(view: HistoryView, rows: readonly number[], windowDay
   return { scale: null, quartiles: sortedSampleBounds(prices.sort()).quartiles };
 }
 
+/** x + lambda D(d' - 1) per training row, into `out`. */
+function shiftedLoads(x: Float64Array, offsets: Float64Array, lambda: number, out: Float64Array): Float64Array {
+  for (let r = 0; r < x.length; r++) out[r] = (x[r] as number) + lambda * (offsets[r] as number);
+  return out;
+}
+
+function meanOfRange(values: Float64Array, from: number, length: number): number {
+  return meanOf(values.subarray(from, from + length));
+}
+
+/** Share of rows on weekday w (1..7). */
+function weekdayShare(weekdays: Int8Array, w: number): number {
+  let count = 0;
+  for (let r = 0; r < weekdays.length; r++) if (weekdays[r] === w) count++;
+  return count / weekdays.length;
+}
+
 function meanOf(values: Float64Array): number {
   let sum = 0;
   for (let i = 0; i < values.length; i++) sum += values[i] as number;
@@ -535,6 +658,40 @@ function pseudoObservations(
   model: LinearModel,
   fitted: Float64Array,
 ): void {
+  const y = (a - 1) * n;
+  const residuals = residualsInto(columns, n, a, day, model, fitted);
+  const limit = huberClipLimit(residuals.subarray(0, n));
+  for (let r = 0; r < n; r++) {
+    const e = residuals[r] as number;
+    if (e > limit) columns[y + r] = (columns[y + r] as number) - (e - limit);
+    else if (e < -limit) columns[y + r] = (columns[y + r] as number) - (e + limit);
+  }
+}
+
+/** The sum of squared residuals of `model` on the slot columns (as {@link pseudoObservations} reads them). */
+function residualSumOfSquares(
+  columns: Float64Array,
+  n: number,
+  a: number,
+  day: { readonly meanZ: Float64Array; readonly meanX: Float64Array; readonly weekdays: Int8Array },
+  model: LinearModel,
+  work: Float64Array,
+): number {
+  const residuals = residualsInto(columns, n, a, day, model, work);
+  let sum = 0;
+  for (let r = 0; r < n; r++) sum += (residuals[r] as number) ** 2;
+  return sum;
+}
+
+/** The residuals y - y_hat of `model` on the slot columns (n rows, response last) and day columns, into `fitted`. */
+function residualsInto(
+  columns: Float64Array,
+  n: number,
+  a: number,
+  day: { readonly meanZ: Float64Array; readonly meanX: Float64Array; readonly weekdays: Int8Array },
+  model: LinearModel,
+  fitted: Float64Array,
+): Float64Array {
   const b = model.coefficients;
   const p = a - 1;
   const y = p * n;
@@ -560,11 +717,5 @@ function pseudoObservations(
     if (weekday <= 6) f += b[p + 1 + weekday] as number;
     fitted[r] = (columns[y + r] as number) - f;
   }
-  const residuals = fitted;
-  const limit = huberClipLimit(residuals.subarray(0, n));
-  for (let r = 0; r < n; r++) {
-    const e = residuals[r] as number;
-    if (e > limit) columns[y + r] = (columns[y + r] as number) - (e - limit);
-    else if (e < -limit) columns[y + r] = (columns[y + r] as number) - (e + limit);
-  }
+  return fitted;
 }
