@@ -130,6 +130,9 @@ const LAGS = [1, 7] as const;
  *   fences (farOutFences), so that a spike hour does not move tomorrow's level, then at the far-out
  *   fences of the training days' prices on the model's scale, so that a day spiked in most of its
  *   periods (whose own fences hold its spikes) does not either.
+ * - With settings.level 'shift' (an option; see ResidualLoadShift) the day before's level also shifts the
+ *   residual load, x(d',s) + lambda D(d'-1) in place of x(d',s) in the linear and hinge terms, D read off
+ *   the day before's prices through the slots' inverted curves (inverse prediction).
  * - Estimation: least squares (standardised normal equations, Cholesky), then once more on Huber's
  *   pseudo-observations y* = y_hat + psi(y - y_hat) of the longest window's fit (psi clips residuals
  *   at 1.345 robust standard deviations): Bickel's (1975) one-step Huber estimate. Spike periods in the
