@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import { forecastDay } from '../../src/forecast/forecaster.js';
 import { DriverFits, driverForecast, type DriverSettings } from '../../src/forecast/models/driverRegression.js';
 import { HistoryView } from '../../src/forecast/models/historyView.js';
 import { dayOffset, inverseOf, monotoneHingeCurve } from '../../src/forecast/models/residualLoadShift.js';
@@ -93,5 +94,12 @@ describe("driver regression, the day before's level as a residual-load shift (le
     // hinge slopes are flattened by the level it leaves out (so lambda 0.5 is taken on this seed, not 0.9).
     // Seen: mean absolute error to the true median 6.65 ('mean') and 5.09 ('shift').
     expect(errors.shift).toBeLessThan(0.85 * errors.mean);
+  });
+
+  it("the forecaster option driverLevel takes 'mean' or 'shift' and rejects anything else", () => {
+    const history = syntheticHistory({ days: 130, periodMinutes: 60, seed: 7 });
+    const small = { windowsDays: [28, 56], driverWindowsDays: [56, 91], minTrainingDays: 21, calibrationDays: 21, minCalibrationDays: 21 };
+    expect(() => forecastDay(history, 125, [0.1, 0.5, 0.9], 'driver-hs', { ...small, driverLevel: 'sideways' as 'shift' })).toThrow(/options.driverLevel/);
+    expect(forecastDay(history, 125, [0.1, 0.5, 0.9], 'driver-hs', { ...small, driverLevel: 'shift' }).quantiles).toBeDefined();
   });
 });
