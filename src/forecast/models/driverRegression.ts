@@ -80,8 +80,8 @@ export interface DriverFit {
  * level read as today, its other columns at their training means, slopes floored to be increasing) as
  * the residual load that would have set them, D(d) = median_t (f_s^{-1}(Z(d,t)) - x(d,t)) [GW], clipped at
  * the far-out fences of the training days' D. The model is then refitted with x(d',s) + lambda D(d'-1) in
- * place of x(d',s) (knots on the shifted values), the linear columns as before; lambda in LAMBDAS by the
- * longest window's residual sum of squares over all slots (the smallest on a tie, so 0 keeps today's fit).
+ * place of x(d',s) (knots on the shifted values), the linear columns as before; lambda in LAMBDAS by
+ * rolling-origin validation (shiftLambdaFor), kept for SHIFT_CHOICE_EVERY_DAYS days.
  */
 export interface ResidualLoadShift {
   /** lambda [-], > 0. */
@@ -92,11 +92,18 @@ export interface ResidualLoadShift {
   readonly fences: { readonly low: number; readonly high: number };
 }
 
-/** The grid of lambda (residual-load shift per GW of the day before's offset) tried per fit. */
+/** The grid of lambda (residual-load shift per GW of the day before's offset) tried per choice. */
 const LAMBDAS = [0, 0.5, 1] as const;
+/** Days held out at the end of the longest window to choose lambda on (rolling-origin validation). */
+export const SHIFT_HOLDOUT_DAYS = 28;
+/** lambda is chosen on the day numbers that are multiples of this and kept until the next such day. */
+export const SHIFT_CHOICE_EVERY_DAYS = 28;
 
 /** Fits of the driver regression by the day they were fitted for (null: too few days), for one history and one set of settings. */
-export class DriverFits extends KeptFits<number, DriverFit | null> {}
+export class DriverFits extends KeptFits<number, DriverFit | null> {
+  /** lambda of level 'shift' by the day it was chosen on (see shiftLambdaFor). */
+  readonly shiftLambdas = new KeptFits<number, number>();
+}
 
 /** The refit day of a delivery day under a cadence of `every` days: the latest day number on or before it that is a multiple of `every`. */
 export function refitDayOf(dayNumber: number, every: number): number {
@@ -253,6 +260,8 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
   const counts = [...new Set(sizes)].sort((p, q) => p - q);
   const n = counts[counts.length - 1] as number;
   const rows = training.slice(0, n);
+  // lambda before this fit's DriverDays: the choice's own DriverDays takes the same blocks.
+  const lambda = settings.level === 'shift' ? shiftLambdaFor(view, columns, settings, fitDay) : 0;
   // The robust scale and the quartiles of all prices of the training days (one sorted sample).
   const { scale, quartiles } = scaleAndQuartiles(view, rows, longest, settings.scale);
   const days = new DriverDays(view, columns, scale, quartiles);
@@ -325,24 +334,16 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
     );
     return longest as LinearModel;
   };
-  const chosen = settings.level === 'shift' ? chooseShift() : null;
+  const chosen = lambda > 0 ? readShift(lambda) : null;
   const shift = chosen?.shift ?? null;
-  /** The fit's residual-load shift and each training row's clipped D(d' - 1): three longest-window fits per slot. */
-  function chooseShift(): { shift: ResidualLoadShift | null; offsets: Float64Array } {
-    const lambdas = settings.shiftLambdas ?? LAMBDAS;
-    return timedFits(settings.stopwatch, lambdas.length * S, () => {
+  /** The fit's residual-load shift at the chosen lambda and each training row's clipped D(d' - 1): one longest-window fit per slot. */
+  function readShift(lambda: number): { shift: ResidualLoadShift; offsets: Float64Array } {
+    return timedFits(settings.stopwatch, S, () => {
       // The curves: each slot's longest-window fit with the level read as today, its other columns at their means.
       const curves: MonotoneCurve[] = [];
-      let rssAtZero = 0;
       for (let s = 0; s < S; s++) {
         const model = fitLongest(fillSlot(s, xBySlot.subarray(s * n, (s + 1) * n), sortedX[s] as Float64Array));
-        rssAtZero += residualSumOfSquares(slotValues, n, a, dayColumns, model, fitted);
-        const b = model.coefficients;
-        let level = model.intercept;
-        for (const q of [J + 1, J + 2]) level += (b[q] as number) * meanOfRange(slotValues, q * n, n);
-        level += (b[a - 1] as number) * meanOf(meanZ) + (b[a] as number) * meanOf(meanX);
-        for (let w = 1; w <= 6; w++) level += (b[a - 1 + 1 + w] as number) * weekdayShare(weekdays, w);
-        curves.push(monotoneHingeCurve(level, b[0] as number, b.subarray(1, 1 + J), knotValues.subarray(s * J, (s + 1) * J)));
+        curves.push(slotCurve(model, slotValues, n, J, dayColumns, knotValues.subarray(s * J, (s + 1) * J)));
       }
       // Each training row's D(d' - 1), clipped at the rows' far-out fences.
       const work = new Float64Array(S);
@@ -352,19 +353,7 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
       });
       const fences = offsetFences(raw);
       const offsets = Float64Array.from(raw, (v) => clipToFences(v, fences));
-      let best = { lambda: 0 as number, rss: rssAtZero };
-      const shifted = new Float64Array(n);
-      for (const lambda of lambdas) {
-        if (lambda === 0) continue;
-        let rss = 0;
-        for (let s = 0; s < S; s++) {
-          shiftedLoads(xBySlot.subarray(s * n, (s + 1) * n), offsets, lambda, shifted);
-          const model = fitLongest(fillSlot(s, shifted, Float64Array.from(shifted).sort()));
-          rss += residualSumOfSquares(slotValues, n, a, dayColumns, model, fitted);
-        }
-        if (rss < best.rss) best = { lambda, rss };
-      }
-      return { shift: best.lambda === 0 ? null : { lambda: best.lambda, curves, fences }, offsets };
+      return { shift: { lambda, curves, fences }, offsets };
     });
   }
   const shiftedX = new Float64Array(n);
@@ -403,6 +392,162 @@ function fitDriverModel(view: HistoryView, columns: ResidualLoadColumns, setting
     });
   }
   return { scale, quartiles, slots: S, knots: J, coefficients: k, knotValues, counts, windowCount: sizes.map((size) => counts.indexOf(size)), models, shift };
+}
+
+/**
+ * The slot's fitted curve with the level read as today: the intercept plus the lags, the day-level columns
+ * and the weekday dummies at their means over the rows, as a function of the residual load (slopes floored).
+ */
+function slotCurve(
+  model: LinearModel,
+  slotValues: Float64Array,
+  n: number,
+  J: number,
+  day: { readonly meanZ: Float64Array; readonly meanX: Float64Array; readonly weekdays: Int8Array },
+  knots: Float64Array,
+): MonotoneCurve {
+  const a = J + 4;
+  const b = model.coefficients;
+  let level = model.intercept;
+  for (const q of [J + 1, J + 2]) level += (b[q] as number) * meanOfRange(slotValues, q * n, n);
+  level += (b[a - 1] as number) * meanOf(day.meanZ) + (b[a] as number) * meanOf(day.meanX);
+  for (let w = 1; w <= 6; w++) level += (b[a - 1 + 1 + w] as number) * weekdayShare(day.weekdays, w);
+  return monotoneHingeCurve(level, b[0] as number, b.subarray(1, 1 + J), knots);
+}
+
+/**
+ * lambda of level 'shift' for a fit on `fitDay`: the one chosen on the choice day, the latest multiple of
+ * SHIFT_CHOICE_EVERY_DAYS on or before fitDay (kept in settings.fits), by {@link holdoutShiftLambda}.
+ * The choice depends only on the days before the choice day, so kept or not it is the same number.
+ */
+function shiftLambdaFor(view: HistoryView, columns: ResidualLoadColumns, settings: DriverSettings, fitDay: number): number {
+  const choiceDay = refitDayOf(fitDay, SHIFT_CHOICE_EVERY_DAYS);
+  const kept = settings.fits?.shiftLambdas.get(choiceDay);
+  if (kept !== undefined) return kept;
+  const lambdas = settings.shiftLambdas ?? LAMBDAS;
+  const lambda = timedFits(settings.stopwatch, lambdas.length * view.slotsPerDay, () => holdoutShiftLambda(view, columns, settings, choiceDay).lambda);
+  settings.fits?.shiftLambdas.set(choiceDay, lambda);
+  return lambda;
+}
+
+/**
+ * lambda by rolling-origin validation (L. J. Tashman 2000, Out-of-sample tests of forecasting accuracy:
+ * an analysis and review, Int. J. Forecast. 16(4), 437-450): of the longest window's training days before
+ * `originDay`, the last SHIFT_HOLDOUT_DAYS are held out; on the others alone are taken the model's scale,
+ * each slot's least-squares fit at lambda 0 and its curve, the offsets' fences, and for each lambda the
+ * knots and the least-squares fit with x + lambda D(d' - 1); each lambda is scored by the absolute errors
+ * of its fits on the held-out days over all slots, on the model's scale (twice the pinball loss at 0.5),
+ * and the lowest wins, the smallest lambda on a tie (so 0 where the shift does not forecast better).
+ * lambda 0 when the days left to fit are fewer than settings.minTrainingDays.
+ *
+ * @returns lambda and each lambda's score (the sum of absolute errors), in the order of the grid
+ */
+export function holdoutShiftLambda(
+  view: HistoryView,
+  columns: ResidualLoadColumns,
+  settings: DriverSettings,
+  originDay: number,
+): { lambda: number; scores: number[] } {
+  const lambdas = [...new Set([0, ...(settings.shiftLambdas ?? LAMBDAS)])].sort((p, q) => p - q);
+  const longest = Math.max(...settings.windowsDays);
+  const training: number[] = [];
+  for (let i = view.indexAtOrBefore(originDay - 1); i >= 0 && view.dayNumber(i) >= originDay - longest; i--) {
+    const dn = view.dayNumber(i);
+    if (LAGS.every((lag) => view.indexOf(dn - lag) >= 0)) training.push(i);
+  }
+  const H = SHIFT_HOLDOUT_DAYS;
+  const m = training.length - H;
+  if (m < settings.minTrainingDays) return { lambda: 0, scores: [] };
+  // Rows in the order of `training` (latest first): 0..H-1 held out, H.. fitted.
+  const { scale, quartiles } = scaleAndQuartiles(view, training.slice(H), longest - H, settings.scale);
+  const days = new DriverDays(view, columns, scale, quartiles);
+  const rowsOf = (from: number, to: number) =>
+    training.slice(from, to).map((i) => {
+      const dn = view.dayNumber(i);
+      return { own: days.of(i), before: days.of(view.indexOf(dn - 1)), regressors: days.regressors(view.indexOf(dn - 1), view.indexOf(dn - 7), view.past(i).weekday) };
+    });
+  const held = rowsOf(0, H);
+  const fitted = rowsOf(H, training.length);
+  const dayOf = (rows: typeof held) => ({
+    meanZ: Float64Array.from(rows, (d) => d.regressors.meanZ),
+    meanX: Float64Array.from(rows, (d) => d.regressors.meanX),
+    weekdays: Int8Array.from(rows, (d) => d.regressors.weekday),
+  });
+  const heldDay = dayOf(held);
+  const fittedDay = dayOf(fitted);
+  const builder = new SlotDayGramBuilder(
+    { continuous: Float64Array.from(fitted.flatMap((d) => [d.regressors.meanZ, d.regressors.meanX])), width: 2, categories: fittedDay.weekdays, dummies: 6 },
+    [m],
+  );
+  const S = view.slotsPerDay;
+  const J = settings.knots;
+  const a = J + 4;
+  const k = a - 1 + 2 + 6;
+  const fittedValues = new Float64Array(m * a);
+  const heldValues = new Float64Array(H * a);
+  const coefficients = new Float64Array(k);
+  const work = new Float64Array(Math.max(m, H));
+  const knots = new Float64Array(J);
+  const curves: MonotoneCurve[] = [];
+  const heldOffsets = new Float64Array(H);
+  const fittedOffsets = new Float64Array(m);
+  const shiftedFitted = new Float64Array(m);
+  const shiftedHeld = new Float64Array(H);
+  const scores: number[] = [];
+  for (const lambda of lambdas) {
+    let score = 0;
+    for (let s = 0; s < S; s++) {
+      for (let r = 0; r < m; r++) shiftedFitted[r] = ((fitted[r] as (typeof fitted)[number]).own.x[s] as number) + lambda * (fittedOffsets[r] as number);
+      for (let r = 0; r < H; r++) shiftedHeld[r] = ((held[r] as (typeof held)[number]).own.x[s] as number) + lambda * (heldOffsets[r] as number);
+      const sorted = Float64Array.from(shiftedFitted).sort();
+      const slotKnots = new Float64Array(J);
+      for (let j = 0; j < J; j++) slotKnots[j] = sortedQuantile(sorted, (j + 1) / (J + 1));
+      knots.set(slotKnots);
+      slotColumns(fitted, s, shiftedFitted, knots, fittedValues);
+      slotColumns(held, s, shiftedHeld, knots, heldValues);
+      const thin = thinHinges(fittedValues, m, J, [m]);
+      let model: LinearModel | undefined;
+      builder.forEachGram(fittedValues, a, (gram) => {
+        for (const j of thin[0] as number[]) gram.scales[j] = 0;
+        model = choleskyLeastSquares(gram, undefined, coefficients);
+      });
+      score += absoluteErrorSum(heldValues, H, a, heldDay, model as LinearModel, work);
+      if (lambda === 0) curves.push(slotCurve(model as LinearModel, fittedValues, m, J, fittedDay, slotKnots));
+    }
+    scores.push(score);
+    if (lambda === 0) {
+      // Each row's D(d' - 1) through the curves fitted without the held-out days, clipped at the fitted rows' fences.
+      const offsetWork = new Float64Array(S);
+      const raw = Float64Array.from(fitted, (d) => dayOffset(curves, d.before.clipped, d.before.x, offsetWork));
+      const fences = offsetFences(raw);
+      raw.forEach((v, r) => (fittedOffsets[r] = clipToFences(v, fences)));
+      held.forEach((d, r) => (heldOffsets[r] = clipToFences(dayOffset(curves, d.before.clipped, d.before.x, offsetWork), fences)));
+    }
+  }
+  let best = 0;
+  for (let i = 1; i < lambdas.length; i++) if ((scores[i] as number) < (scores[best] as number)) best = i;
+  return { lambda: lambdas[best] as number, scores };
+}
+
+/** Slot s's columns of `rows` (x, the hinges at `knots`, lag 1, lag 7, the response z), column by column into `out`. */
+function slotColumns(
+  rows: readonly { readonly own: DriverDay; readonly regressors: DayRegressors }[],
+  s: number,
+  x: Float64Array,
+  knots: Float64Array,
+  out: Float64Array,
+): void {
+  const n = rows.length;
+  const J = knots.length;
+  for (let r = 0; r < n; r++) {
+    const d = rows[r] as (typeof rows)[number];
+    const xv = x[r] as number;
+    out[r] = xv;
+    for (let j = 0; j < J; j++) out[(1 + j) * n + r] = Math.max(xv - (knots[j] as number), 0);
+    out[(J + 1) * n + r] = d.regressors.lag1[s] as number;
+    out[(J + 2) * n + r] = d.regressors.lag7[s] as number;
+    out[(J + 3) * n + r] = d.own.z[s] as number;
+  }
 }
 
 /** Regressors of a day that come from the days before it (and its weekday). */
@@ -671,8 +816,8 @@ function pseudoObservations(
   }
 }
 
-/** The sum of squared residuals of `model` on the slot columns (as {@link pseudoObservations} reads them). */
-function residualSumOfSquares(
+/** The sum of absolute residuals of `model` on the slot columns (n rows, response last) and day columns: twice the pinball loss at 0.5. */
+function absoluteErrorSum(
   columns: Float64Array,
   n: number,
   a: number,
@@ -682,7 +827,7 @@ function residualSumOfSquares(
 ): number {
   const residuals = residualsInto(columns, n, a, day, model, work);
   let sum = 0;
-  for (let r = 0; r < n; r++) sum += (residuals[r] as number) ** 2;
+  for (let r = 0; r < n; r++) sum += Math.abs(residuals[r] as number);
   return sum;
 }
 
