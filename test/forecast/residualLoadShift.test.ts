@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { forecastDay } from '../../src/forecast/forecaster.js';
-import { DriverFits, driverForecast, type DriverSettings } from '../../src/forecast/models/driverRegression.js';
+import { DriverFits, driverForecast, holdoutShiftLambda, SHIFT_HOLDOUT_DAYS, type DriverSettings } from '../../src/forecast/models/driverRegression.js';
+import { residualLoadColumns } from '../../src/forecast/models/residualLoad.js';
 import { HistoryView } from '../../src/forecast/models/historyView.js';
 import { dayOffset, inverseOf, monotoneHingeCurve } from '../../src/forecast/models/residualLoadShift.js';
 import type { PriceHistory } from '../../src/types.js';
@@ -94,6 +95,42 @@ describe("driver regression, the day before's level as a residual-load shift (le
     // hinge slopes are flattened by the level it leaves out (so lambda 0.5 is taken on this seed, not 0.9).
     // Seen: mean absolute error to the true median 6.65 ('mean') and 5.09 ('shift').
     expect(errors.shift).toBeLessThan(0.85 * errors.mean);
+  });
+
+  it('lambda by rolling-origin validation (Tashman 2000): > 0 where the day before carries the level, 0 where it does not', () => {
+    // Prices P = f(x + m_d) with f as above, two processes on the same loads (closed forms of the process):
+    // persistent, m_d = 0.9 m_{d-1} + e_d: D(d-1) = m_{d-1} forecasts 0.9 of the day's shift, the best
+    // lambda of the grid is > 0; independent, m_d = e_d: D(d-1) says nothing of m_d, the best lambda is 0,
+    // and a shift by lambda D(d-1) only adds noise, the more the larger lambda. The choice reads the last
+    // 28 training days before the origin, fitted on the days before them.
+    const f = (y: number): number => 20 + 0.05 * y + 0.5 * Math.max(0, y - 560);
+    const base = syntheticHistory({ days: 200, periodMinutes: 60, seed: 3 });
+    const withLevels = (persistence: number): PriceHistory => {
+      const z = seededNormal(17);
+      let m = 0;
+      return {
+        ...base,
+        days: base.days.map((day) => {
+          m = persistence * m + 40 * z();
+          return { ...day, pricePerMwh: (day.exogenous.load_mw as number[]).map((x) => f(x + m)) };
+        }),
+      };
+    };
+    const settings: DriverSettings = { ...SETTINGS, level: 'shift', shiftLambdas: [0, 0.5, 1] };
+    const choose = (h: PriceHistory, i: number) => {
+      const view = HistoryView.before(h, i);
+      return holdoutShiftLambda(view, residualLoadColumns(view.exogenousNames)!, settings, view.target.dayNumber);
+    };
+    expect(SHIFT_HOLDOUT_DAYS).toBe(28);
+    for (const i of [180, 195]) {
+      const persistent = choose(withLevels(0.9), i);
+      expect(persistent.lambda).toBeGreaterThan(0);
+      expect(persistent.scores[0]).toBeGreaterThan(Math.min(...persistent.scores));
+      const independent = choose(withLevels(0), i);
+      expect(independent.lambda).toBe(0);
+      expect(independent.scores[1]).toBeGreaterThan(independent.scores[0] as number);
+      expect(independent.scores[2]).toBeGreaterThan(independent.scores[1] as number);
+    }
   });
 
   it("the forecaster option driverLevel takes 'mean' or 'shift' and rejects anything else", () => {
