@@ -8,7 +8,9 @@
 // that year's history CSV (cut to the year, uncompressed), and each method's year against the first
 // method's, measured in the same process.
 //
-//   npm run build && node bench/forecastYear.js [--year 2026] [--methods arx-hs,auto] [--reads 3]
+//   npm run build && node bench/forecastYear.js [--year 2026] [--methods arx-hs,auto] [--reads 3] [--options '{"driverCentre":"recent"}']
+//
+// --options: Forecaster options over DEFAULTS for every method (and every process of --rounds / --baseline).
 //
 // The day times are the gaps between forecastRange's per-day callbacks; the first day carries the
 // calibration days' point forecasts, so it is shown apart and the median is over all days.
@@ -57,7 +59,7 @@ if (arg('rounds', null) !== null && !process.argv.includes('--json')) {
 /** Times each method of --methods (default arx-hs,auto) in its own processes, interleaved round by round. */
 function compareMethods(rounds) {
   const methods = (arg('methods', null) ?? arg('method', null) ?? 'arx-hs,auto').split(',');
-  const passOn = ['year', 'reads', 'root'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
+  const passOn = ['year', 'reads', 'root', 'options'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
   const results = new Map(methods.map((m) => [m, []]));
   for (let round = 0; round < rounds; round++) {
     for (const method of methods) {
@@ -82,7 +84,7 @@ function compareMethods(rounds) {
 
 /** Times this checkout and `baseline` in interleaved rounds (each a process of this script with --json). */
 function compareWithBaseline(baseline, rounds) {
-  const passOn = ['year', 'method', 'reads'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
+  const passOn = ['year', 'method', 'reads', 'options'].flatMap((name) => (arg(name, null) === null ? [] : [`--${name}`, arg(name, null)]));
   const runs = { this: here, baseline };
   const results = { this: [], baseline: [] };
   for (let round = 0; round < rounds; round++) {
@@ -110,6 +112,8 @@ const { DayCalendar } = await loadDist('market/dayCalendar.js');
 const YEAR = arg('year', '2026');
 const METHODS = (arg('methods', null) ?? arg('method', null) ?? [...new Set(['arx-hs', DEFAULT_METHOD])].join(',')).split(',');
 const READS = Number(arg('reads', 3));
+/** --options: Forecaster options over DEFAULTS (default none), for every method. */
+const OPTIONS = JSON.parse(arg('options', '{}'));
 for (const method of METHODS) {
   if (!FORECAST_METHODS.includes(method)) {
     console.error(`--methods ${method}: expected one of ${FORECAST_METHODS.join(', ')}`);
@@ -157,7 +161,7 @@ try {
     const cpuStarted = process.cpuUsage();
     const started = performance.now();
     let last = started;
-    const run = forecastRange(history, request, { stopwatch }, () => {
+    const run = forecastRange(history, request, { ...OPTIONS, stopwatch }, () => {
       const now = performance.now();
       dayMs.push(now - last);
       last = now;
