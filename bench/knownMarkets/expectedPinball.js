@@ -73,14 +73,9 @@ export function periodLaw(law, setting, normalCdf) {
   return { cdf, kinks, start };
 }
 
-/** E[rho_tau(Y - q)] for the period's clamped price Y with mean `mean` (see the header). */
-export function expectedPinball(periodLawOf, mean, tau, q) {
-  const below = q <= periodLawOf.start ? 0 : piecewiseIntegral(periodLawOf.cdf, periodLawOf.start, q, periodLawOf.kinks);
-  return tau * (mean - q) + below;
-}
-
 /**
- * The sum over a period's levels of E[rho_tau(Y - q_tau)], the integral of F below each quantile taken
+ * The sum over a period's levels of E[rho_tau(Y - q_tau)] for its clamped price Y with mean `mean` (see the
+ * header), the integral of F below each quantile taken
  * stretch by stretch from the one below it (the quantiles in ascending order), not from the start each time.
  */
 export function expectedPinballRow(periodLawOf, mean, levels, quantiles) {
@@ -112,7 +107,9 @@ export function expectedPinballExcess(periodLawOf, tau, q, reference) {
  * @param {Map<string, object[]>} lawsByDay per day, the periods' laws (process.js)
  * @param {Map<string, number[]>} meansByDay per day, the periods' true mean prices
  * @param {Map<string, { levels: number[], prices: number[][] }>} truthDays the true quantiles per day
- * @returns {(days: { day: string, levels: number[], prices: number[][] }[]) => { forecast: number, truth: number, ratio: number }}
+ * The forecasts must be at the truth's levels (every level of the truth, as the bench makes them).
+ * @returns {(days: { day: string, levels: number[], prices: number[][] }[]) => { forecast: number, truth: number,
+ *   ratio: number, coverage80: number, coverage90: number, belowMedian: number }}
  */
 export function expectedPinballScorer(lawsByDay, meansByDay, truthDays, setting, normalCdf) {
   const lawCache = new Map();
@@ -145,6 +142,10 @@ export function expectedPinballScorer(lawsByDay, meansByDay, truthDays, setting,
     const levelsOf = days[0]?.levels ?? [];
     const at = (level) => levelsOf.findIndex((l) => Math.abs(l - level) < 1e-9);
     const [q05, q10, q50, q90, q95] = [0.05, 0.1, 0.5, 0.9, 0.95].map(at);
+    // Each forecast level's column in the truth's rows (the same levels every day).
+    const truthLevels = days.length === 0 ? [] : truthDays.get(days[0].day).levels;
+    const truthColumn = levelsOf.map((level) => truthLevels.findIndex((l) => Math.abs(l - level) < 1e-9));
+    if (truthColumn.includes(-1) || truthColumn.length !== truthLevels.length) throw new Error('expectedPinballScorer: the forecasts must be at the truth\'s levels');
     let cover80 = 0;
     let cover90 = 0;
     let below = 0;
@@ -160,9 +161,7 @@ export function expectedPinballScorer(lawsByDay, meansByDay, truthDays, setting,
         below += F(row[q50]);
         periods++;
         row.forEach((q, k) => {
-          const level = forecast.levels[k];
-          const j = reference.levels.findIndex((l) => Math.abs(l - level) < 1e-9);
-          excess += expectedPinballExcess(laws[t], level, q, reference.prices[t][j]);
+          excess += expectedPinballExcess(laws[t], levelsOf[k], q, reference.prices[t][truthColumn[k]]);
           count++;
         });
       });

@@ -9,7 +9,7 @@
 import { describe, expect, it } from 'vitest';
 import { normalCdf } from '../../src/stats/normalCdf.js';
 // @ts-expect-error the bench is plain JavaScript without declarations
-import { adaptiveSimpson, expectedPinball, expectedPinballExcess, expectedPinballRow, periodLaw } from '../../bench/knownMarkets/expectedPinball.js';
+import { adaptiveSimpson, expectedPinballExcess, expectedPinballRow, periodLaw } from '../../bench/knownMarkets/expectedPinball.js';
 
 const phi = (z: number): number => Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);
 const normalLoss = (m: number, s: number, tau: number, q: number): number => {
@@ -38,7 +38,7 @@ describe('expected pinball loss under a known law', () => {
     const integrable = periodLaw(law, setting, normalCdf);
     for (const tau of [0.05, 0.3, 0.5, 0.9]) {
       for (const q of [m - 20, m - 3, m, m + 1.7, m + 25]) {
-        expect(expectedPinball(integrable, m, tau, q)).toBeCloseTo(normalLoss(m, s, tau, q), 9);
+        expect(expectedPinballRow(integrable, m, [tau], [q])).toBeCloseTo(normalLoss(m, s, tau, q), 9);
       }
     }
   });
@@ -56,7 +56,7 @@ describe('expected pinball loss under a known law', () => {
       for (const q of [-150, -60, 10, 55, 62, 80]) {
         const normalBelow = s * (((q - m) / s) * normalCdf((q - m) / s) + phi((q - m) / s));
         const exact = tau * (mean - q) + (1 - pDown) * normalBelow + pDown * uniformBelow(q);
-        expect(expectedPinball(integrable, mean, tau, q)).toBeCloseTo(exact, 8);
+        expect(expectedPinballRow(integrable, mean, [tau], [q])).toBeCloseTo(exact, 8);
       }
     }
   });
