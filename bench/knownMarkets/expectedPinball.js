@@ -140,11 +140,10 @@ export function expectedPinballScorer(lawsByDay, meansByDay, truthDays, setting,
     let count = 0;
     // Expected coverage of the central 80% and 90% intervals and share below q0.5: F(upper) - F(lower), F(q0.5).
     const levelsOf = days[0]?.levels ?? [];
-    const at = (level) => levelsOf.findIndex((l) => Math.abs(l - level) < 1e-9);
-    const [q05, q10, q50, q90, q95] = [0.05, 0.1, 0.5, 0.9, 0.95].map(at);
+    const [q05, q10, q50, q90, q95] = [0.05, 0.1, 0.5, 0.9, 0.95].map((level) => indexOfLevel(levelsOf, level));
     // Each forecast level's column in the truth's rows (the same levels every day).
     const truthLevels = days.length === 0 ? [] : truthDays.get(days[0].day).levels;
-    const truthColumn = levelsOf.map((level) => truthLevels.findIndex((l) => Math.abs(l - level) < 1e-9));
+    const truthColumn = levelsOf.map((level) => indexOfLevel(truthLevels, level));
     if (truthColumn.includes(-1) || truthColumn.length !== truthLevels.length) throw new Error('expectedPinballScorer: the forecasts must be at the truth\'s levels');
     let cover80 = 0;
     let cover90 = 0;
@@ -175,4 +174,9 @@ export function expectedPinballScorer(lawsByDay, meansByDay, truthDays, setting,
       belowMedian: below / periods,
     };
   };
+}
+
+/** The index of `level` among `levels` (equal to 1e-9), or -1. */
+function indexOfLevel(levels, level) {
+  return levels.findIndex((l) => Math.abs(l - level) < 1e-9);
 }
